@@ -1,0 +1,17 @@
+/** `phasegap init`: writes a commented starter design. */
+import { inputError } from '../../errors.js';
+import { starterDesign, type StarterTemplate } from '../starter.js';
+import type { Io } from '../io.js';
+import { emit } from '../output.js';
+
+export function runInit(io: Io, options: { readonly template: string; readonly out: string; readonly force: boolean }): number {
+  if (options.template !== 'nand' && options.template !== 'nor') {
+    throw inputError('--template', options.template, 'is not a template; allowed: nand, nor');
+  }
+  if (options.out !== '-' && io.exists(options.out) && !options.force) {
+    throw inputError('--out', options.out, 'already exists; pick another name or pass --force to overwrite');
+  }
+  emit(io, starterDesign(options.template as StarterTemplate), options.out);
+  if (options.out !== '-') io.stderr(`wrote ${options.out}; next: phasegap check ${options.out}\n`);
+  return 0;
+}

@@ -1,0 +1,50 @@
+/**
+ * Errors as data: every rejected input is described by where it is (a field path),
+ * what was received and what is allowed. Rendering to words happens once, at the edge.
+ */
+
+/** One problem found in the user's input. */
+export interface InputIssue {
+  /** Dotted field path, e.g. `corners.vdd[1]`, or a file name for file-level problems. */
+  readonly path: string;
+  /** The offending value as the user wrote it (stringified), if there is one. */
+  readonly value?: string;
+  /** What is allowed, in words. */
+  readonly allowed: string;
+}
+
+/** Thrown by the core for bad input or impossible physics; the CLI maps it to exit code 2. */
+export class InputError extends Error {
+  readonly issues: readonly InputIssue[];
+  constructor(issues: readonly InputIssue[]) {
+    super(issues.map(renderIssue).join('\n'));
+    this.name = 'InputError';
+    this.issues = issues;
+  }
+}
+
+export function inputError(path: string, value: unknown, allowed: string): InputError {
+  return new InputError([{ path, value: value === undefined ? undefined : showValue(value), allowed }]);
+}
+
+export function renderIssue(issue: InputIssue): string {
+  const where = issue.path === '' ? '(top level)' : issue.path;
+  return issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
+}
+
+export function showValue(value: unknown): string {
+  if (typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
+  const text = JSON.stringify(value);
+  return text === undefined ? String(value) : text.length > 60 ? `${text.slice(0, 57)}...` : text;
+}
+
+/** Formats a path array (from zod or our own walkers) as `a.b[2].c`. */
+export function formatPath(path: readonly PropertyKey[]): string {
+  let out = '';
+  for (const key of path) {
+    if (typeof key === 'number') out += `[${key}]`;
+    else out += out === '' ? String(key) : `.${String(key)}`;
+  }
+  return out;
+}

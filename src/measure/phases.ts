@@ -1,0 +1,127 @@
+/**
+ * Measurements of one simulated period (SPEC 2.3): both dead times at the 50 % points, the clean
+ * gap where neither phase is above 10 % of its swing, each phase's active width and duty, and
+ * any overlap. All times in seconds.
+ */
+import type { CompiledNetlist } from '../netlist/netlist.js';
+import type { SimulationResult } from '../sim/engine.js';
+
+/** One rising and one falling edge of a net in the period, with their transition times. */
+export interface NetCycle {
+  readonly net: string;
+  /** 50 % times of the rising and falling edges, s (absolute). */
+  readonly rise: number;
+  readonly fall: number;
+  readonly riseTransition: number;
+  readonly fallTransition: number;
+}
+
+export interface DeadTime {
+  /** Phase that turns off. */
+  readonly from: string;
+  /** Phase that turns on. */
+  readonly to: string;
+  /** From's falling 50 % point to to's rising 50 % point, s; negative when they overlap. */
+  readonly t50: number;
+  /** From's falling 10 % point to to's rising 10 % point, s. */
+  readonly gap: number;
+  /** Time of from's falling 50 % point, s (absolute). */
+  readonly start: number;
+}
+
+export interface PhaseMeasurement {
+  readonly ok: true;
+  readonly deadTimes: readonly [DeadTime, DeadTime];
+  /** Active (high) width of each phase and early phase at the 50 % points, s. */
+  readonly widths: Readonly<Record<string, number>>;
+  /** Active width over the period. */
+  readonly duty: Readonly<Record<string, number>>;
+  /** Largest time both phases are above 50 % together, s (0 if none). */
+  readonly overlap: number;
+  /** Edges of every named net (phases, complements, early phases). */
+  readonly cycles: Readonly<Record<string, NetCycle>>;
+}
+
+export interface MeasurementFailure {
+  readonly ok: false;
+  readonly reason: string;
+}
+
+/** Fraction of the swing at which the clean gap is measured. */
+export const GAP_LEVEL = 0.1;
+
+/** The one rising and one falling edge of a net in the period, or why there are not exactly two. */
+export function netCycle(result: SimulationResult, netlist: CompiledNetlist, name: string): NetCycle | string {
+  const id = netlist.netIndex.get(name);
+  if (id === undefined) return `${name} is not a net of the generator`;
+  const { edges } = result;
+  let rises = 0;
+  let falls = 0;
+  let rise = NaN;
+  let fall = NaN;
+  let riseTransition = NaN;
+  let fallTransition = NaN;
+  for (let i = 0; i < edges.count; i++) {
+    if (edges.net[i] !== id) continue;
+    if (edges.rising[i] === 1) {
+      rises++;
+      rise = edges.time[i]!;
+      riseTransition = edges.transition[i]!;
+    } else {
+      falls++;
+      fall = edges.time[i]!;
+      fallTransition = edges.transition[i]!;
+    }
+  }
+  if (rises === 0 && falls === 0) return `${name} never switches: it stays ${result.startValues[id] === 1 ? 'high' : 'low'} (the generator is stuck)`;
+  if (rises !== 1 || falls !== 1) return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
+  return { net: name, rise, fall, riseTransition, fallTransition };
+}
+
+/** Positive remainder of x modulo m. */
+function wrap(x: number, m: number): number {
+  const r = x % m;
+  return r < 0 ? r + m : r;
+}
+
+/** Active (high) width of a cycle, s. */
+export function highWidth(cycle: NetCycle, period: number): number {
+  return wrap(cycle.fall - cycle.rise, period);
+}
+
+/**
+ * Dead time from `a` turning off to `b` turning on. If b rises while a is low, the dead time is
+ * the (positive) wait; if b rises while a is still high, it is minus the time they overlap.
+ */
+export function deadTime(a: NetCycle, b: NetCycle, period: number): DeadTime {
+  const lowA = wrap(a.rise - a.fall, period);
+  const wait = wrap(b.rise - a.fall, period);
+  const t50 = wait <= lowA ? wait : -wrap(a.fall - b.rise, period);
+  const gap = t50 - (0.5 - GAP_LEVEL) * (a.fallTransition + b.riseTransition);
+  return { from: a.net, to: b.net, t50, gap, start: a.fall };
+}
+
+export function measurePhases(result: SimulationResult, netlist: CompiledNetlist): PhaseMeasurement | MeasurementFailure {
+  if (result.status !== 'settled') return { ok: false, reason: result.reason };
+  const src = netlist.source;
+  const names = [...src.phases, ...Object.values(src.complements), ...Object.values(src.early)];
+  const cycles: Record<string, NetCycle> = {};
+  for (const name of names) {
+    const cycle = netCycle(result, netlist, name);
+    if (typeof cycle === 'string') return { ok: false, reason: cycle };
+    cycles[name] = cycle;
+  }
+  const [p1, p2] = src.phases;
+  const c1 = cycles[p1]!;
+  const c2 = cycles[p2]!;
+  const T = result.period;
+  const deadTimes: [DeadTime, DeadTime] = [deadTime(c1, c2, T), deadTime(c2, c1, T)];
+  const widths: Record<string, number> = {};
+  const duty: Record<string, number> = {};
+  for (const name of [p1, p2, ...Object.values(src.early)]) {
+    widths[name] = highWidth(cycles[name]!, T);
+    duty[name] = widths[name] / T;
+  }
+  const overlap = Math.max(0, -deadTimes[0].t50, -deadTimes[1].t50);
+  return { ok: true, deadTimes, widths, duty, overlap, cycles };
+}

@@ -1,0 +1,82 @@
+/** Corner sets (SPEC 2.5): the cartesian product of the design's axes, or an explicit list. */
+import { InputError, inputError } from '../errors.js';
+import type { CornersSpec } from '../schema/design.js';
+import type { ProcessCard } from '../schema/process.js';
+import { cornerName, type Corner } from './corner.js';
+import { devicesAtCorner, thresholdAt } from './device.js';
+
+/** A corner with the design-file paths of the values that made it, for error messages. */
+export interface SourcedCorner {
+  readonly corner: Corner;
+  readonly paths: { readonly process: string; readonly vdd: string; readonly temperature: string };
+}
+
+export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
+  if (spec.list && (spec.process || spec.vdd || spec.temperature || spec.duty)) {
+    throw inputError('corners', Object.keys(spec).join(', '), 'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty');
+  }
+  const out: SourcedCorner[] = spec.list ? fromList(spec, card, nominalDuty) : fromAxes(spec, card, nominalDuty);
+  checkCorners(out, card);
+  return out;
+}
+
+function defaultProcess(card: ProcessCard): string {
+  return 'tt' in card.corners ? 'tt' : Object.keys(card.corners)[0] ?? 'tt';
+}
+
+function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
+  const processes = spec.process ?? [defaultProcess(card)];
+  const vdds = spec.vdd ?? [card.vddNominal];
+  const temperatures = spec.temperature ?? [card.t0];
+  const duties = spec.duty ?? [nominalDuty];
+  const showDuty = duties.length > 1;
+  const out: SourcedCorner[] = [];
+  processes.forEach((process, pi) => vdds.forEach((vdd, vi) => temperatures.forEach((temperature, ti) => duties.forEach((duty) => {
+    out.push({
+      corner: { name: cornerName(process, vdd, temperature, showDuty ? duty : undefined), process, vdd, temperature, duty },
+      paths: {
+        process: spec.process ? `corners.process[${pi}]` : 'corners.process',
+        vdd: spec.vdd ? `corners.vdd[${vi}]` : 'process.vddNominal',
+        temperature: spec.temperature ? `corners.temperature[${ti}]` : 'process.t0',
+      },
+    });
+  }))));
+  return out;
+}
+
+function fromList(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
+  const list = spec.list ?? [];
+  const showDuty = list.some((c) => c.duty !== undefined && c.duty !== nominalDuty);
+  return list.map((c, i) => {
+    const duty = c.duty ?? nominalDuty;
+    return {
+      corner: { name: cornerName(c.process, c.vdd, c.temperature, showDuty ? duty : undefined), process: c.process, vdd: c.vdd, temperature: c.temperature, duty },
+      paths: { process: `corners.list[${i}].process`, vdd: `corners.list[${i}].vdd`, temperature: `corners.list[${i}].temperature` },
+    };
+  });
+}
+
+/** Every corner must name a process corner of the card and let both devices turn on. */
+function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): void {
+  const known = Object.keys(card.corners);
+  const seen = new Set<string>();
+  for (const { corner, paths } of corners) {
+    if (!(corner.process in card.corners)) {
+      throw inputError(paths.process, corner.process, `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`);
+    }
+    if (seen.has(corner.name)) throw inputError('corners', corner.name, 'appears twice; every corner must be distinct');
+    seen.add(corner.name);
+    try {
+      devicesAtCorner(card, corner);
+    } catch (error) {
+      if (!(error instanceof InputError)) throw error;
+      const threshold = Math.max(thresholdOf(card, 'n', corner), thresholdOf(card, 'p', corner));
+      throw inputError(paths.vdd, `${corner.vdd} V`,
+        `is not above the device threshold at ${corner.name} (${threshold.toFixed(3)} V): a device cannot turn on at this corner; raise the supply or drop the corner`);
+    }
+  }
+}
+
+function thresholdOf(card: ProcessCard, type: 'n' | 'p', corner: Corner): number {
+  return thresholdAt(card[type], card.corners[corner.process]?.[type].dvth ?? 0, corner.temperature, card.t0);
+}

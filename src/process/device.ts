@@ -1,0 +1,92 @@
+/**
+ * A device type evaluated at a corner: threshold and drive after the process shift, the supply
+ * and the temperature.
+ *
+ * Drive follows the alpha-power law (T. Sakurai, A. R. Newton, IEEE JSSC 25(2):584-594, 1990):
+ *   I_D0 = W * K * (T/T0)^-m * (V_DD - Vth(T))^alpha,  Vth(T) = vth0 + dvth - kappa * (T - T0).
+ * Temperature inversion is not special-cased: it emerges where the threshold term outweighs the
+ * mobility term at small overdrive.
+ */
+import { inputError } from '../errors.js';
+import type { DeviceParams, DeviceType, ProcessCard } from '../schema/process.js';
+import type { Corner } from './corner.js';
+
+const KELVIN = 273.15;
+
+export interface DeviceAtCorner {
+  readonly type: DeviceType;
+  /** Threshold magnitude at this corner, V (before any body effect or mismatch). */
+  readonly vth: number;
+  /** Velocity-saturation index. */
+  readonly alpha: number;
+  /** Saturation current per metre of width at V_GS = V_DS = V_DD, A/m. */
+  readonly idsatPerWidth: number;
+  /** Drive constant at this corner and temperature, A/m/V^alpha (current = W * k * overdrive^alpha). */
+  readonly driveConstant: number;
+  /** Triode mu*Cox scaled for temperature and the corner's drive, A/V^2. */
+  readonly kprime: number;
+  /** Body-effect coefficient, V^0.5, and surface potential, V. */
+  readonly gamma: number;
+  readonly phi2f: number;
+  /** Capacitances per metre of width, F/m. */
+  readonly cgate: number;
+  readonly cdrain: number;
+  /** The card's raw parameters. */
+  readonly params: DeviceParams;
+}
+
+export interface CornerDevices {
+  readonly corner: Corner;
+  readonly vdd: number;
+  readonly n: DeviceAtCorner;
+  readonly p: DeviceAtCorner;
+  readonly card: ProcessCard;
+}
+
+/** Threshold magnitude at a temperature, V. */
+export function thresholdAt(params: DeviceParams, dvth: number, celsius: number, t0: number): number {
+  return params.vth0 + dvth - params.vthTempco * (celsius - t0);
+}
+
+/** Drive scale from mobility, (T/T0)^-m with temperatures in kelvin. */
+export function mobilityScale(params: DeviceParams, celsius: number, t0: number): number {
+  return Math.pow((celsius + KELVIN) / (t0 + KELVIN), -params.mobilityExponent);
+}
+
+/** Alpha-power saturation current per metre of width at a given gate overdrive, A/m; 0 below threshold. */
+export function saturationCurrent(driveConstant: number, alpha: number, overdrive: number): number {
+  return overdrive > 0 ? driveConstant * Math.pow(overdrive, alpha) : 0;
+}
+
+export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corner): DeviceAtCorner {
+  const params = card[type];
+  const shift = card.corners[corner.process]?.[type];
+  if (!shift) {
+    throw inputError('corners.process', corner.process,
+      `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`);
+  }
+  const vth = thresholdAt(params, shift.dvth, corner.temperature, card.t0);
+  const temperatureScale = mobilityScale(params, corner.temperature, card.t0);
+  const driveConstant = params.drive * shift.drive * temperatureScale;
+  if (!(corner.vdd > vth)) {
+    throw inputError(`corners (${corner.name})`, `${corner.vdd} V`,
+      `is not above the ${type}-device threshold at ${corner.name} (${vth.toFixed(3)} V): the device cannot turn on; raise the supply or drop this corner`);
+  }
+  return {
+    type,
+    vth,
+    alpha: params.alpha,
+    idsatPerWidth: saturationCurrent(driveConstant, params.alpha, corner.vdd - vth),
+    driveConstant,
+    kprime: params.kprime * shift.drive * temperatureScale,
+    gamma: params.gamma,
+    phi2f: params.phi2f,
+    cgate: params.cgate,
+    cdrain: params.cdrain,
+    params,
+  };
+}
+
+export function devicesAtCorner(card: ProcessCard, corner: Corner): CornerDevices {
+  return { corner, vdd: corner.vdd, n: deviceAtCorner(card, 'n', corner), p: deviceAtCorner(card, 'p', corner), card };
+}

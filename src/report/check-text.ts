@@ -1,0 +1,110 @@
+/** The human rendering of a check report: one row per corner, extremes marked, a summary. */
+import { formatEngineering, formatTime } from '../units/format.js';
+import type { CheckReport, CornerReport } from './check-report.js';
+import { renderTable, type Column } from './text-table.js';
+
+const MIN_MARK = ' v';
+const MAX_MARK = ' ^';
+
+function ps(seconds: number): string {
+  return `${Math.round(seconds * 1e12)}`;
+}
+
+function ns(seconds: number): string {
+  return (seconds * 1e9).toFixed(2);
+}
+
+function signed(seconds: number | null): string {
+  if (seconds === null) return 'n/a';
+  const text = formatTime(Math.abs(seconds));
+  return seconds < 0 ? `-${text}` : `+${text}`;
+}
+
+/** Index of the smallest and largest finite value of a column. */
+function extremes(values: ReadonlyArray<number | undefined>): { min: number; max: number } {
+  let min = -1;
+  let max = -1;
+  values.forEach((v, i) => {
+    if (v === undefined || !Number.isFinite(v)) return;
+    if (min < 0 || v < values[min]!) min = i;
+    if (max < 0 || v > values[max]!) max = i;
+  });
+  return { min, max };
+}
+
+function leastMargin(corner: CornerReport): number | null {
+  let least: number | null = null;
+  for (const c of corner.checks) {
+    if (c.margin === null) return null;
+    if (least === null || c.margin < least) least = c.margin;
+  }
+  return least;
+}
+
+export function renderCheckText(report: CheckReport): string {
+  const [a, b] = report.phases as [string, string];
+  const corners = report.corners;
+  type Series = { header: string; values: Array<number | undefined>; format: (s: number) => string; marks: 'both' | 'min' };
+  const series: Series[] = [
+    { header: `dead ${a}->${b} ps`, values: corners.map((c) => c.deadTimes[0]?.t50), format: ps, marks: 'both' },
+    { header: `dead ${b}->${a} ps`, values: corners.map((c) => c.deadTimes[1]?.t50), format: ps, marks: 'both' },
+    { header: `gap ${a}->${b} ps`, values: corners.map((c) => c.deadTimes[0]?.gap), format: ps, marks: 'min' },
+    { header: `gap ${b}->${a} ps`, values: corners.map((c) => c.deadTimes[1]?.gap), format: ps, marks: 'min' },
+    { header: `width ${a} ns`, values: corners.map((c) => c.widths[a]), format: ns, marks: 'min' },
+    { header: `width ${b} ns`, values: corners.map((c) => c.widths[b]), format: ns, marks: 'min' },
+  ];
+  const cells = series.map((s) => {
+    const { min, max } = extremes(s.values);
+    return s.values.map((v, i) => {
+      if (v === undefined) return '-';
+      const mark = i === min ? MIN_MARK : s.marks === 'both' && i === max ? MAX_MARK : '  ';
+      return s.format(v) + mark;
+    });
+  });
+  const columns: Column[] = [
+    { header: 'corner', align: 'left' },
+    ...series.map((s): Column => ({ header: s.header, align: 'right' })),
+    { header: 'least margin', align: 'right' },
+    { header: 'verdict', align: 'left' },
+  ];
+  const rows = corners.map((c, i) => [
+    c.name,
+    ...cells.map((col) => col[i]!),
+    signed(leastMargin(c)),
+    c.verdict === 'pass' ? 'pass' : `FAIL${c.reason ? ` (${c.reason})` : ''}`,
+  ]);
+  const out: string[] = [];
+  out.push(`${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`);
+  out.push('');
+  out.push(renderTable(columns, rows));
+  out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);
+  out.push('');
+  out.push(...summaryLines(report, series[0]!.values, series[1]!.values));
+  return out.join('\n') + '\n';
+}
+
+function summaryLines(report: CheckReport, first: Array<number | undefined>, second: Array<number | undefined>): string[] {
+  const lines: string[] = [];
+  const [a, b] = report.phases as [string, string];
+  for (const [label, values] of [[`${a}->${b}`, first], [`${b}->${a}`, second]] as const) {
+    const { min, max } = extremes(values);
+    if (min < 0) continue;
+    const lo = values[min]!;
+    const hi = values[max]!;
+    const spread = lo > 0 ? `, spread ${(hi / lo).toFixed(2)}x` : '';
+    lines.push(`dead time ${label}: ${formatTime(lo)} at ${report.corners[min]!.name} .. ${formatTime(hi)} at ${report.corners[max]!.name}${spread}`);
+  }
+  const lim = report.limiting;
+  if (lim) lines.push(`limiting: ${lim.check} at ${lim.corner}, margin ${signed(lim.margin)}`);
+  const failing = report.corners.flatMap((c) => c.checks.filter((k) => !k.pass).map((k) => ({ corner: c.name, check: k })));
+  if (failing.length > 0) {
+    lines.push(`failing checks: ${failing.length}`);
+    for (const f of failing.slice(0, 10)) lines.push(`  ${f.corner}: ${f.check.name}, margin ${signed(f.check.margin)}${f.check.detail ? ` (${f.check.detail})` : ''}`);
+    if (failing.length > 10) lines.push(`  ... and ${failing.length - 10} more (use --json for all)`);
+  }
+  const passing = report.corners.filter((c) => c.verdict === 'pass').length;
+  lines.push(`verdict: ${report.verdict === 'pass' ? 'PASS' : 'FAIL'} (${passing}/${report.corners.length} corners pass)`);
+  lines.push('');
+  lines.push(...report.cautions.map((c) => `caution: ${c}`));
+  return lines;
+}

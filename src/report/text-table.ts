@@ -1,0 +1,12 @@
+/** A plain monospace table: header, rule, rows; columns padded to their widest cell. */
+export interface Column {
+  readonly header: string;
+  readonly align: 'left' | 'right';
+}
+
+export function renderTable(columns: readonly Column[], rows: readonly (readonly string[])[]): string {
+  const widths = columns.map((c, i) => Math.max(c.header.length, ...rows.map((r) => (r[i] ?? '').length)));
+  const line = (cells: readonly string[]) =>
+    cells.map((cell, i) => (columns[i]!.align === 'left' ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!))).join('  ').trimEnd();
+  return [line(columns.map((c) => c.header)), widths.map((w) => '-'.repeat(w)).join('  '), ...rows.map(line)].join('\n');
+}

@@ -1,0 +1,122 @@
+/**
+ * The design file (SPEC 3): the single source of the design's types and of `phasegap schema`.
+ */
+import * as z from 'zod';
+import { quantity, ratio, temperature } from './fields.js';
+import { processSchema } from './process.js';
+
+const netName = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
+const size = ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 });
+
+export const CELL_KINDS = ['INV', 'NAND2', 'NAND3', 'NOR2', 'NOR3', 'BUF'] as const;
+
+const phaseNames = z.tuple([netName, netName]).default(['p1', 'p2'])
+  .describe('Names of the two phases; the first is active while the input clock is high');
+
+const commonTemplate = {
+  phases: phaseNames,
+  stages: z.number().int().min(0).max(64).default(4)
+    .describe('Inverters in each feedback delay chain; must be even (0, 2, 4, ...)'),
+  stageSize: z.union([size, z.array(size).min(1)]).default(1)
+    .describe('Size of every chain inverter, or one size per stage'),
+  stageLoad: quantity('F', 'Extra capacitance on every chain node (delay capacitors)', { atLeast: 0 }).default(0),
+  gateSize: size.default(1).describe('Size of the cross-coupled NAND/NOR gates'),
+  inputSize: size.default(1).describe('Size of the inverter that makes the complement of the input clock'),
+  buffer: z.array(size).min(0).max(12).default([2, 6])
+    .describe('Tapered output buffer from the chain end to each phase, sizes in order; nand needs an odd count, nor an even count'),
+  complementary: z.boolean().default(false)
+    .describe('Also produce each phase\'s complement (named <phase>b) through one inverter, for transmission gates'),
+  complementSize: size.optional().describe('Size of the complement inverter (default: the last buffer size)'),
+  earlyTap: z.number().int().min(0).max(64).default(0)
+    .describe('Also produce an early phase (named <phase>e) tapped this many stages before the chain end; even, 0 = none'),
+  earlyBuffer: z.array(size).max(12).optional()
+    .describe('Buffer for the early phase (default: same as buffer)'),
+};
+
+export const templateSchema = z.strictObject({
+  template: z.enum(['nand', 'nor']).describe('Cross-coupled NAND or NOR generator'),
+  ...commonTemplate,
+});
+
+export const gateSchema = z.strictObject({
+  name: z.string().min(1).describe('Instance name'),
+  cell: z.enum(CELL_KINDS).describe('Library cell'),
+  size: size.default(1),
+  inputs: z.array(netName).min(1).max(3).describe('Input nets in pin order'),
+  output: netName.describe('Output net'),
+});
+
+export const netlistSchema = z.strictObject({
+  template: z.literal('netlist').describe('A free-form netlist of library cells'),
+  clock: netName.default('clk').describe('The input clock net'),
+  phases: z.tuple([netName, netName]).describe('The two phase nets; the first is active while the clock is high'),
+  complements: z.record(netName, netName).default({}).describe('Phase net -> its complement net'),
+  early: z.record(netName, netName).default({}).describe('Phase net -> its early phase net'),
+  gates: z.array(gateSchema).min(1),
+});
+
+export const generatorSchema = z.discriminatedUnion('template', [templateSchema, netlistSchema]);
+
+const axes = {
+  process: z.array(z.string().min(1)).min(1).optional().describe('Process corner names from the process card'),
+  vdd: z.array(quantity('V', 'Supply', { above: 0 })).min(1).optional(),
+  temperature: z.array(temperature('Junction temperature')).min(1).optional(),
+  duty: z.array(ratio('Input clock duty cycle', { above: 0, below: 1 })).min(1).optional(),
+};
+
+export const cornerPointSchema = z.strictObject({
+  process: z.string().min(1),
+  vdd: quantity('V', 'Supply', { above: 0 }),
+  temperature: temperature('Junction temperature'),
+  duty: ratio('Input clock duty cycle', { above: 0, below: 1 }).optional(),
+});
+
+export const cornersSchema = z.strictObject({
+  ...axes,
+  list: z.array(cornerPointSchema).min(1).optional()
+    .describe('An explicit list of corners instead of the cartesian product of the axes'),
+}).describe('Cartesian product of the listed axes (missing axes take the nominal value), or an explicit list');
+
+export const requirementsSchema = z.strictObject({
+  deadTime: z.strictObject({
+    min: quantity('s', 'Smallest allowed dead time at the 50 % points').optional(),
+    max: quantity('s', 'Largest allowed dead time at the 50 % points', { above: 0 }).optional(),
+  }).optional(),
+  gap: z.strictObject({
+    min: quantity('s', 'Smallest allowed clean gap (neither phase above 10 % of its swing)').optional(),
+  }).optional(),
+  width: z.strictObject({
+    min: quantity('s', 'Shortest allowed active width of each phase, at the worst duty within tolerance', { above: 0 }).optional(),
+  }).optional(),
+  minYield: ratio('Smallest acceptable Monte Carlo yield', { above: 0, atMost: 1 }).optional(),
+});
+
+export const designSchema = z.strictObject({
+  name: z.string().min(1).describe('Design name, shown in every report'),
+  description: z.string().optional(),
+  process: z.union([z.string().min(1), processSchema])
+    .describe('Path to a process card (relative to the design file) or the card inline'),
+  clock: z.strictObject({
+    frequency: quantity('Hz', 'Input clock frequency', { above: 0 }),
+    duty: ratio('Nominal duty cycle of the input clock (fraction high)', { above: 0, below: 1 }).default(0.5),
+    dutyTolerance: ratio('Allowed duty error of the input clock, +/- fraction of the period', { atLeast: 0, below: 0.5 }).default(0),
+    transition: quantity('s', 'Full-swing transition time of the input clock edges', { above: 0 }).default(100e-12),
+  }),
+  generator: generatorSchema,
+  loads: z.record(netName, quantity('F', 'Extra capacitance on the net (wire and devices not modelled)', { atLeast: 0 }))
+    .default({}).describe('Extra capacitance on named nets'),
+  corners: cornersSchema.default({}),
+  montecarlo: z.strictObject({
+    samples: z.number().int().positive().max(100_000_000).default(1000),
+    seed: z.number().int().nonnegative().default(1),
+  }).optional(),
+  requirements: requirementsSchema.default({}),
+});
+
+export type Design = z.output<typeof designSchema>;
+export type GeneratorSpec = z.output<typeof generatorSchema>;
+export type TemplateSpec = z.output<typeof templateSchema>;
+export type NetlistSpec = z.output<typeof netlistSchema>;
+export type CellKind = (typeof CELL_KINDS)[number];
+export type Requirements = z.output<typeof requirementsSchema>;
+export type CornersSpec = z.output<typeof cornersSchema>;

@@ -1,0 +1,45 @@
+/** The process card: device parameters per type and named process corners (SPEC 2.1). */
+import * as z from 'zod';
+import { quantity, ratio, temperature } from './fields.js';
+
+export const deviceSchema = z.strictObject({
+  vth0: quantity('V', 'Threshold magnitude at the card temperature t0', { above: 0 }),
+  alpha: ratio('Velocity-saturation index of the alpha-power law (2 = square law)', { above: 1, atMost: 2 }),
+  drive: z.number().positive().describe(
+    'Saturation current per metre of width at 1 V of gate overdrive, A/m/V^alpha (I_D0 = W * drive * (V_DD - Vth)^alpha)'),
+  vthTempco: quantity('V', 'Threshold fall per kelvin (V/K), positive: Vth(T) = vth0 - vthTempco * (T - t0)', { atLeast: 0 }),
+  mobilityExponent: ratio('Mobility temperature exponent m: drive scales as (T/T0)^-m', { atLeast: 0, atMost: 4 }),
+  gamma: z.number().nonnegative().describe('Body-effect coefficient, V^0.5'),
+  phi2f: quantity('V', 'Surface potential 2*phiF', { above: 0 }),
+  cgate: z.number().positive().describe('Gate capacitance per metre of width at minimum length, F/m'),
+  cdrain: z.number().nonnegative().describe('Drain diffusion capacitance per metre of width, F/m'),
+  avt: z.number().nonnegative().describe('Pelgrom mismatch coefficient A_VT, V*m (5 mV*um = 5e-9)'),
+  kprime: z.number().positive().describe('Triode transconductance parameter mu*Cox, A/V^2, for switch on-resistance'),
+});
+
+const cornerShiftSchema = z.strictObject({
+  dvth: quantity('V', 'Threshold shift at this corner, added to the magnitude').default(0),
+  drive: ratio('Drive multiplier at this corner', { above: 0 }).default(1),
+});
+
+export const processSchema = z.strictObject({
+  name: z.string().min(1).describe('Name of the process card'),
+  description: z.string().optional().describe('Free text; say here if the card is invented'),
+  t0: temperature('Temperature at which vth0 and drive are given').default(27),
+  lmin: quantity('m', 'Minimum drawn channel length', { above: 0 }),
+  vddNominal: quantity('V', 'Nominal supply', { above: 0 }),
+  unit: z.strictObject({
+    wn: quantity('m', 'N width of the unit (size 1) inverter', { above: 0 }),
+    wp: quantity('m', 'P width of the unit (size 1) inverter', { above: 0 }),
+  }).describe('The unit inverter: size s of any cell drives like an inverter s times this one'),
+  n: deviceSchema.describe('N-channel device'),
+  p: deviceSchema.describe('P-channel device'),
+  corners: z.record(z.string().regex(/^[A-Za-z0-9_-]+$/), z.strictObject({
+    n: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
+    p: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
+  })).describe('Named process corners, each shifting Vth and scaling drive for n and p separately'),
+});
+
+export type ProcessCard = z.output<typeof processSchema>;
+export type DeviceParams = z.output<typeof deviceSchema>;
+export type DeviceType = 'n' | 'p';

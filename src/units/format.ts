@@ -1,0 +1,41 @@
+/** Formatting of SI numbers for people; only the output edge calls these. */
+
+/** Formats a time with an engineering prefix chosen for the magnitude: 812 ps, 1.23 ns, 25.0 ns. */
+export function formatTime(seconds: number, digits = 3): string {
+  return formatEngineering(seconds, 's', digits);
+}
+
+export function formatEngineering(value: number, unit: string, digits = 3): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (value === 0) return `0 ${unit}`;
+  const steps: ReadonlyArray<[number, string]> = [
+    [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'u'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
+  ];
+  const magnitude = Math.abs(value);
+  for (const [scale, prefix] of steps) {
+    if (magnitude >= scale * 0.9995) return `${trimNumber(value / scale, digits)} ${prefix}${unit}`;
+  }
+  return `${trimNumber(value / 1e-15, digits)} f${unit}`;
+}
+
+/** Fixed number of significant digits, but never exponent notation. */
+function trimNumber(value: number, digits: number): string {
+  const magnitude = Math.abs(value);
+  const decimals = magnitude >= 100 ? Math.max(0, digits - 3) : magnitude >= 10 ? Math.max(0, digits - 2) : Math.max(0, digits - 1);
+  return value.toFixed(decimals);
+}
+
+/** Time in picoseconds, rounded to whole ps (used in tables and labels). */
+export function formatPs(seconds: number): string {
+  return `${Math.round(seconds * 1e12)} ps`;
+}
+
+/** Supply in corner names: 1.62V, 1.8V, 0.9V (up to 3 decimals, trailing zeros dropped). */
+export function formatVolts(volts: number): string {
+  return `${Number(volts.toFixed(3))}V`;
+}
+
+/** Temperature in corner names: -40C, 27C, 125C. */
+export function formatCelsius(celsius: number): string {
+  return `${Number(celsius.toFixed(2))}C`;
+}
