@@ -6,12 +6,16 @@ import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
 import type { Check } from '../checks/check.js';
+import { switchChecks } from '../checks/switch-checks.js';
+import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
 
 export interface CornerResult {
   readonly corner: Corner;
   readonly simulation: SimulationResult;
   readonly measurement: PhaseMeasurement | MeasurementFailure;
+  /** Conduction of every switch in the reported period (empty if the run did not settle). */
+  readonly switches: readonly SwitchConduction[];
   readonly checks: readonly Check[];
   readonly pass: boolean;
 }
@@ -24,7 +28,12 @@ export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, simulat
   const simulation = simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition });
   const measurement = measurePhases(simulation, netlist);
   const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance });
-  return { corner, simulation, measurement, checks, pass: checks.every((c) => c.pass) };
+  const switches = measurement.ok ? resolved.switches.map((plan) => switchConduction(plan, simulation, netlist, devices)) : [];
+  if (measurement.ok) {
+    const byName = new Map(switches.map((s) => [s.name, s]));
+    checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period));
+  }
+  return { corner, simulation, measurement, switches, checks, pass: checks.every((c) => c.pass) };
 }
 
 export function evaluateAll(resolved: ResolvedDesign): CornerResult[] {

@@ -7,21 +7,29 @@ import { expandNetlist, expandTemplate } from '../netlist/template.js';
 import { netLoads } from '../netlist/loads.js';
 import type { DelayModel } from '../delay/model.js';
 import { analyticModel } from '../delay/analytic.js';
+import { checkLevelShifters, expandSwitches, type SwitchPlan } from '../switches/plan.js';
+import { checkConstraintReferences } from '../switches/references.js';
 
 export interface ResolvedDesign {
   readonly design: Design;
   readonly card: ProcessCard;
+  /** The generator plus the switches' driver cells. */
   readonly netlist: CompiledNetlist;
-  /** Capacitance on every net, F. */
+  /** Capacitance on every net, F, switch gates included. */
   readonly loads: Float64Array;
   readonly corners: readonly SourcedCorner[];
+  readonly switches: readonly SwitchPlan[];
   readonly model: DelayModel;
 }
 
 export function resolveDesign(design: Design, card: ProcessCard, model: DelayModel = analyticModel): ResolvedDesign {
   const gen = design.generator;
-  const netlist = compileNetlist(gen.template === 'netlist' ? expandNetlist(gen) : expandTemplate(gen));
-  const loads = netLoads(netlist, card, { path: 'loads', caps: design.loads });
+  const base = gen.template === 'netlist' ? expandNetlist(gen) : expandTemplate(gen);
+  const expansion = expandSwitches(base, design.switches, card);
+  const netlist = compileNetlist(expansion.netlist);
+  const loads = netLoads(netlist, card, { path: 'loads', caps: design.loads }, { path: 'switches', caps: expansion.loads });
   const corners = expandCorners(design.corners, card, design.clock.duty);
-  return { design, card, netlist, loads, corners, model };
+  checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
+  checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
+  return { design, card, netlist, loads, corners, switches: expansion.plans, model };
 }

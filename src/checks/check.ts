@@ -5,7 +5,10 @@ export type CheckKind =
   | 'dead-time-min'
   | 'dead-time-max'
   | 'gap-min'
-  | 'width-min';
+  | 'width-min'
+  | 'break-before-make'
+  | 'order'
+  | 'settle';
 
 export interface Check {
   readonly kind: CheckKind;

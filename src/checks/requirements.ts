@@ -1,6 +1,6 @@
 /** Requirement checks on a corner's phase measurements (dead time, clean gap, width, overlap). */
 import type { Requirements } from '../schema/design.js';
-import { formatPs, formatTime } from '../units/format.js';
+import { formatTime } from '../units/format.js';
 import type { MeasurementFailure, PhaseMeasurement } from '../measure/phases.js';
 import { marginCheck, type Check } from './check.js';
 
@@ -27,10 +27,10 @@ export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req:
   for (const d of m.deadTimes) {
     const min = req.deadTime?.min;
     const max = req.deadTime?.max;
-    if (min !== undefined) checks.push(marginCheck('dead-time-min', `dead ${label(d)} >= ${formatPs(min)}`, d.t50 - min));
-    if (max !== undefined) checks.push(marginCheck('dead-time-max', `dead ${label(d)} <= ${formatPs(max)}`, max - d.t50));
+    if (min !== undefined) checks.push(marginCheck('dead-time-min', `dead ${label(d)} >= ${formatTime(min)}`, d.t50 - min));
+    if (max !== undefined) checks.push(marginCheck('dead-time-max', `dead ${label(d)} <= ${formatTime(max)}`, max - d.t50));
     const gap = req.gap?.min;
-    if (gap !== undefined) checks.push(marginCheck('gap-min', `gap ${label(d)} >= ${formatPs(gap)}`, d.gap - gap));
+    if (gap !== undefined) checks.push(marginCheck('gap-min', `gap ${label(d)} >= ${formatTime(gap)}`, d.gap - gap));
   }
   const minWidth = req.width?.min;
   if (minWidth !== undefined) {

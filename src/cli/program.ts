@@ -5,6 +5,7 @@ import type { Io } from './io.js';
 import { runCheck } from './commands/check.js';
 import { runInit } from './commands/init.js';
 import { runSchema } from './commands/schema.js';
+import { runFmax } from './commands/fmax.js';
 
 export const EXIT_PASS = 0;
 export const EXIT_FAIL = 1;
@@ -36,6 +37,15 @@ export function buildProgram(io: Io, setCode: (code: number) => void): Command {
     .option('--json', 'print the machine report (SI units) instead of the table', false)
     .addOption(outOption('the report'))
     .action((design: string, opts: { set: string[]; json: boolean; out?: string }) => setCode(runCheck(io, design, opts)));
+
+  program.command('fmax')
+    .description('highest clock frequency at which every check holds at every corner, and what limits it')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--resolution <REL>', 'relative resolution of the search (default 0.001 = 0.1 %)')
+    .option('--json', 'print the machine report (SI units)', false)
+    .addOption(outOption('the report'))
+    .action((design: string, opts: { set: string[]; json: boolean; out?: string; resolution?: string }) => setCode(runFmax(io, design, opts)));
 
   program.command('schema')
     .description('print the JSON Schema of the design file')

@@ -94,10 +94,14 @@ function checkBuffer(path: string, sizes: readonly number[], parity: number, sty
   }
 }
 
+/** The two inverter sizes of a BUF of size s: a quarter-size first stage (at least min(1, s)), then s. */
+export function bufferStages(size: number): [number, number] {
+  return [Math.max(Math.min(1, size), size / 4), size];
+}
+
 /**
- * A free-form netlist from the design file; each BUF becomes two inverters, the first a quarter
- * of the size (never below the smaller of 1 and the buffer's size), through an internal net
- * `<name>.mid`.
+ * A free-form netlist from the design file; each BUF becomes two inverters (bufferStages)
+ * through an internal net `<name>.mid`.
  */
 export function expandNetlist(spec: NetlistSpec): Netlist {
   const gates: GateSpec[] = [];
@@ -105,9 +109,9 @@ export function expandNetlist(spec: NetlistSpec): Netlist {
     if (gate.cell === 'BUF') {
       if (gate.inputs.length !== 1) throw inputError(`generator.gates[${g}].inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell BUF takes exactly 1`);
       const mid = `${gate.name}.mid`;
-      const first = Math.max(Math.min(1, gate.size), gate.size / 4);
+      const [first, second] = bufferStages(gate.size);
       gates.push({ name: `${gate.name}.1`, cell: 'INV', size: first, inputs: gate.inputs.slice(0, 1), output: mid });
-      gates.push({ name: `${gate.name}.2`, cell: 'INV', size: gate.size, inputs: [mid], output: gate.output });
+      gates.push({ name: `${gate.name}.2`, cell: 'INV', size: second, inputs: [mid], output: gate.output });
     } else {
       gates.push({ name: gate.name, cell: gate.cell, size: gate.size, inputs: gate.inputs, output: gate.output });
     }

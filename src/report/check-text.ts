@@ -79,8 +79,37 @@ export function renderCheckText(report: CheckReport): string {
   out.push(renderTable(columns, rows));
   out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);
   out.push('');
+  out.push(...worstPerCheck(report));
+  out.push('');
   out.push(...summaryLines(report, series[0]!.values, series[1]!.values));
   return out.join('\n') + '\n';
+}
+
+/** Each check's worst corner and margin, switch constraints included; the limiting one first. */
+function worstPerCheck(report: CheckReport): string[] {
+  const worst = new Map<string, { kind: string; corner: string; margin: number | null; failing: number }>();
+  for (const c of report.corners) {
+    for (const k of c.checks) {
+      const seen = worst.get(k.name);
+      const fails = k.pass ? 0 : 1;
+      const worse = !seen || (k.margin === null && seen.margin !== null) || (k.margin !== null && seen.margin !== null && k.margin < seen.margin);
+      if (!seen) worst.set(k.name, { kind: k.kind, corner: c.name, margin: k.margin, failing: fails });
+      else {
+        seen.failing += fails;
+        if (worse) Object.assign(seen, { corner: c.name, margin: k.margin });
+      }
+    }
+  }
+  const rows = [...worst.entries()]
+    .sort(([, a], [, b]) => (a.margin ?? -Infinity) - (b.margin ?? -Infinity))
+    .map(([name, w]) => [w.kind, name, signed(w.margin), w.corner, w.failing === 0 ? 'pass' : `FAIL at ${w.failing} corner${w.failing > 1 ? 's' : ''}`]);
+  return [
+    'worst case of each check:',
+    renderTable([
+      { header: 'kind', align: 'left' }, { header: 'check', align: 'left' }, { header: 'margin', align: 'right' },
+      { header: 'at corner', align: 'left' }, { header: 'verdict', align: 'left' },
+    ], rows),
+  ];
 }
 
 function summaryLines(report: CheckReport, first: Array<number | undefined>, second: Array<number | undefined>): string[] {

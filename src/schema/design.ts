@@ -4,6 +4,7 @@
 import * as z from 'zod';
 import { quantity, ratio, temperature } from './fields.js';
 import { processSchema } from './process.js';
+import { constraintsSchema, switchSchema } from './switches.js';
 
 const netName = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
 const size = ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 });
@@ -88,6 +89,7 @@ export const requirementsSchema = z.strictObject({
   width: z.strictObject({
     min: quantity('s', 'Shortest allowed active width of each phase, at the worst duty within tolerance', { above: 0 }).optional(),
   }).optional(),
+  guard: quantity('s', 'Default break-before-make guard time', { atLeast: 0 }).default(0),
   minYield: ratio('Smallest acceptable Monte Carlo yield', { above: 0, atMost: 1 }).optional(),
 });
 
@@ -105,12 +107,14 @@ export const designSchema = z.strictObject({
   generator: generatorSchema,
   loads: z.record(netName, quantity('F', 'Extra capacitance on the net (wire and devices not modelled)', { atLeast: 0 }))
     .default({}).describe('Extra capacitance on named nets'),
+  switches: z.array(switchSchema).default([]).describe('Switches driven by the phases'),
+  constraints: constraintsSchema.default({ breakBeforeMake: [], order: [], settle: [] }),
   corners: cornersSchema.default({}),
   montecarlo: z.strictObject({
     samples: z.number().int().positive().max(100_000_000).default(1000),
     seed: z.number().int().nonnegative().default(1),
   }).optional(),
-  requirements: requirementsSchema.default({}),
+  requirements: requirementsSchema.prefault({}),
 });
 
 export type Design = z.output<typeof designSchema>;

@@ -1,0 +1,90 @@
+/**
+ * The highest clock frequency at which every check holds at every corner: bracket by doubling or
+ * halving from the design's frequency, then bisect to a relative resolution.
+ */
+import { evaluateCorner, limitingCheck, type Limiting } from './evaluate.js';
+import type { ResolvedDesign } from './resolve.js';
+import { Simulator } from '../sim/engine.js';
+
+export interface FmaxOptions {
+  /** Relative resolution of the answer, (hi - lo)/lo. */
+  readonly resolution?: number;
+  /** Search limits, Hz. */
+  readonly floor?: number;
+  readonly ceiling?: number;
+}
+
+export interface FmaxResult {
+  /** Highest passing frequency found, Hz; null when none passes down to the floor. */
+  readonly fmax: number | null;
+  readonly resolution: number;
+  /** The design's own clock frequency, Hz. */
+  readonly designFrequency: number;
+  /** What fails just above fmax (or at the design frequency when nothing passes). */
+  readonly limiting: Limiting | null;
+  /** Words when no answer exists or the ceiling was reached. */
+  readonly note: string;
+  readonly evaluations: number;
+}
+
+export const DEFAULT_RESOLUTION = 1e-3;
+
+export function atFrequency(resolved: ResolvedDesign, frequency: number): ResolvedDesign {
+  const design = resolved.design;
+  return { ...resolved, design: { ...design, clock: { ...design.clock, frequency } } };
+}
+
+export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): FmaxResult {
+  const resolution = options.resolution ?? DEFAULT_RESOLUTION;
+  const f0 = resolved.design.clock.frequency;
+  const floor = options.floor ?? f0 / 1e6;
+  const ceiling = options.ceiling ?? Math.max(f0 * 1e4, 1e12);
+  const simulator = new Simulator(resolved.netlist);
+  let evaluations = 0;
+  const trial = (f: number) => {
+    const at = atFrequency(resolved, f);
+    const results = at.corners.map(({ corner }) => evaluateCorner(at, corner, simulator));
+    evaluations += results.length;
+    return { pass: results.every((r) => r.pass), limiting: limitingCheck(results) };
+  };
+  const first = trial(f0);
+  let lo: number;
+  let hi: number;
+  let failing = first.limiting;
+  if (first.pass) {
+    lo = f0;
+    hi = f0 * 2;
+    for (;;) {
+      if (hi > ceiling) {
+        return { fmax: lo, resolution, designFrequency: f0, limiting: null, note: `still passing at the search ceiling ${ceiling} Hz`, evaluations };
+      }
+      const t = trial(hi);
+      if (!t.pass) { failing = t.limiting; break; }
+      lo = hi;
+      hi *= 2;
+    }
+  } else {
+    hi = f0;
+    lo = f0 / 2;
+    for (;;) {
+      if (lo < floor) {
+        return {
+          fmax: null, resolution, designFrequency: f0, limiting: first.limiting,
+          note: `no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`, evaluations,
+        };
+      }
+      const t = trial(lo);
+      if (t.pass) break;
+      hi = lo;
+      failing = t.limiting;
+      lo /= 2;
+    }
+  }
+  while ((hi - lo) / lo > resolution) {
+    const mid = Math.sqrt(lo * hi);
+    const t = trial(mid);
+    if (t.pass) lo = mid;
+    else { hi = mid; failing = t.limiting; }
+  }
+  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, note: '', evaluations };
+}

@@ -1,0 +1,83 @@
+/**
+ * Constraints at the switches (SPEC 2.4): break-before-make at every handover, event ordering and
+ * RC settling of series paths. Margins are seconds, positive when met, worst over the signal range.
+ */
+import type { ConstraintsSpec } from '../schema/switches.js';
+import { formatTime } from '../units/format.js';
+import { alignNear, type SwitchConduction } from '../switches/conduction.js';
+import { bitsToError, settlingTimeConstants } from '../switches/physics.js';
+import type { Check } from './check.js';
+
+function wrap(x: number, m: number): number {
+  const r = x % m;
+  return r < 0 ? r + m : r;
+}
+
+/**
+ * Time from `a` stopping to `b` starting, s: positive when b starts while a is off, minus the
+ * overlap when b starts while a is still on.
+ */
+export function handoverGap(a: SwitchConduction, b: SwitchConduction, period: number): number {
+  const offTime = wrap(a.on - a.off, period);
+  const wait = wrap(b.on - a.off, period);
+  return wait <= offTime ? wait : -wrap(a.off - b.on, period);
+}
+
+function unmeasurable(kind: Check['kind'], name: string, who: readonly SwitchConduction[]): Check | null {
+  const bad = who.find((s) => s.status !== 'switching');
+  return bad ? { kind, name, margin: null, pass: false, detail: bad.detail } : null;
+}
+
+/**
+ * All switch constraints at one corner. `windowDerating` (s) shortens every on-window for settling:
+ * the input duty error moves a phase's width one for one.
+ */
+export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction>,
+  period: number, windowDerating = 0): Check[] {
+  const get = (name: string) => byName.get(name)!;
+  const checks: Check[] = [];
+  for (const bbm of constraints.breakBeforeMake) {
+    const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];
+    const guard = bbm.guard ?? defaultGuard;
+    const name = bbm.name ?? `${a.name}/${b.name} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
+    const bad = unmeasurable('break-before-make', name, [a, b]);
+    if (bad) { checks.push(bad); continue; }
+    const margin = Math.min(handoverGap(a, b, period), handoverGap(b, a, period)) - guard;
+    checks.push({ kind: 'break-before-make', name, margin, pass: margin >= 0 });
+  }
+  for (const order of constraints.order) {
+    const first = get(order.first.switch);
+    const then = get(order.then.switch);
+    const name = order.name ?? `${first.name} ${order.first.event} before ${then.name} ${order.then.event}${order.min > 0 ? ` by ${formatTime(order.min)}` : ''}`;
+    const bad = unmeasurable('order', name, [first, then]);
+    if (bad) { checks.push(bad); continue; }
+    // Worst case: the first event as late as it gets, the second as early.
+    const tFirst = order.first.event === 'on' ? first.onLatest : first.off;
+    const tThen = order.then.event === 'on' ? then.on : then.offEarliest;
+    const margin = alignNear(tThen, tFirst, period) - tFirst - order.min;
+    checks.push({ kind: 'order', name, margin, pass: margin >= 0 });
+  }
+  for (const path of constraints.settle) {
+    const members = path.switches.map(get);
+    const epsilon = path.error ?? bitsToError(path.bits!);
+    const name = `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${epsilon}`}`;
+    const bad = unmeasurable('settle', name, members);
+    if (bad) { checks.push(bad); continue; }
+    const ref = members[0]!.onLatest;
+    let start = -Infinity;
+    let end = Infinity;
+    let resistance = 0;
+    for (const s of members) {
+      start = Math.max(start, alignNear(s.onLatest, ref, period));
+      end = Math.min(end, alignNear(s.offEarliest, ref, period));
+      resistance += s.ron;
+    }
+    const window = end - start - windowDerating;
+    const needed = settlingTimeConstants(epsilon) * resistance * path.capacitance;
+    const margin = window - needed;
+    checks.push(Number.isFinite(margin)
+      ? { kind: 'settle', name, margin, pass: margin >= 0 }
+      : { kind: 'settle', name, margin: null, pass: false, detail: `a switch of ${path.name} cannot conduct at some signal level (infinite on-resistance)` });
+  }
+  return checks;
+}

@@ -1,0 +1,52 @@
+/** `phasegap fmax DESIGN`: the highest safe clock frequency and what limits it. */
+import { findFmax } from '../../analysis/fmax.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { CAUTIONS } from '../../report/cautions.js';
+import { formatEngineering, formatTime } from '../../units/format.js';
+import { inputError } from '../../errors.js';
+import type { Io } from '../io.js';
+import { loadDesign } from '../load.js';
+import { emit, toJson } from '../output.js';
+
+export interface FmaxCommandOptions {
+  readonly set: readonly string[];
+  readonly json: boolean;
+  readonly out?: string;
+  readonly resolution?: string;
+}
+
+function parseResolution(text: string | undefined): number | undefined {
+  if (text === undefined) return undefined;
+  const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
+  const value = percent ? Number(percent[1]) / 100 : Number(text);
+  if (!(value > 0 && value < 0.5)) throw inputError('--resolution', text, 'must be a relative step between 0 and 0.5, e.g. 0.001 or 0.1%');
+  return value;
+}
+
+export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions): number {
+  const { design, card } = loadDesign(designPath, options.set);
+  const resolved = resolveDesign(design, card);
+  const result = findFmax(resolved, { resolution: parseResolution(options.resolution) });
+  const ok = result.fmax !== null && result.fmax >= result.designFrequency;
+  if (options.json) {
+    emit(io, toJson({ tool: 'phasegap', design: design.name, ...result, verdict: ok ? 'pass' : 'fail', cautions: CAUTIONS }), options.out);
+    return ok ? 0 : 1;
+  }
+  const lines: string[] = [];
+  const lim = result.limiting;
+  if (result.fmax === null) {
+    lines.push(`${design.name}: no safe clock frequency (${result.note})`);
+  } else {
+    lines.push(`${design.name}: fmax ${formatEngineering(result.fmax, 'Hz', 4)} (resolution ${(result.resolution * 100).toPrecision(2)} %), design clock ${formatEngineering(result.designFrequency, 'Hz', 4)}, ${(result.fmax / result.designFrequency).toFixed(2)}x headroom`);
+    if (result.note) lines.push(`note: ${result.note}`);
+  }
+  if (lim) {
+    const where = result.fmax === null ? 'fails at the design clock' : 'limited by';
+    lines.push(`${where}: ${lim.check} (${lim.kind}) at ${lim.corner}${lim.margin === null ? '' : `, margin ${lim.margin < 0 ? '-' : '+'}${formatTime(Math.abs(lim.margin))}`}`);
+  }
+  lines.push(`verdict: ${ok ? 'PASS' : 'FAIL'} (the design clock ${ok ? 'is at or below' : 'is above'} fmax)`);
+  lines.push(`${result.evaluations} corner evaluations`);
+  lines.push('', ...CAUTIONS.map((c) => `caution: ${c}`));
+  emit(io, `${lines.join('\n')}\n`, options.out);
+  return ok ? 0 : 1;
+}

@@ -1,0 +1,68 @@
+/** Switches and their constraints in the design file (SPEC 2.4). */
+import * as z from 'zod';
+import { quantity, ratio } from './fields.js';
+import { level } from './level.js';
+
+const name = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.-]*$/, 'must start with a letter or _ and use letters, digits, _ . -');
+const netName = z.string().min(1);
+
+const driverStage = z.strictObject({
+  cell: z.enum(['INV', 'BUF']).describe('Driver cell between the phase net and the switch gate'),
+  size: ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 }).default(1),
+});
+
+const levelShifter = z.strictObject({
+  delay: quantity('s', 'Delay of the level shifter, input 50 % to output 50 %', { atLeast: 0 }),
+  transition: quantity('s', 'Output transition time (default: the input\'s)', { above: 0 }).optional(),
+  low: level('Low level of the shifted gate swing'),
+  high: level('High level of the shifted gate swing'),
+  invert: z.boolean().default(false).describe('An inverting level shifter'),
+});
+
+const signal = z.union([
+  level('Voltage the switch passes'),
+  z.strictObject({ min: level('Lowest voltage the switch passes'), max: level('Highest voltage the switch passes') }),
+]);
+
+export const switchSchema = z.strictObject({
+  name,
+  type: z.enum(['nmos', 'pmos', 'tgate']).describe('Switch device; a tgate is an nmos and a pmos in parallel'),
+  w: quantity('m', 'Width (the n device of a tgate)', { above: 0 }),
+  l: quantity('m', 'Length', { above: 0 }),
+  wp: quantity('m', 'Width of the p device of a tgate (default: w scaled by the unit inverter\'s wp/wn)', { above: 0 }).optional(),
+  gate: netName.describe('Net that drives the gate (the n gate of a tgate)'),
+  gateBar: netName.optional().describe('Net that drives the p gate of a tgate (usually the phase complement)'),
+  driver: z.array(driverStage).max(8).default([]).describe('Cells from the net to the gate, in order (each INV inverts)'),
+  levelShifter: levelShifter.optional().describe('A level shifter after the driver, with its own delay and swing'),
+  signal: signal.prefault(0).describe('Terminal voltage the switch passes: one level or a range {min, max}; the worst point is used'),
+  bulk: level('Body voltage (default: 0 V for n devices, the highest gate or signal level for p devices)').optional(),
+});
+
+const eventRef = z.strictObject({
+  switch: name.describe('Switch name'),
+  event: z.enum(['on', 'off']).describe('The instant it starts (on) or stops (off) conducting'),
+});
+
+export const constraintsSchema = z.strictObject({
+  breakBeforeMake: z.array(z.strictObject({
+    name: z.string().optional(),
+    between: z.tuple([name, name]).describe('Two switches that must never conduct together'),
+    guard: quantity('s', 'Least time between one stopping and the other starting (default: requirements.guard)', { atLeast: 0 }).optional(),
+  })).default([]),
+  order: z.array(z.strictObject({
+    name: z.string().optional(),
+    first: eventRef,
+    then: eventRef,
+    min: quantity('s', 'Least time from the first event to the second', { atLeast: 0 }).default(0),
+  })).default([]).describe('Event ordering, e.g. the bottom-plate switch opens before the top-plate one'),
+  settle: z.array(z.strictObject({
+    name: z.string().min(1),
+    switches: z.array(name).min(1).describe('Switches in series in the path'),
+    capacitance: quantity('F', 'Capacitance the path charges', { above: 0 }),
+    error: ratio('Allowed settling error as a fraction', { above: 0, below: 1 }).optional(),
+    bits: z.number().int().min(1).max(24).optional().describe('Allowed error as N bits: half an LSB, 2^-(N+1)'),
+  })).default([]),
+});
+
+export type SwitchSpec = z.output<typeof switchSchema>;
+export type ConstraintsSpec = z.output<typeof constraintsSchema>;

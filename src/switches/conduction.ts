@@ -1,0 +1,151 @@
+/**
+ * When each switch conducts at one corner (SPEC 2.4): the instants its gate ramp crosses the
+ * device's turn-on level, V_S + V_TN for an n device and V_S - |V_TP| for a p device, with body
+ * effect, at every point of the signal range it passes. A tgate conducts while either device does.
+ */
+import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
+import type { SimulationResult } from '../sim/engine.js';
+import { netCycle } from '../measure/phases.js';
+import { levelAt } from '../schema/level.js';
+import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
+import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
+
+/** Points across the signal range at which a switch is evaluated (ends included). */
+const SIGNAL_POINTS = 9;
+
+export interface SwitchConduction {
+  readonly name: string;
+  readonly type: SwitchPlan['type'];
+  /** 'switching' when it turns on and off once per period at every signal point. */
+  readonly status: 'switching' | 'never' | 'always' | 'unknown';
+  /** Words for a status other than switching. */
+  readonly detail: string;
+  /** Widest conduction over the signal range: earliest turn-on and latest turn-off, s (absolute). */
+  readonly on: number;
+  readonly off: number;
+  /** Narrowest conduction: latest turn-on and earliest turn-off, s (absolute). */
+  readonly onLatest: number;
+  readonly offEarliest: number;
+  /** Worst (largest) triode on-resistance over the signal range with the gate fully driven, ohm. */
+  readonly ron: number;
+}
+
+/** x - ref wrapped into (-T/2, T/2], added back to ref: the copy of x nearest ref. */
+export function alignNear(x: number, ref: number, period: number): number {
+  let d = (x - ref) % period;
+  if (d > period / 2) d -= period;
+  else if (d <= -period / 2) d += period;
+  return ref + d;
+}
+
+interface Interval {
+  readonly state: 'switching' | 'never' | 'always';
+  readonly on: number;
+  readonly off: number;
+}
+
+interface GateWave {
+  readonly rise: GateRamp;
+  readonly fall: GateRamp;
+}
+
+function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, result: SimulationResult, netlist: CompiledNetlist, vdd: number): GateWave | string {
+  const cycle = netCycle(result, netlist, device.net);
+  if (typeof cycle === 'string') return `its gate net ${cycle}`;
+  const ls = plan.levelShifter;
+  const low = ls ? levelAt(ls.low, vdd) : 0;
+  const high = ls ? levelAt(ls.high, vdd) : vdd;
+  const delay = ls ? ls.delay : 0;
+  const riseT = ls?.transition ?? cycle.riseTransition;
+  const fallT = ls?.transition ?? cycle.fallTransition;
+  const up = { t50: cycle.rise + delay, transition: ls?.invert ? fallT : riseT };
+  const down = { t50: cycle.fall + delay, transition: ls?.invert ? riseT : fallT };
+  const [riseEdge, fallEdge] = ls?.invert ? [down, up] : [up, down];
+  return {
+    rise: { ...riseEdge, low, high, rising: true },
+    fall: { ...fallEdge, low, high, rising: false },
+  };
+}
+
+function deviceAt(kind: 'n' | 'p', devices: CornerDevices): DeviceAtCorner {
+  return kind === 'n' ? devices.n : devices.p;
+}
+
+/** Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven. */
+function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number) {
+  const sigMax = levelAt(plan.signal.max, vdd);
+  if (device.kind === 'n') {
+    const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : 0;
+    const vt = bodyThreshold(d.vth, d.gamma, d.phi2f, vs - bulk);
+    return { level: vs + vt, overdrive: high - vs - vt };
+  }
+  const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : Math.max(high, sigMax);
+  const vt = bodyThreshold(d.vth, d.gamma, d.phi2f, bulk - vs);
+  return { level: vs - vt, overdrive: vs - vt - low };
+}
+
+function deviceInterval(device: SwitchDevicePlan, wave: GateWave, level: number): Interval {
+  const { low, high } = wave.rise;
+  if (device.kind === 'n') {
+    if (level >= high) return { state: 'never', on: NaN, off: NaN };
+    if (level <= low) return { state: 'always', on: NaN, off: NaN };
+    return { state: 'switching', on: rampCrossing(wave.rise, level), off: rampCrossing(wave.fall, level) };
+  }
+  if (level <= low) return { state: 'never', on: NaN, off: NaN };
+  if (level >= high) return { state: 'always', on: NaN, off: NaN };
+  return { state: 'switching', on: rampCrossing(wave.fall, level), off: rampCrossing(wave.rise, level) };
+}
+
+/** Union of two devices' conduction (a tgate); overlapping intervals are assumed (their phases agree). */
+function union(a: Interval, b: Interval, period: number): Interval {
+  if (a.state === 'always' || b.state === 'always') return { state: 'always', on: NaN, off: NaN };
+  if (a.state === 'never') return b;
+  if (b.state === 'never') return a;
+  return {
+    state: 'switching',
+    on: Math.min(a.on, alignNear(b.on, a.on, period)),
+    off: Math.max(a.off, alignNear(b.off, a.off, period)),
+  };
+}
+
+export function switchConduction(plan: SwitchPlan, result: SimulationResult, netlist: CompiledNetlist, devices: CornerDevices): SwitchConduction {
+  const vdd = devices.vdd;
+  const T = result.period;
+  const failed = (status: SwitchConduction['status'], detail: string): SwitchConduction =>
+    ({ name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity });
+  const waves: GateWave[] = [];
+  for (const device of plan.devices) {
+    const wave = gateWave(plan, device, result, netlist, vdd);
+    if (typeof wave === 'string') return failed('unknown', wave);
+    waves.push(wave);
+  }
+  const vMin = levelAt(plan.signal.min, vdd);
+  const vMax = levelAt(plan.signal.max, vdd);
+  const points = vMin === vMax ? 1 : SIGNAL_POINTS;
+  let on = NaN; let off = NaN; let onLatest = NaN; let offEarliest = NaN;
+  let ron = 0;
+  for (let k = 0; k < points; k++) {
+    const vs = points === 1 ? vMin : vMin + ((vMax - vMin) * k) / (points - 1);
+    let interval: Interval = { state: 'never', on: NaN, off: NaN };
+    let conductance = 0;
+    plan.devices.forEach((device, i) => {
+      const wave = waves[i]!;
+      const d = deviceAt(device.kind, devices);
+      const { level, overdrive } = deviceLevels(plan, device, d, vs, wave.rise.low, wave.rise.high, vdd);
+      interval = union(interval, deviceInterval(device, wave, level), T);
+      const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
+      if (Number.isFinite(r)) conductance += 1 / r;
+    });
+    if (interval.state === 'never') return failed('never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
+    if (interval.state === 'always') return failed('always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
+    const onK = Number.isNaN(on) ? interval.on : alignNear(interval.on, on, T);
+    const offK = Number.isNaN(off) ? interval.off : alignNear(interval.off, off, T);
+    on = Number.isNaN(on) ? onK : Math.min(on, onK);
+    off = Number.isNaN(off) ? offK : Math.max(off, offK);
+    onLatest = Number.isNaN(onLatest) ? onK : Math.max(onLatest, onK);
+    offEarliest = Number.isNaN(offEarliest) ? offK : Math.min(offEarliest, offK);
+    ron = Math.max(ron, conductance > 0 ? 1 / conductance : Infinity);
+  }
+  return { name: plan.name, type: plan.type, status: 'switching', detail: '', on, off, onLatest, offEarliest, ron };
+}
