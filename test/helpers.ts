@@ -48,3 +48,19 @@ export function cli(...argv: string[]): CliRun {
 export function tempDir(prefix = 'phasegap-test-'): string {
   return mkdtempSync(join(tmpdir(), prefix));
 }
+
+import { parse as parseYaml } from 'yaml';
+import { designSchema, type Design } from '../src/schema/design.js';
+import { parseWith } from '../src/schema/validate.js';
+import { loadProcess } from '../src/cli/load.js';
+import { resolveDesign, type ResolvedDesign } from '../src/analysis/resolve.js';
+
+/** A design from YAML text whose `process` names a card under fixtures/processes (by name). */
+export function designFromYaml(text: string): Design {
+  return parseWith(designSchema, parseYaml(text));
+}
+
+/** Resolves a YAML design against fixtures/processes/<card>.yaml. */
+export function resolveYaml(text: string, card = 'generic180'): ResolvedDesign {
+  return resolveDesign(designFromYaml(text), loadProcess(processCard(card)));
+}

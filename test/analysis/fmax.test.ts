@@ -1,0 +1,57 @@
+import { describe, it, expect } from 'vitest';
+import { findFmax } from '../../src/analysis/fmax.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { cli, design } from '../helpers.js';
+
+function fmaxOf(overrides: string[] = []) {
+  const { design: d, card } = loadDesign(design('doubler'), overrides);
+  return findFmax(resolveDesign(d, card));
+}
+
+describe('findFmax', () => {
+  it('is consistent with check: passes at 0.97 fmax and fails at 1.03 fmax', () => {
+    const r = fmaxOf();
+    expect(r.fmax).not.toBeNull();
+    const f = r.fmax!;
+    expect(cli('check', design('doubler'), '--set', `clock.frequency=${0.97 * f}`).code).toBe(0);
+    expect(cli('check', design('doubler'), '--set', `clock.frequency=${1.03 * f}`).code).toBe(1);
+  });
+
+  it('rises when the settle capacitance falls', () => {
+    const base = fmaxOf();
+    const lighter = fmaxOf(['constraints.settle[0].capacitance=5pF']);
+    expect(base.limiting?.kind).toBe('settle');
+    expect(lighter.fmax!).toBeGreaterThan(base.fmax!);
+  });
+
+  it('reports no frequency when a frequency-independent check fails', () => {
+    const r = findFmax(resolveDesign(loadDesign(design('too-tight')).design, loadDesign(design('too-tight')).card));
+    expect(r.fmax).toBeNull();
+    expect(r.limiting?.kind).toBe('break-before-make');
+    expect(r.note).toContain('does not depend on the clock frequency');
+  });
+});
+
+describe('phasegap fmax', () => {
+  it('prints the frequency, the limiting check and corner; --json has fmax in Hz and limiting', () => {
+    const text = cli('fmax', design('doubler'));
+    expect(text.code).toBe(0);
+    expect(text.stdout).toMatch(/fmax \d+\.\d+ MHz/);
+    expect(text.stdout).toContain('limited by: flying-cap charge');
+    const json = JSON.parse(cli('fmax', design('doubler'), '--json').stdout);
+    expect(json.fmax).toBeGreaterThan(20e6);
+    expect(json.limiting.corner).toMatch(/^[a-z]+\/[\d.]+V\/-?\d+C$/);
+    expect(json.resolution).toBe(0.001);
+  });
+
+  it('exits 1 when the design clock is above fmax', () => {
+    expect(cli('fmax', design('doubler'), '--set', 'clock.frequency=60MHz').code).toBe(1);
+  });
+
+  it('rejects a bad resolution with exit 2 naming the flag', () => {
+    const r = cli('fmax', design('doubler'), '--resolution', '2');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('--resolution');
+  });
+});

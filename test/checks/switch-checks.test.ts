@@ -1,0 +1,89 @@
+import { describe, it, expect } from 'vitest';
+import { evaluateCorner } from '../../src/analysis/evaluate.js';
+import { Simulator } from '../../src/sim/engine.js';
+import { handoverGap } from '../../src/checks/switch-checks.js';
+import type { SwitchConduction } from '../../src/switches/conduction.js';
+import { expectClose, resolveYaml } from '../helpers.js';
+
+const design = (constraints: string, guard = '0') => `
+name: t
+process: unused
+clock: { frequency: 20MHz, transition: 200ps }
+generator: { template: nand, stages: 4, stageLoad: 30fF, buffer: [2, 6, 18] }
+loads: { p1: 0.5pF, p2: 0.5pF }
+corners: { process: [tt], vdd: [1.8V], temperature: [27] }
+requirements: { guard: ${guard} }
+switches:
+  - { name: a, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0V }
+  - { name: b, type: nmos, w: 4um, l: 0.18um, gate: p2, signal: 0V }
+constraints:
+${constraints}`;
+
+function run(text: string) {
+  const resolved = resolveYaml(text);
+  return evaluateCorner(resolved, resolved.corners[0]!.corner, new Simulator(resolved.netlist));
+}
+
+describe('break-before-make', () => {
+  it('equals the 50 % dead time minus both switches\' crossing offsets (hand case)', () => {
+    const r = run(design('  breakBeforeMake: [{ between: [a, b] }]', '25ps'));
+    const m = r.measurement;
+    if (!m.ok) throw new Error(m.reason);
+    // Two nmos switches passing 0 V with no body effect open and close at V_G = V_TN = 0.45 V
+    // (generic180, tt/27C). On a linear ramp of time t_T that is (1/2 - V_TN/V_DD)*t_T from 50 %:
+    // a turns off that much after p1's 50 % fall, b turns on that much before p2's 50 % rise, so
+    // margin = dead - (1/2 - 0.45/1.8) * (t_fall(p1) + t_rise(p2)) - guard, at each handover.
+    const offset = 0.5 - 0.45 / 1.8;
+    const [d12, d21] = m.deadTimes;
+    const expected12 = d12.t50 - offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition) - 25e-12;
+    const expected21 = d21.t50 - offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition) - 25e-12;
+    const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
+    expectClose(bbm.margin!, Math.min(expected12, expected21), 1e-15, 'abs');
+    expect(bbm.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
+  });
+
+  it('fails when the guard exceeds the handover gap', () => {
+    const r = run(design('  breakBeforeMake: [{ between: [a, b], guard: 5ns }]'));
+    const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
+    expect(bbm.pass).toBe(false);
+    expect(bbm.margin!).toBeLessThan(0);
+  });
+});
+
+describe('handoverGap', () => {
+  const sw = (on: number, off: number): SwitchConduction =>
+    ({ name: 's', type: 'nmos', status: 'switching', detail: '', on, off, onLatest: on, offEarliest: off, ron: 1 });
+  it('is the wait when the second starts while the first is off, across the period boundary too', () => {
+    expectClose(handoverGap(sw(0, 20e-9), sw(21e-9, 45e-9), 50e-9), 1e-9, 1e-12);
+    expectClose(handoverGap(sw(21e-9, 45e-9), sw(50.5e-9, 70e-9), 50e-9), 5.5e-9, 1e-12);
+  });
+  it('is minus the overlap when the second starts before the first stops', () => {
+    expectClose(handoverGap(sw(0, 20e-9), sw(19.7e-9, 45e-9), 50e-9), -0.3e-9, 1e-12);
+  });
+});
+
+describe('order', () => {
+  it('measures the early phase switch opening before the main one (bottom-plate sampling)', () => {
+    const text = design('  order: [{ first: { switch: e, event: off }, then: { switch: a, event: off }, min: 10ps }]')
+      .replace('buffer: [2, 6, 18] }', 'buffer: [2, 6, 18], earlyTap: 2 }')
+      .replace('switches:\n', 'switches:\n  - { name: e, type: nmos, w: 4um, l: 0.18um, gate: p1e, signal: 0V }\n');
+    const r = run(text);
+    const order = r.checks.find((c) => c.kind === 'order')!;
+    const e = r.switches.find((s) => s.name === 'e')!;
+    const a = r.switches.find((s) => s.name === 'a')!;
+    expectClose(order.margin!, a.offEarliest - e.off - 10e-12, 1e-15, 'abs');
+    expect(order.pass).toBe(true);
+  });
+});
+
+describe('settle', () => {
+  it('requires ln(1/eps) * R_on * C of on-window and fails when the capacitance is too big', () => {
+    const small = run(design('  settle: [{ name: p, switches: [a], capacitance: 1pF, bits: 10 }]'));
+    const big = run(design('  settle: [{ name: p, switches: [a], capacitance: 2nF, bits: 10 }]'));
+    const a = small.switches[0]!;
+    const window = a.offEarliest - a.onLatest;
+    const need = Math.log(Math.pow(2, 11)) * a.ron * 1e-12;
+    expectClose(small.checks.find((c) => c.kind === 'settle')!.margin!, window - need, 1e-15, 'abs');
+    expect(big.checks.find((c) => c.kind === 'settle')!.pass).toBe(false);
+  });
+});

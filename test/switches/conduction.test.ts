@@ -1,0 +1,136 @@
+import { describe, it, expect } from 'vitest';
+import { evaluateCorner } from '../../src/analysis/evaluate.js';
+import { Simulator } from '../../src/sim/engine.js';
+import type { ResolvedDesign } from '../../src/analysis/resolve.js';
+import { compileNetlist } from '../../src/netlist/netlist.js';
+import { expandSwitches } from '../../src/switches/plan.js';
+import { switchConduction } from '../../src/switches/conduction.js';
+import { devicesAtCorner } from '../../src/process/device.js';
+import { loadProcess } from '../../src/cli/load.js';
+import { designFromYaml, expectClose, processCard, resolveYaml } from '../helpers.js';
+
+function base(switches: string, extra = ''): string {
+  return `
+name: t
+process: unused
+clock: { frequency: 20MHz, transition: 200ps }
+generator: { template: nand, stages: 4, stageLoad: 30fF, buffer: [2, 6, 18], complementary: true }
+loads: { p1: 0.5pF, p2: 0.5pF }
+corners: { process: [tt], vdd: [1.8V], temperature: [27] }
+switches:
+${switches}
+${extra}`;
+}
+
+function at(resolved: ResolvedDesign) {
+  return evaluateCorner(resolved, resolved.corners[0]!.corner, new Simulator(resolved.netlist));
+}
+
+function conduction(switches: string, extra = '') {
+  const r = at(resolveYaml(base(switches, extra)));
+  return { result: r, byName: new Map(r.switches.map((s) => [s.name, s])) };
+}
+
+describe('switchConduction', () => {
+  it('turns an nmos off earlier and on later when it passes a higher voltage', () => {
+    const { byName } = conduction(`
+  - { name: lo, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.2V }
+  - { name: hi, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.8V }`);
+    const lo = byName.get('lo')!;
+    const hi = byName.get('hi')!;
+    expect(hi.off).toBeLessThan(lo.off);
+    expect(hi.on).toBeGreaterThan(lo.on);
+  });
+
+  it('places the nmos crossing where the linear ramp reaches V_S + V_T (body effect included)', () => {
+    const { result, byName } = conduction(`  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.3V }`);
+    const m = result.measurement;
+    if (!m.ok) throw new Error(m.reason);
+    const cycle = m.cycles.p1!;
+    // Hand formula (REFERENCES 6, derived): off = t50 + t_f * ((V_DD - V_x)/V_DD - 1/2), V_x = V_S + V_T(V_SB).
+    const card = { vth: 0.45, gamma: 0.45, phi2f: 0.85 }; // generic180 n device at tt/27C
+    const vx = 0.3 + card.vth + card.gamma * (Math.sqrt(card.phi2f + 0.3) - Math.sqrt(card.phi2f));
+    const expectedOff = cycle.fall + cycle.fallTransition * ((1.8 - vx) / 1.8 - 0.5);
+    const expectedOn = cycle.rise + cycle.riseTransition * (vx / 1.8 - 0.5);
+    expectClose(byName.get('s')!.off, expectedOff, 1e-12, 'abs');
+    expectClose(byName.get('s')!.on, expectedOn, 1e-12, 'abs');
+  });
+
+  it('takes the worst point of a signal range: widest and narrowest conduction from its two ends', () => {
+    const { byName } = conduction(`
+  - { name: range, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: { min: 0.2V, max: 0.8V } }
+  - { name: lo, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.2V }
+  - { name: hi, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.8V }`);
+    const range = byName.get('range')!;
+    expectClose(range.on, byName.get('lo')!.on, 1e-15, 'abs');
+    expectClose(range.off, byName.get('lo')!.off, 1e-15, 'abs');
+    expectClose(range.onLatest, byName.get('hi')!.on, 1e-15, 'abs');
+    expectClose(range.offEarliest, byName.get('hi')!.off, 1e-15, 'abs');
+    expect(range.ron).toBeCloseTo(byName.get('hi')!.ron, 6);
+  });
+
+  it('lengthens a tgate\'s conduction when its complement lags the phase (same slews)', () => {
+    // Hand-made period: phase a rises at 1 ns and falls at 20 ns, its complement ab mirrors it
+    // `skew` later; every ramp 200 ps. Only the skew changes between the two runs.
+    const netlist = compileNetlist({
+      clock: 'clk', phases: ['a', 'b'], complements: {}, early: {}, loads: {},
+      gates: [
+        { name: 'u1', cell: 'INV', size: 1, inputs: ['clk'], output: 'b' },
+        { name: 'u2', cell: 'INV', size: 1, inputs: ['b'], output: 'a' },
+        { name: 'u3', cell: 'INV', size: 1, inputs: ['a'], output: 'ab' },
+      ],
+    });
+    const plan = expandSwitches({ ...netlist.source }, [designFromYaml(base(
+      '  - { name: tg, type: tgate, w: 4um, wp: 8um, l: 0.18um, gate: a, gateBar: ab, signal: 0.9V }')).switches[0]!],
+    loadProcess(processCard('generic180'))).plans[0]!;
+    const card = loadProcess(processCard('generic180'));
+    const devices = devicesAtCorner(card, { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
+    const length = (skew: number) => {
+      const a = netlist.netIndex.get('a')!;
+      const ab = netlist.netIndex.get('ab')!;
+      const edges = {
+        count: 4,
+        net: Int32Array.from([a, ab, a, ab]),
+        time: Float64Array.from([1e-9, 1e-9 + skew, 20e-9, 20e-9 + skew]),
+        rising: Uint8Array.from([1, 0, 0, 1]),
+        transition: Float64Array.from([200e-12, 200e-12, 200e-12, 200e-12]),
+      };
+      const result = { status: 'settled' as const, reason: '', period: 50e-9, windowStart: 0, edges,
+        startValues: new Uint8Array(netlist.netNames.length), glitches: [], periodsSimulated: 2 };
+      const c = switchConduction(plan, result, netlist, devices);
+      return c.off - c.on;
+    };
+    expect(length(100e-12)).toBeGreaterThan(length(0));
+    expect(length(300e-12)).toBeGreaterThan(length(100e-12));
+    // With the p device the later one at both ends, the extra length is the skew itself.
+    expectClose(length(300e-12) - length(100e-12), 200e-12, 1e-6);
+  });
+
+  it('reports a switch whose gate swing cannot reach the turn-on level, never a NaN', () => {
+    const { byName, result } = conduction(`  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 1.6V }`,
+      'constraints: { settle: [{ name: path, switches: [s], capacitance: 1pF, bits: 8 }] }');
+    expect(byName.get('s')!.status).toBe('never');
+    const settle = result.checks.find((c) => c.kind === 'settle')!;
+    expect(settle.pass).toBe(false);
+    expect(settle.margin).toBeNull();
+    expect(settle.detail).toContain('never conducts');
+  });
+
+  it('follows a level shifter: its delay shifts both instants and its swing sets the levels', () => {
+    const { byName } = conduction(`
+  - { name: plain, type: pmos, w: 10um, l: 0.18um, gate: p2, signal: vdd }
+  - name: shifted
+    type: pmos
+    w: 10um
+    l: 0.18um
+    gate: p2
+    levelShifter: { delay: 300ps, low: vdd, high: 2vdd }
+    signal: 2vdd
+    bulk: 2vdd`);
+    const plain = byName.get('plain')!;
+    const shifted = byName.get('shifted')!;
+    // Same device, same gate ramp shape relative to its swing: the level shifter only adds 300 ps.
+    expectClose(shifted.on - plain.on, 300e-12, 1e-6, 'rel');
+    expectClose(shifted.off - plain.off, 300e-12, 1e-6, 'rel');
+  });
+});
