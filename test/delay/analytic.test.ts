@@ -1,0 +1,236 @@
+import { describe, it, expect } from 'vitest';
+import {
+  alphaPowerDelay, alphaPowerTransition, analyticModel, rampCoefficient,
+} from '../../src/delay/analytic.js';
+import { saturationCurrent, devicesAtCorner } from '../../src/process/device.js';
+import { compileNetlist, type GateSpec } from '../../src/netlist/netlist.js';
+import { CELLS, type PrimitiveCell } from '../../src/cells/library.js';
+import { netLoads } from '../../src/netlist/loads.js';
+import { processSchema, type ProcessCard } from '../../src/schema/process.js';
+import { parseWith } from '../../src/schema/validate.js';
+import { loadProcess } from '../../src/cli/load.js';
+import { InputError } from '../../src/errors.js';
+import type { Corner } from '../../src/process/corner.js';
+import { expectClose, processCard } from '../helpers.js';
+
+/**
+ * An invented card for logical-effort checks: P/N width ratio 2, equal gate and drain capacitance
+ * per width, so the unit inverter's self-parasitic equals its input capacitance (p_inv = 1).
+ */
+function effortCard(): ProcessCard {
+  const device = (drive: number) => ({
+    vth0: 0.4, alpha: 1.3, drive, vthTempco: 0.001, mobilityExponent: 1.5, gamma: 0.4, phi2f: 0.85,
+    cgate: 1.5e-9, cdrain: 1.5e-9, avt: 5e-9, kprime: 100e-6,
+  });
+  return parseWith(processSchema, {
+    name: 'effort-probe', lmin: 0.18e-6, vddNominal: 1.8,
+    unit: { wn: 0.5e-6, wp: 1.0e-6 },
+    n: device(340), p: device(150),
+    corners: { tt: {} },
+  });
+}
+
+const at = (process: string, vdd: number, temperature: number): Corner =>
+  ({ name: `${process}/${vdd}V/${temperature}C`, process, vdd, temperature, duty: 0.5 });
+
+/** `driver` (a cell on net y fed by the clock) with `fanout` copies of a cell on y, each driving its own net. */
+function fanoutNetlist(driver: GateSpec['cell'], fanout: number, load: GateSpec['cell'] = driver) {
+  const gates: GateSpec[] = [];
+  // Only the first pin of each load listens to y; the others are tied to the clock.
+  const inputsOf = (cell: GateSpec['cell'], net: string) => [net, ...Array.from({ length: CELLS[cell as PrimitiveCell].inputs - 1 }, () => 'clk')];
+  gates.push({ name: 'drv', cell: driver, size: 1, inputs: inputsOf(driver, 'clk'), output: 'y' });
+  for (let k = 1; k <= fanout; k++) gates.push({ name: `ld${k}`, cell: load, size: 1, inputs: inputsOf(load, 'y'), output: `z${k}` });
+  const phases: [string, string] = fanout >= 1 ? ['y', 'z1'] : ['y', 'y'];
+  return compileNetlist({ clock: 'clk', phases, complements: {}, early: {}, gates, loads: {} });
+}
+
+describe('rampCoefficient', () => {
+  // Sakurai & Newton, IEEE JSSC 25(2), 1990: the input-slope term 1/2 - (1 - v_T)/(1 + alpha).
+  // By hand: v_T = 0.45/1.8 = 0.25; (1 - 0.25)/(1 + 1.3) = 0.75/2.3 = 0.326087; 0.5 - 0.326087 = 0.173913.
+  it('is 0.173913 for Vth 0.45 V, VDD 1.8 V, alpha 1.3 (hand-computed)', () => {
+    expectClose(rampCoefficient(0.45, 1.8, 1.3), 0.173913, 1e-5);
+  });
+
+  // Square-law limit alpha = 2 (Sakurai & Newton 1990): 1/2 - (1 - v_T)/3. v_T = 0.25 -> 0.5 - 0.25 = 0.25.
+  it('reduces to 1/2 - (1 - v_T)/3 at the square-law limit alpha = 2', () => {
+    expectClose(rampCoefficient(0.45, 1.8, 2), 0.25, 1e-12);
+    for (const vt of [0.1, 0.2, 0.3, 0.4]) expectClose(rampCoefficient(vt * 2, 2, 2), 0.5 - (1 - vt) / 3, 1e-12);
+  });
+
+  it('grows with the threshold ratio: a higher threshold makes the delay more slope-sensitive', () => {
+    expect(rampCoefficient(0.6, 1.8, 1.3)).toBeGreaterThan(rampCoefficient(0.45, 1.8, 1.3));
+  });
+});
+
+describe('alphaPowerDelay', () => {
+  // Sakurai & Newton 1990, t_d = (1/2 - (1 - v_T)/(1 + alpha)) t_T + C_L V_DD / (2 I_D0). Hand example:
+  // Vth 0.45 V, VDD 1.8 V, alpha 1.3, t_T 200 ps, C_L 100 fF, I_D0 500 uA:
+  //   slope term 0.173913 * 200 ps = 34.7826 ps; step term 100e-15 * 1.8 / (2 * 500e-6) = 180 ps;
+  //   t_d = 214.7826 ps.
+  it('gives 214.78 ps for the hand-computed example (Sakurai & Newton 1990)', () => {
+    expectClose(alphaPowerDelay(100e-15, 1.8, 500e-6, 0.45, 1.3, 200e-12), 214.7826e-12, 1e-6);
+  });
+
+  // Same example at alpha = 2: 0.25 * 200 ps + 180 ps = 230 ps.
+  it('gives 230 ps for the same example at the square-law limit', () => {
+    expectClose(alphaPowerDelay(100e-15, 1.8, 500e-6, 0.45, 2, 200e-12), 230e-12, 1e-12);
+  });
+
+  it('is C_L V_DD / (2 I_D0) for a step input', () => {
+    expectClose(alphaPowerDelay(100e-15, 1.8, 500e-6, 0.45, 1.3, 0), 180e-12, 1e-12);
+  });
+});
+
+describe('alphaPowerTransition', () => {
+  // Documented simplification of Sakurai & Newton's output transition: (0.9/0.8) C_L V_DD / I_D0.
+  // By hand: 1.125 * 100 fF * 1.8 V / 500 uA = 1.125 * 360 ps = 405 ps.
+  it('gives 405 ps for 100 fF, 1.8 V, 500 uA', () => {
+    expectClose(alphaPowerTransition(100e-15, 1.8, 500e-6), 405e-12, 1e-12);
+  });
+});
+
+describe('saturationCurrent at alpha = 2', () => {
+  // Square law (Sakurai & Newton 1990, alpha = 2 limit): current goes as the overdrive squared.
+  it('quadruples when the overdrive doubles and is zero at or below threshold', () => {
+    expectClose(saturationCurrent(150, 2, 0.8) / saturationCurrent(150, 2, 0.4), 4, 1e-12);
+    expectClose(saturationCurrent(150, 2, 0.5), 150 * 0.25, 1e-12);
+    expect(saturationCurrent(150, 2, 0)).toBe(0);
+    expect(saturationCurrent(150, 2, -0.1)).toBe(0);
+  });
+});
+
+describe('analyticModel.bind: logical-effort units', () => {
+  const card = effortCard();
+  const devices = devicesAtCorner(card, at('tt', 1.8, 27));
+  const cin = (card.unit.wn + card.unit.wp) * card.n.cgate;
+  // tau of each edge: the unit inverter charging its own input capacitance, C_in V_DD / (2 I).
+  const currentUp = card.unit.wp * card.p.drive * Math.pow(1.8 - card.p.vth0, card.p.alpha);
+  const currentDown = card.unit.wn * card.n.drive * Math.pow(1.8 - card.n.vth0, card.n.alpha);
+  const tauUp = (cin * 1.8) / (2 * currentUp);
+  const tauDown = (cin * 1.8) / (2 * currentDown);
+
+  function stepDelays(driver: GateSpec['cell'], fanout: number): { rise: number; fall: number } {
+    const net = fanoutNetlist(driver, fanout);
+    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    return { rise: timing.delay(0, 0, true, 0), fall: timing.delay(0, 0, false, 0) };
+  }
+
+  it('sees p_inv = 1 on this card: the inverter parasitic equals its input capacitance', () => {
+    const net = fanoutNetlist('INV', 0);
+    expectClose(netLoads(net, card)[net.netIndex.get('y')!]!, cin, 1e-12);
+  });
+
+  // Logical Effort (1999): an inverter driving four copies of itself, d = g h + p = 1 * 4 + 1 = 5 tau.
+  it('makes the FO4 inverter delay 5 tau for a step input, on both edges (Logical Effort, 1999)', () => {
+    const d = stepDelays('INV', 4);
+    expectClose(d.rise / tauUp, 5, 1e-9);
+    expectClose(d.fall / tauDown, 5, 1e-9);
+  });
+
+  // Derived from d = g h + p with g = 4/3, p = 2 (NAND2) and g = 5/3, p = 2 (NOR2) at gamma = 2:
+  // NAND2 at fanout 4 of NAND2s: 16/3 + 2 = 7.333 tau; NOR2: 20/3 + 2 = 8.667 tau.
+  it('gives NAND2 7.333 tau and NOR2 8.667 tau at fanout 4 of their own kind (derived)', () => {
+    const nand = stepDelays('NAND2', 4);
+    expectClose(nand.rise / tauUp, 22 / 3, 1e-9);
+    expectClose(nand.fall / tauDown, 22 / 3, 1e-9);
+    const nor = stepDelays('NOR2', 4);
+    expectClose(nor.rise / tauUp, 26 / 3, 1e-9);
+    expectClose(nor.fall / tauDown, 26 / 3, 1e-9);
+  });
+
+  it('adds the Sakurai-Newton slope term of the pulling device for a ramp input', () => {
+    const net = fanoutNetlist('INV', 4);
+    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    const tT = 300e-12;
+    expectClose(timing.delay(0, 0, true, tT), 5 * tauUp + rampCoefficient(card.p.vth0, 1.8, card.p.alpha) * tT, 1e-9);
+    expectClose(timing.delay(0, 0, false, tT), 5 * tauDown + rampCoefficient(card.n.vth0, 1.8, card.n.alpha) * tT, 1e-9);
+    expectClose(timing.transition(0, 0, true, tT), (0.9 / 0.8) * 5 * cin * 1.8 / currentUp, 1e-9);
+  });
+
+  it('does not depend on which input pin switches (pin position is not modelled)', () => {
+    const net = fanoutNetlist('NAND3', 2);
+    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    expect(timing.delay(0, 2, true, 1e-10)).toBe(timing.delay(0, 0, true, 1e-10));
+  });
+});
+
+describe('analyticModel.bind at corners', () => {
+  const card = loadProcess(processCard('generic180'));
+  const net = fanoutNetlist('INV', 4);
+  const loads = netLoads(net, card);
+  const delays = (corner: Corner) => {
+    const timing = analyticModel.bind(net, loads, devicesAtCorner(card, corner));
+    return { rise: timing.delay(0, 0, true, 100e-12), fall: timing.delay(0, 0, false, 100e-12) };
+  };
+
+  it('drives the falling edge with the n device and the rising edge with the p device (fs vs tt)', () => {
+    const tt = delays(at('tt', 1.8, 27));
+    const fs = delays(at('fs', 1.8, 27));
+    const sf = delays(at('sf', 1.8, 27));
+    expect(fs.fall).toBeLessThan(tt.fall);
+    expect(fs.rise).toBeGreaterThan(tt.rise);
+    expect(sf.fall).toBeGreaterThan(tt.fall);
+    expect(sf.rise).toBeLessThan(tt.rise);
+  });
+
+  it('slows down at the slow corner, low supply and heat, and speeds up at the fast one', () => {
+    const slow = delays(at('ss', 1.62, 125));
+    const typical = delays(at('tt', 1.8, 27));
+    const fast = delays(at('ff', 1.98, -40));
+    expect(slow.rise).toBeGreaterThan(typical.rise);
+    expect(typical.rise).toBeGreaterThan(fast.rise);
+    expect(slow.fall).toBeGreaterThan(typical.fall);
+    expect(typical.fall).toBeGreaterThan(fast.fall);
+  });
+
+  it('refuses a mismatch sample that pushes a device below threshold, naming the corner', () => {
+    const corner = at('tt', 1.8, 27);
+    const mismatch = { dvthN: new Float64Array(net.gateCount), dvthP: new Float64Array(net.gateCount).fill(1.5) };
+    let error: unknown;
+    try {
+      analyticModel.bind(net, loads, devicesAtCorner(card, corner), mismatch);
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(InputError);
+    expect((error as InputError).message).toContain(corner.name);
+    expect((error as InputError).message).toContain('p-device');
+  });
+
+  it('applies a mismatch threshold shift to one gate only', () => {
+    const corner = at('tt', 1.8, 27);
+    const dvthN = new Float64Array(net.gateCount);
+    dvthN[0] = 0.05;
+    const base = analyticModel.bind(net, loads, devicesAtCorner(card, corner));
+    const shifted = analyticModel.bind(net, loads, devicesAtCorner(card, corner), { dvthN, dvthP: new Float64Array(net.gateCount) });
+    expect(shifted.delay(0, 0, false, 1e-10)).toBeGreaterThan(base.delay(0, 0, false, 1e-10));
+    expect(shifted.delay(0, 0, true, 1e-10)).toBe(base.delay(0, 0, true, 1e-10));
+    expect(shifted.delay(1, 0, false, 1e-10)).toBe(base.delay(1, 0, false, 1e-10));
+  });
+});
+
+describe('temperature dependence of the gate drive', () => {
+  // A step input isolates the drive current (C_L V_DD / 2 I_D0); the slope term is checked above.
+  const fo4 = (cardName: string, vdd: number, temperature: number): number => {
+    const card = loadProcess(processCard(cardName));
+    const net = fanoutNetlist('INV', 4);
+    const timing = analyticModel.bind(net, netLoads(net, card), devicesAtCorner(card, at('tt', vdd, temperature)));
+    return timing.delay(0, 0, true, 0) + timing.delay(0, 0, false, 0);
+  };
+  const temperatures = [-40, 0, 27, 85, 125];
+
+  it('falls as temperature rises on generic-lp at a low supply of 0.9 V (temperature inversion emerges)', () => {
+    const d = temperatures.map((t) => fo4('generic-lp', 0.9, t));
+    for (let i = 1; i < d.length; i++) expect(d[i]!).toBeLessThan(d[i - 1]!);
+  });
+
+  it('rises with temperature on generic-lp well above its zero-temperature-coefficient supply (1.3 V)', () => {
+    const d = temperatures.map((t) => fo4('generic-lp', 1.3, t));
+    for (let i = 1; i < d.length; i++) expect(d[i]!).toBeGreaterThan(d[i - 1]!);
+  });
+
+  it('rises with temperature on generic180 at its nominal 1.8 V', () => {
+    const d = temperatures.map((t) => fo4('generic180', 1.8, t));
+    for (let i = 1; i < d.length; i++) expect(d[i]!).toBeGreaterThan(d[i - 1]!);
+  });
+});
