@@ -1,0 +1,85 @@
+import { describe, it, expect } from 'vitest';
+import { expandCorners } from '../../src/process/corners.js';
+import { cornerName } from '../../src/process/corner.js';
+import { cornersSchema, type CornersSpec } from '../../src/schema/design.js';
+import { parseWith } from '../../src/schema/validate.js';
+import { loadProcess } from '../../src/cli/load.js';
+import { InputError } from '../../src/errors.js';
+import { processCard } from '../helpers.js';
+
+const card = loadProcess(processCard('generic180'));
+const spec = (raw: unknown): CornersSpec => parseWith(cornersSchema, raw);
+
+function message(fn: () => unknown): string {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof InputError) return error.message;
+    throw error;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('cornerName', () => {
+  it.each([
+    ['ss', 1.62, 125, undefined, 'ss/1.62V/125C'],
+    ['ff', 1.98, -40, undefined, 'ff/1.98V/-40C'],
+    ['tt', 1.8, 27, 0.47, 'tt/1.8V/27C/duty0.47'],
+  ] as const)('names %s %d V %d C as %s', (process, vdd, t, duty, name) => {
+    expect(cornerName(process, vdd, t, duty)).toBe(name);
+  });
+});
+
+describe('expandCorners', () => {
+  it('takes the cartesian product in process, vdd, temperature order', () => {
+    const corners = expandCorners(spec({
+      process: ['tt', 'ss', 'ff', 'fs', 'sf'], vdd: ['1.62V', '1.8V', '1.98V'], temperature: [-40, 27, 125],
+    }), card, 0.5);
+    expect(corners).toHaveLength(45);
+    expect(corners.slice(0, 4).map((c) => c.corner.name)).toEqual(['tt/1.62V/-40C', 'tt/1.62V/27C', 'tt/1.62V/125C', 'tt/1.8V/-40C']);
+    expect(corners[44]!.corner).toEqual({ name: 'sf/1.98V/125C', process: 'sf', vdd: 1.98, temperature: 125, duty: 0.5 });
+    expect(new Set(corners.map((c) => c.corner.name)).size).toBe(45);
+  });
+
+  it('fills missing axes with the card nominal, t0 and the clock duty', () => {
+    const corners = expandCorners(spec({}), card, 0.45);
+    expect(corners.map((c) => c.corner)).toEqual([{ name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.45 }]);
+    expect(corners[0]!.paths.vdd).toBe('process.vddNominal');
+  });
+
+  it('adds the duty to the name only when the duty axis varies', () => {
+    const corners = expandCorners(spec({ duty: [0.47, 0.53] }), card, 0.5);
+    expect(corners.map((c) => c.corner.name)).toEqual(['tt/1.8V/27C/duty0.47', 'tt/1.8V/27C/duty0.53']);
+    expect(corners.map((c) => c.corner.duty)).toEqual([0.47, 0.53]);
+  });
+
+  it('accepts an explicit list with the nominal duty by default', () => {
+    const corners = expandCorners(spec({ list: [{ process: 'ss', vdd: '1.62V', temperature: '125C' }, { process: 'ff', vdd: 1.98, temperature: -40 }] }), card, 0.5);
+    expect(corners.map((c) => c.corner.name)).toEqual(['ss/1.62V/125C', 'ff/1.98V/-40C']);
+    expect(corners[1]!.paths.vdd).toBe('corners.list[1].vdd');
+  });
+
+  it('refuses a list mixed with axes', () => {
+    expect(message(() => expandCorners(spec({ vdd: [1.8], list: [{ process: 'tt', vdd: 1.8, temperature: 27 }] }), card, 0.5)))
+      .toMatch(/^corners: .*either `list` or the axes/);
+  });
+
+  it('names the axis entry of an unknown process corner and lists the known ones', () => {
+    expect(message(() => expandCorners(spec({ process: ['tt', 'xx'] }), card, 0.5)))
+      .toBe('corners.process[1]: "xx" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf');
+  });
+
+  it('refuses a corner listed twice', () => {
+    expect(message(() => expandCorners(spec({ list: [{ process: 'tt', vdd: 1.8, temperature: 27 }, { process: 'tt', vdd: '1.8V', temperature: '27C' }] }), card, 0.5)))
+      .toContain('"tt/1.8V/27C" appears twice');
+  });
+
+  it('names corners.vdd[i] and the corner where a supply cannot turn a device on', () => {
+    // 0.5 V clears the tt threshold at 27 C (0.45 V) but not at -40 C (0.517 V): only that corner fails.
+    const text = message(() => expandCorners(spec({ vdd: [1.8, 0.5], temperature: [27, -40] }), card, 0.5));
+    expect(text).toContain('corners.vdd[1]');
+    expect(text).toContain('tt/0.5V/-40C');
+    expect(text).toContain('0.517 V');
+    expect(text).not.toContain('tt/0.5V/27C');
+  });
+});

@@ -1,0 +1,99 @@
+import { describe, it, expect } from 'vitest';
+import {
+  deviceAtCorner, devicesAtCorner, mobilityScale, saturationCurrent, thresholdAt,
+} from '../../src/process/device.js';
+import { loadProcess } from '../../src/cli/load.js';
+import { InputError } from '../../src/errors.js';
+import type { Corner } from '../../src/process/corner.js';
+import { expectClose, processCard } from '../helpers.js';
+
+const card = loadProcess(processCard('generic180'));
+const at = (process: string, vdd: number, temperature: number): Corner =>
+  ({ name: `${process}/${vdd}V/${temperature}C`, process, vdd, temperature, duty: 0.5 });
+
+function thrown(fn: () => unknown): InputError {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof InputError) return error;
+    throw error;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('thresholdAt', () => {
+  it('adds the corner shift and falls by the tempco per kelvin above t0', () => {
+    // 0.45 V + 60 mV - 1 mV/K * (125 - 27) K = 0.412 V
+    expectClose(thresholdAt(card.n, 0.06, 125, 27), 0.412, 1e-12);
+    // 0.45 V - 60 mV + 1 mV/K * 67 K = 0.457 V
+    expectClose(thresholdAt(card.n, -0.06, -40, 27), 0.457, 1e-12);
+    expect(thresholdAt(card.p, 0, 27, 27)).toBe(card.p.vth0);
+  });
+});
+
+describe('mobilityScale', () => {
+  // BSIM3 default mobility exponent UTE = -1.5: mu(125 C)/mu(27 C) = 0.6545 and
+  // mu(-40 C)/mu(27 C) = 1.461 (derived from (T/T0)^UTE in kelvin).
+  it('gives 0.6545 at 125 C and 1.461 at -40 C for m = 1.5 (BSIM3 mobility law, derived)', () => {
+    expect(card.n.mobilityExponent).toBe(1.5);
+    expectClose(mobilityScale(card.n, 125, 27), 0.6545, 1e-4);
+    expectClose(mobilityScale(card.n, -40, 27), 1.461, 1e-3);
+    expect(mobilityScale(card.n, 27, 27)).toBe(1);
+  });
+});
+
+describe('saturationCurrent', () => {
+  it('is K * overdrive^alpha above threshold and zero at or below it', () => {
+    // 338 * 1.35^1.3 = 499.287 A/m (hand-computed: ln 1.35 = 0.300105, * 1.3 = 0.390137, exp = 1.477182)
+    expectClose(saturationCurrent(338, 1.3, 1.35), 499.287, 1e-5);
+    expect(saturationCurrent(338, 1.3, 0)).toBe(0);
+    expect(saturationCurrent(338, 1.3, -0.2)).toBe(0);
+  });
+});
+
+describe('deviceAtCorner', () => {
+  it('matches the card comment at tt/1.8V/27C: about 500 uA/um for n and 230 uA/um for p', () => {
+    const tt = devicesAtCorner(card, at('tt', 1.8, 27));
+    expectClose(tt.n.idsatPerWidth, 499.287, 1e-5);
+    expectClose(tt.p.idsatPerWidth, 229.850, 1e-5);
+    expect(tt.n.vth).toBe(0.45);
+    expect(tt.vdd).toBe(1.8);
+  });
+
+  it('combines the corner drive, mobility and threshold at ss/1.62V/125C', () => {
+    // Vth = 0.412 V; K = 338 * 0.85 * 0.654542 = 188.05; I = K * (1.62 - 0.412)^1.3 = 240.414 A/m.
+    const n = deviceAtCorner(card, 'n', at('ss', 1.62, 125));
+    expectClose(n.vth, 0.412, 1e-12);
+    expectClose(n.driveConstant, 338 * 0.85 * 0.6545418829, 1e-8);
+    expectClose(n.idsatPerWidth, 240.414, 1e-5);
+  });
+
+  it('shifts n and p separately at the skewed corners', () => {
+    const fs = devicesAtCorner(card, at('fs', 1.8, 27));
+    const tt = devicesAtCorner(card, at('tt', 1.8, 27));
+    expect(fs.n.idsatPerWidth).toBeGreaterThan(tt.n.idsatPerWidth);
+    expect(fs.p.idsatPerWidth).toBeLessThan(tt.p.idsatPerWidth);
+    expectClose(fs.n.vth, 0.39, 1e-12);
+    expectClose(fs.p.vth, 0.51, 1e-12);
+  });
+
+  it('scales the triode k\' with the corner drive and temperature', () => {
+    const n = deviceAtCorner(card, 'n', at('ff', 1.8, 125));
+    expectClose(n.kprime, 300e-6 * 1.15 * 0.6545418829, 1e-8);
+  });
+
+  it('refuses a supply at or below threshold with the corner and the threshold named', () => {
+    const corner = at('ss', 0.5, -40); // Vth = 0.45 + 0.06 + 0.067 = 0.577 V
+    const error = thrown(() => deviceAtCorner(card, 'n', corner));
+    expect(error.message).toContain(corner.name);
+    expect(error.message).toContain('0.577 V');
+    expect(error.message).toContain('n-device');
+    expect(error.message).not.toMatch(/NaN/);
+  });
+
+  it('refuses a process corner the card does not define, listing the ones it does', () => {
+    const error = thrown(() => deviceAtCorner(card, 'p', at('snff', 1.8, 27)));
+    expect(error.message).toContain('"snff"');
+    expect(error.message).toContain('tt, ss, ff, fs, sf');
+  });
+});
