@@ -3,7 +3,7 @@ import type { Corner } from '../process/corner.js';
 import { devicesAtCorner } from '../process/device.js';
 import type { Mismatch } from '../delay/model.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
-import { measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
+import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
 import type { Check } from '../checks/check.js';
 import { switchChecks } from '../checks/switch-checks.js';
@@ -26,9 +26,10 @@ export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, simulat
   const timing = model.bind(netlist, loads, devices, mismatch);
   const period = 1 / design.clock.frequency;
   const simulation = simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition });
-  const measurement = measurePhases(simulation, netlist);
-  const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance });
-  const switches = measurement.ok ? resolved.switches.map((plan) => switchConduction(plan, simulation, netlist, devices)) : [];
+  const cycles = new CycleIndex(simulation, netlist);
+  const measurement = measurePhases(simulation, netlist, cycles);
+  const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance }, resolved.labels);
+  const switches = measurement.ok ? resolved.switches.map((plan) => switchConduction(plan, cycles, devices)) : [];
   if (measurement.ok) {
     const byName = new Map(switches.map((s) => [s.name, s]));
     checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period));

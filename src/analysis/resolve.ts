@@ -9,6 +9,7 @@ import type { DelayModel } from '../delay/model.js';
 import { analyticModel } from '../delay/analytic.js';
 import { checkLevelShifters, expandSwitches, type SwitchPlan } from '../switches/plan.js';
 import { checkConstraintReferences } from '../switches/references.js';
+import { requirementLabels, type RequirementLabels } from '../checks/requirements.js';
 
 export interface ResolvedDesign {
   readonly design: Design;
@@ -20,6 +21,8 @@ export interface ResolvedDesign {
   readonly corners: readonly SourcedCorner[];
   readonly switches: readonly SwitchPlan[];
   readonly model: DelayModel;
+  /** Requirement values formatted once for check names. */
+  readonly labels: RequirementLabels;
 }
 
 export function resolveDesign(design: Design, card: ProcessCard, model: DelayModel = analyticModel): ResolvedDesign {
@@ -31,5 +34,5 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const corners = expandCorners(design.corners, card, design.clock.duty);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
-  return { design, card, netlist, loads, corners, switches: expansion.plans, model };
+  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements) };
 }

@@ -32,56 +32,68 @@ export function alphaPowerTransition(load: number, vdd: number, current: number)
   return (TRANSITION_FACTOR * load * vdd) / current;
 }
 
+/** Per gate, six numbers in one array: rise slope, rise step, fall slope, fall step, rise and fall output transition. */
+const STRIDE = 6;
+
 class AnalyticTiming implements GateTiming {
-  constructor(
-    private readonly slopeRise: Float64Array,
-    private readonly stepRise: Float64Array,
-    private readonly slopeFall: Float64Array,
-    private readonly stepFall: Float64Array,
-    private readonly outRise: Float64Array,
-    private readonly outFall: Float64Array,
-  ) {}
+  constructor(private readonly table: Float64Array) {}
 
   delay(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
-    return outputRising
-      ? this.slopeRise[gate]! * inputTransition + this.stepRise[gate]!
-      : this.slopeFall[gate]! * inputTransition + this.stepFall[gate]!;
+    const i = gate * STRIDE + (outputRising ? 0 : 2);
+    return this.table[i]! * inputTransition + this.table[i + 1]!;
   }
 
   transition(gate: number, _pin: number, outputRising: boolean): number {
-    return outputRising ? this.outRise[gate]! : this.outFall[gate]!;
+    return this.table[gate * STRIDE + (outputRising ? 4 : 5)]!;
   }
+}
+
+/** Effective pull-up and pull-down widths per gate, m; computed once per netlist (both are immutable). */
+const widthCache = new WeakMap<CompiledNetlist, { up: Float64Array; down: Float64Array }>();
+
+function pullWidths(netlist: CompiledNetlist, unit: { wn: number; wp: number }): { up: Float64Array; down: Float64Array } {
+  const cached = widthCache.get(netlist);
+  if (cached) return cached;
+  const up = new Float64Array(netlist.gateCount);
+  const down = new Float64Array(netlist.gateCount);
+  for (let g = 0; g < netlist.gateCount; g++) {
+    const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
+    up[g] = widths.pullUp;
+    down[g] = widths.pullDown;
+  }
+  const entry = { up, down };
+  widthCache.set(netlist, entry);
+  return entry;
 }
 
 export const analyticModel: DelayModel = {
   name: 'analytic',
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch): GateTiming {
     const count = netlist.gateCount;
-    const arrays = Array.from({ length: 6 }, () => new Float64Array(count));
-    const [slopeRise, stepRise, slopeFall, stepFall, outRise, outFall] = arrays as [Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array];
-    const unit = unitWidths(devices.card);
+    const table = new Float64Array(count * STRIDE);
+    const widths = pullWidths(netlist, unitWidths(devices.card));
     const vdd = devices.vdd;
+    const { n, p } = devices;
     for (let g = 0; g < count; g++) {
-      const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
       const load = loads[netlist.gateOutput[g]!]!;
-      const up = edge(devices.p, widths.pullUp, mismatch ? mismatch.dvthP[g]! : 0, vdd, devices.corner.name);
-      const down = edge(devices.n, widths.pullDown, mismatch ? mismatch.dvthN[g]! : 0, vdd, devices.corner.name);
-      slopeRise[g] = rampCoefficient(up.vth, vdd, devices.p.alpha);
-      stepRise[g] = (load * vdd) / (2 * up.current);
-      outRise[g] = alphaPowerTransition(load, vdd, up.current);
-      slopeFall[g] = rampCoefficient(down.vth, vdd, devices.n.alpha);
-      stepFall[g] = (load * vdd) / (2 * down.current);
-      outFall[g] = alphaPowerTransition(load, vdd, down.current);
+      const vthP = mismatch ? p.vth + mismatch.dvthP[g]! : p.vth;
+      const vthN = mismatch ? n.vth + mismatch.dvthN[g]! : n.vth;
+      // Without mismatch every gate shares the corner's current per width.
+      const upCurrent = widths.up[g]! * (mismatch ? saturationCurrent(p.driveConstant, p.alpha, vdd - vthP) : p.idsatPerWidth);
+      const downCurrent = widths.down[g]! * (mismatch ? saturationCurrent(n.driveConstant, n.alpha, vdd - vthN) : n.idsatPerWidth);
+      if (!(upCurrent > 0 && downCurrent > 0)) throw cannotTurnOn(upCurrent > 0 ? n : p, upCurrent > 0 ? vthN : vthP, vdd, devices.corner.name);
+      const i = g * STRIDE;
+      table[i] = rampCoefficient(vthP, vdd, p.alpha);
+      table[i + 1] = (load * vdd) / (2 * upCurrent);
+      table[i + 2] = rampCoefficient(vthN, vdd, n.alpha);
+      table[i + 3] = (load * vdd) / (2 * downCurrent);
+      table[i + 4] = alphaPowerTransition(load, vdd, upCurrent);
+      table[i + 5] = alphaPowerTransition(load, vdd, downCurrent);
     }
-    return new AnalyticTiming(slopeRise, stepRise, slopeFall, stepFall, outRise, outFall);
+    return new AnalyticTiming(table);
   },
 };
 
-function edge(device: DeviceAtCorner, width: number, dvth: number, vdd: number, corner: string): { vth: number; current: number } {
-  const vth = device.vth + dvth;
-  const current = width * saturationCurrent(device.driveConstant, device.alpha, vdd - vth);
-  if (!(current > 0)) {
-    throw inputError(`corners (${corner})`, `${vdd} V`, `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`);
-  }
-  return { vth, current };
+function cannotTurnOn(device: DeviceAtCorner, vth: number, vdd: number, corner: string): Error {
+  return inputError(`corners (${corner})`, `${vdd} V`, `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`);
 }

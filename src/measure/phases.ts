@@ -50,32 +50,55 @@ export interface MeasurementFailure {
 /** Fraction of the swing at which the clean gap is measured. */
 export const GAP_LEVEL = 0.1;
 
-/** The one rising and one falling edge of a net in the period, or why there are not exactly two. */
-export function netCycle(result: SimulationResult, netlist: CompiledNetlist, name: string): NetCycle | string {
-  const id = netlist.netIndex.get(name);
-  if (id === undefined) return `${name} is not a net of the generator`;
-  const { edges } = result;
-  let rises = 0;
-  let falls = 0;
-  let rise = NaN;
-  let fall = NaN;
-  let riseTransition = NaN;
-  let fallTransition = NaN;
-  for (let i = 0; i < edges.count; i++) {
-    if (edges.net[i] !== id) continue;
-    if (edges.rising[i] === 1) {
-      rises++;
-      rise = edges.time[i]!;
-      riseTransition = edges.transition[i]!;
-    } else {
-      falls++;
-      fall = edges.time[i]!;
-      fallTransition = edges.transition[i]!;
+/**
+ * Every net's edges in the reported period, indexed once so each lookup is constant time: the
+ * count of rising and falling edges and the last of each with its transition time.
+ */
+export class CycleIndex {
+  private readonly rises: Uint16Array;
+  private readonly falls: Uint16Array;
+  private readonly rise: Float64Array;
+  private readonly fall: Float64Array;
+  private readonly riseT: Float64Array;
+  private readonly fallT: Float64Array;
+
+  constructor(private readonly result: SimulationResult, private readonly netlist: CompiledNetlist) {
+    const n = netlist.netNames.length;
+    this.rises = new Uint16Array(n);
+    this.falls = new Uint16Array(n);
+    this.rise = new Float64Array(n);
+    this.fall = new Float64Array(n);
+    this.riseT = new Float64Array(n);
+    this.fallT = new Float64Array(n);
+    const { edges } = result;
+    for (let i = 0; i < edges.count; i++) {
+      const id = edges.net[i]!;
+      if (edges.rising[i] === 1) {
+        this.rises[id]!++;
+        this.rise[id] = edges.time[i]!;
+        this.riseT[id] = edges.transition[i]!;
+      } else {
+        this.falls[id]!++;
+        this.fall[id] = edges.time[i]!;
+        this.fallT[id] = edges.transition[i]!;
+      }
     }
   }
-  if (rises === 0 && falls === 0) return `${name} never switches: it stays ${result.startValues[id] === 1 ? 'high' : 'low'} (the generator is stuck)`;
-  if (rises !== 1 || falls !== 1) return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
-  return { net: name, rise, fall, riseTransition, fallTransition };
+
+  get period(): number {
+    return this.result.period;
+  }
+
+  /** The one rising and one falling edge of a net in the period, or why there are not exactly two. */
+  cycle(name: string): NetCycle | string {
+    const id = this.netlist.netIndex.get(name);
+    if (id === undefined) return `${name} is not a net of the generator`;
+    const rises = this.rises[id]!;
+    const falls = this.falls[id]!;
+    if (rises === 0 && falls === 0) return `${name} never switches: it stays ${this.result.startValues[id] === 1 ? 'high' : 'low'} (the generator is stuck)`;
+    if (rises !== 1 || falls !== 1) return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
+    return { net: name, rise: this.rise[id]!, fall: this.fall[id]!, riseTransition: this.riseT[id]!, fallTransition: this.fallT[id]! };
+  }
 }
 
 /** Positive remainder of x modulo m. */
@@ -101,13 +124,13 @@ export function deadTime(a: NetCycle, b: NetCycle, period: number): DeadTime {
   return { from: a.net, to: b.net, t50, gap, start: a.fall };
 }
 
-export function measurePhases(result: SimulationResult, netlist: CompiledNetlist): PhaseMeasurement | MeasurementFailure {
+export function measurePhases(result: SimulationResult, netlist: CompiledNetlist, index = new CycleIndex(result, netlist)): PhaseMeasurement | MeasurementFailure {
   if (result.status !== 'settled') return { ok: false, reason: result.reason };
   const src = netlist.source;
   const names = [...src.phases, ...Object.values(src.complements), ...Object.values(src.early)];
   const cycles: Record<string, NetCycle> = {};
   for (const name of names) {
-    const cycle = netCycle(result, netlist, name);
+    const cycle = index.cycle(name);
     if (typeof cycle === 'string') return { ok: false, reason: cycle };
     cycles[name] = cycle;
   }

@@ -22,6 +22,25 @@ const cornerShiftSchema = z.strictObject({
   drive: ratio('Drive multiplier at this corner', { above: 0 }).default(1),
 });
 
+const spiceParams = z.record(z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/), z.number())
+  .describe('SPICE .param values written after the model file, overriding its defaults');
+
+const spiceModelName = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.]*$/, 'must be a SPICE model name (letters, digits, _ .)');
+
+/** How to simulate this card's devices in ngspice (optional). */
+export const spiceSchema = z.strictObject({
+  models: z.string().min(1).describe('SPICE model file (.include), relative to the process card'),
+  n: spiceModelName.describe('Model name of the n device'),
+  p: spiceModelName.describe('Model name of the p device'),
+  diffusion: quantity('m', 'Drain/source diffusion length: AD = AS = W * diffusion, PD = PS = W', { atLeast: 0 }).default(0),
+  params: spiceParams.default({}),
+  corners: z.record(z.string(), z.strictObject({
+    n: spiceModelName.optional().describe('Model name of the n device at this corner'),
+    p: spiceModelName.optional().describe('Model name of the p device at this corner'),
+    params: spiceParams.default({}),
+  })).default({}).describe('Per process corner: other model names and/or .param overrides'),
+}).describe('Device models for transistor-level decks (phasegap spice, confirm, characterize)');
+
 export const processSchema = z.strictObject({
   name: z.string().min(1).describe('Name of the process card'),
   description: z.string().optional().describe('Free text; say here if the card is invented'),
@@ -38,8 +57,12 @@ export const processSchema = z.strictObject({
     n: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
     p: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
   })).describe('Named process corners, each shifting Vth and scaling drive for n and p separately'),
+  spice: spiceSchema.optional(),
+  tables: z.string().min(1).optional()
+    .describe('Characterized delay tables (JSON from phasegap characterize), relative to the card; selects the table model'),
 });
 
 export type ProcessCard = z.output<typeof processSchema>;
 export type DeviceParams = z.output<typeof deviceSchema>;
 export type DeviceType = 'n' | 'p';
+export type SpiceSection = z.output<typeof spiceSchema>;

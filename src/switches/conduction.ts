@@ -4,9 +4,7 @@
  * effect, at every point of the signal range it passes. A tgate conducts while either device does.
  */
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
-import type { CompiledNetlist } from '../netlist/netlist.js';
-import type { SimulationResult } from '../sim/engine.js';
-import { netCycle } from '../measure/phases.js';
+import type { CycleIndex } from '../measure/phases.js';
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
@@ -50,8 +48,8 @@ interface GateWave {
   readonly fall: GateRamp;
 }
 
-function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, result: SimulationResult, netlist: CompiledNetlist, vdd: number): GateWave | string {
-  const cycle = netCycle(result, netlist, device.net);
+function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number): GateWave | string {
+  const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
   const low = ls ? levelAt(ls.low, vdd) : 0;
@@ -59,12 +57,11 @@ function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, result: Simulation
   const delay = ls ? ls.delay : 0;
   const riseT = ls?.transition ?? cycle.riseTransition;
   const fallT = ls?.transition ?? cycle.fallTransition;
-  const up = { t50: cycle.rise + delay, transition: ls?.invert ? fallT : riseT };
-  const down = { t50: cycle.fall + delay, transition: ls?.invert ? riseT : fallT };
-  const [riseEdge, fallEdge] = ls?.invert ? [down, up] : [up, down];
+  // An inverting level shifter turns the net's fall into the gate's rise and the other way round.
+  const invert = ls?.invert === true;
   return {
-    rise: { ...riseEdge, low, high, rising: true },
-    fall: { ...fallEdge, low, high, rising: false },
+    rise: { t50: (invert ? cycle.fall : cycle.rise) + delay, transition: invert ? fallT : riseT, low, high, rising: true },
+    fall: { t50: (invert ? cycle.rise : cycle.fall) + delay, transition: invert ? riseT : fallT, low, high, rising: false },
   };
 }
 
@@ -109,14 +106,14 @@ function union(a: Interval, b: Interval, period: number): Interval {
   };
 }
 
-export function switchConduction(plan: SwitchPlan, result: SimulationResult, netlist: CompiledNetlist, devices: CornerDevices): SwitchConduction {
+export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices): SwitchConduction {
   const vdd = devices.vdd;
-  const T = result.period;
+  const T = cycles.period;
   const failed = (status: SwitchConduction['status'], detail: string): SwitchConduction =>
     ({ name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity });
   const waves: GateWave[] = [];
   for (const device of plan.devices) {
-    const wave = gateWave(plan, device, result, netlist, vdd);
+    const wave = gateWave(plan, device, cycles, vdd);
     if (typeof wave === 'string') return failed('unknown', wave);
     waves.push(wave);
   }

@@ -5,6 +5,7 @@ import type { ResolvedDesign } from '../../src/analysis/resolve.js';
 import { compileNetlist } from '../../src/netlist/netlist.js';
 import { expandSwitches } from '../../src/switches/plan.js';
 import { switchConduction } from '../../src/switches/conduction.js';
+import { CycleIndex } from '../../src/measure/phases.js';
 import { devicesAtCorner } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { designFromYaml, expectClose, processCard, resolveYaml } from '../helpers.js';
@@ -97,7 +98,7 @@ describe('switchConduction', () => {
       };
       const result = { status: 'settled' as const, reason: '', period: 50e-9, windowStart: 0, edges,
         startValues: new Uint8Array(netlist.netNames.length), glitches: [], periodsSimulated: 2 };
-      const c = switchConduction(plan, result, netlist, devices);
+      const c = switchConduction(plan, new CycleIndex(result, netlist), devices);
       return c.off - c.on;
     };
     expect(length(100e-12)).toBeGreaterThan(length(0));

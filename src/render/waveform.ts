@@ -1,0 +1,116 @@
+/**
+ * A corner's simulated edges as drawable ramps: per net, the level at the start of the reported
+ * period and its transitions as linear ramps (50 % time, full-swing transition time). Times are
+ * relative to the start of the reported period (a clock rising edge). The period repeats, so a
+ * waveform can be sampled over any time range.
+ */
+import type { CornerResult } from '../analysis/evaluate.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
+
+export interface Ramp {
+  /** 50 % time, s, relative to the start of the period. */
+  readonly t50: number;
+  /** Full-swing transition time, s. */
+  readonly transition: number;
+  readonly rising: boolean;
+}
+
+export interface NetWave {
+  readonly net: string;
+  /** Period, s. */
+  readonly period: number;
+  /** Logic level just before the period starts. */
+  readonly initial: 0 | 1;
+  /** Transitions in the period, in time order. */
+  readonly ramps: readonly Ramp[];
+}
+
+/** A vertex of a waveform: time, s, and level as a fraction of the swing (0 low, 1 high). */
+export type WavePoint = readonly [number, number];
+
+export function netWave(result: CornerResult, netlist: CompiledNetlist, net: string): NetWave {
+  const id = netlist.netIndex.get(net);
+  if (id === undefined) throw new Error(`internal: ${net} is not a net of the netlist`);
+  const sim = result.simulation;
+  const ramps: Ramp[] = [];
+  for (let i = 0; i < sim.edges.count; i++) {
+    if (sim.edges.net[i] !== id) continue;
+    ramps.push({ t50: sim.edges.time[i]! - sim.windowStart, transition: sim.edges.transition[i]!, rising: sim.edges.rising[i] === 1 });
+  }
+  ramps.sort((a, b) => a.t50 - b.t50);
+  return { net, period: sim.period, initial: sim.startValues[id] === 1 ? 1 : 0, ramps };
+}
+
+/** The ramps of a wave repeated over whole periods so that they cover [from, to]. */
+export function rampsBetween(wave: NetWave, from: number, to: number): Ramp[] {
+  const T = wave.period;
+  const widest = wave.ramps.reduce((m, r) => Math.max(m, r.transition), 0);
+  const first = Math.floor((from - widest) / T) - 1;
+  const last = Math.ceil((to + widest) / T) + 1;
+  const out: Ramp[] = [];
+  for (let k = first; k <= last; k++) {
+    for (const r of wave.ramps) {
+      const t50 = r.t50 + k * T;
+      if (t50 + r.transition / 2 >= from - T && t50 - r.transition / 2 <= to + T) out.push({ ...r, t50 });
+    }
+  }
+  return out;
+}
+
+/** Level of a ramp's straight line at time t (not clamped). */
+function line(r: Ramp, t: number): number {
+  const x = (t - r.t50) / r.transition;
+  return r.rising ? 0.5 + x : 0.5 - x;
+}
+
+/**
+ * Vertices of the waveform over [from, to]. Each ramp runs from one rail to the other; when the
+ * next ramp starts before this one ends (a short pulse), the two lines meet where they cross.
+ */
+export function wavePoints(wave: NetWave, from: number, to: number): WavePoint[] {
+  const ramps = rampsBetween(wave, from, to);
+  const raw: WavePoint[] = [];
+  if (ramps.length === 0) return [[from, wave.initial], [to, wave.initial]];
+  let start: WavePoint = [ramps[0]!.t50 - ramps[0]!.transition / 2, ramps[0]!.rising ? 0 : 1];
+  raw.push([-Infinity, start[1]]);
+  for (let i = 0; i < ramps.length; i++) {
+    const r = ramps[i]!;
+    const next = ramps[i + 1];
+    const end: WavePoint = [r.t50 + r.transition / 2, r.rising ? 1 : 0];
+    raw.push(start);
+    if (next && next.t50 - next.transition / 2 < end[0]) {
+      // The lines of r and next cross; r stops there and next starts from there.
+      const slope = (r.rising ? 1 : -1) / r.transition - (next.rising ? 1 : -1) / next.transition;
+      const cross = slope === 0 ? end[0] : Math.max(start[0], r.t50 + (line(next, r.t50) - 0.5) / slope);
+      const meet: WavePoint = [cross, Math.min(1, Math.max(0, line(r, cross)))];
+      start = meet;
+    } else {
+      raw.push(end);
+      if (next) start = [next.t50 - next.transition / 2, end[1]];
+    }
+  }
+  raw.push([Infinity, raw[raw.length - 1]![1]]);
+  return clip(raw, from, to);
+}
+
+/** Cuts a polyline (increasing times, infinite ends) to [from, to], interpolating at the cuts. */
+function clip(points: readonly WavePoint[], from: number, to: number): WavePoint[] {
+  const at = (t: number): number => {
+    for (let i = 1; i < points.length; i++) {
+      const [t1, v1] = points[i]!;
+      const [t0, v0] = points[i - 1]!;
+      if (t <= t1) return !Number.isFinite(t0) || t1 === t0 || !Number.isFinite(t1) ? v1 : v0 + ((v1 - v0) * (t - t0)) / (t1 - t0);
+    }
+    return points[points.length - 1]![1];
+  };
+  const out: WavePoint[] = [[from, at(from)]];
+  for (const p of points) if (p[0] > from && p[0] < to) out.push(p);
+  out.push([to, at(to)]);
+  return out;
+}
+
+/** Positive remainder of x modulo m. */
+export function wrapTime(x: number, m: number): number {
+  const r = x % m;
+  return r < 0 ? r + m : r;
+}
