@@ -13,7 +13,11 @@ import { inputError } from '../errors.js';
 import type { TemplateSpec, NetlistSpec } from '../schema/design.js';
 import type { GateSpec, Netlist } from './netlist.js';
 
-export function expandTemplate(spec: TemplateSpec): Netlist {
+/** Default tapered buffers, one per style, each of the count the style needs. */
+export const DEFAULT_BUFFERS = { nand: [2, 6, 18], nor: [3, 12] } as const;
+
+export function expandTemplate(input: TemplateSpec): Netlist {
+  const spec = { ...input, buffer: input.buffer ?? [...DEFAULT_BUFFERS[input.template]] };
   const stages = spec.stages;
   if (stages % 2 !== 0) {
     throw inputError('generator.stages', stages, `is odd; the ${spec.template} template needs an even number of inverters per chain (0, 2, 4, ...) so the feedback keeps its sense`);

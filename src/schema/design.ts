@@ -23,8 +23,8 @@ const commonTemplate = {
   stageLoad: quantity('F', 'Extra capacitance on every chain node (delay capacitors)', { atLeast: 0 }).default(0),
   gateSize: size.default(1).describe('Size of the cross-coupled NAND/NOR gates'),
   inputSize: size.default(1).describe('Size of the inverter that makes the complement of the input clock'),
-  buffer: z.array(size).min(0).max(12).default([2, 6])
-    .describe('Tapered output buffer from the chain end to each phase, sizes in order; nand needs an odd count, nor an even count'),
+  buffer: z.array(size).min(0).max(12).optional()
+    .describe('Tapered output buffer from the chain end to each phase, sizes in order; nand needs an odd count, nor an even count (default: nand [2, 6, 18], nor [3, 12])'),
   complementary: z.boolean().default(false)
     .describe('Also produce each phase\'s complement (named <phase>b) through one inverter, for transmission gates'),
   complementSize: size.optional().describe('Size of the complement inverter (default: the last buffer size)'),
