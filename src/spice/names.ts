@@ -21,5 +21,8 @@ export function spiceNodeNames(nets: readonly string[]): Map<string, string> {
 /** A number in SPICE notation with enough digits for timing work (no unit letters: 1e-9, not 1n). */
 export function spiceNumber(value: number): string {
   if (value === 0) return '0';
-  return Number(value.toPrecision(6)).toExponential().replace('e+', 'e');
+  const rounded = Number(value.toPrecision(6));
+  const magnitude = Math.abs(rounded);
+  if (magnitude >= 1e-3 && magnitude < 1e4) return String(rounded);
+  return rounded.toExponential().replace('e+', 'e');
 }

@@ -1,0 +1,145 @@
+/**
+ * The quantities a deck measures, each with the model's value: both dead times and clean gaps,
+ * every phase width, and every switch's turn-on and turn-off instant (its gate crossing the
+ * device's turn-on level at each end of the signal range, as the time after the clock's rising
+ * edge). Measurement windows open at the clock edge that precedes each event in the model's
+ * steady-state period, so one deck needs no second pass.
+ */
+import type { CompiledNetlist } from '../netlist/netlist.js';
+import type { PhaseMeasurement } from '../measure/phases.js';
+import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
+import type { SimulationResult } from '../sim/engine.js';
+import type { CornerDevices } from '../process/device.js';
+import type { SwitchPlan } from '../switches/plan.js';
+import { bodyThreshold, rampCrossing } from '../switches/physics.js';
+import { levelAt } from '../schema/level.js';
+import { spiceNumber } from './names.js';
+
+export type QuantityKind = 'dead' | 'gap' | 'width' | 'switch';
+
+/** One edge of a node crossing a level, with the absolute time the window opens (TD), s. */
+export interface Crossing {
+  readonly node: string;
+  readonly level: number;
+  readonly rising: boolean;
+  readonly td: number;
+}
+
+/** A measured interval from one crossing to another; ngspice reports targ - trig. */
+export interface Quantity {
+  /** ngspice measurement name (lower case). */
+  readonly name: string;
+  readonly kind: QuantityKind;
+  /** For people: `dead p1->p2`, `width p1`, `s_gnd off @ 0 V`. */
+  readonly label: string;
+  /** The model's value, s. */
+  readonly model: number;
+  readonly trig: Crossing;
+  readonly targ: Crossing;
+}
+
+/** Where the deck's steady-state window sits on the simulator's time axis. */
+export interface DeckWindow {
+  /** The clock's 50 % rising edge that opens the measured period, s. */
+  readonly start: number;
+  readonly period: number;
+  readonly duty: number;
+}
+
+function wrap(x: number, m: number): number {
+  const r = x % m;
+  return r < 0 ? r + m : r;
+}
+
+/** The clock 50 % edge (rising or falling) at or before a time on the deck's axis. */
+export function anchorBefore(time: number, window: DeckWindow): number {
+  const rel = time - window.start;
+  const k = Math.floor(rel / window.period);
+  const frac = rel - k * window.period;
+  return window.start + k * window.period + (frac >= window.duty * window.period ? window.duty * window.period : 0);
+}
+
+export interface QuantityContext {
+  readonly netlist: CompiledNetlist;
+  readonly result: SimulationResult;
+  readonly measurement: PhaseMeasurement;
+  readonly devices: CornerDevices;
+  readonly switches: readonly SwitchPlan[];
+  readonly node: (net: string) => string;
+  readonly window: DeckWindow;
+}
+
+export function deckQuantities(ctx: QuantityContext): Quantity[] {
+  const { measurement: m, window, devices } = ctx;
+  const vdd = devices.vdd;
+  const T = window.period;
+  // Model time -> deck time: the model's reported period maps onto the deck's window.
+  const toDeck = (t: number) => window.start + wrap(t - ctx.result.windowStart, T);
+  const crossing = (net: string, level: number, rising: boolean, deckTime: number): Crossing =>
+    ({ node: ctx.node(net), level, rising, td: Math.max(0, anchorBefore(deckTime, window)) });
+  const out: Quantity[] = [];
+  m.deadTimes.forEach((d, i) => {
+    const from = m.cycles[d.from]!;
+    const start = toDeck(from.fall);
+    for (const [kind, level, value] of [['dead', 0.5, d.t50], ['gap', GAP_LEVEL, d.gap]] as const) {
+      out.push({
+        name: `${kind}_${i + 1}`, kind, label: `${kind} ${d.from}->${d.to}`, model: value,
+        trig: crossing(d.from, level * vdd, false, start),
+        targ: crossing(d.to, level * vdd, true, start + d.t50),
+      });
+    }
+  });
+  Object.entries(m.widths).forEach(([net, width], i) => {
+    const rise = toDeck(m.cycles[net]!.rise);
+    out.push({
+      name: `width_${i + 1}`, kind: 'width', label: `width ${net}`, model: width,
+      trig: crossing(net, 0.5 * vdd, true, rise),
+      targ: crossing(net, 0.5 * vdd, false, rise + width),
+    });
+  });
+  let k = 0;
+  const cycles = new CycleIndex(ctx.result, ctx.netlist);
+  for (const plan of ctx.switches) {
+    if (plan.levelShifter) continue;
+    for (const device of plan.devices) {
+      const cycle = cycles.cycle(device.net);
+      if (typeof cycle === 'string') continue;
+      const d = device.kind === 'n' ? devices.n : devices.p;
+      const sigMin = levelAt(plan.signal.min, vdd);
+      const sigMax = levelAt(plan.signal.max, vdd);
+      const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
+      for (const vs of ends) {
+        const level = device.kind === 'n'
+          ? vs + bodyThreshold(d.vth, d.gamma, d.phi2f, vs - (plan.bulk ? levelAt(plan.bulk, vdd) : 0))
+          : vs - bodyThreshold(d.vth, d.gamma, d.phi2f, (plan.bulk ? levelAt(plan.bulk, vdd) : Math.max(vdd, sigMax)) - vs);
+        if (!(level > 0 && level < vdd)) continue;
+        const rise = rampCrossing({ t50: cycle.rise, transition: cycle.riseTransition, low: 0, high: vdd, rising: true }, level);
+        const fall = rampCrossing({ t50: cycle.fall, transition: cycle.fallTransition, low: 0, high: vdd, rising: false }, level);
+        const events: Array<['on' | 'off', number, boolean]> = device.kind === 'n'
+          ? [['on', rise, true], ['off', fall, false]]
+          : [['on', fall, false], ['off', rise, true]];
+        for (const [event, time, rising] of events) {
+          const at = toDeck(time);
+          const clockEdge = at - wrap(at - window.start, T);
+          k++;
+          out.push({
+            name: `sw_${k}`, kind: 'switch',
+            label: `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} ${event} @ ${Number(vs.toFixed(3))} V`,
+            model: at - clockEdge,
+            trig: { node: ctx.node(ctx.netlist.netNames[ctx.netlist.clock]!), level: 0.5 * vdd, rising: true, td: Math.max(0, clockEdge - 0.25 * window.duty * T) },
+            targ: crossing(device.net, level, rising, at),
+          });
+        }
+      }
+    }
+  }
+  return out;
+}
+
+function side(c: Crossing): string {
+  return `v(${c.node}) VAL=${spiceNumber(c.level)} ${c.rising ? 'RISE' : 'FALL'}=1 TD=${spiceNumber(c.td)}`;
+}
+
+export function measureLine(q: Quantity): string {
+  return `.meas tran ${q.name} TRIG ${side(q.trig)} TARG ${side(q.targ)}`;
+}
