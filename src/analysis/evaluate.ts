@@ -1,7 +1,7 @@
 /** One corner, end to end: devices -> gate timing -> event simulation -> measurements -> checks. */
 import type { Corner } from '../process/corner.js';
 import { devicesAtCorner } from '../process/device.js';
-import type { Mismatch } from '../delay/model.js';
+import type { GateTiming, Mismatch } from '../delay/model.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
@@ -20,26 +20,56 @@ export interface CornerResult {
   readonly pass: boolean;
 }
 
-export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, simulator: Simulator, mismatch?: Mismatch): CornerResult {
-  const { design, netlist, loads, model, card } = resolved;
-  const devices = devicesAtCorner(card, corner);
-  const timing = model.bind(netlist, loads, devices, mismatch);
-  const period = 1 / design.clock.frequency;
-  const simulation = simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition });
-  const cycles = new CycleIndex(simulation, netlist);
-  const measurement = measurePhases(simulation, netlist, cycles);
-  const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance }, resolved.labels);
-  const switches = measurement.ok ? resolved.switches.map((plan) => switchConduction(plan, cycles, devices)) : [];
-  if (measurement.ok) {
-    const byName = new Map(switches.map((s) => [s.name, s]));
-    checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period));
+/** Local mismatch of one sample: per-gate shifts for the delay model, per switch device shifts, V. */
+export interface SampleMismatch extends Mismatch {
+  /** switches[k][i] shifts device i of switch k. */
+  readonly switches: readonly Float64Array[];
+}
+
+/**
+ * Evaluates corners one after another with reused scratch (simulator, cycle index, timing
+ * table). With `borrow`, the result's simulation buffers stay the evaluator's: read it before
+ * the next call.
+ */
+export class CornerEvaluator {
+  private readonly simulator: Simulator;
+  private cycles: CycleIndex | null = null;
+  private timing: GateTiming | undefined;
+
+  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false) {
+    this.simulator = new Simulator(resolved.netlist);
   }
-  return { corner, simulation, measurement, switches, checks, pass: checks.every((c) => c.pass) };
+
+  evaluate(corner: Corner, mismatch?: SampleMismatch, devices = devicesAtCorner(this.resolved.card, corner)): CornerResult {
+    const { design, netlist, loads, model } = this.resolved;
+    const timing = model.bind(netlist, loads, devices, mismatch, this.borrow ? this.timing : undefined);
+    if (this.borrow) this.timing = timing;
+    const period = 1 / design.clock.frequency;
+    const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, { borrow: this.borrow });
+    const cycles = this.borrow && this.cycles ? this.cycles.reset(simulation) : new CycleIndex(simulation, netlist);
+    if (this.borrow) this.cycles = cycles;
+    const measurement = measurePhases(simulation, netlist, cycles);
+    const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance }, this.resolved.labels);
+    const switches = measurement.ok
+      ? this.resolved.switches.map((plan, k) => switchConduction(plan, cycles, devices, mismatch?.switches[k]))
+      : [];
+    if (measurement.ok) {
+      const byName = new Map(switches.map((s) => [s.name, s]));
+      checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period,
+        this.resolved.switchCheckNames));
+    }
+    return { corner, simulation, measurement, switches, checks, pass: checks.every((c) => c.pass) };
+  }
+}
+
+/** One corner with a fresh evaluator (results own their data). */
+export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, _simulator?: Simulator, mismatch?: SampleMismatch): CornerResult {
+  return new CornerEvaluator(resolved).evaluate(corner, mismatch);
 }
 
 export function evaluateAll(resolved: ResolvedDesign): CornerResult[] {
-  const simulator = new Simulator(resolved.netlist);
-  return resolved.corners.map(({ corner }) => evaluateCorner(resolved, corner, simulator));
+  const evaluator = new CornerEvaluator(resolved);
+  return resolved.corners.map(({ corner }) => evaluator.evaluate(corner));
 }
 
 export interface Limiting {
@@ -50,9 +80,12 @@ export interface Limiting {
   readonly margin: number | null;
 }
 
-/** The check with the least margin over all corners; an unmeasurable check beats any margin. */
-export function limitingCheck(results: readonly CornerResult[]): Limiting | null {
-  let best: Limiting | null = null;
+/**
+ * The check with the least margin over all corners; an unmeasurable check beats any margin.
+ * `start` continues a search over earlier results.
+ */
+export function limitingCheck(results: readonly CornerResult[], start: Limiting | null = null): Limiting | null {
+  let best: Limiting | null = start;
   for (const r of results) {
     for (const c of r.checks) {
       const worse = best === null

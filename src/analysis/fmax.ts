@@ -2,9 +2,8 @@
  * The highest clock frequency at which every check holds at every corner: bracket by doubling or
  * halving from the design's frequency, then bisect to a relative resolution.
  */
-import { evaluateCorner, limitingCheck, type Limiting } from './evaluate.js';
+import { CornerEvaluator, limitingCheck, type Limiting } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
-import { Simulator } from '../sim/engine.js';
 
 export interface FmaxOptions {
   /** Relative resolution of the answer, (hi - lo)/lo. */
@@ -39,13 +38,19 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
   const f0 = resolved.design.clock.frequency;
   const floor = options.floor ?? f0 / 1e6;
   const ceiling = options.ceiling ?? Math.max(f0 * 1e4, 1e12);
-  const simulator = new Simulator(resolved.netlist);
   let evaluations = 0;
   const trial = (f: number) => {
     const at = atFrequency(resolved, f);
-    const results = at.corners.map(({ corner }) => evaluateCorner(at, corner, simulator));
-    evaluations += results.length;
-    return { pass: results.every((r) => r.pass), limiting: limitingCheck(results) };
+    const evaluator = new CornerEvaluator(at, true);
+    let pass = true;
+    let worst: ReturnType<typeof limitingCheck> = null;
+    for (const { corner } of at.corners) {
+      const r = evaluator.evaluate(corner);
+      pass &&= r.pass;
+      worst = limitingCheck([r], worst);
+    }
+    evaluations += at.corners.length;
+    return { pass, limiting: worst };
   };
   const first = trial(f0);
   let lo: number;

@@ -10,6 +10,7 @@ import { analyticModel } from '../delay/analytic.js';
 import { checkLevelShifters, expandSwitches, type SwitchPlan } from '../switches/plan.js';
 import { checkConstraintReferences } from '../switches/references.js';
 import { requirementLabels, type RequirementLabels } from '../checks/requirements.js';
+import { switchCheckNames } from '../checks/switch-checks.js';
 
 export interface ResolvedDesign {
   readonly design: Design;
@@ -23,6 +24,8 @@ export interface ResolvedDesign {
   readonly model: DelayModel;
   /** Requirement values formatted once for check names. */
   readonly labels: RequirementLabels;
+  /** Names of the switch constraint checks, in order. */
+  readonly switchCheckNames: readonly string[];
 }
 
 export function resolveDesign(design: Design, card: ProcessCard, model: DelayModel = analyticModel): ResolvedDesign {
@@ -34,5 +37,6 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const corners = expandCorners(design.corners, card, design.clock.duty);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
-  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements) };
+  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements),
+    switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard) };
 }

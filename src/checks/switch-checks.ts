@@ -28,18 +28,33 @@ function unmeasurable(kind: Check['kind'], name: string, who: readonly SwitchCon
   return bad ? { kind, name, margin: null, pass: false, detail: bad.detail } : null;
 }
 
+/** Display names of every switch constraint, in the order switchChecks emits them; computed once per design. */
+export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: number): string[] {
+  return [
+    ...constraints.breakBeforeMake.map((bbm) => {
+      const guard = bbm.guard ?? defaultGuard;
+      return bbm.name ?? `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
+    }),
+    ...constraints.order.map((o) =>
+      o.name ?? `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`),
+    ...constraints.settle.map((path) =>
+      `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${path.error ?? bitsToError(path.bits!)}`}`),
+  ];
+}
+
 /**
  * All switch constraints at one corner. `windowDerating` (s) shortens every on-window for settling:
  * the input duty error moves a phase's width one for one.
  */
 export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction>,
-  period: number, windowDerating = 0): Check[] {
+  period: number, windowDerating = 0, names: readonly string[] = switchCheckNames(constraints, defaultGuard)): Check[] {
   const get = (name: string) => byName.get(name)!;
   const checks: Check[] = [];
+  let slot = 0;
   for (const bbm of constraints.breakBeforeMake) {
     const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];
     const guard = bbm.guard ?? defaultGuard;
-    const name = bbm.name ?? `${a.name}/${b.name} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
+    const name = names[slot++]!;
     const bad = unmeasurable('break-before-make', name, [a, b]);
     if (bad) { checks.push(bad); continue; }
     const margin = Math.min(handoverGap(a, b, period), handoverGap(b, a, period)) - guard;
@@ -48,7 +63,7 @@ export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number,
   for (const order of constraints.order) {
     const first = get(order.first.switch);
     const then = get(order.then.switch);
-    const name = order.name ?? `${first.name} ${order.first.event} before ${then.name} ${order.then.event}${order.min > 0 ? ` by ${formatTime(order.min)}` : ''}`;
+    const name = names[slot++]!;
     const bad = unmeasurable('order', name, [first, then]);
     if (bad) { checks.push(bad); continue; }
     // Worst case: the first event as late as it gets, the second as early.
@@ -60,7 +75,7 @@ export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number,
   for (const path of constraints.settle) {
     const members = path.switches.map(get);
     const epsilon = path.error ?? bitsToError(path.bits!);
-    const name = `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${epsilon}`}`;
+    const name = names[slot++]!;
     const bad = unmeasurable('settle', name, members);
     if (bad) { checks.push(bad); continue; }
     const ref = members[0]!.onLatest;

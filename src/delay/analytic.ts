@@ -36,7 +36,7 @@ export function alphaPowerTransition(load: number, vdd: number, current: number)
 const STRIDE = 6;
 
 class AnalyticTiming implements GateTiming {
-  constructor(private readonly table: Float64Array) {}
+  constructor(readonly table: Float64Array) {}
 
   delay(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
     const i = gate * STRIDE + (outputRising ? 0 : 2);
@@ -68,9 +68,10 @@ function pullWidths(netlist: CompiledNetlist, unit: { wn: number; wp: number }):
 
 export const analyticModel: DelayModel = {
   name: 'analytic',
-  bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch): GateTiming {
+  bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
-    const table = new Float64Array(count * STRIDE);
+    const recycled = reuse instanceof AnalyticTiming && reuse.table.length === count * STRIDE ? reuse : null;
+    const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
     const widths = pullWidths(netlist, unitWidths(devices.card));
     const vdd = devices.vdd;
     const { n, p } = devices;
@@ -90,7 +91,7 @@ export const analyticModel: DelayModel = {
       table[i + 4] = alphaPowerTransition(load, vdd, upCurrent);
       table[i + 5] = alphaPowerTransition(load, vdd, downCurrent);
     }
-    return new AnalyticTiming(table);
+    return recycled ?? new AnalyticTiming(table);
   },
 };
 

@@ -23,7 +23,8 @@ export interface DelayModel {
   readonly name: string;
   /**
    * Binds the model to a netlist, its net loads (F) and a corner. Throws an InputError if the
-   * corner is outside what the model can answer for.
+   * corner is outside what the model can answer for. `reuse`, a timing this model bound earlier
+   * for the same netlist, may be overwritten and returned instead of allocating (tight loops).
    */
-  bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch): GateTiming;
+  bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming;
 }

@@ -62,7 +62,9 @@ export class CycleIndex {
   private readonly riseT: Float64Array;
   private readonly fallT: Float64Array;
 
-  constructor(private readonly result: SimulationResult, private readonly netlist: CompiledNetlist) {
+  private result: SimulationResult;
+
+  constructor(result: SimulationResult, private readonly netlist: CompiledNetlist) {
     const n = netlist.netNames.length;
     this.rises = new Uint16Array(n);
     this.falls = new Uint16Array(n);
@@ -70,6 +72,20 @@ export class CycleIndex {
     this.fall = new Float64Array(n);
     this.riseT = new Float64Array(n);
     this.fallT = new Float64Array(n);
+    this.result = result;
+    this.index(result);
+  }
+
+  /** Re-indexes for another run of the same netlist, reusing the arrays. */
+  reset(result: SimulationResult): this {
+    this.rises.fill(0);
+    this.falls.fill(0);
+    this.result = result;
+    this.index(result);
+    return this;
+  }
+
+  private index(result: SimulationResult): void {
     const { edges } = result;
     for (let i = 0; i < edges.count; i++) {
       const id = edges.net[i]!;

@@ -26,6 +26,11 @@ export interface ClockDrive {
 export interface SimulationOptions {
   /** Most periods to simulate before giving up on steady state. */
   readonly maxPeriods?: number;
+  /**
+   * Hand out the simulator's own buffers instead of copies (no allocation). The result is then
+   * valid only until the next run; for tight loops such as Monte Carlo.
+   */
+  readonly borrow?: boolean;
 }
 
 export type SimulationStatus = 'settled' | 'unsettled' | 'oscillating';
@@ -64,6 +69,7 @@ export class Simulator {
   private startPrevious: Uint8Array;
   private readonly gateFunction: Array<(bits: number) => 0 | 1>;
   private seq = 0;
+  private readonly glitches: Array<{ net: number; time: number }> = [];
 
   constructor(netlist: CompiledNetlist) {
     this.net = netlist;
@@ -87,7 +93,8 @@ export class Simulator {
     const clockNet = net.clock;
     const eventLimit = EVENTS_PER_GATE_PER_PERIOD * (net.gateCount + 1);
     this.reset();
-    const glitchesCurrent: Array<{ net: number; time: number }> = [];
+    const glitchesCurrent = this.glitches;
+    glitchesCurrent.length = 0;
     // Settle from all-low: every gate whose output disagrees with its inputs switches.
     for (let g = 0; g < net.gateCount; g++) this.evaluateGate(timing, g, 0, 0, clock.transition, null);
     this.schedule(clockNet, t0, 1, clock.transition);
@@ -125,7 +132,9 @@ export class Simulator {
         if (periods >= 2 && samePeriod(this.previous, this.current, T)) {
           return {
             status: 'settled', reason: '', period: T, windowStart: windowEnd - T,
-            edges: this.current.snapshot(), startValues: this.startCurrent.slice(), glitches: glitchesCurrent.slice(),
+            edges: options.borrow ? this.current : this.current.snapshot(),
+            startValues: options.borrow ? this.startCurrent : this.startCurrent.slice(),
+            glitches: options.borrow ? glitchesCurrent : glitchesCurrent.slice(),
             periodsSimulated: periods,
           };
         }

@@ -69,16 +69,19 @@ function deviceAt(kind: 'n' | 'p', devices: CornerDevices): DeviceAtCorner {
   return kind === 'n' ? devices.n : devices.p;
 }
 
-/** Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven. */
-function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number) {
+/**
+ * Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven;
+ * `dvth` is a local mismatch shift of its threshold magnitude, V.
+ */
+function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number, dvth: number) {
   const sigMax = levelAt(plan.signal.max, vdd);
   if (device.kind === 'n') {
     const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : 0;
-    const vt = bodyThreshold(d.vth, d.gamma, d.phi2f, vs - bulk);
+    const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, vs - bulk);
     return { level: vs + vt, overdrive: high - vs - vt };
   }
   const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : Math.max(high, sigMax);
-  const vt = bodyThreshold(d.vth, d.gamma, d.phi2f, bulk - vs);
+  const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, bulk - vs);
   return { level: vs - vt, overdrive: vs - vt - low };
 }
 
@@ -106,7 +109,8 @@ function union(a: Interval, b: Interval, period: number): Interval {
   };
 }
 
-export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices): SwitchConduction {
+/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V. */
+export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const failed = (status: SwitchConduction['status'], detail: string): SwitchConduction =>
@@ -129,7 +133,7 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
     plan.devices.forEach((device, i) => {
       const wave = waves[i]!;
       const d = deviceAt(device.kind, devices);
-      const { level, overdrive } = deviceLevels(plan, device, d, vs, wave.rise.low, wave.rise.high, vdd);
+      const { level, overdrive } = deviceLevels(plan, device, d, vs, wave.rise.low, wave.rise.high, vdd, dvth ? dvth[i]! : 0);
       interval = union(interval, deviceInterval(device, wave, level), T);
       const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
       if (Number.isFinite(r)) conductance += 1 / r;
