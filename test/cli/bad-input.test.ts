@@ -1,0 +1,103 @@
+/**
+ * Bad input through the CLI: exit 2, one clear message on stderr naming the field path (or flag),
+ * the value and what is allowed, no stack trace, and nothing written even when -o is given.
+ */
+import { describe, it, expect } from 'vitest';
+import { existsSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { cli, design, fixture, tempDir } from '../helpers.js';
+
+const bad = (name: string): string => fixture('designs', 'bad', `${name}.yaml`);
+
+interface Case {
+  readonly what: string;
+  /** Arguments after `check`, before `-o`. */
+  readonly args: readonly string[];
+  /** Substrings the message must hold: the path, the value, the allowed set. */
+  readonly says: readonly string[];
+}
+
+const CASES: readonly Case[] = [
+  { what: 'a missing design file', args: ['no-such-design.yaml'],
+    says: ['DESIGN: ', '"no-such-design.yaml"', 'does not exist'] },
+  { what: 'malformed YAML', args: [bad('malformed')],
+    says: ['malformed.yaml: ', 'is not valid YAML or JSON', 'line 5'] },
+  { what: 'an unknown key', args: [bad('unknown-key')],
+    says: ['generator: ', 'unknown key "stage"', 'allowed keys', 'stages'] },
+  { what: 'a misspelt unit', args: [bad('wrong-unit')],
+    says: ['clock.frequency: ', '"20 MHzz"', 'is not a frequency', 'Hz', '"20MHz"'] },
+  { what: 'a negative frequency', args: [design('doubler'), '--set', 'clock.frequency=-20MHz'],
+    says: ['clock.frequency: ', '"-20MHz"', 'greater than 0 Hz'] },
+  { what: 'a zero frequency', args: [design('doubler'), '--set', 'clock.frequency=0'],
+    says: ['clock.frequency: ', ' 0 ', 'greater than 0 Hz'] },
+  { what: 'a duty above 1', args: [design('doubler'), '--set', 'clock.duty=1.2'],
+    says: ['clock.duty: ', '1.2', 'greater than 0 and less than 1'] },
+  { what: 'a duty of 0', args: [design('doubler'), '--set', 'clock.duty=0'],
+    says: ['clock.duty: ', ' 0 ', 'greater than 0 and less than 1'] },
+  { what: 'a supply below threshold at one corner', args: [bad('low-supply')],
+    says: ['corners.vdd[1]: ', '0.5 V', 'tt/0.5V/-40C', '0.517 V', 'cannot turn on'] },
+  { what: 'an odd chain length', args: [bad('odd-chain')],
+    says: ['generator.stages: ', '5', 'is odd', 'even number'] },
+  { what: 'a netlist with an undriven net', args: [bad('undriven-net')],
+    says: ['generator.gates[2].inputs[1]: ', '"fb2"', 'not driven by any gate', 'every input net needs a driver'] },
+  { what: 'a combinational loop without a clock', args: [bad('comb-loop')],
+    says: ['generator.gates: ', 'u_r1, u_r2, u_r3', 'combinational loop', 'feed it from the clock'] },
+  { what: 'an unknown process corner', args: [design('doubler'), '--set', 'corners.process=[tt, xx]'],
+    says: ['corners.process[1]: ', '"xx"', 'it defines tt, ss, ff, fs, sf'] },
+  { what: 'a load on a net that does not exist', args: [design('doubler'), '--set', 'loads.p3=1pF'],
+    says: ['loads.p3: ', '"p3"', 'is not a net of the generator', 'nets are'] },
+  { what: 'an unknown generator template', args: [design('doubler'), '--set', 'generator.template=nand3'],
+    says: ['generator.template: ', '"nand3"', "'nand'", "'nor'"] },
+  { what: 'a --set without =', args: [design('doubler'), '--set', 'clock.frequency'],
+    says: ['--set: ', '"clock.frequency"', 'PATH=VALUE'] },
+  { what: 'a --set with a malformed path', args: [design('doubler'), '--set', 'clock..duty=0.5'],
+    says: ['--set: ', '"clock..duty=0.5"', 'malformed path'] },
+  { what: 'a --set into a plain value', args: [design('doubler'), '--set', 'name.first=x'],
+    says: ['--set: ', '"name.first=x"', 'cannot set inside name'] },
+];
+
+describe('phasegap check on bad input', () => {
+  it.each(CASES)('rejects $what with exit 2 and a clear message, writing nothing', ({ args, says }) => {
+    const dir = tempDir();
+    const out = join(dir, 'report.json');
+    const run = cli('check', ...args, '--json', '-o', out);
+    expect(run.code).toBe(2);
+    expect(run.stdout).toBe('');
+    expect(run.stderr).toMatch(/^phasegap: error: /);
+    for (const text of says) expect(run.stderr).toContain(text);
+    // The message names the path once, not doubled (e.g. generator.template.template).
+    expect(run.stderr).not.toMatch(/(\b[a-z]+)\.\1\b/i);
+    expect(run.stderr).not.toMatch(/^\s+at /m);
+    expect(run.stderr).not.toMatch(/undefined|NaN/);
+    expect(existsSync(out)).toBe(false);
+    expect(readdirSync(dir)).toEqual([]);
+  });
+
+  it('lists every problem of a file with several, one per line', () => {
+    const run = cli('check', design('doubler'), '--set', 'clock.frequency=fast', '--set', 'clock.duty=2');
+    expect(run.code).toBe(2);
+    const lines = run.stderr.trimEnd().split('\n');
+    expect(lines).toHaveLength(2);
+    expect(lines.some((l) => l.startsWith('phasegap: error: clock.frequency: "fast"'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('phasegap: error: clock.duty: 2'))).toBe(true);
+  });
+
+  it('rejects an unknown command and a missing argument with exit 2 and usage help', () => {
+    const unknown = cli('chekc', design('doubler'));
+    expect(unknown.code).toBe(2);
+    expect(unknown.stderr).toContain("unknown command 'chekc'");
+    const missing = cli('check');
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toContain("missing required argument 'DESIGN'");
+  });
+
+  it('refuses an output folder that does not exist, naming --out', () => {
+    const dir = tempDir();
+    const out = join(dir, 'missing', 'report.json');
+    const run = cli('check', design('doubler'), '--json', '-o', out);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toContain('--out: ');
+    expect(run.stderr).toContain('cannot be written');
+    expect(readdirSync(dir)).toEqual([]);
+  });
+});
