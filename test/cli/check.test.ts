@@ -1,0 +1,193 @@
+import { describe, it, expect } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { cli, design, ROOT, tempDir } from '../helpers.js';
+
+interface JsonCheck { kind: string; name: string; margin: number | null; pass: boolean }
+interface JsonCorner {
+  name: string; process: string; vdd: number; temperature: number; duty: number;
+  deadTimes: Array<{ from: string; to: string; t50: number; gap: number }>;
+  widths: Record<string, number>;
+  checks: JsonCheck[];
+  verdict: 'pass' | 'fail';
+}
+interface JsonReport {
+  design: string;
+  verdict: 'pass' | 'fail';
+  corners: JsonCorner[];
+  limiting: { corner: string; check: string; margin: number | null } | null;
+}
+
+function report(name: string, ...extra: string[]): { code: number; json: JsonReport; stdout: string } {
+  const run = cli('check', design(name), '--json', ...extra);
+  expect(run.stderr).toBe('');
+  return { code: run.code, json: JSON.parse(run.stdout) as JsonReport, stdout: run.stdout };
+}
+
+describe('phasegap check --json', () => {
+  const { code, json } = report('doubler');
+
+  it('passes the demo design with exit 0', () => {
+    expect(code).toBe(0);
+    expect(json.design).toBe('doubler-clock');
+    expect(json.verdict).toBe('pass');
+  });
+
+  it('lists every corner of the product with its process, supply (V), temperature (C) and duty', () => {
+    expect(json.corners).toHaveLength(45);
+    const expected: string[] = [];
+    for (const p of ['tt', 'ss', 'ff', 'fs', 'sf']) for (const v of ['1.62V', '1.8V', '1.98V']) for (const t of ['-40C', '27C', '125C']) expected.push(`${p}/${v}/${t}`);
+    expect(json.corners.map((c) => c.name)).toEqual(expected);
+    const c = json.corners.find((x) => x.name === 'ss/1.62V/125C')!;
+    expect([c.process, c.vdd, c.temperature, c.duty]).toEqual(['ss', 1.62, 125, 0.5]);
+  });
+
+  it('gives both dead times per corner in seconds, the clean gap below the 50 % dead time', () => {
+    for (const c of json.corners) {
+      expect(c.deadTimes.map((d) => [d.from, d.to])).toEqual([['p1', 'p2'], ['p2', 'p1']]);
+      for (const d of c.deadTimes) {
+        // SI seconds: a dead time of this generator is between 100 ps and 10 ns, never ps-valued numbers.
+        expect(d.t50).toBeGreaterThan(100e-12);
+        expect(d.t50).toBeLessThan(10e-9);
+        expect(d.gap).toBeLessThan(d.t50);
+        expect(d.gap).toBeGreaterThan(0);
+      }
+    }
+  });
+
+  it('gives each phase width in seconds, less than the period', () => {
+    for (const c of json.corners) {
+      expect(Object.keys(c.widths).sort()).toEqual(['p1', 'p2']);
+      for (const w of Object.values(c.widths)) {
+        expect(w).toBeGreaterThan(0);
+        expect(w).toBeLessThan(50e-9);
+      }
+    }
+  });
+
+  it('gives checks with kind, name, margin and pass, and corner verdicts that follow from them', () => {
+    for (const c of json.corners) {
+      expect(c.checks.length).toBeGreaterThan(0);
+      for (const k of c.checks) {
+        expect(typeof k.kind).toBe('string');
+        expect(typeof k.name).toBe('string');
+        expect(typeof k.pass).toBe('boolean');
+        if (k.margin !== null) expect(k.pass).toBe(k.margin >= 0);
+      }
+      expect(c.verdict).toBe(c.checks.every((k) => k.pass) ? 'pass' : 'fail');
+    }
+    const kinds = new Set(json.corners.flatMap((c) => c.checks.map((k) => k.kind)));
+    for (const kind of ['non-overlap', 'dead-time-min', 'dead-time-max', 'width-min']) expect(kinds.has(kind)).toBe(true);
+  });
+
+  it('names the limiting corner and check: the least margin of all', () => {
+    const all = json.corners.flatMap((c) => c.checks.map((k) => ({ corner: c.name, check: k.name, margin: k.margin! })));
+    const least = all.reduce((a, b) => (b.margin < a.margin ? b : a));
+    expect(json.limiting).toMatchObject({ corner: least.corner, check: least.check, margin: least.margin });
+  });
+
+  it('measures the requirement margins from the dead times it reports', () => {
+    // The demo requires at least 500 ps dead time.
+    const c = json.corners.find((x) => x.name === 'ff/1.98V/-40C')!;
+    const check = c.checks.find((k) => k.kind === 'dead-time-min' && k.name.startsWith('dead p1->p2'))!;
+    expect(check.margin).toBeCloseTo(c.deadTimes[0]!.t50 - 500e-12, 20);
+  });
+
+  it('is deterministic: two runs print the same bytes', () => {
+    expect(report('doubler').stdout).toBe(report('doubler').stdout);
+  });
+});
+
+describe('phasegap check exit codes', () => {
+  it('passes sc-integrator (exit 0) and reports its early phases\' widths', () => {
+    const { code, json } = report('sc-integrator');
+    expect(code).toBe(0);
+    expect(json.verdict).toBe('pass');
+    expect(Object.keys(json.corners[0]!.widths).sort()).toEqual(['p1', 'p1e', 'p2', 'p2e']);
+  });
+
+  it('fails too-tight (exit 1) at a fast corner with a negative limiting margin', () => {
+    const { code, json } = report('too-tight');
+    expect(code).toBe(1);
+    expect(json.verdict).toBe('fail');
+    expect(json.limiting!.margin).toBeLessThan(0);
+    expect(json.limiting!.corner).toMatch(/^ff\//);
+    const failing = json.corners.filter((c) => c.verdict === 'fail').map((c) => c.name);
+    expect(failing).toContain('ff/1.98V/-40C');
+    expect(failing).not.toContain('ss/1.62V/125C');
+  });
+
+  it('exits 1 in table mode too', () => {
+    expect(cli('check', design('too-tight')).code).toBe(1);
+  });
+});
+
+describe('phasegap check table', () => {
+  const run = cli('check', design('doubler'));
+  const { json } = report('doubler');
+
+  it('prints one row per corner with the dead times in ps', () => {
+    const lines = run.stdout.split('\n');
+    for (const c of json.corners) {
+      const row = lines.find((l) => l.startsWith(`${c.name} `));
+      expect(row, c.name).toBeDefined();
+      expect(row).toContain(String(Math.round(c.deadTimes[0]!.t50 * 1e12)));
+    }
+  });
+
+  it('marks the smallest and largest dead time of the column', () => {
+    const rowOf = (name: string) => run.stdout.split('\n').find((l) => l.startsWith(`${name} `))!;
+    const min = json.corners.reduce((a, b) => (b.deadTimes[0]!.t50 < a.deadTimes[0]!.t50 ? b : a));
+    const max = json.corners.reduce((a, b) => (b.deadTimes[0]!.t50 > a.deadTimes[0]!.t50 ? b : a));
+    expect(rowOf(min.name)).toContain(`${Math.round(min.deadTimes[0]!.t50 * 1e12)} v`);
+    expect(rowOf(max.name)).toContain(`${Math.round(max.deadTimes[0]!.t50 * 1e12)} ^`);
+  });
+
+  it('names the limiting corner and quantity and the verdict', () => {
+    expect(run.stdout).toContain(`limiting: ${json.limiting!.check} at ${json.limiting!.corner}`);
+    expect(run.stdout).toMatch(/verdict: PASS \(45\/45 corners pass\)/);
+  });
+});
+
+describe('phasegap check -o', () => {
+  it('writes the same JSON to the file atomically, with no temporary file left and nothing on stdout', () => {
+    const dir = tempDir();
+    const out = join(dir, 'report.json');
+    const run = cli('check', design('doubler'), '--json', '-o', out);
+    expect(run.code).toBe(0);
+    expect(run.stdout).toBe('');
+    expect(readFileSync(out, 'utf8')).toBe(report('doubler').stdout);
+    expect(readdirSync(dir)).toEqual(['report.json']);
+  });
+
+  it('writes the table to a file and replaces an existing one', () => {
+    const dir = tempDir();
+    const out = join(dir, 'report.txt');
+    expect(cli('check', design('too-tight'), '-o', out).code).toBe(1);
+    expect(readFileSync(out, 'utf8')).toContain('verdict: FAIL');
+    expect(cli('check', design('doubler'), '-o', out).code).toBe(0);
+    expect(readFileSync(out, 'utf8')).toBe(cli('check', design('doubler')).stdout);
+    expect(readdirSync(dir)).toEqual(['report.txt']);
+  });
+
+  it('prints to stdout with -o -', () => {
+    const run = cli('check', design('doubler'), '--json', '-o', '-');
+    expect(run.stdout).toBe(report('doubler').stdout);
+  });
+});
+
+describe('the compiled binary', () => {
+  // `npm test` builds before vitest runs, so dist/ holds the shipped JavaScript.
+  it('runs check on the demo design from dist/ with exit 0', () => {
+    const main = join(ROOT, 'dist', 'src', 'cli', 'main.js');
+    expect(existsSync(main), 'dist/src/cli/main.js is missing: run npm run build').toBe(true);
+    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { bin: Record<string, string> };
+    expect(pkg.bin.phasegap).toBe('dist/src/cli/main.js');
+    const run = spawnSync(process.execPath, [main, 'check', 'fixtures/designs/doubler.yaml'], { cwd: ROOT, encoding: 'utf8' });
+    expect(run.stderr).toBe('');
+    expect(run.status).toBe(0);
+    expect(run.stdout).toContain('verdict: PASS');
+    expect(readFileSync(main, 'utf8').startsWith('#!/usr/bin/env node')).toBe(true);
+  });
+});
