@@ -1,0 +1,56 @@
+/**
+ * The delay-table file written by `phasegap characterize` and read by the table model
+ * (layout `phasegap-tables/1`, all numbers SI):
+ *
+ * - `size`: the cell size the tables were characterized at; the model scales loads by
+ *   size / (its gate's size), since every width and every parasitic scales with the size.
+ * - `transitions`: the input-transition axis (full-swing ramp time, s), ascending.
+ * - `loads`: the output-load axis (external capacitance at `size`, F), ascending.
+ * - `corners[]`: one per characterized corner (process corner name, supply V, temperature °C),
+ *   each with `cells[KIND].pins[i]`: `capacitance` (effective input capacitance of pin i, F) and
+ *   `rise`/`fall` (output edge) tables `delay` and `transition`, indexed [input transition][load],
+ *   in seconds. Delay is input 50 % to output 50 %; transition is the output's 10-90 % time / 0.8.
+ */
+import * as z from 'zod';
+
+const axis = (what: string) => z.array(z.number().positive()).min(2)
+  .refine((a) => a.every((v, i) => i === 0 || v > a[i - 1]!), { message: 'must be strictly ascending' })
+  .describe(what);
+
+const grid = z.array(z.array(z.number().refine(Number.isFinite, { message: 'must be a finite number' })).min(2)).min(2);
+
+const edgeTables = z.strictObject({
+  delay: grid.describe('Delay, s, [input transition][load]'),
+  transition: grid.describe('Output transition, s, [input transition][load]'),
+});
+
+const pinTables = z.strictObject({
+  capacitance: z.number().positive().describe('Effective input capacitance of the pin, F'),
+  rise: edgeTables.describe('Output rising'),
+  fall: edgeTables.describe('Output falling'),
+});
+
+export const TABLE_CELLS = ['INV', 'NAND2', 'NAND3', 'NOR2', 'NOR3'] as const;
+
+export const cornerTablesSchema = z.strictObject({
+  name: z.string().min(1),
+  process: z.string().min(1),
+  vdd: z.number().positive(),
+  temperature: z.number(),
+  cells: z.partialRecord(z.enum(TABLE_CELLS), z.strictObject({ pins: z.array(pinTables).min(1) })),
+});
+
+export const tablesSchema = z.strictObject({
+  format: z.literal('phasegap-tables/1'),
+  process: z.string().min(1).describe('Process card the tables were characterized for'),
+  description: z.string().optional(),
+  size: z.number().positive(),
+  transitions: axis('Input transition axis, s'),
+  loads: axis('Output load axis, F at the characterized size'),
+  corners: z.array(cornerTablesSchema).min(1),
+});
+
+export type DelayTables = z.output<typeof tablesSchema>;
+export type CornerTables = z.output<typeof cornerTablesSchema>;
+export type PinTables = z.output<typeof pinTables>;
+export type EdgeTables = z.output<typeof edgeTables>;
