@@ -1,8 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cli, design, ROOT, tempDir } from '../helpers.js';
+import { cli, design, processCard, ROOT, tempDir } from '../helpers.js';
 
 interface JsonCheck { kind: string; name: string; margin: number | null; pass: boolean }
 interface JsonCorner {
@@ -120,6 +120,33 @@ describe('phasegap check exit codes', () => {
 
   it('exits 1 in table mode too', () => {
     expect(cli('check', design('too-tight')).code).toBe(1);
+  });
+});
+
+describe('phasegap check on a generator that never settles', () => {
+  function netlistDesign(name: string, phases: string, gates: string[]): string {
+    const path = join(tempDir(), `${name}.yaml`);
+    writeFileSync(path, [
+      `name: ${name}`, `process: ${JSON.stringify(processCard('generic180'))}`, 'clock: { frequency: 1MHz }',
+      'generator:', '  template: netlist', `  phases: ${phases}`, '  gates:', ...gates.map((g) => `    - ${g}`), '',
+    ].join('\n'));
+    return path;
+  }
+
+  it('reports a gated ring oscillator as a failed steady-state check with the reason (exit 1)', () => {
+    const path = netlistDesign('gated-ring', '[r1, r2]', [
+      '{ name: g0, cell: NAND2, inputs: [clk, r3], output: r1 }',
+      '{ name: g1, cell: INV, inputs: [r1], output: r2 }',
+      '{ name: g2, cell: INV, inputs: [r2], output: r3 }',
+    ]);
+    const run = cli('check', path, '--json');
+    expect(run.code).toBe(1);
+    const json = JSON.parse(run.stdout) as JsonReport & { corners: Array<JsonCorner & { reason?: string }> };
+    expect(json.verdict).toBe('fail');
+    expect(json.corners[0]!.reason).toMatch(/^the generator oscillates: /);
+    expect(json.corners[0]!.deadTimes).toEqual([]);
+    expect(json.limiting).toMatchObject({ check: 'periodic steady state', margin: null });
+    expect(cli('check', path).stdout).toContain('FAIL (the generator oscillates');
   });
 });
 
