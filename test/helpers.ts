@@ -41,6 +41,22 @@ export function cli(...argv: string[]): CliRun {
     stderrIsTTY: false,
   };
   const code = run(argv, io);
+  if (typeof code !== 'number') throw new Error('this command runs asynchronously: use cliAsync');
+  return { code, stdout, stderr };
+}
+
+/** Like cli(), for the commands that return a promise (mc, sweep). */
+export async function cliAsync(...argv: string[]): Promise<CliRun> {
+  let stdout = '';
+  let stderr = '';
+  const io: Io = {
+    stdout: (t) => { stdout += t; },
+    stderr: (t) => { stderr += t; },
+    writeFile: writeFileAtomic,
+    exists: existsSync,
+    stderrIsTTY: false,
+  };
+  const code = await run(argv, io);
   return { code, stdout, stderr };
 }
 

@@ -1,7 +1,8 @@
 /** One corner, end to end: devices -> gate timing -> event simulation -> measurements -> checks. */
 import type { Corner } from '../process/corner.js';
 import { devicesAtCorner } from '../process/device.js';
-import type { GateTiming, Mismatch } from '../delay/model.js';
+import type { GateTiming } from '../delay/model.js';
+import type { SampleMismatch } from '../variation/mismatch.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
@@ -18,12 +19,6 @@ export interface CornerResult {
   readonly switches: readonly SwitchConduction[];
   readonly checks: readonly Check[];
   readonly pass: boolean;
-}
-
-/** Local mismatch of one sample: per-gate shifts for the delay model, per switch device shifts, V. */
-export interface SampleMismatch extends Mismatch {
-  /** switches[k][i] shifts device i of switch k. */
-  readonly switches: readonly Float64Array[];
 }
 
 /**

@@ -22,7 +22,7 @@ function outOption(what: string): Option {
   return new Option('-o, --out <FILE>', `write ${what} to FILE atomically ('-' for stdout)`);
 }
 
-export function buildProgram(io: Io, setCode: (code: number) => void): Command {
+export function buildProgram(io: Io, setCode: (code: number | Promise<number>) => void): Command {
   const program = new Command('phasegap')
     .description('Dead time, break-before-make and settling checks for two-phase non-overlapping clock generators')
     .version('0.1.0')
@@ -62,21 +62,26 @@ export function buildProgram(io: Io, setCode: (code: number) => void): Command {
   return program;
 }
 
-/** Runs the CLI on `argv` (without node and script) and returns the exit code. */
-export function run(argv: readonly string[], io: Io): number {
-  let code = EXIT_PASS;
-  const program = buildProgram(io, (c) => (code = c));
-  try {
-    program.parse([...argv], { from: 'user' });
-    return code;
-  } catch (error) {
-    if (error instanceof CommanderError) {
-      return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
-    }
+/**
+ * Runs the CLI on `argv` (without node and script) and returns the exit code, or a promise of it
+ * for the commands that run in parallel threads (mc, sweep).
+ */
+export function run(argv: readonly string[], io: Io): number | Promise<number> {
+  const outcome: { code: number | Promise<number> } = { code: EXIT_PASS };
+  const program = buildProgram(io, (c) => (outcome.code = c));
+  const fail = (error: unknown): number => {
+    if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
     if (error instanceof InputError) {
       for (const issue of error.issues) io.stderr(`phasegap: error: ${renderIssue(issue)}\n`);
       return EXIT_INPUT;
     }
     throw error;
+  };
+  try {
+    program.parse([...argv], { from: 'user' });
+  } catch (error) {
+    return fail(error);
   }
+  const result = outcome.code;
+  return typeof result === 'number' ? result : result.catch(fail);
 }

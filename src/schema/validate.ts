@@ -23,29 +23,52 @@ function defOf(schema: z.ZodType): SchemaDef {
   return (schema as unknown as { _zod: { def: SchemaDef } })._zod.def;
 }
 
-/** The object schemas a path can lead to (several where a union branches). */
-function objectsAt(schema: z.ZodType, path: readonly PropertyKey[]): SchemaDef[] {
+/**
+ * The object schemas a path can lead to (several where a union branches). `value` is the raw
+ * data at the same place: a discriminated union follows the branch its discriminator picks.
+ */
+function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unknown): SchemaDef[] {
   const def = defOf(schema);
+  const child = (key: PropertyKey) => (value !== null && typeof value === 'object' ? (value as Record<PropertyKey, unknown>)[key as string] : undefined);
   switch (def.type) {
     case 'default': case 'optional': case 'prefault': case 'nullable': case 'readonly':
-      return objectsAt(def.innerType!, path);
-    case 'pipe': return objectsAt(def.in!, path);
-    case 'union': return def.options!.flatMap((o) => objectsAt(o, path));
-    case 'array': return path.length === 0 ? [] : objectsAt(def.element!, path.slice(1));
-    case 'tuple': return path.length === 0 ? [] : objectsAt(def.items![Number(path[0])] ?? def.items![0]!, path.slice(1));
-    case 'record': return path.length === 0 ? [] : objectsAt(def.valueType!, path.slice(1));
+      return objectsAt(def.innerType!, path, value);
+    case 'pipe': return objectsAt(def.in!, path, value);
+    case 'union': {
+      const all = def.options!.map((o) => objectsAt(o, path, value));
+      const key = (def as { discriminator?: string }).discriminator;
+      if (key !== undefined) {
+        const picked = def.options!.findIndex((o) => literalValues(o, key).includes(child(key)));
+        if (picked >= 0) return all[picked]!;
+      }
+      return all.flat();
+    }
+    case 'array': return path.length === 0 ? [] : objectsAt(def.element!, path.slice(1), child(path[0]!));
+    case 'tuple': return path.length === 0 ? [] : objectsAt(def.items![Number(path[0])] ?? def.items![0]!, path.slice(1), child(path[0]!));
+    case 'record': return path.length === 0 ? [] : objectsAt(def.valueType!, path.slice(1), child(path[0]!));
     case 'object': {
       if (path.length === 0) return [def];
       const next = def.shape![String(path[0])];
-      return next ? objectsAt(next, path.slice(1)) : [];
+      return next ? objectsAt(next, path.slice(1), child(path[0]!)) : [];
     }
     default: return [];
   }
 }
 
-function knownKeys(schema: z.ZodType, path: readonly PropertyKey[]): string[] {
+/** The literal or enum values an object schema allows for `key` (its discriminator). */
+function literalValues(schema: z.ZodType, key: string): unknown[] {
+  const shape = defOf(schema).shape;
+  const field = shape?.[key];
+  if (!field) return [];
+  const def = defOf(field) as SchemaDef & { values?: unknown[]; entries?: Record<string, unknown> };
+  if (def.values) return def.values;
+  if (def.entries) return Object.values(def.entries);
+  return [];
+}
+
+function knownKeys(schema: z.ZodType, path: readonly PropertyKey[], root: unknown): string[] {
   const keys = new Set<string>();
-  for (const def of objectsAt(schema, path)) for (const key of Object.keys(def.shape ?? {})) keys.add(key);
+  for (const def of objectsAt(schema, path, root)) for (const key of Object.keys(def.shape ?? {})) keys.add(key);
   return [...keys];
 }
 
@@ -56,7 +79,7 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     case 'unrecognized_keys':
       return {
         path: joinPath(path, ''),
-        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => JSON.stringify(k)).join(', ')}; allowed keys here are ${allowedKeys(schema, issue.path)}`,
+        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => JSON.stringify(k)).join(', ')}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_type':
       return received === undefined
@@ -66,7 +89,8 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
       return { path, value: showValue(received), allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
     case 'invalid_union':
       if ('discriminator' in issue && issue.discriminator) {
-        return { path: joinPath(path, String(issue.discriminator)), value: showValue(valueAt(received, [issue.discriminator])), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
+        // zod already ends the path with the discriminator key.
+        return { path, value: showValue(received), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
       }
       if (received === undefined) return { path, allowed: 'is required' };
       return { path, value: showValue(received), allowed: describeUnion(issue) };
@@ -83,8 +107,8 @@ function describeUnion(issue: z.core.$ZodIssueInvalidUnion): string {
   return `does not match any allowed form (${inner.slice(0, 3).join('; ')})`;
 }
 
-function allowedKeys(schema: z.ZodType, path: readonly PropertyKey[]): string {
-  const known = knownKeys(schema, path);
+function allowedKeys(schema: z.ZodType, path: readonly PropertyKey[], root: unknown): string {
+  const known = knownKeys(schema, path, root);
   return known.length > 0 ? known.join(', ') : 'those listed by `phasegap schema`';
 }
 

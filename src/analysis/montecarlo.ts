@@ -1,0 +1,195 @@
+/**
+ * Monte Carlo mismatch (SPEC 2.5): dies drawn with Pelgrom's law, each evaluated at every corner.
+ * Work is cut into chunks of consecutive dies whose size does not depend on the number of threads,
+ * and chunk results are merged in chunk order, so any thread count gives identical numbers.
+ */
+import { CornerEvaluator } from './evaluate.js';
+import type { ResolvedDesign } from './resolve.js';
+import { addValue, emptyStats, mergeStats, summarize, wilsonInterval, type RunningState, type StatsSummary } from '../variation/stats.js';
+import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../variation/mismatch.js';
+import { devicesAtCorner } from '../process/device.js';
+import type { CheckKind } from '../checks/check.js';
+
+/** Dies per chunk: the unit of work handed to a thread. */
+export const CHUNK_SIZE = 250;
+
+/** What one chunk learned at one corner (plain data, safe to post between threads). */
+export interface CornerChunk {
+  passes: number;
+  unsettled: number;
+  /** Running statistics per quantity name (dead times, gaps, widths, check margins). */
+  quantities: Record<string, RunningState>;
+  kinds: Record<string, CheckKind | 'measure'>;
+  failures: Record<string, number>;
+  /** Least margin over all checks per die (-Infinity for a die that could not be measured). */
+  leastMargin: Float64Array;
+  /** 50 % dead times per die, s. */
+  dead0: Float64Array;
+  dead1: Float64Array;
+}
+
+export interface ChunkResult {
+  readonly start: number;
+  readonly count: number;
+  readonly corners: CornerChunk[];
+  /** Dies passing at every corner. */
+  readonly passesEverywhere: number;
+}
+
+export function chunkPlan(samples: number): Array<{ start: number; count: number }> {
+  const plan: Array<{ start: number; count: number }> = [];
+  for (let start = 0; start < samples; start += CHUNK_SIZE) plan.push({ start, count: Math.min(CHUNK_SIZE, samples - start) });
+  return plan;
+}
+
+function record(chunk: CornerChunk, name: string, kind: CheckKind | 'measure', value: number): void {
+  let s = chunk.quantities[name];
+  if (!s) {
+    s = emptyStats();
+    chunk.quantities[name] = s;
+    chunk.kinds[name] = kind;
+  }
+  addValue(s, value);
+}
+
+/** Evaluates dies [start, start + count) at every corner. Pure: same inputs, same result. */
+export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number): ChunkResult {
+  const evaluator = new CornerEvaluator(resolved, true);
+  const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
+  const mismatch = mismatchBuffers(sigmas);
+  const corners = resolved.corners.map(({ corner }) => ({ corner, devices: devicesAtCorner(resolved.card, corner) }));
+  const chunks: CornerChunk[] = corners.map(() => ({
+    passes: 0, unsettled: 0, quantities: {}, kinds: {}, failures: {},
+    leastMargin: new Float64Array(count), dead0: new Float64Array(count), dead1: new Float64Array(count),
+  }));
+  let passesEverywhere = 0;
+  for (let i = 0; i < count; i++) {
+    drawMismatch(sigmas, seed, start + i, mismatch);
+    let everywhere = true;
+    corners.forEach(({ corner, devices }, c) => {
+      const chunk = chunks[c]!;
+      const r = evaluator.evaluate(corner, mismatch, devices);
+      let least = Infinity;
+      for (const check of r.checks) {
+        if (check.margin === null) least = -Infinity;
+        else {
+          if (check.margin < least) least = check.margin;
+          record(chunk, check.name, check.kind, check.margin);
+        }
+        if (!check.pass) chunk.failures[check.name] = (chunk.failures[check.name] ?? 0) + 1;
+      }
+      const m = r.measurement;
+      if (m.ok) {
+        for (const d of m.deadTimes) {
+          record(chunk, `dead ${d.from}->${d.to}`, 'measure', d.t50);
+          record(chunk, `gap ${d.from}->${d.to}`, 'measure', d.gap);
+        }
+        for (const [phase, width] of Object.entries(m.widths)) record(chunk, `width ${phase}`, 'measure', width);
+        chunk.dead0[i] = m.deadTimes[0].t50;
+        chunk.dead1[i] = m.deadTimes[1].t50;
+      } else {
+        chunk.unsettled++;
+        chunk.dead0[i] = NaN;
+        chunk.dead1[i] = NaN;
+      }
+      chunk.leastMargin[i] = least;
+      if (r.pass) chunk.passes++;
+      else everywhere = false;
+    });
+    if (everywhere) passesEverywhere++;
+  }
+  return { start, count, corners: chunks, passesEverywhere };
+}
+
+export interface QuantityReport extends StatsSummary {
+  readonly name: string;
+  readonly kind: CheckKind | 'measure';
+  /** For checks: dies failing it. */
+  readonly failures?: number;
+  /** For checks: mean margin over its sigma, (mean - requirement)/sigma. */
+  readonly sigmaMargin?: number | null;
+}
+
+export interface McCornerReport {
+  readonly name: string;
+  readonly samples: number;
+  readonly passes: number;
+  readonly unsettled: number;
+  readonly yield: number;
+  /** 95 % Wilson score interval of the yield. */
+  readonly yieldInterval: { readonly low: number; readonly high: number };
+  readonly quantities: readonly QuantityReport[];
+  /** The die with the least margin at this corner, for --replay. */
+  readonly worstSample: { readonly index: number; readonly leastMargin: number | null };
+}
+
+export interface McResult {
+  readonly samples: number;
+  readonly seed: number;
+  readonly corners: readonly McCornerReport[];
+  /** Dies that pass at every corner. */
+  readonly yieldEverywhere: number;
+  readonly yieldEverywhereInterval: { readonly low: number; readonly high: number };
+  /** Per-die dead times of each corner (for histograms and quantiles), s. */
+  readonly deadTimes: ReadonlyArray<readonly [Float64Array, Float64Array]>;
+}
+
+/** Merges chunk results (in chunk order) into the run's report. */
+export function mergeChunks(resolved: ResolvedDesign, seed: number, samples: number, chunks: readonly ChunkResult[]): McResult {
+  const ordered = [...chunks].sort((a, b) => a.start - b.start);
+  const names = resolved.corners.map((c) => c.corner.name);
+  const corners = names.map((name, c): McCornerReport => {
+    const quantities: Record<string, RunningState> = {};
+    const kinds: Record<string, CheckKind | 'measure'> = {};
+    const failures: Record<string, number> = {};
+    let passes = 0;
+    let unsettled = 0;
+    let worstIndex = -1;
+    let worstMargin = Infinity;
+    for (const chunk of ordered) {
+      const part = chunk.corners[c]!;
+      passes += part.passes;
+      unsettled += part.unsettled;
+      for (const [q, s] of Object.entries(part.quantities)) {
+        if (!quantities[q]) quantities[q] = emptyStats();
+        mergeStats(quantities[q]!, s);
+        kinds[q] = part.kinds[q]!;
+      }
+      for (const [q, n] of Object.entries(part.failures)) failures[q] = (failures[q] ?? 0) + n;
+      part.leastMargin.forEach((m, i) => {
+        if (m < worstMargin || worstIndex < 0) {
+          worstMargin = m;
+          worstIndex = chunk.start + i;
+        }
+      });
+    }
+    const reports = Object.entries(quantities).map(([q, s]): QuantityReport => {
+      const summary = summarize(s);
+      if (kinds[q] === 'measure') return { name: q, kind: 'measure', ...summary };
+      return { name: q, kind: kinds[q]!, ...summary, failures: failures[q] ?? 0, sigmaMargin: summary.sigma > 0 ? summary.mean / summary.sigma : null };
+    });
+    for (const [q, n] of Object.entries(failures)) {
+      if (!quantities[q]) reports.push({ name: q, kind: 'steady-state', count: 0, mean: NaN, sigma: 0, min: NaN, max: NaN, failures: n, sigmaMargin: null });
+    }
+    return {
+      name, samples, passes, unsettled, yield: passes / samples, yieldInterval: wilsonInterval(passes, samples), quantities: reports,
+      worstSample: { index: worstIndex, leastMargin: Number.isFinite(worstMargin) ? worstMargin : null },
+    };
+  });
+  const everywhere = ordered.reduce((n, c) => n + c.passesEverywhere, 0);
+  const deadTimes = names.map((_, c): [Float64Array, Float64Array] => {
+    const d0 = new Float64Array(samples);
+    const d1 = new Float64Array(samples);
+    for (const chunk of ordered) {
+      d0.set(chunk.corners[c]!.dead0, chunk.start);
+      d1.set(chunk.corners[c]!.dead1, chunk.start);
+    }
+    return [d0, d1];
+  });
+  return { samples, seed, corners, yieldEverywhere: everywhere / samples, yieldEverywhereInterval: wilsonInterval(everywhere, samples), deadTimes };
+}
+
+/** Single-threaded run of every chunk. */
+export function runMonteCarlo(resolved: ResolvedDesign, samples: number, seed: number): McResult {
+  return mergeChunks(resolved, seed, samples, chunkPlan(samples).map(({ start, count }) => runChunk(resolved, seed, start, count)));
+}

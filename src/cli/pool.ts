@@ -1,0 +1,80 @@
+/**
+ * A small worker_threads pool: tasks go out to N threads, results come back with their task
+ * index; the caller decides the order in which it uses them. Stopping terminates every thread.
+ */
+import { Worker } from 'node:worker_threads';
+import { fileURLToPath } from 'node:url';
+import { dirname, join } from 'node:path';
+import { existsSync } from 'node:fs';
+import { InputError, type InputIssue } from '../errors.js';
+
+/** The compiled worker script (tests run from TypeScript sources, workers always run compiled JS). */
+function workerScript(): string {
+  const here = fileURLToPath(import.meta.url);
+  if (here.endsWith('.js')) return join(dirname(here), 'worker.js');
+  const compiled = join(dirname(here), '..', '..', 'dist', 'src', 'cli', 'worker.js');
+  if (!existsSync(compiled)) throw new Error('worker threads need the compiled build: run npm run build first');
+  return compiled;
+}
+
+export interface PoolHandle {
+  /** Terminates the threads; pending tasks are dropped. */
+  stop(): void;
+}
+
+export function runPool<T, R>(
+  setup: unknown,
+  tasks: readonly T[],
+  threads: number,
+  onResult: (index: number, result: R) => void,
+  onStart?: (handle: PoolHandle) => void,
+): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const script = workerScript();
+    const workers: Worker[] = [];
+    let next = 0;
+    let done = 0;
+    let stopped = false;
+    const stop = () => {
+      stopped = true;
+      for (const w of workers) void w.terminate();
+    };
+    const feed = (w: Worker) => {
+      if (stopped) return;
+      if (next >= tasks.length) {
+        void w.terminate();
+        return;
+      }
+      const index = next++;
+      w.postMessage({ index, task: tasks[index] });
+    };
+    const count = Math.max(1, Math.min(threads, tasks.length));
+    if (tasks.length === 0) {
+      resolve();
+      return;
+    }
+    for (let i = 0; i < count; i++) {
+      const w = new Worker(script, { workerData: setup });
+      workers.push(w);
+      w.on('message', (message: { index: number; result?: R; error?: string; issues?: InputIssue[] }) => {
+        if (message.error !== undefined) {
+          stop();
+          reject(message.issues ? new InputError(message.issues) : new Error(message.error));
+          return;
+        }
+        onResult(message.index, message.result as R);
+        done++;
+        if (done === tasks.length) {
+          stop();
+          resolve();
+        } else feed(w);
+      });
+      w.on('error', (error) => {
+        stop();
+        reject(error);
+      });
+      feed(w);
+    }
+    onStart?.({ stop: () => { stop(); resolve(); } });
+  });
+}

@@ -1,0 +1,41 @@
+/** A worker thread: loads the design once, then evaluates the chunks of Monte Carlo or sweep work it is sent. */
+import { parentPort, workerData } from 'node:worker_threads';
+import { loadDesign } from './load.js';
+import { resolveDesign } from '../analysis/resolve.js';
+import { runChunk, type ChunkResult } from '../analysis/montecarlo.js';
+import { sweepRows, type SweepSetup } from './sweep-points.js';
+import { InputError } from '../errors.js';
+
+export type WorkerSetup =
+  | { readonly kind: 'mc'; readonly designPath: string; readonly overrides: readonly string[]; readonly seed: number }
+  | ({ readonly kind: 'sweep' } & SweepSetup);
+
+const setup = workerData as WorkerSetup;
+const port = parentPort!;
+
+if (setup.kind === 'mc') {
+  const { design, card } = loadDesign(setup.designPath, setup.overrides);
+  const resolved = resolveDesign(design, card);
+  port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
+    try {
+      const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count);
+      const transfer = result.corners.flatMap((c) => [c.leastMargin.buffer, c.dead0.buffer, c.dead1.buffer]) as ArrayBuffer[];
+      port.postMessage({ index, result }, transfer);
+    } catch (error) {
+      port.postMessage(failure(index, error));
+    }
+  });
+} else {
+  port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
+    try {
+      port.postMessage({ index, result: sweepRows(setup, task.start, task.count) });
+    } catch (error) {
+      port.postMessage(failure(index, error));
+    }
+  });
+}
+
+function failure(index: number, error: unknown) {
+  if (error instanceof InputError) return { index, error: error.message, issues: error.issues };
+  return { index, error: error instanceof Error ? error.stack ?? error.message : String(error) };
+}

@@ -1,0 +1,87 @@
+/**
+ * Local threshold mismatch (M. Pelgrom, A. Duinmaijer, A. Welbers, "Matching properties of MOS
+ * transistors", IEEE JSSC 24(5):1433-1439, 1989): sigma(dVth) = A_VT / sqrt(W * L) per device.
+ *
+ * Each sample is one die: every device of every instance gets an independent draw, the same at
+ * every corner. A cell's pull network takes the mean of its devices' shifts where they are in
+ * series (so its sigma is the device's over sqrt(k)) and one device's shift where they are in
+ * parallel (the switching device); this is what the delay model, which sees one threshold per
+ * network, can use.
+ */
+import { randomLcg, randomNormal } from 'd3-random';
+import { CELLS, cellWidths } from '../cells/library.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
+import type { ProcessCard } from '../schema/process.js';
+import type { SwitchPlan } from '../switches/plan.js';
+import type { Mismatch } from '../delay/model.js';
+
+/** Local mismatch of one sample: per-gate shifts for the delay model, per switch device shifts, V. */
+export interface SampleMismatch extends Mismatch {
+  /** switches[k][i] shifts device i of switch k. */
+  readonly switches: readonly Float64Array[];
+}
+
+/** Pelgrom's law: sigma of a device's threshold, V. */
+export function pelgromSigma(avt: number, w: number, l: number): number {
+  return avt / Math.sqrt(w * l);
+}
+
+export interface MismatchSigmas {
+  /** Sigma of each gate's pull-down and pull-up threshold shift, V. */
+  readonly gateN: Float64Array;
+  readonly gateP: Float64Array;
+  /** Sigma of each device of each switch, V. */
+  readonly switches: readonly Float64Array[];
+}
+
+export function mismatchSigmas(netlist: CompiledNetlist, card: ProcessCard, switches: readonly SwitchPlan[]): MismatchSigmas {
+  const unit = { wn: card.unit.wn, wp: card.unit.wp };
+  const gateN = new Float64Array(netlist.gateCount);
+  const gateP = new Float64Array(netlist.gateCount);
+  for (let g = 0; g < netlist.gateCount; g++) {
+    const cell = netlist.gateCell[g]!;
+    const shape = CELLS[cell];
+    const w = cellWidths(cell, netlist.gateSize[g]!, unit);
+    gateN[g] = pelgromSigma(card.n.avt, w.wn, card.lmin) / Math.sqrt(shape.nSeries);
+    gateP[g] = pelgromSigma(card.p.avt, w.wp, card.lmin) / Math.sqrt(shape.pSeries);
+  }
+  const sw = switches.map((plan) => Float64Array.from(plan.devices, (d) => pelgromSigma(card[d.kind].avt, d.w, d.l)));
+  return { gateN, gateP, switches: sw };
+}
+
+/** A 32-bit mix of the run's seed and the sample index (a splitmix-style finaliser). */
+export function sampleSeed(seed: number, sample: number): number {
+  let h = (Math.imul(seed | 0, 0x9e3779b1) ^ Math.imul(sample + 1, 0x85ebca6b)) >>> 0;
+  h = Math.imul(h ^ (h >>> 16), 0x7feb352d) >>> 0;
+  h = Math.imul(h ^ (h >>> 15), 0x846ca68b) >>> 0;
+  h = (h ^ (h >>> 16)) >>> 0;
+  return h / 4294967296;
+}
+
+/** Fresh, zeroed mismatch buffers shaped for the design. */
+export function mismatchBuffers(sigmas: MismatchSigmas): SampleMismatch {
+  return {
+    dvthN: new Float64Array(sigmas.gateN.length),
+    dvthP: new Float64Array(sigmas.gateP.length),
+    switches: sigmas.switches.map((s) => new Float64Array(s.length)),
+  };
+}
+
+/**
+ * Draws die `sample` of a run into `out` (overwritten): the same (seed, sample) gives the same
+ * numbers on any machine and in any thread.
+ */
+export function drawMismatch(sigmas: MismatchSigmas, seed: number, sample: number, out: SampleMismatch): SampleMismatch {
+  const normal = randomNormal.source(randomLcg(sampleSeed(seed, sample)))(0, 1);
+  const n = out.dvthN as Float64Array;
+  const p = out.dvthP as Float64Array;
+  for (let g = 0; g < sigmas.gateN.length; g++) {
+    n[g] = sigmas.gateN[g]! * normal();
+    p[g] = sigmas.gateP[g]! * normal();
+  }
+  sigmas.switches.forEach((s, k) => {
+    const target = out.switches[k]!;
+    for (let i = 0; i < s.length; i++) target[i] = s[i]! * normal();
+  });
+  return out;
+}
