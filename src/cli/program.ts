@@ -6,6 +6,7 @@ import { runCheck } from './commands/check.js';
 import { runInit } from './commands/init.js';
 import { runSchema } from './commands/schema.js';
 import { runFmax } from './commands/fmax.js';
+import { runMc } from './commands/mc.js';
 
 export const EXIT_PASS = 0;
 export const EXIT_FAIL = 1;
@@ -46,6 +47,19 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, opts: { set: string[]; json: boolean; out?: string; resolution?: string }) => setCode(runFmax(io, design, opts)));
+
+  program.command('mc')
+    .description('Monte Carlo local mismatch (Pelgrom) on every corner: yield with a 95 % interval, sigma margins')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--samples <N>', 'dies to draw (default: montecarlo.samples, else 1000)')
+    .option('--seed <S>', 'random seed, a whole number (default: montecarlo.seed, else 1)')
+    .option('--workers <K>', 'threads (default: the number of cores); results do not depend on it')
+    .option('--replay <INDEX>', 'evaluate one die at every corner and print its check table')
+    .option('--histogram <FILE.svg>', 'also draw the dead-time histograms of the worst corner')
+    .option('--json', 'print the machine report (SI units)', false)
+    .addOption(outOption('the report'))
+    .action((design: string, opts: Parameters<typeof runMc>[2]) => setCode(runMc(io, design, opts)));
 
   program.command('schema')
     .description('print the JSON Schema of the design file')

@@ -1,0 +1,97 @@
+/** `phasegap mc DESIGN`: Monte Carlo mismatch on every corner, yield and sigma margins, in parallel threads. */
+import { availableParallelism } from 'node:os';
+import { chunkPlan, mergeChunks, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { CornerEvaluator } from '../../analysis/evaluate.js';
+import { checkReport } from '../../report/check-report.js';
+import { renderCheckText } from '../../report/check-text.js';
+import { mcReport, renderMcText } from '../../report/mc-report.js';
+import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
+import { inputError } from '../../errors.js';
+import type { Io } from '../io.js';
+import { loadDesign } from '../load.js';
+import { emit, toJson } from '../output.js';
+import { runPool } from '../pool.js';
+import { progressBar } from '../progress.js';
+import { renderHistogram } from '../../render/svg/histogram.js';
+
+export interface McOptions {
+  readonly set: readonly string[];
+  readonly json: boolean;
+  readonly out?: string;
+  readonly samples?: string;
+  readonly seed?: string;
+  readonly workers?: string;
+  readonly replay?: string;
+  readonly histogram?: string;
+}
+
+export function wholeNumber(flag: string, text: string | undefined, min: number, fallback: number): number {
+  if (text === undefined) return fallback;
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < min) throw inputError(flag, text, `must be a whole number of at least ${min}`);
+  return value;
+}
+
+export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
+  const { design, card } = loadDesign(designPath, options.set);
+  const resolved = resolveDesign(design, card);
+  const samples = wholeNumber('--samples', options.samples, 1, design.montecarlo?.samples ?? 1000);
+  const seed = wholeNumber('--seed', options.seed, 0, design.montecarlo?.seed ?? 1);
+  const threads = wholeNumber('--workers', options.workers, 1, availableParallelism());
+  if (options.replay !== undefined) {
+    const die = wholeNumber('--replay', options.replay, 0, 0);
+    const sigmas = mismatchSigmas(resolved.netlist, card, resolved.switches);
+    const mismatch = drawMismatch(sigmas, seed, die, mismatchBuffers(sigmas));
+    const evaluator = new CornerEvaluator(resolved);
+    const results = resolved.corners.map(({ corner }) => evaluator.evaluate(corner, mismatch));
+    const report = { ...checkReport(resolved, results), design: `${design.name} (die ${die}, seed ${seed})` };
+    emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
+    return report.verdict === 'pass' ? 0 : 1;
+  }
+  const plan = chunkPlan(samples);
+  const chunks: ChunkResult[] = [];
+  const bar = progressBar(io, samples * resolved.corners.length, 'mc', !options.json);
+  let done = 0;
+  const take = (result: ChunkResult) => {
+    chunks.push(result);
+    done += result.count * resolved.corners.length;
+    bar.update(done);
+  };
+  if (threads === 1 || plan.length === 1) {
+    for (const { start, count } of plan) take(runChunk(resolved, seed, start, count));
+  } else {
+    let interrupted = false;
+    let stopPool = () => undefined as void;
+    const onSigint = () => { interrupted = true; stopPool(); };
+    process.once('SIGINT', onSigint);
+    try {
+      await runPool<{ start: number; count: number }, ChunkResult>(
+        { kind: 'mc', designPath, overrides: options.set, seed }, plan, threads,
+        (_i, result) => take(result),
+        (handle) => { stopPool = () => handle.stop(); },
+      );
+    } finally {
+      process.removeListener('SIGINT', onSigint);
+      bar.stop();
+    }
+    if (interrupted) {
+      io.stderr('phasegap: interrupted; no report written\n');
+      return 130;
+    }
+  }
+  bar.stop();
+  const mc = mergeChunks(resolved, seed, samples, chunks);
+  const report = mcReport(design.name, card.name, mc, design.requirements.minYield);
+  if (options.histogram !== undefined) {
+    const c = report.corners.findIndex((x) => x.name === report.worstCorner);
+    emit(io, renderHistogram({
+      title: `${design.name}: dead times at ${report.worstCorner}`,
+      subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
+      series: mc.deadTimes[c]!.map((values, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, values })),
+      requirement: design.requirements.deadTime?.min,
+    }), options.histogram);
+  }
+  emit(io, options.json ? toJson(report) : renderMcText(report), options.out);
+  return report.verdict === 'pass' ? 0 : 1;
+}

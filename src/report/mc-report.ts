@@ -1,0 +1,105 @@
+/** The Monte Carlo report: plain data for --json, and its table for people. */
+import { quantileSorted } from 'd3-array';
+import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
+import { formatTime } from '../units/format.js';
+import { CAUTIONS } from './cautions.js';
+import { renderTable } from './text-table.js';
+
+/** Quantiles reported for the dead times: the ±3 sigma tails and the median. */
+export const QUANTILES = [0.00135, 0.5, 0.99865] as const;
+
+export interface McReport {
+  readonly tool: 'phasegap';
+  readonly design: string;
+  readonly process: string;
+  readonly samples: number;
+  readonly seed: number;
+  readonly minYield: number | null;
+  /** Fraction of dies passing at every corner, with its 95 % Wilson interval. */
+  readonly yield: { readonly value: number; readonly low: number; readonly high: number };
+  readonly verdict: 'pass' | 'fail';
+  /** Corner with the lowest yield, then the least sigma margin. */
+  readonly worstCorner: string;
+  readonly corners: ReadonlyArray<McCornerReport & { readonly deadTimeQuantiles: ReadonlyArray<Readonly<Record<string, number>>> }>;
+  readonly cautions: readonly string[];
+}
+
+function quantiles(values: Float64Array): Record<string, number> {
+  const finite = Float64Array.from(values.filter((v) => Number.isFinite(v))).sort();
+  const out: Record<string, number> = {};
+  const sorted = Array.from(finite);
+  for (const q of QUANTILES) out[`q${q}`] = sorted.length > 0 ? quantileSorted(sorted, q)! : NaN;
+  return out;
+}
+
+function leastSigma(c: McCornerReport): number {
+  let least = Infinity;
+  for (const q of c.quantities) if (q.sigmaMargin !== undefined && q.sigmaMargin !== null && q.sigmaMargin < least) least = q.sigmaMargin;
+  return least;
+}
+
+export function mcReport(design: string, process: string, mc: McResult, minYield: number | undefined): McReport {
+  const corners = mc.corners.map((c, i) => ({ ...c, deadTimeQuantiles: mc.deadTimes[i]!.map(quantiles) }));
+  let worst = corners[0]!;
+  for (const c of corners) {
+    if (c.yield < worst.yield || (c.yield === worst.yield && leastSigma(c) < leastSigma(worst))) worst = c;
+  }
+  const pass = minYield === undefined ? mc.yieldEverywhere === 1 : mc.yieldEverywhere >= minYield;
+  return {
+    tool: 'phasegap', design, process, samples: mc.samples, seed: mc.seed, minYield: minYield ?? null,
+    yield: { value: mc.yieldEverywhere, ...mc.yieldEverywhereInterval },
+    verdict: pass ? 'pass' : 'fail', worstCorner: worst.name, corners, cautions: CAUTIONS,
+  };
+}
+
+const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
+const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-');
+
+export function renderMcText(r: McReport): string {
+  const lines: string[] = [];
+  lines.push(`${r.design}: Monte Carlo mismatch on ${r.process}, ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
+  lines.push('');
+  const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);
+  const rows = r.corners.map((c) => {
+    const d0 = dead(c, 0);
+    const d1 = dead(c, 1);
+    const sigma = leastSigma(c);
+    return [
+      c.name, pct(c.yield), `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
+      d0 ? `${ps(d0.mean)} / ${ps(d0.sigma)}` : '-', d0 ? ps(d0.min) : '-',
+      d1 ? `${ps(d1.mean)} / ${ps(d1.sigma)}` : '-', d1 ? ps(d1.min) : '-',
+      Number.isFinite(sigma) ? sigma.toFixed(1) : '-', String(c.worstSample.index),
+    ];
+  });
+  const first = r.corners[0];
+  const deadNames = first ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => q.name) : [];
+  lines.push(renderTable([
+    { header: 'corner', align: 'left' }, { header: 'yield', align: 'right' }, { header: '95 % interval', align: 'right' },
+    { header: `${deadNames[0] ?? 'dead'} mean/sigma ps`, align: 'right' }, { header: 'min ps', align: 'right' },
+    { header: `${deadNames[1] ?? 'dead'} mean/sigma ps`, align: 'right' }, { header: 'min ps', align: 'right' },
+    { header: 'least sigma margin', align: 'right' }, { header: 'worst die', align: 'right' },
+  ], rows));
+  const worst = r.corners.find((c) => c.name === r.worstCorner)!;
+  lines.push('');
+  lines.push(`checks at the worst corner ${worst.name} (sigma margin = mean margin / sigma):`);
+  const checkRows = worst.quantities.filter((q) => q.kind !== 'measure').map((q) => [
+    q.kind, q.name, signed(q.mean), formatTime(q.sigma), signed(q.min),
+    q.sigmaMargin === null || q.sigmaMargin === undefined ? '-' : q.sigmaMargin.toFixed(1), String(q.failures ?? 0),
+  ]);
+  lines.push(renderTable([
+    { header: 'kind', align: 'left' }, { header: 'check', align: 'left' }, { header: 'mean margin', align: 'right' },
+    { header: 'sigma', align: 'right' }, { header: 'worst', align: 'right' }, { header: 'sigma margin', align: 'right' },
+    { header: 'failing dies', align: 'right' },
+  ], checkRows));
+  lines.push('');
+  lines.push(`yield at every corner: ${pct(r.yield.value)} (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}`);
+  lines.push(`replay the worst die: phasegap mc DESIGN --seed ${r.seed} --replay ${worst.worstSample.index}`);
+  lines.push(`verdict: ${r.verdict === 'pass' ? 'PASS' : 'FAIL'}`);
+  lines.push('', ...r.cautions.map((c) => `caution: ${c}`));
+  return `${lines.join('\n')}\n`;
+}
+
+function signed(x: number): string {
+  if (!Number.isFinite(x)) return '-';
+  return `${x < 0 ? '-' : '+'}${formatTime(Math.abs(x))}`;
+}
