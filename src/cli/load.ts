@@ -6,6 +6,10 @@ import { InputError, inputError } from '../errors.js';
 import { designSchema, type Design } from '../schema/design.js';
 import { processSchema, type ProcessCard } from '../schema/process.js';
 import { parseWith } from '../schema/validate.js';
+import { tablesSchema, type DelayTables } from '../schema/tables.js';
+import type { DelayModel } from '../delay/model.js';
+import { checkTables } from '../delay/table.js';
+import { parseModelChoice, selectModel } from '../delay/select.js';
 import { applyOverrides } from './overrides.js';
 
 /** Reads a YAML or JSON file into plain data; the path names the file in errors. */
@@ -36,6 +40,8 @@ export interface LoadedDesign {
   /** Where the process card came from (a path, or "inline"). */
   readonly processSource: string;
   readonly designPath: string;
+  /** Folder that paths inside the card (models, tables) are relative to. */
+  readonly cardDir: string;
 }
 
 export function loadDesign(path: string, overrides: readonly string[] = []): LoadedDesign {
@@ -45,9 +51,9 @@ export function loadDesign(path: string, overrides: readonly string[] = []): Loa
   if (typeof design.process === 'string') {
     const cardPath = resolve(dirname(path), design.process);
     const card = loadProcess(cardPath, 'process');
-    return { design, card, processSource: design.process, designPath: path };
+    return { design, card, processSource: design.process, designPath: path, cardDir: dirname(cardPath) };
   }
-  return { design, card: design.process, processSource: 'inline', designPath: path };
+  return { design, card: design.process, processSource: 'inline', designPath: path, cardDir: dirname(resolve(path)) };
 }
 
 export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
@@ -60,4 +66,32 @@ export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
     }
     throw error;
   }
+}
+
+/** Reads and checks a delay-table file (phasegap characterize output). */
+export function loadTables(path: string, label = 'tables'): DelayTables {
+  const raw = readDataFile(path, label);
+  try {
+    const tables = parseWith(tablesSchema, raw);
+    checkTables(tables, path);
+    return tables;
+  } catch (error) {
+    if (error instanceof InputError) throw new InputError(error.issues.map((i) => ({ ...i, path: i.path.startsWith(path) ? i.path : `${path}: ${i.path}` })));
+    throw error;
+  }
+}
+
+export interface ModelOptions {
+  /** `--model analytic|table`. */
+  readonly model?: string;
+  /** `--tables FILE`: tables to use instead of the card's. */
+  readonly tables?: string;
+}
+
+/** The delay model a command uses: the global options, else the card's tables, else analytic. */
+export function loadModel(card: ProcessCard, cardDir: string, options: ModelOptions, warn: (message: string) => void): DelayModel {
+  const choice = parseModelChoice(options.model);
+  if (choice === 'analytic') return selectModel(choice, undefined, warn);
+  const path = options.tables ?? (card.tables === undefined ? undefined : resolve(cardDir, card.tables));
+  return selectModel(choice, path === undefined ? undefined : loadTables(path, options.tables ? '--tables' : 'process.tables'), warn);
 }

@@ -6,6 +6,10 @@ import { runCheck } from './commands/check.js';
 import { runInit } from './commands/init.js';
 import { runSchema } from './commands/schema.js';
 import { runFmax } from './commands/fmax.js';
+import { runSpice } from './commands/spice.js';
+import { runConfirm } from './commands/confirm.js';
+import { runCharacterize } from './commands/characterize.js';
+import { runVerilog } from './commands/verilog.js';
 import { runMc } from './commands/mc.js';
 
 export const EXIT_PASS = 0;
@@ -29,7 +33,9 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .version('0.1.0')
     .exitOverride()
     .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
-    .showHelpAfterError('(run phasegap --help for usage)');
+    .showHelpAfterError('(run phasegap --help for usage)')
+    .option('--model <KIND>', 'delay model for every command: analytic or table (default: table when the process card names tables)')
+    .option('--tables <FILE>', 'delay tables (from phasegap characterize) to use instead of the card\'s; implies --model table');
 
   program.command('check')
     .description('every corner: dead times, gaps, widths, requirement margins and a verdict')
@@ -37,7 +43,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(setOption())
     .option('--json', 'print the machine report (SI units) instead of the table', false)
     .addOption(outOption('the report'))
-    .action((design: string, opts: { set: string[]; json: boolean; out?: string }) => setCode(runCheck(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runCheck(io, design, cmd.optsWithGlobals())));
 
   program.command('fmax')
     .description('highest clock frequency at which every check holds at every corner, and what limits it')
@@ -72,6 +78,53 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(outOption('the design').default('design.yaml'))
     .option('--force', 'overwrite an existing file', false)
     .action((opts: { template: string; out: string; force: boolean }) => setCode(runInit(io, opts)));
+
+  program.command('spice')
+    .description('write a runnable ngspice testbench of the generator and its switches at one corner')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--corner <NAME>', 'the corner, e.g. ss/1.62V/125C, or worst (the limiting corner)')
+    .option('--models <FILE>', 'SPICE model file to include instead of the card\'s spice.models')
+    .addOption(outOption('the deck'))
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runSpice(io, design, cmd.optsWithGlobals())));
+
+  program.command('confirm')
+    .description('simulate corners in ngspice and compare dead times, gaps and widths with the model')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--corners <WHICH>', 'worst (the extremes), all, or corner names separated by commas', 'worst')
+    .option('--tolerance <REL>', 'largest allowed relative difference, e.g. 0.1 or 10% (default 10 %)')
+    .option('--models <FILE>', 'SPICE model file to include instead of the card\'s spice.models')
+    .option('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)')
+    .option('--jobs <N>', 'simulations at once (default: the number of cores)')
+    .option('--json', 'print the machine report (SI units)', false)
+    .addOption(outOption('the report'))
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runConfirm(io, design, cmd.optsWithGlobals())));
+
+  program.command('characterize')
+    .description('simulate every cell, pin and edge in ngspice over input transition x load and write delay tables')
+    .argument('<PROCESS>', 'process card with a spice section (YAML or JSON)')
+    .option('--corners <LIST>', 'corner names like ss/1.62V/125C, separated by commas (default: every process corner at 90/100/110 % supply and -40/27/125 C)')
+    .option('--design <FILE>', 'characterize the corners of this design instead')
+    .addOption(new Option('--grid <GRID>', 'table grid: coarse (4 x 4) or fine (7 x 7)').choices(['coarse', 'fine']).default('fine'))
+    .option('--cells <LIST>', 'cells to characterize (default: INV,NAND2,NAND3,NOR2,NOR3)')
+    .option('--size <S>', 'cell size to characterize at (default 1; other sizes scale from it)')
+    .option('--models <FILE>', 'SPICE model file to include instead of the card\'s spice.models')
+    .option('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)')
+    .option('--jobs <N>', 'simulations at once (default: the number of cores)')
+    .addOption(outOption('the tables (JSON)'))
+    .action((card: string, opts: Parameters<typeof runCharacterize>[2]) => setCode(runCharacterize(io, card, opts)));
+
+  program.command('verilog')
+    .description('write a structural Verilog model of the generator with the corner\'s rise/fall gate delays')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--corner <NAME>', 'the corner, e.g. tt/1.8V/27C, or worst (the limiting corner)')
+    .option('--testbench', 'append a testbench that drives the clock and dumps a VCD file', false)
+    .option('--periods <N>', 'clock periods the testbench runs (default 6)')
+    .option('--vcd <FILE>', 'VCD file the testbench writes (default <module>.vcd)')
+    .addOption(outOption('the Verilog'))
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runVerilog(io, design, cmd.optsWithGlobals())));
 
   return program;
 }

@@ -4,18 +4,18 @@ import { resolveDesign } from '../../analysis/resolve.js';
 import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
 
-export interface CheckOptions {
+export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly json: boolean;
   readonly out?: string;
 }
 
 export function runCheck(io: Io, designPath: string, options: CheckOptions): number {
-  const { design, card } = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(design, card);
+  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
   emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
   return report.verdict === 'pass' ? 0 : 1;

@@ -1,0 +1,119 @@
+/**
+ * `phasegap characterize PROCESS -o TABLES.json`: delay and transition tables of every cell, pin
+ * and edge over a grid of input transition x output load, at each corner, simulated in ngspice.
+ */
+import { basename, dirname, resolve } from 'node:path';
+import { inputError } from '../../errors.js';
+import { cornerName } from '../../process/corner.js';
+import { expandCorners } from '../../process/corners.js';
+import { CELLS, type PrimitiveCell } from '../../cells/library.js';
+import { TABLE_CELLS, type CornerTables, type DelayTables } from '../../schema/tables.js';
+import { parseQuantity, parseTemperature } from '../../units/quantity.js';
+import { characterizationDeck, cornerTablesFrom, gridAxes, GRIDS } from '../../spice/characterize.js';
+import { parseSimulatorOutput } from '../../spice/results.js';
+import { checkSimulator, runDecks } from '../../spice/runner.js';
+import type { ProcessCard } from '../../schema/process.js';
+import type { Io } from '../io.js';
+import { loadDesign, loadProcess } from '../load.js';
+import { emit, toJson } from '../output.js';
+import { parseJobs } from './confirm.js';
+import { modelFile } from './spice.js';
+
+export interface CharacterizeOptions {
+  readonly corners?: string;
+  readonly design?: string;
+  readonly grid: string;
+  readonly cells?: string;
+  readonly size?: string;
+  readonly models?: string;
+  readonly ngspice?: string;
+  readonly jobs?: string;
+  readonly out?: string;
+}
+
+type CornerPoint = { name: string; process: string; vdd: number; temperature: number };
+
+/** Default corners: every process corner at 90/100/110 % of nominal supply and -40/27/125 C. */
+export function defaultCorners(card: ProcessCard): CornerPoint[] {
+  const out: CornerPoint[] = [];
+  for (const process of Object.keys(card.corners)) {
+    for (const k of [0.9, 1, 1.1]) {
+      const vdd = Number((card.vddNominal * k).toFixed(4));
+      for (const temperature of [-40, 27, 125]) out.push({ name: cornerName(process, vdd, temperature), process, vdd, temperature });
+    }
+  }
+  return out;
+}
+
+export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] {
+  return text.split(',').map((s) => s.trim()).filter((s) => s !== '').map((name) => {
+    const [process, v, t, extra] = name.split('/');
+    const vdd = v === undefined ? undefined : parseQuantity(v, 'V');
+    const temperature = t === undefined ? undefined : parseTemperature(t);
+    if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
+      throw inputError('--corners', name, 'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas');
+    }
+    if (!(process in card.corners)) throw inputError('--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
+    return { name: cornerName(process, vdd.value, temperature.value), process, vdd: vdd.value, temperature: temperature.value };
+  });
+}
+
+function parseCells(text: string | undefined): PrimitiveCell[] {
+  if (text === undefined) return [...TABLE_CELLS];
+  return text.split(',').map((s) => s.trim().toUpperCase()).map((cell) => {
+    if (!(cell in CELLS)) throw inputError('--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
+    return cell as PrimitiveCell;
+  });
+}
+
+export function runCharacterize(io: Io, processPath: string, options: CharacterizeOptions): number {
+  const card = loadProcess(processPath);
+  const cardDir = dirname(resolve(processPath));
+  if (options.grid !== 'coarse' && options.grid !== 'fine') throw inputError('--grid', options.grid, 'is not a grid; allowed: coarse, fine');
+  if (options.corners !== undefined && options.design !== undefined) throw inputError('--corners', options.corners, 'cannot be combined with --design; give one of them');
+  const size = options.size === undefined ? 1 : Number(options.size);
+  if (!(size > 0 && size <= 1000)) throw inputError('--size', options.size, 'must be a cell size above 0 and at most 1000');
+  const cells = parseCells(options.cells);
+  const jobs = parseJobs(options.jobs);
+  let corners: CornerPoint[];
+  if (options.design !== undefined) {
+    const { design } = loadDesign(options.design);
+    corners = expandCorners(design.corners, card, design.clock.duty).map(({ corner }) => ({ name: cornerName(corner.process, corner.vdd, corner.temperature), process: corner.process, vdd: corner.vdd, temperature: corner.temperature }));
+    corners = corners.filter((c, i) => corners.findIndex((d) => d.name === c.name) === i);
+  } else {
+    corners = options.corners === undefined ? defaultCorners(card) : parseCornerList(options.corners, card);
+  }
+  // A corner where a device cannot turn on is refused before any simulation.
+  expandCorners({ list: corners.map((c) => ({ process: c.process, vdd: c.vdd, temperature: c.temperature })) }, card, 0.5);
+  const modelPath = modelFile(card, cardDir, options.models);
+  const simulator = checkSimulator(options.ngspice);
+  const axes = gridAxes(card, GRIDS[options.grid], size);
+  const decks = corners.map((corner) => characterizationDeck(card, corner, axes, modelPath, cells));
+  const tables: CornerTables[] = [];
+  for (let start = 0; start < decks.length; start += jobs) {
+    const batch = decks.slice(start, start + jobs);
+    if (io.stderrIsTTY) io.stderr(`\rcharacterizing with ${simulator}: ${start}/${decks.length} corners`);
+    const outputs = runDecks(batch.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
+    batch.forEach((deck, i) => {
+      const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
+      const result = cornerTablesFrom(deck, parsed.values);
+      if (typeof result === 'string') {
+        throw inputError('ngspice', deck.corner.name, `characterization failed: ${result}${parsed.errors[0] ? `; ngspice said: ${parsed.errors[0]}` : ''}`);
+      }
+      tables.push(result);
+    });
+  }
+  if (io.stderrIsTTY) io.stderr(`\rcharacterized ${decks.length} corners with ${simulator}            \n`);
+  const file: DelayTables = {
+    format: 'phasegap-tables/1',
+    process: card.name,
+    description: `Characterized with ${simulator} from ${basename(modelPath)}, ${options.grid} grid (${axes.transitions.length} transitions x ${axes.loads.length} loads), cells of size ${size}`,
+    size,
+    transitions: [...axes.transitions],
+    loads: [...axes.loads],
+    corners: tables,
+  };
+  emit(io, toJson(file), options.out);
+  if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out}: ${cells.length} cells at ${tables.length} corners\n`);
+  return 0;
+}

@@ -1,0 +1,74 @@
+/** `phasegap confirm DESIGN`: runs ngspice on the chosen corners and compares with the model. */
+import { availableParallelism } from 'node:os';
+import { inputError } from '../../errors.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { generatorDeck } from '../../spice/deck.js';
+import { chooseCorners } from '../../spice/corner-choice.js';
+import { compareCorner, worstDifference } from '../../spice/confirm.js';
+import { renderConfirmText } from '../../spice/confirm-text.js';
+import { parseSimulatorOutput } from '../../spice/results.js';
+import { checkSimulator, runDecks } from '../../spice/runner.js';
+import { CAUTIONS } from '../../report/cautions.js';
+import type { Io } from '../io.js';
+import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { emit, toJson } from '../output.js';
+import { modelFile, warnTo } from './spice.js';
+
+export interface ConfirmOptions extends ModelOptions {
+  readonly set: readonly string[];
+  readonly corners: string;
+  readonly tolerance?: string;
+  readonly json: boolean;
+  readonly out?: string;
+  readonly models?: string;
+  readonly ngspice?: string;
+  readonly jobs?: string;
+}
+
+export const DEFAULT_TOLERANCE = 0.1;
+
+export function parseTolerance(text: string | undefined): number {
+  if (text === undefined) return DEFAULT_TOLERANCE;
+  const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
+  const value = percent ? Number(percent[1]) / 100 : Number(text);
+  if (!(value > 0 && value < 10)) throw inputError('--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
+  return value;
+}
+
+export function parseJobs(text: string | undefined): number {
+  if (text === undefined) return availableParallelism();
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < 1 || value > 256) throw inputError('--jobs', text, 'must be a whole number of simulations at once, 1 to 256');
+  return value;
+}
+
+export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
+  const tolerance = parseTolerance(options.tolerance);
+  const jobs = parseJobs(options.jobs);
+  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const model = loadModel(card, cardDir, options, warnTo(io));
+  const resolved = resolveDesign(design, card, model);
+  const corners = chooseCorners(resolved, options.corners);
+  const modelPath = modelFile(card, cardDir, options.models);
+  const simulator = checkSimulator(options.ngspice);
+  const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
+  if (io.stderrIsTTY && !options.json) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
+  const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
+  const comparisons = decks.map((deck, i) => {
+    const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
+    if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
+      throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with phasegap spice --corner ${deck.corner.name} and run ngspice -b on it to see why`);
+    }
+    return compareCorner(deck, parsed, tolerance);
+  });
+  const pass = comparisons.every((c) => c.pass);
+  if (options.json) {
+    emit(io, toJson({
+      tool: 'phasegap', design: design.name, process: card.name, model: model.name, simulator, tolerance,
+      verdict: pass ? 'agree' : 'disagree', worst: worstDifference(comparisons), corners: comparisons, cautions: CAUTIONS,
+    }), options.out);
+  } else {
+    emit(io, renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), options.out);
+  }
+  return pass ? 0 : 1;
+}

@@ -1,0 +1,47 @@
+/** `phasegap spice DESIGN --corner NAME -o FILE.cir`: a runnable ngspice testbench of one corner. */
+import { existsSync } from 'node:fs';
+import { dirname, relative, resolve } from 'node:path';
+import { inputError } from '../../errors.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { evaluateAll, limitingCheck } from '../../analysis/evaluate.js';
+import type { ProcessCard } from '../../schema/process.js';
+import { generatorDeck } from '../../spice/deck.js';
+import { spiceSection } from '../../spice/models.js';
+import { chooseCorners } from '../../spice/corner-choice.js';
+import type { Io } from '../io.js';
+import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { emit } from '../output.js';
+
+export interface SpiceOptions extends ModelOptions {
+  readonly set: readonly string[];
+  readonly corner?: string;
+  readonly out?: string;
+  readonly models?: string;
+}
+
+/** The device-model file: `--models FILE`, else the card's spice.models relative to the card. */
+export function modelFile(card: ProcessCard, cardDir: string, override?: string): string {
+  const path = override === undefined ? resolve(cardDir, spiceSection(card).models) : resolve(override);
+  if (!existsSync(path)) throw inputError(override === undefined ? 'process.spice.models' : '--models', path, 'does not exist; it must be a SPICE model file');
+  return path;
+}
+
+export const warnTo = (io: Io) => (message: string) => io.stderr(`phasegap: warning: ${message}\n`);
+
+export function runSpice(io: Io, designPath: string, options: SpiceOptions): number {
+  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
+  if (options.corner === 'all' || options.corner.includes(',')) {
+    throw inputError('--corner', options.corner, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
+  }
+  const limiting = options.corner === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner : options.corner;
+  const corner = chooseCorners(resolved, limiting ?? resolved.corners[0]!.corner.name, '--corner')[0]!;
+  const absolute = modelFile(card, cardDir, options.models);
+  const toFile = options.out !== undefined && options.out !== '-';
+  const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;
+  const deck = generatorDeck(resolved, corner, { modelPath });
+  emit(io, deck.text, options.out);
+  if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ngspice -b ${options.out}\n`);
+  return 0;
+}

@@ -1,0 +1,49 @@
+/** `phasegap verilog DESIGN --corner NAME -o FILE.v`: structural Verilog with the corner's gate delays. */
+import { inputError } from '../../errors.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { evaluateAll, limitingCheck } from '../../analysis/evaluate.js';
+import { chooseCorners } from '../../spice/corner-choice.js';
+import { steadyStateDelays } from '../../verilog/delays.js';
+import { verilogModule, verilogTestbench } from '../../verilog/export.js';
+import type { Io } from '../io.js';
+import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { emit } from '../output.js';
+import { warnTo } from './spice.js';
+
+export interface VerilogOptions extends ModelOptions {
+  readonly set: readonly string[];
+  readonly corner?: string;
+  readonly out?: string;
+  readonly testbench: boolean;
+  readonly periods?: string;
+  readonly vcd?: string;
+}
+
+export function moduleName(designName: string): string {
+  const base = designName.replace(/[^A-Za-z0-9_]/g, '_');
+  return /^[A-Za-z_]/.test(base) ? base : `m_${base}`;
+}
+
+export function runVerilog(io: Io, designPath: string, options: VerilogOptions): number {
+  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
+  if (options.corner === 'all' || options.corner.includes(',')) throw inputError('--corner', options.corner, 'must name one corner or worst');
+  const periods = options.periods === undefined ? 6 : Number(options.periods);
+  if (!Number.isInteger(periods) || periods < 3 || periods > 10000) throw inputError('--periods', options.periods, 'must be a whole number of clock periods, 3 to 10000');
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
+  const name = options.corner === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner ?? resolved.corners[0]!.corner.name : options.corner;
+  const corner = chooseCorners(resolved, name, '--corner')[0]!;
+  const delays = steadyStateDelays(resolved, corner);
+  const module = verilogModule(resolved.netlist, delays, moduleName(design.name), [
+    `${design.name} at ${corner.name}: structural model written by phasegap`,
+    `gate delays #(rise, fall) from the ${resolved.model.name} model in its periodic steady state at this corner`,
+    'a model estimate for top-level simulation, not a sign-off',
+  ]);
+  let text = module.text;
+  if (options.testbench) {
+    text += verilogTestbench(module, 1 / design.clock.frequency, corner.duty, periods, options.vcd ?? `${module.name}.vcd`);
+  }
+  emit(io, text, options.out);
+  if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)\n`);
+  return 0;
+}

@@ -1,0 +1,35 @@
+/** The side-by-side table of `phasegap confirm`. */
+import { formatTime } from '../units/format.js';
+import type { CornerComparison } from './confirm.js';
+import { worstDifference } from './confirm.js';
+
+export interface ConfirmSummary {
+  readonly design: string;
+  readonly model: string;
+  readonly simulator: string;
+  readonly tolerance: number;
+  readonly corners: readonly CornerComparison[];
+}
+
+function percent(x: number): string {
+  return `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
+}
+
+export function renderConfirmText(s: ConfirmSummary): string {
+  const rows: string[][] = [['corner', 'quantity', 'model', s.simulator, 'difference', '']];
+  for (const c of s.corners) {
+    for (const q of c.quantities) {
+      rows.push([c.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
+        q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? '' : 'over']);
+    }
+  }
+  const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
+  const line = (r: string[]) => r.map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!))).join('  ').trimEnd();
+  const out = [`${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`, '', line(rows[0]!), widths.map((w) => '-'.repeat(w)).join('  ').trimEnd(), ...rows.slice(1).map(line), ''];
+  for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
+  const worst = worstDifference(s.corners);
+  if (worst) out.push(`largest difference: ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})`);
+  const failed = s.corners.filter((c) => !c.pass).length;
+  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${s.corners.length - failed}/${s.corners.length} corners within tolerance)`);
+  return `${out.join('\n')}\n`;
+}
