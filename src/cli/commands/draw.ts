@@ -1,0 +1,53 @@
+/** `phasegap draw DESIGN`: an SVG timing diagram of one corner, the worst, or all overlaid; or the margin chart. */
+import { evaluateAll } from '../../analysis/evaluate.js';
+import { resolveDesign } from '../../analysis/resolve.js';
+import { inputError } from '../../errors.js';
+import { selectCorner } from '../../render/corner-choice.js';
+import { buildDiagram } from '../../render/diagram.js';
+import { marginChartInput } from '../../render/report-model.js';
+import { NET_CHOICES, type NetChoice } from '../../render/rows.js';
+import { renderMarginSvg } from '../../render/svg/margins.js';
+import { renderTimingSvg } from '../../render/svg/timing.js';
+import type { Io } from '../io.js';
+import { loadDesign } from '../load.js';
+import { emit } from '../output.js';
+
+export const CHARTS = ['timing', 'margins'] as const;
+
+export interface DrawOptions {
+  readonly set: readonly string[];
+  readonly corner: string;
+  readonly nets: string;
+  readonly chart: string;
+  readonly out?: string;
+}
+
+/** `--out` is required for every drawing: a file name, or - for stdout. */
+export function requireOut(out: string | undefined, what: string): string {
+  if (out === undefined || out === '') throw inputError('--out', undefined, `is required: name the ${what} file to write, or - for stdout`);
+  return out;
+}
+
+export function parseNets(value: string): NetChoice {
+  if (!(NET_CHOICES as readonly string[]).includes(value)) throw inputError('--nets', value, `is not a net selection; allowed: ${NET_CHOICES.join(', ')}`);
+  return value as NetChoice;
+}
+
+export function runDraw(io: Io, designPath: string, options: DrawOptions): number {
+  const out = requireOut(options.out, 'SVG');
+  if (!(CHARTS as readonly string[]).includes(options.chart)) {
+    throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
+  }
+  const nets = parseNets(options.nets);
+  const { design, card } = loadDesign(designPath, options.set);
+  const resolved = resolveDesign(design, card);
+  const results = evaluateAll(resolved);
+  if (options.chart === 'margins') {
+    emit(io, renderMarginSvg(marginChartInput(resolved, results)), out);
+    return results.every((r) => r.pass) ? 0 : 1;
+  }
+  const selection = selectCorner(results, options.corner, true);
+  const diagram = buildDiagram(resolved, results, selection, nets);
+  emit(io, renderTimingSvg(diagram), out);
+  return diagram.verdict.pass ? 0 : 1;
+}

@@ -1,0 +1,242 @@
+/**
+ * What a timing diagram shows, as plain data: the rows with each corner's waveform, the switch
+ * conduction windows, the dead-time and break-before-make marks with their values and verdicts,
+ * and the two handover windows worth a close look. Times are relative to the start of the
+ * reported period (the clock's rising 50 % point), s. The SVG renderer only draws this.
+ */
+import type { CornerResult } from '../analysis/evaluate.js';
+import type { ResolvedDesign } from '../analysis/resolve.js';
+import { handoverGap } from '../checks/switch-checks.js';
+import type { SwitchConduction } from '../switches/conduction.js';
+import { signalRows, type NetChoice, type SignalRow } from './rows.js';
+import { netWave, wrapTime, type NetWave } from './waveform.js';
+import { handoverWindows, type TimeWindow } from './windows.js';
+
+export interface CornerWave {
+  readonly corner: string;
+  readonly wave: NetWave;
+}
+
+export interface DiagramRow extends SignalRow {
+  /** One waveform per corner drawn (one for a single corner). */
+  readonly waves: readonly CornerWave[];
+  /** The waveform drawn as a line: the chosen corner, or the worst one in an overlay. */
+  readonly reference: NetWave;
+}
+
+/** A conduction window, relative times; off may exceed the period (it wraps). */
+export interface Conduction {
+  readonly corner: string;
+  /** Widest window over the signal range: earliest on to latest off, s. */
+  readonly on: number;
+  readonly off: number;
+  /** Narrowest window: latest on to earliest off, s. */
+  readonly onLatest: number;
+  readonly offEarliest: number;
+}
+
+export interface SwitchRow {
+  readonly name: string;
+  readonly type: SwitchConduction['type'];
+  /** The phase whose active time holds the conduction, for its colour; null if neither. */
+  readonly phase: 0 | 1 | null;
+  readonly windows: readonly Conduction[];
+  /** Corners at which the switch does not switch, with the reason. */
+  readonly problems: ReadonlyArray<{ readonly corner: string; readonly detail: string }>;
+}
+
+export type MarkRole = 'single' | 'least' | 'most';
+
+/** One dimension between two instants, with the value shown and its verdict. */
+export interface SpanMark {
+  readonly role: MarkRole;
+  readonly corner: string;
+  /** Start and end of the span, s; end - start is the value shown. */
+  readonly start: number;
+  readonly end: number;
+  readonly value: number;
+  readonly pass: boolean;
+  /** Why it fails, in words ('' when it passes). */
+  readonly reason: string;
+}
+
+export interface DeadTimeMarks {
+  readonly from: string;
+  readonly to: string;
+  readonly marks: readonly SpanMark[];
+  /** Clean gap at 10 % of swing of the `single`/`least` corner, s. */
+  readonly gap: number;
+}
+
+export interface BreakBeforeMakeMarks {
+  readonly name: string;
+  /** Switch that stops, switch that starts. */
+  readonly from: string;
+  readonly to: string;
+  readonly guard: number;
+  /** value = the time from one stopping to the other starting; the margin is value - guard. */
+  readonly marks: readonly SpanMark[];
+}
+
+export interface Diagram {
+  readonly design: string;
+  readonly mode: 'corner' | 'all';
+  /** Corner name, or a count of corners for an overlay. */
+  readonly cornerLabel: string;
+  readonly referenceCorner: string;
+  readonly frequency: number;
+  readonly period: number;
+  readonly model: string;
+  readonly card: string;
+  readonly verdict: { readonly pass: boolean; readonly failing: number; readonly checks: number };
+  readonly rows: readonly DiagramRow[];
+  readonly switches: readonly SwitchRow[];
+  readonly deadTimes: readonly DeadTimeMarks[];
+  readonly breakBeforeMake: readonly BreakBeforeMakeMarks[];
+  readonly windows: readonly [TimeWindow, TimeWindow];
+  /** Corners left out of an overlay and why. */
+  readonly excluded: ReadonlyArray<{ readonly corner: string; readonly reason: string }>;
+}
+
+export type DiagramChoice = { readonly kind: 'corner'; readonly index: number } | { readonly kind: 'all'; readonly reference: number };
+
+function relative(t: number, result: CornerResult): number {
+  return wrapTime(t - result.simulation.windowStart, result.simulation.period);
+}
+
+export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerResult[], choice: DiagramChoice, nets: NetChoice): Diagram {
+  const { design, netlist } = resolved;
+  const period = 1 / design.clock.frequency;
+  const refIndex = choice.kind === 'corner' ? choice.index : choice.reference;
+  const chosen = choice.kind === 'corner' ? [results[refIndex]!] : results;
+  const measured = chosen.filter((r) => r.measurement.ok);
+  const excluded = chosen.filter((r) => !r.measurement.ok)
+    .map((r) => ({ corner: r.corner.name, reason: r.measurement.ok ? '' : r.measurement.reason }));
+  const refResult = results[refIndex]!;
+  const reference = refResult.measurement.ok ? refResult : measured[0] ?? refResult;
+  const rows: DiagramRow[] = signalRows(netlist, nets).map((row) => ({
+    ...row,
+    waves: (measured.length > 0 ? measured : [reference]).map((r) => ({ corner: r.corner.name, wave: netWave(r, netlist, row.net) })),
+    reference: netWave(reference, netlist, row.net),
+  }));
+  const switches = switchRows(resolved, measured, reference);
+  const deadTimes = deadTimeMarks(resolved, measured, choice.kind === 'corner');
+  const breakBeforeMake = bbmMarks(resolved, measured, choice.kind === 'corner');
+  const clockFall = reference.corner.duty * period;
+  const events: Array<{ t: number; lo: number; hi: number }> = [];
+  for (const row of rows) {
+    for (const { wave } of row.waves) for (const r of wave.ramps) events.push({ t: r.t50, lo: r.t50 - r.transition / 2, hi: r.t50 + r.transition / 2 });
+  }
+  for (const s of switches) for (const w of s.windows) for (const t of [w.on, w.off, w.onLatest, w.offEarliest]) events.push({ t, lo: t, hi: t });
+  const checks = chosen.flatMap((r) => r.checks);
+  return {
+    design: design.name,
+    mode: choice.kind,
+    cornerLabel: choice.kind === 'corner' ? refResult.corner.name : `all ${results.length} corners`,
+    referenceCorner: reference.corner.name,
+    frequency: design.clock.frequency,
+    period,
+    model: resolved.model.name,
+    card: resolved.card.name,
+    verdict: { pass: checks.every((c) => c.pass), failing: checks.filter((c) => !c.pass).length, checks: checks.length },
+    rows,
+    switches,
+    deadTimes,
+    breakBeforeMake,
+    windows: handoverWindows(period, clockFall, events),
+    excluded,
+  };
+}
+
+function switchRows(resolved: ResolvedDesign, measured: readonly CornerResult[], reference: CornerResult): SwitchRow[] {
+  const period = 1 / resolved.design.clock.frequency;
+  const phases = resolved.netlist.source.phases;
+  const refCycles = reference.measurement.ok ? reference.measurement.cycles : {};
+  return resolved.switches.map((plan) => {
+    const windows: Conduction[] = [];
+    const problems: Array<{ corner: string; detail: string }> = [];
+    for (const r of measured) {
+      const s = r.switches.find((x) => x.name === plan.name);
+      if (!s) continue;
+      if (s.status !== 'switching') { problems.push({ corner: r.corner.name, detail: s.detail }); continue; }
+      const on = relative(s.on, r);
+      windows.push({
+        corner: r.corner.name,
+        on,
+        off: on + wrapTime(s.off - s.on, period),
+        onLatest: on + wrapTime(s.onLatest - s.on, period),
+        offEarliest: on + wrapTime(s.offEarliest - s.on, period),
+      });
+    }
+    let phase: 0 | 1 | null = null;
+    const first = windows[0];
+    if (first) {
+      const mid = wrapTime((first.onLatest + first.offEarliest) / 2, period);
+      phases.forEach((p, i) => {
+        const c = refCycles[p];
+        if (!c) return;
+        const rise = relative(c.rise, reference);
+        const high = wrapTime(relative(c.fall, reference) - rise, period);
+        if (wrapTime(mid - rise, period) <= high) phase = i as 0 | 1;
+      });
+    }
+    return { name: plan.name, type: plan.type, phase, windows, problems };
+  });
+}
+
+function deadTimeMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], single: boolean): DeadTimeMarks[] {
+  const req = resolved.design.requirements;
+  const out: DeadTimeMarks[] = [];
+  for (const index of [0, 1] as const) {
+    const all = measured.flatMap((r) => {
+      if (!r.measurement.ok) return [];
+      const d = r.measurement.deadTimes[index];
+      const start = relative(d.start, r);
+      const reasons: string[] = [];
+      if (d.t50 < 0) reasons.push('the phases overlap');
+      if (req.deadTime?.min !== undefined && d.t50 < req.deadTime.min) reasons.push('below the least dead time');
+      if (req.deadTime?.max !== undefined && d.t50 > req.deadTime.max) reasons.push('above the largest dead time');
+      if (req.gap?.min !== undefined && d.gap < req.gap.min) reasons.push('clean gap too short');
+      return [{ d, mark: { role: 'single' as MarkRole, corner: r.corner.name, start, end: start + d.t50, value: d.t50, pass: reasons.length === 0, reason: reasons.join('; ') } }];
+    });
+    if (all.length === 0) continue;
+    let least = all[0]!;
+    let most = all[0]!;
+    for (const m of all) {
+      if (m.d.t50 < least.d.t50) least = m;
+      if (m.d.t50 > most.d.t50) most = m;
+    }
+    const marks: SpanMark[] = single || least === most
+      ? [{ ...least.mark, role: single ? 'single' : 'least' }]
+      : [{ ...least.mark, role: 'least' }, { ...most.mark, role: 'most' }];
+    out.push({ from: least.d.from, to: least.d.to, marks, gap: least.d.gap });
+  }
+  return out;
+}
+
+function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], single: boolean): BreakBeforeMakeMarks[] {
+  const { design } = resolved;
+  const period = 1 / design.clock.frequency;
+  const out: BreakBeforeMakeMarks[] = [];
+  for (const bbm of design.constraints.breakBeforeMake) {
+    const guard = bbm.guard ?? design.requirements.guard;
+    for (const [fromName, toName] of [[bbm.between[0], bbm.between[1]], [bbm.between[1], bbm.between[0]]] as const) {
+      let worst: SpanMark | null = null;
+      for (const r of measured) {
+        const a = r.switches.find((s) => s.name === fromName);
+        const b = r.switches.find((s) => s.name === toName);
+        if (!a || !b || a.status !== 'switching' || b.status !== 'switching') continue;
+        const gap = handoverGap(a, b, period);
+        const start = relative(a.off, r);
+        const margin = gap - guard;
+        const mark: SpanMark = {
+          role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + gap, value: gap, pass: margin >= 0,
+          reason: margin >= 0 ? '' : gap < 0 ? 'both conduct at once' : 'less than the guard time',
+        };
+        if (worst === null || mark.value < worst.value) worst = mark;
+      }
+      if (worst) out.push({ name: bbm.name ?? `${bbm.between[0]}/${bbm.between[1]}`, from: fromName, to: toName, guard, marks: [worst] });
+    }
+  }
+  return out;
+}

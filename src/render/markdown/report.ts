@@ -1,0 +1,52 @@
+/**
+ * The review page as Markdown for a wiki or a merge request: the same sections as the HTML page,
+ * with the three drawings as SVG files beside it (their names are given by the caller).
+ */
+import type { ReportModel } from '../report-model.js';
+import { GLYPH } from '../palette.js';
+import { cardRows, cornerRows, fmaxText, signedTime, summaryItems } from '../report-text.js';
+
+export interface MarkdownImages {
+  readonly worst: string;
+  readonly all: string;
+  readonly margins: string;
+}
+
+function cell(text: string): string {
+  return text.replace(/\|/g, '\\|').replace(/\n/g, ' ');
+}
+
+function table(head: readonly string[], rows: ReadonlyArray<readonly string[]>, right: ReadonlySet<number>): string {
+  const line = (cells: readonly string[]) => `| ${cells.map(cell).join(' | ')} |`;
+  const rule = `|${head.map((_, i) => (right.has(i) ? ' ---: ' : ' --- ')).join('|')}|`;
+  return [line(head), rule, ...rows.map(line)].join('\n');
+}
+
+export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): string {
+  const r = m.report;
+  const pass = r.verdict === 'pass';
+  const [a, b] = r.phases as [string, string];
+  const out: string[] = [];
+  out.push(`# ${r.design}`, '');
+  if (m.description) out.push(m.description, '');
+  out.push(`**${pass ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`}**: ${r.corners.filter((c) => c.verdict === 'pass').length} of ${r.corners.length} corners pass.`, '');
+  out.push('> **Cautions**', '>');
+  for (const c of r.cautions) out.push(`> - ${c}`);
+  out.push('', '## Summary', '');
+  for (const [k, v] of summaryItems(m)) out.push(`- **${k}**: ${v}`);
+  out.push('', `## Worst corner: ${m.worstCorner}`, '', `![Timing diagram at ${m.worstCorner}](${images.worst})`, '');
+  out.push('## All corners overlaid', '', `![All corners overlaid](${images.all})`, '');
+  out.push('## Margins', '', `![Margin of every check at every corner](${images.margins})`, '');
+  out.push(table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], m.checks.map((c) => [
+    c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
+    c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
+  ]), new Set([2])), '');
+  out.push('## Corner table', '');
+  out.push(table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `gap ${b}→${a}`, `width ${a}`, `width ${b}`, 'least margin', 'verdict'],
+    cornerRows(m), new Set([1, 2, 3, 4, 5, 6, 7])), '');
+  const card = cardRows(m.resolved.card);
+  out.push(`## Process card used: ${m.resolved.card.name}`, '', `${m.resolved.card.description ?? ''} Source: \`${m.processSource}\`.`, '');
+  out.push(table(card.head, card.rows, new Set([1, 2])), '');
+  out.push(`---`, `phasegap 0.1.0 · ${r.model} delay model · ${fmaxText(m)}`, '');
+  return out.join('\n');
+}

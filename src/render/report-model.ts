@@ -1,0 +1,100 @@
+/**
+ * Everything the review page shows, computed once: the check report, the three drawings as SVG
+ * text, the per-check worst cases, the dead-time ranges and (when computed) fmax. The HTML and
+ * Markdown renderers only lay this out.
+ */
+import type { CornerResult } from '../analysis/evaluate.js';
+import type { FmaxResult } from '../analysis/fmax.js';
+import type { ResolvedDesign } from '../analysis/resolve.js';
+import { checkReport, type CheckReport } from '../report/check-report.js';
+import { formatEngineering } from '../units/format.js';
+import { worstCornerIndex } from './corner-choice.js';
+import { buildDiagram } from './diagram.js';
+import { marginRows, processOrder, type MarginRow } from './margins.js';
+import type { MarginChartInput } from './svg/margins.js';
+import { renderMarginSvg } from './svg/margins.js';
+import { renderTimingSvg } from './svg/timing.js';
+
+export interface DeadTimeRange {
+  readonly from: string;
+  readonly to: string;
+  /** s */
+  readonly least: number;
+  readonly leastCorner: string;
+  readonly most: number;
+  readonly mostCorner: string;
+}
+
+export interface ReportModel {
+  readonly report: CheckReport;
+  readonly description: string;
+  /** Where the process card came from: a path as written in the design, or "inline". */
+  readonly processSource: string;
+  readonly resolved: ResolvedDesign;
+  readonly worstCorner: string;
+  readonly deadTimes: readonly DeadTimeRange[];
+  readonly checks: readonly MarginRow[];
+  /** null when fmax was not computed; `fmaxNote` says why. */
+  readonly fmax: FmaxResult | null;
+  readonly fmaxNote: string;
+  readonly svg: { readonly worst: string; readonly all: string; readonly margins: string };
+}
+
+export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
+  const rows = marginRows(results);
+  const failing = rows.filter((r) => r.failing > 0).length;
+  return {
+    title: {
+      design: resolved.design.name,
+      line: `margin of every check at all ${results.length} corners · clock ${formatEngineering(resolved.design.clock.frequency, 'Hz')}`,
+      note: `${resolved.model.name} delay model · process card ${resolved.card.name} · margin = measured value minus its requirement`,
+      pass: failing === 0,
+      detail: failing === 0 ? `all ${rows.length} checks hold everywhere` : `${failing} of ${rows.length} checks fail somewhere`,
+    },
+    rows,
+    processes: processOrder(results),
+  };
+}
+
+function deadTimeRanges(results: readonly CornerResult[]): DeadTimeRange[] {
+  const out: DeadTimeRange[] = [];
+  for (const index of [0, 1] as const) {
+    const measured = results.flatMap((r) => (r.measurement.ok ? [{ corner: r.corner.name, d: r.measurement.deadTimes[index] }] : []));
+    const first = measured[0];
+    if (!first) continue;
+    let least = first;
+    let most = first;
+    for (const m of measured) {
+      if (m.d.t50 < least.d.t50) least = m;
+      if (m.d.t50 > most.d.t50) most = m;
+    }
+    out.push({ from: first.d.from, to: first.d.to, least: least.d.t50, leastCorner: least.corner, most: most.d.t50, mostCorner: most.corner });
+  }
+  return out;
+}
+
+export interface ReportExtras {
+  readonly processSource: string;
+  readonly fmax: FmaxResult | null;
+  readonly fmaxNote: string;
+}
+
+export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
+  const worst = worstCornerIndex(results);
+  return {
+    report: checkReport(resolved, results),
+    description: resolved.design.description ?? '',
+    processSource: extras.processSource,
+    resolved,
+    worstCorner: results[worst]?.corner.name ?? '',
+    deadTimes: deadTimeRanges(results),
+    checks: marginRows(results),
+    fmax: extras.fmax,
+    fmaxNote: extras.fmaxNote,
+    svg: {
+      worst: renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst' }),
+      all: renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all' }),
+      margins: renderMarginSvg(marginChartInput(resolved, results), { idPrefix: 'margins' }),
+    },
+  };
+}

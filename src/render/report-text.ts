@@ -1,0 +1,104 @@
+/** Words and numbers of the review page, shared by its HTML and Markdown forms. */
+import type { CornerReport } from '../report/check-report.js';
+import type { ProcessCard } from '../schema/process.js';
+import { formatEngineering, formatTime } from '../units/format.js';
+import type { ReportModel } from './report-model.js';
+
+export function signedTime(seconds: number): string {
+  return `${seconds < 0 ? '-' : '+'}${formatTime(Math.abs(seconds))}`;
+}
+
+export function leastMargin(corner: CornerReport): number | null {
+  let least: number | null = null;
+  for (const c of corner.checks) {
+    if (c.margin === null) return null;
+    if (least === null || c.margin < least) least = c.margin;
+  }
+  return least;
+}
+
+export function fmaxText(m: ReportModel): string {
+  const f = m.fmax;
+  if (f === null) return `fmax not computed (${m.fmaxNote})`;
+  if (f.fmax === null) return `no safe clock frequency (${f.note})`;
+  const head = `fmax ${formatEngineering(f.fmax, 'Hz', 4)} (${(f.fmax / f.designFrequency).toFixed(2)}x the design clock, resolution ${(f.resolution * 100).toPrecision(2)} %)`;
+  const lim = f.limiting ? `, limited by ${f.limiting.check} at ${f.limiting.corner}` : '';
+  return `${head}${lim}${f.note ? `; ${f.note}` : ''}`;
+}
+
+export function generatorText(m: ReportModel): string {
+  const g = m.resolved.design.generator;
+  if (g.template === 'netlist') return `free-form netlist of ${g.gates.length} cells`;
+  const extras = [g.complementary ? 'complementary outputs' : '', g.earlyTap > 0 ? `early phases tapped ${g.earlyTap} stages early` : ''].filter(Boolean);
+  return `${g.template} cross-coupled, ${g.stages} chain stages, gate size ${g.gateSize}, buffer ${(g.buffer ?? []).join('/')}${extras.length ? `, ${extras.join(', ')}` : ''}`;
+}
+
+export function summaryItems(m: ReportModel): Array<[string, string]> {
+  const r = m.report;
+  const c = r.clock;
+  const items: Array<[string, string]> = [
+    ['clock', `${formatEngineering(c.frequency, 'Hz')}, period ${formatTime(c.period)}, duty ${c.duty} ± ${c.dutyTolerance}, edges ${formatTime(c.transition)}`],
+    ['generator', generatorText(m)],
+    ['delay model', r.model],
+    ['process card', `${r.process} (${m.processSource})`],
+    ['corners', `${r.corners.length}, ${r.corners.filter((x) => x.verdict === 'pass').length} pass`],
+  ];
+  for (const d of m.deadTimes) {
+    items.push([`dead time ${d.from}→${d.to}`, `${formatTime(d.least)} at ${d.leastCorner} to ${formatTime(d.most)} at ${d.mostCorner}${d.least > 0 ? `, spread ${(d.most / d.least).toFixed(2)}x` : ''}`]);
+  }
+  const req = m.resolved.design.requirements;
+  const wants = [
+    req.deadTime?.min !== undefined ? `dead time ≥ ${formatTime(req.deadTime.min)}` : '',
+    req.deadTime?.max !== undefined ? `dead time ≤ ${formatTime(req.deadTime.max)}` : '',
+    req.gap?.min !== undefined ? `clean gap ≥ ${formatTime(req.gap.min)}` : '',
+    req.width?.min !== undefined ? `width ≥ ${formatTime(req.width.min)}` : '',
+    `break-before-make guard ${formatTime(req.guard)}`,
+  ].filter(Boolean);
+  items.push(['requirements', wants.join(', ')]);
+  items.push(['maximum frequency', fmaxText(m)]);
+  if (r.limiting) items.push(['limiting check', `${r.limiting.check} at ${r.limiting.corner}${r.limiting.margin === null ? ' (not measurable)' : `, margin ${signedTime(r.limiting.margin)}`}`]);
+  return items;
+}
+
+function ps(seconds: number | undefined): string {
+  return seconds === undefined ? '-' : `${Math.round(seconds * 1e12)} ps`;
+}
+
+function ns(seconds: number | undefined): string {
+  return seconds === undefined ? '-' : `${(seconds * 1e9).toFixed(2)} ns`;
+}
+
+export function cornerRows(m: ReportModel): string[][] {
+  const [a, b] = m.report.phases as [string, string];
+  return m.report.corners.map((c) => {
+    const least = leastMargin(c);
+    return [
+      c.name, ps(c.deadTimes[0]?.t50), ps(c.deadTimes[1]?.t50), ps(c.deadTimes[0]?.gap), ps(c.deadTimes[1]?.gap),
+      ns(c.widths[a]), ns(c.widths[b]), least === null ? 'n/a' : signedTime(least),
+      c.verdict === 'pass' ? '✓ pass' : `✕ FAIL${c.reason ? ` (${c.reason})` : ''}`,
+    ];
+  });
+}
+
+export function cardRows(card: ProcessCard): { head: string[]; rows: string[][] } {
+  const fields: Array<[string, (d: ProcessCard['n']) => string]> = [
+    ['threshold vth0', (d) => formatEngineering(d.vth0, 'V')],
+    ['alpha', (d) => String(d.alpha)],
+    ['drive, A/m/V^alpha', (d) => String(d.drive)],
+    ['threshold tempco', (d) => `${formatEngineering(d.vthTempco, 'V')}/K`],
+    ['mobility exponent', (d) => String(d.mobilityExponent)],
+    ['body effect gamma', (d) => String(d.gamma)],
+    ['2 phiF', (d) => formatEngineering(d.phi2f, 'V')],
+    ['gate cap per width', (d) => `${formatEngineering(d.cgate * 1e-6, 'F')}/um`],
+    ['drain cap per width', (d) => `${formatEngineering(d.cdrain * 1e-6, 'F')}/um`],
+    ['A_VT', (d) => `${formatEngineering(d.avt * 1e6, 'V')}·um`],
+    ["k' (mu Cox)", (d) => `${formatEngineering(d.kprime, 'A')}/V²`],
+  ];
+  const rows = [
+    ['minimum length', formatEngineering(card.lmin, 'm'), ''],
+    ['nominal supply', formatEngineering(card.vddNominal, 'V'), ''],
+    ['unit inverter wn / wp', formatEngineering(card.unit.wn, 'm'), formatEngineering(card.unit.wp, 'm')],
+    ...fields.map(([name, f]) => [name, f(card.n), f(card.p)]),
+  ];
+  return { head: ['parameter', 'n device', 'p device'], rows };
+}

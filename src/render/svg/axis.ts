@@ -1,0 +1,47 @@
+/** A time axis with SI ticks (ps, ns, us) from a d3 linear scale. */
+import type { G } from '@svgdotjs/svg.js';
+import type { ScaleLinear } from 'd3-scale';
+import { GRID, MUTED, SIZE } from '../palette.js';
+import { round } from './canvas.js';
+import { drawText, textWidth } from './text.js';
+
+export interface Tick {
+  /** Time, s. */
+  readonly value: number;
+  readonly label: string;
+}
+
+const UNITS: ReadonlyArray<readonly [number, string]> = [[1e-6, 'us'], [1e-9, 'ns'], [1e-12, 'ps'], [1e-15, 'fs']];
+
+/** Ticks of a time scale labelled in one unit chosen for the domain, with the decimals the step needs. */
+export function timeTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {
+  const values = scale.ticks(count);
+  const [d0, d1] = scale.domain() as [number, number];
+  const magnitude = Math.max(Math.abs(d0), Math.abs(d1));
+  const [unit, name] = UNITS.find(([u]) => magnitude >= u * 0.999) ?? UNITS[UNITS.length - 1]!;
+  const step = values.length > 1 ? values[1]! - values[0]! : magnitude;
+  const decimals = Math.max(0, Math.min(4, Math.ceil(-Math.log10(step / unit) - 1e-9)));
+  const zero = (0).toFixed(decimals);
+  return values.map((value) => {
+    const text = (value / unit).toFixed(decimals);
+    return { value, label: `${text === `-${zero}` ? zero : text} ${name}` };
+  });
+}
+
+/**
+ * Axis line at y, ticks and labels below it, light grid lines up to `top`. A label that would
+ * stick out past the ends of the axis is left off (its grid line stays).
+ */
+export function drawTimeAxis(g: G, scale: ScaleLinear<number, number>, y: number, top: number, count: number): void {
+  const [x0, x1] = scale.range() as [number, number];
+  const axis = g.group().attr({ class: 'time-axis' });
+  for (const tick of timeTicks(scale, count)) {
+    const x = scale(tick.value);
+    axis.line(round(x), round(top), round(x), round(y)).stroke({ color: GRID, width: 1 });
+    axis.line(round(x), round(y), round(x), round(y + 5)).stroke({ color: MUTED, width: 1 });
+    const half = textWidth(tick.label, SIZE.tick) / 2;
+    if (x - half < x0 - 2 || x + half > x1 + 2) continue;
+    drawText(axis, tick.label, x, y + 18, { size: SIZE.tick, anchor: 'middle', fill: MUTED, className: 'tick-label' });
+  }
+  axis.line(round(x0), round(y), round(x1), round(y)).stroke({ color: MUTED, width: 1 });
+}

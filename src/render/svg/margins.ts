@@ -1,0 +1,185 @@
+/**
+ * The margin chart: one row per check, one marker per corner on a shared margin axis. The axis is
+ * symmetric-logarithmic (linear within a few picoseconds of zero, logarithmic beyond) so a
+ * 100 ps dead-time margin and a 40 ns settling shortfall are both readable. The zero line is the
+ * requirement; the failing side is hatched; every failing row says FAIL in words.
+ */
+import type { G } from '@svgdotjs/svg.js';
+import { scaleSymlog, type ScaleSymLog } from 'd3-scale';
+import type { MarginRow } from '../margins.js';
+import {
+  CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape,
+} from '../palette.js';
+import { createCanvas, points, round } from './canvas.js';
+import { defineFailHatch } from './patterns.js';
+import { drawText, textWidth } from './text.js';
+import { drawTitleBlock, type TitleInfo } from './title.js';
+
+export interface MarginChartInput {
+  readonly title: TitleInfo;
+  readonly rows: readonly MarginRow[];
+  /** Process corners in legend order. */
+  readonly processes: readonly string[];
+}
+
+export interface MarginSvgOptions {
+  readonly idPrefix?: string;
+  readonly width?: number;
+}
+
+const MARGIN = 16;
+const LABEL_COLUMN = 350;
+const RESULT_COLUMN = 260;
+const TOP = 140;
+/** Width of the linear part of the axis around zero, s. */
+const LINEAR_PART = 10e-12;
+
+/** Signed time with a unit for axis ticks: +100 ps, -1 ns, 0. */
+export function marginTickLabel(seconds: number): string {
+  if (seconds === 0) return '0';
+  const sign = seconds > 0 ? '+' : '-';
+  const a = Math.abs(seconds);
+  const [unit, name] = a >= 1e-6 ? [1e-6, 'us'] : a >= 1e-9 ? [1e-9, 'ns'] : [1e-12, 'ps'];
+  return `${sign}${Number((a / unit).toPrecision(3))} ${name}`;
+}
+
+function signedTime(seconds: number): string {
+  const a = Math.abs(seconds);
+  const ps = a * 1e12;
+  const text = ps < 1000 ? `${Math.round(ps)} ps` : ps < 1e6 ? `${(ps / 1000).toFixed(ps < 1e4 ? 2 : 1)} ns` : `${(ps / 1e6).toFixed(2)} us`;
+  return `${seconds < 0 ? '-' : '+'}${text}`;
+}
+
+/** Decade ticks inside the domain: 0, +-10 ps, +-100 ps, +-1 ns, ... */
+export function decadeTicks(lo: number, hi: number): number[] {
+  const ticks = [0];
+  for (let k = -11; k <= 0; k++) {
+    const v = Number(`1e${k}`);
+    if (v > Math.max(-lo, hi)) break;
+    if (v <= hi) ticks.push(v);
+    if (-v >= lo) ticks.unshift(-v);
+  }
+  return ticks;
+}
+
+function marker(g: G, shape: MarkerShape, x: number, y: number, colour: string, filled: boolean): void {
+  const r = 4.5;
+  const fill = filled ? colour : PAPER;
+  const stroke = { color: colour, width: 1.4 };
+  const poly = (pts: Array<[number, number]>) => g.polygon(points(pts)).fill(fill).stroke(stroke).attr({ class: 'marker' });
+  switch (shape) {
+    case 'circle': g.circle(2 * r).center(round(x), round(y)).fill(fill).stroke(stroke).attr({ class: 'marker' }); return;
+    case 'square': poly([[x - r * 0.85, y - r * 0.85], [x + r * 0.85, y - r * 0.85], [x + r * 0.85, y + r * 0.85], [x - r * 0.85, y + r * 0.85]]); return;
+    case 'triangle': poly([[x, y - r], [x + r, y + r * 0.8], [x - r, y + r * 0.8]]); return;
+    case 'diamond': poly([[x, y - r * 1.1], [x + r, y], [x, y + r * 1.1], [x - r, y]]); return;
+    case 'nabla': poly([[x - r, y - r * 0.8], [x + r, y - r * 0.8], [x, y + r]]); return;
+    case 'cross':
+      g.line(round(x - r), round(y - r), round(x + r), round(y + r)).stroke({ color: colour, width: 1.8 }).attr({ class: 'marker' });
+      g.line(round(x - r), round(y + r), round(x + r), round(y - r)).stroke({ color: colour, width: 1.8 });
+  }
+}
+
+function style(processes: readonly string[], process: string): { shape: MarkerShape; colour: string } {
+  const i = Math.max(0, processes.indexOf(process)) % CORNER_SHAPES.length;
+  return { shape: CORNER_SHAPES[i]!, colour: CORNER_COLOURS[i]! };
+}
+
+function truncate(text: string, size: number, widthPx: number): string {
+  if (textWidth(text, size) <= widthPx) return text;
+  let t = text;
+  while (t.length > 1 && textWidth(`${t}\u2026`, size) > widthPx) t = t.slice(0, -1);
+  return `${t}\u2026`;
+}
+
+export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptions = {}): string {
+  const width = options.width ?? 1200;
+  const prefix = options.idPrefix ?? 'pgm';
+  const lanes = Math.max(1, input.processes.length);
+  const rowHeight = Math.max(30, lanes * 7 + 12);
+  const x0 = MARGIN + LABEL_COLUMN;
+  const x1 = width - MARGIN - RESULT_COLUMN;
+  const plotBottom = TOP + input.rows.length * rowHeight;
+  const height = plotBottom + 120;
+  const canvas = createCanvas(width, height, `${input.title.design}: margin of every check at every corner`);
+  const root = canvas.root;
+  root.rect(width, height).fill(PAPER);
+  const hatch = defineFailHatch(root, prefix);
+  drawTitleBlock(root, input.title, width, MARGIN);
+  const margins = input.rows.flatMap((r) => r.points.map((p) => p.margin));
+  const lo = Math.min(-100e-12, ...margins) * 1.15;
+  const hi = Math.max(100e-12, ...margins) * 1.15;
+  const scale = scaleSymlog().constant(LINEAR_PART).domain([lo, hi]).range([x0, x1]);
+  const zero = scale(0);
+
+  const bg = root.group().attr({ class: 'chart-background' });
+  bg.rect(round(zero - x0), round(plotBottom - TOP)).move(round(x0), TOP).fill(hatch).attr({ 'fill-opacity': 0.35, class: 'fail-side' });
+  drawText(bg, `${GLYPH.fail} fails`, zero - 8, TOP - 12, { size: SIZE.small, anchor: 'end', fill: FAIL, bold: true, className: 'side-label' });
+  drawText(bg, `holds ${GLYPH.pass}`, zero + 8, TOP - 12, { size: SIZE.small, fill: INK, bold: true, className: 'side-label' });
+  drawText(bg, 'requirement (margin 0)', zero, TOP - 30, { size: SIZE.small, anchor: 'middle', fill: INK, className: 'zero-label' });
+  drawText(bg, 'check (requirement)', x0 - 10, TOP - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
+  drawText(bg, 'worst corner and verdict', x1 + 14, TOP - 12, { size: SIZE.small, fill: MUTED, bold: true, className: 'column-head' });
+  drawAxis(root.group(), scale, decadeTicks(lo, hi), plotBottom, TOP);
+  input.rows.forEach((row, i) => drawRow(root.group(), row, i, { top: TOP + i * rowHeight, height: rowHeight }, scale, input.processes, x0, x1));
+  root.line(round(zero), TOP - 22, round(zero), round(plotBottom)).stroke({ color: INK, width: 2 }).attr({ class: 'zero-line' });
+  drawLegend(root.group(), input.processes, MARGIN, plotBottom + 62);
+  return canvas.finish();
+}
+
+function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly number[], y: number, top: number): void {
+  g.attr({ class: 'margin-axis' });
+  let lastRight = -Infinity;
+  for (const t of ticks) {
+    const x = scale(t);
+    g.line(round(x), top, round(x), round(y)).stroke({ color: GRID, width: 1 });
+    const label = marginTickLabel(t);
+    const w = textWidth(label, SIZE.tick);
+    if (x - w / 2 < lastRight + 6) continue;
+    lastRight = x + w / 2;
+    drawText(g, label, x, y + 18, { size: SIZE.tick, anchor: 'middle', fill: MUTED, className: 'tick-label' });
+  }
+  const [x0, x1] = scale.range() as [number, number];
+  g.line(round(x0), round(y), round(x1), round(y)).stroke({ color: MUTED, width: 1 });
+  drawText(g, 'margin (symmetric log scale: linear within 10 ps of zero)', (x0 + x1) / 2, y + 38, { size: SIZE.small, anchor: 'middle', fill: MUTED, className: 'axis-title' });
+}
+
+function drawRow(g: G, row: MarginRow, index: number, band: { top: number; height: number }, scale: ScaleSymLog<number, number>,
+  processes: readonly string[], x0: number, x1: number): void {
+  g.attr({ class: 'margin-row', 'data-check': row.name, 'data-kind': row.kind });
+  if (index % 2 === 1) g.rect(round(x1 - x0), round(band.height)).move(round(x0), round(band.top)).fill('#f3f4f6').attr({ 'fill-opacity': 0.6 });
+  const mid = band.top + band.height / 2;
+  const fail = row.failing > 0;
+  drawText(g, truncate(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, mid + 5, {
+    size: SIZE.annotation, anchor: 'end', fill: fail ? FAIL : INK, bold: fail, className: 'check-label', data: { check: row.name },
+  });
+  const lanes = Math.max(1, processes.length);
+  const laneGap = (band.height - 10) / lanes;
+  for (const p of row.points) {
+    const lane = Math.max(0, processes.indexOf(p.process));
+    const { shape, colour } = style(processes, p.process);
+    const y = band.top + 5 + laneGap * (lane + 0.5);
+    marker(g, shape, scale(p.margin), y, colour, !p.pass);
+  }
+  if (row.worst) {
+    const lane = Math.max(0, processes.indexOf(row.worst.process));
+    g.circle(17).center(round(scale(row.worst.margin)), round(band.top + 5 + laneGap * (lane + 0.5))).fill('none')
+      .stroke({ color: INK, width: 1.5 }).attr({ class: 'worst-ring' });
+  }
+  const verdict = fail ? `${GLYPH.fail} FAIL at ${row.failing}/${row.corners}` : `${GLYPH.pass} holds at all ${row.corners}`;
+  const worst = row.worst ? `${signedTime(row.worst.margin)} at ${row.worst.corner}` : 'no margin measured';
+  drawText(g, worst, x1 + 14, mid - 2, { size: SIZE.small, fill: INK, className: 'worst-label', data: { margin: row.worst ? String(row.worst.margin) : '' } });
+  const tail = row.unmeasured.length > 0 ? ` · ${GLYPH.unknown} ${row.unmeasured.length} unmeasured` : '';
+  drawText(g, `${verdict}${tail}`, x1 + 14, mid + 12, { size: SIZE.small, fill: fail ? FAIL : MUTED, bold: fail, className: 'verdict-label' });
+}
+
+function drawLegend(g: G, processes: readonly string[], x: number, y: number): void {
+  g.attr({ class: 'legend' });
+  drawText(g, 'process corner (row lane, colour and shape):', x, y, { size: SIZE.small, fill: MUTED, className: 'legend-label' });
+  let cx = x + textWidth('process corner (row lane, colour and shape):', SIZE.small) + 16;
+  for (const p of processes) {
+    const { shape, colour } = style(processes, p);
+    marker(g, shape, cx + 5, y - 4, colour, false);
+    drawText(g, p, cx + 16, y, { size: SIZE.small, fill: INK, className: 'legend-label' });
+    cx += 34 + textWidth(p, SIZE.small);
+  }
+  drawText(g, 'filled marker = that corner fails the check; ring = worst corner; each check name states its requirement', x, y + 22, { size: SIZE.small, fill: MUTED, className: 'legend-label' });
+}

@@ -1,0 +1,444 @@
+/**
+ * The timing diagram: a title block, the whole period, then both handovers enlarged side by side
+ * with dead-time and break-before-make dimension marks, and a legend. A single corner draws each
+ * signal as its ramps; an overlay draws each edge as the band its corners span, with the worst
+ * corner's waveform as a line through the bands.
+ */
+import type { G, Svg } from '@svgdotjs/svg.js';
+import { scaleLinear, type ScaleLinear } from 'd3-scale';
+import type { Diagram, DiagramRow, SpanMark, SwitchRow } from '../diagram.js';
+import type { TimeWindow } from '../windows.js';
+import { wavePoints } from '../waveform.js';
+import { formatTime } from '../../units/format.js';
+import {
+  CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
+} from '../palette.js';
+import { createCanvas, points, round } from './canvas.js';
+import { drawTimeAxis } from './axis.js';
+import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
+import { dimensionLine, extensionLine } from './marks.js';
+import { defineFailHatch } from './patterns.js';
+import { drawText, textWidth } from './text.js';
+import { diagramTitle, drawTitleBlock } from './title.js';
+
+export interface TimingSvgOptions {
+  /** Prefix of element ids, unique per drawing when several share one page. */
+  readonly idPrefix?: string;
+  /** Width of the drawing, px. */
+  readonly width?: number;
+}
+
+const MARGIN = 16;
+const LABEL_COLUMN = 150;
+const PANEL_GAP = 36;
+const TITLE_HEIGHT = 92;
+const OVERVIEW = { row: 26, lane: 16 } as const;
+const DETAIL = { row: 34, lane: 22, dead: 50, bbm: 50 } as const;
+const AXIS_HEIGHT = 34;
+
+/** Dead-time and break-before-make values as shown: whole picoseconds. */
+export function psText(seconds: number): string {
+  return `${Math.round(seconds * 1e12)} ps`;
+}
+
+function signedPs(seconds: number): string {
+  const ps = Math.round(seconds * 1e12);
+  return `${ps >= 0 ? '+' : '-'}${Math.abs(ps)} ps`;
+}
+
+interface Context {
+  readonly d: Diagram;
+  readonly root: Svg;
+  readonly hatch: string;
+  readonly prefix: string;
+  readonly groups: Map<string, EdgeGroup[]>;
+}
+
+interface Band {
+  readonly top: number;
+  readonly height: number;
+}
+
+interface Layout {
+  readonly signal: readonly Band[];
+  readonly switches: readonly Band[];
+  readonly dead: Band | null;
+  readonly bbm: ReadonlyMap<string, Band>;
+  readonly bottom: number;
+}
+
+function rowColour(row: { role: string; phase: 0 | 1 | null }): string {
+  if (row.phase !== null) return PHASE[row.phase];
+  return row.role === 'internal' ? INTERNAL : CLOCK;
+}
+
+function dash(role: string): string | undefined {
+  if (role === 'complement' || role === 'clock-complement') return '7 4';
+  if (role === 'early') return '2 3';
+  return undefined;
+}
+
+function levelY(band: Band, v: number): number {
+  const hi = band.top + band.height * 0.18;
+  const lo = band.top + band.height * 0.82;
+  return lo - v * (lo - hi);
+}
+
+function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number }, detail: boolean): Layout {
+  let y = top;
+  const signal = d.rows.map(() => { const b = { top: y, height: sizes.row }; y += sizes.row; return b; });
+  let dead: Band | null = null;
+  if (detail && d.deadTimes.length > 0) {
+    const marks = Math.max(...d.deadTimes.map((m) => m.marks.length));
+    dead = { top: y, height: DETAIL.dead * marks };
+    y += dead.height;
+  }
+  const switches = d.switches.map(() => { const b = { top: y, height: sizes.lane }; y += sizes.lane; return b; });
+  const bbm = new Map<string, Band>();
+  if (detail) {
+    for (const m of d.breakBeforeMake) {
+      if (bbm.has(m.name)) continue;
+      bbm.set(m.name, { top: y, height: DETAIL.bbm });
+      y += DETAIL.bbm;
+    }
+  }
+  return { signal, switches, dead, bbm, bottom: y };
+}
+
+export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): string {
+  const width = options.width ?? 1200;
+  const prefix = options.idPrefix ?? 'pg';
+  const x0 = MARGIN + LABEL_COLUMN;
+  const x1 = width - MARGIN;
+  const overviewTop = TITLE_HEIGHT + 44;
+  const overview = layoutRows(d, overviewTop, OVERVIEW, false);
+  const detailTop = overview.bottom + AXIS_HEIGHT + 62;
+  const detail = layoutRows(d, detailTop, DETAIL, true);
+  const legendTop = detail.bottom + AXIS_HEIGHT + 16;
+  const height = legendTop + 86;
+  const title = `${d.design}: timing diagram, ${d.cornerLabel}`;
+  const canvas = createCanvas(width, height, title);
+  const root = canvas.root;
+  root.rect(width, height).fill(PAPER);
+  const ctx: Context = { d, root, hatch: defineFailHatch(root, prefix), prefix, groups: new Map() };
+  if (d.mode === 'all') for (const row of d.rows) ctx.groups.set(row.net, edgeGroups(row));
+
+  drawTitleBlock(root, diagramTitle(d), width, MARGIN);
+  sectionHeading(root, 'Whole period', `T = ${formatTime(d.period)}, times from the clock's rising 50 % point`, MARGIN, overviewTop - 26);
+  const whole: TimeWindow = { from: 0, to: d.period, half: 0 };
+  const overviewScale = scaleLinear().domain([0, d.period]).range([x0, x1]);
+  drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
+  drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
+  drawTimeAxis(root.group(), overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
+  drawRowLabels(ctx, overview, x0 - 10, false);
+
+  sectionHeading(root, 'Handovers, enlarged', 'same time scale in both panels; ramps drawn with their simulated transition times', MARGIN, detailTop - 36);
+  const panelWidth = (x1 - x0 - PANEL_GAP) / 2;
+  d.windows.forEach((w, i) => {
+    const px0 = x0 + i * (panelWidth + PANEL_GAP);
+    const scale = scaleLinear().domain([w.from, w.to]).range([px0, px0 + panelWidth]);
+    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, { size: SIZE.label, bold: true, className: 'panel-title' });
+    drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, detail, true);
+    drawTimeAxis(root.group(), scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
+  });
+  drawRowLabels(ctx, detail, x0 - 10, true);
+  drawLegend(ctx, MARGIN, legendTop, width - 2 * MARGIN);
+  return canvas.finish();
+}
+
+function sectionHeading(root: Svg, heading: string, note: string, x: number, y: number): void {
+  const g = root.group().attr({ class: 'section-heading' });
+  drawText(g, heading, x, y, { size: 15, bold: true });
+  drawText(g, note, x + textWidth(heading, 15, true) + 12, y, { size: SIZE.small, fill: MUTED });
+}
+
+function panelTitle(d: Diagram, w: TimeWindow): string {
+  const clock = d.rows[0]?.net ?? 'clock';
+  const mark = d.deadTimes.find((m) => m.marks[0] !== undefined && halfOf(d, m.marks[0].start) === w.half);
+  const edge = `${clock} ${w.half === 0 ? 'rises' : 'falls'}`;
+  return mark ? `${edge}: ${mark.from} off, then ${mark.to} on` : edge;
+}
+
+function halfOf(d: Diagram, t: number): 0 | 1 {
+  const at = ((t % d.period) + d.period) % d.period;
+  return at < clockFallOf(d) ? 0 : 1;
+}
+
+function clockFallOf(d: Diagram): number {
+  const clock = d.rows[0]!.reference;
+  const fall = clock.ramps.find((r) => !r.rising);
+  return fall ? fall.t50 : d.period / 2;
+}
+
+/** The copy of t (shifted by whole periods) inside the window, or null. */
+function inWindow(t: number, w: TimeWindow, period: number): number | null {
+  const k = Math.ceil((w.from - t) / period);
+  const shifted = t + k * period;
+  return shifted <= w.to ? shifted : null;
+}
+
+function drawWindowBrackets(ctx: Context, scale: ScaleLinear<number, number>, layout: Layout, y: number): void {
+  const g = ctx.root.group().attr({ class: 'window-brackets' });
+  const T = ctx.d.period;
+  ctx.d.windows.forEach((w, i) => {
+    for (const k of [-1, 0, 1]) {
+      const a = Math.max(0, w.from + k * T);
+      const b = Math.min(T, w.to + k * T);
+      if (b <= a) continue;
+      g.rect(round(scale(b) - scale(a)), round(layout.bottom - y)).move(round(scale(a)), round(y)).fill(PANEL).stroke({ color: GRID, width: 1 });
+    }
+    const centre = scale(Math.min(T, Math.max(0, (w.from + w.to) / 2)));
+    drawText(g, i === 0 ? 'A' : 'B', centre, y - 3, { size: SIZE.small, bold: true, fill: MUTED, anchor: 'middle', className: 'bracket-label' });
+  });
+}
+
+function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, detail: boolean): void {
+  const [px0, px1] = scale.range() as [number, number];
+  const clipId = `${ctx.prefix}-clip-${name}`;
+  ctx.root.defs().element('clipPath').attr({ id: clipId })
+    .element('rect').attr({ x: round(px0), y: round(layout.signal[0]?.top ?? 0), width: round(px1 - px0), height: round(layout.bottom - (layout.signal[0]?.top ?? 0)) });
+  const panel = ctx.root.group().attr({ class: `panel panel-${name}`, 'data-from': String(w.from), 'data-to': String(w.to) });
+  const clipped = panel.group().attr({ 'clip-path': `url(#${clipId})` });
+  for (const band of layout.signal) {
+    clipped.line(round(px0), round(band.top + band.height), round(px1), round(band.top + band.height)).stroke({ color: GRID, width: 1 });
+  }
+  if (detail) drawDeadZones(ctx, clipped, w, scale, layout);
+  ctx.d.rows.forEach((row, i) => drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail));
+  ctx.d.switches.forEach((s, i) => drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale));
+  if (detail) {
+    drawDeadMarks(ctx, panel, w, scale, layout);
+    drawBbmMarks(ctx, panel, w, scale, layout);
+  }
+}
+
+function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, detail: boolean): void {
+  const colour = rowColour(row);
+  const rg = g.group().attr({ class: 'signal-row', 'data-signal': row.net, 'data-role': row.role });
+  const toXY = (p: readonly [number, number]): [number, number] => [scale(p[0]), levelY(band, p[1])];
+  const line = wavePoints(row.reference, w.from, w.to).map(toXY);
+  if (ctx.d.mode === 'all') {
+    for (const group of ctx.groups.get(row.net) ?? []) {
+      for (const k of [-2, -1, 0, 1, 2]) {
+        const shift = k * ctx.d.period;
+        if (group.t50Max + shift < w.from - ctx.d.period * 0.01 || group.t50Min + shift > w.to + ctx.d.period * 0.01) continue;
+        const outline = bandOutline(group).outline.map(([t, v]) => toXY([t + shift, v]));
+        rg.polygon(points(outline)).fill(row.phase !== null ? PHASE_TINT[row.phase] : GRID).stroke({ color: colour, width: 0.8 })
+          .attr({ class: 'edge-band', 'data-t50-min': String(group.t50Min + shift), 'data-t50-max': String(group.t50Max + shift), 'data-corners': String(group.ramps.length) });
+      }
+    }
+  } else if (row.role === 'phase' || row.role === 'early') {
+    const area: Array<[number, number]> = [[scale(w.from), levelY(band, 0)], ...line, [scale(w.to), levelY(band, 0)]];
+    rg.polygon(points(area)).fill(PHASE_TINT[row.phase ?? 0]).attr({ 'fill-opacity': 0.7 });
+  }
+  const stroke = { color: colour, width: row.role === 'phase' ? 2 : 1.5, linejoin: 'round' as const };
+  const poly = rg.polyline(points(line)).fill('none').stroke(stroke).attr({ class: 'wave' });
+  const pattern = dash(row.role);
+  if (pattern) poly.attr('stroke-dasharray', pattern);
+  if (detail && (row.role === 'phase')) {
+    for (const r of row.reference.ramps) {
+      const t = inWindow(r.t50, w, row.reference.period);
+      if (t !== null) rg.circle(5).center(round(scale(t)), round(levelY(band, 0.5))).fill(PAPER).stroke({ color: colour, width: 1.5 });
+    }
+  }
+}
+
+function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>): void {
+  const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
+  const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
+  const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
+  const h = Math.min(12, band.height * 0.55);
+  const y = band.top + (band.height - h) / 2;
+  if (s.windows.length === 0) return;
+  const wide = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
+  const narrow = { on: Math.max(...s.windows.map((x) => x.onLatest)), off: Math.min(...s.windows.map((x) => x.offEarliest)) };
+  for (const k of [-2, -1, 0, 1, 2]) {
+    const shift = k * ctx.d.period;
+    const bar = (a: number, b: number, fill: string, cls: string) => {
+      const xa = Math.max(scale(w.from) - 2, scale(a + shift));
+      const xb = Math.min(scale(w.to) + 2, scale(b + shift));
+      if (xb <= xa) return;
+      lg.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(fill).stroke({ color: colour, width: 1 }).attr({ class: cls });
+    };
+    bar(wide.on, wide.off, tint, 'conduction-wide');
+    if (narrow.off > narrow.on) bar(narrow.on, narrow.off, colour, 'conduction-narrow');
+  }
+}
+
+function markX(mark: SpanMark, w: TimeWindow, period: number, scale: ScaleLinear<number, number>): { xs: number; xe: number } | null {
+  const start = inWindow(mark.start, w, period);
+  if (start === null) return null;
+  return { xs: scale(start), xe: scale(start + mark.end - mark.start) };
+}
+
+function rowIndex(d: Diagram, net: string): number {
+  return d.rows.findIndex((r) => r.net === net);
+}
+
+function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+  for (const dt of ctx.d.deadTimes) {
+    const mark = dt.marks[0];
+    if (!mark) continue;
+    const x = markX(mark, w, ctx.d.period, scale);
+    if (!x) continue;
+    const a = layout.signal[rowIndex(ctx.d, dt.from)];
+    const b = layout.signal[rowIndex(ctx.d, dt.to)];
+    if (!a || !b) continue;
+    const top = Math.min(a.top, b.top);
+    const bottom = Math.max(a.top + a.height, b.top + b.height);
+    const lo = Math.min(x.xs, x.xe);
+    const fail = dt.marks.some((m) => !m.pass);
+    g.rect(round(Math.max(1, Math.abs(x.xe - x.xs))), round(bottom - top)).move(round(lo), round(top))
+      .fill(fail ? ctx.hatch : DEAD_ZONE).attr({ class: fail ? 'dead-zone fail' : 'dead-zone' });
+  }
+}
+
+function clampCentre(text: string, centre: number, size: number, scale: ScaleLinear<number, number>, bold = false): number {
+  const [px0, px1] = scale.range() as [number, number];
+  const half = textWidth(text, size, bold) / 2;
+  return Math.min(px1 - half, Math.max(px0 + half, centre));
+}
+
+function roleWord(mark: SpanMark): string {
+  return mark.role === 'least' ? 'least ' : mark.role === 'most' ? 'most ' : '';
+}
+
+function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+  if (!layout.dead) return;
+  for (const dt of ctx.d.deadTimes) {
+    const fromBand = layout.signal[rowIndex(ctx.d, dt.from)];
+    const toBand = layout.signal[rowIndex(ctx.d, dt.to)];
+    if (!fromBand || !toBand) continue;
+    dt.marks.forEach((mark, k) => {
+      const x = markX(mark, w, ctx.d.period, scale);
+      if (!x) return;
+      const laneTop = layout.dead!.top + k * DETAIL.dead;
+      const lineY = laneTop + 24;
+      const mg = g.group().attr({ class: 'dead-time-mark', 'data-from': dt.from, 'data-to': dt.to, 'data-corner': mark.corner, 'data-role': mark.role });
+      extensionLine(mg, x.xs, levelY(fromBand, 0.5), lineY + 5, !mark.pass);
+      extensionLine(mg, x.xe, levelY(toBand, 0.5), lineY + 5, !mark.pass);
+      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      const value = `${roleWord(mark)}dead time ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
+      const centre = (x.xs + x.xe) / 2;
+      const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, halo: true };
+      drawText(mg, value, clampCentre(value, centre, SIZE.annotation, scale, true), lineY - 6, {
+        ...style, className: 'dead-time-label', data: { from: dt.from, to: dt.to, corner: mark.corner, value: String(mark.value) },
+      });
+      const second = mark.pass
+        ? mark.role === 'most' ? mark.corner : `${mark.role === 'least' ? `${mark.corner} · ` : ''}clean gap ${psText(dt.gap)}`
+        : `${mark.role === 'single' ? '' : `${mark.corner}: `}${mark.reason}`;
+      drawText(mg, second, clampCentre(second, centre, SIZE.small, scale), lineY + 18, { size: SIZE.small, anchor: 'middle', fill: mark.pass ? MUTED : FAIL, className: 'mark-note', halo: true });
+    });
+  }
+}
+
+function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+  for (const bbm of ctx.d.breakBeforeMake) {
+    const lane = layout.bbm.get(bbm.name);
+    const fromIndex = ctx.d.switches.findIndex((s) => s.name === bbm.from);
+    const toIndex = ctx.d.switches.findIndex((s) => s.name === bbm.to);
+    const fromBand = layout.switches[fromIndex];
+    const toBand = layout.switches[toIndex];
+    if (!lane || !fromBand || !toBand) continue;
+    for (const mark of bbm.marks) {
+      const x = markX(mark, w, ctx.d.period, scale);
+      if (!x) continue;
+      const lineY = lane.top + 22;
+      const mg = g.group().attr({ class: 'bbm-mark', 'data-from': bbm.from, 'data-to': bbm.to, 'data-corner': mark.corner });
+      const gx = scale(mark.start + bbm.guard) - scale(mark.start);
+      if (gx > 0) mg.rect(round(gx), 8).move(round(x.xs), round(lineY - 4)).fill(FAINT).attr({ 'fill-opacity': 0.55, class: 'guard' });
+      if (!mark.pass) {
+        const lo = Math.min(x.xs, x.xe, x.xs + gx);
+        const hi = Math.max(x.xs, x.xe, x.xs + gx);
+        const top = Math.min(fromBand.top, toBand.top);
+        mg.rect(round(Math.max(2, hi - lo)), round(lineY + 6 - top)).move(round(lo), round(top)).fill(ctx.hatch).attr({ class: 'bbm-fail' });
+      }
+      extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
+      extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
+      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      const centre = (x.xs + x.xe) / 2;
+      const label = `${bbm.from} off to ${bbm.to} on ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
+      drawText(mg, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
+        size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', halo: true,
+        data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
+      });
+      const note = `margin ${signedPs(mark.value - bbm.guard)} after the ${psText(bbm.guard)} guard${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
+      drawText(mg, note, clampCentre(note, centre, SIZE.small, scale), lineY + 18, { size: SIZE.small, anchor: 'middle', fill: mark.pass ? MUTED : FAIL, className: 'mark-note', halo: true });
+    }
+  }
+}
+
+function truncate(text: string, size: number, widthPx: number, bold: boolean): string {
+  if (textWidth(text, size, bold) <= widthPx) return text;
+  let t = text;
+  while (t.length > 1 && textWidth(`${t}\u2026`, size, bold) > widthPx) t = t.slice(0, -1);
+  return `${t}\u2026`;
+}
+
+function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean): void {
+  const g = ctx.root.group().attr({ class: detail ? 'row-labels detail' : 'row-labels overview' });
+  const room = LABEL_COLUMN - 14;
+  ctx.d.rows.forEach((row, i) => {
+    const band = layout.signal[i]!;
+    const text = truncate(row.net, SIZE.label, room, row.role === 'phase');
+    drawText(g, text, x, band.top + band.height / 2 + 5, {
+      size: SIZE.label, anchor: 'end', bold: row.role === 'phase', fill: row.phase !== null ? PHASE[row.phase] : INK,
+      className: 'row-label', data: { signal: row.net },
+    });
+  });
+  ctx.d.switches.forEach((s, i) => {
+    const band = layout.switches[i]!;
+    const text = truncate(`${s.name} (${s.type})`, SIZE.small, room, false);
+    drawText(g, text, x, band.top + band.height / 2 + 4, { size: SIZE.small, anchor: 'end', fill: INK, className: 'switch-label', data: { switch: s.name } });
+    if (detail && s.problems.length > 0) {
+      const first = s.problems[0]!;
+      const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
+      drawText(g, truncate(msg, SIZE.small, 2 * (ctx.root.width() as number), false), x + 20, band.top + band.height / 2 + 4, { size: SIZE.small, fill: FAIL, className: 'switch-problem' });
+    }
+  });
+  for (const [name, band] of layout.bbm) {
+    drawText(g, 'break-before-make', x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
+    drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, { size: SIZE.small, anchor: 'end', fill: INK, className: 'bbm-lane-label' });
+  }
+  if (layout.dead) drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
+}
+
+function drawLegend(ctx: Context, x: number, y: number, width: number): void {
+  const g = ctx.root.group().attr({ class: 'legend' });
+  g.line(round(x), round(y - 8), round(x + width), round(y - 8)).stroke({ color: GRID, width: 1 });
+  let cx = x;
+  const item = (draw: (gx: number) => void, text: string) => {
+    draw(cx);
+    drawText(g, text, cx + 30, y + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
+    cx += 30 + textWidth(text, SIZE.small) + 22;
+  };
+  const sample = (colour: string, dasharray?: string) => (gx: number) => {
+    const l = g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: colour, width: 2 });
+    if (dasharray) l.attr('stroke-dasharray', dasharray);
+  };
+  const phases = ctx.d.rows.filter((r) => r.role === 'phase');
+  for (const p of phases) item(sample(PHASE[p.phase ?? 0]), `${p.net}, phase ${(p.phase ?? 0) + 1}`);
+  if (ctx.d.rows.some((r) => r.role === 'complement' || r.role === 'clock-complement')) item(sample(MUTED, '7 4'), 'complement');
+  if (ctx.d.rows.some((r) => r.role === 'early')) item(sample(MUTED, '2 3'), 'early phase');
+  item((gx) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(ctx.hatch).stroke({ color: FAIL, width: 1 }); }, `${GLYPH.fail} FAIL (hatched)`);
+  const y2 = y + 30;
+  cx = x;
+  const item2 = (draw: (gx: number) => void, text: string) => {
+    draw(cx);
+    drawText(g, text, cx + 30, y2 + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
+    cx += 30 + textWidth(text, SIZE.small) + 22;
+  };
+  if (ctx.d.switches.length > 0) {
+    item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 }); }, 'switch conducts at some signal level');
+    item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE[0]); }, 'at every signal level');
+    item2((gx) => { g.rect(24, 8).move(round(gx), round(y2 + 4)).fill(FAINT).attr({ 'fill-opacity': 0.55 }); }, 'guard time');
+  }
+  if (ctx.d.mode === 'all') {
+    item2((gx) => { g.polygon(points([[gx, y2 + 14], [gx + 10, y2 + 2], [gx + 24, y2 + 2], [gx + 14, y2 + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); },
+      `edge band: earliest to latest corner; line: ${ctx.d.referenceCorner}`);
+  }
+  const notes: string[] = [];
+  if (ctx.d.excluded.length > 0) notes.push(`left out (no steady state): ${ctx.d.excluded.map((e) => e.corner).join(', ')}`);
+  notes.push('Model estimate from a gate-level timing model; sign-off needs transistor-level simulation and silicon validation.');
+  notes.forEach((n, i) => drawText(g, n, x, y + 66 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' }));
+}
+

@@ -1,0 +1,49 @@
+/** The title block: design, what is drawn, clock, model and card, and a verdict box that reads without colour. */
+import type { Svg } from '@svgdotjs/svg.js';
+import type { Diagram } from '../diagram.js';
+import { formatEngineering, formatTime } from '../../units/format.js';
+import { FAIL, FAIL_TINT, GLYPH, INK, MUTED, PAPER, SIZE } from '../palette.js';
+import { round } from './canvas.js';
+import { drawText } from './text.js';
+
+export interface TitleInfo {
+  readonly design: string;
+  readonly line: string;
+  readonly note: string;
+  readonly pass: boolean;
+  /** Words under the verdict. */
+  readonly detail: string;
+  readonly data?: Readonly<Record<string, string>>;
+}
+
+export function diagramTitle(d: Diagram): TitleInfo {
+  const what = d.mode === 'all' ? `${d.cornerLabel} overlaid` : `corner ${d.cornerLabel}`;
+  const { pass, failing, checks } = d.verdict;
+  const where = d.mode === 'all' ? ' (all corners)' : '';
+  return {
+    design: d.design,
+    line: `${what} · clock ${formatEngineering(d.frequency, 'Hz')} (period ${formatTime(d.period)})`,
+    note: `${d.model} delay model · process card ${d.card}`,
+    pass,
+    detail: pass ? `all ${checks} checks hold${where}` : `${failing} of ${checks} checks fail${where}`,
+    data: { corner: d.cornerLabel },
+  };
+}
+
+export function drawTitleBlock(root: Svg, info: TitleInfo, width: number, margin: number): void {
+  const g = root.group().attr({ class: 'title-block' });
+  drawText(g, info.design, margin, 32, { size: SIZE.title, bold: true, className: 'title' });
+  drawText(g, info.line, margin, 56, { size: SIZE.subtitle, className: 'subtitle', data: info.data ?? {} });
+  drawText(g, info.note, margin, 76, { size: SIZE.small, fill: MUTED, className: 'subtitle' });
+  const boxW = 208;
+  const boxH = 56;
+  const bx = width - margin - boxW;
+  const by = 14;
+  const pass = info.pass;
+  g.rect(boxW, boxH).move(round(bx), by).fill(pass ? PAPER : FAIL_TINT).stroke({ color: pass ? INK : FAIL, width: pass ? 1.5 : 2.5 }).attr({ rx: 4 });
+  drawText(g, `${pass ? GLYPH.pass : GLYPH.fail} ${pass ? 'PASS' : 'FAIL'}`, bx + 14, by + 26, {
+    size: 18, bold: true, fill: pass ? INK : FAIL, className: 'verdict', data: { verdict: pass ? 'pass' : 'fail' },
+  });
+  drawText(g, info.detail, bx + 14, by + 46, { size: SIZE.small, fill: pass ? MUTED : FAIL, className: 'verdict-detail' });
+  g.line(margin, 90, width - margin, 90).stroke({ color: '#c9ced6', width: 1 });
+}
