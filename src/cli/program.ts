@@ -11,6 +11,10 @@ import { runConfirm } from './commands/confirm.js';
 import { runCharacterize } from './commands/characterize.js';
 import { runVerilog } from './commands/verilog.js';
 import { runMc } from './commands/mc.js';
+import { runDraw } from './commands/draw.js';
+import { runReport } from './commands/report.js';
+import { runWaves } from './commands/waves.js';
+import { runSweep } from './commands/sweep.js';
 
 export const EXIT_PASS = 0;
 export const EXIT_FAIL = 1;
@@ -54,6 +58,17 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(outOption('the report'))
     .action((design: string, opts: { set: string[]; json: boolean; out?: string; resolution?: string }) => setCode(runFmax(io, design, opts)));
 
+  program.command('sweep')
+    .description('batch grid over corner axes and design values; one worst-case row per point, CSV or JSON, streamed')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .addOption(new Option('--vary <AXIS=VALUES>', 'an axis: process|vdd|temperature|duty or a design path (clock.frequency, generator.stages, loads.p1, switches[0].w), with a list a,b,c or a range START:STOP:N (repeatable: a grid)')
+      .argParser(collect).default([]))
+    .option('--workers <K>', 'threads (default: the number of cores); rows do not depend on it')
+    .option('--json', 'write a JSON array instead of CSV', false)
+    .addOption(outOption('the rows'))
+    .action((design: string, opts: Parameters<typeof runSweep>[2]) => setCode(runSweep(io, design, opts)));
+
   program.command('mc')
     .description('Monte Carlo local mismatch (Pelgrom) on every corner: yield with a 95 % interval, sigma margins')
     .argument('<DESIGN>', 'design file (YAML or JSON)')
@@ -66,6 +81,36 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, opts: Parameters<typeof runMc>[2]) => setCode(runMc(io, design, opts)));
+
+  program.command('draw')
+    .description('SVG timing diagram of a corner (or worst, or all overlaid as edge envelopes), or the margin chart')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--corner <NAME>', "a corner name like ss/1.62V/125C, 'worst' (the corner of the limiting check) or 'all'", 'worst')
+    .option('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", 'phases')
+    .option('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", 'timing')
+    .addOption(outOption('the SVG'))
+    .action((design: string, opts: Parameters<typeof runDraw>[2]) => setCode(runDraw(io, design, opts)));
+
+  program.command('report')
+    .description('self-contained review page: summary, diagrams, margin chart, corner table, process card, cautions')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", 'html')
+    .option('--no-fmax', 'skip the maximum-frequency search')
+    .addOption(outOption('the report'))
+    .action((design: string, opts: Parameters<typeof runReport>[2]) => setCode(runReport(io, design, opts)));
+
+  program.command('waves')
+    .description('steady-state waveforms of a corner as an IEEE 1364 VCD file (50 % crossings, switch conduction)')
+    .argument('<DESIGN>', 'design file (YAML or JSON)')
+    .addOption(setOption())
+    .option('--corner <NAME>', "a corner name like ss/1.62V/125C or 'worst'", 'worst')
+    .option('--nets <WHICH>', "'phases' or 'all' (internal nets in scope internal)", 'phases')
+    .option('--timescale <UNIT>', "'1fs' or '10fs'", '1fs')
+    .option('--periods <N>', 'clock periods to dump', '2')
+    .addOption(outOption('the VCD'))
+    .action((design: string, opts: Parameters<typeof runWaves>[2]) => setCode(runWaves(io, design, opts)));
 
   program.command('schema')
     .description('print the JSON Schema of the design file')
@@ -135,7 +180,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
  */
 export function run(argv: readonly string[], io: Io): number | Promise<number> {
   const outcome: { code: number | Promise<number> } = { code: EXIT_PASS };
-  const program = buildProgram(io, (c) => (outcome.code = c));
+  const program = buildProgram(io, (c) => { outcome.code = c; });
   const fail = (error: unknown): number => {
     if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
     if (error instanceof InputError) {

@@ -1,7 +1,10 @@
 /** Building and evaluating sweep points from the raw design text (shared by the command and its threads). */
 import { applyOverrides } from './overrides.js';
 import { readDataFile, loadProcess } from './load.js';
-import { designSchema } from '../schema/design.js';
+import { cornersSchema, designSchema } from '../schema/design.js';
+import { expandCorners } from '../process/corners.js';
+import { CORNER_AXES } from '../analysis/sweep.js';
+import type { ResolvedDesign } from '../analysis/resolve.js';
 import { parseWith } from '../schema/validate.js';
 import { resolveDesign } from '../analysis/resolve.js';
 import { evaluateAll } from '../analysis/evaluate.js';
@@ -19,6 +22,8 @@ export interface SweepSetup {
 interface Prepared {
   readonly raw: unknown;
   readonly cards: Map<string, ProcessCard>;
+  /** The design resolved for the last combination of design-path values (corner axes vary fastest). */
+  last: { key: string; resolved: ResolvedDesign } | null;
 }
 
 const prepared = new WeakMap<SweepSetup, Prepared>();
@@ -26,33 +31,56 @@ const prepared = new WeakMap<SweepSetup, Prepared>();
 function prepare(setup: SweepSetup): Prepared {
   let p = prepared.get(setup);
   if (!p) {
-    p = { raw: applyOverrides(readDataFile(setup.designPath, 'DESIGN'), setup.overrides), cards: new Map() };
+    p = { raw: applyOverrides(readDataFile(setup.designPath, 'DESIGN'), setup.overrides), cards: new Map(), last: null };
     prepared.set(setup, p);
   }
   return p;
 }
 
-/** Evaluates one grid point; an invalid point is an InputError naming the axis. */
+const isCornerAxis = (path: string) => (CORNER_AXES as readonly string[]).includes(path);
+
+function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): ResolvedDesign {
+  const key = sets.join('\n');
+  if (p.last?.key === key) return p.last.resolved;
+  const design = parseWith(designSchema, applyOverrides(p.raw, sets));
+  let card: ProcessCard;
+  if (typeof design.process === 'string') {
+    const path = resolve(dirname(setup.designPath), design.process);
+    card = p.cards.get(path) ?? loadProcess(path, 'process');
+    p.cards.set(path, card);
+  } else card = design.process;
+  const resolved = resolveDesign(design, card);
+  p.last = { key, resolved };
+  return resolved;
+}
+
+/**
+ * Evaluates one grid point; an invalid point is an InputError naming the axis. Design paths
+ * re-resolve the design (cached while only corner axes change); corner axes only re-expand the
+ * corner set.
+ */
 export function sweepPoint(setup: SweepSetup, index: number): SweepRow {
   const p = prepare(setup);
   const values = gridPoint(setup.axes, index);
   const sets = pointOverrides(setup.axes, values);
-  let resolved;
   try {
-    const design = parseWith(designSchema, applyOverrides(p.raw, sets));
-    let card: ProcessCard;
-    if (typeof design.process === 'string') {
-      const path = resolve(dirname(setup.designPath), design.process);
-      card = p.cards.get(path) ?? loadProcess(path, 'process');
-      p.cards.set(path, card);
-    } else card = design.process;
-    resolved = resolveDesign(design, card);
+    const designSets = sets.filter((_, i) => !isCornerAxis(setup.axes[i]!.path));
+    const base = resolveFor(setup, p, designSets);
+    const cornerAxes = setup.axes.map((a, i) => ({ a, v: values[i]! })).filter(({ a }) => isCornerAxis(a.path));
+    if (cornerAxes.length === 0) return summarizePoint(index, values, evaluateAll(base));
+    const spec = { ...rawCorners(p.raw), ...Object.fromEntries(cornerAxes.map(({ a, v }) => [a.path, [v]])) };
+    const corners = expandCorners(parseWith(cornersSchema, spec, 'corners'), base.card, base.design.clock.duty);
+    return summarizePoint(index, values, evaluateAll({ ...base, corners }));
   } catch (error) {
     if (!(error instanceof InputError)) throw error;
     const where = setup.axes.map((a, i) => `${a.path}=${values[i]}`).join(', ');
     throw new InputError(error.issues.map((issue) => ({ ...issue, allowed: `${issue.allowed} (at sweep point ${where})` })));
   }
-  return summarizePoint(index, values, evaluateAll(resolved));
+}
+
+function rawCorners(raw: unknown): Record<string, unknown> {
+  const corners = (raw as { corners?: unknown }).corners;
+  return corners !== null && typeof corners === 'object' ? { ...(corners as Record<string, unknown>) } : {};
 }
 
 export function sweepRows(setup: SweepSetup, start: number, count: number): SweepRow[] {
