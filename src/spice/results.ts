@@ -12,7 +12,8 @@ export interface SimulatorOutput {
 
 const VALUE = /^\s*([a-z_][a-z0-9_]*)\s*=\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)(?:\s|$)/;
 const FAILED = /^\s*([a-z_][a-z0-9_]*)\s*=\s*failed/i;
-const MEAS_ERROR = /measure\s+([a-z_][a-z0-9_]*)\s*:?\s*failed/i;
+const MEAS_ERROR = /^\s*error:\s*measure\s+([a-z_][a-z0-9_]*)\b/i;
+const MEAS_FAILED = /^\s*\.meas\w*\s+\w+\s+([a-z_][a-z0-9_]*)\b.*\bfailed!?\s*$/i;
 
 export function parseSimulatorOutput(text: string, expected: readonly string[]): SimulatorOutput {
   const wanted = new Set(expected.map((n) => n.toLowerCase()));
@@ -24,7 +25,7 @@ export function parseSimulatorOutput(text: string, expected: readonly string[]):
       values.set(value[1]!, Number(value[2]));
       continue;
     }
-    const failed = FAILED.exec(line) ?? MEAS_ERROR.exec(line);
+    const failed = FAILED.exec(line) ?? MEAS_ERROR.exec(line) ?? MEAS_FAILED.exec(line);
     if (failed && wanted.has(failed[1]!.toLowerCase())) {
       if (!values.has(failed[1]!.toLowerCase())) values.set(failed[1]!.toLowerCase(), null);
       continue;

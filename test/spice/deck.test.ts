@@ -1,0 +1,88 @@
+import { describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { cli, design, tempDir } from '../helpers.js';
+import { parseSimulatorOutput } from '../../src/spice/results.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { generatorDeck } from '../../src/spice/deck.js';
+import { cellSubckt } from '../../src/spice/cells.js';
+
+function measureNames(deck: string): string[] {
+  return [...deck.matchAll(/^\.meas tran (\S+)/gm)].map((m) => m[1]!);
+}
+
+describe('phasegap spice', () => {
+  it('writes a deck that ngspice (Debian package ngspice) runs without error, every .meas giving a value', () => {
+    const dir = tempDir();
+    const out = join(dir, 'doubler.cir');
+    const written = cli('spice', design('doubler'), '--corner', 'ss/1.62V/125C', '-o', out);
+    expect(written.code).toBe(0);
+    const text = readFileSync(out, 'utf8');
+    const names = measureNames(text);
+    // Two dead times and two gaps, two widths, and on/off of the three switches without a level shifter.
+    expect(names.length).toBe(4 + 2 + 6);
+    const run = spawnSync('ngspice', ['-b', out], { encoding: 'utf8', cwd: dir });
+    expect(run.status).toBe(0);
+    const parsed = parseSimulatorOutput(`${run.stdout}${run.stderr}`, names);
+    expect(parsed.errors).toEqual([]);
+    for (const name of names) {
+      const value = parsed.values.get(name);
+      expect(value, name).not.toBeNull();
+      expect(Number.isFinite(value!) && value! > 0, name).toBe(true);
+    }
+  });
+
+  it('includes the model file relative to the deck and sets the corner supply, temperature and parameters', () => {
+    const dir = tempDir();
+    const out = join(dir, 'd.cir');
+    expect(cli('spice', design('doubler'), '--corner', 'ff/1.98V/-40C', '-o', out).code).toBe(0);
+    const text = readFileSync(out, 'utf8');
+    expect(text).toMatch(/^\.include ".*fixtures\/models\/generic180\.lib"$/m);
+    expect(text).toMatch(/^\.temp -40$/m);
+    expect(text).toMatch(/^vsupply vdd 0 DC 1\.98$/m);
+    expect(text).toMatch(/^\.param dvthn=-0\.06$/m);
+    expect(text).toMatch(/^\.param driven=1\.15$/m);
+    // The level-shifted switch is left out; the other three are devices.
+    expect(text.match(/^msw/gm)?.length).toBe(3);
+  });
+
+  it('sizes the cells as the model does: a NAND2 stack widened by its depth', () => {
+    const text = cellSubckt('NAND2', 2, { wn: 0.5e-6, wp: 1e-6 }, { l: 0.18e-6, diffusion: 0.5e-6, nModel: 'nch', pModel: 'pch' });
+    const widths = [...text.matchAll(/^(m[np]\d) .* W=(\S+)/gm)].map((m) => [m[1], Number(m[2])]);
+    // logical effort (Sutherland, Sproull & Harris 1999): n devices 2 x 2 x 0.5 um, p devices 2 x 1 um
+    expect(widths).toEqual([['mn0', 2e-6], ['mn1', 2e-6], ['mp0', 2e-6], ['mp1', 2e-6]]);
+    expect(text).toMatch(/^mn0 y a0 sn1 0 nch/m);
+    expect(text).toMatch(/^mn1 sn1 a1 0 0 nch/m);
+  });
+
+  it('measures over the steady-state period: the model values sit inside the deck windows', () => {
+    const { design: d, card } = loadDesign(design('doubler'));
+    const resolved = resolveDesign(d, card);
+    const corner = resolved.corners[4]!.corner;
+    const deck = generatorDeck(resolved, corner, { modelPath: 'models.lib' });
+    const dead = deck.quantities.find((q) => q.name === 'dead_1')!;
+    expect(dead.label).toBe('dead p1->p2');
+    // p1 falls after the clock's falling edge of the measured period.
+    expect(dead.trig.td).toBeCloseTo(deck.window.start + corner.duty * deck.window.period, 15);
+    expect(dead.model).toBeGreaterThan(0);
+  });
+
+  it('refuses a missing corner and a card without a spice section, exit 2', () => {
+    const bad = cli('spice', design('doubler'), '--corner', 'tt/3V/27C');
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/--corner: "tt\/3V\/27C" is not a corner of the design/);
+    const none = cli('spice', design('doubler'));
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/--corner: is required/);
+  });
+});
+
+describe('phasegap confirm without ngspice', () => {
+  it('says how to install it and exits 2', () => {
+    const r = cli('confirm', design('doubler'), '--corners', 'tt/1.8V/27C', '--ngspice', '/nonexistent/ngspice');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/ngspice: "\/nonexistent\/ngspice" is not installed .*apt-get install ngspice/);
+  });
+});
