@@ -14,9 +14,6 @@ import { runMc } from './commands/mc.js';
 import { runDraw } from './commands/draw.js';
 import { runReport } from './commands/report.js';
 import { runWaves } from './commands/waves.js';
-import { runDraw } from './commands/draw.js';
-import { runReport } from './commands/report.js';
-import { runWaves } from './commands/waves.js';
 import { runSweep } from './commands/sweep.js';
 
 export const EXIT_PASS = 0;
@@ -84,36 +81,6 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, opts: Parameters<typeof runMc>[2]) => setCode(runMc(io, design, opts)));
-
-  program.command('draw')
-    .description('SVG timing diagram of a corner (or worst, or all overlaid as edge envelopes), or the margin chart')
-    .argument('<DESIGN>', 'design file (YAML or JSON)')
-    .addOption(setOption())
-    .option('--corner <NAME>', "a corner name like ss/1.62V/125C, 'worst' (the corner of the limiting check) or 'all'", 'worst')
-    .option('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", 'phases')
-    .option('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", 'timing')
-    .addOption(outOption('the SVG'))
-    .action((design: string, opts: Parameters<typeof runDraw>[2]) => setCode(runDraw(io, design, opts)));
-
-  program.command('report')
-    .description('self-contained review page: summary, diagrams, margin chart, corner table, process card, cautions')
-    .argument('<DESIGN>', 'design file (YAML or JSON)')
-    .addOption(setOption())
-    .option('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", 'html')
-    .option('--no-fmax', 'skip the maximum-frequency search')
-    .addOption(outOption('the report'))
-    .action((design: string, opts: Parameters<typeof runReport>[2]) => setCode(runReport(io, design, opts)));
-
-  program.command('waves')
-    .description('steady-state waveforms of a corner as an IEEE 1364 VCD file (50 % crossings, switch conduction)')
-    .argument('<DESIGN>', 'design file (YAML or JSON)')
-    .addOption(setOption())
-    .option('--corner <NAME>', "a corner name like ss/1.62V/125C or 'worst'", 'worst')
-    .option('--nets <WHICH>', "'phases' or 'all' (internal nets in scope internal)", 'phases')
-    .option('--timescale <UNIT>', "'1fs' or '10fs'", '1fs')
-    .option('--periods <N>', 'clock periods to dump', '2')
-    .addOption(outOption('the VCD'))
-    .action((design: string, opts: Parameters<typeof runWaves>[2]) => setCode(runWaves(io, design, opts)));
 
   program.command('draw')
     .description('SVG timing diagram of a corner (or worst, or all overlaid as edge envelopes), or the margin chart')
