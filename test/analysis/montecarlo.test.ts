@@ -1,0 +1,90 @@
+import { describe, it, expect } from 'vitest';
+import { quantileSorted } from 'simple-statistics';
+import { runMonteCarlo, chunkPlan, CHUNK_SIZE } from '../../src/analysis/montecarlo.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { mcReport } from '../../src/report/mc-report.js';
+import { cliAsync, design, expectClose } from '../helpers.js';
+
+const doubler = () => {
+  const { design: d, card } = loadDesign(design('doubler'));
+  return resolveDesign(d, card);
+};
+
+describe('chunkPlan', () => {
+  it('cuts dies into fixed chunks that cover every die once', () => {
+    const plan = chunkPlan(2 * CHUNK_SIZE + 7);
+    expect(plan.map((c) => c.count)).toEqual([CHUNK_SIZE, CHUNK_SIZE, 7]);
+    expect(plan[2]!.start).toBe(2 * CHUNK_SIZE);
+  });
+});
+
+describe('runMonteCarlo', () => {
+  const resolved = doubler();
+  const mc = runMonteCarlo(resolved, 400, 5);
+
+  it('reports per corner yield, Wilson interval, dead-time statistics and the worst die', () => {
+    expect(mc.corners).toHaveLength(45);
+    const c = mc.corners[0]!;
+    expect(c.samples).toBe(400);
+    expect(c.yieldInterval.low).toBeLessThanOrEqual(c.yield);
+    const dead = c.quantities.find((q) => q.name === 'dead p1->p2')!;
+    expect(dead.count).toBe(400);
+    expect(dead.sigma).toBeGreaterThan(0);
+    expect(dead.min).toBeLessThanOrEqual(dead.mean);
+    expect(c.worstSample.index).toBeGreaterThanOrEqual(0);
+    expect(c.worstSample.index).toBeLessThan(400);
+  });
+
+  it('reports the sigma margin of a check as its mean margin over its sigma', () => {
+    const q = mc.corners[0]!.quantities.find((x) => x.kind === 'dead-time-min')!;
+    expectClose(q.sigmaMargin!, q.mean / q.sigma, 1e-12);
+  });
+
+  it('computes dead-time quantiles that agree with simple-statistics on the same dies', () => {
+    const report = mcReport('d', 'c', mc, undefined);
+    const values = Array.from(mc.deadTimes[3]![0]).sort((a, b) => a - b);
+    // Two quantile conventions differ by at most one order statistic at n = 400.
+    const spacing = (values[values.length - 1]! - values[0]!) / 50;
+    expectClose(report.corners[3]!.deadTimeQuantiles[0]!['q0.5']!, quantileSorted(values, 0.5), spacing, 'abs');
+    expect(report.corners[3]!.deadTimeQuantiles[0]!['q0.00135']!).toBeLessThan(report.corners[3]!.deadTimeQuantiles[0]!['q0.5']!);
+  });
+
+  it('gives the same numbers for the same seed and different ones for another seed', () => {
+    const again = runMonteCarlo(resolved, 400, 5);
+    const other = runMonteCarlo(resolved, 400, 6);
+    expect(again.corners[7]!.quantities).toEqual(mc.corners[7]!.quantities);
+    expect(other.corners[7]!.quantities[0]!.mean).not.toBe(mc.corners[7]!.quantities[0]!.mean);
+  });
+});
+
+describe('phasegap mc', () => {
+  it('writes byte-identical JSON for the same seed, on one thread and on two', async () => {
+    const one = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '1', '--json');
+    const two = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '2', '--json');
+    const again = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '2', '--json');
+    expect(one.code).toBe(0);
+    expect(two.stdout).toBe(one.stdout);
+    expect(again.stdout).toBe(one.stdout);
+    const other = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '4', '--workers', '1', '--json');
+    expect(other.stdout).not.toBe(one.stdout);
+  });
+
+  it('replays the worst die: its least margin at that corner equals the one Monte Carlo found', async () => {
+    const mc = JSON.parse((await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '9', '--json')).stdout);
+    const corner = mc.corners.find((c: { name: string }) => c.name === mc.worstCorner);
+    const replay = JSON.parse((await cliAsync('mc', design('doubler'), '--seed', '9', '--replay', String(corner.worstSample.index), '--json')).stdout);
+    const same = replay.corners.find((c: { name: string }) => c.name === mc.worstCorner);
+    const least = Math.min(...same.checks.map((k: { margin: number }) => k.margin));
+    expectClose(least, corner.worstSample.leastMargin, 1e-15, 'abs');
+  });
+
+  it('fails the yield requirement when a die fails, and rejects a bad sample count with exit 2', async () => {
+    const tight = await cliAsync('mc', design('too-tight'), '--samples', '50', '--workers', '1', '--json');
+    expect(tight.code).toBe(1);
+    expect(JSON.parse(tight.stdout).yield.value).toBeLessThan(1);
+    const bad = await cliAsync('mc', design('doubler'), '--samples', '0');
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain('--samples');
+  });
+});

@@ -1,0 +1,86 @@
+import { describe, it, expect } from 'vitest';
+import { sampleStandardDeviation } from 'simple-statistics';
+import { randomLcg, randomNormal } from 'd3-random';
+import { drawMismatch, mismatchBuffers, mismatchSigmas, pelgromSigma, sampleSeed } from '../../src/variation/mismatch.js';
+import { compileNetlist } from '../../src/netlist/netlist.js';
+import { netLoads } from '../../src/netlist/loads.js';
+import { analyticModel } from '../../src/delay/analytic.js';
+import { devicesAtCorner } from '../../src/process/device.js';
+import { loadProcess } from '../../src/cli/load.js';
+import { expectClose, processCard } from '../helpers.js';
+
+describe('pelgromSigma', () => {
+  // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 24(5), 1989: sigma = A_VT/sqrt(W*L);
+  // A_VT = 5 mV*um gives 5.0 mV at 1x1 um and 2.5 mV at 4x1 um (REFERENCES 4, derived).
+  it('gives 5.0 mV for 1x1 um and 2.5 mV for 4x1 um at A_VT = 5 mV*um', () => {
+    expectClose(pelgromSigma(5e-9, 1e-6, 1e-6), 5e-3, 1e-12);
+    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6), 2.5e-3, 1e-12);
+  });
+});
+
+const card = loadProcess(processCard('generic180'));
+const inverter = compileNetlist({
+  clock: 'clk', phases: ['a', 'b'], complements: {}, early: {}, loads: {},
+  gates: [
+    { name: 'u1', cell: 'INV', size: 1, inputs: ['clk'], output: 'a' },
+    { name: 'u2', cell: 'NAND2', size: 2, inputs: ['clk', 'a'], output: 'b' },
+  ],
+});
+
+describe('mismatchSigmas', () => {
+  it('uses each device\'s area and divides a series stack by sqrt(depth)', () => {
+    const s = mismatchSigmas(inverter, card, []);
+    const lmin = card.lmin;
+    expectClose(s.gateN[0]!, card.n.avt / Math.sqrt(card.unit.wn * lmin), 1e-12);
+    expectClose(s.gateP[0]!, card.p.avt / Math.sqrt(card.unit.wp * lmin), 1e-12);
+    // NAND2 of size 2: two series n devices of width 2*2*wn each, parallel p devices of 2*wp.
+    expectClose(s.gateN[1]!, card.n.avt / Math.sqrt(4 * card.unit.wn * lmin) / Math.SQRT2, 1e-12);
+    expectClose(s.gateP[1]!, card.p.avt / Math.sqrt(2 * card.unit.wp * lmin), 1e-12);
+  });
+});
+
+describe('drawMismatch', () => {
+  const sigmas = mismatchSigmas(inverter, card, []);
+  it('is reproducible for a seed and die, and differs between dies and seeds', () => {
+    const a = drawMismatch(sigmas, 7, 3, mismatchBuffers(sigmas));
+    const b = drawMismatch(sigmas, 7, 3, mismatchBuffers(sigmas));
+    const c = drawMismatch(sigmas, 7, 4, mismatchBuffers(sigmas));
+    const d = drawMismatch(sigmas, 8, 3, mismatchBuffers(sigmas));
+    expect(Array.from(a.dvthN)).toEqual(Array.from(b.dvthN));
+    expect(a.dvthN[0]).not.toBe(c.dvthN[0]);
+    expect(a.dvthN[0]).not.toBe(d.dvthN[0]);
+    expect(sampleSeed(7, 3)).toBeGreaterThanOrEqual(0);
+    expect(sampleSeed(7, 3)).toBeLessThan(1);
+  });
+
+  it('draws shifts whose sigma is Pelgrom\'s within 2 % over 20,000 dies', () => {
+    const buf = mismatchBuffers(sigmas);
+    const xs = Array.from({ length: 20000 }, (_, i) => drawMismatch(sigmas, 1, i, buf).dvthN[0]!);
+    expectClose(sampleStandardDeviation(xs), sigmas.gateN[0]!, 0.02);
+  });
+});
+
+describe('gate delay under mismatch', () => {
+  // First-order propagation through the alpha-power delay (Sakurai & Newton, IEEE JSSC 1990):
+  // t = (1/2 - (1 - Vth/VDD)/(1 + alpha)) tT + C VDD / (2 W K (VDD - Vth)^alpha), so
+  // dt/dVth = tT/(VDD (1 + alpha)) + alpha C VDD / (2 W K (VDD - Vth)^(alpha + 1)),
+  // and sigma(t) ~ |dt/dVth| * sigma(Vth) for a small sigma.
+  it('has the sigma of the first-order sensitivity times sigma(Vth), within 5 % at 20,000 samples', () => {
+    const devices = devicesAtCorner(card, { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
+    const loads = netLoads(inverter, card);
+    const sigma = 0.01;
+    const tIn = 200e-12;
+    const n = devices.n;
+    const width = card.unit.wn;
+    const c = loads[inverter.netIndex.get('a')!]!;
+    const sensitivity = tIn / (1.8 * (1 + n.alpha)) + (n.alpha * c * 1.8) / (2 * width * n.driveConstant * Math.pow(1.8 - n.vth, n.alpha + 1));
+    const buf = { dvthN: new Float64Array(2), dvthP: new Float64Array(2), switches: [] };
+    const normal = randomNormal.source(randomLcg(0.42))(0, 1);
+    const delays: number[] = [];
+    for (let k = 0; k < 20000; k++) {
+      buf.dvthN[0] = sigma * normal();
+      delays.push(analyticModel.bind(inverter, loads, devices, buf).delay(0, 0, false, tIn));
+    }
+    expectClose(sampleStandardDeviation(delays), sensitivity * sigma, 0.05);
+  });
+});
