@@ -54,7 +54,7 @@ export function runPool<T, R>(
       return;
     }
     for (let i = 0; i < count; i++) {
-      const w = new Worker(script, { workerData: setup });
+      const w = new Worker(script, { workerData: setup, execArgv: [] });
       workers.push(w);
       w.on('message', (message: { index: number; result?: R; error?: string; issues?: InputIssue[] }) => {
         if (message.error !== undefined) {
