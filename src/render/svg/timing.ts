@@ -350,7 +350,8 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
         const lo = Math.min(x.xs, x.xe, x.xs + gx);
         const hi = Math.max(x.xs, x.xe, x.xs + gx);
         const top = Math.min(fromBand.top, toBand.top);
-        mg.rect(round(Math.max(2, hi - lo)), round(lineY + 6 - top)).move(round(lo), round(top)).fill(ctx.hatch).attr({ class: 'bbm-fail' });
+        const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
+        mg.rect(round(Math.max(2, hi - lo)), round(bottom - top)).move(round(lo), round(top)).fill(ctx.hatch).attr({ class: 'bbm-fail' });
       }
       extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
       extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
@@ -361,7 +362,8 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
         size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', halo: true,
         data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
       });
-      const note = `margin ${signedPs(mark.value - bbm.guard)} after the ${psText(bbm.guard)} guard${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
+      const overlap = mark.value < 0 ? `both conduct for ${psText(-mark.value)} · ` : '';
+      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} after the ${psText(bbm.guard)} guard${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
       drawText(mg, note, clampCentre(note, centre, SIZE.small, scale), lineY + 18, { size: SIZE.small, anchor: 'middle', fill: mark.pass ? MUTED : FAIL, className: 'mark-note', halo: true });
     }
   }

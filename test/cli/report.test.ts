@@ -1,0 +1,63 @@
+import { describe, expect, it } from 'vitest';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { CAUTIONS } from '../../src/report/cautions.js';
+import { cli, design, tempDir } from '../helpers.js';
+import { parseSvg } from '../render/svg-dom.js';
+
+describe('phasegap report', () => {
+  it('writes one self-contained HTML page with the three drawings inline and the cautions', () => {
+    const dir = tempDir();
+    const file = join(dir, 'r.html');
+    const run = cli('report', design('doubler'), '-o', file);
+    expect(run.code).toBe(0);
+    const html = readFileSync(file, 'utf8');
+    expect(html.startsWith('<!DOCTYPE html>')).toBe(true);
+    expect(html.match(/<svg /g)?.length).toBe(3);
+    for (const c of CAUTIONS) expect(html).toContain(c.replace(/'/g, '&#39;'));
+    // Nothing that would make a browser fetch: no external scripts, styles, images or links.
+    expect(html).not.toMatch(/<script|<link|<img|@import|url\(http|src=/i);
+    expect(html).toContain('@media print');
+    expect(html).toMatch(/fmax \d/);
+    expect(html).not.toMatch(/NaN|undefined/);
+    // Each inline drawing is well-formed XML on its own and uses ids of its own.
+    const svgs = [...html.matchAll(/<svg [\s\S]*?<\/svg>/g)].map((m) => m[0]);
+    const ids = svgs.flatMap((s) => [...s.matchAll(/ id="([^"]+)"/g)].map((m) => m[1]));
+    expect(new Set(ids).size).toBe(ids.length);
+    for (const s of svgs) expect(() => parseSvg(s)).not.toThrow();
+  });
+
+  it('lists every corner in the corner table and exits 1 when the design fails', () => {
+    const run = cli('report', design('too-tight'), '--no-fmax', '-o', '-');
+    expect(run.code).toBe(1);
+    expect(run.stdout).toContain('fmax not computed (skipped with --no-fmax)');
+    const rows = run.stdout.slice(run.stdout.indexOf('id="corners"')).split('</table>')[0]!.match(/<tr( class="fail")?><td>/g) ?? [];
+    expect(rows.length).toBe(45);
+    expect(rows.filter((r) => r.includes('fail')).length).toBeGreaterThan(0);
+  });
+
+  it('writes Markdown with the SVGs beside it with --format md', () => {
+    const dir = tempDir();
+    const file = join(dir, 'review.md');
+    const run = cli('report', design('sc-integrator'), '--format', 'md', '--no-fmax', '-o', file);
+    expect([0, 1]).toContain(run.code);
+    expect(readdirSync(dir).sort()).toEqual(['review-all.svg', 'review-margins.svg', 'review-worst.svg', 'review.md']);
+    const md = readFileSync(file, 'utf8');
+    expect(md).toContain('![All corners overlaid](review-all.svg)');
+    expect(md).toContain('| corner |');
+    for (const c of CAUTIONS) expect(md).toContain(c);
+  });
+
+  it.each([
+    [['--format', 'pdf', '-o', 'x'], '--format: "pdf" is not a report format; allowed: html, md'],
+    [['--format', 'md', '-o', '-'], '--out: "-" cannot be stdout for --format md'],
+    [[], '--out: is required: name the HTML file to write, or - for stdout'],
+  ])('refuses %j with exit 2', (args, message) => {
+    const dir = tempDir();
+    const run = cli('report', design('doubler'), ...args.map((a) => (a === 'x' ? join(dir, 'x') : a)));
+    expect(run.code).toBe(2);
+    expect(run.stderr).toContain(message);
+    expect(readdirSync(dir)).toEqual([]);
+    expect(existsSync(join(dir, 'x'))).toBe(false);
+  });
+});
