@@ -92,7 +92,7 @@ ${table(['switch', 'type', 'gate net', 'W / L', 'drive'], switches, new Set())}
 </section>` : ''}
 <section id="process">
 <h2>Process card used: ${h(m.resolved.card.name)}</h2>
-<p>${h(m.resolved.card.description ?? '')} Source: <code>${h(m.processSource)}</code>. Generator: ${h(generatorText(m))}.</p>
+<p>${h((m.resolved.card.description ?? '').replace(/([^.])$/, '$1.'))} Source: <code>${h(m.processSource)}</code>. Generator: ${h(generatorText(m))}.</p>
 ${table(card.head, card.rows.map((cells) => ({ cells })), new Set([1, 2]))}
 ${table(['process corner', 'n: dVth', 'n: drive', 'p: dVth', 'p: drive'], Object.entries(m.resolved.card.corners).map(([name, c]) => ({
     cells: [name, formatEngineering(c.n.dvth, 'V'), `x${c.n.drive}`, formatEngineering(c.p.dvth, 'V'), `x${c.p.drive}`],

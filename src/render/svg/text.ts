@@ -76,3 +76,23 @@ export class LabelPlacer {
     return last;
   }
 }
+
+/** Splits a note into lines no wider than `width`, breaking at " · " first, then at spaces. */
+export function wrapLines(text: string, size: number, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  const parts = text.split(' · ');
+  const push = (piece: string, joiner: string) => {
+    const next = line === '' ? piece : `${line}${joiner}${piece}`;
+    if (line !== '' && textWidth(next, size) > width) {
+      lines.push(line);
+      line = piece;
+    } else line = next;
+  };
+  for (const part of parts) {
+    if (textWidth(part, size) <= width) { push(part, ' · '); continue; }
+    part.split(' ').forEach((word, i) => push(word, i === 0 ? ' · ' : ' '));
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}

@@ -18,7 +18,7 @@ import { drawTimeAxis } from './axis.js';
 import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
 import { dimensionLine, extensionLine } from './marks.js';
 import { defineFailHatch } from './patterns.js';
-import { drawText, textWidth } from './text.js';
+import { drawText, textWidth, wrapLines } from './text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
 
 export interface TimingSvgOptions {
@@ -33,7 +33,7 @@ const LABEL_COLUMN = 150;
 const PANEL_GAP = 36;
 const TITLE_HEIGHT = 92;
 const OVERVIEW = { row: 26, lane: 16 } as const;
-const DETAIL = { row: 34, lane: 22, dead: 50, bbm: 50 } as const;
+const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
 const AXIS_HEIGHT = 34;
 
 /** Dead-time and break-before-make values as shown: whole picoseconds. */
@@ -298,6 +298,16 @@ function clampCentre(text: string, centre: number, size: number, scale: ScaleLin
   return Math.min(px1 - half, Math.max(px0 + half, centre));
 }
 
+/** A small note under a dimension, wrapped to the panel width (two lines at most fit a lane). */
+function drawNote(g: G, note: string, centre: number, y: number, scale: ScaleLinear<number, number>, pass: boolean): void {
+  const [px0, px1] = scale.range() as [number, number];
+  wrapLines(note, SIZE.small, px1 - px0 - 4).slice(0, 2).forEach((line, i) => {
+    drawText(g, line, clampCentre(line, centre, SIZE.small, scale), y + i * 14, {
+      size: SIZE.small, anchor: 'middle', fill: pass ? MUTED : FAIL, className: 'mark-note', halo: true,
+    });
+  });
+}
+
 function roleWord(mark: SpanMark): string {
   return mark.role === 'least' ? 'least ' : mark.role === 'most' ? 'most ' : '';
 }
@@ -326,7 +336,7 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
       const second = mark.pass
         ? mark.role === 'most' ? mark.corner : `${mark.role === 'least' ? `${mark.corner} · ` : ''}clean gap ${psText(dt.gap)}`
         : `${mark.role === 'single' ? '' : `${mark.corner}: `}${mark.reason}`;
-      drawText(mg, second, clampCentre(second, centre, SIZE.small, scale), lineY + 18, { size: SIZE.small, anchor: 'middle', fill: mark.pass ? MUTED : FAIL, className: 'mark-note', halo: true });
+      drawNote(mg, second, centre, lineY + 18, scale, mark.pass);
     });
   }
 }
@@ -363,8 +373,8 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
         data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
       });
       const overlap = mark.value < 0 ? `both conduct for ${psText(-mark.value)} · ` : '';
-      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} after the ${psText(bbm.guard)} guard${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
-      drawText(mg, note, clampCentre(note, centre, SIZE.small, scale), lineY + 18, { size: SIZE.small, anchor: 'middle', fill: mark.pass ? MUTED : FAIL, className: 'mark-note', halo: true });
+      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} (guard ${psText(bbm.guard)})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
+      drawNote(mg, note, centre, lineY + 18, scale, mark.pass);
     }
   }
 }

@@ -1,0 +1,114 @@
+/**
+ * The review page in a real browser: Debian's chromium driven by playwright-core. It must load
+ * with no console error and no failed (or any network) request, lay out every drawing at a
+ * non-zero size, and keep every text label of every drawing clear of every other.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { chromium, type Browser } from 'playwright-core';
+import { cli, design, ROOT, tempDir } from '../helpers.js';
+
+const OUTPUT = join(ROOT, 'test-output');
+
+let browser: Browser;
+
+beforeAll(async () => {
+  browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  });
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+interface Overlap {
+  readonly svg: string;
+  readonly a: string;
+  readonly b: string;
+}
+
+async function openReport(name: string, extra: string[] = []) {
+  const dir = tempDir();
+  const file = join(dir, `${name}.html`);
+  const run = cli('report', design(name), ...extra, '-o', file);
+  expect([0, 1]).toContain(run.code);
+  const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
+  const problems: string[] = [];
+  const requests: string[] = [];
+  page.on('console', (m) => { if (m.type() === 'error') problems.push(`console: ${m.text()}`); });
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  page.on('requestfailed', (r) => problems.push(`failed request: ${r.url()}`));
+  page.on('request', (r) => requests.push(r.url()));
+  const url = pathToFileURL(file).href;
+  await page.goto(url, { waitUntil: 'load' });
+  return { page, problems, requests, url };
+}
+
+describe('report in headless Chromium', () => {
+  for (const name of ['doubler', 'sc-integrator', 'too-tight']) {
+    it(`${name}: loads cleanly, lays out every drawing and no two labels overlap`, async () => {
+      const { page, problems, requests, url } = await openReport(name);
+      try {
+        expect(problems).toEqual([]);
+        expect(requests).toEqual([url]);
+        const sizes = await page.$$eval('figure svg', (svgs) => svgs.map((s) => {
+          const r = s.getBoundingClientRect();
+          return { w: r.width, h: r.height };
+        }));
+        expect(sizes.length).toBe(3);
+        for (const s of sizes) {
+          expect(s.w).toBeGreaterThan(0);
+          expect(s.h).toBeGreaterThan(0);
+        }
+        const overlaps: Overlap[] = await page.$$eval('figure svg', (svgs) => {
+          const found: Array<{ svg: string; a: string; b: string }> = [];
+          svgs.forEach((svg, k) => {
+            const boxes = [...svg.querySelectorAll('text')]
+              .filter((t) => (t.textContent ?? '').trim() !== '')
+              .map((t) => ({ text: t.textContent ?? '', r: t.getBoundingClientRect() }))
+              .filter((b) => b.r.width > 0 && b.r.height > 0);
+            for (let i = 0; i < boxes.length; i++) {
+              for (let j = i + 1; j < boxes.length; j++) {
+                const a = boxes[i]!.r;
+                const b = boxes[j]!.r;
+                // A shared edge within half a pixel is not an overlap.
+                const ix = Math.min(a.right, b.right) - Math.max(a.left, b.left);
+                const iy = Math.min(a.bottom, b.bottom) - Math.max(a.top, b.top);
+                if (ix > 0.5 && iy > 0.5) found.push({ svg: String(k), a: boxes[i]!.text, b: boxes[j]!.text });
+              }
+            }
+          });
+          return found;
+        });
+        expect(overlaps).toEqual([]);
+        mkdirSync(OUTPUT, { recursive: true });
+        const png = await page.screenshot({ fullPage: true });
+        writeFileSync(join(OUTPUT, `report-${name}.png`), png);
+        expect(png.length).toBeGreaterThan(10_000);
+      } finally {
+        await page.close();
+      }
+    });
+  }
+
+  it('prints: the print stylesheet applies and every drawing still has a size', async () => {
+    const { page, problems } = await openReport('doubler', ['--no-fmax']);
+    try {
+      await page.emulateMedia({ media: 'print' });
+      const background = await page.$eval('body', (b) => getComputedStyle(b).backgroundColor);
+      expect(background).toBe('rgb(255, 255, 255)');
+      const widths = await page.$$eval('figure svg', (svgs) => svgs.map((s) => s.getBoundingClientRect().width));
+      expect(widths.every((w) => w > 0)).toBe(true);
+      const pdf = await page.pdf({ format: 'A4', landscape: true });
+      expect(pdf.subarray(0, 4).toString()).toBe('%PDF');
+      expect(problems).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  });
+});
