@@ -31,7 +31,11 @@ export class CornerEvaluator {
   private cycles: CycleIndex | null = null;
   private timing: GateTiming | undefined;
 
-  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false) {
+  /**
+   * `warm` starts each simulation from the previous one's steady state: for many runs of one
+   * corner with small changes (Monte Carlo dies), never across corners.
+   */
+  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false, private readonly warm = false) {
     this.simulator = new Simulator(resolved.netlist);
   }
 
@@ -40,7 +44,7 @@ export class CornerEvaluator {
     const timing = model.bind(netlist, loads, devices, mismatch, this.borrow ? this.timing : undefined);
     if (this.borrow) this.timing = timing;
     const period = 1 / design.clock.frequency;
-    const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, { borrow: this.borrow });
+    const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, { borrow: this.borrow, warm: this.warm });
     const cycles = this.borrow && this.cycles ? this.cycles.reset(simulation) : new CycleIndex(simulation, netlist);
     if (this.borrow) this.cycles = cycles;
     const measurement = measurePhases(simulation, netlist, cycles);
@@ -49,7 +53,8 @@ export class CornerEvaluator {
       ? this.resolved.switches.map((plan, k) => switchConduction(plan, cycles, devices, mismatch?.switches[k]))
       : [];
     if (measurement.ok) {
-      const byName = new Map(switches.map((s) => [s.name, s]));
+      const index = this.resolved.switchIndex;
+      const byName = (name: string) => switches[index.get(name)!]!;
       checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames));
     }

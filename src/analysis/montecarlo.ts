@@ -42,63 +42,97 @@ export function chunkPlan(samples: number): Array<{ start: number; count: number
   return plan;
 }
 
-function record(chunk: CornerChunk, name: string, kind: CheckKind | 'measure', value: number): void {
-  let s = chunk.quantities[name];
-  if (!s) {
-    s = emptyStats();
-    chunk.quantities[name] = s;
-    chunk.kinds[name] = kind;
+/**
+ * Per-corner accumulators addressed by position: checks come in a fixed order for a design, and
+ * measurements after them, so a die costs no name lookups. Names are attached when the chunk ends.
+ */
+class CornerAccumulator {
+  readonly stats: RunningState[] = [];
+  readonly names: string[] = [];
+  readonly kinds: Array<CheckKind | 'measure'> = [];
+  readonly failures = new Map<string, number>();
+  passes = 0;
+  unsettled = 0;
+
+  /** Adds a value to the quantity expected at `slot`; a die whose list differs is matched by name. */
+  add(slot: number, name: string, kind: CheckKind | 'measure', value: number): void {
+    let at = slot;
+    if (this.names[at] !== name) {
+      at = this.names.indexOf(name);
+      if (at < 0) {
+        at = this.names.length;
+        this.names.push(name);
+        this.kinds.push(kind);
+        this.stats.push(emptyStats());
+      }
+    }
+    addValue(this.stats[at]!, value);
   }
-  addValue(s, value);
+
+  fail(name: string): void {
+    this.failures.set(name, (this.failures.get(name) ?? 0) + 1);
+  }
+
+  toChunk(leastMargin: Float64Array, dead0: Float64Array, dead1: Float64Array): CornerChunk {
+    const quantities: Record<string, RunningState> = {};
+    const kinds: Record<string, CheckKind | 'measure'> = {};
+    this.stats.forEach((s, i) => {
+      quantities[this.names[i]!] = s;
+      kinds[this.names[i]!] = this.kinds[i]!;
+    });
+    return { passes: this.passes, unsettled: this.unsettled, quantities, kinds, failures: Object.fromEntries(this.failures), leastMargin, dead0, dead1 };
+  }
 }
 
 /** Evaluates dies [start, start + count) at every corner. Pure: same inputs, same result. */
 export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number): ChunkResult {
-  const evaluator = new CornerEvaluator(resolved, true);
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
-  const mismatch = mismatchBuffers(sigmas);
+  // Each die is drawn once and used at every corner.
+  const dies = Array.from({ length: count }, (_, i) => drawMismatch(sigmas, seed, start + i, mismatchBuffers(sigmas)));
   const corners = resolved.corners.map(({ corner }) => ({ corner, devices: devicesAtCorner(resolved.card, corner) }));
-  const chunks: CornerChunk[] = corners.map(() => ({
-    passes: 0, unsettled: 0, quantities: {}, kinds: {}, failures: {},
-    leastMargin: new Float64Array(count), dead0: new Float64Array(count), dead1: new Float64Array(count),
-  }));
-  let passesEverywhere = 0;
-  for (let i = 0; i < count; i++) {
-    drawMismatch(sigmas, seed, start + i, mismatch);
-    let everywhere = true;
-    corners.forEach(({ corner, devices }, c) => {
-      const chunk = chunks[c]!;
-      const r = evaluator.evaluate(corner, mismatch, devices);
-      let least = Infinity;
+  const acc = corners.map(() => new CornerAccumulator());
+  const least = corners.map(() => new Float64Array(count));
+  const dead0 = corners.map(() => new Float64Array(count));
+  const dead1 = corners.map(() => new Float64Array(count));
+  const failedSomewhere = new Uint8Array(count);
+  // Corner by corner, so each simulation starts warm from the previous die at the same corner.
+  for (let c = 0; c < corners.length; c++) {
+    const evaluator = new CornerEvaluator(resolved, true, true);
+    const a = acc[c]!;
+    for (let i = 0; i < count; i++) {
+      const r = evaluator.evaluate(corners[c]!.corner, dies[i], corners[c]!.devices);
+      let leastMargin = Infinity;
+      let slot = 0;
       for (const check of r.checks) {
-        if (check.margin === null) least = -Infinity;
+        if (check.margin === null) leastMargin = -Infinity;
         else {
-          if (check.margin < least) least = check.margin;
-          record(chunk, check.name, check.kind, check.margin);
+          if (check.margin < leastMargin) leastMargin = check.margin;
+          a.add(slot, check.name, check.kind, check.margin);
         }
-        if (!check.pass) chunk.failures[check.name] = (chunk.failures[check.name] ?? 0) + 1;
+        slot++;
+        if (!check.pass) a.fail(check.name);
       }
       const m = r.measurement;
       if (m.ok) {
         for (const d of m.deadTimes) {
-          record(chunk, `dead ${d.from}->${d.to}`, 'measure', d.t50);
-          record(chunk, `gap ${d.from}->${d.to}`, 'measure', d.gap);
+          a.add(slot++, `dead ${d.from}->${d.to}`, 'measure', d.t50);
+          a.add(slot++, `gap ${d.from}->${d.to}`, 'measure', d.gap);
         }
-        for (const [phase, width] of Object.entries(m.widths)) record(chunk, `width ${phase}`, 'measure', width);
-        chunk.dead0[i] = m.deadTimes[0].t50;
-        chunk.dead1[i] = m.deadTimes[1].t50;
+        for (const phase in m.widths) a.add(slot++, `width ${phase}`, 'measure', m.widths[phase]!);
+        dead0[c]![i] = m.deadTimes[0].t50;
+        dead1[c]![i] = m.deadTimes[1].t50;
       } else {
-        chunk.unsettled++;
-        chunk.dead0[i] = NaN;
-        chunk.dead1[i] = NaN;
+        a.unsettled++;
+        dead0[c]![i] = NaN;
+        dead1[c]![i] = NaN;
       }
-      chunk.leastMargin[i] = least;
-      if (r.pass) chunk.passes++;
-      else everywhere = false;
-    });
-    if (everywhere) passesEverywhere++;
+      least[c]![i] = leastMargin;
+      if (r.pass) a.passes++;
+      else failedSomewhere[i] = 1;
+    }
   }
-  return { start, count, corners: chunks, passesEverywhere };
+  const passesEverywhere = failedSomewhere.reduce((n, f) => n + (f === 0 ? 1 : 0), 0);
+  return { start, count, corners: acc.map((a, c) => a.toChunk(least[c]!, dead0[c]!, dead1[c]!)), passesEverywhere };
 }
 
 export interface QuantityReport extends StatsSummary {

@@ -26,6 +26,8 @@ export interface ResolvedDesign {
   readonly labels: RequirementLabels;
   /** Names of the switch constraint checks, in order. */
   readonly switchCheckNames: readonly string[];
+  /** Switch name -> its position in `switches`. */
+  readonly switchIndex: ReadonlyMap<string, number>;
 }
 
 export function resolveDesign(design: Design, card: ProcessCard, model: DelayModel = analyticModel): ResolvedDesign {
@@ -38,5 +40,6 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
   return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements),
-    switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard) };
+    switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard),
+    switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])) };
 }

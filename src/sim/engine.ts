@@ -4,7 +4,7 @@
  * its inputs take back before it happens is swallowed and reported as a glitch.
  *
  * The input clock starts low for one period (the netlist settles from all-low), then rises at
- * t0 + k*T and falls at t0 + (k + duty)*T. Periods are simulated until two consecutive ones agree
+ * t0 + k*T and falls at t0 + (k + duty)*T; a warm start skips that first period. Periods are simulated until two consecutive ones agree
  * (periodic steady state), or a limit is reached and the result says why it did not settle.
  * One simulator holds its scratch buffers and can be reused across corners and samples.
  */
@@ -31,6 +31,13 @@ export interface SimulationOptions {
    * valid only until the next run; for tight loops such as Monte Carlo.
    */
   readonly borrow?: boolean;
+  /**
+   * Start from the logic state at the start of the previous run's reported period (if that run
+   * settled) instead of settling from all-low for one period. For runs of nearly the same
+   * timing, such as Monte Carlo dies at one corner. The result is still only reported once two
+   * consecutive periods agree.
+   */
+  readonly warm?: boolean;
 }
 
 export type SimulationStatus = 'settled' | 'unsettled' | 'oscillating';
@@ -70,6 +77,8 @@ export class Simulator {
   private readonly gateFunction: Array<(bits: number) => 0 | 1>;
   private seq = 0;
   private readonly glitches: Array<{ net: number; time: number }> = [];
+  private readonly warmValues: Uint8Array;
+  private warmReady = false;
 
   constructor(netlist: CompiledNetlist) {
     this.net = netlist;
@@ -82,6 +91,7 @@ export class Simulator {
     this.pendingSeq = new Float64Array(n);
     this.startCurrent = new Uint8Array(n);
     this.startPrevious = new Uint8Array(n);
+    this.warmValues = new Uint8Array(n);
     this.gateFunction = netlist.gateCell.map((cell) => CELLS[cell].evaluate);
   }
 
@@ -89,13 +99,16 @@ export class Simulator {
     const maxPeriods = options.maxPeriods ?? DEFAULT_MAX_PERIODS;
     const net = this.net;
     const T = clock.period;
-    const t0 = T;
+    const warm = options.warm === true && this.warmReady;
+    const t0 = warm ? 0 : T;
     const clockNet = net.clock;
     const eventLimit = EVENTS_PER_GATE_PER_PERIOD * (net.gateCount + 1);
     this.reset();
+    if (warm) this.value.set(this.warmValues);
+    this.warmReady = false;
     const glitchesCurrent = this.glitches;
     glitchesCurrent.length = 0;
-    // Settle from all-low: every gate whose output disagrees with its inputs switches.
+    // Settle from the start state: every gate whose output disagrees with its inputs switches.
     for (let g = 0; g < net.gateCount; g++) this.evaluateGate(timing, g, 0, 0, clock.transition, null);
     this.schedule(clockNet, t0, 1, clock.transition);
     let cycle = 0;
@@ -130,6 +143,8 @@ export class Simulator {
       if (recording) {
         periods++;
         if (periods >= 2 && samePeriod(this.previous, this.current, T)) {
+          this.warmValues.set(this.startCurrent);
+          this.warmReady = true;
           return {
             status: 'settled', reason: '', period: T, windowStart: windowEnd - T,
             edges: options.borrow ? this.current : this.current.snapshot(),

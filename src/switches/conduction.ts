@@ -9,7 +9,7 @@ import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 
-/** Points across the signal range at which a switch is evaluated (ends included). */
+/** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
 
 export interface SwitchConduction {
@@ -123,7 +123,9 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
   }
   const vMin = levelAt(plan.signal.min, vdd);
   const vMax = levelAt(plan.signal.max, vdd);
-  const points = vMin === vMax ? 1 : SIGNAL_POINTS;
+  // A single device's turn-on level and resistance are monotonic in the signal, so its range ends
+  // bound it; a tgate's resistance peaks inside the range, so it is sampled across.
+  const points = vMin === vMax ? 1 : plan.devices.length === 1 ? 2 : SIGNAL_POINTS;
   let on = NaN; let off = NaN; let onLatest = NaN; let offEarliest = NaN;
   let ron = 0;
   for (let k = 0; k < points; k++) {
