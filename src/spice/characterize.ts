@@ -2,8 +2,9 @@
  * Characterization decks: for one corner, every cell's every input pin is driven by a ramp (the
  * other inputs held at their non-controlling level) into a load capacitor, over a grid of input
  * transition x output load; the output's delay and transition on both edges and the charge the
- * pin draws (its effective capacitance) are measured. One deck holds the whole grid of a corner,
- * each point an independent test circuit. Grids are set in multiples of the process's own scale:
+ * pin draws (its effective capacitance) are measured. One deck holds one input transition of a
+ * corner's grid (all cells, pins and loads), each point an independent test circuit, so its time
+ * step can follow that transition. Grids are set in multiples of the process's own scale:
  * loads in unit-inverter input capacitances, transitions in the unit inverter's C*V/I.
  */
 import { CELLS, pinCapacitance, type PrimitiveCell } from '../cells/library.js';
@@ -67,6 +68,8 @@ export interface CharacterizationDeck {
   readonly text: string;
   readonly corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>;
   readonly arcs: readonly Arc[];
+  /** The input-transition row this deck covers. */
+  readonly row: number;
   readonly axes: Axes;
   /** Every measurement name in the deck. */
   readonly names: readonly string[];
@@ -74,19 +77,25 @@ export interface CharacterizationDeck {
 
 const TD = 0.2e-9;
 
+/** The decks of one corner, one per input transition. */
+export function characterizationDecks(card: ProcessCard, corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>, axes: Axes,
+  modelPath: string, cells: readonly PrimitiveCell[] = TABLE_CELLS): CharacterizationDeck[] {
+  return axes.transitions.map((_, row) => characterizationDeck(card, corner, axes, modelPath, cells, row));
+}
+
 export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>, axes: Axes,
-  modelPath: string, cells: readonly PrimitiveCell[] = TABLE_CELLS): CharacterizationDeck {
+  modelPath: string, cells: readonly PrimitiveCell[], row: number): CharacterizationDeck {
   const models = cornerModels(card, corner, modelPath);
   const vdd = corner.vdd;
   const devices = devicesAtCorner(card, { ...corner, duty: 0.5 });
-  // Long enough for the slowest output edge: about ten times the analytic transition at the largest load.
+  // Long enough for the slowest output edge to settle: several analytic C*V/I at the largest load.
   const weakest = Math.min(devices.n.idsatPerWidth * card.unit.wn, devices.p.idsatPerWidth * card.unit.wp) * axes.size;
   const slowest = (axes.loads[axes.loads.length - 1]! * vdd) / weakest;
-  const maxSlew = axes.transitions[axes.transitions.length - 1]!;
-  const half = Math.max(2e-9, 10 * slowest + 2 * maxSlew);
-  const stop = 2 * (TD + maxSlew + half);
+  const slew = axes.transitions[row]!;
+  const half = Math.max(1e-9, 5 * slowest + 1.5 * slew);
+  const stop = 2 * (TD + slew + half);
   const lines = [
-    `* phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}`,
+    `* phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}, input transition ${spiceNumber(slew)} s`,
     ...models.header,
     `vsupply vdd 0 DC ${spiceNumber(vdd)}`,
   ];
@@ -101,7 +110,7 @@ export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'na
     // Non-controlling level of the other inputs: high for a NAND (and INV), low for a NOR.
     const idle = shape.nSeries > 1 || shape.inputs === 1 ? 'vdd' : '0';
     for (let pin = 0; pin < shape.inputs; pin++) {
-      axes.transitions.forEach((slew, row) => axes.loads.forEach((load, column) => {
+      axes.loads.forEach((load, column) => {
         const id = arcs.length;
         arcs.push({ cell, pin, row, column, id });
         const inputs = Array.from({ length: shape.inputs }, (_, i) => (i === pin ? `i${id}` : idle));
@@ -116,23 +125,26 @@ export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'na
           `.meas tran q${id} INTEG i(vi${id}) FROM=0 TO=${spiceNumber(TD + slew + half)}`,
         );
         names.push(`df${id}`, `dr${id}`, `tf${id}`, `tr${id}`, `q${id}`);
-      }));
+      });
     }
   }
-  const step = Math.max(1e-13, axes.transitions[0]! / 10);
+  // The step follows the input ramp, but never exceeds a fraction of the process's own C*V/I, so
+  // fast output edges at small loads are resolved too.
+  const step = Math.max(5e-13, Math.min(slew, 2 * processScale(card).time) / 10);
   lines.push(`.tran ${spiceNumber(step)} ${spiceNumber(stop)} 0 ${spiceNumber(step)}`, '.end', '');
-  return { text: lines.join('\n'), corner, arcs, axes, names };
+  return { text: lines.join('\n'), corner, arcs, row, axes, names };
 }
 
-/** Builds a corner's tables from the measured values; a missing value is an error naming it. */
-export function cornerTablesFrom(deck: CharacterizationDeck, values: ReadonlyMap<string, number | null>): CornerTables | string {
+/** Builds a corner's tables from its decks' measured values; a missing value is an error naming it. */
+export function cornerTablesFrom(parts: ReadonlyArray<{ readonly deck: CharacterizationDeck; readonly values: ReadonlyMap<string, number | null> }>): CornerTables | string {
+  const deck = parts[0]!.deck;
   const rows = deck.axes.transitions.length;
   const cols = deck.axes.loads.length;
   const vdd = deck.corner.vdd;
   const cells: CornerTables['cells'] = {};
   const grid = () => Array.from({ length: rows }, () => new Array<number>(cols).fill(NaN));
   const pins = new Map<string, { tables: PinTables; charge: number[] }>();
-  for (const arc of deck.arcs) {
+  for (const { deck, values } of parts) for (const arc of deck.arcs) {
     const key = `${arc.cell}/${arc.pin}`;
     let entry = pins.get(key);
     if (!entry) {
@@ -155,6 +167,8 @@ export function cornerTablesFrom(deck: CharacterizationDeck, values: ReadonlyMap
     entry.tables.rise.transition[arc.row]![arc.column] = tr! / 0.8;
     entry.charge.push(Math.abs(q!));
   }
+  const missing = parts.length !== rows || parts.some((p, i) => p.deck.row !== i);
+  if (missing) return `the decks cover input-transition rows ${parts.map((p) => p.deck.row).join(', ')}; all ${rows} are needed`;
   for (const { tables, charge } of pins.values()) {
     (tables as { capacitance: number }).capacitance = charge.reduce((a, b) => a + b, 0) / charge.length / vdd;
   }

@@ -9,7 +9,7 @@ import { expandCorners } from '../../process/corners.js';
 import { CELLS, type PrimitiveCell } from '../../cells/library.js';
 import { TABLE_CELLS, type CornerTables, type DelayTables } from '../../schema/tables.js';
 import { parseQuantity, parseTemperature } from '../../units/quantity.js';
-import { characterizationDeck, cornerTablesFrom, gridAxes, GRIDS } from '../../spice/characterize.js';
+import { characterizationDecks, cornerTablesFrom, gridAxes, GRIDS, type CharacterizationDeck } from '../../spice/characterize.js';
 import { parseSimulatorOutput } from '../../spice/results.js';
 import { checkSimulator, runDecks } from '../../spice/runner.js';
 import type { ProcessCard } from '../../schema/process.js';
@@ -88,22 +88,23 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   const modelPath = modelFile(card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const axes = gridAxes(card, GRIDS[options.grid], size);
-  const decks = corners.map((corner) => characterizationDeck(card, corner, axes, modelPath, cells));
   const tables: CornerTables[] = [];
-  for (let start = 0; start < decks.length; start += jobs) {
-    const batch = decks.slice(start, start + jobs);
-    if (io.stderrIsTTY) io.stderr(`\rcharacterizing with ${simulator}: ${start}/${decks.length} corners`);
-    const outputs = runDecks(batch.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
-    batch.forEach((deck, i) => {
+  corners.forEach((corner, k) => {
+    if (io.stderrIsTTY) io.stderr(`\rcharacterizing with ${simulator}: ${k}/${corners.length} corners`);
+    const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
+    const outputs = runDecks(decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { program: options.ngspice, parallel: jobs });
+    const parts = decks.map((deck, i) => {
       const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
-      const result = cornerTablesFrom(deck, parsed.values);
-      if (typeof result === 'string') {
-        throw inputError('ngspice', deck.corner.name, `characterization failed: ${result}${parsed.errors[0] ? `; ngspice said: ${parsed.errors[0]}` : ''}`);
+      if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
+        throw inputError('ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
       }
-      tables.push(result);
+      return { deck, values: parsed.values };
     });
-  }
-  if (io.stderrIsTTY) io.stderr(`\rcharacterized ${decks.length} corners with ${simulator}            \n`);
+    const result = cornerTablesFrom(parts);
+    if (typeof result === 'string') throw inputError('ngspice', corner.name, `characterization failed: ${result}`);
+    tables.push(result);
+  });
+  if (io.stderrIsTTY) io.stderr(`\rcharacterized ${corners.length} corners with ${simulator}            \n`);
   const file: DelayTables = {
     format: 'phasegap-tables/1',
     process: card.name,
