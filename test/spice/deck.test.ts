@@ -86,3 +86,31 @@ describe('phasegap confirm without ngspice', () => {
     expect(r.stderr).toMatch(/ngspice: "\/nonexistent\/ngspice" is not installed .*apt-get install ngspice/);
   });
 });
+
+describe('phasegap confirm', () => {
+  it('prints model and ngspice side by side and exits 1 when a difference exceeds the tolerance', () => {
+    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '1%', '--jobs', '1');
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 1\.0 %, 1 corner$/m);
+    expect(r.stdout).toMatch(/^tt\/1\.8V\/27C\s+dead p1->p2\s+[\d.]+ ns\s+[\d.]+ ns\s+[-+][\d.]+ %\s+over$/m);
+    expect(r.stdout).toMatch(/^verdict: DISAGREE \(0\/1 corners within tolerance\)$/m);
+  });
+
+  it('lists per corner and quantity the model, the simulator and the relative error in --json', () => {
+    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'ff/1.98V/-40C', '--tolerance', '0.5', '--json', '--jobs', '1');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as { verdict: string; corners: Array<{ corner: string; quantities: Array<{ quantity: string; model: number; simulator: number; relativeError: number }> }> };
+    expect(report.verdict).toBe('agree');
+    const labels = report.corners[0]!.quantities.map((q) => q.quantity);
+    expect(labels).toEqual(['dead p1->p2', 'gap p1->p2', 'dead p2->p1', 'gap p2->p1', 'width p1', 'width p2']);
+    for (const q of report.corners[0]!.quantities) {
+      expect(q.relativeError).toBeCloseTo((q.model - q.simulator) / q.simulator, 12);
+      expect(q.simulator).toBeGreaterThan(0);
+    }
+  });
+
+  it('rejects a bad tolerance and an unknown corner with exit 2', () => {
+    expect(cli('confirm', design('doubler'), '--tolerance', '-3').stderr).toMatch(/--tolerance: "-3" must be a relative difference above 0/);
+    expect(cli('confirm', design('doubler'), '--corners', 'tt/9V/27C').code).toBe(2);
+  });
+});
