@@ -1,13 +1,17 @@
-/** Shared test helpers: one tolerance check, fixture paths, and the CLI run against an in-memory Io. */
+/** Shared test helpers: one tolerance check, fixture paths, the CLI run against an in-memory Io, small inline designs. */
 import { expect } from 'vitest';
-import { mkdtempSync } from 'node:fs';
+import { existsSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { parse as parseYaml } from 'yaml';
 import { run } from '../src/cli/program.js';
-import type { Io } from '../src/cli/io.js';
-import { writeFileAtomic } from '../src/cli/io.js';
-import { existsSync } from 'node:fs';
+import { writeFileAtomic, type Io } from '../src/cli/io.js';
+import { loadProcess } from '../src/cli/load.js';
+import { InputError } from '../src/errors.js';
+import { designSchema, type Design } from '../src/schema/design.js';
+import { parseWith } from '../src/schema/validate.js';
+import { resolveDesign, type ResolvedDesign } from '../src/analysis/resolve.js';
 
 /** |actual - expected| <= tolerance * max(1, |expected|) when relative, else <= tolerance. */
 export function expectClose(actual: number, expected: number, tolerance: number, mode: 'abs' | 'rel' = 'rel'): void {
@@ -29,8 +33,8 @@ export interface CliRun {
   readonly stderr: string;
 }
 
-/** Runs the CLI in-process with captured output; files are written for real (atomically). */
-export function cli(...argv: string[]): CliRun {
+/** An Io that captures stdout and stderr; files are written for real (atomically). */
+function capturingIo(): { io: Io; captured: () => { stdout: string; stderr: string } } {
   let stdout = '';
   let stderr = '';
   const io: Io = {
@@ -40,24 +44,33 @@ export function cli(...argv: string[]): CliRun {
     exists: existsSync,
     stderrIsTTY: false,
   };
+  return { io, captured: () => ({ stdout, stderr }) };
+}
+
+/** Runs the CLI in-process with captured output. */
+export function cli(...argv: string[]): CliRun {
+  const { io, captured } = capturingIo();
   const code = run(argv, io);
   if (typeof code !== 'number') throw new Error('this command runs asynchronously: use cliAsync');
-  return { code, stdout, stderr };
+  return { code, ...captured() };
 }
 
 /** Like cli(), for the commands that return a promise (mc, sweep). */
 export async function cliAsync(...argv: string[]): Promise<CliRun> {
-  let stdout = '';
-  let stderr = '';
-  const io: Io = {
-    stdout: (t) => { stdout += t; },
-    stderr: (t) => { stderr += t; },
-    writeFile: writeFileAtomic,
-    exists: existsSync,
-    stderrIsTTY: false,
-  };
+  const { io, captured } = capturingIo();
   const code = await run(argv, io);
-  return { code, stdout, stderr };
+  return { code, ...captured() };
+}
+
+/** The message of the InputError that `fn` throws; fails if it throws nothing or something else. */
+export function inputErrorMessage(fn: () => unknown): string {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof InputError) return error.message;
+    throw error;
+  }
+  throw new Error('expected an InputError');
 }
 
 /** A fresh temporary folder for a test's files. */
@@ -65,13 +78,7 @@ export function tempDir(prefix = 'phasegap-test-'): string {
   return mkdtempSync(join(tmpdir(), prefix));
 }
 
-import { parse as parseYaml } from 'yaml';
-import { designSchema, type Design } from '../src/schema/design.js';
-import { parseWith } from '../src/schema/validate.js';
-import { loadProcess } from '../src/cli/load.js';
-import { resolveDesign, type ResolvedDesign } from '../src/analysis/resolve.js';
-
-/** A design from YAML text whose `process` names a card under fixtures/processes (by name). */
+/** A design from YAML text (its `process` is ignored by resolveYaml). */
 export function designFromYaml(text: string): Design {
   return parseWith(designSchema, parseYaml(text));
 }

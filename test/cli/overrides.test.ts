@@ -1,17 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { applyOverrides } from '../../src/cli/overrides.js';
-import { InputError } from '../../src/errors.js';
-import { cli, design } from '../helpers.js';
+import { cli, design, inputErrorMessage } from '../helpers.js';
 
-function message(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error.message;
-    throw error;
-  }
-  throw new Error('expected an InputError');
-}
+const message = inputErrorMessage;
 
 describe('applyOverrides', () => {
   const raw = { clock: { frequency: '20MHz' }, corners: { vdd: ['1.62V', '1.8V'] }, name: 'x' };

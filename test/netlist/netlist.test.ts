@@ -3,8 +3,7 @@ import { compileNetlist, netId, type GateSpec, type Netlist } from '../../src/ne
 import { netLoads, gatePinCapacitance } from '../../src/netlist/loads.js';
 import { parasiticCapacitance, pinCapacitance } from '../../src/cells/library.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { InputError } from '../../src/errors.js';
-import { expectClose, processCard } from '../helpers.js';
+import { expectClose, processCard, inputErrorMessage } from '../helpers.js';
 
 const inv = (name: string, input: string, output: string, size = 1): GateSpec => ({ name, cell: 'INV', size, inputs: [input], output });
 
@@ -12,15 +11,7 @@ function netlist(gates: GateSpec[], phases: [string, string] = ['a', 'b'], extra
   return { clock: 'clk', phases, complements: {}, early: {}, gates, loads: {}, ...extra };
 }
 
-function message(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error.message;
-    throw error;
-  }
-  throw new Error('expected an InputError');
-}
+const message = inputErrorMessage;
 
 /** A cross-coupled NAND latch fed by the clock and its complement. */
 const latch = (): GateSpec[] => [

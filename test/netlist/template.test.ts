@@ -3,20 +3,11 @@ import { bufferStages, expandNetlist, expandTemplate } from '../../src/netlist/t
 import { compileNetlist, type Netlist } from '../../src/netlist/netlist.js';
 import { netlistSchema, templateSchema } from '../../src/schema/design.js';
 import { parseWith } from '../../src/schema/validate.js';
-import { InputError } from '../../src/errors.js';
-import { expectClose } from '../helpers.js';
+import { expectClose, inputErrorMessage } from '../helpers.js';
 
 const template = (raw: Record<string, unknown>) => expandTemplate(parseWith(templateSchema, raw));
 
-function message(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error.message;
-    throw error;
-  }
-  throw new Error('expected an InputError');
-}
+const message = inputErrorMessage;
 
 const gate = (n: Netlist, name: string) => {
   const g = n.gates.find((x) => x.name === name);

@@ -4,21 +4,12 @@ import { cornerName } from '../../src/process/corner.js';
 import { cornersSchema, type CornersSpec } from '../../src/schema/design.js';
 import { parseWith } from '../../src/schema/validate.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { InputError } from '../../src/errors.js';
-import { processCard } from '../helpers.js';
+import { processCard, inputErrorMessage } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));
 const spec = (raw: unknown): CornersSpec => parseWith(cornersSchema, raw);
 
-function message(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error.message;
-    throw error;
-  }
-  throw new Error('expected an InputError');
-}
+const message = inputErrorMessage;
 
 describe('cornerName', () => {
   it.each([
