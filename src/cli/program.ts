@@ -98,6 +98,8 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(setOption())
     .option('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", 'html')
     .option('--no-fmax', 'skip the maximum-frequency search')
+    .option('--mc <N>', 'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)')
+    .option('--seed <S>', 'Monte Carlo seed (default: montecarlo.seed, else 1)')
     .addOption(outOption('the report'))
     .action((design: string, opts: Parameters<typeof runReport>[2]) => setCode(runReport(io, design, opts)));
 

@@ -14,6 +14,7 @@ import { marginRows, processOrder, type MarginRow } from './margins.js';
 import type { MarginChartInput } from './svg/margins.js';
 import { renderMarginSvg } from './svg/margins.js';
 import { renderTimingSvg } from './svg/timing.js';
+import type { McSection } from './mc-section.js';
 
 export interface DeadTimeRange {
   readonly from: string;
@@ -38,6 +39,8 @@ export interface ReportModel {
   readonly fmax: FmaxResult | null;
   readonly fmaxNote: string;
   readonly svg: { readonly worst: string; readonly all: string; readonly margins: string };
+  /** Monte Carlo results when the report was asked for them. */
+  readonly mc: McSection | null;
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
@@ -77,6 +80,7 @@ export interface ReportExtras {
   readonly processSource: string;
   readonly fmax: FmaxResult | null;
   readonly fmaxNote: string;
+  readonly mc?: McSection | null;
 }
 
 export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
@@ -91,6 +95,7 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     checks: marginRows(results),
     fmax: extras.fmax,
     fmaxNote: extras.fmaxNote,
+    mc: extras.mc ?? null,
     svg: {
       worst: renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst' }),
       all: renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all' }),

@@ -90,6 +90,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
       series: mc.deadTimes[c]!.map((values, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, values })),
       requirement: design.requirements.deadTime?.min,
+      maximum: design.requirements.deadTime?.max,
     }), options.histogram);
   }
   emit(io, options.json ? toJson(report) : renderMcText(report), options.out);

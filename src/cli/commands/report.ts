@@ -11,6 +11,12 @@ import type { Io } from '../io.js';
 import { loadDesign } from '../load.js';
 import { emit } from '../output.js';
 import { requireOut } from './draw.js';
+import { wholeNumber } from './mc.js';
+import { runMonteCarlo } from '../../analysis/montecarlo.js';
+import { mcReport } from '../../report/mc-report.js';
+import { renderHistogram } from '../../render/svg/histogram.js';
+import type { McSection } from '../../render/mc-section.js';
+import type { ResolvedDesign } from '../../analysis/resolve.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
@@ -19,12 +25,31 @@ export interface ReportOptions {
   readonly format: string;
   readonly fmax: boolean;
   readonly out?: string;
+  /** Dies for a Monte Carlo section (none when absent). */
+  readonly mc?: string;
+  readonly seed?: string;
+}
+
+/** Monte Carlo on one thread (the report stays a plain, repeatable function of its inputs). */
+function monteCarloSection(resolved: ResolvedDesign, samples: number, seed: number): McSection {
+  const mc = runMonteCarlo(resolved, samples, seed);
+  const report = mcReport(resolved.design.name, resolved.card.name, mc, resolved.design.requirements.minYield);
+  const c = report.corners.findIndex((x) => x.name === report.worstCorner);
+  const names = report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => q.name);
+  const histogram = renderHistogram({
+    title: `${resolved.design.name}: dead times at ${report.worstCorner}`,
+    subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
+    series: mc.deadTimes[c]!.map((values, k) => ({ label: names[k] ?? `dead ${k}`, values })),
+    requirement: resolved.design.requirements.deadTime?.min,
+    maximum: resolved.design.requirements.deadTime?.max,
+  });
+  return { report, histogram };
 }
 
 /** Names of the SVG files a Markdown report at `out` puts beside itself. */
-export function markdownImageNames(out: string): { worst: string; all: string; margins: string } {
+export function markdownImageNames(out: string): { worst: string; all: string; margins: string; histogram: string } {
   const stem = basename(out, extname(out));
-  return { worst: `${stem}-worst.svg`, all: `${stem}-all.svg`, margins: `${stem}-margins.svg` };
+  return { worst: `${stem}-worst.svg`, all: `${stem}-all.svg`, margins: `${stem}-margins.svg`, histogram: `${stem}-histogram.svg` };
 }
 
 export function runReport(io: Io, designPath: string, options: ReportOptions): number {
@@ -40,8 +65,11 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);
+  const dies = options.mc === undefined ? 0 : wholeNumber('--mc', options.mc, 1, 0);
+  const seed = wholeNumber('--seed', options.seed, 0, loaded.design.montecarlo?.seed ?? 1);
   const model = buildReportModel(resolved, results, {
     processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
+    mc: dies > 0 ? monteCarloSection(resolved, dies, seed) : null,
   });
   const code = model.report.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
@@ -51,7 +79,8 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   const images = markdownImageNames(out);
   const folder = dirname(out);
   // Every file is rendered before the first is written; the page goes last so it never points at missing drawings.
-  const markdown = renderMarkdownReport(model, images);
+  const markdown = renderMarkdownReport(model, model.mc ? images : { ...images, histogram: undefined });
+  if (model.mc) emit(io, model.mc.histogram, join(folder, images.histogram));
   emit(io, model.svg.worst, join(folder, images.worst));
   emit(io, model.svg.all, join(folder, images.all));
   emit(io, model.svg.margins, join(folder, images.margins));

@@ -9,6 +9,7 @@ import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
 import { cardRows, cornerRows, fmaxText, generatorText, signedTime, summaryItems } from '../report-text.js';
+import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
   const th = head.map((c) => `<th>${h(c)}</th>`).join('');
@@ -82,6 +83,12 @@ ${figure(m.svg.margins, 'Margin of every check at every corner; left of the zero
 <h3>Worst case of each check</h3>
 ${table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], checkRows, new Set([2]))}
 </section>
+${m.mc ? `<section class="diagram" id="montecarlo">
+<h2>Monte Carlo mismatch</h2>
+<p>${h(mcHeadline(m.mc.report))}</p>
+${table(mcHead(m.mc.report), mcRows(m.mc.report).map((cells) => ({ cells })), new Set([1, 2, 3, 4, 5, 6]))}
+${figure(m.mc.histogram, `Dead times of every die at ${m.mc.report.worstCorner}; the dashed line is the smallest dead time allowed. Sigma margin = mean margin / sigma.`, 'figure-histogram')}
+</section>` : ''}
 <section id="corners">
 <h2>Corner table</h2>
 ${table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `gap ${b}→${a}`, `width ${a}`, `width ${b}`, 'least margin', 'verdict'], corners, new Set([1, 2, 3, 4, 5, 6, 7]))}

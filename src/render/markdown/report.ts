@@ -5,11 +5,14 @@
 import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
 import { cardRows, cornerRows, fmaxText, signedTime, summaryItems } from '../report-text.js';
+import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 export interface MarkdownImages {
   readonly worst: string;
   readonly all: string;
   readonly margins: string;
+  /** The Monte Carlo histogram, when the model has Monte Carlo results. */
+  readonly histogram?: string;
 }
 
 function cell(text: string): string {
@@ -41,6 +44,11 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
     c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
     c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
   ]), new Set([2])), '');
+  if (m.mc) {
+    out.push('## Monte Carlo mismatch', '', mcHeadline(m.mc.report), '');
+    out.push(table(mcHead(m.mc.report), mcRows(m.mc.report), new Set([1, 2, 3, 4, 5, 6])), '');
+    if (images.histogram) out.push(`![Dead times of every die at ${m.mc.report.worstCorner}](${images.histogram})`, '');
+  }
   out.push('## Corner table', '');
   out.push(table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `gap ${b}→${a}`, `width ${a}`, `width ${b}`, 'least margin', 'verdict'],
     cornerRows(m), new Set([1, 2, 3, 4, 5, 6, 7])), '');

@@ -14,14 +14,24 @@ export interface HistogramInput {
   readonly title: string;
   readonly subtitle: string;
   readonly series: ReadonlyArray<{ readonly label: string; readonly values: Float64Array }>;
-  /** Smallest allowed dead time, s, if the design sets one. */
+  /** Smallest and largest allowed dead time, s, if the design sets them. */
   readonly requirement?: number;
+  readonly maximum?: number;
 }
 
+/** How far outside the data a requirement may be and still be drawn to scale, in data ranges. */
+const NEAR = 1.5;
+
 const WIDTH = 900;
-const PANEL = 230;
+const PANEL = 260;
 const MARGIN = { left: 70, right: 30, top: 70, bottom: 50 };
 const BINS = 40;
+/** Room above the bars for the series name and off-scale notes, px. */
+const PLOT_TOP = 60;
+
+function psLabel(seconds: number): string {
+  return `${Math.round(seconds * 1e13) / 10} ps`;
+}
 
 export function renderHistogram(input: HistogramInput): string {
   const height = MARGIN.top + input.series.length * (PANEL + MARGIN.bottom);
@@ -36,15 +46,22 @@ export function renderHistogram(input: HistogramInput): string {
     const top = MARGIN.top + k * (PANEL + MARGIN.bottom);
     const g = root.group().attr({ class: 'histogram-panel', 'data-series': series.label });
     const [lo0, hi0] = extent(values) as [number | undefined, number | undefined];
-    const req = input.requirement;
-    let lo = Math.min(lo0 ?? 0, req ?? Infinity);
-    let hi = Math.max(hi0 ?? 1e-12, req ?? -Infinity);
-    if (hi <= lo) { lo -= 1e-12; hi += 1e-12; }
-    const pad = (hi - lo) * 0.05;
+    let lo = lo0 ?? 0;
+    let hi = hi0 ?? 1e-12;
+    const spread = Math.max(hi - lo, 1e-12);
+    // A requirement near the data is drawn to scale; a far one is named at the edge with its distance.
+    const limits = [
+      { value: input.requirement, label: 'required >=', lower: true },
+      { value: input.maximum, label: 'required <=', lower: false },
+    ].filter((l): l is { value: number; label: string; lower: boolean } => l.value !== undefined);
+    const near = limits.filter((l) => l.value > lo - NEAR * spread && l.value < hi + NEAR * spread);
+    for (const l of near) { lo = Math.min(lo, l.value); hi = Math.max(hi, l.value); }
+    const far = limits.filter((l) => !near.includes(l));
+    const pad = Math.max(hi - lo, 1e-12) * 0.08;
     const x = scaleLinear().domain([lo - pad, hi + pad]).range([MARGIN.left, WIDTH - MARGIN.right]);
     const bins = bin().domain(x.domain() as [number, number]).thresholds(BINS)(values);
     const most = Math.max(1, ...bins.map((b) => b.length));
-    const y = scaleLinear().domain([0, most]).range([top + PANEL, top + 16]);
+    const y = scaleLinear().domain([0, most]).range([top + PANEL, top + PLOT_TOP]);
     for (const t of y.ticks(4)) {
       g.line(MARGIN.left, round(y(t)), WIDTH - MARGIN.right, round(y(t))).stroke({ color: GRID, width: 1 });
       drawText(g, String(t), MARGIN.left - 8, y(t) + 4, { size: SIZE.tick, anchor: 'end', fill: MUTED });
@@ -53,20 +70,28 @@ export function renderHistogram(input: HistogramInput): string {
       if (b.length === 0) continue;
       const x0 = x(b.x0!);
       const x1 = x(b.x1!);
-      const below = req !== undefined && b.x1! <= req;
+      const below = limits.some((l) => (l.lower ? b.x1! <= l.value : b.x0! >= l.value));
       g.rect(round(Math.max(1, x1 - x0 - 1)), round(y(0) - y(b.length))).move(round(x0), round(y(b.length)))
-        .fill(below ? `url(#${hatch})` : PHASE_TINT[k % 2]!).stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 });
+        .fill(below ? `url(#${hatch})` : PHASE_TINT[k % 2]!).stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 })
+        .attr({ class: 'bar', 'data-count': b.length, 'data-fails': below ? 1 : 0 });
     }
     for (const t of x.ticks(6)) {
       g.line(round(x(t)), top + PANEL, round(x(t)), top + PANEL + 5).stroke({ color: INK, width: 1 });
-      drawText(g, `${Math.round(t * 1e13) / 10} ps`, x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
+      drawText(g, psLabel(t), x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
     }
     g.line(MARGIN.left, top + PANEL, WIDTH - MARGIN.right, top + PANEL).stroke({ color: INK, width: 1 });
     drawText(g, `${series.label}  (${values.length} dies)`, MARGIN.left, top + 10, { size: SIZE.label, bold: true, fill: PHASE[k % 2]! });
-    if (req !== undefined) {
-      g.line(round(x(req)), top + 16, round(x(req)), top + PANEL).stroke({ color: FAIL, width: 2, dasharray: '6 4' });
-      drawText(g, `required >= ${Math.round(req * 1e13) / 10} ps`, x(req) + 6, top + 30, { size: SIZE.annotation, fill: FAIL, halo: true });
+    for (const l of near) {
+      g.line(round(x(l.value)), top + PLOT_TOP, round(x(l.value)), top + PANEL).stroke({ color: FAIL, width: 2, dasharray: '6 4' });
+      const right = x(l.value) < (MARGIN.left + WIDTH) / 2;
+      drawText(g, `${l.label} ${psLabel(l.value)}`, x(l.value) + (right ? 6 : -6), top + PLOT_TOP + 14, { size: SIZE.annotation, fill: FAIL, halo: true, anchor: right ? 'start' : 'end' });
     }
+    far.forEach((l, j) => {
+      const below = l.value < lo;
+      const distance = below ? (lo0 ?? 0) - l.value : l.value - (hi0 ?? 0);
+      const text = `${below ? '\u25c2 ' : ''}${l.label} ${psLabel(l.value)}: off scale, ${psLabel(distance)} ${below ? 'below the least' : 'above the most'} die${below ? '' : ' \u25b8'}`;
+      drawText(g, text, below ? MARGIN.left : WIDTH - MARGIN.right, top + 28 + 16 * j, { size: SIZE.annotation, fill: FAIL, halo: true, anchor: below ? 'start' : 'end' });
+    });
   });
   return canvas.finish();
 }

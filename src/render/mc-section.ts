@@ -1,0 +1,47 @@
+/**
+ * The Monte Carlo part of the review page: the yield line, the corners with the least sigma
+ * margin, and the dead-time histogram of the worst corner. Shared by the HTML and Markdown pages.
+ */
+import type { McReport } from '../report/mc-report.js';
+
+export interface McSection {
+  readonly report: McReport;
+  /** The worst corner's dead-time histogram, SVG text. */
+  readonly histogram: string;
+}
+
+const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
+const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)} ps` : '-');
+
+function leastSigma(c: McReport['corners'][number]): { value: number; check: string } {
+  let best = { value: Infinity, check: '' };
+  for (const q of c.quantities) {
+    if (q.sigmaMargin !== undefined && q.sigmaMargin !== null && q.sigmaMargin < best.value) best = { value: q.sigmaMargin, check: q.name };
+  }
+  return best;
+}
+
+export function mcHeadline(r: McReport): string {
+  return `${r.samples} dies (seed ${r.seed}) at each of ${r.corners.length} corners: yield at every corner ${pct(r.yield.value)}`
+    + ` (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}; worst corner ${r.worstCorner}.`;
+}
+
+/** Rows for the corners with the lowest yield, then the least sigma margin, at most `count`. */
+export function mcRows(r: McReport, count = 8): string[][] {
+  const ranked = [...r.corners].sort((a, b) => a.yield - b.yield || leastSigma(a).value - leastSigma(b).value).slice(0, count);
+  return ranked.map((c) => {
+    const dead = c.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '));
+    const least = leastSigma(c);
+    return [
+      c.name, pct(c.yield), `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
+      ...dead.slice(0, 2).map((d) => `${ps(d.mean)} ± ${ps(d.sigma)}`),
+      Number.isFinite(least.value) ? `${least.value.toFixed(1)} (${least.check})` : '-', String(c.worstSample.index),
+    ];
+  });
+}
+
+export function mcHead(r: McReport): string[] {
+  const first = r.corners[0];
+  const dead = first ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => `${q.name} mean ± sigma`) : [];
+  return ['corner', 'yield', '95 % interval', ...dead.slice(0, 2), 'least sigma margin', 'worst die'];
+}
