@@ -63,7 +63,7 @@ export class CornerEvaluator {
 }
 
 /** One corner with a fresh evaluator (results own their data). */
-export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, _simulator?: Simulator, mismatch?: SampleMismatch): CornerResult {
+export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, mismatch?: SampleMismatch): CornerResult {
   return new CornerEvaluator(resolved).evaluate(corner, mismatch);
 }
 

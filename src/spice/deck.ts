@@ -11,7 +11,6 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateCorner } from '../analysis/evaluate.js';
 import type { Corner } from '../process/corner.js';
 import { devicesAtCorner } from '../process/device.js';
-import { Simulator } from '../sim/engine.js';
 import { unitWidths } from '../netlist/loads.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
@@ -40,7 +39,7 @@ const FIRST_EDGE = 0.125;
 export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options: DeckOptions): Deck {
   const { design, card, netlist } = resolved;
   const models = cornerModels(card, corner, options.modelPath);
-  const result = evaluateCorner(resolved, corner, new Simulator(netlist));
+  const result = evaluateCorner(resolved, corner);
   if (!result.measurement.ok) {
     throw inputError(`corners (${corner.name})`, corner.name,
       `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`);

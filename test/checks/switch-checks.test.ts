@@ -1,6 +1,5 @@
 import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
-import { Simulator } from '../../src/sim/engine.js';
 import { handoverGap } from '../../src/checks/switch-checks.js';
 import type { SwitchConduction } from '../../src/switches/conduction.js';
 import { expectClose, resolveYaml } from '../helpers.js';
@@ -21,7 +20,7 @@ ${constraints}`;
 
 function run(text: string) {
   const resolved = resolveYaml(text);
-  return evaluateCorner(resolved, resolved.corners[0]!.corner, new Simulator(resolved.netlist));
+  return evaluateCorner(resolved, resolved.corners[0]!.corner);
 }
 
 describe('break-before-make', () => {

@@ -1,6 +1,5 @@
 import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
-import { Simulator } from '../../src/sim/engine.js';
 import type { ResolvedDesign } from '../../src/analysis/resolve.js';
 import { compileNetlist } from '../../src/netlist/netlist.js';
 import { expandSwitches } from '../../src/switches/plan.js';
@@ -24,7 +23,7 @@ ${extra}`;
 }
 
 function at(resolved: ResolvedDesign) {
-  return evaluateCorner(resolved, resolved.corners[0]!.corner, new Simulator(resolved.netlist));
+  return evaluateCorner(resolved, resolved.corners[0]!.corner);
 }
 
 function conduction(switches: string, extra = '') {
