@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { sampleRankCorrelation } from 'simple-statistics';
-import { cli, design, processCard, tempDir } from '../helpers.js';
+import { cli, design, processCard, ROOT, tempDir } from '../helpers.js';
 
 interface ConfirmJson {
   verdict: string;
@@ -49,6 +49,17 @@ describe('table model vs ngspice', () => {
     }
     expect(code).toBe(0);
     expect(report.verdict).toBe('agree');
+  }, 180_000);
+});
+
+describe('shipped tables vs ngspice', () => {
+  it('fixtures/tables/generic180.json (fine grid) keeps every dead time of doubler.yaml within 10 % at all 45 corners', () => {
+    const { code, report } = confirmJson('--tables', join(ROOT, 'fixtures', 'tables', 'generic180.json'), '--corners', 'all', '--tolerance', '10%');
+    expect(report.corners.length).toBe(45);
+    for (const c of report.corners) {
+      for (const q of c.quantities.filter((x) => x.kind === 'dead')) expect(Math.abs(q.relativeError!), `${c.corner} ${q.quantity}`).toBeLessThanOrEqual(0.1);
+    }
+    expect(code).toBe(0);
   }, 180_000);
 });
 

@@ -15,7 +15,8 @@ import { checkSimulator, runDecks } from '../../spice/runner.js';
 import type { ProcessCard } from '../../schema/process.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadProcess } from '../load.js';
-import { emit, toJson } from '../output.js';
+import { emit } from '../output.js';
+import { tablesJson } from '../../spice/tables-json.js';
 import { parseJobs } from './confirm.js';
 import { modelFile } from './spice.js';
 
@@ -114,7 +115,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
     loads: [...axes.loads],
     corners: tables,
   };
-  emit(io, toJson(file), options.out);
+  emit(io, tablesJson(file), options.out);
   if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out}: ${cells.length} cells at ${tables.length} corners\n`);
   return 0;
 }
