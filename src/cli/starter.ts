@@ -9,9 +9,9 @@ process:
   lmin: 0.18um
   vddNominal: 1.8V
   unit: { wn: 0.5um, wp: 1.0um }   # the size-1 inverter
-  n: { vth0: 0.45V, alpha: 1.3, drive: 338, vthTempco: 1mV, mobilityExponent: 1.5,
+  n: { vth0: 0.45V, alpha: 1.3, drive: 287, vthTempco: 1mV, mobilityExponent: 1.5,
        gamma: 0.45, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5e-9, kprime: 300e-6 }
-  p: { vth0: 0.45V, alpha: 1.4, drive: 151, vthTempco: 1mV, mobilityExponent: 1.4,
+  p: { vth0: 0.45V, alpha: 1.4, drive: 128, vthTempco: 1mV, mobilityExponent: 1.4,
        gamma: 0.4, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5.5e-9, kprime: 70e-6 }
   corners:               # Vth shift (V) and drive multiplier per device type
     tt: {}

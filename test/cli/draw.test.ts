@@ -16,7 +16,7 @@ describe('phasegap draw', () => {
   });
 
   it('draws a named corner, applies --set, and exits 1 when that corner fails', () => {
-    const run = cli('draw', design('doubler'), '--corner', 'ff/1.98V/-40C', '--set', 'requirements.deadTime.min=900ps', '-o', '-');
+    const run = cli('draw', design('doubler'), '--corner', 'ff/1.98V/-40C', '--set', 'requirements.deadTime.min=1100ps', '-o', '-');
     expect(run.code).toBe(1);
     const svg = parseSvg(run.stdout);
     expect(all(svg, 'text.verdict')[0]!.textContent).toBe('\u2715 FAIL');

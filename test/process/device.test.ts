@@ -52,20 +52,21 @@ describe('saturationCurrent', () => {
 });
 
 describe('deviceAtCorner', () => {
-  it('matches the card comment at tt/1.8V/27C: about 500 uA/um for n and 230 uA/um for p', () => {
+  it('matches the card comment at tt/1.8V/27C: about 425 uA/um for n and 195 uA/um for p', () => {
+    // 287 * 1.35^1.3 = 287 * 1.477182 = 423.951 A/m; 128 * 1.35^1.4 = 128 * 1.522184 = 194.840 A/m (by hand).
     const tt = devicesAtCorner(card, at('tt', 1.8, 27));
-    expectClose(tt.n.idsatPerWidth, 499.287, 1e-5);
-    expectClose(tt.p.idsatPerWidth, 229.850, 1e-5);
+    expectClose(tt.n.idsatPerWidth, 423.951, 1e-5);
+    expectClose(tt.p.idsatPerWidth, 194.840, 1e-5);
     expect(tt.n.vth).toBe(0.45);
     expect(tt.vdd).toBe(1.8);
   });
 
   it('combines the corner drive, mobility and threshold at ss/1.62V/125C', () => {
-    // Vth = 0.412 V; K = 338 * 0.85 * 0.654542 = 188.05; I = K * (1.62 - 0.412)^1.3 = 240.414 A/m.
+    // Vth = 0.412 V; K = 287 * 0.85 * 0.654542 = 159.675; I = K * (1.62 - 0.412)^1.3 = 204.139 A/m (by hand).
     const n = deviceAtCorner(card, 'n', at('ss', 1.62, 125));
     expectClose(n.vth, 0.412, 1e-12);
-    expectClose(n.driveConstant, 338 * 0.85 * 0.6545418829, 1e-8);
-    expectClose(n.idsatPerWidth, 240.414, 1e-5);
+    expectClose(n.driveConstant, 287 * 0.85 * 0.6545418829, 1e-8);
+    expectClose(n.idsatPerWidth, 204.139, 1e-5);
   });
 
   it('shifts n and p separately at the skewed corners', () => {
