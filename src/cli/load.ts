@@ -11,6 +11,7 @@ import type { DelayModel } from '../delay/model.js';
 import { checkTables } from '../delay/table.js';
 import { parseModelChoice, selectModel } from '../delay/select.js';
 import { applyOverrides } from './overrides.js';
+import { resolveDesign, type ResolvedDesign } from '../analysis/resolve.js';
 
 /** Reads a YAML or JSON file into plain data; the path names the file in errors. */
 export function readDataFile(path: string, label: string): unknown {
@@ -94,4 +95,11 @@ export function loadModel(card: ProcessCard, cardDir: string, options: ModelOpti
   if (choice === 'analytic') return selectModel(choice, undefined, warn);
   const path = options.tables ?? (card.tables === undefined ? undefined : resolve(cardDir, card.tables));
   return selectModel(choice, path === undefined ? undefined : loadTables(path, options.tables ? '--tables' : 'process.tables'), warn);
+}
+
+/** A design loaded, its delay model chosen from the global options, and resolved once. */
+export function loadResolved(designPath: string, overrides: readonly string[], options: ModelOptions, warn: (message: string) => void): LoadedDesign & { readonly resolved: ResolvedDesign } {
+  const loaded = loadDesign(designPath, overrides);
+  const resolved = resolveDesign(loaded.design, loaded.card, loadModel(loaded.card, loaded.cardDir, options, warn));
+  return { ...loaded, resolved };
 }

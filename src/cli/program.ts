@@ -56,7 +56,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--resolution <REL>', 'relative resolution of the search (default 0.001 = 0.1 %)')
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
-    .action((design: string, opts: { set: string[]; json: boolean; out?: string; resolution?: string }) => setCode(runFmax(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runFmax(io, design, cmd.optsWithGlobals())));
 
   program.command('sweep')
     .description('batch grid over corner axes and design values; one worst-case row per point, CSV or JSON, streamed')
@@ -67,7 +67,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--workers <K>', 'threads (default: the number of cores); rows do not depend on it')
     .option('--json', 'write a JSON array instead of CSV', false)
     .addOption(outOption('the rows'))
-    .action((design: string, opts: Parameters<typeof runSweep>[2]) => setCode(runSweep(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runSweep(io, design, cmd.optsWithGlobals())));
 
   program.command('mc')
     .description('Monte Carlo local mismatch (Pelgrom) on every corner: yield with a 95 % interval, sigma margins')
@@ -80,7 +80,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--histogram <FILE.svg>', 'also draw the dead-time histograms of the worst corner')
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
-    .action((design: string, opts: Parameters<typeof runMc>[2]) => setCode(runMc(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runMc(io, design, cmd.optsWithGlobals())));
 
   program.command('draw')
     .description('SVG timing diagram of a corner (or worst, or all overlaid as edge envelopes), or the margin chart')
@@ -90,7 +90,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", 'phases')
     .option('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", 'timing')
     .addOption(outOption('the SVG'))
-    .action((design: string, opts: Parameters<typeof runDraw>[2]) => setCode(runDraw(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runDraw(io, design, cmd.optsWithGlobals())));
 
   program.command('report')
     .description('self-contained review page: summary, diagrams, margin chart, corner table, process card, cautions')
@@ -101,7 +101,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--mc <N>', 'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)')
     .option('--seed <S>', 'Monte Carlo seed (default: montecarlo.seed, else 1)')
     .addOption(outOption('the report'))
-    .action((design: string, opts: Parameters<typeof runReport>[2]) => setCode(runReport(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runReport(io, design, cmd.optsWithGlobals())));
 
   program.command('waves')
     .description('steady-state waveforms of a corner as an IEEE 1364 VCD file (50 % crossings, switch conduction)')
@@ -112,7 +112,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--timescale <UNIT>', "'1fs' or '10fs'", '1fs')
     .option('--periods <N>', 'clock periods to dump', '2')
     .addOption(outOption('the VCD'))
-    .action((design: string, opts: Parameters<typeof runWaves>[2]) => setCode(runWaves(io, design, opts)));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runWaves(io, design, cmd.optsWithGlobals())));
 
   program.command('schema')
     .description('print the JSON Schema of the design file')

@@ -1,6 +1,6 @@
 /** Building and evaluating sweep points from the raw design text (shared by the command and its threads). */
 import { applyOverrides } from './overrides.js';
-import { readDataFile, loadProcess } from './load.js';
+import { readDataFile, loadProcess, loadModel, type ModelOptions } from './load.js';
 import { cornersSchema, designSchema } from '../schema/design.js';
 import { expandCorners } from '../process/corners.js';
 import { CORNER_AXES } from '../analysis/sweep.js';
@@ -17,6 +17,8 @@ export interface SweepSetup {
   readonly designPath: string;
   readonly overrides: readonly string[];
   readonly axes: readonly SweepAxis[];
+  /** The global --model / --tables choice. */
+  readonly model: ModelOptions;
 }
 
 interface Prepared {
@@ -44,12 +46,14 @@ function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): Re
   if (p.last?.key === key) return p.last.resolved;
   const design = parseWith(designSchema, applyOverrides(p.raw, sets));
   let card: ProcessCard;
+  let cardDir = dirname(resolve(setup.designPath));
   if (typeof design.process === 'string') {
     const path = resolve(dirname(setup.designPath), design.process);
     card = p.cards.get(path) ?? loadProcess(path, 'process');
     p.cards.set(path, card);
+    cardDir = dirname(path);
   } else card = design.process;
-  const resolved = resolveDesign(design, card);
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`)));
   p.last = { key, resolved };
   return resolved;
 }

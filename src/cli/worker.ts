@@ -1,21 +1,19 @@
 /** A worker thread: loads the design once, then evaluates the chunks of Monte Carlo or sweep work it is sent. */
 import { parentPort, workerData } from 'node:worker_threads';
-import { loadDesign } from './load.js';
-import { resolveDesign } from '../analysis/resolve.js';
+import { loadResolved, type ModelOptions } from './load.js';
 import { runChunk, type ChunkResult } from '../analysis/montecarlo.js';
 import { sweepRows, type SweepSetup } from './sweep-points.js';
 import { InputError } from '../errors.js';
 
 export type WorkerSetup =
-  | { readonly kind: 'mc'; readonly designPath: string; readonly overrides: readonly string[]; readonly seed: number }
+  | { readonly kind: 'mc'; readonly designPath: string; readonly overrides: readonly string[]; readonly seed: number; readonly model: ModelOptions }
   | ({ readonly kind: 'sweep' } & SweepSetup);
 
 const setup = workerData as WorkerSetup;
 const port = parentPort!;
 
 if (setup.kind === 'mc') {
-  const { design, card } = loadDesign(setup.designPath, setup.overrides);
-  const resolved = resolveDesign(design, card);
+  const { resolved } = loadResolved(setup.designPath, setup.overrides, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`));
   port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
     try {
       const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count);

@@ -12,6 +12,8 @@ export interface McReport {
   readonly tool: 'phasegap';
   readonly design: string;
   readonly process: string;
+  /** Delay model the dies were evaluated with. */
+  readonly model: string;
   readonly samples: number;
   readonly seed: number;
   readonly minYield: number | null;
@@ -38,7 +40,7 @@ function leastSigma(c: McCornerReport): number {
   return least;
 }
 
-export function mcReport(design: string, process: string, mc: McResult, minYield: number | undefined): McReport {
+export function mcReport(design: string, process: string, mc: McResult, minYield: number | undefined, model = 'analytic'): McReport {
   const corners = mc.corners.map((c, i) => ({ ...c, deadTimeQuantiles: mc.deadTimes[i]!.map(quantiles) }));
   let worst = corners[0]!;
   for (const c of corners) {
@@ -46,7 +48,7 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
   }
   const pass = minYield === undefined ? mc.yieldEverywhere === 1 : mc.yieldEverywhere >= minYield;
   return {
-    tool: 'phasegap', design, process, samples: mc.samples, seed: mc.seed, minYield: minYield ?? null,
+    tool: 'phasegap', design, process, model, samples: mc.samples, seed: mc.seed, minYield: minYield ?? null,
     yield: { value: mc.yieldEverywhere, ...mc.yieldEverywhereInterval },
     verdict: pass ? 'pass' : 'fail', worstCorner: worst.name, corners, cautions: CAUTIONS,
   };
@@ -57,7 +59,7 @@ const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-'
 
 export function renderMcText(r: McReport): string {
   const lines: string[] = [];
-  lines.push(`${r.design}: Monte Carlo mismatch on ${r.process}, ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
+  lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
   lines.push('');
   const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);
   const rows = r.corners.map((c) => {

@@ -1,6 +1,5 @@
 /** `phasegap draw DESIGN`: an SVG timing diagram of one corner, the worst, or all overlaid; or the margin chart. */
 import { evaluateAll } from '../../analysis/evaluate.js';
-import { resolveDesign } from '../../analysis/resolve.js';
 import { inputError } from '../../errors.js';
 import { selectCorner } from '../../render/corner-choice.js';
 import { buildDiagram } from '../../render/diagram.js';
@@ -9,12 +8,12 @@ import { NET_CHOICES, type NetChoice } from '../../render/rows.js';
 import { renderMarginSvg } from '../../render/svg/margins.js';
 import { renderTimingSvg } from '../../render/svg/timing.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
 
 export const CHARTS = ['timing', 'margins'] as const;
 
-export interface DrawOptions {
+export interface DrawOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly corner: string;
   readonly nets: string;
@@ -39,8 +38,7 @@ export function runDraw(io: Io, designPath: string, options: DrawOptions): numbe
     throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
-  const { design, card } = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(design, card);
+  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const results = evaluateAll(resolved);
   if (options.chart === 'margins') {
     emit(io, renderMarginSvg(marginChartInput(resolved, results)), out);

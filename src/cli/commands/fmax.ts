@@ -1,14 +1,13 @@
 /** `phasegap fmax DESIGN`: the highest safe clock frequency and what limits it. */
 import { findFmax } from '../../analysis/fmax.js';
-import { resolveDesign } from '../../analysis/resolve.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import { formatEngineering, formatTime } from '../../units/format.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadResolved, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
 
-export interface FmaxCommandOptions {
+export interface FmaxCommandOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly json: boolean;
   readonly out?: string;
@@ -24,8 +23,7 @@ function parseResolution(text: string | undefined): number | undefined {
 }
 
 export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions): number {
-  const { design, card } = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(design, card);
+  const { design, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const result = findFmax(resolved, { resolution: parseResolution(options.resolution) });
   const ok = result.fmax !== null && result.fmax >= result.designFrequency;
   if (options.json) {

@@ -1,7 +1,6 @@
 /** `phasegap mc DESIGN`: Monte Carlo mismatch on every corner, yield and sigma margins, in parallel threads. */
 import { availableParallelism } from 'node:os';
 import { chunkPlan, mergeChunks, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
-import { resolveDesign } from '../../analysis/resolve.js';
 import { CornerEvaluator } from '../../analysis/evaluate.js';
 import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
@@ -9,13 +8,13 @@ import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadResolved, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
 import { renderHistogram } from '../../render/svg/histogram.js';
 
-export interface McOptions {
+export interface McOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly json: boolean;
   readonly out?: string;
@@ -34,8 +33,7 @@ export function wholeNumber(flag: string, text: string | undefined, min: number,
 }
 
 export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
-  const { design, card } = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(design, card);
+  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const samples = wholeNumber('--samples', options.samples, 1, design.montecarlo?.samples ?? 1000);
   const seed = wholeNumber('--seed', options.seed, 0, design.montecarlo?.seed ?? 1);
   const threads = wholeNumber('--workers', options.workers, 1, availableParallelism());
@@ -67,7 +65,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     process.once('SIGINT', onSigint);
     try {
       await runPool<{ start: number; count: number }, ChunkResult>(
-        { kind: 'mc', designPath, overrides: options.set, seed }, plan, threads,
+        { kind: 'mc', designPath, overrides: options.set, seed, model: { model: options.model, tables: options.tables } }, plan, threads,
         (_i, result) => take(result),
         (handle) => { stopPool = () => handle.stop(); },
       );
@@ -82,7 +80,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   }
   bar.stop();
   const mc = mergeChunks(resolved, seed, samples, chunks);
-  const report = mcReport(design.name, card.name, mc, design.requirements.minYield);
+  const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
   if (options.histogram !== undefined) {
     const c = report.corners.findIndex((x) => x.name === report.worstCorner);
     emit(io, renderHistogram({

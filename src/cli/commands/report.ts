@@ -2,13 +2,12 @@
 import { basename, dirname, extname, join } from 'node:path';
 import { evaluateAll } from '../../analysis/evaluate.js';
 import { findFmax, type FmaxResult } from '../../analysis/fmax.js';
-import { resolveDesign } from '../../analysis/resolve.js';
 import { inputError } from '../../errors.js';
 import { renderHtmlReport } from '../../render/html/report.js';
 import { renderMarkdownReport } from '../../render/markdown/report.js';
 import { buildReportModel } from '../../render/report-model.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
 import { requireOut } from './draw.js';
 import { wholeNumber } from './mc.js';
@@ -20,7 +19,7 @@ import type { ResolvedDesign } from '../../analysis/resolve.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
-export interface ReportOptions {
+export interface ReportOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly format: string;
   readonly fmax: boolean;
@@ -33,7 +32,7 @@ export interface ReportOptions {
 /** Monte Carlo on one thread (the report stays a plain, repeatable function of its inputs). */
 function monteCarloSection(resolved: ResolvedDesign, samples: number, seed: number): McSection {
   const mc = runMonteCarlo(resolved, samples, seed);
-  const report = mcReport(resolved.design.name, resolved.card.name, mc, resolved.design.requirements.minYield);
+  const report = mcReport(resolved.design.name, resolved.card.name, mc, resolved.design.requirements.minYield, resolved.model.name);
   const c = report.corners.findIndex((x) => x.name === report.worstCorner);
   const names = report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => q.name);
   const histogram = renderHistogram({
@@ -60,8 +59,8 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   if (options.format === 'md' && out === '-') {
     throw inputError('--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
   }
-  const loaded = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(loaded.design, loaded.card);
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const resolved = loaded.resolved;
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);

@@ -10,13 +10,13 @@ import { gridSize, parseAxis, CORNER_AXES, type SweepAxis, type SweepRow } from 
 import { csvHeader, csvRow, jsonRow } from '../../report/sweep-format.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadDesign, type ModelOptions } from '../load.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
 import { sweepPoint, sweepRows, type SweepSetup } from '../sweep-points.js';
 import { wholeNumber } from './mc.js';
 
-export interface SweepOptions {
+export interface SweepOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly vary: readonly string[];
   readonly json: boolean;
@@ -65,7 +65,7 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
       throw inputError(`--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
     }
   }
-  const setup: SweepSetup = { designPath, overrides: options.set, axes };
+  const setup: SweepSetup = { designPath, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
   checkAxes(setup);
   const total = gridSize(axes);
   const threads = wholeNumber('--workers', options.workers, 1, availableParallelism());

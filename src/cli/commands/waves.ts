@@ -1,16 +1,15 @@
 /** `phasegap waves DESIGN --corner NAME`: the corner's steady-state waveforms as an IEEE 1364 VCD file. */
 import { evaluateAll } from '../../analysis/evaluate.js';
-import { resolveDesign } from '../../analysis/resolve.js';
 import { inputError } from '../../errors.js';
 import { selectCorner } from '../../render/corner-choice.js';
 import { vcdSignals } from '../../render/vcd/signals.js';
 import { renderVcd, TIMESCALES, type Timescale } from '../../render/vcd/vcd.js';
 import type { Io } from '../io.js';
-import { loadDesign } from '../load.js';
+import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
 import { parseNets, requireOut } from './draw.js';
 
-export interface WavesOptions {
+export interface WavesOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly corner: string;
   readonly nets: string;
@@ -34,8 +33,7 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
   const timescale = options.timescale as Timescale;
   const periods = parsePeriods(options.periods);
   const nets = parseNets(options.nets);
-  const { design, card } = loadDesign(designPath, options.set);
-  const resolved = resolveDesign(design, card);
+  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const results = evaluateAll(resolved);
   const selection = selectCorner(results, options.corner, false);
   const index = selection.kind === 'corner' ? selection.index : selection.reference;
