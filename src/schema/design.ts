@@ -91,6 +91,7 @@ export const requirementsSchema = z.strictObject({
   }).optional(),
   guard: quantity('s', 'Default break-before-make guard time', { atLeast: 0 }).default(0),
   minYield: ratio('Smallest acceptable Monte Carlo yield', { above: 0, atMost: 1 }).optional(),
+  confirmTolerance: ratio('Largest relative difference between the model and ngspice that confirm accepts (default 0.1)', { above: 0, below: 10 }).optional(),
 });
 
 export const designSchema = z.strictObject({

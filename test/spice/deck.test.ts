@@ -109,6 +109,15 @@ describe('phasegap confirm', () => {
     }
   });
 
+  it('takes the tolerance from requirements.confirmTolerance when the flag is absent, the flag winning over it', () => {
+    const tight = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--set', 'requirements.confirmTolerance=0.001', '--jobs', '1', '--json');
+    expect(tight.code).toBe(1);
+    expect(JSON.parse(tight.stdout).tolerance).toBe(0.001);
+    const flag = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--set', 'requirements.confirmTolerance=0.001', '--tolerance', '50%', '--jobs', '1', '--json');
+    expect(flag.code).toBe(0);
+    expect(JSON.parse(flag.stdout).tolerance).toBe(0.5);
+  });
+
   it('rejects a bad tolerance and an unknown corner with exit 2', () => {
     expect(cli('confirm', design('doubler'), '--tolerance', '-3').stderr).toMatch(/--tolerance: "-3" must be a relative difference above 0/);
     expect(cli('confirm', design('doubler'), '--corners', 'tt/9V/27C').code).toBe(2);

@@ -27,8 +27,9 @@ export interface ConfirmOptions extends ModelOptions {
 
 export const DEFAULT_TOLERANCE = 0.1;
 
-export function parseTolerance(text: string | undefined): number {
-  if (text === undefined) return DEFAULT_TOLERANCE;
+/** `--tolerance`, else the design's requirements.confirmTolerance, else 10 %. */
+export function parseTolerance(text: string | undefined, fromDesign?: number): number {
+  if (text === undefined) return fromDesign ?? DEFAULT_TOLERANCE;
   const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
   const value = percent ? Number(percent[1]) / 100 : Number(text);
   if (!(value > 0 && value < 10)) throw inputError('--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
@@ -43,9 +44,9 @@ export function parseJobs(text: string | undefined): number {
 }
 
 export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
-  const tolerance = parseTolerance(options.tolerance);
   const jobs = parseJobs(options.jobs);
   const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const tolerance = parseTolerance(options.tolerance, design.requirements.confirmTolerance);
   const model = loadModel(card, cardDir, options, warnTo(io));
   const resolved = resolveDesign(design, card, model);
   const corners = chooseCorners(resolved, options.corners);
