@@ -11,8 +11,6 @@ import { runConfirm } from './commands/confirm.js';
 import { runCharacterize } from './commands/characterize.js';
 import { runVerilog } from './commands/verilog.js';
 import { runMc } from './commands/mc.js';
-import { runDraw } from './commands/draw.js';
-import { runReport } from './commands/report.js';
 import { runWaves } from './commands/waves.js';
 import { runSweep } from './commands/sweep.js';
 
@@ -90,7 +88,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", 'phases')
     .option('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", 'timing')
     .addOption(outOption('the SVG'))
-    .action((design: string, _opts: unknown, cmd: Command) => setCode(runDraw(io, design, cmd.optsWithGlobals())));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(import('./commands/draw.js').then((m) => m.runDraw(io, design, cmd.optsWithGlobals()))));
 
   program.command('report')
     .description('self-contained review page: summary, diagrams, margin chart, corner table, process card, cautions')
@@ -101,7 +99,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--mc <N>', 'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)')
     .option('--seed <S>', 'Monte Carlo seed (default: montecarlo.seed, else 1)')
     .addOption(outOption('the report'))
-    .action((design: string, _opts: unknown, cmd: Command) => setCode(runReport(io, design, cmd.optsWithGlobals())));
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(import('./commands/report.js').then((m) => m.runReport(io, design, cmd.optsWithGlobals()))));
 
   program.command('waves')
     .description('steady-state waveforms of a corner as an IEEE 1364 VCD file (50 % crossings, switch conduction)')

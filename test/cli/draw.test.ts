@@ -1,38 +1,38 @@
 import { describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cli, design, tempDir } from '../helpers.js';
+import { cli, design, tempDir, cliAsync } from '../helpers.js';
 import { all, parseSvg } from '../render/svg-dom.js';
 
 describe('phasegap draw', () => {
-  it('writes the worst corner by default, named in the title block', () => {
+  it('writes the worst corner by default, named in the title block', async () => {
     const dir = tempDir();
     const file = join(dir, 'd.svg');
     const check = JSON.parse(cli('check', design('doubler'), '--json').stdout) as { limiting: { corner: string } };
-    const run = cli('draw', design('doubler'), '-o', file);
+    const run = await cliAsync('draw', design('doubler'), '-o', file);
     expect(run.code).toBe(0);
     const svg = parseSvg(readFileSync(file, 'utf8'));
     expect(all(svg, '.title-block text.subtitle')[0]!.getAttribute('data-corner')).toBe(check.limiting.corner);
   });
 
-  it('draws a named corner, applies --set, and exits 1 when that corner fails', () => {
-    const run = cli('draw', design('doubler'), '--corner', 'ff/1.98V/-40C', '--set', 'requirements.deadTime.min=1100ps', '-o', '-');
+  it('draws a named corner, applies --set, and exits 1 when that corner fails', async () => {
+    const run = await cliAsync('draw', design('doubler'), '--corner', 'ff/1.98V/-40C', '--set', 'requirements.deadTime.min=1100ps', '-o', '-');
     expect(run.code).toBe(1);
     const svg = parseSvg(run.stdout);
     expect(all(svg, 'text.verdict')[0]!.textContent).toBe('\u2715 FAIL');
     expect(all(svg, 'text.dead-time-label').some((t) => t.textContent!.includes('FAIL'))).toBe(true);
   });
 
-  it('overlays all corners with --corner all', () => {
-    const run = cli('draw', design('sc-integrator'), '--corner', 'all', '-o', '-');
+  it('overlays all corners with --corner all', async () => {
+    const run = await cliAsync('draw', design('sc-integrator'), '--corner', 'all', '-o', '-');
     expect([0, 1]).toContain(run.code);
     const svg = parseSvg(run.stdout);
     expect(all(svg, 'polygon.edge-band').length).toBeGreaterThan(0);
     expect(all(svg, '.title-block text.subtitle')[0]!.getAttribute('data-corner')).toBe('all 45 corners');
   });
 
-  it('draws the margin chart with --chart margins', () => {
-    const run = cli('draw', design('too-tight'), '--chart', 'margins', '-o', '-');
+  it('draws the margin chart with --chart margins', async () => {
+    const run = await cliAsync('draw', design('too-tight'), '--chart', 'margins', '-o', '-');
     expect(run.code).toBe(1);
     const svg = parseSvg(run.stdout);
     expect(all(svg, 'g.margin-row').length).toBeGreaterThan(0);
@@ -44,17 +44,17 @@ describe('phasegap draw', () => {
     [['--chart', 'pie'], '--chart: "pie" is not a chart; allowed: timing, margins'],
     [['--nets', 'most'], '--nets: "most" is not a net selection; allowed: phases, all'],
     [['--set', 'clock.frequency=fast'], 'clock.frequency'],
-  ])('refuses %j with exit 2 and writes nothing', (args, message) => {
+  ])('refuses %j with exit 2 and writes nothing', async (args, message) => {
     const dir = tempDir();
     const file = join(dir, 'd.svg');
-    const run = cli('draw', design('doubler'), ...args, '-o', file);
+    const run = await cliAsync('draw', design('doubler'), ...args, '-o', file);
     expect(run.code).toBe(2);
     expect(run.stderr).toContain(message);
     expect(existsSync(file)).toBe(false);
   });
 
-  it('refuses a missing -o with exit 2', () => {
-    const run = cli('draw', design('doubler'));
+  it('refuses a missing -o with exit 2', async () => {
+    const run = await cliAsync('draw', design('doubler'));
     expect(run.code).toBe(2);
     expect(run.stderr).toBe('phasegap: error: --out: is required: name the SVG file to write, or - for stdout\n');
   });

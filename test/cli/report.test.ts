@@ -2,14 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CAUTIONS } from '../../src/report/cautions.js';
-import { cli, design, tempDir } from '../helpers.js';
+import { cli, design, tempDir, cliAsync } from '../helpers.js';
 import { parseSvg } from '../render/svg-dom.js';
 
 describe('phasegap report', () => {
-  it('writes one self-contained HTML page with the three drawings inline and the cautions', () => {
+  it('writes one self-contained HTML page with the three drawings inline and the cautions', async () => {
     const dir = tempDir();
     const file = join(dir, 'r.html');
-    const run = cli('report', design('doubler'), '-o', file);
+    const run = await cliAsync('report', design('doubler'), '-o', file);
     expect(run.code).toBe(0);
     const html = readFileSync(file, 'utf8');
     expect(html.startsWith('<!DOCTYPE html>')).toBe(true);
@@ -27,8 +27,8 @@ describe('phasegap report', () => {
     for (const s of svgs) expect(() => parseSvg(s)).not.toThrow();
   });
 
-  it('lists every corner in the corner table and exits 1 when the design fails', () => {
-    const run = cli('report', design('too-tight'), '--no-fmax', '-o', '-');
+  it('lists every corner in the corner table and exits 1 when the design fails', async () => {
+    const run = await cliAsync('report', design('too-tight'), '--no-fmax', '-o', '-');
     expect(run.code).toBe(1);
     expect(run.stdout).toContain('fmax not computed (skipped with --no-fmax)');
     const rows = run.stdout.slice(run.stdout.indexOf('id="corners"')).split('</table>')[0]!.match(/<tr( class="fail")?><td>/g) ?? [];
@@ -36,10 +36,10 @@ describe('phasegap report', () => {
     expect(rows.filter((r) => r.includes('fail')).length).toBeGreaterThan(0);
   });
 
-  it('writes Markdown with the SVGs beside it with --format md', () => {
+  it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();
     const file = join(dir, 'review.md');
-    const run = cli('report', design('sc-integrator'), '--format', 'md', '--no-fmax', '-o', file);
+    const run = await cliAsync('report', design('sc-integrator'), '--format', 'md', '--no-fmax', '-o', file);
     expect([0, 1]).toContain(run.code);
     expect(readdirSync(dir).sort()).toEqual(['review-all.svg', 'review-margins.svg', 'review-worst.svg', 'review.md']);
     const md = readFileSync(file, 'utf8');
@@ -52,9 +52,9 @@ describe('phasegap report', () => {
     [['--format', 'pdf', '-o', 'x'], '--format: "pdf" is not a report format; allowed: html, md'],
     [['--format', 'md', '-o', '-'], '--out: "-" cannot be stdout for --format md'],
     [[], '--out: is required: name the HTML file to write, or - for stdout'],
-  ])('refuses %j with exit 2', (args, message) => {
+  ])('refuses %j with exit 2', async (args, message) => {
     const dir = tempDir();
-    const run = cli('report', design('doubler'), ...args.map((a) => (a === 'x' ? join(dir, 'x') : a)));
+    const run = await cliAsync('report', design('doubler'), ...args.map((a) => (a === 'x' ? join(dir, 'x') : a)));
     expect(run.code).toBe(2);
     expect(run.stderr).toContain(message);
     expect(readdirSync(dir)).toEqual([]);

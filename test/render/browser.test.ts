@@ -8,7 +8,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
-import { cli, design, ROOT, tempDir } from '../helpers.js';
+import { cli, design, ROOT, tempDir, cliAsync } from '../helpers.js';
 
 const OUTPUT = join(ROOT, 'test-output');
 
@@ -35,7 +35,7 @@ interface Overlap {
 async function openReport(name: string, extra: string[] = []) {
   const dir = tempDir();
   const file = join(dir, `${name}.html`);
-  const run = cli('report', design(name), ...extra, '-o', file);
+  const run = await cliAsync('report', design(name), ...extra, '-o', file);
   expect([0, 1]).toContain(run.code);
   const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
   const problems: string[] = [];

@@ -39,12 +39,12 @@ describe('histograms from the CLI', () => {
     const doc = parseSvg(readFileSync(svg, 'utf8'));
     expect(all(doc, 'g.histogram-panel')).toHaveLength(2);
     const html = join(dir, 'r.html');
-    expect(cli('report', design('doubler'), '--mc', '60', '--no-fmax', '-o', html).code).toBe(0);
+    expect((await cliAsync('report', design('doubler'), '--mc', '60', '--no-fmax', '-o', html)).code).toBe(0);
     const page = readFileSync(html, 'utf8');
     expect(page).toContain('id="montecarlo"');
     expect(page).toContain('60 dies (seed 1) at each of 45 corners');
     const md = join(dir, 'r.md');
-    expect(cli('report', design('doubler'), '--mc', '60', '--no-fmax', '--format', 'md', '-o', md).code).toBe(0);
+    expect((await cliAsync('report', design('doubler'), '--mc', '60', '--no-fmax', '--format', 'md', '-o', md)).code).toBe(0);
     expect(existsSync(join(dir, 'r-histogram.svg'))).toBe(true);
     expect(readFileSync(md, 'utf8')).toContain('](r-histogram.svg)');
   });

@@ -4,12 +4,12 @@ import { inputError } from '../../errors.js';
 import { selectCorner } from '../../render/corner-choice.js';
 import { buildDiagram } from '../../render/diagram.js';
 import { marginChartInput } from '../../render/report-model.js';
-import { NET_CHOICES, type NetChoice } from '../../render/rows.js';
 import { renderMarginSvg } from '../../render/svg/margins.js';
 import { renderTimingSvg } from '../../render/svg/timing.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
+import { parseNets, requireOut } from './out-options.js';
 
 export const CHARTS = ['timing', 'margins'] as const;
 
@@ -19,17 +19,6 @@ export interface DrawOptions extends ModelOptions {
   readonly nets: string;
   readonly chart: string;
   readonly out?: string;
-}
-
-/** `--out` is required for every drawing: a file name, or - for stdout. */
-export function requireOut(out: string | undefined, what: string): string {
-  if (out === undefined || out === '') throw inputError('--out', undefined, `is required: name the ${what} file to write, or - for stdout`);
-  return out;
-}
-
-export function parseNets(value: string): NetChoice {
-  if (!(NET_CHOICES as readonly string[]).includes(value)) throw inputError('--nets', value, `is not a net selection; allowed: ${NET_CHOICES.join(', ')}`);
-  return value as NetChoice;
 }
 
 export function runDraw(io: Io, designPath: string, options: DrawOptions): number {

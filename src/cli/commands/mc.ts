@@ -12,7 +12,6 @@ import { loadResolved, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
-import { renderHistogram } from '../../render/svg/histogram.js';
 
 export interface McOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -83,6 +82,8 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
   if (options.histogram !== undefined) {
     const c = report.corners.findIndex((x) => x.name === report.worstCorner);
+    // The SVG stack loads only when a histogram is asked for.
+    const { renderHistogram } = await import('../../render/svg/histogram.js');
     emit(io, renderHistogram({
       title: `${design.name}: dead times at ${report.worstCorner}`,
       subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,

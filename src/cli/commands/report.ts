@@ -9,7 +9,7 @@ import { buildReportModel } from '../../render/report-model.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
-import { requireOut } from './draw.js';
+import { requireOut } from './out-options.js';
 import { wholeNumber } from './mc.js';
 import { runMonteCarlo } from '../../analysis/montecarlo.js';
 import { mcReport } from '../../report/mc-report.js';

@@ -7,7 +7,7 @@ import { renderVcd, TIMESCALES, type Timescale } from '../../render/vcd/vcd.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
-import { parseNets, requireOut } from './draw.js';
+import { parseNets, requireOut } from './out-options.js';
 
 export interface WavesOptions extends ModelOptions {
   readonly set: readonly string[];
