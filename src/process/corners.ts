@@ -15,7 +15,7 @@ export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty:
   if (spec.list && (spec.process || spec.vdd || spec.temperature || spec.duty)) {
     throw inputError('corners', Object.keys(spec).join(', '), 'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty');
   }
-  const out: SourcedCorner[] = spec.list ? fromList(spec, card, nominalDuty) : fromAxes(spec, card, nominalDuty);
+  const out: SourcedCorner[] = spec.list ? fromList(spec, nominalDuty) : fromAxes(spec, card, nominalDuty);
   checkCorners(out, card);
   return out;
 }
@@ -44,7 +44,7 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   return out;
 }
 
-function fromList(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
+function fromList(spec: CornersSpec, nominalDuty: number): SourcedCorner[] {
   const list = spec.list ?? [];
   const showDuty = list.some((c) => c.duty !== undefined && c.duty !== nominalDuty);
   return list.map((c, i) => {

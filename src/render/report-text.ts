@@ -1,21 +1,14 @@
 /** Words and numbers of the review page, shared by its HTML and Markdown forms. */
-import type { CornerReport } from '../report/check-report.js';
+import { leastMargin } from '../report/check-report.js';
 import type { ProcessCard } from '../schema/process.js';
-import { formatEngineering, formatTime } from '../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import type { ReportModel } from './report-model.js';
 
 export function signedTime(seconds: number): string {
-  return `${seconds < 0 ? '-' : '+'}${formatTime(Math.abs(seconds))}`;
+  return formatSignedTime(seconds);
 }
 
-export function leastMargin(corner: CornerReport): number | null {
-  let least: number | null = null;
-  for (const c of corner.checks) {
-    if (c.margin === null) return null;
-    if (least === null || c.margin < least) least = c.margin;
-  }
-  return least;
-}
+
 
 export function fmaxText(m: ReportModel): string {
   const f = m.fmax;

@@ -49,6 +49,16 @@ export interface CheckReport {
   readonly cautions: readonly string[];
 }
 
+/** The least margin of a corner's checks, s; null when one could not be measured. */
+export function leastMargin(corner: CornerReport): number | null {
+  let least: number | null = null;
+  for (const c of corner.checks) {
+    if (c.margin === null) return null;
+    if (least === null || c.margin < least) least = c.margin;
+  }
+  return least;
+}
+
 export function cornerReport(result: CornerResult, netNames: readonly string[]): CornerReport {
   const { corner, measurement: m } = result;
   const base = {

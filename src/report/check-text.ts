@@ -1,6 +1,6 @@
 /** The human rendering of a check report: one row per corner, extremes marked, a summary. */
-import { formatEngineering, formatTime } from '../units/format.js';
-import type { CheckReport, CornerReport } from './check-report.js';
+import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { leastMargin, type CheckReport } from './check-report.js';
 import { renderTable, type Column } from './text-table.js';
 
 const MIN_MARK = ' v';
@@ -14,11 +14,7 @@ function ns(seconds: number): string {
   return (seconds * 1e9).toFixed(2);
 }
 
-function signed(seconds: number | null): string {
-  if (seconds === null) return 'n/a';
-  const text = formatTime(Math.abs(seconds));
-  return seconds < 0 ? `-${text}` : `+${text}`;
-}
+const signed = (seconds: number | null) => formatSignedTime(seconds);
 
 /** Index of the smallest and largest finite value of a column. */
 function extremes(values: ReadonlyArray<number | undefined>): { min: number; max: number } {
@@ -30,15 +26,6 @@ function extremes(values: ReadonlyArray<number | undefined>): { min: number; max
     if (max < 0 || v > values[max]!) max = i;
   });
   return { min, max };
-}
-
-function leastMargin(corner: CornerReport): number | null {
-  let least: number | null = null;
-  for (const c of corner.checks) {
-    if (c.margin === null) return null;
-    if (least === null || c.margin < least) least = c.margin;
-  }
-  return least;
 }
 
 export function renderCheckText(report: CheckReport): string {

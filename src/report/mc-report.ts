@@ -1,7 +1,7 @@
 /** The Monte Carlo report: plain data for --json, and its table for people. */
 import { quantileSorted } from 'd3-array';
 import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
-import { formatTime } from '../units/format.js';
+import { formatSignedTime, formatTime } from '../units/format.js';
 import { CAUTIONS } from './cautions.js';
 import { renderTable } from './text-table.js';
 
@@ -101,7 +101,4 @@ export function renderMcText(r: McReport): string {
   return `${lines.join('\n')}\n`;
 }
 
-function signed(x: number): string {
-  if (!Number.isFinite(x)) return '-';
-  return `${x < 0 ? '-' : '+'}${formatTime(Math.abs(x))}`;
-}
+const signed = (x: number) => formatSignedTime(x, '-');

@@ -25,6 +25,12 @@ function trimNumber(value: number, digits: number): string {
   return value.toFixed(decimals);
 }
 
+/** A margin with its sign always shown: +316 ps, -1.20 ns; `fallback` for a missing or infinite value. */
+export function formatSignedTime(seconds: number | null, fallback = 'n/a'): string {
+  if (seconds === null || !Number.isFinite(seconds)) return fallback;
+  return `${seconds < 0 ? '-' : '+'}${formatTime(Math.abs(seconds))}`;
+}
+
 /** Time in picoseconds, rounded to whole ps (used in tables and labels). */
 export function formatPs(seconds: number): string {
   return `${Math.round(seconds * 1e12)} ps`;

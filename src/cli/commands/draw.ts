@@ -27,7 +27,7 @@ export function runDraw(io: Io, designPath: string, options: DrawOptions): numbe
     throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
-  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const results = evaluateAll(resolved);
   if (options.chart === 'margins') {
     emit(io, renderMarginSvg(marginChartInput(resolved, results)), out);

@@ -13,7 +13,7 @@ import type { Io } from '../io.js';
 import { loadDesign, type ModelOptions } from '../load.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
-import { sweepPoint, sweepRows, type SweepSetup } from '../sweep-points.js';
+import { sweepPoint, type SweepSetup } from '../sweep-points.js';
 import { wholeNumber } from './mc.js';
 
 export interface SweepOptions extends ModelOptions {
