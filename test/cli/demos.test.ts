@@ -1,0 +1,28 @@
+import { describe, it, expect } from 'vitest';
+import { cli, design } from '../helpers.js';
+
+interface Report {
+  verdict: string;
+  corners: Array<{ name: string; deadTimes: Array<{ t50: number }> }>;
+}
+
+describe('the free-form netlist demo on the high-threshold card', () => {
+  const run = cli('check', design('lp-netlist'), '--json');
+  const report = JSON.parse(run.stdout) as Report;
+  const dead = (name: string) => report.corners.find((c) => c.name === name)!.deadTimes[0]!.t50;
+
+  it('passes every corner', () => {
+    expect(run.code).toBe(0);
+    expect(report.verdict).toBe('pass');
+    expect(report.corners).toHaveLength(45);
+  });
+
+  it('shows temperature inversion at its lowest supply and not at its highest', () => {
+    expect(dead('ss/0.9V/-40C')).toBeGreaterThan(dead('ss/0.9V/27C'));
+    expect(dead('ss/0.9V/27C')).toBeGreaterThan(dead('ss/0.9V/125C'));
+    // At 1.1 V the gate overdrive is larger; the threshold's fall still wins on this card but by less.
+    const lowRatio = dead('ss/0.9V/-40C') / dead('ss/0.9V/125C');
+    const highRatio = dead('ss/1.1V/-40C') / dead('ss/1.1V/125C');
+    expect(lowRatio).toBeGreaterThan(highRatio);
+  });
+});
