@@ -83,8 +83,11 @@ export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number,
     let end = Infinity;
     let resistance = 0;
     for (const s of members) {
-      start = Math.max(start, alignNear(s.onLatest, ref, period));
-      end = Math.min(end, alignNear(s.offEarliest, ref, period));
+      // Switches of one path turn on together, so their on instants are aligned to one another;
+      // each one's off instant is the first after its own on (a window may exceed half a period).
+      const on = alignNear(s.onLatest, ref, period);
+      start = Math.max(start, on);
+      end = Math.min(end, on + wrap(s.offEarliest - s.onLatest, period));
       resistance += s.ron;
     }
     const window = end - start - windowDerating;

@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { handoverGap } from '../../src/checks/switch-checks.js';
 import type { SwitchConduction } from '../../src/switches/conduction.js';
-import { expectClose, resolveYaml } from '../helpers.js';
+import { cli, design as demoDesign, expectClose, resolveYaml } from '../helpers.js';
 
 const design = (constraints: string, guard = '0') => `
 name: t
@@ -84,5 +84,23 @@ describe('settle', () => {
     const need = Math.log(Math.pow(2, 11)) * a.ron * 1e-12;
     expectClose(small.checks.find((c) => c.kind === 'settle')!.margin!, window - need, 1e-15, 'abs');
     expect(big.checks.find((c) => c.kind === 'settle')!.pass).toBe(false);
+  });
+});
+
+describe('settle with an on-window longer than half a period', () => {
+  it('follows the phase width one for one as the duty grows past 0.5', () => {
+    const at = (duty: number) => {
+      const r = JSON.parse(cli('check', demoDesign('doubler'), '--json', '--set', `corners.duty=[${duty}]`, '--set', 'corners.process=[tt]',
+        '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]').stdout) as {
+        corners: Array<{ widths: Record<string, number>; checks: Array<{ kind: string; margin: number }> }>;
+      };
+      const c = r.corners[0]!;
+      return { width: c.widths.p1!, settle: c.checks.find((k) => k.kind === 'settle')!.margin };
+    };
+    const half = at(0.5);
+    const long = at(0.58);
+    expect(long.width).toBeGreaterThan(25e-9);
+    expect(long.settle).toBeGreaterThan(half.settle);
+    expectClose(long.settle - half.settle, long.width - half.width, 1e-13, 'abs');
   });
 });
