@@ -4,7 +4,11 @@
  * its inputs take back before it happens is swallowed and reported as a glitch.
  *
  * The input clock starts low for one period (the netlist settles from all-low), then rises at
- * t0 + k*T and falls at t0 + (k + duty)*T; a warm start skips that first period. Periods are simulated until two consecutive ones agree
+ * t0 + k*T and falls at t0 + (k + duty)*T; a warm start skips that first period.
+ *
+ * A period is the steady state when the next one is known to repeat it: either its own start and
+ * end states agree with nothing in flight across either boundary (the next period then replays
+ * it event for event), or, when something is in flight, two consecutive periods agree. Periods are simulated until two consecutive ones agree
  * (periodic steady state), or a limit is reached and the result says why it did not settle.
  * One simulator holds its scratch buffers and can be reused across corners and samples.
  */
@@ -76,6 +80,8 @@ export class Simulator {
   private startPrevious: Uint8Array;
   private readonly gateFunction: Array<(bits: number) => 0 | 1>;
   private seq = 0;
+  /** Pending transitions, the clock's next edge included. */
+  private inFlight = 0;
   private readonly glitches: Array<{ net: number; time: number }> = [];
   private readonly warmValues: Uint8Array;
   private warmReady = false;
@@ -115,6 +121,7 @@ export class Simulator {
     let windowEnd = t0;
     let periods = 0;
     let recording = false;
+    let quietStart = false;
     for (;;) {
       // Events before the next window boundary.
       let events = 0;
@@ -130,6 +137,7 @@ export class Simulator {
         const v = this.pendingValue[n]!;
         const trans = this.pendingTrans[n]!;
         this.pendingActive[n] = 0;
+        this.inFlight--;
         this.value[n] = v;
         if (recording) this.current.push(n, time, v, trans);
         if (n === clockNet) {
@@ -142,7 +150,9 @@ export class Simulator {
       }
       if (recording) {
         periods++;
-        if (periods >= 2 && samePeriod(this.previous, this.current, T)) {
+        // Only the clock's next edge is pending at a quiet boundary.
+        const repeats = quietStart && this.inFlight === 1 && sameValues(this.startCurrent, this.value);
+        if (repeats || (periods >= 2 && samePeriod(this.previous, this.current, T))) {
           this.warmValues.set(this.startCurrent);
           this.warmReady = true;
           return {
@@ -166,6 +176,7 @@ export class Simulator {
       this.startPrevious = this.startCurrent;
       this.startCurrent = swapStart;
       this.startCurrent.set(this.value);
+      quietStart = this.inFlight === 1;
       glitchesCurrent.length = 0;
       recording = true;
       windowEnd += T;
@@ -179,10 +190,12 @@ export class Simulator {
     this.current.clear();
     this.previous.clear();
     this.seq = 0;
+    this.inFlight = 0;
   }
 
   private schedule(n: number, time: number, v: number, trans: number): void {
     const seq = ++this.seq;
+    if (this.pendingActive[n] !== 1) this.inFlight++;
     this.pendingActive[n] = 1;
     this.pendingValue[n] = v;
     this.pendingTime[n] = time;
@@ -206,6 +219,7 @@ export class Simulator {
     if (pending) {
       // The inputs took the change back before it reached the output: inertial rejection.
       this.pendingActive[out] = 0;
+      this.inFlight--;
       if (glitches) glitches.push({ net: out, time });
       return;
     }
@@ -221,6 +235,11 @@ export class Simulator {
       glitches: glitches.slice(0, 50), periodsSimulated: periods,
     };
   }
+}
+
+function sameValues(a: Uint8Array, b: Uint8Array): boolean {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** Two periods agree when they hold the same transitions, shifted by one period. */

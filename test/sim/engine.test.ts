@@ -3,7 +3,10 @@ import { Simulator, type SimulationResult } from '../../src/sim/engine.js';
 import { compileNetlist, netId, type CompiledNetlist, type GateSpec } from '../../src/netlist/netlist.js';
 import type { GateTiming } from '../../src/delay/model.js';
 import { measurePhases } from '../../src/measure/phases.js';
-import { expectClose } from '../helpers.js';
+import { design, expectClose } from '../helpers.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { devicesAtCorner } from '../../src/process/device.js';
 
 const ps = 1e-12;
 const T = 10e-9;
@@ -55,13 +58,13 @@ describe('Simulator.run on an inverter chain', () => {
   ]);
   const clock = { period: T, duty: 0.3, transition: 20 * ps };
 
-  it('settles after two recorded periods and reports exact edge times with slew propagated', () => {
+  it('settles after one recorded period when nothing is in flight at its ends, with exact edge times and slew propagated', () => {
     const result = new Simulator(net).run(timing, clock);
     expect(result.status).toBe('settled');
     expect(result.reason).toBe('');
-    expect(result.periodsSimulated).toBe(2);
+    expect(result.periodsSimulated).toBe(1);
     expect(result.period).toBe(T);
-    expectClose(result.windowStart, 2 * T, 1e-18, 'abs');
+    expectClose(result.windowStart, T, 1e-18, 'abs');
     // g0 sees the 20 ps clock edge (+10 ps slope term); g1 sees g0's 50 ps edge (+25 ps).
     expectEdges(edges(result, net), [
       ['clk', 0, 1, 20 * ps],
@@ -161,43 +164,86 @@ describe('Simulator.run failures', () => {
 });
 
 describe('Simulator.run steady state', () => {
+  // Two 4 ns inverters: the clock's fall at 0.5 T reaches n2 at 0.5 T + 8 ns, past the period
+  // boundary, so a transition is always in flight there and two periods are compared. (One
+  // inverter slower than the clock's low time could not do it: inertial delay would swallow it.)
   const net = compile([inv('g0', 'clk', 'n1'), inv('g1', 'n1', 'n2')], ['n1', 'n2']);
   const clock = { period: T, duty: 0.5, transition: 20 * ps };
+  const long = 4e-9;
 
   /**
-   * g0's delay shrinks by 10 ps per call down to 100 ps from the 7th call on. Call 0 is the start-up
-   * settle; recorded period k holds calls 2k-1 and 2k, so periods 4 and 5 are the first two alike.
+   * g0's delay shrinks by 10 ps per call down to `long` from the 7th call on (call 0 is the
+   * start-up settle, then one call per clock edge). Recorded period k uses calls 2k (through n2's
+   * fall carried over from period k-1), 2k+1 and 2k+2, so periods k-1 and k first agree at k = 4:
+   * five recorded periods.
    */
   function slowingTiming(): GateTiming {
     let calls = 0;
     return {
-      delay: (g) => (g === 0 ? 100 * ps + 10 * ps * Math.max(0, 6 - calls++) : 30 * ps),
+      delay: (g) => (g === 0 ? long + 10 * ps * Math.max(0, 6 - calls++) : long),
       transition: () => 40 * ps,
     };
   }
 
-  it('compares the last two periods: it stops at the first pair that agree and reports the later one', () => {
+  it('compares the last two periods when a transition is in flight: it stops at the first pair that agree', () => {
     const result = new Simulator(net).run(slowingTiming(), clock);
     expect(result.status).toBe('settled');
     expect(result.periodsSimulated).toBe(5);
     expectClose(result.windowStart, 5 * T, 1e-18, 'abs');
-    const n1 = edges(result, net).filter((e) => e[0] === 'n1');
-    expectClose(n1[0]![1], 100 * ps, 1e-18, 'abs');
-    expectClose(n1[1]![1], 0.5 * T + 100 * ps, 1e-18, 'abs');
+    expectEdges(edges(result, net), [
+      ['clk', 0, 1, 20 * ps],
+      ['n2', 0.5 * T + 2 * long - T, 0, 40 * ps],
+      ['n1', long, 0, 40 * ps],
+      ['clk', 0.5 * T, 0, 20 * ps],
+      ['n2', 2 * long, 1, 40 * ps],
+      ['n1', 0.5 * T + long, 1, 40 * ps],
+    ]);
+  });
+
+  it('settles a fixed timing with a transition in flight after three recorded periods', () => {
+    // The first period has no carried-over fall of n2 (the clock was low before it), so it differs
+    // from the second; the second and third agree.
+    const fixed = fixedTiming([{ rise: long, fall: long }, { rise: long, fall: long }]);
+    const result = new Simulator(net).run(fixed, clock);
+    expect(result.status).toBe('settled');
+    expect(result.periodsSimulated).toBe(3);
+    expect(edges(result, net).filter((e) => e[0] === 'n2')).toHaveLength(2);
   });
 
   it('gives up at maxPeriods with the counts of the two last periods in the reason', () => {
     const result = new Simulator(net).run(slowingTiming(), clock, { maxPeriods: 4 });
     expect(result.status).toBe('unsettled');
     expect(result.periodsSimulated).toBe(4);
-    expect(result.reason).toBe('no periodic steady state after 4 clock periods (the last two differ: 6 vs 6 transitions; busiest net n1 (2 transitions))');
+    // n2 comes first in the period (its carried-over fall), so it is named among equals.
+    expect(result.reason).toBe('no periodic steady state after 4 clock periods (the last two differ: 6 vs 6 transitions; busiest net n2 (2 transitions))');
   });
 
   it('reuses a simulator cleanly after a failed run', () => {
     const sim = new Simulator(net);
-    const fixed = fixedTiming([{ rise: 100 * ps, fall: 100 * ps }, { rise: 30 * ps, fall: 30 * ps }]);
+    const fixed = fixedTiming([{ rise: long, fall: long }, { rise: long, fall: long }]);
     const fresh = new Simulator(net).run(fixed, clock);
     expect(sim.run(slowingTiming(), clock, { maxPeriods: 3 }).status).toBe('unsettled');
     expect(sim.run(fixed, clock)).toEqual(fresh);
+  });
+});
+
+describe('Simulator.run reported period on the demo design', () => {
+  it('repeats: starting again from its start state reproduces it edge for edge at every corner', () => {
+    const { design: d, card } = loadDesign(design('doubler'));
+    const resolved = resolveDesign(d, card);
+    const sim = new Simulator(resolved.netlist);
+    const clockOf = (duty: number) => ({ period: 1 / d.clock.frequency, duty, transition: d.clock.transition });
+    for (const { corner } of resolved.corners) {
+      const timing = resolved.model.bind(resolved.netlist, resolved.loads, devicesAtCorner(card, corner));
+      const cold = sim.run(timing, clockOf(corner.duty));
+      const warm = sim.run(timing, clockOf(corner.duty), { warm: true });
+      expect(cold.status).toBe('settled');
+      expect(warm.status).toBe('settled');
+      expect(warm.edges.count).toBe(cold.edges.count);
+      for (let i = 0; i < cold.edges.count; i++) {
+        expect(warm.edges.net[i]).toBe(cold.edges.net[i]);
+        expectClose(warm.edges.time[i]! - warm.windowStart, cold.edges.time[i]! - cold.windowStart, 1e-21, 'abs');
+      }
+    }
   });
 });
