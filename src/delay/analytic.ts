@@ -10,7 +10,7 @@
  */
 import { inputError } from '../errors.js';
 import { cellWidths } from '../cells/library.js';
-import { saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
+import { shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { unitWidths } from '../netlist/loads.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
@@ -79,9 +79,10 @@ export const analyticModel: DelayModel = {
       const load = loads[netlist.gateOutput[g]!]!;
       const vthP = mismatch ? p.vth + mismatch.dvthP[g]! : p.vth;
       const vthN = mismatch ? n.vth + mismatch.dvthN[g]! : n.vth;
-      // Without mismatch every gate shares the corner's current per width.
-      const upCurrent = widths.up[g]! * (mismatch ? saturationCurrent(p.driveConstant, p.alpha, vdd - vthP) : p.idsatPerWidth);
-      const downCurrent = widths.down[g]! * (mismatch ? saturationCurrent(n.driveConstant, n.alpha, vdd - vthN) : n.idsatPerWidth);
+      // Without mismatch every gate shares the corner's current per width; a shift dVth scales it
+      // by (1 - dVth/overdrive)^alpha.
+      const upCurrent = widths.up[g]! * p.idsatPerWidth * (mismatch ? shiftFactor(mismatch.dvthP[g]! / (vdd - p.vth), p.alpha) : 1);
+      const downCurrent = widths.down[g]! * n.idsatPerWidth * (mismatch ? shiftFactor(mismatch.dvthN[g]! / (vdd - n.vth), n.alpha) : 1);
       if (!(upCurrent > 0 && downCurrent > 0)) throw cannotTurnOn(upCurrent > 0 ? n : p, upCurrent > 0 ? vthN : vthP, vdd, devices.corner.name);
       const i = g * STRIDE;
       table[i] = rampCoefficient(vthP, vdd, p.alpha);

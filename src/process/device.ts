@@ -58,6 +58,25 @@ export function saturationCurrent(driveConstant: number, alpha: number, overdriv
   return overdrive > 0 ? driveConstant * Math.pow(overdrive, alpha) : 0;
 }
 
+/** Below this |u| the series of (1 - u)^alpha is used; its truncation error is then below 1e-13. */
+const SERIES_LIMIT = 0.04;
+
+/**
+ * (1 - u)^alpha, the factor by which a threshold shift of u times the overdrive scales the
+ * alpha-power current. Small shifts (local mismatch) use the binomial series to the 8th power
+ * instead of Math.pow: the same value to 1e-13 relative, several times faster in Monte Carlo.
+ */
+export function shiftFactor(u: number, alpha: number): number {
+  if (!(Math.abs(u) <= SERIES_LIMIT)) return u < 1 ? Math.pow(1 - u, alpha) : 0;
+  let term = 1;
+  let sum = 1;
+  for (let k = 1; k <= 8; k++) {
+    term *= ((alpha - k + 1) / k) * -u;
+    sum += term;
+  }
+  return sum;
+}
+
 export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corner): DeviceAtCorner {
   const params = card[type];
   const shift = card.corners[corner.process]?.[type];

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import {
-  deviceAtCorner, devicesAtCorner, mobilityScale, saturationCurrent, thresholdAt,
+  deviceAtCorner, devicesAtCorner, mobilityScale, saturationCurrent, shiftFactor, thresholdAt,
 } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { InputError } from '../../src/errors.js';
@@ -96,5 +96,19 @@ describe('deviceAtCorner', () => {
     const error = thrown(() => deviceAtCorner(card, 'p', at('snff', 1.8, 27)));
     expect(error.message).toContain('"snff"');
     expect(error.message).toContain('tt, ss, ff, fs, sf');
+  });
+});
+
+describe('shiftFactor', () => {
+  it('equals (1 - u)^alpha to 1e-13 relative across the series range and beyond it', () => {
+    for (const alpha of [1.05, 1.3, 1.4, 2]) {
+      for (let u = -0.1; u <= 0.1; u += 0.0025) {
+        expectClose(shiftFactor(u, alpha), Math.pow(1 - u, alpha), 1e-13);
+      }
+    }
+  });
+  it('is zero when the shift reaches the whole overdrive (the device cannot turn on)', () => {
+    expect(shiftFactor(1, 1.3)).toBe(0);
+    expect(shiftFactor(1.2, 1.3)).toBe(0);
   });
 });
