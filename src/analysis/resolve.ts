@@ -39,7 +39,8 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const corners = expandCorners(design.corners, card, design.clock.duty);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
-  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements),
+  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements, netlist.source.phases,
+      [...netlist.source.phases, ...Object.values(netlist.source.early)]),
     switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard),
     switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])) };
 }

@@ -19,37 +19,47 @@ export function worstWidth(width: number, context: WidthContext): number {
   return width - context.dutyTolerance * context.period;
 }
 
-/** The requirement values as they appear in check names, formatted once per design. */
+/** Check names, formatted once per design: the evaluator runs for every corner and every die. */
 export interface RequirementLabels {
-  readonly deadMin: string;
-  readonly deadMax: string;
-  readonly gapMin: string;
-  readonly widthMin: string;
+  /** Per dead time, in the generator's order (first phase to second, then back). */
+  readonly deadMin: readonly [string, string];
+  readonly deadMax: readonly [string, string];
+  readonly gapMin: readonly [string, string];
+  /** Per phase or early phase. */
+  readonly widthMin: Readonly<Record<string, string>>;
 }
 
-export function requirementLabels(req: Requirements): RequirementLabels {
+export function requirementLabels(req: Requirements, phases: readonly [string, string], widthNets: readonly string[]): RequirementLabels {
   const show = (v: number | undefined) => (v === undefined ? '' : formatTime(v));
-  return { deadMin: show(req.deadTime?.min), deadMax: show(req.deadTime?.max), gapMin: show(req.gap?.min), widthMin: show(req.width?.min) };
+  const [a, b] = phases;
+  const pair = (what: string, op: string, v: number | undefined): [string, string] =>
+    [`${what} ${a}->${b} ${op} ${show(v)}`, `${what} ${b}->${a} ${op} ${show(v)}`];
+  return {
+    deadMin: pair('dead', '>=', req.deadTime?.min),
+    deadMax: pair('dead', '<=', req.deadTime?.max),
+    gapMin: pair('gap', '>=', req.gap?.min),
+    widthMin: Object.fromEntries(widthNets.map((n) => [n, `width ${n} >= ${show(req.width?.min)}`])),
+  };
 }
 
 export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req: Requirements, context: WidthContext,
-  labels: RequirementLabels = requirementLabels(req)): Check[] {
+  labels: RequirementLabels): Check[] {
   if (!m.ok) return [{ kind: 'steady-state', name: 'periodic steady state', margin: null, pass: false, detail: m.reason }];
   const checks: Check[] = [];
-  const label = (d: { from: string; to: string }) => `${d.from}->${d.to}`;
   checks.push(marginCheck('non-overlap', 'phases never active together', Math.min(m.deadTimes[0].t50, m.deadTimes[1].t50)));
-  for (const d of m.deadTimes) {
-    const min = req.deadTime?.min;
-    const max = req.deadTime?.max;
-    if (min !== undefined) checks.push(marginCheck('dead-time-min', `dead ${label(d)} >= ${labels.deadMin}`, d.t50 - min));
-    if (max !== undefined) checks.push(marginCheck('dead-time-max', `dead ${label(d)} <= ${labels.deadMax}`, max - d.t50));
-    const gap = req.gap?.min;
-    if (gap !== undefined) checks.push(marginCheck('gap-min', `gap ${label(d)} >= ${labels.gapMin}`, d.gap - gap));
+  const min = req.deadTime?.min;
+  const max = req.deadTime?.max;
+  const gap = req.gap?.min;
+  for (let k = 0; k < 2; k++) {
+    const d = m.deadTimes[k]!;
+    if (min !== undefined) checks.push(marginCheck('dead-time-min', labels.deadMin[k]!, d.t50 - min));
+    if (max !== undefined) checks.push(marginCheck('dead-time-max', labels.deadMax[k]!, max - d.t50));
+    if (gap !== undefined) checks.push(marginCheck('gap-min', labels.gapMin[k]!, d.gap - gap));
   }
   const minWidth = req.width?.min;
   if (minWidth !== undefined) {
-    for (const [phase, width] of Object.entries(m.widths)) {
-      checks.push(marginCheck('width-min', `width ${phase} >= ${labels.widthMin}`, worstWidth(width, context) - minWidth));
+    for (const phase in m.widths) {
+      checks.push(marginCheck('width-min', labels.widthMin[phase] ?? `width ${phase}`, worstWidth(m.widths[phase]!, context) - minWidth));
     }
   }
   return checks;
