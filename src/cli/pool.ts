@@ -22,12 +22,17 @@ export interface PoolHandle {
   stop(): void;
 }
 
+/**
+ * With `local`, the calling thread is one of the `threads`: it runs tasks itself between the
+ * messages of `threads - 1` workers (each kept two tasks ahead so it never waits on the caller).
+ */
 export function runPool<T, R>(
   setup: unknown,
   tasks: readonly T[],
   threads: number,
   onResult: (index: number, result: R) => void,
   onStart?: (handle: PoolHandle) => void,
+  local?: (task: T) => R,
 ): Promise<void> {
   return new Promise((resolve, reject) => {
     const script = workerScript();
@@ -40,19 +45,37 @@ export function runPool<T, R>(
       for (const w of workers) void w.terminate();
     };
     const feed = (w: Worker) => {
-      if (stopped) return;
-      if (next >= tasks.length) {
-        void w.terminate();
-        return;
-      }
+      if (stopped || next >= tasks.length) return;
       const index = next++;
       w.postMessage({ index, task: tasks[index] });
     };
-    const count = Math.max(1, Math.min(threads, tasks.length));
     if (tasks.length === 0) {
       resolve();
       return;
     }
+    const finishOne = (): boolean => {
+      done++;
+      if (done < tasks.length) return false;
+      stop();
+      resolve();
+      return true;
+    };
+    const runLocal = () => {
+      if (stopped || next >= tasks.length || !local) return;
+      const index = next++;
+      let result: R;
+      try {
+        result = local(tasks[index]!);
+      } catch (error) {
+        stop();
+        reject(error);
+        return;
+      }
+      onResult(index, result);
+      if (!finishOne()) setImmediate(runLocal);
+    };
+    const count = Math.max(local ? 0 : 1, Math.min(local ? threads - 1 : threads, tasks.length));
+    const ahead = local ? 2 : 1;
     for (let i = 0; i < count; i++) {
       const w = new Worker(script, { workerData: setup, execArgv: [] });
       workers.push(w);
@@ -63,18 +86,15 @@ export function runPool<T, R>(
           return;
         }
         onResult(message.index, message.result as R);
-        done++;
-        if (done === tasks.length) {
-          stop();
-          resolve();
-        } else feed(w);
+        if (!finishOne()) feed(w);
       });
       w.on('error', (error) => {
         stop();
         reject(error);
       });
-      feed(w);
+      for (let k = 0; k < ahead; k++) feed(w);
     }
     onStart?.({ stop: () => { stop(); resolve(); } });
+    setImmediate(runLocal);
   });
 }

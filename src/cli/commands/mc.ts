@@ -67,6 +67,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
         { kind: 'mc', designPath, overrides: options.set, seed, model: { model: options.model, tables: options.tables } }, plan, threads,
         (_i, result) => take(result),
         (handle) => { stopPool = () => handle.stop(); },
+        (task) => runChunk(resolved, seed, task.start, task.count),
       );
     } finally {
       process.removeListener('SIGINT', onSigint);

@@ -13,7 +13,7 @@ import type { Io } from '../io.js';
 import { loadDesign, type ModelOptions } from '../load.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
-import { sweepPoint, type SweepSetup } from '../sweep-points.js';
+import { sweepPoint, sweepRows, type SweepSetup } from '../sweep-points.js';
 import { wholeNumber } from './mc.js';
 
 export interface SweepOptions extends ModelOptions {
@@ -102,7 +102,7 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
           for (const row of waiting.get(nextTask)!) emitRow(row);
           waiting.delete(nextTask++);
         }
-      }, (handle) => { stopPool = () => handle.stop(); });
+      }, (handle) => { stopPool = () => handle.stop(); }, (task) => sweepRows(setup, task.start, task.count));
     }
   } catch (error) {
     bar.stop();
