@@ -7,7 +7,7 @@
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { handoverGap } from '../checks/switch-checks.js';
-import type { SwitchConduction } from '../switches/conduction.js';
+import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, wrapTime, type NetWave } from './waveform.js';
 import { handoverWindows, type TimeWindow } from './windows.js';
@@ -68,13 +68,18 @@ export interface DeadTimeMarks {
   readonly gap: number;
 }
 
+/** A timing constraint between two switch events: break-before-make (off, then on) or an order. */
 export interface BreakBeforeMakeMarks {
+  readonly kind: 'break-before-make' | 'order';
   readonly name: string;
-  /** Switch that stops, switch that starts. */
+  /** The switch whose event comes first, and the one whose event must follow. */
   readonly from: string;
   readonly to: string;
+  readonly fromEvent: 'on' | 'off';
+  readonly toEvent: 'on' | 'off';
+  /** Least time required between the two events (guard or order minimum), s. */
   readonly guard: number;
-  /** value = the time from one stopping to the other starting; the margin is value - guard. */
+  /** value = the time from the first event to the second; the margin is value - guard. */
   readonly marks: readonly SpanMark[];
 }
 
@@ -235,7 +240,33 @@ function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], s
         };
         if (worst === null || mark.value < worst.value) worst = mark;
       }
-      if (worst) out.push({ name: bbm.name ?? `${bbm.between[0]}/${bbm.between[1]}`, from: fromName, to: toName, guard, marks: [worst] });
+      if (worst) {
+        out.push({ kind: 'break-before-make', name: bbm.name ?? `${bbm.between[0]}/${bbm.between[1]}`, from: fromName, to: toName,
+          fromEvent: 'off', toEvent: 'on', guard, marks: [worst] });
+      }
+    }
+  }
+  for (const [k, order] of design.constraints.order.entries()) {
+    let worst: SpanMark | null = null;
+    for (const r of measured) {
+      const a = r.switches.find((s) => s.name === order.first.switch);
+      const b = r.switches.find((s) => s.name === order.then.switch);
+      if (!a || !b || a.status !== 'switching' || b.status !== 'switching') continue;
+      // The worst case the order check takes: the first event as late as it gets, the second as early.
+      const tFirst = order.first.event === 'on' ? a.onLatest : a.off;
+      const tThen = order.then.event === 'on' ? b.on : b.offEarliest;
+      const gap = alignNear(tThen, tFirst, period) - tFirst;
+      const margin = gap - order.min;
+      const start = relative(tFirst, r);
+      const mark: SpanMark = {
+        role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + gap, value: gap, pass: margin >= 0,
+        reason: margin >= 0 ? '' : gap < 0 ? 'the order is reversed' : 'less than the required time',
+      };
+      if (worst === null || mark.value - order.min < worst.value - order.min) worst = mark;
+    }
+    if (worst) {
+      out.push({ kind: 'order', name: order.name ?? `order ${k + 1}`, from: order.first.switch, to: order.then.switch,
+        fromEvent: order.first.event, toEvent: order.then.event, guard: order.min, marks: [worst] });
     }
   }
   return out;

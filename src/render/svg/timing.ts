@@ -354,11 +354,13 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       if (!x) continue;
       const lineY = lane.top + 22;
       const mg = g.group().attr({ class: 'bbm-mark', 'data-from': bbm.from, 'data-to': bbm.to, 'data-corner': mark.corner });
-      const gx = scale(mark.start + bbm.guard) - scale(mark.start);
+      // The guard (or an order's minimum) may reach past the panel: clip the zones to it.
+      const [panelLeft, panelRight] = scale.range() as [number, number];
+      const gx = Math.min(scale(mark.start + bbm.guard), panelRight) - x.xs;
       if (gx > 0) mg.rect(round(gx), 8).move(round(x.xs), round(lineY - 4)).fill(FAINT).attr({ 'fill-opacity': 0.55, class: 'guard' });
       if (!mark.pass) {
-        const lo = Math.min(x.xs, x.xe, x.xs + gx);
-        const hi = Math.max(x.xs, x.xe, x.xs + gx);
+        const lo = Math.max(panelLeft, Math.min(x.xs, x.xe, x.xs + gx));
+        const hi = Math.min(panelRight, Math.max(x.xs, x.xe, x.xs + gx));
         const top = Math.min(fromBand.top, toBand.top);
         const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
         mg.rect(round(Math.max(2, hi - lo)), round(bottom - top)).move(round(lo), round(top)).fill(ctx.hatch).attr({ class: 'bbm-fail' });
@@ -367,13 +369,14 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
       dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
       const centre = (x.xs + x.xe) / 2;
-      const label = `${bbm.from} off to ${bbm.to} on ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
+      const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       drawText(mg, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
         size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', halo: true,
         data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
       });
-      const overlap = mark.value < 0 ? `both conduct for ${psText(-mark.value)} · ` : '';
-      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} (guard ${psText(bbm.guard)})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
+      const overlap = mark.value >= 0 ? '' : bbm.kind === 'order' ? `reversed by ${psText(-mark.value)} · ` : `both conduct for ${psText(-mark.value)} · `;
+      const required = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
+      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
       drawNote(mg, note, centre, lineY + 18, scale, mark.pass);
     }
   }
@@ -408,7 +411,8 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean)
     }
   });
   for (const [name, band] of layout.bbm) {
-    drawText(g, 'break-before-make', x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
+    const kind = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
+    drawText(g, kind, x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
     drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, { size: SIZE.small, anchor: 'end', fill: INK, className: 'bbm-lane-label' });
   }
   if (layout.dead) drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });

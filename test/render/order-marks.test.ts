@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { buildDiagram } from '../../src/render/diagram.js';
+import { renderTimingSvg } from '../../src/render/svg/timing.js';
+import { design } from '../helpers.js';
+import { all, parseSvg } from './svg-dom.js';
+
+function drawn(overrides: string[] = []) {
+  const { design: d, card } = loadDesign(design('sc-integrator'), overrides);
+  const resolved = resolveDesign(d, card);
+  const results = evaluateAll(resolved);
+  const index = results.findIndex((r) => r.corner.name === 'ff/1.98V/-40C');
+  return { result: results[index]!, svg: parseSvg(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index }, 'phases'))) };
+}
+
+describe('order marks on the timing diagram', () => {
+  it('label the bottom-plate order with the time between the two events, its margin equal to the check\'s', () => {
+    const { result, svg } = drawn();
+    const check = result.checks.find((c) => c.kind === 'order')!;
+    const label = all(svg, 'text.bbm-label').find((l) => l.getAttribute('data-from') === 's1e' && l.getAttribute('data-to') === 's1')!;
+    expect(label.textContent).toBe(`s1e off to s1 off ${Math.round((check.margin! + 50e-12) * 1e12)} ps`);
+    expect(Number(label.getAttribute('data-margin'))).toBeCloseTo(check.margin!, 18);
+    expect(all(svg, 'text.bbm-lane-label').some((t) => t.textContent === 'order')).toBe(true);
+  });
+
+  it('hatch and flag an order that is not met', () => {
+    const { result, svg } = drawn(['constraints.order[0].min=2ns']);
+    expect(result.checks.find((c) => c.kind === 'order')!.pass).toBe(false);
+    const label = all(svg, 'text.bbm-label').find((l) => l.getAttribute('data-from') === 's1e' && l.getAttribute('data-to') === 's1')!;
+    expect(label.textContent!.endsWith('\u2715 FAIL')).toBe(true);
+    expect(all(svg, 'rect.bbm-fail').length).toBeGreaterThan(0);
+  });
+});
