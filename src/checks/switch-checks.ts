@@ -28,6 +28,31 @@ function unmeasurable(kind: Check['kind'], name: string, who: readonly SwitchCon
   return bad ? { kind, name, margin: null, pass: false, detail: bad.detail } : null;
 }
 
+/**
+ * The time every switch of a series path conducts together, s, from its latest common turn-on to
+ * its earliest turn-off, less `derating`; and the path's worst on-resistance, ohm.
+ */
+export function settleWindow(members: readonly SwitchConduction[], period: number, derating = 0): { start: number; end: number; window: number; resistance: number } {
+  const ref = members[0]!.onLatest;
+  let start = -Infinity;
+  let end = Infinity;
+  let resistance = 0;
+  for (const s of members) {
+    // Switches of one path turn on together, so their on instants are aligned to one another;
+    // each one's off instant is the first after its own on (a window may exceed half a period).
+    const on = alignNear(s.onLatest, ref, period);
+    start = Math.max(start, on);
+    end = Math.min(end, on + wrap(s.offEarliest - s.onLatest, period));
+    resistance += s.ron;
+  }
+  return { start, end, window: end - start - derating, resistance };
+}
+
+/** On-time a settle path needs, ln(1/epsilon) * R_on,total * C, s. */
+export function settleTime(path: ConstraintsSpec['settle'][number], resistance: number): number {
+  return settlingTimeConstants(path.error ?? bitsToError(path.bits!)) * resistance * path.capacitance;
+}
+
 /** Display names of every switch constraint, in the order switchChecks emits them; computed once per design. */
 export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: number): string[] {
   return [
@@ -74,24 +99,11 @@ export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number,
   }
   for (const path of constraints.settle) {
     const members = path.switches.map(get);
-    const epsilon = path.error ?? bitsToError(path.bits!);
     const name = names[slot++]!;
     const bad = unmeasurable('settle', name, members);
     if (bad) { checks.push(bad); continue; }
-    const ref = members[0]!.onLatest;
-    let start = -Infinity;
-    let end = Infinity;
-    let resistance = 0;
-    for (const s of members) {
-      // Switches of one path turn on together, so their on instants are aligned to one another;
-      // each one's off instant is the first after its own on (a window may exceed half a period).
-      const on = alignNear(s.onLatest, ref, period);
-      start = Math.max(start, on);
-      end = Math.min(end, on + wrap(s.offEarliest - s.onLatest, period));
-      resistance += s.ron;
-    }
-    const window = end - start - windowDerating;
-    const needed = settlingTimeConstants(epsilon) * resistance * path.capacitance;
+    const { window, resistance } = settleWindow(members, period, windowDerating);
+    const needed = settleTime(path, resistance);
     const margin = window - needed;
     checks.push(Number.isFinite(margin)
       ? { kind: 'settle', name, margin, pass: margin >= 0 }

@@ -6,7 +6,7 @@
  */
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
-import { handoverGap } from '../checks/switch-checks.js';
+import { handoverGap, settleTime, settleWindow } from '../checks/switch-checks.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, wrapTime, type NetWave } from './waveform.js';
@@ -83,6 +83,19 @@ export interface BreakBeforeMakeMarks {
   readonly marks: readonly SpanMark[];
 }
 
+/** A settle path's common on-window at its worst corner and the time it needs. */
+export interface SettleMark {
+  readonly name: string;
+  readonly corner: string;
+  /** Start and end of the on-window, s from the window start of the reported period. */
+  readonly start: number;
+  readonly end: number;
+  /** On-time needed, s (ln(1/epsilon) * R_on * C); end - start - derating - needed is the margin. */
+  readonly needed: number;
+  readonly margin: number;
+  readonly pass: boolean;
+}
+
 export interface Diagram {
   readonly design: string;
   readonly mode: 'corner' | 'all';
@@ -98,6 +111,7 @@ export interface Diagram {
   readonly switches: readonly SwitchRow[];
   readonly deadTimes: readonly DeadTimeMarks[];
   readonly breakBeforeMake: readonly BreakBeforeMakeMarks[];
+  readonly settle: readonly SettleMark[];
   readonly windows: readonly [TimeWindow, TimeWindow];
   /** Corners left out of an overlay and why. */
   readonly excluded: ReadonlyArray<{ readonly corner: string; readonly reason: string }>;
@@ -127,6 +141,7 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
   const switches = switchRows(resolved, measured, reference);
   const deadTimes = deadTimeMarks(resolved, measured, choice.kind === 'corner');
   const breakBeforeMake = bbmMarks(resolved, measured, choice.kind === 'corner');
+  const settle = settleMarks(resolved, measured);
   const clockFall = reference.corner.duty * period;
   const events: Array<{ t: number; lo: number; hi: number }> = [];
   for (const row of rows) {
@@ -148,6 +163,7 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
     switches,
     deadTimes,
     breakBeforeMake,
+    settle,
     windows: handoverWindows(period, clockFall, events),
     excluded,
   };
@@ -268,6 +284,30 @@ function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], s
       out.push({ kind: 'order', name: order.name ?? `order ${k + 1}`, from: order.first.switch, to: order.then.switch,
         fromEvent: order.first.event, toEvent: order.then.event, guard: order.min, marks: [worst] });
     }
+  }
+  return out;
+}
+
+/** Each settle path at the corner where its margin is least (the same window and need the check uses). */
+function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]): SettleMark[] {
+  const { design } = resolved;
+  const period = 1 / design.clock.frequency;
+  const derating = design.clock.dutyTolerance * period;
+  const out: SettleMark[] = [];
+  for (const path of design.constraints.settle) {
+    let worst: SettleMark | null = null;
+    for (const r of measured) {
+      const members = path.switches.map((name) => r.switches.find((s) => s.name === name));
+      if (members.some((m) => !m || m.status !== 'switching')) continue;
+      const w = settleWindow(members as SwitchConduction[], period, derating);
+      const needed = settleTime(path, w.resistance);
+      if (!Number.isFinite(needed)) continue;
+      const margin = w.window - needed;
+      const start = relative(w.start, r);
+      const mark: SettleMark = { name: path.name, corner: r.corner.name, start, end: start + (w.end - w.start), needed, margin, pass: margin >= 0 };
+      if (worst === null || margin < worst.margin) worst = mark;
+    }
+    if (worst) out.push(worst);
   }
   return out;
 }

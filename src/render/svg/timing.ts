@@ -9,7 +9,7 @@ import { scaleLinear, type ScaleLinear } from 'd3-scale';
 import type { Diagram, DiagramRow, SpanMark, SwitchRow } from '../diagram.js';
 import type { TimeWindow } from '../windows.js';
 import { wavePoints } from '../waveform.js';
-import { formatTime } from '../../units/format.js';
+import { formatSignedTime, formatTime } from '../../units/format.js';
 import {
   CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
 } from '../palette.js';
@@ -34,6 +34,8 @@ const PANEL_GAP = 36;
 const TITLE_HEIGHT = 92;
 const OVERVIEW = { row: 26, lane: 16 } as const;
 const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
+/** Height of a settle-path lane in the whole-period panel, px. */
+const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
 
 /** Dead-time and break-before-make values as shown: whole picoseconds. */
@@ -64,6 +66,8 @@ interface Layout {
   readonly switches: readonly Band[];
   readonly dead: Band | null;
   readonly bbm: ReadonlyMap<string, Band>;
+  /** Settle-path lanes (whole-period panel only), in the order of Diagram.settle. */
+  readonly settle: readonly Band[];
   readonly bottom: number;
 }
 
@@ -102,7 +106,8 @@ function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number 
       y += DETAIL.bbm;
     }
   }
-  return { signal, switches, dead, bbm, bottom: y };
+  const settle = detail ? [] : d.settle.map(() => { const b = { top: y, height: SETTLE_LANE }; y += SETTLE_LANE; return b; });
+  return { signal, switches, dead, bbm, settle, bottom: y };
 }
 
 export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): string {
@@ -208,7 +213,41 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   if (detail) {
     drawDeadMarks(ctx, panel, w, scale, layout);
     drawBbmMarks(ctx, panel, w, scale, layout);
-  }
+  } else drawSettleMarks(ctx, panel, scale, layout);
+}
+
+/**
+ * Each settle path in the whole period: its common on-window as an outlined bar, the on-time it
+ * needs as a solid bar from the same start, and a line with the numbers; a shortfall is hatched.
+ */
+function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>, layout: Layout): void {
+  const T = ctx.d.period;
+  ctx.d.settle.forEach((mark, i) => {
+    const band = layout.settle[i];
+    if (!band) return;
+    const sg = g.group().attr({ class: 'settle-mark', 'data-path': mark.name, 'data-corner': mark.corner, 'data-margin': String(mark.margin) });
+    const barY = band.top + 24;
+    // A window may run past the period's end: draw it in two pieces.
+    const pieces = (from: number, to: number): Array<[number, number]> => {
+      const a = ((from % T) + T) % T;
+      const b = a + (to - from);
+      return b <= T ? [[a, b]] : [[a, T], [0, b - T]];
+    };
+    for (const [a, b] of pieces(mark.start, mark.end)) {
+      sg.rect(round(Math.max(1, scale(b) - scale(a))), 10).move(round(scale(a)), round(barY)).fill(PAPER).stroke({ color: INK, width: 1 }).attr({ class: 'settle-window' });
+    }
+    for (const [a, b] of pieces(mark.start, mark.start + Math.min(mark.needed, T))) {
+      sg.rect(round(Math.max(1, scale(b) - scale(a))), 4).move(round(scale(a)), round(barY + 3))
+        .fill(mark.pass ? INK : ctx.hatch).attr({ class: 'settle-needed' });
+    }
+    const raw = mark.end - mark.start;
+    const usable = mark.margin + mark.needed;
+    const worstDuty = Math.abs(raw - usable) > 1e-15 ? ` (${formatTime(usable)} at the worst duty)` : '';
+    const text = `${mark.name}: on together ${formatTime(raw)}${worstDuty}, needs ${formatTime(mark.needed)}, margin ${formatSignedTime(mark.margin)}`
+      + `${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
+    const [px0] = scale.range() as [number, number];
+    drawText(sg, text, px0 + 4, band.top + 16, { size: SIZE.annotation, fill: mark.pass ? INK : FAIL, bold: !mark.pass, className: 'settle-label', halo: true });
+  });
 }
 
 function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, detail: boolean): void {
@@ -416,6 +455,10 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean)
     drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, { size: SIZE.small, anchor: 'end', fill: INK, className: 'bbm-lane-label' });
   }
   if (layout.dead) drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
+  layout.settle.forEach((band, i) => {
+    drawText(g, 'settle', x, band.top + 16, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'settle-lane-label' });
+    drawText(g, truncate(ctx.d.settle[i]!.name, SIZE.small, room, false), x, band.top + 31, { size: SIZE.small, anchor: 'end', fill: INK, className: 'settle-lane-label' });
+  });
 }
 
 function drawLegend(ctx: Context, x: number, y: number, width: number): void {

@@ -33,3 +33,30 @@ describe('order marks on the timing diagram', () => {
     expect(all(svg, 'rect.bbm-fail').length).toBeGreaterThan(0);
   });
 });
+
+describe('settle marks on the whole-period panel', () => {
+  function doubler(overrides: string[] = []) {
+    const { design: d, card } = loadDesign(design('doubler'), overrides);
+    const resolved = resolveDesign(d, card);
+    const results = evaluateAll(resolved);
+    const index = results.findIndex((r) => r.corner.name === 'ss/1.62V/125C');
+    return { result: results[index]!, svg: parseSvg(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index }, 'phases'))) };
+  }
+
+  it('carry the check\'s margin and name the path, the common on-time and the time needed', () => {
+    const { result, svg } = doubler();
+    const check = result.checks.find((c) => c.kind === 'settle')!;
+    const mark = all(svg, 'g.settle-mark')[0]!;
+    expect(mark.getAttribute('data-path')).toBe('flying-cap charge');
+    expect(Number(mark.getAttribute('data-margin'))).toBeCloseTo(check.margin!, 18);
+    const label = all(svg, 'text.settle-label')[0]!.textContent!;
+    expect(label).toMatch(/^flying-cap charge: on together [\d.]+ ns \([\d.]+ ns at the worst duty\), needs [\d.]+ ns, margin \+[\d.]+ ns$/);
+  });
+
+  it('hatch and flag a path that cannot settle', () => {
+    const { result, svg } = doubler(['constraints.settle[0].capacitance=40pF']);
+    expect(result.checks.find((c) => c.kind === 'settle')!.pass).toBe(false);
+    expect(all(svg, 'text.settle-label')[0]!.textContent!.endsWith('\u2715 FAIL')).toBe(true);
+    expect(all(svg, 'rect.settle-needed').some((r) => (r.getAttribute('fill') ?? '').startsWith('url('))).toBe(true);
+  });
+});
