@@ -35,30 +35,44 @@ export class CornerEvaluator {
    * `warm` starts each simulation from the previous one's steady state: for many runs of one
    * corner with small changes (Monte Carlo dies), never across corners.
    */
-  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false, private readonly warm = false) {
+  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false, warm = false) {
     this.simulator = new Simulator(resolved.netlist);
+    const { clock } = resolved.design;
+    this.period = 1 / clock.frequency;
+    this.widthContext = { period: this.period, dutyTolerance: clock.dutyTolerance };
+    this.runOptions = { borrow, warm };
+    this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
   }
+
+  /** Clock period, s, and the per-run settings, made once. */
+  private readonly period: number;
+  private readonly widthContext: { readonly period: number; readonly dutyTolerance: number };
+  private readonly runOptions: { readonly borrow: boolean; readonly warm: boolean };
+  /** Switch conduction of the evaluation in progress, looked up by name for the constraints. */
+  private current: readonly SwitchConduction[] = [];
+  private readonly switchByName: (name: string) => SwitchConduction;
 
   evaluate(corner: Corner, mismatch?: SampleMismatch, devices = devicesAtCorner(this.resolved.card, corner)): CornerResult {
     const { design, netlist, loads, model } = this.resolved;
     const timing = model.bind(netlist, loads, devices, mismatch, this.borrow ? this.timing : undefined);
     if (this.borrow) this.timing = timing;
-    const period = 1 / design.clock.frequency;
-    const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, { borrow: this.borrow, warm: this.warm });
+    const period = this.period;
+    const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, this.runOptions);
     const cycles = this.borrow && this.cycles ? this.cycles.reset(simulation) : new CycleIndex(simulation, netlist);
     if (this.borrow) this.cycles = cycles;
     const measurement = measurePhases(simulation, netlist, cycles);
-    const checks = requirementChecks(measurement, design.requirements, { period, dutyTolerance: design.clock.dutyTolerance }, this.resolved.labels);
-    const switches = measurement.ok
-      ? this.resolved.switches.map((plan, k) => switchConduction(plan, cycles, devices, mismatch?.switches[k]))
-      : [];
+    const checks = requirementChecks(measurement, design.requirements, this.widthContext, this.resolved.labels);
+    const switches: SwitchConduction[] = [];
     if (measurement.ok) {
-      const index = this.resolved.switchIndex;
-      const byName = (name: string) => switches[index.get(name)!]!;
-      checks.push(...switchChecks(design.constraints, design.requirements.guard, byName, period, design.clock.dutyTolerance * period,
-        this.resolved.switchCheckNames));
+      const plans = this.resolved.switches;
+      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, devices, mismatch?.switches[k]));
+      this.current = switches;
+      switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
+        this.resolved.switchCheckNames, checks);
     }
-    return { corner, simulation, measurement, switches, checks, pass: checks.every((c) => c.pass) };
+    let pass = true;
+    for (const c of checks) if (!c.pass) { pass = false; break; }
+    return { corner, simulation, measurement, switches, checks, pass };
   }
 }
 

@@ -68,13 +68,12 @@ export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: num
 }
 
 /**
- * All switch constraints at one corner. `windowDerating` (s) shortens every on-window for settling:
- * the input duty error moves a phase's width one for one.
+ * All switch constraints at one corner, appended to `checks` (which is returned). `windowDerating`
+ * (s) shortens every on-window for settling: the input duty error moves a phase's width one for one.
  */
 export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction> | ((name: string) => SwitchConduction),
-  period: number, windowDerating = 0, names: readonly string[] = switchCheckNames(constraints, defaultGuard)): Check[] {
+  period: number, windowDerating = 0, names: readonly string[] = switchCheckNames(constraints, defaultGuard), checks: Check[] = []): Check[] {
   const get = typeof byName === 'function' ? byName : (name: string) => byName.get(name)!;
-  const checks: Check[] = [];
   let slot = 0;
   for (const bbm of constraints.breakBeforeMake) {
     const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];

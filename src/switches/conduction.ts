@@ -65,10 +65,6 @@ function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex
   };
 }
 
-function deviceAt(kind: 'n' | 'p', devices: CornerDevices): DeviceAtCorner {
-  return kind === 'n' ? devices.n : devices.p;
-}
-
 /**
  * Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven;
  * `dvth` is a local mismatch shift of its threshold magnitude, V.
@@ -113,42 +109,55 @@ function union(a: Interval, b: Interval, period: number): Interval {
 export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
-  const failed = (status: SwitchConduction['status'], detail: string): SwitchConduction =>
-    ({ name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity });
+  const count = plan.devices.length;
   const waves: GateWave[] = [];
-  for (const device of plan.devices) {
-    const wave = gateWave(plan, device, cycles, vdd);
-    if (typeof wave === 'string') return failed('unknown', wave);
+  for (let i = 0; i < count; i++) {
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd);
+    if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
   const vMin = levelAt(plan.signal.min, vdd);
   const vMax = levelAt(plan.signal.max, vdd);
   // A single device's turn-on level and resistance are monotonic in the signal, so its range ends
   // bound it; a tgate's resistance peaks inside the range, so it is sampled across.
-  const points = vMin === vMax ? 1 : plan.devices.length === 1 ? 2 : SIGNAL_POINTS;
+  const points = vMin === vMax ? 1 : count === 1 ? 2 : SIGNAL_POINTS;
   let on = NaN; let off = NaN; let onLatest = NaN; let offEarliest = NaN;
   let ron = 0;
   for (let k = 0; k < points; k++) {
     const vs = points === 1 ? vMin : vMin + ((vMax - vMin) * k) / (points - 1);
-    let interval: Interval = { state: 'never', on: NaN, off: NaN };
+    let interval: Interval = NEVER;
     let conductance = 0;
-    plan.devices.forEach((device, i) => {
+    for (let i = 0; i < count; i++) {
+      const device = plan.devices[i]!;
       const wave = waves[i]!;
-      const d = deviceAt(device.kind, devices);
+      const d = device.kind === 'n' ? devices.n : devices.p;
       const { level, overdrive } = deviceLevels(plan, device, d, vs, wave.rise.low, wave.rise.high, vdd, dvth ? dvth[i]! : 0);
-      interval = union(interval, deviceInterval(device, wave, level), T);
+      const own = deviceInterval(device, wave, level);
+      interval = i === 0 ? own : union(interval, own, T);
       const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
       if (Number.isFinite(r)) conductance += 1 / r;
-    });
-    if (interval.state === 'never') return failed('never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
-    if (interval.state === 'always') return failed('always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
-    const onK = Number.isNaN(on) ? interval.on : alignNear(interval.on, on, T);
-    const offK = Number.isNaN(off) ? interval.off : alignNear(interval.off, off, T);
-    on = Number.isNaN(on) ? onK : Math.min(on, onK);
-    off = Number.isNaN(off) ? offK : Math.max(off, offK);
-    onLatest = Number.isNaN(onLatest) ? onK : Math.max(onLatest, onK);
-    offEarliest = Number.isNaN(offEarliest) ? offK : Math.min(offEarliest, offK);
-    ron = Math.max(ron, conductance > 0 ? 1 / conductance : Infinity);
+    }
+    if (interval.state === 'never') return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
+    if (interval.state === 'always') return failed(plan, 'always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
+    if (k === 0) {
+      on = onLatest = interval.on;
+      off = offEarliest = interval.off;
+    } else {
+      const onK = alignNear(interval.on, on, T);
+      const offK = alignNear(interval.off, off, T);
+      if (onK < on) on = onK;
+      if (onK > onLatest) onLatest = onK;
+      if (offK > off) off = offK;
+      if (offK < offEarliest) offEarliest = offK;
+    }
+    const r = conductance > 0 ? 1 / conductance : Infinity;
+    if (r > ron) ron = r;
   }
   return { name: plan.name, type: plan.type, status: 'switching', detail: '', on, off, onLatest, offEarliest, ron };
+}
+
+const NEVER: Interval = { state: 'never', on: NaN, off: NaN };
+
+function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: string): SwitchConduction {
+  return { name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity };
 }
