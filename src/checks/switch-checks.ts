@@ -7,20 +7,15 @@ import { formatTime } from '../units/format.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { bitsToError, settlingTimeConstants } from '../switches/physics.js';
 import type { Check } from './check.js';
+import { handover, wrapTime } from '../measure/phases.js';
 
-function wrap(x: number, m: number): number {
-  const r = x % m;
-  return r < 0 ? r + m : r;
-}
 
 /**
  * Time from `a` stopping to `b` starting, s: positive when b starts while a is off, minus the
  * overlap when b starts while a is still on.
  */
 export function handoverGap(a: SwitchConduction, b: SwitchConduction, period: number): number {
-  const offTime = wrap(a.on - a.off, period);
-  const wait = wrap(b.on - a.off, period);
-  return wait <= offTime ? wait : -wrap(a.off - b.on, period);
+  return handover(a.off, a.on, b.on, period);
 }
 
 function unmeasurable(kind: Check['kind'], name: string, who: readonly SwitchConduction[]): Check | null {
@@ -42,7 +37,7 @@ export function settleWindow(members: readonly SwitchConduction[], period: numbe
     // each one's off instant is the first after its own on (a window may exceed half a period).
     const on = alignNear(s.onLatest, ref, period);
     start = Math.max(start, on);
-    end = Math.min(end, on + wrap(s.offEarliest - s.onLatest, period));
+    end = Math.min(end, on + wrapTime(s.offEarliest - s.onLatest, period));
     resistance += s.ron;
   }
   return { start, end, window: end - start - derating, resistance };

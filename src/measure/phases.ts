@@ -117,15 +117,27 @@ export class CycleIndex {
   }
 }
 
-/** Positive remainder of x modulo m. */
-function wrap(x: number, m: number): number {
+/** Positive remainder of x modulo m: a time folded into one period. */
+export function wrapTime(x: number, m: number): number {
   const r = x % m;
   return r < 0 ? r + m : r;
 }
 
+/**
+ * Time from one thing stopping (at `stop`, next starting again at `restart`) to another starting
+ * (at `start`), all modulo the period: the positive wait when the other starts while the first is
+ * off, minus the overlap when it starts while the first is still on. Dead times between phases and
+ * gaps between switches are both this.
+ */
+export function handover(stop: number, restart: number, start: number, period: number): number {
+  const offTime = wrapTime(restart - stop, period);
+  const wait = wrapTime(start - stop, period);
+  return wait <= offTime ? wait : -wrapTime(stop - start, period);
+}
+
 /** Active (high) width of a cycle, s. */
 export function highWidth(cycle: NetCycle, period: number): number {
-  return wrap(cycle.fall - cycle.rise, period);
+  return wrapTime(cycle.fall - cycle.rise, period);
 }
 
 /**
@@ -133,9 +145,7 @@ export function highWidth(cycle: NetCycle, period: number): number {
  * the (positive) wait; if b rises while a is still high, it is minus the time they overlap.
  */
 export function deadTime(a: NetCycle, b: NetCycle, period: number): DeadTime {
-  const lowA = wrap(a.rise - a.fall, period);
-  const wait = wrap(b.rise - a.fall, period);
-  const t50 = wait <= lowA ? wait : -wrap(a.fall - b.rise, period);
+  const t50 = handover(a.fall, a.rise, b.rise, period);
   const gap = t50 - (0.5 - GAP_LEVEL) * (a.fallTransition + b.riseTransition);
   return { from: a.net, to: b.net, t50, gap, start: a.fall };
 }

@@ -9,7 +9,8 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { handoverGap, settleTime, settleWindow } from '../checks/switch-checks.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
-import { netWave, wrapTime, type NetWave } from './waveform.js';
+import { netWave, type NetWave } from './waveform.js';
+import { wrapTime } from '../measure/phases.js';
 import { handoverWindows, type TimeWindow } from './windows.js';
 
 export interface CornerWave {

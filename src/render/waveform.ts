@@ -109,8 +109,3 @@ function clip(points: readonly WavePoint[], from: number, to: number): WavePoint
   return out;
 }
 
-/** Positive remainder of x modulo m. */
-export function wrapTime(x: number, m: number): number {
-  const r = x % m;
-  return r < 0 ? r + m : r;
-}

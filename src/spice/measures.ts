@@ -5,6 +5,7 @@
  * edge). Measurement windows open at the clock edge that precedes each event in the model's
  * steady-state period, so one deck needs no second pass.
  */
+import { wrapTime } from '../measure/phases.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PhaseMeasurement } from '../measure/phases.js';
 import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
@@ -46,10 +47,6 @@ export interface DeckWindow {
   readonly duty: number;
 }
 
-function wrap(x: number, m: number): number {
-  const r = x % m;
-  return r < 0 ? r + m : r;
-}
 
 /** The clock 50 % edge (rising or falling) at or before a time on the deck's axis. */
 export function anchorBefore(time: number, window: DeckWindow): number {
@@ -74,7 +71,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   const vdd = devices.vdd;
   const T = window.period;
   // Model time -> deck time: the model's reported period maps onto the deck's window.
-  const toDeck = (t: number) => window.start + wrap(t - ctx.result.windowStart, T);
+  const toDeck = (t: number) => window.start + wrapTime(t - ctx.result.windowStart, T);
   const crossing = (net: string, level: number, rising: boolean, deckTime: number): Crossing =>
     ({ node: ctx.node(net), level, rising, td: Math.max(0, anchorBefore(deckTime, window)) });
   const out: Quantity[] = [];
@@ -120,7 +117,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
           : [['on', fall, false], ['off', rise, true]];
         for (const [event, time, rising] of events) {
           const at = toDeck(time);
-          const clockEdge = at - wrap(at - window.start, T);
+          const clockEdge = at - wrapTime(at - window.start, T);
           k++;
           out.push({
             name: `sw_${k}`, kind: 'switch',

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { rampsBetween, wavePoints, wrapTime, type NetWave } from '../../src/render/waveform.js';
+import { rampsBetween, wavePoints, type NetWave } from '../../src/render/waveform.js';
+import { wrapTime } from '../../src/measure/phases.js';
 import { expectClose } from '../helpers.js';
 
 const T = 10e-9;
