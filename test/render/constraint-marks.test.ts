@@ -7,13 +7,16 @@ import { renderTimingSvg } from '../../src/render/svg/timing.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
-function drawn(overrides: string[] = []) {
-  const { design: d, card } = loadDesign(design('sc-integrator'), overrides);
+/** One corner of a demo design drawn, with that corner's results. */
+function drawCorner(name: string, corner: string, overrides: string[] = []) {
+  const { design: d, card } = loadDesign(design(name), overrides);
   const resolved = resolveDesign(d, card);
   const results = evaluateAll(resolved);
-  const index = results.findIndex((r) => r.corner.name === 'ff/1.98V/-40C');
+  const index = results.findIndex((r) => r.corner.name === corner);
   return { result: results[index]!, svg: parseSvg(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index }, 'phases'))) };
 }
+
+const drawn = (overrides: string[] = []) => drawCorner('sc-integrator', 'ff/1.98V/-40C', overrides);
 
 describe('order marks on the timing diagram', () => {
   it('label the bottom-plate order with the time between the two events, its margin equal to the check\'s', () => {
@@ -35,13 +38,7 @@ describe('order marks on the timing diagram', () => {
 });
 
 describe('settle marks on the whole-period panel', () => {
-  function doubler(overrides: string[] = []) {
-    const { design: d, card } = loadDesign(design('doubler'), overrides);
-    const resolved = resolveDesign(d, card);
-    const results = evaluateAll(resolved);
-    const index = results.findIndex((r) => r.corner.name === 'ss/1.62V/125C');
-    return { result: results[index]!, svg: parseSvg(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index }, 'phases'))) };
-  }
+  const doubler = (overrides: string[] = []) => drawCorner('doubler', 'ss/1.62V/125C', overrides);
 
   it('carry the check\'s margin and name the path, the common on-time and the time needed', () => {
     const { result, svg } = doubler();
