@@ -18,7 +18,10 @@ function workerScript(): string {
 }
 
 export interface PoolHandle {
-  /** Terminates the threads; pending tasks are dropped. */
+  /**
+   * Terminates the threads; pending tasks are dropped, and so are results already on their way
+   * back: after stop() returns, onResult is not called again.
+   */
   stop(): void;
 }
 
@@ -80,6 +83,8 @@ export function runPool<T, R>(
       const w = new Worker(script, { workerData: setup, execArgv: [] });
       workers.push(w);
       w.on('message', (message: { index: number; result?: R; error?: string; issues?: InputIssue[] }) => {
+        // A thread may have posted before it was terminated; its message still arrives.
+        if (stopped) return;
         if (message.error !== undefined) {
           stop();
           reject(message.issues ? new InputError(message.issues) : new Error(message.error));
@@ -89,6 +94,7 @@ export function runPool<T, R>(
         if (!finishOne()) feed(w);
       });
       w.on('error', (error) => {
+        if (stopped) return;
         stop();
         reject(error);
       });
