@@ -33,21 +33,22 @@ export class CornerEvaluator {
 
   /**
    * `warm` starts each simulation from the previous one's steady state: for many runs of one
-   * corner with small changes (Monte Carlo dies), never across corners.
+   * corner with small changes (Monte Carlo dies), never across corners. A warm evaluator also
+   * replays the previous steady period where that provably gives the simulation's answer.
    */
   constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false, warm = false) {
     this.simulator = new Simulator(resolved.netlist);
     const { clock } = resolved.design;
     this.period = 1 / clock.frequency;
     this.widthContext = { period: this.period, dutyTolerance: clock.dutyTolerance };
-    this.runOptions = { borrow, warm };
+    this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
   }
 
   /** Clock period, s, and the per-run settings, made once. */
   private readonly period: number;
   private readonly widthContext: { readonly period: number; readonly dutyTolerance: number };
-  private readonly runOptions: { readonly borrow: boolean; readonly warm: boolean };
+  private readonly runOptions: { readonly borrow: boolean; readonly warm: boolean; readonly replay: boolean };
   /** Switch conduction of the evaluation in progress, looked up by name for the constraints. */
   private current: readonly SwitchConduction[] = [];
   private readonly switchByName: (name: string) => SwitchConduction;

@@ -84,6 +84,19 @@ class CornerAccumulator {
   }
 }
 
+/** Names of the measured quantities, made once per chunk rather than once per die. */
+function measureNames(resolved: ResolvedDesign) {
+  const src = resolved.netlist.source;
+  const [a, b] = src.phases;
+  const widthNets = [a, b, ...Object.values(src.early)];
+  return {
+    dead: [`dead ${a}->${b}`, `dead ${b}->${a}`],
+    gap: [`gap ${a}->${b}`, `gap ${b}->${a}`],
+    widthNets,
+    width: Object.fromEntries(widthNets.map((n) => [n, `width ${n}`])) as Record<string, string>,
+  };
+}
+
 /** Evaluates dies [start, start + count) at every corner. Pure: same inputs, same result. */
 export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number): ChunkResult {
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
@@ -95,6 +108,7 @@ export function runChunk(resolved: ResolvedDesign, seed: number, start: number, 
   const dead0 = corners.map(() => new Float64Array(count));
   const dead1 = corners.map(() => new Float64Array(count));
   const failedSomewhere = new Uint8Array(count);
+  const names = measureNames(resolved);
   // Corner by corner, so each simulation starts warm from the previous die at the same corner.
   for (let c = 0; c < corners.length; c++) {
     const evaluator = new CornerEvaluator(resolved, true, true);
@@ -114,11 +128,12 @@ export function runChunk(resolved: ResolvedDesign, seed: number, start: number, 
       }
       const m = r.measurement;
       if (m.ok) {
-        for (const d of m.deadTimes) {
-          a.add(slot++, `dead ${d.from}->${d.to}`, 'measure', d.t50);
-          a.add(slot++, `gap ${d.from}->${d.to}`, 'measure', d.gap);
+        for (let k = 0; k < 2; k++) {
+          const d = m.deadTimes[k]!;
+          a.add(slot++, names.dead[k]!, 'measure', d.t50);
+          a.add(slot++, names.gap[k]!, 'measure', d.gap);
         }
-        for (const phase in m.widths) a.add(slot++, `width ${phase}`, 'measure', m.widths[phase]!);
+        for (const phase of names.widthNets) a.add(slot++, names.width[phase]!, 'measure', m.widths[phase]!);
         dead0[c]![i] = m.deadTimes[0].t50;
         dead1[c]![i] = m.deadTimes[1].t50;
       } else {
