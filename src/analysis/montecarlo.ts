@@ -6,8 +6,9 @@
 import { CornerEvaluator } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
 import { addValue, emptyStats, mergeStats, summarize, wilsonInterval, type RunningState, type StatsSummary } from '../variation/stats.js';
-import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../variation/mismatch.js';
-import { devicesAtCorner } from '../process/device.js';
+import { drawMismatch, mismatchBuffers, mismatchSigmas, type SampleMismatch } from '../variation/mismatch.js';
+import { devicesAtCorner, type CornerDevices } from '../process/device.js';
+import type { Corner } from '../process/corner.js';
 import type { CheckKind } from '../checks/check.js';
 
 /** Dies per chunk: the unit of work handed to a thread. */
@@ -97,6 +98,59 @@ function measureNames(resolved: ResolvedDesign) {
   };
 }
 
+/** Where one corner's dies leave their numbers. */
+interface CornerOutputs {
+  readonly acc: CornerAccumulator;
+  readonly least: Float64Array;
+  readonly dead0: Float64Array;
+  readonly dead1: Float64Array;
+  /** Shared by all corners: 1 for a die that failed somewhere. */
+  readonly failedSomewhere: Uint8Array;
+}
+
+/**
+ * The hot loop: every die at one corner. A function of its own, so the optimiser sees only this
+ * loop and its callees, and the chunk's one-off setup around it cannot throw its code away.
+ */
+function evaluateDies(evaluator: CornerEvaluator, corner: Corner, devices: CornerDevices, dies: readonly SampleMismatch[],
+  names: ReturnType<typeof measureNames>, out: CornerOutputs): void {
+  const a = out.acc;
+  for (let i = 0; i < dies.length; i++) {
+    const r = evaluator.evaluate(corner, dies[i], devices);
+    let leastMargin = Infinity;
+    let slot = 0;
+    const checks = r.checks;
+    for (let k = 0; k < checks.length; k++) {
+      const check = checks[k]!;
+      if (check.margin === null) leastMargin = -Infinity;
+      else {
+        if (check.margin < leastMargin) leastMargin = check.margin;
+        a.add(slot, check.name, check.kind, check.margin);
+      }
+      slot++;
+      if (!check.pass) a.fail(check.name);
+    }
+    const m = r.measurement;
+    if (m.ok) {
+      for (let k = 0; k < 2; k++) {
+        const d = m.deadTimes[k]!;
+        a.add(slot++, names.dead[k]!, 'measure', d.t50);
+        a.add(slot++, names.gap[k]!, 'measure', d.gap);
+      }
+      for (const phase of names.widthNets) a.add(slot++, names.width[phase]!, 'measure', m.widths[phase]!);
+      out.dead0[i] = m.deadTimes[0].t50;
+      out.dead1[i] = m.deadTimes[1].t50;
+    } else {
+      a.unsettled++;
+      out.dead0[i] = NaN;
+      out.dead1[i] = NaN;
+    }
+    out.least[i] = leastMargin;
+    if (r.pass) a.passes++;
+    else out.failedSomewhere[i] = 1;
+  }
+}
+
 /** Evaluates dies [start, start + count) at every corner. Pure: same inputs, same result. */
 export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number): ChunkResult {
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
@@ -111,40 +165,8 @@ export function runChunk(resolved: ResolvedDesign, seed: number, start: number, 
   const names = measureNames(resolved);
   // Corner by corner, so each simulation starts warm from the previous die at the same corner.
   for (let c = 0; c < corners.length; c++) {
-    const evaluator = new CornerEvaluator(resolved, true, true);
-    const a = acc[c]!;
-    for (let i = 0; i < count; i++) {
-      const r = evaluator.evaluate(corners[c]!.corner, dies[i], corners[c]!.devices);
-      let leastMargin = Infinity;
-      let slot = 0;
-      for (const check of r.checks) {
-        if (check.margin === null) leastMargin = -Infinity;
-        else {
-          if (check.margin < leastMargin) leastMargin = check.margin;
-          a.add(slot, check.name, check.kind, check.margin);
-        }
-        slot++;
-        if (!check.pass) a.fail(check.name);
-      }
-      const m = r.measurement;
-      if (m.ok) {
-        for (let k = 0; k < 2; k++) {
-          const d = m.deadTimes[k]!;
-          a.add(slot++, names.dead[k]!, 'measure', d.t50);
-          a.add(slot++, names.gap[k]!, 'measure', d.gap);
-        }
-        for (const phase of names.widthNets) a.add(slot++, names.width[phase]!, 'measure', m.widths[phase]!);
-        dead0[c]![i] = m.deadTimes[0].t50;
-        dead1[c]![i] = m.deadTimes[1].t50;
-      } else {
-        a.unsettled++;
-        dead0[c]![i] = NaN;
-        dead1[c]![i] = NaN;
-      }
-      least[c]![i] = leastMargin;
-      if (r.pass) a.passes++;
-      else failedSomewhere[i] = 1;
-    }
+    const out: CornerOutputs = { acc: acc[c]!, least: least[c]!, dead0: dead0[c]!, dead1: dead1[c]!, failedSomewhere };
+    evaluateDies(new CornerEvaluator(resolved, true, true), corners[c]!.corner, corners[c]!.devices, dies, names, out);
   }
   const passesEverywhere = failedSomewhere.reduce((n, f) => n + (f === 0 ? 1 : 0), 0);
   return { start, count, corners: acc.map((a, c) => a.toChunk(least[c]!, dead0[c]!, dead1[c]!)), passesEverywhere };

@@ -76,6 +76,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--workers <K>', 'threads (default: the number of cores); results do not depend on it')
     .option('--replay <INDEX>', 'evaluate one die at every corner and print its check table')
     .option('--histogram <FILE.svg>', 'also draw the dead-time histograms of the worst corner')
+    .option('--timings', 'print on stderr how long setup, evaluation and the report took', false)
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runMc(io, design, cmd.optsWithGlobals())));

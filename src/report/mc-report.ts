@@ -27,10 +27,14 @@ export interface McReport {
 }
 
 function quantiles(values: Float64Array): Record<string, number> {
-  const finite = Float64Array.from(values.filter((v) => Number.isFinite(v))).sort();
+  // Dies that did not settle (NaN) are left out; a typed array sorts numerically without a comparator.
+  const sorted = new Float64Array(values.length);
+  let n = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) sorted[n++] = values[i]!;
+  const finite = sorted.subarray(0, n).sort();
   const out: Record<string, number> = {};
-  const sorted = Array.from(finite);
-  for (const q of QUANTILES) out[`q${q}`] = sorted.length > 0 ? quantileSorted(sorted, q)! : NaN;
+  // quantileSorted only indexes its argument, which a typed array supports; its typings ask for an array.
+  for (const q of QUANTILES) out[`q${q}`] = n > 0 ? quantileSorted(finite as unknown as number[], q)! : NaN;
   return out;
 }
 

@@ -79,9 +79,10 @@ export function drawMismatch(sigmas: MismatchSigmas, seed: number, sample: numbe
     n[g] = sigmas.gateN[g]! * normal();
     p[g] = sigmas.gateP[g]! * normal();
   }
-  sigmas.switches.forEach((s, k) => {
-    const target = out.switches[k]!;
+  for (let k = 0; k < sigmas.switches.length; k++) {
+    const s = sigmas.switches[k]!;
+    const target = out.switches[k] as Float64Array;
     for (let i = 0; i < s.length; i++) target[i] = s[i]! * normal();
-  });
+  }
   return out;
 }

@@ -70,6 +70,19 @@ describe('phasegap mc', () => {
     expect(other.stdout).not.toBe(one.stdout);
   });
 
+  it('prints its setup, evaluation and report times on stderr with --timings, and leaves the report alone', async () => {
+    const plain = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json');
+    const timed = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json', '--timings');
+    expect(timed.stdout).toBe(plain.stdout);
+    expect(plain.stderr).toBe('');
+    const m = /^phasegap: timings: setup ([\d.]+) s, evaluation ([\d.]+) s \((\d+) evaluations on 1 thread, (\d+)\/s\), report ([\d.]+) s\n$/.exec(timed.stderr);
+    expect(m).not.toBeNull();
+    // 300 dies at each of the demo's 45 corners.
+    expect(Number(m![3])).toBe(300 * 45);
+    // The rate is computed from the unrounded time; the printed time is rounded to 1 ms.
+    expectClose(Number(m![4]), 300 * 45 / Number(m![2]), 0.05);
+  });
+
   it('replays the worst die: its least margin at that corner equals the one Monte Carlo found', async () => {
     const mc = JSON.parse((await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '9', '--json')).stdout);
     const corner = mc.corners.find((c: { name: string }) => c.name === mc.worstCorner);

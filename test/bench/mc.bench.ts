@@ -12,10 +12,17 @@ const cli = fileURLToPath(new URL('../../src/cli/main.js', import.meta.url));
 const demo = fileURLToPath(new URL('../../../fixtures/designs/doubler.yaml', import.meta.url));
 const CORNERS = 45;
 
-function timed(samples: number, workers: number): { seconds: number; rssMb: number } {
+interface Timed {
+  readonly seconds: number;
+  readonly rssMb: number;
+  /** The evaluation phase alone, as `mc --timings` reports it, s. */
+  readonly evaluation: number;
+}
+
+function timed(samples: number, workers: number): Timed {
   const script = `
     const t = process.hrtime.bigint();
-    process.argv = [process.argv[0], ${JSON.stringify(cli)}, 'mc', ${JSON.stringify(demo)}, '--samples', '${samples}', '--workers', '${workers}', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
+    process.argv = [process.argv[0], ${JSON.stringify(cli)}, 'mc', ${JSON.stringify(demo)}, '--samples', '${samples}', '--workers', '${workers}', '--timings', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
     await import(${JSON.stringify(cli)});
     process.on('exit', () => {
       const s = Number(process.hrtime.bigint() - t) / 1e9;
@@ -25,7 +32,9 @@ function timed(samples: number, workers: number): { seconds: number; rssMb: numb
   if (r.status !== 0) throw new Error(`mc run failed (exit ${r.status}): ${r.stderr}`);
   const line = r.stderr.trim().split('\n').pop() ?? '{}';
   const { s, rss } = JSON.parse(line) as { s: number; rss: number };
-  return { seconds: s, rssMb: rss };
+  const evaluation = /evaluation ([\d.]+) s/.exec(r.stderr);
+  if (!evaluation) throw new Error(`mc --timings printed no evaluation time: ${r.stderr}`);
+  return { seconds: s, rssMb: rss, evaluation: Number(evaluation[1]) };
 }
 
 const cores = availableParallelism();
@@ -36,3 +45,6 @@ const all = timed(dies, cores);
 console.log(`Monte Carlo, 1,000,000 evaluations (${dies} dies x ${CORNERS} corners of the demo design), ${cores} cores; whole runs, start-up included`);
 console.log(`one thread        ${Math.round(evaluations / one.seconds)} evaluations/s, ${one.seconds.toFixed(2)} s wall, peak RSS ${one.rssMb.toFixed(0)} MB`);
 console.log(`${cores} threads         ${Math.round(evaluations / all.seconds)} evaluations/s, ${all.seconds.toFixed(2)} s wall, peak RSS ${all.rssMb.toFixed(0)} MB (${(one.seconds / all.seconds).toFixed(2)}x)`);
+console.log('evaluation phase only (mc --timings: without start-up, design loading and the report; each thread\'s warm-up included)');
+console.log(`one thread        ${Math.round(evaluations / one.evaluation)} evaluations/s, ${one.evaluation.toFixed(2)} s`);
+console.log(`${cores} threads         ${Math.round(evaluations / all.evaluation)} evaluations/s, ${all.evaluation.toFixed(2)} s (${(one.evaluation / all.evaluation).toFixed(2)}x)`);

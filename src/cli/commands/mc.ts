@@ -22,6 +22,7 @@ export interface McOptions extends ModelOptions {
   readonly workers?: string;
   readonly replay?: string;
   readonly histogram?: string;
+  readonly timings?: boolean;
 }
 
 export function wholeNumber(flag: string, text: string | undefined, min: number, fallback: number): number {
@@ -32,6 +33,7 @@ export function wholeNumber(flag: string, text: string | undefined, min: number,
 }
 
 export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
+  const started = performance.now();
   const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const samples = wholeNumber('--samples', options.samples, 1, design.montecarlo?.samples ?? 1000);
   const seed = wholeNumber('--seed', options.seed, 0, design.montecarlo?.seed ?? 1);
@@ -46,6 +48,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
     return report.verdict === 'pass' ? 0 : 1;
   }
+  const evaluating = performance.now();
   const plan = chunkPlan(samples);
   const chunks: ChunkResult[] = [];
   const bar = progressBar(io, samples * resolved.corners.length, 'mc', !options.json);
@@ -79,6 +82,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     }
   }
   bar.stop();
+  const reporting = performance.now();
   const mc = mergeChunks(resolved, seed, samples, chunks);
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
   if (options.histogram !== undefined) {
@@ -94,5 +98,13 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     }), options.histogram);
   }
   emit(io, options.json ? toJson(report) : renderMcText(report), options.out);
+  if (options.timings) {
+    const evaluations = samples * resolved.corners.length;
+    const used = Math.min(threads, plan.length);
+    const seconds = (from: number, to: number) => ((to - from) / 1000).toFixed(3);
+    io.stderr(`phasegap: timings: setup ${seconds(started, evaluating)} s, evaluation ${seconds(evaluating, reporting)} s `
+      + `(${evaluations} evaluations on ${used} thread${used === 1 ? '' : 's'}, ${Math.round(evaluations / ((reporting - evaluating) / 1000))}/s), `
+      + `report ${seconds(reporting, performance.now())} s\n`);
+  }
   return report.verdict === 'pass' ? 0 : 1;
 }
