@@ -5,6 +5,7 @@ import type { Io } from './io.js';
 import { runCheck } from './commands/check.js';
 import { runInit } from './commands/init.js';
 import { runSchema } from './commands/schema.js';
+import { runTune } from './commands/tune.js';
 import { runFmax } from './commands/fmax.js';
 import { runSpice } from './commands/spice.js';
 import { runConfirm } from './commands/confirm.js';
@@ -55,6 +56,20 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runFmax(io, design, cmd.optsWithGlobals())));
+
+  program.command('tune')
+    .description('proposes delay-chain length, stage size and delay capacitor that pass every corner with the least wasted dead time')
+    .argument('<DESIGN>', 'design file (YAML or JSON) with a nand or nor template')
+    .addOption(setOption())
+    .option('--stages <LIST>', 'chain lengths to try, even, e.g. 2,4,6 (default: every even length from the early tap to 16)')
+    .option('--sizes <LIST>', "stage sizes to try, e.g. 1,2 (default: the design's own, 1 and 2)")
+    .option('--max-load <C>', 'largest delay capacitor per chain node (default 500fF)')
+    .option('--step <C>', 'resolution of the delay capacitor (default 0.5fF)')
+    .option('--margin <T>', 'headroom every check must keep beyond its requirement, e.g. 50ps (default 0: just pass)')
+    .option('--top <N>', 'proposals to list (default 5)')
+    .option('--json', 'print the machine report (SI units)', false)
+    .addOption(outOption('the report'))
+    .action((design: string, _opts: unknown, cmd: Command) => setCode(runTune(io, design, cmd.optsWithGlobals())));
 
   program.command('sweep')
     .description('batch grid over corner axes and design values; one worst-case row per point, CSV or JSON, streamed')

@@ -18,5 +18,8 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
   emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
+  if (report.verdict === 'fail' && !options.json && design.generator.template !== 'netlist') {
+    io.stderr(`phasegap: hint: phasegap tune ${designPath} proposes delay chains that pass every corner\n`);
+  }
   return report.verdict === 'pass' ? 0 : 1;
 }

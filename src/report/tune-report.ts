@@ -1,0 +1,107 @@
+/** The tune report: plain data for --json, and its table for people. */
+import type { ChainCandidate, ChainKnobs, TuneResult } from '../analysis/tune.js';
+import { proposalOverrides } from '../analysis/tune.js';
+import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { CAUTIONS } from './cautions.js';
+import { renderTable } from './text-table.js';
+
+export interface TuneCandidateReport {
+  readonly stages: number;
+  readonly stageSize: number | readonly number[];
+  /** F. */
+  readonly stageLoad: number;
+  readonly pass: boolean;
+  /** Passes with the asked headroom on every margin. */
+  readonly meets: boolean;
+  /** Smallest and largest dead time over every corner and both handovers, s. */
+  readonly deadTimeMin: number | null;
+  readonly deadTimeMax: number | null;
+  readonly limiting: ChainCandidate['limiting'];
+  /** The `--set` overrides that give this candidate. */
+  readonly overrides: readonly string[];
+}
+
+export interface TuneReport {
+  readonly tool: 'phasegap';
+  readonly design: string;
+  /** Clock frequency the chains were tuned at, Hz. */
+  readonly frequency: number;
+  readonly corners: number;
+  readonly current: TuneCandidateReport;
+  /** Passing proposals, the least wasted dead time (smallest largest dead time) first. */
+  readonly proposals: readonly TuneCandidateReport[];
+  /** Present when nothing passes: the candidate with the largest least margin. */
+  readonly closest: TuneCandidateReport | null;
+  /** What was searched: chain lengths, stage sizes, the largest capacitor and its step (F). */
+  readonly searched: { readonly stages: readonly number[]; readonly stageSizes: readonly number[]; readonly maxLoad: number; readonly loadStep: number; readonly headroom: number };
+  readonly evaluations: number;
+  readonly verdict: 'pass' | 'fail';
+  readonly cautions: readonly string[];
+}
+
+/** A capacitance the design file reads back exactly: `23.5fF`. */
+export function loadText(farads: number): string {
+  return `${Number((farads / 1e-15).toPrecision(6))}fF`;
+}
+
+function candidateReport(c: ChainCandidate): TuneCandidateReport {
+  const finite = (x: number) => (Number.isFinite(x) ? x : null);
+  return {
+    stages: c.knobs.stages, stageSize: c.knobs.stageSize, stageLoad: c.knobs.stageLoad, pass: c.pass, meets: c.meets,
+    deadTimeMin: finite(c.deadMin), deadTimeMax: finite(c.deadMax), limiting: c.limiting,
+    overrides: proposalOverrides(c.knobs, loadText),
+  };
+}
+
+export function tuneReport(design: string, frequency: number, corners: number, result: TuneResult, top: number): TuneReport {
+  return {
+    tool: 'phasegap', design, frequency, corners,
+    current: candidateReport(result.current),
+    proposals: result.proposals.slice(0, top).map(candidateReport),
+    closest: result.closest ? candidateReport(result.closest) : null,
+    searched: { ...result.space },
+    evaluations: result.evaluations,
+    verdict: result.proposals.length > 0 ? 'pass' : 'fail',
+    cautions: CAUTIONS,
+  };
+}
+
+function sizeText(size: ChainKnobs['stageSize']): string {
+  return typeof size === 'number' ? String(size) : size.join(',');
+}
+
+function row(label: string, c: TuneCandidateReport): string[] {
+  const lim = c.limiting;
+  return [
+    label, String(c.stages), sizeText(c.stageSize), `${Number((c.stageLoad / 1e-15).toPrecision(6))} fF`,
+    c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
+    c.pass ? (c.meets ? 'pass' : 'pass, thin') : 'FAIL', lim ? formatSignedTime(lim.margin, 'unmeasurable') : 'n/a', lim ? `${lim.check} at ${lim.corner}` : '',
+  ];
+}
+
+export function renderTuneText(r: TuneReport, designPath: string): string {
+  const out: string[] = [];
+  const headroom = r.searched.headroom > 0 ? `, every margin at least ${formatTime(r.searched.headroom)}` : '';
+  out.push(`${r.design}: delay chains tuned at ${formatEngineering(r.frequency, 'Hz', 4)} over ${r.corners} corners${headroom} (least wasted dead time first)`);
+  out.push('');
+  const rows = [row('current design', r.current), ...r.proposals.map((p, i) => row(`proposal ${i + 1}`, p))];
+  if (r.closest) rows.push(row('closest (fails)', r.closest));
+  out.push(renderTable([
+    { header: '', align: 'left' }, { header: 'stages', align: 'right' }, { header: 'stage size', align: 'right' },
+    { header: 'stage load', align: 'right' }, { header: 'dead min', align: 'right' }, { header: 'dead max', align: 'right' },
+    { header: 'verdict', align: 'left' }, { header: 'least margin', align: 'right' }, { header: 'limited by', align: 'left' },
+  ], rows));
+  out.push('');
+  const best = r.proposals[0];
+  if (best) {
+    out.push(`best: ${best.stages} stages of size ${sizeText(best.stageSize)} with ${loadText(best.stageLoad)} per node; check it with`);
+    out.push(`  phasegap check ${designPath} ${best.overrides.map((o) => `--set ${o}`).join(' ')}`);
+    if (r.searched.headroom === 0) out.push('proposals sit at the edge of the tightest requirement: give --margin TIME for headroom, and run phasegap mc on the one you pick');
+  } else {
+    out.push(`no chain in the searched range passes every check at every corner${headroom}.`);
+    if (r.closest?.limiting) out.push(`closest: ${r.closest.limiting.check} (${r.closest.limiting.kind}) at ${r.closest.limiting.corner} still fails; a lower clock frequency (see phasegap fmax) or other switch sizes may be needed`);
+  }
+  out.push(`searched: stages ${r.searched.stages.join(', ')}; stage sizes ${r.searched.stageSizes.join(', ')}; stage load 0 .. ${formatEngineering(r.searched.maxLoad, 'F')} in ${formatEngineering(r.searched.loadStep, 'F')} steps; ${r.evaluations} corner evaluations`);
+  out.push('', ...CAUTIONS.map((c) => `caution: ${c}`));
+  return `${out.join('\n')}\n`;
+}
