@@ -112,6 +112,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(setOption())
     .option('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", 'html')
     .option('--no-fmax', 'skip the maximum-frequency search')
+    .option('--no-tune', 'skip the delay-chain proposals (nand/nor templates)')
     .option('--mc <N>', 'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)')
     .option('--seed <S>', 'Monte Carlo seed (default: montecarlo.seed, else 1)')
     .addOption(outOption('the report'))

@@ -15,6 +15,7 @@ import type { MarginChartInput } from './svg/margins.js';
 import { renderMarginSvg } from './svg/margins.js';
 import { renderTimingSvg } from './svg/timing.js';
 import type { McSection } from './mc-section.js';
+import type { TuneReport } from '../report/tune-report.js';
 
 export interface DeadTimeRange {
   readonly from: string;
@@ -41,6 +42,8 @@ export interface ReportModel {
   readonly svg: { readonly worst: string; readonly all: string; readonly margins: string };
   /** Monte Carlo results when the report was asked for them. */
   readonly mc: McSection | null;
+  /** Delay-chain proposals (template generators, unless skipped). */
+  readonly tune: TuneReport | null;
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
@@ -81,6 +84,7 @@ export interface ReportExtras {
   readonly fmax: FmaxResult | null;
   readonly fmaxNote: string;
   readonly mc?: McSection | null;
+  readonly tune?: TuneReport | null;
 }
 
 export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
@@ -96,6 +100,7 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     fmax: extras.fmax,
     fmaxNote: extras.fmaxNote,
     mc: extras.mc ?? null,
+    tune: extras.tune ?? null,
     svg: {
       worst: renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst' }),
       all: renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all' }),

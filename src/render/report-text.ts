@@ -3,11 +3,30 @@ import { leastMargin } from '../report/check-report.js';
 import type { ProcessCard } from '../schema/process.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import type { ReportModel } from './report-model.js';
+import { loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
 
 export function signedTime(seconds: number): string {
   return formatSignedTime(seconds);
 }
 
+/** The delay-chain proposals as a table (the design's own chain first), and one sentence on them. */
+export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells: string[]; fail: boolean }>; text: string } {
+  const row = (label: string, c: TuneCandidateReport) => ({
+    cells: [label, String(c.stages), typeof c.stageSize === 'number' ? String(c.stageSize) : c.stageSize.join(','), loadText(c.stageLoad).replace('fF', ' fF'),
+      c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
+      c.limiting ? formatSignedTime(c.limiting.margin, 'unmeasurable') : 'n/a', c.pass ? 'pass' : 'FAIL'],
+    fail: !c.pass,
+  });
+  const rows = [row('this design', t.current), ...t.proposals.map((p, i) => row(`proposal ${i + 1}`, p))];
+  if (t.closest) rows.push(row('closest', t.closest));
+  const best = t.proposals[0];
+  const text = best
+    ? `The least wasteful chain that passes every corner: ${best.stages} stages of size ${String(best.stageSize)} with ${loadText(best.stageLoad)} per node, `
+      + `largest dead time ${formatTime(best.deadTimeMax ?? NaN)} against ${formatTime(t.current.deadTimeMax ?? NaN)} now (${best.overrides.map((o) => `--set ${o}`).join(' ')}). `
+      + 'Proposals sit at the edge of the tightest requirement; confirm the one you pick with phasegap mc and ngspice.'
+    : `No chain searched passes every corner${t.closest?.limiting ? `; closest still fails ${t.closest.limiting.check} at ${t.closest.limiting.corner}` : ''}.`;
+  return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text };
+}
 
 
 export function fmaxText(m: ReportModel): string {

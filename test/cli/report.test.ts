@@ -36,6 +36,22 @@ describe('phasegap report', () => {
     expect(rows.filter((r) => r.includes('fail')).length).toBeGreaterThan(0);
   });
 
+  it('proposes the same delay chains as phasegap tune, and leaves them out with --no-tune or for a free-form netlist', async () => {
+    const run = await cliAsync('report', design('too-tight'), '--no-fmax', '-o', '-');
+    const section = run.stdout.slice(run.stdout.indexOf('<section id="tune">')).split('</section>')[0]!;
+    const tune = JSON.parse(cli('tune', design('too-tight'), '--top', '3', '--json').stdout);
+    const best = tune.proposals[0];
+    expect(section).toContain(`${best.stages} stages of size ${best.stageSize} with ${best.overrides[2].split('=')[1]} per node`);
+    expect(section).toContain(best.overrides.map((o: string) => `--set ${o}`).join(' '));
+    // This design plus three proposals.
+    expect(section.match(/<tr( class="fail")?><td>/g)?.length).toBe(4);
+    expect(section).toMatch(/<tr class="fail"><td>this design<\/td>/);
+    const skipped = await cliAsync('report', design('too-tight'), '--no-fmax', '--no-tune', '-o', '-');
+    expect(skipped.stdout).not.toContain('id="tune"');
+    const netlist = await cliAsync('report', design('lp-netlist'), '--no-fmax', '-o', '-');
+    expect(netlist.stdout).not.toContain('id="tune"');
+  });
+
   it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();
     const file = join(dir, 'review.md');
@@ -45,6 +61,7 @@ describe('phasegap report', () => {
     const md = readFileSync(file, 'utf8');
     expect(md).toContain('![All corners overlaid](review-all.svg)');
     expect(md).toContain('| corner |');
+    expect(md).toContain('## Delay chains that pass with the least dead time');
     for (const c of CAUTIONS) expect(md).toContain(c);
   });
 

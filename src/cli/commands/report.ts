@@ -16,6 +16,8 @@ import { mcReport } from '../../report/mc-report.js';
 import { renderHistogram } from '../../render/svg/histogram.js';
 import type { McSection } from '../../render/mc-section.js';
 import type { ResolvedDesign } from '../../analysis/resolve.js';
+import { tuneChains } from '../../analysis/tune.js';
+import { tuneReport } from '../../report/tune-report.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
@@ -27,6 +29,7 @@ export interface ReportOptions extends ModelOptions {
   /** Dies for a Monte Carlo section (none when absent). */
   readonly mc?: string;
   readonly seed?: string;
+  readonly tune: boolean;
 }
 
 /** Monte Carlo on one thread (the report stays a plain, repeatable function of its inputs). */
@@ -69,6 +72,9 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   const model = buildReportModel(resolved, results, {
     processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
     mc: dies > 0 ? monteCarloSection(resolved, dies, seed) : null,
+    tune: options.tune && loaded.design.generator.template !== 'netlist'
+      ? tuneReport(loaded.design.name, loaded.design.clock.frequency, resolved.corners.length, tuneChains(loaded.design, loaded.card, resolved.model), 3)
+      : null,
   });
   const code = model.report.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {

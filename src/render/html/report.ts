@@ -8,7 +8,7 @@ import { formatEngineering, formatTime } from '../../units/format.js';
 import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
-import { cardRows, cornerRows, fmaxText, generatorText, signedTime, summaryItems } from '../report-text.js';
+import { cardRows, cornerRows, fmaxText, generatorText, signedTime, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
@@ -83,6 +83,11 @@ ${figure(m.svg.margins, 'Margin of every check at every corner; left of the zero
 <h3>Worst case of each check</h3>
 ${table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], checkRows, new Set([2]))}
 </section>
+${m.tune ? ((t) => `<section id="tune">
+<h2>Delay chains that pass with the least dead time</h2>
+<p>${h(t.text)}</p>
+${table(t.head, t.rows, new Set([1, 2, 3, 4, 5, 6]))}
+</section>`)(tuneTable(m.tune)) : ''}
 ${m.mc ? `<section class="diagram" id="montecarlo">
 <h2>Monte Carlo mismatch</h2>
 <p>${h(mcHeadline(m.mc.report))}</p>

@@ -4,7 +4,7 @@
  */
 import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
-import { cardRows, cornerRows, fmaxText, signedTime, summaryItems } from '../report-text.js';
+import { cardRows, cornerRows, fmaxText, signedTime, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 export interface MarkdownImages {
@@ -44,6 +44,11 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
     c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
     c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
   ]), new Set([2])), '');
+  if (m.tune) {
+    const t = tuneTable(m.tune);
+    out.push('## Delay chains that pass with the least dead time', '', t.text, '');
+    out.push(table(t.head, t.rows.map((row) => row.cells), new Set([1, 2, 3, 4, 5, 6])), '');
+  }
   if (m.mc) {
     out.push('## Monte Carlo mismatch', '', mcHeadline(m.mc.report), '');
     out.push(table(mcHead(m.mc.report), mcRows(m.mc.report), new Set([1, 2, 3, 4, 5, 6])), '');
