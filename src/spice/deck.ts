@@ -1,8 +1,8 @@
 /**
  * A complete ngspice testbench of a generator at one corner: every cell as a transistor-level
  * subcircuit sized as the model sizes it, the generator's and the design's extra capacitance, the
- * switches as devices on their gate nets (a level-shifted switch loads the level shifter, which is
- * not modelled at transistor level, so it is left out), the input clock as a PULSE source, the
+ * switches as devices on their gate nets (a level-shifted switch on its shifter's output, the shifter
+ * built as the model describes it from XSPICE bridges: see level-shifter.ts), the input clock as a PULSE source, the
  * corner's supply, temperature and device models, and a .meas for every dead time, clean gap,
  * phase width and switch crossing over one steady-state period.
  */
@@ -18,6 +18,9 @@ import { cellSubckt, cellSubcktName, mosfet } from './cells.js';
 import { cornerModels } from './models.js';
 import { deckQuantities, measureLine, type DeckWindow, type Quantity } from './measures.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
+import { shifterLines, shifterNode } from './level-shifter.js';
+import { bulkLevel, gateWave } from '../switches/conduction.js';
+import { CycleIndex } from '../measure/phases.js';
 
 export interface Deck {
   readonly text: string;
@@ -81,7 +84,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)} $ ${net}`);
-  lines.push(...switchLines(resolved, vdd, node, models.geometry));
+  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry));
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
   lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
@@ -95,7 +98,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   return { text: lines.join('\n'), corner, quantities, window };
 }
 
-function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) => string, geometry: { nModel: string; pModel: string; diffusion: number }): string[] {
+function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
+  geometry: { nModel: string; pModel: string; diffusion: number }): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -110,17 +114,26 @@ function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) 
   };
   const devices: string[] = [];
   resolved.switches.forEach((plan, i) => {
-    if (plan.levelShifter) {
-      devices.push(`* ${plan.name}: driven through a level shifter, not modelled at transistor level (left out)`);
-      return;
+    // Each device's gate: its net, or the output of the level shifter its net drives.
+    const gates: string[] = [];
+    for (const [j, device] of plan.devices.entries()) {
+      if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
+      const wave = gateWave(plan, device, cycles, vdd);
+      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd);
+      if (typeof built === 'string') {
+        devices.push(`* ${plan.name} is left out: ${built}`);
+        return;
+      }
+      devices.push(...built);
+      gates.push(shifterNode(i, j));
     }
     const signal = levelAt(plan.signal.min, vdd);
     plan.devices.forEach((device, j) => {
       const n = device.kind === 'n';
-      const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : n ? 0 : Math.max(vdd, levelAt(plan.signal.max, vdd));
+      const bulk = bulkLevel(plan, device.kind, vdd);
       const terminal = bias(signal);
       const geo = { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel };
-      devices.push(`${mosfet(`msw${i}_${j}`, terminal, node(device.net), terminal, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)} $ ${plan.name}`);
+      devices.push(`${mosfet(`msw${i}_${j}`, terminal, gates[j]!, terminal, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)} $ ${plan.name}`);
     });
   });
   return devices.length === 0 ? [] : ['', '* switches (gate loads; drain and source held at the signal level)', ...lines, ...devices];

@@ -1,8 +1,8 @@
 /**
  * The quantities a deck measures, each with the model's value: both dead times and clean gaps,
- * every phase width, and every switch's turn-on and turn-off instant (its gate crossing the
- * device's turn-on level at each end of the signal range, as the time after the clock's rising
- * edge). Measurement windows open at the clock edge that precedes each event in the model's
+ * every phase width, and every switch's turn-on and turn-off instant (its gate, or its level
+ * shifter's output, crossing the device's turn-on level at each end of the signal range, as the
+ * time after the clock's rising edge). Measurement windows open at the clock edge that precedes each event in the model's
  * steady-state period, so one deck needs no second pass.
  */
 import { wrapTime } from '../measure/phases.js';
@@ -12,7 +12,9 @@ import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
 import type { SimulationResult } from '../sim/engine.js';
 import type { CornerDevices } from '../process/device.js';
 import type { SwitchPlan } from '../switches/plan.js';
-import { bodyThreshold, rampCrossing } from '../switches/physics.js';
+import { rampCrossing } from '../switches/physics.js';
+import { deviceLevels, gateWave } from '../switches/conduction.js';
+import { shifterDelays, shifterNode } from './level-shifter.js';
 import { levelAt } from '../schema/level.js';
 import { spiceNumber } from './names.js';
 
@@ -96,22 +98,23 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   });
   let k = 0;
   const cycles = new CycleIndex(ctx.result, ctx.netlist);
-  for (const plan of ctx.switches) {
-    if (plan.levelShifter) continue;
-    for (const device of plan.devices) {
-      const cycle = cycles.cycle(device.net);
-      if (typeof cycle === 'string') continue;
+  ctx.switches.forEach((plan, i) => {
+    const sigMin = levelAt(plan.signal.min, vdd);
+    const sigMax = levelAt(plan.signal.max, vdd);
+    const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
+    plan.devices.forEach((device, j) => {
+      const wave = gateWave(plan, device, cycles, vdd);
+      if (typeof wave === 'string') return;
+      // A level-shifted gate is the shifter's output, when the deck can build the shifter.
+      if (plan.levelShifter && !shifterDelays(wave, plan.levelShifter.delay)) return;
+      const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);
       const d = device.kind === 'n' ? devices.n : devices.p;
-      const sigMin = levelAt(plan.signal.min, vdd);
-      const sigMax = levelAt(plan.signal.max, vdd);
-      const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
+      const { low, high } = wave.rise;
       for (const vs of ends) {
-        const level = device.kind === 'n'
-          ? vs + bodyThreshold(d.vth, d.gamma, d.phi2f, vs - (plan.bulk ? levelAt(plan.bulk, vdd) : 0))
-          : vs - bodyThreshold(d.vth, d.gamma, d.phi2f, (plan.bulk ? levelAt(plan.bulk, vdd) : Math.max(vdd, sigMax)) - vs);
-        if (!(level > 0 && level < vdd)) continue;
-        const rise = rampCrossing({ t50: cycle.rise, transition: cycle.riseTransition, low: 0, high: vdd, rising: true }, level);
-        const fall = rampCrossing({ t50: cycle.fall, transition: cycle.fallTransition, low: 0, high: vdd, rising: false }, level);
+        const { level } = deviceLevels(plan, device, d, vs, low, high, vdd, 0);
+        if (!(level > low && level < high)) continue;
+        const rise = rampCrossing(wave.rise, level);
+        const fall = rampCrossing(wave.fall, level);
         const events: Array<['on' | 'off', number, boolean]> = device.kind === 'n'
           ? [['on', rise, true], ['off', fall, false]]
           : [['on', fall, false], ['off', rise, true]];
@@ -124,12 +127,12 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
             label: `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} ${event} @ ${Number(vs.toFixed(3))} V`,
             model: at - clockEdge,
             trig: { node: ctx.node(ctx.netlist.netNames[ctx.netlist.clock]!), level: 0.5 * vdd, rising: true, td: Math.max(0, clockEdge - 0.25 * window.duty * T) },
-            targ: crossing(device.net, level, rising, at),
+            targ: { node: gate, level, rising, td: Math.max(0, anchorBefore(at, window)) },
           });
         }
       }
-    }
-  }
+    });
+  });
   return out;
 }
 

@@ -43,12 +43,14 @@ interface Interval {
   readonly off: number;
 }
 
-interface GateWave {
+/** A switch gate's rising and falling ramp in the period, after any level shifter. */
+export interface GateWave {
   readonly rise: GateRamp;
   readonly fall: GateRamp;
 }
 
-function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number): GateWave | string {
+/** The gate ramps of one device of a switch, or why its net has none. */
+export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
@@ -69,16 +71,22 @@ function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex
  * Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven;
  * `dvth` is a local mismatch shift of its threshold magnitude, V.
  */
-function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number, dvth: number) {
-  const sigMax = levelAt(plan.signal.max, vdd);
+export function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number, dvth: number) {
+  const bulk = bulkLevel(plan, device.kind, vdd);
   if (device.kind === 'n') {
-    const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : 0;
     const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, vs - bulk);
     return { level: vs + vt, overdrive: high - vs - vt };
   }
-  const bulk = plan.bulk ? levelAt(plan.bulk, vdd) : Math.max(high, sigMax);
   const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, bulk - vs);
   return { level: vs - vt, overdrive: vs - vt - low };
+}
+
+/** Body voltage of a switch device, V: the declared one, else 0 V for n and the highest gate or signal level for p. */
+export function bulkLevel(plan: SwitchPlan, kind: SwitchDevicePlan['kind'], vdd: number): number {
+  if (plan.bulk) return levelAt(plan.bulk, vdd);
+  if (kind === 'n') return 0;
+  const high = plan.levelShifter ? levelAt(plan.levelShifter.high, vdd) : vdd;
+  return Math.max(high, levelAt(plan.signal.max, vdd));
 }
 
 function deviceInterval(device: SwitchDevicePlan, wave: GateWave, level: number): Interval {
