@@ -1,5 +1,6 @@
 /** The side-by-side table of `phasegap confirm`. */
-import { formatTime } from '../units/format.js';
+import { formatSignedTime, formatTime } from '../units/format.js';
+import { renderTable } from '../report/text-table.js';
 import type { CornerComparison } from './confirm.js';
 import { worstDifference } from './confirm.js';
 
@@ -26,10 +27,19 @@ export function renderConfirmText(s: ConfirmSummary): string {
   const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
   const line = (r: string[]) => r.map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!))).join('  ').trimEnd();
   const out = [`${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`, '', line(rows[0]!), widths.map((w) => '-'.repeat(w)).join('  ').trimEnd(), ...rows.slice(1).map(line), ''];
+  const pairs = s.corners.flatMap((c) => c.breakBeforeMake.map((b) => [c.corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured'),
+    b.agrees ? '' : 'DISAGREES']));
+  if (pairs.length > 0) {
+    out.push('break-before-make at the switches (margin, model vs simulator; they must agree on pass or fail):', '');
+    out.push(renderTable([
+      { header: 'corner', align: 'left' }, { header: 'check', align: 'left' }, { header: 'model', align: 'right' },
+      { header: s.simulator, align: 'right' }, { header: '', align: 'left' },
+    ], pairs), '');
+  }
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
   const worst = worstDifference(s.corners);
   if (worst) out.push(`largest difference: ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})`);
   const failed = s.corners.filter((c) => !c.pass).length;
-  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${s.corners.length - failed}/${s.corners.length} corners within tolerance)`);
+  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${s.corners.length - failed}/${s.corners.length} corners within tolerance${pairs.length > 0 ? ', break-before-make verdicts alike' : ''})`);
   return `${out.join('\n')}\n`;
 }

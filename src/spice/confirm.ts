@@ -1,10 +1,12 @@
 /**
  * Model against simulator: per corner and per quantity (each dead time, clean gap and phase
- * width) the model's and the simulator's values and the relative error (model - sim) / sim.
+ * width) the model's and the simulator's values and the relative error (model - sim) / sim; and
+ * per break-before-make pair both margins, which must agree on whether the pair holds.
  */
 import type { Deck } from './deck.js';
 import type { QuantityKind } from './measures.js';
 import type { SimulatorOutput } from './results.js';
+import { breakBeforeMakeMargins, type BreakBeforeMakeComparison } from './switch-margins.js';
 
 export interface QuantityComparison {
   readonly quantity: string;
@@ -20,6 +22,8 @@ export interface QuantityComparison {
 export interface CornerComparison {
   readonly corner: string;
   readonly quantities: readonly QuantityComparison[];
+  /** Break-before-make margins at the switches, model and simulator; they must agree on the verdict. */
+  readonly breakBeforeMake: readonly BreakBeforeMakeComparison[];
   /** Errors the simulator reported. */
   readonly errors: readonly string[];
   readonly pass: boolean;
@@ -33,7 +37,11 @@ export function compareCorner(deck: Deck, output: SimulatorOutput, tolerance: nu
     const relativeError = simulator === null || simulator === 0 ? null : (q.model - simulator) / Math.abs(simulator);
     return { quantity: q.label, kind: q.kind, model: q.model, simulator, relativeError, pass: relativeError !== null && Math.abs(relativeError) <= tolerance };
   });
-  return { corner: deck.corner.name, quantities, errors: output.errors, pass: quantities.every((q) => q.pass) };
+  const breakBeforeMake = breakBeforeMakeMargins(deck.quantities, (name) => output.values.get(name) ?? null, deck.breakBeforeMake, deck.window.period);
+  return {
+    corner: deck.corner.name, quantities, breakBeforeMake, errors: output.errors,
+    pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees),
+  };
 }
 
 /** The largest |relative error| over corners, or null when nothing was measured. */

@@ -19,6 +19,7 @@ import { cornerModels } from './models.js';
 import { deckQuantities, measureLine, type DeckWindow, type Quantity } from './measures.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
 import { shifterLines, shifterNode } from './level-shifter.js';
+import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel, gateWave } from '../switches/conduction.js';
 import { CycleIndex } from '../measure/phases.js';
 
@@ -27,6 +28,8 @@ export interface Deck {
   readonly corner: Corner;
   readonly quantities: readonly Quantity[];
   readonly window: DeckWindow;
+  /** The design's break-before-make pairs, to work out from the switch instants. */
+  readonly breakBeforeMake: readonly BreakBeforeMakePair[];
 }
 
 export interface DeckOptions {
@@ -95,7 +98,10 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
   for (const q of quantities) lines.push(`* ${q.name}: ${q.label}`, measureLine(q));
   lines.push('.end', '');
-  return { text: lines.join('\n'), corner, quantities, window };
+  const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
+    name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
+  }));
+  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake };
 }
 
 function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,

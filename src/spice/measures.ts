@@ -39,6 +39,14 @@ export interface Quantity {
   readonly model: number;
   readonly trig: Crossing;
   readonly targ: Crossing;
+  /** For a switch instant: which switch and event, and the clock edge (deck time, s) it is measured from. */
+  readonly event?: SwitchEvent;
+}
+
+export interface SwitchEvent {
+  readonly switch: string;
+  readonly event: 'on' | 'off';
+  readonly anchor: number;
 }
 
 /** Where the deck's steady-state window sits on the simulator's time axis. */
@@ -128,6 +136,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
             model: at - clockEdge,
             trig: { node: ctx.node(ctx.netlist.netNames[ctx.netlist.clock]!), level: 0.5 * vdd, rising: true, td: Math.max(0, clockEdge - 0.25 * window.duty * T) },
             targ: { node: gate, level, rising, td: Math.max(0, anchorBefore(at, window)) },
+            event: { switch: plan.name, event, anchor: clockEdge },
           });
         }
       }
