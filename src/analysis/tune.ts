@@ -63,7 +63,7 @@ export interface TuneResult {
   readonly current: ChainCandidate;
   /** Passing proposals, the least wasted dead time first; at most one per chain length and stage size. */
   readonly proposals: readonly ChainCandidate[];
-  /** When nothing passes: the candidate that came closest (largest least margin), and why. */
+  /** When nothing passes: the searched candidate that came closest (largest least margin), and why. */
   readonly closest: ChainCandidate | null;
   readonly space: TuneSpace;
   /** Corner evaluations made. */
@@ -145,7 +145,6 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     const margin = c.limiting?.margin ?? -Infinity;
     if (closest === null || margin > (closest.limiting?.margin ?? -Infinity)) closest = c;
   };
-  consider(current);
   const step = space.loadStep;
   for (const stages of space.stages) {
     if (stages % 2 !== 0 || stages < gen.earlyTap) continue;

@@ -39,6 +39,9 @@ export interface TuneReport {
   readonly cautions: readonly string[];
 }
 
+/** Check kinds that more chain delay helps (the others want less of it, or a slower clock). */
+const WANTS_DELAY: ReadonlySet<string> = new Set(['non-overlap', 'dead-time-min', 'gap-min', 'break-before-make', 'order']);
+
 /** A capacitance the design file reads back exactly: `23.5fF`. */
 export function loadText(farads: number): string {
   return `${Number((farads / 1e-15).toPrecision(6))}fF`;
@@ -99,7 +102,13 @@ export function renderTuneText(r: TuneReport, designPath: string): string {
     if (r.searched.headroom === 0) out.push('proposals sit at the edge of the tightest requirement: give --margin TIME for headroom, and run phasegap mc on the one you pick');
   } else {
     out.push(`no chain in the searched range passes every check at every corner${headroom}.`);
-    if (r.closest?.limiting) out.push(`closest: ${r.closest.limiting.check} (${r.closest.limiting.kind}) at ${r.closest.limiting.corner} still fails; a lower clock frequency (see phasegap fmax) or other switch sizes may be needed`);
+    const lim = r.closest?.limiting;
+    if (lim) {
+      const advice = WANTS_DELAY.has(lim.kind)
+        ? 'it wants more delay than the search allows: widen it with --max-load or --stages'
+        : 'it wants shorter chains or longer phases: a lower clock frequency (see phasegap fmax) or other switch sizes may be needed';
+      out.push(`closest: ${lim.check} (${lim.kind}) at ${lim.corner} still fails; ${advice}`);
+    }
   }
   out.push(`searched: stages ${r.searched.stages.join(', ')}; stage sizes ${r.searched.stageSizes.join(', ')}; stage load 0 .. ${formatEngineering(r.searched.maxLoad, 'F')} in ${formatEngineering(r.searched.loadStep, 'F')} steps; ${r.evaluations} corner evaluations`);
   out.push('', ...CAUTIONS.map((c) => `caution: ${c}`));

@@ -86,6 +86,19 @@ describe('tuneChains', () => {
     expect(result.closest!.limiting).not.toBeNull();
   });
 
+  it('names as closest a searched chain, never the design itself, when the search is too narrow', () => {
+    const { d, card } = load('doubler');
+    const result = tuneChains(d, card, undefined, { ...small(d), stages: [2], maxLoad: 30 * fF });
+    // The design's own chain (6 stages, 40 fF) passes but lies outside the search.
+    expect(result.current.pass).toBe(true);
+    expect(result.proposals).toEqual([]);
+    expect(result.closest!.knobs.stages).toBe(2);
+    expect(result.closest!.limiting!.kind).toBe('dead-time-min');
+    const r = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1', '--max-load', '30fF');
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain('still fails; it wants more delay than the search allows: widen it with --max-load or --stages');
+  });
+
   it('refuses a free-form netlist, naming the field', () => {
     const { d, card } = load('lp-netlist');
     expect(inputErrorMessage(() => tuneChains(d, card))).toBe('generator.template: "netlist" is a free-form netlist; tune adjusts the delay chains of the nand or nor template');
