@@ -13,7 +13,7 @@ import type { SimulationResult } from '../sim/engine.js';
 import type { CornerDevices } from '../process/device.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { rampCrossing } from '../switches/physics.js';
-import { deviceLevels, gateWave } from '../switches/conduction.js';
+import { gateWave, turnOnLevel } from '../switches/conduction.js';
 import { shifterDelays, shifterNode } from './level-shifter.js';
 import { levelAt } from '../schema/level.js';
 import { spiceNumber } from './names.js';
@@ -119,7 +119,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
       const d = device.kind === 'n' ? devices.n : devices.p;
       const { low, high } = wave.rise;
       for (const vs of ends) {
-        const { level } = deviceLevels(plan, device, d, vs, low, high, vdd, 0);
+        const level = turnOnLevel(plan, device, d, vs, vdd, 0);
         if (!(level > low && level < high)) continue;
         const rise = rampCrossing(wave.rise, level);
         const fall = rampCrossing(wave.fall, level);

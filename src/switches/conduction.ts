@@ -37,11 +37,11 @@ export function alignNear(x: number, ref: number, period: number): number {
   return ref + d;
 }
 
-interface Interval {
-  readonly state: 'switching' | 'never' | 'always';
-  readonly on: number;
-  readonly off: number;
-}
+/** Whether a switch conducts at one signal point: never, always, or from a turn-on to a turn-off. */
+type PointState = 0 | 1 | 2;
+const NEVER = 0;
+const ALWAYS = 1;
+const SWITCHING = 2;
 
 /** A switch gate's rising and falling ramp in the period, after any level shifter. */
 export interface GateWave {
@@ -68,17 +68,19 @@ export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: Cyc
 }
 
 /**
- * Turn-on level of a device's gate at signal vs, and its overdrive with the gate fully driven;
- * `dvth` is a local mismatch shift of its threshold magnitude, V.
+ * Threshold magnitude of a switch device at signal vs, with body effect, V; `dvth` is a local
+ * mismatch shift of its threshold magnitude. The gate turns an n device on above vs + vt and a
+ * p device below vs - vt.
  */
-export function deviceLevels(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, low: number, high: number, vdd: number, dvth: number) {
+export function switchThreshold(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, vdd: number, dvth: number): number {
   const bulk = bulkLevel(plan, device.kind, vdd);
-  if (device.kind === 'n') {
-    const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, vs - bulk);
-    return { level: vs + vt, overdrive: high - vs - vt };
-  }
-  const vt = bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, bulk - vs);
-  return { level: vs - vt, overdrive: vs - vt - low };
+  return bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, device.kind === 'n' ? vs - bulk : bulk - vs);
+}
+
+/** Turn-on level of a device's gate at signal vs, V. */
+export function turnOnLevel(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, vdd: number, dvth: number): number {
+  const vt = switchThreshold(plan, device, d, vs, vdd, dvth);
+  return device.kind === 'n' ? vs + vt : vs - vt;
 }
 
 /** Body voltage of a switch device, V: the declared one, else 0 V for n and the highest gate or signal level for p. */
@@ -87,30 +89,6 @@ export function bulkLevel(plan: SwitchPlan, kind: SwitchDevicePlan['kind'], vdd:
   if (kind === 'n') return 0;
   const high = plan.levelShifter ? levelAt(plan.levelShifter.high, vdd) : vdd;
   return Math.max(high, levelAt(plan.signal.max, vdd));
-}
-
-function deviceInterval(device: SwitchDevicePlan, wave: GateWave, level: number): Interval {
-  const { low, high } = wave.rise;
-  if (device.kind === 'n') {
-    if (level >= high) return { state: 'never', on: NaN, off: NaN };
-    if (level <= low) return { state: 'always', on: NaN, off: NaN };
-    return { state: 'switching', on: rampCrossing(wave.rise, level), off: rampCrossing(wave.fall, level) };
-  }
-  if (level <= low) return { state: 'never', on: NaN, off: NaN };
-  if (level >= high) return { state: 'always', on: NaN, off: NaN };
-  return { state: 'switching', on: rampCrossing(wave.fall, level), off: rampCrossing(wave.rise, level) };
-}
-
-/** Union of two devices' conduction (a tgate); overlapping intervals are assumed (their phases agree). */
-function union(a: Interval, b: Interval, period: number): Interval {
-  if (a.state === 'always' || b.state === 'always') return { state: 'always', on: NaN, off: NaN };
-  if (a.state === 'never') return b;
-  if (b.state === 'never') return a;
-  return {
-    state: 'switching',
-    on: Math.min(a.on, alignNear(b.on, a.on, period)),
-    off: Math.max(a.off, alignNear(b.off, a.off, period)),
-  };
 }
 
 /** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V. */
@@ -133,26 +111,47 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
   let ron = 0;
   for (let k = 0; k < points; k++) {
     const vs = points === 1 ? vMin : vMin + ((vMax - vMin) * k) / (points - 1);
-    let interval: Interval = NEVER;
+    // Conduction at this signal point, device by device: a tgate conducts while either device
+    // does (their windows overlap, as their phases agree). Plain numbers, no objects: this runs
+    // for every switch of every Monte Carlo die.
+    let state: PointState = NEVER;
+    let pointOn = NaN;
+    let pointOff = NaN;
     let conductance = 0;
     for (let i = 0; i < count; i++) {
       const device = plan.devices[i]!;
       const wave = waves[i]!;
+      const { low, high } = wave.rise;
       const d = device.kind === 'n' ? devices.n : devices.p;
-      const { level, overdrive } = deviceLevels(plan, device, d, vs, wave.rise.low, wave.rise.high, vdd, dvth ? dvth[i]! : 0);
-      const own = deviceInterval(device, wave, level);
-      interval = i === 0 ? own : union(interval, own, T);
+      const vt = switchThreshold(plan, device, d, vs, vdd, dvth ? dvth[i]! : 0);
+      const n = device.kind === 'n';
+      const level = n ? vs + vt : vs - vt;
+      const overdrive = n ? high - vs - vt : vs - vt - low;
+      const own: PointState = n ? (level >= high ? NEVER : level <= low ? ALWAYS : SWITCHING) : (level <= low ? NEVER : level >= high ? ALWAYS : SWITCHING);
+      if (state === ALWAYS || own === ALWAYS) state = ALWAYS;
+      else if (own === SWITCHING) {
+        const on = rampCrossing(n ? wave.rise : wave.fall, level);
+        const off = rampCrossing(n ? wave.fall : wave.rise, level);
+        if (state === NEVER) {
+          state = SWITCHING;
+          pointOn = on;
+          pointOff = off;
+        } else {
+          pointOn = Math.min(pointOn, alignNear(on, pointOn, T));
+          pointOff = Math.max(pointOff, alignNear(off, pointOff, T));
+        }
+      }
       const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
       if (Number.isFinite(r)) conductance += 1 / r;
     }
-    if (interval.state === 'never') return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
-    if (interval.state === 'always') return failed(plan, 'always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
+    if (state === NEVER) return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
+    if (state === ALWAYS) return failed(plan, 'always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
     if (k === 0) {
-      on = onLatest = interval.on;
-      off = offEarliest = interval.off;
+      on = onLatest = pointOn;
+      off = offEarliest = pointOff;
     } else {
-      const onK = alignNear(interval.on, on, T);
-      const offK = alignNear(interval.off, off, T);
+      const onK = alignNear(pointOn, on, T);
+      const offK = alignNear(pointOff, off, T);
       if (onK < on) on = onK;
       if (onK > onLatest) onLatest = onK;
       if (offK > off) off = offK;
@@ -163,8 +162,6 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
   }
   return { name: plan.name, type: plan.type, status: 'switching', detail: '', on, off, onLatest, offEarliest, ron };
 }
-
-const NEVER: Interval = { state: 'never', on: NaN, off: NaN };
 
 function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: string): SwitchConduction {
   return { name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity };
