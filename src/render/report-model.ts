@@ -16,6 +16,14 @@ import { renderMarginSvg } from './svg/margins.js';
 import { renderTimingSvg } from './svg/timing.js';
 import type { McSection } from './mc-section.js';
 import type { TuneReport } from '../report/tune-report.js';
+import type { CornerComparison } from '../spice/confirm.js';
+
+/** ngspice against the model at some corners, when the report was asked for it. */
+export interface ConfirmSection {
+  readonly simulator: string;
+  readonly tolerance: number;
+  readonly comparisons: readonly CornerComparison[];
+}
 
 export interface DeadTimeRange {
   readonly from: string;
@@ -44,6 +52,7 @@ export interface ReportModel {
   readonly mc: McSection | null;
   /** Delay-chain proposals (template generators, unless skipped). */
   readonly tune: TuneReport | null;
+  readonly confirm: ConfirmSection | null;
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
@@ -85,6 +94,7 @@ export interface ReportExtras {
   readonly fmaxNote: string;
   readonly mc?: McSection | null;
   readonly tune?: TuneReport | null;
+  readonly confirm?: ConfirmSection | null;
 }
 
 export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
@@ -101,6 +111,7 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     fmaxNote: extras.fmaxNote,
     mc: extras.mc ?? null,
     tune: extras.tune ?? null,
+    confirm: extras.confirm ?? null,
     svg: {
       worst: renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst' }),
       all: renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all' }),

@@ -2,11 +2,40 @@
 import { leastMargin } from '../report/check-report.js';
 import type { ProcessCard } from '../schema/process.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
-import type { ReportModel } from './report-model.js';
+import type { ConfirmSection, ReportModel } from './report-model.js';
+import { worstDifference } from '../spice/confirm.js';
 import { loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
 
 export function signedTime(seconds: number): string {
   return formatSignedTime(seconds);
+}
+
+/** The ngspice comparison as two tables (quantities, then break-before-make) and one sentence. */
+export function confirmTables(c: ConfirmSection, model: string) {
+  const percent = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
+  const quantities = c.comparisons.flatMap((corner) => corner.quantities.map((q) => ({
+    cells: [corner.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
+      q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? 'within' : 'OVER'],
+    fail: !q.pass,
+  })));
+  const pairs = c.comparisons.flatMap((corner) => corner.breakBeforeMake.map((b) => ({
+    cells: [corner.corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured'), b.agrees ? 'alike' : 'DISAGREE'],
+    fail: !b.agrees,
+  })));
+  const within = c.comparisons.filter((x) => x.quantities.every((q) => q.pass)).length;
+  const alike = pairs.filter((p) => !p.fail).length;
+  const worst = worstDifference(c.comparisons);
+  const n = c.comparisons.length;
+  const text = `The ${model} model against ${c.simulator} at ${n} corner${n === 1 ? '' : 's'}: `
+    + `dead times, gaps and widths within ${(c.tolerance * 100).toFixed(1)} % at ${within} of ${n}`
+    + `${pairs.length > 0 ? `, break-before-make verdicts alike for ${alike} of ${pairs.length} pairs` : ''}`
+    + `${worst ? `; largest difference ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})` : ''}. `
+    + 'The decks use the invented device models of the process card; sign-off needs the foundry\'s.';
+  return {
+    text,
+    quantities: { head: ['corner', 'quantity', 'model', c.simulator, 'difference', 'verdict'], rows: quantities },
+    pairs: { head: ['corner', 'break-before-make', 'model margin', `${c.simulator} margin`, 'verdict'], rows: pairs },
+  };
 }
 
 /** The delay-chain proposals as a table (the design's own chain first), and one sentence on them. */

@@ -52,6 +52,24 @@ describe('phasegap report', () => {
     expect(netlist.stdout).not.toContain('id="tune"');
   });
 
+  it('adds ngspice against the model with --confirm (Debian package ngspice), and needs ngspice for it', async () => {
+    const run = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--confirm', 'worst', '-o', '-');
+    expect(run.code).toBe(0);
+    const section = run.stdout.slice(run.stdout.indexOf('<section id="confirm">')).split('</section>')[0]!;
+    expect(section).toMatch(/<h2>Transistor-level confirmation \(ngspice-\S+\)<\/h2>/);
+    expect(section).toMatch(/The analytic model against ngspice-\S+ at 2 corners: dead times, gaps and widths within 10\.0 % at 2 of 2, break-before-make verdicts alike for 4 of 4 pairs; largest difference/);
+    // The two extreme corners: two dead times, two gaps and two widths each, then the two
+    // break-before-make pairs of the demo at each.
+    const rows = section.match(/<tr( class="fail")?><td>/g) ?? [];
+    expect(rows.length).toBe(2 * 6 + 2 * 2);
+    const dir = tempDir();
+    const out = join(dir, 'r.html');
+    const missing = await cliAsync('report', design('doubler'), '--no-fmax', '--confirm', 'worst', '--ngspice', '/nonexistent/ngspice', '-o', out);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toMatch(/apt-get install ngspice/);
+    expect(readdirSync(dir)).toEqual([]);
+  });
+
   it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();
     const file = join(dir, 'review.md');

@@ -1,10 +1,10 @@
 /** `phasegap confirm DESIGN`: runs ngspice on the chosen corners and compares with the model. */
 import { availableParallelism } from 'node:os';
 import { inputError } from '../../errors.js';
-import { resolveDesign } from '../../analysis/resolve.js';
+import { resolveDesign, type ResolvedDesign } from '../../analysis/resolve.js';
 import { generatorDeck } from '../../spice/deck.js';
 import { chooseCorners } from '../../spice/corner-choice.js';
-import { compareCorner, worstDifference } from '../../spice/confirm.js';
+import { compareCorner, worstDifference, type CornerComparison } from '../../spice/confirm.js';
 import { renderConfirmText } from '../../spice/confirm-text.js';
 import { parseSimulatorOutput } from '../../spice/results.js';
 import { checkSimulator, runDecks } from '../../spice/runner.js';
@@ -43,17 +43,22 @@ export function parseJobs(text: string | undefined): number {
   return value;
 }
 
-export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
+export interface ConfirmRun {
+  readonly simulator: string;
+  readonly tolerance: number;
+  readonly comparisons: readonly CornerComparison[];
+}
+
+/** Writes the decks of the chosen corners, runs ngspice on them and compares with the model. */
+export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string,
+  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean }): ConfirmRun {
   const jobs = parseJobs(options.jobs);
-  const { design, card, cardDir } = loadDesign(designPath, options.set);
-  const tolerance = parseTolerance(options.tolerance, design.requirements.confirmTolerance);
-  const model = loadModel(card, cardDir, options, warnTo(io));
-  const resolved = resolveDesign(design, card, model);
+  const tolerance = parseTolerance(options.tolerance, resolved.design.requirements.confirmTolerance);
   const corners = chooseCorners(resolved, options.corners);
-  const modelPath = modelFile(card, cardDir, options.models);
+  const modelPath = modelFile(resolved.card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
-  if (io.stderrIsTTY && !options.json) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
+  if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
   const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
@@ -62,6 +67,14 @@ export function runConfirm(io: Io, designPath: string, options: ConfirmOptions):
     }
     return compareCorner(deck, parsed, tolerance);
   });
+  return { simulator, tolerance, comparisons };
+}
+
+export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
+  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const model = loadModel(card, cardDir, options, warnTo(io));
+  const resolved = resolveDesign(design, card, model);
+  const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json });
   const pass = comparisons.every((c) => c.pass);
   if (options.json) {
     emit(io, toJson({

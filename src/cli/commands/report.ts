@@ -17,6 +17,7 @@ import { renderHistogram } from '../../render/svg/histogram.js';
 import type { McSection } from '../../render/mc-section.js';
 import type { ResolvedDesign } from '../../analysis/resolve.js';
 import { tuneChains } from '../../analysis/tune.js';
+import { confirmCorners } from './confirm.js';
 import { tuneReport } from '../../report/tune-report.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
@@ -30,6 +31,11 @@ export interface ReportOptions extends ModelOptions {
   readonly mc?: string;
   readonly seed?: string;
   readonly tune: boolean;
+  /** Corners to confirm with ngspice (worst, all or names); none when absent. */
+  readonly confirm?: string;
+  readonly tolerance?: string;
+  readonly models?: string;
+  readonly ngspice?: string;
 }
 
 /** Monte Carlo on one thread (the report stays a plain, repeatable function of its inputs). */
@@ -75,6 +81,8 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
     tune: options.tune && loaded.design.generator.template !== 'netlist'
       ? tuneReport(loaded.design.name, loaded.design.clock.frequency, resolved.corners.length, tuneChains(loaded.design, loaded.card, resolved.model), 3)
       : null,
+    confirm: options.confirm === undefined ? null
+      : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }),
   });
   const code = model.report.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {

@@ -8,7 +8,7 @@ import { formatEngineering, formatTime } from '../../units/format.js';
 import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
-import { cardRows, cornerRows, fmaxText, generatorText, signedTime, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, signedTime, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
@@ -88,6 +88,12 @@ ${m.tune ? ((t) => `<section id="tune">
 <p>${h(t.text)}</p>
 ${table(t.head, t.rows, new Set([1, 2, 3, 4, 5, 6]))}
 </section>`)(tuneTable(m.tune)) : ''}
+${m.confirm ? ((c) => `<section id="confirm">
+<h2>Transistor-level confirmation (${h(m.confirm!.simulator)})</h2>
+<p>${h(c.text)}</p>
+${table(c.quantities.head, c.quantities.rows, new Set([2, 3, 4]))}
+${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}
+</section>`)(confirmTables(m.confirm, r.model)) : ''}
 ${m.mc ? `<section class="diagram" id="montecarlo">
 <h2>Monte Carlo mismatch</h2>
 <p>${h(mcHeadline(m.mc.report))}</p>

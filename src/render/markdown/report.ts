@@ -4,7 +4,7 @@
  */
 import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
-import { cardRows, cornerRows, fmaxText, signedTime, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, signedTime, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 
 export interface MarkdownImages {
@@ -48,6 +48,12 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
     const t = tuneTable(m.tune);
     out.push('## Delay chains that pass with the least dead time', '', t.text, '');
     out.push(table(t.head, t.rows.map((row) => row.cells), new Set([1, 2, 3, 4, 5, 6])), '');
+  }
+  if (m.confirm) {
+    const c = confirmTables(m.confirm, r.model);
+    out.push(`## Transistor-level confirmation (${m.confirm.simulator})`, '', c.text, '');
+    out.push(table(c.quantities.head, c.quantities.rows.map((row) => row.cells), new Set([2, 3, 4])), '');
+    if (c.pairs.rows.length > 0) out.push(table(c.pairs.head, c.pairs.rows.map((row) => row.cells), new Set([2, 3])), '');
   }
   if (m.mc) {
     out.push('## Monte Carlo mismatch', '', mcHeadline(m.mc.report), '');
