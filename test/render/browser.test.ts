@@ -52,7 +52,9 @@ async function openReport(name: string, extra: string[] = []) {
 describe('report in headless Chromium', () => {
   for (const name of ['doubler', 'sc-integrator', 'too-tight']) {
     it(`${name}: loads cleanly, lays out every drawing and no two labels overlap`, async () => {
-      const { page, problems, requests, url } = await openReport(name);
+      // The failing design's page also carries the ngspice comparison and the tune proposals.
+      const confirm = name === 'too-tight';
+      const { page, problems, requests, url } = await openReport(name, confirm ? ['--confirm', 'worst'] : []);
       try {
         expect(problems).toEqual([]);
         expect(requests).toEqual([url]);
@@ -86,6 +88,14 @@ describe('report in headless Chromium', () => {
           return found;
         });
         expect(overlaps).toEqual([]);
+        // Every table is laid out at a size and fits the page width.
+        const tables = await page.$$eval('section table', (ts) => ts.map((t) => {
+          const r = t.getBoundingClientRect();
+          return { id: t.closest('section')!.id, w: r.width, h: r.height, fits: r.right <= document.documentElement.clientWidth + 0.5 };
+        }));
+        expect(tables.map((t) => t.id)).toContain('tune');
+        if (confirm) expect(tables.filter((t) => t.id === 'confirm').length).toBe(2);
+        for (const t of tables) expect(t.w > 0 && t.h > 0 && t.fits, t.id).toBe(true);
         mkdirSync(OUTPUT, { recursive: true });
         const png = await page.screenshot({ fullPage: true });
         writeFileSync(join(OUTPUT, `report-${name}.png`), png);
