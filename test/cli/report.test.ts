@@ -67,6 +67,9 @@ describe('phasegap report', () => {
     const missing = await cliAsync('report', design('doubler'), '--no-fmax', '--confirm', 'worst', '--ngspice', '/nonexistent/ngspice', '-o', out);
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/apt-get install ngspice/);
+    const unknown = await cliAsync('report', design('doubler'), '--no-fmax', '--confirm', 'xx/1V/0C', '-o', out);
+    expect(unknown.code).toBe(2);
+    expect(unknown.stderr).toMatch(/^phasegap: error: --confirm: "xx\/1V\/0C" is not a corner of the design/);
     expect(readdirSync(dir)).toEqual([]);
   });
 

@@ -51,10 +51,11 @@ export interface ConfirmRun {
 
 /** Writes the decks of the chosen corners, runs ngspice on them and compares with the model. */
 export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string,
-  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean }): ConfirmRun {
+  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean },
+  cornersFlag = '--corners'): ConfirmRun {
   const jobs = parseJobs(options.jobs);
   const tolerance = parseTolerance(options.tolerance, resolved.design.requirements.confirmTolerance);
-  const corners = chooseCorners(resolved, options.corners);
+  const corners = chooseCorners(resolved, options.corners, cornersFlag);
   const modelPath = modelFile(resolved.card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));

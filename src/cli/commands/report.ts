@@ -82,7 +82,7 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
       ? tuneReport(loaded.design.name, loaded.design.clock.frequency, resolved.corners.length, tuneChains(loaded.design, loaded.card, resolved.model), 3)
       : null,
     confirm: options.confirm === undefined ? null
-      : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }),
+      : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }, '--confirm'),
   });
   const code = model.report.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
