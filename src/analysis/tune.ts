@@ -146,11 +146,11 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     if (closest === null || margin > (closest.limiting?.margin ?? -Infinity)) closest = c;
   };
   const step = space.loadStep;
+  const scan = [...SCAN.filter((c) => c < space.maxLoad), space.maxLoad];
   for (const stages of space.stages) {
     if (stages % 2 !== 0 || stages < gen.earlyTap) continue;
     for (const size of space.stageSizes) {
       const at = (stageLoad: number) => evaluate({ stages, stageSize: size, stageLoad });
-      const scan = [...SCAN.filter((c) => c < space.maxLoad), space.maxLoad];
       let below = -1;
       let found: ChainCandidate | null = null;
       for (const load of scan) {

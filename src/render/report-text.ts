@@ -4,7 +4,8 @@ import type { ProcessCard } from '../schema/process.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../spice/confirm.js';
-import { loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
+import { percent } from '../spice/confirm-text.js';
+import { candidateCells, loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
 
 export function signedTime(seconds: number): string {
   return formatSignedTime(seconds);
@@ -12,7 +13,6 @@ export function signedTime(seconds: number): string {
 
 /** The ngspice comparison as two tables (quantities, then break-before-make) and one sentence. */
 export function confirmTables(c: ConfirmSection, model: string) {
-  const percent = (x: number) => `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
   const quantities = c.comparisons.flatMap((corner) => corner.quantities.map((q) => ({
     cells: [corner.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
       q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? 'within' : 'OVER'],
@@ -40,12 +40,10 @@ export function confirmTables(c: ConfirmSection, model: string) {
 
 /** The delay-chain proposals as a table (the design's own chain first), and one sentence on them. */
 export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells: string[]; fail: boolean }>; text: string } {
-  const row = (label: string, c: TuneCandidateReport) => ({
-    cells: [label, String(c.stages), typeof c.stageSize === 'number' ? String(c.stageSize) : c.stageSize.join(','), loadText(c.stageLoad).replace('fF', ' fF'),
-      c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
-      c.limiting ? formatSignedTime(c.limiting.margin, 'unmeasurable') : 'n/a', c.pass ? 'pass' : 'FAIL'],
-    fail: !c.pass,
-  });
+  const row = (label: string, c: TuneCandidateReport) => {
+    const x = candidateCells(c);
+    return { cells: [label, x.stages, x.size, x.load, x.deadMin, x.deadMax, x.margin, c.pass ? 'pass' : 'FAIL'], fail: !c.pass };
+  };
   const rows = [row('this design', t.current), ...t.proposals.map((p, i) => row(`proposal ${i + 1}`, p))];
   if (t.closest) rows.push(row('closest', t.closest));
   const best = t.proposals[0];

@@ -73,12 +73,21 @@ function sizeText(size: ChainKnobs['stageSize']): string {
   return typeof size === 'number' ? String(size) : size.join(',');
 }
 
+/** A candidate's figures as table cells, shared by the text report and the review page. */
+export function candidateCells(c: TuneCandidateReport) {
+  return {
+    stages: String(c.stages), size: sizeText(c.stageSize), load: `${Number((c.stageLoad / 1e-15).toPrecision(6))} fF`,
+    deadMin: c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), deadMax: c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
+    margin: c.limiting ? formatSignedTime(c.limiting.margin, 'unmeasurable') : 'n/a',
+  };
+}
+
 function row(label: string, c: TuneCandidateReport): string[] {
+  const x = candidateCells(c);
   const lim = c.limiting;
   return [
-    label, String(c.stages), sizeText(c.stageSize), `${Number((c.stageLoad / 1e-15).toPrecision(6))} fF`,
-    c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
-    c.pass ? (c.meets ? 'pass' : 'pass, thin') : 'FAIL', lim ? formatSignedTime(lim.margin, 'unmeasurable') : 'n/a', lim ? `${lim.check} at ${lim.corner}` : '',
+    label, x.stages, x.size, x.load, x.deadMin, x.deadMax,
+    c.pass ? (c.meets ? 'pass' : 'pass, thin') : 'FAIL', x.margin, lim ? `${lim.check} at ${lim.corner}` : '',
   ];
 }
 

@@ -12,7 +12,8 @@ export interface ConfirmSummary {
   readonly corners: readonly CornerComparison[];
 }
 
-function percent(x: number): string {
+/** A relative difference as a signed percentage: +1.6 %. */
+export function percent(x: number): string {
   return `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
 }
 

@@ -1,7 +1,7 @@
 /** `phasegap tune DESIGN`: proposes delay chains that pass every corner with the least wasted dead time. */
 import { defaultSpace, tuneChains, type TuneSpace } from '../../analysis/tune.js';
 import { renderTuneText, tuneReport } from '../../report/tune-report.js';
-import { parseQuantity } from '../../units/quantity.js';
+import { parseQuantity, type Unit } from '../../units/quantity.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
@@ -28,19 +28,15 @@ function numberList(flag: string, text: string, check: (n: number) => boolean, a
   return [...new Set(values)].sort((a, b) => a - b);
 }
 
-function capacitance(flag: string, text: string): number {
-  const q = parseQuantity(text, 'F');
+/** A quantity option in `unit`, at least 0 (or above 0 with `positive`); `allowed` words the bound. */
+function quantityOption(flag: string, text: string, unit: Unit, positive: boolean, allowed: string): number {
+  const q = parseQuantity(text, unit);
   if (!q.ok) throw inputError(flag, text, q.allowed);
-  if (!(q.value > 0)) throw inputError(flag, text, 'must be a positive capacitance, e.g. 200fF');
+  if (!(positive ? q.value > 0 : q.value >= 0)) throw inputError(flag, text, allowed);
   return q.value;
 }
 
-function time(flag: string, text: string): number {
-  const q = parseQuantity(text, 's');
-  if (!q.ok) throw inputError(flag, text, q.allowed);
-  if (!(q.value >= 0)) throw inputError(flag, text, 'must be a time of at least 0, e.g. 50ps');
-  return q.value;
-}
+const capacitance = (flag: string, text: string) => quantityOption(flag, text, 'F', true, 'must be a positive capacitance, e.g. 200fF');
 
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
   const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
@@ -55,7 +51,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
       : numberList('--sizes', options.sizes, (n) => n > 0 && n <= 1000, 'must be stage sizes above 0 and at most 1000, separated by commas, e.g. 1,2'),
     maxLoad: options.maxLoad === undefined ? base.maxLoad : capacitance('--max-load', options.maxLoad),
     loadStep: options.step === undefined ? base.loadStep : capacitance('--step', options.step),
-    headroom: options.margin === undefined ? 0 : time('--margin', options.margin),
+    headroom: options.margin === undefined ? 0 : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
   };
   if (space.loadStep > space.maxLoad) throw inputError('--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
   const top = wholeNumber('--top', options.top, 1, 5);
