@@ -6,6 +6,7 @@
 import { inputError } from '../errors.js';
 import type { CornerResult } from './evaluate.js';
 import { limitingCheck } from './evaluate.js';
+import type { ResolvedDesign } from './resolve.js';
 
 export const CORNER_AXES = ['process', 'vdd', 'temperature', 'duty'] as const;
 
@@ -33,8 +34,8 @@ export function parseRangeNumber(text: string): number | null {
   return scale === undefined ? null : Number(m[1]) * scale;
 }
 
-/** Parses one `--vary AXIS=VALUES` argument. */
-export function parseAxis(spec: string): SweepAxis {
+/** Parses one `--vary AXIS=VALUES` argument; a range longer than `maxPoints` is refused before it is expanded. */
+export function parseAxis(spec: string, maxPoints = Infinity): SweepAxis {
   const eq = spec.indexOf('=');
   if (eq <= 0) throw inputError('--vary', spec, 'must read AXIS=VALUES, with VALUES a list (1.6,1.7,1.8) or a range START:STOP:N');
   const path = spec.slice(0, eq).trim();
@@ -46,17 +47,28 @@ export function parseAxis(spec: string): SweepAxis {
     const n = Number(range[3]);
     if (start === null || stop === null) throw inputError(`--vary ${path}`, text, 'has a range end that is not a number (an SI prefix and unit may follow, e.g. 1.6V:2.0V:5)');
     if (!Number.isInteger(n) || n < 1) throw inputError(`--vary ${path}`, text, `asks for ${range[3]} points; N must be a whole number of at least 1 (the range is empty otherwise)`);
+    if (n > maxPoints) throw inputError(`--vary ${path}`, text, `asks for ${range[3]} points; a sweep has at most ${maxPoints} points (N from 1 to ${maxPoints})`);
     if (n === 1 && start !== stop) throw inputError(`--vary ${path}`, text, 'has one point but two different ends; use N >= 2 or equal ends');
     const values = Array.from({ length: n }, (_, i) => (n === 1 ? start : start + ((stop - start) * i) / (n - 1)));
     return { path, values: values.map((v) => Number(v.toPrecision(12))) };
   }
   const values = text.split(',').map((v) => v.trim());
+  if (values.length > maxPoints) throw inputError(`--vary ${path}`, `${values.length} values`, `is too long; a sweep has at most ${maxPoints} points`);
   if (text === '' || values.some((v) => v === '')) throw inputError(`--vary ${path}`, text, 'is an empty list or has an empty item; give values separated by commas');
   return { path, values };
 }
 
 export function gridSize(axes: readonly SweepAxis[]): number {
   return axes.reduce((n, a) => n * a.values.length, 1);
+}
+
+/** Refuses a grid of more than `maxPoints` points, naming every axis and its length. */
+export function checkGridSize(axes: readonly SweepAxis[], maxPoints: number): number {
+  const size = gridSize(axes);
+  if (size > maxPoints) {
+    throw inputError('--vary', axes.map((a) => `${a.path} (${a.values.length})`).join(' x '), `makes ${size} points; a sweep has at most ${maxPoints} points`);
+  }
+  return size;
 }
 
 /** The axis values of grid point `index` (last axis fastest). */
@@ -110,11 +122,12 @@ export function summarizePoint(index: number, point: readonly (string | number)[
       });
       for (const [phase, w] of Object.entries(m.widths)) widths.set(phase, Math.min(widths.get(phase) ?? Infinity, w));
     }
-    r.checks.forEach((c, k) => {
-      const slot = checks[k];
-      if (!slot) checks[k] = { name: c.name, kind: c.kind, margin: c.margin };
+    // By name: a corner that does not settle has other checks than one that does.
+    for (const c of r.checks) {
+      const slot = checks.find((x) => x.name === c.name);
+      if (!slot) checks.push({ name: c.name, kind: c.kind, margin: c.margin });
       else if (slot.margin !== null && (c.margin === null || c.margin < slot.margin)) slot.margin = c.margin;
-    });
+    }
   }
   const lim = limitingCheck(results);
   return {
@@ -123,4 +136,39 @@ export function summarizePoint(index: number, point: readonly (string | number)[
     limiting: lim ? { corner: lim.corner, check: lim.check, margin: lim.margin } : null,
     deadTimes, widths: [...widths.entries()].map(([phase, min]) => ({ phase, min })), checks,
   };
+}
+
+/** The columns a sweep row of a design can fill: dead-time labels, phases with a width, check names. */
+export interface SweepColumns {
+  readonly deadTimes: readonly string[];
+  readonly widths: readonly string[];
+  readonly checks: readonly string[];
+}
+
+/**
+ * Every quantity and check a corner of this design can produce, in evaluation order (the names
+ * follow src/checks/requirements.ts and switch-checks.ts). The periodic-steady-state check has no
+ * margin and is left out: a point that does not settle says so in its verdict and limiting check.
+ */
+export function sweepColumns(resolved: ResolvedDesign): SweepColumns {
+  const source = resolved.netlist.source;
+  const [a, b] = source.phases;
+  const req = resolved.design.requirements;
+  const labels = resolved.labels;
+  const widthNets = [a, b, ...Object.values(source.early)];
+  const checks = ['phases never active together'];
+  for (let k = 0; k < 2; k++) {
+    if (req.deadTime?.min !== undefined) checks.push(labels.deadMin[k]!);
+    if (req.deadTime?.max !== undefined) checks.push(labels.deadMax[k]!);
+    if (req.gap?.min !== undefined) checks.push(labels.gapMin[k]!);
+  }
+  if (req.width?.min !== undefined) checks.push(...widthNets.map((n) => labels.widthMin[n] ?? `width ${n}`));
+  checks.push(...resolved.switchCheckNames);
+  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks };
+}
+
+/** The union of column sets, each name once, in first-seen order. */
+export function mergeColumns(sets: readonly SweepColumns[]): SweepColumns {
+  const union = (pick: (c: SweepColumns) => readonly string[]) => [...new Set(sets.flatMap(pick))];
+  return { deadTimes: union((c) => c.deadTimes), widths: union((c) => c.widths), checks: union((c) => c.checks) };
 }

@@ -1,18 +1,60 @@
 /** Where a command's main output goes: stdout, or a file written atomically (`-o FILE`, `-o -` for stdout). */
+import { dirname, resolve } from 'node:path';
 import { inputError } from '../errors.js';
-import type { Io } from './io.js';
+import { pathKind, sameFile, type Io } from './io.js';
+import type { LoadedDesign } from './load.js';
 
-export function emit(io: Io, text: string, out: string | undefined): void {
-  if (out === undefined || out === '-') {
+/** Whether `out` means standard output. */
+export const toStdout = (out: string | undefined): out is undefined | '-' => out === undefined || out === '-';
+
+/**
+ * Refuses an output file that is not a plain file (a symbolic link, a device, a FIFO, a folder) or
+ * that is one of the command's inputs. Renaming over a link or a device would replace it with a
+ * regular file, and writing through it would reach whatever it points at; phasegap writes only
+ * regular files and leaves anything else to the shell (`-o -` and a redirection).
+ */
+export function checkOutput(out: string | undefined, inputs: readonly string[], option = '--out'): void {
+  if (toStdout(out)) return;
+  const kind = pathKind(out);
+  if (kind !== 'absent' && kind !== 'regular file') {
+    throw inputError(option, out, `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`);
+  }
+  const input = inputs.find((path) => sameFile(path, out));
+  if (input !== undefined) throw inputError(option, out, `is an input of this command (${input}); writing it would replace the input, pick another name`);
+}
+
+export function emit(io: Io, text: string, out: string | undefined, inputs: readonly string[], option = '--out'): void {
+  if (toStdout(out)) {
     io.stdout(text);
     return;
   }
+  checkOutput(out, inputs, option);
   try {
     io.writeFile(out, text);
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code ?? 'error';
-    throw inputError('--out', out, `cannot be written (${code}); check that the folder exists and is writable`);
+    throw inputError(option, out, `cannot be written (${code}); check that the folder exists and is writable`);
   }
+}
+
+/**
+ * The files a command reading this design depends on: the design, its process card, the delay
+ * tables in use and the SPICE model file, as far as they are files.
+ */
+export function inputFiles(loaded: LoadedDesign, options: { readonly tables?: string; readonly models?: string }): string[] {
+  const files = [loaded.designPath];
+  if (loaded.processSource !== 'inline') files.push(resolve(dirname(loaded.designPath), loaded.processSource));
+  return [...files, ...cardFiles(loaded.card, loaded.cardDir, options)];
+}
+
+/** The tables and SPICE model file a process card names (or the options replace), resolved. */
+export function cardFiles(card: LoadedDesign['card'], cardDir: string, options: { readonly tables?: string; readonly models?: string }): string[] {
+  const files: string[] = [];
+  if (options.tables !== undefined) files.push(options.tables);
+  else if (card.tables !== undefined) files.push(resolve(cardDir, card.tables));
+  if (options.models !== undefined) files.push(options.models);
+  else if (card.spice !== undefined) files.push(resolve(cardDir, card.spice.models));
+  return files;
 }
 
 export function toJson(value: unknown): string {

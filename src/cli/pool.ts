@@ -56,6 +56,17 @@ export function runPool<T, R>(
       resolve();
       return;
     }
+    /** Hands a result to the caller; a throw there (a failed write) stops the pool and rejects. */
+    const deliver = (index: number, result: R): boolean => {
+      try {
+        onResult(index, result);
+        return true;
+      } catch (error) {
+        stop();
+        reject(error);
+        return false;
+      }
+    };
     const finishOne = (): boolean => {
       done++;
       if (done < tasks.length) return false;
@@ -74,8 +85,7 @@ export function runPool<T, R>(
         reject(error);
         return;
       }
-      onResult(index, result);
-      if (!finishOne()) setImmediate(runLocal);
+      if (deliver(index, result) && !finishOne()) setImmediate(runLocal);
     };
     const count = Math.max(local ? 0 : 1, Math.min(local ? threads - 1 : threads, tasks.length));
     const ahead = local ? 2 : 1;
@@ -90,8 +100,7 @@ export function runPool<T, R>(
           reject(message.issues ? new InputError(message.issues) : new Error(message.error));
           return;
         }
-        onResult(message.index, message.result as R);
-        if (!finishOne()) feed(w);
+        if (deliver(message.index, message.result as R) && !finishOne()) feed(w);
       });
       w.on('error', (error) => {
         if (stopped) return;

@@ -8,7 +8,7 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { parseWith } from '../schema/validate.js';
 import { resolveDesign } from '../analysis/resolve.js';
 import { evaluateAll } from '../analysis/evaluate.js';
-import { gridPoint, pointOverrides, summarizePoint, type SweepAxis, type SweepRow } from '../analysis/sweep.js';
+import { gridPoint, pointOverrides, summarizePoint, sweepColumns, type SweepAxis, type SweepColumns, type SweepRow } from '../analysis/sweep.js';
 import { InputError } from '../errors.js';
 import { dirname, resolve } from 'node:path';
 import type { ProcessCard } from '../schema/process.js';
@@ -80,6 +80,13 @@ export function sweepPoint(setup: SweepSetup, index: number): SweepRow {
     const where = setup.axes.map((a, i) => `${a.path}=${values[i]}`).join(', ');
     throw new InputError(error.issues.map((issue) => ({ ...issue, allowed: `${issue.allowed} (at sweep point ${where})` })));
   }
+}
+
+/** The columns a row of grid point `index` can fill (they depend on the design-path axes only). */
+export function pointColumns(setup: SweepSetup, index: number): SweepColumns {
+  const p = prepare(setup);
+  const sets = pointOverrides(setup.axes, gridPoint(setup.axes, index));
+  return sweepColumns(resolveFor(setup, p, sets.filter((_, i) => !isCornerAxis(setup.axes[i]!.path))));
 }
 
 function rawCorners(raw: unknown): Record<string, unknown> {

@@ -1,5 +1,10 @@
-/** Sweep rows as CSV (header once, then one line per point) or as a streamed JSON array. */
-import type { SweepAxis, SweepRow } from '../analysis/sweep.js';
+/**
+ * Sweep rows as CSV or as a streamed JSON array. CSV columns are fixed before the first row from
+ * every quantity and check the swept designs can produce (`SweepColumns`), and each row fills them
+ * by name, so a point with fewer or more checks than another never shifts a value under the wrong
+ * header; what a point lacks is left empty.
+ */
+import type { SweepAxis, SweepColumns, SweepRow } from '../analysis/sweep.js';
 
 function csvField(value: string | number | null): string {
   if (value === null) return '';
@@ -7,27 +12,34 @@ function csvField(value: string | number | null): string {
   return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-/** Column names for a sweep, from its axes and the first row's shape. */
-export function csvHeader(axes: readonly SweepAxis[], first: SweepRow): string {
+export function csvHeader(axes: readonly SweepAxis[], columns: SweepColumns): string {
   const cols = [
     ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s',
-    ...first.deadTimes.flatMap((d) => [`dead_${d.label}_min_s`, `dead_${d.label}_max_s`, `gap_${d.label}_min_s`]),
-    ...first.widths.map((w) => `width_${w.phase}_min_s`),
-    ...first.checks.map((c) => `margin_s: ${c.name}`),
+    ...columns.deadTimes.flatMap((d) => [`dead_${d}_min_s`, `dead_${d}_max_s`, `gap_${d}_min_s`]),
+    ...columns.widths.map((w) => `width_${w}_min_s`),
+    ...columns.checks.map((c) => `margin_s: ${c}`),
   ];
   return `${cols.map(csvField).join(',')}\n`;
 }
 
-/** One CSV line; columns follow the header's row shape (a point that could not be measured leaves them empty). */
-export function csvRow(row: SweepRow, first: SweepRow): string {
+/** The row's quantities and checks that have no column (empty when the columns cover the row). */
+export function unlistedNames(row: SweepRow, columns: SweepColumns): string[] {
+  return [
+    ...row.deadTimes.map((d) => d.label).filter((l) => !columns.deadTimes.includes(l)),
+    ...row.widths.map((w) => w.phase).filter((p) => !columns.widths.includes(p)),
+    ...row.checks.filter((c) => c.kind !== 'steady-state' && !columns.checks.includes(c.name)).map((c) => c.name),
+  ];
+}
+
+export function csvRow(row: SweepRow, columns: SweepColumns): string {
   const cells: Array<string | number | null> = [
     ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null, row.limiting?.margin ?? null,
-    ...first.deadTimes.flatMap((_, k) => {
-      const d = row.deadTimes[k];
+    ...columns.deadTimes.flatMap((label) => {
+      const d = row.deadTimes.find((x) => x.label === label);
       return d ? [d.min, d.max, d.gapMin] : [null, null, null];
     }),
-    ...first.widths.map((w) => row.widths.find((x) => x.phase === w.phase)?.min ?? null),
-    ...first.checks.map((_, k) => row.checks[k]?.margin ?? null),
+    ...columns.widths.map((phase) => row.widths.find((x) => x.phase === phase)?.min ?? null),
+    ...columns.checks.map((name) => row.checks.find((x) => x.name === name)?.margin ?? null),
   ];
   return `${cells.map(csvField).join(',')}\n`;
 }

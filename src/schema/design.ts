@@ -112,7 +112,7 @@ export const designSchema = z.strictObject({
   constraints: constraintsSchema.default({ breakBeforeMake: [], order: [], settle: [] }),
   corners: cornersSchema.default({}),
   montecarlo: z.strictObject({
-    samples: z.number().int().positive().max(100_000_000).default(1000),
+    samples: z.number().int().positive().max(10_000_000).default(1000),
     seed: z.number().int().nonnegative().default(1),
   }).optional(),
   requirements: requirementsSchema.prefault({}),

@@ -15,7 +15,7 @@ import { checkSimulator, runDecks } from '../../spice/runner.js';
 import type { ProcessCard } from '../../schema/process.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadProcess } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
 import { tablesJson } from '../../spice/tables-json.js';
 import { parseJobs } from './confirm.js';
 import { modelFile } from './spice.js';
@@ -77,8 +77,11 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   const cells = parseCells(options.cells);
   const jobs = parseJobs(options.jobs);
   let corners: CornerPoint[];
+  const inputs = [processPath];
   if (options.design !== undefined) {
-    const { design } = loadDesign(options.design);
+    const loaded = loadDesign(options.design);
+    const { design } = loaded;
+    inputs.push(...inputFiles(loaded, {}));
     corners = expandCorners(design.corners, card, design.clock.duty).map(({ corner }) => ({ name: cornerName(corner.process, corner.vdd, corner.temperature), process: corner.process, vdd: corner.vdd, temperature: corner.temperature }));
     corners = corners.filter((c, i) => corners.findIndex((d) => d.name === c.name) === i);
   } else {
@@ -87,6 +90,8 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   // A corner where a device cannot turn on is refused before any simulation.
   expandCorners({ list: corners.map((c) => ({ process: c.process, vdd: c.vdd, temperature: c.temperature })) }, card, 0.5);
   const modelPath = modelFile(card, cardDir, options.models);
+  inputs.push(modelPath);
+  checkOutput(options.out, inputs);
   const simulator = checkSimulator(options.ngspice);
   const axes = gridAxes(card, GRIDS[options.grid], size);
   const tables: CornerTables[] = [];
@@ -115,7 +120,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
     loads: [...axes.loads],
     corners: tables,
   };
-  emit(io, tablesJson(file), options.out);
+  emit(io, tablesJson(file), options.out, inputs);
   if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out}: ${cells.length} cells at ${tables.length} corners\n`);
   return 0;
 }

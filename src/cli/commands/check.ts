@@ -5,7 +5,7 @@ import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
-import { emit, toJson } from '../output.js';
+import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 
 export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -14,10 +14,13 @@ export interface CheckOptions extends ModelOptions {
 }
 
 export function runCheck(io: Io, designPath: string, options: CheckOptions): number {
-  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set);
+  const { design, card, cardDir } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
-  emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
+  emit(io, options.json ? toJson(report) : renderCheckText(report), options.out, inputs);
   if (report.verdict === 'fail' && !options.json && design.generator.template !== 'netlist') {
     io.stderr(`phasegap: hint: phasegap tune ${designPath} proposes delay chains that pass every corner\n`);
   }

@@ -11,7 +11,9 @@ import { checkSimulator, runDecks } from '../../spice/runner.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
-import { emit, toJson } from '../output.js';
+import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { optionalWholeNumber } from '../options.js';
+import { MAX_WORKERS } from '../run-limits.js';
 import { modelFile, warnTo } from './spice.js';
 
 export interface ConfirmOptions extends ModelOptions {
@@ -37,10 +39,7 @@ export function parseTolerance(text: string | undefined, fromDesign?: number): n
 }
 
 export function parseJobs(text: string | undefined): number {
-  if (text === undefined) return availableParallelism();
-  const value = Number(text);
-  if (!Number.isInteger(value) || value < 1 || value > 256) throw inputError('--jobs', text, 'must be a whole number of simulations at once, 1 to 256');
-  return value;
+  return optionalWholeNumber('--jobs', text, { min: 1, max: MAX_WORKERS, noun: 'simulations at once' }, Math.min(availableParallelism(), MAX_WORKERS));
 }
 
 export interface ConfirmRun {
@@ -72,7 +71,10 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
 }
 
 export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
-  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set);
+  const { design, card, cardDir } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   const model = loadModel(card, cardDir, options, warnTo(io));
   const resolved = resolveDesign(design, card, model);
   const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json });
@@ -81,9 +83,9 @@ export function runConfirm(io: Io, designPath: string, options: ConfirmOptions):
     emit(io, toJson({
       tool: 'phasegap', design: design.name, process: card.name, model: model.name, simulator, tolerance,
       verdict: pass ? 'agree' : 'disagree', worst: worstDifference(comparisons), corners: comparisons, cautions: CAUTIONS,
-    }), options.out);
+    }), options.out, inputs);
   } else {
-    emit(io, renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), options.out);
+    emit(io, renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), options.out, inputs);
   }
   return pass ? 0 : 1;
 }

@@ -8,7 +8,7 @@ import { renderMarginSvg } from '../../render/svg/margins.js';
 import { renderTimingSvg } from '../../render/svg/timing.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
 import { parseNets, requireOut } from './out-options.js';
 
 export const CHARTS = ['timing', 'margins'] as const;
@@ -27,14 +27,17 @@ export function runDraw(io: Io, designPath: string, options: DrawOptions): numbe
     throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
-  const { resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { resolved } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(out, inputs);
   const results = evaluateAll(resolved);
   if (options.chart === 'margins') {
-    emit(io, renderMarginSvg(marginChartInput(resolved, results)), out);
+    emit(io, renderMarginSvg(marginChartInput(resolved, results)), out, inputs);
     return results.every((r) => r.pass) ? 0 : 1;
   }
   const selection = selectCorner(results, options.corner, true);
   const diagram = buildDiagram(resolved, results, selection, nets);
-  emit(io, renderTimingSvg(diagram), out);
+  emit(io, renderTimingSvg(diagram), out, inputs);
   return diagram.verdict.pass ? 0 : 1;
 }

@@ -5,7 +5,8 @@ import { formatEngineering, formatTime } from '../../units/format.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit, toJson } from '../output.js';
+import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { MAX_FMAX_RESOLUTION, MIN_FMAX_RESOLUTION } from '../run-limits.js';
 
 export interface FmaxCommandOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -18,16 +19,21 @@ function parseResolution(text: string | undefined): number | undefined {
   if (text === undefined) return undefined;
   const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
   const value = percent ? Number(percent[1]) / 100 : Number(text);
-  if (!(value > 0 && value < 0.5)) throw inputError('--resolution', text, 'must be a relative step between 0 and 0.5, e.g. 0.001 or 0.1%');
+  if (!(value >= MIN_FMAX_RESOLUTION && value < MAX_FMAX_RESOLUTION)) {
+    throw inputError('--resolution', text, `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`);
+  }
   return value;
 }
 
 export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions): number {
-  const { design, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { design, resolved } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   const result = findFmax(resolved, { resolution: parseResolution(options.resolution) });
   const ok = result.fmax !== null && result.fmax >= result.designFrequency;
   if (options.json) {
-    emit(io, toJson({ tool: 'phasegap', design: design.name, ...result, verdict: ok ? 'pass' : 'fail', cautions: CAUTIONS }), options.out);
+    emit(io, toJson({ tool: 'phasegap', design: design.name, ...result, verdict: ok ? 'pass' : 'fail', cautions: CAUTIONS }), options.out, inputs);
     return ok ? 0 : 1;
   }
   const lines: string[] = [];
@@ -45,6 +51,6 @@ export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions)
   lines.push(`verdict: ${ok ? 'PASS' : 'FAIL'} (the design clock ${ok ? 'is at or below' : 'is above'} fmax)`);
   lines.push(`${result.evaluations} corner evaluations`);
   lines.push('', ...CAUTIONS.map((c) => `caution: ${c}`));
-  emit(io, `${lines.join('\n')}\n`, options.out);
+  emit(io, `${lines.join('\n')}\n`, options.out, inputs);
   return ok ? 0 : 1;
 }

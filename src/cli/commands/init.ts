@@ -11,7 +11,7 @@ export function runInit(io: Io, options: { readonly template: string; readonly o
   if (options.out !== '-' && io.exists(options.out) && !options.force) {
     throw inputError('--out', options.out, 'already exists; pick another name or pass --force to overwrite');
   }
-  emit(io, starterDesign(options.template as StarterTemplate), options.out);
+  emit(io, starterDesign(options.template as StarterTemplate), options.out, []);
   if (options.out !== '-') io.stderr(`wrote ${options.out}; next: phasegap check ${options.out}\n`);
   return 0;
 }

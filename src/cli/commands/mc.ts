@@ -6,12 +6,14 @@ import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
 import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
-import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit, toJson } from '../output.js';
+import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
+import { optionalWholeNumber } from '../options.js';
+import { inputError } from '../../errors.js';
+import { MAX_SAMPLES, MAX_SEED, MAX_WORKERS } from '../run-limits.js';
 
 export interface McOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -25,27 +27,27 @@ export interface McOptions extends ModelOptions {
   readonly timings?: boolean;
 }
 
-export function wholeNumber(flag: string, text: string | undefined, min: number, fallback: number): number {
-  if (text === undefined) return fallback;
-  const value = Number(text);
-  if (!Number.isInteger(value) || value < min) throw inputError(flag, text, `must be a whole number of at least ${min}`);
-  return value;
-}
-
 export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
   const started = performance.now();
-  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
-  const samples = wholeNumber('--samples', options.samples, 1, design.montecarlo?.samples ?? 1000);
-  const seed = wholeNumber('--seed', options.seed, 0, design.montecarlo?.seed ?? 1);
-  const threads = wholeNumber('--workers', options.workers, 1, availableParallelism());
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { design, card, resolved } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
+  checkOutput(options.histogram, inputs, '--histogram');
+  if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
+    throw inputError('--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
+  }
+  const samples = optionalWholeNumber('--samples', options.samples, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, design.montecarlo?.samples ?? 1000);
+  const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, design.montecarlo?.seed ?? 1);
+  const threads = optionalWholeNumber('--workers', options.workers, { min: 1, max: MAX_WORKERS, noun: 'threads' }, Math.min(availableParallelism(), MAX_WORKERS));
   if (options.replay !== undefined) {
-    const die = wholeNumber('--replay', options.replay, 0, 0);
+    const die = optionalWholeNumber('--replay', options.replay, { min: 0, max: MAX_SAMPLES - 1, noun: 'die indices' }, 0);
     const sigmas = mismatchSigmas(resolved.netlist, card, resolved.switches);
     const mismatch = drawMismatch(sigmas, seed, die, mismatchBuffers(sigmas));
     const evaluator = new CornerEvaluator(resolved);
     const results = resolved.corners.map(({ corner }) => evaluator.evaluate(corner, mismatch));
     const report = { ...checkReport(resolved, results), design: `${design.name} (die ${die}, seed ${seed})` };
-    emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
+    emit(io, options.json ? toJson(report) : renderCheckText(report), options.out, inputs);
     return report.verdict === 'pass' ? 0 : 1;
   }
   const evaluating = performance.now();
@@ -95,9 +97,9 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       series: mc.deadTimes[c]!.map((values, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, values })),
       requirement: design.requirements.deadTime?.min,
       maximum: design.requirements.deadTime?.max,
-    }), options.histogram);
+    }), options.histogram, inputs, '--histogram');
   }
-  emit(io, options.json ? toJson(report) : renderMcText(report), options.out);
+  emit(io, options.json ? toJson(report) : renderMcText(report), options.out, inputs);
   if (options.timings) {
     const evaluations = samples * resolved.corners.length;
     const used = Math.min(threads, plan.length);

@@ -8,9 +8,10 @@ import { renderMarkdownReport } from '../../render/markdown/report.js';
 import { buildReportModel } from '../../render/report-model.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
 import { requireOut } from './out-options.js';
-import { wholeNumber } from './mc.js';
+import { optionalWholeNumber } from '../options.js';
+import { MAX_SAMPLES, MAX_SEED } from '../run-limits.js';
 import { runMonteCarlo } from '../../analysis/montecarlo.js';
 import { mcReport } from '../../report/mc-report.js';
 import { renderHistogram } from '../../render/svg/histogram.js';
@@ -70,11 +71,16 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   }
   const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const resolved = loaded.resolved;
+  const inputs = inputFiles(loaded, options);
+  const images = markdownImageNames(out);
+  const folder = dirname(out);
+  const targets = options.format === 'md' ? [out, ...Object.values(images).map((name) => join(folder, name))] : [out];
+  for (const target of targets) checkOutput(target, inputs);
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);
-  const dies = options.mc === undefined ? 0 : wholeNumber('--mc', options.mc, 1, 0);
-  const seed = wholeNumber('--seed', options.seed, 0, loaded.design.montecarlo?.seed ?? 1);
+  const dies = optionalWholeNumber('--mc', options.mc, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, 0);
+  const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, loaded.design.montecarlo?.seed ?? 1);
   const model = buildReportModel(resolved, results, {
     processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
     mc: dies > 0 ? monteCarloSection(resolved, dies, seed) : null,
@@ -86,17 +92,15 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   });
   const code = model.report.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
-    emit(io, renderHtmlReport(model), out);
+    emit(io, renderHtmlReport(model), out, inputs);
     return code;
   }
-  const images = markdownImageNames(out);
-  const folder = dirname(out);
   // Every file is rendered before the first is written; the page goes last so it never points at missing drawings.
   const markdown = renderMarkdownReport(model, model.mc ? images : { ...images, histogram: undefined });
-  if (model.mc) emit(io, model.mc.histogram, join(folder, images.histogram));
-  emit(io, model.svg.worst, join(folder, images.worst));
-  emit(io, model.svg.all, join(folder, images.all));
-  emit(io, model.svg.margins, join(folder, images.margins));
-  emit(io, markdown, out);
+  if (model.mc) emit(io, model.mc.histogram, join(folder, images.histogram), inputs);
+  emit(io, model.svg.worst, join(folder, images.worst), inputs);
+  emit(io, model.svg.all, join(folder, images.all), inputs);
+  emit(io, model.svg.margins, join(folder, images.margins), inputs);
+  emit(io, markdown, out, inputs);
   return code;
 }

@@ -10,6 +10,6 @@ export function designJsonSchema(): Record<string, unknown> {
 }
 
 export function runSchema(io: Io, options: { readonly out?: string }): number {
-  emit(io, toJson(designJsonSchema()), options.out);
+  emit(io, toJson(designJsonSchema()), options.out, []);
   return 0;
 }

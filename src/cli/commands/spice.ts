@@ -10,7 +10,7 @@ import { spiceSection } from '../../spice/models.js';
 import { chooseCorners } from '../../spice/corner-choice.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
 
 export interface SpiceOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -29,7 +29,10 @@ export function modelFile(card: ProcessCard, cardDir: string, override?: string)
 export const warnTo = (io: Io) => (message: string) => io.stderr(`phasegap: warning: ${message}\n`);
 
 export function runSpice(io: Io, designPath: string, options: SpiceOptions): number {
-  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set);
+  const { design, card, cardDir } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   if (options.corner === 'all' || options.corner.includes(',')) {
@@ -41,7 +44,7 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const toFile = options.out !== undefined && options.out !== '-';
   const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;
   const deck = generatorDeck(resolved, corner, { modelPath });
-  emit(io, deck.text, options.out);
+  emit(io, deck.text, options.out, inputs);
   if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ngspice -b ${options.out}\n`);
   return 0;
 }

@@ -4,17 +4,18 @@
  * file renamed into place at the end; Ctrl-C keeps the complete rows written so far.
  */
 import { availableParallelism } from 'node:os';
-import { closeSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
-import { gridSize, parseAxis, CORNER_AXES, type SweepAxis, type SweepRow } from '../../analysis/sweep.js';
-import { csvHeader, csvRow, jsonRow } from '../../report/sweep-format.js';
+import { closeSync, renameSync, unlinkSync } from 'node:fs';
+import { checkGridSize, mergeColumns, parseAxis, CORNER_AXES, type SweepColumns, type SweepRow } from '../../analysis/sweep.js';
+import { csvHeader, csvRow, jsonRow, unlistedNames } from '../../report/sweep-format.js';
 import { inputError } from '../../errors.js';
-import type { Io } from '../io.js';
+import { openTemp, writeAll, type Io } from '../io.js';
 import { loadDesign, type ModelOptions } from '../load.js';
+import { checkOutput, inputFiles, toStdout } from '../output.js';
+import { optionalWholeNumber } from '../options.js';
 import { runPool } from '../pool.js';
 import { progressBar } from '../progress.js';
-import { sweepPoint, sweepRows, type SweepSetup } from '../sweep-points.js';
-import { wholeNumber } from './mc.js';
+import { MAX_SWEEP_POINTS, MAX_WORKERS } from '../run-limits.js';
+import { pointColumns, sweepPoint, sweepRows, type SweepSetup } from '../sweep-points.js';
 
 export interface SweepOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -28,58 +29,73 @@ export interface SweepOptions extends ModelOptions {
 const POINTS_PER_TASK = 4;
 
 /** Writes to stdout, or appends to a temp file that becomes `out` when the sweep ends. */
-function sink(io: Io, out: string | undefined) {
-  if (out === undefined || out === '-') return { write: (t: string) => io.stdout(t), finish: () => undefined, abandon: () => undefined };
-  const temp = join(dirname(out), `.${basename(out)}.${process.pid}.tmp`);
-  let fd: number;
+function sink(io: Io, out: string | undefined, inputs: readonly string[]) {
+  if (toStdout(out)) return { write: (t: string) => io.stdout(t), finish: () => undefined, abandon: () => undefined };
+  checkOutput(out, inputs);
+  let file: { fd: number; temp: string };
   try {
-    fd = openSync(temp, 'w');
+    file = openTemp(out);
   } catch (error) {
     throw inputError('--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
   }
+  const { fd, temp } = file;
   return {
-    write: (t: string) => { writeSync(fd, t); },
-    finish: () => { closeSync(fd); renameSync(temp, out); },
+    write: (t: string) => { writeAll(fd, t); },
+    finish: () => { closeSync(fd); checkOutput(out, inputs); renameSync(temp, out); },
     abandon: () => { closeSync(fd); unlinkSync(temp); },
   };
 }
 
-/** Every axis value on its own, so a bad value is reported before any row is written. */
-function checkAxes(setup: SweepSetup): void {
+/**
+ * Evaluates every axis value on its own (the other axes at their first value), so a bad value is
+ * reported before any row is written, and returns the union of the columns those points can fill.
+ */
+function checkAxes(setup: SweepSetup): SweepColumns {
+  const found: SweepColumns[] = [];
   setup.axes.forEach((axis, a) => {
     const names = setup.axes.map((x) => x.path);
     if (names.indexOf(axis.path) !== a) throw inputError('--vary', axis.path, 'is given twice; vary each axis once');
+    const stride = setup.axes.slice(a + 1).reduce((n, x) => n * x.values.length, 1);
     axis.values.forEach((_, k) => {
-      const single: SweepAxis[] = setup.axes.map((x, i) => (i === a ? { path: x.path, values: [x.values[k]!] } : { path: x.path, values: [x.values[0]!] }));
-      sweepPoint({ ...setup, axes: single }, 0);
+      sweepPoint(setup, k * stride);
+      found.push(pointColumns(setup, k * stride));
     });
   });
+  return mergeColumns(found);
 }
+
+/** Yields to the event loop, so a signal that arrived during a long computation is handled. */
+const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export async function runSweep(io: Io, designPath: string, options: SweepOptions): Promise<number> {
   if (options.vary.length === 0) throw inputError('--vary', undefined, 'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5');
-  const { design } = loadDesign(designPath, options.set);
-  const axes = options.vary.map(parseAxis);
+  const loaded = loadDesign(designPath, options.set);
+  const { design } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
+  const axes = options.vary.map((spec) => parseAxis(spec, MAX_SWEEP_POINTS));
+  const total = checkGridSize(axes, MAX_SWEEP_POINTS);
+  const threads = optionalWholeNumber('--workers', options.workers, { min: 1, max: MAX_WORKERS, noun: 'threads' }, Math.min(availableParallelism(), MAX_WORKERS));
   for (const axis of axes) {
     if ((CORNER_AXES as readonly string[]).includes(axis.path) && design.corners.list) {
       throw inputError(`--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
     }
   }
   const setup: SweepSetup = { designPath, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
-  checkAxes(setup);
-  const total = gridSize(axes);
-  const threads = wholeNumber('--workers', options.workers, 1, availableParallelism());
-  const out = sink(io, options.out);
+  const columns = checkAxes(setup);
+  const out = sink(io, options.out, inputs);
   const bar = progressBar(io, total, 'sweep', !options.json);
-  let first: SweepRow | null = null;
   let written = 0;
   let failures = 0;
+  if (!options.json) out.write(csvHeader(axes, columns));
   const emitRow = (row: SweepRow) => {
-    if (first === null) {
-      first = row;
-      if (!options.json) out.write(csvHeader(axes, row));
+    const unlisted = options.json ? [] : unlistedNames(row, columns);
+    if (unlisted.length > 0) {
+      // Only two or more design axes acting together can give a check that no single axis value gives.
+      throw inputError('--vary', axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
+        `gives checks no single axis value gives (${unlisted.join('; ')}), so the CSV has no column for them; sweep these axes one at a time, or use --json`);
     }
-    out.write(options.json ? jsonRow(row, axes, written === 0) : csvRow(row, first));
+    out.write(options.json ? jsonRow(row, axes, written === 0) : csvRow(row, columns));
     if (row.verdict === 'fail') failures++;
     written++;
     bar.update(written);
@@ -90,7 +106,10 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
   process.once('SIGINT', onSigint);
   try {
     if (threads === 1 || total <= POINTS_PER_TASK) {
-      for (let i = 0; i < total && !interrupted; i++) emitRow(sweepPoint(setup, i));
+      for (let i = 0; i < total && !interrupted; i++) {
+        emitRow(sweepPoint(setup, i));
+        await nextTurn();
+      }
     } else {
       const tasks: Array<{ start: number; count: number }> = [];
       for (let start = 0; start < total; start += POINTS_PER_TASK) tasks.push({ start, count: Math.min(POINTS_PER_TASK, total - start) });

@@ -5,8 +5,9 @@ import { parseQuantity, type Unit } from '../../units/quantity.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit, toJson } from '../output.js';
-import { wholeNumber } from './mc.js';
+import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { optionalWholeNumber } from '../options.js';
+import { MAX_TOP } from '../run-limits.js';
 
 export interface TuneOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -39,7 +40,10 @@ function quantityOption(flag: string, text: string, unit: Unit, positive: boolea
 const capacitance = (flag: string, text: string) => quantityOption(flag, text, 'F', true, 'must be a positive capacitance, e.g. 200fF');
 
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
-  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { design, card, resolved } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   const base = defaultSpace(design);
   const gen = design.generator;
   const earlyTap = gen.template === 'netlist' ? 0 : gen.earlyTap;
@@ -54,9 +58,9 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
     headroom: options.margin === undefined ? 0 : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
   };
   if (space.loadStep > space.maxLoad) throw inputError('--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
-  const top = wholeNumber('--top', options.top, 1, 5);
+  const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
   const result = tuneChains(design, card, resolved.model, space);
   const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top);
-  emit(io, options.json ? toJson(report) : renderTuneText(report, designPath), options.out);
+  emit(io, options.json ? toJson(report) : renderTuneText(report, designPath), options.out, inputs);
   return report.verdict === 'pass' ? 0 : 1;
 }

@@ -7,7 +7,9 @@ import { steadyStateDelays } from '../../verilog/delays.js';
 import { verilogModule, verilogTestbench } from '../../verilog/export.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
+import { optionalWholeNumber } from '../options.js';
+import { MAX_TESTBENCH_PERIODS } from '../run-limits.js';
 import { warnTo } from './spice.js';
 
 export interface VerilogOptions extends ModelOptions {
@@ -25,11 +27,13 @@ export function moduleName(designName: string): string {
 }
 
 export function runVerilog(io: Io, designPath: string, options: VerilogOptions): number {
-  const { design, card, cardDir } = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set);
+  const { design, card, cardDir } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
   if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
   if (options.corner === 'all' || options.corner.includes(',')) throw inputError('--corner', options.corner, 'must name one corner or worst');
-  const periods = options.periods === undefined ? 6 : Number(options.periods);
-  if (!Number.isInteger(periods) || periods < 3 || periods > 10000) throw inputError('--periods', options.periods, 'must be a whole number of clock periods, 3 to 10000');
+  const periods = optionalWholeNumber('--periods', options.periods, { min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }, 6);
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const name = options.corner === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner ?? resolved.corners[0]!.corner.name : options.corner;
   const corner = chooseCorners(resolved, name, '--corner')[0]!;
@@ -43,7 +47,7 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
   if (options.testbench) {
     text += verilogTestbench(module, 1 / design.clock.frequency, corner.duty, periods, options.vcd ?? `${module.name}.vcd`);
   }
-  emit(io, text, options.out);
+  emit(io, text, options.out, inputs);
   if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)\n`);
   return 0;
 }

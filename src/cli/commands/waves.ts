@@ -6,7 +6,9 @@ import { vcdSignals } from '../../render/vcd/signals.js';
 import { renderVcd, TIMESCALES, type Timescale } from '../../render/vcd/vcd.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
-import { emit } from '../output.js';
+import { checkOutput, emit, inputFiles } from '../output.js';
+import { wholeNumber } from '../options.js';
+import { MAX_VCD_PERIODS } from '../run-limits.js';
 import { parseNets, requireOut } from './out-options.js';
 
 export interface WavesOptions extends ModelOptions {
@@ -18,22 +20,17 @@ export interface WavesOptions extends ModelOptions {
   readonly out?: string;
 }
 
-const MAX_PERIODS = 1000;
-
-function parsePeriods(text: string): number {
-  const n = Number(text);
-  if (!Number.isInteger(n) || n < 1 || n > MAX_PERIODS) throw inputError('--periods', text, `must be a whole number of clock periods from 1 to ${MAX_PERIODS}`);
-  return n;
-}
-
 export function runWaves(io: Io, designPath: string, options: WavesOptions): number {
   const out = requireOut(options.out, 'VCD');
   const allowed = Object.keys(TIMESCALES);
   if (!allowed.includes(options.timescale)) throw inputError('--timescale', options.timescale, `is not offered; allowed: ${allowed.join(', ')}`);
   const timescale = options.timescale as Timescale;
-  const periods = parsePeriods(options.periods);
+  const periods = wholeNumber('--periods', options.periods, { min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' });
   const nets = parseNets(options.nets);
-  const { design, card, resolved } = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const { design, card, resolved } = loaded;
+  const inputs = inputFiles(loaded, options);
+  checkOutput(out, inputs);
   const results = evaluateAll(resolved);
   const selection = selectCorner(results, options.corner, false);
   const index = selection.kind === 'corner' ? selection.index : selection.reference;
@@ -52,6 +49,6 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
     end: periods * period,
     signals: vcdSignals(result, resolved.netlist, nets, periods),
   });
-  emit(io, text, out);
+  emit(io, text, out, inputs);
   return result.pass ? 0 : 1;
 }
