@@ -41,12 +41,24 @@ export function netWave(result: CornerResult, netlist: CompiledNetlist, net: str
   return { net, period: sim.period, initial: sim.startValues[id] === 1 ? 1 : 0, ramps };
 }
 
-/** The ramps of a wave repeated over whole periods so that they cover [from, to]. */
+/**
+ * Most periods a wave is repeated over. A drawing window spans about one period; only a transition
+ * much longer than the period (an input no generator can settle on) would ask for more, and then
+ * the periods around the window's middle are drawn instead of an unbounded number.
+ */
+export const MAX_REPEATED_PERIODS = 64;
+
+/** The ramps of a wave repeated over whole periods so that they cover [from, to] (at most MAX_REPEATED_PERIODS + 1 periods). */
 export function rampsBetween(wave: NetWave, from: number, to: number): Ramp[] {
   const T = wave.period;
+  if (!(T > 0 && Number.isFinite(from) && Number.isFinite(to))) return [];
   const widest = wave.ramps.reduce((m, r) => Math.max(m, r.transition), 0);
-  const first = Math.floor((from - widest) / T) - 1;
-  const last = Math.ceil((to + widest) / T) + 1;
+  let first = Math.floor((from - widest) / T) - 1;
+  let last = Math.ceil((to + widest) / T) + 1;
+  if (!(last - first <= MAX_REPEATED_PERIODS)) {
+    first = Math.floor((from + to) / 2 / T) - MAX_REPEATED_PERIODS / 2;
+    last = first + MAX_REPEATED_PERIODS;
+  }
   const out: Ramp[] = [];
   for (let k = first; k <= last; k++) {
     for (const r of wave.ramps) {
