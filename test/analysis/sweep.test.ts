@@ -1,6 +1,20 @@
 import { describe, it, expect } from 'vitest';
-import { gridPoint, gridSize, parseAxis, parseRangeNumber, pointOverrides } from '../../src/analysis/sweep.js';
-import { cliAsync, design } from '../helpers.js';
+import { checkGridSize, gridPoint, gridSize, mergeColumns, parseAxis, parseRangeNumber, pointOverrides, summarizePoint, sweepColumns } from '../../src/analysis/sweep.js';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { loadResolved } from '../../src/cli/load.js';
+import { csvHeader, csvRow } from '../../src/report/sweep-format.js';
+import { cliAsync, design, inputErrorMessage } from '../helpers.js';
+
+/** CSV text (no quoted fields in these sweeps) as objects keyed by the header. */
+function csvRecords(text: string): Array<Record<string, string>> {
+  const [head, ...lines] = text.trimEnd().split('\n');
+  const names = head!.split(',');
+  return lines.map((line) => {
+    const cells = line.split(',');
+    expect(cells).toHaveLength(names.length);
+    return Object.fromEntries(names.map((n, i) => [n, cells[i]!]));
+  });
+}
 
 describe('parseAxis', () => {
   it('reads a list as given and a range with both ends included', () => {
@@ -11,6 +25,12 @@ describe('parseAxis', () => {
   });
   it.each(['vdd=1:2:0', 'vdd=', 'vdd=1,,2', 'novalue', 'vdd=a:2:3', 'vdd=1:2:2.5'])('rejects %s', (spec) => {
     expect(() => parseAxis(spec)).toThrow(/--vary/);
+  });
+  it('refuses a range or list longer than the largest grid before expanding it', () => {
+    expect(parseAxis('vdd=1:2:4', 4).values).toHaveLength(4);
+    expect(inputErrorMessage(() => parseAxis('temperature=0:100:1000000000', 1000)))
+      .toBe('--vary temperature: "0:100:1000000000" asks for 1000000000 points; a sweep has at most 1000 points (N from 1 to 1000)');
+    expect(inputErrorMessage(() => parseAxis('vdd=1,2,3', 2))).toBe('--vary vdd: "3 values" is too long; a sweep has at most 2 points');
   });
   it('reads SI prefixes on range ends', () => {
     expect(parseRangeNumber('20fF')).toBeCloseTo(20e-15, 25);
@@ -24,6 +44,10 @@ describe('grid', () => {
   it('has the product of the axis lengths as its size and walks the last axis fastest', () => {
     expect(gridSize(axes)).toBe(6);
     expect([0, 1, 2, 5].map((i) => gridPoint(axes, i))).toEqual([['1', 'x'], ['1', 'y'], ['2', 'x'], ['3', 'y']]);
+  });
+  it('accepts a grid of exactly the largest size and refuses one point more, naming every axis', () => {
+    expect(checkGridSize(axes, 6)).toBe(6);
+    expect(inputErrorMessage(() => checkGridSize(axes, 5))).toBe('--vary: "a (3) x b (2)" makes 6 points; a sweep has at most 5 points');
   });
   it('turns corner axes into one-value corner lists and paths into plain overrides', () => {
     expect(pointOverrides([parseAxis('vdd=1.7'), parseAxis('generator.stages=4')], ['1.7', '4'])).toEqual(['corners.vdd=[1.7]', 'generator.stages=4']);
@@ -59,4 +83,77 @@ describe('phasegap sweep', () => {
     expect(r.stderr).toContain(words);
     expect(r.stdout).toBe('');
   });
+
+  it('keeps every value under its own header when a later point has more checks than the first (2 GHz does not settle, 20 MHz does)', async () => {
+    const mixed = await cliAsync('sweep', design('doubler'), '--vary', 'clock.frequency=2GHz,20MHz', '--workers', '1');
+    const alone = await cliAsync('sweep', design('doubler'), '--vary', 'clock.frequency=20MHz', '--workers', '1');
+    expect(mixed.code).toBe(1);
+    expect(alone.code).toBe(0);
+    const [slow, fast] = csvRecords(mixed.stdout);
+    const [reference] = csvRecords(alone.stdout);
+    expect(slow!.limiting_check).toBe('periodic steady state');
+    expect(slow!['margin_s: phases never active together']).toBe('');
+    expect(Object.keys(fast!)).toEqual(Object.keys(reference!));
+    expect(fast).toEqual(reference);
+    expect(Number(fast!['margin_s: dead p1->p2 >= 500 ps'])).toBeCloseTo(Number(fast!['dead_p1->p2_min_s']) - 500e-12, 18);
+  });
+
+  it('gives the same rows on one and two threads when points differ in their checks', async () => {
+    const args = ['sweep', design('doubler'), '--vary', 'clock.frequency=2GHz,500MHz,20MHz', '--vary', 'vdd=1.62,1.98'];
+    const one = await cliAsync(...args, '--workers', '1');
+    const two = await cliAsync(...args, '--workers', '2');
+    expect(two.stdout).toBe(one.stdout);
+    expect(csvRecords(one.stdout)).toHaveLength(6);
+  });
 });
+
+describe('summarizePoint', () => {
+  it('merges checks by name, so a corner that does not settle does not shift the others (500 MHz: some corners settle)', () => {
+    const { resolved } = loadResolved(design('doubler'), ['clock.frequency=500MHz'], {}, () => undefined);
+    const results = evaluateAll(resolved);
+    expect(results.some((r) => !r.measurement.ok)).toBe(true);
+    expect(results.some((r) => r.measurement.ok)).toBe(true);
+    const row = summarizePoint(0, [], results);
+    const nonOverlap = row.checks.find((c) => c.name === 'phases never active together')!;
+    const least = Math.min(...results.flatMap((r) => r.checks.filter((c) => c.name === nonOverlap.name).map((c) => c.margin!)));
+    expect(nonOverlap.margin).toBe(least);
+    expect(nonOverlap.kind).toBe('non-overlap');
+    expect(row.checks.find((c) => c.kind === 'steady-state')!.margin).toBeNull();
+  });
+});
+
+describe('sweepColumns', () => {
+  it.each([
+    ['doubler', ['requirements.gap.min=100ps', 'requirements.width.min=5ns']],
+    ['sc-integrator', []],
+    ['lp-netlist', []],
+  ])('names every check a settled corner of %s produces, in order', (name, sets) => {
+    const { resolved } = loadResolved(design(name), sets, {}, () => undefined);
+    const settled = evaluateAll(resolved).find((r) => r.measurement.ok)!;
+    const columns = sweepColumns(resolved);
+    expect(columns.checks).toEqual(settled.checks.map((c) => c.name));
+    const row = summarizePoint(0, [], [settled]);
+    expect(columns.deadTimes).toEqual(row.deadTimes.map((d) => d.label));
+    expect(columns.widths).toEqual(row.widths.map((w) => w.phase));
+  });
+
+  it('merges column sets in first-seen order, each name once', () => {
+    const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'] };
+    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'] };
+    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'] });
+  });
+});
+
+describe('csvRow', () => {
+  it('fills columns by name and leaves what a row lacks empty', () => {
+    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'] };
+    const row = {
+      index: 0, point: [1], corners: 3, verdict: 'pass' as const, limiting: null,
+      deadTimes: [{ label: 'a->b', min: 1, max: 2, gapMin: 0.5 }], widths: [{ phase: 'b', min: 7 }],
+      checks: [{ name: 'two', kind: 'order', margin: 4 }],
+    };
+    expect(csvHeader([{ path: 'x', values: [1] }], columns).trim().split(',')).toHaveLength(5 + 1 + 3 + 2 + 2);
+    expect(csvRow(row, columns)).toBe('1,3,pass,,,,1,2,0.5,,7,,4\n');
+  });
+});
+

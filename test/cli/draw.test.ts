@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cli, design, tempDir, cliAsync } from '../helpers.js';
+import { spawnSync } from 'node:child_process';
+import { cli, design, tempDir, cliAsync, ROOT } from '../helpers.js';
 import { all, parseSvg } from '../render/svg-dom.js';
 
 describe('phasegap draw', () => {
@@ -58,4 +59,19 @@ describe('phasegap draw', () => {
     expect(run.code).toBe(2);
     expect(run.stderr).toBe('phasegap: error: --out: is required: name the SVG file to write, or - for stdout\n');
   });
+
+  it('stays bounded when the clock transition is far longer than the period (1 s at 20 MHz), within a 512 MB heap', () => {
+    const dir = tempDir();
+    const file = join(dir, 'slow.svg');
+    const r = spawnSync(process.execPath, ['--max-old-space-size=512', join(ROOT, 'dist/src/cli/main.js'), 'draw', design('doubler'),
+      '--set', 'clock.transition=1s', '-o', file], { encoding: 'utf8', timeout: 30_000 });
+    expect(r.signal).toBeNull();
+    if (r.status === 2) {
+      expect(r.stderr).toContain('clock.transition');
+    } else {
+      expect(r.status).toBe(1);
+      expect(all(parseSvg(readFileSync(file, 'utf8')), 'text.verdict')[0]!.textContent).toBe('\u2715 FAIL');
+    }
+  }, 40_000);
 });
+

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { rampsBetween, wavePoints, type NetWave } from '../../src/render/waveform.js';
+import { MAX_REPEATED_PERIODS, rampsBetween, wavePoints, type NetWave } from '../../src/render/waveform.js';
 import { wrapTime } from '../../src/measure/phases.js';
 import { expectClose } from '../helpers.js';
 
@@ -54,6 +54,18 @@ describe('rampsBetween', () => {
     const ramps = rampsBetween(square, 0, 2 * T);
     const inside = ramps.filter((r) => r.t50 >= 0 && r.t50 <= 2 * T).map((r) => r.t50);
     expect(inside.map((t) => Math.round(t * 1e12))).toEqual([2000, 6000, 12000, 16000]);
+  });
+
+  it('repeats over at most MAX_REPEATED_PERIODS + 1 periods around the window when an edge is far longer than the period', () => {
+    const slow: NetWave = { net: 'clk', period: T, initial: 0, ramps: [{ t50: 2e-9, transition: 1, rising: true }, { t50: 7e-9, transition: 1, rising: false }] };
+    const ramps = rampsBetween(slow, 0, T);
+    expect(ramps.length).toBe(2 * (MAX_REPEATED_PERIODS + 1));
+    expect(ramps.some((r) => r.t50 === 2e-9)).toBe(true);
+    expect(wavePoints(slow, 0, T).length).toBeLessThan(4 * (MAX_REPEATED_PERIODS + 1));
+  });
+
+  it('gives nothing for a window with an infinite end instead of looping', () => {
+    expect(rampsBetween(square, -Infinity, T)).toEqual([]);
   });
 });
 

@@ -76,11 +76,11 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   const folder = dirname(out);
   const targets = options.format === 'md' ? [out, ...Object.values(images).map((name) => join(folder, name))] : [out];
   for (const target of targets) checkOutput(target, inputs);
+  const dies = optionalWholeNumber('--mc', options.mc, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, 0);
+  const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, loaded.design.montecarlo?.seed ?? 1);
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);
-  const dies = optionalWholeNumber('--mc', options.mc, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, 0);
-  const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, loaded.design.montecarlo?.seed ?? 1);
   const model = buildReportModel(resolved, results, {
     processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
     mc: dies > 0 ? monteCarloSection(resolved, dies, seed) : null,
