@@ -42,9 +42,12 @@ export function emit(io: Io, text: string, out: string | undefined, inputs: read
  * tables in use and the SPICE model file, as far as they are files.
  */
 export function inputFiles(loaded: LoadedDesign, options: { readonly tables?: string; readonly models?: string }): string[] {
-  const files = [loaded.designPath];
-  if (loaded.processSource !== 'inline') files.push(resolve(dirname(loaded.designPath), loaded.processSource));
-  return [...files, ...cardFiles(loaded.card, loaded.cardDir, options)];
+  return [...designFiles(loaded), ...cardFiles(loaded.card, loaded.cardDir, options)];
+}
+
+/** The design file and its process card file (when the card is not inline). */
+export function designFiles(loaded: LoadedDesign): string[] {
+  return loaded.processSource === 'inline' ? [loaded.designPath] : [loaded.designPath, resolve(dirname(loaded.designPath), loaded.processSource)];
 }
 
 /** The tables and SPICE model file a process card names (or the options replace), resolved. */

@@ -15,7 +15,7 @@ import { checkSimulator, runDecks } from '../../spice/runner.js';
 import type { ProcessCard } from '../../schema/process.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadProcess } from '../load.js';
-import { checkOutput, emit, inputFiles } from '../output.js';
+import { checkOutput, designFiles, emit } from '../output.js';
 import { tablesJson } from '../../spice/tables-json.js';
 import { parseJobs } from './confirm.js';
 import { modelFile } from './spice.js';
@@ -81,7 +81,8 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   if (options.design !== undefined) {
     const loaded = loadDesign(options.design);
     const { design } = loaded;
-    inputs.push(...inputFiles(loaded, {}));
+    // Not the card's tables: writing them anew is what characterize is for.
+    inputs.push(...designFiles(loaded));
     corners = expandCorners(design.corners, card, design.clock.duty).map(({ corner }) => ({ name: cornerName(corner.process, corner.vdd, corner.temperature), process: corner.process, vdd: corner.vdd, temperature: corner.temperature }));
     corners = corners.filter((c, i) => corners.findIndex((d) => d.name === c.name) === i);
   } else {

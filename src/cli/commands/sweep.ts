@@ -7,7 +7,7 @@ import { availableParallelism } from 'node:os';
 import { closeSync, renameSync, unlinkSync } from 'node:fs';
 import { checkGridSize, mergeColumns, parseAxis, CORNER_AXES, type SweepColumns, type SweepRow } from '../../analysis/sweep.js';
 import { csvHeader, csvRow, jsonRow, unlistedNames } from '../../report/sweep-format.js';
-import { inputError } from '../../errors.js';
+import { InputError, inputError } from '../../errors.js';
 import { openTemp, writeAll, type Io } from '../io.js';
 import { loadDesign, type ModelOptions } from '../load.js';
 import { checkOutput, inputFiles, toStdout } from '../output.js';
@@ -39,10 +39,29 @@ function sink(io: Io, out: string | undefined, inputs: readonly string[]) {
     throw inputError('--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
   }
   const { fd, temp } = file;
+  const abandon = () => {
+    try { closeSync(fd); } catch { /* already closed */ }
+    try { unlinkSync(temp); } catch { /* already gone */ }
+  };
+  const failed = (error: unknown) => {
+    abandon();
+    if (error instanceof InputError) return error;
+    return inputError('--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`);
+  };
   return {
-    write: (t: string) => { writeAll(fd, t); },
-    finish: () => { closeSync(fd); checkOutput(out, inputs); renameSync(temp, out); },
-    abandon: () => { closeSync(fd); unlinkSync(temp); },
+    write: (t: string) => {
+      try { writeAll(fd, t); } catch (error) { throw failed(error); }
+    },
+    finish: () => {
+      try {
+        closeSync(fd);
+        checkOutput(out, inputs);
+        renameSync(temp, out);
+      } catch (error) {
+        throw failed(error);
+      }
+    },
+    abandon,
   };
 }
 
