@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { checkGridSize, gridPoint, gridSize, mergeColumns, parseAxis, parseRangeNumber, pointOverrides, summarizePoint, sweepColumns } from '../../src/analysis/sweep.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { loadResolved } from '../../src/cli/load.js';
-import { csvHeader, csvRow } from '../../src/report/sweep-format.js';
+import { csvHeader, csvRow, unlistedNames } from '../../src/report/sweep-format.js';
 import { cliAsync, design, inputErrorMessage } from '../helpers.js';
 
 /** CSV text (no quoted fields in these sweeps) as objects keyed by the header. */
@@ -157,3 +157,16 @@ describe('csvRow', () => {
   });
 });
 
+describe('unlistedNames', () => {
+  it('names what a row carries beyond the columns, ignoring the margin-less steady-state check', () => {
+    const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'] };
+    const row = {
+      index: 0, point: [], corners: 1, verdict: 'fail' as const, limiting: null,
+      deadTimes: [{ label: 'a->b', min: 1, max: 1, gapMin: 1 }, { label: 'b->a', min: 1, max: 1, gapMin: 1 }],
+      widths: [{ phase: 'a', min: 1 }],
+      checks: [{ name: 'periodic steady state', kind: 'steady-state', margin: null }, { name: 'one', kind: 'order', margin: 1 }, { name: 'two', kind: 'order', margin: 2 }],
+    };
+    expect(unlistedNames(row, columns)).toEqual(['b->a', 'two']);
+    expect(unlistedNames({ ...row, deadTimes: [], checks: row.checks.slice(0, 2) }, columns)).toEqual([]);
+  });
+});
