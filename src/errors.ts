@@ -49,6 +49,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
   for (const key of path) {
     if (typeof key === 'number') out += `[${key}]`;
+    else if (typeof key === 'string' && key.match(UNPRINTABLE)) out += `[${showValue(key)}]`;
     else out += out === '' ? String(key) : `.${String(key)}`;
   }
   return out;
