@@ -44,9 +44,12 @@ export function identifier(index: number): string {
   return out;
 }
 
-/** A VCD reference name: letters, digits, _ and $ only, never starting with $; anything else becomes _. */
+/**
+ * A VCD reference name: letters, digits and _ only; anything else becomes _. IEEE 1364 allows `$`
+ * after the first character, but readers split `a$end` (sigrok-cli reads it as `a`).
+ */
 export function vcdName(name: string): string {
-  const clean = name.replace(/[^A-Za-z0-9_$]/g, '_');
+  const clean = name.replace(/[^A-Za-z0-9_]/g, '_');
   return /^[A-Za-z_]/.test(clean) ? clean : `_${clean}`;
 }
 
