@@ -11,7 +11,7 @@ import { PLAIN_YAML } from './hostile.js';
 const ok = (schema: z.ZodType, value: string) => schema.safeParse(value).success;
 
 describe('identifier', () => {
-  it.each(['u_inv', 'flying-cap charge', 'bottom plate opens first', 'Ø-Schalter', '開關1', 's1 (φ1)', 'a'.repeat(IDENTIFIER_MAX)])('accepts %j', (name) => {
+  it.each(['u_inv', 'flying-cap charge', 'bottom plate opens first', 'Ø-Schalter', '開關1', 's1 (φ1)', 'switch \ud83d\ude00', 'a'.repeat(IDENTIFIER_MAX)])('accepts %j', (name) => {
     expect(ok(identifier(), name)).toBe(true);
   });
 
@@ -19,9 +19,18 @@ describe('identifier', () => {
     ['a newline', 'x\n.control'], ['a carriage return', 'x\r'], ['a tab', 'x\ty'], ['NUL', 'x\u0000'], ['ESC', '\u001b[31mred'],
     ['DEL', 'x\u007f'], ['a C1 control', 'x\u009b'], ['a line separator', 'x\u2028y'], ['a paragraph separator', 'x\u2029y'],
     ['a right-to-left override', 'abc\u202edef'], ['a left-to-right isolate', '\u2066x'], ['a pop directional isolate', 'x\u2069'],
-    ['a zero-width space', 'x\u200by'], ['a lone surrogate', 'x\ud800'], ['nothing', ''], ['too many characters', 'a'.repeat(IDENTIFIER_MAX + 1)],
+    ['a zero-width space', 'x\u200by'], ['a byte-order mark', '\ufeffx'], ['a soft hyphen', 'x\u00ady'], ['a lone surrogate', 'x\ud800'], ['a lone low surrogate', '\udc00x'], ['nothing', ''], ['too many characters', 'a'.repeat(IDENTIFIER_MAX + 1)],
   ])('refuses %s', (_, name) => {
     expect(ok(identifier(), name)).toBe(false);
+  });
+});
+
+describe('the JSON Schema pattern', () => {
+  it('reads the same without the Unicode flag, as editors may compile it', () => {
+    const schema = identifier().toJSONSchema() as { pattern: string };
+    const plain = new RegExp(schema.pattern);
+    for (const name of ['u_inv', 'Ø-Schalter', 's1 (φ1)']) expect(plain.test(name), name).toBe(true);
+    for (const name of ['x\n', 'x\u202e', '\u2066x', 'x\u0085']) expect(plain.test(name), JSON.stringify(name)).toBe(false);
   });
 });
 
@@ -42,7 +51,7 @@ describe('the design schema', () => {
   const PRINTABLE = /is not allowed; it must be printable characters only/;
   const variants: Array<[string, (text: string) => string, RegExp]> = [
     ['name', (t) => t.replace('name: plain', `name: ${JSON.stringify(hostile)}`), PRINTABLE],
-    ['description', (t) => t.replace('name: plain', `name: plain\ndescription: "ok\\u202e"`), /it must be printable characters and line breaks only/],
+    ['description', (t) => t.replace('name: plain', `name: plain\ndescription: "ok\\u202e"`), /it must be printable characters and line feeds only/],
     ['generator.gates[0].name', (t) => t.replace('name: g_inv,', `name: ${JSON.stringify(hostile)},`), PRINTABLE],
     ['switches[0].name', (t) => t.replace('name: sa,', `name: ${JSON.stringify(hostile)},`), /must start with a letter or _ and use letters, digits, _ \. -/],
     ['switches[0].gate', (t) => t.replace('gate: p1,', `gate: ${JSON.stringify(hostile)},`), PRINTABLE],
@@ -68,7 +77,7 @@ describe('the design schema', () => {
     const file = join(dir, 'd.yaml');
     writeFileSync(file, PLAIN_YAML.replace('name: g_inv,', 'name: "a\\nb\\u202ec\\u0085",'));
     expect(inputErrorMessage(() => loadDesign(file))).toBe(
-      'generator.gates[0].name: "a\\nb\\u202ec\\u0085" is not allowed; it must be printable characters only (letters, digits, punctuation, symbols and spaces; no control, format or line-break characters), 1 to 64 characters');
+      'generator.gates[0].name: "a\\nb\\u202ec\\u0085" is not allowed; it must be printable characters only (no control character, line break, tab, separator or invisible format character such as a bidirectional override or zero-width space), 1 to 64 characters');
   });
 
   it('phasegap check exits 2 on a design named with an ngspice control block, writing nothing and running nothing', () => {
