@@ -1,10 +1,10 @@
 /**
- * Worker thread that runs phasegap's `run()` on one argument list at a time with captured output,
- * the same way test/helpers.ts cli() does in-process, but where a hang can be cut off
- * (worker.terminate) and memory bounded (resourceLimits). It also reports whether the case left
- * anything on Object.prototype.
+ * A long-lived process (forked with a heap limit) that runs phasegap's `run()` on one argument
+ * list at a time with captured output, the way test/helpers.ts cli() does in-process, so cases
+ * pay no start-up; a hang is cut off by killing it, and running out of memory kills only it (a
+ * worker thread's resourceLimits do not: V8 can abort the whole process). It also reports whether
+ * the case left anything on Object.prototype.
  */
-import { parentPort } from 'node:worker_threads';
 import { existsSync } from 'node:fs';
 import { run } from '../../src/cli/program.js';
 import { writeFileAtomic, type Io } from '../../src/cli/io.js';
@@ -24,7 +24,7 @@ export interface WorkerReply {
 const baseline = new Set(Object.getOwnPropertyNames(Object.prototype));
 const MAX_CAPTURE = 4_000_000;
 
-parentPort!.on('message', async (request: WorkerRequest) => {
+process.on('message', async (request: WorkerRequest) => {
   let stdout = '';
   let stderr = '';
   const io: Io = {
@@ -43,5 +43,5 @@ parentPort!.on('message', async (request: WorkerRequest) => {
   }
   const polluted = Object.getOwnPropertyNames(Object.prototype).filter((k) => !baseline.has(k));
   const reply: WorkerReply = { id: request.id, code, stdout, stderr, thrown, polluted };
-  parentPort!.postMessage(reply);
+  process.send!(reply);
 });

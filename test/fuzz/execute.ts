@@ -1,14 +1,13 @@
 /**
  * Runs a case: lays out its files in a fresh folder (designs/, processes/, a link to the shipped
- * models, an empty out/), then runs the command in a reusable worker thread or a child process,
- * each cut off after a time limit and held to a memory limit.
+ * models, an empty out/), then runs the command in a reusable case process (in-process speed) or
+ * a fresh `phasegap` process, each cut off after a time limit and held to a memory limit.
  */
-import { spawn } from 'node:child_process';
+import { fork, spawn, type ChildProcess } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { Worker } from 'node:worker_threads';
 import { parse } from 'yaml';
 import { argv, outExtension, type Case } from './cases.js';
 import { applyPlan, oneCorner } from './mutations.js';
@@ -69,19 +68,18 @@ export interface RunResult {
   readonly ms: number;
 }
 
-/** A worker thread reused across cases; replaced after a time-out or a death. */
+/** A forked case process reused across cases; replaced after a time-out, a death or a polluted prototype. */
 export class WorkerRunner {
-  private worker: Worker | undefined;
+  private worker: ChildProcess | undefined;
+  private stderr = '';
   private next = 0;
 
-  private spawn(): Worker {
-    const worker = new Worker(join(DIST, 'test', 'fuzz', 'case-worker.js'), {
-      resourceLimits: { maxOldGenerationSizeMb: MEMORY_MB, maxYoungGenerationSizeMb: 64 },
-      stdout: true, stderr: true,
+  private spawn(): ChildProcess {
+    const worker = fork(join(DIST, 'test', 'fuzz', 'case-worker.js'), [], {
+      execArgv: [`--max-old-space-size=${MEMORY_MB}`], stdio: ['ignore', 'ignore', 'pipe', 'ipc'], env: { ...process.env, CI: '1' },
     });
-    worker.stdout.resume();
-    worker.stderr.resume();
-    worker.unref();
+    this.stderr = '';
+    worker.stderr!.setEncoding('utf8').on('data', (d: string) => { this.stderr = (this.stderr + d).slice(-20_000); });
     return worker;
   }
 
@@ -93,9 +91,8 @@ export class WorkerRunner {
       const finish = (r: Omit<RunResult, 'ms'>, keep: boolean) => {
         clearTimeout(timer);
         worker.off('message', onMessage);
-        worker.off('error', onError);
         worker.off('exit', onExit);
-        if (!keep) { void worker.terminate(); this.worker = undefined; }
+        if (!keep) { worker.kill('SIGKILL'); this.worker = undefined; }
         resolve({ ...r, ms: Date.now() - start });
       };
       const blank = { code: undefined, stdout: '', stderr: '', thrown: undefined, polluted: [] as string[] };
@@ -104,21 +101,22 @@ export class WorkerRunner {
         if (reply.id !== id) return;
         finish({ ...reply, timedOut: false, outOfMemory: false, died: undefined }, reply.polluted.length === 0);
       };
-      const onError = (error: Error & { code?: string }) => {
-        const oom = error.code === 'ERR_WORKER_OUT_OF_MEMORY';
-        finish({ ...blank, timedOut: false, outOfMemory: oom, died: oom ? undefined : (error.stack ?? error.message) }, false);
+      const onExit = (code: number | null, signal: string | null) => {
+        // Let the last of its stderr arrive before judging why it died.
+        setTimeout(() => {
+          const oom = /heap out of memory|Allocation failed/i.test(this.stderr);
+          finish({ ...blank, stderr: this.stderr, timedOut: false, outOfMemory: oom, died: oom ? undefined : `case process exited (${signal ?? code}): ${this.stderr.slice(-300)}` }, false);
+        }, 50);
       };
-      const onExit = (exitCode: number) => finish({ ...blank, timedOut: false, outOfMemory: false, died: `worker exited with ${exitCode}` }, false);
       worker.on('message', onMessage);
-      worker.on('error', onError);
       worker.on('exit', onExit);
       const request: WorkerRequest = { id, argv: args };
-      worker.postMessage(request);
+      worker.send(request);
     });
   }
 
   async close(): Promise<void> {
-    await this.worker?.terminate();
+    this.worker?.kill('SIGKILL');
     this.worker = undefined;
   }
 }
@@ -136,6 +134,10 @@ export function runChild(args: readonly string[], cwd: string, timeoutMs: number
     child.stderr.setEncoding('utf8').on('data', (d: string) => { if (stderr.length < 4_000_000) stderr += d; });
     let timedOut = false;
     const timer = setTimeout(() => { timedOut = true; child.kill('SIGKILL'); }, timeoutMs);
+    child.on('error', (error) => {
+      clearTimeout(timer);
+      resolve({ code: undefined, stdout, stderr, thrown: undefined, timedOut: false, outOfMemory: false, died: `could not start: ${error.message}`, polluted: [], ms: Date.now() - start });
+    });
     child.on('close', (code, signal) => {
       clearTimeout(timer);
       const outOfMemory = /heap out of memory|Allocation failed/i.test(stderr);

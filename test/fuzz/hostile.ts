@@ -52,6 +52,17 @@ export const PAYLOADS: readonly string[] = [
   'yes', 'no', 'on', 'off', '~', 'null',
 ];
 
+/**
+ * Names the schema accepts (letters, digits, _ . $ [ ]) that still mean something in an output:
+ * Verilog keywords, SPICE's case-insensitive node names and reserved nodes, names that collide once
+ * sanitized, a very long identifier.
+ */
+export const IDENTIFIERS: readonly string[] = [
+  'module', 'endmodule', 'input', 'output', 'wire', 'reg', 'initial', 'always', 'assign', 'begin', 'end', 'timescale',
+  'vdd', 'VDD', 'gnd', 'GND', 'P1', 'P2', 'CLK', 'Clk', 'clkb', 'tran', 'x', 'X0', 'a.b', 'a$b', 'a$end', 'a[0]', 'a[0].b',
+  'p1_', 'p1.', 'p1$', 'p1[1]', '_', 'pgx.control', 'shell', 'a'.repeat(5000), 'Ω', 'ä',
+];
+
 export const KEYS: readonly string[] = [
   '__proto__', 'constructor', 'prototype', 'toString', 'hasOwnProperty', '__defineGetter__',
   'polluted', '', ' ', 'a.b', 'a[0]', '[0]', 'p1', 'name', 'x\n.control', '<pgx>', '$end', 'valueOf', 'length',
@@ -70,6 +81,7 @@ const controlChars = fc.string({ unit: fc.integer({ min: 0, max: 0x1f }).map((c)
 /** A hostile string: a payload, a random unicode string, control characters, or a very long string. */
 export const hostileString: fc.Arbitrary<string> = fc.oneof(
   { weight: 8, arbitrary: fc.constantFrom(...PAYLOADS) },
+  { weight: 4, arbitrary: fc.constantFrom(...IDENTIFIERS) },
   { weight: 2, arbitrary: fc.tuple(fc.constantFrom(...PAYLOADS), fc.constantFrom(...PAYLOADS)).map(([a, b]) => a + b) },
   { weight: 2, arbitrary: fc.string({ unit: 'binary', maxLength: 12 }) },
   { weight: 1, arbitrary: controlChars.map((s) => `pgx${s}`) },

@@ -59,6 +59,9 @@ export function runProperties(r: RunResult): Violation[] {
   if (/internal error/i.test(r.stderr) || STACK.test(r.stderr)) {
     v.push({ property: 'crash', detail: `stack trace or internal error on stderr: ${r.stderr.split('\n').slice(0, 4).join(' | ').slice(0, 400)}` });
   }
+  // Text for a terminal must not carry the file's control characters (escape sequences, carriage returns).
+  const control = /[\x00-\x08\x0b-\x1f\x7f\x9b]/.exec(r.stderr) ?? /[\x00-\x08\x0b-\x1f\x7f\x9b]/.exec(r.stdout);
+  if (control) v.push({ property: 'terminal-control', detail: `raw control character U+${control[0].charCodeAt(0).toString(16).padStart(4, '0')} on ${control.input === r.stderr ? 'stderr' : 'stdout'}: ${JSON.stringify(control.input.slice(Math.max(0, control.index - 60), control.index + 20))}` });
   if (r.polluted.length > 0) v.push({ property: 'prototype-pollution', detail: `Object.prototype gained ${r.polluted.join(', ')}` });
   return v;
 }
