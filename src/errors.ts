@@ -32,10 +32,15 @@ export function renderIssue(issue: InputIssue): string {
   return issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
 }
 
+/** Characters a terminal could act on or reorder: controls, separators, format characters (shown as \uXXXX). */
+const UNPRINTABLE = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
+const escaped = (json: string) => json.replace(UNPRINTABLE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+
 export function showValue(value: unknown): string {
-  if (typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'string') return escaped(JSON.stringify(value));
   if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
-  const text = JSON.stringify(value);
+  const json = JSON.stringify(value) as string | undefined;
+  const text = json === undefined ? undefined : escaped(json);
   return text === undefined ? String(value) : text.length > 60 ? `${text.slice(0, 57)}...` : text;
 }
 
@@ -44,6 +49,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
   for (const key of path) {
     if (typeof key === 'number') out += `[${key}]`;
+    else if (typeof key === 'string' && key.match(UNPRINTABLE)) out += `[${showValue(key)}]`;
     else out += out === '' ? String(key) : `.${String(key)}`;
   }
   return out;

@@ -79,8 +79,12 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     case 'unrecognized_keys':
       return {
         path: joinPath(path, ''),
-        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => JSON.stringify(k)).join(', ')}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
+        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => showValue(k)).join(', ')}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
+    case 'invalid_key': {
+      const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
+      return { path: joinPath(prefix, formatPath(issue.path.slice(0, -1))), value: showValue(issue.path[issue.path.length - 1]), allowed: `is not allowed as a key here: ${inner}` };
+    }
     case 'invalid_type':
       return received === undefined
         ? { path, allowed: `is required (${issue.expected})` }
