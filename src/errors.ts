@@ -17,7 +17,7 @@ export interface InputIssue {
 export class InputError extends Error {
   readonly issues: readonly InputIssue[];
   constructor(issues: readonly InputIssue[]) {
-    super(issues.map(renderIssue).join('\n'));
+    super(renderIssues(issues).join('\n'));
     this.name = 'InputError';
     this.issues = issues;
   }
@@ -32,11 +32,26 @@ export function renderIssue(issue: InputIssue): string {
   return issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
 }
 
+/** Most issues rendered for one error; the rest are counted, so a hostile file cannot flood the terminal. */
+export const MAX_RENDERED_ISSUES = 20;
+
+/** The first `max` issues as lines, then one line counting the rest. */
+export function renderIssues(issues: readonly InputIssue[], max = MAX_RENDERED_ISSUES): string[] {
+  const lines = issues.slice(0, max).map(renderIssue);
+  if (issues.length > max) lines.push(`... and ${issues.length - max} more`);
+  return lines;
+}
+
+const MAX_SHOWN_CHARS = 60;
+
 export function showValue(value: unknown): string {
-  if (typeof value === 'string') return JSON.stringify(value);
+  if (typeof value === 'string') {
+    const text = JSON.stringify(value);
+    return text.length > MAX_SHOWN_CHARS ? `${JSON.stringify(value.slice(0, MAX_SHOWN_CHARS - 5)).slice(0, -1)}..."` : text;
+  }
   if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
   const text = JSON.stringify(value);
-  return text === undefined ? String(value) : text.length > 60 ? `${text.slice(0, 57)}...` : text;
+  return text === undefined ? String(value) : text.length > MAX_SHOWN_CHARS ? `${text.slice(0, MAX_SHOWN_CHARS - 3)}...` : text;
 }
 
 /** Formats a path array (from zod or our own walkers) as `a.b[2].c`. */
