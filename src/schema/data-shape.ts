@@ -1,6 +1,7 @@
 /**
  * The shape every file phasegap reads must have before its schema sees it: plain data (mappings,
- * lists, strings, numbers, booleans, null) within the bounds of limits.ts, with no reserved keys.
+ * lists, strings, numbers, booleans, null) within the bounds of limits.ts, with no reserved keys
+ * and no value "__proto__" (names become keys of plain objects further in).
  * Checked once, before any expensive work, so the schema and the core can trust the size.
  */
 import { InputError, formatPath, type InputIssue } from '../errors.js';
@@ -12,6 +13,7 @@ export const shapeMessages = {
   items: (count: number) => `has ${count} items; a list may hold at most ${MAX_LIST_ITEMS}`,
   values: `holds more than ${MAX_VALUES} values in all (counting each use of a YAML alias); phasegap files hold far fewer`,
   reserved: (key: string) => `uses the reserved key ${JSON.stringify(key)} (a built-in object member name: constructor, prototype, __proto__, toString, ...); choose another name`,
+  reservedName: 'is the reserved name "__proto__" (it would replace a built-in object member wherever it names something); choose another name',
   kind: 'is not plain data; write numbers, strings, booleans, lists and mappings (YAML sets, timestamps and binary are not read)',
 };
 
@@ -25,6 +27,7 @@ export function checkDataShape(data: unknown, prefix: readonly PropertyKey[] = [
   };
   const visit = (node: unknown, depth: number): void => {
     if (++values > MAX_VALUES) fail(shapeMessages.values);
+    if (node === '__proto__') fail(shapeMessages.reservedName);
     if (node === null || typeof node === 'string' || typeof node === 'number' || typeof node === 'boolean') return;
     if (depth >= MAX_DEPTH) fail(shapeMessages.depth);
     if (Array.isArray(node)) {

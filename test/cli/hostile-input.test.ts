@@ -190,9 +190,31 @@ describe('a foreign file named as a process card or table file', () => {
 });
 
 describe('names that are built-in object members', () => {
-  it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])('refuses process corner %s as not on the card', (name) => {
+  it.each(['constructor', 'toString', 'hasOwnProperty'])('refuses process corner %s as not on the card', (name) => {
     const stderr = refused(cli('check', design('doubler'), '--set', `corners.process=[${name}]`));
     expect(stderr).toBe(`phasegap: error: corners.process[0]: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf\n`);
+  });
+
+  it('refuses the name __proto__ anywhere, as a corner, a phase or a switch', () => {
+    for (const set of ['corners.process=[__proto__]', 'generator.phases=[__proto__, p2]', 'switches[0].name=__proto__']) {
+      const [path] = set.split('=');
+      const at = set.endsWith(']') ? `${path!}[0]` : path!;
+      expect(refused(cli('check', design('doubler'), '--set', set))).toContain(`is refused at ${at}: it is the reserved name "__proto__"`);
+    }
+  });
+
+  it.each(['constructor', 'toString', 'hasOwnProperty'])('measures a phase named %s like any other', (name) => {
+    const run = cli('check', design('doubler'), '--json', '--set', `generator.phases=[${name}, p2]`, '--set', 'switches=[]', '--set', 'constraints={}',
+      '--set', 'loads={}', '--set', 'corners={process: [tt], vdd: [1.8V], temperature: [27]}', '--set', 'generator.complementary=true', '--set', 'generator.earlyTap=2');
+    expect(run.stderr).toBe('');
+    const report = JSON.parse(run.stdout) as { phases: string[]; corners: Array<{ widths: Record<string, number> }> };
+    expect(report.phases).toEqual([name, 'p2']);
+    const widths = report.corners[0]!.widths;
+    expect(Object.hasOwn(widths, name)).toBe(true);
+    // Both phases of a symmetric generator are about half the 50 ns period wide.
+    expect(widths[name]).toBeGreaterThan(20e-9);
+    expect(widths[name]).toBeLessThan(25e-9);
+    expect(Math.abs(widths[name]! - widths.p2!)).toBeLessThan(1e-9);
   });
 
   it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])('refuses a card that defines a corner named %s', (name) => {
