@@ -41,7 +41,7 @@ function splitPath(path: string, text: string): Array<string | number> {
     const match = /^([^[\]]+)((?:\[\d+\])*)$/.exec(piece);
     if (!match) throw inputError('--set', text, 'has a malformed path; write keys separated by dots, list items as [N], e.g. corners.vdd[0]=1.6V');
     const key = match[1]!;
-    if (RESERVED_KEYS.has(key)) throw inputError('--set', text, `names the reserved key ${JSON.stringify(key)} (a built-in object member name); no design field has that name`);
+    if (RESERVED_KEYS.has(key)) throw inputError('--set', text, `names the reserved key ${JSON.stringify(key)} (a built-in object member name), which no field, net, corner or switch may use`);
     parts.push(key);
     for (const index of match[2]!.matchAll(/\[(\d+)\]/g)) {
       const n = Number(index[1]);

@@ -1,10 +1,11 @@
 /**
  * The shape every file phasegap reads must have before its schema sees it: plain data (mappings,
- * lists, strings, numbers, booleans, null) within the bounds of limits.ts, with no reserved keys
- * and no value "__proto__" (names become keys of plain objects further in).
+ * lists, strings, numbers, booleans, null) within the bounds of limits.ts, with no reserved name
+ * (constructor, __proto__, toString, ...) as a key or as a value: names become keys of plain
+ * objects further in, where such a name would find or replace the built-in member.
  * Checked once, before any expensive work, so the schema and the core can trust the size.
  */
-import { InputError, formatPath, type InputIssue } from '../errors.js';
+import { InputError, formatPath, showValue, type InputIssue } from '../errors.js';
 import { MAX_DEPTH, MAX_LIST_ITEMS, MAX_MAPPING_KEYS, MAX_VALUES, RESERVED_KEYS } from './limits.js';
 
 export const shapeMessages = {
@@ -13,7 +14,7 @@ export const shapeMessages = {
   items: (count: number) => `has ${count} items; a list may hold at most ${MAX_LIST_ITEMS}`,
   values: `holds more than ${MAX_VALUES} values in all (counting each use of a YAML alias); phasegap files hold far fewer`,
   reserved: (key: string) => `uses the reserved key ${JSON.stringify(key)} (a built-in object member name: constructor, prototype, __proto__, toString, ...); choose another name`,
-  reservedName: 'is the reserved name "__proto__" (it would replace a built-in object member wherever it names something); choose another name',
+  reservedName: 'is a reserved name (a built-in object member: constructor, prototype, __proto__, toString, ...); choose another name',
   kind: 'is not plain data; write numbers, strings, booleans, lists and mappings (YAML sets, timestamps and binary are not read)',
 };
 
@@ -21,13 +22,13 @@ export const shapeMessages = {
 export function checkDataShape(data: unknown, prefix: readonly PropertyKey[] = []): void {
   const path: PropertyKey[] = [...prefix];
   let values = 0;
-  const fail = (allowed: string): never => {
-    const issue: InputIssue = { path: formatPath(path), allowed };
+  const fail = (allowed: string, value?: string): never => {
+    const issue: InputIssue = { path: formatPath(path), value: value === undefined ? undefined : showValue(value), allowed };
     throw new InputError([issue]);
   };
   const visit = (node: unknown, depth: number): void => {
     if (++values > MAX_VALUES) fail(shapeMessages.values);
-    if (node === '__proto__') fail(shapeMessages.reservedName);
+    if (typeof node === 'string' && RESERVED_KEYS.has(node)) fail(shapeMessages.reservedName, node);
     if (node === null || typeof node === 'string' || typeof node === 'number' || typeof node === 'boolean') return;
     if (depth >= MAX_DEPTH) fail(shapeMessages.depth);
     if (Array.isArray(node)) {

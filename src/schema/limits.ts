@@ -38,8 +38,8 @@ export const MAX_TABLE_AXIS = 256;
 export const MAX_SET_INDEX = MAX_LIST_ITEMS;
 
 /**
- * Keys refused in any mapping: the members every JavaScript object inherits. A corner, net or
- * switch with such a name would be confused with the built-in member wherever data is looked up
- * by name.
+ * Names refused as keys and as values: the members every JavaScript object inherits. A corner,
+ * net, switch or check with such a name would be confused with the built-in member wherever data
+ * is kept or looked up by name.
  */
 export const RESERVED_KEYS: ReadonlySet<string> = new Set([...Object.getOwnPropertyNames(Object.prototype), 'prototype']);

@@ -8,7 +8,7 @@ import { execFileSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse as parseYaml } from 'yaml';
-import { cli, design, processCard, tempDir, type CliRun } from '../helpers.js';
+import { cli, cliAsync, design, processCard, tempDir, type CliRun } from '../helpers.js';
 
 const CARD = processCard('generic180');
 
@@ -190,37 +190,29 @@ describe('a foreign file named as a process card or table file', () => {
 });
 
 describe('names that are built-in object members', () => {
-  it.each(['constructor', 'toString', 'hasOwnProperty'])('refuses process corner %s as not on the card', (name) => {
-    const stderr = refused(cli('check', design('doubler'), '--set', `corners.process=[${name}]`));
-    expect(stderr).toBe(`phasegap: error: corners.process[0]: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf\n`);
+  const NAMES = ['constructor', 'toString', '__proto__', 'hasOwnProperty'];
+
+  it.each(NAMES)('refuses %s as a process corner of the design', (name) => {
+    const path = write('design.json', JSON.stringify({ ...demo(), corners: { process: [name] } }));
+    expect(refused(cli('check', path))).toBe(`phasegap: error: corners.process[0]: "${name}" is a reserved name (a built-in object member: constructor, prototype, __proto__, toString, ...); choose another name\n`);
   });
 
-  it('refuses the name __proto__ anywhere, as a corner, a phase or a switch', () => {
-    for (const set of ['corners.process=[__proto__]', 'generator.phases=[__proto__, p2]', 'switches[0].name=__proto__']) {
-      const [path] = set.split('=');
-      const at = set.endsWith(']') ? `${path!}[0]` : path!;
-      expect(refused(cli('check', design('doubler'), '--set', set))).toContain(`is refused at ${at}: it is the reserved name "__proto__"`);
+  it.each(NAMES)('refuses %s as a phase, a switch or a constraint name given with --set', (name) => {
+    for (const [set, at] of [[`generator.phases=[${name}, p2]`, 'generator.phases[0]'], [`switches[0].name=${name}`, 'switches[0].name'], [`constraints.breakBeforeMake[0].name=${name}`, 'constraints.breakBeforeMake[0].name']] as const) {
+      expect(refused(cli('check', design('doubler'), '--set', set))).toContain(`is refused at ${at}: it is a reserved name`);
     }
   });
 
-  it.each(['constructor', 'toString', 'hasOwnProperty'])('measures a phase named %s like any other', (name) => {
-    const run = cli('check', design('doubler'), '--json', '--set', `generator.phases=[${name}, p2]`, '--set', 'switches=[]', '--set', 'constraints={}',
-      '--set', 'loads={}', '--set', 'corners={process: [tt], vdd: [1.8V], temperature: [27]}', '--set', 'generator.complementary=true', '--set', 'generator.earlyTap=2');
-    expect(run.stderr).toBe('');
-    const report = JSON.parse(run.stdout) as { phases: string[]; corners: Array<{ widths: Record<string, number> }> };
-    expect(report.phases).toEqual([name, 'p2']);
-    const widths = report.corners[0]!.widths;
-    expect(Object.hasOwn(widths, name)).toBe(true);
-    // Both phases of a symmetric generator are about half the 50 ns period wide.
-    expect(widths[name]).toBeGreaterThan(20e-9);
-    expect(widths[name]).toBeLessThan(25e-9);
-    expect(Math.abs(widths[name]! - widths.p2!)).toBeLessThan(1e-9);
+  it.each(NAMES)('refuses a card that defines a corner named %s', (name) => {
+    const card = write('card.json', JSON.stringify({ ...(parseYaml(readFileSync(CARD, 'utf8')) as object), spice: undefined, corners: JSON.parse(`{"tt": {}, "${name}": {}}`) as unknown }));
+    expect(refused(cli('check', designWithCard(card)))).toContain(`corners.${name}: uses the reserved key "${name}"`);
   });
 
-  it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])('refuses a card that defines a corner named %s', (name) => {
-    const card = write('card.json', JSON.stringify({ ...(parseYaml(readFileSync(CARD, 'utf8')) as object), spice: undefined, corners: JSON.parse(`{"tt": {}, "${name}": {}}`) as unknown }));
-    const path = designWithCard(card);
-    expect(refused(cli('check', path))).toContain(`corners.${name}: uses the reserved key "${name}"`);
+  it.each(NAMES)('says a swept process corner %s is not on the card', async (name) => {
+    const run = await cliAsync('sweep', design('doubler'), '--vary', `process=tt,${name}`, '--workers', '1');
+    expect(run.code).toBe(2);
+    expect(run.stderr).toContain(`"${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf`);
+    expect(run.stderr).not.toContain('internal error');
   });
 });
 

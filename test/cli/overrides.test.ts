@@ -51,7 +51,8 @@ describe('applyOverrides', () => {
     ['corners.list[1]=1', 'sets item [1] of corners.list, which has 0 items; give an index from 0 to 0'],
     ['corners.vdd.x=1', 'cannot set key "x" in corners.vdd, which is a list; write corners.vdd[N]'],
     ['clock[0]=1', 'cannot set item [0] in clock, which is a mapping; write clock.KEY'],
-    ['name=__proto__', '--set: "name=__proto__" is refused at name: it is the reserved name "__proto__"'],
+    ['name=__proto__', '--set: "name=__proto__" is refused at name: it is a reserved name'],
+    ['switches[0]={name: constructor}', '--set: "switches[0]={name: constructor}" is refused at switches[0].name: it is a reserved name'],
     ['loads={constructor: 1pF}', '--set: "loads={constructor: 1pF}" is refused at loads.constructor: it uses the reserved key "constructor"'],
     [`${'a.'.repeat(40)}b=1`, 'has a path 41 levels deep; design fields nest at most 32 deep'],
   ])('refuses %s', (text, expected) => {

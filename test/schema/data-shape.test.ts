@@ -23,7 +23,8 @@ describe('checkDataShape', () => {
     ['a key "toString"', { corners: { toString: {} } }, 'corners.toString: uses the reserved key "toString"'],
     ['a key "prototype"', { prototype: 1 }, 'prototype: uses the reserved key "prototype"'],
     ['an own key "__proto__"', JSON.parse('{"a": {"__proto__": 1}}') as unknown, 'a.__proto__: uses the reserved key "__proto__"'],
-    ['the value "__proto__"', { phases: ['p1', '__proto__'] }, 'phases[1]: is the reserved name "__proto__"'],
+    ['the value "__proto__"', { phases: ['p1', '__proto__'] }, 'phases[1]: "__proto__" is a reserved name'],
+    ['the value "toString"', { switches: [{ name: 'toString' }] }, 'switches[0].name: "toString" is a reserved name'],
   ])('refuses %s, naming the path', (_what, data, expected) => {
     expect(message(data)).toContain(expected);
   });
