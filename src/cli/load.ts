@@ -50,7 +50,9 @@ function looksLike(data: object, keys: readonly string[]): boolean {
  */
 export function readDataFile(path: string, label: string, kind: DataKind = 'design'): unknown {
   const format = extname(path).toLowerCase() === '.json' ? 'json' : 'yaml';
-  const text = readBoundedText(path, label, KINDS[kind].bytes[format], format);
+  const bytes = KINDS[kind].bytes;
+  const what = `${format.toUpperCase()} ${kind === 'tables' ? 'delay-table file' : 'design or process card'}`;
+  const text = readBoundedText(path, label, bytes[format], format === 'yaml' ? `${what} (a JSON one may have ${mebibytes(bytes.json)})` : what);
   const source = { name: path, quote: KINDS[kind].quote };
   const data = format === 'json' ? parseJsonText(text, source) : parseYamlText(text, source);
   const expected = KINDS[kind].expect;
@@ -64,7 +66,7 @@ export function readDataFile(path: string, label: string, kind: DataKind = 'desi
 }
 
 /** The file's text, from a regular file only, refused before reading when it is larger than `limit` bytes. */
-function readBoundedText(path: string, label: string, limit: number, format: string): string {
+function readBoundedText(path: string, label: string, limit: number, what: string): string {
   let fd: number;
   try {
     // Non-blocking, so that opening a FIFO does not wait for a writer; fstat then refuses it.
@@ -78,7 +80,7 @@ function readBoundedText(path: string, label: string, limit: number, format: str
     if (stat.isDirectory()) throw inputError(label, path, 'is a directory, not a file');
     if (!stat.isFile()) throw inputError(label, path, 'is not a regular file (it is a device, pipe or socket); give the path of a YAML or JSON file');
     const tooBig = (): never => {
-      throw inputError(label, path, `is larger than ${mebibytes(limit)}, the limit for a ${format.toUpperCase()} file of this kind`);
+      throw inputError(label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
     };
     if (stat.size > limit) tooBig();
     // Read to the end, not to stat.size: some files (under /proc) report size 0 or grow.

@@ -72,7 +72,7 @@ describe('duplicate keys', () => {
 describe('size and shape limits', () => {
   it('refuses a YAML design larger than 1 MiB before parsing it', () => {
     const path = write('big.yaml', `name: x\n${'# padding\n'.repeat(110_000)}`);
-    expect(refused(cli('check', path))).toContain(`DESIGN: "${path}" is larger than 1 MiB, the limit for a YAML file of this kind`);
+    expect(refused(cli('check', path))).toContain(`DESIGN: "${path}" is larger than 1 MiB, the limit for a YAML design or process card (a JSON one may have 16 MiB)`);
   });
 
   it('refuses a mapping of 20000 keys, naming the field and the limit of 10000', () => {
