@@ -23,7 +23,11 @@ export function parseJsonText(raw: string, source: TextSource): unknown {
     const { line, col } = linePos(text, error.offset);
     throw new InputError([{ path: source.name, allowed: `is not valid JSON at line ${line}, column ${col}: ${error.message}` }]);
   }
-  return JSON.parse(text) as unknown;
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    throw new InputError([{ path: source.name, allowed: 'could not be read as JSON' }]);
+  }
 }
 
 function linePos(text: string, offset: number): { line: number; col: number } {

@@ -31,7 +31,15 @@ export function parseYamlText(text: string, source: TextSource): unknown {
     const { line, col } = lines.linePos(offset);
     throw new InputError([{ path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` }]);
   };
-  const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: false, merge: false, logLevel: 'silent' });
+  const unreadable = (): never => {
+    throw new InputError([{ path: source.name, allowed: 'could not be read as YAML or JSON' }]);
+  };
+  let doc: ReturnType<typeof parseDocument>;
+  try {
+    doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: false, merge: false, logLevel: 'silent' });
+  } catch {
+    return unreadable();
+  }
   const first = doc.errors[0];
   if (first) fail(first.pos[0], source.quote ? clip(first.message) : codeWords(first.code));
   try {
@@ -43,7 +51,7 @@ export function parseYamlText(text: string, source: TextSource): unknown {
   try {
     return doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (error) {
-    if (!(error instanceof ReferenceError)) throw error;
+    if (!(error instanceof ReferenceError)) return unreadable();
     throw new InputError([{ path: source.name, allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases` }]);
   }
 }
@@ -100,6 +108,11 @@ function checkNodes(root: unknown, quote: boolean): void {
     const at = (key as { range?: [number, number, number] } | null)?.range?.[0] ?? 0;
     const value: unknown = isScalar(key) ? key.value : key;
     if (value !== null && typeof value === 'object') throw new Located(at, 'a mapping key must be a plain name, not a list, mapping or alias');
+    const keyAnchor = (key as Node | null)?.anchor;
+    if (keyAnchor !== undefined) {
+      if (++anchors > MAX_ANCHORS) throw new Located(at, `defines more than ${MAX_ANCHORS} anchors`);
+      defined.add(keyAnchor);
+    }
     const name = value === null ? '' : String(value);
     if (keys.has(name)) throw new Located(at, `duplicate key${named('', JSON.stringify(name))} in one mapping; each key may appear once`);
     keys.add(name);

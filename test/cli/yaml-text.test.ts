@@ -10,6 +10,10 @@ describe('parseYamlText', () => {
     expect(read('a: &x [1, 2]\nb: *x\nc: { d: null }\n')).toEqual({ a: [1, 2], b: [1, 2], c: { d: null } });
   });
 
+  it('reads an alias of an anchored key', () => {
+    expect(read('? &k x\n: 1\ny: *k\n')).toEqual({ x: 1, y: 'x' });
+  });
+
   it('reads a one-pair mapping inside a flow list', () => {
     expect(read('a: [k: 1, [j: 2]]\n')).toEqual({ a: [{ k: 1 }, [{ j: 2 }]] });
   });
