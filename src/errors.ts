@@ -42,15 +42,20 @@ export function renderIssues(issues: readonly InputIssue[], max = MAX_RENDERED_I
   return lines;
 }
 
+/** Characters a terminal could act on or reorder: controls, separators, format characters (shown as \uXXXX). */
+const UNPRINTABLE = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
+const escaped = (json: string) => json.replace(UNPRINTABLE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+
 const MAX_SHOWN_CHARS = 60;
 
 export function showValue(value: unknown): string {
   if (typeof value === 'string') {
-    const text = JSON.stringify(value);
-    return text.length > MAX_SHOWN_CHARS ? `${JSON.stringify(value.slice(0, MAX_SHOWN_CHARS - 5)).slice(0, -1)}..."` : text;
+    const text = escaped(JSON.stringify(value));
+    return text.length > MAX_SHOWN_CHARS ? `${escaped(JSON.stringify(value.slice(0, MAX_SHOWN_CHARS - 5))).slice(0, -1)}..."` : text;
   }
   if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
-  const text = JSON.stringify(value);
+  const json = JSON.stringify(value) as string | undefined;
+  const text = json === undefined ? undefined : escaped(json);
   return text === undefined ? String(value) : text.length > MAX_SHOWN_CHARS ? `${text.slice(0, MAX_SHOWN_CHARS - 3)}...` : text;
 }
 
@@ -59,6 +64,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
   for (const key of path) {
     if (typeof key === 'number') out += `[${key}]`;
+    else if (typeof key === 'string' && key.match(UNPRINTABLE)) out += `[${showValue(key)}]`;
     else out += out === '' ? String(key) : `.${String(key)}`;
   }
   return out;

@@ -3,6 +3,7 @@ import type { ChainCandidate, ChainKnobs, TuneResult } from '../analysis/tune.js
 import { proposalOverrides } from '../analysis/tune.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import { CAUTIONS } from './cautions.js';
+import { shellCommand } from './shell-quote.js';
 import { renderTable } from './text-table.js';
 
 export interface TuneCandidateReport {
@@ -107,7 +108,7 @@ export function renderTuneText(r: TuneReport, designPath: string): string {
   const best = r.proposals[0];
   if (best) {
     out.push(`best: ${best.stages} stages of size ${sizeText(best.stageSize)} with ${loadText(best.stageLoad)} per node; check it with`);
-    out.push(`  phasegap check ${designPath} ${best.overrides.map((o) => `--set ${o}`).join(' ')}`);
+    out.push(`  ${shellCommand(['phasegap', 'check', designPath, ...best.overrides.flatMap((o) => ['--set', o])])}`);
     if (r.searched.headroom === 0) out.push('proposals sit at the edge of the tightest requirement: give --margin TIME for headroom, and run phasegap mc on the one you pick');
   } else {
     out.push(`no chain in the searched range passes every check at every corner${headroom}.`);

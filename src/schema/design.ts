@@ -6,8 +6,9 @@ import { quantity, ratio, temperature } from './fields.js';
 import { processSchema } from './process.js';
 import { constraintsSchema, switchSchema } from './switches.js';
 import { MAX_AXIS_VALUES, MAX_CORNERS, MAX_GATES, MAX_SWITCHES } from './limits.js';
+import { description, identifier, patterned, title } from './names.js';
 
-const netName = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
+const netName = patterned(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
 const size = ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 });
 
 export const CELL_KINDS = ['INV', 'NAND2', 'NAND3', 'NOR2', 'NOR3', 'BUF'] as const;
@@ -41,7 +42,7 @@ export const templateSchema = z.strictObject({
 });
 
 export const gateSchema = z.strictObject({
-  name: z.string().min(1).describe('Instance name'),
+  name: identifier().describe('Instance name'),
   cell: z.enum(CELL_KINDS).describe('Library cell'),
   size: size.default(1),
   inputs: z.array(netName).min(1).max(3).describe('Input nets in pin order'),
@@ -60,14 +61,14 @@ export const netlistSchema = z.strictObject({
 export const generatorSchema = z.discriminatedUnion('template', [templateSchema, netlistSchema]);
 
 const axes = {
-  process: z.array(z.string().min(1)).min(1).max(MAX_AXIS_VALUES).optional().describe('Process corner names from the process card'),
+  process: z.array(identifier()).min(1).max(MAX_AXIS_VALUES).optional().describe('Process corner names from the process card'),
   vdd: z.array(quantity('V', 'Supply', { above: 0 })).min(1).max(MAX_AXIS_VALUES).optional(),
   temperature: z.array(temperature('Junction temperature')).min(1).max(MAX_AXIS_VALUES).optional(),
   duty: z.array(ratio('Input clock duty cycle', { above: 0, below: 1 })).min(1).max(MAX_AXIS_VALUES).optional(),
 };
 
 export const cornerPointSchema = z.strictObject({
-  process: z.string().min(1),
+  process: identifier(),
   vdd: quantity('V', 'Supply', { above: 0 }),
   temperature: temperature('Junction temperature'),
   duty: ratio('Input clock duty cycle', { above: 0, below: 1 }).optional(),
@@ -96,8 +97,8 @@ export const requirementsSchema = z.strictObject({
 });
 
 export const designSchema = z.strictObject({
-  name: z.string().min(1).describe('Design name, shown in every report'),
-  description: z.string().optional(),
+  name: title().describe('Design name, shown in every report'),
+  description: description().optional(),
   process: z.union([z.string().min(1), processSchema])
     .describe('Path to a process card (relative to the design file) or the card inline'),
   clock: z.strictObject({

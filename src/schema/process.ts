@@ -1,6 +1,7 @@
 /** The process card: device parameters per type and named process corners (SPEC 2.1). */
 import * as z from 'zod';
 import { quantity, ratio, temperature } from './fields.js';
+import { description, identifier, patterned } from './names.js';
 
 export const deviceSchema = z.strictObject({
   vth0: quantity('V', 'Threshold magnitude at the card temperature t0', { above: 0 }),
@@ -34,7 +35,7 @@ export const spiceSchema = z.strictObject({
   p: spiceModelName.describe('Model name of the p device'),
   diffusion: quantity('m', 'Drain/source diffusion length: AD = AS = W * diffusion, PD = PS = W', { atLeast: 0 }).default(0),
   params: spiceParams.default({}),
-  corners: z.record(z.string(), z.strictObject({
+  corners: z.record(identifier(), z.strictObject({
     n: spiceModelName.optional().describe('Model name of the n device at this corner'),
     p: spiceModelName.optional().describe('Model name of the p device at this corner'),
     params: spiceParams.default({}),
@@ -42,8 +43,8 @@ export const spiceSchema = z.strictObject({
 }).describe('Device models for transistor-level decks (phasegap spice, confirm, characterize)');
 
 export const processSchema = z.strictObject({
-  name: z.string().min(1).describe('Name of the process card'),
-  description: z.string().optional().describe('Free text; say here if the card is invented'),
+  name: identifier().describe('Name of the process card'),
+  description: description().optional().describe('Free text; say here if the card is invented'),
   t0: temperature('Temperature at which vth0 and drive are given').default(27),
   lmin: quantity('m', 'Minimum drawn channel length', { above: 0 }),
   vddNominal: quantity('V', 'Nominal supply', { above: 0 }),
@@ -53,7 +54,7 @@ export const processSchema = z.strictObject({
   }).describe('The unit inverter: size s of any cell drives like an inverter s times this one'),
   n: deviceSchema.describe('N-channel device'),
   p: deviceSchema.describe('P-channel device'),
-  corners: z.record(z.string().regex(/^[A-Za-z0-9_-]+$/), z.strictObject({
+  corners: z.record(patterned(/^[A-Za-z0-9_-]+$/, 'must use letters, digits, _ and -'), z.strictObject({
     n: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
     p: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
   })).describe('Named process corners, each shifting Vth and scaling drive for n and p separately'),

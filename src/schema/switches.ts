@@ -3,9 +3,10 @@ import * as z from 'zod';
 import { quantity, ratio } from './fields.js';
 import { level } from './level.js';
 import { MAX_CONSTRAINTS, MAX_SWITCHES } from './limits.js';
+import { identifier, patterned } from './names.js';
 
-const name = z.string().regex(/^[A-Za-z_][A-Za-z0-9_.-]*$/, 'must start with a letter or _ and use letters, digits, _ . -');
-const netName = z.string().min(1);
+const name = patterned(/^[A-Za-z_][A-Za-z0-9_.-]*$/, 'must start with a letter or _ and use letters, digits, _ . -');
+const netName = identifier();
 
 const driverStage = z.strictObject({
   cell: z.enum(['INV', 'BUF']).describe('Driver cell between the phase net and the switch gate'),
@@ -46,18 +47,18 @@ const eventRef = z.strictObject({
 
 export const constraintsSchema = z.strictObject({
   breakBeforeMake: z.array(z.strictObject({
-    name: z.string().optional(),
+    name: identifier().optional(),
     between: z.tuple([name, name]).describe('Two switches that must never conduct together'),
     guard: quantity('s', 'Least time between one stopping and the other starting (default: requirements.guard)', { atLeast: 0 }).optional(),
   })).max(MAX_CONSTRAINTS).default([]),
   order: z.array(z.strictObject({
-    name: z.string().optional(),
+    name: identifier().optional(),
     first: eventRef,
     then: eventRef,
     min: quantity('s', 'Least time from the first event to the second', { atLeast: 0 }).default(0),
   })).max(MAX_CONSTRAINTS).default([]).describe('Event ordering, e.g. the bottom-plate switch opens before the top-plate one'),
   settle: z.array(z.strictObject({
-    name: z.string().min(1),
+    name: identifier(),
     switches: z.array(name).min(1).max(MAX_SWITCHES).describe('Switches in series in the path'),
     capacitance: quantity('F', 'Capacitance the path charges', { above: 0 }),
     error: ratio('Allowed settling error as a fraction', { above: 0, below: 1 }).optional(),

@@ -81,6 +81,10 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
         path: joinPath(path, ''),
         allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
+    case 'invalid_key': {
+      const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
+      return { path: joinPath(prefix, formatPath(issue.path.slice(0, -1))), value: showValue(issue.path[issue.path.length - 1]), allowed: `is not allowed as a key here: ${inner}` };
+    }
     case 'invalid_type':
       return received === undefined
         ? { path, allowed: `is required (${issue.expected})` }
@@ -111,7 +115,7 @@ const SHOWN_KEY_CHARS = 24;
 
 /** The first few unknown keys, each cut short: a long list or a long key says no more. */
 function listKeys(keys: readonly string[]): string {
-  const shown = keys.slice(0, SHOWN_KEYS).map((k) => JSON.stringify(k.length > SHOWN_KEY_CHARS ? `${k.slice(0, SHOWN_KEY_CHARS - 3)}...` : k));
+  const shown = keys.slice(0, SHOWN_KEYS).map((k) => showValue(k.length > SHOWN_KEY_CHARS ? `${k.slice(0, SHOWN_KEY_CHARS - 3)}...` : k));
   return keys.length > SHOWN_KEYS ? `${shown.join(', ')} and ${keys.length - SHOWN_KEYS} more` : shown.join(', ');
 }
 

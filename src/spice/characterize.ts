@@ -16,6 +16,7 @@ import { TABLE_CELLS, type CornerTables, type PinTables } from '../schema/tables
 import { cellSubckt, cellSubcktName } from './cells.js';
 import { cornerModels } from './models.js';
 import { spiceNumber } from './names.js';
+import { spiceComment } from './text.js';
 
 export interface GridSpec {
   /** Input transitions in units of the unit inverter's C_in * V_DD / I_D0 (tt, nominal supply, t0). */
@@ -95,7 +96,7 @@ export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'na
   const half = Math.max(1e-9, 5 * slowest + 1.5 * slew);
   const stop = 2 * (TD + slew + half);
   const lines = [
-    `* phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}, input transition ${spiceNumber(slew)} s`,
+    spiceComment(`phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}, input transition ${spiceNumber(slew)} s`),
     ...models.header,
     `vsupply vdd 0 DC ${spiceNumber(vdd)}`,
   ];

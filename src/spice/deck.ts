@@ -19,6 +19,7 @@ import { cornerModels } from './models.js';
 import { deckQuantities, measureLine, type DeckWindow, type Quantity } from './measures.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
 import { shifterLines, shifterNode } from './level-shifter.js';
+import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel, gateWave } from '../switches/conduction.js';
 import { CycleIndex } from '../measure/phases.js';
@@ -61,7 +62,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const node = (net: string) => nodes.get(net)!;
   const quantities = deckQuantities({ netlist, result: result.simulation, measurement: result.measurement, devices, switches: resolved.switches, node, window });
   const lines: string[] = [
-    `* phasegap testbench: ${design.name} at ${corner.name}`,
+    spiceComment(`phasegap testbench: ${design.name} at ${corner.name}`),
     `* ${netlist.gateCount} cells, clock ${spiceNumber(design.clock.frequency)} Hz; measured period starts at ${spiceNumber(window.start)} s`,
     ...models.header,
     '',
@@ -78,7 +79,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   lines.push('', '* generator');
   netlist.source.gates.forEach((gate, g) => {
     const name = `x${g}_${node(gate.output)}`;
-    lines.push(`${name} ${gate.inputs.map(node).join(' ')} ${node(gate.output)} vdd ${cellSubcktName(gate.cell, gate.size)} $ ${gate.name}`);
+    lines.push(`${name} ${gate.inputs.map(node).join(' ')} ${node(gate.output)} vdd ${cellSubcktName(gate.cell, gate.size)}${spiceInlineComment(gate.name)}`);
   });
   lines.push('', '* extra capacitance (delay capacitors, declared loads)');
   const extra = new Map<string, number>();
@@ -86,7 +87,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
     for (const [net, c] of Object.entries(caps)) extra.set(net, (extra.get(net) ?? 0) + c);
   }
   let c = 0;
-  for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)} $ ${net}`);
+  for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
   lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry));
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
@@ -96,7 +97,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   });
   const maxStep = (options.maxStepFraction ?? 1 / 2000) * T;
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
-  for (const q of quantities) lines.push(`* ${q.name}: ${q.label}`, measureLine(q));
+  for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
   lines.push('.end', '');
   const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
     name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
@@ -127,7 +128,7 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
       const wave = gateWave(plan, device, cycles, vdd);
       const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd);
       if (typeof built === 'string') {
-        devices.push(`* ${plan.name} is left out: ${built}`);
+        devices.push(spiceComment(`${plan.name} is left out: ${built}`));
         return;
       }
       devices.push(...built);
@@ -139,7 +140,7 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
       const bulk = bulkLevel(plan, device.kind, vdd);
       const terminal = bias(signal);
       const geo = { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel };
-      devices.push(`${mosfet(`msw${i}_${j}`, terminal, gates[j]!, terminal, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)} $ ${plan.name}`);
+      devices.push(`${mosfet(`msw${i}_${j}`, terminal, gates[j]!, terminal, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)}${spiceInlineComment(plan.name)}`);
     });
   });
   return devices.length === 0 ? [] : ['', '* switches (gate loads; drain and source held at the signal level)', ...lines, ...devices];

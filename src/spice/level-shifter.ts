@@ -9,6 +9,7 @@
 import type { GateWave } from '../switches/conduction.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { spiceNumber } from './names.js';
+import { spiceComment } from './text.js';
 
 /** Delay of the comparator, s: the smallest the bridge takes, small beside any gate delay. */
 const COMPARATOR_DELAY = 1e-12;
@@ -38,8 +39,8 @@ export function shifterLines(id: string, plan: SwitchPlan, input: string, output
   }
   const { low, high } = wave.rise;
   return [
-    `* ${plan.name}: level shifter, ${spiceNumber(ls.delay)} s, ${spiceNumber(low)} V .. ${spiceNumber(high)} V${ls.invert ? ', inverting' : ''}`
-      + ` (ideal: comparator at VDD/2, digital delay, linear ramps of ${spiceNumber(wave.rise.transition)} s up and ${spiceNumber(wave.fall.transition)} s down)`,
+    spiceComment(`${plan.name}: level shifter, ${spiceNumber(ls.delay)} s, ${spiceNumber(low)} V .. ${spiceNumber(high)} V${ls.invert ? ', inverting' : ''}`
+      + ` (ideal: comparator at VDD/2, digital delay, linear ramps of ${spiceNumber(wave.rise.transition)} s up and ${spiceNumber(wave.fall.transition)} s down)`),
     `a${id}_in [${input}] [${id}_d] ${id}_cmp`,
     `.model ${id}_cmp adc_bridge(in_low=${spiceNumber(vdd / 2)} in_high=${spiceNumber(vdd / 2)} rise_delay=${spiceNumber(COMPARATOR_DELAY)} fall_delay=${spiceNumber(COMPARATOR_DELAY)})`,
     `a${id}_dly ${id}_d ${id}_q ${id}_gate`,

@@ -7,6 +7,7 @@ import type { Corner } from '../process/corner.js';
 import type { ProcessCard, SpiceSection } from '../schema/process.js';
 import type { DeviceGeometry } from './cells.js';
 import { spiceNumber } from './names.js';
+import { spiceIdentifier, spiceInclude } from './text.js';
 
 export interface CornerModels {
   readonly geometry: DeviceGeometry;
@@ -32,13 +33,13 @@ export function cornerModels(card: ProcessCard, corner: Pick<Corner, 'process' |
   const perCorner = spice.corners[corner.process];
   const params = { ...spice.params, ...(perCorner?.params ?? {}) };
   const header = [
-    `.include "${modelPath}"`,
-    ...Object.entries(params).map(([name, value]) => `.param ${name}=${spiceNumber(value)}`),
+    spiceInclude(modelPath),
+    ...Object.entries(params).map(([name, value]) => `.param ${spiceIdentifier(name)}=${spiceNumber(value)}`),
     `.options tnom=${card.t0}`,
     `.temp ${corner.temperature}`,
   ];
   return {
-    geometry: { l: card.lmin, diffusion: spice.diffusion, nModel: perCorner?.n ?? spice.n, pModel: perCorner?.p ?? spice.p },
+    geometry: { l: card.lmin, diffusion: spice.diffusion, nModel: spiceIdentifier(perCorner?.n ?? spice.n), pModel: spiceIdentifier(perCorner?.p ?? spice.p) },
     header,
   };
 }

@@ -6,7 +6,7 @@
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from 'node:fs';
 import { availableParallelism, tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { inputError } from '../errors.js';
 
 export interface RunOptions {
@@ -41,18 +41,21 @@ export function runDecks(decks: ReadonlyArray<{ readonly name: string; readonly 
   const folder = mkdtempSync(join(tmpdir(), 'phasegap-spice-'));
   try {
     const files = decks.map((deck, i) => {
-      const file = join(folder, `deck${i}.cir`);
-      writeFileSync(file, deck.text);
+      const file = `deck${i}.cir`;
+      writeFileSync(join(folder, file), deck.text);
       return file;
     });
     const parallel = Math.max(1, Math.min(options.parallel ?? availableParallelism(), decks.length));
-    // xargs runs up to `parallel` simulations at a time; each writes its own log.
-    const run = spawnSync('xargs', ['-P', String(parallel), '-I', '{}', program, '-b', '-o', '{}.log', '{}'], {
-      input: files.join('\n'), encoding: 'utf8', maxBuffer: 64 * 1024 * 1024,
+    // xargs runs up to `parallel` simulations at a time, each writing its own log; it starts ngspice
+    // directly (no shell), reads NUL-separated names (no quote processing), and every run starts
+    // in the fresh folder, so no .spiceinit from the caller's working directory is read.
+    const executable = program.includes('/') ? resolve(program) : program;
+    const run = spawnSync('xargs', ['-0', '-P', String(parallel), '-I', '{}', executable, '-b', '-o', '{}.log', '{}'], {
+      input: files.join('\0'), encoding: 'utf8', maxBuffer: 64 * 1024 * 1024, cwd: folder, shell: false,
     });
     if (run.error) throw inputError('ngspice', program, `could not be run through xargs (${run.error.message})`);
     return decks.map((deck, i) => {
-      const log = `${files[i]!}.log`;
+      const log = join(folder, `${files[i]!}.log`);
       const output = existsSync(log) ? readFileSync(log, 'utf8') : `error: ngspice wrote no output for ${deck.name}`;
       return { name: deck.name, output };
     });

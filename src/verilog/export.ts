@@ -7,7 +7,7 @@
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PrimitiveCell } from '../cells/library.js';
 import type { FixedDelays } from './fixed.js';
-import { verilogIdentifier } from './identifiers.js';
+import { verilogComment, verilogIdentifier, verilogString } from './identifiers.js';
 
 export interface Timescale {
   /** Unit of delay numbers, s (1e-9 for 1ns). */
@@ -57,7 +57,7 @@ export function verilogModule(netlist: CompiledNetlist, delays: FixedDelays, nam
   const id = verilogIdentifier;
   const internal = netlist.netNames.filter((n) => n !== clock && !outputs.includes(n));
   const lines = [
-    ...header.map((h) => `// ${h}`),
+    ...header.map(verilogComment),
     timescaleText(t),
     '',
     `module ${id(name)} (${[clock, ...outputs].map(id).join(', ')});`,
@@ -90,7 +90,7 @@ export function verilogTestbench(module: VerilogModule, period: number, duty: nu
     `  wire ${module.outputs.map(id).join(', ')};`,
     `  ${id(module.name)} dut (${[clock, ...module.outputs].map((n) => `.${id(n)}(${id(n)})`).join(', ')});`,
     '  initial begin',
-    `    $dumpfile("${vcdFile}");`,
+    `    $dumpfile(${verilogString(vcdFile)});`,
     `    $dumpvars(0, ${id(`${module.name}_tb`)});`,
     `    ${id(clock)} = 1'b0;`,
     `    #${delayText(period, t)};`,

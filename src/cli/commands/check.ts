@@ -6,6 +6,7 @@ import { renderCheckText } from '../../report/check-text.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
+import { shellCommand } from '../../report/shell-quote.js';
 
 export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -19,7 +20,7 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const report = checkReport(resolved, evaluateAll(resolved));
   emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
   if (report.verdict === 'fail' && !options.json && design.generator.template !== 'netlist') {
-    io.stderr(`phasegap: hint: phasegap tune ${designPath} proposes delay chains that pass every corner\n`);
+    io.stderr(`phasegap: hint: ${shellCommand(['phasegap', 'tune', designPath])} proposes delay chains that pass every corner\n`);
   }
   return report.verdict === 'pass' ? 0 : 1;
 }

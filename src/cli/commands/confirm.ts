@@ -13,6 +13,7 @@ import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
 import { modelFile, warnTo } from './spice.js';
+import { shellCommand } from '../../report/shell-quote.js';
 
 export interface ConfirmOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -64,7 +65,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-      throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with phasegap spice --corner ${deck.corner.name} and run ngspice -b on it to see why`);
+      throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
     }
     return compareCorner(deck, parsed, tolerance);
   });

@@ -3,6 +3,7 @@ import { inputError } from '../../errors.js';
 import { starterDesign, type StarterTemplate } from '../starter.js';
 import type { Io } from '../io.js';
 import { emit } from '../output.js';
+import { shellCommand } from '../../report/shell-quote.js';
 
 export function runInit(io: Io, options: { readonly template: string; readonly out: string; readonly force: boolean }): number {
   if (options.template !== 'nand' && options.template !== 'nor') {
@@ -12,6 +13,6 @@ export function runInit(io: Io, options: { readonly template: string; readonly o
     throw inputError('--out', options.out, 'already exists; pick another name or pass --force to overwrite');
   }
   emit(io, starterDesign(options.template as StarterTemplate), options.out);
-  if (options.out !== '-') io.stderr(`wrote ${options.out}; next: phasegap check ${options.out}\n`);
+  if (options.out !== '-') io.stderr(`wrote ${options.out}; next: ${shellCommand(['phasegap', 'check', options.out])}\n`);
   return 0;
 }

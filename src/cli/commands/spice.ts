@@ -11,6 +11,7 @@ import { chooseCorners } from '../../spice/corner-choice.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { emit } from '../output.js';
+import { shellCommand } from '../../report/shell-quote.js';
 
 export interface SpiceOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -42,6 +43,6 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;
   const deck = generatorDeck(resolved, corner, { modelPath });
   emit(io, deck.text, options.out);
-  if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ngspice -b ${options.out}\n`);
+  if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}\n`);
   return 0;
 }

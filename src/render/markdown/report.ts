@@ -6,6 +6,7 @@ import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
 import { cardRows, confirmTables, cornerRows, fmaxText, signedTime, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
+import { markdownCode, markdownLine, markdownParagraph, markdownText, markdownUrl } from './text.js';
 
 export interface MarkdownImages {
   readonly worst: string;
@@ -16,7 +17,7 @@ export interface MarkdownImages {
 }
 
 function cell(text: string): string {
-  return text.replace(/\|/g, '\\|').replace(/\n/g, ' ');
+  return markdownText(text);
 }
 
 function table(head: readonly string[], rows: ReadonlyArray<readonly string[]>, right: ReadonlySet<number>): string {
@@ -30,42 +31,43 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   const pass = r.verdict === 'pass';
   const [a, b] = r.phases as [string, string];
   const out: string[] = [];
-  out.push(`# ${r.design}`, '');
-  if (m.description) out.push(m.description, '');
+  out.push(`# ${markdownText(r.design)}`, '');
+  if (m.description) out.push(markdownParagraph(m.description), '');
   out.push(`**${pass ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`}**: ${r.corners.filter((c) => c.verdict === 'pass').length} of ${r.corners.length} corners pass.`, '');
   out.push('> **Cautions**', '>');
   for (const c of r.cautions) out.push(`> - ${c}`);
   out.push('', '## Summary', '');
-  for (const [k, v] of summaryItems(m)) out.push(`- **${k}**: ${v}`);
-  out.push('', `## Worst corner: ${m.worstCorner}`, '', `![Timing diagram at ${m.worstCorner}](${images.worst})`, '');
-  out.push('## All corners overlaid', '', `![All corners overlaid](${images.all})`, '');
-  out.push('## Margins', '', `![Margin of every check at every corner](${images.margins})`, '');
+  for (const [k, v] of summaryItems(m)) out.push(`- **${markdownText(k)}**: ${markdownText(v)}`);
+  const worst = markdownText(m.worstCorner);
+  out.push('', `## Worst corner: ${worst}`, '', `![Timing diagram at ${worst}](${markdownUrl(images.worst)})`, '');
+  out.push('## All corners overlaid', '', `![All corners overlaid](${markdownUrl(images.all)})`, '');
+  out.push('## Margins', '', `![Margin of every check at every corner](${markdownUrl(images.margins)})`, '');
   out.push(table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], m.checks.map((c) => [
     c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
     c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
   ]), new Set([2])), '');
   if (m.tune) {
     const t = tuneTable(m.tune);
-    out.push('## Delay chains that pass with the least dead time', '', t.text, '');
+    out.push('## Delay chains that pass with the least dead time', '', markdownLine(t.text), '');
     out.push(table(t.head, t.rows.map((row) => row.cells), new Set([1, 2, 3, 4, 5, 6])), '');
   }
   if (m.confirm) {
     const c = confirmTables(m.confirm, r.model);
-    out.push(`## Transistor-level confirmation (${m.confirm.simulator})`, '', c.text, '');
+    out.push(`## Transistor-level confirmation (${markdownText(m.confirm.simulator)})`, '', markdownLine(c.text), '');
     out.push(table(c.quantities.head, c.quantities.rows.map((row) => row.cells), new Set([2, 3, 4])), '');
     if (c.pairs.rows.length > 0) out.push(table(c.pairs.head, c.pairs.rows.map((row) => row.cells), new Set([2, 3])), '');
   }
   if (m.mc) {
-    out.push('## Monte Carlo mismatch', '', mcHeadline(m.mc.report), '');
+    out.push('## Monte Carlo mismatch', '', markdownLine(mcHeadline(m.mc.report)), '');
     out.push(table(mcHead(m.mc.report), mcRows(m.mc.report), new Set([1, 2, 3, 4, 5, 6])), '');
-    if (images.histogram) out.push(`![Dead times of every die at ${m.mc.report.worstCorner}](${images.histogram})`, '');
+    if (images.histogram) out.push(`![Dead times of every die at ${markdownText(m.mc.report.worstCorner)}](${markdownUrl(images.histogram)})`, '');
   }
   out.push('## Corner table', '');
   out.push(table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `gap ${b}→${a}`, `width ${a}`, `width ${b}`, 'least margin', 'verdict'],
     cornerRows(m), new Set([1, 2, 3, 4, 5, 6, 7])), '');
   const card = cardRows(m.resolved.card);
-  out.push(`## Process card used: ${m.resolved.card.name}`, '', `${m.resolved.card.description ?? ''} Source: \`${m.processSource}\`.`, '');
+  out.push(`## Process card used: ${markdownText(m.resolved.card.name)}`, '', `${markdownLine(`${m.resolved.card.description ?? ''}`)} Source: ${markdownCode(m.processSource)}.`.trimStart(), '');
   out.push(table(card.head, card.rows, new Set([1, 2])), '');
-  out.push(`---`, `phasegap 0.1.0 · ${r.model} delay model · ${fmaxText(m)}`, '');
+  out.push(`---`, `phasegap 0.1.0 · ${markdownText(r.model)} delay model · ${markdownText(fmaxText(m))}`, '');
   return out.join('\n');
 }

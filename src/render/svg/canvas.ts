@@ -4,6 +4,7 @@
  */
 import { createSVGWindow } from 'svgdom';
 import { SVG, registerWindow, type Svg } from '@svgdotjs/svg.js';
+import { xmlDocument, xmlText } from './xml-text.js';
 
 export interface Canvas {
   readonly root: Svg;
@@ -17,10 +18,10 @@ export function createCanvas(width: number, height: number, title: string): Canv
   const root = SVG(window.document.documentElement) as Svg;
   root.clear();
   root.attr({ width: round(width), height: round(height), viewBox: `0 0 ${round(width)} ${round(height)}`, role: 'img' });
-  root.element('title').words(title);
+  root.element('title').words(xmlText(title));
   return {
     root,
-    finish: () => `${root.svg()}\n`,
+    finish: () => `${xmlDocument(root.svg())}\n`,
   };
 }
 

@@ -5,6 +5,7 @@
 import type { G } from '@svgdotjs/svg.js';
 import { FONT, INK } from '../palette.js';
 import { round } from './canvas.js';
+import { xmlText } from './xml-text.js';
 
 /** Estimated advance of a string, px; DejaVu Sans averages about 0.6 em, digits 0.64 em. */
 export function textWidth(text: string, size: number, bold = false): number {
@@ -44,14 +45,14 @@ export function textBox(text: string, x: number, y: number, style: TextStyle): B
 }
 
 export function drawText(g: G, text: string, x: number, y: number, style: TextStyle): void {
-  const t = g.plain(text).attr({
+  const t = g.plain(xmlText(text)).attr({
     x: round(x), y: round(y), 'font-size': style.size, 'font-family': style.family ?? FONT,
     fill: style.fill ?? INK, 'text-anchor': style.anchor ?? 'start',
   });
   if (style.bold) t.attr('font-weight', 'bold');
   if (style.halo) t.attr({ stroke: '#ffffff', 'stroke-width': 4, 'stroke-linejoin': 'round', 'paint-order': 'stroke' });
   if (style.className) t.attr('class', style.className);
-  for (const [k, v] of Object.entries(style.data ?? {})) t.attr(`data-${k}`, v);
+  for (const [k, v] of Object.entries(style.data ?? {})) t.attr(`data-${k}`, xmlText(v));
 }
 
 /** Keeps the boxes of labels already drawn; `place` finds the first free line for a new one. */

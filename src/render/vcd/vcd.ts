@@ -44,10 +44,21 @@ export function identifier(index: number): string {
   return out;
 }
 
-/** A VCD reference name: letters, digits, _ and $ only; anything else becomes _. */
+/**
+ * A VCD reference name: letters, digits and _ only; anything else becomes _. IEEE 1364 allows `$`
+ * after the first character, but readers split `a$end` (sigrok-cli reads it as `a`).
+ */
 export function vcdName(name: string): string {
-  const clean = name.replace(/[^A-Za-z0-9_$]/g, '_');
+  const clean = name.replace(/[^A-Za-z0-9_]/g, '_');
   return /^[A-Za-z_]/.test(clean) ? clean : `_${clean}`;
+}
+
+/**
+ * Text inside a `$comment` or `$version` section, which only `$end` closes: printable ASCII on
+ * one line with no `$` at all (removing one `$end` from `$$end` would leave another).
+ */
+export function vcdText(text: string): string {
+  return text.replace(/[\t\n\r\v\f\u2028\u2029]/g, ' ').replace(/[^\x20-\x7e]/gu, '?').replace(/\$/g, '_');
 }
 
 /** Time in timescale units, rounded to the nearest unit. */
@@ -57,8 +68,8 @@ export function ticks(seconds: number, timescale: Timescale): number {
 
 export function renderVcd(doc: VcdDocument): string {
   const lines: string[] = [];
-  lines.push('$comment', `  ${doc.comment.replace(/\$end/g, 'end')}`, '$end');
-  lines.push(`$version ${doc.version} $end`);
+  lines.push('$comment', `  ${vcdText(doc.comment)}`, '$end');
+  lines.push(`$version ${vcdText(doc.version)} $end`);
   lines.push(`$timescale ${doc.timescale.replace('fs', ' fs')} $end`);
   const ids = doc.signals.map((_, i) => identifier(i));
   lines.push(...declarations(doc, ids));
