@@ -47,11 +47,13 @@ const UNPRINTABLE = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
 const escaped = (json: string) => json.replace(UNPRINTABLE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 
 const MAX_SHOWN_CHARS = 60;
+/** Longest string value shown: a 64-character name shows whole, a file-sized one does not. */
+const MAX_SHOWN_STRING = 100;
 
 export function showValue(value: unknown): string {
   if (typeof value === 'string') {
     const text = escaped(JSON.stringify(value));
-    return text.length > MAX_SHOWN_CHARS ? `${escaped(JSON.stringify(value.slice(0, MAX_SHOWN_CHARS - 5))).slice(0, -1)}..."` : text;
+    return text.length > MAX_SHOWN_STRING ? `${escaped(JSON.stringify(value.slice(0, MAX_SHOWN_STRING - 5))).slice(0, -1)}..."` : text;
   }
   if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
   const json = JSON.stringify(value) as string | undefined;
