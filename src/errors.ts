@@ -17,7 +17,7 @@ export interface InputIssue {
 export class InputError extends Error {
   readonly issues: readonly InputIssue[];
   constructor(issues: readonly InputIssue[]) {
-    super(issues.map(renderIssue).join('\n'));
+    super(renderIssues(issues).join('\n'));
     this.name = 'InputError';
     this.issues = issues;
   }
@@ -32,16 +32,33 @@ export function renderIssue(issue: InputIssue): string {
   return issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
 }
 
+/** Most issues rendered for one error; the rest are counted, so a hostile file cannot flood the terminal. */
+export const MAX_RENDERED_ISSUES = 20;
+
+/** The first `max` issues as lines, then one line counting the rest. */
+export function renderIssues(issues: readonly InputIssue[], max = MAX_RENDERED_ISSUES): string[] {
+  const lines = issues.slice(0, max).map(renderIssue);
+  if (issues.length > max) lines.push(`... and ${issues.length - max} more`);
+  return lines;
+}
+
 /** Characters a terminal could act on or reorder: controls, separators, format characters (shown as \uXXXX). */
 const UNPRINTABLE = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
 const escaped = (json: string) => json.replace(UNPRINTABLE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 
+const MAX_SHOWN_CHARS = 60;
+/** Longest string value shown: a 64-character name shows whole, a file-sized one does not. */
+const MAX_SHOWN_STRING = 100;
+
 export function showValue(value: unknown): string {
-  if (typeof value === 'string') return escaped(JSON.stringify(value));
+  if (typeof value === 'string') {
+    const text = escaped(JSON.stringify(value));
+    return text.length > MAX_SHOWN_STRING ? `${escaped(JSON.stringify(value.slice(0, MAX_SHOWN_STRING - 5))).slice(0, -1)}..."` : text;
+  }
   if (typeof value === 'number' || typeof value === 'boolean' || value === null) return String(value);
   const json = JSON.stringify(value) as string | undefined;
   const text = json === undefined ? undefined : escaped(json);
-  return text === undefined ? String(value) : text.length > 60 ? `${text.slice(0, 57)}...` : text;
+  return text === undefined ? String(value) : text.length > MAX_SHOWN_CHARS ? `${text.slice(0, MAX_SHOWN_CHARS - 3)}...` : text;
 }
 
 /** Formats a path array (from zod or our own walkers) as `a.b[2].c`. */

@@ -1,7 +1,6 @@
 /** Reading design files and process cards from disk, with `--set` overrides applied before validation. */
-import { readFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
-import { parseDocument } from 'yaml';
+import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
+import { dirname, extname, resolve } from 'node:path';
 import { InputError, inputError } from '../errors.js';
 import { designSchema, type Design } from '../schema/design.js';
 import { processSchema, type ProcessCard } from '../schema/process.js';
@@ -11,28 +10,102 @@ import type { DelayModel } from '../delay/model.js';
 import { checkTables } from '../delay/table.js';
 import { parseModelChoice, selectModel } from '../delay/select.js';
 import { applyOverrides } from './overrides.js';
+import { parseJsonText } from './json-text.js';
+import { parseYamlText } from './yaml-text.js';
+import { checkDataShape } from '../schema/data-shape.js';
+import { MAX_DESIGN_BYTES, MAX_TABLE_BYTES } from '../schema/limits.js';
 import { resolveDesign, type ResolvedDesign } from '../analysis/resolve.js';
 
-/** Reads a YAML or JSON file into plain data; the path names the file in errors. */
-export function readDataFile(path: string, label: string): unknown {
-  let text: string;
+/** What a file is read as: its size limits, and whether errors may quote its text. */
+export type DataKind = 'design' | 'card' | 'tables';
+
+interface KindRules {
+  readonly bytes: { readonly yaml: number; readonly json: number };
+  /** Whether errors may quote the file's text and keys. */
+  readonly quote: boolean;
+  /** What the file must look like before anything in it is named in an error. */
+  readonly expect?: { readonly what: string; readonly keys: readonly string[] };
+}
+
+const KINDS: Readonly<Record<DataKind, KindRules>> = {
+  design: { bytes: MAX_DESIGN_BYTES, quote: true },
+  // A card or table file is named by a design, so it may be any file on disk.
+  card: { bytes: MAX_DESIGN_BYTES, quote: false, expect: { what: 'a process card', keys: Object.keys(processSchema.shape) } },
+  tables: { bytes: MAX_TABLE_BYTES, quote: false, expect: { what: 'a delay-table file (phasegap characterize output)', keys: Object.keys(tablesSchema.shape) } },
+};
+
+/**
+ * A file looks like its kind when at least two of its top-level keys are the kind's own keys
+ * (name and description are too common to count) and no more than half are foreign. Otherwise it is some other file, and nothing of it is repeated.
+ */
+function looksLike(data: object, keys: readonly string[]): boolean {
+  const own = Object.keys(data);
+  const known = own.filter((key) => keys.includes(key) && key !== 'name' && key !== 'description').length;
+  return known >= 2 && own.length - known <= known;
+}
+
+/**
+ * Reads a YAML or JSON file (JSON when the name ends in .json) into plain data of bounded size
+ * and shape; `label` names the file's role in errors (DESIGN, process, --tables).
+ */
+export function readDataFile(path: string, label: string, kind: DataKind = 'design'): unknown {
+  const format = extname(path).toLowerCase() === '.json' ? 'json' : 'yaml';
+  const bytes = KINDS[kind].bytes;
+  const what = `${format.toUpperCase()} ${kind === 'tables' ? 'delay-table file' : 'design or process card'}`;
+  const text = readBoundedText(path, label, bytes[format], format === 'yaml' ? `${what} (a JSON one may have ${mebibytes(bytes.json)})` : what);
+  const source = { name: path, quote: KINDS[kind].quote };
+  const data = format === 'json' ? parseJsonText(text, source) : parseYamlText(text, source);
+  const expected = KINDS[kind].expect;
+  const mapping = data !== null && typeof data === 'object' && !Array.isArray(data);
+  if (expected && !(mapping && looksLike(data, expected.keys))) {
+    throw inputError(path, undefined, `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`);
+  }
+  if (!mapping) throw inputError(path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
+  checkDataShape(data);
+  return data;
+}
+
+/** The file's text, from a regular file only, refused before reading when it is larger than `limit` bytes. */
+function readBoundedText(path: string, label: string, limit: number, what: string): string {
+  let fd: number;
   try {
-    text = readFileSync(path, 'utf8');
+    // Non-blocking, so that opening a FIFO does not wait for a writer; fstat then refuses it.
+    fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
     throw inputError(label, path, code === 'ENOENT' ? 'does not exist' : code === 'EISDIR' ? 'is a directory, not a file' : `cannot be read (${code ?? 'error'})`);
   }
-  const doc = parseDocument(text, { prettyErrors: true, uniqueKeys: true });
-  if (doc.errors.length > 0) {
-    const first = doc.errors[0]!;
-    const where = first.linePos?.[0] ? ` at line ${first.linePos[0].line}, column ${first.linePos[0].col}` : '';
-    throw inputError(path, undefined, `is not valid YAML or JSON${where}: ${first.message.split('\n')[0]}`);
+  try {
+    const stat = fstatSync(fd);
+    if (stat.isDirectory()) throw inputError(label, path, 'is a directory, not a file');
+    if (!stat.isFile()) throw inputError(label, path, 'is not a regular file (it is a device, pipe or socket); give the path of a YAML or JSON file');
+    const tooBig = (): never => {
+      throw inputError(label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
+    };
+    if (stat.size > limit) tooBig();
+    // Read to the end, not to stat.size: some files (under /proc) report size 0 or grow.
+    const chunks: Buffer[] = [];
+    let total = 0;
+    for (;;) {
+      const chunk = Buffer.allocUnsafe(Math.min(Math.max(stat.size + 1 - total, 1 << 16), limit + 1 - total));
+      const n = readSync(fd, chunk, 0, chunk.length, null);
+      if (n === 0) break;
+      total += n;
+      if (total > limit) tooBig();
+      chunks.push(n === chunk.length ? chunk : chunk.subarray(0, n));
+    }
+    return Buffer.concat(chunks, total).toString('utf8');
+  } catch (error) {
+    if (error instanceof InputError) throw error;
+    const code = (error as NodeJS.ErrnoException).code;
+    throw inputError(label, path, `cannot be read (${code ?? 'error'})`);
+  } finally {
+    closeSync(fd);
   }
-  const data: unknown = doc.toJS();
-  if (data === null || typeof data !== 'object' || Array.isArray(data)) {
-    throw inputError(path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
-  }
-  return data;
+}
+
+function mebibytes(bytes: number): string {
+  return `${bytes / (1 << 20)} MiB`;
 }
 
 export interface LoadedDesign {
@@ -58,12 +131,12 @@ export function loadDesign(path: string, overrides: readonly string[] = []): Loa
 }
 
 export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
-  const raw = readDataFile(path, label);
+  const raw = readDataFile(path, label, 'card');
   try {
     return parseWith(processSchema, raw);
   } catch (error) {
     if (error instanceof InputError) {
-      throw new InputError(error.issues.map((i) => ({ ...i, path: `${path}: ${i.path}` })));
+      throw new InputError(error.issues.map((i) => ({ ...i, path: i.path === '' ? path : `${path}: ${i.path}` })));
     }
     throw error;
   }
@@ -71,7 +144,7 @@ export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
 
 /** Reads and checks a delay-table file (phasegap characterize output). */
 export function loadTables(path: string, label = 'tables'): DelayTables {
-  const raw = readDataFile(path, label);
+  const raw = readDataFile(path, label, 'tables');
   try {
     const tables = parseWith(tablesSchema, raw);
     checkTables(tables, path);

@@ -1,6 +1,6 @@
 /** The command line: parses arguments with commander, runs one command, maps errors to exit codes. */
 import { Command, CommanderError, Option } from 'commander';
-import { InputError, renderIssue } from '../errors.js';
+import { InputError, renderIssues } from '../errors.js';
 import type { Io } from './io.js';
 import { runCheck } from './commands/check.js';
 import { runInit } from './commands/init.js';
@@ -205,7 +205,7 @@ export function run(argv: readonly string[], io: Io): number | Promise<number> {
   const fail = (error: unknown): number => {
     if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
     if (error instanceof InputError) {
-      for (const issue of error.issues) io.stderr(`phasegap: error: ${renderIssue(issue)}\n`);
+      for (const line of renderIssues(error.issues)) io.stderr(`phasegap: error: ${line}\n`);
       return EXIT_INPUT;
     }
     throw error;

@@ -23,6 +23,8 @@ export interface Netlist extends PhaseNets {
   readonly gates: readonly GateSpec[];
   /** Capacitance the generator itself puts on nets (delay capacitors), F. */
   readonly loads: Readonly<Record<string, number>>;
+  /** Index in the design's gate list of each gate, where they differ (a BUF becomes two gates). */
+  readonly origins?: readonly number[];
 }
 
 export interface CompiledNetlist {
@@ -69,13 +71,14 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
   };
   const clock = intern(netlist.clock);
   const gateCount = netlist.gates.length;
+  const at = gatePaths(netlist, where);
   const names = new Set<string>();
   netlist.gates.forEach((gate, g) => {
     const expected = CELLS[gate.cell].inputs;
     if (gate.inputs.length !== expected) {
-      throw inputError(`${where}[${g}].inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell ${gate.cell} takes exactly ${expected}`);
+      throw inputError(`${at(g)}.inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell ${gate.cell} takes exactly ${expected}`);
     }
-    if (names.has(gate.name)) throw inputError(`${where}[${g}].name`, gate.name, 'is used by two gates; instance names must be unique');
+    if (names.has(gate.name)) throw inputError(`${at(g)}.name`, gate.name, 'is used by two gates; instance names must be unique');
     names.add(gate.name);
   });
   const gateInputStart = new Int32Array(gateCount + 1);
@@ -91,10 +94,10 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
   const driver = new Int32Array(netCount).fill(-1);
   netlist.gates.forEach((gate, g) => {
     const out = gateOutput[g]!;
-    if (out === clock) throw inputError(`${where}[${g}].output`, gate.output, 'is the input clock net; the clock is driven by the ideal source only');
+    if (out === clock) throw inputError(`${at(g)}.output`, gate.output, 'is the input clock net; the clock is driven by the ideal source only');
     const other = driver[out]!;
     if (other >= 0) {
-      throw inputError(`${where}[${g}].output`, gate.output, `is already driven by gate "${netlist.gates[other]!.name}"; a net has one driver`);
+      throw inputError(`${at(g)}.output`, gate.output, `is already driven by gate "${netlist.gates[other]!.name}"; a net has one driver`);
     }
     driver[out] = g;
   });
@@ -120,18 +123,23 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
     gateSize: Float64Array.from(netlist.gates.map((g) => g.size)),
     gateInputStart, gateInputs, gateOutput, driver, fanoutStart, fanoutGate, fanoutPin,
   };
-  checkDriven(compiled, where);
+  checkDriven(compiled, at);
   checkRoles(compiled);
   checkLoops(compiled, where);
   return compiled;
 }
 
-function checkDriven(net: CompiledNetlist, where: string): void {
+/** The design-file path of gate g, e.g. `generator.gates[3]`. */
+function gatePaths(netlist: Netlist, where: string): (g: number) => string {
+  return (g) => `${where}[${netlist.origins?.[g] ?? g}]`;
+}
+
+function checkDriven(net: CompiledNetlist, at: (g: number) => string): void {
   for (let g = 0; g < net.gateCount; g++) {
     for (let i = net.gateInputStart[g]!; i < net.gateInputStart[g + 1]!; i++) {
       const n = net.gateInputs[i]!;
       if (n !== net.clock && net.driver[n]! < 0) {
-        throw inputError(`${where}[${g}].inputs[${i - net.gateInputStart[g]!}]`, net.netNames[n],
+        throw inputError(`${at(g)}.inputs[${i - net.gateInputStart[g]!}]`, net.netNames[n],
           `is not driven by any gate and is not the clock "${net.netNames[net.clock]}"; every input net needs a driver`);
       }
     }

@@ -109,6 +109,7 @@ export function bufferStages(size: number): [number, number] {
  */
 export function expandNetlist(spec: NetlistSpec): Netlist {
   const gates: GateSpec[] = [];
+  const origins: number[] = [];
   for (const [g, gate] of spec.gates.entries()) {
     if (gate.cell === 'BUF') {
       if (gate.inputs.length !== 1) throw inputError(`generator.gates[${g}].inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell BUF takes exactly 1`);
@@ -116,9 +117,11 @@ export function expandNetlist(spec: NetlistSpec): Netlist {
       const [first, second] = bufferStages(gate.size);
       gates.push({ name: `${gate.name}.1`, cell: 'INV', size: first, inputs: gate.inputs.slice(0, 1), output: mid });
       gates.push({ name: `${gate.name}.2`, cell: 'INV', size: second, inputs: [mid], output: gate.output });
+      origins.push(g, g);
     } else {
       gates.push({ name: gate.name, cell: gate.cell, size: gate.size, inputs: gate.inputs, output: gate.output });
+      origins.push(g);
     }
   }
-  return { clock: spec.clock, phases: spec.phases, complements: spec.complements, early: spec.early, gates, loads: {} };
+  return { clock: spec.clock, phases: spec.phases, complements: spec.complements, early: spec.early, gates, loads: {}, origins };
 }

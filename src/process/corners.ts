@@ -3,7 +3,8 @@ import { InputError, inputError } from '../errors.js';
 import type { CornersSpec } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
 import { cornerName, type Corner } from './corner.js';
-import { devicesAtCorner, thresholdAt } from './device.js';
+import { devicesAtCorner, processCornerOf, thresholdAt } from './device.js';
+import { MAX_CORNERS } from '../schema/limits.js';
 
 /** A corner with the design-file paths of the values that made it, for error messages. */
 export interface SourcedCorner {
@@ -21,7 +22,7 @@ export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty:
 }
 
 function defaultProcess(card: ProcessCard): string {
-  return 'tt' in card.corners ? 'tt' : Object.keys(card.corners)[0] ?? 'tt';
+  return Object.hasOwn(card.corners, 'tt') ? 'tt' : Object.keys(card.corners)[0] ?? 'tt';
 }
 
 function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
@@ -29,6 +30,10 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   const vdds = spec.vdd ?? [card.vddNominal];
   const temperatures = spec.temperature ?? [card.t0];
   const duties = spec.duty ?? [nominalDuty];
+  const count = processes.length * vdds.length * temperatures.length * duties.length;
+  if (count > MAX_CORNERS) {
+    throw inputError('corners', `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`, `is more than ${MAX_CORNERS} corners; list fewer values per axis`);
+  }
   const showDuty = duties.length > 1;
   const out: SourcedCorner[] = [];
   processes.forEach((process, pi) => vdds.forEach((vdd, vi) => temperatures.forEach((temperature, ti) => duties.forEach((duty) => {
@@ -61,7 +66,7 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
   const known = Object.keys(card.corners);
   const seen = new Set<string>();
   for (const { corner, paths } of corners) {
-    if (!(corner.process in card.corners)) {
+    if (processCornerOf(card, corner.process) === undefined) {
       throw inputError(paths.process, corner.process, `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`);
     }
     if (seen.has(corner.name)) throw inputError('corners', corner.name, 'appears twice; every corner must be distinct');
@@ -78,5 +83,5 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
 }
 
 function thresholdOf(card: ProcessCard, type: 'n' | 'p', corner: Corner): number {
-  return thresholdAt(card[type], card.corners[corner.process]?.[type].dvth ?? 0, corner.temperature, card.t0);
+  return thresholdAt(card[type], processCornerOf(card, corner.process)?.[type].dvth ?? 0, corner.temperature, card.t0);
 }

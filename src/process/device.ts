@@ -77,9 +77,14 @@ export function shiftFactor(u: number, alpha: number): number {
   return sum;
 }
 
+/** The card's process corner of that name, looked up among the card's own corners only. */
+export function processCornerOf(card: ProcessCard, name: string): ProcessCard['corners'][string] | undefined {
+  return Object.hasOwn(card.corners, name) ? card.corners[name] : undefined;
+}
+
 export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corner): DeviceAtCorner {
   const params = card[type];
-  const shift = card.corners[corner.process]?.[type];
+  const shift = processCornerOf(card, corner.process)?.[type];
   if (!shift) {
     throw inputError('corners.process', corner.process,
       `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`);

@@ -5,6 +5,7 @@ import * as z from 'zod';
 import { quantity, ratio, temperature } from './fields.js';
 import { processSchema } from './process.js';
 import { constraintsSchema, switchSchema } from './switches.js';
+import { MAX_AXIS_VALUES, MAX_CORNERS, MAX_GATES, MAX_SWITCHES } from './limits.js';
 import { description, identifier, patterned, title } from './names.js';
 
 const netName = patterned(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
@@ -19,7 +20,7 @@ const commonTemplate = {
   phases: phaseNames,
   stages: z.number().int().min(0).max(64).default(4)
     .describe('Inverters in each feedback delay chain; must be even (0, 2, 4, ...)'),
-  stageSize: z.union([size, z.array(size).min(1)]).default(1)
+  stageSize: z.union([size, z.array(size).min(1).max(64)]).default(1)
     .describe('Size of every chain inverter, or one size per stage'),
   stageLoad: quantity('F', 'Extra capacitance on every chain node (delay capacitors)', { atLeast: 0 }).default(0),
   gateSize: size.default(1).describe('Size of the cross-coupled NAND/NOR gates'),
@@ -54,16 +55,16 @@ export const netlistSchema = z.strictObject({
   phases: z.tuple([netName, netName]).describe('The two phase nets; the first is active while the clock is high'),
   complements: z.record(netName, netName).default({}).describe('Phase net -> its complement net'),
   early: z.record(netName, netName).default({}).describe('Phase net -> its early phase net'),
-  gates: z.array(gateSchema).min(1),
+  gates: z.array(gateSchema).min(1).max(MAX_GATES),
 });
 
 export const generatorSchema = z.discriminatedUnion('template', [templateSchema, netlistSchema]);
 
 const axes = {
-  process: z.array(identifier()).min(1).optional().describe('Process corner names from the process card'),
-  vdd: z.array(quantity('V', 'Supply', { above: 0 })).min(1).optional(),
-  temperature: z.array(temperature('Junction temperature')).min(1).optional(),
-  duty: z.array(ratio('Input clock duty cycle', { above: 0, below: 1 })).min(1).optional(),
+  process: z.array(identifier()).min(1).max(MAX_AXIS_VALUES).optional().describe('Process corner names from the process card'),
+  vdd: z.array(quantity('V', 'Supply', { above: 0 })).min(1).max(MAX_AXIS_VALUES).optional(),
+  temperature: z.array(temperature('Junction temperature')).min(1).max(MAX_AXIS_VALUES).optional(),
+  duty: z.array(ratio('Input clock duty cycle', { above: 0, below: 1 })).min(1).max(MAX_AXIS_VALUES).optional(),
 };
 
 export const cornerPointSchema = z.strictObject({
@@ -75,7 +76,7 @@ export const cornerPointSchema = z.strictObject({
 
 export const cornersSchema = z.strictObject({
   ...axes,
-  list: z.array(cornerPointSchema).min(1).optional()
+  list: z.array(cornerPointSchema).min(1).max(MAX_CORNERS).optional()
     .describe('An explicit list of corners instead of the cartesian product of the axes'),
 }).describe('Cartesian product of the listed axes (missing axes take the nominal value), or an explicit list');
 
@@ -109,7 +110,7 @@ export const designSchema = z.strictObject({
   generator: generatorSchema,
   loads: z.record(netName, quantity('F', 'Extra capacitance on the net (wire and devices not modelled)', { atLeast: 0 }))
     .default({}).describe('Extra capacitance on named nets'),
-  switches: z.array(switchSchema).default([]).describe('Switches driven by the phases'),
+  switches: z.array(switchSchema).max(MAX_SWITCHES).default([]).describe('Switches driven by the phases'),
   constraints: constraintsSchema.default({ breakBeforeMake: [], order: [], settle: [] }),
   corners: cornersSchema.default({}),
   montecarlo: z.strictObject({

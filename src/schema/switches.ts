@@ -2,6 +2,7 @@
 import * as z from 'zod';
 import { quantity, ratio } from './fields.js';
 import { level } from './level.js';
+import { MAX_CONSTRAINTS, MAX_SWITCHES } from './limits.js';
 import { identifier, patterned } from './names.js';
 
 const name = patterned(/^[A-Za-z_][A-Za-z0-9_.-]*$/, 'must start with a letter or _ and use letters, digits, _ . -');
@@ -49,20 +50,20 @@ export const constraintsSchema = z.strictObject({
     name: identifier().optional(),
     between: z.tuple([name, name]).describe('Two switches that must never conduct together'),
     guard: quantity('s', 'Least time between one stopping and the other starting (default: requirements.guard)', { atLeast: 0 }).optional(),
-  })).default([]),
+  })).max(MAX_CONSTRAINTS).default([]),
   order: z.array(z.strictObject({
     name: identifier().optional(),
     first: eventRef,
     then: eventRef,
     min: quantity('s', 'Least time from the first event to the second', { atLeast: 0 }).default(0),
-  })).default([]).describe('Event ordering, e.g. the bottom-plate switch opens before the top-plate one'),
+  })).max(MAX_CONSTRAINTS).default([]).describe('Event ordering, e.g. the bottom-plate switch opens before the top-plate one'),
   settle: z.array(z.strictObject({
     name: identifier(),
-    switches: z.array(name).min(1).describe('Switches in series in the path'),
+    switches: z.array(name).min(1).max(MAX_SWITCHES).describe('Switches in series in the path'),
     capacitance: quantity('F', 'Capacitance the path charges', { above: 0 }),
     error: ratio('Allowed settling error as a fraction', { above: 0, below: 1 }).optional(),
     bits: z.number().int().min(1).max(24).optional().describe('Allowed error as N bits: half an LSB, 2^-(N+1)'),
-  })).default([]),
+  })).max(MAX_CONSTRAINTS).default([]),
 });
 
 export type SwitchSpec = z.output<typeof switchSchema>;

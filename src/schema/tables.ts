@@ -12,12 +12,13 @@
  *   in seconds. Delay is input 50 % to output 50 %; transition is the output's 10-90 % time / 0.8.
  */
 import * as z from 'zod';
+import { MAX_TABLE_AXIS, MAX_TABLE_CORNERS } from './limits.js';
 
-const axis = (what: string) => z.array(z.number().positive()).min(2)
+const axis = (what: string) => z.array(z.number().positive()).min(2).max(MAX_TABLE_AXIS)
   .refine((a) => a.every((v, i) => i === 0 || v > a[i - 1]!), { message: 'must be strictly ascending' })
   .describe(what);
 
-const grid = z.array(z.array(z.number().refine(Number.isFinite, { message: 'must be a finite number' })).min(2)).min(2);
+const grid = z.array(z.array(z.number().refine(Number.isFinite, { message: 'must be a finite number' })).min(2).max(MAX_TABLE_AXIS)).min(2).max(MAX_TABLE_AXIS);
 
 const edgeTables = z.strictObject({
   delay: grid.describe('Delay, s, [input transition][load]'),
@@ -37,7 +38,7 @@ export const cornerTablesSchema = z.strictObject({
   process: z.string().min(1),
   vdd: z.number().positive(),
   temperature: z.number(),
-  cells: z.partialRecord(z.enum(TABLE_CELLS), z.strictObject({ pins: z.array(pinTables).min(1) })),
+  cells: z.partialRecord(z.enum(TABLE_CELLS), z.strictObject({ pins: z.array(pinTables).min(1).max(3) })),
 });
 
 export const tablesSchema = z.strictObject({
@@ -47,7 +48,7 @@ export const tablesSchema = z.strictObject({
   size: z.number().positive(),
   transitions: axis('Input transition axis, s'),
   loads: axis('Output load axis, F at the characterized size'),
-  corners: z.array(cornerTablesSchema).min(1),
+  corners: z.array(cornerTablesSchema).min(1).max(MAX_TABLE_CORNERS),
 });
 
 export type DelayTables = z.output<typeof tablesSchema>;

@@ -29,7 +29,7 @@ function defOf(schema: z.ZodType): SchemaDef {
  */
 function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unknown): SchemaDef[] {
   const def = defOf(schema);
-  const child = (key: PropertyKey) => (value !== null && typeof value === 'object' ? (value as Record<PropertyKey, unknown>)[key as string] : undefined);
+  const child = (key: PropertyKey) => ownValue(value, key);
   switch (def.type) {
     case 'default': case 'optional': case 'prefault': case 'nullable': case 'readonly':
       return objectsAt(def.innerType!, path, value);
@@ -48,7 +48,7 @@ function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unkno
     case 'record': return path.length === 0 ? [] : objectsAt(def.valueType!, path.slice(1), child(path[0]!));
     case 'object': {
       if (path.length === 0) return [def];
-      const next = def.shape![String(path[0])];
+      const next = ownValue(def.shape, String(path[0])) as z.ZodType | undefined;
       return next ? objectsAt(next, path.slice(1), child(path[0]!)) : [];
     }
     default: return [];
@@ -58,7 +58,7 @@ function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unkno
 /** The literal or enum values an object schema allows for `key` (its discriminator). */
 function literalValues(schema: z.ZodType, key: string): unknown[] {
   const shape = defOf(schema).shape;
-  const field = shape?.[key];
+  const field = ownValue(shape, key) as z.ZodType | undefined;
   if (!field) return [];
   const def = defOf(field) as SchemaDef & { values?: unknown[]; entries?: Record<string, unknown> };
   if (def.values) return def.values;
@@ -79,7 +79,7 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     case 'unrecognized_keys':
       return {
         path: joinPath(path, ''),
-        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => showValue(k)).join(', ')}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
+        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_key': {
       const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
@@ -100,10 +100,23 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
       return { path, value: showValue(received), allowed: describeUnion(issue) };
     case 'too_small':
     case 'too_big':
+      if (issue.origin === 'array' && Array.isArray(received)) {
+        const bound = issue.code === 'too_big' ? `at most ${issue.maximum}` : `at least ${issue.minimum}`;
+        return { path, allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed` };
+      }
       return { path, value: showValue(received), allowed: `is out of range: ${lowerFirst(issue.message)}` };
     default:
       return { path, value: received === undefined ? undefined : showValue(received), allowed: issue.message };
   }
+}
+
+const SHOWN_KEYS = 3;
+const SHOWN_KEY_CHARS = 24;
+
+/** The first few unknown keys, each cut short: a long list or a long key says no more. */
+function listKeys(keys: readonly string[]): string {
+  const shown = keys.slice(0, SHOWN_KEYS).map((k) => showValue(k.length > SHOWN_KEY_CHARS ? `${k.slice(0, SHOWN_KEY_CHARS - 3)}...` : k));
+  return keys.length > SHOWN_KEYS ? `${shown.join(', ')} and ${keys.length - SHOWN_KEYS} more` : shown.join(', ');
 }
 
 function describeUnion(issue: z.core.$ZodIssueInvalidUnion): string {
@@ -128,9 +141,11 @@ function joinPath(prefix: string, path: string): string {
 
 function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
   let node: unknown = root;
-  for (const key of path) {
-    if (node === null || typeof node !== 'object') return undefined;
-    node = (node as Record<PropertyKey, unknown>)[key as string];
-  }
+  for (const key of path) node = ownValue(node, key);
   return node;
+}
+
+/** `node[key]` when node is an object that has `key` itself; a name never finds an inherited member. */
+function ownValue(node: unknown, key: PropertyKey): unknown {
+  return node !== null && typeof node === 'object' && Object.hasOwn(node, key) ? (node as Record<PropertyKey, unknown>)[key as string] : undefined;
 }

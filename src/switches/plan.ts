@@ -81,7 +81,7 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
     const add = (kind: DeviceKind, w: number, source: string, tag: string) => {
       const net = driverChain(spec, source, tag, gates);
       devices.push({ kind, w, l: spec.l, net });
-      if (!ls) loads[net] = (loads[net] ?? 0) + switchGateCapacitance(card, kind, w, spec.l);
+      if (!ls) loads[net] = (Object.hasOwn(loads, net) ? loads[net]! : 0) + switchGateCapacitance(card, kind, w, spec.l);
     };
     if (spec.type === 'nmos') add('n', spec.w, spec.gate, 'n');
     else if (spec.type === 'pmos') add('p', spec.w, spec.gate, 'p');

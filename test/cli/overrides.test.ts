@@ -43,8 +43,25 @@ describe('applyOverrides', () => {
     ['a[x]=1', '--set: "a[x]=1" has a malformed path'],
     ['name.first=1', '--set: "name.first=1" cannot set inside name, which holds a plain value'],
     ['name={a: [1', '--set: "name={a: [1" has a value that is not a YAML scalar, list or mapping'],
+    ['name={a: 1, a: 2}', '--set: "name={a: 1, a: 2}" has a value that is not a YAML scalar, list or mapping'],
+    ['__proto__.x=1', '--set: "__proto__.x=1" names the reserved key "__proto__"'],
+    ['clock.constructor=1', '--set: "clock.constructor=1" names the reserved key "constructor"'],
+    ['corners.vdd[100001]=1V', '--set: "corners.vdd[100001]=1V" has list index 100001; a list holds at most 100000 items'],
+    ['corners.vdd[3]=1V', 'sets item [3] of corners.vdd, which has 2 items; give an index from 0 to 2 (the last appends)'],
+    ['corners.list[1]=1', 'sets item [1] of corners.list, which has 0 items; give an index from 0 to 0'],
+    ['corners.vdd.x=1', 'cannot set key "x" in corners.vdd, which is a list; write corners.vdd[N]'],
+    ['clock[0]=1', 'cannot set item [0] in clock, which is a mapping; write clock.KEY'],
+    ['name=__proto__', '--set: "name=__proto__" is refused at name: it is a reserved name'],
+    ['switches[0]={name: constructor}', '--set: "switches[0]={name: constructor}" is refused at switches[0].name: it is a reserved name'],
+    ['loads={constructor: 1pF}', '--set: "loads={constructor: 1pF}" is refused at loads.constructor: it uses the reserved key "constructor"'],
+    [`${'a.'.repeat(40)}b=1`, 'has a path 41 levels deep; design fields nest at most 32 deep'],
   ])('refuses %s', (text, expected) => {
     expect(message(() => applyOverrides(raw, [text]))).toContain(expected);
+    expect(({} as Record<string, unknown>).x).toBeUndefined();
+  });
+
+  it('appends one item past the end of a list', () => {
+    expect(applyOverrides(raw, ['corners.vdd[2]=2V'])).toMatchObject({ corners: { vdd: ['1.62V', '1.8V', '2V'] } });
   });
 });
 

@@ -142,6 +142,23 @@ describe('expandNetlist', () => {
       { name: 'u2', cell: 'INV', size: 1, inputs: ['clk'], output: 'b' },
     ]);
     expect(n.loads).toEqual({});
+    expect(n.origins).toEqual([0, 0, 1]);
+  });
+
+  it('names the gate the user wrote when a gate after a BUF is wrong', () => {
+    const spec = (third: object) => parseWith(netlistSchema, {
+      template: 'netlist', phases: ['a', 'b'],
+      gates: [
+        { name: 'u1', cell: 'BUF', inputs: ['clk'], output: 'a' },
+        { name: 'u2', cell: 'BUF', inputs: ['a'], output: 'b' },
+        { name: 'u3', cell: 'INV', ...third },
+      ],
+    });
+    // Expanded, u3 is gate 4; the user wrote it third.
+    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['nowhere'], output: 'c' })))))
+      .toBe('generator.gates[2].inputs[0]: "nowhere" is not driven by any gate and is not the clock "clk"; every input net needs a driver');
+    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['clk'], output: 'a' })))))
+      .toBe('generator.gates[2].output: "a" is already driven by gate "u1.2"; a net has one driver');
   });
 
   it('refuses a BUF with more than one input', () => {

@@ -60,6 +60,17 @@ describe('expandCorners', () => {
       .toBe('corners.process[1]: "xx" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf');
   });
 
+  it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])('finds no process corner %s among the card\'s inherited members', (name) => {
+    expect(message(() => expandCorners(spec({ list: [{ process: name, vdd: 1.8, temperature: 27 }] }), card, 0.5)))
+      .toBe(`corners.list[0].process: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf`);
+  });
+
+  it('refuses more than 10000 corners before expanding them', () => {
+    const axis = (n: number) => Array.from({ length: n }, (_, i) => 1.6 + i / 10_000);
+    expect(message(() => expandCorners(spec({ process: ['tt', 'ss'], vdd: axis(1000), temperature: [0, 27, 85, 125, 150, 175] }), card, 0.5)))
+      .toBe('corners: "2 x 1000 x 6 x 1 = 12000 corners" is more than 10000 corners; list fewer values per axis');
+  });
+
   it('refuses a corner listed twice', () => {
     expect(message(() => expandCorners(spec({ list: [{ process: 'tt', vdd: 1.8, temperature: 27 }, { process: 'tt', vdd: '1.8V', temperature: '27C' }] }), card, 0.5)))
       .toContain('"tt/1.8V/27C" appears twice');

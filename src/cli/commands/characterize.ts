@@ -6,6 +6,7 @@ import { basename, dirname, resolve } from 'node:path';
 import { inputError } from '../../errors.js';
 import { cornerName } from '../../process/corner.js';
 import { expandCorners } from '../../process/corners.js';
+import { processCornerOf } from '../../process/device.js';
 import { CELLS, type PrimitiveCell } from '../../cells/library.js';
 import { TABLE_CELLS, type CornerTables, type DelayTables } from '../../schema/tables.js';
 import { parseQuantity, parseTemperature } from '../../units/quantity.js';
@@ -54,7 +55,7 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
     if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
       throw inputError('--corners', name, 'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas');
     }
-    if (!(process in card.corners)) throw inputError('--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
+    if (processCornerOf(card, process) === undefined) throw inputError('--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
     return { name: cornerName(process, vdd.value, temperature.value), process, vdd: vdd.value, temperature: temperature.value };
   });
 }
@@ -62,7 +63,7 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
 function parseCells(text: string | undefined): PrimitiveCell[] {
   if (text === undefined) return [...TABLE_CELLS];
   return text.split(',').map((s) => s.trim().toUpperCase()).map((cell) => {
-    if (!(cell in CELLS)) throw inputError('--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
+    if (!Object.hasOwn(CELLS, cell)) throw inputError('--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
     return cell as PrimitiveCell;
   });
 }
