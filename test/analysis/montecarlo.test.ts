@@ -58,6 +58,14 @@ describe('runMonteCarlo', () => {
     expectClose(report.corners[3]!.deadTimeQuantiles[0]!['q0.5']!, quantileSorted(values, 0.5), spacing, 'abs');
   });
 
+  it('merges chunks arriving in any order into the same result as in order', () => {
+    const chunks = chunkPlan(3 * CHUNK_SIZE + 11).map(({ start, count }) => runChunk(resolved, 2, start, count));
+    const inOrder = mergeChunks(resolved, 2, 3 * CHUNK_SIZE + 11, chunks);
+    const shuffled = mergeChunks(resolved, 2, 3 * CHUNK_SIZE + 11, [chunks[2]!, chunks[0]!, chunks[3]!, chunks[1]!]);
+    expect(shuffled).toEqual(inOrder);
+    expect(inOrder.deadTimes[0]![0].count).toBe(3 * CHUNK_SIZE + 11);
+  });
+
   it('gives the same numbers for the same seed and different ones for another seed', () => {
     const again = runMonteCarlo(resolved, 400, 5);
     const other = runMonteCarlo(resolved, 400, 6);
