@@ -272,11 +272,6 @@ export class McMerger {
     });
   }
 
-  /** Chunks merged so far cover dies [0, merged). */
-  get merged(): number {
-    return this.next;
-  }
-
   finish(): McResult {
     if (this.next !== this.samples) throw new Error(`internal: Monte Carlo merged ${this.next} of ${this.samples} dies`);
     const samples = this.samples;
