@@ -6,6 +6,7 @@
 import { CornerEvaluator } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
 import { addValue, emptyStats, mergeStats, summarize, wilsonInterval, type RunningState, type StatsSummary } from '../variation/stats.js';
+import { addToHistogram, emptyHistogram, hasEdges, setEdges, type StreamingHistogram } from '../variation/histogram.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas, type SampleMismatch } from '../variation/mismatch.js';
 import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import type { Corner } from '../process/corner.js';
@@ -201,66 +202,111 @@ export interface McResult {
   /** Dies that pass at every corner. */
   readonly yieldEverywhere: number;
   readonly yieldEverywhereInterval: { readonly low: number; readonly high: number };
-  /** Per-die dead times of each corner (for histograms and quantiles), s. */
-  readonly deadTimes: ReadonlyArray<readonly [Float64Array, Float64Array]>;
+  /** Dead-time histograms of each corner (for plots and quantiles), s; see variation/histogram.ts for their resolution. */
+  readonly deadTimes: ReadonlyArray<readonly [StreamingHistogram, StreamingHistogram]>;
 }
 
-/** Merges chunk results (in chunk order) into the run's report. */
-export function mergeChunks(resolved: ResolvedDesign, seed: number, samples: number, chunks: readonly ChunkResult[]): McResult {
-  const ordered = [...chunks].sort((a, b) => a.start - b.start);
-  const names = resolved.corners.map((c) => c.corner.name);
-  const corners = names.map((name, c): McCornerReport => {
-    const quantities: Record<string, RunningState> = {};
-    const kinds: Record<string, CheckKind | 'measure'> = {};
-    const failures: Record<string, number> = {};
-    let passes = 0;
-    let unsettled = 0;
-    let worstIndex = -1;
-    let worstMargin = Infinity;
-    for (const chunk of ordered) {
-      const part = chunk.corners[c]!;
-      passes += part.passes;
-      unsettled += part.unsettled;
+/** What the run keeps of one corner: running statistics, counts, the worst die and two histograms. */
+interface CornerTotals {
+  readonly quantities: Record<string, RunningState>;
+  readonly kinds: Record<string, CheckKind | 'measure'>;
+  readonly failures: Record<string, number>;
+  passes: number;
+  unsettled: number;
+  worstIndex: number;
+  worstMargin: number;
+  readonly dead: readonly [StreamingHistogram, StreamingHistogram];
+}
+
+/**
+ * Folds chunk results into the run's totals as they arrive, in chunk order whatever order they
+ * come in (a chunk that arrives early waits, at most a few per thread), so the numbers do not
+ * depend on the thread count and memory does not grow with the number of dies.
+ */
+export class McMerger {
+  private readonly totals: CornerTotals[];
+  private readonly waiting = new Map<number, ChunkResult>();
+  private next = 0;
+  private everywhere = 0;
+
+  constructor(private readonly resolved: ResolvedDesign, private readonly seed: number, private readonly samples: number) {
+    this.totals = resolved.corners.map(() => ({
+      quantities: {}, kinds: {}, failures: {}, passes: 0, unsettled: 0, worstIndex: -1, worstMargin: Infinity,
+      dead: [emptyHistogram(), emptyHistogram()],
+    }));
+  }
+
+  add(chunk: ChunkResult): void {
+    this.waiting.set(chunk.start, chunk);
+    for (let ready = this.waiting.get(this.next); ready; ready = this.waiting.get(this.next)) {
+      this.waiting.delete(this.next);
+      this.fold(ready);
+      this.next += ready.count;
+    }
+  }
+
+  private fold(chunk: ChunkResult): void {
+    this.everywhere += chunk.passesEverywhere;
+    chunk.corners.forEach((part, c) => {
+      const t = this.totals[c]!;
+      t.passes += part.passes;
+      t.unsettled += part.unsettled;
       for (const [q, s] of Object.entries(part.quantities)) {
-        if (!quantities[q]) quantities[q] = emptyStats();
-        mergeStats(quantities[q]!, s);
-        kinds[q] = part.kinds[q]!;
+        if (!t.quantities[q]) t.quantities[q] = emptyStats();
+        mergeStats(t.quantities[q]!, s);
+        t.kinds[q] = part.kinds[q]!;
       }
-      for (const [q, n] of Object.entries(part.failures)) failures[q] = (failures[q] ?? 0) + n;
-      part.leastMargin.forEach((m, i) => {
-        if (m < worstMargin || worstIndex < 0) {
-          worstMargin = m;
-          worstIndex = chunk.start + i;
+      for (const [q, n] of Object.entries(part.failures)) t.failures[q] = (t.failures[q] ?? 0) + n;
+      const least = part.leastMargin;
+      for (let i = 0; i < least.length; i++) {
+        if (least[i]! < t.worstMargin || t.worstIndex < 0) {
+          t.worstMargin = least[i]!;
+          t.worstIndex = chunk.start + i;
         }
+      }
+      [part.dead0, part.dead1].forEach((values, k) => {
+        const h = t.dead[k]!;
+        if (!hasEdges(h) && !setEdges(h, values)) return;
+        for (let i = 0; i < values.length; i++) addToHistogram(h, values[i]!);
       });
-    }
-    const reports = Object.entries(quantities).map(([q, s]): QuantityReport => {
-      const summary = summarize(s);
-      if (kinds[q] === 'measure') return { name: q, kind: 'measure', ...summary };
-      return { name: q, kind: kinds[q]!, ...summary, failures: failures[q] ?? 0, sigmaMargin: summary.sigma > 0 ? summary.mean / summary.sigma : null };
     });
-    for (const [q, n] of Object.entries(failures)) {
-      if (!quantities[q]) reports.push({ name: q, kind: 'steady-state', count: 0, mean: NaN, sigma: 0, min: NaN, max: NaN, failures: n, sigmaMargin: null });
-    }
+  }
+
+  finish(): McResult {
+    if (this.next !== this.samples) throw new Error(`internal: Monte Carlo merged ${this.next} of ${this.samples} dies`);
+    const samples = this.samples;
+    const corners = this.resolved.corners.map(({ corner }, c): McCornerReport => {
+      const { quantities, kinds, failures, passes, unsettled, worstIndex, worstMargin } = this.totals[c]!;
+      const reports = Object.entries(quantities).map(([q, s]): QuantityReport => {
+        const summary = summarize(s);
+        if (kinds[q] === 'measure') return { name: q, kind: 'measure', ...summary };
+        return { name: q, kind: kinds[q]!, ...summary, failures: failures[q] ?? 0, sigmaMargin: summary.sigma > 0 ? summary.mean / summary.sigma : null };
+      });
+      for (const [q, n] of Object.entries(failures)) {
+        if (!quantities[q]) reports.push({ name: q, kind: 'steady-state', count: 0, mean: NaN, sigma: 0, min: NaN, max: NaN, failures: n, sigmaMargin: null });
+      }
+      return {
+        name: corner.name, samples, passes, unsettled, yield: passes / samples, yieldInterval: wilsonInterval(passes, samples), quantities: reports,
+        worstSample: { index: worstIndex, leastMargin: Number.isFinite(worstMargin) ? worstMargin : null },
+      };
+    });
     return {
-      name, samples, passes, unsettled, yield: passes / samples, yieldInterval: wilsonInterval(passes, samples), quantities: reports,
-      worstSample: { index: worstIndex, leastMargin: Number.isFinite(worstMargin) ? worstMargin : null },
+      samples, seed: this.seed, corners, yieldEverywhere: this.everywhere / samples,
+      yieldEverywhereInterval: wilsonInterval(this.everywhere, samples), deadTimes: this.totals.map((t) => t.dead),
     };
-  });
-  const everywhere = ordered.reduce((n, c) => n + c.passesEverywhere, 0);
-  const deadTimes = names.map((_, c): [Float64Array, Float64Array] => {
-    const d0 = new Float64Array(samples);
-    const d1 = new Float64Array(samples);
-    for (const chunk of ordered) {
-      d0.set(chunk.corners[c]!.dead0, chunk.start);
-      d1.set(chunk.corners[c]!.dead1, chunk.start);
-    }
-    return [d0, d1];
-  });
-  return { samples, seed, corners, yieldEverywhere: everywhere / samples, yieldEverywhereInterval: wilsonInterval(everywhere, samples), deadTimes };
+  }
+}
+
+/** Merges chunk results (in any order) into the run's report. */
+export function mergeChunks(resolved: ResolvedDesign, seed: number, samples: number, chunks: readonly ChunkResult[]): McResult {
+  const merger = new McMerger(resolved, seed, samples);
+  for (const chunk of chunks) merger.add(chunk);
+  return merger.finish();
 }
 
 /** Single-threaded run of every chunk. */
 export function runMonteCarlo(resolved: ResolvedDesign, samples: number, seed: number): McResult {
-  return mergeChunks(resolved, seed, samples, chunkPlan(samples).map(({ start, count }) => runChunk(resolved, seed, start, count)));
+  const merger = new McMerger(resolved, seed, samples);
+  for (const { start, count } of chunkPlan(samples)) merger.add(runChunk(resolved, seed, start, count));
+  return merger.finish();
 }

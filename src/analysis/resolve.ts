@@ -11,6 +11,7 @@ import { checkLevelShifters, expandSwitches, type SwitchPlan } from '../switches
 import { checkConstraintReferences } from '../switches/references.js';
 import { requirementLabels, type RequirementLabels } from '../checks/requirements.js';
 import { switchCheckNames } from '../checks/switch-checks.js';
+import { checkPhysicalLimits } from './physical-limits.js';
 
 export interface ResolvedDesign {
   readonly design: Design;
@@ -37,6 +38,7 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const netlist = compileNetlist(expansion.netlist);
   const loads = netLoads(netlist, card, { path: 'loads', caps: design.loads }, { path: 'switches', caps: expansion.loads });
   const corners = expandCorners(design.corners, card, design.clock.duty);
+  checkPhysicalLimits(design, card, corners);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
   return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements, netlist.source.phases,

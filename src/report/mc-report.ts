@@ -1,11 +1,14 @@
 /** The Monte Carlo report: plain data for --json, and its table for people. */
-import { quantileSorted } from 'd3-array';
 import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
 import { formatSignedTime, formatTime } from '../units/format.js';
+import { histogramQuantile, type StreamingHistogram } from '../variation/histogram.js';
 import { CAUTIONS } from './cautions.js';
 import { renderTable } from './text-table.js';
 
-/** Quantiles reported for the dead times: the ±3 sigma tails and the median. */
+/**
+ * Quantiles reported for the dead times: the ±3 sigma tails and the median, from each corner's
+ * streaming histogram (error at most one bin width, see variation/histogram.ts).
+ */
 export const QUANTILES = [0.00135, 0.5, 0.99865] as const;
 
 export interface McReport {
@@ -26,15 +29,9 @@ export interface McReport {
   readonly cautions: readonly string[];
 }
 
-function quantiles(values: Float64Array): Record<string, number> {
-  // Dies that did not settle (NaN) are left out; a typed array sorts numerically without a comparator.
-  const sorted = new Float64Array(values.length);
-  let n = 0;
-  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) sorted[n++] = values[i]!;
-  const finite = sorted.subarray(0, n).sort();
+function quantiles(h: StreamingHistogram): Record<string, number> {
   const out: Record<string, number> = {};
-  // quantileSorted only indexes its argument, which a typed array supports; its typings ask for an array.
-  for (const q of QUANTILES) out[`q${q}`] = n > 0 ? quantileSorted(finite as unknown as number[], q)! : NaN;
+  for (const q of QUANTILES) out[`q${q}`] = histogramQuantile(h, q);
   return out;
 }
 

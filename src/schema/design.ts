@@ -102,7 +102,7 @@ export const designSchema = z.strictObject({
   process: z.union([z.string().min(1), processSchema])
     .describe('Path to a process card (relative to the design file) or the card inline'),
   clock: z.strictObject({
-    frequency: quantity('Hz', 'Input clock frequency', { above: 0 }),
+    frequency: quantity('Hz', 'Input clock frequency', { atLeast: 1, atMost: 100e9 }),
     duty: ratio('Nominal duty cycle of the input clock (fraction high)', { above: 0, below: 1 }).default(0.5),
     dutyTolerance: ratio('Allowed duty error of the input clock, +/- fraction of the period', { atLeast: 0, below: 0.5 }).default(0),
     transition: quantity('s', 'Full-swing transition time of the input clock edges', { above: 0 }).default(100e-12),

@@ -27,6 +27,7 @@ export function parseLevel(raw: unknown): Level | null {
   const match = /^(?:(\d+\.?\d*|\.\d+)\s*\*?\s*)?vdd(?:\s*([+-])\s*(.+))?$/i.exec(text);
   if (!match) return null;
   const scale = match[1] === undefined ? 1 : Number(match[1]);
+  if (!Number.isFinite(scale)) return null;
   if (match[2] === undefined) return { scale, offset: 0 };
   const tail = parseQuantity(match[3]!, 'V');
   if (!tail.ok) return null;

@@ -31,18 +31,24 @@ export type ParseResult = { ok: true; value: number } | { ok: false; allowed: st
  */
 export function parseQuantity(input: unknown, unit: Unit): ParseResult {
   const allowed = `is not ${UNITS[unit]}; write a number in SI units or a number with an optional SI prefix (f p n u m k M G) and the unit ${unitSymbol(unit)}, e.g. ${example(unit)}`;
-  if (typeof input === 'number') return Number.isFinite(input) ? { ok: true, value: input } : { ok: false, allowed };
+  if (typeof input === 'number') return finiteValue(input);
   if (typeof input !== 'string') return { ok: false, allowed };
   const text = input.trim();
   const bare = new RegExp(`^${NUMBER}$`).exec(text);
-  if (bare) return { ok: true, value: Number(text) };
+  if (bare) return finiteValue(Number(text));
   const symbols = unit === 'ohm' ? '(?:ohm|Ohm|Ω)' : unit;
   const match = new RegExp(`^(${NUMBER})\\s*([fpnuµμmkMG]?)${symbols}$`).exec(text);
   if (!match) return { ok: false, allowed };
   const scale = PREFIXES[match[2] ?? ''];
   if (scale === undefined) return { ok: false, allowed };
-  const value = Number(match[1]) * scale;
-  return Number.isFinite(value) ? { ok: true, value } : { ok: false, allowed };
+  return finiteValue(Number(match[1]) * scale);
+}
+
+/** Words for a number too large for a double ("1e400" reads as Infinity). */
+export const NOT_FINITE = 'is not a finite number; a quantity must lie within about ±1.8e308 in SI units';
+
+function finiteValue(value: number): ParseResult {
+  return Number.isFinite(value) ? { ok: true, value } : { ok: false, allowed: NOT_FINITE };
 }
 
 function unitSymbol(unit: Unit): string {
@@ -64,9 +70,9 @@ function example(unit: Unit): string {
 /** Parses a temperature in °C: a number, or "125C", "-40 °C", "27degC". */
 export function parseTemperature(input: unknown): ParseResult {
   const allowed = 'is not a temperature; write degrees Celsius as a number or like "125C" or "-40C"';
-  if (typeof input === 'number') return Number.isFinite(input) ? { ok: true, value: input } : { ok: false, allowed };
+  if (typeof input === 'number') return finiteValue(input);
   if (typeof input !== 'string') return { ok: false, allowed };
   const match = new RegExp(`^(${NUMBER})\\s*(?:°?C|degC)?$`).exec(input.trim());
   if (!match) return { ok: false, allowed };
-  return { ok: true, value: Number(match[1]) };
+  return finiteValue(Number(match[1]));
 }

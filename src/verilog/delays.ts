@@ -10,6 +10,7 @@ import { devicesAtCorner } from '../process/device.js';
 import type { GateTiming } from '../delay/model.js';
 import { Simulator } from '../sim/engine.js';
 import { inputError } from '../errors.js';
+import { finite } from '../units/finite.js';
 import type { FixedDelays } from './fixed.js';
 
 export function steadyStateDelays(resolved: ResolvedDesign, corner: Corner): FixedDelays {
@@ -33,6 +34,9 @@ export function steadyStateDelays(resolved: ResolvedDesign, corner: Corner): Fix
   for (let g = 0; g < count; g++) {
     if (Number.isNaN(rise[g]!)) rise[g] = timing.delay(g, 0, true, design.clock.transition);
     if (Number.isNaN(fall[g]!)) fall[g] = timing.delay(g, 0, false, design.clock.transition);
+    const why = `the model gives gate ${netlist.source.gates[g]?.name ?? g} no finite delay at ${corner.name}`;
+    finite(rise[g]!, `corners (${corner.name})`, why);
+    finite(fall[g]!, `corners (${corner.name})`, why);
   }
   return { rise, fall };
 }

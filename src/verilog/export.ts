@@ -8,6 +8,7 @@ import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PrimitiveCell } from '../cells/library.js';
 import type { FixedDelays } from './fixed.js';
 import { verilogComment, verilogIdentifier, verilogString } from './identifiers.js';
+import { finite } from '../units/finite.js';
 
 export interface Timescale {
   /** Unit of delay numbers, s (1e-9 for 1ns). */
@@ -33,7 +34,7 @@ export function timescaleText(t: Timescale): string {
 
 /** A delay in timescale units, rounded to the precision, as text. */
 export function delayText(seconds: number, t: Timescale): string {
-  const steps = Math.round(seconds / t.precision);
+  const steps = Math.round(finite(seconds, 'Verilog delay') / t.precision);
   const digits = Math.max(0, Math.round(Math.log10(t.unit / t.precision)));
   return (steps * t.precision / t.unit).toFixed(digits);
 }

@@ -1,17 +1,19 @@
 import { describe, it, expect } from 'vitest';
 import { renderHistogram } from '../../src/render/svg/histogram.js';
+import { histogramOf } from '../../src/variation/histogram.js';
 import { all, parseSvg } from './svg-dom.js';
 import { cliAsync, design, tempDir, cli } from '../helpers.js';
 import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 
-const values = (centre: number, n: number) => Float64Array.from({ length: n }, (_, i) => centre + ((i % 21) - 10) * 1e-12);
+const list = (centre: number, n: number) => Float64Array.from({ length: n }, (_, i) => centre + ((i % 21) - 10) * 1e-12);
+const values = (centre: number, n: number) => histogramOf(list(centre, n));
 
 describe('renderHistogram', () => {
   it('counts every finite value exactly once across its bars, in one panel per series', () => {
     const a = values(800e-12, 420);
-    const b = Float64Array.from([...values(900e-12, 300), NaN]);
-    const svg = parseSvg(renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'dead a', values: a }, { label: 'dead b', values: b }], requirement: 780e-12 }));
+    const b = histogramOf([...list(900e-12, 300), NaN]);
+    const svg = parseSvg(renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'dead a', histogram: a }, { label: 'dead b', histogram: b }], requirement: 780e-12 }));
     const panels = all(svg, 'g.histogram-panel');
     expect(panels.map((p) => p.getAttribute('data-series'))).toEqual(['dead a', 'dead b']);
     const counts = panels.map((p) => all(p, 'rect.bar').reduce((n, r) => n + Number(r.getAttribute('data-count')), 0));
@@ -19,11 +21,11 @@ describe('renderHistogram', () => {
   });
 
   it('hatches the bars below a requirement drawn to scale and names a far one as off scale', () => {
-    const near = renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'd', values: values(800e-12, 210) }], requirement: 795e-12 });
+    const near = renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'd', histogram: values(800e-12, 210) }], requirement: 795e-12 });
     const doc = parseSvg(near);
     expect(all(doc, 'rect.bar').some((r) => r.getAttribute('data-fails') === '1')).toBe(true);
     expect(near).toContain('required &gt;= 795 ps');
-    const far = renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'd', values: values(2.7e-9, 210) }], requirement: 500e-12, maximum: 4e-9 });
+    const far = renderHistogram({ title: 't', subtitle: 's', series: [{ label: 'd', histogram: values(2.7e-9, 210) }], requirement: 500e-12, maximum: 4e-9 });
     expect(far).toContain('off scale, 2190 ps below the least die');
     expect(far).toContain('off scale, 1290 ps above the most die');
     expect(far).not.toMatch(/NaN|undefined|Infinity/);

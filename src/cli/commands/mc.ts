@@ -1,6 +1,6 @@
 /** `phasegap mc DESIGN`: Monte Carlo mismatch on every corner, yield and sigma margins, in parallel threads. */
 import { availableParallelism } from 'node:os';
-import { chunkPlan, mergeChunks, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
+import { chunkPlan, McMerger, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
 import { CornerEvaluator } from '../../analysis/evaluate.js';
 import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
@@ -52,11 +52,12 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   }
   const evaluating = performance.now();
   const plan = chunkPlan(samples);
-  const chunks: ChunkResult[] = [];
+  // Each chunk is folded into the totals as it arrives: memory does not grow with the dies.
+  const merger = new McMerger(resolved, seed, samples);
   const bar = progressBar(io, samples * resolved.corners.length, 'mc', !options.json);
   let done = 0;
   const take = (result: ChunkResult) => {
-    chunks.push(result);
+    merger.add(result);
     done += result.count * resolved.corners.length;
     bar.update(done);
   };
@@ -85,7 +86,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   }
   bar.stop();
   const reporting = performance.now();
-  const mc = mergeChunks(resolved, seed, samples, chunks);
+  const mc = merger.finish();
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
   if (options.histogram !== undefined) {
     const c = report.corners.findIndex((x) => x.name === report.worstCorner);
@@ -94,7 +95,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     emit(io, renderHistogram({
       title: `${design.name}: dead times at ${report.worstCorner}`,
       subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
-      series: mc.deadTimes[c]!.map((values, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, values })),
+      series: mc.deadTimes[c]!.map((histogram, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, histogram })),
       requirement: design.requirements.deadTime?.min,
       maximum: design.requirements.deadTime?.max,
     }), options.histogram, inputs, '--histogram');

@@ -48,7 +48,7 @@ function monteCarloSection(resolved: ResolvedDesign, samples: number, seed: numb
   const histogram = renderHistogram({
     title: `${resolved.design.name}: dead times at ${report.worstCorner}`,
     subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
-    series: mc.deadTimes[c]!.map((values, k) => ({ label: names[k] ?? `dead ${k}`, values })),
+    series: mc.deadTimes[c]!.map((histogram, k) => ({ label: names[k] ?? `dead ${k}`, histogram })),
     requirement: resolved.design.requirements.deadTime?.min,
     maximum: resolved.design.requirements.deadTime?.max,
   });

@@ -3,17 +3,18 @@
  * requirement drawn as a labelled dashed line (colour is never the only cue: the line is dashed
  * and named, bars below the requirement are hatched).
  */
-import { bin, extent } from 'd3-array';
+import { bisectRight, ticks } from 'd3-array';
 import { scaleLinear } from 'd3-scale';
 import { createCanvas, round } from './canvas.js';
 import { drawText } from './text.js';
 import { defineFailHatch } from './patterns.js';
 import { FAIL, GRID, INK, MUTED, PHASE, PHASE_TINT, SIZE } from '../palette.js';
+import { binEdges, type StreamingHistogram } from '../../variation/histogram.js';
 
 export interface HistogramInput {
   readonly title: string;
   readonly subtitle: string;
-  readonly series: ReadonlyArray<{ readonly label: string; readonly values: Float64Array }>;
+  readonly series: ReadonlyArray<{ readonly label: string; readonly histogram: StreamingHistogram }>;
   /** Smallest and largest allowed dead time, s, if the design sets them. */
   readonly requirement?: number;
   readonly maximum?: number;
@@ -29,6 +30,26 @@ const BINS = 40;
 /** Room above the bars for the series name and off-scale notes, px. */
 const PLOT_TOP = 60;
 
+interface Bar { readonly x0: number; readonly x1: number; readonly length: number }
+
+/**
+ * The drawn bars: about BINS bins at round thresholds over the domain (as d3's bin would choose),
+ * each collecting the fine bins whose centre falls in it, so every die is counted once.
+ */
+function bars(h: StreamingHistogram, domain: readonly [number, number]): Bar[] {
+  const [x0, x1] = domain;
+  const inner = ticks(x0, x1, BINS).filter((t) => t > x0 && t < x1);
+  const edges = [x0, ...inner, x1];
+  const counts = new Array<number>(edges.length - 1).fill(0);
+  h.counts.forEach((c, k) => {
+    if (c === 0) return;
+    const [a, b] = binEdges(h, k);
+    const at = Math.min(counts.length - 1, Math.max(0, bisectRight(edges, (a + b) / 2) - 1));
+    counts[at]! += c;
+  });
+  return counts.map((length, i) => ({ x0: edges[i]!, x1: edges[i + 1]!, length }));
+}
+
 function psLabel(seconds: number): string {
   return `${Math.round(seconds * 1e13) / 10} ps`;
 }
@@ -42,10 +63,10 @@ export function renderHistogram(input: HistogramInput): string {
   drawText(root.group(), input.title, MARGIN.left, 30, { size: SIZE.title, bold: true });
   drawText(root.group(), input.subtitle, MARGIN.left, 52, { size: SIZE.subtitle, fill: MUTED });
   input.series.forEach((series, k) => {
-    const values = Array.from(series.values).filter((v) => Number.isFinite(v));
+    const h = series.histogram;
     const top = MARGIN.top + k * (PANEL + MARGIN.bottom);
     const g = root.group().attr({ class: 'histogram-panel', 'data-series': series.label });
-    const [lo0, hi0] = extent(values) as [number | undefined, number | undefined];
+    const [lo0, hi0] = h.count > 0 ? [h.min, h.max] : [undefined, undefined];
     let lo = lo0 ?? 0;
     let hi = hi0 ?? 1e-12;
     const spread = Math.max(hi - lo, 1e-12);
@@ -59,7 +80,7 @@ export function renderHistogram(input: HistogramInput): string {
     const far = limits.filter((l) => !near.includes(l));
     const pad = Math.max(hi - lo, 1e-12) * 0.08;
     const x = scaleLinear().domain([lo - pad, hi + pad]).range([MARGIN.left, WIDTH - MARGIN.right]);
-    const bins = bin().domain(x.domain() as [number, number]).thresholds(BINS)(values);
+    const bins = bars(h, x.domain() as [number, number]);
     const most = Math.max(1, ...bins.map((b) => b.length));
     const y = scaleLinear().domain([0, most]).range([top + PANEL, top + PLOT_TOP]);
     for (const t of y.ticks(4)) {
@@ -68,9 +89,9 @@ export function renderHistogram(input: HistogramInput): string {
     }
     for (const b of bins) {
       if (b.length === 0) continue;
-      const x0 = x(b.x0!);
-      const x1 = x(b.x1!);
-      const below = limits.some((l) => (l.lower ? b.x1! <= l.value : b.x0! >= l.value));
+      const x0 = x(b.x0);
+      const x1 = x(b.x1);
+      const below = limits.some((l) => (l.lower ? b.x1 <= l.value : b.x0 >= l.value));
       g.rect(round(Math.max(1, x1 - x0 - 1)), round(y(0) - y(b.length))).move(round(x0), round(y(b.length)))
         .fill(below ? `url(#${hatch})` : PHASE_TINT[k % 2]!).stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 })
         .attr({ class: 'bar', 'data-count': b.length, 'data-fails': below ? 1 : 0 });
@@ -80,7 +101,7 @@ export function renderHistogram(input: HistogramInput): string {
       drawText(g, psLabel(t), x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
     }
     g.line(MARGIN.left, top + PANEL, WIDTH - MARGIN.right, top + PANEL).stroke({ color: INK, width: 1 });
-    drawText(g, `${series.label}  (${values.length} dies)`, MARGIN.left, top + 10, { size: SIZE.label, bold: true, fill: PHASE[k % 2]! });
+    drawText(g, `${series.label}  (${h.count} dies)`, MARGIN.left, top + 10, { size: SIZE.label, bold: true, fill: PHASE[k % 2]! });
     for (const l of near) {
       g.line(round(x(l.value)), top + PLOT_TOP, round(x(l.value)), top + PANEL).stroke({ color: FAIL, width: 2, dasharray: '6 4' });
       const right = x(l.value) < (MARGIN.left + WIDTH) / 2;
