@@ -1,5 +1,6 @@
 /** Sweep rows as CSV (header once, then one line per point) or as a streamed JSON array. */
 import type { SweepAxis, SweepRow } from '../analysis/sweep.js';
+import { marginUnit } from '../checks/check.js';
 
 function csvField(value: string | number | null): string {
   if (value === null) return '';
@@ -13,7 +14,7 @@ export function csvHeader(axes: readonly SweepAxis[], first: SweepRow): string {
     ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s',
     ...first.deadTimes.flatMap((d) => [`dead_${d.label}_min_s`, `dead_${d.label}_max_s`, `gap_${d.label}_min_s`]),
     ...first.widths.map((w) => `width_${w.phase}_min_s`),
-    ...first.checks.map((c) => `margin_s: ${c.name}`),
+    ...first.checks.map((c) => `margin_${marginUnit(c.kind)}: ${c.name}`),
   ];
   return `${cols.map(csvField).join(',')}\n`;
 }

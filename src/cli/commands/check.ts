@@ -3,6 +3,7 @@ import { evaluateAll } from '../../analysis/evaluate.js';
 import { resolveDesign } from '../../analysis/resolve.js';
 import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
+import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { emit, toJson } from '../output.js';
@@ -18,8 +19,7 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
   emit(io, options.json ? toJson(report) : renderCheckText(report), options.out);
-  if (report.verdict === 'fail' && !options.json && design.generator.template !== 'netlist') {
-    io.stderr(`phasegap: hint: phasegap tune ${designPath} proposes delay chains that pass every corner\n`);
-  }
+  const hint = options.json ? null : checkHint(report, designPath, design.generator.template !== 'netlist');
+  if (hint) io.stderr(`phasegap: hint: ${hint}\n`);
   return report.verdict === 'pass' ? 0 : 1;
 }
