@@ -59,7 +59,7 @@ export function renderCheckText(report: CheckReport): string {
   const rows = corners.map((c, i) => [
     c.name,
     ...cells.map((col) => col[i]!),
-    signed(leastMargin(c)),
+    leastMargin(c) === -Infinity ? 'switch bias fails' : signed(leastMargin(c)),
     c.verdict === 'pass' ? 'pass' : `FAIL${c.reason ? ` (${c.reason})` : ''}`,
   ]);
   const out: string[] = [];
