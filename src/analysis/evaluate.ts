@@ -8,7 +8,7 @@ import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasureme
 import { requirementChecks } from '../checks/requirements.js';
 import { compareChecks, type Check } from '../checks/check.js';
 import { switchChecks } from '../checks/switch-checks.js';
-import { biasChecks } from '../checks/bias-checks.js';
+import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
 
@@ -44,7 +44,11 @@ export class CornerEvaluator {
     this.widthContext = { period: this.period, dutyTolerance: clock.dutyTolerance };
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
+    this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
   }
+
+  /** The switch bias checks, prepared once per corner. */
+  private readonly bias: BiasChecker;
 
   /** Clock period, s, and the per-run settings, made once. */
   private readonly period: number;
@@ -73,7 +77,7 @@ export class CornerEvaluator {
         this.resolved.switchCheckNames, checks);
     }
     // The switch bias checks need no timing: they hold (or not) whether or not the run settled.
-    biasChecks(this.resolved.switches, devices, mismatch?.switches, this.resolved.bias, this.resolved.biasNames, checks);
+    this.bias.run(devices, mismatch?.switches, checks);
     let pass = true;
     for (const c of checks) if (!c.pass) { pass = false; break; }
     return { corner, simulation, measurement, switches, checks, pass };

@@ -59,7 +59,7 @@ export function switchOffIn(plan: SwitchPlan, state: StateIndex): boolean {
   return plan.devices.every((d) => !deviceOn(d, state));
 }
 
-function allowanceFor(d: DeviceAtCorner, celsius: number, settings: BiasSettings): number {
+export function allowanceFor(d: DeviceAtCorner, celsius: number, settings: BiasSettings): number {
   return settings.offMargin ?? offStateAllowance(settings.offDecades, d.params.subthresholdN, celsius);
 }
 
@@ -107,7 +107,7 @@ export function offStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Ar
   return worst;
 }
 
-function offDetail(plan: SwitchPlan, w: OffWorst, vdd: number, settings: BiasSettings): string {
+export function offDetail(plan: SwitchPlan, w: OffWorst, vdd: number, settings: BiasSettings): string {
   const device = plan.devices[w.device]!;
   const n = device.kind === 'n';
   const terminal = plan.terminals[w.sourceTerminal]!;
@@ -165,7 +165,7 @@ export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Arr
   return worst;
 }
 
-function onDetail(plan: SwitchPlan, w: OnWorst, vdd: number, settings: BiasSettings): string {
+export function onDetail(plan: SwitchPlan, w: OnWorst, vdd: number, settings: BiasSettings): string {
   return `${plan.name} (${plan.type}) in ${settings.stateLabels[w.state]} does not conduct at ${volts(w.v)}: gate ${volts(w.gate)}, terminals ${terminalWords(plan, w.state, vdd)}; `
     + `the gate swing falls ${mv(-w.margin)} short of the turn-on level there`;
 }
@@ -219,7 +219,7 @@ export function stressWorst(plan: SwitchPlan, devices: CornerDevices): StressWor
   return worst;
 }
 
-function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDevices, settings: BiasSettings): string {
+export function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDevices, settings: BiasSettings): string {
   const device = plan.devices[w.device]!;
   const x = stressValues(plan, device, w.state, devices.vdd);
   const who = `in ${settings.stateLabels[w.state]}, ${deviceName(plan, device)}`;

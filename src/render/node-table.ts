@@ -6,7 +6,7 @@
  */
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import type { Level } from '../schema/level.js';
-import { rangeHigh, rangeLow, type NodeLevels, type VoltageRange } from '../switches/nodes.js';
+import { extremeLevels, rangeHigh, rangeLow, type NodeLevels, type VoltageRange } from '../switches/nodes.js';
 
 export interface NodeTable {
   readonly head: readonly string[];
@@ -21,22 +21,14 @@ export function levelText(level: Level): string {
   return `${base}${level.offset > 0 ? '+' : '-'}${Number(Math.abs(level.offset).toFixed(4))} V`;
 }
 
-function unique(levels: readonly Level[]): Level[] {
-  return levels.filter((l, i) => levels.findIndex((m) => m.scale === l.scale && m.offset === l.offset) === i);
-}
-
-/** A range as written ("vdd", "1.6vdd .. 2vdd", "0 V .. vdd") and in volts at a supply. */
+/** A range as written ("vdd", "1.6vdd .. 2vdd"; a dead-time default by its ends at the supply) and in volts at that supply. */
 export function rangeText(range: VoltageRange, vdd: number): string {
-  const lo = unique(range.lo);
-  const hi = unique(range.hi);
-  const same = lo.length === 1 && hi.length === 1 && lo[0]!.scale === hi[0]!.scale && lo[0]!.offset === hi[0]!.offset;
-  const pick = (levels: Level[], low: boolean) => (levels.length === 1 ? levelText(levels[0]!)
-    : (low ? 'least of ' : 'most of ') + levels.map(levelText).join(', '));
-  const written = same ? levelText(lo[0]!) : `${pick(lo, true)} .. ${pick(hi, false)}`;
+  const { min, max } = extremeLevels(range, vdd);
   const a = rangeLow(range, vdd);
   const b = rangeHigh(range, vdd);
-  const volts = b - a > 1e-9 ? `${a.toFixed(2)} .. ${b.toFixed(2)} V` : `${a.toFixed(2)} V`;
-  return written === volts || (same && lo[0]!.scale === 0) ? written : `${written} (${volts})`;
+  const written = b - a > 1e-9 ? `${levelText(min)} .. ${levelText(max)}` : levelText(min);
+  if (min.scale === 0 && max.scale === 0) return written;
+  return `${written} (${b - a > 1e-9 ? `${a.toFixed(2)} .. ${b.toFixed(2)} V` : `${a.toFixed(2)} V`})`;
 }
 
 export function nodeTable(resolved: ResolvedDesign): NodeTable {
@@ -53,7 +45,7 @@ export function nodeTable(resolved: ResolvedDesign): NodeTable {
   const labels = resolved.bias.stateLabels;
   const unused = [...Object.keys(resolved.design.nodes)].filter((n) => !nodes.has(n));
   return {
-    head: ['node', labels[0], labels[1], labels[2], 'switches'],
+    head: ['node', labels[0], labels[1], labels[2].replace(/^the /, ''), 'switches'],
     rows: [
       ...[...nodes.values()].map(({ node, switches }) => ({
         cells: [node.rail ? `${node.name} (rail)` : node.name, ...node.states.map((s) => rangeText(s, vdd)), switches.join(', ')],
