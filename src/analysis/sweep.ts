@@ -85,7 +85,8 @@ export interface SweepRow {
   readonly point: readonly (string | number)[];
   readonly corners: number;
   readonly verdict: 'pass' | 'fail';
-  readonly limiting: { readonly corner: string; readonly check: string; readonly margin: number | null } | null;
+  /** Its margin is in volts for the switch bias kinds (off-state, on-state, stress), else seconds. */
+  readonly limiting: { readonly corner: string; readonly check: string; readonly kind: string; readonly margin: number | null } | null;
   /** Per dead time (in the generator's order): min and max t50 and min gap over the corners, s. */
   readonly deadTimes: ReadonlyArray<{ readonly label: string; readonly min: number; readonly max: number; readonly gapMin: number }>;
   /** Smallest width per phase over the corners, s. */
@@ -120,7 +121,7 @@ export function summarizePoint(index: number, point: readonly (string | number)[
   return {
     index, point, corners: results.length,
     verdict: results.every((r) => r.pass) ? 'pass' : 'fail',
-    limiting: lim ? { corner: lim.corner, check: lim.check, margin: lim.margin } : null,
+    limiting: lim ? { corner: lim.corner, check: lim.check, kind: lim.kind, margin: lim.margin } : null,
     deadTimes, widths: [...widths.entries()].map(([phase, min]) => ({ phase, min })), checks,
   };
 }

@@ -11,7 +11,7 @@ function csvField(value: string | number | null): string {
 /** Column names for a sweep, from its axes and the first row's shape. */
 export function csvHeader(axes: readonly SweepAxis[], first: SweepRow): string {
   const cols = [
-    ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s',
+    ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s', 'limiting_margin_V',
     ...first.deadTimes.flatMap((d) => [`dead_${d.label}_min_s`, `dead_${d.label}_max_s`, `gap_${d.label}_min_s`]),
     ...first.widths.map((w) => `width_${w.phase}_min_s`),
     ...first.checks.map((c) => `margin_${marginUnit(c.kind)}: ${c.name}`),
@@ -22,7 +22,8 @@ export function csvHeader(axes: readonly SweepAxis[], first: SweepRow): string {
 /** One CSV line; columns follow the header's row shape (a point that could not be measured leaves them empty). */
 export function csvRow(row: SweepRow, first: SweepRow): string {
   const cells: Array<string | number | null> = [
-    ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null, row.limiting?.margin ?? null,
+    ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null,
+    ...(row.limiting && marginUnit(row.limiting.kind) === 'V' ? [null, row.limiting.margin] : [row.limiting?.margin ?? null, null]),
     ...first.deadTimes.flatMap((_, k) => {
       const d = row.deadTimes[k];
       return d ? [d.min, d.max, d.gapMin] : [null, null, null];
