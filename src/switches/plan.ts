@@ -128,7 +128,10 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
     }
     const wiring = terminalsOf(spec, path, devices, nodes, card.vddNominal);
     if (!wiring.declared) {
-      warnings.push(`${spec.name}: terminals undeclared (older \`signal\` form); its off-state and stress checks assume both terminals at the signal level and cannot see a boosted node: declare \`nodes\` and \`terminals\``);
+      const unknown = devices.find((d) => d.onIn === null);
+      warnings.push(unknown
+        ? `${spec.name}: terminals undeclared (older \`signal\` form) and its gate net ${unknown.net} is not a phase, a complement or an early phase: it gets no off-state, on-state or stress check`
+        : `${spec.name}: terminals undeclared (older \`signal\` form); its off-state and stress checks assume both terminals at the signal level and cannot see a boosted node: declare \`nodes\` and \`terminals\``);
     }
     const bulkNode = spec.bulk === undefined ? undefined : resolveTerminal(spec.bulk, nodes, `${path}.bulk`);
     const bulk = bulkNode?.rail ? parseLevel(spec.bulk!)! : undefined;
