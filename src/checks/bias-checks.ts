@@ -54,11 +54,12 @@ export function biasCheckNames(plans: readonly SwitchPlan[], rated: boolean): Ar
   });
 }
 
-/** Phase states in which every device of the switch is off (must be off) and in which one is on (must conduct). */
+/** Whether every device of the switch is off in a phase state: there it must be off; elsewhere it must conduct. */
 export function switchOffIn(plan: SwitchPlan, state: StateIndex): boolean {
   return plan.devices.every((d) => !deviceOn(d, state));
 }
 
+/** The off-state allowance of a device at a temperature, V: offMargin, else offDecades sub-threshold decades. */
 export function allowanceFor(d: DeviceAtCorner, celsius: number, settings: BiasSettings): number {
   return settings.offMargin ?? offStateAllowance(settings.offDecades, d.params.subthresholdN, celsius);
 }
@@ -235,7 +236,10 @@ export function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDe
   return `${who}: ${what} ${volts(value)} exceeds the ${device.kind}-device rating ${volts(limit)} (${where})`;
 }
 
-/** All bias checks of every switch at one corner, appended to `checks` (which is returned). */
+/**
+ * All bias checks of every switch at one corner, appended to `checks` (which is returned): the
+ * reference the per-corner BiasChecker (bias-frame.ts) must equal bit for bit.
+ */
 export function biasChecks(plans: readonly SwitchPlan[], devices: CornerDevices, mismatch: readonly ArrayLike<number>[] | undefined,
   settings: BiasSettings, names: ReadonlyArray<BiasCheckNames | null>, checks: Check[] = []): Check[] {
   const vdd = devices.vdd;
