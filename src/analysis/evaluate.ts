@@ -6,8 +6,9 @@ import type { SampleMismatch } from '../variation/mismatch.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
-import type { Check } from '../checks/check.js';
+import { compareChecks, type Check } from '../checks/check.js';
 import { switchChecks } from '../checks/switch-checks.js';
+import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
 
@@ -43,7 +44,11 @@ export class CornerEvaluator {
     this.widthContext = { period: this.period, dutyTolerance: clock.dutyTolerance };
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
+    this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
   }
+
+  /** The switch bias checks, prepared once per corner. */
+  private readonly bias: BiasChecker;
 
   /** Clock period, s, and the per-run settings, made once. */
   private readonly period: number;
@@ -71,6 +76,8 @@ export class CornerEvaluator {
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);
     }
+    // The switch bias checks need no timing: they hold (or not) whether or not the run settled.
+    this.bias.run(devices, mismatch?.switches, checks);
     let pass = true;
     for (const c of checks) if (!c.pass) { pass = false; break; }
     return { corner, simulation, measurement, switches, checks, pass };
@@ -96,17 +103,20 @@ export interface Limiting {
 }
 
 /**
- * The check with the least margin over all corners; an unmeasurable check beats any margin.
+ * The check with the least margin over all corners; an unmeasurable check beats any margin and a
+ * failing voltage check (off-state, on-state, stress) any timing margin (see compareChecks).
  * `start` continues a search over earlier results.
  */
 export function limitingCheck(results: readonly CornerResult[], start: Limiting | null = null): Limiting | null {
   let best: Limiting | null = start;
+  let bestCheck: Pick<Check, 'kind' | 'margin' | 'pass'> | null = start
+    ? { kind: start.kind as Check['kind'], margin: start.margin, pass: start.margin !== null && start.margin >= 0 } : null;
   for (const r of results) {
     for (const c of r.checks) {
-      const worse = best === null
-        || (c.margin === null && best.margin !== null)
-        || (c.margin !== null && best.margin !== null && c.margin < best.margin);
-      if (worse) best = { corner: r.corner.name, check: c.name, kind: c.kind, margin: c.margin };
+      if (bestCheck === null || compareChecks(c, bestCheck) < 0) {
+        best = { corner: r.corner.name, check: c.name, kind: c.kind, margin: c.margin };
+        bestCheck = c;
+      }
     }
   }
   return best;

@@ -3,6 +3,7 @@
  * halving from the design's frequency, then bisect to a relative resolution.
  */
 import { CornerEvaluator, limitingCheck, type Limiting } from './evaluate.js';
+import { VOLTAGE_KINDS, type CheckKind } from '../checks/check.js';
 import type { ResolvedDesign } from './resolve.js';
 
 export interface FmaxOptions {
@@ -53,6 +54,12 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     return { pass, limiting: worst };
   };
   const first = trial(f0);
+  if (!first.pass && first.limiting && VOLTAGE_KINDS.has(first.limiting.kind as CheckKind)) {
+    return {
+      fmax: null, resolution, designFrequency: f0, limiting: first.limiting,
+      note: `a switch fails its ${first.limiting.kind} check, which no clock frequency changes`, evaluations,
+    };
+  }
   let lo: number;
   let hi: number;
   let failing = first.limiting;

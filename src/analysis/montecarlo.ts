@@ -10,7 +10,7 @@ import { addToHistogram, emptyHistogram, hasEdges, setEdges, type StreamingHisto
 import { drawMismatch, mismatchBuffers, mismatchSigmas, type SampleMismatch } from '../variation/mismatch.js';
 import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import type { Corner } from '../process/corner.js';
-import type { CheckKind } from '../checks/check.js';
+import { VOLTAGE_KINDS, type CheckKind } from '../checks/check.js';
 
 /** Dies per chunk: the unit of work handed to a thread. */
 export const CHUNK_SIZE = 250;
@@ -125,7 +125,8 @@ function evaluateDies(evaluator: CornerEvaluator, corner: Corner, devices: Corne
       const check = checks[k]!;
       if (check.margin === null) leastMargin = -Infinity;
       else {
-        if (check.margin < leastMargin) leastMargin = check.margin;
+        // A passing voltage margin (V) is not compared with timing margins (s).
+        if (check.margin < leastMargin && !(check.pass && VOLTAGE_KINDS.has(check.kind))) leastMargin = check.margin;
         a.add(slot, check.name, check.kind, check.margin);
       }
       slot++;

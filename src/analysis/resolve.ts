@@ -12,6 +12,8 @@ import { checkConstraintReferences } from '../switches/references.js';
 import { requirementLabels, type RequirementLabels } from '../checks/requirements.js';
 import { switchCheckNames } from '../checks/switch-checks.js';
 import { checkPhysicalLimits } from './physical-limits.js';
+import { resolveNodes } from '../switches/nodes.js';
+import { biasCheckNames, DEFAULT_OFF_DECADES, type BiasCheckNames, type BiasSettings } from '../checks/bias-checks.js';
 
 export interface ResolvedDesign {
   readonly design: Design;
@@ -29,12 +31,17 @@ export interface ResolvedDesign {
   readonly switchCheckNames: readonly string[];
   /** Switch name -> its position in `switches`. */
   readonly switchIndex: ReadonlyMap<string, number>;
+  /** Names of each switch's off-state, on-state and stress checks (null: none), and their settings. */
+  readonly biasNames: ReadonlyArray<BiasCheckNames | null>;
+  readonly bias: BiasSettings;
+  /** What the checks cannot see in this design (undeclared terminals), for every report. */
+  readonly warnings: readonly string[];
 }
 
 export function resolveDesign(design: Design, card: ProcessCard, model: DelayModel = analyticModel): ResolvedDesign {
   const gen = design.generator;
   const base = gen.template === 'netlist' ? expandNetlist(gen) : expandTemplate(gen);
-  const expansion = expandSwitches(base, design.switches, card);
+  const expansion = expandSwitches(base, design.switches, card, resolveNodes(design.nodes));
   const netlist = compileNetlist(expansion.netlist);
   const loads = netLoads(netlist, card, { path: 'loads', caps: design.loads }, { path: 'switches', caps: expansion.loads });
   const corners = expandCorners(design.corners, card, design.clock.duty);
@@ -44,5 +51,11 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements, netlist.source.phases,
       [...netlist.source.phases, ...Object.values(netlist.source.early)]),
     switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard),
-    switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])) };
+    switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])),
+    biasNames: biasCheckNames(expansion.plans, card.n.ratings !== undefined && card.p.ratings !== undefined),
+    bias: {
+      offDecades: design.requirements.offDecades ?? DEFAULT_OFF_DECADES, offMargin: design.requirements.offMargin,
+      stateLabels: [`phase ${base.phases[0]}`, `phase ${base.phases[1]}`, 'the dead time'],
+    },
+    warnings: expansion.warnings };
 }

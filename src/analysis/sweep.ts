@@ -97,7 +97,8 @@ export interface SweepRow {
   readonly point: readonly (string | number)[];
   readonly corners: number;
   readonly verdict: 'pass' | 'fail';
-  readonly limiting: { readonly corner: string; readonly check: string; readonly margin: number | null } | null;
+  /** Its margin is in volts for the switch bias kinds (off-state, on-state, stress), else seconds. */
+  readonly limiting: { readonly corner: string; readonly check: string; readonly kind: string; readonly margin: number | null } | null;
   /** Per dead time (in the generator's order): min and max t50 and min gap over the corners, s. */
   readonly deadTimes: ReadonlyArray<{ readonly label: string; readonly min: number; readonly max: number; readonly gapMin: number }>;
   /** Smallest width per phase over the corners, s. */
@@ -133,7 +134,7 @@ export function summarizePoint(index: number, point: readonly (string | number)[
   return {
     index, point, corners: results.length,
     verdict: results.every((r) => r.pass) ? 'pass' : 'fail',
-    limiting: lim ? { corner: lim.corner, check: lim.check, margin: lim.margin } : null,
+    limiting: lim ? { corner: lim.corner, check: lim.check, kind: lim.kind, margin: lim.margin } : null,
     deadTimes, widths: [...widths.entries()].map(([phase, min]) => ({ phase, min })), checks,
   };
 }
@@ -143,6 +144,8 @@ export interface SweepColumns {
   readonly deadTimes: readonly string[];
   readonly widths: readonly string[];
   readonly checks: readonly string[];
+  /** The checks among `checks` whose margin is in volts (switch bias); the others are in seconds. */
+  readonly voltChecks: readonly string[];
 }
 
 /**
@@ -164,11 +167,16 @@ export function sweepColumns(resolved: ResolvedDesign): SweepColumns {
   }
   if (req.width?.min !== undefined) checks.push(...widthNets.map((n) => labels.widthMin[n] ?? `width ${n}`));
   checks.push(...resolved.switchCheckNames);
-  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks };
+  const voltChecks = resolved.biasNames.flatMap((n) => (n ? [n.off, n.on, n.stress] : []));
+  checks.push(...voltChecks);
+  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks, voltChecks };
 }
 
 /** The union of column sets, each name once, in first-seen order. */
 export function mergeColumns(sets: readonly SweepColumns[]): SweepColumns {
   const union = (pick: (c: SweepColumns) => readonly string[]) => [...new Set(sets.flatMap(pick))];
-  return { deadTimes: union((c) => c.deadTimes), widths: union((c) => c.widths), checks: union((c) => c.checks) };
+  return {
+    deadTimes: union((c) => c.deadTimes), widths: union((c) => c.widths),
+    checks: union((c) => c.checks), voltChecks: union((c) => c.voltChecks),
+  };
 }

@@ -21,7 +21,8 @@ import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel } from '../delay/model.js';
 import { analyticModel } from '../delay/analytic.js';
 import { resolveDesign } from './resolve.js';
-import { evaluateAll, limitingCheck, type Limiting } from './evaluate.js';
+import { evaluateAll, limitingCheck, type CornerResult, type Limiting } from './evaluate.js';
+import { switchFaults, type SwitchFault } from '../checks/bias-checks.js';
 
 export interface ChainKnobs {
   /** Inverters per feedback chain (even). */
@@ -68,6 +69,11 @@ export interface TuneResult {
   readonly space: TuneSpace;
   /** Corner evaluations made. */
   readonly evaluations: number;
+  /**
+   * Switches whose off-state, on-state or stress check fails in the design as it stands. No delay
+   * chain changes them, so when there are any the chains are not searched.
+   */
+  readonly faults: readonly SwitchFault[];
 }
 
 const fF = 1e-15;
@@ -114,12 +120,14 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
   const gen = templateOf(design);
   let evaluations = 0;
   const seen = new Map<string, ChainCandidate>();
+  let first: readonly CornerResult[] = [];
   const evaluate = (knobs: ChainKnobs): ChainCandidate => {
     const key = `${knobs.stages}/${String(knobs.stageSize)}/${knobs.stageLoad}`;
     const known = seen.get(key);
     if (known) return known;
     const resolved = resolveDesign({ ...design, generator: { ...gen, ...knobs, stageSize: knobs.stageSize as TemplateGenerator['stageSize'] } }, card, model);
     const results = evaluateAll(resolved);
+    if (seen.size === 0) first = results;
     evaluations += results.length;
     let deadMin = Infinity;
     let deadMax = -Infinity;
@@ -139,6 +147,8 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     return candidate;
   };
   const current = evaluate({ stages: gen.stages, stageSize: gen.stageSize, stageLoad: gen.stageLoad });
+  const faults = switchFaults(first.map((r) => ({ name: r.corner.name, checks: r.checks })));
+  if (faults.length > 0) return { current, proposals: [], closest: null, space, evaluations, faults };
   const proposals: ChainCandidate[] = [];
   let closest: ChainCandidate | null = null;
   const consider = (c: ChainCandidate) => {
@@ -173,7 +183,7 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
       proposals.push(at(hi * step));
     }
   }
-  return { current, proposals: rank(proposals), closest: proposals.length > 0 ? null : closest, space, evaluations };
+  return { current, proposals: rank(proposals), closest: proposals.length > 0 ? null : closest, space, evaluations, faults };
 }
 
 /** The `--set` overrides that apply a proposal to the design file. */

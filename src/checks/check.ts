@@ -1,4 +1,7 @@
-/** A verdict on one requirement at one corner; margins are seconds, positive when met. */
+/**
+ * A verdict on one requirement at one corner; margins are positive when met, in seconds for the
+ * timing checks and in volts for the switch bias checks (off-state, on-state, stress).
+ */
 export type CheckKind =
   | 'steady-state'
   | 'non-overlap'
@@ -8,7 +11,18 @@ export type CheckKind =
   | 'width-min'
   | 'break-before-make'
   | 'order'
-  | 'settle';
+  | 'settle'
+  | 'off-state'
+  | 'on-state'
+  | 'stress';
+
+/** Checks whose margin is a voltage: no delay chain changes them, only the switch's drive, terminals or body. */
+export const VOLTAGE_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['off-state', 'on-state', 'stress']);
+
+/** Unit of a check's margin. */
+export function marginUnit(kind: CheckKind | string): 's' | 'V' {
+  return VOLTAGE_KINDS.has(kind as CheckKind) ? 'V' : 's';
+}
 
 export interface Check {
   readonly kind: CheckKind;
@@ -17,10 +31,25 @@ export interface Check {
   /** Margin, s; null when the quantity could not be measured (the run did not settle). */
   readonly margin: number | null;
   readonly pass: boolean;
-  /** Words for a failure that has no margin. */
+  /** Words for a failure that has no margin, or what a failing bias check found. */
   readonly detail?: string;
+  /** The switch a bias check is about. */
+  readonly switch?: string;
+  /** The phase state of a bias check's worst case: a phase name or `dead time`. */
+  readonly phase?: string;
 }
 
 export function marginCheck(kind: CheckKind, name: string, margin: number): Check {
   return { kind, name, margin, pass: margin >= 0 };
+}
+
+/**
+ * Orders checks worst first across units: an unmeasurable check, then a failing voltage check
+ * (no timing change can fix it), then timing margins, then passing voltage margins; within one
+ * tier the smaller margin. Negative when a is worse than b.
+ */
+export function compareChecks(a: Pick<Check, 'kind' | 'margin' | 'pass'>, b: Pick<Check, 'kind' | 'margin' | 'pass'>): number {
+  const tier = (c: Pick<Check, 'kind' | 'margin' | 'pass'>) =>
+    (c.margin === null ? 0 : VOLTAGE_KINDS.has(c.kind) ? (c.pass ? 3 : 1) : 2);
+  return tier(a) - tier(b) || (a.margin ?? 0) - (b.margin ?? 0);
 }

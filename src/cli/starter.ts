@@ -10,9 +10,12 @@ process:
   vddNominal: 1.8V
   unit: { wn: 0.5um, wp: 1.0um }   # the size-1 inverter
   n: { vth0: 0.45V, alpha: 1.3, drive: 287, vthTempco: 1mV, mobilityExponent: 1.5,
-       gamma: 0.45, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5e-9, kprime: 300e-6 }
+       gamma: 0.45, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5e-9, kprime: 300e-6,
+       subthresholdN: 1.5,                           # sub-threshold slope factor (S = n kT/q ln 10)
+       ratings: { vgs: 2.2V, vds: 2.2V, vgb: 2.2V } }  # invented voltage ratings of a 1.8 V device
   p: { vth0: 0.45V, alpha: 1.4, drive: 128, vthTempco: 1mV, mobilityExponent: 1.4,
-       gamma: 0.4, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5.5e-9, kprime: 70e-6 }
+       gamma: 0.4, phi2f: 0.85V, cgate: 1.6e-9, cdrain: 1.0e-9, avt: 5.5e-9, kprime: 70e-6,
+       subthresholdN: 1.5, ratings: { vgs: 2.2V, vds: 2.2V, vgb: 2.2V } }
   corners:               # Vth shift (V) and drive multiplier per device type
     tt: {}
     ss: { n: { dvth: 60mV, drive: 0.85 }, p: { dvth: 60mV, drive: 0.85 } }
@@ -71,8 +74,23 @@ corners:                 # every combination is a corner, named like ss/1.62V/12
   vdd: [1.62V, 1.8V, 1.98V]
   temperature: [-40, 27, 125]
 
+nodes:                   # every circuit node a switch connects: its voltage while p1 is active,
+                         # while p2 is, and in the dead time (default: either), as a level or {min, max}
+  vin: { min: 0.2V, max: 0.7V }                           # the input range, the same in every phase
+  cs: { phase1: { min: 0.2V, max: 0.7V }, phase2: 0.6V }  # sampling capacitor: the input, then the reference
+
+switches:                # each connects two nodes (or a node and a rail level such as 0.6V, vdd, 0V)
+  - { name: s_in, type: nmos, w: 10um, l: 0.18um, gate: p1, terminals: [vin, cs] }
+  - { name: s_ref, type: nmos, w: 10um, l: 0.18um, gate: p2, terminals: [cs, 0.6V] }
+
+constraints:
+  breakBeforeMake:       # never both on: the input would be shorted to the reference
+    - { between: [s_in, s_ref] }
+
 requirements:
   deadTime: { min: 500ps, max: 4ns }   # at the 50 % points, both handovers
   width: { min: 20ns }                 # each phase's active width
+  guard: 100ps                         # break-before-make guard at the switches
+  offDecades: 2                        # an off switch keeps 2 decades of current below its threshold
 `;
 }

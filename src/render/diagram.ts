@@ -12,6 +12,10 @@ import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, type NetWave } from './waveform.js';
 import { wrapTime } from '../measure/phases.js';
 import { handoverWindows, type TimeWindow } from './windows.js';
+import { compareChecks, type Check } from '../checks/check.js';
+import { switchOffIn } from '../checks/bias-checks.js';
+import type { SwitchPlan } from '../switches/plan.js';
+import type { StateIndex } from '../switches/nodes.js';
 
 export interface CornerWave {
   readonly corner: string;
@@ -44,6 +48,21 @@ export interface SwitchRow {
   readonly windows: readonly Conduction[];
   /** Corners at which the switch does not switch, with the reason. */
   readonly problems: ReadonlyArray<{ readonly corner: string; readonly detail: string }>;
+  /** Where it must be off and whether its gate holds it off there; null without an off-state check. */
+  readonly offState: OffStateMark | null;
+}
+
+/** The phase states in which a switch must be off, in the reference period, and its off-state check. */
+export interface OffStateMark {
+  /** Intervals of the period in which it must be off, s from the window start (an end may pass the period: it wraps). */
+  readonly intervals: ReadonlyArray<{ readonly start: number; readonly end: number; readonly state: string }>;
+  /** Least off-state margin over the corners drawn, V; null when it could not be measured. */
+  readonly margin: number | null;
+  readonly pass: boolean;
+  /** Corner and phase state of the least margin, and the check's words when it fails. */
+  readonly corner: string;
+  readonly phase: string;
+  readonly detail: string;
 }
 
 export type MarkRole = 'single' | 'least' | 'most';
@@ -202,8 +221,51 @@ function switchRows(resolved: ResolvedDesign, measured: readonly CornerResult[],
         if (wrapTime(mid - rise, period) <= high) phase = i as 0 | 1;
       });
     }
-    return { name: plan.name, type: plan.type, phase, windows, problems };
+    return { name: plan.name, type: plan.type, phase, windows, problems, offState: offStateMark(resolved, plan, measured.length > 0 ? measured : [reference], reference) };
   });
+}
+
+/**
+ * The phase states of the reference period as intervals (phase 1 active, the dead time after it,
+ * phase 2 active, the dead time after that), s from the window start; empty if it did not settle.
+ */
+export function stateIntervals(resolved: ResolvedDesign, reference: CornerResult): Array<{ start: number; end: number; state: StateIndex; label: string }> {
+  if (!reference.measurement.ok) return [];
+  const period = 1 / resolved.design.clock.frequency;
+  const [a, b] = resolved.netlist.source.phases;
+  const ca = reference.measurement.cycles[a];
+  const cb = reference.measurement.cycles[b];
+  if (!ca || !cb) return [];
+  const labels = resolved.bias.stateLabels;
+  const riseA = relative(ca.rise, reference);
+  const fallA = riseA + wrapTime(ca.fall - ca.rise, period);
+  const riseB = fallA + wrapTime(cb.rise - ca.fall, period);
+  const fallB = riseB + wrapTime(cb.fall - cb.rise, period);
+  const next = riseA + period;
+  return [
+    { start: riseA, end: fallA, state: 0, label: labels[0] },
+    { start: fallA, end: riseB, state: 2, label: labels[2] },
+    { start: riseB, end: fallB, state: 1, label: labels[1] },
+    { start: fallB, end: next, state: 2, label: labels[2] },
+  ];
+}
+
+function offStateMark(resolved: ResolvedDesign, plan: SwitchPlan, results: readonly CornerResult[], reference: CornerResult): OffStateMark | null {
+  const k = resolved.switchIndex.get(plan.name)!;
+  const name = resolved.biasNames[k]?.off;
+  if (!name) return null;
+  let worst: { check: Check; corner: string } | null = null;
+  for (const r of results) {
+    const c = r.checks.find((x) => x.name === name);
+    if (c && (worst === null || compareChecks(c, worst.check) < 0)) worst = { check: c, corner: r.corner.name };
+  }
+  if (!worst) return null;
+  const intervals = stateIntervals(resolved, reference).filter((i) => switchOffIn(plan, i.state))
+    .map((i) => ({ start: i.start, end: i.end, state: i.label }));
+  return {
+    intervals, margin: worst.check.margin, pass: worst.check.pass, corner: worst.corner,
+    phase: worst.check.phase ?? '', detail: worst.check.detail ?? '',
+  };
 }
 
 function deadTimeMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], single: boolean): DeadTimeMarks[] {

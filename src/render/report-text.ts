@@ -1,5 +1,6 @@
 /** Words and numbers of the review page, shared by its HTML and Markdown forms. */
 import { leastMargin } from '../report/check-report.js';
+import { formatMargin } from '../report/margin-format.js';
 import type { ProcessCard } from '../schema/process.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
@@ -95,7 +96,7 @@ export function summaryItems(m: ReportModel): Array<[string, string]> {
   ].filter(Boolean);
   items.push(['requirements', wants.join(', ')]);
   items.push(['maximum frequency', fmaxText(m)]);
-  if (r.limiting) items.push(['limiting check', `${r.limiting.check} at ${r.limiting.corner}${r.limiting.margin === null ? ' (not measurable)' : `, margin ${signedTime(r.limiting.margin)}`}`]);
+  if (r.limiting) items.push(['limiting check', `${r.limiting.check} at ${r.limiting.corner}${r.limiting.margin === null ? ' (not measurable)' : `, margin ${formatMargin(r.limiting.margin, r.limiting.kind)}`}`]);
   return items;
 }
 
@@ -113,7 +114,7 @@ export function cornerRows(m: ReportModel): string[][] {
     const least = leastMargin(c);
     return [
       c.name, ps(c.deadTimes[0]?.t50), ps(c.deadTimes[1]?.t50), ps(c.deadTimes[0]?.gap), ps(c.deadTimes[1]?.gap),
-      ns(c.widths[a]), ns(c.widths[b]), least === null ? 'n/a' : signedTime(least),
+      ns(c.widths[a]), ns(c.widths[b]), least === null ? 'n/a' : least === -Infinity ? 'switch bias fails' : signedTime(least),
       c.verdict === 'pass' ? '✓ pass' : `✕ FAIL${c.reason ? ` (${c.reason})` : ''}`,
     ];
   });

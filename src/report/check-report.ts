@@ -2,7 +2,7 @@
 import type { CornerResult, Limiting } from '../analysis/evaluate.js';
 import { limitingCheck } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
-import type { Check } from '../checks/check.js';
+import { VOLTAGE_KINDS, type Check } from '../checks/check.js';
 import { CAUTIONS } from './cautions.js';
 
 export interface DeadTimeReport {
@@ -46,14 +46,24 @@ export interface CheckReport {
   readonly verdict: 'pass' | 'fail';
   readonly limiting: Limiting | null;
   readonly corners: readonly CornerReport[];
+  /** What the checks cannot see in this design (e.g. switches whose terminals are undeclared). */
+  readonly warnings: readonly string[];
   readonly cautions: readonly string[];
 }
 
-/** The least margin of a corner's checks, s; null when one could not be measured. */
+/**
+ * The least timing margin of a corner's checks, s; null when one could not be measured. Voltage
+ * checks (off-state, on-state, stress) are counted only when they fail, as -Infinity: no timing
+ * margin outweighs them.
+ */
 export function leastMargin(corner: CornerReport): number | null {
   let least: number | null = null;
   for (const c of corner.checks) {
     if (c.margin === null) return null;
+    if (VOLTAGE_KINDS.has(c.kind)) {
+      if (!c.pass) least = -Infinity;
+      continue;
+    }
     if (least === null || c.margin < least) least = c.margin;
   }
   return least;
@@ -92,6 +102,7 @@ export function checkReport(resolved: ResolvedDesign, results: readonly CornerRe
     verdict: corners.every((c) => c.verdict === 'pass') ? 'pass' : 'fail',
     limiting: limitingCheck(results),
     corners,
+    warnings: resolved.warnings,
     cautions: CAUTIONS,
   };
 }

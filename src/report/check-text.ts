@@ -2,6 +2,8 @@
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
 import { renderTable, type Column } from './text-table.js';
+import { formatMargin } from './margin-format.js';
+import { compareChecks, type CheckKind } from '../checks/check.js';
 
 const MIN_MARK = ' v';
 const MAX_MARK = ' ^';
@@ -57,7 +59,7 @@ export function renderCheckText(report: CheckReport): string {
   const rows = corners.map((c, i) => [
     c.name,
     ...cells.map((col) => col[i]!),
-    signed(leastMargin(c)),
+    leastMargin(c) === -Infinity ? 'switch bias fails' : signed(leastMargin(c)),
     c.verdict === 'pass' ? 'pass' : `FAIL${c.reason ? ` (${c.reason})` : ''}`,
   ]);
   const out: string[] = [];
@@ -74,22 +76,21 @@ export function renderCheckText(report: CheckReport): string {
 
 /** Each check's worst corner and margin, switch constraints included; the limiting one first. */
 function worstPerCheck(report: CheckReport): string[] {
-  const worst = new Map<string, { kind: string; corner: string; margin: number | null; failing: number }>();
+  const worst = new Map<string, { kind: CheckKind; corner: string; margin: number | null; pass: boolean; failing: number }>();
   for (const c of report.corners) {
     for (const k of c.checks) {
       const seen = worst.get(k.name);
       const fails = k.pass ? 0 : 1;
-      const worse = !seen || (k.margin === null && seen.margin !== null) || (k.margin !== null && seen.margin !== null && k.margin < seen.margin);
-      if (!seen) worst.set(k.name, { kind: k.kind, corner: c.name, margin: k.margin, failing: fails });
+      if (!seen) worst.set(k.name, { kind: k.kind, corner: c.name, margin: k.margin, pass: k.pass, failing: fails });
       else {
         seen.failing += fails;
-        if (worse) Object.assign(seen, { corner: c.name, margin: k.margin });
+        if (compareChecks(k, seen) < 0) Object.assign(seen, { corner: c.name, margin: k.margin, pass: k.pass });
       }
     }
   }
   const rows = [...worst.entries()]
-    .sort(([, a], [, b]) => (a.margin ?? -Infinity) - (b.margin ?? -Infinity))
-    .map(([name, w]) => [w.kind, name, signed(w.margin), w.corner, w.failing === 0 ? 'pass' : `FAIL at ${w.failing} corner${w.failing > 1 ? 's' : ''}`]);
+    .sort(([, a], [, b]) => compareChecks(a, b))
+    .map(([name, w]) => [w.kind, name, formatMargin(w.margin, w.kind), w.corner, w.failing === 0 ? 'pass' : `FAIL at ${w.failing} corner${w.failing > 1 ? 's' : ''}`]);
   return [
     'worst case of each check:',
     renderTable([
@@ -111,15 +112,17 @@ function summaryLines(report: CheckReport, first: Array<number | undefined>, sec
     lines.push(`dead time ${label}: ${formatTime(lo)} at ${report.corners[min]!.name} .. ${formatTime(hi)} at ${report.corners[max]!.name}${spread}`);
   }
   const lim = report.limiting;
-  if (lim) lines.push(`limiting: ${lim.check} at ${lim.corner}, margin ${signed(lim.margin)}`);
+  if (lim) lines.push(`limiting: ${lim.check} at ${lim.corner}, margin ${formatMargin(lim.margin, lim.kind)}`);
   const failing = report.corners.flatMap((c) => c.checks.filter((k) => !k.pass).map((k) => ({ corner: c.name, check: k })));
   if (failing.length > 0) {
     lines.push(`failing checks: ${failing.length}`);
-    for (const f of failing.slice(0, 10)) lines.push(`  ${f.corner}: ${f.check.name}, margin ${signed(f.check.margin)}${f.check.detail ? ` (${f.check.detail})` : ''}`);
+    for (const f of failing.slice(0, 10)) lines.push(`  ${f.corner}: ${f.check.name}, margin ${formatMargin(f.check.margin, f.check.kind)}${f.check.detail ? ` (${f.check.detail})` : ''}`);
     if (failing.length > 10) lines.push(`  ... and ${failing.length - 10} more (use --json for all)`);
   }
+  for (const w of report.warnings) lines.push(`warning: ${w}`);
   const passing = report.corners.filter((c) => c.verdict === 'pass').length;
-  lines.push(`verdict: ${report.verdict === 'pass' ? 'PASS' : 'FAIL'} (${passing}/${report.corners.length} corners pass)`);
+  const limited = report.warnings.length > 0 ? `; limited: ${report.warnings.length} warning${report.warnings.length > 1 ? 's' : ''} above` : '';
+  lines.push(`verdict: ${report.verdict === 'pass' ? 'PASS' : 'FAIL'} (${passing}/${report.corners.length} corners pass${limited})`);
   lines.push('');
   lines.push(...report.cautions.map((c) => `caution: ${c}`));
   return lines;

@@ -1,8 +1,8 @@
 /** The Monte Carlo report: plain data for --json, and its table for people. */
 import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
-import { formatSignedTime, formatTime } from '../units/format.js';
 import { histogramQuantile, type StreamingHistogram } from '../variation/histogram.js';
 import { CAUTIONS } from './cautions.js';
+import { formatMargin, formatSpread } from './margin-format.js';
 import { renderTable } from './text-table.js';
 
 /**
@@ -86,7 +86,7 @@ export function renderMcText(r: McReport): string {
   lines.push('');
   lines.push(`checks at the worst corner ${worst.name} (sigma margin = mean margin / sigma):`);
   const checkRows = worst.quantities.filter((q) => q.kind !== 'measure').map((q) => [
-    q.kind, q.name, signed(q.mean), formatTime(q.sigma), signed(q.min),
+    q.kind, q.name, formatMargin(q.mean, q.kind, '-'), formatSpread(q.sigma, q.kind), formatMargin(q.min, q.kind, '-'),
     q.sigmaMargin === null || q.sigmaMargin === undefined ? '-' : q.sigmaMargin.toFixed(1), String(q.failures ?? 0),
   ]);
   lines.push(renderTable([
@@ -102,4 +102,3 @@ export function renderMcText(r: McReport): string {
   return `${lines.join('\n')}\n`;
 }
 
-const signed = (x: number) => formatSignedTime(x, '-');

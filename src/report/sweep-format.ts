@@ -5,19 +5,24 @@
  * header; what a point lacks is left empty.
  */
 import type { SweepAxis, SweepColumns, SweepRow } from '../analysis/sweep.js';
+import { marginUnit } from '../checks/check.js';
 
+/**
+ * A text cell that a spreadsheet would read as a formula (=, +, -, @ first) gets a leading
+ * apostrophe, so a name in a design file cannot run one (common practice for CSV export).
+ */
 function csvField(value: string | number | null): string {
   if (value === null) return '';
-  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(Number(value.toPrecision(9))) : '') : value;
+  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(Number(value.toPrecision(9))) : '') : /^[=+\-@]/.test(value) ? `'${value}` : value;
   return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 export function csvHeader(axes: readonly SweepAxis[], columns: SweepColumns): string {
   const cols = [
-    ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s',
+    ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s', 'limiting_margin_V',
     ...columns.deadTimes.flatMap((d) => [`dead_${d}_min_s`, `dead_${d}_max_s`, `gap_${d}_min_s`]),
     ...columns.widths.map((w) => `width_${w}_min_s`),
-    ...columns.checks.map((c) => `margin_s: ${c}`),
+    ...columns.checks.map((c) => `margin_${columns.voltChecks.includes(c) ? 'V' : 's'}: ${c}`),
   ];
   return `${cols.map(csvField).join(',')}\n`;
 }
@@ -33,7 +38,8 @@ export function unlistedNames(row: SweepRow, columns: SweepColumns): string[] {
 
 export function csvRow(row: SweepRow, columns: SweepColumns): string {
   const cells: Array<string | number | null> = [
-    ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null, row.limiting?.margin ?? null,
+    ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null,
+    ...(row.limiting && marginUnit(row.limiting.kind) === 'V' ? [null, row.limiting.margin] : [row.limiting?.margin ?? null, null]),
     ...columns.deadTimes.flatMap((label) => {
       const d = row.deadTimes.find((x) => x.label === label);
       return d ? [d.min, d.max, d.gapMin] : [null, null, null];

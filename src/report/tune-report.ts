@@ -1,7 +1,9 @@
 /** The tune report: plain data for --json, and its table for people. */
 import type { ChainCandidate, ChainKnobs, TuneResult } from '../analysis/tune.js';
 import { proposalOverrides } from '../analysis/tune.js';
-import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { switchFaultAdvice, type SwitchFault } from '../checks/bias-checks.js';
+import { formatEngineering, formatTime } from '../units/format.js';
+import { formatMargin } from './margin-format.js';
 import { CAUTIONS } from './cautions.js';
 import { shellCommand } from './shell-quote.js';
 import { renderTable } from './text-table.js';
@@ -36,6 +38,8 @@ export interface TuneReport {
   /** What was searched: chain lengths, stage sizes, the largest capacitor and its step (F). */
   readonly searched: { readonly stages: readonly number[]; readonly stageSizes: readonly number[]; readonly maxLoad: number; readonly loadStep: number; readonly headroom: number };
   readonly evaluations: number;
+  /** Switches whose off-state, on-state or stress check fails: no delay chain fixes them, so nothing was searched. */
+  readonly faults: readonly SwitchFault[];
   readonly verdict: 'pass' | 'fail';
   readonly cautions: readonly string[];
 }
@@ -65,6 +69,7 @@ export function tuneReport(design: string, frequency: number, corners: number, r
     closest: result.closest ? candidateReport(result.closest) : null,
     searched: { ...result.space },
     evaluations: result.evaluations,
+    faults: result.faults,
     verdict: result.proposals.length > 0 ? 'pass' : 'fail',
     cautions: CAUTIONS,
   };
@@ -79,7 +84,7 @@ export function candidateCells(c: TuneCandidateReport) {
   return {
     stages: String(c.stages), size: sizeText(c.stageSize), load: `${Number((c.stageLoad / 1e-15).toPrecision(6))} fF`,
     deadMin: c.deadTimeMin === null ? 'n/a' : formatTime(c.deadTimeMin), deadMax: c.deadTimeMax === null ? 'n/a' : formatTime(c.deadTimeMax),
-    margin: c.limiting ? formatSignedTime(c.limiting.margin, 'unmeasurable') : 'n/a',
+    margin: c.limiting ? formatMargin(c.limiting.margin, c.limiting.kind, 'unmeasurable') : 'n/a',
   };
 }
 
@@ -106,7 +111,11 @@ export function renderTuneText(r: TuneReport, designPath: string): string {
   ], rows));
   out.push('');
   const best = r.proposals[0];
-  if (best) {
+  const faultAdvice = switchFaultAdvice(r.faults);
+  if (faultAdvice) {
+    out.push(`${faultAdvice}. The delay chains were not searched.`);
+    for (const f of r.faults) if (f.detail) out.push(`  ${f.switch} at ${f.corner}: ${f.detail}`);
+  } else if (best) {
     out.push(`best: ${best.stages} stages of size ${sizeText(best.stageSize)} with ${loadText(best.stageLoad)} per node; check it with`);
     out.push(`  ${shellCommand(['phasegap', 'check', designPath, ...best.overrides.flatMap((o) => ['--set', o])])}`);
     if (r.searched.headroom === 0) out.push('proposals sit at the edge of the tightest requirement: give --margin TIME for headroom, and run phasegap mc on the one you pick');
@@ -120,7 +129,8 @@ export function renderTuneText(r: TuneReport, designPath: string): string {
       out.push(`closest: ${lim.check} (${lim.kind}) at ${lim.corner} still fails; ${advice}`);
     }
   }
-  out.push(`searched: stages ${r.searched.stages.join(', ')}; stage sizes ${r.searched.stageSizes.join(', ')}; stage load 0 .. ${formatEngineering(r.searched.maxLoad, 'F')} in ${formatEngineering(r.searched.loadStep, 'F')} steps; ${r.evaluations} corner evaluations`);
+  if (faultAdvice) out.push(`searched: nothing (${r.evaluations} corner evaluations of the design as it stands)`);
+  else out.push(`searched: stages ${r.searched.stages.join(', ')}; stage sizes ${r.searched.stageSizes.join(', ')}; stage load 0 .. ${formatEngineering(r.searched.maxLoad, 'F')} in ${formatEngineering(r.searched.loadStep, 'F')} steps; ${r.evaluations} corner evaluations`);
   out.push('', ...CAUTIONS.map((c) => `caution: ${c}`));
   return `${out.join('\n')}\n`;
 }

@@ -7,6 +7,7 @@ import { processSchema } from './process.js';
 import { constraintsSchema, switchSchema } from './switches.js';
 import { MAX_AXIS_VALUES, MAX_CORNERS, MAX_GATES, MAX_SWITCHES } from './limits.js';
 import { description, identifier, patterned, title } from './names.js';
+import { nodesSchema } from './nodes.js';
 
 const netName = patterned(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
 const size = ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 });
@@ -93,6 +94,8 @@ export const requirementsSchema = z.strictObject({
   }).optional(),
   guard: quantity('s', 'Default break-before-make guard time', { atLeast: 0 }).default(0),
   minYield: ratio('Smallest acceptable Monte Carlo yield', { above: 0, atMost: 1 }).optional(),
+  offDecades: ratio('Decades of sub-threshold current below the threshold current an off switch must keep (default 2): off-state margin = offDecades * n * kT/q * ln 10', { atLeast: 0, atMost: 10 }).optional(),
+  offMargin: quantity('V', 'Off-state margin below the threshold, instead of the offDecades rule', { atLeast: 0 }).optional(),
   confirmTolerance: ratio('Largest relative difference between the model and ngspice that confirm accepts (default 0.1)', { above: 0, below: 10 }).optional(),
 });
 
@@ -110,6 +113,7 @@ export const designSchema = z.strictObject({
   generator: generatorSchema,
   loads: z.record(netName, quantity('F', 'Extra capacitance on the net (wire and devices not modelled)', { atLeast: 0 }))
     .default({}).describe('Extra capacitance on named nets'),
+  nodes: nodesSchema.default({}),
   switches: z.array(switchSchema).max(MAX_SWITCHES).default([]).describe('Switches driven by the phases'),
   constraints: constraintsSchema.default({ breakBeforeMake: [], order: [], settle: [] }),
   corners: cornersSchema.default({}),

@@ -16,6 +16,12 @@ export const deviceSchema = z.strictObject({
   cdrain: z.number().nonnegative().describe('Drain diffusion capacitance per metre of width, F/m'),
   avt: z.number().nonnegative().describe('Pelgrom mismatch coefficient A_VT, V*m (5 mV*um = 5e-9)'),
   kprime: z.number().positive().describe('Triode transconductance parameter mu*Cox, A/V^2, for switch on-resistance'),
+  subthresholdN: ratio('Sub-threshold slope factor n: S = n * kT/q * ln 10 per decade of current (default 1.5)', { atLeast: 1, atMost: 3 }).default(1.5),
+  ratings: z.strictObject({
+    vgs: quantity('V', 'Largest |V_GS| and |V_GD| the device may see', { above: 0 }),
+    vds: quantity('V', 'Largest |V_DS|', { above: 0 }),
+    vgb: quantity('V', 'Largest |V_GB|', { above: 0 }),
+  }).optional().describe('Voltage ratings of the switch devices, checked by the stress check'),
 });
 
 const cornerShiftSchema = z.strictObject({

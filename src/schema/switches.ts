@@ -26,6 +26,9 @@ const signal = z.union([
   z.strictObject({ min: level('Lowest voltage the switch passes'), max: level('Highest voltage the switch passes') }),
 ]);
 
+const terminal = z.union([z.number(), z.string().min(1)])
+  .describe('A node name from `nodes`, or a fixed level (volts like "0V", or relative to the supply like "vdd", "2vdd")');
+
 export const switchSchema = z.strictObject({
   name,
   type: z.enum(['nmos', 'pmos', 'tgate']).describe('Switch device; a tgate is an nmos and a pmos in parallel'),
@@ -36,8 +39,10 @@ export const switchSchema = z.strictObject({
   gateBar: netName.optional().describe('Net that drives the p gate of a tgate (usually the phase complement)'),
   driver: z.array(driverStage).max(8).default([]).describe('Cells from the net to the gate, in order (each INV inverts)'),
   levelShifter: levelShifter.optional().describe('A level shifter after the driver, with its own delay and swing'),
-  signal: signal.prefault(0).describe('Terminal voltage the switch passes: one level or a range {min, max}; the worst point is used'),
-  bulk: level('Body voltage (default: 0 V for n devices, the highest gate or signal level for p devices)').optional(),
+  terminals: z.tuple([terminal, terminal]).optional()
+    .describe('The two nodes the switch connects: names from `nodes`, or a fixed rail as a level ("vdd", "0V")'),
+  signal: signal.optional().describe('Older form instead of terminals: both terminals at this level or range {min, max} in every phase (default 0 V); the off-state check cannot see a boosted node this way'),
+  bulk: terminal.optional().describe('Body: a level ("vdd", "2vdd") or a node name (default: 0 V for n devices, the highest gate or terminal level for p devices)'),
 });
 
 const eventRef = z.strictObject({

@@ -8,6 +8,8 @@ import type { CycleIndex } from '../measure/phases.js';
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
+import { bulkAt, deviceOn } from './bias.js';
+import type { StateIndex } from './nodes.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -83,12 +85,19 @@ export function turnOnLevel(plan: SwitchPlan, device: SwitchDevicePlan, d: Devic
   return device.kind === 'n' ? vs + vt : vs - vt;
 }
 
-/** Body voltage of a switch device, V: the declared one, else 0 V for n and the highest gate or signal level for p. */
+/**
+ * Body voltage of a switch device while it conducts, V: a declared level, a declared node in the
+ * phase state it conducts in, else 0 V for n and the highest gate or terminal level for p.
+ */
 export function bulkLevel(plan: SwitchPlan, kind: SwitchDevicePlan['kind'], vdd: number): number {
   if (plan.bulk) return levelAt(plan.bulk, vdd);
-  if (kind === 'n') return 0;
-  const high = plan.levelShifter ? levelAt(plan.levelShifter.high, vdd) : vdd;
-  return Math.max(high, levelAt(plan.signal.max, vdd));
+  return bulkAt(plan, kind, conductingState(plan), vdd);
+}
+
+/** The first phase state in which a device of the switch is on (phase 1 when none is known). */
+export function conductingState(plan: SwitchPlan): StateIndex {
+  for (let s = 0 as StateIndex; s < 3; s++) if (plan.devices.some((d) => deviceOn(d, s))) return s;
+  return 0;
 }
 
 /** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V. */
@@ -102,6 +111,9 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
+  // Body voltages once per call: they do not depend on the signal point.
+  const bulk0 = bulkLevel(plan, plan.devices[0]!.kind, vdd);
+  const bulk1 = count > 1 ? bulkLevel(plan, plan.devices[1]!.kind, vdd) : bulk0;
   const vMin = levelAt(plan.signal.min, vdd);
   const vMax = levelAt(plan.signal.max, vdd);
   // A single device's turn-on level and resistance are monotonic in the signal, so its range ends
@@ -123,8 +135,9 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
       const wave = waves[i]!;
       const { low, high } = wave.rise;
       const d = device.kind === 'n' ? devices.n : devices.p;
-      const vt = switchThreshold(plan, device, d, vs, vdd, dvth ? dvth[i]! : 0);
       const n = device.kind === 'n';
+      const bulk = i === 0 ? bulk0 : bulk1;
+      const vt = bodyThreshold(d.vth + (dvth ? dvth[i]! : 0), d.gamma, d.phi2f, n ? vs - bulk : bulk - vs);
       const level = n ? vs + vt : vs - vt;
       const overdrive = n ? high - vs - vt : vs - vt - low;
       const own: PointState = n ? (level >= high ? NEVER : level <= low ? ALWAYS : SWITCHING) : (level <= low ? NEVER : level >= high ? ALWAYS : SWITCHING);

@@ -5,7 +5,9 @@
 
 /**
  * Threshold magnitude with body effect, V_T = V_T0 + gamma * (sqrt(2phiF + V_SB) - sqrt(2phiF))
- * (common practice; the long-channel body-effect law). A forward bias is clamped at V_SB = 0.
+ * (the long-channel body-effect law: A. S. Sedra, K. C. Smith, Microelectronic Circuits, section on
+ * the body effect; B. Razavi, Design of Analog CMOS Integrated Circuits, ch. 2). `vsb` is the
+ * source-to-body reverse bias (V_SB for n, V_BS for p); a forward bias is clamped at 0.
  */
 export function bodyThreshold(vt0: number, gamma: number, phi2f: number, vsb: number): number {
   return vt0 + gamma * (Math.sqrt(phi2f + Math.max(0, vsb)) - Math.sqrt(phi2f));
@@ -47,4 +49,29 @@ export function settlingTimeConstants(epsilon: number): number {
 /** Settling error for N bits at half an LSB, 2^-(N+1). */
 export function bitsToError(bits: number): number {
   return Math.pow(2, -(bits + 1));
+}
+
+/** Boltzmann constant over the elementary charge, V/K (CODATA 2018: k = 1.380649e-23 J/K, q = 1.602176634e-19 C). */
+const K_OVER_Q = 1.380649e-23 / 1.602176634e-19;
+
+/** Thermal voltage kT/q at a temperature in °C, V (25.85 mV at 300 K). */
+export function thermalVoltage(celsius: number): number {
+  return K_OVER_Q * (celsius + 273.15);
+}
+
+/**
+ * Sub-threshold swing, V per decade of drain current: S = n * (kT/q) * ln 10, about n * 60 mV/dec
+ * at 300 K (common textbook fact; e.g. S. M. Sze, K. K. Ng, Physics of Semiconductor Devices, the
+ * subthreshold region of the MOSFET chapter).
+ */
+export function subthresholdSwing(n: number, celsius: number): number {
+  return n * thermalVoltage(celsius) * Math.LN10;
+}
+
+/**
+ * Gate voltage an off switch must keep below its threshold so that its current stays `decades`
+ * decades under the current at threshold, V: decades * S.
+ */
+export function offStateAllowance(decades: number, n: number, celsius: number): number {
+  return decades * subthresholdSwing(n, celsius);
 }

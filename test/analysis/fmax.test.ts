@@ -55,3 +55,14 @@ describe('phasegap fmax', () => {
     expect(r.stderr).toContain('--resolution');
   });
 });
+
+describe('findFmax: switch bias faults', () => {
+  it('stops at the design clock when a switch fails its off-state or stress check: no frequency changes it', () => {
+    const { design: d, card } = loadDesign(design('doubler-unboosted'));
+    const result = findFmax(resolveDesign(d, card));
+    expect(result.fmax).toBeNull();
+    expect(result.evaluations).toBe(45);
+    expect(result.limiting?.check).toBe('s_chg within ratings');
+    expect(result.note).toBe('a switch fails its stress check, which no clock frequency changes');
+  });
+});

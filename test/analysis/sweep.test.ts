@@ -138,28 +138,30 @@ describe('sweepColumns', () => {
   });
 
   it('merges column sets in first-seen order, each name once', () => {
-    const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'] };
-    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'] };
-    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'] });
+    const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'], voltChecks: ['y'] };
+    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'], voltChecks: ['y', 'z'] };
+    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'], voltChecks: ['y', 'z'] });
   });
 });
 
 describe('csvRow', () => {
   it('fills columns by name and leaves what a row lacks empty', () => {
-    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'] };
+    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'], voltChecks: ['one'] };
     const row = {
       index: 0, point: [1], corners: 3, verdict: 'pass' as const, limiting: null,
       deadTimes: [{ label: 'a->b', min: 1, max: 2, gapMin: 0.5 }], widths: [{ phase: 'b', min: 7 }],
       checks: [{ name: 'two', kind: 'order', margin: 4 }],
     };
-    expect(csvHeader([{ path: 'x', values: [1] }], columns).trim().split(',')).toHaveLength(5 + 1 + 3 + 2 + 2);
-    expect(csvRow(row, columns)).toBe('1,3,pass,,,,1,2,0.5,,7,,4\n');
+    const header = csvHeader([{ path: 'x', values: [1] }], columns).trim().split(',');
+    expect(header).toHaveLength(6 + 1 + 3 + 2 + 2);
+    expect(header.slice(-2)).toEqual(['margin_V: one', 'margin_s: two']);
+    expect(csvRow(row, columns)).toBe('1,3,pass,,,,,1,2,0.5,,7,,4\n');
   });
 });
 
 describe('unlistedNames', () => {
   it('names what a row carries beyond the columns, ignoring the margin-less steady-state check', () => {
-    const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'] };
+    const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'], voltChecks: [] };
     const row = {
       index: 0, point: [], corners: 1, verdict: 'fail' as const, limiting: null,
       deadTimes: [{ label: 'a->b', min: 1, max: 1, gapMin: 1 }, { label: 'b->a', min: 1, max: 1, gapMin: 1 }],

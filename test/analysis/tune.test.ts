@@ -170,3 +170,22 @@ describe('phasegap tune', () => {
     expect(readdirSync(dir)).toEqual([]);
   });
 });
+
+describe('tuneChains: switch faults', () => {
+  it('does not search the chains when a switch fails off-state or stress, and names the switch', () => {
+    const { d, card } = load('doubler-unboosted');
+    const result = tuneChains(d, card);
+    expect(result.faults.map((f) => [f.switch, f.kinds])).toEqual([['s_chg', ['off-state', 'stress']]]);
+    expect(result.proposals).toEqual([]);
+    expect(result.closest).toBeNull();
+    expect(result.evaluations).toBe(45);
+  });
+
+  it('says no delay chain can fix it instead of advising more delay', () => {
+    const run = cli('tune', design('doubler-unboosted'));
+    expect(run.code).toBe(1);
+    expect(run.stdout).toMatch(/no delay chain can fix s_chg \(off-state, stress\)/);
+    expect(run.stdout).toMatch(/reverse conduction/);
+    expect(run.stdout).not.toMatch(/more delay|--max-load/);
+  });
+});

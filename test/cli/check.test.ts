@@ -218,3 +218,54 @@ describe('the compiled binary', () => {
     expect(readFileSync(main, 'utf8').startsWith('#!/usr/bin/env node')).toBe(true);
   });
 });
+
+describe('phasegap check: switch terminals', () => {
+  interface BiasCheck extends JsonCheck { switch?: string; phase?: string; detail?: string }
+
+  it('exits 1 on doubler-unboosted.yaml with an off-state failure on s_chg in phase 2 that names reverse conduction', () => {
+    const run = cli('check', design('doubler-unboosted'), '--json');
+    expect(run.code).toBe(1);
+    const json = JSON.parse(run.stdout) as JsonReport;
+    const failing = json.corners.flatMap((c) => c.checks as BiasCheck[]).filter((k) => !k.pass);
+    const off = failing.filter((k) => k.kind === 'off-state');
+    expect(off).toHaveLength(json.corners.length);
+    for (const k of off) {
+      expect(k.switch).toBe('s_chg');
+      expect(k.phase).toBe('phase p2');
+      expect(k.detail).toMatch(/reverse conduction/);
+    }
+    // Only the power stage fails: every timing check still passes, which no delay chain would change.
+    expect(failing.every((k) => ['off-state', 'stress'].includes(k.kind) && k.switch === 's_chg')).toBe(true);
+    expect(json.limiting?.kind).toBe('stress');
+  });
+
+  it('tells the designer that no delay chain fixes it, instead of pointing to tune', () => {
+    const run = cli('check', design('doubler-unboosted'));
+    expect(run.stderr).toMatch(/hint: no delay chain can fix s_chg \(off-state, stress\)/);
+    expect(run.stderr).not.toMatch(/phasegap tune/);
+    expect(run.stdout).toMatch(/off-state\s+s_chg holds off\s+-1\.93 V\s+ff\/1\.98V\/125C\s+FAIL at 45 corners/);
+  });
+
+  it('passes the boosted doubler.yaml with every bias check met and no warning', () => {
+    const run = cli('check', design('doubler'), '--json');
+    expect(run.code).toBe(0);
+    const json = JSON.parse(run.stdout) as JsonReport & { warnings: string[] };
+    expect(json.warnings).toEqual([]);
+    const kinds = new Set(json.corners[0]!.checks.map((c) => c.kind));
+    for (const k of ['off-state', 'on-state', 'stress']) expect(kinds.has(k)).toBe(true);
+  });
+
+  it('warns in the text and the JSON when a switch uses the older signal form', () => {
+    const dir = tempDir();
+    const file = join(dir, 'old.yaml');
+    const text = readFileSync(design('too-tight'), 'utf8').replace(/nodes:[\s\S]*?switches:/, 'switches:')
+      .replace('terminals: [lv, 0V]', 'signal: 0V').replace('terminals: [2vdd, hv]', 'signal: 2vdd')
+      .replace('../processes/', `${processCard('generic180').replace(/generic180\.yaml$/, '')}`);
+    writeFileSync(file, text);
+    const run = cli('check', file);
+    expect(run.stdout).toMatch(/warning: s_low: terminals undeclared/);
+    expect(run.stdout).toMatch(/limited: 2 warnings above/);
+    const json = JSON.parse(cli('check', file, '--json').stdout) as { warnings: string[] };
+    expect(json.warnings).toHaveLength(2);
+  });
+});

@@ -64,3 +64,20 @@ describe('phasegap init', () => {
     expect(readdirSync(dir)).toEqual([]);
   });
 });
+
+describe('phasegap init: nodes', () => {
+  it('writes a starter that declares its nodes, wires every switch to two of them and gets no warning', () => {
+    const out = join(tempDir(), 'design.yaml');
+    expect(cli('init', '-o', out).code).toBe(0);
+    const parsed = parseYaml(readFileSync(out, 'utf8')) as { nodes: Record<string, unknown>; switches: Array<{ terminals?: unknown[]; signal?: unknown }> };
+    expect(Object.keys(parsed.nodes)).toEqual(['vin', 'cs']);
+    expect(parsed.switches.length).toBeGreaterThan(0);
+    for (const s of parsed.switches) {
+      expect(s.terminals).toHaveLength(2);
+      expect(s.signal).toBeUndefined();
+    }
+    const report = JSON.parse(cli('check', out, '--json').stdout) as { warnings: string[]; corners: Array<{ checks: Array<{ kind: string }> }> };
+    expect(report.warnings).toEqual([]);
+    expect(report.corners[0]!.checks.filter((c) => c.kind === 'off-state')).toHaveLength(parsed.switches.length);
+  });
+});

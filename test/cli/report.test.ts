@@ -27,6 +27,22 @@ describe('phasegap report', () => {
     for (const s of svgs) expect(() => parseSvg(s)).not.toThrow();
   });
 
+  it('lists the node voltages per phase, written and in volts at the nominal supply, with the switches on each node', async () => {
+    const run = await cliAsync('report', design('doubler'), '-o', '-', '--no-tune');
+    const section = run.stdout.slice(run.stdout.indexOf('<section id="nodes">')).split('</section>')[0]!;
+    expect(section).toContain('<th>node</th><th>phase p1</th><th>phase p2</th><th>dead time</th><th>switches</th>');
+    // top plate: VDD in p1, 1.6..2 VDD in p2 (2.88..3.60 V at 1.8 V), either in the dead time.
+    expect(section).toContain('<tr><td>top</td><td>vdd (1.80 V)</td><td>1.6vdd .. 2vdd (2.88 .. 3.60 V)</td><td>vdd .. 2vdd (1.80 .. 3.60 V)</td><td class="verdict-cell">s_chg, s_out</td></tr>');
+    expect(section).toContain('<tr><td>bottom</td><td>0 V</td><td>vdd (1.80 V)</td><td>0 V .. vdd (0.00 .. 1.80 V)</td><td class="verdict-cell">s_gnd, s_vdd</td></tr>');
+    expect(run.stdout).not.toContain('id="warnings"');
+  });
+
+  it('shows the off-state failure of the unboosted doubler in volts among the worst cases', async () => {
+    const run = await cliAsync('report', design('doubler-unboosted'), '-o', '-', '--no-tune');
+    expect(run.code).toBe(1);
+    expect(run.stdout).toMatch(/<tr class="fail"><td>off-state<\/td><td>s_chg holds off<\/td><td class="num">-1\.93 V<\/td><td>ff\/1\.98V\/125C<\/td>/);
+  });
+
   it('lists every corner in the corner table and exits 1 when the design fails', async () => {
     const run = await cliAsync('report', design('too-tight'), '--no-fmax', '-o', '-');
     expect(run.code).toBe(1);

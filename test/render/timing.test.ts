@@ -179,3 +179,33 @@ describe('renderTimingSvg', () => {
     expect(titles).toContain(doubler.results[4]!.pass ? '\u2713 PASS' : '\u2715 FAIL');
   });
 });
+
+describe('renderTimingSvg: off-state strips', () => {
+  const unboosted = evaluate('doubler-unboosted');
+  const tt = unboosted.results.findIndex((r) => r.corner.name === 'tt/1.8V/27C');
+
+  it('marks the intervals where each switch must be off: p2 and both dead times for a p1 switch', () => {
+    const d = buildDiagram(unboosted.resolved, unboosted.results, { kind: 'corner', index: tt }, 'phases');
+    const chg = d.switches.find((s) => s.name === 's_chg')!;
+    expect(chg.offState!.intervals.map((i) => i.state)).toEqual(['the dead time', 'phase p2', 'the dead time']);
+    // The intervals tile the period outside phase 1: from p1's fall to its next rise.
+    const m = unboosted.results[tt]!.measurement;
+    if (!m.ok) throw new Error('settles');
+    const total = chg.offState!.intervals.reduce((sum, i) => sum + i.end - i.start, 0);
+    expect(total).toBeCloseTo(d.period - m.widths.p1!, 15);
+    expect(chg.offState!.pass).toBe(false);
+    expect(chg.offState!.margin).toBeCloseTo(-1.528669, 5);
+    expect(d.switches.find((s) => s.name === 's_gnd')!.offState!.pass).toBe(true);
+  });
+
+  it('hatches the failing switch\'s off intervals, names the reverse conduction in its lane and keeps the others grey', () => {
+    const svg = parseSvg(draw(unboosted, 'corner', tt));
+    const lanes = all(svg, 'g.panel-overview g.switch-lane');
+    const chg = lanes.find((l) => l.getAttribute('data-switch') === 's_chg')!;
+    expect(all(chg, 'g.off-state.fail rect.off-interval').length).toBeGreaterThan(0);
+    expect(all(chg, 'text.off-state-label')[0]!.textContent).toBe('\u2715 off: FAILS -1.53 V in p2, reverse conduction');
+    const gnd = lanes.find((l) => l.getAttribute('data-switch') === 's_gnd')!;
+    expect(all(gnd, 'g.off-state.fail').length).toBe(0);
+    expect(all(gnd, 'text.off-state-label')[0]!.textContent).toBe('off: holds +271 mV');
+  });
+});

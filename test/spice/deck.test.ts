@@ -156,9 +156,9 @@ describe('phasegap confirm without ngspice', () => {
 
 describe('phasegap confirm', () => {
   it('prints model and ngspice side by side and exits 1 when a difference exceeds the tolerance', () => {
-    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '1%', '--jobs', '1');
+    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1');
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 1\.0 %, 1 corner$/m);
+    expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 0\.5 %, 1 corner$/m);
     expect(r.stdout).toMatch(/^tt\/1\.8V\/27C\s+dead p1->p2\s+[\d.]+ ns\s+[\d.]+ ns\s+[-+][\d.]+ %\s+over$/m);
     expect(r.stdout).toMatch(/^verdict: DISAGREE \(0\/1 corners within tolerance, break-before-make verdicts alike\)$/m);
   });

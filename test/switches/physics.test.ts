@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { bitsToError, bodyThreshold, rampCrossing, settlingTimeConstants, triodeResistance } from '../../src/switches/physics.js';
+import { bitsToError, bodyThreshold, offStateAllowance, rampCrossing, settlingTimeConstants, subthresholdSwing, thermalVoltage, triodeResistance } from '../../src/switches/physics.js';
 import { expectClose } from '../helpers.js';
 
 describe('rampCrossing', () => {
@@ -62,5 +62,30 @@ describe('settling time constants', () => {
   // REFERENCES 6 [D]: 500 ohm with 1 pF is tau = 0.5 ns; 10-bit half-LSB settling takes 3.812 ns.
   it('settles 500 ohm into 1 pF to 10 bits in 3.812 ns', () => {
     expectClose(settlingTimeConstants(bitsToError(10)) * 500 * 1e-12, 3.812e-9, 1e-3);
+  });
+});
+
+describe('thermalVoltage', () => {
+  // kT/q at 300 K = 1.380649e-23 * 300 / 1.602176634e-19 = 25.852 mV (CODATA 2018 exact constants).
+  it('is 25.852 mV at 300 K (26.85 °C)', () => {
+    expectClose(thermalVoltage(26.85), 0.0258520, 1e-6);
+  });
+});
+
+describe('subthresholdSwing', () => {
+  // S = n kT/q ln 10: about 60 mV/decade per unit n at room temperature (common textbook fact,
+  // e.g. Sze & Ng, Physics of Semiconductor Devices); 25.852 mV * 2.302585 = 59.526 mV at 300 K.
+  it('is 59.5 mV/decade for n = 1 at 300 K and scales with n and absolute temperature', () => {
+    expectClose(subthresholdSwing(1, 26.85), 0.0595264, 1e-6);
+    expectClose(subthresholdSwing(1.5, 26.85), 1.5 * 0.0595264, 1e-6);
+    expectClose(subthresholdSwing(1, 126.85) / subthresholdSwing(1, 26.85), 400 / 300, 1e-12);
+  });
+});
+
+describe('offStateAllowance', () => {
+  // Two decades at n = 1.5, 300 K: 2 * 1.5 * 59.526 mV = 178.58 mV (hand arithmetic from the swing above).
+  it('is k decades of the sub-threshold swing: 178.6 mV for k = 2, n = 1.5 at 300 K', () => {
+    expectClose(offStateAllowance(2, 1.5, 26.85), 0.178579, 1e-5);
+    expect(offStateAllowance(0, 1.5, 26.85)).toBe(0);
   });
 });

@@ -97,8 +97,9 @@ describe('verilog export', () => {
     expect(r.stdout).toMatch(/^`timescale 1ns \/ 1ps$/m);
     expect(r.stdout).toMatch(/^module doubler_clock \(clk, p1, p2\);$/m);
     expect(r.stdout).toMatch(/^ {2}nand #\(\d+\.\d{3}, \d+\.\d{3}\) u_gate1 \(x1, clk, d2_6\);$/m);
-    expect(r.stdout.match(/^ {2}not /gm)?.length).toBe(21);
-    expect(r.stdout).toMatch(/^ {2}not #\([\d.]+, [\d.]+\) \\s_chg\.drv_p10 +\(\\s_chg\.p1 , p1\);$/m);
+    // The generator's inverters and the driver of s_vdd; s_chg and s_out hang on level shifters, which have no gate.
+    expect(r.stdout.match(/^ {2}not /gm)?.length).toBe(20);
+    expect(r.stdout).toMatch(/^ {2}not #\([\d.]+, [\d.]+\) \\s_vdd\.drv_p10 +\(\\s_vdd\.p1 , p2\);$/m);
   });
 
   it('exports the delays the model has in its steady state: the fixed-delay run keeps its dead times', () => {

@@ -3,10 +3,10 @@ import { evaluateAll } from '../../analysis/evaluate.js';
 import { resolveDesign } from '../../analysis/resolve.js';
 import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
+import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
-import { shellCommand } from '../../report/shell-quote.js';
 
 export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -22,8 +22,7 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
   emit(io, options.json ? toJson(report) : renderCheckText(report), options.out, inputs);
-  if (report.verdict === 'fail' && !options.json && design.generator.template !== 'netlist') {
-    io.stderr(`phasegap: hint: ${shellCommand(['phasegap', 'tune', designPath])} proposes delay chains that pass every corner\n`);
-  }
+  const hint = options.json ? null : checkHint(report, designPath, design.generator.template !== 'netlist');
+  if (hint) io.stderr(`phasegap: hint: ${hint}\n`);
   return report.verdict === 'pass' ? 0 : 1;
 }

@@ -1,7 +1,8 @@
 /** `phasegap fmax DESIGN`: the highest safe clock frequency and what limits it. */
 import { findFmax } from '../../analysis/fmax.js';
+import { formatMargin } from '../../report/margin-format.js';
 import { CAUTIONS } from '../../report/cautions.js';
-import { formatEngineering, formatTime } from '../../units/format.js';
+import { formatEngineering } from '../../units/format.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
@@ -46,7 +47,7 @@ export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions)
   }
   if (lim) {
     const where = result.fmax === null ? 'fails at the design clock' : 'limited by';
-    lines.push(`${where}: ${lim.check} (${lim.kind}) at ${lim.corner}${lim.margin === null ? '' : `, margin ${lim.margin < 0 ? '-' : '+'}${formatTime(Math.abs(lim.margin))}`}`);
+    lines.push(`${where}: ${lim.check} (${lim.kind}) at ${lim.corner}${lim.margin === null ? '' : `, margin ${formatMargin(lim.margin, lim.kind)}`}`);
   }
   lines.push(`verdict: ${ok ? 'PASS' : 'FAIL'} (the design clock ${ok ? 'is at or below' : 'is above'} fmax)`);
   lines.push(`${result.evaluations} corner evaluations`);

@@ -8,8 +8,10 @@ import { formatEngineering, formatTime } from '../../units/format.js';
 import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
-import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, signedTime, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, summaryItems, tuneTable } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
+import { formatMargin } from '../../report/margin-format.js';
+import { levelText, nodeTable } from '../node-table.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
   const th = head.map((c) => `<th>${h(c)}</th>`).join('');
@@ -28,19 +30,22 @@ export function renderHtmlReport(m: ReportModel): string {
   const lim = r.limiting;
   const passing = r.corners.filter((c) => c.verdict === 'pass').length;
   const verdictLine = `${passing} of ${r.corners.length} corners pass`
-    + (lim ? `; limiting: ${lim.check} at ${lim.corner}${lim.margin === null ? ' (not measurable)' : `, margin ${signedTime(lim.margin)}`}` : '');
+    + (lim ? `; limiting: ${lim.check} at ${lim.corner}${lim.margin === null ? ' (not measurable)' : `, margin ${formatMargin(lim.margin, lim.kind)}`}` : '');
   const summary = summaryItems(m).map(([k, v]) => `<dt>${h(k)}</dt><dd>${h(v)}</dd>`).join('\n');
   const checkRows = m.checks.map((c) => ({
-    cells: [c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
+    cells: [c.kind, c.name, c.worst ? formatMargin(c.worst.margin, c.kind) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
       c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`],
     fail: c.failing > 0,
   }));
   const corners = cornerRows(m).map((row, i) => ({ cells: row, fail: r.corners[i]!.verdict === 'fail' }));
   const [a, b] = r.phases as [string, string];
-  const switches = m.resolved.design.switches.map((s) => ({
+  const switches = m.resolved.design.switches.map((s, k) => ({
     cells: [s.name, s.type, s.gate + (s.gateBar ? ` / ${s.gateBar}` : ''), `${formatEngineering(s.w, 'm')} / ${formatEngineering(s.l, 'm')}`,
-      s.levelShifter ? `level shifter ${formatTime(s.levelShifter.delay)}` : s.driver.length > 0 ? s.driver.map((d) => `${d.cell}x${d.size}`).join(' ') : 'direct'],
+      s.levelShifter ? `level shifter ${formatTime(s.levelShifter.delay)}, ${levelText(s.levelShifter.low)} .. ${levelText(s.levelShifter.high)}` : s.driver.length > 0 ? s.driver.map((d) => `${d.cell}x${d.size}`).join(' ') : 'direct',
+      m.resolved.switches[k]!.declared ? m.resolved.switches[k]!.terminals.map((t) => t.name).join(' / ') : 'undeclared (signal form)',
+      s.bulk === undefined ? 'default' : String(s.bulk)],
   }));
+  const nodes = nodeTable(m.resolved);
   const card = cardRows(m.resolved.card);
   return `<!DOCTYPE html>
 <html lang="en">
@@ -63,6 +68,12 @@ ${m.description ? `<p class="lede">${h(m.description)}</p>` : ''}
 ${r.cautions.map((c) => `<li>${h(c)}</li>`).join('\n')}
 </ul>
 </section>
+${r.warnings.length > 0 ? `<section class="cautions" id="warnings">
+<h2>Warnings: what the checks cannot see</h2>
+<ul>
+${r.warnings.map((w) => `<li>${h(w)}</li>`).join('\n')}
+</ul>
+</section>` : ''}
 <section id="summary">
 <h2>Summary</h2>
 <dl class="summary">
@@ -106,7 +117,12 @@ ${table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `g
 </section>
 ${switches.length > 0 ? `<section id="switches">
 <h2>Switches</h2>
-${table(['switch', 'type', 'gate net', 'W / L', 'drive'], switches, new Set())}
+${table(['switch', 'type', 'gate net', 'W / L', 'drive', 'terminals', 'body'], switches, new Set())}
+</section>` : ''}
+${nodes.rows.length > 0 ? `<section id="nodes">
+<h2>Node voltages per phase</h2>
+<p>What each switch terminal sees while each phase is active and in the dead time, as declared under <code>nodes</code>; volts at the card's nominal supply (${h(formatEngineering(m.resolved.card.vddNominal, 'V'))}). The off-state, on-state and stress checks read these at every corner's supply.</p>
+${table(nodes.head, nodes.rows, new Set())}
 </section>` : ''}
 <section id="process">
 <h2>Process card used: ${h(m.resolved.card.name)}</h2>

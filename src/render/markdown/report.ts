@@ -4,7 +4,9 @@
  */
 import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
-import { cardRows, confirmTables, cornerRows, fmaxText, signedTime, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, summaryItems, tuneTable } from '../report-text.js';
+import { formatMargin } from '../../report/margin-format.js';
+import { nodeTable } from '../node-table.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 import { markdownCode, markdownLine, markdownParagraph, markdownText, markdownUrl } from './text.js';
 
@@ -36,6 +38,10 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   out.push(`**${pass ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`}**: ${r.corners.filter((c) => c.verdict === 'pass').length} of ${r.corners.length} corners pass.`, '');
   out.push('> **Cautions**', '>');
   for (const c of r.cautions) out.push(`> - ${c}`);
+  if (r.warnings.length > 0) {
+    out.push('', '> **Warnings: what the checks cannot see**', '>');
+    for (const w of r.warnings) out.push(`> - ${markdownText(w)}`);
+  }
   out.push('', '## Summary', '');
   for (const [k, v] of summaryItems(m)) out.push(`- **${markdownText(k)}**: ${markdownText(v)}`);
   const worst = markdownText(m.worstCorner);
@@ -43,7 +49,7 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   out.push('## All corners overlaid', '', `![All corners overlaid](${markdownUrl(images.all)})`, '');
   out.push('## Margins', '', `![Margin of every check at every corner](${markdownUrl(images.margins)})`, '');
   out.push(table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], m.checks.map((c) => [
-    c.kind, c.name, c.worst ? signedTime(c.worst.margin) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
+    c.kind, c.name, c.worst ? formatMargin(c.worst.margin, c.kind) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
     c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
   ]), new Set([2])), '');
   if (m.tune) {
@@ -65,6 +71,11 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   out.push('## Corner table', '');
   out.push(table(['corner', `dead ${a}→${b}`, `dead ${b}→${a}`, `gap ${a}→${b}`, `gap ${b}→${a}`, `width ${a}`, `width ${b}`, 'least margin', 'verdict'],
     cornerRows(m), new Set([1, 2, 3, 4, 5, 6, 7])), '');
+  const nodes = nodeTable(m.resolved);
+  if (nodes.rows.length > 0) {
+    out.push('## Node voltages per phase', '', `Volts at the card's nominal supply; the bias checks read these at every corner's supply.`, '');
+    out.push(table(nodes.head, nodes.rows.map((row) => row.cells), new Set()), '');
+  }
   const card = cardRows(m.resolved.card);
   out.push(`## Process card used: ${markdownText(m.resolved.card.name)}`, '', `${markdownLine(`${m.resolved.card.description ?? ''}`)} Source: ${markdownCode(m.processSource)}.`.trimStart(), '');
   out.push(table(card.head, card.rows, new Set([1, 2])), '');

@@ -7,6 +7,7 @@
 import type { G } from '@svgdotjs/svg.js';
 import { scaleSymlog, type ScaleSymLog } from 'd3-scale';
 import type { MarginRow } from '../margins.js';
+import { marginUnit } from '../../checks/check.js';
 import {
   CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape,
 } from '../palette.js';
@@ -50,10 +51,10 @@ function signedTime(seconds: number): string {
   return `${seconds < 0 ? '-' : '+'}${text}`;
 }
 
-/** Decade ticks inside the domain: 0, +-10 ps, +-100 ps, +-1 ns, ... */
-export function decadeTicks(lo: number, hi: number): number[] {
+/** Decade ticks inside the domain: 0, +-10 ps, +-100 ps, +-1 ns, ... (decades 10^from .. 10^to; seconds by default). */
+export function decadeTicks(lo: number, hi: number, [from, to]: readonly [number, number] = [-11, 0]): number[] {
   const ticks = [0];
-  for (let k = -11; k <= 0; k++) {
+  for (let k = from; k <= to; k++) {
     const v = Number(`1e${k}`);
     if (v > Math.max(-lo, hi)) break;
     if (v <= hi) ticks.push(v);
@@ -91,6 +92,46 @@ function truncate(text: string, size: number, widthPx: number): string {
   return `${t}\u2026`;
 }
 
+/** The two kinds of margin on the chart, each on its own axis: timing (s) and switch bias (V). */
+interface AxisUnit {
+  readonly unit: 's' | 'V';
+  /** Width of the linear part around zero, and the least half-span of the axis. */
+  readonly linear: number;
+  readonly span: number;
+  /** Decade exponents of the ticks. */
+  readonly decades: readonly [number, number];
+  readonly tick: (value: number) => string;
+  readonly signed: (value: number) => string;
+  readonly title: string;
+}
+
+const TIME_AXIS: AxisUnit = {
+  unit: 's', linear: LINEAR_PART, span: 100e-12, decades: [-11, 0], tick: marginTickLabel, signed: signedTime,
+  title: 'margin (symmetric log scale: linear within 10 ps of zero)',
+};
+
+const VOLT_AXIS: AxisUnit = {
+  unit: 'V', linear: 10e-3, span: 100e-3, decades: [-2, 1], tick: voltTickLabel, signed: signedVolts,
+  title: 'switch bias margin in volts (off-state, on-state, stress; symmetric log: linear within 10 mV of zero)',
+};
+
+/** Signed voltage for axis ticks: +100 mV, -1 V, 0. */
+export function voltTickLabel(volts: number): string {
+  if (volts === 0) return '0';
+  const a = Math.abs(volts);
+  return `${volts > 0 ? '+' : '-'}${a >= 1 ? `${Number(a.toPrecision(3))} V` : `${Number((a * 1e3).toPrecision(3))} mV`}`;
+}
+
+function signedVolts(volts: number): string {
+  const a = Math.abs(volts);
+  return `${volts < 0 ? '-' : '+'}${a >= 1 ? `${a.toFixed(2)} V` : `${Math.round(a * 1e3)} mV`}`;
+}
+
+/** Vertical room of the axis under a block, px. */
+const AXIS_ROOM = 60;
+/** Room above a block's rows for its side labels, px. */
+const BLOCK_HEAD = 40;
+
 export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptions = {}): string {
   const width = options.width ?? 1200;
   const prefix = options.idPrefix ?? 'pgm';
@@ -98,40 +139,72 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
   const rowHeight = Math.max(30, lanes * 7 + 12);
   const x0 = MARGIN + LABEL_COLUMN;
   const x1 = width - MARGIN - RESULT_COLUMN;
-  const plotBottom = TOP + input.rows.length * rowHeight;
-  const height = plotBottom + 120;
+  const timeRows = input.rows.filter((r) => marginUnit(r.kind) === 's');
+  const voltRows = input.rows.filter((r) => marginUnit(r.kind) === 'V');
+  const blocks: Array<{ rows: readonly MarginRow[]; axis: AxisUnit }> = [];
+  if (timeRows.length > 0 || voltRows.length === 0) blocks.push({ rows: timeRows, axis: TIME_AXIS });
+  if (voltRows.length > 0) blocks.push({ rows: voltRows, axis: VOLT_AXIS });
+  let height = TOP;
+  for (const [k, b] of blocks.entries()) height += (k > 0 ? BLOCK_HEAD : 0) + b.rows.length * rowHeight + AXIS_ROOM;
+  const plotEnd = height;
+  height += 60;
   const canvas = createCanvas(width, height, `${input.title.design}: margin of every check at every corner`);
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
   const hatch = defineFailHatch(root, prefix);
   drawTitleBlock(root, input.title, width, MARGIN);
-  const margins = input.rows.flatMap((r) => r.points.map((p) => p.margin));
-  const lo = Math.min(-100e-12, ...margins) * 1.15;
-  const hi = Math.max(100e-12, ...margins) * 1.15;
-  const scale = scaleSymlog().constant(LINEAR_PART).domain([lo, hi]).range([x0, x1]);
-  const zero = scale(0);
-
-  const bg = root.group().attr({ class: 'chart-background' });
-  bg.rect(round(zero - x0), round(plotBottom - TOP)).move(round(x0), TOP).fill(hatch).attr({ 'fill-opacity': 0.35, class: 'fail-side' });
-  drawText(bg, `${GLYPH.fail} fails`, zero - 8, TOP - 12, { size: SIZE.small, anchor: 'end', fill: FAIL, bold: true, className: 'side-label' });
-  drawText(bg, `holds ${GLYPH.pass}`, zero + 8, TOP - 12, { size: SIZE.small, fill: INK, bold: true, className: 'side-label' });
-  drawText(bg, 'requirement (margin 0)', zero, TOP - 30, { size: SIZE.small, anchor: 'middle', fill: INK, className: 'zero-label' });
-  drawText(bg, 'check (requirement)', x0 - 10, TOP - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
-  drawText(bg, 'worst corner and verdict', x1 + 14, TOP - 12, { size: SIZE.small, fill: MUTED, bold: true, className: 'column-head' });
-  drawAxis(root.group(), scale, decadeTicks(lo, hi), plotBottom, TOP);
-  input.rows.forEach((row, i) => drawRow(root.group(), row, i, { top: TOP + i * rowHeight, height: rowHeight }, scale, input.processes, x0, x1));
-  root.line(round(zero), TOP - 22, round(zero), round(plotBottom)).stroke({ color: INK, width: 2 }).attr({ class: 'zero-line' });
-  drawLegend(root.group(), input.processes, MARGIN, plotBottom + 62);
+  let top = TOP;
+  for (const [k, block] of blocks.entries()) {
+    if (k > 0) top += BLOCK_HEAD;
+    const bottom = top + block.rows.length * rowHeight;
+    drawBlock(root, block.rows, block.axis, { top, bottom, rowHeight, x0, x1, hatch, first: k === 0 }, input.processes);
+    top = bottom + AXIS_ROOM;
+  }
+  drawLegend(root.group(), input.processes, MARGIN, plotEnd + 2);
   return canvas.finish();
 }
 
-function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly number[], y: number, top: number): void {
+interface BlockFrame {
+  readonly top: number;
+  readonly bottom: number;
+  readonly rowHeight: number;
+  readonly x0: number;
+  readonly x1: number;
+  readonly hatch: string;
+  readonly first: boolean;
+}
+
+/** One block of rows on its own symmetric-log axis, with its zero line and fail side. */
+function drawBlock(root: G, rows: readonly MarginRow[], axis: AxisUnit, f: BlockFrame, processes: readonly string[]): void {
+  const block = root.group().attr({ class: 'margin-block', 'data-unit': axis.unit });
+  const margins = rows.flatMap((r) => r.points.map((p) => p.margin));
+  const lo = Math.min(-axis.span, ...margins) * 1.15;
+  const hi = Math.max(axis.span, ...margins) * 1.15;
+  const scale = scaleSymlog().constant(axis.linear).domain([lo, hi]).range([f.x0, f.x1]);
+  const zero = scale(0);
+  const bg = block.group().attr({ class: 'chart-background' });
+  bg.rect(round(zero - f.x0), round(Math.max(1, f.bottom - f.top))).move(round(f.x0), f.top).fill(f.hatch).attr({ 'fill-opacity': 0.35, class: 'fail-side' });
+  drawText(bg, `${GLYPH.fail} fails`, zero - 8, f.top - 12, { size: SIZE.small, anchor: 'end', fill: FAIL, bold: true, className: 'side-label' });
+  drawText(bg, `holds ${GLYPH.pass}`, zero + 8, f.top - 12, { size: SIZE.small, fill: INK, bold: true, className: 'side-label' });
+  if (f.first) {
+    drawText(bg, 'requirement (margin 0)', zero, f.top - 30, { size: SIZE.small, anchor: 'middle', fill: INK, className: 'zero-label' });
+    drawText(bg, 'check (requirement)', f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
+    drawText(bg, 'worst corner and verdict', f.x1 + 14, f.top - 12, { size: SIZE.small, fill: MUTED, bold: true, className: 'column-head' });
+  } else {
+    drawText(bg, 'switch bias checks', f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
+  }
+  drawAxis(block.group(), scale, decadeTicks(lo, hi, axis.decades), f.bottom, f.top, axis);
+  rows.forEach((row, i) => drawRow(block.group(), row, i, { top: f.top + i * f.rowHeight, height: f.rowHeight }, scale, processes, f.x0, f.x1, axis));
+  block.line(round(zero), f.top - (f.first ? 22 : 4), round(zero), round(f.bottom)).stroke({ color: INK, width: 2 }).attr({ class: 'zero-line' });
+}
+
+function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly number[], y: number, top: number, axis: AxisUnit): void {
   g.attr({ class: 'margin-axis' });
   let lastRight = -Infinity;
   for (const t of ticks) {
     const x = scale(t);
     g.line(round(x), top, round(x), round(y)).stroke({ color: GRID, width: 1 });
-    const label = marginTickLabel(t);
+    const label = axis.tick(t);
     const w = textWidth(label, SIZE.tick);
     if (x - w / 2 < lastRight + 6) continue;
     lastRight = x + w / 2;
@@ -139,11 +212,11 @@ function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly numb
   }
   const [x0, x1] = scale.range() as [number, number];
   g.line(round(x0), round(y), round(x1), round(y)).stroke({ color: MUTED, width: 1 });
-  drawText(g, 'margin (symmetric log scale: linear within 10 ps of zero)', (x0 + x1) / 2, y + 38, { size: SIZE.small, anchor: 'middle', fill: MUTED, className: 'axis-title' });
+  drawText(g, axis.title, (x0 + x1) / 2, y + 38, { size: SIZE.small, anchor: 'middle', fill: MUTED, className: 'axis-title' });
 }
 
 function drawRow(g: G, row: MarginRow, index: number, band: { top: number; height: number }, scale: ScaleSymLog<number, number>,
-  processes: readonly string[], x0: number, x1: number): void {
+  processes: readonly string[], x0: number, x1: number, axis: AxisUnit): void {
   g.attr({ class: 'margin-row', 'data-check': row.name, 'data-kind': row.kind });
   if (index % 2 === 1) g.rect(round(x1 - x0), round(band.height)).move(round(x0), round(band.top)).fill('#f3f4f6').attr({ 'fill-opacity': 0.6 });
   const mid = band.top + band.height / 2;
@@ -165,7 +238,7 @@ function drawRow(g: G, row: MarginRow, index: number, band: { top: number; heigh
       .stroke({ color: INK, width: 1.5 }).attr({ class: 'worst-ring' });
   }
   const verdict = fail ? `${GLYPH.fail} FAIL at ${row.failing}/${row.corners}` : `${GLYPH.pass} holds at all ${row.corners}`;
-  const worst = row.worst ? `${signedTime(row.worst.margin)} at ${row.worst.corner}` : 'no margin measured';
+  const worst = row.worst ? `${axis.signed(row.worst.margin)} at ${row.worst.corner}` : 'no margin measured';
   drawText(g, worst, x1 + 14, mid - 2, { size: SIZE.small, fill: INK, className: 'worst-label', data: { margin: row.worst ? String(row.worst.margin) : '' } });
   const tail = row.unmeasured.length > 0 ? ` · ${GLYPH.unknown} ${row.unmeasured.length} unmeasured` : '';
   drawText(g, `${verdict}${tail}`, x1 + 14, mid + 12, { size: SIZE.small, fill: fail ? FAIL : MUTED, bold: fail, className: 'verdict-label' });

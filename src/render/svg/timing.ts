@@ -9,7 +9,7 @@ import { scaleLinear, type ScaleLinear } from 'd3-scale';
 import type { Diagram, DiagramRow, SpanMark, SwitchRow } from '../diagram.js';
 import type { TimeWindow } from '../windows.js';
 import { wavePoints } from '../waveform.js';
-import { formatSignedTime, formatTime } from '../../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime } from '../../units/format.js';
 import {
   CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
 } from '../palette.js';
@@ -209,7 +209,7 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   }
   if (detail) drawDeadZones(ctx, clipped, w, scale, layout);
   ctx.d.rows.forEach((row, i) => drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail));
-  ctx.d.switches.forEach((s, i) => drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale));
+  ctx.d.switches.forEach((s, i) => drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail));
   if (detail) {
     drawDeadMarks(ctx, panel, w, scale, layout);
     drawBbmMarks(ctx, panel, w, scale, layout);
@@ -281,12 +281,13 @@ function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, w: TimeW
   }
 }
 
-function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>): void {
+function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, detail = false): void {
   const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
   const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
   const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
   const h = Math.min(12, band.height * 0.55);
   const y = band.top + (band.height - h) / 2;
+  drawOffIntervals(ctx, lg, s, band, w, scale, !detail);
   if (s.windows.length === 0) return;
   const wide = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
   const narrow = { on: Math.max(...s.windows.map((x) => x.onLatest)), off: Math.min(...s.windows.map((x) => x.offEarliest)) };
@@ -301,6 +302,56 @@ function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWin
     bar(wide.on, wide.off, tint, 'conduction-wide');
     if (narrow.off > narrow.on) bar(narrow.on, narrow.off, colour, 'conduction-narrow');
   }
+}
+
+/**
+ * Along a switch's lane, a thin strip over every interval in which it must be off: grey where its
+ * gate holds it off against both terminals, a full-height hatched bar where it does not (the
+ * off-state check), with the verdict and margin written in the widest interval that has room.
+ */
+function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, label: boolean): void {
+  const off = s.offState;
+  if (!off) return;
+  const og = g.group().attr({
+    class: off.pass ? 'off-state' : 'off-state fail', 'data-margin': String(off.margin), 'data-corner': off.corner, 'data-phase': off.phase,
+  });
+  const h = off.pass ? 3 : Math.min(12, band.height * 0.55);
+  const y = band.top + (band.height - h) / 2;
+  const spans: Array<{ xa: number; xb: number }> = [];
+  for (const k of [-2, -1, 0, 1, 2]) {
+    const shift = k * ctx.d.period;
+    for (const i of off.intervals) {
+      const xa = Math.max(scale(w.from) - 2, scale(i.start + shift));
+      const xb = Math.min(scale(w.to) + 2, scale(i.end + shift));
+      if (xb <= xa) continue;
+      og.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(off.pass ? FAINT : ctx.hatch)
+        .stroke({ color: off.pass ? MUTED : FAIL, width: 0.5 }).attr({ class: 'off-interval', 'data-state': i.state });
+      spans.push({ xa, xb });
+    }
+  }
+  // Adjacent intervals (a phase and the dead time after it) make one run for the label.
+  spans.sort((a, b) => a.xa - b.xa);
+  let widest: { xa: number; xb: number } | null = null;
+  let run: { xa: number; xb: number } | null = null;
+  for (const span of spans) {
+    run = run && span.xa <= run.xb + 1 ? { xa: run.xa, xb: Math.max(run.xb, span.xb) } : { ...span };
+    if (widest === null || run.xb - run.xa > widest.xb - widest.xa) widest = run;
+  }
+  const text = offStateText(s);
+  const width = textWidth(text, SIZE.small, !off.pass);
+  if (label && widest && width + 12 <= widest.xb - widest.xa) {
+    og.rect(round(width + 8), 13).move(round(widest.xa + 2), round(band.top + band.height / 2 - 6.5)).fill(PAPER).attr({ class: 'off-state-label-ground' });
+    drawText(og, text, widest.xa + 6, band.top + band.height / 2 + 4,
+      { size: SIZE.small, fill: off.pass ? MUTED : FAIL, bold: !off.pass, className: 'off-state-label' });
+  }
+}
+
+/** The off-state verdict in a switch's lane: `off: holds +55.0 mV` or `off: FAILS -1.53 V in p2, reverse conduction`. */
+export function offStateText(s: SwitchRow): string {
+  const off = s.offState;
+  if (!off) return '';
+  const volts = off.margin === null ? 'n/a' : `${off.margin < 0 ? '-' : '+'}${formatEngineering(Math.abs(off.margin), 'V')}`;
+  return off.pass ? `off: holds ${volts}` : `${GLYPH.fail} off: FAILS ${volts} in ${off.phase.replace(/^phase /, '')}${/reverse conduction/.test(off.detail) ? ', reverse conduction' : ''}`;
 }
 
 function markX(mark: SpanMark, w: TimeWindow, period: number, scale: ScaleLinear<number, number>): { xs: number; xe: number } | null {
@@ -443,6 +494,7 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean)
     const band = layout.switches[i]!;
     const text = truncate(`${s.name} (${s.type})`, SIZE.small, room, false);
     drawText(g, text, x, band.top + band.height / 2 + 4, { size: SIZE.small, anchor: 'end', fill: INK, className: 'switch-label', data: { switch: s.name } });
+
     if (detail && s.problems.length > 0) {
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
@@ -490,6 +542,9 @@ function drawLegend(ctx: Context, x: number, y: number, width: number): void {
     item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 }); }, 'switch conducts at some signal level');
     item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE[0]); }, 'at every signal level');
     item2((gx) => { g.rect(24, 8).move(round(gx), round(y2 + 4)).fill(FAINT).attr({ 'fill-opacity': 0.55 }); }, 'guard time');
+    if (ctx.d.switches.some((s) => s.offState)) {
+      item2((gx) => { g.rect(24, 3).move(round(gx), round(y2 + 7)).fill(FAINT).stroke({ color: MUTED, width: 0.5 }); }, 'must be off: the gate holds it off against both terminals');
+    }
   }
   if (ctx.d.mode === 'all') {
     item2((gx) => { g.polygon(points([[gx, y2 + 14], [gx + 10, y2 + 2], [gx + 24, y2 + 2], [gx + 14, y2 + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); },

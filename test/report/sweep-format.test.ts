@@ -1,0 +1,52 @@
+import { describe, it, expect } from 'vitest';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { resolveDesign } from '../../src/analysis/resolve.js';
+import { parseAxis, summarizePoint, sweepColumns } from '../../src/analysis/sweep.js';
+import { loadDesign } from '../../src/cli/load.js';
+import { csvHeader, csvRow } from '../../src/report/sweep-format.js';
+import { design } from '../helpers.js';
+
+function row(name: string) {
+  const { design: d, card } = loadDesign(design(name), ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]']);
+  const resolved = resolveDesign(d, card);
+  return { r: summarizePoint(0, [20e6], evaluateAll(resolved)), columns: sweepColumns(resolved) };
+}
+
+describe('csvHeader and csvRow', () => {
+  const axes = [parseAxis('clock.frequency=20MHz')];
+
+  it('put a timing limit under limiting_margin_s and names each check column with its unit', () => {
+    const { r, columns } = row('doubler');
+    const header = csvHeader(axes, columns).trim().split(',');
+    const cells = csvRow(r, columns).trim().split(',');
+    const at = (col: string) => cells[header.indexOf(col)];
+    expect(r.limiting?.kind).toBe('dead-time-min');
+    expect(Number(at('limiting_margin_s'))).toBeCloseTo(r.limiting!.margin!, 15);
+    expect(at('limiting_margin_V')).toBe('');
+    expect(header).toContain('margin_V: s_chg holds off');
+    expect(header).toContain('margin_s: dead p1->p2 >= 500 ps');
+  });
+
+  it('put a failing switch bias check under limiting_margin_V', () => {
+    const { r, columns } = row('doubler-unboosted');
+    const header = csvHeader(axes, columns).trim().split(',');
+    const cells = csvRow(r, columns).trim().split(',');
+    expect(r.limiting?.kind).toBe('stress');
+    expect(cells[header.indexOf('limiting_margin_s')]).toBe('');
+    // Junction forward bias at tt/1.8V: the top plate at 2 VDD = 3.6 V over a 1.8 V body.
+    expect(Number(cells[header.indexOf('limiting_margin_V')])).toBeCloseTo(-1.8, 12);
+  });
+});
+
+describe('csvRow with names a spreadsheet would run', () => {
+  it('puts an apostrophe before a text cell that starts with =, +, - or @, and leaves negative numbers alone', () => {
+    const columns = { deadTimes: [], widths: [], checks: ['=HYPERLINK("x")'], voltChecks: [] };
+    const row = {
+      index: 0, point: ['@SUM(A1)'], corners: 1, verdict: 'fail' as const,
+      limiting: { corner: '+tt', check: '=HYPERLINK("x")', kind: 'order' as const, margin: -2e-12 },
+      deadTimes: [], widths: [], checks: [{ name: '=HYPERLINK("x")', kind: 'order', margin: -2e-12 }],
+    };
+    expect(csvHeader([{ path: '-x', values: [1] }], columns)).toBe(`'-x,corners,verdict,limiting_corner,limiting_check,limiting_margin_s,limiting_margin_V,"margin_s: =HYPERLINK(""x"")"\n`);
+    expect(csvRow(row as never, columns)).toBe(`'@SUM(A1),1,fail,'+tt,"'=HYPERLINK(""x"")",-2e-12,,-2e-12\n`);
+  });
+});
