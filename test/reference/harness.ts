@@ -87,6 +87,8 @@ export interface PhaseFigures {
   readonly dead: readonly [number, number];
   /** p1 -> p2 and p2 -> p1 at 10 % of the supply. */
   readonly gap: readonly [number, number];
+  /** The model's gap less its stated error band, what its checks read (ngspice: the gap itself). */
+  readonly bound: readonly [number, number];
   /** 10-90 % time of p1 rise, p1 fall, p2 rise, p2 fall. */
   readonly edges: readonly [number, number, number, number];
 }
@@ -101,6 +103,7 @@ export function spicePhases(corner: string, m: Record<string, number>): PhaseFig
     corner,
     dead: [need('p2r50') - need('p1f50'), need('p1r50') - need('p2f50')],
     gap: [need('p2r10') - need('p1f10'), need('p1r10') - need('p2f10')],
+    bound: [need('p2r10') - need('p1f10'), need('p1r10') - need('p2f10')],
     edges: [need('p1r90') - need('p1r10'), need('p1f10') - need('p1f90'), need('p2r90') - need('p2r10'), need('p2f10') - need('p2f90')],
   };
 }
@@ -117,6 +120,7 @@ export function modelPhases(resolved: ResolvedDesign): PhaseFigures[] {
       corner: r.corner.name,
       dead: [m.deadTimes[0].t50, m.deadTimes[1].t50],
       gap: [m.deadTimes[0].gap, m.deadTimes[1].gap],
+      bound: [m.deadTimes[0].gapBound, m.deadTimes[1].gapBound],
       edges: [e(c1.riseTransition), e(c1.fallTransition), e(c2.riseTransition), e(c2.fallTransition)],
     };
   });
@@ -146,6 +150,8 @@ export interface GeneratorComparison {
   readonly deadErrors: number[];
   /** model - ngspice of every clean gap, s (positive: the model is optimistic). */
   readonly gapErrors: number[];
+  /** The same for the gap the checks read (less the model's error band), s. */
+  readonly boundErrors: number[];
   /** (model - ngspice) / ngspice of every phase edge's 10-90 % time. */
   readonly edgeErrors: number[];
   /** Spearman rank correlation of the p1 -> p2 dead times over the corners. */
@@ -159,17 +165,19 @@ export async function compareGenerator(design: string, deck: string): Promise<Ge
   const spice = runs.map((m, i) => spicePhases(resolved.corners[i]!.corner.name, m));
   const deadErrors: number[] = [];
   const gapErrors: number[] = [];
+  const boundErrors: number[] = [];
   const edgeErrors: number[] = [];
   model.forEach((m, i) => {
     const s = spice[i]!;
     for (let k = 0; k < 2; k++) {
       deadErrors.push((m.dead[k]! - s.dead[k]!) / s.dead[k]!);
       gapErrors.push(m.gap[k]! - s.gap[k]!);
+      boundErrors.push(m.bound[k]! - s.gap[k]!);
     }
     for (let k = 0; k < 4; k++) edgeErrors.push((m.edges[k]! - s.edges[k]!) / s.edges[k]!);
   });
   const rank = sampleRankCorrelation(model.map((m) => m.dead[0]), spice.map((s) => s.dead[0]));
-  return { model, spice, deadErrors, gapErrors, edgeErrors, rank };
+  return { model, spice, deadErrors, gapErrors, boundErrors, edgeErrors, rank };
 }
 
 export function median(values: readonly number[]): number {
