@@ -38,23 +38,44 @@ class AnalyticTiming implements GateTiming {
   /** responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge. */
   constructor(readonly table: Float64Array, readonly responses: RampResponse[]) {}
 
+  /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
+  private lastEdge = -1;
+  private lastInput = NaN;
+  private lastPosition = 0;
+
+  /** Called when the table is rebound: the remembered position belonged to the old taus. */
+  forget(): void {
+    this.lastEdge = -1;
+  }
+
+  private position(edge: number, tau: number, inputTransition: number): number {
+    if (edge !== this.lastEdge || inputTransition !== this.lastInput) {
+      this.lastEdge = edge;
+      this.lastInput = inputTransition;
+      this.lastPosition = RampResponse.sPosition(inputTransition / tau);
+    }
+    return this.lastPosition;
+  }
+
   delay(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
-    const i = gate * STRIDE + (outputRising ? 0 : 2);
+    const edge = 2 * gate + (outputRising ? 0 : 1);
+    const i = 2 * edge;
     const tau = this.table[i]!;
-    return tau * this.responses[2 * gate + (outputRising ? 0 : 1)]!.delay(this.table[i + 1]!, inputTransition / tau);
+    return tau * this.responses[edge]!.at(this.table[i + 1]!, this.position(edge, tau, inputTransition), 0);
   }
 
   transition(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
-    const i = gate * STRIDE + (outputRising ? 0 : 2);
+    const edge = 2 * gate + (outputRising ? 0 : 1);
+    const i = 2 * edge;
     const tau = this.table[i]!;
-    return tau * this.responses[2 * gate + (outputRising ? 0 : 1)]!.transition(this.table[i + 1]!, inputTransition / tau);
+    return tau * this.responses[edge]!.at(this.table[i + 1]!, this.position(edge, tau, inputTransition), 1);
   }
 
   crossing(gate: number, _pin: number, outputRising: boolean, inputTransition: number, level: number): number {
-    const i = gate * STRIDE + (outputRising ? 0 : 2);
+    const edge = 2 * gate + (outputRising ? 0 : 1);
+    const i = 2 * edge;
     const tau = this.table[i]!;
-    const response = this.responses[2 * gate + (outputRising ? 0 : 1)]!;
-    return tau * response.crossing(this.table[i + 1]!, inputTransition / tau, outputRising ? 1 - level : level);
+    return tau * this.responses[edge]!.crossing(this.table[i + 1]!, inputTransition / tau, outputRising ? 1 - level : level);
   }
 }
 
@@ -116,7 +137,11 @@ export const analyticModel: DelayModel = {
       table[i + 2] = (load * vdd) / downCurrent;
       table[i + 3] = RampResponse.vtPosition(vthN / vdd);
     }
-    return recycled ?? new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, null));
+    if (recycled) {
+      recycled.forget();
+      return recycled;
+    }
+    return new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, null));
   },
 };
 

@@ -31,8 +31,9 @@ const VT_POINTS = 20;
 /** Grid in s: (k * Q_STEP)^2 for k = 0 .. S_POINTS - 1, up to s = 64. */
 const Q_STEP = 0.25;
 const S_POINTS = 33;
-/** Per grid point: delay, then the time of each level from the 50 % point. */
-const STRIDE = 1 + LEVELS;
+/** Per grid point: delay, full-swing transition, then the time of each level from the 50 % point. */
+const STRIDE = 2 + LEVELS;
+const FIRST_LEVEL = 2;
 
 /** Input transition on the grid, in tau. */
 export function gridTransition(k: number): number {
@@ -70,13 +71,16 @@ export function solveEdge(alpha: number, vT: number, s: number, depth = 1): { de
     return pull(vin, v, depth) - pull(1 - vin, 1 - v, 1);
   };
   const crossings = new Float64Array(LEVELS);
-  const h = 0.004 * (1 + s);
+  // RK4 is stable for h * |dI/dV| < 2.78; below V_Dsat |dI/dV| <= 2 / d0, and below d0 = 0.03 the
+  // edge is past its last recorded level.
+  const h = Math.min(0.004 * (1 + s), 0.8 * Math.max(d0, 0.03));
+  const end = s + 1000;
   // The output cannot move before the input passes the threshold.
   let t = s > 0 ? vT * s : 0;
   let v = 1;
   let next = 0;
   let t50 = NaN;
-  while (next < LEVELS || Number.isNaN(t50)) {
+  while ((next < LEVELS || Number.isNaN(t50)) && t < end) {
     const k1 = current(t, v);
     const k2 = current(t + h / 2, v - (h / 2) * k1);
     const k3 = current(t + h / 2, v - (h / 2) * k2);
@@ -90,6 +94,9 @@ export function solveEdge(alpha: number, vT: number, s: number, depth = 1): { de
     v = nv;
     t += h;
   }
+  // Only reached if the output stalled (it cannot at a stable step): the levels not crossed count as now.
+  if (Number.isNaN(t50)) t50 = t;
+  for (; next < LEVELS; next++) crossings[next] = t;
   for (let i = 0; i < LEVELS; i++) crossings[i]! -= t50;
   return { delay: t50 - s / 2, crossings };
 }
@@ -111,7 +118,8 @@ export class RampResponse {
           const { delay, crossings } = solveEdge(alpha, a * VT_STEP, gridTransition(k), depth);
           const i = (a * S_POINTS + k) * STRIDE;
           grid[i] = delay;
-          grid.set(crossings, i + 1);
+          grid[i + 1] = (crossings[17]! - crossings[1]!) / 0.8;
+          grid.set(crossings, i + FIRST_LEVEL);
         }
       }
       table = new RampResponse(alpha, depth, grid);
@@ -126,17 +134,23 @@ export class RampResponse {
     return Math.min(p, VT_POINTS - 1 - 1e-9);
   }
 
-  /**
-   * Entry `field` (0 = delay, 1 + i = time of level i from the 50 % point) at v_T position `vtPos`
-   * (from vtPosition) and input transition s, in tau; linear in s, extrapolated past the grid.
-   */
-  value(vtPos: number, s: number, field: number): number {
-    const a = vtPos | 0;
-    const wa = vtPos - a;
+  /** Position of input transition s (in tau) on the grid: index of the segment plus the weight of its end (above 1 past the grid). */
+  static sPosition(s: number): number {
     const q = Math.sqrt(s > 0 ? s : 0) / Q_STEP;
     const k = q >= S_POINTS - 1 ? S_POINTS - 2 : q | 0;
     const s0 = gridTransition(k);
-    const ws = (s - s0) / (gridTransition(k + 1) - s0);
+    return k + (s - s0) / (gridTransition(k + 1) - s0);
+  }
+
+  /**
+   * Entry `field` at v_T position `vtPos` (vtPosition) and transition position `sPos` (sPosition),
+   * in tau: bilinear, linear in s past the grid.
+   */
+  at(vtPos: number, sPos: number, field: number): number {
+    const a = vtPos | 0;
+    const wa = vtPos - a;
+    const k = Math.min(sPos | 0, S_POINTS - 2);
+    const ws = sPos - k;
     const g = this.grid;
     const i0 = (a * S_POINTS + k) * STRIDE + field;
     const i1 = i0 + S_POINTS * STRIDE;
@@ -147,7 +161,12 @@ export class RampResponse {
 
   /** Delay from input 50 % to output 50 %, tau. */
   delay(vtPos: number, s: number): number {
-    return this.value(vtPos, s, 0);
+    return this.at(vtPos, RampResponse.sPosition(s), 0);
+  }
+
+  /** Full-swing transition time extrapolated from the 10-90 % time, tau. */
+  transition(vtPos: number, s: number): number {
+    return this.at(vtPos, RampResponse.sPosition(s), 1);
   }
 
   /**
@@ -156,15 +175,11 @@ export class RampResponse {
    * recorded 5 % levels, clamped to 0.05 ... 0.95.
    */
   crossing(vtPos: number, s: number, remaining: number): number {
+    const sPos = RampResponse.sPosition(s);
     const p = Math.min(Math.max((1 - remaining) / LEVEL_STEP - 1, 0), LEVELS - 1);
     const i = Math.min(p | 0, LEVELS - 2);
     const w = p - i;
-    const lo = this.value(vtPos, s, 1 + i);
-    return lo + w * (this.value(vtPos, s, 2 + i) - lo);
-  }
-
-  /** Full-swing transition time extrapolated from the 10-90 % time, tau. */
-  transition(vtPos: number, s: number): number {
-    return (this.value(vtPos, s, 1 + 17) - this.value(vtPos, s, 1 + 1)) / 0.8;
+    const lo = this.at(vtPos, sPos, FIRST_LEVEL + i);
+    return lo + w * (this.at(vtPos, sPos, FIRST_LEVEL + 1 + i) - lo);
   }
 }

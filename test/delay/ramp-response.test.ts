@@ -27,6 +27,16 @@ describe('solveEdge', () => {
     expect(delay).toBeLessThan(0.1 * s);
   });
 
+  it('stays stable near alpha = 1, where the triode region is thin: every level crossed, in order', () => {
+    for (const s of [0, 10, 64]) {
+      const { delay, crossings } = solveEdge(1.05, 0.25, s);
+      expect(Number.isFinite(delay)).toBe(true);
+      for (let i = 1; i < crossings.length; i++) expect(crossings[i]!).toBeGreaterThan(crossings[i - 1]!);
+    }
+    // A step at alpha ~ 1 stays saturated to the end: the 50 % point at half a tau.
+    expectClose(solveEdge(1.05, 0.25, 0).delay, 0.5, 1e-6);
+  });
+
   it('records level crossings in order around the 50 % point', () => {
     const { crossings } = solveEdge(1.4, 0.3, 2);
     for (let i = 1; i < crossings.length; i++) expect(crossings[i]!).toBeGreaterThan(crossings[i - 1]!);
