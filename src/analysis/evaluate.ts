@@ -66,7 +66,7 @@ export class CornerEvaluator {
     const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, this.runOptions);
     const cycles = this.borrow && this.cycles ? this.cycles.reset(simulation) : new CycleIndex(simulation, netlist);
     if (this.borrow) this.cycles = cycles;
-    const measurement = measurePhases(simulation, netlist, cycles);
+    const measurement = measurePhases(simulation, netlist, cycles, { level: design.requirements.gap?.level, timing, band: model.gapBand });
     const checks = requirementChecks(measurement, design.requirements, this.widthContext, this.resolved.labels);
     const switches: SwitchConduction[] = [];
     if (measurement.ok) {

@@ -1,7 +1,7 @@
 /** Requirement checks on a corner's phase measurements (dead time, clean gap, width, overlap). */
 import type { Requirements } from '../schema/design.js';
 import { formatTime } from '../units/format.js';
-import type { MeasurementFailure, PhaseMeasurement } from '../measure/phases.js';
+import { GAP_LEVEL, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { marginCheck, type Check } from './check.js';
 
 export interface WidthContext {
@@ -25,6 +25,8 @@ export interface RequirementLabels {
   readonly deadMin: readonly [string, string];
   readonly deadMax: readonly [string, string];
   readonly gapMin: readonly [string, string];
+  /** The overlap check, at the gap level. */
+  readonly overlap: string;
   /** Per phase or early phase. */
   readonly widthMin: Readonly<Record<string, string>>;
 }
@@ -38,6 +40,7 @@ export function requirementLabels(req: Requirements, phases: readonly [string, s
     deadMin: pair('dead', '>=', req.deadTime?.min),
     deadMax: pair('dead', '<=', req.deadTime?.max),
     gapMin: pair('gap', '>=', req.gap?.min),
+    overlap: `phases never both above ${Math.round((req.gap?.level ?? GAP_LEVEL) * 1000) / 10} % of swing`,
     widthMin: Object.fromEntries(widthNets.map((n) => [n, `width ${n} >= ${show(req.width?.min)}`])),
   };
 }
@@ -46,7 +49,7 @@ export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req:
   labels: RequirementLabels): Check[] {
   if (!m.ok) return [{ kind: 'steady-state', name: 'periodic steady state', margin: null, pass: false, detail: m.reason }];
   const checks: Check[] = [];
-  checks.push(marginCheck('non-overlap', 'phases never active together', Math.min(m.deadTimes[0].t50, m.deadTimes[1].t50)));
+  checks.push(marginCheck('non-overlap', labels.overlap, Math.min(m.deadTimes[0].gapBound, m.deadTimes[1].gapBound)));
   const min = req.deadTime?.min;
   const max = req.deadTime?.max;
   const gap = req.gap?.min;
@@ -54,7 +57,7 @@ export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req:
     const d = m.deadTimes[k]!;
     if (min !== undefined) checks.push(marginCheck('dead-time-min', labels.deadMin[k]!, d.t50 - min));
     if (max !== undefined) checks.push(marginCheck('dead-time-max', labels.deadMax[k]!, max - d.t50));
-    if (gap !== undefined) checks.push(marginCheck('gap-min', labels.gapMin[k]!, d.gap - gap));
+    if (gap !== undefined) checks.push(marginCheck('gap-min', labels.gapMin[k]!, d.gapBound - gap));
   }
   const minWidth = req.width?.min;
   if (minWidth !== undefined) {

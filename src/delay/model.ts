@@ -11,6 +11,12 @@ export interface GateTiming {
   delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number;
   /** Full-swing transition time of that output edge, s. */
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number;
+  /**
+   * Time from that output edge's 50 % point to where it crosses `level` (fraction of the supply
+   * above ground), s; negative before the 50 % point. A model without it leaves the edge a
+   * linear ramp of its transition time.
+   */
+  crossing?(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number;
 }
 
 /** Per-gate threshold shifts from local mismatch, V, added to the corner's threshold magnitude. */
@@ -21,6 +27,11 @@ export interface Mismatch {
 
 export interface DelayModel {
   readonly name: string;
+  /**
+   * How far the model's clean gap may be optimistic, as a fraction of the 50 % dead time,
+   * measured against transistor-level references; checks read the gap less this band.
+   */
+  readonly gapBand?: number;
   /**
    * Binds the model to a netlist, its net loads (F) and a corner. Throws an InputError if the
    * corner is outside what the model can answer for. `reuse`, a timing this model bound earlier

@@ -1,10 +1,12 @@
 /**
  * Measurements of one simulated period (SPEC 2.3): both dead times at the 50 % points, the clean
- * gap where neither phase is above 10 % of its swing, each phase's active width and duty, and
- * any overlap. All times in seconds.
+ * gap where neither phase is above a level of its swing (10 % unless the design says otherwise),
+ * each phase's active width and duty, and any overlap at that level. All times in seconds.
  */
+import type { GateTiming } from '../delay/model.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { SimulationResult } from '../sim/engine.js';
+import { linearCrossings, modelCrossings, type LevelCrossings } from './levels.js';
 
 /** One rising and one falling edge of a net in the period, with their transition times. */
 export interface NetCycle {
@@ -23,8 +25,10 @@ export interface DeadTime {
   readonly to: string;
   /** From's falling 50 % point to to's rising 50 % point, s; negative when they overlap. */
   readonly t50: number;
-  /** From's falling 10 % point to to's rising 10 % point, s. */
+  /** Clean gap: from's falling edge passing the gap level to to's rising edge passing it, s; negative when both are above it together. */
   readonly gap: number;
+  /** The clean gap less the delay model's stated error band (what checks read), s. */
+  readonly gapBound: number;
   /** Time of from's falling 50 % point, s (absolute). */
   readonly start: number;
 }
@@ -36,8 +40,10 @@ export interface PhaseMeasurement {
   readonly widths: Readonly<Record<string, number>>;
   /** Active width over the period. */
   readonly duty: Readonly<Record<string, number>>;
-  /** Largest time both phases are above 50 % together, s (0 if none). */
+  /** Largest time both phases are above the gap level together, s (0 if none). */
   readonly overlap: number;
+  /** The gap level, fraction of the swing. */
+  readonly level: number;
   /** Edges of every named net (phases, complements, early phases). */
   readonly cycles: Readonly<Record<string, NetCycle>>;
 }
@@ -47,7 +53,7 @@ export interface MeasurementFailure {
   readonly reason: string;
 }
 
-/** Fraction of the swing at which the clean gap is measured. */
+/** Fraction of the swing at which the clean gap is measured unless the design sets another. */
 export const GAP_LEVEL = 0.1;
 
 /**
@@ -142,15 +148,27 @@ export function highWidth(cycle: NetCycle, period: number): number {
 
 /**
  * Dead time from `a` turning off to `b` turning on. If b rises while a is low, the dead time is
- * the (positive) wait; if b rises while a is still high, it is minus the time they overlap.
+ * the (positive) wait; if b rises while a is still high, it is minus the time they overlap. The
+ * clean gap takes each edge's crossing of the gap level (linear ramps at 10 % unless given).
  */
-export function deadTime(a: NetCycle, b: NetCycle, period: number): DeadTime {
+export function deadTime(a: NetCycle, b: NetCycle, period: number,
+  aLevels: LevelCrossings = linearCrossings(a, GAP_LEVEL), bLevels: LevelCrossings = linearCrossings(b, GAP_LEVEL), band = 0): DeadTime {
   const t50 = handover(a.fall, a.rise, b.rise, period);
-  const gap = t50 - (0.5 - GAP_LEVEL) * (a.fallTransition + b.riseTransition);
-  return { from: a.net, to: b.net, t50, gap, start: a.fall };
+  const gap = t50 + bLevels.rise - aLevels.fall;
+  return { from: a.net, to: b.net, t50, gap, gapBound: gap - band * Math.abs(t50), start: a.fall };
 }
 
-export function measurePhases(result: SimulationResult, netlist: CompiledNetlist, index = new CycleIndex(result, netlist)): PhaseMeasurement | MeasurementFailure {
+/** How the gap is measured: at which level, and with which model's edge shapes (linear ramps without one). */
+export interface GapOptions {
+  /** Fraction of the swing, 0 < level < 0.5. */
+  readonly level?: number;
+  readonly timing?: GateTiming;
+  /** The delay model's gap error band, fraction of the dead time (DelayModel.gapBand). */
+  readonly band?: number;
+}
+
+export function measurePhases(result: SimulationResult, netlist: CompiledNetlist, index = new CycleIndex(result, netlist),
+  options: GapOptions = {}): PhaseMeasurement | MeasurementFailure {
   if (result.status !== 'settled') return { ok: false, reason: result.reason };
   const src = netlist.source;
   const names = [...src.phases, ...Object.values(src.complements), ...Object.values(src.early)];
@@ -164,13 +182,17 @@ export function measurePhases(result: SimulationResult, netlist: CompiledNetlist
   const c1 = cycles[p1]!;
   const c2 = cycles[p2]!;
   const T = result.period;
-  const deadTimes: [DeadTime, DeadTime] = [deadTime(c1, c2, T), deadTime(c2, c1, T)];
+  const level = options.level ?? GAP_LEVEL;
+  const timing = options.timing;
+  const l1 = timing ? modelCrossings(c1, index, netlist, timing, level) : linearCrossings(c1, level);
+  const l2 = timing ? modelCrossings(c2, index, netlist, timing, level) : linearCrossings(c2, level);
+  const deadTimes: [DeadTime, DeadTime] = [deadTime(c1, c2, T, l1, l2, options.band), deadTime(c2, c1, T, l2, l1, options.band)];
   const widths: Record<string, number> = {};
   const duty: Record<string, number> = {};
   for (const name of [p1, p2, ...Object.values(src.early)]) {
     widths[name] = highWidth(cycles[name]!, T);
     duty[name] = widths[name] / T;
   }
-  const overlap = Math.max(0, -deadTimes[0].t50, -deadTimes[1].t50);
-  return { ok: true, deadTimes, widths, duty, overlap, cycles };
+  const overlap = Math.max(0, -deadTimes[0].gap, -deadTimes[1].gap);
+  return { ok: true, deadTimes, widths, duty, overlap, level, cycles };
 }

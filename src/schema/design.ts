@@ -87,7 +87,8 @@ export const requirementsSchema = z.strictObject({
     max: quantity('s', 'Largest allowed dead time at the 50 % points', { above: 0 }).optional(),
   }).optional(),
   gap: z.strictObject({
-    min: quantity('s', 'Smallest allowed clean gap (neither phase above 10 % of its swing)').optional(),
+    min: quantity('s', 'Smallest allowed clean gap (neither phase above the gap level)').optional(),
+    level: ratio('Fraction of the swing below which a phase counts as off, for the clean gap and the overlap check (default 0.1)', { above: 0, below: 0.5 }).optional(),
   }).optional(),
   width: z.strictObject({
     min: quantity('s', 'Shortest allowed active width of each phase, at the worst duty within tolerance', { above: 0 }).optional(),

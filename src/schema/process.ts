@@ -60,6 +60,7 @@ export const processSchema = z.strictObject({
   }).describe('The unit inverter: size s of any cell drives like an inverter s times this one'),
   n: deviceSchema.describe('N-channel device'),
   p: deviceSchema.describe('P-channel device'),
+  avtConvention: z.enum(['pair', 'device']).default('pair').describe('What avt is the coefficient of: "pair" (Pelgrom 1989: sigma of the difference of a matched pair, so one device gets avt/sqrt(2WL)) or "device" (one device, avt/sqrt(WL))'),
   corners: z.record(patterned(/^[A-Za-z0-9_-]+$/, 'must use letters, digits, _ and -'), z.strictObject({
     n: cornerShiftSchema.default({ dvth: 0, drive: 1 }),
     p: cornerShiftSchema.default({ dvth: 0, drive: 1 }),

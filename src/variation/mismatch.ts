@@ -1,6 +1,9 @@
 /**
  * Local threshold mismatch (M. Pelgrom, A. Duinmaijer, A. Welbers, "Matching properties of MOS
- * transistors", IEEE JSSC 24(5):1433-1439, 1989): sigma(dVth) = A_VT / sqrt(W * L) per device.
+ * transistors", IEEE JSSC 24(5):1433-1439, 1989). Pelgrom's A_VT is the coefficient of the
+ * difference of a matched pair, sigma(Vth1 - Vth2) = A_VT / sqrt(W * L); the two devices vary
+ * independently, so one device has sigma(dVth) = A_VT / sqrt(2 * W * L). A card whose avt is
+ * already per device says `avtConvention: device`.
  *
  * Each sample is one die: every device of every instance gets an independent draw, the same at
  * every corner. A cell's pull network takes the mean of its devices' shifts where they are in
@@ -21,9 +24,11 @@ export interface SampleMismatch extends Mismatch {
   readonly switches: readonly Float64Array[];
 }
 
-/** Pelgrom's law: sigma of a device's threshold, V. */
-export function pelgromSigma(avt: number, w: number, l: number): number {
-  return avt / Math.sqrt(w * l);
+export type AvtConvention = 'pair' | 'device';
+
+/** Pelgrom's law: sigma of one device's threshold, V, for A_VT given per pair (default) or per device. */
+export function pelgromSigma(avt: number, w: number, l: number, convention: AvtConvention = 'pair'): number {
+  return avt / Math.sqrt((convention === 'pair' ? 2 : 1) * w * l);
 }
 
 export interface MismatchSigmas {
@@ -42,10 +47,10 @@ export function mismatchSigmas(netlist: CompiledNetlist, card: ProcessCard, swit
     const cell = netlist.gateCell[g]!;
     const shape = CELLS[cell];
     const w = cellWidths(cell, netlist.gateSize[g]!, unit);
-    gateN[g] = pelgromSigma(card.n.avt, w.wn, card.lmin) / Math.sqrt(shape.nSeries);
-    gateP[g] = pelgromSigma(card.p.avt, w.wp, card.lmin) / Math.sqrt(shape.pSeries);
+    gateN[g] = pelgromSigma(card.n.avt, w.wn, card.lmin, card.avtConvention) / Math.sqrt(shape.nSeries);
+    gateP[g] = pelgromSigma(card.p.avt, w.wp, card.lmin, card.avtConvention) / Math.sqrt(shape.pSeries);
   }
-  const sw = switches.map((plan) => Float64Array.from(plan.devices, (d) => pelgromSigma(card[d.kind].avt, d.w, d.l)));
+  const sw = switches.map((plan) => Float64Array.from(plan.devices, (d) => pelgromSigma(card[d.kind].avt, d.w, d.l, card.avtConvention)));
   return { gateN, gateP, switches: sw };
 }
 

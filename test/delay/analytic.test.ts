@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import {
-  alphaPowerDelay, alphaPowerTransition, analyticModel, rampCoefficient,
+  alphaPowerDelay, analyticModel, rampCoefficient,
 } from '../../src/delay/analytic.js';
 import { saturationCurrent, devicesAtCorner } from '../../src/process/device.js';
 import { compileNetlist, type GateSpec } from '../../src/netlist/netlist.js';
@@ -81,14 +81,6 @@ describe('alphaPowerDelay', () => {
   });
 });
 
-describe('alphaPowerTransition', () => {
-  // Documented simplification of Sakurai & Newton's output transition: (0.9/0.8) C_L V_DD / I_D0.
-  // By hand: 1.125 * 100 fF * 1.8 V / 500 uA = 1.125 * 360 ps = 405 ps.
-  it('gives 405 ps for 100 fF, 1.8 V, 500 uA', () => {
-    expectClose(alphaPowerTransition(100e-15, 1.8, 500e-6), 405e-12, 1e-12);
-  });
-});
-
 describe('saturationCurrent at alpha = 2', () => {
   // Square law (Sakurai & Newton 1990, alpha = 2 limit): current goes as the overdrive squared.
   it('quadruples when the overdrive doubles and is zero at or below threshold', () => {
@@ -138,13 +130,39 @@ describe('analyticModel.bind: logical-effort units', () => {
     expectClose(nor.fall / tauDown, 26 / 3, 1e-9);
   });
 
-  it('adds the Sakurai-Newton slope term of the pulling device for a ramp input', () => {
+  // Sakurai & Newton 1990: for a fast input (here a tenth of C_L V_DD / I_D0) the delay is their
+  // closed form; the opposing device, which the closed form leaves out, adds under 1 %.
+  it('adds the Sakurai-Newton slope term of the pulling device for a fast ramp input', () => {
     const net = fanoutNetlist('INV', 4);
     const timing = analyticModel.bind(net, netLoads(net, card), devices);
-    const tT = 300e-12;
-    expectClose(timing.delay(0, 0, true, tT), 5 * tauUp + rampCoefficient(card.p.vth0, 1.8, card.p.alpha) * tT, 1e-9);
-    expectClose(timing.delay(0, 0, false, tT), 5 * tauDown + rampCoefficient(card.n.vth0, 1.8, card.n.alpha) * tT, 1e-9);
-    expectClose(timing.transition(0, 0, true, tT), (0.9 / 0.8) * 5 * cin * 1.8 / currentUp, 1e-9);
+    const tT = 0.2 * 5 * tauDown;
+    expectClose(timing.delay(0, 0, true, tT), 5 * tauUp + rampCoefficient(card.p.vth0, 1.8, card.p.alpha) * tT, 0.01);
+    expectClose(timing.delay(0, 0, false, tT), 5 * tauDown + rampCoefficient(card.n.vth0, 1.8, card.n.alpha) * tT, 0.01);
+  });
+
+  // The step-input transition with the triode tail (derived from the Sakurai-Newton 1991 triode
+  // form, see test/delay/ramp-response.test.ts): V_D0 = (alpha - 1)(V_DD - Vth) = 0.3 * 1.4 V,
+  // d0 = 0.23333; saturated from 0.9 to d0, triode from d0 to 0.1:
+  // t10-90 = (0.9 - d0) + (d0/2) ln((2 - x)/x), x = 0.1/d0; full swing = t10-90 / 0.8, in C V_DD / I_D0.
+  it('gives the step-input output transition of the saturated edge and its triode tail', () => {
+    const net = fanoutNetlist('INV', 4);
+    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    const d0 = 0.3 * (1 - 0.4 / 1.8);
+    const x = 0.1 / d0;
+    const tenNinety = 0.9 - d0 + (d0 / 2) * Math.log((2 - x) / x);
+    expectClose(timing.transition(0, 0, true, 0), (tenNinety / 0.8) * 2 * 5 * tauUp, 1e-3);
+  });
+
+  it('lengthens the output transition as the input transition grows, and moves the 10 % point with it', () => {
+    const net = fanoutNetlist('INV', 4);
+    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    const fast = timing.transition(0, 0, false, 10e-12);
+    const slow = timing.transition(0, 0, false, 1e-9);
+    expect(slow).toBeGreaterThan(1.5 * fast);
+    // A falling edge reaches 10 % after its 50 % point, a rising one leaves 10 % before it.
+    expect(timing.crossing!(0, 0, false, 1e-9, 0.1)).toBeGreaterThan(0);
+    expect(timing.crossing!(0, 0, true, 1e-9, 0.1)).toBeLessThan(0);
+    expect(timing.crossing!(0, 0, false, 1e-9, 0.1)).toBeGreaterThan(timing.crossing!(0, 0, false, 10e-12, 0.1));
   });
 
   it('does not depend on which input pin switches (pin position is not modelled)', () => {

@@ -136,11 +136,46 @@ describe('measurePhases', () => {
     expect(m.overlap).toBe(0);
   });
 
-  it('reports an overlap as a negative dead time and its length', () => {
+  it('reports an overlap as a negative dead time, and its length at the 10 % level', () => {
     const m = measurePhases(handmade(4.6 * ns), net);
     if (!m.ok) throw new Error(m.reason);
     expectClose(m.deadTimes[0].t50, -0.4 * ns, 1e-12);
-    expectClose(m.overlap, 0.4 * ns, 1e-12);
+    // Both above 10 %: from p2 passing 10 % (0.4 * 250 ps before its 50 % point) to p1 passing it
+    // (0.4 * 150 ps after): 400 + 100 + 60 = 560 ps.
+    expectClose(m.overlap, 560 * ps, 1e-12);
+    expect(m.level).toBe(0.1);
+  });
+
+  it('measures the gap and the overlap at the level the design sets', () => {
+    const m = measurePhases(handmade(6 * ns), net, undefined, { level: 0.3 });
+    if (!m.ok) throw new Error(m.reason);
+    // 1 ns - 0.2 * (150 + 250) ps = 920 ps.
+    expectClose(m.deadTimes[0].gap, 920 * ps, 1e-12);
+    expect(m.level).toBe(0.3);
+  });
+
+  it('takes the delay model\'s error band off the gap the checks read, in proportion to the dead time', () => {
+    const m = measurePhases(handmade(6 * ns), net, undefined, { band: 0.05 });
+    if (!m.ok) throw new Error(m.reason);
+    const d = m.deadTimes[0];
+    expectClose(d.gapBound, d.gap - 0.05 * 1 * ns, 1e-12);
+  });
+
+  it('places each phase edge\'s level crossing where the delay model shapes it', () => {
+    // A model whose edges reach any level 30 ps (rising: before, falling: after) from the 50 % point.
+    const shaped = {
+      delay: () => 0, transition: () => 0,
+      crossing: (_g: number, _p: number, rising: boolean) => (rising ? -30 * ps : 30 * ps),
+    };
+    const r = result([
+      ['clk', 0, 1, 100 * ps], ['clk', 5 * ns, 0, 100 * ps],
+      ['p1', 1 * ns, 1, 100 * ps], ['p1', 5 * ns, 0, 150 * ps],
+      ['p2', 6 * ns, 1, 250 * ps], ['p2', 9.5 * ns, 0, 50 * ps],
+      ['p1e', 0.9 * ns, 1, 100 * ps], ['p1e', 4.6 * ns, 0, 100 * ps],
+    ], 30 * ns);
+    const m = measurePhases(r, net, undefined, { timing: shaped });
+    if (!m.ok) throw new Error(m.reason);
+    expectClose(m.deadTimes[0].gap, 1 * ns - 60 * ps, 1e-12);
   });
 
   it('passes on the reason of a run that did not settle', () => {

@@ -10,11 +10,23 @@ import { loadProcess } from '../../src/cli/load.js';
 import { expectClose, processCard } from '../helpers.js';
 
 describe('pelgromSigma', () => {
-  // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 24(5), 1989: sigma = A_VT/sqrt(W*L);
-  // A_VT = 5 mV*um gives 5.0 mV at 1x1 um and 2.5 mV at 4x1 um (REFERENCES 4, derived).
-  it('gives 5.0 mV for 1x1 um and 2.5 mV for 4x1 um at A_VT = 5 mV*um', () => {
-    expectClose(pelgromSigma(5e-9, 1e-6, 1e-6), 5e-3, 1e-12);
-    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6), 2.5e-3, 1e-12);
+  // Pelgrom, Duinmaijer & Welbers, IEEE JSSC 24(5), 1989: sigma(Vth1 - Vth2) = A_VT/sqrt(W*L) for a
+  // matched pair, so one device has A_VT/sqrt(2*W*L). A_VT = 5 mV*um: 5/sqrt(2) = 3.5355 mV at
+  // 1x1 um, 5/sqrt(8) = 1.7678 mV at 4x1 um (derived by hand).
+  it('gives 3.536 mV for one 1x1 um device and 1.768 mV for 4x1 um at A_VT = 5 mV*um per pair (Pelgrom 1989)', () => {
+    expectClose(pelgromSigma(5e-9, 1e-6, 1e-6), 3.5355339e-3, 1e-7);
+    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6), 1.7677670e-3, 1e-7);
+    expectClose(pelgromSigma(5e-9, 1e-6, 1e-6, 'pair'), pelgromSigma(5e-9, 1e-6, 1e-6), 1e-15);
+  });
+
+  it('makes the difference of two independent devices A_VT/sqrt(WL), the pair Pelgrom 1989 defines', () => {
+    const one = pelgromSigma(5e-9, 2e-6, 0.5e-6);
+    expectClose(Math.sqrt(2) * one, 5e-9 / Math.sqrt(2e-6 * 0.5e-6), 1e-12);
+  });
+
+  it('takes A_VT per device as it is with the device convention: 5.0 mV at 1x1 um, 2.5 mV at 4x1 um', () => {
+    expectClose(pelgromSigma(5e-9, 1e-6, 1e-6, 'device'), 5e-3, 1e-12);
+    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6, 'device'), 2.5e-3, 1e-12);
   });
 });
 
@@ -29,13 +41,21 @@ const inverter = compileNetlist({
 
 describe('mismatchSigmas', () => {
   it('uses each device\'s area and divides a series stack by sqrt(depth)', () => {
+    expect(card.avtConvention).toBe('pair');
     const s = mismatchSigmas(inverter, card, []);
     const lmin = card.lmin;
-    expectClose(s.gateN[0]!, card.n.avt / Math.sqrt(card.unit.wn * lmin), 1e-12);
-    expectClose(s.gateP[0]!, card.p.avt / Math.sqrt(card.unit.wp * lmin), 1e-12);
+    expectClose(s.gateN[0]!, card.n.avt / Math.sqrt(2 * card.unit.wn * lmin), 1e-12);
+    expectClose(s.gateP[0]!, card.p.avt / Math.sqrt(2 * card.unit.wp * lmin), 1e-12);
     // NAND2 of size 2: two series n devices of width 2*2*wn each, parallel p devices of 2*wp.
-    expectClose(s.gateN[1]!, card.n.avt / Math.sqrt(4 * card.unit.wn * lmin) / Math.SQRT2, 1e-12);
-    expectClose(s.gateP[1]!, card.p.avt / Math.sqrt(2 * card.unit.wp * lmin), 1e-12);
+    expectClose(s.gateN[1]!, card.n.avt / Math.sqrt(2 * 4 * card.unit.wn * lmin) / Math.SQRT2, 1e-12);
+    expectClose(s.gateP[1]!, card.p.avt / Math.sqrt(2 * 2 * card.unit.wp * lmin), 1e-12);
+  });
+
+  it('follows a card that gives A_VT per device: sqrt(2) larger than the pair convention', () => {
+    const pair = mismatchSigmas(inverter, card, []);
+    const device = mismatchSigmas(inverter, { ...card, avtConvention: 'device' }, []);
+    expectClose(device.gateN[0]!, card.n.avt / Math.sqrt(card.unit.wn * card.lmin), 1e-12);
+    expectClose(device.gateP[1]! / pair.gateP[1]!, Math.SQRT2, 1e-12);
   });
 });
 
@@ -64,12 +84,13 @@ describe('gate delay under mismatch', () => {
   // First-order propagation through the alpha-power delay (Sakurai & Newton, IEEE JSSC 1990):
   // t = (1/2 - (1 - Vth/VDD)/(1 + alpha)) tT + C VDD / (2 W K (VDD - Vth)^alpha), so
   // dt/dVth = tT/(VDD (1 + alpha)) + alpha C VDD / (2 W K (VDD - Vth)^(alpha + 1)),
-  // and sigma(t) ~ |dt/dVth| * sigma(Vth) for a small sigma.
+  // and sigma(t) ~ |dt/dVth| * sigma(Vth) for a small sigma. The input is fast (20 ps, under a
+  // third of tau), where the closed form is the model's exact limit.
   it('has the sigma of the first-order sensitivity times sigma(Vth), within 5 % at 20,000 samples', () => {
     const devices = devicesAtCorner(card, { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
     const loads = netLoads(inverter, card);
     const sigma = 0.01;
-    const tIn = 200e-12;
+    const tIn = 20e-12;
     const n = devices.n;
     const width = card.unit.wn;
     const c = loads[inverter.netIndex.get('a')!]!;

@@ -1,0 +1,55 @@
+/**
+ * Where each phase edge crosses a level of the swing, from its 50 % point. A delay model that
+ * knows the shape of its edges (GateTiming.crossing) answers for the edge's own driver and input
+ * transition; otherwise the edge is the linear ramp of its transition time.
+ */
+import type { GateTiming } from '../delay/model.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
+import { wrapTime, type CycleIndex, type NetCycle } from './phases.js';
+
+/** Time from the 50 % point to the level crossing of the rising and of the falling edge, s. */
+export interface LevelCrossings {
+  /** Negative when the level is below 50 %: the rising edge passes it first. */
+  readonly rise: number;
+  /** Positive when the level is below 50 %: the falling edge passes it last. */
+  readonly fall: number;
+}
+
+/** Crossings of linear ramps. */
+export function linearCrossings(cycle: NetCycle, level: number): LevelCrossings {
+  return { rise: (level - 0.5) * cycle.riseTransition, fall: (0.5 - level) * cycle.fallTransition };
+}
+
+/**
+ * Crossings of a net's edges as the delay model shapes them. Each edge is caused by the latest
+ * opposite edge on one of its driver's inputs (every library cell inverts); an input that does
+ * not switch exactly once each way leaves that edge a linear ramp.
+ */
+export function modelCrossings(cycle: NetCycle, index: CycleIndex, netlist: CompiledNetlist, timing: GateTiming, level: number): LevelCrossings {
+  const linear = linearCrossings(cycle, level);
+  const id = netlist.netIndex.get(cycle.net);
+  const g = id === undefined ? -1 : netlist.driver[id]!;
+  if (g < 0 || !timing.crossing) return linear;
+  const rise = edgeCrossing(g, true, cycle.rise, index, netlist, timing, level);
+  const fall = edgeCrossing(g, false, cycle.fall, index, netlist, timing, level);
+  return { rise: rise ?? linear.rise, fall: fall ?? linear.fall };
+}
+
+function edgeCrossing(g: number, rising: boolean, time: number, index: CycleIndex, netlist: CompiledNetlist, timing: GateTiming,
+  level: number): number | null {
+  let best = Infinity;
+  let pin = -1;
+  let inputTransition = 0;
+  const start = netlist.gateInputStart[g]!;
+  for (let k = start; k < netlist.gateInputStart[g + 1]!; k++) {
+    const input = index.cycle(netlist.netNames[netlist.gateInputs[k]!]!);
+    if (typeof input === 'string') continue;
+    const wait = wrapTime(time - (rising ? input.fall : input.rise), index.period);
+    if (wait < best) {
+      best = wait;
+      pin = k - start;
+      inputTransition = rising ? input.fallTransition : input.riseTransition;
+    }
+  }
+  return pin < 0 ? null : timing.crossing!(g, pin, rising, inputTransition, level);
+}

@@ -1,0 +1,49 @@
+import { describe, it, expect } from 'vitest';
+import { evaluateCorner } from '../../src/analysis/evaluate.js';
+import { analyticModel } from '../../src/delay/analytic.js';
+import { expectClose, inputErrorMessage, resolveYaml } from '../helpers.js';
+
+const design = (requirements: string) => `
+name: t
+process: unused
+clock: { frequency: 20MHz, transition: 200ps }
+generator: { template: nand, stages: 4, stageLoad: 30fF, buffer: [2, 6, 18] }
+loads: { p1: 0.5pF, p2: 0.5pF }
+corners: { process: [tt], vdd: [1.8V], temperature: [27] }
+requirements: ${requirements}
+`;
+
+function run(requirements: string) {
+  const resolved = resolveYaml(design(requirements));
+  const r = evaluateCorner(resolved, resolved.corners[0]!.corner);
+  if (!r.measurement.ok) throw new Error(r.measurement.reason);
+  return { checks: r.checks, m: r.measurement };
+}
+
+describe('requirementChecks: overlap at the gap level', () => {
+  it('names the level and takes its margin from the clean gap less the model\'s band, not the 50 % dead time', () => {
+    const { checks, m } = run('{}');
+    const overlap = checks.find((c) => c.kind === 'non-overlap')!;
+    expect(overlap.name).toBe('phases never both above 10 % of swing');
+    const [d12, d21] = m.deadTimes;
+    expectClose(d12.gapBound, d12.gap - analyticModel.gapBand! * d12.t50, 1e-12);
+    expectClose(overlap.margin!, Math.min(d12.gapBound, d21.gapBound), 1e-12);
+    expect(overlap.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
+  });
+
+  it('measures the gap at requirements.gap.level: a higher level gives a longer gap', () => {
+    const low = run('{}');
+    const high = run('{ gap: { level: 0.3, min: 100ps } }');
+    expect(high.m.level).toBe(0.3);
+    expect(high.checks.find((c) => c.kind === 'non-overlap')!.name).toBe('phases never both above 30 % of swing');
+    expect(high.m.deadTimes[0].gap).toBeGreaterThan(low.m.deadTimes[0].gap);
+    expect(high.m.deadTimes[0].gap).toBeLessThan(high.m.deadTimes[0].t50);
+    const gapMin = high.checks.find((c) => c.kind === 'gap-min')!;
+    expectClose(gapMin.margin!, high.m.deadTimes[0].gapBound - 100e-12, 1e-15, 'abs');
+  });
+
+  it('refuses a gap level outside (0, 0.5), naming the field', () => {
+    const message = inputErrorMessage(() => resolveYaml(design('{ gap: { level: 0.6 } }')));
+    expect(message).toContain('requirements.gap.level');
+  });
+});

@@ -1,0 +1,88 @@
+import { describe, it, expect } from 'vitest';
+import { RampResponse, solveEdge, stackFactor } from '../../src/delay/ramp-response.js';
+import { expectClose } from '../helpers.js';
+
+/** Sakurai & Newton, IEEE JSSC 25(2), 1990: fast-input delay in units of C V_DD / I_D0. */
+const closedForm = (alpha: number, vT: number, s: number) => (0.5 - (1 - vT) / (1 + alpha)) * s + 0.5;
+
+describe('solveEdge', () => {
+  // Square law (alpha = 2), step input: saturated from 1 down to d0 = 1 - v_T (time 1 - d0), then
+  // the n-th power law's triode form (Sakurai & Newton, IEEE TED 38(4), 1991) dv/dt = -(2 - v/d0)(v/d0)
+  // from d0 to 1/2, which integrates to (d0/2) ln(4 d0 - 1) (derived by hand).
+  it('gives (1 - d0) + (d0/2) ln(4 d0 - 1) for a step input at the square law (derived)', () => {
+    const d0 = 0.75;
+    expectClose(solveEdge(2, 0.25, 0).delay, 1 - d0 + (d0 / 2) * Math.log(4 * d0 - 1), 1e-5); // the solver's step error
+  });
+
+  it('reduces to the 1990 closed form for a fast input with the output saturated at 50 %', () => {
+    // alpha 1.3, v_T 0.25: d0 = 0.225 < 1/2; the input ends at 0.3 tau, the output is then near 0.9.
+    // The opposing device, which the closed form leaves out, adds under 1 %.
+    for (const s of [0.1, 0.3]) expectClose(solveEdge(1.3, 0.25, s).delay, closedForm(1.3, 0.25, s), 0.01);
+  });
+
+  it('lets a very slow input drag the output through the middle of the swing (delay a small fraction of the ramp)', () => {
+    const s = 64;
+    const { delay } = solveEdge(2, 0.25, s);
+    expect(delay).toBeGreaterThan(0);
+    expect(delay).toBeLessThan(0.1 * s);
+  });
+
+  it('stays stable near alpha = 1, where the triode region is thin: every level crossed, in order', () => {
+    for (const s of [0, 10, 64]) {
+      const { delay, crossings } = solveEdge(1.05, 0.25, s);
+      expect(Number.isFinite(delay)).toBe(true);
+      for (let i = 1; i < crossings.length; i++) expect(crossings[i]!).toBeGreaterThan(crossings[i - 1]!);
+    }
+    // A step at alpha ~ 1 stays saturated to the end: the 50 % point at half a tau.
+    expectClose(solveEdge(1.05, 0.25, 0).delay, 0.5, 1e-6);
+  });
+
+  it('records level crossings in order around the 50 % point', () => {
+    const { crossings } = solveEdge(1.4, 0.3, 2);
+    for (let i = 1; i < crossings.length; i++) expect(crossings[i]!).toBeGreaterThan(crossings[i - 1]!);
+    // crossings[8] is the 55 % point (0.45 of the swing to go), crossings[9] the 50 % point itself.
+    expect(crossings[8]!).toBeLessThan(0);
+    expectClose(crossings[9]!, 0, 1e-9, 'abs');
+  });
+});
+
+describe('stackFactor', () => {
+  it('is the device current alone for one device, depth times it at low drive, and the network current at full drive', () => {
+    expect(stackFactor(0.3, 1)).toBe(0.3);
+    expectClose(stackFactor(1, 2), 1, 1e-12);
+    expectClose(stackFactor(1, 3), 1, 1e-12);
+    expectClose(stackFactor(1e-6, 2), 2e-6, 1e-5);
+    expectClose(stackFactor(1e-6, 3), 3e-6, 1e-5);
+  });
+
+  it('makes a stack faster than a single device for a ramp input, and the same for a step', () => {
+    expectClose(solveEdge(2, 0.25, 0, 2).delay, solveEdge(2, 0.25, 0, 1).delay, 1e-9);
+    expect(solveEdge(2, 0.25, 3, 2).delay).toBeLessThan(solveEdge(2, 0.25, 3, 1).delay);
+  });
+});
+
+describe('RampResponse', () => {
+  const grid = RampResponse.of(2);
+
+  it('interpolates the solved grid within 1 % of a direct solution between grid points', () => {
+    for (const [vT, s] of [[0.27, 0.4], [0.33, 2.2], [0.51, 7.3], [0.12, 30]] as const) {
+      const direct = solveEdge(2, vT, s);
+      const pos = RampResponse.vtPosition(vT);
+      expectClose(grid.delay(pos, s), direct.delay, 0.01);
+      expectClose(grid.transition(pos, s), (direct.crossings[17]! - direct.crossings[1]!) / 0.8, 0.01);
+      expectClose(grid.crossing(pos, s, 0.1), direct.crossings[17]!, 0.01);
+    }
+  });
+
+  it('is built once per alpha and depth', () => {
+    expect(RampResponse.of(2)).toBe(grid);
+    expect(RampResponse.of(2, 2)).not.toBe(grid);
+    expect(RampResponse.of(2, 2).depth).toBe(2);
+  });
+
+  it('clamps v_T to its grid (0 ... 0.95)', () => {
+    expect(RampResponse.vtPosition(-0.1)).toBe(0);
+    expect(RampResponse.vtPosition(2)).toBeLessThan(19);
+    expect(RampResponse.vtPosition(2)).toBeGreaterThan(18.99);
+  });
+});
