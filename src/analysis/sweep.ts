@@ -159,7 +159,7 @@ export function sweepColumns(resolved: ResolvedDesign): SweepColumns {
   const req = resolved.design.requirements;
   const labels = resolved.labels;
   const widthNets = [a, b, ...Object.values(source.early)];
-  const checks = ['phases never active together'];
+  const checks = [labels.overlap];
   for (let k = 0; k < 2; k++) {
     if (req.deadTime?.min !== undefined) checks.push(labels.deadMin[k]!);
     if (req.deadTime?.max !== undefined) checks.push(labels.deadMax[k]!);

@@ -92,7 +92,7 @@ describe('phasegap sweep', () => {
     const [slow, fast] = csvRecords(mixed.stdout);
     const [reference] = csvRecords(alone.stdout);
     expect(slow!.limiting_check).toBe('periodic steady state');
-    expect(slow!['margin_s: phases never active together']).toBe('');
+    expect(slow!['margin_s: phases never both above 10 % of swing']).toBe('');
     expect(Object.keys(fast!)).toEqual(Object.keys(reference!));
     expect(fast).toEqual(reference);
     expect(Number(fast!['margin_s: dead p1->p2 >= 500 ps'])).toBeCloseTo(Number(fast!['dead_p1->p2_min_s']) - 500e-12, 18);
@@ -114,7 +114,7 @@ describe('summarizePoint', () => {
     expect(results.some((r) => !r.measurement.ok)).toBe(true);
     expect(results.some((r) => r.measurement.ok)).toBe(true);
     const row = summarizePoint(0, [], results);
-    const nonOverlap = row.checks.find((c) => c.name === 'phases never active together')!;
+    const nonOverlap = row.checks.find((c) => c.name === 'phases never both above 10 % of swing')!;
     const least = Math.min(...results.flatMap((r) => r.checks.filter((c) => c.name === nonOverlap.name).map((c) => c.margin!)));
     expect(nonOverlap.margin).toBe(least);
     expect(nonOverlap.kind).toBe('non-overlap');

@@ -154,7 +154,7 @@ describe('a foreign file named as a process card or table file', () => {
     const card = write('card.yaml', `${text}\n`);
     const path = designWithCard(card);
     const stderr = refused(cli('check', path));
-    expect(stderr).toBe(`phasegap: error: ${card}: is not a process card (expected a mapping with keys name, description, t0, lmin, vddNominal, unit, n, p, corners, spice, tables); its content is not shown\n`);
+    expect(stderr).toBe(`phasegap: error: ${card}: is not a process card (expected a mapping with keys name, description, t0, lmin, vddNominal, unit, n, p, avtConvention, corners, spice, tables); its content is not shown\n`);
     for (const secret of secrets) expect(stderr).not.toContain(secret);
   });
 
