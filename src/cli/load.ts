@@ -13,7 +13,7 @@ import { applyOverrides } from './overrides.js';
 import { parseJsonText } from './json-text.js';
 import { parseYamlText } from './yaml-text.js';
 import { checkDataShape } from '../schema/data-shape.js';
-import { MAX_DESIGN_BYTES, MAX_TABLE_BYTES } from '../schema/limits.js';
+import { MAX_DESIGN_BYTES, MAX_MODEL_BYTES, MAX_TABLE_BYTES } from '../schema/limits.js';
 import { resolveDesign, type ResolvedDesign } from '../analysis/resolve.js';
 
 /** What a file is read as: its size limits, and whether errors may quote its text. */
@@ -65,6 +65,18 @@ export function readDataFile(path: string, label: string, kind: DataKind = 'desi
   return data;
 }
 
+/**
+ * Checks that a file a deck will `.include` is a SPICE model file: a regular file within the size
+ * limit holding at least one .model, .subckt or .lib line. Anything else (a system file named by a
+ * stranger's card) is refused without showing its content, since ngspice would echo its lines.
+ */
+export function checkModelFile(path: string, label: string): void {
+  const text = readBoundedText(path, label, MAX_MODEL_BYTES, 'SPICE model file');
+  if (!/^[ \t]*\.(model|subckt|lib)\b/im.test(text)) {
+    throw inputError(label, path, 'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown');
+  }
+}
+
 /** The file's text, from a regular file only, refused before reading when it is larger than `limit` bytes. */
 function readBoundedText(path: string, label: string, limit: number, what: string): string {
   let fd: number;
@@ -78,7 +90,7 @@ function readBoundedText(path: string, label: string, limit: number, what: strin
   try {
     const stat = fstatSync(fd);
     if (stat.isDirectory()) throw inputError(label, path, 'is a directory, not a file');
-    if (!stat.isFile()) throw inputError(label, path, 'is not a regular file (it is a device, pipe or socket); give the path of a YAML or JSON file');
+    if (!stat.isFile()) throw inputError(label, path, 'is not a regular file (it is a device, pipe or socket); phasegap reads only regular files');
     const tooBig = (): never => {
       throw inputError(label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
     };

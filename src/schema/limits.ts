@@ -7,6 +7,8 @@
 /** Largest design file or process card read, bytes, by format (YAML parses about 1 MB/s). */
 export const MAX_DESIGN_BYTES = { yaml: 1 << 20, json: 16 << 20 } as const;
 /** Largest delay-table file read, bytes, by format. */
+/** Largest SPICE model file a deck may include, in bytes. */
+export const MAX_MODEL_BYTES = 16 << 20;
 export const MAX_TABLE_BYTES = { yaml: 4 << 20, json: 64 << 20 } as const;
 
 /** Deepest nesting of mappings and lists (a table file nests 10 deep). */

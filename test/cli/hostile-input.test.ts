@@ -123,7 +123,7 @@ describe('size and shape limits', () => {
 describe('files that are not regular files', () => {
   it('refuses /dev/zero as a process card without reading it', () => {
     const path = designWithCard('/dev/zero');
-    expect(refused(cli('check', path))).toBe('phasegap: error: process: "/dev/zero" is not a regular file (it is a device, pipe or socket); give the path of a YAML or JSON file\n');
+    expect(refused(cli('check', path))).toBe('phasegap: error: process: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n');
   });
 
   it('refuses a named pipe as a design without waiting for a writer', () => {
@@ -186,6 +186,24 @@ describe('a foreign file named as a process card or table file', () => {
     const card = write('card.yaml', `${readFileSync(CARD, 'utf8')}\n${extra}\n`);
     const path = designWithCard(card);
     expect(refused(cli('check', path))).toContain(`${card}: unknown keys "aaaaaaaaaaaaaaaaaaaaa...", "b", "c" and 2 more; allowed keys here are name,`);
+  });
+});
+
+describe('a foreign file named as the SPICE model file', () => {
+  it('refuses a card whose spice.models is not a model file before ngspice can echo its lines, and names no line of it', () => {
+    const shadow = write('shadow', 'root:$6$Qw8r1xTz$Zk3p0lYHnq9Tn0V1:19700:0:99999:7:::\nerror: Yt7uR4wE1qP0oI9u\n');
+    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^  models: .*$/m, `  models: ${shadow}`).replace(/^tables: .*$/m, ''));
+    const path = designWithCard(card);
+    for (const command of [['spice', path, '--corner', 'tt/1.8V/27C', '--model', 'analytic'], ['confirm', path, '--corners', 'tt/1.8V/27C', '--model', 'analytic']]) {
+      const stderr = refused(cli(...command));
+      expect(stderr).toBe(`phasegap: error: process.spice.models: ${JSON.stringify(shadow)} is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown\n`);
+      for (const secret of ['Qw8r1xTz', 'Zk3p0lYHnq9', 'Yt7uR4wE1qP0']) expect(stderr).not.toContain(secret);
+    }
+  });
+
+  it('refuses --models on a device', () => {
+    expect(refused(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--models', '/dev/zero')))
+      .toBe('phasegap: error: --models: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n');
   });
 });
 

@@ -1,5 +1,4 @@
 /** `phasegap spice DESIGN --corner NAME -o FILE.cir`: a runnable ngspice testbench of one corner. */
-import { existsSync } from 'node:fs';
 import { dirname, relative, resolve } from 'node:path';
 import { inputError } from '../../errors.js';
 import { resolveDesign } from '../../analysis/resolve.js';
@@ -9,7 +8,7 @@ import { generatorDeck } from '../../spice/deck.js';
 import { spiceSection } from '../../spice/models.js';
 import { chooseCorners } from '../../spice/corner-choice.js';
 import type { Io } from '../io.js';
-import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { checkModelFile, loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
 
@@ -23,7 +22,7 @@ export interface SpiceOptions extends ModelOptions {
 /** The device-model file: `--models FILE`, else the card's spice.models relative to the card. */
 export function modelFile(card: ProcessCard, cardDir: string, override?: string): string {
   const path = override === undefined ? resolve(cardDir, spiceSection(card).models) : resolve(override);
-  if (!existsSync(path)) throw inputError(override === undefined ? 'process.spice.models' : '--models', path, 'does not exist; it must be a SPICE model file');
+  checkModelFile(path, override === undefined ? 'process.spice.models' : '--models');
   return path;
 }
 
