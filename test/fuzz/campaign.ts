@@ -26,7 +26,8 @@ export interface CampaignOptions {
 
 export interface CaseOutcome {
   readonly index: number;
-  readonly case: Case;
+  /** The command and whether it ran in a child process: the case's files are not kept in memory. */
+  readonly case: Pick<Case, 'command' | 'child'>;
   readonly code: number | undefined;
   readonly ms: number;
   readonly violations: readonly Violation[];
@@ -55,21 +56,27 @@ function designName(c: Case, bytes: Buffer): string | undefined {
   return typeof name === 'string' ? name : undefined;
 }
 
-export function drawCases(runs: number, seed: number, confirm: boolean): Case[] {
-  return fc.sample(caseArbitrary({ confirm }), { seed, numRuns: runs });
+/**
+ * Case `index` of a campaign, drawn from its own seed (mixed from the campaign's seed and the
+ * index), so cases are made one at a time: a long campaign never holds thousands of mutated
+ * files at once, and any case replays from the seed and its index alone.
+ */
+export function drawCase(seed: number, index: number, confirm: boolean): Case {
+  const own = (Math.imul(seed | 0, 0x9e3779b1) ^ Math.imul(index + 1, 0x85ebca6b)) | 0;
+  return fc.sample(caseArbitrary({ confirm }), { seed: own, numRuns: 1 })[0]!;
 }
 
 export async function runCampaign(options: CampaignOptions): Promise<{ outcomes: CaseOutcome[]; summary: Summary }> {
-  const cases = drawCases(options.runs, options.seed, await hasTool('ngspice'));
+  const confirm = await hasTool('ngspice');
   const lanes = options.lanes ?? Math.max(1, Math.min(2, cpus().length));
   const outcomes: CaseOutcome[] = [];
   let next = 0;
   const lane = async () => {
     const runner = new WorkerRunner();
     try {
-      while (next < cases.length) {
+      while (next < options.runs) {
         const index = next++;
-        const c = cases[index]!;
+        const c = drawCase(options.seed, index, confirm);
         const ws = layOut(c);
         const r = await runCase(c, ws, runner, options.timeoutMs);
         const violations = [...runProperties(r), ...await outputProperties(c, ws, r, designName(c, ws.designBytes))];
@@ -82,7 +89,7 @@ export async function runCampaign(options: CampaignOptions): Promise<{ outcomes:
             + `# seed ${options.seed}, case ${index}\n# ${violations.map((v) => `${v.property}: ${v.detail}`).join('\n# ')}\n`);
         }
         rmSync(ws.dir, { recursive: true, force: true });
-        outcomes.push({ index, case: c, code: r.code, ms: r.ms, violations, ...(kept ? { kept } : {}) });
+        outcomes.push({ index, case: { command: c.command, child: c.child }, code: r.code, ms: r.ms, violations, ...(kept ? { kept } : {}) });
         options.onCase?.(index, c, violations, r);
       }
     } finally {
