@@ -34,7 +34,7 @@ export function renderConfirmText(s: ConfirmSummary): string {
     out.push('break-before-make at the switches (margin, model vs simulator; they must agree on pass or fail):', '');
     out.push(renderTable([
       { header: 'corner', align: 'left' }, { header: 'check', align: 'left' }, { header: 'model', align: 'right' },
-      { header: s.simulator, align: 'right' }, { header: 'pass or fail', align: 'left' },
+      { header: s.simulator, align: 'right' }, { header: 'verdicts', align: 'left' },
     ], pairs), '');
   }
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
@@ -43,8 +43,8 @@ export function renderConfirmText(s: ConfirmSummary): string {
   const failed = s.corners.filter((c) => !c.pass).length;
   const within = s.corners.filter((c) => c.quantities.every((q) => q.pass)).length;
   const differ = pairs.filter((p) => p[4] !== 'alike').length;
-  const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for all ${pairs.length} pairs`
-    : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pairs`;
+  const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
+    : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;
   out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike})`);
   return `${out.join('\n')}\n`;
 }
