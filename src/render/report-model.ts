@@ -17,6 +17,7 @@ import { renderTimingSvg } from './svg/timing.js';
 import type { McSection } from './mc-section.js';
 import type { TuneReport } from '../report/tune-report.js';
 import type { CornerComparison } from '../spice/confirm.js';
+import { runVerdict, type RunVerdict } from '../report/verdict.js';
 
 /** ngspice against the model at some corners, when the report was asked for it. */
 export interface ConfirmSection {
@@ -37,6 +38,8 @@ export interface DeadTimeRange {
 
 export interface ReportModel {
   readonly report: CheckReport;
+  /** The run's one verdict: corner checks, Monte Carlo yield and simulator agreement, each with its own. */
+  readonly verdict: RunVerdict;
   readonly description: string;
   /** Where the process card came from: a path as written in the design, or "inline". */
   readonly processSource: string;
@@ -99,8 +102,10 @@ export interface ReportExtras {
 
 export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
   const worst = worstCornerIndex(results);
+  const report = checkReport(resolved, results);
   return {
-    report: checkReport(resolved, results),
+    report,
+    verdict: runVerdict(report, extras.mc?.report ?? null, extras.confirm ?? null, resolved.design.requirements.deadTime),
     description: resolved.design.description ?? '',
     processSource: extras.processSource,
     resolved,

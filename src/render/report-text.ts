@@ -6,6 +6,8 @@ import { formatEngineering, formatSignedTime, formatTime } from '../units/format
 import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../spice/confirm.js';
 import { percent } from '../spice/confirm-text.js';
+import type { VerdictPart } from '../report/verdict.js';
+import { GLYPH } from './palette.js';
 import { candidateCells, loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
 
 export function signedTime(seconds: number): string {
@@ -56,6 +58,23 @@ export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells:
   return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text };
 }
 
+
+/** The run's verdict in one word with its glyph: "✓ PASS" or "✕ FAIL". */
+export function verdictWord(verdict: 'pass' | 'fail'): string {
+  return verdict === 'pass' ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`;
+}
+
+/** Which parts of the run fail, for the headline: "fails: Monte Carlo yield"; empty when none does. */
+export function failingParts(parts: readonly VerdictPart[]): string {
+  const failing = parts.filter((p) => p.verdict === 'fail').map((p) => p.name);
+  return failing.length === 0 ? '' : `fails: ${failing.join(', ')}`;
+}
+
+/** One part of the run's verdict as words: "Monte Carlo yield: ✕ FAIL: yield 95.8 % ...". */
+export function verdictPartText(p: VerdictPart): string {
+  if (p.verdict === 'not-run') return `${p.name}: not run (${p.reason})`;
+  return `${p.name}: ${p.verdict === 'pass' ? `${GLYPH.pass} pass` : `${GLYPH.fail} FAIL`}: ${p.reason}`;
+}
 
 export function fmaxText(m: ReportModel): string {
   const f = m.fmax;

@@ -18,29 +18,33 @@ export function percent(x: number): string {
 }
 
 export function renderConfirmText(s: ConfirmSummary): string {
-  const rows: string[][] = [['corner', 'quantity', 'model', s.simulator, 'difference', '']];
+  const rows: string[][] = [['corner', 'quantity', 'model', s.simulator, 'difference', 'tolerance']];
   for (const c of s.corners) {
     for (const q of c.quantities) {
       rows.push([c.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
-        q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? '' : 'over']);
+        q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? 'within' : 'over']);
     }
   }
   const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
   const line = (r: string[]) => r.map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!))).join('  ').trimEnd();
   const out = [`${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`, '', line(rows[0]!), widths.map((w) => '-'.repeat(w)).join('  ').trimEnd(), ...rows.slice(1).map(line), ''];
   const pairs = s.corners.flatMap((c) => c.breakBeforeMake.map((b) => [c.corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured'),
-    b.agrees ? '' : 'DISAGREES']));
+    b.agrees ? 'alike' : 'DISAGREES']));
   if (pairs.length > 0) {
     out.push('break-before-make at the switches (margin, model vs simulator; they must agree on pass or fail):', '');
     out.push(renderTable([
       { header: 'corner', align: 'left' }, { header: 'check', align: 'left' }, { header: 'model', align: 'right' },
-      { header: s.simulator, align: 'right' }, { header: '', align: 'left' },
+      { header: s.simulator, align: 'right' }, { header: 'verdicts', align: 'left' },
     ], pairs), '');
   }
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
   const worst = worstDifference(s.corners);
   if (worst) out.push(`largest difference: ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})`);
   const failed = s.corners.filter((c) => !c.pass).length;
-  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${s.corners.length - failed}/${s.corners.length} corners within tolerance${pairs.length > 0 ? ', break-before-make verdicts alike' : ''})`);
+  const within = s.corners.filter((c) => c.quantities.every((q) => q.pass)).length;
+  const differ = pairs.filter((p) => p[4] !== 'alike').length;
+  const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
+    : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;
+  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike})`);
   return `${out.join('\n')}\n`;
 }

@@ -89,6 +89,46 @@ describe('phasegap report', () => {
     expect(readdirSync(dir)).toEqual([]);
   });
 
+  // The demo's least dead time is 967 ps (ff/1.98V/-40C): a 964 ps minimum holds at every corner
+  // but not on every die; 26 of 40 dies pass with seed 1 (measured).
+  const missesYield = ['--mc', '40', '--seed', '1', '--set', 'requirements.deadTime.min=964ps', '--set', 'requirements.minYield=0.99'];
+
+  it('exits 1 and heads the page FAIL when Monte Carlo misses requirements.minYield while every corner passes', async () => {
+    const run = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', ...missesYield, '-o', '-');
+    expect(run.code).toBe(1);
+    const head = run.stdout.slice(run.stdout.indexOf('<header>'), run.stdout.indexOf('</header>'));
+    expect(head).toContain('<div class="verdict fail" data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield; 45 of 45 corners pass;');
+    expect(head).toMatch(/<li data-part="corner checks" data-verdict="pass">corner checks: ✓ pass: 45 of 45 corners pass; /);
+    expect(head).toContain('<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required</strong></li>');
+    expect(head).toContain('<li data-part="simulator agreement" data-verdict="not-run">simulator agreement: not run (add --confirm worst to run it)</li>');
+    // The same design without the yield requirement passes: no requirement, no Monte Carlo failure.
+    const free = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--mc', '40', '--set', 'requirements.deadTime.min=964ps', '-o', '-');
+    expect(free.code).toBe(0);
+    expect(free.stdout).toContain('data-verdict="pass"><strong>✓ PASS</strong>');
+    expect(free.stdout).toContain('no requirement set (requirements.minYield)');
+  });
+
+  it('gives the Markdown page the same verdict and parts', async () => {
+    const dir = tempDir();
+    const file = join(dir, 'review.md');
+    const run = await cliAsync('report', design('doubler'), '--format', 'md', '--no-fmax', '--no-tune', ...missesYield, '-o', file);
+    expect(run.code).toBe(1);
+    const md = readFileSync(file, 'utf8').split('\n');
+    const at = md.findIndex((l) => l.startsWith('**✕ FAIL**: fails: Monte Carlo yield; 45 of 45 corners pass'));
+    expect(at).toBeGreaterThan(0);
+    expect(md[at + 2]).toMatch(/^- corner checks: ✓ pass: 45 of 45 corners pass; /);
+    expect(md[at + 3]).toBe('- **Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required**');
+    expect(md[at + 4]).toBe('- simulator agreement: not run (add --confirm worst to run it)');
+  });
+
+  it('exits 1 with the simulator part failing when ngspice (Debian package ngspice) differs beyond --tolerance while every corner passes', async () => {
+    const run = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--confirm', 'tt/1.8V/27C', '--tolerance', '0.5%', '-o', '-');
+    expect(run.code).toBe(1);
+    const head = run.stdout.slice(run.stdout.indexOf('<header>'), run.stdout.indexOf('</header>'));
+    expect(head).toContain('<strong>✕ FAIL</strong><span>fails: simulator agreement; 45 of 45 corners pass;');
+    expect(head).toMatch(/<li data-part="simulator agreement" data-verdict="fail"><strong>simulator agreement: ✕ FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)<\/strong><\/li>/);
+  });
+
   it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();
     const file = join(dir, 'review.md');

@@ -95,6 +95,12 @@ describe('report in headless Chromium', () => {
         }));
         expect(tables.map((t) => t.id)).toContain('tune');
         if (confirm) expect(tables.filter((t) => t.id === 'confirm').length).toBe(2);
+        if (confirm) {
+          // ngspice differs from the model beyond 10 % at both corners of too-tight (measured), so the page says so at the top.
+          const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => `${li.getAttribute('data-part')}: ${li.getAttribute('data-verdict')}`));
+          expect(parts).toEqual(['corner checks: fail', 'Monte Carlo yield: not-run', 'simulator agreement: fail']);
+          expect(await page.$eval('header .verdict', (v) => v.getAttribute('data-verdict'))).toBe('fail');
+        }
         for (const t of tables) expect(t.w > 0 && t.h > 0 && t.fits, t.id).toBe(true);
         mkdirSync(OUTPUT, { recursive: true });
         const png = await page.screenshot({ fullPage: true });
@@ -105,6 +111,29 @@ describe('report in headless Chromium', () => {
       }
     });
   }
+
+  it('heads a page where Monte Carlo fails with FAIL and shows each part beneath it', async () => {
+    // A 964 ps minimum holds at every corner of the demo (least dead time 967 ps) but 14 of 40 dies miss it (seed 1, measured).
+    const { page, problems } = await openReport('doubler', ['--no-fmax', '--no-tune', '--mc', '40', '--seed', '1',
+      '--set', 'requirements.deadTime.min=964ps', '--set', 'requirements.minYield=0.99']);
+    try {
+      expect(problems).toEqual([]);
+      const verdict = await page.$eval('header .verdict', (v) => ({ verdict: v.getAttribute('data-verdict'), text: (v as HTMLElement).innerText, w: v.getBoundingClientRect().width }));
+      expect(verdict.verdict).toBe('fail');
+      expect(verdict.text).toMatch(/^✕ FAIL\s+fails: Monte Carlo yield; 45 of 45 corners pass/);
+      expect(verdict.w).toBeGreaterThan(0);
+      const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => {
+        const r = li.getBoundingClientRect();
+        return { part: li.getAttribute('data-part'), verdict: li.getAttribute('data-verdict'), text: (li as HTMLElement).innerText, shown: r.width > 0 && r.height > 0 };
+      }));
+      expect(parts.map((p) => [p.part, p.verdict, p.shown])).toEqual([
+        ['corner checks', 'pass', true], ['Monte Carlo yield', 'fail', true], ['simulator agreement', 'not-run', true],
+      ]);
+      expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required');
+    } finally {
+      await page.close();
+    }
+  });
 
   it('prints: the print stylesheet applies and every drawing still has a size', async () => {
     const { page, problems } = await openReport('doubler', ['--no-fmax']);

@@ -90,7 +90,7 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
     confirm: options.confirm === undefined ? null
       : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }, '--confirm'),
   });
-  const code = model.report.verdict === 'pass' ? 0 : 1;
+  const code = model.verdict.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
     emit(io, renderHtmlReport(model), out, inputs);
     return code;

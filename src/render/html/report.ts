@@ -8,7 +8,7 @@ import { formatEngineering, formatTime } from '../../units/format.js';
 import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
-import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, failingParts, summaryItems, tuneTable, verdictPartText, verdictWord } from '../report-text.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
@@ -26,10 +26,11 @@ function figure(svg: string, caption: string, id: string): string {
 
 export function renderHtmlReport(m: ReportModel): string {
   const r = m.report;
-  const pass = r.verdict === 'pass';
+  const pass = m.verdict.verdict === 'pass';
   const lim = r.limiting;
   const passing = r.corners.filter((c) => c.verdict === 'pass').length;
-  const verdictLine = `${passing} of ${r.corners.length} corners pass`
+  const failing = failingParts(m.verdict.parts);
+  const verdictLine = `${failing ? `${failing}; ` : ''}${passing} of ${r.corners.length} corners pass`
     + (lim ? `; limiting: ${lim.check} at ${lim.corner}${lim.margin === null ? ' (not measurable)' : `, margin ${formatMargin(lim.margin, lim.kind)}`}` : '');
   const summary = summaryItems(m).map(([k, v]) => `<dt>${h(k)}</dt><dd>${h(v)}</dd>`).join('\n');
   const checkRows = m.checks.map((c) => ({
@@ -60,7 +61,10 @@ export function renderHtmlReport(m: ReportModel): string {
 <header>
 <h1>${h(r.design)}</h1>
 ${m.description ? `<p class="lede">${h(m.description)}</p>` : ''}
-<div class="verdict ${pass ? 'pass' : 'fail'}" data-verdict="${r.verdict}"><strong>${pass ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`}</strong><span>${h(verdictLine)}</span></div>
+<div class="verdict ${pass ? 'pass' : 'fail'}" data-verdict="${m.verdict.verdict}"><strong>${verdictWord(m.verdict.verdict)}</strong><span>${h(verdictLine)}</span></div>
+<ul class="verdict-parts" id="verdict-parts">
+${m.verdict.parts.map((p) => `<li data-part="${h(p.name)}" data-verdict="${p.verdict}">${p.verdict === 'fail' ? `<strong>${h(verdictPartText(p))}</strong>` : h(verdictPartText(p))}</li>`).join('\n')}
+</ul>
 </header>
 <section class="cautions" id="cautions">
 <h2>Cautions</h2>

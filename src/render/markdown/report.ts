@@ -4,7 +4,7 @@
  */
 import type { ReportModel } from '../report-model.js';
 import { GLYPH } from '../palette.js';
-import { cardRows, confirmTables, cornerRows, fmaxText, summaryItems, tuneTable } from '../report-text.js';
+import { cardRows, confirmTables, cornerRows, fmaxText, failingParts, summaryItems, tuneTable, verdictPartText, verdictWord } from '../report-text.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { nodeTable } from '../node-table.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
@@ -30,12 +30,14 @@ function table(head: readonly string[], rows: ReadonlyArray<readonly string[]>, 
 
 export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): string {
   const r = m.report;
-  const pass = r.verdict === 'pass';
   const [a, b] = r.phases as [string, string];
   const out: string[] = [];
   out.push(`# ${markdownText(r.design)}`, '');
   if (m.description) out.push(markdownParagraph(m.description), '');
-  out.push(`**${pass ? `${GLYPH.pass} PASS` : `${GLYPH.fail} FAIL`}**: ${r.corners.filter((c) => c.verdict === 'pass').length} of ${r.corners.length} corners pass.`, '');
+  const failing = failingParts(m.verdict.parts);
+  out.push(`**${verdictWord(m.verdict.verdict)}**: ${failing ? `${markdownText(failing)}; ` : ''}${r.corners.filter((c) => c.verdict === 'pass').length} of ${r.corners.length} corners pass.`, '');
+  for (const p of m.verdict.parts) out.push(`- ${p.verdict === 'fail' ? `**${markdownText(verdictPartText(p))}**` : markdownText(verdictPartText(p))}`);
+  out.push('');
   out.push('> **Cautions**', '>');
   for (const c of r.cautions) out.push(`> - ${c}`);
   if (r.warnings.length > 0) {

@@ -1,0 +1,104 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { runMonteCarlo } from '../../src/analysis/montecarlo.js';
+import { checkReport } from '../../src/report/check-report.js';
+import { mcReport } from '../../src/report/mc-report.js';
+import { combineVerdict, confirmPart, cornerPart, monteCarloPart, runVerdict, type Confirmation } from '../../src/report/verdict.js';
+import { design, resolveYaml } from '../helpers.js';
+
+const doublerText = readFileSync(design('doubler'), 'utf8');
+// The demo's least dead time is 967 ps (ff/1.98V/-40C); a 964 ps minimum passes there nominally but not on every die.
+const tightText = doublerText.replace('deadTime: { min: 500ps, max: 4ns }', 'deadTime: { min: 964ps, max: 4ns }');
+
+function comparison(simulatorDead: number, agrees: boolean, pass = true): Confirmation {
+  return {
+    simulator: 'ngspice-42', tolerance: 0.1,
+    comparisons: [{
+      corner: 'ff/1.98V/-40C',
+      quantities: [{ quantity: 'dead p1->p2', kind: 'dead', simulator: simulatorDead, pass }, { quantity: 'width p1', kind: 'width', simulator: 24e-9, pass: true }],
+      breakBeforeMake: [{ check: 's_high/s_low break-before-make', agrees }],
+    }],
+  };
+}
+
+describe('cornerPart', () => {
+  it('passes the demo and fails too-tight, naming the limiting check', () => {
+    const ok = resolveYaml(doublerText);
+    expect(cornerPart(checkReport(ok, evaluateAll(ok)))).toMatchObject({ name: 'corner checks', verdict: 'pass', reason: expect.stringMatching(/^45 of 45 corners pass; limiting: /) });
+    const bad = resolveYaml(readFileSync(design('too-tight'), 'utf8'));
+    const part = cornerPart(checkReport(bad, evaluateAll(bad)));
+    expect(part.verdict).toBe('fail');
+    expect(part.reason).toMatch(/^38 of 45 corners pass; limiting: s_high\/s_low break-before-make \+ 50\.0 ps at ff\/1\.98V\/-40C$/);
+  });
+});
+
+describe('monteCarloPart', () => {
+  const resolved = resolveYaml(tightText);
+  const mc = runMonteCarlo(resolved, 40, 1);
+
+  it('fails when the yield is below requirements.minYield', () => {
+    // 26 of 40 dies pass at every corner with seed 1 (measured).
+    expect(mc.yieldEverywhere).toBe(26 / 40);
+    const part = monteCarloPart(mcReport('d', 'generic180', mc, 0.99));
+    expect(part).toEqual({ name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 65.000 % over 40 dies at every corner, below the 99.000 % required' });
+  });
+
+  it('passes at or above the requirement, and says when none is set', () => {
+    expect(monteCarloPart(mcReport('d', 'generic180', mc, 0.65)).verdict).toBe('pass');
+    const none = monteCarloPart(mcReport('d', 'generic180', mc, undefined));
+    expect(none.verdict).toBe('pass');
+    expect(none.reason).toContain('no requirement set (requirements.minYield)');
+  });
+
+  it('is not run without Monte Carlo', () => {
+    expect(monteCarloPart(null).verdict).toBe('not-run');
+  });
+});
+
+describe('confirmPart', () => {
+  it('passes when every quantity is within tolerance and every pair agrees', () => {
+    expect(confirmPart(comparison(968e-12, true), { min: 500e-12 })).toEqual({ name: 'simulator agreement', verdict: 'pass', reason: 'ngspice-42 agrees with the model at 1 corner' });
+  });
+
+  it('fails when a break-before-make pair disagrees', () => {
+    const part = confirmPart(comparison(968e-12, false), { min: 500e-12 });
+    expect(part.verdict).toBe('fail');
+    expect(part.reason).toBe('1 break-before-make pair disagrees (first: s_high/s_low break-before-make at ff/1.98V/-40C)');
+  });
+
+  it('fails when the simulator dead time breaks the requirement, even within tolerance', () => {
+    const part = confirmPart(comparison(440e-12, true), { min: 500e-12, max: 4e-9 });
+    expect(part.verdict).toBe('fail');
+    expect(part.reason).toBe('ngspice-42 gives dead p1->p2 440 ps at ff/1.98V/-40C, below the 500 ps minimum');
+    expect(confirmPart(comparison(5e-9, true), { max: 4e-9 }).reason).toBe('ngspice-42 gives dead p1->p2 5.00 ns at ff/1.98V/-40C, above the 4.00 ns maximum');
+  });
+
+  it('fails when a quantity is beyond the tolerance', () => {
+    expect(confirmPart(comparison(968e-12, true, false)).reason).toBe('1 quantity beyond 10.0 % (first: dead p1->p2 at ff/1.98V/-40C)');
+  });
+
+  it('is not run without a comparison', () => {
+    expect(confirmPart(null).verdict).toBe('not-run');
+  });
+});
+
+describe('combineVerdict', () => {
+  it.each([
+    [['pass', 'not-run', 'not-run'], 'pass'],
+    [['pass', 'pass', 'pass'], 'pass'],
+    [['pass', 'fail', 'not-run'], 'fail'],
+    [['fail', 'pass', 'pass'], 'fail'],
+    [['pass', 'pass', 'fail'], 'fail'],
+  ] as const)('%j combines to %s', (verdicts, expected) => {
+    expect(combineVerdict(verdicts.map((verdict, i) => ({ name: `part ${i}`, verdict, reason: '' }))).verdict).toBe(expected);
+  });
+
+  it('runVerdict fails the demo with a tightened dead time on Monte Carlo alone', () => {
+    const resolved = resolveYaml(tightText);
+    const mc = mcReport('d', 'generic180', runMonteCarlo(resolved, 40, 1), 0.99);
+    const v = runVerdict(checkReport(resolved, evaluateAll(resolved)), mc, null, resolved.design.requirements.deadTime);
+    expect(v.verdict).toBe('fail');
+    expect(v.parts.map((p) => p.verdict)).toEqual(['pass', 'fail', 'not-run']);
+  });
+});

@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest';
+import { renderConfirmText } from '../../src/spice/confirm-text.js';
+import type { CornerComparison } from '../../src/spice/confirm.js';
+
+const dead = (model: number, simulator: number) => ({
+  quantity: 'dead p1->p2', kind: 'dead' as const, model, simulator, relativeError: (model - simulator) / simulator,
+  pass: Math.abs((model - simulator) / simulator) <= 0.1,
+});
+
+function corner(name: string, pairs: Array<[number, number]>): CornerComparison {
+  const breakBeforeMake = pairs.map(([model, simulator], i) => ({ check: `s${i}/t${i} break-before-make`, model, simulator, agrees: model >= 0 === simulator >= 0 }));
+  const quantities = [dead(1.0e-9, 0.98e-9)];
+  return { corner: name, quantities, breakBeforeMake, errors: [], pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) };
+}
+
+const summary = (corners: CornerComparison[]) => ({ design: 'pump', model: 'analytic', simulator: 'ngspice-42', tolerance: 0.1, corners });
+
+describe('renderConfirmText', () => {
+  it('closes with "disagree" and the count when a break-before-make pair disagrees', () => {
+    // One pair holds in the model (+20 ps) and fails in the simulator (-15 ps).
+    const text = renderConfirmText(summary([corner('ff/1.98V/-40C', [[20e-12, -15e-12], [300e-12, 290e-12]])]));
+    expect(text).toMatch(/^ff\/1\.98V\/-40C\s+s0\/t0 break-before-make\s+\+20\.0 ps\s+-15\.0 ps\s+DISAGREES$/m);
+    expect(text).toMatch(/^verdict: DISAGREE \(1\/1 corners within tolerance, break-before-make verdicts disagree for 1 of 2 pairs\)$/m);
+    expect(text).not.toContain('verdicts alike');
+  });
+
+  it('closes with "alike" only when every pair agrees', () => {
+    const text = renderConfirmText(summary([corner('tt/1.8V/27C', [[300e-12, 290e-12]]), corner('ss/1.62V/125C', [[-40e-12, -60e-12]])]));
+    expect(text).toMatch(/^verdict: AGREE \(2\/2 corners within tolerance, break-before-make verdicts alike for all 2 pairs\)$/m);
+  });
+
+  it('heads every column of both tables', () => {
+    const lines = renderConfirmText(summary([corner('tt/1.8V/27C', [[300e-12, 290e-12]])])).split('\n');
+    expect(lines.some((l) => /^corner\s+quantity\s+model\s+ngspice-42\s+difference\s+tolerance$/.test(l))).toBe(true);
+    expect(lines.some((l) => /^corner\s+check\s+model\s+ngspice-42\s+verdicts$/.test(l))).toBe(true);
+    expect(lines.some((l) => /^tt\/1\.8V\/27C\s+dead p1->p2\s+1\.00 ns\s+980 ps\s+\+2\.0 %\s+within$/.test(l))).toBe(true);
+  });
+
+  it('names the one pair when only one was compared', () => {
+    const text = renderConfirmText(summary([corner('tt/1.8V/27C', [[-10e-12, 5e-12]])]));
+    expect(text).toMatch(/^verdict: DISAGREE \(1\/1 corners within tolerance, break-before-make verdicts disagree for 1 of 1 pair\)$/m);
+    expect(renderConfirmText(summary([corner('tt/1.8V/27C', [[10e-12, 5e-12]])]))).toMatch(/verdicts alike for the one pair\)$/m);
+  });
+
+  it('leaves the pair clause out when no pair was compared', () => {
+    const text = renderConfirmText(summary([corner('tt/1.8V/27C', [])]));
+    expect(text).toMatch(/^verdict: AGREE \(1\/1 corners within tolerance\)$/m);
+  });
+});
