@@ -64,7 +64,7 @@ export interface ChainCandidate {
 export interface FailingCheck {
   readonly check: string;
   readonly kind: Check['kind'];
-  /** Corners where it fails, in corner order. */
+  /** Corners where it fails, the least margin first (stable: corner order among equals). */
   readonly corners: readonly string[];
   /** Its least margin over those corners (s, or V for the switch bias kinds; null: unmeasurable). */
   readonly worst: number | null;
@@ -213,19 +213,20 @@ function leastMargin(checks: readonly Check[]): number {
 }
 
 function failingChecks(results: readonly CornerResult[]): FailingCheck[] {
-  const byName = new Map<string, { check: string; kind: Check['kind']; corners: string[]; worst: number | null }>();
+  const byName = new Map<string, { kind: Check['kind']; at: Array<{ corner: string; margin: number }> }>();
   for (const r of results) {
     for (const c of r.checks) {
       if (c.pass) continue;
-      const f = byName.get(c.name);
-      if (!f) byName.set(c.name, { check: c.name, kind: c.kind, corners: [r.corner.name], worst: c.margin });
-      else {
-        f.corners.push(r.corner.name);
-        f.worst = f.worst === null || c.margin === null ? null : Math.min(f.worst, c.margin);
-      }
+      const f = byName.get(c.name) ?? { kind: c.kind, at: [] };
+      f.at.push({ corner: r.corner.name, margin: c.margin ?? -Infinity });
+      byName.set(c.name, f);
     }
   }
-  return [...byName.values()];
+  return [...byName].map(([check, { kind, at }]) => {
+    const sorted = at.sort((a, b) => a.margin - b.margin);
+    const worst = sorted[0]!.margin;
+    return { check, kind, corners: sorted.map((x) => x.corner), worst: Number.isFinite(worst) ? worst : null };
+  });
 }
 
 /**
