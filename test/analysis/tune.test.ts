@@ -1,5 +1,11 @@
 import { describe, it, expect } from 'vitest';
-import { tuneChains, defaultSpace, TIE_FRACTION, type ChainKnobs, type TuneSpace } from '../../src/analysis/tune.js';
+import { tuneChains, defaultSpace, autoHeadroom, TIE_FRACTION, type ChainKnobs, type TuneSpace } from '../../src/analysis/tune.js';
+import { CornerEvaluator } from '../../src/analysis/evaluate.js';
+import { analyticModel } from '../../src/delay/analytic.js';
+import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../src/variation/mismatch.js';
+import { normalQuantile } from '../../src/variation/normal-quantile.js';
+import { VOLTAGE_KINDS } from '../../src/checks/check.js';
+import { expectClose } from '../helpers.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
@@ -22,7 +28,29 @@ function verdicts(d: Design, card: ReturnType<typeof load>['card'], knobs: Chain
   return evaluateAll(resolved);
 }
 
-const small = (d: Design, extra: Partial<TuneSpace> = {}): TuneSpace => ({ ...defaultSpace(d), stages: [2, 4], stageSizes: [1], ...extra });
+/** A narrow search at the edge of the requirements (no headroom), for the search mechanics. */
+const small = (d: Design, extra: Partial<TuneSpace> = {}): TuneSpace => ({ ...defaultSpace(d), stages: [2, 4], stageSizes: [1], headroom: 0, ...extra });
+
+/**
+ * Sample sigma of the least timing margin per die, at each of the given corners, computed die by
+ * die with a plain evaluator (not the Monte Carlo chunks tune uses).
+ */
+function leastMarginSigmas(d: Design, card: ReturnType<typeof load>['card'], knobs: ChainKnobs, corners: readonly string[], dies: number, seed: number): number[] {
+  if (d.generator.template === 'netlist') throw new Error('template expected');
+  const resolved = resolveDesign({ ...d, generator: { ...d.generator, ...knobs, stageSize: knobs.stageSize as number } }, card);
+  const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
+  const evaluator = new CornerEvaluator(resolved);
+  return corners.map((name) => {
+    const corner = resolved.corners.find((c) => c.corner.name === name)!.corner;
+    const least: number[] = [];
+    for (let i = 0; i < dies; i++) {
+      const r = evaluator.evaluate(corner, drawMismatch(sigmas, seed, i, mismatchBuffers(sigmas)));
+      least.push(Math.min(...r.checks.filter((c) => !(c.pass && VOLTAGE_KINDS.has(c.kind))).map((c) => c.margin!)));
+    }
+    const mean = least.reduce((a, b) => a + b, 0) / dies;
+    return Math.sqrt(least.reduce((a, b) => a + (b - mean) ** 2, 0) / (dies - 1));
+  });
+}
 
 describe('tuneChains', () => {
   it('fixes the design that fails break-before-make: every proposal passes every corner, one load step less fails', () => {
@@ -66,7 +94,7 @@ describe('tuneChains', () => {
 
   it('ranks by the largest dead time, treating values within the tie fraction as equal and then preferring shorter chains', () => {
     const { d, card } = load('doubler');
-    const result = tuneChains(d, card, undefined, { ...defaultSpace(d), stages: [2, 4, 6, 8], stageSizes: [1, 2] });
+    const result = tuneChains(d, card, undefined, { ...defaultSpace(d), stages: [2, 4, 6, 8], stageSizes: [1, 2], headroom: 0 });
     const best = Math.min(...result.proposals.map((p) => p.deadMax));
     const bucket = (x: number) => Math.floor((x - best) / (TIE_FRACTION * best));
     for (let i = 1; i < result.proposals.length; i++) {
@@ -96,7 +124,8 @@ describe('tuneChains', () => {
     expect(result.closest!.limiting!.kind).toBe('dead-time-min');
     const r = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1', '--max-load', '30fF');
     expect(r.code).toBe(1);
-    expect(r.stdout).toContain('still fails; it wants more delay than the search allows: widen it with --max-load or --stages');
+    expect(r.stdout).toMatch(/dead p\d->p\d >= 500 ps \(dead-time-min\) at \d+ corners?: ff\/1\.98V\/-40C/);
+    expect(r.stdout).toContain('it wants more delay than the search allows: widen it with --max-load or --stages');
   });
 
   it('refuses a free-form netlist, naming the field', () => {
@@ -147,7 +176,9 @@ describe('phasegap tune', () => {
     expect(report.verdict).toBe('fail');
     expect(report.proposals).toEqual([]);
     expect(report.closest.pass).toBe(false);
-    expect(report.searched).toEqual({ stages: [2], stageSizes: [1], maxLoad: 500e-15, loadStep: 0.5e-15, headroom: 0 });
+    expect(report.searched).toEqual({ stages: [2], stageSizes: [1], maxLoad: 500e-15, loadStep: 0.5e-15, headroom: { z: 3, dies: 200, corners: 3, seed: 1 } });
+    expect(report.confirmed).toBe(false);
+    expect(report.diagnosis.failing.length).toBeGreaterThan(0);
     expect(report.cautions.length).toBe(3);
   });
 
@@ -187,5 +218,114 @@ describe('tuneChains: switch faults', () => {
     expect(run.stdout).toMatch(/no delay chain can fix s_chg \(off-state, stress\)/);
     expect(run.stdout).toMatch(/reverse conduction/);
     expect(run.stdout).not.toMatch(/more delay|--max-load/);
+  });
+});
+
+describe('tuneChains: headroom', () => {
+  it('by default keeps the model band plus 3 sigma of mismatch on the demo\'s first proposal, recomputed die by die', () => {
+    const { d, card } = load('doubler');
+    const result = tuneChains(d, card, undefined, { ...defaultSpace(d), stages: [2, 4], stageSizes: [1, 2] });
+    const best = result.proposals[0]!;
+    const h = best.headroom!;
+    // The band is the analytic model's own gapBand (3 % of the dead time) on the largest dead time.
+    expect(analyticModel.gapBand).toBe(0.03);
+    const dead = verdicts(d, card, best.knobs).flatMap((r) => (r.measurement.ok ? r.measurement.deadTimes.map((x) => x.t50) : []));
+    expectClose(h.band, 0.03 * Math.max(...dead), 1e-12);
+    expect(h.z).toBe(3);
+    expect(h.dies).toBe(200);
+    expect(h.corners.length).toBe(3);
+    // The limiting corners are the three with the least margins in a plain corner evaluation.
+    const byMargin = verdicts(d, card, best.knobs)
+      .map((r) => ({ name: r.corner.name, least: Math.min(...r.checks.filter((c) => !(c.pass && VOLTAGE_KINDS.has(c.kind))).map((c) => c.margin!)) }))
+      .sort((a, b) => a.least - b.least);
+    expect(h.corners).toEqual(byMargin.slice(0, 3).map((c) => c.name));
+    const sigma = Math.max(...leastMarginSigmas(d, card, best.knobs, h.corners, 200, 1));
+    expectClose(h.sigma, sigma, 1e-9);
+    expect(h.sigma).toBeGreaterThan(0.5e-12);
+    expectClose(h.total, h.band + 3 * sigma, 1e-9);
+    expect(best.limiting!.margin!).toBeGreaterThanOrEqual(h.band + 3 * sigma);
+    // Every proposal keeps its own headroom, and far more than the zero-headroom search gave (+2.30 ps).
+    for (const p of result.proposals) expect(p.limiting!.margin!).toBeGreaterThanOrEqual(p.headroom!.total);
+    expect(best.limiting!.margin!).toBeGreaterThan(40e-12);
+  });
+
+  it('takes z from requirements.minYield (inverse normal of the per-corner yield)', () => {
+    expect(autoHeadroom(load('doubler').d).z).toBe(3);
+    expectClose(autoHeadroom(load('doubler', ['requirements.minYield=0.99']).d).z, normalQuantile(0.99), 1e-12);
+    // 2.326 sigma for 99 % one-sided (standard normal table, common practice).
+    expectClose(autoHeadroom(load('doubler', ['requirements.minYield=0.99']).d).z, 2.326347874, 1e-8, 'abs');
+  });
+
+  it('--margin 0 gives the proposals at the edge of the requirement, as without headroom', () => {
+    const { d, card } = load('doubler');
+    const result = tuneChains(d, card, undefined, { ...defaultSpace(d), headroom: 0 });
+    const best = result.proposals[0]!;
+    expect(best.knobs).toEqual({ stages: 2, stageSize: 1, stageLoad: 67.5 * fF });
+    expectClose(best.limiting!.margin!, 2.3e-12, 0.01e-12, 'abs');
+    const r = cli('tune', design('doubler'), '--margin', '0', '--top', '1');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('over 45 corners, with no headroom');
+    expect(r.stdout).toMatch(/proposal 1 +2 +1 +67\.5 fF +502 ps +1\.66 ns +pass +\+2\.30 ps +0 s /);
+    expect(r.stdout).toContain('unconfirmed in ngspice');
+  });
+
+  it('prints the headroom of every proposal as band + z sigma and says they are unconfirmed', () => {
+    const r = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1', '--json');
+    const report = JSON.parse(r.stdout);
+    const p = report.proposals[0];
+    expectClose(p.headroom.total, p.headroom.band + 3 * p.headroom.sigma, 1e-12);
+    expect(p.limiting.margin).toBeGreaterThanOrEqual(p.headroom.total);
+    const text = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1');
+    expect(text.stdout).toMatch(/proposal 1: band \d+\.\d+ ps \+ 3\.00 × σ \d+\.\d+ ps = \d+\.\d+ ps \(200 dies at ff\/1\.98V\/-40C, /);
+    expect(text.stdout).toContain('proposals are model estimates, unconfirmed in ngspice');
+  });
+});
+
+describe('tuneChains: diagnosis', () => {
+  const contradictory = ['requirements.deadTime.min=1ns', 'requirements.deadTime.max=1.5ns'];
+
+  it('names a dead-time minimum and maximum that the corner spread cannot fit, with the spread, and lists every failing check', () => {
+    const { d, card } = load('doubler', contradictory);
+    const result = tuneChains(d, card);
+    expect(result.proposals).toEqual([]);
+    const closest = result.closest!;
+    const diag = result.diagnosis!;
+    const results = verdicts(d, card, closest.knobs);
+    const dead = results.flatMap((r) => (r.measurement.ok ? r.measurement.deadTimes.map((x) => x.t50) : []));
+    const spread = Math.max(...dead) / Math.min(...dead);
+    // The demo's dead time spreads about 3.3x from ff/1.98V/-40C to ss/1.62V/125C; 1.5 ns / 1 ns allows 1.5x.
+    expect(spread).toBeGreaterThan(3);
+    expect(diag.conflict).not.toBeNull();
+    expectClose(diag.conflict!.spread, spread, 1e-12);
+    expect(diag.conflict!.leastSpread).toBeGreaterThan(1.5);
+    expect(diag.conflict!.leastSpread).toBeLessThanOrEqual(spread);
+    expectClose(diag.conflict!.min, 1e-9, 1e-12);
+    expectClose(diag.conflict!.max, 1.5e-9, 1e-12);
+    expect(diag.widen).toBe(false);
+    // Every failing check at every corner, as a plain evaluation finds them.
+    const expected = new Map<string, string[]>();
+    for (const r of results) for (const c of r.checks) if (!c.pass) expected.set(c.name, [...(expected.get(c.name) ?? []), r.corner.name]);
+    expect(new Map(diag.failing.map((f) => [f.check, [...f.corners].sort()]))).toEqual(new Map([...expected].map(([k, v]) => [k, v.sort()])));
+    // Worst corner first: the fast corner for the minimum, the slow one for the maximum.
+    expect(diag.failing.find((f) => f.kind === 'dead-time-min')!.corners[0]).toBe('ff/1.98V/-40C');
+    expect(diag.failing.find((f) => f.kind === 'dead-time-max')!.corners[0]).toBe('ss/1.62V/125C');
+    expect(new Set(diag.failing.map((f) => f.kind))).toEqual(new Set(['dead-time-min', 'dead-time-max']));
+  });
+
+  it('says so in the text and never advises widening the search', () => {
+    const r = cli('tune', design('doubler'), ...contradictory.flatMap((s) => ['--set', s]));
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/conflicting requirements: requirements\.deadTime\.min 1\.00 ns and \.max 1\.50 ns allow a spread of 1\.50x over the corners but the dead time of the closest candidate spreads 3\.\d\dx/);
+    expect(r.stdout).toMatch(/dead p1->p2 <= 1\.50 ns \(dead-time-max\) at \d+ corners: ss\/1\.62V\/125C/);
+    expect(r.stdout).toContain('a wider search cannot help');
+    expect(r.stdout).not.toMatch(/widen|--max-load or --stages/);
+  });
+
+  it('advises a wider search when only checks that want more delay fail', () => {
+    const { d, card } = load('doubler');
+    const result = tuneChains(d, card, undefined, { ...small(d), stages: [2], maxLoad: 30 * fF });
+    expect(result.diagnosis!.conflict).toBeNull();
+    expect(result.diagnosis!.widen).toBe(true);
+    expect(result.diagnosis!.failing.every((f) => f.kind === 'dead-time-min')).toBe(true);
   });
 });

@@ -55,7 +55,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
       : numberList('--sizes', options.sizes, (n) => n > 0 && n <= 1000, 'must be stage sizes above 0 and at most 1000, separated by commas, e.g. 1,2'),
     maxLoad: options.maxLoad === undefined ? base.maxLoad : capacitance('--max-load', options.maxLoad),
     loadStep: options.step === undefined ? base.loadStep : capacitance('--step', options.step),
-    headroom: options.margin === undefined ? 0 : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
+    headroom: options.margin === undefined ? base.headroom : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
   };
   if (space.loadStep > space.maxLoad) throw inputError('--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
   const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
