@@ -124,8 +124,11 @@ export class WorkerRunner {
 /** `node --max-old-space-size=512 dist/src/cli/main.js ...` in the case folder, SIGKILLed on time-out. */
 export function runChild(args: readonly string[], cwd: string, timeoutMs: number): Promise<RunResult> {
   const start = Date.now();
+  // A process's arguments cannot hold a NUL byte (a shell cannot pass one either): drop it here;
+  // in-process cases still receive it.
+  const argv = args.map((a) => a.replaceAll('\u0000', ''));
   return new Promise((resolve) => {
-    const child = spawn(process.execPath, [`--max-old-space-size=${MEMORY_MB}`, join(DIST, 'src', 'cli', 'main.js'), ...args], {
+    const child = spawn(process.execPath, [`--max-old-space-size=${MEMORY_MB}`, join(DIST, 'src', 'cli', 'main.js'), ...argv], {
       cwd, env: { ...process.env, TMPDIR: join(cwd, 'tmp'), CI: '1' }, stdio: ['ignore', 'pipe', 'pipe'],
     });
     let stdout = '';
