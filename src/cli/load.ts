@@ -69,12 +69,16 @@ export function readDataFile(path: string, label: string, kind: DataKind = 'desi
  * Checks that a file a deck will `.include` is a SPICE model file: a regular file within the size
  * limit holding at least one .model, .subckt or .lib line. Anything else (a system file named by a
  * stranger's card) is refused without showing its content, since ngspice would echo its lines.
+ * Returns the model and subcircuit names it defines (lower case, as SPICE reads them), or null
+ * when it pulls in other files (.lib or .include), whose names cannot be known here.
  */
-export function checkModelFile(path: string, label: string): void {
+export function checkModelFile(path: string, label: string): ReadonlySet<string> | null {
   const text = readBoundedText(path, label, MAX_MODEL_BYTES, 'SPICE model file');
   if (!/^[ \t]*\.(model|subckt|lib)\b/im.test(text)) {
     throw inputError(label, path, 'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown');
   }
+  if (/^[ \t]*\.(lib|include|inc)\b/im.test(text)) return null;
+  return new Set([...text.matchAll(/^[ \t]*\.(?:model|subckt)[ \t]+(\S+)/gim)].map((m) => m[1]!.toLowerCase()));
 }
 
 /** The file's text, from a regular file only, refused before reading when it is larger than `limit` bytes. */

@@ -201,6 +201,13 @@ describe('a foreign file named as the SPICE model file', () => {
     }
   });
 
+  it('refuses a card whose device model is not defined in its model file (ngspice would stop on the deck)', () => {
+    const models = write('models.lib', '* two models\n.model nch nmos level=1\n.model pch pmos level=1\n');
+    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^  models: .*$/m, `  models: ${models}`).replace(/^  p: pch$/m, '  p: Clk'));
+    expect(refused(cli('spice', designWithCard(card), '--corner', 'tt/1.8V/27C', '--model', 'analytic', '-o', join(tempDir(), 'x.cir'))))
+      .toBe(`phasegap: error: process.spice.p: "Clk" is not a model or subcircuit of ${models} (it defines nch, pch)\n`);
+  });
+
   it('refuses --models on a device', () => {
     expect(refused(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--models', '/dev/zero')))
       .toBe('phasegap: error: --models: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n');

@@ -3,7 +3,7 @@ import { dirname, relative, resolve } from 'node:path';
 import { inputError } from '../../errors.js';
 import { resolveDesign } from '../../analysis/resolve.js';
 import { evaluateAll, limitingCheck } from '../../analysis/evaluate.js';
-import type { ProcessCard } from '../../schema/process.js';
+import type { ProcessCard, SpiceSection } from '../../schema/process.js';
 import { generatorDeck } from '../../spice/deck.js';
 import { spiceSection } from '../../spice/models.js';
 import { chooseCorners } from '../../spice/corner-choice.js';
@@ -22,8 +22,21 @@ export interface SpiceOptions extends ModelOptions {
 /** The device-model file: `--models FILE`, else the card's spice.models relative to the card. */
 export function modelFile(card: ProcessCard, cardDir: string, override?: string): string {
   const path = override === undefined ? resolve(cardDir, spiceSection(card).models) : resolve(override);
-  checkModelFile(path, override === undefined ? 'process.spice.models' : '--models');
+  const defined = checkModelFile(path, override === undefined ? 'process.spice.models' : '--models');
+  if (defined) checkModelNames(spiceSection(card), defined, path);
   return path;
+}
+
+/** Every device model the card names must be defined in the model file, or ngspice stops on the deck. */
+function checkModelNames(spice: SpiceSection, defined: ReadonlySet<string>, path: string): void {
+  const named: Array<[string, string | undefined]> = [['process.spice.n', spice.n], ['process.spice.p', spice.p]];
+  for (const [corner, models] of Object.entries(spice.corners)) named.push([`process.spice.corners.${corner}.n`, models.n], [`process.spice.corners.${corner}.p`, models.p]);
+  for (const [field, name] of named) {
+    if (name !== undefined && !defined.has(name.toLowerCase())) {
+      const known = [...defined].filter((n) => /^[a-z0-9_.-]{1,32}$/.test(n)).slice(0, 8).join(', ');
+      throw inputError(field, name, `is not a model or subcircuit of ${path} (it defines ${known || 'none'})`);
+    }
+  }
 }
 
 export const warnTo = (io: Io) => (message: string) => io.stderr(`phasegap: warning: ${message}\n`);
