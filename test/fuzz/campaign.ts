@@ -15,6 +15,8 @@ import { hasTool, outputProperties, runProperties, type Violation } from './orac
 
 export interface CampaignOptions {
   readonly runs: number;
+  /** Index of the first case (default 0); case i is the same in every campaign of the seed. */
+  readonly start?: number;
   readonly seed: number;
   /** Time limit of one run, ms. */
   readonly timeoutMs: number;
@@ -70,11 +72,12 @@ export async function runCampaign(options: CampaignOptions): Promise<{ outcomes:
   const confirm = await hasTool('ngspice');
   const lanes = options.lanes ?? Math.max(1, Math.min(2, cpus().length));
   const outcomes: CaseOutcome[] = [];
-  let next = 0;
+  const first = options.start ?? 0;
+  let next = first;
   const lane = async () => {
     const runner = new WorkerRunner();
     try {
-      while (next < options.runs) {
+      while (next < first + options.runs) {
         const index = next++;
         const c = drawCase(options.seed, index, confirm);
         const ws = layOut(c);
