@@ -125,7 +125,9 @@ function applyTreeOp(root: Node, op: TreeOp, index: number): void {
     case 'longList': {
       // At most about 5 MB of text: long enough to hurt a quadratic loop, short enough to write.
       const length = Math.min(op.length, Math.floor(5e6 / Math.max(1, emit(node).length)));
-      setSlot(slot, { kind: 'seq', items: Array.from({ length }, () => node) });
+      // Copies, not one shared node: a later operation inside one item must not repeat in every
+      // item (a list of 10,000 shared items each grown to 100,000 made 1e9 and exhausted the harness).
+      setSlot(slot, { kind: 'seq', items: Array.from({ length }, () => clone(node)) });
       break;
     }
     case 'deepNest': setSlot(slot, nest(op.depth, op.shape)); break;
