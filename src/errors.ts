@@ -29,8 +29,13 @@ export function inputError(path: string, value: unknown, allowed: string): Input
 
 export function renderIssue(issue: InputIssue): string {
   const where = issue.path === '' ? '(top level)' : issue.path;
-  return issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
+  const text = issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
+  // Messages from the schema library may quote a key as written: nothing a terminal acts on gets through.
+  return text.replace(TERMINAL_UNSAFE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
+
+/** Like UNPRINTABLE below, but a message's own line breaks and tabs stay. */
+const TERMINAL_UNSAFE = /[^\P{Cc}\n\t]|[\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
 
 /** Most issues rendered for one error; the rest are counted, so a hostile file cannot flood the terminal. */
 export const MAX_RENDERED_ISSUES = 20;

@@ -72,3 +72,18 @@ describe('verilogModule with hostile names', () => {
     expect(vcd).toMatch(/\$var wire 1 \S+ p1 \$end/);
   });
 });
+
+describe('verilogIdentifier on reserved words beyond the common ones', () => {
+  // IEEE 1364-2005 keywords (switch primitives, strengths) and SystemVerilog ones, as remembered.
+  it.each(['tran', 'rtranif1', 'pmos', 'weak0', 'specify', 'logic', 'int', 'class'])('escapes %s', (word) => {
+    expect(verilogIdentifier(word)).toBe(`\\${word} `);
+  });
+
+  it('compiles a module named tran in iverilog (a design called tran once stopped it with a syntax error)', () => {
+    const dir = tempDir();
+    const file = join(dir, 'tran.v');
+    writeFileSync(file, `module ${verilogIdentifier('tran')} (a);\n  input a;\nendmodule\n`);
+    const run = spawnSync('iverilog', ['-o', join(dir, 'out'), file], { encoding: 'utf8' });
+    expect(run.status, run.stderr).toBe(0);
+  });
+});
