@@ -109,7 +109,7 @@ export interface TuneResult {
   readonly current: ChainCandidate;
   /** Passing proposals, best first; at most one per combination of knobs. */
   readonly proposals: readonly ChainCandidate[];
-  /** Every combination's least candidate at the headroom estimate, best first: the trade-off the proposals come from. */
+  /** Every passing chain evaluated in the search, the least margin first: the trade-off the proposals come from. */
   readonly candidates: readonly ChainCandidate[];
   /** When nothing passes: the searched candidate that came closest (largest least margin), and why. */
   readonly closest: ChainCandidate | null;
@@ -223,8 +223,10 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
   const current = evaluate(ownKnobs(gen));
   const faults = firstFaults;
   const found: ChainCandidate[] = [];
+  const passing = () => [...seen.values()].filter((c) => c.pass && c !== current)
+    .sort((a, b) => (a.limiting?.margin ?? -Infinity) - (b.limiting?.margin ?? -Infinity));
   const result = (proposals: ChainCandidate[], closest: ChainCandidate | null, diagnosis: Diagnosis | null): TuneResult =>
-    ({ current, proposals, candidates: rank([...found]), closest, space, objective, yieldTarget: target, evaluations, simulations, faults, diagnosis });
+    ({ current, proposals, candidates: passing(), closest, space, objective, yieldTarget: target, evaluations, simulations, faults, diagnosis });
   if (faults.length > 0) return result([], null, null);
   let closest: ChainCandidate | null = null;
   const consider = (c: ChainCandidate) => {

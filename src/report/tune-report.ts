@@ -56,7 +56,7 @@ export interface TuneReport {
   readonly current: TuneCandidateReport;
   /** Passing proposals, best first (those the simulator confirms before the others). */
   readonly proposals: readonly TuneCandidateReport[];
-  /** Every searched combination's least candidate, best first (at most CANDIDATES_SHOWN): the trade-off chart's points. */
+  /** Passing chains evaluated in the search, the least margin first, evenly thinned to CANDIDATES_SHOWN: the trade-off chart's points. */
   readonly candidates: readonly TuneCandidateReport[];
   /** Present when nothing passes: the candidate with the largest least margin. */
   readonly closest: TuneCandidateReport | null;
@@ -87,6 +87,12 @@ export function loadText(farads: number): string {
   return `${Number((farads / 1e-15).toPrecision(6))}fF`;
 }
 
+/** At most `n` items evenly spaced over the list, first and last included. */
+function spread<T>(list: readonly T[], n: number): T[] {
+  if (list.length <= n) return [...list];
+  return Array.from({ length: n }, (_, i) => list[Math.round((i * (list.length - 1)) / (n - 1))]!);
+}
+
 const finite = (x: number) => (Number.isFinite(x) ? x : null);
 
 function candidateReport(c: ChainCandidate, own: ChainKnobs): TuneCandidateReport {
@@ -108,7 +114,7 @@ export function tuneReport(design: string, frequency: number, corners: number, r
     tool: 'phasegap', design, frequency, corners, objective: result.objective,
     current: candidateReport(result.current, own),
     proposals: result.proposals.slice(0, top).map((c) => candidateReport(c, own)),
-    candidates: result.candidates.slice(0, CANDIDATES_SHOWN).map((c) => candidateReport(c, own)),
+    candidates: spread(result.candidates, CANDIDATES_SHOWN).map((c) => candidateReport(c, own)),
     closest: result.closest ? candidateReport(result.closest, own) : null,
     searched: { ...result.space },
     yieldTarget: result.yieldTarget,
