@@ -229,8 +229,13 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     ({ current, proposals, candidates: passing(), closest, space, objective, yieldTarget: target, evaluations, simulations, faults, diagnosis });
   if (faults.length > 0) return result([], null, null);
   let closest: ChainCandidate | null = null;
+  /** Best least margin each combination reached, for choosing the chains the other knobs are tried on when few pass. */
+  const reached = new Map<string, { combo: Combo; margin: number }>();
   const consider = (c: ChainCandidate) => {
     const margin = c.limiting?.margin ?? -Infinity;
+    const key = comboKey(c.knobs);
+    const prev = reached.get(key);
+    if (!prev || margin > prev.margin) reached.set(key, { combo: c.knobs, margin });
     if (closest === null || margin > (closest.limiting?.margin ?? -Infinity)) closest = c;
   };
   const step = space.loadStep;
@@ -315,12 +320,14 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
   const own = ownKnobs(gen);
   const taperOptions = [own.buffer, ...space.tapers.map((r) => taperedBuffer(own.buffer[own.buffer.length - 1]!, own.buffer.length, r))];
   const best = new Set<string>();
-  for (const c of rank([...found])) {
+  const chains = [...rank([...found]).map((c) => c.knobs), ...[...reached.values()].sort((a, b) => b.margin - a.margin).map((r) => r.combo)];
+  for (const c of chains) {
     if (best.size >= KNOB_CHAINS) break;
-    best.add(comboKey(c.knobs));
+    if (best.has(comboKey(c))) continue;
+    best.add(comboKey(c));
     for (const buffer of taperOptions) {
       for (const feedbackTap of space.feedbackTaps.length > 0 ? space.feedbackTaps : [own.feedbackTap]) {
-        const v: Combo = { stages: c.knobs.stages, stageSize: c.knobs.stageSize, buffer, feedbackTap };
+        const v: Combo = { stages: c.stages, stageSize: c.stageSize, buffer, feedbackTap };
         const key = comboKey(v);
         if (!variants.some((x) => comboKey(x) === key) && !combos.some((x) => comboKey(x) === key)) variants.push(v);
       }
