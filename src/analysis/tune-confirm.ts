@@ -6,6 +6,7 @@
  */
 import type { Design } from '../schema/design.js';
 import type { ResolvedDesign } from './resolve.js';
+import { formatTime } from '../units/format.js';
 
 /** One corner as the simulator measured it (the fields of a confirm comparison tune reads). */
 export interface SimulatedCorner {
@@ -50,19 +51,18 @@ function requirementChecks(design: Design, corner: SimulatedCorner): SimulatedCh
   const req = design.requirements;
   const out: SimulatedCheck[] = [];
   const add = (check: string, model: number, simulator: number | null) => out.push({ check, corner: corner.corner, model, simulator });
-  const ps = (s: number) => `${Number((s * 1e12).toPrecision(4))} ps`;
   for (const q of corner.quantities) {
     const sim = q.simulator;
     if (q.kind === 'dead') {
       const min = req.deadTime?.min;
       const max = req.deadTime?.max;
-      if (min !== undefined) add(`${q.quantity} >= ${ps(min)}`, q.model - min, sim === null ? null : sim - min);
-      if (max !== undefined) add(`${q.quantity} <= ${ps(max)}`, max - q.model, sim === null ? null : max - sim);
+      if (min !== undefined) add(`${q.quantity} >= ${formatTime(min)}`, q.model - min, sim === null ? null : sim - min);
+      if (max !== undefined) add(`${q.quantity} <= ${formatTime(max)}`, max - q.model, sim === null ? null : max - sim);
       if (min === undefined && max === undefined) add(`${q.quantity} > 0`, q.model, sim);
     } else if (q.kind === 'gap' && req.gap?.min !== undefined) {
-      add(`${q.quantity} >= ${ps(req.gap.min)}`, q.model - req.gap.min, sim === null ? null : sim - req.gap.min);
+      add(`${q.quantity} >= ${formatTime(req.gap.min)}`, q.model - req.gap.min, sim === null ? null : sim - req.gap.min);
     } else if (q.kind === 'width' && req.width?.min !== undefined) {
-      add(`${q.quantity} >= ${ps(req.width.min)}`, q.model - req.width.min, sim === null ? null : sim - req.width.min);
+      add(`${q.quantity} >= ${formatTime(req.width.min)}`, q.model - req.width.min, sim === null ? null : sim - req.width.min);
     }
   }
   for (const b of corner.breakBeforeMake) add(b.check, b.model, b.simulator);
