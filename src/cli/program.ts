@@ -65,8 +65,12 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--sizes <LIST>', "stage sizes to try, e.g. 1,2 (default: the design's own, 1 and 2)")
     .option('--max-load <C>', 'largest delay capacitor per chain node (default 500fF)')
     .option('--step <C>', 'resolution of the delay capacitor (default 0.5fF)')
-    .option('--margin <T>', 'headroom every check must keep beyond its requirement, e.g. 50ps (default 0: just pass)')
+    .option('--margin <T>', "headroom every check must keep beyond its requirement, e.g. 50ps (default: the model's band + z sigma of mismatch; 0: just pass)")
     .option('--top <N>', 'proposals to list (default 5)')
+    .option('--no-confirm', 'do not simulate the first proposals in ngspice')
+    .option('--confirm-top <N>', 'proposals to confirm in ngspice at their worst corners (default 3)')
+    .option('--models <FILE>', "SPICE model file for the confirmation instead of the card's spice.models")
+    .option('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)')
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runTune(io, design, cmd.optsWithGlobals())));

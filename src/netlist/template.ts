@@ -7,7 +7,9 @@
  * both phases alike (common practice).
  * - nand: x1 = NAND(clk, f2), x2 = NAND(clkb, f1); chain ends are active low, buffers are odd.
  * - nor:  x1 = NOR(clkb, f2),  x2 = NOR(clk, f1);  chain ends are active high, buffers are even.
- * The first phase is active while the clock is high.
+ * The first phase is active while the clock is high. The feedback to the other side's gate comes
+ * from the chain end, or `feedbackTap` buffer inverters later (even, so it keeps its sense), which
+ * puts those buffer inverters inside the dead time.
  */
 import { inputError } from '../errors.js';
 import type { TemplateSpec, NetlistSpec } from '../schema/design.js';
@@ -35,6 +37,10 @@ export function expandTemplate(input: TemplateSpec): Netlist {
     }
     checkBuffer('generator.earlyBuffer', earlyBuffer, bufferParity, spec.template);
   }
+  const feedbackTap = spec.feedbackTap ?? 0;
+  if (feedbackTap % 2 !== 0 || feedbackTap > spec.buffer.length) {
+    throw inputError('generator.feedbackTap', feedbackTap, `must be even and at most the buffer length (${spec.buffer.length}); the feedback keeps its sense only after an even number of buffer inverters`);
+  }
   const [phase1, phase2] = spec.phases;
   if (phase1 === phase2) throw inputError('generator.phases', spec.phases, 'names the same net twice; the two phases need distinct names');
   const gates: GateSpec[] = [];
@@ -48,7 +54,7 @@ export function expandTemplate(input: TemplateSpec): Netlist {
     const other = 3 - side;
     const phase = side === 1 ? phase1 : phase2;
     const nets = chainNets(side);
-    const otherEnd = chainEnd(chainNets(other), spec.buffer.length, other === 1 ? phase1 : phase2);
+    const otherEnd = feedbackNet(chainNets(other), spec.buffer.length, other === 1 ? phase1 : phase2, `b${other}`, feedbackTap);
     const ownEnd = chainEnd(nets, spec.buffer.length, phase);
     const gateOutput = stages === 0 ? ownEnd : nets[0]!;
     gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: [ownClock[side - 1]!, otherEnd], output: gateOutput });
@@ -81,6 +87,12 @@ export function expandTemplate(input: TemplateSpec): Netlist {
 /** With no buffer (nor only), the chain end is the phase net itself. */
 function chainEnd(nets: readonly string[], bufferLength: number, phase: string): string {
   return bufferLength === 0 ? phase : nets[nets.length - 1]!;
+}
+
+/** The net the other side's gate reads: the chain end, or `tap` buffer inverters after it (the phase after the whole buffer). */
+function feedbackNet(nets: readonly string[], bufferLength: number, phase: string, netPrefix: string, tap: number): string {
+  if (tap === 0) return chainEnd(nets, bufferLength, phase);
+  return tap === bufferLength ? phase : `${netPrefix}_${tap}`;
 }
 
 function pushBuffer(gates: GateSpec[], prefix: string, netPrefix: string, from: string, sizes: readonly number[], to: string): void {

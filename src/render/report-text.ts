@@ -53,7 +53,7 @@ export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells:
   const text = best
     ? `The least wasteful chain that passes every corner: ${best.stages} stages of size ${String(best.stageSize)} with ${loadText(best.stageLoad)} per node, `
       + `largest dead time ${formatTime(best.deadTimeMax ?? NaN)} against ${formatTime(t.current.deadTimeMax ?? NaN)} now (${best.overrides.map((o) => `--set ${o}`).join(' ')}). `
-      + 'Proposals sit at the edge of the tightest requirement; confirm the one you pick with phasegap mc and ngspice.'
+      + (t.confirmed ? `The first proposals were simulated in ngspice at their worst corners (${t.confirmNote}).` : `Proposals keep the model's band and mismatch headroom but are unconfirmed in ngspice (${t.confirmNote}): run phasegap tune or confirm where it is installed.`)
     : `No chain searched passes every corner${t.closest?.limiting ? `; closest still fails ${t.closest.limiting.check} at ${t.closest.limiting.corner}` : ''}.`;
   return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text };
 }

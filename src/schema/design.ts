@@ -35,6 +35,8 @@ const commonTemplate = {
     .describe('Also produce an early phase (named <phase>e) tapped this many stages before the chain end; even, 0 = none'),
   earlyBuffer: z.array(size).max(12).optional()
     .describe('Buffer for the early phase (default: same as buffer)'),
+  feedbackTap: z.number().int().min(0).max(12).optional()
+    .describe('Output-buffer inverters between the chain end and the feedback to the other side\'s gate: 0 (default) feeds back from the chain end, before the buffers; even, at most the buffer length'),
 };
 
 export const templateSchema = z.strictObject({
@@ -123,6 +125,15 @@ export const designSchema = z.strictObject({
     seed: z.number().int().nonnegative().default(1),
   }).optional(),
   requirements: requirementsSchema.prefault({}),
+  tune: z.strictObject({
+    objective: z.enum(['conduction', 'dead-time', 'weighted']).default('conduction')
+      .describe('What tune ranks by: the least useful conduction time over the corners (default), the least largest dead time, or the weighted sum below'),
+    weights: z.strictObject({
+      conduction: ratio('Weight of the least useful conduction time', { atLeast: 0, atMost: 1e6 }).default(1),
+      margin: ratio('Weight of the least margin (fast-corner headroom)', { atLeast: 0, atMost: 1e6 }).default(0),
+      deadTime: ratio('Weight of the largest dead time (slow-corner waste), subtracted', { atLeast: 0, atMost: 1e6 }).default(0),
+    }).prefault({}).describe('Score of the weighted objective: conduction x least conduction time + margin x least margin - deadTime x largest dead time'),
+  }).optional().describe('How phasegap tune ranks its proposals'),
 });
 
 export type Design = z.output<typeof designSchema>;

@@ -6,14 +6,15 @@ import { cli, design, tempDir, cliAsync } from '../helpers.js';
 import { parseSvg } from '../render/svg-dom.js';
 
 describe('phasegap report', () => {
-  it('writes one self-contained HTML page with the three drawings inline and the cautions', async () => {
+  it('writes one self-contained HTML page with the four drawings inline and the cautions', async () => {
     const dir = tempDir();
     const file = join(dir, 'r.html');
     const run = await cliAsync('report', design('doubler'), '-o', file);
     expect(run.code).toBe(0);
     const html = readFileSync(file, 'utf8');
     expect(html.startsWith('<!DOCTYPE html>')).toBe(true);
-    expect(html.match(/<svg /g)?.length).toBe(3);
+    // Worst corner, all corners, margins and the chart of the searched delay chains.
+    expect(html.match(/<svg /g)?.length).toBe(4);
     for (const c of CAUTIONS) expect(html).toContain(c.replace(/'/g, '&#39;'));
     // Nothing that would make a browser fetch: no external scripts, styles, images or links.
     expect(html).not.toMatch(/<script|<link|<img|@import|url\(http|src=/i);

@@ -62,7 +62,8 @@ describe('report in headless Chromium', () => {
           const r = s.getBoundingClientRect();
           return { w: r.width, h: r.height };
         }));
-        expect(sizes.length).toBe(3);
+        // Worst corner, all corners, margins, and the chart of the searched delay chains.
+        expect(sizes.length).toBe(4);
         for (const s of sizes) {
           expect(s.w).toBeGreaterThan(0);
           expect(s.h).toBeGreaterThan(0);

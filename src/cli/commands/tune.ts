@@ -1,13 +1,17 @@
-/** `phasegap tune DESIGN`: proposes delay chains that pass every corner with the least wasted dead time. */
-import { defaultSpace, tuneChains, type TuneSpace } from '../../analysis/tune.js';
+/** `phasegap tune DESIGN`: proposes delay chains that pass every corner, confirmed in ngspice where it is installed. */
+import { defaultSpace, tuneChains, type Simulate, type TuneSpace } from '../../analysis/tune.js';
 import { renderTuneText, tuneReport } from '../../report/tune-report.js';
 import { parseQuantity, type Unit } from '../../units/quantity.js';
-import { inputError } from '../../errors.js';
+import { InputError, inputError } from '../../errors.js';
+import type { ProcessCard } from '../../schema/process.js';
+import { checkSimulator } from '../../spice/runner.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { optionalWholeNumber } from '../options.js';
 import { MAX_TOP } from '../run-limits.js';
+import { confirmCorners } from './confirm.js';
+import { modelFile } from './spice.js';
 
 export interface TuneOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -19,6 +23,11 @@ export interface TuneOptions extends ModelOptions {
   readonly step?: string;
   readonly top?: string;
   readonly margin?: string;
+  /** false with --no-confirm. */
+  readonly confirm?: boolean;
+  readonly confirmTop?: string;
+  readonly models?: string;
+  readonly ngspice?: string;
 }
 
 function numberList(flag: string, text: string, check: (n: number) => boolean, allowed: string): number[] {
@@ -39,6 +48,32 @@ function quantityOption(flag: string, text: string, unit: Unit, positive: boolea
 
 const capacitance = (flag: string, text: string) => quantityOption(flag, text, 'F', true, 'must be a positive capacitance, e.g. 200fF');
 
+/**
+ * The simulator tune confirms its first proposals with, or why there is none: --no-confirm, no
+ * ngspice on the PATH, or a card without SPICE models. A deck ngspice cannot run leaves that
+ * proposal unconfirmed.
+ */
+export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, options: Pick<TuneOptions, 'confirm' | 'models' | 'ngspice'>): { simulate: Simulate | null; note: string } {
+  if (options.confirm === false) return { simulate: null, note: 'skipped with --no-confirm' };
+  try {
+    modelFile(card, cardDir, options.models);
+    checkSimulator(options.ngspice);
+  } catch (e) {
+    if (e instanceof InputError) return { simulate: null, note: e.message.replace(/\n/g, '; ') };
+    throw e;
+  }
+  const simulate: Simulate = (resolved) => {
+    try {
+      const run = confirmCorners(io, resolved, cardDir, { corners: 'worst', models: options.models, ngspice: options.ngspice, quiet: true });
+      return { simulator: run.simulator, corners: run.comparisons };
+    } catch (e) {
+      if (e instanceof InputError) return null;
+      throw e;
+    }
+  };
+  return { simulate, note: '' };
+}
+
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
   const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
   const { design, card, resolved } = loaded;
@@ -48,6 +83,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   const gen = design.generator;
   const earlyTap = gen.template === 'netlist' ? 0 : gen.earlyTap;
   const space: TuneSpace = {
+    ...base,
     stages: options.stages === undefined ? base.stages
       : numberList('--stages', options.stages, (n) => Number.isInteger(n) && n >= earlyTap && n <= 64 && n % 2 === 0,
         `must be even whole numbers from the early tap (${earlyTap}) to 64, separated by commas, e.g. 2,4,6`),
@@ -59,8 +95,11 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   };
   if (space.loadStep > space.maxLoad) throw inputError('--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
   const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
-  const result = tuneChains(design, card, resolved.model, space);
-  const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top);
+  const confirmTop = optionalWholeNumber('--confirm-top', options.confirmTop, { min: 1, max: 20 }, 3);
+  const { simulate, note } = tuneSimulator(io, card, loaded.cardDir, options);
+  if (simulate && io.stderrIsTTY && !options.json) io.stderr(`tune: confirming the first ${confirmTop} proposals in ngspice...\n`);
+  const result = tuneChains(design, card, resolved.model, space, { simulate, confirmTop, top });
+  const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top, note);
   emit(io, options.json ? toJson(report) : renderTuneText(report, designPath), options.out, inputs);
   return report.verdict === 'pass' ? 0 : 1;
 }

@@ -9,6 +9,8 @@ import { GLYPH } from '../palette.js';
 import { escapeHtml as h } from './escape.js';
 import { REPORT_CSS } from './style.js';
 import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, failingParts, summaryItems, tuneTable, verdictPartText, verdictWord } from '../report-text.js';
+import { renderTuneChart } from '../svg/tune-chart.js';
+import type { TuneReport } from '../../report/tune-report.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
@@ -18,6 +20,12 @@ function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly st
   const body = rows.map((r) => `<tr${r.fail ? ' class="fail"' : ''}>${r.cells.map((c, i) =>
     `<td${numeric.has(i) ? ' class="num"' : i === r.cells.length - 1 ? ' class="verdict-cell"' : ''}>${h(c)}</td>`).join('')}</tr>`).join('\n');
   return `<div class="table-wrap"><table><thead><tr>${th}</tr></thead><tbody>\n${body}\n</tbody></table></div>`;
+}
+
+/** The chart of the searched chains, when there is anything to plot. */
+function tuneFigure(t: TuneReport): string {
+  const svg = renderTuneChart(t);
+  return svg ? figure(svg, 'Every searched chain: its least margin (at the fast corner) across, its largest dead time beyond the requirement (wasted at the slow corner) up. Further right keeps more headroom; lower wastes less.', 'figure-tune') : '';
 }
 
 function figure(svg: string, caption: string, id: string): string {
@@ -102,6 +110,7 @@ ${m.tune ? ((t) => `<section id="tune">
 <h2>Delay chains that pass with the least dead time</h2>
 <p>${h(t.text)}</p>
 ${table(t.head, t.rows, new Set([1, 2, 3, 4, 5, 6]))}
+${tuneFigure(m.tune!)}
 </section>`)(tuneTable(m.tune)) : ''}
 ${m.confirm ? ((c) => `<section id="confirm">
 <h2>Transistor-level confirmation (${h(m.confirm!.simulator)})</h2>
