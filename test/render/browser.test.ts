@@ -8,7 +8,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
-import { cli, design, ROOT, tempDir, cliAsync } from '../helpers.js';
+import { design, ROOT, tempDir, cliAsync } from '../helpers.js';
 
 const OUTPUT = join(ROOT, 'test-output');
 
