@@ -1,7 +1,6 @@
 /** Shared test helpers: one tolerance check, fixture paths, the CLI run against an in-memory Io, small inline designs. */
 import { expect } from 'vitest';
-import { existsSync, mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parse as parseYaml } from 'yaml';
@@ -12,6 +11,7 @@ import { InputError } from '../src/errors.js';
 import { designSchema, type Design } from '../src/schema/design.js';
 import { parseWith } from '../src/schema/validate.js';
 import { resolveDesign, type ResolvedDesign } from '../src/analysis/resolve.js';
+export { tempDir } from './temp-dirs.js';
 
 /** |actual - expected| <= tolerance * max(1, |expected|) when relative, else <= tolerance. */
 export function expectClose(actual: number, expected: number, tolerance: number, mode: 'abs' | 'rel' = 'rel'): void {
@@ -71,11 +71,6 @@ export function inputErrorMessage(fn: () => unknown): string {
     throw error;
   }
   throw new Error('expected an InputError');
-}
-
-/** A fresh temporary folder for a test's files. */
-export function tempDir(prefix = 'phasegap-test-'): string {
-  return mkdtempSync(join(tmpdir(), prefix));
 }
 
 /** A design from YAML text (its `process` is ignored by resolveYaml). */

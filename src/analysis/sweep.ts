@@ -4,6 +4,7 @@
  * point: the worst case over the corners the point leaves.
  */
 import { inputError } from '../errors.js';
+import { PREFIXES } from '../units/quantity.js';
 import type { CornerResult } from './evaluate.js';
 import { limitingCheck } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
@@ -17,8 +18,6 @@ export interface SweepAxis {
   readonly values: readonly (string | number)[];
 }
 
-const PREFIX: Readonly<Record<string, number>> = { f: 1e-15, p: 1e-12, n: 1e-9, u: 1e-6, 'µ': 1e-6, m: 1e-3, '': 1, k: 1e3, M: 1e6, G: 1e9 };
-
 /** A range end: a number with an optional SI prefix and unit, e.g. 1.6V, 10MHz, -40C, 20fF. */
 export function parseRangeNumber(text: string): number | null {
   const m = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*([fpnuµmkMG]?)([A-Za-z°]*)$/.exec(text.trim());
@@ -26,11 +25,11 @@ export function parseRangeNumber(text: string): number | null {
   let prefix = m[2] ?? '';
   let unit = m[3] ?? '';
   // A lone prefix letter with no unit after it is taken as the prefix ("5m" = 5e-3).
-  if (prefix === '' && unit.length === 1 && unit in PREFIX && unit !== 'm') {
+  if (prefix === '' && unit.length === 1 && unit in PREFIXES && unit !== 'm') {
     prefix = unit;
     unit = '';
   }
-  const scale = PREFIX[prefix];
+  const scale = PREFIXES[prefix];
   return scale === undefined ? null : Number(m[1]) * scale;
 }
 

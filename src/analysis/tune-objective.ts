@@ -8,7 +8,7 @@
  */
 import type { Design } from '../schema/design.js';
 import type { CornerResult } from './evaluate.js';
-import { wrapTime } from '../measure/phases.js';
+import { wrapTime } from '../measure/wrap-time.js';
 
 export interface TuneObjective {
   readonly kind: 'conduction' | 'dead-time' | 'weighted';

@@ -7,7 +7,8 @@ import { formatTime } from '../units/format.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { bitsToError, settlingTimeConstants } from '../switches/physics.js';
 import type { Check } from './check.js';
-import { handover, wrapTime } from '../measure/phases.js';
+import { handover } from '../measure/phases.js';
+import { wrapTime } from '../measure/wrap-time.js';
 
 
 /**

@@ -1,5 +1,7 @@
 /** Parsing of numeric command-line options: one place that says what a whole number is and how large it may be. */
+import { availableParallelism } from 'node:os';
 import { inputError } from '../errors.js';
+import { MAX_WORKERS } from './run-limits.js';
 
 export interface WholeRange {
   readonly min: number;
@@ -26,4 +28,14 @@ export function wholeNumber(option: string, text: string, range: WholeRange): nu
 /** Like wholeNumber, with `fallback` when the option was not given. */
 export function optionalWholeNumber(option: string, text: string | undefined, range: WholeRange, fallback: number): number {
   return text === undefined ? fallback : wholeNumber(option, text, range);
+}
+
+export function parseJobs(text: string | undefined): number {
+  return optionalWholeNumber('--jobs', text, { min: 1, max: MAX_WORKERS, noun: 'simulations at once' }, Math.min(availableParallelism(), MAX_WORKERS));
+}
+
+/** `text` as a relative value, a plain number (0.1) or a percentage (10%); NaN when it is neither. */
+export function relativeNumber(text: string): number {
+  const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
+  return percent ? Number(percent[1]) / 100 : Number(text);
 }

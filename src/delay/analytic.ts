@@ -16,7 +16,7 @@
 import { inputError } from '../errors.js';
 import { CELLS, cellWidths } from '../cells/library.js';
 import { shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
-import { unitWidths } from '../netlist/loads.js';
+import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
 import { RampResponse } from './ramp-response.js';

@@ -10,7 +10,7 @@
  */
 import { inputError } from '../errors.js';
 import { CELLS, parasiticCapacitance, type PrimitiveCell } from '../cells/library.js';
-import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../netlist/loads.js';
+import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { CornerDevices } from '../process/device.js';
 import type { DelayTables, EdgeTables, PinTables } from '../schema/tables.js';
@@ -18,6 +18,7 @@ import { analyticModel } from './analytic.js';
 import { bracket, linear } from './interpolate.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
 import { cornerTables } from './table-corner.js';
+import { psNumber } from '../units/format.js';
 
 export interface TableModelOptions {
   /** Receives each extrapolation warning once. */
@@ -125,7 +126,7 @@ export function tableModel(tables: DelayTables, options: TableModelOptions = {})
       const scale = mismatch ? mismatchScale(netlist, loads, devices, mismatch) : null;
       const slews = tables.transitions;
       return new TableTiming(delayRows, transitionRows, slews, scale, (g, slew) => {
-        warn(`slew ${g}`, `table model: ${netlist.source.gates[g]!.name} sees an input transition of ${(slew * 1e12).toFixed(0)} ps, outside the table's ${(slews[0]! * 1e12).toFixed(0)}..${(slews[slews.length - 1]! * 1e12).toFixed(0)} ps at ${corner.name}; extrapolating`);
+        warn(`slew ${g}`, `table model: ${netlist.source.gates[g]!.name} sees an input transition of ${psNumber(slew)} ps, outside the table's ${psNumber(slews[0]!)}..${psNumber(slews[slews.length - 1]!)} ps at ${corner.name}; extrapolating`);
       });
     },
   };

@@ -5,7 +5,8 @@
  */
 import type { GateTiming } from '../delay/model.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
-import { wrapTime, type CycleIndex, type NetCycle } from './phases.js';
+import type { CycleIndex, NetCycle } from './phases.js';
+import { wrapTime } from './wrap-time.js';
 
 /** Time from the 50 % point to the level crossing of the rising and of the falling edge, s. */
 export interface LevelCrossings {

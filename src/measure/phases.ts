@@ -7,6 +7,7 @@ import type { GateTiming } from '../delay/model.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { SimulationResult } from '../sim/engine.js';
 import { linearCrossings, modelCrossings, type LevelCrossings } from './levels.js';
+import { wrapTime } from './wrap-time.js';
 
 /** One rising and one falling edge of a net in the period, with their transition times. */
 export interface NetCycle {
@@ -121,12 +122,6 @@ export class CycleIndex {
     if (rises !== 1 || falls !== 1) return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
     return { net: name, rise: this.rise[id]!, fall: this.fall[id]!, riseTransition: this.riseT[id]!, fallTransition: this.fallT[id]! };
   }
-}
-
-/** Positive remainder of x modulo m: a time folded into one period. */
-export function wrapTime(x: number, m: number): number {
-  const r = x % m;
-  return r < 0 ? r + m : r;
 }
 
 /**

@@ -1,23 +1,9 @@
 /** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (SPEC 2.2). */
 import { inputError } from '../errors.js';
-import { parasiticCapacitance, pinCapacitance, type CapacitancePerWidth, type UnitWidths } from '../cells/library.js';
+import { parasiticCapacitance } from '../cells/library.js';
+import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../cells/card-widths.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { CompiledNetlist } from './netlist.js';
-
-export function capacitancePerWidth(card: ProcessCard): CapacitancePerWidth {
-  return { cgateN: card.n.cgate, cgateP: card.p.cgate, cdrainN: card.n.cdrain, cdrainP: card.p.cdrain };
-}
-
-export function unitWidths(card: ProcessCard): UnitWidths {
-  return { wn: card.unit.wn, wp: card.unit.wp };
-}
-
-/** Input capacitance of every gate's pins, F, indexed by gate. */
-export function gatePinCapacitance(net: CompiledNetlist, card: ProcessCard): Float64Array {
-  const unit = unitWidths(card);
-  const c = capacitancePerWidth(card);
-  return Float64Array.from(net.gateCell, (cell, g) => pinCapacitance(cell, net.gateSize[g]!, unit, c));
-}
 
 /** Extra capacitance on named nets, F, and the design-file path that declared it. */
 export interface ExtraLoads {

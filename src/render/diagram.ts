@@ -10,7 +10,7 @@ import { handoverGap, settleTime, settleWindow } from '../checks/switch-checks.j
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, type NetWave } from './waveform.js';
-import { wrapTime } from '../measure/phases.js';
+import { wrapTime } from '../measure/wrap-time.js';
 import { handoverWindows, type TimeWindow } from './windows.js';
 import { compareChecks, type Check } from '../checks/check.js';
 import { switchOffIn } from '../checks/bias-checks.js';

@@ -3,6 +3,7 @@
  * margin, and the dead-time histogram of the worst corner. Shared by the HTML and Markdown pages.
  */
 import type { McReport } from '../report/mc-report.js';
+import { formatPsTenths } from '../units/format.js';
 
 export interface McSection {
   readonly report: McReport;
@@ -11,7 +12,7 @@ export interface McSection {
 }
 
 const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
-const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)} ps` : '-');
+const ps = formatPsTenths;
 
 function leastSigma(c: McReport['corners'][number]): { value: number; check: string } {
   let best = { value: Infinity, check: '' };

@@ -8,7 +8,7 @@ import type { FmaxResult } from '../analysis/fmax.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { checkReport, type CheckReport } from '../report/check-report.js';
 import { formatEngineering } from '../units/format.js';
-import { worstCornerIndex } from './corner-choice.js';
+import { worstCornerIndex } from '../analysis/corner-choice.js';
 import { buildDiagram } from './diagram.js';
 import { marginRows, processOrder, type MarginRow } from './margins.js';
 import type { MarginChartInput } from './svg/margins.js';
@@ -16,7 +16,7 @@ import { renderMarginSvg } from './svg/margins.js';
 import { renderTimingSvg } from './svg/timing.js';
 import type { McSection } from './mc-section.js';
 import type { TuneReport } from '../report/tune-report.js';
-import type { CornerComparison } from '../spice/confirm.js';
+import type { CornerComparison } from '../report/confirm-report.js';
 import { runVerdict, type RunVerdict } from '../report/verdict.js';
 
 /** ngspice against the model at some corners, when the report was asked for it. */

@@ -2,10 +2,10 @@
 import { leastMargin } from '../report/check-report.js';
 import { formatMargin } from '../report/margin-format.js';
 import type { ProcessCard } from '../schema/process.js';
-import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { formatEngineering, formatPs, formatSignedTime, formatTime } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
-import { worstDifference } from '../spice/confirm.js';
-import { percent } from '../spice/confirm-text.js';
+import { worstDifference } from '../report/confirm-report.js';
+import { percent } from '../report/confirm-text.js';
 import type { VerdictPart } from '../report/verdict.js';
 import { GLYPH } from './palette.js';
 import { candidateCells, loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
@@ -120,7 +120,7 @@ export function summaryItems(m: ReportModel): Array<[string, string]> {
 }
 
 function ps(seconds: number | undefined): string {
-  return seconds === undefined ? '-' : `${Math.round(seconds * 1e12)} ps`;
+  return seconds === undefined ? '-' : formatPs(seconds);
 }
 
 function ns(seconds: number | undefined): string {

@@ -3,7 +3,7 @@
  * half holds one handover and every edge it causes. A window spans the ramps whose 50 % points
  * fall in its half, padded; both windows get the same length so their scales match.
  */
-import { wrapTime } from '../measure/phases.js';
+import { wrapTime } from '../measure/wrap-time.js';
 
 export interface TimeWindow {
   /** Start and end, s, relative to the period start; may run past either end of the period. */

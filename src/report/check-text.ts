@@ -1,5 +1,5 @@
 /** The human rendering of a check report: one row per corner, extremes marked, a summary. */
-import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime, psNumber } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
 import { renderTable, type Column } from './text-table.js';
 import { formatMargin } from './margin-format.js';
@@ -8,9 +8,7 @@ import { compareChecks, type CheckKind } from '../checks/check.js';
 const MIN_MARK = ' v';
 const MAX_MARK = ' ^';
 
-function ps(seconds: number): string {
-  return `${Math.round(seconds * 1e12)}`;
-}
+const ps = psNumber;
 
 function ns(seconds: number): string {
   return (seconds * 1e9).toFixed(2);

@@ -1,9 +1,11 @@
 /** The Monte Carlo report: plain data for --json, and its table for people. */
+import { min } from 'd3-array';
 import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
 import { histogramQuantile, type StreamingHistogram } from '../variation/histogram.js';
 import { CAUTIONS } from './cautions.js';
 import { formatMargin, formatSpread } from './margin-format.js';
 import { renderTable } from './text-table.js';
+import { psTenthsNumber } from '../units/format.js';
 
 /**
  * Quantiles reported for the dead times: the ±3 sigma tails and the median, from each corner's
@@ -36,9 +38,7 @@ function quantiles(h: StreamingHistogram): Record<string, number> {
 }
 
 function leastSigma(c: McCornerReport): number {
-  let least = Infinity;
-  for (const q of c.quantities) if (q.sigmaMargin !== undefined && q.sigmaMargin !== null && q.sigmaMargin < least) least = q.sigmaMargin;
-  return least;
+  return min(c.quantities, (q) => q.sigmaMargin) ?? Infinity;
 }
 
 export function mcReport(design: string, process: string, mc: McResult, minYield: number | undefined, model = 'analytic'): McReport {
@@ -56,7 +56,7 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
 }
 
 const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
-const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-');
+const ps = psTenthsNumber;
 
 export function renderMcText(r: McReport): string {
   const lines: string[] = [];

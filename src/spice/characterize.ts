@@ -8,7 +8,7 @@
  * loads in unit-inverter input capacitances, transitions in the unit inverter's C*V/I.
  */
 import { CELLS, pinCapacitance, type PrimitiveCell } from '../cells/library.js';
-import { capacitancePerWidth, unitWidths } from '../netlist/loads.js';
+import { capacitancePerWidth, unitWidths } from '../cells/card-widths.js';
 import { devicesAtCorner } from '../process/device.js';
 import type { Corner } from '../process/corner.js';
 import type { ProcessCard } from '../schema/process.js';

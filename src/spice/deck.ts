@@ -11,7 +11,7 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateCorner } from '../analysis/evaluate.js';
 import type { Corner } from '../process/corner.js';
 import { devicesAtCorner } from '../process/device.js';
-import { unitWidths } from '../netlist/loads.js';
+import { unitWidths } from '../cells/card-widths.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
 import { cellSubckt, cellSubcktName, mosfet } from './cells.js';

@@ -5,7 +5,7 @@
  * time after the clock's rising edge). Measurement windows open at the clock edge that precedes each event in the model's
  * steady-state period, so one deck needs no second pass.
  */
-import { wrapTime } from '../measure/phases.js';
+import { wrapTime } from '../measure/wrap-time.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PhaseMeasurement } from '../measure/phases.js';
 import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
@@ -17,8 +17,7 @@ import { gateWave, turnOnLevel } from '../switches/conduction.js';
 import { shifterDelays, shifterNode } from './level-shifter.js';
 import { levelAt } from '../schema/level.js';
 import { spiceNumber } from './names.js';
-
-export type QuantityKind = 'dead' | 'gap' | 'width' | 'switch';
+import type { QuantityKind } from '../report/confirm-report.js';
 
 /** One edge of a node crossing a level, with the absolute time the window opens (TD), s. */
 export interface Crossing {

@@ -6,6 +6,7 @@
  */
 import { handover } from '../measure/phases.js';
 import { alignNear } from '../switches/conduction.js';
+import type { BreakBeforeMakeComparison } from '../report/confirm-report.js';
 import type { Quantity } from './measures.js';
 
 export interface BreakBeforeMakePair {
@@ -14,15 +15,6 @@ export interface BreakBeforeMakePair {
   readonly between: readonly [string, string];
   /** s */
   readonly guard: number;
-}
-
-export interface BreakBeforeMakeComparison {
-  readonly check: string;
-  /** Margins, s: least handover gap less the guard; null when the simulator missed an instant. */
-  readonly model: number;
-  readonly simulator: number | null;
-  /** Both say the pair holds, or both say it fails. */
-  readonly agrees: boolean;
 }
 
 interface Conduction {

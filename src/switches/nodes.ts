@@ -5,6 +5,7 @@
  * supply, its high end the greatest of `hi`), so a default dead-time range that spans both phases
  * stays exact at every supply.
  */
+import { max, min } from 'd3-array';
 import { inputError } from '../errors.js';
 import { levelAt, parseLevel, type Level } from '../schema/level.js';
 import type { LevelRangeSpec, NodesSpec } from '../schema/nodes.js';
@@ -28,15 +29,11 @@ export interface NodeLevels {
 }
 
 export function rangeLow(range: VoltageRange, vdd: number): number {
-  let v = Infinity;
-  for (const l of range.lo) { const x = levelAt(l, vdd); if (x < v) v = x; }
-  return v;
+  return min(range.lo, (l) => levelAt(l, vdd)) ?? Infinity;
 }
 
 export function rangeHigh(range: VoltageRange, vdd: number): number {
-  let v = -Infinity;
-  for (const l of range.hi) { const x = levelAt(l, vdd); if (x > v) v = x; }
-  return v;
+  return max(range.hi, (l) => levelAt(l, vdd)) ?? -Infinity;
 }
 
 function rangeOf(spec: LevelRangeSpec): VoltageRange {

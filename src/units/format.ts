@@ -45,3 +45,37 @@ export function formatVolts(volts: number): string {
 export function formatCelsius(celsius: number): string {
   return `${Number(celsius.toFixed(2))}C`;
 }
+
+/** Time in whole picoseconds, the number alone (a column headed "ps"). */
+export function psNumber(seconds: number): string {
+  return `${Math.round(seconds * 1e12)}`;
+}
+
+/** formatPs with the sign always shown: +12 ps, -3 ps (a value that rounds to zero is +0 ps). */
+export function formatSignedPs(seconds: number): string {
+  const ps = Math.round(seconds * 1e12);
+  return `${ps >= 0 ? '+' : '-'}${Math.abs(ps)} ps`;
+}
+
+/** Time in picoseconds to one decimal, the number alone: 812.4; '-' when not finite. */
+export function psTenthsNumber(seconds: number): string {
+  return Number.isFinite(seconds) ? `${(seconds * 1e12).toFixed(1)}` : '-';
+}
+
+/** Time in picoseconds to one decimal: 812.4 ps; '-' when not finite. */
+export function formatPsTenths(seconds: number): string {
+  return Number.isFinite(seconds) ? `${(seconds * 1e12).toFixed(1)} ps` : '-';
+}
+
+/** Time to the nearest 0.1 ps without a trailing .0: 12 ps, 12.5 ps. */
+export function formatPsShort(seconds: number): string {
+  return `${Math.round(seconds * 1e13) / 10} ps`;
+}
+
+/** A signed time in ps below 1 ns, else ns or us to three or four figures: +850 ps, -1.25 ns, +12.3 ns, +1.50 us. */
+export function formatSignedTimeShort(seconds: number): string {
+  const a = Math.abs(seconds);
+  const ps = a * 1e12;
+  const text = ps < 1000 ? `${Math.round(ps)} ps` : ps < 1e6 ? `${(ps / 1000).toFixed(ps < 1e4 ? 2 : 1)} ns` : `${(ps / 1e6).toFixed(2)} us`;
+  return `${seconds < 0 ? '-' : '+'}${text}`;
+}

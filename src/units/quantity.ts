@@ -3,7 +3,8 @@
  * or a plain number already in SI units.
  */
 
-const PREFIXES: Readonly<Record<string, number>> = {
+/** SI prefixes and their scale; '' is no prefix. */
+export const PREFIXES: Readonly<Record<string, number>> = {
   f: 1e-15, p: 1e-12, n: 1e-9, u: 1e-6, 'µ': 1e-6, 'μ': 1e-6, m: 1e-3,
   '': 1, k: 1e3, M: 1e6, G: 1e9,
 };

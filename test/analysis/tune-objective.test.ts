@@ -3,7 +3,7 @@ import { leastConduction, objectiveOf, score, usefulConduction } from '../../src
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { defaultSpace, tuneChains } from '../../src/analysis/tune.js';
-import { wrapTime } from '../../src/measure/phases.js';
+import { wrapTime } from '../../src/measure/wrap-time.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { design } from '../helpers.js';
 

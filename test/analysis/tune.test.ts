@@ -10,6 +10,7 @@ import { loadDesign } from '../../src/cli/load.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import type { Design } from '../../src/schema/design.js';
+import { ownKnobs, templateOf, withKnobs } from '../../src/analysis/tune-knobs.js';
 import { cli, design, inputErrorMessage, tempDir } from '../helpers.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
@@ -22,9 +23,8 @@ function load(name: string, overrides: string[] = []) {
 }
 
 /** Every corner of the design with these chain knobs. */
-function verdicts(d: Design, card: ReturnType<typeof load>['card'], knobs: ChainKnobs) {
-  if (d.generator.template === 'netlist') throw new Error('template expected');
-  const resolved = resolveDesign({ ...d, generator: { ...d.generator, ...knobs, stageSize: knobs.stageSize as number } }, card);
+function verdicts(d: Design, card: ReturnType<typeof load>['card'], knobs: Pick<ChainKnobs, 'stages' | 'stageSize' | 'stageLoad'> & Partial<ChainKnobs>) {
+  const resolved = resolveDesign(withKnobs(d, { ...ownKnobs(templateOf(d)), ...knobs }), card);
   return evaluateAll(resolved);
 }
 
@@ -36,8 +36,7 @@ const small = (d: Design, extra: Partial<TuneSpace> = {}): TuneSpace => ({ ...de
  * die with a plain evaluator (not the Monte Carlo chunks tune uses).
  */
 function leastMarginSigmas(d: Design, card: ReturnType<typeof load>['card'], knobs: ChainKnobs, corners: readonly string[], dies: number, seed: number): number[] {
-  if (d.generator.template === 'netlist') throw new Error('template expected');
-  const resolved = resolveDesign({ ...d, generator: { ...d.generator, ...knobs, stageSize: knobs.stageSize as number } }, card);
+  const resolved = resolveDesign(withKnobs(d, knobs), card);
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
   const evaluator = new CornerEvaluator(resolved);
   return corners.map((name) => {

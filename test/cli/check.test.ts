@@ -16,7 +16,7 @@ interface JsonReport {
   design: string;
   verdict: 'pass' | 'fail';
   corners: JsonCorner[];
-  limiting: { corner: string; check: string; margin: number | null } | null;
+  limiting: { corner: string; check: string; kind: string; margin: number | null } | null;
 }
 
 function report(name: string, ...extra: string[]): { code: number; json: JsonReport; stdout: string } {

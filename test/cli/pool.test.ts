@@ -1,5 +1,6 @@
-import { describe, it, expect } from 'vitest';
-import { runPool } from '../../src/cli/pool.js';
+import { EventEmitter } from 'node:events';
+import { describe, it, expect, vi } from 'vitest';
+import { runPool, type PoolHandle } from '../../src/cli/pool.js';
 import type { SweepSetup } from '../../src/cli/sweep-points.js';
 import type { SweepRow } from '../../src/analysis/sweep.js';
 import { design } from '../helpers.js';
@@ -11,32 +12,63 @@ const setup: SweepSetup = {
   model: {},
 };
 
-/** Holds the calling thread, so that results the threads post meanwhile queue up behind it. */
-function busyWait(ms: number): void {
-  const until = Date.now() + ms;
-  while (Date.now() < until) { /* spin */ }
+/** Stands in for a worker thread: the test decides when each of its answers arrives. */
+class FakeWorker extends EventEmitter {
+  static made: FakeWorker[] = [];
+  readonly posted: Array<{ index: number }> = [];
+  terminated = false;
+  constructor() {
+    super();
+    FakeWorker.made.push(this);
+  }
+  postMessage(message: { index: number }): void {
+    this.posted.push(message);
+  }
+  terminate(): Promise<number> {
+    this.terminated = true;
+    return Promise.resolve(1);
+  }
+  /** An answer the thread posted; it arrives even after terminate(), as a real port's queue does. */
+  answer(index: number): void {
+    this.emit('message', { index, result: [] });
+  }
+}
+
+/** runPool with node:worker_threads replaced by FakeWorker. */
+async function poolWithFakeWorkers(): Promise<typeof runPool> {
+  FakeWorker.made = [];
+  vi.resetModules();
+  vi.doMock('node:worker_threads', () => ({ Worker: FakeWorker }));
+  try {
+    return (await import('../../src/cli/pool.js')).runPool;
+  } finally {
+    vi.doUnmock('node:worker_threads');
+  }
 }
 
 describe('worker pool stop', () => {
   it('delivers no result after stop, even one a thread posted before it was terminated', async () => {
-    const tasks = Array.from({ length: 40 }, (_, i) => ({ start: i % 5, count: 1 }));
+    const fakePool = await poolWithFakeWorkers();
+    const tasks = Array.from({ length: 6 }, (_, i) => ({ start: i % 5, count: 1 }));
     const seen: number[] = [];
-    let stop = (): void => undefined;
-    let stoppedAt = -1;
-    // One worker thread kept two tasks ahead, plus this thread: while this thread is held, the
-    // worker's answers pile up on its port.
-    await runPool<{ start: number; count: number }, SweepRow[]>({ kind: 'sweep', ...setup }, tasks, 2, (index) => {
+    let handle: PoolHandle | undefined;
+    const finished = fakePool<{ start: number; count: number }, SweepRow[]>({ kind: 'sweep', ...setup }, tasks, 2, (index) => {
       seen.push(index);
-      if (stoppedAt >= 0) return;
-      busyWait(1500);
-      stoppedAt = seen.length;
-      stop();
-    }, (handle) => { stop = () => handle.stop(); }, () => { busyWait(1500); return []; });
-    // A terminated thread's port is drained when the thread exits, which is after runPool settles.
-    await new Promise((r) => setTimeout(r, 1000));
-    expect(stoppedAt).toBe(1);
-    expect(seen).toHaveLength(1);
-  }, 30_000);
+      handle!.stop();
+    }, (h) => { handle = h; });
+    const [a, b] = FakeWorker.made;
+    expect(FakeWorker.made).toHaveLength(2);
+    expect([a!.posted, b!.posted]).toEqual([[{ index: 0, task: tasks[0] }], [{ index: 1, task: tasks[1] }]]);
+    // Both threads have answered; the caller stops the pool on the first answer it reads.
+    a!.answer(0);
+    b!.answer(1);
+    a!.answer(0);
+    await finished;
+    expect(seen).toEqual([0]);
+    expect(a!.terminated && b!.terminated).toBe(true);
+    // No task went out after stop.
+    expect(a!.posted.length + b!.posted.length).toBe(2);
+  });
 
   it('delivers every result exactly once when it runs to the end', async () => {
     const tasks = Array.from({ length: 10 }, (_, i) => ({ start: i % 5, count: 1 }));

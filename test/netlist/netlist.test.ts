@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { compileNetlist, netId, type GateSpec, type Netlist } from '../../src/netlist/netlist.js';
-import { netLoads, gatePinCapacitance } from '../../src/netlist/loads.js';
+import { netLoads } from '../../src/netlist/loads.js';
+import { gatePinCapacitance } from '../../src/cells/card-widths.js';
 import { parasiticCapacitance, pinCapacitance } from '../../src/cells/library.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { expectClose, processCard, inputErrorMessage } from '../helpers.js';

@@ -13,7 +13,8 @@ import { promisify } from 'node:util';
 import { loadDesign } from '../../src/cli/load.js';
 import { resolveDesign, type ResolvedDesign } from '../../src/analysis/resolve.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
-import { CycleIndex, wrapTime } from '../../src/measure/phases.js';
+import { CycleIndex } from '../../src/measure/phases.js';
+import { wrapTime } from '../../src/measure/wrap-time.js';
 import { sampleRankCorrelation } from 'simple-statistics';
 import type { Corner } from '../../src/process/corner.js';
 

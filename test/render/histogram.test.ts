@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { renderHistogram } from '../../src/render/svg/histogram.js';
 import { histogramOf } from '../../src/variation/histogram.js';
 import { all, parseSvg } from './svg-dom.js';
-import { cliAsync, design, tempDir, cli } from '../helpers.js';
+import { cliAsync, design, tempDir } from '../helpers.js';
 import { readFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 

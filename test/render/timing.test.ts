@@ -6,7 +6,7 @@ import { scaleLinear } from 'd3-scale';
 import { evaluateAll, type CornerResult } from '../../src/analysis/evaluate.js';
 import { resolveDesign, type ResolvedDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
-import { worstCornerIndex } from '../../src/render/corner-choice.js';
+import { worstCornerIndex } from '../../src/analysis/corner-choice.js';
 import { buildDiagram } from '../../src/render/diagram.js';
 import { renderTimingSvg } from '../../src/render/svg/timing.js';
 import { design, tempDir } from '../helpers.js';

@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { MAX_REPEATED_PERIODS, rampsBetween, wavePoints, type NetWave } from '../../src/render/waveform.js';
-import { wrapTime } from '../../src/measure/phases.js';
 import { expectClose } from '../helpers.js';
 
 const T = 10e-9;
@@ -66,12 +65,5 @@ describe('rampsBetween', () => {
 
   it('gives nothing for a window with an infinite end instead of looping', () => {
     expect(rampsBetween(square, -Infinity, T)).toEqual([]);
-  });
-});
-
-describe('wrapTime', () => {
-  it('wraps negative and large times into [0, m)', () => {
-    expectClose(wrapTime(-1e-9, T), 9e-9, 1e-12);
-    expectClose(wrapTime(23e-9, T), 3e-9, 1e-12);
   });
 });

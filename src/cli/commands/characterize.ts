@@ -18,8 +18,8 @@ import type { Io } from '../io.js';
 import { loadDesign, loadProcess } from '../load.js';
 import { checkOutput, designFiles, emit } from '../output.js';
 import { tablesJson } from '../../spice/tables-json.js';
-import { parseJobs } from './confirm.js';
-import { modelFile } from './spice.js';
+import { parseJobs } from '../options.js';
+import { modelFile } from '../model-file.js';
 
 export interface CharacterizeOptions {
   readonly corners?: string;

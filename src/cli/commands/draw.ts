@@ -1,7 +1,7 @@
 /** `phasegap draw DESIGN`: an SVG timing diagram of one corner, the worst, or all overlaid; or the margin chart. */
 import { evaluateAll } from '../../analysis/evaluate.js';
 import { inputError } from '../../errors.js';
-import { selectCorner } from '../../render/corner-choice.js';
+import { selectCorner } from '../../analysis/corner-choice.js';
 import { buildDiagram } from '../../render/diagram.js';
 import { marginChartInput } from '../../render/report-model.js';
 import { renderMarginSvg } from '../../render/svg/margins.js';
@@ -9,7 +9,7 @@ import { renderTimingSvg } from '../../render/svg/timing.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
-import { parseNets, requireOut } from './out-options.js';
+import { parseNets, requireOut } from '../out-options.js';
 
 export const CHARTS = ['timing', 'margins'] as const;
 

@@ -7,6 +7,7 @@ import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { relativeNumber } from '../options.js';
 import { MAX_FMAX_RESOLUTION, MIN_FMAX_RESOLUTION } from '../run-limits.js';
 
 export interface FmaxCommandOptions extends ModelOptions {
@@ -18,8 +19,7 @@ export interface FmaxCommandOptions extends ModelOptions {
 
 function parseResolution(text: string | undefined): number | undefined {
   if (text === undefined) return undefined;
-  const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
-  const value = percent ? Number(percent[1]) / 100 : Number(text);
+  const value = relativeNumber(text);
   if (!(value >= MIN_FMAX_RESOLUTION && value < MAX_FMAX_RESOLUTION)) {
     throw inputError('--resolution', text, `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`);
   }

@@ -9,7 +9,7 @@ import { buildReportModel } from '../../render/report-model.js';
 import type { Io } from '../io.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
-import { requireOut } from './out-options.js';
+import { requireOut } from '../out-options.js';
 import { optionalWholeNumber } from '../options.js';
 import { MAX_SAMPLES, MAX_SEED } from '../run-limits.js';
 import { runMonteCarlo } from '../../analysis/montecarlo.js';
@@ -18,7 +18,7 @@ import { renderHistogram } from '../../render/svg/histogram.js';
 import type { McSection } from '../../render/mc-section.js';
 import type { ResolvedDesign } from '../../analysis/resolve.js';
 import { tuneChains } from '../../analysis/tune.js';
-import { confirmCorners } from './confirm.js';
+import { confirmCorners } from '../confirm-run.js';
 import { tuneReport } from '../../report/tune-report.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;

@@ -10,8 +10,8 @@ import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { optionalWholeNumber } from '../options.js';
 import { MAX_TOP } from '../run-limits.js';
-import { confirmCorners } from './confirm.js';
-import { modelFile } from './spice.js';
+import { confirmCorners } from '../confirm-run.js';
+import { modelFile } from '../model-file.js';
 
 export interface TuneOptions extends ModelOptions {
   readonly set: readonly string[];

@@ -1,8 +1,7 @@
 /** `phasegap verilog DESIGN --corner NAME -o FILE.v`: structural Verilog with the corner's gate delays. */
 import { inputError } from '../../errors.js';
 import { resolveDesign } from '../../analysis/resolve.js';
-import { evaluateAll, limitingCheck } from '../../analysis/evaluate.js';
-import { chooseCorners } from '../../spice/corner-choice.js';
+import { chooseCorners, oneCornerName } from '../../analysis/corner-choice.js';
 import { steadyStateDelays } from '../../verilog/delays.js';
 import { verilogModule, verilogTestbench } from '../../verilog/export.js';
 import type { Io } from '../io.js';
@@ -10,7 +9,7 @@ import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { optionalWholeNumber } from '../options.js';
 import { MAX_TESTBENCH_PERIODS } from '../run-limits.js';
-import { warnTo } from './spice.js';
+import { warnTo } from '../warn.js';
 
 export interface VerilogOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -35,8 +34,7 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
   if (options.corner === 'all' || options.corner.includes(',')) throw inputError('--corner', options.corner, 'must name one corner or worst');
   const periods = optionalWholeNumber('--periods', options.periods, { min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }, 6);
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
-  const name = options.corner === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner ?? resolved.corners[0]!.corner.name : options.corner;
-  const corner = chooseCorners(resolved, name, '--corner')[0]!;
+  const corner = chooseCorners(resolved, oneCornerName(resolved, options.corner), '--corner')[0]!;
   const delays = steadyStateDelays(resolved, corner);
   const module = verilogModule(resolved.netlist, delays, moduleName(design.name), [
     `${design.name} at ${corner.name}: structural model written by phasegap`,

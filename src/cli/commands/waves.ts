@@ -1,7 +1,7 @@
 /** `phasegap waves DESIGN --corner NAME`: the corner's steady-state waveforms as an IEEE 1364 VCD file. */
 import { evaluateAll } from '../../analysis/evaluate.js';
 import { inputError } from '../../errors.js';
-import { selectCorner } from '../../render/corner-choice.js';
+import { selectCorner } from '../../analysis/corner-choice.js';
 import { vcdSignals } from '../../render/vcd/signals.js';
 import { renderVcd, TIMESCALES, type Timescale } from '../../render/vcd/vcd.js';
 import type { Io } from '../io.js';
@@ -9,7 +9,7 @@ import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { wholeNumber } from '../options.js';
 import { MAX_VCD_PERIODS } from '../run-limits.js';
-import { parseNets, requireOut } from './out-options.js';
+import { parseNets, requireOut } from '../out-options.js';
 
 export interface WavesOptions extends ModelOptions {
   readonly set: readonly string[];

@@ -10,6 +10,7 @@ import { drawText } from './text.js';
 import { defineFailHatch } from './patterns.js';
 import { FAIL, GRID, INK, MUTED, PHASE, PHASE_TINT, SIZE } from '../palette.js';
 import { binEdges, type StreamingHistogram } from '../../variation/histogram.js';
+import { formatPsShort } from '../../units/format.js';
 
 export interface HistogramInput {
   readonly title: string;
@@ -50,9 +51,7 @@ function bars(h: StreamingHistogram, domain: readonly [number, number]): Bar[] {
   return counts.map((length, i) => ({ x0: edges[i]!, x1: edges[i + 1]!, length }));
 }
 
-function psLabel(seconds: number): string {
-  return `${Math.round(seconds * 1e13) / 10} ps`;
-}
+const psLabel = formatPsShort;
 
 export function renderHistogram(input: HistogramInput): string {
   const height = MARGIN.top + input.series.length * (PANEL + MARGIN.bottom);

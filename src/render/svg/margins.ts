@@ -15,6 +15,7 @@ import { createCanvas, points, round } from './canvas.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, textWidth } from './text.js';
 import { drawTitleBlock, type TitleInfo } from './title.js';
+import { formatSignedTimeShort } from '../../units/format.js';
 
 export interface MarginChartInput {
   readonly title: TitleInfo;
@@ -44,12 +45,7 @@ export function marginTickLabel(seconds: number): string {
   return `${sign}${Number((a / unit).toPrecision(3))} ${name}`;
 }
 
-function signedTime(seconds: number): string {
-  const a = Math.abs(seconds);
-  const ps = a * 1e12;
-  const text = ps < 1000 ? `${Math.round(ps)} ps` : ps < 1e6 ? `${(ps / 1000).toFixed(ps < 1e4 ? 2 : 1)} ns` : `${(ps / 1e6).toFixed(2)} us`;
-  return `${seconds < 0 ? '-' : '+'}${text}`;
-}
+const signedTime = formatSignedTimeShort;
 
 /** Decade ticks inside the domain: 0, +-10 ps, +-100 ps, +-1 ns, ... (decades 10^from .. 10^to; seconds by default). */
 export function decadeTicks(lo: number, hi: number, [from, to]: readonly [number, number] = [-11, 0]): number[] {

@@ -9,7 +9,8 @@ import { scaleLinear, type ScaleLinear } from 'd3-scale';
 import type { Diagram, DiagramRow, SpanMark, SwitchRow } from '../diagram.js';
 import type { TimeWindow } from '../windows.js';
 import { wavePoints } from '../waveform.js';
-import { formatEngineering, formatSignedTime, formatTime } from '../../units/format.js';
+import { wrapTime } from '../../measure/wrap-time.js';
+import { formatEngineering, formatPs, formatSignedPs, formatSignedTime, formatTime } from '../../units/format.js';
 import {
   CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
 } from '../palette.js';
@@ -39,14 +40,8 @@ const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
 
 /** Dead-time and break-before-make values as shown: whole picoseconds. */
-export function psText(seconds: number): string {
-  return `${Math.round(seconds * 1e12)} ps`;
-}
-
-function signedPs(seconds: number): string {
-  const ps = Math.round(seconds * 1e12);
-  return `${ps >= 0 ? '+' : '-'}${Math.abs(ps)} ps`;
-}
+const psText = formatPs;
+const signedPs = formatSignedPs;
 
 interface Context {
   readonly d: Diagram;
@@ -165,7 +160,7 @@ function panelTitle(d: Diagram, w: TimeWindow): string {
 }
 
 function halfOf(d: Diagram, t: number): 0 | 1 {
-  const at = ((t % d.period) + d.period) % d.period;
+  const at = wrapTime(t, d.period);
   return at < clockFallOf(d) ? 0 : 1;
 }
 
@@ -229,7 +224,7 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
     const barY = band.top + 24;
     // A window may run past the period's end: draw it in two pieces.
     const pieces = (from: number, to: number): Array<[number, number]> => {
-      const a = ((from % T) + T) % T;
+      const a = wrapTime(from, T);
       const b = a + (to - from);
       return b <= T ? [[a, b]] : [[a, T], [0, b - T]];
     };

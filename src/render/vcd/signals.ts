@@ -7,7 +7,7 @@ import type { CornerResult } from '../../analysis/evaluate.js';
 import type { CompiledNetlist } from '../../netlist/netlist.js';
 import { signalRows, type NetChoice } from '../rows.js';
 import { netWave } from '../waveform.js';
-import { wrapTime } from '../../measure/phases.js';
+import { wrapTime } from '../../measure/wrap-time.js';
 import type { VcdChange, VcdSignal } from './vcd.js';
 
 /** Changes of a periodic 0/1 signal over [0, periods*T): instants within one period, repeated. */

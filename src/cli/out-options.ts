@@ -1,6 +1,6 @@
 /** Option checks shared by the commands that write drawings and waveforms (kept free of the SVG stack, so loading them is cheap). */
-import { inputError } from '../../errors.js';
-import { NET_CHOICES, type NetChoice } from '../../render/rows.js';
+import { inputError } from '../errors.js';
+import { NET_CHOICES, type NetChoice } from '../render/rows.js';
 
 /** `--out` is required for every drawing: a file name, or - for stdout. */
 export function requireOut(out: string | undefined, what: string): string {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { renderConfirmText } from '../../src/spice/confirm-text.js';
-import type { CornerComparison } from '../../src/spice/confirm.js';
+import { renderConfirmText } from '../../src/report/confirm-text.js';
+import type { CornerComparison } from '../../src/report/confirm-report.js';
 
 const dead = (model: number, simulator: number) => ({
   quantity: 'dead p1->p2', kind: 'dead' as const, model, simulator, relativeError: (model - simulator) / simulator,

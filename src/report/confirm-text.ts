@@ -1,8 +1,8 @@
 /** The side-by-side table of `phasegap confirm`. */
 import { formatSignedTime, formatTime } from '../units/format.js';
-import { renderTable } from '../report/text-table.js';
-import type { CornerComparison } from './confirm.js';
-import { worstDifference } from './confirm.js';
+import { renderTable } from './text-table.js';
+import type { CornerComparison } from './confirm-report.js';
+import { worstDifference } from './confirm-report.js';
 
 export interface ConfirmSummary {
   readonly design: string;

@@ -1,0 +1,54 @@
+#!/usr/bin/env bash
+# Runs every command on the demo designs and keeps each output, its stderr and its exit code in
+# one folder, so two builds can be compared byte for byte:
+#   scripts/outputs-snapshot.sh /tmp/before        # on one commit (after npm run build)
+#   scripts/outputs-snapshot.sh /tmp/after         # on another
+#   diff -r /tmp/before /tmp/after
+# Outside tools are not needed (no confirm, no ngspice). Monte Carlo and sweep run one thread.
+set -u
+out=${1:?usage: outputs-snapshot.sh OUTPUT_FOLDER}
+root=$(cd "$(dirname "$0")/.." && pwd)
+bin="$root/dist/src/cli/main.js"
+mkdir -p "$out"
+out=$(cd "$out" && pwd)
+
+# run NAME ARGS...: stdout to NAME.out, stderr to NAME.err, exit code to NAME.code
+# SNAPSHOT_ONLY=REGEX runs only the outputs whose name matches.
+run() {
+  local name=$1; shift
+  [[ -n "${SNAPSHOT_ONLY:-}" && ! "$name" =~ $SNAPSHOT_ONLY ]] && return
+  (cd "$root" && node "$bin" "$@" >"$out/$name.out" 2>"$out/$name.err"; echo $? >"$out/$name.code")
+}
+
+run schema schema
+run init init -o -
+for design in "$root"/fixtures/designs/*.yaml; do
+  d=$(basename "$design" .yaml)
+  f=fixtures/designs/$d.yaml
+  run "$d.check" check "$f"
+  run "$d.check-json" check --json "$f"
+  run "$d.check-analytic" --model analytic check --json "$f"
+  run "$d.draw-worst" draw "$f" -o -
+  run "$d.draw-all" draw --corner all --nets all "$f" -o -
+  run "$d.draw-margins" draw --chart margins "$f" -o -
+  run "$d.waves" waves --nets all "$f" -o -
+  run "$d.spice" spice --corner worst "$f" -o -
+  run "$d.verilog" verilog --corner worst --testbench "$f" -o -
+  run "$d.fmax" fmax "$f"
+  run "$d.fmax-json" fmax --json "$f"
+  run "$d.tune" tune --margin 0 "$f"
+  run "$d.tune-json" tune --margin 0 --json "$f"
+  run "$d.mc" mc --samples 200 --workers 1 "$f"
+  run "$d.mc-json" mc --samples 200 --workers 1 --json "$f"
+  run "$d.mc-replay" mc --samples 200 --workers 1 --replay 7 "$f"
+  run "$d.sweep" sweep --workers 1 --vary vdd=1.6,1.8 --vary clock.frequency=10MHz:40MHz:3 "$f" -o -
+  run "$d.sweep-json" sweep --workers 1 --json --vary temperature=-40,125 "$f" -o -
+  run "$d.report" report --mc 100 "$f" -o "$out/$d.report.html"
+  mkdir -p "$out/$d.md"
+  run "$d.report-md" report --format md --no-fmax "$f" -o "$out/$d.md/report.md"
+done
+# bad input: message and exit code
+for design in "$root"/fixtures/designs/bad/*.yaml; do
+  d=$(basename "$design" .yaml)
+  run "bad.$d" check "fixtures/designs/bad/$d.yaml"
+done

@@ -1,0 +1,51 @@
+/** ngspice on chosen corners of a resolved design, compared with the model (confirm, and report --confirm). */
+import { inputError } from '../errors.js';
+import type { ResolvedDesign } from '../analysis/resolve.js';
+import { chooseCorners } from '../analysis/corner-choice.js';
+import { generatorDeck } from '../spice/deck.js';
+import { compareCorner } from '../spice/confirm.js';
+import type { CornerComparison } from '../report/confirm-report.js';
+import { parseSimulatorOutput } from '../spice/results.js';
+import { checkSimulator, runDecks } from '../spice/runner.js';
+import { shellCommand } from '../report/shell-quote.js';
+import type { Io } from './io.js';
+import { modelFile } from './model-file.js';
+import { parseJobs, relativeNumber } from './options.js';
+
+export const DEFAULT_TOLERANCE = 0.1;
+
+/** `--tolerance`, else the design's requirements.confirmTolerance, else 10 %. */
+export function parseTolerance(text: string | undefined, fromDesign?: number): number {
+  if (text === undefined) return fromDesign ?? DEFAULT_TOLERANCE;
+  const value = relativeNumber(text);
+  if (!(value > 0 && value < 10)) throw inputError('--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
+  return value;
+}
+
+export interface ConfirmRun {
+  readonly simulator: string;
+  readonly tolerance: number;
+  readonly comparisons: readonly CornerComparison[];
+}
+
+/** Writes the decks of the chosen corners, runs ngspice on them and compares with the model. */
+export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string,
+  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean },
+  cornersFlag = '--corners'): ConfirmRun {
+  const jobs = parseJobs(options.jobs);
+  const tolerance = parseTolerance(options.tolerance, resolved.design.requirements.confirmTolerance);
+  const corners = chooseCorners(resolved, options.corners, cornersFlag);
+  const modelPath = modelFile(resolved.card, cardDir, options.models);
+  const simulator = checkSimulator(options.ngspice);
+  const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
+  if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
+  const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
+  const comparisons = decks.map((deck, i) => {
+    const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
+    if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
+      throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
+    }
+    return compareCorner(deck, parsed, tolerance);
+  });
+  return { simulator, tolerance, comparisons };
+}
