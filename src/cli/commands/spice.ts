@@ -8,6 +8,9 @@ import { generatorDeck } from '../../spice/deck.js';
 import { spiceSection } from '../../spice/models.js';
 import { chooseCorners } from '../../spice/corner-choice.js';
 import type { Io } from '../io.js';
+import { gatherProvenance } from '../provenance.js';
+import { provenanceLines } from '../../report/provenance.js';
+import { spiceComment } from '../../spice/text.js';
 import { checkModelFile, loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
@@ -42,7 +45,7 @@ function checkModelNames(spice: SpiceSection, defined: ReadonlySet<string>, path
 export const warnTo = (io: Io) => (message: string) => io.stderr(`phasegap: warning: ${message}\n`);
 
 export function runSpice(io: Io, designPath: string, options: SpiceOptions): number {
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
@@ -57,7 +60,10 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const toFile = options.out !== undefined && options.out !== '-';
   const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;
   const deck = generatorDeck(resolved, corner, { modelPath });
-  emit(io, deck.text, options.out, inputs);
+  const record = provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options, spice: true }));
+  // The first line of a deck is its title; the record follows it as comment lines.
+  const [title, ...rest] = deck.text.split('\n');
+  emit(io, [title, ...record.map(spiceComment), ...rest].join('\n'), options.out, inputs);
   if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}\n`);
   return 0;
 }

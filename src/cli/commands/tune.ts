@@ -40,7 +40,7 @@ function quantityOption(flag: string, text: string, unit: Unit, positive: boolea
 const capacitance = (flag: string, text: string) => quantityOption(flag, text, 'F', true, 'must be a positive capacitance, e.g. 200fF');
 
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);

@@ -15,6 +15,8 @@ import { createCanvas, points, round } from './canvas.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, textWidth } from './text.js';
 import { drawTitleBlock, type TitleInfo } from './title.js';
+import { runTitle } from './metadata.js';
+import type { RunVerdict } from '../../report/verdict.js';
 
 export interface MarginChartInput {
   readonly title: TitleInfo;
@@ -26,6 +28,8 @@ export interface MarginChartInput {
 export interface MarginSvgOptions {
   readonly idPrefix?: string;
   readonly width?: number;
+  /** The run's combined verdict, for the title box (the chart's own checks otherwise). */
+  readonly run?: RunVerdict;
 }
 
 const MARGIN = 16;
@@ -152,7 +156,7 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
   const hatch = defineFailHatch(root, prefix);
-  drawTitleBlock(root, input.title, width, MARGIN);
+  drawTitleBlock(root, runTitle(input.title, options.run), width, MARGIN);
   let top = TOP;
   for (const [k, block] of blocks.entries()) {
     if (k > 0) top += BLOCK_HEAD;
