@@ -63,7 +63,7 @@ export interface ReportDiff {
   readonly verdict: 'pass' | 'fail';
   readonly newFailures: readonly CheckChange[];
   readonly fixedFailures: readonly CheckChange[];
-  /** Margins that fell by more than the tolerance, largest loss first. */
+  /** Margins that fell by more than the tolerance: timing ones first, each by the largest loss. */
   readonly marginLosses: readonly CheckChange[];
   /** Margins that grew by more than the tolerance, largest gain first. */
   readonly marginGains: readonly CheckChange[];
@@ -108,8 +108,10 @@ export function diffReports(before: DiffInput, after: DiffInput, files: { old: s
   }
   const newFailures = changes.filter((c) => c.newPass === false && c.oldPass !== false);
   const fixedFailures = changes.filter((c) => c.oldPass === false && c.newPass === true);
-  const marginLosses = changes.filter((c) => c.delta !== null && c.delta < -limit(c.kind, tolerance)).sort((x, y) => x.delta! - y.delta!);
-  const marginGains = changes.filter((c) => c.delta !== null && c.delta > limit(c.kind, tolerance)).sort((x, y) => y.delta! - x.delta!);
+  // Seconds and volts do not compare: timing changes first, each unit by size.
+  const unitOrder = (x: CheckChange, y: CheckChange) => (marginUnit(x.kind) === marginUnit(y.kind) ? 0 : marginUnit(x.kind) === 's' ? -1 : 1);
+  const marginLosses = changes.filter((c) => c.delta !== null && c.delta < -limit(c.kind, tolerance)).sort((x, y) => unitOrder(x, y) || x.delta! - y.delta!);
+  const marginGains = changes.filter((c) => c.delta !== null && c.delta > limit(c.kind, tolerance)).sort((x, y) => unitOrder(x, y) || y.delta! - x.delta!);
   const checksOf = (r: DiffInput) => new Set(r.corners.flatMap((c) => c.checks.map((k) => k.name)));
   const oldNames = checksOf(before);
   const newNames = checksOf(after);
