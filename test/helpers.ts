@@ -95,3 +95,13 @@ export function designFromYaml(text: string): Design {
 export function resolveYaml(text: string, card = 'generic180'): ResolvedDesign {
   return resolveDesign(designFromYaml(text), loadProcess(processCard(card)));
 }
+
+/**
+ * An output with its run record's date removed (and its command line, with `command`), for
+ * comparing two runs: the record says when and how each was made, so only those differ.
+ */
+export function withoutStamp(text: string, command = false): string {
+  let out = text.replace(/^(provenance: phasegap \S+), \S+$/m, '$1').replace(/("date": )"[^"]*"/, '$1""');
+  if (command) out = out.replace(/^provenance: command: .*$/m, '').replace(/("command": )\[[^\]]*\]/, '$1[]');
+  return out;
+}

@@ -145,6 +145,16 @@ function streamWriter(stream: NodeJS.WriteStream, name: StreamWriteError['stream
   };
 }
 
+/**
+ * The date outputs record: SOURCE_DATE_EPOCH (seconds since 1970, the reproducible-builds.org
+ * convention) when set, so two runs can give the same bytes; else now.
+ */
+export function sourceDate(env: NodeJS.ProcessEnv = process.env): Date {
+  const epoch = env.SOURCE_DATE_EPOCH;
+  if (epoch !== undefined && /^\d{1,12}$/.test(epoch)) return new Date(Number(epoch) * 1000);
+  return new Date();
+}
+
 export const processIo: Io = {
   stdout: streamWriter(process.stdout, 'standard output'),
   stderr: streamWriter(process.stderr, 'standard error'),
@@ -152,5 +162,5 @@ export const processIo: Io = {
   exists: existsSync,
   stderrIsTTY: Boolean(process.stderr.isTTY) && !process.env.CI,
   readStdin: readProcessStdin,
-  now: () => new Date(),
+  now: sourceDate,
 };

@@ -63,3 +63,12 @@ describe('provenance in every output', () => {
     expect(run.stdout.trim()).toBe(version);
   });
 });
+
+describe('sourceDate', () => {
+  it('takes SOURCE_DATE_EPOCH (reproducible-builds.org) when it is whole seconds, else the clock', async () => {
+    const { sourceDate } = await import('../../src/cli/io.js');
+    expect(sourceDate({ SOURCE_DATE_EPOCH: '1700000000' }).toISOString()).toBe('2023-11-14T22:13:20.000Z');
+    const before = Date.now();
+    expect(sourceDate({ SOURCE_DATE_EPOCH: 'yesterday' }).getTime()).toBeGreaterThanOrEqual(before);
+  });
+});
