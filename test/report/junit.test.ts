@@ -4,7 +4,9 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { checkReport } from '../../src/report/check-report.js';
-import { checkSuite, junitXml, verdictSuite } from '../../src/report/junit.js';
+import { checkSuite, confirmSuite, junitXml, mcSuite, verdictSuite } from '../../src/report/junit.js';
+import { runMonteCarlo } from '../../src/analysis/montecarlo.js';
+import { mcReport } from '../../src/report/mc-report.js';
 import { provenance } from '../../src/report/provenance.js';
 import { runVerdict } from '../../src/report/verdict.js';
 import { design, resolveYaml, ROOT, tempDir } from '../helpers.js';
@@ -55,5 +57,36 @@ describe('junitXml', () => {
     const xml = junitXml([{ name: 'a<b>&"c\u0001', cases: [{ name: ']]><x/>\u0007', className: 'k', failure: 'm<', output: ']]>' }] }], record);
     expect(validate(xml)).toBe('');
     expect(xml).not.toMatch(/[\u0001\u0007]/);
+  });
+});
+
+describe('mcSuite and confirmSuite', () => {
+  it('mcSuite fails the yield case and the checks dies fail when the yield misses, and validates', () => {
+    // The demo with a 964 ps minimum: 26 of 40 dies pass (seed 1, measured).
+    const resolved = resolveYaml(readFileSync(design('doubler'), 'utf8').replace('deadTime: { min: 500ps, max: 4ns }', 'deadTime: { min: 964ps, max: 4ns }'));
+    const mc = runMonteCarlo(resolved, 40, 1);
+    const missed = mcSuite(mcReport('d', 'generic180', mc, 0.99));
+    expect(missed.cases[0]).toMatchObject({ name: 'yield at every corner', failure: 'yield 65.000 % over 40 dies; required 99.000 %' });
+    expect(missed.cases.filter((c) => c.failure !== undefined).map((c) => c.name)).toContain('dead p1->p2 >= 964 ps');
+    const accepted = mcSuite(mcReport('d', 'generic180', mc, 0.6));
+    expect(accepted.cases.filter((c) => c.failure !== undefined)).toEqual([]);
+    expect(validate(junitXml([missed], record))).toBe('');
+  });
+
+  it('confirmSuite gives a case per quantity and pair per corner, failing those beyond tolerance or disagreeing', () => {
+    const suite = confirmSuite('d', 'ngspice-42', 0.1, [{
+      corner: 'tt', errors: [], pass: false,
+      quantities: [
+        { quantity: 'dead p1->p2', kind: 'dead', model: 1e-9, simulator: 1.02e-9, relativeError: -0.0196, pass: true },
+        { quantity: 'gap p1->p2', kind: 'gap', model: 9e-10, simulator: null, relativeError: null, pass: false },
+      ],
+      breakBeforeMake: [{ check: 'a/b break-before-make', model: 1e-10, simulator: -1e-11, agrees: false }],
+    }]);
+    expect(suite.cases.map((c) => [c.name, c.failure ?? 'pass'])).toEqual([
+      ['dead p1->p2 at tt', 'pass'],
+      ['gap p1->p2 at tt', 'model 900 ps, ngspice-42 not measured, tolerance 10.0 %'],
+      ['a/b break-before-make at tt', 'verdicts disagree; margin: model +100 ps, ngspice-42 -10.0 ps'],
+    ]);
+    expect(validate(junitXml([suite], record))).toBe('');
   });
 });
