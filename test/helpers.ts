@@ -34,7 +34,7 @@ export interface CliRun {
 }
 
 /** An Io that captures stdout and stderr; files are written for real (atomically). */
-function capturingIo(): { io: Io; captured: () => { stdout: string; stderr: string } } {
+function capturingIo(extra: Partial<Io> = {}): { io: Io; captured: () => { stdout: string; stderr: string } } {
   let stdout = '';
   let stderr = '';
   const io: Io = {
@@ -43,6 +43,7 @@ function capturingIo(): { io: Io; captured: () => { stdout: string; stderr: stri
     writeFile: writeFileAtomic,
     exists: existsSync,
     stderrIsTTY: false,
+    ...extra,
   };
   return { io, captured: () => ({ stdout, stderr }) };
 }
@@ -52,6 +53,13 @@ export function cli(...argv: string[]): CliRun {
   const { io, captured } = capturingIo();
   const code = run(argv, io);
   if (typeof code !== 'number') throw new Error('this command runs asynchronously: use cliAsync');
+  return { code, ...captured() };
+}
+
+/** Like cliAsync(), with parts of the Io given: standard input, a fixed clock. */
+export async function cliWith(extra: Partial<Io>, ...argv: string[]): Promise<CliRun> {
+  const { io, captured } = capturingIo(extra);
+  const code = await run(argv, io);
   return { code, ...captured() };
 }
 
@@ -81,4 +89,14 @@ export function designFromYaml(text: string): Design {
 /** Resolves a YAML design against fixtures/processes/<card>.yaml. */
 export function resolveYaml(text: string, card = 'generic180'): ResolvedDesign {
   return resolveDesign(designFromYaml(text), loadProcess(processCard(card)));
+}
+
+/**
+ * An output with its run record's date removed (and its command line, with `command`), for
+ * comparing two runs: the record says when and how each was made, so only those differ.
+ */
+export function withoutStamp(text: string, command = false): string {
+  let out = text.replace(/^(provenance: phasegap \S+), \S+$/m, '$1').replace(/("date": )"[^"]*"/, '$1""');
+  if (command) out = out.replace(/^provenance: command: .*$/m, '').replace(/("command": )\[[^\]]*\]/, '$1[]');
+  return out;
 }

@@ -1,5 +1,5 @@
 /** The CLI's only contact with the outside: streams and files, injected so tests never touch the real ones. */
-import { closeSync, existsSync, fchmodSync, lstatSync, openSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fchmodSync, fstatSync, lstatSync, openSync, readSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { basename, dirname, join } from 'node:path';
 
@@ -11,6 +11,53 @@ export interface Io {
   exists(path: string): boolean;
   /** Whether stderr is an interactive terminal (progress bars only then). */
   readonly stderrIsTTY: boolean;
+  /**
+   * Standard input as text, read to its end but never more than `limit` + 1 bytes (so the caller
+   * can tell it is over the limit); throws a `StdinError` when it cannot be read. Absent: no stdin.
+   */
+  readonly readStdin?: (limit: number) => string;
+  /** The clock for dates written into outputs (a fixed one in tests). */
+  readonly now?: () => Date;
+  /** The command's words after the program name, as given (set by `run`). */
+  readonly argv?: readonly string[];
+}
+
+/** Why standard input could not be read (a terminal, a closed descriptor). */
+export class StdinError extends Error {
+  constructor(readonly reason: string) {
+    super(reason);
+    this.name = 'StdinError';
+  }
+}
+
+/** Reads fd 0 to its end, at most `limit` + 1 bytes; refuses a terminal, which would wait for typing. */
+export function readProcessStdin(limit: number): string {
+  let stat;
+  try {
+    stat = fstatSync(0);
+  } catch (error) {
+    throw new StdinError(`standard input cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+  }
+  if (stat.isCharacterDevice() && process.stdin.isTTY) throw new StdinError('standard input is a terminal; pipe or redirect a design into it');
+  const chunks: Buffer[] = [];
+  let total = 0;
+  for (;;) {
+    const chunk = Buffer.allocUnsafe(Math.min(1 << 16, limit + 1 - total));
+    let n: number;
+    try {
+      n = readSync(0, chunk, 0, chunk.length, null);
+    } catch (error) {
+      const code = (error as NodeJS.ErrnoException).code;
+      if (code === 'EAGAIN') continue;
+      if (code === 'EOF') break;
+      throw new StdinError(`standard input cannot be read (${code ?? 'error'})`);
+    }
+    if (n === 0) break;
+    chunks.push(chunk.subarray(0, n));
+    total += n;
+    if (total > limit) break;
+  }
+  return Buffer.concat(chunks, total).toString('utf8');
 }
 
 /** What a path names, without following a final symbolic link. */
@@ -98,10 +145,22 @@ function streamWriter(stream: NodeJS.WriteStream, name: StreamWriteError['stream
   };
 }
 
+/**
+ * The date outputs record: SOURCE_DATE_EPOCH (seconds since 1970, the reproducible-builds.org
+ * convention) when set, so two runs can give the same bytes; else now.
+ */
+export function sourceDate(env: NodeJS.ProcessEnv = process.env): Date {
+  const epoch = env.SOURCE_DATE_EPOCH;
+  if (epoch !== undefined && /^\d{1,12}$/.test(epoch)) return new Date(Number(epoch) * 1000);
+  return new Date();
+}
+
 export const processIo: Io = {
   stdout: streamWriter(process.stdout, 'standard output'),
   stderr: streamWriter(process.stderr, 'standard error'),
   writeFile: writeFileAtomic,
   exists: existsSync,
   stderrIsTTY: Boolean(process.stderr.isTTY) && !process.env.CI,
+  readStdin: readProcessStdin,
+  now: sourceDate,
 };

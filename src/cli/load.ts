@@ -1,5 +1,6 @@
 /** Reading design files and process cards from disk, with `--set` overrides applied before validation. */
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
+import { createHash } from 'node:crypto';
 import { dirname, extname, resolve } from 'node:path';
 import { InputError, inputError } from '../errors.js';
 import { designSchema, type Design } from '../schema/design.js';
@@ -15,9 +16,17 @@ import { parseYamlText } from './yaml-text.js';
 import { checkDataShape } from '../schema/data-shape.js';
 import { MAX_DESIGN_BYTES, MAX_MODEL_BYTES, MAX_TABLE_BYTES } from '../schema/limits.js';
 import { resolveDesign, type ResolvedDesign } from '../analysis/resolve.js';
+import { StdinError, type Io } from './io.js';
+
+/** The design argument that means standard input. */
+export const STDIN = '-';
+/** How standard input is named in errors. */
+const STDIN_NAME = '<stdin>';
+
+export const sha256 = (text: string): string => createHash('sha256').update(text, 'utf8').digest('hex');
 
 /** What a file is read as: its size limits, and whether errors may quote its text. */
-export type DataKind = 'design' | 'card' | 'tables';
+export type DataKind = 'design' | 'card' | 'tables' | 'report';
 
 interface KindRules {
   readonly bytes: { readonly yaml: number; readonly json: number };
@@ -32,6 +41,8 @@ const KINDS: Readonly<Record<DataKind, KindRules>> = {
   // A card or table file is named by a design, so it may be any file on disk.
   card: { bytes: MAX_DESIGN_BYTES, quote: false, expect: { what: 'a process card', keys: Object.keys(processSchema.shape) } },
   tables: { bytes: MAX_TABLE_BYTES, quote: false, expect: { what: 'a delay-table file (phasegap characterize output)', keys: Object.keys(tablesSchema.shape) } },
+  // A report given to diff may be any file; it is quoted only once it looks like a check report.
+  report: { bytes: MAX_TABLE_BYTES, quote: false, expect: { what: 'a phasegap check report (the output of check --json)', keys: ['tool', 'design', 'process', 'model', 'clock', 'phases', 'verdict', 'limiting', 'corners', 'warnings', 'cautions'] } },
 };
 
 /**
@@ -49,10 +60,65 @@ function looksLike(data: object, keys: readonly string[]): boolean {
  * and shape; `label` names the file's role in errors (DESIGN, process, --tables).
  */
 export function readDataFile(path: string, label: string, kind: DataKind = 'design'): unknown {
-  const format = extname(path).toLowerCase() === '.json' ? 'json' : 'yaml';
+  return readDataFileText(path, label, kind).data;
+}
+
+function formatOf(path: string): 'json' | 'yaml' {
+  return extname(path).toLowerCase() === '.json' ? 'json' : 'yaml';
+}
+
+function limitText(kind: DataKind, format: 'json' | 'yaml'): string {
   const bytes = KINDS[kind].bytes;
-  const what = `${format.toUpperCase()} ${kind === 'tables' ? 'delay-table file' : 'design or process card'}`;
-  const text = readBoundedText(path, label, bytes[format], format === 'yaml' ? `${what} (a JSON one may have ${mebibytes(bytes.json)})` : what);
+  const what = `${format.toUpperCase()} ${kind === 'tables' ? 'delay-table file' : kind === 'report' ? 'report' : 'design or process card'}`;
+  return format === 'yaml' ? `${what} (a JSON one may have ${mebibytes(bytes.json)})` : what;
+}
+
+/** Like readDataFile, with the text read (for its hash). */
+export function readDataFileText(path: string, label: string, kind: DataKind = 'design'): { data: unknown; text: string } {
+  const format = formatOf(path);
+  const text = readBoundedText(path, label, KINDS[kind].bytes[format], limitText(kind, format));
+  return { data: parseDataText(text, path, format, kind), text };
+}
+
+/** A design's text and what to call it: a file path, or "-" for standard input. */
+export interface DesignSource {
+  readonly path: string;
+  readonly text: string;
+}
+
+/**
+ * The design's text from its file, or from standard input for "-" (JSON when it starts with "{",
+ * else YAML), within the same byte limits.
+ */
+export function readDesignSource(path: string, stdin?: Io['readStdin']): DesignSource {
+  if (path !== STDIN) return { path, text: readBoundedText(path, 'DESIGN', KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
+  if (stdin === undefined) throw inputError('DESIGN', path, 'means standard input, which this run does not have; name a design file');
+  const limit = Math.max(KINDS.design.bytes.json, KINDS.design.bytes.yaml);
+  let text: string;
+  try {
+    text = stdin(limit);
+  } catch (error) {
+    if (error instanceof StdinError) throw inputError('DESIGN', path, `${error.reason}`);
+    throw error;
+  }
+  const format = stdinFormat(text);
+  if (Buffer.byteLength(text, 'utf8') > KINDS.design.bytes[format]) {
+    throw inputError('DESIGN', path, `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`);
+  }
+  return { path, text };
+}
+
+function stdinFormat(text: string): 'json' | 'yaml' {
+  return /^\uFEFF?\s*\{/.test(text) ? 'json' : 'yaml';
+}
+
+/** A design source's data, bounded in shape. */
+export function designData(source: DesignSource): unknown {
+  if (source.path === STDIN) return parseDataText(source.text, STDIN_NAME, stdinFormat(source.text), 'design');
+  return parseDataText(source.text, source.path, formatOf(source.path), 'design');
+}
+
+function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind: DataKind): unknown {
   const source = { name: path, quote: KINDS[kind].quote };
   const data = format === 'json' ? parseJsonText(text, source) : parseYamlText(text, source);
   const expected = KINDS[kind].expect;
@@ -129,27 +195,40 @@ export interface LoadedDesign {
   readonly card: ProcessCard;
   /** Where the process card came from (a path, or "inline"). */
   readonly processSource: string;
+  /** The design file as given, or "-" for standard input. */
   readonly designPath: string;
+  /** SHA-256 of the design text read, and of the process card file (null when inline). */
+  readonly hashes: { readonly design: string; readonly card: string | null };
+  /** The design text read (workers load it again from this, not from the path). */
+  readonly designText: string;
   /** Folder that paths inside the card (models, tables) are relative to. */
   readonly cardDir: string;
 }
 
-export function loadDesign(path: string, overrides: readonly string[] = []): LoadedDesign {
-  const raw = readDataFile(path, 'DESIGN');
+/** Loads a design from its path ("-": standard input through `stdin`) or from text already read. */
+export function loadDesign(from: string | DesignSource, overrides: readonly string[] = [], stdin?: Io['readStdin']): LoadedDesign {
+  const source = typeof from === 'string' ? readDesignSource(from, stdin) : from;
+  const path = source.path;
+  const raw = designData(source);
   const edited = applyOverrides(raw, overrides);
   const design = parseWith(designSchema, edited);
+  const base = { design, designPath: path, designText: source.text };
   if (typeof design.process === 'string') {
     const cardPath = resolve(dirname(path), design.process);
-    const card = loadProcess(cardPath, 'process');
-    return { design, card, processSource: design.process, designPath: path, cardDir: dirname(cardPath) };
+    const { card, text } = loadProcessText(cardPath, 'process');
+    return { ...base, card, processSource: design.process, cardDir: dirname(cardPath), hashes: { design: sha256(source.text), card: sha256(text) } };
   }
-  return { design, card: design.process, processSource: 'inline', designPath: path, cardDir: dirname(resolve(path)) };
+  return { ...base, card: design.process, processSource: 'inline', cardDir: dirname(resolve(path)), hashes: { design: sha256(source.text), card: null } };
 }
 
 export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
-  const raw = readDataFile(path, label, 'card');
+  return loadProcessText(path, label).card;
+}
+
+function loadProcessText(path: string, label: string): { card: ProcessCard; text: string } {
+  const { data: raw, text } = readDataFileText(path, label, 'card');
   try {
-    return parseWith(processSchema, raw);
+    return { card: parseWith(processSchema, raw), text };
   } catch (error) {
     if (error instanceof InputError) {
       throw new InputError(error.issues.map((i) => ({ ...i, path: i.path === '' ? path : `${path}: ${i.path}` })));
@@ -187,8 +266,8 @@ export function loadModel(card: ProcessCard, cardDir: string, options: ModelOpti
 }
 
 /** A design loaded, its delay model chosen from the global options, and resolved once. */
-export function loadResolved(designPath: string, overrides: readonly string[], options: ModelOptions, warn: (message: string) => void): LoadedDesign & { readonly resolved: ResolvedDesign } {
-  const loaded = loadDesign(designPath, overrides);
+export function loadResolved(designPath: string | DesignSource, overrides: readonly string[], options: ModelOptions, warn: (message: string) => void, stdin?: Io['readStdin']): LoadedDesign & { readonly resolved: ResolvedDesign } {
+  const loaded = loadDesign(designPath, overrides, stdin);
   const resolved = resolveDesign(loaded.design, loaded.card, loadModel(loaded.card, loaded.cardDir, options, warn));
   return { ...loaded, resolved };
 }

@@ -47,7 +47,8 @@ export function inputFiles(loaded: LoadedDesign, options: { readonly tables?: st
 
 /** The design file and its process card file (when the card is not inline). */
 export function designFiles(loaded: LoadedDesign): string[] {
-  return loaded.processSource === 'inline' ? [loaded.designPath] : [loaded.designPath, resolve(dirname(loaded.designPath), loaded.processSource)];
+  const design = loaded.designPath === '-' ? [] : [loaded.designPath];
+  return loaded.processSource === 'inline' ? design : [...design, resolve(dirname(loaded.designPath), loaded.processSource)];
 }
 
 /** The tables and SPICE model file a process card names (or the options replace), resolved. */

@@ -14,6 +14,8 @@ import { runVerilog } from './commands/verilog.js';
 import { runMc } from './commands/mc.js';
 import { runWaves } from './commands/waves.js';
 import { runSweep } from './commands/sweep.js';
+import { VERSION } from './version.js';
+import { runDiff } from './commands/diff.js';
 
 export const EXIT_PASS = 0;
 export const EXIT_FAIL = 1;
@@ -26,6 +28,10 @@ function setOption(): Option {
     .argParser(collect).default([]);
 }
 
+function junitOption(): Option {
+  return new Option('--junit <FILE>', 'also write the results as JUnit XML for a CI server (one test case per check)');
+}
+
 function outOption(what: string): Option {
   return new Option('-o, --out <FILE>', `write ${what} to FILE atomically ('-' for stdout)`);
 }
@@ -33,7 +39,7 @@ function outOption(what: string): Option {
 export function buildProgram(io: Io, setCode: (code: number | Promise<number>) => void): Command {
   const program = new Command('phasegap')
     .description('Dead time, break-before-make and settling checks for two-phase non-overlapping clock generators')
-    .version('0.1.0')
+    .version(VERSION)
     .exitOverride()
     .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
     .showHelpAfterError('(run phasegap --help for usage)')
@@ -46,6 +52,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(setOption())
     .option('--json', 'print the machine report (SI units) instead of the table', false)
     .addOption(outOption('the report'))
+    .addOption(junitOption())
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runCheck(io, design, cmd.optsWithGlobals())));
 
   program.command('fmax')
@@ -98,6 +105,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--timings', 'print on stderr how long setup, evaluation and the report took', false)
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
+    .addOption(junitOption())
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runMc(io, design, cmd.optsWithGlobals())));
 
   program.command('draw')
@@ -137,6 +145,16 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .addOption(outOption('the VCD'))
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runWaves(io, design, cmd.optsWithGlobals())));
 
+  program.command('diff')
+    .description('compare two check reports (check --json): margin changes, new and fixed failures, dead-time shifts')
+    .argument('<OLD.json>', 'the baseline report')
+    .argument('<NEW.json>', 'the report to compare with it')
+    .option('--tolerance <T>', 'margin loss and dead-time shift to ignore, e.g. 5ps (default 1ps)')
+    .option('--voltage-tolerance <V>', 'margin loss to ignore on the switch bias checks (default 1mV)')
+    .option('--json', 'print the comparison as JSON (SI units)', false)
+    .addOption(outOption('the comparison'))
+    .action((before: string, after: string, opts: Parameters<typeof runDiff>[3]) => setCode(runDiff(io, before, after, opts)));
+
   program.command('schema')
     .description('print the JSON Schema of the design file')
     .addOption(outOption('the schema'))
@@ -169,6 +187,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .option('--jobs <N>', 'simulations at once (default: the number of cores)')
     .option('--json', 'print the machine report (SI units)', false)
     .addOption(outOption('the report'))
+    .addOption(junitOption())
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runConfirm(io, design, cmd.optsWithGlobals())));
 
   program.command('characterize')
@@ -205,7 +224,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
  */
 export function run(argv: readonly string[], io: Io): number | Promise<number> {
   const outcome: { code: number | Promise<number> } = { code: EXIT_PASS };
-  const program = buildProgram(io, (c) => { outcome.code = c; });
+  const program = buildProgram({ ...io, argv: [...argv] }, (c) => { outcome.code = c; });
   const fail = (error: unknown): number => {
     if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
     if (error instanceof InputError) {

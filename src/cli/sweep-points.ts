@@ -1,6 +1,6 @@
 /** Building and evaluating sweep points from the raw design text (shared by the command and its threads). */
 import { applyOverrides } from './overrides.js';
-import { readDataFile, loadProcess, loadModel, type ModelOptions } from './load.js';
+import { designData, loadProcess, loadModel, type DesignSource, type ModelOptions } from './load.js';
 import { cornersSchema, designSchema } from '../schema/design.js';
 import { expandCorners } from '../process/corners.js';
 import { CORNER_AXES } from '../analysis/sweep.js';
@@ -14,7 +14,8 @@ import { dirname, resolve } from 'node:path';
 import type { ProcessCard } from '../schema/process.js';
 
 export interface SweepSetup {
-  readonly designPath: string;
+  /** The design's path and the text read from it (workers parse the text: standard input cannot be read twice). */
+  readonly design: DesignSource;
   readonly overrides: readonly string[];
   readonly axes: readonly SweepAxis[];
   /** The global --model / --tables choice. */
@@ -33,7 +34,7 @@ const prepared = new WeakMap<SweepSetup, Prepared>();
 function prepare(setup: SweepSetup): Prepared {
   let p = prepared.get(setup);
   if (!p) {
-    p = { raw: applyOverrides(readDataFile(setup.designPath, 'DESIGN'), setup.overrides), cards: new Map(), last: null };
+    p = { raw: applyOverrides(designData(setup.design), setup.overrides), cards: new Map(), last: null };
     prepared.set(setup, p);
   }
   return p;
@@ -46,9 +47,9 @@ function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): Re
   if (p.last?.key === key) return p.last.resolved;
   const design = parseWith(designSchema, applyOverrides(p.raw, sets));
   let card: ProcessCard;
-  let cardDir = dirname(resolve(setup.designPath));
+  let cardDir = dirname(resolve(setup.design.path));
   if (typeof design.process === 'string') {
-    const path = resolve(dirname(setup.designPath), design.process);
+    const path = resolve(dirname(setup.design.path), design.process);
     card = p.cards.get(path) ?? loadProcess(path, 'process');
     p.cards.set(path, card);
     cardDir = dirname(path);

@@ -1,19 +1,19 @@
 /** A worker thread: loads the design once, then evaluates the chunks of Monte Carlo or sweep work it is sent. */
 import { parentPort, workerData } from 'node:worker_threads';
-import { loadResolved, type ModelOptions } from './load.js';
+import { loadResolved, type DesignSource, type ModelOptions } from './load.js';
 import { runChunk, type ChunkResult } from '../analysis/montecarlo.js';
 import { sweepRows, type SweepSetup } from './sweep-points.js';
 import { InputError } from '../errors.js';
 
 export type WorkerSetup =
-  | { readonly kind: 'mc'; readonly designPath: string; readonly overrides: readonly string[]; readonly seed: number; readonly model: ModelOptions }
+  | { readonly kind: 'mc'; readonly design: DesignSource; readonly overrides: readonly string[]; readonly seed: number; readonly model: ModelOptions }
   | ({ readonly kind: 'sweep' } & SweepSetup);
 
 const setup = workerData as WorkerSetup;
 const port = parentPort!;
 
 if (setup.kind === 'mc') {
-  const { resolved } = loadResolved(setup.designPath, setup.overrides, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`));
+  const { resolved } = loadResolved(setup.design, setup.overrides, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`));
   port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
     try {
       const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count);

@@ -18,6 +18,8 @@ import type { McSection } from './mc-section.js';
 import type { TuneReport } from '../report/tune-report.js';
 import type { CornerComparison } from '../report/confirm-report.js';
 import { runVerdict, type RunVerdict } from '../report/verdict.js';
+import type { Provenance } from '../report/provenance.js';
+import { withRunMetadata } from './svg/metadata.js';
 
 /** ngspice against the model at some corners, when the report was asked for it. */
 export interface ConfirmSection {
@@ -56,6 +58,8 @@ export interface ReportModel {
   /** Delay-chain proposals (template generators, unless skipped). */
   readonly tune: TuneReport | null;
   readonly confirm: ConfirmSection | null;
+  /** What made the page (version, inputs and their hashes, command, date); null when not recorded. */
+  readonly provenance: Provenance | null;
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
@@ -98,14 +102,19 @@ export interface ReportExtras {
   readonly mc?: McSection | null;
   readonly tune?: TuneReport | null;
   readonly confirm?: ConfirmSection | null;
+  readonly provenance?: Provenance | null;
 }
 
 export function buildReportModel(resolved: ResolvedDesign, results: readonly CornerResult[], extras: ReportExtras): ReportModel {
   const worst = worstCornerIndex(results);
   const report = checkReport(resolved, results);
+  const verdict = runVerdict(report, extras.mc?.report ?? null, extras.confirm ?? null, resolved.design.requirements.deadTime);
+  const provenance = extras.provenance ?? null;
+  const stamp = (svg: string) => (provenance === null ? svg : withRunMetadata(svg, verdict, provenance));
   return {
     report,
-    verdict: runVerdict(report, extras.mc?.report ?? null, extras.confirm ?? null, resolved.design.requirements.deadTime),
+    verdict,
+    provenance,
     description: resolved.design.description ?? '',
     processSource: extras.processSource,
     resolved,
@@ -118,9 +127,9 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     tune: extras.tune ?? null,
     confirm: extras.confirm ?? null,
     svg: {
-      worst: renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst' }),
-      all: renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all' }),
-      margins: renderMarginSvg(marginChartInput(resolved, results), { idPrefix: 'margins' }),
+      worst: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst', run: verdict })),
+      all: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all', run: verdict })),
+      margins: stamp(renderMarginSvg(marginChartInput(resolved, results), { idPrefix: 'margins', run: verdict })),
     },
   };
 }

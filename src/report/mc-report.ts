@@ -41,13 +41,22 @@ function leastSigma(c: McCornerReport): number {
   return min(c.quantities, (q) => q.sigmaMargin) ?? Infinity;
 }
 
+/**
+ * The one yield rule of every command: the yield must reach requirements.minYield; without one,
+ * every drawn die must pass at every corner (as every corner must pass in check), so a design
+ * that accepts losing dies says how many.
+ */
+export function yieldMeets(value: number, minYield: number | undefined | null): boolean {
+  return minYield === undefined || minYield === null ? value === 1 : value >= minYield;
+}
+
 export function mcReport(design: string, process: string, mc: McResult, minYield: number | undefined, model = 'analytic'): McReport {
   const corners = mc.corners.map((c, i) => ({ ...c, deadTimeQuantiles: mc.deadTimes[i]!.map(quantiles) }));
   let worst = corners[0]!;
   for (const c of corners) {
     if (c.yield < worst.yield || (c.yield === worst.yield && leastSigma(c) < leastSigma(worst))) worst = c;
   }
-  const pass = minYield === undefined ? mc.yieldEverywhere === 1 : mc.yieldEverywhere >= minYield;
+  const pass = yieldMeets(mc.yieldEverywhere, minYield);
   return {
     tool: 'phasegap', design, process, model, samples: mc.samples, seed: mc.seed, minYield: minYield ?? null,
     yield: { value: mc.yieldEverywhere, ...mc.yieldEverywhereInterval },

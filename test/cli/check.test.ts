@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cli, design, processCard, ROOT, tempDir } from '../helpers.js';
+import { cli, design, processCard, ROOT, tempDir, withoutStamp } from '../helpers.js';
 
 interface JsonCheck { kind: string; name: string; margin: number | null; pass: boolean }
 interface JsonCorner {
@@ -94,8 +94,10 @@ describe('phasegap check --json', () => {
     expect(check.margin).toBeCloseTo(c.deadTimes[0]!.t50 - 500e-12, 20);
   });
 
-  it('is deterministic: two runs print the same bytes', () => {
-    expect(report('doubler').stdout).toBe(report('doubler').stdout);
+  it('is deterministic: two runs print the same bytes but for the date they record', () => {
+    const first = report('doubler').stdout;
+    expect(first).toMatch(/"date": "\d{4}-\d\d-\d\dT[\d:.]+Z"/);
+    expect(withoutStamp(first)).toBe(withoutStamp(report('doubler').stdout));
   });
 });
 
@@ -184,7 +186,8 @@ describe('phasegap check -o', () => {
     const run = cli('check', design('doubler'), '--json', '-o', out);
     expect(run.code).toBe(0);
     expect(run.stdout).toBe('');
-    expect(readFileSync(out, 'utf8')).toBe(report('doubler').stdout);
+    expect(withoutStamp(readFileSync(out, 'utf8'), true)).toBe(withoutStamp(report('doubler').stdout, true));
+    expect(JSON.parse(readFileSync(out, 'utf8')).provenance.command).toEqual(['check', design('doubler'), '--json', '-o', out]);
     expect(readdirSync(dir)).toEqual(['report.json']);
   });
 
@@ -194,13 +197,13 @@ describe('phasegap check -o', () => {
     expect(cli('check', design('too-tight'), '-o', out).code).toBe(1);
     expect(readFileSync(out, 'utf8')).toContain('verdict: FAIL');
     expect(cli('check', design('doubler'), '-o', out).code).toBe(0);
-    expect(readFileSync(out, 'utf8')).toBe(cli('check', design('doubler')).stdout);
+    expect(withoutStamp(readFileSync(out, 'utf8'), true)).toBe(withoutStamp(cli('check', design('doubler')).stdout, true));
     expect(readdirSync(dir)).toEqual(['report.txt']);
   });
 
   it('prints to stdout with -o -', () => {
     const run = cli('check', design('doubler'), '--json', '-o', '-');
-    expect(run.stdout).toBe(report('doubler').stdout);
+    expect(withoutStamp(run.stdout, true)).toBe(withoutStamp(report('doubler').stdout, true));
   });
 });
 
@@ -267,5 +270,29 @@ describe('phasegap check: switch terminals', () => {
     expect(run.stdout).toMatch(/limited: 2 warnings above/);
     const json = JSON.parse(cli('check', file, '--json').stdout) as { warnings: string[] };
     expect(json.warnings).toHaveLength(2);
+  });
+});
+
+describe('phasegap check verdict headline and --junit', () => {
+  it('heads the text with the combined verdict and its part, exits with it, and writes one test case per check and failing corner', () => {
+    const dir = tempDir();
+    const file = join(dir, 'check.xml');
+    const run = cli('check', design('too-tight'), '--junit', file);
+    expect(run.code).toBe(1);
+    expect(run.stdout.split('\n').slice(0, 3)).toEqual([
+      'verdict: FAIL (fails: corner checks)',
+      '  corner checks: FAIL: 38 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at ff/1.98V/-40C',
+      '  not run here: Monte Carlo yield, simulator agreement',
+    ]);
+    const xml = readFileSync(file, 'utf8');
+    const failingCorners = (xml.match(/<testcase classname="[^"]+" name="[^"]+ at [^"]+">\s*<failure/g) ?? []).length;
+    const report = JSON.parse(cli('check', design('too-tight'), '--json').stdout);
+    const failing = report.corners.flatMap((c: { checks: Array<{ pass: boolean }> }) => c.checks.filter((k) => !k.pass)).length;
+    expect(failingCorners).toBe(failing);
+    // A bad --junit target is refused before anything is written.
+    const bad = cli('check', design('doubler'), '--junit', dir);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/^phasegap: error: --junit: .* is a directory/);
+    expect(readdirSync(dir)).toEqual(['check.xml']);
   });
 });

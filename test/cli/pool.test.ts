@@ -3,10 +3,11 @@ import { describe, it, expect, vi } from 'vitest';
 import { runPool, type PoolHandle } from '../../src/cli/pool.js';
 import type { SweepSetup } from '../../src/cli/sweep-points.js';
 import type { SweepRow } from '../../src/analysis/sweep.js';
+import { readFileSync } from 'node:fs';
 import { design } from '../helpers.js';
 
 const setup: SweepSetup = {
-  designPath: design('doubler'),
+  design: { path: design('doubler'), text: readFileSync(design('doubler'), 'utf8') },
   overrides: [],
   axes: [{ path: 'temperature', values: [-40, 0, 27, 85, 125] }],
   model: {},

@@ -102,11 +102,13 @@ describe('phasegap report', () => {
     expect(head).toMatch(/<li data-part="corner checks" data-verdict="pass">corner checks: ✓ pass: 45 of 45 corners pass; /);
     expect(head).toContain('<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required</strong></li>');
     expect(head).toContain('<li data-part="simulator agreement" data-verdict="not-run">simulator agreement: not run (add --confirm worst to run it)</li>');
-    // The same design without the yield requirement passes: no requirement, no Monte Carlo failure.
-    const free = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--mc', '40', '--set', 'requirements.deadTime.min=964ps', '-o', '-');
-    expect(free.code).toBe(0);
-    expect(free.stdout).toContain('data-verdict="pass"><strong>✓ PASS</strong>');
-    expect(free.stdout).toContain('no requirement set (requirements.minYield)');
+    // Without a yield requirement every die must pass, as in phasegap mc: 14 of the 40 fail, so the run fails.
+    const free = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--mc', '40', '--seed', '1', '--set', 'requirements.deadTime.min=964ps', '-o', '-');
+    expect(free.code).toBe(1);
+    expect(free.stdout).toContain('data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield;');
+    expect(free.stdout).toContain('no requirements.minYield, so every die must pass (14 fail)');
+    const mc = await cliAsync('mc', design('doubler'), '--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=964ps');
+    expect(mc.code).toBe(free.code);
   });
 
   it('gives the Markdown page the same verdict and parts', async () => {

@@ -4,11 +4,15 @@
  * non-zero size, and keep every text label of every drawing clear of every other.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
-import { design, tempDir, cliAsync } from '../helpers.js';
+import { design, tempDir, cliAsync, resolveYaml } from '../helpers.js';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { buildReportModel } from '../../src/render/report-model.js';
+import { renderHtmlReport } from '../../src/render/html/report.js';
+import { provenance } from '../../src/report/provenance.js';
 
 /** A folder to keep the page screenshots in, when named; the tests write nothing else outside their temp folders. */
 const SCREENSHOTS = process.env.PHASEGAP_SCREENSHOTS;
@@ -134,6 +138,46 @@ describe('report in headless Chromium', () => {
         ['corner checks', 'pass', true], ['Monte Carlo yield', 'fail', true], ['simulator agreement', 'not-run', true],
       ]);
       expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required');
+      // Every drawing's title box heads with the run's verdict, not only its own checks'.
+      const boxes = await page.$$eval('figure svg .title-block', (gs) => gs.map((g) => [g.querySelector('.verdict')?.textContent, g.querySelector('.verdict-detail')?.textContent]));
+      expect(boxes).toEqual([
+        ['✕ FAIL', 'Monte Carlo yield fails'], ['✕ FAIL', 'Monte Carlo yield fails'], ['✕ FAIL', 'Monte Carlo yield fails'],
+      ]);
+    } finally {
+      await page.close();
+    }
+  });
+
+  it('heads a page where the simulator disagrees with FAIL, the failing part, the drawings and the provenance', async () => {
+    // The confirmation data is made up here (ngspice is not run): the simulator gives 440 ps against
+    // the 500 ps minimum and one break-before-make pair disagrees.
+    const resolved = resolveYaml(readFileSync(design('doubler'), 'utf8'));
+    const results = evaluateAll(resolved);
+    const confirm = {
+      simulator: 'ngspice-test', tolerance: 0.1,
+      comparisons: [{
+        corner: 'ff/1.98V/-40C', errors: [], pass: false,
+        quantities: [{ quantity: 'dead p1->p2', kind: 'dead' as const, model: 968e-12, simulator: 440e-12, relativeError: (968 - 440) / 440, pass: false }],
+        breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 4.7e-10, simulator: -2e-11, agrees: false }],
+      }],
+    };
+    const record = provenance({ version: '0.0.0-test', now: new Date(Date.UTC(2026, 0, 1)), command: ['report', 'doubler.yaml', '--confirm', 'worst'], inputs: [], model: 'analytic', simulator: 'ngspice-test' });
+    const model = buildReportModel(resolved, results, { processSource: 'fixtures', fmax: null, fmaxNote: 'skipped', confirm, provenance: record });
+    const file = join(tempDir(), 'disagree.html');
+    writeFileSync(file, renderHtmlReport(model));
+    const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
+    try {
+      await page.goto(pathToFileURL(file).href, { waitUntil: 'load' });
+      expect(await page.$eval('header .verdict', (v) => [v.getAttribute('data-verdict'), (v as HTMLElement).innerText])).toEqual(['fail', expect.stringMatching(/^✕ FAIL\s+fails: simulator agreement; 45 of 45 corners pass/)]);
+      const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => [li.getAttribute('data-part'), li.getAttribute('data-verdict'), (li as HTMLElement).innerText]));
+      expect(parts[0]!.slice(0, 2)).toEqual(['corner checks', 'pass']);
+      expect(parts[2]).toEqual(['simulator agreement', 'fail',
+        'simulator agreement: ✕ FAIL: 1 quantity beyond 10.0 % (first: dead p1->p2 at ff/1.98V/-40C); 1 break-before-make pair disagrees (first: s_gnd/s_vdd break-before-make + 100 ps at ff/1.98V/-40C); ngspice-test gives dead p1->p2 440 ps at ff/1.98V/-40C, below the 500 ps minimum']);
+      const boxes = await page.$$eval('figure svg .title-block .verdict-detail', (ts) => ts.map((t) => t.textContent));
+      expect(boxes.slice(0, 3)).toEqual(['simulator agreement fails', 'simulator agreement fails', 'simulator agreement fails']);
+      const footer = await page.$$eval('#provenance li', (lis) => lis.map((li) => (li as HTMLElement).innerText));
+      expect(footer).toEqual(['phasegap 0.0.0-test, 2026-01-01T00:00:00.000Z', 'command: phasegap report doubler.yaml --confirm worst', 'delay model: analytic, error band not measured', 'simulator: ngspice-test']);
+      expect(await page.$$eval('figure svg metadata', (ms) => ms.map((m) => m.getAttribute('data-verdict')))).toEqual(['fail', 'fail', 'fail']);
     } finally {
       await page.close();
     }

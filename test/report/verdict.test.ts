@@ -4,7 +4,8 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { runMonteCarlo } from '../../src/analysis/montecarlo.js';
 import { checkReport } from '../../src/report/check-report.js';
 import { mcReport } from '../../src/report/mc-report.js';
-import { combineVerdict, confirmPart, cornerPart, monteCarloPart, runVerdict, type Confirmation } from '../../src/report/verdict.js';
+import { circuitPart, combineVerdict, confirmPart, cornerPart, monteCarloPart, runVerdict, verdictOf, type Confirmation } from '../../src/report/verdict.js';
+import { verdictBlock, verdictHeadline } from '../../src/report/verdict-text.js';
 import { design, resolveYaml } from '../helpers.js';
 
 const doublerText = readFileSync(design('doubler'), 'utf8');
@@ -41,14 +42,21 @@ describe('monteCarloPart', () => {
     // 26 of 40 dies pass at every corner with seed 1 (measured).
     expect(mc.yieldEverywhere).toBe(26 / 40);
     const part = monteCarloPart(mcReport('d', 'generic180', mc, 0.99));
-    expect(part).toEqual({ name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 65.000 % over 40 dies at every corner, below the 99.000 % required' });
+    expect(part).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 65.000 % over 40 dies at every corner, below the 99.000 % required' });
   });
 
-  it('passes at or above the requirement, and says when none is set', () => {
+  it('passes at or above the requirement', () => {
     expect(monteCarloPart(mcReport('d', 'generic180', mc, 0.65)).verdict).toBe('pass');
-    const none = monteCarloPart(mcReport('d', 'generic180', mc, undefined));
-    expect(none.verdict).toBe('pass');
-    expect(none.reason).toContain('no requirement set (requirements.minYield)');
+  });
+
+  it('without requirements.minYield needs every die to pass, as the mc command does', () => {
+    const report = mcReport('d', 'generic180', mc, undefined);
+    const none = monteCarloPart(report);
+    expect(report.verdict).toBe('fail');
+    expect(none).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 65.000 % over 40 dies at every corner; no requirements.minYield, so every die must pass (14 fail)' });
+    const all = mcReport('d', 'generic180', runMonteCarlo(resolveYaml(doublerText), 20, 1), undefined);
+    expect(all.yield.value).toBe(1);
+    expect(monteCarloPart(all).verdict).toBe('pass');
   });
 
   it('is not run without Monte Carlo', () => {
@@ -58,7 +66,7 @@ describe('monteCarloPart', () => {
 
 describe('confirmPart', () => {
   it('passes when every quantity is within tolerance and every pair agrees', () => {
-    expect(confirmPart(comparison(968e-12, true), { min: 500e-12 })).toEqual({ name: 'simulator agreement', verdict: 'pass', reason: 'ngspice-42 agrees with the model at 1 corner' });
+    expect(confirmPart(comparison(968e-12, true), { min: 500e-12 })).toEqual({ key: 'simulator', name: 'simulator agreement', verdict: 'pass', reason: 'ngspice-42 agrees with the model at 1 corner' });
   });
 
   it('fails when a break-before-make pair disagrees', () => {
@@ -91,7 +99,7 @@ describe('combineVerdict', () => {
     [['fail', 'pass', 'pass'], 'fail'],
     [['pass', 'pass', 'fail'], 'fail'],
   ] as const)('%j combines to %s', (verdicts, expected) => {
-    expect(combineVerdict(verdicts.map((verdict, i) => ({ name: `part ${i}`, verdict, reason: '' }))).verdict).toBe(expected);
+    expect(combineVerdict(verdicts.map((verdict, i) => ({ key: `k${i}`, name: `part ${i}`, verdict, reason: '' }))).verdict).toBe(expected);
   });
 
   it('runVerdict fails the demo with a tightened dead time on Monte Carlo alone', () => {
@@ -100,5 +108,32 @@ describe('combineVerdict', () => {
     const v = runVerdict(checkReport(resolved, evaluateAll(resolved)), mc, null, resolved.design.requirements.deadTime);
     expect(v.verdict).toBe('fail');
     expect(v.parts.map((p) => p.verdict)).toEqual(['pass', 'fail', 'not-run']);
+  });
+});
+
+describe('circuitPart', () => {
+  it('is not run without figures, passes when all meet and names the first failing one', () => {
+    expect(circuitPart(null).verdict).toBe('not-run');
+    expect(circuitPart([{ name: 'ripple', pass: true, detail: '4 mV <= 10 mV' }])).toEqual({ key: 'circuit', name: 'circuit figures', verdict: 'pass', reason: '1 of 1 figures meet their requirements' });
+    expect(circuitPart([{ name: 'ripple', pass: true, detail: '' }, { name: 'settling', pass: false, detail: '12 ns > 10 ns' }]).reason).toBe('1 of 2 figures fail (first: settling: 12 ns > 10 ns)');
+  });
+});
+
+describe('verdictOf', () => {
+  const part = { key: 'thermal', name: 'self-heating', verdict: 'fail', reason: '12 K rise > 10 K' } as const;
+
+  it('takes a further part and fails the run on it alone', () => {
+    const resolved = resolveYaml(doublerText);
+    const v = verdictOf({ corners: checkReport(resolved, evaluateAll(resolved)), mc: null, confirm: null, circuit: [{ name: 'ripple', pass: true, detail: '' }], extra: [part] });
+    expect(v.parts.map((p) => [p.key, p.verdict])).toEqual([['corners', 'pass'], ['montecarlo', 'not-run'], ['simulator', 'not-run'], ['circuit', 'pass'], ['thermal', 'fail']]);
+    expect(v.verdict).toBe('fail');
+    expect(verdictHeadline(v)).toBe('verdict: FAIL (fails: self-heating)');
+  });
+
+  it('words a part that did not run in the command\'s own terms', () => {
+    const v = verdictOf({ corners: null, mc: null, confirm: null, hints: { corners: 'run phasegap check' } });
+    expect(v.parts[0]).toEqual({ key: 'corners', name: 'corner checks', verdict: 'not-run', reason: 'run phasegap check' });
+    expect(v.verdict).toBe('pass');
+    expect(verdictBlock(v)).toEqual(['verdict: PASS', '  not run here: corner checks, Monte Carlo yield, simulator agreement']);
   });
 });

@@ -156,8 +156,13 @@ describe('phasegap confirm without ngspice', () => {
 
 describe('phasegap confirm', () => {
   it('prints model and ngspice side by side and exits 1 when a difference exceeds the tolerance', () => {
-    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1');
+    const junit = join(tempDir(), 'confirm.xml');
+    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1', '--junit', junit);
     expect(r.code).toBe(1);
+    expect(r.stdout.split('\n')[0]).toBe('verdict: FAIL (fails: simulator agreement)');
+    expect(r.stdout).toMatch(/^  simulator agreement: FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)$/m);
+    expect(r.stdout).toMatch(/^provenance: simulator: ngspice-\S+$/m);
+    expect(readFileSync(junit, 'utf8')).toMatch(/<testcase classname="phasegap.confirm.dead" name="dead p1->p2 at tt\/1.8V\/27C">\s*<failure/);
     expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 0\.5 %, 1 corner$/m);
     expect(r.stdout).toMatch(/^tt\/1\.8V\/27C\s+dead p1->p2\s+[\d.]+ ns\s+[\d.]+ ns\s+[-+][\d.]+ %\s+over$/m);
     expect(r.stdout).toMatch(/^verdict: DISAGREE \(0\/1 corners within tolerance, break-before-make verdicts alike for all 2 pairs\)$/m);

@@ -80,7 +80,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   let corners: CornerPoint[];
   const inputs = [processPath];
   if (options.design !== undefined) {
-    const loaded = loadDesign(options.design);
+    const loaded = loadDesign(options.design, [], io.readStdin);
     const { design } = loaded;
     // Not the card's tables: writing them anew is what characterize is for.
     inputs.push(...designFiles(loaded));

@@ -7,22 +7,34 @@ import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { verdictOf } from '../../report/verdict.js';
+import { withRunJson, withRunText } from '../../report/run-record.js';
+import { gatherProvenance } from '../provenance.js';
+import { writeJunit } from '../junit-option.js';
 
 export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
   readonly json: boolean;
   readonly out?: string;
+  readonly junit?: string;
 }
 
 export function runCheck(io: Io, designPath: string, options: CheckOptions): number {
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
+  checkOutput(options.junit, inputs, '--junit');
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
   const report = checkReport(resolved, evaluateAll(resolved));
-  emit(io, options.json ? toJson(report) : renderCheckText(report), options.out, inputs);
+  const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: CHECK_HINTS });
+  const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
+  const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: design.name, verdict, checks: report, provenance: record });
+  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record), options.out, inputs);
+  junit?.();
   const hint = options.json ? null : checkHint(report, designPath, design.generator.template !== 'netlist');
   if (hint) io.stderr(`phasegap: hint: ${hint}\n`);
-  return report.verdict === 'pass' ? 0 : 1;
+  return verdict.verdict === 'pass' ? 0 : 1;
 }
+
+export const CHECK_HINTS = { montecarlo: 'run phasegap mc', simulator: 'run phasegap confirm' } as const;

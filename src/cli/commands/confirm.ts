@@ -8,6 +8,12 @@ import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { confirmCorners } from '../confirm-run.js';
 import { warnTo } from '../warn.js';
+import { verdictOf } from '../../report/verdict.js';
+import { withRunJson, withRunText } from '../../report/run-record.js';
+import { gatherProvenance } from '../provenance.js';
+import { writeJunit } from '../junit-option.js';
+
+export const CONFIRM_HINTS = { corners: 'run phasegap check', montecarlo: 'run phasegap mc' } as const;
 
 export interface ConfirmOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -18,24 +24,31 @@ export interface ConfirmOptions extends ModelOptions {
   readonly models?: string;
   readonly ngspice?: string;
   readonly jobs?: string;
+  readonly junit?: string;
 }
 
 export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
+  checkOutput(options.junit, inputs, '--junit');
   const model = loadModel(card, cardDir, options, warnTo(io));
   const resolved = resolveDesign(design, card, model);
   const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json });
   const pass = comparisons.every((c) => c.pass);
+  const verdict = verdictOf({ corners: null, mc: null, confirm: { simulator, tolerance, comparisons }, deadTime: design.requirements.deadTime, hints: CONFIRM_HINTS });
+  const record = gatherProvenance(io, loaded, { model: model.name, options, simulator, spice: true });
+  const junit = options.junit === undefined ? null
+    : writeJunit(io, options.junit, inputs, { name: design.name, verdict, confirm: { simulator, tolerance, comparisons }, provenance: record });
   if (options.json) {
-    emit(io, toJson({
+    emit(io, toJson(withRunJson({
       tool: 'phasegap', design: design.name, process: card.name, model: model.name, simulator, tolerance,
       verdict: pass ? 'agree' : 'disagree', worst: worstDifference(comparisons), corners: comparisons, cautions: CAUTIONS,
-    }), options.out, inputs);
+    }, verdict, record)), options.out, inputs);
   } else {
-    emit(io, renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), options.out, inputs);
+    emit(io, withRunText(renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), verdict, record), options.out, inputs);
   }
-  return pass ? 0 : 1;
+  junit?.();
+  return verdict.verdict === 'pass' ? 0 : 1;
 }

@@ -7,6 +7,10 @@ import { marginChartInput } from '../../render/report-model.js';
 import { renderMarginSvg } from '../../render/svg/margins.js';
 import { renderTimingSvg } from '../../render/svg/timing.js';
 import type { Io } from '../io.js';
+import { gatherProvenance } from '../provenance.js';
+import { verdictOf } from '../../report/verdict.js';
+import { checkReport } from '../../report/check-report.js';
+import { withRunMetadata } from '../../render/svg/metadata.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { parseNets, requireOut } from '../out-options.js';
@@ -27,17 +31,19 @@ export function runDraw(io: Io, designPath: string, options: DrawOptions): numbe
     throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(out, inputs);
   const results = evaluateAll(resolved);
+  const verdict = verdictOf({ corners: checkReport(resolved, results), mc: null, confirm: null, hints: { montecarlo: 'run phasegap mc', simulator: 'run phasegap confirm' } });
+  const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
   if (options.chart === 'margins') {
-    emit(io, renderMarginSvg(marginChartInput(resolved, results)), out, inputs);
-    return results.every((r) => r.pass) ? 0 : 1;
+    emit(io, withRunMetadata(renderMarginSvg(marginChartInput(resolved, results)), verdict, record), out, inputs);
+    return verdict.verdict === 'pass' ? 0 : 1;
   }
   const selection = selectCorner(results, options.corner, true);
   const diagram = buildDiagram(resolved, results, selection, nets);
-  emit(io, renderTimingSvg(diagram), out, inputs);
+  emit(io, withRunMetadata(renderTimingSvg(diagram), verdict, record), out, inputs);
   return diagram.verdict.pass ? 0 : 1;
 }

@@ -27,7 +27,7 @@ function parseResolution(text: string | undefined): number | undefined {
 }
 
 export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions): number {
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { design, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);

@@ -14,6 +14,10 @@ import { progressBar } from '../progress.js';
 import { optionalWholeNumber } from '../options.js';
 import { inputError } from '../../errors.js';
 import { MAX_SAMPLES, MAX_SEED, MAX_WORKERS } from '../run-limits.js';
+import { verdictOf } from '../../report/verdict.js';
+import { withRunJson, withRunText } from '../../report/run-record.js';
+import { gatherProvenance } from '../provenance.js';
+import { writeJunit } from '../junit-option.js';
 
 export interface McOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -25,15 +29,19 @@ export interface McOptions extends ModelOptions {
   readonly replay?: string;
   readonly histogram?: string;
   readonly timings?: boolean;
+  readonly junit?: string;
 }
+
+export const MC_HINTS = { corners: 'run phasegap check', simulator: 'run phasegap confirm' } as const;
 
 export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
   const started = performance.now();
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
   checkOutput(options.histogram, inputs, '--histogram');
+  checkOutput(options.junit, inputs, '--junit');
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
     throw inputError('--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
   }
@@ -47,8 +55,12 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     const evaluator = new CornerEvaluator(resolved);
     const results = resolved.corners.map(({ corner }) => evaluator.evaluate(corner, mismatch));
     const report = { ...checkReport(resolved, results), design: `${design.name} (die ${die}, seed ${seed})` };
-    emit(io, options.json ? toJson(report) : renderCheckText(report), options.out, inputs);
-    return report.verdict === 'pass' ? 0 : 1;
+    const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: MC_HINTS });
+    const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
+    const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: report.design, verdict, checks: report, provenance: record });
+    emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record), options.out, inputs);
+    junit?.();
+    return verdict.verdict === 'pass' ? 0 : 1;
   }
   const evaluating = performance.now();
   const plan = chunkPlan(samples);
@@ -70,7 +82,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     process.once('SIGINT', onSigint);
     try {
       await runPool<{ start: number; count: number }, ChunkResult>(
-        { kind: 'mc', designPath, overrides: options.set, seed, model: { model: options.model, tables: options.tables } }, plan, threads,
+        { kind: 'mc', design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, seed, model: { model: options.model, tables: options.tables } }, plan, threads,
         (_i, result) => take(result),
         (handle) => { stopPool = () => handle.stop(); },
         (task) => runChunk(resolved, seed, task.start, task.count),
@@ -88,19 +100,24 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   const reporting = performance.now();
   const mc = merger.finish();
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
+  const verdict = verdictOf({ corners: null, mc: report, confirm: null, hints: MC_HINTS });
+  const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
+  const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: design.name, verdict, mc: report, provenance: record });
   if (options.histogram !== undefined) {
     const c = report.corners.findIndex((x) => x.name === report.worstCorner);
     // The SVG stack loads only when a histogram is asked for.
     const { renderHistogram } = await import('../../render/svg/histogram.js');
-    emit(io, renderHistogram({
+    const { withRunMetadata } = await import('../../render/svg/metadata.js');
+    emit(io, withRunMetadata(renderHistogram({
       title: `${design.name}: dead times at ${report.worstCorner}`,
       subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
       series: mc.deadTimes[c]!.map((histogram, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, histogram })),
       requirement: design.requirements.deadTime?.min,
       maximum: design.requirements.deadTime?.max,
-    }), options.histogram, inputs, '--histogram');
+    }), verdict, record), options.histogram, inputs, '--histogram');
   }
-  emit(io, options.json ? toJson(report) : renderMcText(report), options.out, inputs);
+  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report), verdict, record), options.out, inputs);
+  junit?.();
   if (options.timings) {
     const evaluations = samples * resolved.corners.length;
     const used = Math.min(threads, plan.length);
@@ -109,5 +126,5 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       + `(${evaluations} evaluations on ${used} thread${used === 1 ? '' : 's'}, ${Math.round(evaluations / ((reporting - evaluating) / 1000))}/s), `
       + `report ${seconds(reporting, performance.now())} s\n`);
   }
-  return report.verdict === 'pass' ? 0 : 1;
+  return verdict.verdict === 'pass' ? 0 : 1;
 }

@@ -20,6 +20,8 @@ import type { ResolvedDesign } from '../../analysis/resolve.js';
 import { tuneChains } from '../../analysis/tune.js';
 import { confirmCorners } from '../confirm-run.js';
 import { tuneReport } from '../../report/tune-report.js';
+import { gatherProvenance } from '../provenance.js';
+import { withRunMetadata } from '../../render/svg/metadata.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
@@ -69,7 +71,7 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   if (options.format === 'md' && out === '-') {
     throw inputError('--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
   }
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const resolved = loaded.resolved;
   const inputs = inputFiles(loaded, options);
   const images = markdownImageNames(out);
@@ -81,15 +83,19 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);
-  const model = buildReportModel(resolved, results, {
+  const confirm = options.confirm === undefined ? null
+    : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }, '--confirm');
+  const provenance = gatherProvenance(io, loaded, { model: resolved.model.name, options, simulator: confirm?.simulator ?? null, spice: confirm !== null });
+  const built = buildReportModel(resolved, results, {
     processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
     mc: dies > 0 ? monteCarloSection(resolved, dies, seed) : null,
     tune: options.tune && loaded.design.generator.template !== 'netlist'
       ? tuneReport(loaded.design.name, loaded.design.clock.frequency, resolved.corners.length, tuneChains(loaded.design, loaded.card, resolved.model), 3)
       : null,
-    confirm: options.confirm === undefined ? null
-      : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, tolerance: options.tolerance, models: options.models, ngspice: options.ngspice }, '--confirm'),
+    confirm,
+    provenance,
   });
+  const model = built.mc ? { ...built, mc: { ...built.mc, histogram: withRunMetadata(built.mc.histogram, built.verdict, provenance) } } : built;
   const code = model.verdict.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
     emit(io, renderHtmlReport(model), out, inputs);

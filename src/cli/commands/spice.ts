@@ -8,6 +8,9 @@ import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { modelFile } from '../model-file.js';
 import { warnTo } from '../warn.js';
+import { gatherProvenance } from '../provenance.js';
+import { provenanceLines } from '../../report/provenance.js';
+import { spiceComment } from '../../spice/text.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
 
@@ -19,7 +22,7 @@ export interface SpiceOptions extends ModelOptions {
 }
 
 export function runSpice(io: Io, designPath: string, options: SpiceOptions): number {
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
@@ -33,7 +36,10 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const toFile = options.out !== undefined && options.out !== '-';
   const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;
   const deck = generatorDeck(resolved, corner, { modelPath });
-  emit(io, deck.text, options.out, inputs);
+  const record = provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options, spice: true }));
+  // The first line of a deck is its title; the record follows it as comment lines.
+  const [title, ...rest] = deck.text.split('\n');
+  emit(io, [title, ...record.map(spiceComment), ...rest].join('\n'), options.out, inputs);
   if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}\n`);
   return 0;
 }

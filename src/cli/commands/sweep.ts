@@ -88,7 +88,7 @@ const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export async function runSweep(io: Io, designPath: string, options: SweepOptions): Promise<number> {
   if (options.vary.length === 0) throw inputError('--vary', undefined, 'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5');
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
@@ -100,7 +100,7 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
       throw inputError(`--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
     }
   }
-  const setup: SweepSetup = { designPath, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
+  const setup: SweepSetup = { design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
   const columns = checkAxes(setup);
   const out = sink(io, options.out, inputs);
   const bar = progressBar(io, total, 'sweep', !options.json);

@@ -75,7 +75,7 @@ export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, option
 }
 
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);

@@ -5,6 +5,8 @@ import { chooseCorners, oneCornerName } from '../../analysis/corner-choice.js';
 import { steadyStateDelays } from '../../verilog/delays.js';
 import { verilogModule, verilogTestbench } from '../../verilog/export.js';
 import type { Io } from '../io.js';
+import { gatherProvenance } from '../provenance.js';
+import { provenanceLines } from '../../report/provenance.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { optionalWholeNumber } from '../options.js';
@@ -26,7 +28,7 @@ export function moduleName(designName: string): string {
 }
 
 export function runVerilog(io: Io, designPath: string, options: VerilogOptions): number {
-  const loaded = loadDesign(designPath, options.set);
+  const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
@@ -40,6 +42,7 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
     `${design.name} at ${corner.name}: structural model written by phasegap`,
     `gate delays #(rise, fall) from the ${resolved.model.name} model in its periodic steady state at this corner`,
     'a model estimate for top-level simulation, not a sign-off',
+    ...provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options })),
   ]);
   let text = module.text;
   if (options.testbench) {

@@ -5,6 +5,9 @@ import { selectCorner } from '../../analysis/corner-choice.js';
 import { vcdSignals } from '../../render/vcd/signals.js';
 import { renderVcd, TIMESCALES, type Timescale } from '../../render/vcd/vcd.js';
 import type { Io } from '../io.js';
+import { gatherProvenance } from '../provenance.js';
+import { provenanceLines } from '../../report/provenance.js';
+import { VERSION } from '../version.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { wholeNumber } from '../options.js';
@@ -27,7 +30,7 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
   const timescale = options.timescale as Timescale;
   const periods = wholeNumber('--periods', options.periods, { min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' });
   const nets = parseNets(options.nets);
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`));
+  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(out, inputs);
@@ -43,8 +46,9 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
     top: design.name,
     comment: `phasegap waveforms of ${design.name} at corner ${result.corner.name} (${resolved.model.name} model, card ${card.name}): `
       + `50 % crossings of the steady-state period, repeated ${periods} times; time 0 is the clock's rising 50 % point; `
-      + 'scope switches: 1 while each switch conducts. Model estimate, not a sign-off.',
-    version: 'phasegap 0.1.0',
+      + 'scope switches: 1 while each switch conducts. Model estimate, not a sign-off. '
+      + provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options })).join('; '),
+    version: `phasegap ${VERSION}`,
     timescale,
     end: periods * period,
     signals: vcdSignals(result, resolved.netlist, nets, periods),

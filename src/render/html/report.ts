@@ -14,6 +14,7 @@ import type { TuneReport } from '../../report/tune-report.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
+import { provenanceLines } from '../../report/provenance.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
   const th = head.map((c) => `<th>${h(c)}</th>`).join('');
@@ -145,7 +146,10 @@ ${table(['process corner', 'n: dVth', 'n: drive', 'p: dVth', 'p: drive'], Object
     cells: [name, formatEngineering(c.n.dvth, 'V'), `x${c.n.drive}`, formatEngineering(c.p.dvth, 'V'), `x${c.p.drive}`],
   })), new Set([1, 2, 3, 4]))}
 </section>
-<footer>phasegap 0.1.0 · ${h(r.model)} delay model · ${h(fmaxText(m))} · times are SI; dead times at the 50 % points, gaps at 10 % of the swing.</footer>
+<footer>phasegap${m.provenance ? ` ${h(m.provenance.version)}` : ''} · ${h(r.model)} delay model · ${h(fmaxText(m))} · times are SI; dead times at the 50 % points, gaps at 10 % of the swing.
+${m.provenance ? `<ul class="provenance" id="provenance">
+${provenanceLines(m.provenance).map((l) => `<li>${h(l)}</li>`).join('\n')}
+</ul>` : ''}</footer>
 </main>
 </body>
 </html>

@@ -7,6 +7,7 @@ import { GLYPH } from '../palette.js';
 import { cardRows, confirmTables, cornerRows, fmaxText, failingParts, summaryItems, tuneTable, verdictPartText, verdictWord } from '../report-text.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { nodeTable } from '../node-table.js';
+import { provenanceLines } from '../../report/provenance.js';
 import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
 import { markdownCode, markdownLine, markdownParagraph, markdownText, markdownUrl } from './text.js';
 
@@ -81,6 +82,7 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   const card = cardRows(m.resolved.card);
   out.push(`## Process card used: ${markdownText(m.resolved.card.name)}`, '', `${markdownLine(`${m.resolved.card.description ?? ''}`)} Source: ${markdownCode(m.processSource)}.`.trimStart(), '');
   out.push(table(card.head, card.rows, new Set([1, 2])), '');
-  out.push(`---`, `phasegap 0.1.0 · ${markdownText(r.model)} delay model · ${markdownText(fmaxText(m))}`, '');
+  out.push(`---`, `phasegap${m.provenance ? ` ${markdownText(m.provenance.version)}` : ''} · ${markdownText(r.model)} delay model · ${markdownText(fmaxText(m))}`, '');
+  if (m.provenance) out.push(...provenanceLines(m.provenance).map((l) => `- ${markdownText(l)}`), '');
   return out.join('\n');
 }

@@ -16,6 +16,8 @@ import { defineFailHatch } from './patterns.js';
 import { drawText, textWidth } from './text.js';
 import { drawTitleBlock, type TitleInfo } from './title.js';
 import { formatSignedTimeShort } from '../../units/format.js';
+import { runTitle } from './metadata.js';
+import type { RunVerdict } from '../../report/verdict.js';
 
 export interface MarginChartInput {
   readonly title: TitleInfo;
@@ -27,6 +29,8 @@ export interface MarginChartInput {
 export interface MarginSvgOptions {
   readonly idPrefix?: string;
   readonly width?: number;
+  /** The run's combined verdict, for the title box (the chart's own checks otherwise). */
+  readonly run?: RunVerdict;
 }
 
 const MARGIN = 16;
@@ -148,7 +152,7 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
   const hatch = defineFailHatch(root, prefix);
-  drawTitleBlock(root, input.title, width, MARGIN);
+  drawTitleBlock(root, runTitle(input.title, options.run), width, MARGIN);
   let top = TOP;
   for (const [k, block] of blocks.entries()) {
     if (k > 0) top += BLOCK_HEAD;

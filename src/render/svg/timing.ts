@@ -21,12 +21,16 @@ import { dimensionLine, extensionLine } from './marks.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, textWidth, wrapLines } from './text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
+import { runTitle } from './metadata.js';
+import type { RunVerdict } from '../../report/verdict.js';
 
 export interface TimingSvgOptions {
   /** Prefix of element ids, unique per drawing when several share one page. */
   readonly idPrefix?: string;
   /** Width of the drawing, px. */
   readonly width?: number;
+  /** The run's combined verdict, for the title box (the drawing's own checks otherwise). */
+  readonly run?: RunVerdict;
 }
 
 const MARGIN = 16;
@@ -123,7 +127,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const ctx: Context = { d, root, hatch: defineFailHatch(root, prefix), prefix, groups: new Map() };
   if (d.mode === 'all') for (const row of d.rows) ctx.groups.set(row.net, edgeGroups(row));
 
-  drawTitleBlock(root, diagramTitle(d), width, MARGIN);
+  drawTitleBlock(root, runTitle(diagramTitle(d), options.run), width, MARGIN);
   sectionHeading(root, 'Whole period', `T = ${formatTime(d.period)}, times from the clock's rising 50 % point`, MARGIN, overviewTop - 26);
   const whole: TimeWindow = { from: 0, to: d.period, half: 0 };
   const overviewScale = scaleLinear().domain([0, d.period]).range([x0, x1]);
