@@ -35,6 +35,8 @@ export interface TextStyle {
   readonly data?: Readonly<Record<string, string>>;
   /** Paint a white outline under the glyphs so lines behind the label do not cut through it. */
   readonly halo?: boolean;
+  /** Turns the label about its anchor point, degrees clockwise (-90 reads bottom to top). */
+  readonly rotate?: number;
 }
 
 /** The box a label occupies with its baseline at y. */
@@ -51,6 +53,7 @@ export function drawText(g: G, text: string, x: number, y: number, style: TextSt
   });
   if (style.bold) t.attr('font-weight', 'bold');
   if (style.halo) t.attr({ stroke: '#ffffff', 'stroke-width': 4, 'stroke-linejoin': 'round', 'paint-order': 'stroke' });
+  if (style.rotate !== undefined) t.attr('transform', `rotate(${style.rotate} ${round(x)} ${round(y)})`);
   if (style.className) t.attr('class', style.className);
   for (const [k, v] of Object.entries(style.data ?? {})) t.attr(`data-${k}`, xmlText(v));
 }
