@@ -140,7 +140,7 @@ export function renderHistogram(input: HistogramInput): string {
       drawText(g, label(t), x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
     }
     g.line(MARGIN.left, top + PANEL, WIDTH - MARGIN.right, top + PANEL).stroke({ color: INK, width: 1 });
-    drawText(g, input.axis ?? 'value', (left + right) / 2, top + PANEL + 40, { size: SIZE.tick, anchor: 'middle', fill: MUTED, className: 'x-label' });
+    drawText(g, input.axis ?? (unit === 's' ? '50 % dead time' : 'volts'), (left + right) / 2, top + PANEL + 40, { size: SIZE.tick, anchor: 'middle', fill: MUTED, className: 'x-label' });
     drawText(g, `${series.label}  (${h.count} dies)`, MARGIN.left, top + 10, { size: SIZE.label, bold: true, fill: PHASE[k % 2]! });
     const moments = series.mean !== undefined && series.sigma !== undefined ? { mean: series.mean, sigma: series.sigma } : histogramMoments(h);
     if (Number.isFinite(moments.mean)) {
