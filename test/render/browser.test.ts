@@ -109,7 +109,7 @@ describe('report in headless Chromium', () => {
       } finally {
         await page.close();
       }
-    });
+    }, 120_000);
   }
 
   it('heads a page where Monte Carlo fails with FAIL and shows each part beneath it', async () => {
