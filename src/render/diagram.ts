@@ -116,6 +116,14 @@ export interface SettleMark {
   readonly pass: boolean;
 }
 
+/** A settle path that could not be measured at some corner (a member does not switch, or cannot conduct): a failure without a window. */
+export interface SettleUnmeasured {
+  readonly name: string;
+  readonly corner: string;
+  readonly reason: string;
+  readonly pass: false;
+}
+
 export interface Diagram {
   readonly design: string;
   readonly mode: 'corner' | 'all';
@@ -131,7 +139,7 @@ export interface Diagram {
   readonly switches: readonly SwitchRow[];
   readonly deadTimes: readonly DeadTimeMarks[];
   readonly breakBeforeMake: readonly BreakBeforeMakeMarks[];
-  readonly settle: readonly SettleMark[];
+  readonly settle: ReadonlyArray<SettleMark | SettleUnmeasured>;
   readonly windows: readonly [TimeWindow, TimeWindow];
   /** Corners left out of an overlay and why. */
   readonly excluded: ReadonlyArray<{ readonly corner: string; readonly reason: string }>;
@@ -352,14 +360,20 @@ function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], s
 }
 
 /** Each settle path at the corner where its margin is least (the same window and need the check uses). */
-function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]): SettleMark[] {
+function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]): Array<SettleMark | SettleUnmeasured> {
   const { design } = resolved;
   const period = 1 / design.clock.frequency;
   const derating = design.clock.dutyTolerance * period;
-  const out: SettleMark[] = [];
+  const out: Array<SettleMark | SettleUnmeasured> = [];
   for (const path of design.constraints.settle) {
     let worst: SettleMark | null = null;
+    let unmeasured: SettleUnmeasured | null = null;
     for (const r of measured) {
+      const check = r.checks.find((c) => c.kind === 'settle' && c.name.startsWith(`${path.name} settles`));
+      if (check && check.margin === null) {
+        unmeasured ??= { name: path.name, corner: r.corner.name, reason: check.detail ?? 'not measurable', pass: false };
+        continue;
+      }
       const members = path.switches.map((name) => r.switches.find((s) => s.name === name));
       if (members.some((m) => !m || m.status !== 'switching')) continue;
       const w = settleWindow(members as SwitchConduction[], period, derating);
@@ -370,7 +384,9 @@ function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]
       const mark: SettleMark = { name: path.name, corner: r.corner.name, start, end: start + (w.end - w.start), needed, margin, pass: margin >= 0 };
       if (worst === null || margin < worst.margin) worst = mark;
     }
-    if (worst) out.push(worst);
+    // A corner where the path cannot be measured fails it outright: that is what the lane shows.
+    const shown = unmeasured ?? worst;
+    if (shown) out.push(shown);
   }
   return out;
 }

@@ -5,6 +5,8 @@
  */
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { CheckKind } from '../checks/check.js';
+import type { ConstraintsSpec } from '../schema/switches.js';
+import { formatTime } from '../units/format.js';
 
 export interface MarginPoint {
   readonly corner: string;
@@ -24,6 +26,23 @@ export interface MarginRow {
   readonly corners: number;
   /** The point with the least margin, null when none was measured. */
   readonly worst: MarginPoint | null;
+  /** The requirement in words, for a check whose name does not state it (a named constraint). */
+  readonly requirement?: string;
+}
+
+/** What each named break-before-make or order constraint requires, keyed by its check name. */
+export function namedRequirements(constraints: ConstraintsSpec, defaultGuard: number): Map<string, string> {
+  const out = new Map<string, string>();
+  for (const bbm of constraints.breakBeforeMake) {
+    if (bbm.name === undefined) continue;
+    const guard = bbm.guard ?? defaultGuard;
+    out.set(bbm.name, `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`);
+  }
+  for (const o of constraints.order) {
+    if (o.name === undefined) continue;
+    out.set(o.name, `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`);
+  }
+  return out;
 }
 
 export function marginRows(results: readonly CornerResult[]): MarginRow[] {

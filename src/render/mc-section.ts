@@ -41,6 +41,12 @@ export function mcRows(r: McReport, count = 8): string[][] {
   });
 }
 
+/** Says which corners the table shows when it leaves some out; empty when it shows them all. */
+export function mcShownNote(r: McReport, count = 8): string {
+  if (r.corners.length <= count) return '';
+  return `The table shows the ${count} of ${r.corners.length} corners with the lowest yield (then the least sigma margin); phasegap mc lists every corner.`;
+}
+
 export function mcHead(r: McReport): string[] {
   const first = r.corners[0];
   const dead = first ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => `${q.name} mean ± sigma`) : [];

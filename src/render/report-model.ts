@@ -10,7 +10,7 @@ import { checkReport, type CheckReport } from '../report/check-report.js';
 import { formatEngineering } from '../units/format.js';
 import { worstCornerIndex } from '../analysis/corner-choice.js';
 import { buildDiagram } from './diagram.js';
-import { marginRows, processOrder, type MarginRow } from './margins.js';
+import { marginRows, namedRequirements, processOrder, type MarginRow } from './margins.js';
 import type { MarginChartInput } from './svg/margins.js';
 import { renderMarginSvg } from './svg/margins.js';
 import { renderTimingSvg } from './svg/timing.js';
@@ -63,7 +63,8 @@ export interface ReportModel {
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
-  const rows = marginRows(results);
+  const named = namedRequirements(resolved.design.constraints, resolved.design.requirements.guard);
+  const rows = marginRows(results).map((r) => (named.has(r.name) ? { ...r, requirement: named.get(r.name)! } : r));
   const failing = rows.filter((r) => r.failing > 0).length;
   return {
     title: {

@@ -95,3 +95,43 @@ describe('voltTickLabel', () => {
     expect(decadeTicks(-0.15, 2, [-2, 1]).map(voltTickLabel)).toEqual(['-100 mV', '-10 mV', '0', '+10 mV', '+100 mV', '+1 V']);
   });
 });
+
+describe('renderMarginSvg marks for unmeasured checks and named constraints', () => {
+  const chart = (name: string, set: string[] = []) => {
+    const loaded = loadDesign(design(name), set);
+    const r = resolveDesign(loaded.design, loaded.card);
+    return parseSvg(renderMarginSvg(marginChartInput(r, evaluateAll(r))));
+  };
+
+  it('draws a boxed ? for the corners with no margin, and explains it in the legend', () => {
+    // s_chg's gate swing stops at 1.1 VDD: it never turns on, so its pairs cannot be measured anywhere.
+    const doc = chart('doubler', ['switches[1].levelShifter.high=1.1vdd']);
+    const rows = all(doc, 'g.margin-row').filter((g) => all(g, 'g.unmeasured-mark').length > 0);
+    expect(rows.map((g) => g.getAttribute('data-check'))).toEqual(['s_chg/s_out break-before-make + 100 ps', 'flying-cap charge settles to 0.001']);
+    for (const row of rows) {
+      const mark = all(row, 'g.unmeasured-mark')[0]!;
+      expect(mark.getAttribute('data-count')).toBe('45');
+      expect(mark.getAttribute('data-corners')!.split(' ')).toHaveLength(45);
+      expect(all(mark, 'text')[0]!.textContent).toBe('?');
+    }
+    const legend = all(doc, 'g.legend text').map((t) => t.textContent);
+    expect(legend).toContain('not measured at that corner (counts as failing)');
+    expect(all(doc, 'g.legend g.unmeasured-mark')).toHaveLength(1);
+  });
+
+  it('leaves the ? out of the legend when every check was measured', () => {
+    const doc = chart('doubler');
+    expect(all(doc, 'g.unmeasured-mark')).toHaveLength(0);
+    expect(all(doc, 'g.legend text').map((t) => t.textContent)).not.toContain('not measured at that corner (counts as failing)');
+  });
+
+  it('writes a named order constraint\'s requirement under its name and no longer claims every name states one', () => {
+    const doc = chart('sc-integrator');
+    const row = all(doc, 'g.margin-row').find((g) => g.getAttribute('data-check') === 'bottom plate opens first')!;
+    expect(all(row, 'text.check-requirement')[0]!.textContent).toBe('s1e off before s1 off by 50.0 ps');
+    expect(all(doc, 'text.check-requirement')).toHaveLength(1);
+    const note = all(doc, 'g.legend text.legend-note')[0]!.textContent!;
+    expect(note).toContain('a named constraint shows its requirement under its name');
+    expect(note).not.toContain('each check name states its requirement');
+  });
+});

@@ -28,6 +28,9 @@ export interface McOptions extends ModelOptions {
   readonly workers?: string;
   readonly replay?: string;
   readonly histogram?: string;
+  /** Corner and check the histogram shows (default: the worst corner and the check that limits yield there). */
+  readonly histogramCorner?: string;
+  readonly histogramCheck?: string;
   readonly timings?: boolean;
   readonly junit?: string;
 }
@@ -61,6 +64,18 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record), options.out, inputs);
     junit?.();
     return verdict.verdict === 'pass' ? 0 : 1;
+  }
+  for (const [flag, value] of [['--histogram-corner', options.histogramCorner], ['--histogram-check', options.histogramCheck]] as const) {
+    if (value !== undefined && options.histogram === undefined) throw inputError(flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
+  }
+  if (options.histogram !== undefined && (options.histogramCorner !== undefined || options.histogramCheck !== undefined)) {
+    // Names are checked before the run, so a typo costs no waiting (a design's check names are alike at every corner).
+    const { DEAD_TIMES, matchCheck, pickCorner } = await import('../../render/histogram-choice.js');
+    const names = resolved.corners.map(({ corner }) => corner.name);
+    const at = pickCorner(names, names[0]!, options.histogramCorner === 'worst' ? undefined : options.histogramCorner);
+    if (options.histogramCheck !== undefined && options.histogramCheck !== DEAD_TIMES) {
+      matchCheck(new CornerEvaluator(resolved).evaluate(resolved.corners[at]!.corner).checks.map((c) => c.name), options.histogramCheck, options.histogramCorner === undefined ? 'of this design' : `at ${names[at]!}`);
+    }
   }
   const evaluating = performance.now();
   const plan = chunkPlan(samples);
@@ -104,17 +119,31 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
   const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: design.name, verdict, mc: report, provenance: record });
   if (options.histogram !== undefined) {
-    const c = report.corners.findIndex((x) => x.name === report.worstCorner);
     // The SVG stack loads only when a histogram is asked for.
     const { renderHistogram } = await import('../../render/svg/histogram.js');
     const { withRunMetadata } = await import('../../render/svg/metadata.js');
-    emit(io, withRunMetadata(renderHistogram({
-      title: `${design.name}: dead times at ${report.worstCorner}`,
-      subtitle: `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`,
-      series: mc.deadTimes[c]!.map((histogram, k) => ({ label: report.corners[c]!.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '))[k]?.name ?? `dead ${k}`, histogram })),
-      requirement: design.requirements.deadTime?.min,
-      maximum: design.requirements.deadTime?.max,
-    }), verdict, record), options.histogram, inputs, '--histogram');
+    const { histogramSubject } = await import('../../render/histogram-choice.js');
+    const subject = histogramSubject(report, options.histogramCorner, options.histogramCheck);
+    const corner = report.corners[subject.corner]!.name;
+    const subtitle = `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`;
+    if (subject.kind === 'dead-times') {
+      emit(io, withRunMetadata(renderHistogram({
+        title: `${design.name}: dead times at ${corner}`, subtitle, axis: '50 % dead time',
+        series: mc.deadTimes[subject.corner]!.map((histogram, k) => ({ label: subject.deadTimes[k]?.name ?? `dead ${k}`, histogram, mean: subject.deadTimes[k]?.mean, sigma: subject.deadTimes[k]?.sigma })),
+        requirement: design.requirements.deadTime?.min,
+        maximum: design.requirements.deadTime?.max,
+      }), verdict, record), options.histogram, inputs, '--histogram');
+    } else {
+      const { checkMarginHistogram } = await import('../../analysis/check-histogram.js');
+      const { marginUnit } = await import('../../checks/check.js');
+      const q = subject.check;
+      emit(io, withRunMetadata(renderHistogram({
+        title: `${design.name}: check margin at ${corner}`,
+        subtitle: `${subtitle}; ${q.failures ?? 0} of ${samples} dies fail this check here`,
+        axis: 'margin (below 0 fails)', unit: marginUnit(q.kind), requirement: 0,
+        series: [{ label: q.name, histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name), mean: q.mean, sigma: q.sigma }],
+      }), verdict, record), options.histogram, inputs, '--histogram');
+    }
   }
   emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report), verdict, record), options.out, inputs);
   junit?.();

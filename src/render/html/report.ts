@@ -11,7 +11,7 @@ import { REPORT_CSS } from './style.js';
 import { cardRows, confirmTables, cornerRows, fmaxText, generatorText, failingParts, summaryItems, tuneTable, verdictPartText, verdictWord } from '../report-text.js';
 import { renderTuneChart } from '../svg/tune-chart.js';
 import type { TuneReport } from '../../report/tune-report.js';
-import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
+import { mcHead, mcHeadline, mcRows, mcShownNote } from '../mc-section.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
 import { provenanceLines } from '../../report/provenance.js';
@@ -123,7 +123,8 @@ ${m.mc ? `<section class="diagram" id="montecarlo">
 <h2>Monte Carlo mismatch</h2>
 <p>${h(mcHeadline(m.mc.report))}</p>
 ${table(mcHead(m.mc.report), mcRows(m.mc.report).map((cells) => ({ cells })), new Set([1, 2, 3, 4, 5, 6]))}
-${figure(m.mc.histogram, `Dead times of every die at ${m.mc.report.worstCorner}; the dashed line is the smallest dead time allowed. Sigma margin = mean margin / sigma.`, 'figure-histogram')}
+${mcShownNote(m.mc.report) ? `<p class="table-note" id="mc-shown">${h(mcShownNote(m.mc.report))}</p>` : ''}
+${figure(m.mc.histogram, `Dead times of every die at ${m.mc.report.worstCorner}; dashed lines are the dead-time requirements (past an axis break when far from the dies), the solid line the mean, dotted lines mean ± sigma. Sigma margin = mean margin / sigma.`, 'figure-histogram')}
 </section>` : ''}
 <section id="corners">
 <h2>Corner table</h2>

@@ -32,15 +32,23 @@ tr.fail td.verdict-cell { color: ${FAIL}; font-weight: bold; }
 code { font-family: ${MONO}; font-size: 13px; }
 footer { margin-top: 36px; color: ${MUTED}; font-size: 12px; }
 @media print {
-  @page { size: A4 landscape; margin: 12mm; }
-  body { background: #ffffff; font-size: 10pt; }
+  @page { size: A4 portrait; margin: 12mm 11mm 14mm; }
+  body { background: #ffffff; font-size: 9.5pt; line-height: 1.35; }
   main { max-width: none; padding: 0; }
-  h2 { break-after: avoid; }
-  section.diagram { break-before: page; }
-  figure svg { border: 0; }
+  h1 { font-size: 18pt; }
+  h2 { font-size: 13pt; margin: 0 0 6px; break-after: avoid; }
+  h3 { break-after: avoid; }
+  main > section:not(.cautions):not(#summary) { break-before: page; }
+  figure { margin: 6px 0 10px; }
+  figure svg { border: 0; width: auto; max-width: 100%; max-height: 250mm; margin: 0 auto; }
+  figcaption { font-size: 8pt; }
   .table-wrap { overflow: visible; }
-  table { font-size: 8.5pt; }
+  table { font-size: 7.5pt; margin: 4px 0 10px; width: 100%; }
+  th, td { padding: 2px 5px; }
+  thead { display: table-header-group; }
   tr { break-inside: avoid; }
-  .verdict, .cautions, tr.fail td { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
+  p, li { orphans: 3; widows: 3; }
+  footer { margin-top: 12px; }
+  .verdict, .cautions, tr.fail td, th { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 }
 `;

@@ -8,7 +8,7 @@ import { cardRows, confirmTables, cornerRows, fmaxText, failingParts, summaryIte
 import { formatMargin } from '../../report/margin-format.js';
 import { nodeTable } from '../node-table.js';
 import { provenanceLines } from '../../report/provenance.js';
-import { mcHead, mcHeadline, mcRows } from '../mc-section.js';
+import { mcHead, mcHeadline, mcRows, mcShownNote } from '../mc-section.js';
 import { markdownCode, markdownLine, markdownParagraph, markdownText, markdownUrl } from './text.js';
 
 export interface MarkdownImages {
@@ -69,6 +69,7 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
   if (m.mc) {
     out.push('## Monte Carlo mismatch', '', markdownLine(mcHeadline(m.mc.report)), '');
     out.push(table(mcHead(m.mc.report), mcRows(m.mc.report), new Set([1, 2, 3, 4, 5, 6])), '');
+    if (mcShownNote(m.mc.report)) out.push(markdownLine(mcShownNote(m.mc.report)), '');
     if (images.histogram) out.push(`![Dead times of every die at ${markdownText(m.mc.report.worstCorner)}](${markdownUrl(images.histogram)})`, '');
   }
   out.push('## Corner table', '');

@@ -11,6 +11,7 @@ import { marginUnit } from '../../checks/check.js';
 import {
   CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape,
 } from '../palette.js';
+import { xmlText } from './xml-text.js';
 import { createCanvas, points, round } from './canvas.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, textWidth } from './text.js';
@@ -160,7 +161,7 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
     drawBlock(root, block.rows, block.axis, { top, bottom, rowHeight, x0, x1, hatch, first: k === 0 }, input.processes);
     top = bottom + AXIS_ROOM;
   }
-  drawLegend(root.group(), input.processes, MARGIN, plotEnd + 2);
+  drawLegend(root.group(), input.processes, MARGIN, plotEnd + 2, input.rows.some((r) => r.unmeasured.length > 0));
   return canvas.finish();
 }
 
@@ -221,9 +222,12 @@ function drawRow(g: G, row: MarginRow, index: number, band: { top: number; heigh
   if (index % 2 === 1) g.rect(round(x1 - x0), round(band.height)).move(round(x0), round(band.top)).fill('#f3f4f6').attr({ 'fill-opacity': 0.6 });
   const mid = band.top + band.height / 2;
   const fail = row.failing > 0;
-  drawText(g, truncate(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, mid + 5, {
+  drawText(g, truncate(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, row.requirement ? mid - 1 : mid + 5, {
     size: SIZE.annotation, anchor: 'end', fill: fail ? FAIL : INK, bold: fail, className: 'check-label', data: { check: row.name },
   });
+  if (row.requirement) {
+    drawText(g, truncate(row.requirement, SIZE.small, LABEL_COLUMN - 24), x0 - 10, mid + 12, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'check-requirement' });
+  }
   const lanes = Math.max(1, processes.length);
   const laneGap = (band.height - 10) / lanes;
   for (const p of row.points) {
@@ -231,6 +235,11 @@ function drawRow(g: G, row: MarginRow, index: number, band: { top: number; heigh
     const { shape, colour } = style(processes, p.process);
     const y = band.top + 5 + laneGap * (lane + 0.5);
     marker(g, shape, scale(p.margin), y, colour, !p.pass);
+  }
+  // Corners without a margin: one boxed '?' at the fail side's edge, naming them.
+  if (row.unmeasured.length > 0) {
+    const m = unmeasuredMark(g, x0 + 10, mid).attr({ 'data-corners': row.unmeasured.join(' '), 'data-count': row.unmeasured.length });
+    m.element('title').words(xmlText(`not measured at ${row.unmeasured.join(', ')}`));
   }
   if (row.worst) {
     const lane = Math.max(0, processes.indexOf(row.worst.process));
@@ -244,7 +253,15 @@ function drawRow(g: G, row: MarginRow, index: number, band: { top: number; heigh
   drawText(g, `${verdict}${tail}`, x1 + 14, mid + 12, { size: SIZE.small, fill: fail ? FAIL : MUTED, bold: fail, className: 'verdict-label' });
 }
 
-function drawLegend(g: G, processes: readonly string[], x: number, y: number): void {
+/** A boxed question mark: the check has no margin at that corner (and counts as failing there). */
+function unmeasuredMark(g: G, x: number, y: number): G {
+  const m = g.group().attr({ class: 'unmeasured-mark' });
+  m.rect(14, 14).move(round(x - 7), round(y - 7)).fill(PAPER).stroke({ color: FAIL, width: 1.2 });
+  drawText(m, GLYPH.unknown, x, y + 4.5, { size: SIZE.small, anchor: 'middle', bold: true, fill: FAIL });
+  return m;
+}
+
+function drawLegend(g: G, processes: readonly string[], x: number, y: number, unmeasured: boolean): void {
   g.attr({ class: 'legend' });
   drawText(g, 'process corner (row lane, colour and shape):', x, y, { size: SIZE.small, fill: MUTED, className: 'legend-label' });
   let cx = x + textWidth('process corner (row lane, colour and shape):', SIZE.small) + 16;
@@ -254,5 +271,10 @@ function drawLegend(g: G, processes: readonly string[], x: number, y: number): v
     drawText(g, p, cx + 16, y, { size: SIZE.small, fill: INK, className: 'legend-label' });
     cx += 34 + textWidth(p, SIZE.small);
   }
-  drawText(g, 'filled marker = that corner fails the check; ring = worst corner; each check name states its requirement', x, y + 22, { size: SIZE.small, fill: MUTED, className: 'legend-label' });
+  if (unmeasured) {
+    unmeasuredMark(g, x + 6, y + 18);
+    drawText(g, 'not measured at that corner (counts as failing)', x + 18, y + 22, { size: SIZE.small, fill: INK, className: 'legend-label' });
+  }
+  drawText(g, 'filled marker = that corner fails the check; ring = worst corner; a named constraint shows its requirement under its name',
+    x, y + (unmeasured ? 40 : 22), { size: SIZE.small, fill: MUTED, className: 'legend-label legend-note' });
 }

@@ -3,7 +3,7 @@
  * a label to the next free line when it would overlap one already placed.
  */
 import type { G } from '@svgdotjs/svg.js';
-import { FONT, INK } from '../palette.js';
+import { FONT, INK, PAPER } from '../palette.js';
 import { round } from './canvas.js';
 import { xmlText } from './xml-text.js';
 
@@ -35,6 +35,10 @@ export interface TextStyle {
   readonly data?: Readonly<Record<string, string>>;
   /** Paint a white outline under the glyphs so lines behind the label do not cut through it. */
   readonly halo?: boolean;
+  /** Paint an opaque paper box under the label, so lines crossing it stop at its edge. */
+  readonly ground?: boolean;
+  /** Turns the label about its anchor point, degrees clockwise (-90 reads bottom to top). */
+  readonly rotate?: number;
 }
 
 /** The box a label occupies with its baseline at y. */
@@ -45,12 +49,17 @@ export function textBox(text: string, x: number, y: number, style: TextStyle): B
 }
 
 export function drawText(g: G, text: string, x: number, y: number, style: TextStyle): void {
+  if (style.ground) {
+    const b = textBox(text, x, y, style);
+    g.rect(round(b.x1 - b.x0 + 4), round(b.y1 - b.y0 + 2)).move(round(b.x0 - 2), round(b.y0 - 1)).fill(PAPER).attr({ class: 'label-ground' });
+  }
   const t = g.plain(xmlText(text)).attr({
     x: round(x), y: round(y), 'font-size': style.size, 'font-family': style.family ?? FONT,
     fill: style.fill ?? INK, 'text-anchor': style.anchor ?? 'start',
   });
   if (style.bold) t.attr('font-weight', 'bold');
   if (style.halo) t.attr({ stroke: '#ffffff', 'stroke-width': 4, 'stroke-linejoin': 'round', 'paint-order': 'stroke' });
+  if (style.rotate !== undefined) t.attr('transform', `rotate(${style.rotate} ${round(x)} ${round(y)})`);
   if (style.className) t.attr('class', style.className);
   for (const [k, v] of Object.entries(style.data ?? {})) t.attr(`data-${k}`, xmlText(v));
 }

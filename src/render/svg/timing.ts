@@ -18,8 +18,9 @@ import { createCanvas, points, round } from './canvas.js';
 import { drawTimeAxis } from './axis.js';
 import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
 import { dimensionLine, extensionLine } from './marks.js';
-import { defineFailHatch } from './patterns.js';
+import { defineFailHatch, defineOpenFailHatch, failHatchId } from './patterns.js';
 import { drawText, textWidth, wrapLines } from './text.js';
+import { xmlText } from './xml-text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
 import { runTitle } from './metadata.js';
 import type { RunVerdict } from '../../report/verdict.js';
@@ -39,6 +40,8 @@ const PANEL_GAP = 36;
 const TITLE_HEIGHT = 92;
 const OVERVIEW = { row: 26, lane: 16 } as const;
 const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
+/** Room between an off-state label and the conduction bars either side of it, px. */
+export const OFF_LABEL_GAP = 10;
 /** Height of a settle-path lane in the whole-period panel, px. */
 const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
@@ -51,6 +54,8 @@ interface Context {
   readonly d: Diagram;
   readonly root: Svg;
   readonly hatch: string;
+  /** The failure hatch without its ground, for marks laid over what they mark. */
+  readonly openHatch: string;
   readonly prefix: string;
   readonly groups: Map<string, EdgeGroup[]>;
 }
@@ -119,21 +124,23 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const detailTop = overview.bottom + AXIS_HEIGHT + 62;
   const detail = layoutRows(d, detailTop, DETAIL, true);
   const legendTop = detail.bottom + AXIS_HEIGHT + 16;
-  const height = legendTop + 86;
+  const height = legendTop + legendHeight(d, width - 2 * MARGIN, failHatchId(prefix)) + 8;
   const title = `${d.design}: timing diagram, ${d.cornerLabel}`;
   const canvas = createCanvas(width, height, title);
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
-  const ctx: Context = { d, root, hatch: defineFailHatch(root, prefix), prefix, groups: new Map() };
+  const ctx: Context = { d, root, hatch: defineFailHatch(root, prefix), openHatch: defineOpenFailHatch(root, prefix), prefix, groups: new Map() };
   if (d.mode === 'all') for (const row of d.rows) ctx.groups.set(row.net, edgeGroups(row));
 
   drawTitleBlock(root, runTitle(diagramTitle(d), options.run), width, MARGIN);
   sectionHeading(root, 'Whole period', `T = ${formatTime(d.period)}, times from the clock's rising 50 % point`, MARGIN, overviewTop - 26);
   const whole: TimeWindow = { from: 0, to: d.period, half: 0 };
   const overviewScale = scaleLinear().domain([0, d.period]).range([x0, x1]);
+  // Axes and their grid lines go beneath the panels: no grid line crosses a label.
+  const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
   drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
-  drawTimeAxis(root.group(), overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
+  drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
   drawRowLabels(ctx, overview, x0 - 10, false);
 
   sectionHeading(root, 'Handovers, enlarged', 'same time scale in both panels; ramps drawn with their simulated transition times', MARGIN, detailTop - 36);
@@ -142,10 +149,11 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
     const px0 = x0 + i * (panelWidth + PANEL_GAP);
     const scale = scaleLinear().domain([w.from, w.to]).range([px0, px0 + panelWidth]);
     drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, { size: SIZE.label, bold: true, className: 'panel-title' });
+    const axis = root.group();
     drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, detail, true);
-    drawTimeAxis(root.group(), scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
+    drawTimeAxis(axis, scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
   });
-  drawRowLabels(ctx, detail, x0 - 10, true);
+  drawRowLabels(ctx, detail, x0 - 10, true, panelWidth);
   drawLegend(ctx, MARGIN, legendTop, width - 2 * MARGIN);
   return canvas.finish();
 }
@@ -210,8 +218,11 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   ctx.d.rows.forEach((row, i) => drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail));
   ctx.d.switches.forEach((s, i) => drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail));
   if (detail) {
-    drawDeadMarks(ctx, panel, w, scale, layout);
-    drawBbmMarks(ctx, panel, w, scale, layout);
+    // Labels go on a layer above every mark's lines, so no later mark's extension line crosses them.
+    const labels = panel.group().attr({ class: 'mark-labels' });
+    drawDeadMarks(ctx, panel, w, scale, layout, labels);
+    drawBbmMarks(ctx, panel, w, scale, layout, labels);
+    labels.front();
   } else drawSettleMarks(ctx, panel, scale, layout);
 }
 
@@ -224,8 +235,18 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
   ctx.d.settle.forEach((mark, i) => {
     const band = layout.settle[i];
     if (!band) return;
-    const sg = g.group().attr({ class: 'settle-mark', 'data-path': mark.name, 'data-corner': mark.corner, 'data-margin': String(mark.margin) });
+    const [px0] = scale.range() as [number, number];
     const barY = band.top + 24;
+    if ('reason' in mark) {
+      const ug = g.group().attr({ class: 'settle-mark unmeasured', 'data-path': mark.name, 'data-corner': mark.corner });
+      ug.rect(24, 10).move(round(px0 + 4), round(barY)).fill(ctx.hatch).stroke({ color: FAIL, width: 1 }).attr({ class: 'settle-unmeasured' });
+      const [, px1] = scale.range() as [number, number];
+      drawText(ug, truncate(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true), px0 + 4, band.top + 16,
+        { size: SIZE.annotation, fill: FAIL, bold: true, className: 'settle-label', halo: true });
+      drawText(ug, truncate(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, { size: SIZE.small, fill: FAIL, className: 'settle-reason', halo: true });
+      return;
+    }
+    const sg = g.group().attr({ class: 'settle-mark', 'data-path': mark.name, 'data-corner': mark.corner, 'data-margin': String(mark.margin) });
     // A window may run past the period's end: draw it in two pieces.
     const pieces = (from: number, to: number): Array<[number, number]> => {
       const a = wrapTime(from, T);
@@ -244,7 +265,6 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
     const worstDuty = Math.abs(raw - usable) > 1e-15 ? ` (${formatTime(usable)} at the worst duty)` : '';
     const text = `${mark.name}: on together ${formatTime(raw)}${worstDuty}, needs ${formatTime(mark.needed)}, margin ${formatSignedTime(mark.margin)}`
       + `${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
-    const [px0] = scale.range() as [number, number];
     drawText(sg, text, px0 + 4, band.top + 16, { size: SIZE.annotation, fill: mark.pass ? INK : FAIL, bold: !mark.pass, className: 'settle-label', halo: true });
   });
 }
@@ -286,19 +306,28 @@ function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWin
   const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
   const h = Math.min(12, band.height * 0.55);
   const y = band.top + (band.height - h) / 2;
-  drawOffIntervals(ctx, lg, s, band, w, scale, !detail);
+  const busy: Array<{ xa: number; xb: number }> = [];
+  if (s.windows.length > 0) {
+    const on = Math.min(...s.windows.map((x) => x.on));
+    const off = Math.max(...s.windows.map((x) => x.off));
+    for (const k of [-2, -1, 0, 1, 2]) busy.push({ xa: scale(on + k * ctx.d.period), xb: scale(off + k * ctx.d.period) });
+  }
+  drawOffIntervals(ctx, lg, s, band, w, scale, !detail, busy);
   if (s.windows.length === 0) return;
-  const wide = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
+  const spread = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
+  const wide = { on: Math.max(...s.windows.map((x) => x.on)), off: Math.min(...s.windows.map((x) => x.off)) };
   const narrow = { on: Math.max(...s.windows.map((x) => x.onLatest)), off: Math.min(...s.windows.map((x) => x.offEarliest)) };
   for (const k of [-2, -1, 0, 1, 2]) {
     const shift = k * ctx.d.period;
-    const bar = (a: number, b: number, fill: string, cls: string) => {
+    const bar = (a: number, b: number, fill: string, cls: string, dasharray?: string) => {
       const xa = Math.max(scale(w.from) - 2, scale(a + shift));
       const xb = Math.min(scale(w.to) + 2, scale(b + shift));
       if (xb <= xa) return;
-      lg.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(fill).stroke({ color: colour, width: 1 }).attr({ class: cls });
+      lg.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(fill).stroke({ color: colour, width: 1, dasharray }).attr({ class: cls });
     };
-    bar(wide.on, wide.off, tint, 'conduction-wide');
+    // Over all corners: a dashed outline where only some corners conduct, then what every corner shares.
+    if (spread.on < wide.on || spread.off > wide.off) bar(spread.on, spread.off, PAPER, 'conduction-spread', '3 2');
+    if (wide.off > wide.on) bar(wide.on, wide.off, tint, 'conduction-wide');
     if (narrow.off > narrow.on) bar(narrow.on, narrow.off, colour, 'conduction-narrow');
   }
 }
@@ -308,7 +337,8 @@ function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWin
  * gate holds it off against both terminals, a full-height hatched bar where it does not (the
  * off-state check), with the verdict and margin written in the widest interval that has room.
  */
-function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, label: boolean): void {
+function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, label: boolean,
+  busy: ReadonlyArray<{ xa: number; xb: number }>): void {
   const off = s.offState;
   if (!off) return;
   const og = g.group().attr({
@@ -332,17 +362,30 @@ function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeW
   spans.sort((a, b) => a.xa - b.xa);
   let widest: { xa: number; xb: number } | null = null;
   let run: { xa: number; xb: number } | null = null;
-  for (const span of spans) {
+  for (const span of withoutBusy(spans, busy)) {
     run = run && span.xa <= run.xb + 1 ? { xa: run.xa, xb: Math.max(run.xb, span.xb) } : { ...span };
     if (widest === null || run.xb - run.xa > widest.xb - widest.xa) widest = run;
   }
   const text = offStateText(s);
   const width = textWidth(text, SIZE.small, !off.pass);
-  if (label && widest && width + 12 <= widest.xb - widest.xa) {
-    og.rect(round(width + 8), 13).move(round(widest.xa + 2), round(band.top + band.height / 2 - 6.5)).fill(PAPER).attr({ class: 'off-state-label-ground' });
-    drawText(og, text, widest.xa + 6, band.top + band.height / 2 + 4,
+  // Clear of the conduction bars at both ends of the run.
+  if (label && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
+    og.rect(round(width + 8), 13).move(round(widest.xa + OFF_LABEL_GAP), round(band.top + band.height / 2 - 6.5)).fill(PAPER).attr({ class: 'off-state-label-ground' });
+    drawText(og, text, widest.xa + OFF_LABEL_GAP + 4, band.top + band.height / 2 + 4,
       { size: SIZE.small, fill: off.pass ? MUTED : FAIL, bold: !off.pass, className: 'off-state-label' });
   }
+}
+
+/** The parts of `spans` outside every `busy` interval (where the lane draws a conduction bar). */
+export function withoutBusy(spans: ReadonlyArray<{ xa: number; xb: number }>, busy: ReadonlyArray<{ xa: number; xb: number }>): Array<{ xa: number; xb: number }> {
+  let out = spans.map((x) => ({ ...x }));
+  for (const b of busy) {
+    out = out.flatMap((x) => {
+      if (b.xb <= x.xa || b.xa >= x.xb) return [x];
+      return [{ xa: x.xa, xb: b.xa }, { xa: b.xb, xb: x.xb }].filter((p) => p.xb > p.xa);
+    });
+  }
+  return out.sort((a, b) => a.xa - b.xa);
 }
 
 /** The off-state verdict in a switch's lane: `off: holds +55.0 mV` or `off: FAILS -1.53 V in p2, reverse conduction`. */
@@ -392,7 +435,7 @@ function drawNote(g: G, note: string, centre: number, y: number, scale: ScaleLin
   const [px0, px1] = scale.range() as [number, number];
   wrapLines(note, SIZE.small, px1 - px0 - 4).slice(0, 2).forEach((line, i) => {
     drawText(g, line, clampCentre(line, centre, SIZE.small, scale), y + i * 14, {
-      size: SIZE.small, anchor: 'middle', fill: pass ? MUTED : FAIL, className: 'mark-note', halo: true,
+      size: SIZE.small, anchor: 'middle', fill: pass ? MUTED : FAIL, className: 'mark-note', ground: true,
     });
   });
 }
@@ -401,7 +444,7 @@ function roleWord(mark: SpanMark): string {
   return mark.role === 'least' ? 'least ' : mark.role === 'most' ? 'most ' : '';
 }
 
-function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
   if (!layout.dead) return;
   for (const dt of ctx.d.deadTimes) {
     const fromBand = layout.signal[rowIndex(ctx.d, dt.from)];
@@ -418,19 +461,19 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
       dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
       const value = `${roleWord(mark)}dead time ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       const centre = (x.xs + x.xe) / 2;
-      const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, halo: true };
-      drawText(mg, value, clampCentre(value, centre, SIZE.annotation, scale, true), lineY - 6, {
+      const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, ground: true };
+      drawText(labels, value, clampCentre(value, centre, SIZE.annotation, scale, true), lineY - 6, {
         ...style, className: 'dead-time-label', data: { from: dt.from, to: dt.to, corner: mark.corner, value: String(mark.value) },
       });
       const second = mark.pass
         ? mark.role === 'most' ? mark.corner : `${mark.role === 'least' ? `${mark.corner} · ` : ''}clean gap ${psText(dt.gap)}`
         : `${mark.role === 'single' ? '' : `${mark.corner}: `}${mark.reason}`;
-      drawNote(mg, second, centre, lineY + 18, scale, mark.pass);
+      drawNote(labels, second, centre, lineY + 18, scale, mark.pass);
     });
   }
 }
 
-function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
   for (const bbm of ctx.d.breakBeforeMake) {
     const lane = layout.bbm.get(bbm.name);
     const fromIndex = ctx.d.switches.findIndex((s) => s.name === bbm.from);
@@ -452,21 +495,23 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
         const hi = Math.min(panelRight, Math.max(x.xs, x.xe, x.xs + gx));
         const top = Math.min(fromBand.top, toBand.top);
         const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
-        mg.rect(round(Math.max(2, hi - lo)), round(bottom - top)).move(round(lo), round(top)).fill(ctx.hatch).attr({ class: 'bbm-fail' });
+        // Stripes without a ground, so the overlapping bars it marks stay visible beneath.
+        mg.rect(round(Math.max(2, hi - lo)), round(bottom - top)).move(round(lo), round(top)).fill(ctx.openHatch)
+          .stroke({ color: FAIL, width: 1.5 }).attr({ class: 'bbm-fail' });
       }
       extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
       extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
       dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
       const centre = (x.xs + x.xe) / 2;
       const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
-      drawText(mg, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
-        size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', halo: true,
+      drawText(labels, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
+        size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', ground: true,
         data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
       });
       const overlap = mark.value >= 0 ? '' : bbm.kind === 'order' ? `reversed by ${psText(-mark.value)} · ` : `both conduct for ${psText(-mark.value)} · `;
       const required = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
       const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
-      drawNote(mg, note, centre, lineY + 18, scale, mark.pass);
+      drawNote(labels, note, centre, lineY + 18, scale, mark.pass);
     }
   }
 }
@@ -478,7 +523,7 @@ function truncate(text: string, size: number, widthPx: number, bold: boolean): s
   return `${t}\u2026`;
 }
 
-function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean): void {
+function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean, panelWidth = Infinity): void {
   const g = ctx.root.group().attr({ class: detail ? 'row-labels detail' : 'row-labels overview' });
   const room = LABEL_COLUMN - 14;
   ctx.d.rows.forEach((row, i) => {
@@ -497,7 +542,10 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean)
     if (detail && s.problems.length > 0) {
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
-      drawText(g, truncate(msg, SIZE.small, 2 * (ctx.root.width() as number), false), x + 20, band.top + band.height / 2 + 4, { size: SIZE.small, fill: FAIL, className: 'switch-problem' });
+      // Kept inside the first panel; the whole text is the element's tooltip and data.
+      const shown = truncate(msg, SIZE.small, panelWidth - 24, false);
+      drawText(g, shown, x + 20, band.top + band.height / 2 + 4, { size: SIZE.small, fill: FAIL, className: 'switch-problem', ground: true, data: { full: msg } });
+      if (shown !== msg) g.last().element('title').words(xmlText(msg));
     }
   });
   for (const [name, band] of layout.bbm) {
@@ -512,46 +560,82 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean)
   });
 }
 
-function drawLegend(ctx: Context, x: number, y: number, width: number): void {
-  const g = ctx.root.group().attr({ class: 'legend' });
-  g.line(round(x), round(y - 8), round(x + width), round(y - 8)).stroke({ color: GRID, width: 1 });
-  let cx = x;
-  const item = (draw: (gx: number) => void, text: string) => {
-    draw(cx);
-    drawText(g, text, cx + 30, y + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
-    cx += 30 + textWidth(text, SIZE.small) + 22;
-  };
-  const sample = (colour: string, dasharray?: string) => (gx: number) => {
+interface LegendEntry {
+  readonly text: string;
+  readonly draw: (g: G, gx: number, y: number) => void;
+}
+
+/** The legend's swatches, in reading order; only what the drawing shows. */
+function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
+  const out: LegendEntry[] = [];
+  const sample = (colour: string, dasharray?: string) => (g: G, gx: number, y: number) => {
     const l = g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: colour, width: 2 });
     if (dasharray) l.attr('stroke-dasharray', dasharray);
   };
-  const phases = ctx.d.rows.filter((r) => r.role === 'phase');
-  for (const p of phases) item(sample(PHASE[p.phase ?? 0]), `${p.net}, phase ${(p.phase ?? 0) + 1}`);
-  if (ctx.d.rows.some((r) => r.role === 'complement' || r.role === 'clock-complement')) item(sample(MUTED, '7 4'), 'complement');
-  if (ctx.d.rows.some((r) => r.role === 'early')) item(sample(MUTED, '2 3'), 'early phase');
-  item((gx) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(ctx.hatch).stroke({ color: FAIL, width: 1 }); }, `${GLYPH.fail} FAIL (hatched)`);
-  const y2 = y + 30;
-  cx = x;
-  const item2 = (draw: (gx: number) => void, text: string) => {
-    draw(cx);
-    drawText(g, text, cx + 30, y2 + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
-    cx += 30 + textWidth(text, SIZE.small) + 22;
-  };
-  if (ctx.d.switches.length > 0) {
-    item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 }); }, 'switch conducts at some signal level');
-    item2((gx) => { g.rect(24, 10).move(round(gx), round(y2 + 3)).fill(PHASE[0]); }, 'at every signal level');
-    item2((gx) => { g.rect(24, 8).move(round(gx), round(y2 + 4)).fill(FAINT).attr({ 'fill-opacity': 0.55 }); }, 'guard time');
-    if (ctx.d.switches.some((s) => s.offState)) {
-      item2((gx) => { g.rect(24, 3).move(round(gx), round(y2 + 7)).fill(FAINT).stroke({ color: MUTED, width: 0.5 }); }, 'must be off: the gate holds it off against both terminals');
+  for (const p of d.rows.filter((r) => r.role === 'phase')) out.push({ text: `${p.net}, phase ${(p.phase ?? 0) + 1}`, draw: sample(PHASE[p.phase ?? 0]) });
+  if (d.rows.some((r) => r.role === 'complement' || r.role === 'clock-complement')) out.push({ text: 'complement', draw: sample(MUTED, '7 4') });
+  if (d.rows.some((r) => r.role === 'early')) out.push({ text: 'early phase', draw: sample(MUTED, '2 3') });
+  out.push({ text: `${GLYPH.fail} FAIL (hatched)`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(hatch).stroke({ color: FAIL, width: 1 }); } });
+  if (d.switches.length > 0) {
+    const all = d.mode === 'all';
+    if (all) {
+      out.push({ text: 'switch conducts at some corners only', draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PAPER).stroke({ color: PHASE[0], width: 1, dasharray: '3 2' }).attr({ class: 'legend-spread' }); } });
+    }
+    out.push({ text: `${all ? 'at every corner, ' : 'switch conducts '}at some signal level`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 }); } });
+    out.push({ text: `${all ? 'at every corner and ' : 'at every '}signal level`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PHASE[0]); } });
+    out.push({ text: 'guard time', draw: (g, gx, y) => { g.rect(24, 8).move(round(gx), round(y + 4)).fill(FAINT).attr({ 'fill-opacity': 0.55 }); } });
+    if (d.switches.some((s) => s.offState)) {
+      out.push({ text: 'must be off: the gate holds it off against both terminals', draw: (g, gx, y) => { g.rect(24, 3).move(round(gx), round(y + 7)).fill(FAINT).stroke({ color: MUTED, width: 0.5 }); } });
     }
   }
-  if (ctx.d.mode === 'all') {
-    item2((gx) => { g.polygon(points([[gx, y2 + 14], [gx + 10, y2 + 2], [gx + 24, y2 + 2], [gx + 14, y2 + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); },
-      `edge band: earliest to latest corner; line: ${ctx.d.referenceCorner}`);
+  if (d.mode === 'all') {
+    out.push({ text: `edge band: earliest to latest corner; line: ${d.referenceCorner}`,
+      draw: (g, gx, y) => { g.polygon(points([[gx, y + 14], [gx + 10, y + 2], [gx + 24, y + 2], [gx + 14, y + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); } });
   }
+  return out;
+}
+
+const LEGEND_ROW = 30;
+
+/** Left edge and row of each entry, wrapping to a new row at `width`. */
+function legendLayout(entries: readonly LegendEntry[], width: number): Array<{ dx: number; row: number }> {
+  let dx = 0;
+  let row = 0;
+  return entries.map((e) => {
+    const w = 30 + textWidth(e.text, SIZE.small);
+    if (dx > 0 && dx + w > width) { dx = 0; row++; }
+    const at = { dx, row };
+    dx += w + 22;
+    return at;
+  });
+}
+
+function legendNotes(d: Diagram): string[] {
   const notes: string[] = [];
-  if (ctx.d.excluded.length > 0) notes.push(`left out (no steady state): ${ctx.d.excluded.map((e) => e.corner).join(', ')}`);
+  if (d.excluded.length > 0) notes.push(`left out (no steady state): ${d.excluded.map((e) => e.corner).join(', ')}`);
   notes.push('Model estimate from a gate-level timing model; sign-off needs transistor-level simulation and silicon validation.');
-  notes.forEach((n, i) => drawText(g, n, x, y + 66 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' }));
+  return notes;
+}
+
+/** Height the legend takes, px. */
+function legendHeight(d: Diagram, width: number, hatch: string): number {
+  const places = legendLayout(legendEntries(d, hatch), width);
+  const rows = 1 + Math.max(0, ...places.map((p) => p.row));
+  return rows * LEGEND_ROW + 10 + legendNotes(d).length * 16;
+}
+
+function drawLegend(ctx: Context, x: number, y: number, width: number): void {
+  const g = ctx.root.group().attr({ class: 'legend' });
+  g.line(round(x), round(y - 8), round(x + width), round(y - 8)).stroke({ color: GRID, width: 1 });
+  const entries = legendEntries(ctx.d, ctx.hatch);
+  const places = legendLayout(entries, width);
+  entries.forEach((e, i) => {
+    const { dx, row } = places[i]!;
+    const ey = y + row * LEGEND_ROW;
+    e.draw(g, x + dx, ey);
+    drawText(g, e.text, x + dx + 30, ey + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
+  });
+  const rows = 1 + Math.max(0, ...places.map((p) => p.row));
+  legendNotes(ctx.d).forEach((n, i) => drawText(g, n, x, y + rows * LEGEND_ROW + 6 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' }));
 }
 
