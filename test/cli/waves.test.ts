@@ -6,6 +6,9 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { cli, design, tempDir } from '../helpers.js';
+import { requireTool } from '../tools.js';
+
+requireTool('sigrok-cli', 'sigrok-cli');
 
 /** Changes per signal name as read back by sigrok-cli (Debian package sigrok-cli), in its own timescale. */
 function readWithSigrok(file: string): { unitSeconds: number; changes: Map<string, Array<[number, number]>> } {

@@ -9,6 +9,10 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
 import { cli, design, ROOT, tempDir, cliAsync } from '../helpers.js';
+import { requireTool } from '../tools.js';
+
+requireTool('chromium', 'chromium');
+requireTool('ngspice', 'ngspice');
 
 const OUTPUT = join(ROOT, 'test-output');
 

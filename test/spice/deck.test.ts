@@ -10,12 +10,14 @@ import { generatorDeck } from '../../src/spice/deck.js';
 import { cellSubckt } from '../../src/spice/cells.js';
 import { breakBeforeMakeMargins } from '../../src/spice/switch-margins.js';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
+import { requireTool } from '../tools.js';
 
 function measureNames(deck: string): string[] {
   return [...deck.matchAll(/^\.meas tran (\S+)/gm)].map((m) => m[1]!);
 }
 
 describe('phasegap spice', () => {
+  requireTool('ngspice', 'ngspice');
   it('writes a deck that ngspice (Debian package ngspice) runs without error, every .meas giving a value', () => {
     const dir = tempDir();
     const out = join(dir, 'doubler.cir');
@@ -155,6 +157,7 @@ describe('phasegap confirm without ngspice', () => {
 });
 
 describe('phasegap confirm', () => {
+  requireTool('ngspice', 'ngspice');
   it('prints model and ngspice side by side and exits 1 when a difference exceeds the tolerance', () => {
     const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1');
     expect(r.code).toBe(1);
