@@ -7,7 +7,8 @@ import { chooseCorners } from '../../spice/corner-choice.js';
 import { compareCorner, worstDifference, type CornerComparison } from '../../spice/confirm.js';
 import { renderConfirmText } from '../../spice/confirm-text.js';
 import { parseSimulatorOutput } from '../../spice/results.js';
-import { checkSimulator, runDecks } from '../../spice/runner.js';
+import { checkSimulator } from '../../spice/runner.js';
+import { runDecksWithProgress } from '../deck-progress.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
@@ -60,7 +61,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
   if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
-  const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
+  const outputs = runDecksWithProgress(io, decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
