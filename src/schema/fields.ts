@@ -2,6 +2,7 @@
 import * as z from 'zod';
 import { formatEngineering } from '../units/format.js';
 import { NOT_FINITE, parseQuantity, parseTemperature, type Unit } from '../units/quantity.js';
+import { bareNumberProblem } from '../units/bare-number.js';
 
 /**
  * Largest magnitude a quantity of each unit may have where its field sets no upper bound: far
@@ -69,6 +70,11 @@ export function quantity(unit: Unit, description: string, given: Bounds = {}) {
       const parsed = parseQuantity(raw, unit);
       if (!parsed.ok) {
         ctx.addIssue({ code: 'custom', message: parsed.allowed, input: raw });
+        return z.NEVER;
+      }
+      const bare = bareNumberProblem(raw, parsed.value, unit);
+      if (bare !== undefined) {
+        ctx.addIssue({ code: 'custom', message: bare, input: raw });
         return z.NEVER;
       }
       if (outside(parsed.value, bounds)) {
