@@ -2,6 +2,7 @@
 import type { CornerResult } from '../analysis/evaluate.js';
 import { limitingCheck } from '../analysis/evaluate.js';
 import { inputError } from '../errors.js';
+import { namesCorner } from '../process/corners.js';
 
 /** Index of the corner holding the limiting check (the first corner when there are no checks). */
 export function worstCornerIndex(results: readonly CornerResult[]): number {
@@ -16,7 +17,7 @@ export type CornerSelection = { readonly kind: 'corner'; readonly index: number 
 export function selectCorner(results: readonly CornerResult[], value: string, allowAll: boolean, flag = '--corner'): CornerSelection {
   if (value === 'worst') return { kind: 'corner', index: worstCornerIndex(results) };
   if (value === 'all' && allowAll) return { kind: 'all', reference: worstCornerIndex(results) };
-  const index = results.findIndex((r) => r.corner.name === value);
+  const index = results.findIndex((r) => namesCorner(value, r.corner));
   if (index >= 0) return { kind: 'corner', index };
   const names = results.map((r) => r.corner.name).join(', ');
   throw inputError(flag, value, `is not a corner of this design; allowed: worst, ${allowAll ? 'all, ' : ''}or one of ${names}`);

@@ -3,6 +3,7 @@ import { inputError } from '../errors.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateAll, limitingCheck } from '../analysis/evaluate.js';
 import type { Corner } from '../process/corner.js';
+import { namesCorner } from '../process/corners.js';
 
 /**
  * `worst`: for each dead time the corners with the smallest and the largest value, plus the corner
@@ -35,7 +36,7 @@ export function chooseCorners(resolved: ResolvedDesign, spec: string, flag = '--
   const names = spec.split(',').map((s) => s.trim()).filter((s) => s !== '');
   if (names.length === 0) throw inputError(flag, spec, 'names no corner; give worst, all, or corner names separated by commas');
   return names.map((name) => {
-    const corner = all.find((c) => c.name === name);
+    const corner = all.find((c) => namesCorner(name, c));
     if (!corner) throw inputError(flag, name, `is not a corner of the design; its corners are ${all.map((c) => c.name).join(', ')}`);
     return corner;
   });

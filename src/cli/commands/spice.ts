@@ -46,12 +46,12 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
-  if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
+  const cornerSpec = options.corner ?? 'worst';
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
-  if (options.corner === 'all' || options.corner.includes(',')) {
-    throw inputError('--corner', options.corner, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
+  if (cornerSpec === 'all' || cornerSpec.includes(',')) {
+    throw inputError('--corner', cornerSpec, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
   }
-  const limiting = options.corner === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner : options.corner;
+  const limiting = cornerSpec === 'worst' ? limitingCheck(evaluateAll(resolved))?.corner : cornerSpec;
   const corner = chooseCorners(resolved, limiting ?? resolved.corners[0]!.corner.name, '--corner')[0]!;
   const absolute = modelFile(card, cardDir, options.models);
   const toFile = options.out !== undefined && options.out !== '-';
