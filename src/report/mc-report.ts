@@ -4,6 +4,7 @@ import { histogramQuantile, type StreamingHistogram } from '../variation/histogr
 import { CAUTIONS } from './cautions.js';
 import { formatMargin, formatSpread } from './margin-format.js';
 import { renderTable } from './text-table.js';
+import { shellCommand } from './shell-quote.js';
 
 /**
  * Quantiles reported for the dead times: the ±3 sigma tails and the median, from each corner's
@@ -58,7 +59,11 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
 const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
 const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-');
 
-export function renderMcText(r: McReport): string {
+/**
+ * `invocation`: the words that rerun this analysis (program, command, design path, --set and model
+ * options); the replay hint adds the seed and the worst die to them.
+ */
+export function renderMcText(r: McReport, invocation: readonly string[] = ['phasegap', 'mc', 'DESIGN']): string {
   const lines: string[] = [];
   lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
   lines.push('');
@@ -96,7 +101,7 @@ export function renderMcText(r: McReport): string {
   ], checkRows));
   lines.push('');
   lines.push(`yield at every corner: ${pct(r.yield.value)} (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}`);
-  lines.push(`replay the worst die: phasegap mc DESIGN --seed ${r.seed} --replay ${worst.worstSample.index}`);
+  lines.push(`replay the worst die: ${shellCommand([...invocation, '--seed', String(r.seed), '--replay', String(worst.worstSample.index)])}`);
   lines.push(`verdict: ${r.verdict === 'pass' ? 'PASS' : 'FAIL'}`);
   lines.push('', ...r.cautions.map((c) => `caution: ${c}`));
   return `${lines.join('\n')}\n`;

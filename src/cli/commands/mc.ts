@@ -100,7 +100,8 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       maximum: design.requirements.deadTime?.max,
     }), options.histogram, inputs, '--histogram');
   }
-  emit(io, options.json ? toJson(report) : renderMcText(report), options.out, inputs);
+  const invocation = ['phasegap', 'mc', designPath, ...options.set.flatMap((s) => ['--set', s]), ...(options.model === undefined ? [] : ['--model', options.model]), ...(options.tables === undefined ? [] : ['--tables', options.tables])];
+  emit(io, options.json ? toJson(report) : renderMcText(report, invocation), options.out, inputs);
   if (options.timings) {
     const evaluations = samples * resolved.corners.length;
     const used = Math.min(threads, plan.length);
