@@ -2,7 +2,7 @@
 import { leastMargin } from '../report/check-report.js';
 import { formatMargin } from '../report/margin-format.js';
 import type { ProcessCard } from '../schema/process.js';
-import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime, formatPs } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../spice/confirm.js';
 import { percent } from '../spice/confirm-text.js';
@@ -120,7 +120,7 @@ export function summaryItems(m: ReportModel): Array<[string, string]> {
 }
 
 function ps(seconds: number | undefined): string {
-  return seconds === undefined ? '-' : `${Math.round(seconds * 1e12)} ps`;
+  return seconds === undefined ? '-' : formatPs(seconds);
 }
 
 function ns(seconds: number | undefined): string {

@@ -5,6 +5,7 @@ import { CAUTIONS } from './cautions.js';
 import { formatMargin, formatSpread } from './margin-format.js';
 import { renderTable } from './text-table.js';
 import { shellCommand } from './shell-quote.js';
+import { formatPercent, percentDecimals } from '../units/format.js';
 
 /**
  * Quantiles reported for the dead times: the ±3 sigma tails and the median, from each corner's
@@ -56,7 +57,7 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
   };
 }
 
-const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
+
 const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-');
 
 /**
@@ -65,6 +66,9 @@ const ps = (s: number) => (Number.isFinite(s) ? `${(s * 1e12).toFixed(1)}` : '-'
  */
 export function renderMcText(r: McReport, invocation: readonly string[] = ['phasegap', 'mc', 'DESIGN']): string {
   const lines: string[] = [];
+  // One precision for every percentage on the page, fine enough that no yield short of 100 % reads as 100 %.
+  const decimals = percentDecimals([r.yield.value, r.yield.low, r.yield.high, ...(r.minYield === null ? [] : [r.minYield]), ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high])]);
+  const pct = (x: number) => formatPercent(x, decimals);
   lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
   lines.push('');
   const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);

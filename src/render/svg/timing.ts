@@ -9,7 +9,7 @@ import { scaleLinear, type ScaleLinear } from 'd3-scale';
 import type { Diagram, DiagramRow, SpanMark, SwitchRow } from '../diagram.js';
 import type { TimeWindow } from '../windows.js';
 import { wavePoints } from '../waveform.js';
-import { formatEngineering, formatSignedTime, formatTime } from '../../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime, formatPs } from '../../units/format.js';
 import {
   CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
 } from '../palette.js';
@@ -38,9 +38,9 @@ const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
 const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
 
-/** Dead-time and break-before-make values as shown: whole picoseconds. */
+/** Dead-time and break-before-make values as shown: whole picoseconds, ns from 10 ns. */
 export function psText(seconds: number): string {
-  return `${Math.round(seconds * 1e12)} ps`;
+  return formatPs(seconds);
 }
 
 function signedPs(seconds: number): string {
