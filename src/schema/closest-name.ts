@@ -17,11 +17,13 @@ export function editDistance(a: string, b: string): number {
 
 /**
  * The candidate nearest to `word`, when it is near enough to be a typo: at most a third of the
- * word's length in edits (at least 1), and never the word itself. Ties go to the earlier candidate.
+ * word's length in edits (so a word under 3 characters gets none: every short key is near every
+ * other), and never the word itself. Ties go to the earlier candidate.
  */
 export function closestName(word: string, candidates: readonly string[]): string | undefined {
   if (word.length > 64) return undefined;
-  const limit = Math.max(1, Math.floor(word.length / 3));
+  const limit = Math.floor(word.length / 3);
+  if (limit === 0) return undefined;
   let best: string | undefined;
   let bestDistance = Infinity;
   for (const candidate of candidates) {

@@ -73,12 +73,12 @@ export function quantity(unit: Unit, description: string, given: Bounds = {}) {
         return z.NEVER;
       }
       const bare = bareNumberProblem(raw, parsed.value, unit);
-      if (bare !== undefined) {
-        ctx.addIssue({ code: 'custom', message: bare, input: raw });
+      if (outside(parsed.value, bounds)) {
+        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}${bare === undefined ? '' : `; it ${bare}`}`, input: raw });
         return z.NEVER;
       }
-      if (outside(parsed.value, bounds)) {
-        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}`, input: raw });
+      if (bare !== undefined) {
+        ctx.addIssue({ code: 'custom', message: bare, input: raw });
         return z.NEVER;
       }
       return parsed.value;

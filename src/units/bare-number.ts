@@ -17,7 +17,7 @@ export function bareNumberProblem(raw: unknown, value: number, unit: Unit): stri
   if (unit === 's' && Math.abs(value) >= 1e-6) {
     return `has no unit, so it reads as ${n} s; a time here is ps or ns: write the unit, e.g. "${n}ps" or "${n}ns" (a unit-less time must be below 1e-6)`;
   }
-  if (unit === 'Hz' && value < 1e3) {
+  if (unit === 'Hz' && value > 0 && value < 1e3) {
     return `has no unit, so it reads as ${n} Hz; write the unit, e.g. "${n}MHz" or "${n}kHz" (a unit-less frequency must be at least 1e3; write "${n}Hz" if you mean it)`;
   }
   return undefined;

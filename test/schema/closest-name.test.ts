@@ -26,5 +26,6 @@ describe('closestName', () => {
     expect(closestName('period', keys)).toBeUndefined();
     expect(closestName('duty', [])).toBeUndefined();
     expect(closestName('duty', ['duty'])).toBeUndefined();
+    expect(closestName('b', ['n', 'p'])).toBeUndefined();
   });
 });
