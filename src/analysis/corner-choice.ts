@@ -6,6 +6,7 @@
 import { greatest, least } from 'd3-array';
 import { inputError } from '../errors.js';
 import type { Corner } from '../process/corner.js';
+import { namesCorner } from '../process/corners.js';
 import { evaluateAll, limitingCheck, type CornerResult } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
 
@@ -22,7 +23,7 @@ export type CornerSelection = { readonly kind: 'corner'; readonly index: number 
 export function selectCorner(results: readonly CornerResult[], value: string, allowAll: boolean, flag = '--corner'): CornerSelection {
   if (value === 'worst') return { kind: 'corner', index: worstCornerIndex(results) };
   if (value === 'all' && allowAll) return { kind: 'all', reference: worstCornerIndex(results) };
-  const index = results.findIndex((r) => r.corner.name === value);
+  const index = results.findIndex((r) => namesCorner(value, r.corner));
   if (index >= 0) return { kind: 'corner', index };
   const names = results.map((r) => r.corner.name).join(', ');
   throw inputError(flag, value, `is not a corner of this design; allowed: worst, ${allowAll ? 'all, ' : ''}or one of ${names}`);
@@ -64,7 +65,7 @@ export function chooseCorners(resolved: ResolvedDesign, spec: string, flag = '--
   const names = spec.split(',').map((s) => s.trim()).filter((s) => s !== '');
   if (names.length === 0) throw inputError(flag, spec, 'names no corner; give worst, all, or corner names separated by commas');
   return names.map((name) => {
-    const corner = all.find((c) => c.name === name);
+    const corner = all.find((c) => namesCorner(name, c));
     if (!corner) throw inputError(flag, name, `is not a corner of the design; its corners are ${all.map((c) => c.name).join(', ')}`);
     return corner;
   });

@@ -22,6 +22,10 @@ export interface FmaxResult {
   readonly designFrequency: number;
   /** What fails just above fmax (or at the design frequency when nothing passes). */
   readonly limiting: Limiting | null;
+  /** The least-margin check at fmax itself (it passes there); null when there is no fmax. */
+  readonly atFmax?: Limiting | null;
+  /** The frequency, Hz, of the failing probe just above fmax where `limiting` was found; null when none failed. */
+  readonly probeFrequency?: number | null;
   /** Words when no answer exists or the ceiling was reached. */
   readonly note: string;
   readonly evaluations: number;
@@ -56,22 +60,25 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
   const first = trial(f0);
   if (!first.pass && first.limiting && VOLTAGE_KINDS.has(first.limiting.kind as CheckKind)) {
     return {
-      fmax: null, resolution, designFrequency: f0, limiting: first.limiting,
+      fmax: null, resolution, designFrequency: f0, limiting: first.limiting, atFmax: null, probeFrequency: f0,
       note: `a switch fails its ${first.limiting.kind} check, which no clock frequency changes`, evaluations,
     };
   }
   let lo: number;
   let hi: number;
   let failing = first.limiting;
+  let passing = first.pass ? first.limiting : null;
+  let probe: number | null = first.pass ? null : f0;
   if (first.pass) {
     lo = f0;
     hi = f0 * 2;
     for (;;) {
       if (hi > ceiling) {
-        return { fmax: lo, resolution, designFrequency: f0, limiting: null, note: `still passing at the search ceiling ${ceiling} Hz`, evaluations };
+        return { fmax: lo, resolution, designFrequency: f0, limiting: null, atFmax: passing, probeFrequency: null, note: `still passing at the search ceiling ${ceiling} Hz`, evaluations };
       }
       const t = trial(hi);
-      if (!t.pass) { failing = t.limiting; break; }
+      if (!t.pass) { failing = t.limiting; probe = hi; break; }
+      passing = t.limiting;
       lo = hi;
       hi *= 2;
     }
@@ -81,22 +88,23 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     for (;;) {
       if (lo < floor) {
         return {
-          fmax: null, resolution, designFrequency: f0, limiting: first.limiting,
+          fmax: null, resolution, designFrequency: f0, limiting: first.limiting, atFmax: null, probeFrequency: f0,
           note: `no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`, evaluations,
         };
       }
       const t = trial(lo);
-      if (t.pass) break;
+      if (t.pass) { passing = t.limiting; break; }
       hi = lo;
       failing = t.limiting;
+      probe = lo;
       lo /= 2;
     }
   }
   while ((hi - lo) / lo > resolution) {
     const mid = Math.sqrt(lo * hi);
     const t = trial(mid);
-    if (t.pass) lo = mid;
-    else { hi = mid; failing = t.limiting; }
+    if (t.pass) { lo = mid; passing = t.limiting; }
+    else { hi = mid; failing = t.limiting; probe = mid; }
   }
-  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, note: '', evaluations };
+  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, atFmax: passing, probeFrequency: probe, note: '', evaluations };
 }

@@ -6,7 +6,8 @@ import { generatorDeck } from '../spice/deck.js';
 import { compareCorner } from '../spice/confirm.js';
 import type { CornerComparison } from '../report/confirm-report.js';
 import { parseSimulatorOutput } from '../spice/results.js';
-import { checkSimulator, runDecks } from '../spice/runner.js';
+import { checkSimulator } from '../spice/runner.js';
+import { runDecksWithProgress } from './deck-progress.js';
 import { shellCommand } from '../report/shell-quote.js';
 import type { Io } from './io.js';
 import { modelFile } from './model-file.js';
@@ -39,7 +40,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
   if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
-  const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs });
+  const outputs = runDecksWithProgress(io, decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {

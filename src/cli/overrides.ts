@@ -68,6 +68,11 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
     if (typeof key === 'number' && key > (node as unknown[]).length) {
       throw inputError('--set', text, `sets item [${key}] of ${where}, which has ${(node as unknown[]).length} items; give an index from 0 to ${(node as unknown[]).length} (the last appends)`);
     }
+    // A field of a new item would leave the item's other required fields missing: one error here, not one per field.
+    if (typeof key === 'number' && key === (node as unknown[]).length && i < path.length - 1) {
+      const items = (node as unknown[]).length;
+      throw inputError('--set', text, `sets a field of item [${key}] of ${where}, which has ${items} items${items > 0 ? ` (0 to ${items - 1})` : ''}; to add an item, set it whole, e.g. ${where}[${key}]={...}`);
+    }
     const container = node as Record<string | number, unknown>;
     if (i === path.length - 1) {
       container[key] = value;

@@ -173,7 +173,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .description('write a runnable ngspice testbench of the generator and its switches at one corner')
     .argument('<DESIGN>', 'design file (YAML or JSON)')
     .addOption(setOption())
-    .option('--corner <NAME>', 'the corner, e.g. ss/1.62V/125C, or worst (the limiting corner)')
+    .option('--corner <NAME>', 'the corner, e.g. ss/1.62V/125C, or worst (the limiting corner)', 'worst')
     .option('--models <FILE>', 'SPICE model file to include instead of the card\'s spice.models')
     .addOption(outOption('the deck'))
     .action((design: string, _opts: unknown, cmd: Command) => setCode(runSpice(io, design, cmd.optsWithGlobals())));
@@ -210,7 +210,7 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
     .description('write a structural Verilog model of the generator with the corner\'s rise/fall gate delays')
     .argument('<DESIGN>', 'design file (YAML or JSON)')
     .addOption(setOption())
-    .option('--corner <NAME>', 'the corner, e.g. tt/1.8V/27C, or worst (the limiting corner)')
+    .option('--corner <NAME>', 'the corner, e.g. tt/1.8V/27C, or worst (the limiting corner)', 'worst')
     .option('--testbench', 'append a testbench that drives the clock and dumps a VCD file', false)
     .option('--periods <N>', 'clock periods the testbench runs (default 6)')
     .option('--vcd <FILE>', 'VCD file the testbench writes (default <module>.vcd)')

@@ -85,7 +85,11 @@ switches:                # each connects two nodes (or a node and a rail level s
 
 constraints:
   breakBeforeMake:       # never both on: the input would be shorted to the reference
-    - { between: [s_in, s_ref] }
+    - { between: [s_in, s_ref] }     # guard: 200ps here overrides requirements.guard (optional)
+  settle:                # optional: the sampling capacitor must settle through s_in while p1 is active
+    - { name: cs sampling, switches: [s_in], capacitance: 2pF, bits: 10 }   # or error: 0.001
+  # order:               # optional: one switch event before another, e.g. bottom-plate sampling
+  #   - { first: { switch: s_ref, event: off }, then: { switch: s_in, event: on }, min: 100ps }
 
 requirements:
   deadTime: { min: 500ps, max: 4ns }   # at the 50 % points, both handovers

@@ -5,6 +5,7 @@ import type { ProcessCard } from '../schema/process.js';
 import { cornerName, type Corner } from './corner.js';
 import { devicesAtCorner, processCornerOf, thresholdAt } from './device.js';
 import { MAX_CORNERS } from '../schema/limits.js';
+import { parseQuantity, parseTemperature } from '../units/quantity.js';
 
 /** A corner with the design-file paths of the values that made it, for error messages. */
 export interface SourcedCorner {
@@ -84,4 +85,24 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
 
 function thresholdOf(card: ProcessCard, type: 'n' | 'p', corner: Corner): number {
   return thresholdAt(card[type], processCornerOf(card, corner.process)?.[type].dvth ?? 0, corner.temperature, card.t0);
+}
+
+/**
+ * Whether `text` names `corner`: its exact name, or the same corner spelled another way, with the
+ * process in any case and the supply, temperature and duty as numbers ("TT/1.80V/27C",
+ * "tt/1.8/27", "SS/1620mV/125°C"). A corner whose name carries a duty needs the duty too.
+ */
+export function namesCorner(text: string, corner: Corner): boolean {
+  if (text === corner.name) return true;
+  const parts = text.trim().split('/');
+  if (parts.length !== 3 && parts.length !== 4) return false;
+  const [process, supply, temperature, duty] = parts as [string, string, string, string | undefined];
+  if (process.trim().toLowerCase() !== corner.process.toLowerCase()) return false;
+  const vdd = parseQuantity(supply.trim(), 'V');
+  const celsius = parseTemperature(temperature.trim());
+  if (!vdd.ok || !celsius.ok || Math.abs(vdd.value - corner.vdd) > 1e-9 || Math.abs(celsius.value - corner.temperature) > 1e-9) return false;
+  const namedDuty = corner.name.split('/').length === 4;
+  if (duty === undefined) return !namedDuty;
+  const d = /^duty\s*([0-9.]+)$/i.exec(duty.trim());
+  return namedDuty && d !== null && Math.abs(Number(d[1]) - corner.duty) < 1e-9;
 }

@@ -42,7 +42,8 @@ export function confirmTables(c: ConfirmSection, model: string) {
 }
 
 /** The delay-chain proposals as a table (the design's own chain first), and one sentence on them. */
-export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells: string[]; fail: boolean }>; text: string } {
+/** `options`: the command-line options inside `text`, each to be kept on one line. */
+export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells: string[]; fail: boolean }>; text: string; options: string[] } {
   const row = (label: string, c: TuneCandidateReport) => {
     const x = candidateCells(c);
     return { cells: [label, x.stages, x.size, x.load, x.deadMin, x.deadMax, x.margin, c.pass ? 'pass' : 'FAIL'], fail: !c.pass };
@@ -55,7 +56,7 @@ export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells:
       + `largest dead time ${formatTime(best.deadTimeMax ?? NaN)} against ${formatTime(t.current.deadTimeMax ?? NaN)} now (${best.overrides.map((o) => `--set ${o}`).join(' ')}). `
       + (t.confirmed ? `The first proposals were simulated in ngspice at their worst corners (${t.confirmNote}).` : `Proposals keep the model's band and mismatch headroom but are unconfirmed in ngspice (${t.confirmNote}): run phasegap tune or confirm where it is installed.`)
     : `No chain searched passes every corner${t.closest?.limiting ? `; closest still fails ${t.closest.limiting.check} at ${t.closest.limiting.corner}` : ''}.`;
-  return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text };
+  return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text, options: best ? best.overrides.map((o) => `--set ${o}`) : [] };
 }
 
 

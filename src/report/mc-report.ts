@@ -6,6 +6,8 @@ import { CAUTIONS } from './cautions.js';
 import { formatMargin, formatSpread } from './margin-format.js';
 import { renderTable } from './text-table.js';
 import { psTenthsNumber } from '../units/format.js';
+import { shellCommand } from './shell-quote.js';
+import { formatPercent, percentDecimals } from '../units/format.js';
 
 /**
  * Quantiles reported for the dead times: the ±3 sigma tails and the median, from each corner's
@@ -64,11 +66,18 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
   };
 }
 
-const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
+
 const ps = psTenthsNumber;
 
-export function renderMcText(r: McReport): string {
+/**
+ * `invocation`: the words that rerun this analysis (program, command, design path, --set and model
+ * options); the replay hint adds the seed and the worst die to them.
+ */
+export function renderMcText(r: McReport, invocation: readonly string[] = ['phasegap', 'mc', 'DESIGN']): string {
   const lines: string[] = [];
+  // One precision for every percentage on the page, fine enough that no yield short of 100 % reads as 100 %.
+  const decimals = percentDecimals([r.yield.value, r.yield.low, r.yield.high, ...(r.minYield === null ? [] : [r.minYield]), ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high])]);
+  const pct = (x: number) => formatPercent(x, decimals);
   lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
   lines.push('');
   const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);
@@ -105,7 +114,7 @@ export function renderMcText(r: McReport): string {
   ], checkRows));
   lines.push('');
   lines.push(`yield at every corner: ${pct(r.yield.value)} (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}`);
-  lines.push(`replay the worst die: phasegap mc DESIGN --seed ${r.seed} --replay ${worst.worstSample.index}`);
+  lines.push(`replay the worst die: ${shellCommand([...invocation, '--seed', String(r.seed), '--replay', String(worst.worstSample.index)])}`);
   lines.push(`verdict: ${r.verdict === 'pass' ? 'PASS' : 'FAIL'}`);
   lines.push('', ...r.cautions.map((c) => `caution: ${c}`));
   return `${lines.join('\n')}\n`;

@@ -17,14 +17,66 @@ function csvField(value: string | number | null): string {
   return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-export function csvHeader(axes: readonly SweepAxis[], columns: SweepColumns): string {
-  const cols = [
-    ...axes.map((a) => a.path), 'corners', 'verdict', 'limiting_corner', 'limiting_check', 'limiting_margin_s', 'limiting_margin_V',
-    ...columns.deadTimes.flatMap((d) => [`dead_${d}_min_s`, `dead_${d}_max_s`, `gap_${d}_min_s`]),
-    ...columns.widths.map((w) => `width_${w}_min_s`),
-    ...columns.checks.map((c) => `margin_${columns.voltChecks.includes(c) ? 'V' : 's'}: ${c}`),
+/** One CSV column: `key` is the header a notebook indexes by; `label` the words people read. */
+export interface CsvColumn {
+  readonly key: string;
+  readonly label: string;
+  /** SI unit of the values, or null for text and counts. */
+  readonly unit: 's' | 'V' | null;
+}
+
+/** Lower-case letters, digits and single underscores: "dead p1->p2" -> "dead_p1_p2". */
+function slug(text: string): string {
+  return text.toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '') || 'check';
+}
+
+/** A check's name without its stated requirement: "dead p1->p2 >= 500 ps" -> "dead p1->p2". */
+function subject(name: string): string {
+  return name.replace(/\s*(?:>=|<=|\+)\s*[-+]?[\d.]+\s*\S*\s*$/, '').replace(/\b(settles) to .*$/, '$1');
+}
+
+/** Check columns: `margin_s.dead_p1_p2_min`, `margin_V.s_chg_holds_off`; unique within the file. */
+function checkKeys(checks: readonly string[], voltChecks: readonly string[]): string[] {
+  const used = new Set<string>();
+  return checks.map((name) => {
+    const unit = voltChecks.includes(name) ? 'V' : 's';
+    const base = slug(subject(name));
+    const bound = /(>=)/.test(name) ? '_min' : /(<=)/.test(name) ? '_max' : '';
+    let key = `margin_${unit}.${base}${bound}`;
+    for (let n = 2; used.has(key); n++) key = `margin_${unit}.${base}${bound}_${n}`;
+    used.add(key);
+    return key;
+  });
+}
+
+/** Every column of the CSV in order, with a notebook key, its label and unit. */
+export function csvColumns(axes: readonly SweepAxis[], columns: SweepColumns): CsvColumn[] {
+  const keys = checkKeys(columns.checks, columns.voltChecks);
+  return [
+    ...axes.map((a) => ({ key: a.path, label: `swept ${a.path}`, unit: null })),
+    { key: 'corners', label: 'corners evaluated', unit: null },
+    { key: 'verdict', label: 'pass or fail at every corner', unit: null },
+    { key: 'limiting_corner', label: 'corner of the limiting check', unit: null },
+    { key: 'limiting_check', label: 'limiting check', unit: null },
+    { key: 'limiting_margin_s', label: 'margin of the limiting check when it is a timing check', unit: 's' },
+    { key: 'limiting_margin_V', label: 'margin of the limiting check when it is a voltage check', unit: 'V' },
+    ...columns.deadTimes.flatMap((d) => [
+      { key: `dead_${slug(d)}_min_s`, label: `least ${d} over the corners`, unit: 's' as const },
+      { key: `dead_${slug(d)}_max_s`, label: `largest ${d} over the corners`, unit: 's' as const },
+      { key: `gap_${slug(d)}_min_s`, label: `least clean gap of ${d} over the corners`, unit: 's' as const },
+    ]),
+    ...columns.widths.map((w) => ({ key: `width_${slug(w)}_min_s`, label: `least active width of ${w} over the corners`, unit: 's' as const })),
+    ...columns.checks.map((c, i) => ({ key: keys[i]!, label: `least margin over the corners: ${c}`, unit: columns.voltChecks.includes(c) ? 'V' as const : 's' as const })),
   ];
-  return `${cols.map(csvField).join(',')}\n`;
+}
+
+export function csvHeader(axes: readonly SweepAxis[], columns: SweepColumns): string {
+  return `${csvColumns(axes, columns).map((c) => csvField(c.key)).join(',')}\n`;
+}
+
+/** The JSON sidecar beside a CSV file (FILE.columns.json): each header key with its label and unit. */
+export function csvColumnsJson(axes: readonly SweepAxis[], columns: SweepColumns): string {
+  return `${JSON.stringify({ format: 'phasegap-sweep-columns/1', columns: csvColumns(axes, columns) }, null, 2)}\n`;
 }
 
 /** The row's quantities and checks that have no column (empty when the columns cover the row). */

@@ -2,6 +2,7 @@
 import * as z from 'zod';
 import { formatEngineering } from '../units/format.js';
 import { NOT_FINITE, parseQuantity, parseTemperature, type Unit } from '../units/quantity.js';
+import { bareNumberProblem } from '../units/bare-number.js';
 
 /**
  * Largest magnitude a quantity of each unit may have where its field sets no upper bound: far
@@ -71,8 +72,13 @@ export function quantity(unit: Unit, description: string, given: Bounds = {}) {
         ctx.addIssue({ code: 'custom', message: parsed.allowed, input: raw });
         return z.NEVER;
       }
+      const bare = bareNumberProblem(raw, parsed.value, unit);
       if (outside(parsed.value, bounds)) {
-        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}`, input: raw });
+        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}${bare === undefined ? '' : `; it ${bare}`}`, input: raw });
+        return z.NEVER;
+      }
+      if (bare !== undefined) {
+        ctx.addIssue({ code: 'custom', message: bare, input: raw });
         return z.NEVER;
       }
       return parsed.value;

@@ -1,6 +1,7 @@
 /** Validation at the boundary: zod issues become our InputIssues with path, value and allowed. */
 import type * as z from 'zod';
 import { formatPath, InputError, showValue, type InputIssue } from '../errors.js';
+import { closestName } from './closest-name.js';
 
 export function parseWith<S extends z.ZodType>(schema: S, raw: unknown, prefix = ''): z.output<S> {
   const result = schema.safeParse(raw);
@@ -79,7 +80,7 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     case 'unrecognized_keys':
       return {
         path: joinPath(path, ''),
-        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
+        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}${didYouMean(issue.keys, knownKeys(schema, issue.path, root))}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_key': {
       const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
@@ -87,16 +88,17 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     }
     case 'invalid_type':
       return received === undefined
-        ? { path, allowed: `is required (${issue.expected})` }
+        ? { path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
         : { path, value: showValue(received), allowed: `has the wrong type; expected ${issue.expected}` };
     case 'invalid_value':
+      if (received === undefined) return { path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
       return { path, value: showValue(received), allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
     case 'invalid_union':
       if ('discriminator' in issue && issue.discriminator) {
         // zod already ends the path with the discriminator key.
         return { path, value: showValue(received), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
       }
-      if (received === undefined) return { path, allowed: 'is required' };
+      if (received === undefined) return { path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}` };
       return { path, value: showValue(received), allowed: describeUnion(issue) };
     case 'too_small':
     case 'too_big':
@@ -108,6 +110,31 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
     default:
       return { path, value: received === undefined ? undefined : showValue(received), allowed: issue.message };
   }
+}
+
+/** "; did you mean ..." for the unknown keys that are one typo from a known key. */
+function didYouMean(keys: readonly string[], known: readonly string[]): string {
+  const pairs = keys.slice(0, SHOWN_KEYS).flatMap((k) => {
+    const near = closestName(k, known);
+    return near === undefined ? [] : [`${JSON.stringify(near)} for ${showValue(k)}`];
+  });
+  if (pairs.length === 0) return '';
+  return keys.length === 1 ? ` (did you mean ${pairs[0]!.split(' for ')[0]}?)` : ` (did you mean ${pairs.join(', ')}?)`;
+}
+
+/** The schema's own description of the field at `path` (through optional, default and pipe wrappers). */
+function fieldDescription(schema: z.ZodType, path: readonly PropertyKey[], root: unknown): string | undefined {
+  const key = path[path.length - 1];
+  if (key === undefined) return undefined;
+  for (const def of objectsAt(schema, path.slice(0, -1), root)) {
+    let field = ownValue(def.shape, String(key)) as z.ZodType | undefined;
+    while (field) {
+      if (field.description) return field.description;
+      const inner: SchemaDef = defOf(field);
+      field = inner.innerType ?? inner.in;
+    }
+  }
+  return undefined;
 }
 
 const SHOWN_KEYS = 3;

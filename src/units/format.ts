@@ -25,15 +25,39 @@ function trimNumber(value: number, digits: number): string {
   return value.toFixed(decimals);
 }
 
-/** A margin with its sign always shown: +316 ps, -1.20 ns; `fallback` for a missing or infinite value. */
+/**
+ * A margin with its sign always shown: +316 ps, -1.20 ns; never in fs (+0.53 ps, a timing model is
+ * not that fine); `fallback` for a missing or infinite value.
+ */
 export function formatSignedTime(seconds: number | null, fallback = 'n/a'): string {
   if (seconds === null || !Number.isFinite(seconds)) return fallback;
-  return `${seconds < 0 ? '-' : '+'}${formatTime(Math.abs(seconds))}`;
+  const magnitude = Math.abs(seconds);
+  const text = magnitude < 0.9995e-12 ? `${(magnitude * 1e12).toFixed(2)} ps` : formatTime(magnitude);
+  return `${seconds < 0 ? '-' : '+'}${text}`;
 }
 
-/** Time in picoseconds, rounded to whole ps (used in tables and labels). */
+/** A time for labels: whole ps below 10 ns (972 ps, 9999 ps), else ns with two decimals (14.10 ns). */
 export function formatPs(seconds: number): string {
+  if (Number.isFinite(seconds) && Math.abs(seconds) >= 9.9995e-9) return `${(seconds * 1e9).toFixed(2)} ns`;
   return `${Math.round(seconds * 1e12)} ps`;
+}
+
+/** A fraction as a percentage with `decimals` digits: 0.958 -> "95.8 %". */
+export function formatPercent(fraction: number, decimals: number): string {
+  return `${(fraction * 100).toFixed(decimals)} %`;
+}
+
+/**
+ * The one number of decimals a table of fractions is printed with: enough that no value other
+ * than exactly 0 or 1 rounds to 0 % or 100 %, at least `least`, at most 4.
+ */
+export function percentDecimals(fractions: readonly number[], least = 1): number {
+  let decimals = least;
+  for (const f of fractions) {
+    if (!Number.isFinite(f) || f <= 0 || f >= 1) continue;
+    while (decimals < 4 && ((f * 100).toFixed(decimals) === (100).toFixed(decimals) || Number((f * 100).toFixed(decimals)) === 0)) decimals++;
+  }
+  return decimals;
 }
 
 /** Supply in corner names: 1.62V, 1.8V, 0.9V (up to 3 decimals, trailing zeros dropped). */

@@ -24,6 +24,26 @@ describe('phasegap init', () => {
     expect(readdirSync(dir)).toEqual(['design.yaml']);
   });
 
+  it.each(['nand', 'nor'] as const)('%s starter shows switches, break-before-make and settle checks, and its commented order example passes too', (template) => {
+    const out = join(tempDir(), 'design.yaml');
+    expect(cli('init', '--template', template, '-o', out).code).toBe(0);
+    type Report = { verdict: string; corners: Array<{ checks: Array<{ kind: string; name: string; pass: boolean }> }> };
+    const kinds = (file: string) => {
+      const report = JSON.parse(cli('check', file, '--json').stdout) as Report;
+      expect(report.verdict).toBe('pass');
+      return new Set(report.corners[0]!.checks.map((c) => c.kind));
+    };
+    const shown = kinds(out);
+    for (const kind of ['break-before-make', 'settle', 'off-state', 'on-state']) expect(shown).toContain(kind);
+    expect(shown).not.toContain('order');
+    const text = readFileSync(out, 'utf8');
+    expect(text).toMatch(/^ {2}settle: +# optional/m);
+    const uncommented = text.replace(/^ {2}# order:/m, '  order:').replace(/^ {2}# {3}- \{ first/m, '    - { first');
+    expect(uncommented).not.toBe(text);
+    writeFileSync(out, uncommented);
+    expect(kinds(out)).toContain('order');
+  });
+
   it('defaults to the nand template', () => {
     const out = join(tempDir(), 'd.yaml');
     expect(cli('init', '-o', out).code).toBe(0);

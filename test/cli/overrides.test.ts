@@ -49,6 +49,7 @@ describe('applyOverrides', () => {
     ['corners.vdd[100001]=1V', '--set: "corners.vdd[100001]=1V" has list index 100001; a list holds at most 100000 items'],
     ['corners.vdd[3]=1V', 'sets item [3] of corners.vdd, which has 2 items; give an index from 0 to 2 (the last appends)'],
     ['corners.list[1]=1', 'sets item [1] of corners.list, which has 0 items; give an index from 0 to 0'],
+    ['corners.list[0].x=1', 'sets a field of item [0] of corners.list, which has 0 items; to add an item, set it whole, e.g. corners.list[0]={...}'],
     ['corners.vdd.x=1', 'cannot set key "x" in corners.vdd, which is a list; write corners.vdd[N]'],
     ['clock[0]=1', 'cannot set item [0] in clock, which is a mapping; write clock.KEY'],
     ['name=__proto__', '--set: "name=__proto__" is refused at name: it is a reserved name'],
@@ -62,6 +63,15 @@ describe('applyOverrides', () => {
 
   it('appends one item past the end of a list', () => {
     expect(applyOverrides(raw, ['corners.vdd[2]=2V'])).toMatchObject({ corners: { vdd: ['1.62V', '1.8V', '2V'] } });
+  });
+});
+
+describe('check --set on a list item that does not exist', () => {
+  it.each(['switches[4].w=1u', 'switches[9].w=1u'])('prints one error line for %s, exit 2', (set) => {
+    const run = cli('check', design('doubler'), '--set', set);
+    expect(run.code).toBe(2);
+    expect(run.stderr.trim().split('\n')).toHaveLength(1);
+    expect(run.stderr).toContain('of switches, which has 4 items');
   });
 });
 

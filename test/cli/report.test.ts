@@ -59,7 +59,8 @@ describe('phasegap report', () => {
     const tune = JSON.parse(cli('tune', design('too-tight'), '--top', '3', '--json').stdout);
     const best = tune.proposals[0];
     expect(section).toContain(`${best.stages} stages of size ${best.stageSize} with ${best.overrides[2].split('=')[1]} per node`);
-    expect(section).toContain(best.overrides.map((o: string) => `--set ${o}`).join(' '));
+    // Each option of the command line stays on one line (white-space: nowrap).
+    expect(section).toContain(best.overrides.map((o: string) => `<span class="option">--set ${o}</span>`).join(' '));
     // This design plus three proposals.
     expect(section.match(/<tr( class="fail")?><td>/g)?.length).toBe(4);
     expect(section).toMatch(/<tr class="fail"><td>this design<\/td>/);

@@ -6,6 +6,9 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { cli, design, tempDir } from '../helpers.js';
+import { requireTool } from '../tools.js';
+
+requireTool('sigrok-cli', 'sigrok-cli');
 
 /** Changes per signal name as read back by sigrok-cli (Debian package sigrok-cli), in its own timescale. */
 function readWithSigrok(file: string): { unitSeconds: number; changes: Map<string, Array<[number, number]>> } {
@@ -78,6 +81,24 @@ describe('phasegap waves', () => {
     const got = changes.get('s_gnd')!.filter(([t]) => t > 0 && t < T / 1e-14);
     expect(got).toEqual([[rel(s.on), 1], [rel(s.off), 0]].sort((a, b) => a[0]! - b[0]!));
     expect(changes.has('x1')).toBe(true);
+  });
+
+  it('repeats every net\'s crossings in every period, the clock\'s rise at each period start included', () => {
+    const dir = tempDir();
+    const file = join(dir, 'w.vcd');
+    const run = cli('waves', design('doubler'), '--corner', 'tt/1.8V/27C', '--periods', '3', '-o', file);
+    expect(run.code).toBe(0);
+    const { unitSeconds, changes } = readWithSigrok(file);
+    const { design: d, card } = loadDesign(design('doubler'));
+    const result = evaluateAll(resolveDesign(d, card)).find((r) => r.corner.name === 'tt/1.8V/27C')!;
+    const T = Math.round(result.simulation.period / unitSeconds);
+    for (const net of ['clk', 'clkb', 'p1', 'p2']) {
+      const inPeriod = (k: number) => changes.get(net)!.filter(([t]) => t >= k * T && t < (k + 1) * T && t > 0).map(([t, v]) => [t - k * T, v]);
+      expect(inPeriod(1).length).toBeGreaterThanOrEqual(2);
+      expect(inPeriod(2)).toEqual(inPeriod(1));
+    }
+    // The clock rises at the start of periods 2 and 3 and falls at mid-period in each: 5 edges after time 0.
+    expect(changes.get('clk')!.filter(([t]) => t > 0)).toEqual([[T / 2, 0], [T, 1], [1.5 * T, 0], [2 * T, 1], [2.5 * T, 0]]);
   });
 
   it('writes to stdout with -o -', () => {

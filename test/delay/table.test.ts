@@ -10,6 +10,7 @@ import { loadDesign, loadTables } from '../../src/cli/load.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { devicesAtCorner } from '../../src/process/device.js';
 import type { CornerTables, DelayTables } from '../../src/schema/tables.js';
+import { requireTool } from '../tools.js';
 
 const plane = (a: number, b: number, c: number, d: number) => (x: number, y: number) => a + b * x + c * y + d * x * y;
 
@@ -91,6 +92,7 @@ function monotonic(values: readonly number[]): 1 | -1 | 0 {
 }
 
 describe('characterized tables (ngspice, Debian package ngspice)', () => {
+  requireTool('ngspice', 'ngspice');
   const file = join(tempDir(), 'tt.json');
 
   it('rise in delay and transition with load everywhere, and the table model follows the simulator in input transition', () => {

@@ -8,6 +8,9 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { compareGenerator, deckAt, maxAbs, median, modelChain, resolveReference, simulate, spiceChain, type GeneratorComparison } from './harness.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 const ps = 1e-12;
 const SLOW = 600_000;

@@ -13,6 +13,10 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { buildReportModel } from '../../src/render/report-model.js';
 import { renderHtmlReport } from '../../src/render/html/report.js';
 import { provenance } from '../../src/report/provenance.js';
+import { requireTool } from '../tools.js';
+
+requireTool('chromium', 'chromium');
+requireTool('ngspice', 'ngspice');
 
 /** A folder to keep the page screenshots in, when named; the tests write nothing else outside their temp folders. */
 const SCREENSHOTS = process.env.PHASEGAP_SCREENSHOTS;

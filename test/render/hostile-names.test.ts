@@ -12,6 +12,7 @@ import { buildReportModel } from '../../src/render/report-model.js';
 import { renderMarkdownReport } from '../../src/render/markdown/report.js';
 import { xmlDocument, xmlText } from '../../src/render/svg/xml-text.js';
 import { hostileName, hostileResolved, PLAIN_YAML } from '../schema/hostile.js';
+import { requireTool } from '../tools.js';
 
 function xmllint(file: string): { status: number | null; stderr: string } {
   const run = spawnSync('xmllint', ['--noout', file], { encoding: 'utf8' });
@@ -45,6 +46,7 @@ describe('the review page of a design with hostile names (validation bypassed)',
 });
 
 describe('phasegap draw and report with names that are valid but full of markup', () => {
+  requireTool('xmllint', 'libxml2-utils');
   const yaml = PLAIN_YAML
     .replace('name: plain', `name: ${JSON.stringify('<script>alert(1)</script> & ]]> "q" \'s\' `x` *y* [z](javascript:1)')}`)
     .replace('name: g_inv,', 'name: "<b>inv</b>",')

@@ -11,6 +11,7 @@ import { buildDiagram } from '../../src/render/diagram.js';
 import { renderTimingSvg } from '../../src/render/svg/timing.js';
 import { design, tempDir } from '../helpers.js';
 import { all, parseSvg, pointList } from './svg-dom.js';
+import { requireTool } from '../tools.js';
 
 function evaluate(name: string, set: string[] = []): { resolved: ResolvedDesign; results: CornerResult[] } {
   const { design: d, card } = loadDesign(design(name), set);
@@ -32,6 +33,7 @@ function draw(e: { resolved: ResolvedDesign; results: CornerResult[] }, kind: 'c
 const ps = (s: number) => `${Math.round(s * 1e12)} ps`;
 
 describe('renderTimingSvg', () => {
+  requireTool('rsvg-convert', 'librsvg2-bin');
   it('writes well-formed XML that librsvg (Debian librsvg2-bin, rsvg-convert) also reads', () => {
     const svg = draw(integrator, 'corner', 0);
     expect(() => parseSvg(svg)).not.toThrow();

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { identifier, renderVcd, ticks, vcdName, vcdText } from '../../src/render/vcd/vcd.js';
 import { tempDir } from '../helpers.js';
 import { hostileName } from '../schema/hostile.js';
+import { requireTool } from '../tools.js';
 
 describe('identifier', () => {
   it('counts through printable ASCII 33..126, then two characters (IEEE 1364-2005 clause 18)', () => {
@@ -70,6 +71,7 @@ describe('vcdText', () => {
 });
 
 describe('renderVcd with hostile text', () => {
+  requireTool('sigrok-cli', 'sigrok-cli');
   it('declares exactly the intended variables, as sigrok-cli (Debian package sigrok-cli) reads the file', () => {
     const evil = (tag: string) => `${tag} $$end $$var wire 1 % evil $$end $end\n$var wire 1 & evil2 $end\n${hostileName('/tmp/x', tag)}`;
     const text = renderVcd({

@@ -3,7 +3,7 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { parseAxis, summarizePoint, sweepColumns } from '../../src/analysis/sweep.js';
 import { loadDesign } from '../../src/cli/load.js';
-import { csvHeader, csvRow } from '../../src/report/sweep-format.js';
+import { csvColumnsJson, csvHeader, csvRow } from '../../src/report/sweep-format.js';
 import { design } from '../helpers.js';
 
 function row(name: string) {
@@ -23,8 +23,12 @@ describe('csvHeader and csvRow', () => {
     expect(r.limiting?.kind).toBe('dead-time-min');
     expect(Number(at('limiting_margin_s'))).toBeCloseTo(r.limiting!.margin!, 15);
     expect(at('limiting_margin_V')).toBe('');
-    expect(header).toContain('margin_V: s_chg holds off');
-    expect(header).toContain('margin_s: dead p1->p2 >= 500 ps');
+    expect(header).toContain('margin_V.s_chg_holds_off');
+    expect(header).toContain('margin_s.dead_p1_p2_min');
+    expect(header).toContain('margin_s.dead_p1_p2_max');
+    expect(header).toContain('dead_p1_p2_min_s');
+    for (const key of header) expect(key).toMatch(/^[a-z][a-z0-9_]*(?:\.[a-z0-9_]+)?$|^limiting_margin_V$|^margin_V\.[a-z0-9_]+$/);
+    expect(new Set(header).size).toBe(header.length);
   });
 
   it('put a failing switch bias check under limiting_margin_V', () => {
@@ -46,7 +50,20 @@ describe('csvRow with names a spreadsheet would run', () => {
       limiting: { corner: '+tt', check: '=HYPERLINK("x")', kind: 'order' as const, margin: -2e-12 },
       deadTimes: [], widths: [], checks: [{ name: '=HYPERLINK("x")', kind: 'order', margin: -2e-12 }],
     };
-    expect(csvHeader([{ path: '-x', values: [1] }], columns)).toBe(`'-x,corners,verdict,limiting_corner,limiting_check,limiting_margin_s,limiting_margin_V,"margin_s: =HYPERLINK(""x"")"\n`);
+    expect(csvHeader([{ path: '-x', values: [1] }], columns)).toBe(`'-x,corners,verdict,limiting_corner,limiting_check,limiting_margin_s,limiting_margin_V,margin_s.hyperlink_x\n`);
     expect(csvRow(row as never, columns)).toBe(`'@SUM(A1),1,fail,'+tt,"'=HYPERLINK(""x"")",-2e-12,,-2e-12\n`);
+  });
+});
+
+describe('csvColumnsJson', () => {
+  it('lists every header key in order with its label and unit', () => {
+    const { columns } = row('doubler');
+    const axes = [parseAxis('clock.frequency=20MHz')];
+    const sidecar = JSON.parse(csvColumnsJson(axes, columns)) as { format: string; columns: Array<{ key: string; label: string; unit: string | null }> };
+    expect(sidecar.format).toBe('phasegap-sweep-columns/1');
+    expect(sidecar.columns.map((c) => c.key)).toEqual(csvHeader(axes, columns).trim().split(','));
+    const dead = sidecar.columns.find((c) => c.key === 'margin_s.dead_p1_p2_min')!;
+    expect(dead).toEqual({ key: 'margin_s.dead_p1_p2_min', label: 'least margin over the corners: dead p1->p2 >= 500 ps', unit: 's' });
+    expect(sidecar.columns.find((c) => c.key === 'margin_V.s_chg_holds_off')!.unit).toBe('V');
   });
 });

@@ -7,6 +7,9 @@ import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { sampleRankCorrelation } from 'simple-statistics';
 import { cli, design, processCard, ROOT, tempDir } from '../helpers.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 interface ConfirmJson {
   verdict: string;

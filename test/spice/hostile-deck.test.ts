@@ -10,6 +10,9 @@ import { generatorDeck } from '../../src/spice/deck.js';
 import { runDecks } from '../../src/spice/runner.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
 import { hostileResolved } from '../schema/hostile.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 const MODELS = fixture('models', 'generic180.lib');
 

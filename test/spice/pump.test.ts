@@ -8,10 +8,9 @@ import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { ROOT } from '../helpers.js';
+import { requireTool } from '../tools.js';
 
 const DECKS = join(ROOT, 'test', 'spice', 'decks');
-const HAVE_NGSPICE = spawnSync('ngspice', ['-v'], { encoding: 'utf8' }).status === 0;
-if (!HAVE_NGSPICE) console.warn('test/spice/pump.test.ts skipped: ngspice is not installed (Debian package ngspice; .ci/run installs it)');
 
 const measured = new Map<string, Record<string, number>>();
 
@@ -34,7 +33,8 @@ const CFLY = 10e-12;
 /** Ideal doubler: V_out = 2 VDD - I / (f C_fly) = 3.6 V - 0.5 V = 3.1 V (charge balance on the flying capacitor, common practice). */
 const IDEAL = 2 * VDD - LOAD / (F * CFLY);
 
-describe.skipIf(!HAVE_NGSPICE)('whole-pump decks in ngspice (tt, 1.8 V, 27 C, 20 MHz, 100 uA load)', () => {
+describe('whole-pump decks in ngspice (tt, 1.8 V, 27 C, 20 MHz, 100 uA load)', () => {
+  requireTool('ngspice', 'ngspice');
   it('the boosted doubler (doubler.yaml) pumps to within 2 % of 2 VDD - I/(f C) = 3.1 V, drawing 2 I from VDD and nothing from its 2 VDD body source', () => {
     const m = measure('pump-boosted');
     expect(Math.abs(m.vout_avg! - IDEAL) / IDEAL).toBeLessThan(0.02);

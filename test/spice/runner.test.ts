@@ -7,6 +7,9 @@ import { runDecks } from '../../src/spice/runner.js';
 import { cornerModels } from '../../src/spice/models.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { InputError } from '../../src/errors.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 /** A one-resistor deck whose resistance comes from an included file: 1 V across it, ngspice prints the current. */
 function includingDeck(include: string): string {

@@ -10,6 +10,9 @@ import { tempDir } from '../helpers.js';
 import { verilogComment, verilogIdentifier, verilogString } from '../../src/verilog/identifiers.js';
 import { verilogModule, verilogTestbench } from '../../src/verilog/export.js';
 import { hostileName, hostileResolved } from '../schema/hostile.js';
+import { requireTool } from '../tools.js';
+
+requireTool('iverilog', 'iverilog');
 
 const HOSTILE = ['a b', 'x\n`define y', 'endmodule', 'a\u0000b\u007f\u0085\u202e', '', hostileName('/tmp/x', 'all')];
 

@@ -18,6 +18,9 @@ import { verilogIdentifier } from '../../src/verilog/identifiers.js';
 import { steadyStateDelays } from '../../src/verilog/delays.js';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { measurePhases } from '../../src/measure/phases.js';
+import { requireTool } from '../tools.js';
+
+requireTool('iverilog', 'iverilog');
 
 /** Value changes of the top scope's 1-bit signals, times in VCD ticks. */
 function readVcd(text: string): { tick: string; changes: Map<string, Array<[number, string]>> } {

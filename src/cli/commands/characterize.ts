@@ -20,6 +20,7 @@ import { checkOutput, designFiles, emit } from '../output.js';
 import { tablesJson } from '../../spice/tables-json.js';
 import { parseJobs } from '../options.js';
 import { modelFile } from '../model-file.js';
+import { progressBar } from '../progress.js';
 
 export interface CharacterizeOptions {
   readonly corners?: string;
@@ -97,22 +98,27 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   const simulator = checkSimulator(options.ngspice);
   const axes = gridAxes(card, GRIDS[options.grid], size);
   const tables: CornerTables[] = [];
-  corners.forEach((corner, k) => {
-    if (io.stderrIsTTY) io.stderr(`\rcharacterizing with ${simulator}: ${k}/${corners.length} corners`);
-    const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
-    const outputs = runDecks(decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { program: options.ngspice, parallel: jobs });
-    const parts = decks.map((deck, i) => {
-      const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
-      if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-        throw inputError('ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
-      }
-      return { deck, values: parsed.values };
-    });
-    const result = cornerTablesFrom(parts);
-    if (typeof result === 'string') throw inputError('ngspice', corner.name, `characterization failed: ${result}`);
-    tables.push(result);
-  });
-  if (io.stderrIsTTY) io.stderr(`\rcharacterized ${corners.length} corners with ${simulator}            \n`);
+  const bar = progressBar(io, corners.length, 'characterize', true);
+  try {
+    for (const corner of corners) {
+      const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
+      const outputs = runDecks(decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { program: options.ngspice, parallel: jobs });
+      const parts = decks.map((deck, i) => {
+        const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
+        if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
+          throw inputError('ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
+        }
+        return { deck, values: parsed.values };
+      });
+      const result = cornerTablesFrom(parts);
+      if (typeof result === 'string') throw inputError('ngspice', corner.name, `characterization failed: ${result}`);
+      tables.push(result);
+      bar.update(tables.length);
+    }
+  } finally {
+    bar.stop();
+  }
+  if (io.stderrIsTTY) io.stderr(`characterized ${corners.length} corners with ${simulator}\n`);
   const file: DelayTables = {
     format: 'phasegap-tables/1',
     process: card.name,

@@ -1,6 +1,7 @@
 /** `phasegap fmax DESIGN`: the highest safe clock frequency and what limits it. */
 import { findFmax } from '../../analysis/fmax.js';
 import { formatMargin } from '../../report/margin-format.js';
+import type { FmaxResult } from '../../analysis/fmax.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import { formatEngineering } from '../../units/format.js';
 import { inputError } from '../../errors.js';
@@ -47,11 +48,31 @@ export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions)
   }
   if (lim) {
     const where = result.fmax === null ? 'fails at the design clock' : 'limited by';
-    lines.push(`${where}: ${lim.check} (${lim.kind}) at ${lim.corner}${lim.margin === null ? '' : `, margin ${formatMargin(lim.margin, lim.kind)}`}`);
+    lines.push(`${where}: ${lim.check} (${lim.kind}) at ${lim.corner}`);
+    lines.push(...fmaxMarginLines(result));
   }
   lines.push(`verdict: ${ok ? 'PASS' : 'FAIL'} (the design clock ${ok ? 'is at or below' : 'is above'} fmax)`);
   lines.push(`${result.evaluations} corner evaluations`);
   lines.push('', ...CAUTIONS.map((c) => `caution: ${c}`));
   emit(io, `${lines.join('\n')}\n`, options.out, inputs);
   return ok ? 0 : 1;
+}
+
+/**
+ * The margins beside the verdict, each with the frequency it belongs to: the least margin at fmax
+ * (where every check passes) and the limiting check's margin at the failing probe just above it.
+ */
+export function fmaxMarginLines(result: FmaxResult): string[] {
+  const lines: string[] = [];
+  const at = result.atFmax;
+  if (result.fmax !== null && at && at.margin !== null) {
+    const same = result.limiting !== null && at.check === result.limiting.check && at.corner === result.limiting.corner;
+    lines.push(`  margin at fmax ${formatEngineering(result.fmax, 'Hz', 4)}: ${formatMargin(at.margin, at.kind)}${same ? '' : ` (${at.check} at ${at.corner})`}`);
+  }
+  const lim = result.limiting;
+  if (lim && lim.margin !== null && result.probeFrequency !== null && result.probeFrequency !== undefined) {
+    const above = result.fmax === null ? 'the design clock' : `the first failing probe, ${((result.probeFrequency / result.fmax - 1) * 100).toFixed(2)} % above fmax`;
+    lines.push(`  margin at ${formatEngineering(result.probeFrequency, 'Hz', 4)} (${above}): ${formatMargin(lim.margin, lim.kind)}`);
+  }
+  return lines;
 }

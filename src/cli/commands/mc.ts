@@ -145,7 +145,8 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       }), verdict, record), options.histogram, inputs, '--histogram');
     }
   }
-  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report), verdict, record), options.out, inputs);
+  const invocation = ['phasegap', 'mc', designPath, ...options.set.flatMap((s) => ['--set', s]), ...(options.model === undefined ? [] : ['--model', options.model]), ...(options.tables === undefined ? [] : ['--tables', options.tables])];
+  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report, invocation), verdict, record), options.out, inputs);
   junit?.();
   if (options.timings) {
     const evaluations = samples * resolved.corners.length;

@@ -26,12 +26,12 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
-  if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
+  const cornerSpec = options.corner ?? 'worst';
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
-  if (options.corner === 'all' || options.corner.includes(',')) {
-    throw inputError('--corner', options.corner, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
+  if (cornerSpec === 'all' || cornerSpec.includes(',')) {
+    throw inputError('--corner', cornerSpec, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
   }
-  const corner = chooseCorners(resolved, oneCornerName(resolved, options.corner), '--corner')[0]!;
+  const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;
   const absolute = modelFile(card, cardDir, options.models);
   const toFile = options.out !== undefined && options.out !== '-';
   const modelPath = toFile ? relative(dirname(resolve(options.out!)), absolute) || absolute : absolute;

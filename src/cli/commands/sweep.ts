@@ -6,7 +6,7 @@
 import { availableParallelism } from 'node:os';
 import { closeSync, renameSync, unlinkSync } from 'node:fs';
 import { checkGridSize, mergeColumns, parseAxis, CORNER_AXES, type SweepColumns, type SweepRow } from '../../analysis/sweep.js';
-import { csvHeader, csvRow, jsonRow, unlistedNames } from '../../report/sweep-format.js';
+import { csvColumnsJson, csvHeader, csvRow, jsonRow, unlistedNames } from '../../report/sweep-format.js';
 import { InputError, inputError } from '../../errors.js';
 import { openTemp, writeAll, type Io } from '../io.js';
 import { loadDesign, type ModelOptions } from '../load.js';
@@ -152,6 +152,8 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
   bar.stop();
   if (options.json) out.write(written === 0 ? '[]\n' : '\n]\n');
   out.finish();
+  // Column labels and units beside a CSV file: the header itself holds only notebook keys.
+  if (!options.json && options.out !== undefined && options.out !== '-') io.writeFile(`${options.out}.columns.json`, csvColumnsJson(axes, columns));
   if (interrupted) {
     io.stderr(`phasegap: interrupted after ${written} of ${total} points; the rows written are complete\n`);
     return 130;

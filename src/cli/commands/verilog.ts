@@ -32,11 +32,11 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
-  if (options.corner === undefined) throw inputError('--corner', undefined, 'is required: name one corner of the design, e.g. --corner tt/1.8V/27C, or worst');
-  if (options.corner === 'all' || options.corner.includes(',')) throw inputError('--corner', options.corner, 'must name one corner or worst');
+  const cornerSpec = options.corner ?? 'worst';
+  if (cornerSpec === 'all' || cornerSpec.includes(',')) throw inputError('--corner', cornerSpec, 'must name one corner or worst');
   const periods = optionalWholeNumber('--periods', options.periods, { min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }, 6);
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
-  const corner = chooseCorners(resolved, oneCornerName(resolved, options.corner), '--corner')[0]!;
+  const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;
   const delays = steadyStateDelays(resolved, corner);
   const module = verilogModule(resolved.netlist, delays, moduleName(design.name), [
     `${design.name} at ${corner.name}: structural model written by phasegap`,

@@ -109,7 +109,7 @@ ${table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], checkRows, ne
 </section>
 ${m.tune ? ((t) => `<section id="tune">
 <h2>Delay chains that pass with the least dead time</h2>
-<p>${h(t.text)}</p>
+<p>${t.options.reduce((html, o) => html.split(h(o)).join(`<span class="option">${h(o)}</span>`), h(t.text))}</p>
 ${table(t.head, t.rows, new Set([1, 2, 3, 4, 5, 6]))}
 ${tuneFigure(m.tune!)}
 </section>`)(tuneTable(m.tune)) : ''}

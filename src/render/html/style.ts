@@ -26,6 +26,7 @@ table { border-collapse: collapse; font-size: 13px; margin: 8px 0 18px; }
 th, td { border-bottom: 1px solid ${GRID}; padding: 4px 10px; text-align: left; vertical-align: top; }
 th { background: ${PANEL}; font-weight: bold; }
 td.num { text-align: right; font-family: ${MONO}; white-space: nowrap; }
+.option { font-family: ${MONO}; white-space: nowrap; }
 tr.fail td { background: ${FAIL_TINT}; }
 tr.fail td.verdict-cell { color: ${FAIL}; font-weight: bold; }
 .table-wrap { overflow-x: auto; }

@@ -46,8 +46,8 @@ export const OFF_LABEL_GAP = 10;
 const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
 
-/** Dead-time and break-before-make values as shown: whole picoseconds. */
-const psText = formatPs;
+/** Dead-time and break-before-make values as shown: whole picoseconds, ns from 10 ns. */
+export const psText = formatPs;
 const signedPs = formatSignedPs;
 
 interface Context {

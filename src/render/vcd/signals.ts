@@ -10,10 +10,13 @@ import { netWave } from '../waveform.js';
 import { wrapTime } from '../../measure/wrap-time.js';
 import type { VcdChange, VcdSignal } from './vcd.js';
 
-/** Changes of a periodic 0/1 signal over [0, periods*T): instants within one period, repeated. */
+/**
+ * Changes of a periodic 0/1 signal over (0, periods*T): instants within one period, repeated. An
+ * instant at 0 is the dump's initial value in the first period and a change at every later start.
+ */
 function repeat(instants: ReadonlyArray<{ t: number; value: 0 | 1 }>, period: number, periods: number): VcdChange[] {
   const out: VcdChange[] = [];
-  for (let k = 0; k < periods; k++) for (const e of instants) out.push({ time: e.t + k * period, value: e.value });
+  for (let k = 0; k < periods; k++) for (const e of instants) if (k > 0 || e.t > 0) out.push({ time: e.t + k * period, value: e.value });
   return out.sort((a, b) => a.time - b.time);
 }
 
@@ -36,7 +39,7 @@ export function vcdSignals(result: CornerResult, netlist: CompiledNetlist, nets:
       scope: row.role === 'internal' ? ['internal'] : [],
       name: row.net,
       initial,
-      changes: repeat(instants.filter((e) => e.t > 0), T, periods),
+      changes: repeat(instants, T, periods),
     });
   }
   for (const s of result.switches) {
@@ -44,7 +47,7 @@ export function vcdSignals(result: CornerResult, netlist: CompiledNetlist, nets:
     const on = inPeriod(s.on - result.simulation.windowStart, T);
     const off = inPeriod(s.off - result.simulation.windowStart, T);
     const conducting = on < off ? on === 0 : true;
-    const instants = [{ t: on, value: 1 as const }, { t: off, value: 0 as const }].filter((e) => e.t > 0);
+    const instants = [{ t: on, value: 1 as const }, { t: off, value: 0 as const }];
     signals.push({ scope: ['switches'], name: s.name, initial: conducting && off !== 0 ? 1 : 0, changes: repeat(instants, T, periods) });
   }
   return signals;

@@ -1,0 +1,75 @@
+import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import { ROOT } from './helpers.js';
+import { findOnPath, missingToolError, missingToolMessage } from './tools.js';
+
+/** Every test source under test/, recursively. */
+function testSources(dir = join(ROOT, 'test')): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const path = join(dir, name);
+    return statSync(path).isDirectory() ? testSources(path) : name.endsWith('.ts') ? [path] : [];
+  });
+}
+
+/** The Debian packages .ci/run installs. */
+function ciPackages(): string[] {
+  const m = /^packages=\(([^)]*)\)/m.exec(readFileSync(join(ROOT, '.ci', 'run'), 'utf8'));
+  return m ? m[1]!.trim().split(/\s+/) : [];
+}
+
+describe('findOnPath', () => {
+  it('finds an executable in a PATH folder and nothing for a name that no folder holds', () => {
+    expect(findOnPath('sh', '/nonexistent:/bin')).toBe('/bin/sh');
+    expect(findOnPath('sh', '/nonexistent')).toBeUndefined();
+    expect(findOnPath('sh', '')).toBeUndefined();
+  });
+});
+
+describe('missingToolError', () => {
+  it('is one line naming the Debian package, with no stack frames', () => {
+    const error = missingToolError('no-such-tool-xyz', 'libxml2-utils')!;
+    expect(error.message).toBe(missingToolMessage('no-such-tool-xyz', 'libxml2-utils'));
+    expect(error.message).toContain('sudo apt-get install libxml2-utils');
+    expect(error.message).not.toContain('\n');
+    expect(error.stack).toBe(error.message);
+  });
+
+  it('is undefined when the program is installed', () => {
+    expect(missingToolError('sh', 'dash')).toBeUndefined();
+  });
+});
+
+describe('requireTool calls in the tests', () => {
+  const calls = testSources().flatMap((file) =>
+    [...readFileSync(file, 'utf8').matchAll(/requireTool\('([^']+)', '([^']+)'\)/g)].map((m) => ({ file: relative(ROOT, file), command: m[1]!, pkg: m[2]! })));
+
+  it('name only packages that .ci/run installs', () => {
+    expect(calls.length).toBeGreaterThanOrEqual(15);
+    const packages = ciPackages();
+    expect(packages).toContain('ngspice');
+    expect(calls.filter((c) => !packages.includes(c.pkg))).toEqual([]);
+  });
+
+  it('cover every outside program the tests drive', () => {
+    const tools = new Set(calls.map((c) => c.command));
+    for (const tool of ['ngspice', 'chromium', 'sigrok-cli', 'iverilog', 'rsvg-convert', 'xmllint']) expect(tools).toContain(tool);
+  });
+});
+
+describe('the README quick start', () => {
+  const readme = readFileSync(join(ROOT, 'README.md'), 'utf8');
+  const section = readme.slice(readme.indexOf('## Quick start'), readme.indexOf('## A tour of the commands'));
+  const commands = /```sh\n([\s\S]*?)```/.exec(section)![1]!.trim().split('\n').map((l) => l.replace(/\s+#.*$/, ''));
+
+  it('is two commands: the demo through npx, then the set-up and test script as root', () => {
+    expect(commands).toEqual(['npm ci && npx phasegap check fixtures/designs/doubler.yaml', 'sudo bash .ci/run']);
+  });
+
+  it('runs this folder\'s own bin with npx phasegap (npm 10, as shipped with Node 20)', () => {
+    const version = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
+    const out = execFileSync('npx', ['--offline', 'phasegap', '--version'], { cwd: ROOT, encoding: 'utf8', timeout: 600_000 });
+    expect(out.trim()).toBe(version);
+  }, 600_000);
+});
