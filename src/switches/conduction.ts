@@ -154,7 +154,7 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
           pointOff = Math.max(pointOff, alignNear(off, pointOff, T));
         }
       }
-      const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
+      const r = triodeResistance(d.kprime, device.w, device.l, overdrive - d.ronVthShift, d.theta);
       if (Number.isFinite(r)) conductance += 1 / r;
     }
     if (state === NEVER) return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
