@@ -7,6 +7,22 @@ import type { Deck } from './deck.js';
 import type { QuantityKind } from './measures.js';
 import type { SimulatorOutput } from './results.js';
 import { breakBeforeMakeMargins, type BreakBeforeMakeComparison } from './switch-margins.js';
+import { ronFromCurrent } from './ron-bench.js';
+
+/** Largest |relative error| of a switch R_on that counts as agreeing. */
+export const RON_TOLERANCE = 0.10;
+
+export interface RonComparison {
+  readonly label: string;
+  readonly switch: string;
+  /** ohm */
+  readonly model: number;
+  /** ohm; null when the simulator could not measure it. */
+  readonly simulator: number | null;
+  readonly relativeError: number | null;
+  /** Within RON_TOLERANCE. */
+  readonly pass: boolean;
+}
 
 export interface QuantityComparison {
   readonly quantity: string;
@@ -24,6 +40,8 @@ export interface CornerComparison {
   readonly quantities: readonly QuantityComparison[];
   /** Break-before-make margins at the switches, model and simulator; they must agree on the verdict. */
   readonly breakBeforeMake: readonly BreakBeforeMakeComparison[];
+  /** Switch on-resistance, model and simulator, at each end of every switch's signal range. */
+  readonly ron: readonly RonComparison[];
   /** Errors the simulator reported. */
   readonly errors: readonly string[];
   readonly pass: boolean;
@@ -38,9 +56,14 @@ export function compareCorner(deck: Deck, output: SimulatorOutput, tolerance: nu
     return { quantity: q.label, kind: q.kind, model: q.model, simulator, relativeError, pass: relativeError !== null && Math.abs(relativeError) <= tolerance };
   });
   const breakBeforeMake = breakBeforeMakeMargins(deck.quantities, (name) => output.values.get(name) ?? null, deck.breakBeforeMake, deck.window.period);
+  const ron = deck.ron.map((r): RonComparison => {
+    const simulator = ronFromCurrent(output.values.get(r.name) ?? null);
+    const relativeError = simulator === null ? null : (r.model - simulator) / simulator;
+    return { label: r.label, switch: r.switch, model: r.model, simulator, relativeError, pass: relativeError !== null && Math.abs(relativeError) <= RON_TOLERANCE };
+  });
   return {
-    corner: deck.corner.name, quantities, breakBeforeMake, errors: output.errors,
-    pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees),
+    corner: deck.corner.name, quantities, breakBeforeMake, ron, errors: output.errors,
+    pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) && ron.every((r) => r.pass),
   };
 }
 

@@ -23,6 +23,7 @@ import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel, gateWave } from '../switches/conduction.js';
 import { CycleIndex } from '../measure/phases.js';
+import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
   readonly text: string;
@@ -31,6 +32,8 @@ export interface Deck {
   readonly window: DeckWindow;
   /** The design's break-before-make pairs, to work out from the switch instants. */
   readonly breakBeforeMake: readonly BreakBeforeMakePair[];
+  /** Switch on-resistance benches (drain currents), compared with the model's R_on. */
+  readonly ron: readonly RonQuantity[];
 }
 
 export interface DeckOptions {
@@ -95,6 +98,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   netlist.netNames.forEach((net, n) => {
     if (n !== netlist.clock) lines.push(`.nodeset v(${node(net)})=${start[n] === 1 ? spiceNumber(vdd) : '0'}`);
   });
+  const ron = ronBench(resolved.switches, devices, models.geometry, window.start);
+  if (ron.lines.length > 0) lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
   const maxStep = (options.maxStepFraction ?? 1 / 2000) * T;
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
   for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
@@ -102,7 +107,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
     name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
   }));
-  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake };
+  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake, ron: ron.quantities };
 }
 
 function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,

@@ -179,3 +179,23 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
 function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: string): SwitchConduction {
   return { name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity };
 }
+
+/**
+ * On-resistance of a switch at signal vs with every device's gate fully on (the top of its swing
+ * for n, the bottom for p), its devices in parallel, ohm; Infinity when none conducts.
+ */
+export function onResistanceAt(plan: SwitchPlan, devices: CornerDevices, vs: number): number {
+  const vdd = devices.vdd;
+  const ls = plan.levelShifter;
+  const low = ls ? levelAt(ls.low, vdd) : 0;
+  const high = ls ? levelAt(ls.high, vdd) : vdd;
+  let conductance = 0;
+  for (const device of plan.devices) {
+    const n = device.kind === 'n';
+    const d = n ? devices.n : devices.p;
+    const vt = switchThreshold(plan, device, d, vs, vdd, 0);
+    const r = triodeResistance(d.kprime, device.w, device.l, (n ? high - vs : vs - low) - vt - d.ronVthShift, d.theta);
+    if (Number.isFinite(r)) conductance += 1 / r;
+  }
+  return conductance > 0 ? 1 / conductance : Infinity;
+}
