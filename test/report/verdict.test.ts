@@ -38,10 +38,10 @@ describe('monteCarloPart', () => {
   const mc = runMonteCarlo(resolved, 40, 1);
 
   it('fails when the yield is below requirements.minYield', () => {
-    // 26 of 40 dies pass at every corner with seed 1 (measured).
-    expect(mc.yieldEverywhere).toBe(26 / 40);
+    // 31 of 40 dies pass at every corner with seed 1 (measured; 26 before s_gnd and s_chg were widened to 20 um).
+    expect(mc.yieldEverywhere).toBe(31 / 40);
     const part = monteCarloPart(mcReport('d', 'generic180', mc, 0.99));
-    expect(part).toEqual({ name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 65.000 % over 40 dies at every corner, below the 99.000 % required' });
+    expect(part).toEqual({ name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 77.500 % over 40 dies at every corner, below the 99.000 % required' });
   });
 
   it('passes at or above the requirement, and says when none is set', () => {

@@ -24,8 +24,9 @@ describe('phasegap spice', () => {
     const text = readFileSync(out, 'utf8');
     const names = measureNames(text);
     // Two dead times and two gaps, two widths, on/off of the three direct switches, and on/off at
-    // both ends of its signal range of the level-shifted one.
-    expect(names.length).toBe(4 + 2 + 6 + 4);
+    // both ends of its signal range of the level-shifted one, and the drain current of an R_on
+    // bench per switch and signal end (s_gnd, s_chg, s_vdd one each, s_out two).
+    expect(names.length).toBe(4 + 2 + 6 + 4 + 5);
     const run = spawnSync('ngspice', ['-b', out], { encoding: 'utf8', cwd: dir });
     expect(run.status).toBe(0);
     const parsed = parseSimulatorOutput(`${run.stdout}${run.stderr}`, names);
@@ -33,7 +34,8 @@ describe('phasegap spice', () => {
     for (const name of names) {
       const value = parsed.values.get(name);
       expect(value, name).not.toBeNull();
-      expect(Number.isFinite(value!) && value! > 0, name).toBe(true);
+      // An R_on bench reads a drain current, signed as ngspice signs it; every other value is a time.
+      expect(Number.isFinite(value!) && (name.startsWith('i_ron') ? value !== 0 : value! > 0), name).toBe(true);
     }
   });
 
