@@ -29,3 +29,23 @@ describe('ronCalibration', () => {
     expect(calibrate(ss).n.kprime).toBe(ss.n.kprime);
   });
 });
+
+describe('table model with characterized R_on', () => {
+  it('doubles the doubler\'s s_gnd R_on at tt/1.8V/27C when the tables say R_on * W/L is twice the card\'s law', async () => {
+    const { loadDesign, loadTables } = await import('../../src/cli/load.js');
+    const { tableModel } = await import('../../src/delay/table.js');
+    const { resolveDesign } = await import('../../src/analysis/resolve.js');
+    const { evaluateCorner } = await import('../../src/analysis/evaluate.js');
+    const { design, fixture } = await import('../helpers.js');
+    const tables = loadTables(fixture('tables', 'generic180.json'));
+    const corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
+    const withRon = { ...tables, corners: tables.corners.map((c) => (c.process === 'tt' && c.vdd === 1.8 && c.temperature === 27 ? { ...c, ron: { n: 2 * sheet(tt.n), p: sheet(tt.p) } } : c)) };
+    expect(withRon.corners.some((c) => c.ron)).toBe(true);
+    const d = loadDesign(design('doubler')).design;
+    const plain = evaluateCorner(resolveDesign(d, card, tableModel(tables)), corner);
+    const calibrated = evaluateCorner(resolveDesign(d, card, tableModel(withRon)), corner);
+    const ron = (r: typeof plain, name: string) => r.switches.find((s) => s.name === name)!.ron;
+    expectClose(ron(calibrated, 's_gnd'), 2 * ron(plain, 's_gnd'), 1e-9);
+    expectClose(ron(calibrated, 's_vdd'), ron(plain, 's_vdd'), 1e-12);
+  });
+});
