@@ -10,7 +10,7 @@ import { inputError } from '../errors.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateCorner } from '../analysis/evaluate.js';
 import type { Corner } from '../process/corner.js';
-import { devicesAtCorner } from '../process/device.js';
+import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import { unitWidths } from '../netlist/loads.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
@@ -22,6 +22,7 @@ import { shifterLines, shifterNode } from './level-shifter.js';
 import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel, gateWave } from '../switches/conduction.js';
+import { shifterScale } from '../switches/shifter-timing.js';
 import { CycleIndex } from '../measure/phases.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
@@ -91,7 +92,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry));
+  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices));
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
   lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
@@ -111,7 +112,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
 }
 
 function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
-  geometry: { nModel: string; pModel: string; diffusion: number }): string[] {
+  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -130,7 +131,7 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
       if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
-      const wave = gateWave(plan, device, cycles, vdd);
+      const wave = gateWave(plan, device, cycles, vdd, shifterScale(plan.levelShifter, corner));
       const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd);
       if (typeof built === 'string') {
         devices.push(spiceComment(`${plan.name} is left out: ${built}`));

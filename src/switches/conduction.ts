@@ -10,6 +10,7 @@ import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
+import { shifterScale } from './shifter-timing.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -52,15 +53,17 @@ export interface GateWave {
 }
 
 /** The gate ramps of one device of a switch, or why its net has none. */
-export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number): GateWave | string {
+export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number, shifterScale = 1): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
   const low = ls ? levelAt(ls.low, vdd) : 0;
   const high = ls ? levelAt(ls.high, vdd) : vdd;
-  const delay = ls ? ls.delay : 0;
-  const riseT = ls?.transition ?? cycle.riseTransition;
-  const fallT = ls?.transition ?? cycle.fallTransition;
+  // A shifter's declared delay and transition hold at the nominal corner; `shifterScale` (see
+  // shifter-timing.ts) carries them to this one.
+  const delay = ls ? ls.delay * shifterScale : 0;
+  const riseT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.riseTransition;
+  const fallT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.fallTransition;
   // An inverting level shifter turns the net's fall into the gate's rise and the other way round.
   const invert = ls?.invert === true;
   return {
@@ -107,7 +110,7 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd);
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1);
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
