@@ -76,7 +76,7 @@ export class CornerEvaluator {
     if (measurement.ok) {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
-      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k]));
+      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
       this.current = switches;
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);

@@ -19,6 +19,7 @@ const levelShifter = z.strictObject({
   low: level('Low level of the shifted gate swing'),
   high: level('High level of the shifted gate swing'),
   invert: z.boolean().default(false).describe('An inverting level shifter'),
+  w: quantity('m', 'Width of its pull-down n devices, for their threshold mismatch in Monte Carlo (default 4 unit n widths)', { above: 0 }).optional(),
 });
 
 const signal = z.union([

@@ -131,8 +131,9 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
       if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
-      const wave = gateWave(plan, device, cycles, vdd, shifterScale(plan.levelShifter, corner));
-      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd);
+      const scale = shifterScale(plan.levelShifter, corner);
+      const wave = gateWave(plan, device, cycles, vdd, scale);
+      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd, scale);
       if (typeof built === 'string') {
         devices.push(spiceComment(`${plan.name} is left out: ${built}`));
         return;

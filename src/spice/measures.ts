@@ -112,10 +112,11 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
     const sigMax = levelAt(plan.signal.max, vdd);
     const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
     plan.devices.forEach((device, j) => {
-      const wave = gateWave(plan, device, cycles, vdd, plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1);
+      const scale = plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1;
+      const wave = gateWave(plan, device, cycles, vdd, scale);
       if (typeof wave === 'string') return;
       // A level-shifted gate is the shifter's output, when the deck can build the shifter.
-      if (plan.levelShifter && !shifterDelays(wave, plan.levelShifter.delay)) return;
+      if (plan.levelShifter && !shifterDelays(wave, plan.levelShifter.delay * scale)) return;
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);
       const d = device.kind === 'n' ? devices.n : devices.p;
       const { low, high } = wave.rise;

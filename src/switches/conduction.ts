@@ -10,7 +10,7 @@ import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
-import { shifterScale } from './shifter-timing.js';
+import { shifterScaleWithMismatch } from './shifter-timing.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -103,14 +103,14 @@ export function conductingState(plan: SwitchPlan): StateIndex {
   return 0;
 }
 
-/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V. */
-export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>): SwitchConduction {
+/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth` the level shifter's pull-down. */
+export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>, shifterDvth = 0): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1);
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, plan.levelShifter ? shifterScaleWithMismatch(plan.levelShifter, devices, shifterDvth) : 1);
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }

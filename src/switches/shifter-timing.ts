@@ -8,7 +8,7 @@
  * (test/switches/shifter-timing.test.ts). The fight with the cross-coupled p device is not
  * modelled; it makes the shifter slower where the n device is weak beside the p device.
  */
-import { deviceAtCorner, type CornerDevices } from '../process/device.js';
+import { deviceAtCorner, shiftFactor, type CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from './plan.js';
@@ -35,4 +35,15 @@ export function shifterScale(ls: Shifter, devices: CornerDevices): number {
   const nominal = swing(card.vddNominal) / nominalCurrent(card);
   const here = swing(devices.vdd) / devices.n.idsatPerWidth;
   return nominal > 0 && here > 0 ? here / nominal : 1;
+}
+
+/**
+ * The scale with the pull-down's threshold shifted by `dvth` (local mismatch, V): its drive falls
+ * by the alpha-power factor (1 - dvth / V_ov)^alpha, and the shifter slows by its inverse.
+ */
+export function shifterScaleWithMismatch(ls: Shifter, devices: CornerDevices, dvth: number): number {
+  const base = shifterScale(ls, devices);
+  if (dvth === 0) return base;
+  const factor = shiftFactor(dvth / (devices.vdd - devices.n.vth), devices.n.alpha);
+  return factor > 0 ? base / factor : Infinity;
 }
