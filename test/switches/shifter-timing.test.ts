@@ -11,7 +11,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { loadProcess } from '../../src/cli/load.js';
 import { devicesAtCorner } from '../../src/process/device.js';
-import { shifterScale } from '../../src/switches/shifter-timing.js';
+import { shifterScale, shifterScaleWithMismatch } from '../../src/switches/shifter-timing.js';
 import { expectClose, fixture, processCard, tempDir } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));
@@ -76,5 +76,15 @@ describe('shifterScale against a transistor-level shifter', () => {
   it('errs slow where the n device is weak beside the p device (sf/1.62V/27C: 1.37 against ngspice\'s 1.14)', () => {
     const sim = simulate('sf', 1.62, 27);
     expect(scale('sf', 1.62, 27)).toBeGreaterThan(sim / nominal);
+  });
+});
+
+describe('shifterScaleWithMismatch', () => {
+  // By hand: V_ov 1.8 - 0.45 = 1.35 V at tt/1.8V/27C, alpha 1.3; +10 mV on the pull-down's
+  // threshold cuts its drive by (1 - 0.01/1.35)^1.3 = 0.990381, so the shifter takes 1.009712 x.
+  it('slows the shifter by 0.97 % for a +10 mV pull-down threshold shift at tt/1.8V/27C', () => {
+    const tt = devicesAtCorner(card, { name: '', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
+    expectClose(shifterScaleWithMismatch(shifter, tt, 0.01), 1.009712, 1e-5);
+    expect(shifterScaleWithMismatch(shifter, tt, 0)).toBe(shifterScale(shifter, tt));
   });
 });
