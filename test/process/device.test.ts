@@ -79,8 +79,14 @@ describe('deviceAtCorner', () => {
   });
 
   it('scales the triode k\' with the corner drive and temperature', () => {
+    // (398.15 / 300.15)^-1.5 = 0.6545418829 (generic180 n mobilityExponent 1.5).
     const n = deviceAtCorner(card, 'n', at('ff', 1.8, 125));
-    expectClose(n.kprime, 300e-6 * 1.15 * 0.6545418829, 1e-8);
+    expectClose(n.kprime, 194.6e-6 * 1.15 * 0.6545418829, 1e-8);
+  });
+
+  it('offsets the R_on threshold by the card\'s triode threshold drift: (1.00 - 1.36) mV/K * 98 K = -35.3 mV at 125 C', () => {
+    expectClose(deviceAtCorner(card, 'n', at('ff', 1.8, 125)).ronVthShift, -0.03528, 1e-6);
+    expect(Math.abs(deviceAtCorner(card, 'n', at('ff', 1.8, 27)).ronVthShift)).toBe(0);
   });
 
   it('refuses a supply at or below threshold with the corner and the threshold named', () => {

@@ -32,8 +32,8 @@ interface Case {
 
 const CASES: readonly Case[] = [
   { card: 'generic180', type: 'n', process: 'tt', vdd: 1.8, temperature: 27, vsb: 0, ngspice: 119.92, model: 119.39 },
-  { card: 'generic180', type: 'n', process: 'ss', vdd: 1.62, temperature: 125, vsb: 0, ngspice: 225.69, model: 229.07 },
-  { card: 'generic180', type: 'n', process: 'ff', vdd: 1.98, temperature: -40, vsb: 0, ngspice: 67.165, model: 66.44 },
+  { card: 'generic180', type: 'n', process: 'ss', vdd: 1.62, temperature: 125, vsb: 0, ngspice: 225.69, model: 225.16 },
+  { card: 'generic180', type: 'n', process: 'ff', vdd: 1.98, temperature: -40, vsb: 0, ngspice: 67.165, model: 67.02 },
   { card: 'generic180', type: 'n', process: 'tt', vdd: 1.8, temperature: 27, vsb: 0.5, ngspice: 126.45, model: 125.35 },
   { card: 'generic180', type: 'p', process: 'tt', vdd: 1.8, temperature: 27, vsb: 0, ngspice: 263.24, model: 262.24 },
   { card: 'generic180', type: 'p', process: 'ss', vdd: 1.62, temperature: 125, vsb: 0, ngspice: 492.33, model: 493.19 },
