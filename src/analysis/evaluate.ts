@@ -1,6 +1,7 @@
 /** One corner, end to end: devices -> gate timing -> event simulation -> measurements -> checks. */
 import type { Corner } from '../process/corner.js';
-import { devicesAtCorner } from '../process/device.js';
+import { devicesAtCorner, type CornerDevices } from '../process/device.js';
+import { ronCalibration } from '../switches/tabulated-ron.js';
 import type { GateTiming } from '../delay/model.js';
 import type { SampleMismatch } from '../variation/mismatch.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
@@ -45,6 +46,7 @@ export class CornerEvaluator {
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
+    this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
   }
 
   /** The switch bias checks, prepared once per corner. */
@@ -57,6 +59,8 @@ export class CornerEvaluator {
   /** Switch conduction of the evaluation in progress, looked up by name for the constraints. */
   private current: readonly SwitchConduction[] = [];
   private readonly switchByName: (name: string) => SwitchConduction;
+  /** Switch devices with k' calibrated by the model's characterized R_on, when it has any. */
+  private readonly ronCalibration: ((devices: CornerDevices) => CornerDevices) | undefined;
 
   evaluate(corner: Corner, mismatch?: SampleMismatch, devices = devicesAtCorner(this.resolved.card, corner)): CornerResult {
     const { design, netlist, loads, model } = this.resolved;
@@ -71,7 +75,8 @@ export class CornerEvaluator {
     const switches: SwitchConduction[] = [];
     if (measurement.ok) {
       const plans = this.resolved.switches;
-      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, devices, mismatch?.switches[k]));
+      const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
+      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
       this.current = switches;
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);

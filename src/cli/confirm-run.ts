@@ -42,7 +42,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
   const outputs = runDecksWithProgress(io, decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
-    const parsed = parseSimulatorOutput(outputs[i]!.output, deck.quantities.map((q) => q.name));
+    const parsed = parseSimulatorOutput(outputs[i]!.output, [...deck.quantities.map((q) => q.name), ...deck.ron.map((r) => r.name)]);
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
       throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
     }

@@ -87,6 +87,7 @@ export function tableModel(tables: DelayTables, options: TableModelOptions = {})
   };
   return {
     name: 'table',
+    ron: tables.corners.flatMap((c) => (c.ron ? [{ process: c.process, vdd: c.vdd, temperature: c.temperature, ron: c.ron }] : [])),
     bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch): GateTiming {
       const corner = cornerTables(tables, devices.corner, (m) => warn(`corner ${devices.corner.name}`, m));
       const card = devices.card;

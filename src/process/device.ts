@@ -25,6 +25,13 @@ export interface DeviceAtCorner {
   readonly driveConstant: number;
   /** Triode mu*Cox scaled for temperature and the corner's drive, A/V^2. */
   readonly kprime: number;
+  /**
+   * Threshold offset for the on-resistance only, V: the card's triode temperature law less its
+   * alpha-power one, (vthTempco - triode.vthTempco) * (T - t0); 0 without a `triode` section.
+   */
+  readonly ronVthShift: number;
+  /** Mobility degradation theta, 1/V (the card's, or derived by `derivedTheta`). */
+  readonly theta: number;
   /** Body-effect coefficient, V^0.5, and surface potential, V. */
   readonly gamma: number;
   readonly phi2f: number;
@@ -49,7 +56,7 @@ export function thresholdAt(params: DeviceParams, dvth: number, celsius: number,
 }
 
 /** Drive scale from mobility, (T/T0)^-m with temperatures in kelvin. */
-export function mobilityScale(params: DeviceParams, celsius: number, t0: number): number {
+export function mobilityScale(params: Pick<DeviceParams, 'mobilityExponent'>, celsius: number, t0: number): number {
   return Math.pow((celsius + KELVIN) / (t0 + KELVIN), -params.mobilityExponent);
 }
 
@@ -77,6 +84,23 @@ export function shiftFactor(u: number, alpha: number): number {
   return sum;
 }
 
+/**
+ * Mobility degradation a card implies when it gives none, 1/V: the theta for which the square law
+ * with degraded mobility, I = (k'/2)(W/L) V_ov^2 / (1 + theta V_ov) (SPICE level 3's THETA form:
+ * A. Vladimirescu, S. Liu, The Simulation of MOS Integrated Circuits Using SPICE2, UCB/ERL M80/7,
+ * 1980, from memory), carries the card's alpha-power saturation current at minimum length and the
+ * nominal supply. That current is also cut by velocity saturation, which barely acts in deep
+ * triode, so this theta errs high: the on-resistance it gives is an upper estimate.
+ */
+export function derivedTheta(card: ProcessCard, type: DeviceType): number {
+  const params = card[type];
+  const overdrive = card.vddNominal - params.vth0;
+  if (!(overdrive > 0)) return 0;
+  const squareLaw = (params.kprime / 2 / card.lmin) * overdrive * overdrive;
+  const alphaPower = saturationCurrent(params.drive, params.alpha, overdrive);
+  return Math.max(0, (squareLaw / alphaPower - 1) / overdrive);
+}
+
 /** The card's process corner of that name, looked up among the card's own corners only. */
 export function processCornerOf(card: ProcessCard, name: string): ProcessCard['corners'][string] | undefined {
   return Object.hasOwn(card.corners, name) ? card.corners[name] : undefined;
@@ -102,7 +126,9 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
     alpha: params.alpha,
     idsatPerWidth: saturationCurrent(driveConstant, params.alpha, corner.vdd - vth),
     driveConstant,
-    kprime: params.kprime * shift.drive * temperatureScale,
+    kprime: params.kprime * shift.drive * mobilityScale({ mobilityExponent: params.triode?.mobilityExponent ?? params.mobilityExponent }, corner.temperature, card.t0),
+    ronVthShift: (params.vthTempco - (params.triode?.vthTempco ?? params.vthTempco)) * (corner.temperature - card.t0),
+    theta: params.theta ?? derivedTheta(card, type),
     gamma: params.gamma,
     phi2f: params.phi2f,
     cgate: params.cgate,

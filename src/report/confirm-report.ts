@@ -7,6 +7,21 @@
 /** What a deck measures: a dead time, a clean gap, a phase width or a switch instant. */
 export type QuantityKind = 'dead' | 'gap' | 'width' | 'switch';
 
+/** Largest |relative error| of a switch R_on that counts as agreeing. */
+export const RON_TOLERANCE = 0.10;
+
+export interface RonComparison {
+  readonly label: string;
+  readonly switch: string;
+  /** ohm */
+  readonly model: number;
+  /** ohm; null when the simulator could not measure it. */
+  readonly simulator: number | null;
+  readonly relativeError: number | null;
+  /** Within RON_TOLERANCE. */
+  readonly pass: boolean;
+}
+
 export interface QuantityComparison {
   readonly quantity: string;
   readonly kind: QuantityKind;
@@ -23,6 +38,8 @@ export interface CornerComparison {
   readonly quantities: readonly QuantityComparison[];
   /** Break-before-make margins at the switches, model and simulator; they must agree on the verdict. */
   readonly breakBeforeMake: readonly BreakBeforeMakeComparison[];
+  /** Switch on-resistance, model and simulator, at each end of every switch's signal range. */
+  readonly ron: readonly RonComparison[];
   /** Errors the simulator reported. */
   readonly errors: readonly string[];
   readonly pass: boolean;

@@ -2,7 +2,12 @@
 import { formatSignedTime, formatTime } from '../units/format.js';
 import { renderTable } from './text-table.js';
 import type { CornerComparison } from './confirm-report.js';
-import { worstDifference } from './confirm-report.js';
+import { RON_TOLERANCE, worstDifference } from './confirm-report.js';
+
+/** Ohms with three significant figures: 119 ohm, 1.23 kohm. */
+export function formatOhms(r: number): string {
+  return r >= 1e3 ? `${(r / 1e3).toPrecision(3)} kohm` : `${r.toPrecision(3)} ohm`;
+}
 
 export interface ConfirmSummary {
   readonly design: string;
@@ -37,11 +42,22 @@ export function renderConfirmText(s: ConfirmSummary): string {
       { header: s.simulator, align: 'right' }, { header: 'verdicts', align: 'left' },
     ], pairs), '');
   }
+  const rons = s.corners.flatMap((c) => c.ron.map((r) => [c.corner, r.label, formatOhms(r.model), r.simulator === null ? 'not measured' : formatOhms(r.simulator),
+    r.relativeError === null ? '-' : percent(r.relativeError), r.pass ? 'within' : 'OVER']));
+  if (rons.length > 0) {
+    out.push(`switch on-resistance (deep triode, gate fully on; tolerance ${(RON_TOLERANCE * 100).toFixed(0)} %):`, '');
+    out.push(renderTable([
+      { header: 'corner', align: 'left' }, { header: 'switch', align: 'left' }, { header: 'model', align: 'right' },
+      { header: s.simulator, align: 'right' }, { header: 'difference', align: 'right' }, { header: 'tolerance', align: 'left' },
+    ], rons), '');
+  }
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
   const worst = worstDifference(s.corners);
   if (worst) out.push(`largest difference: ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})`);
   const failed = s.corners.filter((c) => !c.pass).length;
   const within = s.corners.filter((c) => c.quantities.every((q) => q.pass)).length;
+  const ronOver = rons.filter((r) => r[5] !== 'within').length;
+  if (rons.length > 0) out.push(ronOver === 0 ? `switch R_on: all ${rons.length} within ${(RON_TOLERANCE * 100).toFixed(0)} %` : `switch R_on: ${ronOver} of ${rons.length} over ${(RON_TOLERANCE * 100).toFixed(0)} %`);
   const differ = pairs.filter((p) => p[4] !== 'alike').length;
   const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
     : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;

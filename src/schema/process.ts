@@ -16,6 +16,12 @@ export const deviceSchema = z.strictObject({
   cdrain: z.number().nonnegative().describe('Drain diffusion capacitance per metre of width, F/m'),
   avt: z.number().nonnegative().describe('Pelgrom mismatch coefficient A_VT, V*m (5 mV*um = 5e-9)'),
   kprime: z.number().positive().describe('Triode transconductance parameter mu*Cox, A/V^2, for switch on-resistance'),
+  theta: z.number().nonnegative().optional().describe(
+    'Mobility degradation, 1/V: mu_eff = mu0 / (1 + theta * (V_GS - Vth)) (SPICE level 3 THETA). Default: derived from drive and kprime at the nominal supply, which folds velocity saturation in and so errs high in R_on'),
+  triode: z.strictObject({
+    vthTempco: quantity('V', 'Threshold fall per kelvin in deep triode, V/K (default: vthTempco)', { atLeast: 0 }).optional(),
+    mobilityExponent: ratio('Mobility temperature exponent in deep triode (default: mobilityExponent)', { atLeast: 0, atMost: 4 }).optional(),
+  }).optional().describe('Temperature laws of the switch on-resistance where the transistor models differ from the alpha-power fit'),
   subthresholdN: ratio('Sub-threshold slope factor n: S = n * kT/q * ln 10 per decade of current (default 1.5)', { atLeast: 1, atMost: 3 }).default(1.5),
   ratings: z.strictObject({
     vgs: quantity('V', 'Largest |V_GS| and |V_GD| the device may see', { above: 0 }),

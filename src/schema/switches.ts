@@ -14,11 +14,12 @@ const driverStage = z.strictObject({
 });
 
 const levelShifter = z.strictObject({
-  delay: quantity('s', 'Delay of the level shifter, input 50 % to output 50 %', { atLeast: 0 }),
-  transition: quantity('s', 'Output transition time (default: the input\'s)', { above: 0 }).optional(),
+  delay: quantity('s', 'Delay of the level shifter, input 50 % to output 50 %, at the card\'s nominal corner (other corners scale it as swing / n-device drive)', { atLeast: 0 }),
+  transition: quantity('s', 'Output transition time at the nominal corner, scaled like the delay (default: the input\'s)', { above: 0 }).optional(),
   low: level('Low level of the shifted gate swing'),
   high: level('High level of the shifted gate swing'),
   invert: z.boolean().default(false).describe('An inverting level shifter'),
+  w: quantity('m', 'Width of its pull-down n devices, for their threshold mismatch in Monte Carlo (default 4 unit n widths)', { above: 0 }).optional(),
 });
 
 const signal = z.union([

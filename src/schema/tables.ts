@@ -10,6 +10,8 @@
  *   each with `cells[KIND].pins[i]`: `capacitance` (effective input capacitance of pin i, F) and
  *   `rise`/`fall` (output edge) tables `delay` and `transition`, indexed [input transition][load],
  *   in seconds. Delay is input 50 % to output 50 %; transition is the output's 10-90 % time / 0.8.
+ *   Optional `ron`: R_on * W/L (ohm) of an n and a p device at minimum length in deep triode,
+ *   gate at the corner's supply, source and body at their rail.
  */
 import * as z from 'zod';
 import { MAX_TABLE_AXIS, MAX_TABLE_CORNERS } from './limits.js';
@@ -33,12 +35,18 @@ const pinTables = z.strictObject({
 
 export const TABLE_CELLS = ['INV', 'NAND2', 'NAND3', 'NOR2', 'NOR3'] as const;
 
+const cornerRon = z.strictObject({
+  n: z.number().positive().describe('R_on * W/L of the n device, ohm'),
+  p: z.number().positive().describe('R_on * W/L of the p device, ohm'),
+});
+
 export const cornerTablesSchema = z.strictObject({
   name: z.string().min(1),
   process: z.string().min(1),
   vdd: z.number().positive(),
   temperature: z.number(),
   cells: z.partialRecord(z.enum(TABLE_CELLS), z.strictObject({ pins: z.array(pinTables).min(1).max(3) })),
+  ron: cornerRon.optional().describe('Deep-triode on-resistance, gate at the supply (switch R_on)'),
 });
 
 export const tablesSchema = z.strictObject({
@@ -53,5 +61,6 @@ export const tablesSchema = z.strictObject({
 
 export type DelayTables = z.output<typeof tablesSchema>;
 export type CornerTables = z.output<typeof cornerTablesSchema>;
+export type CornerRon = z.output<typeof cornerRon>;
 export type PinTables = z.output<typeof pinTables>;
 export type EdgeTables = z.output<typeof edgeTables>;

@@ -10,7 +10,7 @@ import { inputError } from '../errors.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateCorner } from '../analysis/evaluate.js';
 import type { Corner } from '../process/corner.js';
-import { devicesAtCorner } from '../process/device.js';
+import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import { unitWidths } from '../cells/card-widths.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
@@ -22,7 +22,9 @@ import { shifterLines, shifterNode } from './level-shifter.js';
 import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel, gateWave } from '../switches/conduction.js';
+import { shifterScale } from '../switches/shifter-timing.js';
 import { CycleIndex } from '../measure/phases.js';
+import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
   readonly text: string;
@@ -31,6 +33,8 @@ export interface Deck {
   readonly window: DeckWindow;
   /** The design's break-before-make pairs, to work out from the switch instants. */
   readonly breakBeforeMake: readonly BreakBeforeMakePair[];
+  /** Switch on-resistance benches (drain currents), compared with the model's R_on. */
+  readonly ron: readonly RonQuantity[];
 }
 
 export interface DeckOptions {
@@ -88,13 +92,15 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry));
+  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices));
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
   lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
   netlist.netNames.forEach((net, n) => {
     if (n !== netlist.clock) lines.push(`.nodeset v(${node(net)})=${start[n] === 1 ? spiceNumber(vdd) : '0'}`);
   });
+  const ron = ronBench(resolved.switches, devices, models.geometry, window.start);
+  if (ron.lines.length > 0) lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
   const maxStep = (options.maxStepFraction ?? 1 / 2000) * T;
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
   for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
@@ -102,11 +108,11 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
     name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
   }));
-  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake };
+  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake, ron: ron.quantities };
 }
 
 function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
-  geometry: { nModel: string; pModel: string; diffusion: number }): string[] {
+  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -125,8 +131,9 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
       if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
-      const wave = gateWave(plan, device, cycles, vdd);
-      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd);
+      const scale = shifterScale(plan.levelShifter, corner);
+      const wave = gateWave(plan, device, cycles, vdd, scale);
+      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd, scale);
       if (typeof built === 'string') {
         devices.push(spiceComment(`${plan.name} is left out: ${built}`));
         return;

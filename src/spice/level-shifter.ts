@@ -1,5 +1,5 @@
 /**
- * A switch's level shifter in a deck, as the model describes it (a delay from its input's 50 %
+ * A switch's level shifter in a deck, as the model describes it at the deck's corner (a delay from its input's 50 %
  * crossing to its output's, and linear output ramps between its own low and high levels), built
  * from ngspice's XSPICE bridges: a comparator at half the supply (adc_bridge, high input
  * impedance, so it loads its net as the model assumes: not at all), a digital buffer or inverter
@@ -31,15 +31,16 @@ export function shifterDelays(wave: GateWave, delay: number): { rise: number; fa
 }
 
 /** The element and model lines of one shifter from `input` to `output`, or why it cannot be built. */
-export function shifterLines(id: string, plan: SwitchPlan, input: string, output: string, wave: GateWave, vdd: number): string[] | string {
+export function shifterLines(id: string, plan: SwitchPlan, input: string, output: string, wave: GateWave, vdd: number, scale = 1): string[] | string {
   const ls = plan.levelShifter!;
-  const delays = shifterDelays(wave, ls.delay);
+  const delay = ls.delay * scale;
+  const delays = shifterDelays(wave, delay);
   if (!delays) {
     return `its level shifter's delay (${spiceNumber(ls.delay)} s) is shorter than half its output ramp, which the deck's bridges cannot start early`;
   }
   const { low, high } = wave.rise;
   return [
-    spiceComment(`${plan.name}: level shifter, ${spiceNumber(ls.delay)} s, ${spiceNumber(low)} V .. ${spiceNumber(high)} V${ls.invert ? ', inverting' : ''}`
+    spiceComment(`${plan.name}: level shifter, ${spiceNumber(delay)} s, ${spiceNumber(low)} V .. ${spiceNumber(high)} V${ls.invert ? ', inverting' : ''}`
       + ` (ideal: comparator at VDD/2, digital delay, linear ramps of ${spiceNumber(wave.rise.transition)} s up and ${spiceNumber(wave.fall.transition)} s down)`),
     `a${id}_in [${input}] [${id}_d] ${id}_cmp`,
     `.model ${id}_cmp adc_bridge(in_low=${spiceNumber(vdd / 2)} in_high=${spiceNumber(vdd / 2)} rise_delay=${spiceNumber(COMPARATOR_DELAY)} fall_delay=${spiceNumber(COMPARATOR_DELAY)})`,

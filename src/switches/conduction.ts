@@ -10,6 +10,7 @@ import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
+import { shifterScaleWithMismatch } from './shifter-timing.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -52,15 +53,17 @@ export interface GateWave {
 }
 
 /** The gate ramps of one device of a switch, or why its net has none. */
-export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number): GateWave | string {
+export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number, shifterScale = 1): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
   const low = ls ? levelAt(ls.low, vdd) : 0;
   const high = ls ? levelAt(ls.high, vdd) : vdd;
-  const delay = ls ? ls.delay : 0;
-  const riseT = ls?.transition ?? cycle.riseTransition;
-  const fallT = ls?.transition ?? cycle.fallTransition;
+  // A shifter's declared delay and transition hold at the nominal corner; `shifterScale` (see
+  // shifter-timing.ts) carries them to this one.
+  const delay = ls ? ls.delay * shifterScale : 0;
+  const riseT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.riseTransition;
+  const fallT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.fallTransition;
   // An inverting level shifter turns the net's fall into the gate's rise and the other way round.
   const invert = ls?.invert === true;
   return {
@@ -100,14 +103,14 @@ export function conductingState(plan: SwitchPlan): StateIndex {
   return 0;
 }
 
-/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V. */
-export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>): SwitchConduction {
+/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth` the level shifter's pull-down. */
+export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>, shifterDvth = 0): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd);
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, plan.levelShifter ? shifterScaleWithMismatch(plan.levelShifter, devices, shifterDvth) : 1);
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
@@ -154,7 +157,7 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
           pointOff = Math.max(pointOff, alignNear(off, pointOff, T));
         }
       }
-      const r = triodeResistance(d.kprime, device.w, device.l, overdrive);
+      const r = triodeResistance(d.kprime, device.w, device.l, overdrive - d.ronVthShift, d.theta);
       if (Number.isFinite(r)) conductance += 1 / r;
     }
     if (state === NEVER) return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
@@ -178,4 +181,24 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
 
 function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: string): SwitchConduction {
   return { name: plan.name, type: plan.type, status, detail, on: NaN, off: NaN, onLatest: NaN, offEarliest: NaN, ron: Infinity };
+}
+
+/**
+ * On-resistance of a switch at signal vs with every device's gate fully on (the top of its swing
+ * for n, the bottom for p), its devices in parallel, ohm; Infinity when none conducts.
+ */
+export function onResistanceAt(plan: SwitchPlan, devices: CornerDevices, vs: number): number {
+  const vdd = devices.vdd;
+  const ls = plan.levelShifter;
+  const low = ls ? levelAt(ls.low, vdd) : 0;
+  const high = ls ? levelAt(ls.high, vdd) : vdd;
+  let conductance = 0;
+  for (const device of plan.devices) {
+    const n = device.kind === 'n';
+    const d = n ? devices.n : devices.p;
+    const vt = switchThreshold(plan, device, d, vs, vdd, 0);
+    const r = triodeResistance(d.kprime, device.w, device.l, (n ? high - vs : vs - low) - vt - d.ronVthShift, d.theta);
+    if (Number.isFinite(r)) conductance += 1 / r;
+  }
+  return conductance > 0 ? 1 / conductance : Infinity;
 }

@@ -36,9 +36,16 @@ export function rampCrossing(ramp: GateRamp, level: number): number {
   return ramp.t50 + ramp.transition * ((ramp.rising ? fraction : 1 - fraction) - 0.5);
 }
 
-/** Deep-triode on-resistance, R = 1 / (k' * (W/L) * (V_GS - V_T)), ohm; Infinity when not on (common practice). */
-export function triodeResistance(kprime: number, w: number, l: number, overdrive: number): number {
-  return overdrive > 0 ? 1 / (kprime * (w / l) * overdrive) : Infinity;
+/**
+ * Deep-triode on-resistance with mobility degradation, ohm; Infinity when not on:
+ * R = (1 + theta V_ov) / (k' (W/L) V_ov), the small-V_DS limit of the SPICE level 3 drain current
+ * with mu_eff = mu0 / (1 + theta V_ov) (A. Vladimirescu, S. Liu, UCB/ERL M80/7, 1980, from memory).
+ * Velocity saturation drops out at small V_DS: its factor 1 + V_DS / (E_sat L) (C. G. Sodini,
+ * P.-K. Ko, J. L. Moll, IEEE Trans. Electron Devices 31(10):1386-1393, 1984) tends to 1, so a card
+ * without theta gets one that folds velocity saturation in (`derivedTheta`), erring high.
+ */
+export function triodeResistance(kprime: number, w: number, l: number, overdrive: number, theta = 0): number {
+  return overdrive > 0 ? (1 + theta * overdrive) / (kprime * (w / l) * overdrive) : Infinity;
 }
 
 /** Time constants to settle to error epsilon, ln(1/epsilon). */

@@ -22,6 +22,8 @@ import type { Mismatch } from '../delay/model.js';
 export interface SampleMismatch extends Mismatch {
   /** switches[k][i] shifts device i of switch k. */
   readonly switches: readonly Float64Array[];
+  /** shifters[k] shifts the pull-down threshold of switch k's level shifter (0 without one). */
+  readonly shifters?: Float64Array;
 }
 
 export type AvtConvention = 'pair' | 'device';
@@ -37,7 +39,12 @@ export interface MismatchSigmas {
   readonly gateP: Float64Array;
   /** Sigma of each device of each switch, V. */
   readonly switches: readonly Float64Array[];
+  /** Sigma of each switch's level-shifter pull-down threshold, V (0 without a shifter). */
+  readonly shifters: Float64Array;
 }
+
+/** Width of a level shifter's pull-down n device when the design gives none: 4 unit n widths. */
+export const SHIFTER_PULL_DOWN_UNITS = 4;
 
 export function mismatchSigmas(netlist: CompiledNetlist, card: ProcessCard, switches: readonly SwitchPlan[]): MismatchSigmas {
   const unit = { wn: card.unit.wn, wp: card.unit.wp };
@@ -51,7 +58,9 @@ export function mismatchSigmas(netlist: CompiledNetlist, card: ProcessCard, swit
     gateP[g] = pelgromSigma(card.p.avt, w.wp, card.lmin, card.avtConvention) / Math.sqrt(shape.pSeries);
   }
   const sw = switches.map((plan) => Float64Array.from(plan.devices, (d) => pelgromSigma(card[d.kind].avt, d.w, d.l, card.avtConvention)));
-  return { gateN, gateP, switches: sw };
+  const shifters = Float64Array.from(switches, (plan) => (plan.levelShifter
+    ? pelgromSigma(card.n.avt, plan.levelShifter.w ?? SHIFTER_PULL_DOWN_UNITS * card.unit.wn, card.lmin, card.avtConvention) : 0));
+  return { gateN, gateP, switches: sw, shifters };
 }
 
 /** A 32-bit mix of the run's seed and the sample index (a splitmix-style finaliser). */
@@ -69,6 +78,7 @@ export function mismatchBuffers(sigmas: MismatchSigmas): SampleMismatch {
     dvthN: new Float64Array(sigmas.gateN.length),
     dvthP: new Float64Array(sigmas.gateP.length),
     switches: sigmas.switches.map((s) => new Float64Array(s.length)),
+    shifters: new Float64Array(sigmas.shifters.length),
   };
 }
 
@@ -89,5 +99,8 @@ export function drawMismatch(sigmas: MismatchSigmas, seed: number, sample: numbe
     const target = out.switches[k] as Float64Array;
     for (let i = 0; i < s.length; i++) target[i] = s[i]! * normal();
   }
+  // Drawn after everything else, so adding a shifter leaves the other draws of a die unchanged.
+  const shifters = out.shifters;
+  if (shifters) for (let k = 0; k < sigmas.shifters.length; k++) shifters[k] = sigmas.shifters[k]! === 0 ? 0 : sigmas.shifters[k]! * normal();
   return out;
 }

@@ -14,6 +14,9 @@ import { loadDesign } from '../../src/cli/load.js';
 import { tuneSimulator } from '../../src/cli/commands/tune.js';
 import { cli, design, inputErrorMessage } from '../helpers.js';
 import type { Io } from '../../src/cli/io.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 const io: Io = { stdout: () => {}, stderr: () => {}, writeFile: () => {}, exists: () => false, stderrIsTTY: false };
 

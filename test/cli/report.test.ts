@@ -4,6 +4,9 @@ import { join } from 'node:path';
 import { CAUTIONS } from '../../src/report/cautions.js';
 import { cli, design, tempDir, cliAsync } from '../helpers.js';
 import { parseSvg } from '../render/svg-dom.js';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 describe('phasegap report', () => {
   it('writes one self-contained HTML page with the four drawings inline and the cautions', async () => {

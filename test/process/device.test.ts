@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import {
-  deviceAtCorner, devicesAtCorner, mobilityScale, saturationCurrent, shiftFactor, thresholdAt,
+  deviceAtCorner, derivedTheta, devicesAtCorner, mobilityScale, saturationCurrent, shiftFactor, thresholdAt,
 } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { InputError } from '../../src/errors.js';
@@ -79,8 +79,14 @@ describe('deviceAtCorner', () => {
   });
 
   it('scales the triode k\' with the corner drive and temperature', () => {
+    // (398.15 / 300.15)^-1.5 = 0.6545418829 (generic180 n mobilityExponent 1.5).
     const n = deviceAtCorner(card, 'n', at('ff', 1.8, 125));
-    expectClose(n.kprime, 300e-6 * 1.15 * 0.6545418829, 1e-8);
+    expectClose(n.kprime, 194.6e-6 * 1.15 * 0.6545418829, 1e-8);
+  });
+
+  it('offsets the R_on threshold by the card\'s triode threshold drift: (1.00 - 1.36) mV/K * 98 K = -35.3 mV at 125 C', () => {
+    expectClose(deviceAtCorner(card, 'n', at('ff', 1.8, 125)).ronVthShift, -0.03528, 1e-6);
+    expect(Math.abs(deviceAtCorner(card, 'n', at('ff', 1.8, 27)).ronVthShift)).toBe(0);
   });
 
   it('refuses a supply at or below threshold with the corner and the threshold named', () => {
@@ -110,5 +116,22 @@ describe('shiftFactor', () => {
   it('is zero when the shift reaches the whole overdrive (the device cannot turn on)', () => {
     expect(shiftFactor(1, 1.3)).toBe(0);
     expect(shiftFactor(1.2, 1.3)).toBe(0);
+  });
+});
+
+describe('derivedTheta', () => {
+  // By hand for generic180's n device without its theta: V_ov = 1.8 - 0.45 = 1.35 V; square law
+  // (194.6e-6 / 2 / 0.18e-6) * 1.35^2 = 985.2 A/m; alpha-power 287 * 1.35^1.3 = 423.9 A/m;
+  // theta = (985.2 / 423.9 - 1) / 1.35 = 0.981 /V, above the model file's 0.55 (it folds in velocity saturation).
+  it('gives 0.98 /V for generic180 n, more than its transistor model\'s THETA of 0.55 (so R_on errs high)', () => {
+    const { theta: _omit, ...n } = card.n;
+    expectClose(derivedTheta({ ...card, n }, 'n'), 0.981, 2e-3);
+  });
+
+  it('is what deviceAtCorner uses when the card gives no theta, and the card\'s value otherwise', () => {
+    const { theta: _omit, ...n } = card.n;
+    const corner = { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
+    expect(deviceAtCorner({ ...card, n }, 'n', corner).theta).toBe(derivedTheta({ ...card, n }, 'n'));
+    expect(deviceAtCorner(card, 'n', corner).theta).toBe(0.55);
   });
 });

@@ -160,7 +160,7 @@ describe('report in headless Chromium', () => {
     const confirm = {
       simulator: 'ngspice-test', tolerance: 0.1,
       comparisons: [{
-        corner: 'ff/1.98V/-40C', errors: [], pass: false,
+        corner: 'ff/1.98V/-40C', errors: [], pass: false, ron: [],
         quantities: [{ quantity: 'dead p1->p2', kind: 'dead' as const, model: 968e-12, simulator: 440e-12, relativeError: (968 - 440) / 440, pass: false }],
         breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 4.7e-10, simulator: -2e-11, agrees: false }],
       }],

@@ -7,15 +7,29 @@ const dead = (model: number, simulator: number) => ({
   pass: Math.abs((model - simulator) / simulator) <= 0.1,
 });
 
-function corner(name: string, pairs: Array<[number, number]>): CornerComparison {
+const ronRow = (model: number, simulator: number) => ({
+  label: 'R_on s_gnd @ 0 V', switch: 's_gnd', model, simulator, relativeError: (model - simulator) / simulator,
+  pass: Math.abs((model - simulator) / simulator) <= 0.1,
+});
+
+function corner(name: string, pairs: Array<[number, number]>, rons: Array<[number, number]> = []): CornerComparison {
+  const ron = rons.map(([m, s]) => ronRow(m, s));
   const breakBeforeMake = pairs.map(([model, simulator], i) => ({ check: `s${i}/t${i} break-before-make`, model, simulator, agrees: model >= 0 === simulator >= 0 }));
   const quantities = [dead(1.0e-9, 0.98e-9)];
-  return { corner: name, quantities, breakBeforeMake, errors: [], pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) };
+  return { corner: name, quantities, breakBeforeMake, ron, errors: [], pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) && ron.every((r) => r.pass) };
 }
 
 const summary = (corners: CornerComparison[]) => ({ design: 'pump', model: 'analytic', simulator: 'ngspice-42', tolerance: 0.1, corners });
 
 describe('renderConfirmText', () => {
+  it('lists switch R_on, model vs simulator with the error, and flags one over 10 % (model 44 ohm vs 120 ohm: -63.3 %)', () => {
+    const text = renderConfirmText(summary([corner('tt/1.8V/27C', [[300e-12, 290e-12]], [[44, 120]]), corner('ss/1.62V/125C', [[300e-12, 290e-12]], [[229, 225.7]])]));
+    expect(text).toMatch(/^tt\/1\.8V\/27C\s+R_on s_gnd @ 0 V\s+44\.0 ohm\s+120 ohm\s+-63\.3 %\s+OVER$/m);
+    expect(text).toMatch(/^ss\/1\.62V\/125C\s+R_on s_gnd @ 0 V\s+229 ohm\s+226 ohm\s+\+1\.5 %\s+within$/m);
+    expect(text).toContain('switch R_on: 1 of 2 over 10 %');
+    expect(text).toMatch(/^verdict: DISAGREE \(2\/2 corners within tolerance/m);
+  });
+
   it('closes with "disagree" and the count when a break-before-make pair disagrees', () => {
     // One pair holds in the model (+20 ps) and fails in the simulator (-15 ps).
     const text = renderConfirmText(summary([corner('ff/1.98V/-40C', [[20e-12, -15e-12], [300e-12, 290e-12]])]));

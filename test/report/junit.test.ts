@@ -76,7 +76,7 @@ describe('mcSuite and confirmSuite', () => {
 
   it('confirmSuite gives a case per quantity and pair per corner, failing those beyond tolerance or disagreeing', () => {
     const suite = confirmSuite('d', 'ngspice-42', 0.1, [{
-      corner: 'tt', errors: [], pass: false,
+      corner: 'tt', errors: [], pass: false, ron: [],
       quantities: [
         { quantity: 'dead p1->p2', kind: 'dead', model: 1e-9, simulator: 1.02e-9, relativeError: -0.0196, pass: true },
         { quantity: 'gap p1->p2', kind: 'gap', model: 9e-10, simulator: null, relativeError: null, pass: false },

@@ -89,3 +89,16 @@ describe('offStateAllowance', () => {
     expect(offStateAllowance(0, 1.5, 26.85)).toBe(0);
   });
 });
+
+describe('triodeResistance with mobility degradation', () => {
+  // By hand: k' 194.6 uA/V^2, W/L 10/0.18, V_ov 1.35 V, theta 0.55/V:
+  // (1 + 0.7425) / (194.6e-6 * 55.556 * 1.35) = 1.7425 / 0.014595 = 119.39 ohm.
+  it('divides by mu_eff = mu0 / (1 + theta V_ov): 119.4 ohm for the generic180 s_gnd at tt', () => {
+    expectClose(triodeResistance(194.6e-6, 10e-6, 0.18e-6, 1.35, 0.55), 119.39, 1e-3);
+  });
+
+  it('reduces to 1 / (k W/L V_ov) with theta 0 and is Infinity when not on', () => {
+    expectClose(triodeResistance(300e-6, 10e-6, 0.18e-6, 1.35, 0), 1 / (300e-6 * (10 / 0.18) * 1.35), 1e-12);
+    expect(triodeResistance(300e-6, 10e-6, 0.18e-6, 0, 0.5)).toBe(Infinity);
+  });
+});

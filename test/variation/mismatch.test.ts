@@ -105,3 +105,24 @@ describe('gate delay under mismatch', () => {
     expectClose(sampleStandardDeviation(delays), sensitivity * sigma, 0.05);
   });
 });
+
+describe('mismatchSigmas of level shifters', () => {
+  // By hand: generic180 n avt 5 mV*um per pair, pull-down 4 x 0.5 um at 0.18 um:
+  // 5e-9 / sqrt(2 * 2e-6 * 0.18e-6) = 5.893 mV. s_gnd and s_vdd have no shifter.
+  it('gives the doubler\'s shifted switches 5.89 mV on the pull-down, the others 0, drawn after all other shifts', async () => {
+    const { resolveYaml } = await import('../helpers.js');
+    const { readFileSync } = await import('node:fs');
+    const { design } = await import('../helpers.js');
+    const resolved = resolveYaml(readFileSync(design('doubler'), 'utf8'));
+    const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
+    expect(resolved.switches.map((s) => s.name)).toEqual(['s_gnd', 's_chg', 's_vdd', 's_out']);
+    expectClose(sigmas.shifters[1]!, 5.893e-3, 1e-3);
+    expectClose(sigmas.shifters[3]!, 5.893e-3, 1e-3);
+    expect([sigmas.shifters[0], sigmas.shifters[2]]).toEqual([0, 0]);
+    const withShifters = drawMismatch(sigmas, 7, 3, mismatchBuffers(sigmas));
+    const without = drawMismatch({ ...sigmas, shifters: new Float64Array(4) }, 7, 3, mismatchBuffers(sigmas));
+    expect(Array.from(withShifters.dvthN)).toEqual(Array.from(without.dvthN));
+    expect(withShifters.switches.map((s) => Array.from(s))).toEqual(without.switches.map((s) => Array.from(s)));
+    expect(withShifters.shifters![1]).not.toBe(0);
+  });
+});

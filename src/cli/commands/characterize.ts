@@ -12,6 +12,7 @@ import { TABLE_CELLS, type CornerTables, type DelayTables } from '../../schema/t
 import { parseQuantity, parseTemperature } from '../../units/quantity.js';
 import { characterizationDecks, cornerTablesFrom, gridAxes, GRIDS, type CharacterizationDeck } from '../../spice/characterize.js';
 import { parseSimulatorOutput } from '../../spice/results.js';
+import { cornerRonFrom, ronCharacterizationDeck } from '../../spice/characterize-ron.js';
 import { checkSimulator, runDecks } from '../../spice/runner.js';
 import type { ProcessCard } from '../../schema/process.js';
 import type { Io } from '../io.js';
@@ -102,7 +103,10 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   try {
     for (const corner of corners) {
       const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
-      const outputs = runDecks(decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { program: options.ngspice, parallel: jobs });
+      const ronDeck = ronCharacterizationDeck(card, corner, modelPath);
+      const outputs = runDecks([...decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { name: `${corner.name} R_on`, text: ronDeck.text }], { program: options.ngspice, parallel: jobs });
+      const ron = cornerRonFrom(ronDeck, parseSimulatorOutput(outputs[decks.length]!.output, ronDeck.names).values);
+      if (typeof ron === 'string') throw inputError('ngspice', corner.name, `on-resistance characterization failed: ${ron}`);
       const parts = decks.map((deck, i) => {
         const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
         if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
@@ -112,7 +116,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
       });
       const result = cornerTablesFrom(parts);
       if (typeof result === 'string') throw inputError('ngspice', corner.name, `characterization failed: ${result}`);
-      tables.push(result);
+      tables.push({ ...result, ron });
       bar.update(tables.length);
     }
   } finally {
