@@ -7,7 +7,8 @@
  * both phases alike (common practice).
  * - nand: x1 = NAND(clk, f2), x2 = NAND(clkb, f1); chain ends are active low, buffers are odd.
  * - nor:  x1 = NOR(clkb, f2),  x2 = NOR(clk, f1);  chain ends are active high, buffers are even.
- * The first phase is active while the clock is high.
+ * The first phase is active while the clock is high. The clock takes pin 0 of each gate (the
+ * device next to the output) unless clockInput is inner.
  */
 import { inputError } from '../errors.js';
 import type { TemplateSpec, NetlistSpec } from '../schema/design.js';
@@ -51,7 +52,8 @@ export function expandTemplate(input: TemplateSpec): Netlist {
     const otherEnd = chainEnd(chainNets(other), spec.buffer.length, other === 1 ? phase1 : phase2);
     const ownEnd = chainEnd(nets, spec.buffer.length, phase);
     const gateOutput = stages === 0 ? ownEnd : nets[0]!;
-    gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: [ownClock[side - 1]!, otherEnd], output: gateOutput });
+    const clock = ownClock[side - 1]!;
+    gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: spec.clockInput === 'inner' ? [otherEnd, clock] : [clock, otherEnd], output: gateOutput });
     stageSizes.forEach((size, k) => {
       const output = k === stages - 1 ? ownEnd : nets[k + 1]!;
       gates.push({ name: `u_chain${side}_${k + 1}`, cell: 'INV', size, inputs: [nets[k]!], output });
