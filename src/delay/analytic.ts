@@ -10,14 +10,18 @@
  * a slower input, and the triode tail of the output edge, are where the two part.
  *
  * A series stack's switching device is k times wider than the network's equivalent and sees the
- * rest of the stack as on-devices (ramp-response.ts, stackFactor). Pin position in a stack is not
- * modelled: every input of a cell sees the same delay.
+ * rest of the stack as on-devices (ramp-response.ts, stackFactor). Pin position counts: input 0
+ * sits next to the output; when input p of a series stack switches last, the p internal nodes
+ * above it are charged with the output and are discharged with it, so its edge sees p internal
+ * node capacitances more: the shared junction each carries when the card's stacks have junctions
+ * (spice.stackJunctions; see NODE_GATE for the channel charge).
  */
 import { inputError } from '../errors.js';
 import { CELLS, cellWidths } from '../cells/library.js';
 import { shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
+import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
 import { RampResponse } from './ramp-response.js';
 
@@ -31,8 +35,11 @@ export function alphaPowerDelay(load: number, vdd: number, current: number, vth:
   return rampCoefficient(vth, vdd, alpha) * inputTransition + (load * vdd) / (2 * current);
 }
 
-/** Per gate, four numbers in one array: tau and v_T position of the rising edge, then of the falling edge. */
-const STRIDE = 4;
+/**
+ * Per gate, six numbers in one array: tau and v_T position of the rising edge, then of the falling
+ * edge, then the tau each internal stack node adds per position of the rising and falling edge.
+ */
+const STRIDE = 6;
 
 class AnalyticTiming implements GateTiming {
   /** responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge. */
@@ -41,6 +48,7 @@ class AnalyticTiming implements GateTiming {
   /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
   private lastEdge = -1;
   private lastInput = NaN;
+  private lastTau = NaN;
   private lastPosition = 0;
 
   /** Called when the table is rebound: the remembered position belonged to the old taus. */
@@ -49,33 +57,41 @@ class AnalyticTiming implements GateTiming {
   }
 
   private position(edge: number, tau: number, inputTransition: number): number {
-    if (edge !== this.lastEdge || inputTransition !== this.lastInput) {
+    if (edge !== this.lastEdge || inputTransition !== this.lastInput || tau !== this.lastTau) {
       this.lastEdge = edge;
       this.lastInput = inputTransition;
+      this.lastTau = tau;
       this.lastPosition = RampResponse.sPosition(inputTransition / tau);
     }
     return this.lastPosition;
   }
 
-  delay(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
-    const edge = 2 * gate + (outputRising ? 0 : 1);
-    const i = 2 * edge;
-    const tau = this.table[i]!;
-    return tau * this.responses[edge]!.at(this.table[i + 1]!, this.position(edge, tau, inputTransition), 0);
+  /** Gate g's tau for an edge (0 rising, 1 falling) caused by input `pin`, s. */
+  private tau(gate: number, falling: number, pin: number): number {
+    const i = gate * STRIDE;
+    const base = this.table[i + 2 * falling]!;
+    return pin === 0 ? base : base + pin * this.table[i + 4 + falling]!;
   }
 
-  transition(gate: number, _pin: number, outputRising: boolean, inputTransition: number): number {
-    const edge = 2 * gate + (outputRising ? 0 : 1);
-    const i = 2 * edge;
-    const tau = this.table[i]!;
-    return tau * this.responses[edge]!.at(this.table[i + 1]!, this.position(edge, tau, inputTransition), 1);
+  delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
+    const falling = outputRising ? 0 : 1;
+    const edge = 2 * gate + falling;
+    const tau = this.tau(gate, falling, pin);
+    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 0);
   }
 
-  crossing(gate: number, _pin: number, outputRising: boolean, inputTransition: number, level: number): number {
-    const edge = 2 * gate + (outputRising ? 0 : 1);
-    const i = 2 * edge;
-    const tau = this.table[i]!;
-    return tau * this.responses[edge]!.crossing(this.table[i + 1]!, inputTransition / tau, outputRising ? 1 - level : level);
+  transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
+    const falling = outputRising ? 0 : 1;
+    const edge = 2 * gate + falling;
+    const tau = this.tau(gate, falling, pin);
+    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 1);
+  }
+
+  crossing(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number {
+    const falling = outputRising ? 0 : 1;
+    const edge = 2 * gate + falling;
+    const tau = this.tau(gate, falling, pin);
+    return tau * this.responses[edge]!.crossing(this.table[gate * STRIDE + 2 * falling + 1]!, inputTransition / tau, outputRising ? 1 - level : level);
   }
 }
 
@@ -91,20 +107,43 @@ function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number,
 }
 
 /** Effective pull-up and pull-down widths per gate, m; computed once per netlist (both are immutable). */
-const widthCache = new WeakMap<CompiledNetlist, { up: Float64Array; down: Float64Array }>();
+interface PullWidths {
+  up: Float64Array;
+  down: Float64Array;
+  /** Capacitance of one internal node of the pull-up and pull-down stacks, F (0 without a stack). */
+  nodeUp: Float64Array;
+  nodeDown: Float64Array;
+}
 
-function pullWidths(netlist: CompiledNetlist, unit: { wn: number; wp: number }): { up: Float64Array; down: Float64Array } {
-  const cached = widthCache.get(netlist);
+/**
+ * Share of one device's gate capacitance an internal stack node adds per position. The stack
+ * factor of ramp-response.ts already carries the channel charge of the on-devices (it was fitted
+ * to the hand-written references), and a share of 0.5 on top of it moved the NOR reference's
+ * clean gap from 28 ps to 76 ps off ngspice (test/reference/nor-gen.cir, 45 corners), so only the
+ * junctions a card puts on stack nodes (spice.stackJunctions) count here.
+ */
+const NODE_GATE = 0;
+
+const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>>();
+
+function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
+  let byCard = widthCache.get(netlist);
+  if (!byCard) widthCache.set(netlist, byCard = new WeakMap());
+  const cached = byCard.get(card);
   if (cached) return cached;
-  const up = new Float64Array(netlist.gateCount);
-  const down = new Float64Array(netlist.gateCount);
-  for (let g = 0; g < netlist.gateCount; g++) {
+  const unit = unitWidths(card);
+  const junctions = card.spice?.stackJunctions === true;
+  const n = netlist.gateCount;
+  const entry: PullWidths = { up: new Float64Array(n), down: new Float64Array(n), nodeUp: new Float64Array(n), nodeDown: new Float64Array(n) };
+  for (let g = 0; g < n; g++) {
+    const shape = CELLS[netlist.gateCell[g]!];
     const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
-    up[g] = widths.pullUp;
-    down[g] = widths.pullDown;
+    entry.up[g] = widths.pullUp;
+    entry.down[g] = widths.pullDown;
+    if (shape.pSeries > 1) entry.nodeUp[g] = widths.wp * (NODE_GATE * card.p.cgate + (junctions ? card.p.cdrain : 0));
+    if (shape.nSeries > 1) entry.nodeDown[g] = widths.wn * (NODE_GATE * card.n.cgate + (junctions ? card.n.cdrain : 0));
   }
-  const entry = { up, down };
-  widthCache.set(netlist, entry);
+  byCard.set(card, entry);
   return entry;
 }
 
@@ -120,7 +159,7 @@ export const analyticModel: DelayModel = {
     const recycled = reuse instanceof AnalyticTiming && reuse.table.length === count * STRIDE
       && reuse.responses[0]!.alpha === p.alpha && reuse.responses[1]!.alpha === n.alpha ? reuse : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
-    const widths = pullWidths(netlist, unitWidths(devices.card));
+    const widths = pullWidths(netlist, devices.card);
     const vdd = devices.vdd;
     for (let g = 0; g < count; g++) {
       const load = loads[netlist.gateOutput[g]!]!;
@@ -136,6 +175,8 @@ export const analyticModel: DelayModel = {
       table[i + 1] = RampResponse.vtPosition(vthP / vdd);
       table[i + 2] = (load * vdd) / downCurrent;
       table[i + 3] = RampResponse.vtPosition(vthN / vdd);
+      table[i + 4] = (widths.nodeUp[g]! * vdd) / upCurrent;
+      table[i + 5] = (widths.nodeDown[g]! * vdd) / downCurrent;
     }
     if (recycled) {
       recycled.forget();

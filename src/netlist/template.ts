@@ -9,7 +9,8 @@
  * - nor:  x1 = NOR(clkb, f2),  x2 = NOR(clk, f1);  chain ends are active high, buffers are even.
  * The first phase is active while the clock is high. The feedback to the other side's gate comes
  * from the chain end, or `feedbackTap` buffer inverters later (even, so it keeps its sense), which
- * puts those buffer inverters inside the dead time.
+ * puts those buffer inverters inside the dead time. The clock takes pin 0 of each gate (the device
+ * next to the output) unless clockInput is inner.
  */
 import { inputError } from '../errors.js';
 import type { TemplateSpec, NetlistSpec } from '../schema/design.js';
@@ -57,7 +58,8 @@ export function expandTemplate(input: TemplateSpec): Netlist {
     const otherEnd = feedbackNet(chainNets(other), spec.buffer.length, other === 1 ? phase1 : phase2, `b${other}`, feedbackTap);
     const ownEnd = chainEnd(nets, spec.buffer.length, phase);
     const gateOutput = stages === 0 ? ownEnd : nets[0]!;
-    gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: [ownClock[side - 1]!, otherEnd], output: gateOutput });
+    const clock = ownClock[side - 1]!;
+    gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: spec.clockInput === 'inner' ? [otherEnd, clock] : [clock, otherEnd], output: gateOutput });
     stageSizes.forEach((size, k) => {
       const output = k === stages - 1 ? ownEnd : nets[k + 1]!;
       gates.push({ name: `u_chain${side}_${k + 1}`, cell: 'INV', size, inputs: [nets[k]!], output });

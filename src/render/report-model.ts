@@ -3,6 +3,7 @@
  * text, the per-check worst cases, the dead-time ranges and (when computed) fmax. The HTML and
  * Markdown renderers only lay this out.
  */
+import { errorBandText } from '../delay/error-band.js';
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { FmaxResult } from '../analysis/fmax.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
@@ -70,7 +71,7 @@ export function marginChartInput(resolved: ResolvedDesign, results: readonly Cor
     title: {
       design: resolved.design.name,
       line: `margin of every check at all ${results.length} corners · clock ${formatEngineering(resolved.design.clock.frequency, 'Hz')}`,
-      note: `${resolved.model.name} delay model · process card ${resolved.card.name} · margin = measured value minus its requirement`,
+      note: `${resolved.model.name} delay model · process card ${resolved.card.name} · margin = measured value minus its requirement · ${errorBandText(resolved.model.name, resolved.card.name)}`,
       pass: failing === 0,
       detail: failing === 0 ? `all ${rows.length} checks hold everywhere` : `${failing} of ${rows.length} checks fail somewhere`,
     },

@@ -1,4 +1,5 @@
 /** The human rendering of a check report: one row per corner, extremes marked, a summary. */
+import { errorBandText } from '../delay/error-band.js';
 import { formatEngineering, formatSignedTime, formatTime, psNumber } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
 import { renderTable, type Column } from './text-table.js';
@@ -62,6 +63,7 @@ export function renderCheckText(report: CheckReport): string {
   ]);
   const out: string[] = [];
   out.push(`${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`);
+  out.push(errorBandText(report.model, report.process));
   out.push('');
   out.push(renderTable(columns, rows));
   out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);

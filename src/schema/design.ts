@@ -26,6 +26,8 @@ const commonTemplate = {
   stageLoad: quantity('F', 'Extra capacitance on every chain node (delay capacitors)', { atLeast: 0 }).default(0),
   gateSize: size.default(1).describe('Size of the cross-coupled NAND/NOR gates'),
   inputSize: size.default(1).describe('Size of the inverter that makes the complement of the input clock'),
+  clockInput: z.enum(['outer', 'inner']).default('outer')
+    .describe('Where the clock enters each cross-coupled gate\'s series stack: outer = the device next to the output (pin 0), inner = the device next to the rail (the feedback takes the other)'),
   buffer: z.array(size).min(0).max(12).optional()
     .describe('Tapered output buffer from the chain end to each phase, sizes in order; nand needs an odd count, nor an even count (default: nand [2, 6, 18], nor [3, 12])'),
   complementary: z.boolean().default(false)
@@ -48,7 +50,7 @@ export const gateSchema = z.strictObject({
   name: identifier().describe('Instance name'),
   cell: z.enum(CELL_KINDS).describe('Library cell'),
   size: size.default(1),
-  inputs: z.array(netName).min(1).max(3).describe('Input nets in pin order'),
+  inputs: z.array(netName).min(1).max(3).describe('Input nets in pin order; pin 0 is the device next to the output in a series stack'),
   output: netName.describe('Output net'),
 });
 

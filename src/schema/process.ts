@@ -45,7 +45,8 @@ export const spiceSchema = z.strictObject({
   models: z.string().min(1).describe('SPICE model file (.include), relative to the process card'),
   n: spiceModelName.describe('Model name of the n device'),
   p: spiceModelName.describe('Model name of the p device'),
-  diffusion: quantity('m', 'Drain/source diffusion length: AD = AS = W * diffusion, PD = PS = W', { atLeast: 0 }).default(0),
+  diffusion: quantity('m', 'Drain/source diffusion length Ldiff beside the gate: AD = AS = W * Ldiff, PD = PS = 2 * (W + Ldiff); 0 (the default) writes no junctions', { atLeast: 0 }).default(0),
+  stackJunctions: z.boolean().default(false).describe('Whether the internal nodes of series stacks carry junctions (half a shared diffusion per side); by default they have none'),
   params: spiceParams.default({}),
   corners: z.record(identifier(), z.strictObject({
     n: spiceModelName.optional().describe('Model name of the n device at this corner'),

@@ -39,7 +39,7 @@ export function cornerModels(card: ProcessCard, corner: Pick<Corner, 'process' |
     `.temp ${corner.temperature}`,
   ];
   return {
-    geometry: { l: card.lmin, diffusion: spice.diffusion, nModel: spiceIdentifier(perCorner?.n ?? spice.n), pModel: spiceIdentifier(perCorner?.p ?? spice.p) },
+    geometry: { l: card.lmin, diffusion: spice.diffusion, stackJunctions: spice.stackJunctions, nModel: spiceIdentifier(perCorner?.n ?? spice.n), pModel: spiceIdentifier(perCorner?.p ?? spice.p) },
     header,
   };
 }

@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 
 const cli = fileURLToPath(new URL('../../src/cli/main.js', import.meta.url));
 const demo = fileURLToPath(new URL('../../../fixtures/designs/doubler.yaml', import.meta.url));
+const demoTables = fileURLToPath(new URL('../../../fixtures/tables/generic180.json', import.meta.url));
 const CORNERS = 45;
 
 interface Timed {
@@ -19,10 +20,10 @@ interface Timed {
   readonly evaluation: number;
 }
 
-function timed(samples: number, workers: number): Timed {
+function timed(samples: number, workers: number, model: readonly string[] = []): Timed {
   const script = `
     const t = process.hrtime.bigint();
-    process.argv = [process.argv[0], ${JSON.stringify(cli)}, 'mc', ${JSON.stringify(demo)}, '--samples', '${samples}', '--workers', '${workers}', '--timings', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
+    process.argv = [process.argv[0], ${JSON.stringify(cli)}, ...${JSON.stringify(model)}, 'mc', ${JSON.stringify(demo)}, '--samples', '${samples}', '--workers', '${workers}', '--timings', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
     await import(${JSON.stringify(cli)});
     process.on('exit', () => {
       const s = Number(process.hrtime.bigint() - t) / 1e9;
@@ -48,3 +49,9 @@ console.log(`${cores} threads         ${Math.round(evaluations / all.seconds)} e
 console.log('evaluation phase only (mc --timings: without start-up, design loading and the report; each thread\'s warm-up included)');
 console.log(`one thread        ${Math.round(evaluations / one.evaluation)} evaluations/s, ${one.evaluation.toFixed(2)} s`);
 console.log(`${cores} threads         ${Math.round(evaluations / all.evaluation)} evaluations/s, ${all.evaluation.toFixed(2)} s (${(one.evaluation / all.evaluation).toFixed(2)}x)`);
+
+// The two delay models on the same dies, one thread: the table model must keep at least half the analytic rate.
+const modelDies = 2000;
+const byModel = (['analytic', 'table'] as const).map((m) => timed(modelDies, 1, ['--model', m, '--tables', demoTables]));
+const rate = (t: Timed) => Math.round((modelDies * CORNERS) / t.evaluation);
+console.log(`delay models, ${modelDies * CORNERS} evaluations on one thread (evaluation phase): analytic ${rate(byModel[0]!)} evaluations/s, table ${rate(byModel[1]!)} evaluations/s (${(100 * rate(byModel[1]!) / rate(byModel[0]!)).toFixed(0)} % of analytic)`);

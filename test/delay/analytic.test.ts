@@ -252,3 +252,28 @@ describe('temperature dependence of the gate drive', () => {
     for (let i = 1; i < d.length; i++) expect(d[i]!).toBeGreaterThan(d[i - 1]!);
   });
 });
+
+describe('analyticModel input position', () => {
+  const base = loadProcess(processCard('generic180'));
+  const netlist = compileNetlist({ clock: 'a', phases: ['y', 'y'], complements: {}, early: {}, loads: {},
+    gates: [{ name: 'g', cell: 'NOR2', size: 1, inputs: ['a', 'b'], output: 'y' }, { name: 'i', cell: 'INV', size: 1, inputs: ['a'], output: 'b' }] } as never);
+  const corner: Corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
+  const loads = new Float64Array(netlist.netNames.length).fill(10e-15);
+
+  it('gives the inner input of a stack one internal junction more when the card\'s stacks carry junctions', () => {
+    const card = { ...base, spice: { ...base.spice!, stackJunctions: true } };
+    const t = analyticModel.bind(netlist, loads, devicesAtCorner(card, corner));
+    // NOR2 p stack: each device 2 x the unit p width; the node adds W_p * cdrain_p to the rising edge of pin 1
+    const extra = 2 * card.unit.wp * card.p.cdrain;
+    const plain = analyticModel.bind(netlist, loads.map((v, i) => (i === netlist.gateOutput[0] ? v + extra : v)), devicesAtCorner(card, corner));
+    expectClose(t.delay(0, 1, true, 1e-10), plain.delay(0, 0, true, 1e-10), 1e-12);
+    expect(t.delay(0, 1, true, 1e-10)).toBeGreaterThan(t.delay(0, 0, true, 1e-10));
+    // the parallel n devices: no stack, no difference
+    expect(t.delay(0, 1, false, 1e-10)).toBe(t.delay(0, 0, false, 1e-10));
+  });
+
+  it('sees no position without stack junctions (the stack factor carries the channel charge)', () => {
+    const t = analyticModel.bind(netlist, loads, devicesAtCorner(base, corner));
+    expect(t.delay(0, 1, true, 1e-10)).toBe(t.delay(0, 0, true, 1e-10));
+  });
+});

@@ -70,6 +70,50 @@ describe('cornerTables', () => {
   });
 });
 
+describe('tableModel.bind', () => {
+  const tables = loadTables(join(import.meta.dirname, '../../fixtures/tables/generic180.json'));
+  const { design: d, card } = loadDesign(design('doubler'));
+  const model = tableModel(tables);
+  const resolved = resolveDesign({ ...d, corners: { process: ['ss'], vdd: [1.8], temperature: [27] } }, card, model);
+  const devices = devicesAtCorner(card, resolved.corners[0]!.corner);
+  const { netlist, loads } = resolved;
+  const mismatch = (seed: number) => ({
+    dvthN: Float64Array.from({ length: netlist.gateCount }, (_, g) => 0.004 * Math.sin(seed + g)),
+    dvthP: Float64Array.from({ length: netlist.gateCount }, (_, g) => 0.004 * Math.cos(seed * 3 + g)),
+  });
+
+  it('reuses one timing per corner for every die, with the same delays as a fresh bind', () => {
+    const warm = model.bind(netlist, loads, devices, mismatch(1));
+    for (const seed of [2, 3]) {
+      const again = model.bind(netlist, loads, devices, mismatch(seed), warm);
+      expect(again).toBe(warm);
+      const fresh = tableModel(tables).bind(netlist, loads, devices, mismatch(seed));
+      for (let g = 0; g < netlist.gateCount; g++) {
+        for (const rising of [false, true]) {
+          expect(again.delay(g, 0, rising, 1e-10)).toBe(fresh.delay(g, 0, rising, 1e-10));
+          expect(again.transition(g, 0, rising, 3e-10)).toBe(fresh.transition(g, 0, rising, 3e-10));
+        }
+      }
+    }
+  });
+
+  it('scales each delay by the analytic ratio with and without the die\'s mismatch', () => {
+    const g = 1;
+    const plain = model.bind(netlist, loads, devices).delay(g, 0, true, 1e-10);
+    const die = mismatch(5);
+    const shifted = model.bind(netlist, loads, devices, die).delay(g, 0, true, 1e-10);
+    const ratio = analyticModel.bind(netlist, loads, devices, die).delay(g, 0, true, 0) / analyticModel.bind(netlist, loads, devices).delay(g, 0, true, 0);
+    expectClose(shifted / plain, ratio, 1e-12);
+    expect(ratio).not.toBe(1);
+  });
+
+  it('gives each input pin its own characterized row', () => {
+    const nand = netlist.gateCell.findIndex((c) => c === 'NAND2');
+    const timing = model.bind(netlist, loads, devices);
+    expect(timing.delay(nand, 0, false, 1e-10)).not.toBe(timing.delay(nand, 1, false, 1e-10));
+  });
+});
+
 describe('selectModel', () => {
   it('takes the table model when tables exist, unless analytic is asked for', () => {
     expect(selectModel(undefined, FAKE, () => undefined).name).toBe('table');

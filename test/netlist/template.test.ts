@@ -36,6 +36,14 @@ describe('expandTemplate nand', () => {
     expect(gate(n, 'u_gate2')).toMatchObject({ cell: 'NAND2', size: 2, inputs: ['clkb', 'd1_4'], output: 'x2' });
   });
 
+  it('puts the clock next to the rail with clockInput inner, and next to the output by default', () => {
+    const inner = template({ template: 'nand', stages: 4, buffer: [2, 6, 18], gateSize: 2, clockInput: 'inner' });
+    expect(gate(inner, 'u_gate1').inputs).toEqual(['d2_4', 'clk']);
+    expect(gate(inner, 'u_gate2').inputs).toEqual(['d1_4', 'clkb']);
+    const nor = template({ template: 'nor', stages: 2, buffer: [3, 12], clockInput: 'inner' });
+    expect(gate(nor, 'u_gate1').inputs[1]).toBe('clkb');
+  });
+
   it('puts the chain between each gate and the far gate, and an odd buffer to the phase', () => {
     expect(followInverters(n, 'x1', ['d1_4'])).toEqual(['d1_4', 4]);
     expect(followInverters(n, 'd1_4')).toEqual(['p1', 3]);

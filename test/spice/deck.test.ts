@@ -99,6 +99,19 @@ describe('phasegap spice', () => {
     expect(text).toMatch(/^mn1 sn1 a1 0 0 nch/m);
   });
 
+  it('writes diffusions as AD = W * Ldiff and PD = 2 * (W + Ldiff), none on a stack\'s internal node (common practice)', () => {
+    const geo = { l: 0.18e-6, diffusion: 0.5e-6, nModel: 'nch', pModel: 'pch' };
+    const text = cellSubckt('NAND2', 1, { wn: 0.5e-6, wp: 1e-6 }, geo);
+    // n stack: 1 um devices; the output side 0.5 pm^2 and 3 um, the shared node sn1 nothing
+    expect(text).toMatch(/^mn0 y a0 sn1 0 nch W=1e-6 L=1\.8e-7 AD=5e-13 AS=0 PD=3e-6 PS=0$/m);
+    expect(text).toMatch(/^mn1 sn1 a1 0 0 nch W=1e-6 L=1\.8e-7 AD=0 AS=5e-13 PD=0 PS=3e-6$/m);
+    // parallel p devices: both sides contacted
+    expect(text).toMatch(/^mp0 y a0 vdd vdd pch W=1e-6 L=1\.8e-7 AD=5e-13 AS=5e-13 PD=3e-6 PS=3e-6$/m);
+    const shared = cellSubckt('NAND2', 1, { wn: 0.5e-6, wp: 1e-6 }, { ...geo, stackJunctions: true });
+    expect(shared).toMatch(/^mn0 y a0 sn1 0 nch W=1e-6 L=1\.8e-7 AD=5e-13 AS=2\.5e-13 PD=3e-6 PS=1\.5e-6$/m);
+    expect(cellSubckt('INV', 1, { wn: 0.5e-6, wp: 1e-6 }, { ...geo, diffusion: 0 })).toMatch(/AD=0 AS=0 PD=0 PS=0$/m);
+  });
+
   it('measures over the steady-state period: the model values sit inside the deck windows', () => {
     const { design: d, card } = loadDesign(design('doubler'));
     const resolved = resolveDesign(d, card);

@@ -1,0 +1,40 @@
+/**
+ * How far each delay model's 50 % dead time has been measured from ngspice, per model and process
+ * card, so a margin can be read against it. Source: test/bench/accuracy.bench.ts, the shipped
+ * designs (fixtures/designs) at three corners each (tt at the middle supply and temperature, ss at
+ * the lowest supply and hottest, ff at the highest and coldest), the product's own decks on the
+ * cards' invented device models, ngspice 39. Relative error is (model - ngspice) / ngspice.
+ */
+export interface ErrorBand {
+  readonly model: string;
+  readonly card: string;
+  /** Dead times compared. */
+  readonly count: number;
+  /** Median and largest |relative error|. */
+  readonly median: number;
+  readonly worst: number;
+  /** Signed relative error range, low to high. */
+  readonly low: number;
+  readonly high: number;
+}
+
+export const ERROR_BANDS: readonly ErrorBand[] = [
+  // doubler, doubler-unboosted, sc-integrator, too-tight: 4 designs x 3 corners x 2 dead times
+  { model: 'analytic', card: 'generic180', count: 24, median: 0.039, worst: 0.088, low: -0.088, high: 0.007 },
+  // tables characterized with the inverter driver and 50 % pin capacitances (tt/1.8V/27C, ss/1.62V/125C, ff/1.98V/-40C)
+  { model: 'table', card: 'generic180', count: 24, median: 0.021, worst: 0.063, low: -0.063, high: 0.013 },
+  // lp-netlist: 1 design x 3 corners x 2 dead times
+  { model: 'analytic', card: 'generic-lp', count: 6, median: 0.029, worst: 0.246, low: -0.246, high: 0.148 },
+];
+
+export function errorBand(model: string, card: string): ErrorBand | undefined {
+  return ERROR_BANDS.find((b) => b.model === model && b.card === card);
+}
+
+/** One line for the reports: the band, or that none was measured. */
+export function errorBandText(model: string, card: string): string {
+  const band = errorBand(model, card);
+  const pct = (v: number) => `${v > 0 ? '+' : ''}${(100 * v).toFixed(1)} %`;
+  if (!band) return `model error: not measured for the ${model} model on card ${card}; run phasegap confirm before trusting a small margin`;
+  return `model error: dead time ${pct(band.low)} to ${pct(band.high)} of ngspice (median |error| ${(100 * band.median).toFixed(1)} %, ${band.count} dead times on the shipped designs); read small margins against it`;
+}
