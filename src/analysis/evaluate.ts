@@ -11,6 +11,8 @@ import { switchChecks } from '../checks/switch-checks.js';
 import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
+import { CircuitEvaluator, type CornerCircuit } from '../circuit/corner-circuit.js';
+import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
 export interface CornerResult {
   readonly corner: Corner;
@@ -20,6 +22,8 @@ export interface CornerResult {
   readonly switches: readonly SwitchConduction[];
   readonly checks: readonly Check[];
   readonly pass: boolean;
+  /** The circuit's figures at this corner, when the design has a circuit section and the run settled. */
+  readonly circuit?: CornerCircuit;
 }
 
 /**
@@ -45,7 +49,14 @@ export class CornerEvaluator {
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
+    const spec = resolved.design.circuit;
+    this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
+    this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
+
+  /** The circuit the switches serve, prepared once; null without a circuit section. */
+  private readonly circuit: CircuitEvaluator | null;
+  private readonly circuitNames: CircuitCheckNames | null;
 
   /** The switch bias checks, prepared once per corner. */
   private readonly bias: BiasChecker;
@@ -69,18 +80,23 @@ export class CornerEvaluator {
     const measurement = measurePhases(simulation, netlist, cycles, { level: design.requirements.gap?.level, timing, band: model.gapBand });
     const checks = requirementChecks(measurement, design.requirements, this.widthContext, this.resolved.labels);
     const switches: SwitchConduction[] = [];
+    let circuit: CornerCircuit | undefined;
     if (measurement.ok) {
       const plans = this.resolved.switches;
       for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, devices, mismatch?.switches[k]));
       this.current = switches;
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);
+      if (this.circuit) {
+        circuit = this.circuit.evaluate(switches, cycles, devices);
+        circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
+      }
     }
     // The switch bias checks need no timing: they hold (or not) whether or not the run settled.
     this.bias.run(devices, mismatch?.switches, checks);
     let pass = true;
     for (const c of checks) if (!c.pass) { pass = false; break; }
-    return { corner, simulation, measurement, switches, checks, pass };
+    return circuit ? { corner, simulation, measurement, switches, checks, pass, circuit } : { corner, simulation, measurement, switches, checks, pass };
   }
 }
 
