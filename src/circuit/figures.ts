@@ -119,7 +119,7 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
   const outputPower = t.loadEnergy / period;
   const generatorPower = generatorEnergy / period;
   const drawn = inputPower + generatorPower;
-  const up = startup(loaded.solver, loaded.state.x0, startupLimit);
+  const up = startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
   return {
     method: loaded.state.method,
     output: t.outputMean,

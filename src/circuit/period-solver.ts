@@ -194,15 +194,24 @@ export class PeriodSolver {
   }
 
   steadyState(): SteadyState {
-    let segments: Uint8Array[] = Array.from({ length: this.substeps }, () => new Uint8Array(this.pwl));
-    let x0: Float64Array = new Float64Array(this.n);
-    if (this.pwl > 0) {
-      // A first guess of the segments from a few periods run from rest: starting from all parts
-      // off can land on a consistent but unphysical answer (every diode reverse biased by a
-      // load current forced through their leakage).
-      for (let period = 0; period < WARM_UP_PERIODS; period++) this.runPeriod(x0, segments);
-      segments = this.consistentSegments(x0, segments);
-    }
+    const off = (): Uint8Array[] => Array.from({ length: this.substeps }, () => new Uint8Array(this.pwl));
+    const first = this.iterate(off(), new Float64Array(this.n));
+    if (first.method === 'direct' || this.pwl === 0) return first;
+    // Starting from every part off can land on a consistent but unphysical answer (every diode
+    // reverse biased by a load current forced through their leakage) or cycle: guess the
+    // segments again from a few periods run from rest.
+    const x = new Float64Array(this.n);
+    let segments = off();
+    for (let period = 0; period < WARM_UP_PERIODS; period++) this.runPeriod(x, segments);
+    segments = this.consistentSegments(x, segments);
+    const second = this.iterate(segments, x);
+    return second.method === 'direct' ? second : this.runToSteadyState(second.x0, second.segments as Uint8Array[]);
+  }
+
+  /** Rounds of: solve the fixed point for the segments, re-choose them along it; 'none' if they do not agree. */
+  private iterate(start: Uint8Array[], guess: Float64Array): SteadyState {
+    let segments = start;
+    let x0 = guess;
     const bound = WILD_VOLTAGE * (1 + this.model.rails.reduce((m, v) => Math.max(m, Math.abs(v)), 0));
     for (let round = 1; round <= SEGMENT_ROUNDS; round++) {
       const { P, p } = this.periodMap(segments);
@@ -214,7 +223,7 @@ export class PeriodSolver {
       if (chosen.every((s, k) => s.every((v, i) => v === segments[k]![i]))) return { x0, segments, method: 'direct', rounds: round };
       segments = chosen;
     }
-    return this.runToSteadyState(x0, segments);
+    return { x0, segments, method: 'none', rounds: SEGMENT_ROUNDS };
   }
 
   /** The steady state found by running periods from x0 until a period changes no node by more than PERIOD_TOLERANCE. */
