@@ -33,6 +33,14 @@ describe('CircuitEvaluator.evaluate', () => {
     expect(good.checks.filter((k) => k.kind.startsWith('output') || k.kind.endsWith('-max') || k.kind === 'efficiency-min').every((k) => k.pass)).toBe(true);
   });
 
+  it('check of the diode pump gives the switch pump less two diode drops (Dickson 1976, eq. 7 with N = 1)', () => {
+    const sw = corner('doubler-pump', 'tt/1.8V/27C').circuit!;
+    const diode = corner('doubler-diode-pump', 'tt/1.8V/27C').circuit!;
+    // Two 0.6 V drops; the 200 ohm diodes against the switches' R_on add a few tens of mV at 50 uA.
+    expect(sw.output - diode.output).toBeGreaterThan(1.2);
+    expect(sw.output - diode.output).toBeLessThan(1.3);
+  });
+
   it('check prints the per-corner circuit figures table when the design has a circuit', () => {
     const run = cli('check', design('doubler-pump'), '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]');
     expect(run.code).toBe(0);
