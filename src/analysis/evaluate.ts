@@ -49,7 +49,8 @@ export class CornerEvaluator {
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
-    const spec = resolved.design.circuit;
+    // Monte Carlo dies (warm runs) skip the circuit: its figures cost milliseconds per corner.
+    const spec = warm ? undefined : resolved.design.circuit;
     this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
     this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
