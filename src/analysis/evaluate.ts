@@ -12,6 +12,8 @@ import { switchChecks } from '../checks/switch-checks.js';
 import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
+import { CircuitEvaluator, type CornerCircuit } from '../circuit/corner-circuit.js';
+import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
 export interface CornerResult {
   readonly corner: Corner;
@@ -21,6 +23,8 @@ export interface CornerResult {
   readonly switches: readonly SwitchConduction[];
   readonly checks: readonly Check[];
   readonly pass: boolean;
+  /** The circuit's figures at this corner, when the design has a circuit section and the run settled. */
+  readonly circuit?: CornerCircuit;
 }
 
 /**
@@ -47,7 +51,15 @@ export class CornerEvaluator {
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
+    // Monte Carlo dies (warm runs) skip the circuit: its figures cost milliseconds per corner.
+    const spec = warm ? undefined : resolved.design.circuit;
+    this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
+    this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
+
+  /** The circuit the switches serve, prepared once; null without a circuit section. */
+  private readonly circuit: CircuitEvaluator | null;
+  private readonly circuitNames: CircuitCheckNames | null;
 
   /** The switch bias checks, prepared once per corner. */
   private readonly bias: BiasChecker;
@@ -73,6 +85,7 @@ export class CornerEvaluator {
     const measurement = measurePhases(simulation, netlist, cycles, { level: design.requirements.gap?.level, timing, band: model.gapBand });
     const checks = requirementChecks(measurement, design.requirements, this.widthContext, this.resolved.labels);
     const switches: SwitchConduction[] = [];
+    let circuit: CornerCircuit | undefined;
     if (measurement.ok) {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
@@ -80,12 +93,16 @@ export class CornerEvaluator {
       this.current = switches;
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);
+      if (this.circuit) {
+        circuit = this.circuit.evaluate(switches, cycles, devices);
+        circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
+      }
     }
     // The switch bias checks need no timing: they hold (or not) whether or not the run settled.
     this.bias.run(devices, mismatch?.switches, checks);
     let pass = true;
     for (const c of checks) if (!c.pass) { pass = false; break; }
-    return { corner, simulation, measurement, switches, checks, pass };
+    return circuit ? { corner, simulation, measurement, switches, checks, pass, circuit } : { corner, simulation, measurement, switches, checks, pass };
   }
 }
 

@@ -14,14 +14,24 @@ export type CheckKind =
   | 'settle'
   | 'off-state'
   | 'on-state'
-  | 'stress';
+  | 'stress'
+  | 'output-min'
+  | 'output-max'
+  | 'ripple-max'
+  | 'efficiency-min'
+  | 'lost-charge-max';
 
 /** Checks whose margin is a voltage: no delay chain changes them, only the switch's drive, terminals or body. */
 export const VOLTAGE_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['off-state', 'on-state', 'stress']);
 
-/** Unit of a check's margin. */
-export function marginUnit(kind: CheckKind | string): 's' | 'V' {
-  return VOLTAGE_KINDS.has(kind as CheckKind) ? 'V' : 's';
+/** Checks on the circuit the switches serve: margins in V (output, ripple), a fraction (efficiency) or C (lost charge). */
+export const CIRCUIT_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['output-min', 'output-max', 'ripple-max', 'efficiency-min', 'lost-charge-max']);
+
+/** Unit of a check's margin ('' for a fraction). */
+export function marginUnit(kind: CheckKind | string): 's' | 'V' | 'C' | '' {
+  if (kind === 'efficiency-min') return '';
+  if (kind === 'lost-charge-max') return 'C';
+  return VOLTAGE_KINDS.has(kind as CheckKind) || CIRCUIT_KINDS.has(kind as CheckKind) ? 'V' : 's';
 }
 
 export interface Check {
@@ -44,12 +54,12 @@ export function marginCheck(kind: CheckKind, name: string, margin: number): Chec
 }
 
 /**
- * Orders checks worst first across units: an unmeasurable check, then a failing voltage check
- * (no timing change can fix it), then timing margins, then passing voltage margins; within one
+ * Orders checks worst first across units: an unmeasurable check, then a failing voltage or circuit
+ * check (its margin is not in seconds), then timing margins, then passing voltage margins; within one
  * tier the smaller margin. Negative when a is worse than b.
  */
 export function compareChecks(a: Pick<Check, 'kind' | 'margin' | 'pass'>, b: Pick<Check, 'kind' | 'margin' | 'pass'>): number {
   const tier = (c: Pick<Check, 'kind' | 'margin' | 'pass'>) =>
-    (c.margin === null ? 0 : VOLTAGE_KINDS.has(c.kind) ? (c.pass ? 3 : 1) : 2);
+    (c.margin === null ? 0 : VOLTAGE_KINDS.has(c.kind) || CIRCUIT_KINDS.has(c.kind) ? (c.pass ? 3 : 1) : 2);
   return tier(a) - tier(b) || (a.margin ?? 0) - (b.margin ?? 0);
 }

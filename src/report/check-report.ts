@@ -2,8 +2,9 @@
 import type { CornerResult, Limiting } from '../analysis/evaluate.js';
 import { limitingCheck } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
-import { VOLTAGE_KINDS, type Check } from '../checks/check.js';
+import { CIRCUIT_KINDS, VOLTAGE_KINDS, type Check } from '../checks/check.js';
 import { CAUTIONS } from './cautions.js';
+import { circuitReport, type CircuitReport } from './circuit-report.js';
 
 export interface DeadTimeReport {
   readonly from: string;
@@ -34,6 +35,8 @@ export interface CornerReport {
   readonly verdict: 'pass' | 'fail';
   /** Why the corner could not be measured, if so. */
   readonly reason?: string;
+  /** The circuit's figures, when the design has a circuit section. */
+  readonly circuit?: CircuitReport;
 }
 
 export interface CheckReport {
@@ -60,7 +63,7 @@ export function leastMargin(corner: CornerReport): number | null {
   let least: number | null = null;
   for (const c of corner.checks) {
     if (c.margin === null) return null;
-    if (VOLTAGE_KINDS.has(c.kind)) {
+    if (VOLTAGE_KINDS.has(c.kind) || CIRCUIT_KINDS.has(c.kind)) {
       if (!c.pass) least = -Infinity;
       continue;
     }
@@ -83,6 +86,7 @@ export function cornerReport(result: CornerResult, netNames: readonly string[]):
     deadTimes: m.deadTimes.map((d) => ({ from: d.from, to: d.to, t50: d.t50, gap: d.gap })),
     widths: m.widths,
     overlap: m.overlap,
+    ...(result.circuit ? { circuit: circuitReport(result.circuit) } : {}),
   };
 }
 

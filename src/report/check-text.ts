@@ -4,7 +4,8 @@ import { formatEngineering, formatSignedTime, formatTime, psNumber } from '../un
 import { leastMargin, type CheckReport } from './check-report.js';
 import { renderTable, type Column } from './text-table.js';
 import { formatMargin } from './margin-format.js';
-import { compareChecks, type CheckKind } from '../checks/check.js';
+import { CIRCUIT_KINDS, compareChecks, type CheckKind } from '../checks/check.js';
+import { renderCircuitTable } from './circuit-report.js';
 
 const MIN_MARK = ' v';
 const MAX_MARK = ' ^';
@@ -58,7 +59,7 @@ export function renderCheckText(report: CheckReport): string {
   const rows = corners.map((c, i) => [
     c.name,
     ...cells.map((col) => col[i]!),
-    leastMargin(c) === -Infinity ? 'switch bias fails' : signed(leastMargin(c)),
+    leastMargin(c) === -Infinity ? (c.checks.some((k) => !k.pass && CIRCUIT_KINDS.has(k.kind)) ? 'circuit fails' : 'switch bias fails') : signed(leastMargin(c)),
     c.verdict === 'pass' ? 'pass' : `FAIL${c.reason ? ` (${c.reason})` : ''}`,
   ]);
   const out: string[] = [];
@@ -68,6 +69,8 @@ export function renderCheckText(report: CheckReport): string {
   out.push(renderTable(columns, rows));
   out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);
   out.push('');
+  const circuit = renderCircuitTable(corners);
+  if (circuit.length > 0) out.push(...circuit, '');
   out.push(...worstPerCheck(report));
   out.push('');
   out.push(...summaryLines(report, series[0]!.values, series[1]!.values));

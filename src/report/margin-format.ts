@@ -5,10 +5,13 @@ import { formatEngineering, formatSignedTime } from '../units/format.js';
 export function formatMargin(margin: number | null, kind: CheckKind | string, fallback = 'n/a'): string {
   if (marginUnit(kind) === 's') return formatSignedTime(margin, fallback);
   if (margin === null || !Number.isFinite(margin)) return fallback;
-  return `${margin < 0 ? '-' : '+'}${formatEngineering(Math.abs(margin), 'V')}`;
+  const unit = marginUnit(kind);
+  if (unit === '') return `${margin < 0 ? '-' : '+'}${(Math.abs(margin) * 100).toFixed(1)} %`;
+  return `${margin < 0 ? '-' : '+'}${formatEngineering(Math.abs(margin), unit)}`;
 }
 
 /** A spread (sigma) in the unit of a check's kind, unsigned. */
 export function formatSpread(value: number, kind: CheckKind | string): string {
-  return formatEngineering(value, marginUnit(kind) === 's' ? 's' : 'V');
+  const unit = marginUnit(kind);
+  return unit === '' ? `${(value * 100).toFixed(1)} %` : formatEngineering(value, unit);
 }

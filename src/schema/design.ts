@@ -8,6 +8,7 @@ import { constraintsSchema, switchSchema } from './switches.js';
 import { MAX_AXIS_VALUES, MAX_CORNERS, MAX_GATES, MAX_SWITCHES } from './limits.js';
 import { description, identifier, patterned, title } from './names.js';
 import { nodesSchema } from './nodes.js';
+import { checkCircuitReferences, circuitSchema } from './circuit.js';
 
 const netName = patterned(/^[A-Za-z_][A-Za-z0-9_.$[\]]*$/, 'must start with a letter or _ and use letters, digits, _ . $ [ ]');
 const size = ratio('Drive strength relative to the unit inverter', { above: 0, atMost: 1000 });
@@ -136,7 +137,8 @@ export const designSchema = z.strictObject({
       deadTime: ratio('Weight of the largest dead time (slow-corner waste), subtracted', { atLeast: 0, atMost: 1e6 }).default(0),
     }).prefault({}).describe('Score of the weighted objective: conduction x least conduction time + margin x least margin - deadTime x largest dead time'),
   }).optional().describe('How phasegap tune ranks its proposals'),
-});
+  circuit: circuitSchema.optional().describe('The circuit the switches serve (capacitors, diodes, load), solved for its periodic steady state at every corner'),
+}).superRefine(checkCircuitReferences);
 
 export type Design = z.output<typeof designSchema>;
 export type GeneratorSpec = z.output<typeof generatorSchema>;

@@ -140,7 +140,8 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
       emit(io, withRunMetadata(renderHistogram({
         title: `${design.name}: check margin at ${corner}`,
         subtitle: `${subtitle}; ${q.failures ?? 0} of ${samples} dies fail this check here`,
-        axis: 'margin (below 0 fails)', unit: marginUnit(q.kind), requirement: 0,
+        // Monte Carlo dies skip the circuit solve, so a drawn check is a time or a voltage.
+        axis: 'margin (below 0 fails)', unit: marginUnit(q.kind) === 'V' ? 'V' : 's', requirement: 0,
         series: [{ label: q.name, histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name), mean: q.mean, sigma: q.sigma }],
       }), verdict, record), options.histogram, inputs, '--histogram');
     }

@@ -1,0 +1,53 @@
+/**
+ * Requirement checks on the circuit's figures at one corner (`circuit.requirements`): mean output
+ * at least its minimum (at the heavier load) and at most its maximum (at the lighter load),
+ * ripple, efficiency and charge lost per period. Margins are positive when met: V for output and
+ * ripple, a fraction for efficiency, C for lost charge. A circuit with no steady state fails them
+ * all without a margin.
+ */
+import type { CornerCircuit } from '../circuit/corner-circuit.js';
+import type { CircuitRequirements } from '../schema/circuit.js';
+import { levelAt, type Level } from '../schema/level.js';
+import { formatEngineering } from '../units/format.js';
+import type { Check, CheckKind } from './check.js';
+
+/** Check names, formatted once per design. */
+export interface CircuitCheckNames {
+  readonly outputMin?: string;
+  readonly outputMax?: string;
+  readonly ripple?: string;
+  readonly efficiency?: string;
+  readonly lostCharge?: string;
+}
+
+function levelText(level: Level): string {
+  if (level.scale === 0) return formatEngineering(level.offset, 'V');
+  const base = level.scale === 1 ? 'vdd' : `${level.scale} vdd`;
+  return level.offset === 0 ? base : `${base} ${level.offset > 0 ? '+' : '-'} ${formatEngineering(Math.abs(level.offset), 'V')}`;
+}
+
+export function circuitCheckNames(req: CircuitRequirements, output: string): CircuitCheckNames {
+  return {
+    outputMin: req.output?.min ? `V(${output}) >= ${levelText(req.output.min)}` : undefined,
+    outputMax: req.output?.max ? `V(${output}) <= ${levelText(req.output.max)}` : undefined,
+    ripple: req.ripple ? `ripple(${output}) <= ${formatEngineering(req.ripple.max, 'V')}` : undefined,
+    efficiency: req.efficiency ? `efficiency >= ${(req.efficiency.min * 100).toFixed(1)} %` : undefined,
+    lostCharge: req.lostCharge ? `lost charge <= ${formatEngineering(req.lostCharge.max, 'C')}` : undefined,
+  };
+}
+
+/** Appends the circuit checks to `out`. */
+export function circuitChecks(c: CornerCircuit, req: CircuitRequirements, names: CircuitCheckNames, vdd: number, out: Check[]): void {
+  const settled = c.method !== 'none';
+  const add = (kind: CheckKind, name: string | undefined, margin: number | null) => {
+    if (name === undefined) return;
+    if (!settled || margin === null || !Number.isFinite(margin)) {
+      out.push({ kind, name, margin: null, pass: false, detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state' });
+    } else out.push({ kind, name, margin, pass: margin >= 0 });
+  };
+  if (req.output?.min) add('output-min', names.outputMin, c.output - levelAt(req.output.min, vdd));
+  if (req.output?.max) add('output-max', names.outputMax, levelAt(req.output.max, vdd) - c.lightOutput);
+  if (req.ripple) add('ripple-max', names.ripple, req.ripple.max - c.ripple);
+  if (req.efficiency) add('efficiency-min', names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
+  if (req.lostCharge) add('lost-charge-max', names.lostCharge, req.lostCharge.max - c.lostCharge);
+}

@@ -1,0 +1,89 @@
+/**
+ * The circuit at one corner: rails at the corner's supply, each switch on (1/R_on) while its
+ * gate conducts and a leak otherwise, the conduction instants the clock generator produces at
+ * that corner, and for every off device a channel that conducts backwards if a terminal passes
+ * its gate's off level by a threshold. A switch that never turns off (or on) at some signal
+ * keeps its gate's own 50 % instants, so a wrongly driven device still shows what it does.
+ */
+import type { CycleIndex } from '../measure/phases.js';
+import type { CornerDevices } from '../process/device.js';
+import { levelAt } from '../schema/level.js';
+import { bulkLevel, gateWave, type SwitchConduction } from '../switches/conduction.js';
+import { bodyThreshold, triodeResistance } from '../switches/physics.js';
+import type { SwitchPlan } from '../switches/plan.js';
+import type { CircuitModel, ModelChannel, ModelInterval, ModelSwitch } from './model.js';
+import type { CircuitNetwork } from './network.js';
+
+interface Window { readonly on: number; readonly off: number }
+
+function wrap(t: number, period: number): number {
+  const x = t % period;
+  return x < 0 ? x + period : x;
+}
+
+function inWindow(t: number, w: Window, period: number): boolean {
+  const length = wrap(w.off - w.on, period);
+  return wrap(t - w.on, period) < length;
+}
+
+/** Threshold magnitude at the onset of reverse conduction, with body effect at the source it implies. */
+function onsetThreshold(vth: number, gamma: number, phi2f: number, gate: number, bulk: number, n: boolean): number {
+  let vt = vth;
+  for (let k = 0; k < 4; k++) {
+    const source = n ? gate - vt : gate + vt;
+    vt = bodyThreshold(vth, gamma, phi2f, n ? source - bulk : bulk - source);
+  }
+  return vt;
+}
+
+export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[], conduction: readonly SwitchConduction[],
+  cycles: CycleIndex, devices: CornerDevices, period: number): CircuitModel {
+  const vdd = devices.vdd;
+  const windows: (Window | null)[] = [];
+  const switches: ModelSwitch[] = [];
+  const channels: ModelChannel[] = [];
+  plans.forEach((plan, k) => {
+    const c = conduction[k];
+    const [a, b] = network.switchTerminals[k]!;
+    let window: Window | null = null;
+    let gOn = 0;
+    if (c && c.status === 'switching') {
+      window = { on: c.on, off: c.off };
+      gOn = 1 / c.ron;
+    }
+    plan.devices.forEach((device) => {
+      const wave = gateWave(plan, device, cycles, vdd);
+      if (typeof wave === 'string') return;
+      const n = device.kind === 'n';
+      const d = n ? devices.n : devices.p;
+      const swing = wave.rise.high - wave.rise.low;
+      const bulk = bulkLevel(plan, device.kind, vdd);
+      const gate = n ? wave.rise.low : wave.rise.high;
+      const vt = onsetThreshold(d.vth, d.gamma, d.phi2f, gate, bulk, n);
+      const full = triodeResistance(d.kprime, device.w, device.l, swing - vt);
+      if (!window && c?.status === 'always') {
+        window = n ? { on: wave.rise.t50, off: wave.fall.t50 } : { on: wave.fall.t50, off: wave.rise.t50 };
+        if (Number.isFinite(full)) gOn += 1 / full;
+      }
+      if (Number.isFinite(full)) channels.push({ switchIndex: k, a, b, polarity: n ? 'n' : 'p', gate, vt, g: 1 / full });
+    });
+    windows.push(window);
+    switches.push({ name: plan.name, a, b, gOn, gOff: network.switchLeak });
+  });
+  const events = new Set<number>();
+  for (const w of windows) if (w) { events.add(wrap(w.on, period)); events.add(wrap(w.off, period)); }
+  const times = [...events].sort((x, y) => x - y);
+  if (times.length === 0) times.push(0);
+  const intervals: ModelInterval[] = times.map((t, i) => {
+    const end = i + 1 < times.length ? times[i + 1]! : times[0]! + period;
+    const mid = (t + end) / 2;
+    return { duration: end - t, on: Uint8Array.from(windows, (w) => (w && inWindow(mid, w, period) ? 1 : 0)) };
+  });
+  return {
+    nodes: network.nodes,
+    rails: Float64Array.from(network.railLevels, (l) => levelAt(l, vdd)),
+    inverseCapacitance: network.inverseCapacitance,
+    intervals, start: times[0]!, switches, channels,
+    diodes: network.diodes, pairs: network.pairs, output: network.output, loadCurrent: 0, loadConductance: 0,
+  };
+}

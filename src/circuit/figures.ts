@@ -1,0 +1,144 @@
+/**
+ * The figures a designer reads per corner: mean output and ripple, output impedance with its
+ * slow- and fast-switching asymptotes, efficiency, charge lost per period and start-up.
+ * The asymptotes follow the charge-flow view (M. D. Seeman, S. R. Sanders, Analysis and
+ * optimization of switched-capacitor DC-DC converters, IEEE Trans. Power Electronics 23(2),
+ * 2008): R_SSL is the output impedance with ideal switches (every on-resistance shrunk by
+ * ASYMPTOTE: 1000), R_FSL the one with every capacitor grown by ASYMPTOTE. Each is found by solving
+ * the same network, so it holds for any topology the design describes.
+ */
+import type { CircuitModel } from './model.js';
+import { periodOf } from './model.js';
+import { PeriodSolver, type SteadyState } from './period-solver.js';
+import { startup } from './startup.js';
+import { tracePeriod, type PeriodTrace } from './trace.js';
+
+const ASYMPTOTE = 1e3;
+
+export interface CircuitLoad {
+  /** Magnitude of the load current, A: it flows from the output to ground for a positive output. */
+  readonly current: number;
+  /** Load conductance to ground, S. */
+  readonly conductance: number;
+}
+
+export interface CircuitFigures {
+  readonly method: SteadyState['method'];
+  /** Mean output, V. */
+  readonly output: number;
+  /** Peak-to-peak output ripple, V. */
+  readonly ripple: number;
+  /** Mean output extrapolated to no load along the output impedance, V. */
+  readonly noLoadOutput: number;
+  /** Mean current the load takes (signed like the output), A. */
+  readonly loadCurrent: number;
+  /** Output impedance at the load (from the load and half of it), ohm; null without a load. */
+  readonly outputResistance: number | null;
+  readonly slowLimit: number | null;
+  readonly fastLimit: number | null;
+  /** Powers, W: drawn from the rails, taken by the load, spent by the clock generator and switch gates. */
+  readonly inputPower: number;
+  readonly outputPower: number;
+  readonly generatorPower: number;
+  /** outputPower / (inputPower + generatorPower); null when nothing is drawn. */
+  readonly efficiency: number | null;
+  /** Charge lost per period, C: reverse conduction plus shoot-through. */
+  readonly lostCharge: number;
+  readonly reverseCharge: number;
+  readonly shootThroughCharge: number;
+  /** Periods and time from all capacitors discharged to 90 % of the final output; null if not reached. */
+  readonly startupCycles: number | null;
+  readonly startupTime: number | null;
+  readonly startupLimit: number;
+  /** The steady period, for waveforms. */
+  readonly trace: PeriodTrace;
+}
+
+export function withLoad(model: CircuitModel, load: CircuitLoad, sign: number): CircuitModel {
+  return { ...model, loadCurrent: sign * load.current, loadConductance: load.conductance };
+}
+
+/** The model with every on-conductance multiplied by k (k large: ideal switches). */
+export function scaleConductance(model: CircuitModel, k: number): CircuitModel {
+  return {
+    ...model,
+    switches: model.switches.map((s) => ({ ...s, gOn: s.gOn * k })),
+    channels: model.channels.map((c) => ({ ...c, g: c.g * k })),
+    diodes: model.diodes.map((d) => ({ ...d, gOn: d.gOn * k })),
+  };
+}
+
+/** The model with every capacitance multiplied by k. */
+export function scaleCapacitance(model: CircuitModel, k: number): CircuitModel {
+  return { ...model, inverseCapacitance: model.inverseCapacitance.map((x) => x / k) };
+}
+
+export interface Solved {
+  readonly state: SteadyState;
+  readonly trace: PeriodTrace;
+  readonly solver: PeriodSolver;
+}
+
+export function solve(model: CircuitModel): Solved {
+  const solver = new PeriodSolver(model);
+  const state = solver.steadyState();
+  return { state, trace: tracePeriod(solver, state.x0, state.segments), solver };
+}
+
+/**
+ * Output impedance of a model, ohm: the change of mean output between the load and half of it,
+ * over the change of load current (a no-load solve of a diode pump has no unique steady state:
+ * its diodes rest exactly at their drop). Also the output extrapolated to no load, V.
+ */
+function impedance(model: CircuitModel, load: CircuitLoad, sign: number, full?: PeriodTrace): { r: number | null; open: number } {
+  const period = periodOf(model);
+  const heavy = full ?? solve(withLoad(model, load, sign)).trace;
+  const light = solve(withLoad(model, { current: load.current / 2, conductance: load.conductance / 2 }, sign)).trace;
+  const di = (heavy.loadCharge - light.loadCharge) / period;
+  if (di === 0) return { r: null, open: heavy.outputMean };
+  const r = (light.outputMean - heavy.outputMean) / di;
+  return { r, open: heavy.outputMean + r * (heavy.loadCharge / period) };
+}
+
+/**
+ * `model` carries no load; `generatorEnergy` is what the clock generator and the switch gates
+ * draw per period, J.
+ */
+export function circuitFigures(model: CircuitModel, load: CircuitLoad, generatorEnergy: number, startupLimit: number): CircuitFigures {
+  const period = periodOf(model);
+  const hasLoad = load.current !== 0 || load.conductance !== 0;
+  // The load's current flows towards ground from a positive output and out of ground into a negative one.
+  const sign = hasLoad && solve(withLoad(model, { current: 0, conductance: load.conductance }, 1)).trace.outputMean < 0 ? -1 : 1;
+  const loaded = solve(withLoad(model, load, sign));
+  const t = loaded.trace;
+  const loadCurrent = t.loadCharge / period;
+  const own = hasLoad ? impedance(model, load, sign, t) : { r: null, open: t.outputMean };
+  let inputEnergy = 0;
+  for (let k = 0; k < model.rails.length; k++) inputEnergy += model.rails[k]! * t.railCharge[k]!;
+  const inputPower = inputEnergy / period;
+  const outputPower = t.loadEnergy / period;
+  const generatorPower = generatorEnergy / period;
+  const drawn = inputPower + generatorPower;
+  const up = startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
+  return {
+    method: loaded.state.method,
+    output: t.outputMean,
+    ripple: t.outputMax - t.outputMin,
+    noLoadOutput: own.open,
+    loadCurrent,
+    outputResistance: own.r,
+    slowLimit: hasLoad ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
+    fastLimit: hasLoad ? impedance(scaleCapacitance(model, ASYMPTOTE), load, sign).r : null,
+    inputPower,
+    outputPower,
+    generatorPower,
+    efficiency: drawn > 0 ? outputPower / drawn : null,
+    lostCharge: t.reverseCharge + t.shootThroughCharge,
+    reverseCharge: t.reverseCharge,
+    shootThroughCharge: t.shootThroughCharge,
+    startupCycles: up.cycles,
+    startupTime: up.cycles === null ? null : up.cycles * period,
+    startupLimit,
+    trace: t,
+  };
+}

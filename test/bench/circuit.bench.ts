@@ -1,0 +1,49 @@
+/**
+ * Periodic steady state of the demo pump (fixtures/designs/doubler-pump.yaml): the time of one
+ * steady-state solve at tt/1.8V/27C and of the 45 corners' solves (the corner models built from
+ * each corner's conduction instants beforehand), and of the full figures per corner. Prints its
+ * figures; run with `npm run bench`.
+ */
+import { fileURLToPath } from 'node:url';
+import { CornerEvaluator } from '../../src/analysis/evaluate.js';
+import { loadResolved } from '../../src/cli/load.js';
+import { CycleIndex } from '../../src/measure/phases.js';
+import { devicesAtCorner } from '../../src/process/device.js';
+import { buildNetwork } from '../../src/circuit/network.js';
+import { cornerModel } from '../../src/circuit/corner-model.js';
+import { withLoad } from '../../src/circuit/figures.js';
+import { PeriodSolver } from '../../src/circuit/period-solver.js';
+import type { CircuitModel } from '../../src/circuit/model.js';
+
+const demo = fileURLToPath(new URL('../../../fixtures/designs/doubler-pump.yaml', import.meta.url));
+const { resolved } = loadResolved(demo, [], {}, () => {});
+const network = buildNetwork(resolved.design, resolved.switches);
+const evaluator = new CornerEvaluator(resolved);
+const models: CircuitModel[] = [];
+let figuresMs = 0;
+for (const { corner } of resolved.corners) {
+  const t = performance.now();
+  const r = evaluator.evaluate(corner);
+  figuresMs += performance.now() - t;
+  const cycles = new CycleIndex(r.simulation, resolved.netlist);
+  const model = cornerModel(network, resolved.switches, r.switches, cycles, devicesAtCorner(resolved.card, corner), 1 / resolved.design.clock.frequency);
+  models.push(withLoad(model, network.load, 1));
+}
+const tt = models[resolved.corners.findIndex((c) => c.corner.name === 'tt/1.8V/27C')]!;
+
+function solveAll(list: readonly CircuitModel[]): number {
+  const t = performance.now();
+  for (const m of list) new PeriodSolver(m).steadyState();
+  return performance.now() - t;
+}
+for (let i = 0; i < 5; i++) solveAll(models); // warm the JIT
+const repeats = 20;
+let one = Infinity;
+let all = Infinity;
+for (let i = 0; i < repeats; i++) {
+  one = Math.min(one, solveAll([tt]));
+  all = Math.min(all, solveAll(models));
+}
+console.log(`circuit: periodic steady state of ${demo.split('/').pop()} at tt/1.8V/27C: ${one.toFixed(3)} ms (target < 1 ms)`);
+console.log(`circuit: periodic steady state at ${models.length} corners: ${all.toFixed(2)} ms (target < 50 ms)`);
+console.log(`circuit: check of all ${models.length} corners with every figure (timing, steady states, impedance asymptotes, start-up): ${figuresMs.toFixed(0)} ms (first run, JIT cold)`);
