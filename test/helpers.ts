@@ -100,3 +100,19 @@ export function withoutStamp(text: string, command = false): string {
   if (command) out = out.replace(/^provenance: command: .*$/m, '').replace(/("command": )\[[^\]]*\]/, '$1[]');
   return out;
 }
+
+/**
+ * An output with its run record's date and command line blanked, so two runs that differ only in
+ * how they were invoked (or when) compare equal: a JSON report loses its `provenance`, a text
+ * output the ISO date and the `command: ...` field of its header or footer.
+ */
+export function withoutRunRecord(text: string): string {
+  if (text.trimStart().startsWith('{')) {
+    const parsed = JSON.parse(text) as Record<string, unknown>;
+    delete parsed.provenance;
+    return JSON.stringify(parsed, null, 2);
+  }
+  return text
+    .replace(/\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?Z/g, 'DATE')
+    .replace(/command: phasegap[^;\n]*/g, 'command: COMMAND');
+}

@@ -36,8 +36,9 @@ describe('phasegap fmax text', () => {
     expect(run.code).toBe(0);
     const r = fmaxOf('doubler');
     const lines = fmaxMarginLines(r);
-    expect(lines[0]).toMatch(/^ {2}margin at fmax 30\.\d\d MHz: \+/);
-    expect(lines[1]).toMatch(/^ {2}margin at 30\.\d\d MHz \(the first failing probe, 0\.\d\d % above fmax\): -/);
+    // fmax of the demo is about 25 MHz, limited by settling through the switches' on-resistance (measured).
+    expect(lines[0]).toMatch(/^ {2}margin at fmax 25\.\d\d MHz: \+/);
+    expect(lines[1]).toMatch(/^ {2}margin at 25\.\d\d MHz \(the first failing probe, 0\.\d\d % above fmax\): -/);
     expect(lines[1]).toContain(formatMargin(r.limiting!.margin!, r.limiting!.kind));
     for (const line of lines) expect(run.stdout).toContain(line);
     expect(run.stdout).not.toMatch(/limited by: .*margin/);

@@ -141,7 +141,7 @@ describe('report in headless Chromium', () => {
       expect(parts.map((p) => [p.part, p.verdict, p.shown])).toEqual([
         ['corner checks', 'pass', true], ['Monte Carlo yield', 'fail', true], ['simulator agreement', 'not-run', true],
       ]);
-      expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 65.000 % over 40 dies at every corner, below the 99.000 % required');
+      expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 77.500 % over 40 dies at every corner, below the 99.000 % required');
       // Every drawing's title box heads with the run's verdict, not only its own checks'.
       const boxes = await page.$$eval('figure svg .title-block', (gs) => gs.map((g) => [g.querySelector('.verdict')?.textContent, g.querySelector('.verdict-detail')?.textContent]));
       expect(boxes).toEqual([
