@@ -26,3 +26,24 @@ describe('the free-form netlist demo on the high-threshold card', () => {
     expect(lowRatio).toBeGreaterThan(highRatio);
   });
 });
+
+describe('every shipped demo design', () => {
+  // What each invented scenario is for: the passing designs pass at all 45 corners, the failing
+  // ones fail for the reason they were written to show (the limiting check, measured).
+  it.each([
+    ['doubler', 0, null],
+    ['doubler-pump', 0, null],
+    ['lp-netlist', 0, null],
+    ['sc-integrator', 0, null],
+    ['too-tight', 1, 'break-before-make'],
+    ['doubler-unboosted', 1, 'stress'],
+    ['doubler-unboosted-pump', 1, 'stress'],
+    ['doubler-diode-pump', 1, 'output-min'],
+  ] as const)('%s exits %i', (name, code, kind) => {
+    const run = cli('check', design(name), '--json');
+    expect(run.code).toBe(code);
+    const report = JSON.parse(run.stdout) as { verdict: string; limiting?: { kind: string } | null };
+    expect(report.verdict).toBe(code === 0 ? 'pass' : 'fail');
+    if (kind !== null) expect(report.limiting?.kind).toBe(kind);
+  });
+});
