@@ -8,6 +8,7 @@ import { PREFIXES } from '../units/quantity.js';
 import type { CornerResult } from './evaluate.js';
 import { limitingCheck } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
+import { circuitCheckNames } from '../checks/circuit-checks.js';
 
 export const CORNER_AXES = ['process', 'vdd', 'temperature', 'duty'] as const;
 
@@ -143,8 +144,12 @@ export interface SweepColumns {
   readonly deadTimes: readonly string[];
   readonly widths: readonly string[];
   readonly checks: readonly string[];
-  /** The checks among `checks` whose margin is in volts (switch bias); the others are in seconds. */
+  /** The checks among `checks` whose margin is in volts (switch bias, circuit output and ripple). */
   readonly voltChecks: readonly string[];
+  /** The checks among `checks` whose margin is in coulombs (circuit lost charge). */
+  readonly chargeChecks: readonly string[];
+  /** The checks among `checks` whose margin is a fraction (circuit efficiency); the rest are in seconds. */
+  readonly fractionChecks: readonly string[];
 }
 
 /**
@@ -167,8 +172,14 @@ export function sweepColumns(resolved: ResolvedDesign): SweepColumns {
   if (req.width?.min !== undefined) checks.push(...widthNets.map((n) => labels.widthMin[n] ?? `width ${n}`));
   checks.push(...resolved.switchCheckNames);
   const voltChecks = resolved.biasNames.flatMap((n) => (n ? [n.off, n.on, n.stress] : []));
-  checks.push(...voltChecks);
-  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks, voltChecks };
+  const circuit = resolved.design.circuit;
+  const names = circuit ? circuitCheckNames(circuit.requirements, circuit.output) : {};
+  const defined = (list: ReadonlyArray<string | undefined>) => list.filter((n): n is string => n !== undefined);
+  const circuitVolt = defined([names.outputMin, names.outputMax, names.ripple]);
+  const fractionChecks = defined([names.efficiency]);
+  const chargeChecks = defined([names.lostCharge]);
+  checks.push(...defined([names.outputMin, names.outputMax, names.ripple, names.efficiency, names.lostCharge]), ...voltChecks);
+  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks, voltChecks: [...circuitVolt, ...voltChecks], chargeChecks, fractionChecks };
 }
 
 /** The union of column sets, each name once, in first-seen order. */
@@ -177,5 +188,6 @@ export function mergeColumns(sets: readonly SweepColumns[]): SweepColumns {
   return {
     deadTimes: union((c) => c.deadTimes), widths: union((c) => c.widths),
     checks: union((c) => c.checks), voltChecks: union((c) => c.voltChecks),
+    chargeChecks: union((c) => c.chargeChecks), fractionChecks: union((c) => c.fractionChecks),
   };
 }

@@ -12,6 +12,7 @@ import { shellCommand } from '../report/shell-quote.js';
 import type { Io } from './io.js';
 import { modelFile } from './model-file.js';
 import { parseJobs, relativeNumber } from './options.js';
+import { noteTo } from './warn.js';
 
 export const DEFAULT_TOLERANCE = 0.1;
 
@@ -39,7 +40,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const modelPath = modelFile(resolved.card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
-  if (io.stderrIsTTY && !options.quiet) io.stderr(`simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...\n`);
+  if (io.stderrIsTTY && !options.quiet) noteTo(io, `simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...`);
   const outputs = runDecksWithProgress(io, decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, [...deck.quantities.map((q) => q.name), ...deck.ron.map((r) => r.name)]);

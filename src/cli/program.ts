@@ -36,13 +36,19 @@ function outOption(what: string): Option {
   return new Option('-o, --out <FILE>', `write ${what} to FILE atomically ('-' for stdout)`);
 }
 
+/** Commander's own messages ("error: unknown option ...", "(Did you mean check?)") in the program's line style. */
+function commanderError(text: string): string {
+  const body = text.startsWith('error: ') ? text : `error: ${text}`;
+  return body.replace(/^(?=.)/gm, 'phasegap: ');
+}
+
 export function buildProgram(io: Io, setCode: (code: number | Promise<number>) => void): Command {
   const program = new Command('phasegap')
     .description('Dead time, break-before-make and settling checks for two-phase non-overlapping clock generators')
     .version(VERSION)
     .exitOverride()
-    .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
-    .showHelpAfterError('(run phasegap --help for usage)')
+    .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s), outputError: (s, write) => write(commanderError(s)) })
+    .showHelpAfterError('phasegap: run phasegap --help for usage')
     .option('--model <KIND>', 'delay model for every command: analytic or table (default: table when the process card names tables)')
     .option('--tables <FILE>', 'delay tables (from phasegap characterize) to use instead of the card\'s; implies --model table');
 

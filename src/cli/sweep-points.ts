@@ -12,6 +12,7 @@ import { gridPoint, pointOverrides, summarizePoint, sweepColumns, type SweepAxis
 import { InputError } from '../errors.js';
 import { dirname, resolve } from 'node:path';
 import type { ProcessCard } from '../schema/process.js';
+import { warningLine } from './warn.js';
 
 export interface SweepSetup {
   /** The design's path and the text read from it (workers parse the text: standard input cannot be read twice). */
@@ -54,7 +55,7 @@ function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): Re
     p.cards.set(path, card);
     cardDir = dirname(path);
   } else card = design.process;
-  const resolved = resolveDesign(design, card, loadModel(card, cardDir, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`)));
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, setup.model, (m) => process.stderr.write(warningLine(m))));
   p.last = { key, resolved };
   return resolved;
 }

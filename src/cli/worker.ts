@@ -4,6 +4,7 @@ import { loadResolved, type DesignSource, type ModelOptions } from './load.js';
 import { runChunk, type ChunkResult } from '../analysis/montecarlo.js';
 import { sweepRows, type SweepSetup } from './sweep-points.js';
 import { InputError } from '../errors.js';
+import { warningLine } from './warn.js';
 
 export type WorkerSetup =
   | { readonly kind: 'mc'; readonly design: DesignSource; readonly overrides: readonly string[]; readonly seed: number; readonly model: ModelOptions }
@@ -13,7 +14,7 @@ const setup = workerData as WorkerSetup;
 const port = parentPort!;
 
 if (setup.kind === 'mc') {
-  const { resolved } = loadResolved(setup.design, setup.overrides, setup.model, (m) => process.stderr.write(`phasegap: warning: ${m}\n`));
+  const { resolved } = loadResolved(setup.design, setup.overrides, setup.model, (m) => process.stderr.write(warningLine(m)));
   port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
     try {
       const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count);

@@ -2,7 +2,7 @@
  * The Monte Carlo part of the review page: the yield line, the corners with the least sigma
  * margin, and the dead-time histogram of the worst corner. Shared by the HTML and Markdown pages.
  */
-import type { McReport } from '../report/mc-report.js';
+import { mcPercent, type McReport } from '../report/mc-report.js';
 import { formatPsTenths } from '../units/format.js';
 
 export interface McSection {
@@ -11,7 +11,6 @@ export interface McSection {
   readonly histogram: string;
 }
 
-const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
 const ps = formatPsTenths;
 
 function leastSigma(c: McReport['corners'][number]): { value: number; check: string } {
@@ -23,12 +22,14 @@ function leastSigma(c: McReport['corners'][number]): { value: number; check: str
 }
 
 export function mcHeadline(r: McReport): string {
+  const pct = mcPercent(r);
   return `${r.samples} dies (seed ${r.seed}) at each of ${r.corners.length} corners: yield at every corner ${pct(r.yield.value)}`
     + ` (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}; worst corner ${r.worstCorner}.`;
 }
 
 /** Rows for the corners with the lowest yield, then the least sigma margin, at most `count`. */
 export function mcRows(r: McReport, count = 8): string[][] {
+  const pct = mcPercent(r);
   const ranked = [...r.corners].sort((a, b) => a.yield - b.yield || leastSigma(a).value - leastSigma(b).value).slice(0, count);
   return ranked.map((c) => {
     const dead = c.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '));

@@ -8,7 +8,7 @@ import { compareChecks } from '../checks/check.js';
 import type { CornerComparison } from './confirm-report.js';
 import { formatMargin } from './margin-format.js';
 import type { CheckReport } from './check-report.js';
-import type { McReport } from './mc-report.js';
+import { mcPercent, type McReport } from './mc-report.js';
 import { provenanceLines, type Provenance } from './provenance.js';
 import type { RunVerdict } from './verdict.js';
 import { formatSignedTime, formatTime } from '../units/format.js';
@@ -72,7 +72,7 @@ export function checkSuite(r: CheckReport): JunitSuite {
  * misses its requirement, so the cases agree with the exit code.
  */
 export function mcSuite(r: McReport): JunitSuite {
-  const pct = (x: number) => `${(x * 100).toFixed(3)} %`;
+  const pct = mcPercent(r);
   const required = r.minYield === null ? 'every die must pass (no requirements.minYield)' : `required ${pct(r.minYield)}`;
   const cases: JunitCase[] = [{
     name: 'yield at every corner', className: 'phasegap.mc.yield', output: `${pct(r.yield.value)} over ${r.samples} dies, ${required}`,

@@ -73,11 +73,18 @@ const ps = psTenthsNumber;
  * `invocation`: the words that rerun this analysis (program, command, design path, --set and model
  * options); the replay hint adds the seed and the worst die to them.
  */
+/**
+ * Percent formatting for everything a Monte Carlo report shows (its text, the review page's
+ * section, the verdict line): one precision, fine enough that no yield short of 100 % reads as 100 %.
+ */
+export function mcPercent(r: McReport): (fraction: number) => string {
+  const decimals = percentDecimals([r.yield.value, r.yield.low, r.yield.high, ...(r.minYield === null ? [] : [r.minYield]), ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high])]);
+  return (x) => formatPercent(x, decimals);
+}
+
 export function renderMcText(r: McReport, invocation: readonly string[] = ['phasegap', 'mc', 'DESIGN']): string {
   const lines: string[] = [];
-  // One precision for every percentage on the page, fine enough that no yield short of 100 % reads as 100 %.
-  const decimals = percentDecimals([r.yield.value, r.yield.low, r.yield.high, ...(r.minYield === null ? [] : [r.minYield]), ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high])]);
-  const pct = (x: number) => formatPercent(x, decimals);
+  const pct = mcPercent(r);
   lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
   lines.push('');
   const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);

@@ -17,12 +17,14 @@ function csvField(value: string | number | null): string {
   return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
+/** The unit of a column: an SI unit, 'fraction' for a ratio (0.4 is 40 %), or null for text and counts. */
+export type CsvUnit = 's' | 'V' | 'C' | 'fraction' | null;
+
 /** One CSV column: `key` is the header a notebook indexes by; `label` the words people read. */
 export interface CsvColumn {
   readonly key: string;
   readonly label: string;
-  /** SI unit of the values, or null for text and counts. */
-  readonly unit: 's' | 'V' | null;
+  readonly unit: CsvUnit;
 }
 
 /** Lower-case letters, digits and single underscores: "dead p1->p2" -> "dead_p1_p2". */
@@ -35,11 +37,23 @@ function subject(name: string): string {
   return name.replace(/\s*(?:>=|<=|\+)\s*[-+]?[\d.]+\s*\S*\s*$/, '').replace(/\b(settles) to .*$/, '$1');
 }
 
-/** Check columns: `margin_s.dead_p1_p2_min`, `margin_V.s_chg_holds_off`; unique within the file. */
-function checkKeys(checks: readonly string[], voltChecks: readonly string[]): string[] {
+type MarginUnit = 's' | 'V' | 'C' | 'fraction';
+
+/** Key suffix of each margin unit: `margin_s.`, `margin_V.`, `margin_C.`, `margin_frac.`. */
+const KEY_UNIT: Readonly<Record<MarginUnit, string>> = { s: 's', V: 'V', C: 'C', fraction: 'frac' };
+
+function checkUnit(name: string, columns: SweepColumns): MarginUnit {
+  if (columns.voltChecks.includes(name)) return 'V';
+  if (columns.chargeChecks.includes(name)) return 'C';
+  if (columns.fractionChecks.includes(name)) return 'fraction';
+  return 's';
+}
+
+/** Check columns: `margin_s.dead_p1_p2_min`, `margin_V.s_chg_holds_off`, `margin_C.lost_charge_max`; unique within the file. */
+function checkKeys(columns: SweepColumns): string[] {
   const used = new Set<string>();
-  return checks.map((name) => {
-    const unit = voltChecks.includes(name) ? 'V' : 's';
+  return columns.checks.map((name) => {
+    const unit = KEY_UNIT[checkUnit(name, columns)];
     const base = slug(subject(name));
     const bound = /(>=)/.test(name) ? '_min' : /(<=)/.test(name) ? '_max' : '';
     let key = `margin_${unit}.${base}${bound}`;
@@ -49,24 +63,35 @@ function checkKeys(checks: readonly string[], voltChecks: readonly string[]): st
   });
 }
 
+/**
+ * The units the limiting margin is split into: seconds and volts always, coulombs and fraction
+ * only when the design has such a check, so a sweep without them keeps its columns.
+ */
+function limitingUnits(columns: SweepColumns): MarginUnit[] {
+  return ['s', 'V', ...(columns.chargeChecks.length > 0 ? ['C' as const] : []), ...(columns.fractionChecks.length > 0 ? ['fraction' as const] : [])];
+}
+
+const LIMITING_LABEL: Readonly<Record<MarginUnit, string>> = {
+  s: 'a timing check', V: 'a voltage check', C: 'a charge check', fraction: 'an efficiency check (a fraction)',
+};
+
 /** Every column of the CSV in order, with a notebook key, its label and unit. */
 export function csvColumns(axes: readonly SweepAxis[], columns: SweepColumns): CsvColumn[] {
-  const keys = checkKeys(columns.checks, columns.voltChecks);
+  const keys = checkKeys(columns);
   return [
     ...axes.map((a) => ({ key: a.path, label: `swept ${a.path}`, unit: null })),
     { key: 'corners', label: 'corners evaluated', unit: null },
     { key: 'verdict', label: 'pass or fail at every corner', unit: null },
     { key: 'limiting_corner', label: 'corner of the limiting check', unit: null },
     { key: 'limiting_check', label: 'limiting check', unit: null },
-    { key: 'limiting_margin_s', label: 'margin of the limiting check when it is a timing check', unit: 's' },
-    { key: 'limiting_margin_V', label: 'margin of the limiting check when it is a voltage check', unit: 'V' },
+    ...limitingUnits(columns).map((u) => ({ key: `limiting_margin_${KEY_UNIT[u]}`, label: `margin of the limiting check when it is ${LIMITING_LABEL[u]}`, unit: u })),
     ...columns.deadTimes.flatMap((d) => [
       { key: `dead_${slug(d)}_min_s`, label: `least ${d} over the corners`, unit: 's' as const },
       { key: `dead_${slug(d)}_max_s`, label: `largest ${d} over the corners`, unit: 's' as const },
       { key: `gap_${slug(d)}_min_s`, label: `least clean gap of ${d} over the corners`, unit: 's' as const },
     ]),
     ...columns.widths.map((w) => ({ key: `width_${slug(w)}_min_s`, label: `least active width of ${w} over the corners`, unit: 's' as const })),
-    ...columns.checks.map((c, i) => ({ key: keys[i]!, label: `least margin over the corners: ${c}`, unit: columns.voltChecks.includes(c) ? 'V' as const : 's' as const })),
+    ...columns.checks.map((c, i) => ({ key: keys[i]!, label: `least margin over the corners: ${c}`, unit: checkUnit(c, columns) })),
   ];
 }
 
@@ -88,10 +113,15 @@ export function unlistedNames(row: SweepRow, columns: SweepColumns): string[] {
   ];
 }
 
+function limitingUnitOf(kind: string): MarginUnit {
+  const unit = marginUnit(kind);
+  return unit === '' ? 'fraction' : unit;
+}
+
 export function csvRow(row: SweepRow, columns: SweepColumns): string {
   const cells: Array<string | number | null> = [
     ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null,
-    ...(row.limiting && marginUnit(row.limiting.kind) === 'V' ? [null, row.limiting.margin] : [row.limiting?.margin ?? null, null]),
+    ...limitingUnits(columns).map((u) => (row.limiting && limitingUnitOf(row.limiting.kind) === u ? row.limiting.margin : null)),
     ...columns.deadTimes.flatMap((label) => {
       const d = row.deadTimes.find((x) => x.label === label);
       return d ? [d.min, d.max, d.gapMin] : [null, null, null];

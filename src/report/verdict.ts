@@ -4,9 +4,9 @@
  * and reason; the run fails when any part fails. A new analysis adds a part (a key, a name, a
  * verdict and a reason) and every output and the exit code pick it up.
  */
-import { formatTime } from '../units/format.js';
+import { formatPercent, formatTime } from '../units/format.js';
 import type { CheckReport } from './check-report.js';
-import type { McReport } from './mc-report.js';
+import { mcPercent, type McReport } from './mc-report.js';
 
 export type PartVerdict = 'pass' | 'fail' | 'not-run';
 
@@ -40,8 +40,6 @@ export interface Confirmation {
   readonly comparisons: readonly ComparedCorner[];
 }
 
-const pct = (x: number) => `${(x * 100).toFixed(x === 1 || x === 0 ? 1 : 3)} %`;
-
 export function cornerPart(r: CheckReport): VerdictPart {
   const failing = r.corners.filter((c) => c.verdict === 'fail').length;
   const lim = r.limiting;
@@ -67,6 +65,7 @@ export function monteCarloPart(mc: McReport | null, hint = REPORT_HINTS.montecar
   const key = 'montecarlo';
   const name = 'Monte Carlo yield';
   if (mc === null) return { key, name, verdict: 'not-run', reason: hint };
+  const pct = mcPercent(mc);
   const measured = `yield ${pct(mc.yield.value)} over ${mc.samples} dies at every corner`;
   const met = mc.verdict === 'pass';
   if (mc.minYield === null) {
@@ -85,7 +84,7 @@ export function confirmPart(c: Confirmation | null, deadTime?: { readonly min?: 
   if (c === null) return { key, name, verdict: 'not-run', reason: hint };
   const problems: string[] = [];
   const over = c.comparisons.flatMap((x) => x.quantities.filter((q) => !q.pass).map((q) => `${q.quantity} at ${x.corner}`));
-  if (over.length > 0) problems.push(`${over.length} quantit${over.length === 1 ? 'y' : 'ies'} beyond ${(c.tolerance * 100).toFixed(1)} % (first: ${over[0]})`);
+  if (over.length > 0) problems.push(`${over.length} quantit${over.length === 1 ? 'y' : 'ies'} beyond ${formatPercent(c.tolerance, 1)} (first: ${over[0]})`);
   const pairs = c.comparisons.flatMap((x) => x.breakBeforeMake.filter((b) => !b.agrees).map((b) => `${b.check} at ${x.corner}`));
   if (pairs.length > 0) problems.push(`${pairs.length} break-before-make pair${pairs.length === 1 ? '' : 's'} disagree${pairs.length === 1 ? 's' : ''} (first: ${pairs[0]})`);
   for (const x of c.comparisons) {

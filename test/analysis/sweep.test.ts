@@ -127,6 +127,7 @@ describe('sweepColumns', () => {
     ['doubler', ['requirements.gap.min=100ps', 'requirements.width.min=5ns']],
     ['sc-integrator', []],
     ['lp-netlist', []],
+    ['doubler-pump', ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]']],
   ])('names every check a settled corner of %s produces, in order', (name, sets) => {
     const { resolved } = loadResolved(design(name), sets, {}, () => undefined);
     const settled = evaluateAll(resolved).find((r) => r.measurement.ok)!;
@@ -137,16 +138,26 @@ describe('sweepColumns', () => {
     expect(columns.widths).toEqual(row.widths.map((w) => w.phase));
   });
 
+  it('sorts the circuit checks of doubler-pump by the unit of their margin', () => {
+    const { resolved } = loadResolved(design('doubler-pump'), [], {}, () => undefined);
+    const columns = sweepColumns(resolved);
+    expect(columns.voltChecks.slice(0, 3)).toEqual(['V(out) >= 1.75 vdd', 'V(out) <= 2 vdd', 'ripple(out) <= 50.0 mV']);
+    expect(columns.fractionChecks).toEqual(['efficiency >= 40.0 %']);
+    expect(columns.chargeChecks).toEqual(['lost charge <= 1.00 pC']);
+    const settle = columns.checks.indexOf('flying-cap charge settles to 0.001');
+    expect(columns.checks.slice(settle + 4, settle + 7)).toEqual(['efficiency >= 40.0 %', 'lost charge <= 1.00 pC', 's_gnd holds off']);
+  });
+
   it('merges column sets in first-seen order, each name once', () => {
-    const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'], voltChecks: ['y'] };
-    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'], voltChecks: ['y', 'z'] };
-    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'], voltChecks: ['y', 'z'] });
+    const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'], voltChecks: ['y'], chargeChecks: ['x'], fractionChecks: [] };
+    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'], voltChecks: ['y'], chargeChecks: [], fractionChecks: ['z'] };
+    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'], voltChecks: ['y'], chargeChecks: ['x'], fractionChecks: ['z'] });
   });
 });
 
 describe('csvRow', () => {
   it('fills columns by name and leaves what a row lacks empty', () => {
-    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'], voltChecks: ['one'] };
+    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'], voltChecks: ['one'], chargeChecks: [], fractionChecks: [] };
     const row = {
       index: 0, point: [1], corners: 3, verdict: 'pass' as const, limiting: null,
       deadTimes: [{ label: 'a->b', min: 1, max: 2, gapMin: 0.5 }], widths: [{ phase: 'b', min: 7 }],
@@ -161,7 +172,7 @@ describe('csvRow', () => {
 
 describe('unlistedNames', () => {
   it('names what a row carries beyond the columns, ignoring the margin-less steady-state check', () => {
-    const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'], voltChecks: [] };
+    const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'], voltChecks: [], chargeChecks: [], fractionChecks: [] };
     const row = {
       index: 0, point: [], corners: 1, verdict: 'fail' as const, limiting: null,
       deadTimes: [{ label: 'a->b', min: 1, max: 1, gapMin: 1 }, { label: 'b->a', min: 1, max: 1, gapMin: 1 }],

@@ -11,7 +11,7 @@ describe('phasegap init', () => {
     const run = cli('init', '--template', template, '-o', out);
     expect(run.code).toBe(0);
     expect(run.stdout).toBe('');
-    expect(run.stderr).toBe(`wrote ${out}; next: phasegap check ${out}\n`);
+    expect(run.stderr).toBe(`phasegap: wrote ${out}; next: phasegap check ${out}\n`);
     const text = readFileSync(out, 'utf8');
     expect(text.startsWith('#')).toBe(true);
     expect((parseYaml(text) as { generator: { template: string } }).generator.template).toBe(template);

@@ -96,7 +96,7 @@ describe('phasegap report', () => {
   });
 
   // The demo's least dead time is 967 ps (ff/1.98V/-40C): a 964 ps minimum holds at every corner
-  // but not on every die; 31 of 40 dies pass with seed 1 (measured).
+  // but not on every die; 31 of 40 dies pass with seed 1 (measured with this model).
   const missesYield = ['--mc', '40', '--seed', '1', '--set', 'requirements.deadTime.min=964ps', '--set', 'requirements.minYield=0.99'];
 
   it('exits 1 and heads the page FAIL when Monte Carlo misses requirements.minYield while every corner passes', async () => {
@@ -105,9 +105,9 @@ describe('phasegap report', () => {
     const head = run.stdout.slice(run.stdout.indexOf('<header>'), run.stdout.indexOf('</header>'));
     expect(head).toContain('<div class="verdict fail" data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield; 45 of 45 corners pass;');
     expect(head).toMatch(/<li data-part="corner checks" data-verdict="pass">corner checks: ✓ pass: 45 of 45 corners pass; /);
-    expect(head).toContain('<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 77.500 % over 40 dies at every corner, below the 99.000 % required</strong></li>');
+    expect(head).toContain('<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 77.5 % over 40 dies at every corner, below the 99.0 % required</strong></li>');
     expect(head).toContain('<li data-part="simulator agreement" data-verdict="not-run">simulator agreement: not run (add --confirm worst to run it)</li>');
-    // Without a yield requirement every die must pass, as in phasegap mc: 14 of the 40 fail, so the run fails.
+    // Without a yield requirement every die must pass, as in phasegap mc: 9 of the 40 fail, so the run fails.
     const free = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--mc', '40', '--seed', '1', '--set', 'requirements.deadTime.min=964ps', '-o', '-');
     expect(free.code).toBe(1);
     expect(free.stdout).toContain('data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield;');
@@ -125,7 +125,7 @@ describe('phasegap report', () => {
     const at = md.findIndex((l) => l.startsWith('**✕ FAIL**: fails: Monte Carlo yield; 45 of 45 corners pass'));
     expect(at).toBeGreaterThan(0);
     expect(md[at + 2]).toMatch(/^- corner checks: ✓ pass: 45 of 45 corners pass; /);
-    expect(md[at + 3]).toBe('- **Monte Carlo yield: ✕ FAIL: yield 77.500 % over 40 dies at every corner, below the 99.000 % required**');
+    expect(md[at + 3]).toBe('- **Monte Carlo yield: ✕ FAIL: yield 77.5 % over 40 dies at every corner, below the 99.0 % required**');
     expect(md[at + 4]).toBe('- simulator agreement: not run (add --confirm worst to run it)');
   });
 

@@ -4,7 +4,7 @@ import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { marginRows, processOrder } from '../../src/render/margins.js';
 import { marginChartInput } from '../../src/render/report-model.js';
-import { decadeTicks, marginTickLabel, renderMarginSvg, voltTickLabel } from '../../src/render/svg/margins.js';
+import { chargeTickLabel, decadeTicks, fractionTickLabel, marginTickLabel, renderMarginSvg, voltTickLabel } from '../../src/render/svg/margins.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
@@ -93,6 +93,43 @@ describe('renderMarginSvg: switch bias block', () => {
 describe('voltTickLabel', () => {
   it('labels decades in mV below 1 V and in V above', () => {
     expect(decadeTicks(-0.15, 2, [-2, 1]).map(voltTickLabel)).toEqual(['-100 mV', '-10 mV', '0', '+10 mV', '+100 mV', '+1 V']);
+  });
+});
+
+describe('renderMarginSvg: circuit checks', () => {
+  const loaded = loadDesign(design('doubler-pump'), ['corners.process=[tt, ss]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]']);
+  const pump = resolveDesign(loaded.design, loaded.card);
+  const pumpResults = evaluateAll(pump);
+  const svg = parseSvg(renderMarginSvg(marginChartInput(pump, pumpResults)));
+  const blocks = all(svg, 'g.margin-block');
+  const kindsIn = (b: Element) => all(b, 'g.margin-row').map((g) => g.getAttribute('data-kind'));
+
+  it('draws every check of the design, each in the block of its margin unit', () => {
+    expect(blocks.map((b) => b.getAttribute('data-unit'))).toEqual(['s', 'V', 'C', '']);
+    const names = [...new Set(pumpResults.flatMap((r) => r.checks.map((c) => c.name)))];
+    expect(all(svg, 'g.margin-row').map((g) => g.getAttribute('data-check')).sort()).toEqual(names.sort());
+    expect(kindsIn(blocks[1]!)).toEqual(expect.arrayContaining(['output-min', 'output-max', 'ripple-max', 'off-state']));
+    expect(kindsIn(blocks[2]!)).toEqual(['lost-charge-max']);
+    expect(kindsIn(blocks[3]!)).toEqual(['efficiency-min']);
+  });
+
+  it('labels the charge block in fC and pC and the efficiency block in %', () => {
+    const ticks = (b: Element) => all(b, 'text.tick-label').map((t) => t.textContent);
+    expect(ticks(blocks[2]!)).toEqual(expect.arrayContaining(['+10 fC', '+100 fC', '+1 pC']));
+    expect(ticks(blocks[3]!)).toEqual(expect.arrayContaining(['-1 %', '0', '+1 %', '+10 %']));
+    const worst = (kind: string) => all(svg, `g.margin-row[data-kind="${kind}"] text.worst-label`)[0]!.textContent;
+    const margin = (kind: string) => Math.min(...pumpResults.flatMap((r) => r.checks.filter((c) => c.kind === kind).map((c) => c.margin!)));
+    expect(worst('efficiency-min')).toMatch(new RegExp(`^\\+${(margin('efficiency-min') * 100).toFixed(1)} % at `));
+    expect(worst('lost-charge-max')).toMatch(new RegExp(`^\\+${(margin('lost-charge-max') * 1e12).toFixed(2)} pC at `));
+    const heads = all(svg, 'text.column-head').map((t) => t.textContent);
+    expect(heads).toEqual(expect.arrayContaining(['voltage checks', 'circuit charge checks', 'circuit efficiency checks']));
+  });
+});
+
+describe('chargeTickLabel and fractionTickLabel', () => {
+  it('label decades in fC, pC and nC, and fractions in percent', () => {
+    expect(decadeTicks(-20e-15, 2e-9, [-14, -9]).map(chargeTickLabel)).toEqual(['-10 fC', '0', '+10 fC', '+100 fC', '+1 pC', '+10 pC', '+100 pC', '+1 nC']);
+    expect(decadeTicks(-0.05, 0.5, [-2, 0]).map(fractionTickLabel)).toEqual(['-1 %', '0', '+1 %', '+10 %']);
   });
 });
 

@@ -63,11 +63,11 @@ describe('junitXml', () => {
 
 describe('mcSuite and confirmSuite', () => {
   it('mcSuite fails the yield case and the checks dies fail when the yield misses, and validates', () => {
-    // The demo with a 964 ps minimum: 31 of 40 dies pass (seed 1, measured).
+    // The demo with a 964 ps minimum: 31 of 40 dies pass (seed 1, measured with this model).
     const resolved = resolveYaml(readFileSync(design('doubler'), 'utf8').replace('deadTime: { min: 500ps, max: 4ns }', 'deadTime: { min: 964ps, max: 4ns }'));
     const mc = runMonteCarlo(resolved, 40, 1);
     const missed = mcSuite(mcReport('d', 'generic180', mc, 0.99));
-    expect(missed.cases[0]).toMatchObject({ name: 'yield at every corner', failure: 'yield 77.500 % over 40 dies; required 99.000 %' });
+    expect(missed.cases[0]).toMatchObject({ name: 'yield at every corner', failure: 'yield 77.5 % over 40 dies; required 99.0 %' });
     expect(missed.cases.filter((c) => c.failure !== undefined).map((c) => c.name)).toContain('dead p1->p2 >= 964 ps');
     const accepted = mcSuite(mcReport('d', 'generic180', mc, 0.6));
     expect(accepted.cases.filter((c) => c.failure !== undefined)).toEqual([]);

@@ -42,9 +42,56 @@ describe('csvHeader and csvRow', () => {
   });
 });
 
+describe('csvHeader and csvRow with a circuit', () => {
+  const axes = [parseAxis('clock.frequency=20MHz')];
+
+  it('give efficiency and lost charge their own columns and units, and keep the other keys', () => {
+    const { r, columns } = row('doubler-pump');
+    const header = csvHeader(axes, columns).trim().split(',');
+    const cells = csvRow(r, columns).trim().split(',');
+    const at = (col: string) => cells[header.indexOf(col)];
+    expect(header.slice(5, 9)).toEqual(['limiting_margin_s', 'limiting_margin_V', 'limiting_margin_C', 'limiting_margin_frac']);
+    expect(header).toContain('margin_V.v_out_min');
+    expect(header).toContain('margin_V.v_out_max');
+    expect(header).toContain('margin_V.ripple_out_max');
+    expect(header).toContain('margin_s.dead_p1_p2_min');
+    const check = (kind: string) => r.checks.find((c) => c.kind === kind)!;
+    expect(Number(at('margin_frac.efficiency_min'))).toBeCloseTo(check('efficiency-min').margin!, 9);
+    expect(Number(at('margin_C.lost_charge_max'))).toBeCloseTo(check('lost-charge-max').margin!, 20);
+    expect(check('lost-charge-max').margin!).toBeGreaterThan(0.9e-12);
+    expect(check('lost-charge-max').margin!).toBeLessThanOrEqual(1e-12);
+    const sidecar = JSON.parse(csvColumnsJson(axes, columns)) as { columns: Array<{ key: string; unit: string | null }> };
+    const unitOf = (key: string) => sidecar.columns.find((c) => c.key === key)?.unit;
+    expect(unitOf('margin_frac.efficiency_min')).toBe('fraction');
+    expect(unitOf('margin_C.lost_charge_max')).toBe('C');
+    expect(unitOf('margin_V.ripple_out_max')).toBe('V');
+    expect(unitOf('limiting_margin_C')).toBe('C');
+  });
+
+  it('put a failing efficiency limit under limiting_margin_frac and nowhere else', () => {
+    const { design: d, card } = loadDesign(design('doubler-pump'), ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]', 'circuit.requirements.efficiency.min=0.99']);
+    const resolved = resolveDesign(d, card);
+    const r = summarizePoint(0, [20e6], evaluateAll(resolved));
+    const columns = sweepColumns(resolved);
+    const header = csvHeader(axes, columns).trim().split(',');
+    const cells = csvRow(r, columns).trim().split(',');
+    expect(r.limiting?.kind).toBe('efficiency-min');
+    expect(cells[header.indexOf('limiting_margin_s')]).toBe('');
+    expect(cells[header.indexOf('limiting_margin_V')]).toBe('');
+    expect(cells[header.indexOf('limiting_margin_C')]).toBe('');
+    // check at tt/1.8V/27C prints efficiency +8.5 % over 40 %, so 48.5 % - 99 % = -50.5 %.
+    expect(Number(cells[header.indexOf('limiting_margin_frac')])).toBeCloseTo(-0.505, 2);
+  });
+
+  it('keep the header of a design without a circuit unchanged', () => {
+    const { columns } = row('doubler');
+    expect(csvHeader(axes, columns)).not.toMatch(/limiting_margin_C|limiting_margin_frac|margin_C\.|margin_frac\./);
+  });
+});
+
 describe('csvRow with names a spreadsheet would run', () => {
   it('puts an apostrophe before a text cell that starts with =, +, - or @, and leaves negative numbers alone', () => {
-    const columns = { deadTimes: [], widths: [], checks: ['=HYPERLINK("x")'], voltChecks: [] };
+    const columns = { deadTimes: [], widths: [], checks: ['=HYPERLINK("x")'], voltChecks: [], chargeChecks: [], fractionChecks: [] };
     const row = {
       index: 0, point: ['@SUM(A1)'], corners: 1, verdict: 'fail' as const,
       limiting: { corner: '+tt', check: '=HYPERLINK("x")', kind: 'order' as const, margin: -2e-12 },

@@ -42,7 +42,7 @@ describe('monteCarloPart', () => {
     // 31 of 40 dies pass at every corner with seed 1 (measured; 26 before s_gnd and s_chg were widened to 20 um).
     expect(mc.yieldEverywhere).toBe(31 / 40);
     const part = monteCarloPart(mcReport('d', 'generic180', mc, 0.99));
-    expect(part).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 77.500 % over 40 dies at every corner, below the 99.000 % required' });
+    expect(part).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 77.5 % over 40 dies at every corner, below the 99.0 % required' });
   });
 
   it('passes at or above the requirement', () => {
@@ -53,7 +53,7 @@ describe('monteCarloPart', () => {
     const report = mcReport('d', 'generic180', mc, undefined);
     const none = monteCarloPart(report);
     expect(report.verdict).toBe('fail');
-    expect(none).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 77.500 % over 40 dies at every corner; no requirements.minYield, so every die must pass (9 fail)' });
+    expect(none).toEqual({ key: 'montecarlo', name: 'Monte Carlo yield', verdict: 'fail', reason: 'yield 77.5 % over 40 dies at every corner; no requirements.minYield, so every die must pass (9 fail)' });
     const all = mcReport('d', 'generic180', runMonteCarlo(resolveYaml(doublerText), 20, 1), undefined);
     expect(all.yield.value).toBe(1);
     expect(monteCarloPart(all).verdict).toBe('pass');

@@ -22,6 +22,7 @@ import { tablesJson } from '../../spice/tables-json.js';
 import { parseJobs } from '../options.js';
 import { modelFile } from '../model-file.js';
 import { progressBar } from '../progress.js';
+import { noteTo } from '../warn.js';
 
 export interface CharacterizeOptions {
   readonly corners?: string;
@@ -122,7 +123,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   } finally {
     bar.stop();
   }
-  if (io.stderrIsTTY) io.stderr(`characterized ${corners.length} corners with ${simulator}\n`);
+  if (io.stderrIsTTY) noteTo(io, `characterized ${corners.length} corners with ${simulator}`);
   const file: DelayTables = {
     format: 'phasegap-tables/1',
     process: card.name,
@@ -133,6 +134,6 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
     corners: tables,
   };
   emit(io, tablesJson(file), options.out, inputs);
-  if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out}: ${cells.length} cells at ${tables.length} corners\n`);
+  if (options.out !== undefined && options.out !== '-') noteTo(io, `wrote ${options.out}: ${cells.length} cells at ${tables.length} corners`);
   return 0;
 }

@@ -11,6 +11,7 @@ import { verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
+import { warnTo } from '../warn.js';
 
 export interface CheckOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -25,7 +26,7 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
   checkOutput(options.junit, inputs, '--junit');
-  const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, (m) => io.stderr(`phasegap: warning: ${m}\n`)));
+  const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const report = checkReport(resolved, evaluateAll(resolved));
   const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: CHECK_HINTS });
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });

@@ -14,6 +14,7 @@ import { withRunMetadata } from '../../render/svg/metadata.js';
 import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { parseNets, requireOut } from '../out-options.js';
+import { warnTo } from '../warn.js';
 
 export const CHARTS = ['timing', 'margins'] as const;
 
@@ -31,7 +32,7 @@ export function runDraw(io: Io, designPath: string, options: DrawOptions): numbe
     throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(out, inputs);

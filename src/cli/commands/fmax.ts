@@ -10,6 +10,7 @@ import { loadResolved, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { relativeNumber } from '../options.js';
 import { MAX_FMAX_RESOLUTION, MIN_FMAX_RESOLUTION } from '../run-limits.js';
+import { warnTo } from '../warn.js';
 
 export interface FmaxCommandOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -28,7 +29,7 @@ function parseResolution(text: string | undefined): number | undefined {
 }
 
 export function runFmax(io: Io, designPath: string, options: FmaxCommandOptions): number {
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);

@@ -4,6 +4,7 @@ import { starterDesign, type StarterTemplate } from '../starter.js';
 import type { Io } from '../io.js';
 import { emit } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
+import { noteTo } from '../warn.js';
 
 export function runInit(io: Io, options: { readonly template: string; readonly out: string; readonly force: boolean }): number {
   if (options.template !== 'nand' && options.template !== 'nor') {
@@ -13,6 +14,6 @@ export function runInit(io: Io, options: { readonly template: string; readonly o
     throw inputError('--out', options.out, 'already exists; pick another name or pass --force to overwrite');
   }
   emit(io, starterDesign(options.template as StarterTemplate), options.out, []);
-  if (options.out !== '-') io.stderr(`wrote ${options.out}; next: ${shellCommand(['phasegap', 'check', options.out])}\n`);
+  if (options.out !== '-') noteTo(io, `wrote ${options.out}; next: ${shellCommand(['phasegap', 'check', options.out])}`);
   return 0;
 }

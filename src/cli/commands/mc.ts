@@ -18,6 +18,7 @@ import { verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
+import { warnTo } from '../warn.js';
 
 export interface McOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -39,7 +40,7 @@ export const MC_HINTS = { corners: 'run phasegap check', simulator: 'run phasega
 
 export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
   const started = performance.now();
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);

@@ -22,6 +22,7 @@ import { confirmCorners } from '../confirm-run.js';
 import { tuneReport } from '../../report/tune-report.js';
 import { gatherProvenance } from '../provenance.js';
 import { withRunMetadata } from '../../render/svg/metadata.js';
+import { warnTo } from '../warn.js';
 
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
@@ -71,7 +72,7 @@ export function runReport(io: Io, designPath: string, options: ReportOptions): n
   if (options.format === 'md' && out === '-') {
     throw inputError('--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
   }
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const resolved = loaded.resolved;
   const inputs = inputFiles(loaded, options);
   const images = markdownImageNames(out);

@@ -7,7 +7,7 @@ import { chooseCorners, oneCornerName } from '../../analysis/corner-choice.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { modelFile } from '../model-file.js';
-import { warnTo } from '../warn.js';
+import { noteTo, warnTo } from '../warn.js';
 import { gatherProvenance } from '../provenance.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { spiceComment } from '../../spice/text.js';
@@ -40,6 +40,6 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   // The first line of a deck is its title; the record follows it as comment lines.
   const [title, ...rest] = deck.text.split('\n');
   emit(io, [title, ...record.map(spiceComment), ...rest].join('\n'), options.out, inputs);
-  if (toFile) io.stderr(`wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}\n`);
+  if (toFile) noteTo(io, `wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}`);
   return 0;
 }

@@ -12,6 +12,7 @@ import { optionalWholeNumber } from '../options.js';
 import { MAX_TOP } from '../run-limits.js';
 import { confirmCorners } from '../confirm-run.js';
 import { modelFile } from '../model-file.js';
+import { noteTo, warnTo } from '../warn.js';
 
 export interface TuneOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -75,7 +76,7 @@ export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, option
 }
 
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
@@ -97,7 +98,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
   const confirmTop = optionalWholeNumber('--confirm-top', options.confirmTop, { min: 1, max: 20 }, 3);
   const { simulate, note } = tuneSimulator(io, card, loaded.cardDir, options);
-  if (simulate && io.stderrIsTTY && !options.json) io.stderr(`tune: confirming the first ${confirmTop} proposals in ngspice...\n`);
+  if (simulate && io.stderrIsTTY && !options.json) noteTo(io, `confirming the first ${confirmTop} proposals in ngspice...`);
   const result = tuneChains(design, card, resolved.model, space, { simulate, confirmTop, top });
   const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top, note);
   emit(io, options.json ? toJson(report) : renderTuneText(report, designPath), options.out, inputs);

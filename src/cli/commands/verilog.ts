@@ -11,7 +11,7 @@ import { loadDesign, loadModel, type ModelOptions } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { optionalWholeNumber } from '../options.js';
 import { MAX_TESTBENCH_PERIODS } from '../run-limits.js';
-import { warnTo } from '../warn.js';
+import { noteTo, warnTo } from '../warn.js';
 
 export interface VerilogOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -49,6 +49,6 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
     text += verilogTestbench(module, 1 / design.clock.frequency, corner.duty, periods, options.vcd ?? `${module.name}.vcd`);
   }
   emit(io, text, options.out, inputs);
-  if (options.out !== undefined && options.out !== '-') io.stderr(`wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)\n`);
+  if (options.out !== undefined && options.out !== '-') noteTo(io, `wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)`);
   return 0;
 }

@@ -13,6 +13,7 @@ import { checkOutput, emit, inputFiles } from '../output.js';
 import { wholeNumber } from '../options.js';
 import { MAX_VCD_PERIODS } from '../run-limits.js';
 import { parseNets, requireOut } from '../out-options.js';
+import { warnTo } from '../warn.js';
 
 export interface WavesOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -30,7 +31,7 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
   const timescale = options.timescale as Timescale;
   const periods = wholeNumber('--periods', options.periods, { min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' });
   const nets = parseNets(options.nets);
-  const loaded = loadResolved(designPath, options.set, options, (m) => io.stderr(`phasegap: warning: ${m}\n`), io.readStdin);
+  const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
   checkOutput(out, inputs);

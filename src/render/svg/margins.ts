@@ -7,7 +7,7 @@
 import type { G } from '@svgdotjs/svg.js';
 import { scaleSymlog, type ScaleSymLog } from 'd3-scale';
 import type { MarginRow } from '../margins.js';
-import { marginUnit } from '../../checks/check.js';
+import { CIRCUIT_KINDS, marginUnit } from '../../checks/check.js';
 import {
   CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape,
 } from '../palette.js';
@@ -93,9 +93,9 @@ function truncate(text: string, size: number, widthPx: number): string {
   return `${t}\u2026`;
 }
 
-/** The two kinds of margin on the chart, each on its own axis: timing (s) and switch bias (V). */
+/** The kinds of margin on the chart, each on its own axis: timing (s), voltage (V), charge (C) and fraction (''). */
 interface AxisUnit {
-  readonly unit: 's' | 'V';
+  readonly unit: 's' | 'V' | 'C' | '';
   /** Width of the linear part around zero, and the least half-span of the axis. */
   readonly linear: number;
   readonly span: number;
@@ -104,17 +104,60 @@ interface AxisUnit {
   readonly tick: (value: number) => string;
   readonly signed: (value: number) => string;
   readonly title: string;
+  /** Heading of the block when it is not the first. */
+  readonly label: string;
 }
 
 const TIME_AXIS: AxisUnit = {
   unit: 's', linear: LINEAR_PART, span: 100e-12, decades: [-11, 0], tick: marginTickLabel, signed: signedTime,
-  title: 'margin (symmetric log scale: linear within 10 ps of zero)',
+  title: 'margin (symmetric log scale: linear within 10 ps of zero)', label: 'timing checks',
 };
 
 const VOLT_AXIS: AxisUnit = {
   unit: 'V', linear: 10e-3, span: 100e-3, decades: [-2, 1], tick: voltTickLabel, signed: signedVolts,
-  title: 'switch bias margin in volts (off-state, on-state, stress; symmetric log: linear within 10 mV of zero)',
+  title: 'switch bias margin in volts (off-state, on-state, stress; symmetric log: linear within 10 mV of zero)', label: 'switch bias checks',
 };
+
+/** The volt block when it also holds the circuit's output and ripple checks. */
+const CIRCUIT_VOLT_AXIS: AxisUnit = {
+  ...VOLT_AXIS,
+  title: 'margin in volts (switch bias, circuit output and ripple; symmetric log: linear within 10 mV of zero)', label: 'voltage checks',
+};
+
+const CHARGE_AXIS: AxisUnit = {
+  unit: 'C', linear: 10e-15, span: 100e-15, decades: [-14, -9], tick: chargeTickLabel, signed: signedCharge,
+  title: 'lost charge margin per period in coulombs (symmetric log: linear within 10 fC of zero)', label: 'circuit charge checks',
+};
+
+const FRACTION_AXIS: AxisUnit = {
+  unit: '', linear: 0.01, span: 0.1, decades: [-2, 0], tick: fractionTickLabel, signed: signedFraction,
+  title: 'efficiency margin in percentage points (symmetric log: linear within 1 % of zero)', label: 'circuit efficiency checks',
+};
+
+/** Signed charge for axis ticks: +100 fC, -1 pC, 0. */
+export function chargeTickLabel(coulombs: number): string {
+  if (coulombs === 0) return '0';
+  const a = Math.abs(coulombs);
+  const [unit, name] = a >= 1e-9 ? [1e-9, 'nC'] : a >= 1e-12 ? [1e-12, 'pC'] : [1e-15, 'fC'];
+  return `${coulombs > 0 ? '+' : '-'}${Number((a / unit).toPrecision(3))} ${name}`;
+}
+
+function signedCharge(coulombs: number): string {
+  const a = Math.abs(coulombs);
+  const [unit, name] = a >= 1e-9 ? [1e-9, 'nC'] : a >= 1e-12 ? [1e-12, 'pC'] : [1e-15, 'fC'];
+  return `${coulombs < 0 ? '-' : '+'}${(a / unit).toFixed(2)} ${name}`;
+}
+
+/** Signed fraction for axis ticks, in percent: +10 %, -1 %, 0. */
+export function fractionTickLabel(fraction: number): string {
+  if (fraction === 0) return '0';
+  return `${fraction > 0 ? '+' : '-'}${Number((Math.abs(fraction) * 100).toPrecision(3))} %`;
+}
+
+function signedFraction(fraction: number): string {
+  return `${fraction < 0 ? '-' : '+'}${(Math.abs(fraction) * 100).toFixed(1)} %`;
+}
+
 
 /** Signed voltage for axis ticks: +100 mV, -1 V, 0. */
 export function voltTickLabel(volts: number): string {
@@ -140,11 +183,12 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
   const rowHeight = Math.max(30, lanes * 7 + 12);
   const x0 = MARGIN + LABEL_COLUMN;
   const x1 = width - MARGIN - RESULT_COLUMN;
-  const timeRows = input.rows.filter((r) => marginUnit(r.kind) === 's');
-  const voltRows = input.rows.filter((r) => marginUnit(r.kind) === 'V');
-  const blocks: Array<{ rows: readonly MarginRow[]; axis: AxisUnit }> = [];
-  if (timeRows.length > 0 || voltRows.length === 0) blocks.push({ rows: timeRows, axis: TIME_AXIS });
-  if (voltRows.length > 0) blocks.push({ rows: voltRows, axis: VOLT_AXIS });
+  const rowsIn = (unit: AxisUnit['unit']) => input.rows.filter((r) => marginUnit(r.kind) === unit);
+  const voltRows = rowsIn('V');
+  const voltAxis = voltRows.some((r) => CIRCUIT_KINDS.has(r.kind)) ? CIRCUIT_VOLT_AXIS : VOLT_AXIS;
+  const blocks = [TIME_AXIS, voltAxis, CHARGE_AXIS, FRACTION_AXIS]
+    .map((axis) => ({ rows: axis.unit === 'V' ? voltRows : rowsIn(axis.unit), axis }))
+    .filter((b, k) => b.rows.length > 0 || (k === 0 && input.rows.length === 0));
   let height = TOP;
   for (const [k, b] of blocks.entries()) height += (k > 0 ? BLOCK_HEAD : 0) + b.rows.length * rowHeight + AXIS_ROOM;
   const plotEnd = height;
@@ -192,7 +236,7 @@ function drawBlock(root: G, rows: readonly MarginRow[], axis: AxisUnit, f: Block
     drawText(bg, 'check (requirement)', f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
     drawText(bg, 'worst corner and verdict', f.x1 + 14, f.top - 12, { size: SIZE.small, fill: MUTED, bold: true, className: 'column-head' });
   } else {
-    drawText(bg, 'switch bias checks', f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
+    drawText(bg, axis.label, f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
   }
   drawAxis(block.group(), scale, decadeTicks(lo, hi, axis.decades), f.bottom, f.top, axis);
   rows.forEach((row, i) => drawRow(block.group(), row, i, { top: f.top + i * f.rowHeight, height: f.rowHeight }, scale, processes, f.x0, f.x1, axis));
