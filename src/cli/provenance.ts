@@ -5,6 +5,7 @@ import { provenance, type ErrorBand, type InputFile, type Provenance } from '../
 import type { Io } from './io.js';
 import { sha256, type LoadedDesign } from './load.js';
 import { VERSION } from './version.js';
+import { errorBand } from '../delay/error-band.js';
 
 export interface ProvenanceRun {
   /** The delay model's name as used. */
@@ -30,6 +31,12 @@ function hashFile(path: string): string {
 /** A path as the reader's shell would name it from where the command ran. */
 const shown = (path: string): string => relative(process.cwd(), path) || path;
 
+/** The band measured for this model and card (src/delay/error-band.ts), in the record's terms. */
+function measuredBand(model: string, card: string): ErrorBand | null {
+  const band = errorBand(model, card);
+  return band ? { relative: band.worst, source: `dead time against ngspice on ${band.count} dead times of the shipped designs, test/bench/accuracy.bench.ts` } : null;
+}
+
 export function gatherProvenance(io: Io, loaded: LoadedDesign, run: ProvenanceRun): Provenance {
   const inputs: InputFile[] = [{ role: 'design', path: loaded.designPath, sha256: loaded.hashes.design }];
   if (loaded.hashes.card !== null) inputs.push({ role: 'process card', path: shown(resolve(dirname(loaded.designPath), loaded.processSource)), sha256: loaded.hashes.card });
@@ -43,6 +50,6 @@ export function gatherProvenance(io: Io, loaded: LoadedDesign, run: ProvenanceRu
   }
   return provenance({
     version: VERSION, now: io.now?.() ?? new Date(), command: io.argv ?? [], inputs,
-    model: run.model, errorBand: run.errorBand ?? null, simulator: run.simulator ?? null,
+    model: run.model, errorBand: run.errorBand ?? measuredBand(run.model, loaded.card.name), simulator: run.simulator ?? null,
   });
 }
