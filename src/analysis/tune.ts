@@ -25,7 +25,8 @@ import type { Design } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel } from '../delay/model.js';
 import { analyticModel } from '../delay/analytic.js';
-import { resolveDesign } from './resolve.js';
+import { resolveDesign, type ResolvedDesign } from './resolve.js';
+import { CIRCUIT_KINDS } from '../checks/check.js';
 import { evaluateAll, limitingCheck, type Limiting } from './evaluate.js';
 import { switchFaults, type SwitchFault } from '../checks/bias-checks.js';
 import {
@@ -188,12 +189,15 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
   let simulations = 0;
   const seen = new Map<string, ChainCandidate>();
   const resolveKnobs = (knobs: ChainKnobs) => resolveDesign(withKnobs(design, knobs), card, model);
+  // The search weighs timing only (a circuit solve costs milliseconds per corner); proposals are
+  // checked against the circuit's requirements below, before they are simulated.
+  const resolveTiming = (knobs: ChainKnobs) => withoutCircuit(resolveKnobs(knobs));
   let firstFaults: SwitchFault[] = [];
   const evaluate = (knobs: ChainKnobs): ChainCandidate => {
     const key = `${comboKey(knobs)}/${knobs.stageLoad}`;
     const known = seen.get(key);
     if (known) return known;
-    const results = evaluateAll(resolveKnobs(knobs));
+    const results = evaluateAll(resolveTiming(knobs));
     if (seen.size === 0) firstFaults = switchFaults(results.map((r) => ({ name: r.corner.name, checks: r.checks })));
     evaluations += results.length;
     let deadMin = Infinity;
@@ -220,7 +224,7 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     return candidate;
   };
   const meetsAt = (c: ChainCandidate, need: number) => c.pass && (c.limiting === null || (c.limiting.margin !== null && c.limiting.margin >= need));
-  const current = evaluate(ownKnobs(gen));
+  let current = evaluate(ownKnobs(gen));
   const faults = firstFaults;
   const found: ChainCandidate[] = [];
   const passing = () => [...seen.values()].filter((c) => c.pass && c !== current)
@@ -282,7 +286,7 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     for (let round = 0; round < HEADROOM_ROUNDS; round++) {
       const c = leastMeeting(combo, need);
       if (!c) return null;
-      const resolved = resolveKnobs(c.knobs);
+      const resolved = resolveTiming(c.knobs);
       const results = evaluateAll(resolved);
       const dies = typeof auto === 'number' ? HEADROOM_DIES : auto.dies;
       const run = mismatchAtLimits(resolved, results, typeof auto === 'number' ? HEADROOM_CORNERS : auto.corners, dies, typeof auto === 'number' ? design.montecarlo?.seed ?? 1 : auto.seed);
@@ -345,6 +349,23 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     if (v) proposals.push(v);
   }
   rank(proposals);
+  /** The candidate with the circuit's requirements checked too (null when it meets them). */
+  const circuitFailure = (c: ChainCandidate): ChainCandidate | null => {
+    const results = evaluateAll(resolveKnobs(c.knobs));
+    evaluations += results.length;
+    const failing = failingChecks(results.map((r) => ({ ...r, checks: r.checks.filter((k) => CIRCUIT_KINDS.has(k.kind)) })));
+    return failing.length === 0 ? null : { ...c, pass: false, meets: false, failing, limiting: limitingCheck(results) };
+  };
+  let circuitClosest: ChainCandidate | null = null;
+  if (design.circuit !== undefined) {
+    current = circuitFailure(current) ?? current;
+    for (let i = proposals.length - 1; i >= 0; i--) {
+      const failed = circuitFailure(proposals[i]!);
+      if (!failed) continue;
+      circuitClosest = failed;
+      proposals.splice(i, 1);
+    }
+  }
   const simulate = options.simulate;
   if (simulate) {
     const n = Math.min(options.confirmTop ?? 3, proposals.length);
@@ -369,5 +390,12 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     proposals.sort((a, b) => confirmGroup(a) - confirmGroup(b) || order.get(a)! - order.get(b)!);
   }
   if (proposals.length > 0) return result(proposals, null, null);
-  return result([], closest, diagnose(design, closest, [...seen.values()]));
+  const nearest = circuitClosest ?? closest;
+  return result([], nearest, diagnose(design, nearest, [...seen.values()]));
+}
+
+/** The design without its circuit section: what the chain search evaluates. */
+function withoutCircuit(resolved: ResolvedDesign): ResolvedDesign {
+  if (resolved.design.circuit === undefined) return resolved;
+  return { ...resolved, design: { ...resolved.design, circuit: undefined } };
 }

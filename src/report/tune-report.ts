@@ -8,6 +8,7 @@ import { formatMargin } from './margin-format.js';
 import { CAUTIONS } from './cautions.js';
 import { shellCommand } from './shell-quote.js';
 import { renderTable } from './text-table.js';
+import { CIRCUIT_KINDS, type CheckKind } from '../checks/check.js';
 
 export interface TuneCandidateReport {
   readonly stages: number;
@@ -222,6 +223,8 @@ function diagnosisLines(d: Diagnosis, closest: TuneCandidateReport | null): stri
     out.push('it wants more delay than the search allows: widen it with --max-load or --stages');
   } else if (d.stuck.length > 0) {
     out.push('a wider search cannot help while a switch does not switch.');
+  } else if (d.failing.length > 0 && d.failing.every((f) => CIRCUIT_KINDS.has(f.kind as CheckKind))) {
+    out.push('only the circuit\'s own requirements fail, with timing that passes: no delay chain fixes them; the circuit (its switches or diodes, capacitors, load or clock frequency) needs a change');
   } else {
     out.push('it wants shorter chains or longer phases: a wider search cannot help; a lower clock frequency (see phasegap fmax) or other switch sizes may be needed');
   }

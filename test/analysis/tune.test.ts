@@ -342,3 +342,27 @@ describe('tuneChains: diagnosis', () => {
     expect(result.diagnosis!.failing.every((f) => f.kind === 'dead-time-min')).toBe(true);
   });
 });
+
+describe('tune on a design with a circuit section', () => {
+  it('searches on timing, then drops proposals that miss the circuit requirements and says no chain can fix them', () => {
+    // doubler-diode-pump: two diode drops keep V(out) below 1.75 VDD at every corner (an invented scenario).
+    const { design: d, card } = loadDesign(design('doubler-diode-pump'));
+    const result = tuneChains(d, card, undefined, defaultSpace(d), { top: 1, confirmTop: 0 });
+    expect(result.proposals).toEqual([]);
+    expect(result.current.pass).toBe(false);
+    expect(result.diagnosis!.failing.map((f) => f.kind).sort()).toEqual(['efficiency-min', 'output-min']);
+    const r = cli('tune', design('doubler-diode-pump'), '--top', '1', '--no-confirm');
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain('only the circuit\'s own requirements fail, with timing that passes: no delay chain fixes them');
+  });
+
+  it('keeps a proposal that meets them (doubler-pump)', () => {
+    const { design: d, card } = loadDesign(design('doubler-pump'));
+    const result = tuneChains(d, card, undefined, defaultSpace(d), { top: 1, confirmTop: 0 });
+    expect(result.current.pass).toBe(true);
+    expect(result.proposals.length).toBe(1);
+    const checks = evaluateAll(resolveDesign(withKnobs(d, result.proposals[0]!.knobs), card)).flatMap((c) => c.checks);
+    expect(checks.filter((c) => c.kind === 'output-min').length).toBe(45);
+    expect(checks.every((c) => c.pass)).toBe(true);
+  });
+});
