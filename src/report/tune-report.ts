@@ -253,10 +253,12 @@ export function knobsText(r: TuneReport): string {
   return parts.join('; ');
 }
 
-export function renderTuneText(r: TuneReport, designPath: string): string {
+/** `errorBand`: the delay model's measured error line (`errorBandText`), printed under the header. */
+export function renderTuneText(r: TuneReport, designPath: string, errorBand?: string): string {
   const out: string[] = [];
   const headroom = searchedHeadroom(r.searched.headroom);
   out.push(`${r.design}: delay chains tuned at ${formatEngineering(r.frequency, 'Hz', 4)} over ${r.corners} corners${headroom} (${objectiveText(r.objective)})`);
+  if (errorBand !== undefined) out.push(errorBand);
   out.push('');
   const rows = [row('current design', r.current), ...r.proposals.map((p, i) => row(`proposal ${i + 1}`, p))];
   if (r.closest) rows.push(row('closest (fails)', r.closest));

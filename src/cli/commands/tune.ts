@@ -13,6 +13,7 @@ import { MAX_TOP } from '../run-limits.js';
 import { confirmCorners } from '../confirm-run.js';
 import { modelFile } from '../model-file.js';
 import { noteTo, warnTo } from '../warn.js';
+import { errorBandText } from '../../delay/error-band.js';
 
 export interface TuneOptions extends ModelOptions {
   readonly set: readonly string[];
@@ -101,6 +102,6 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   if (simulate && io.stderrIsTTY && !options.json) noteTo(io, `confirming the first ${confirmTop} proposals in ngspice...`);
   const result = tuneChains(design, card, resolved.model, space, { simulate, confirmTop, top });
   const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top, note);
-  emit(io, options.json ? toJson(report) : renderTuneText(report, designPath), options.out, inputs);
+  emit(io, options.json ? toJson(report) : renderTuneText(report, designPath, errorBandText(resolved.model.name, card.name)), options.out, inputs);
   return report.verdict === 'pass' ? 0 : 1;
 }
