@@ -9,15 +9,10 @@ import { parseLevel, type Level } from '../schema/level.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { capacitanceMatrix, invertCapacitance, type Capacitor } from './capacitance.js';
 import type { CircuitLoad } from './figures.js';
+import type { ModelDiode } from './model.js';
 
-export interface NetworkDiode {
-  readonly name: string;
-  readonly a: number;
-  readonly b: number;
-  readonly drop: number;
-  readonly gOn: number;
-  readonly gOff: number;
-}
+/** A diode of the network is the solver's piecewise-linear diode, on network node indices. */
+export type NetworkDiode = ModelDiode;
 
 export interface CircuitNetwork {
   readonly spec: CircuitSpec;
