@@ -4,6 +4,8 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { chooseCorners } from '../analysis/corner-choice.js';
 import { generatorDeck } from '../spice/deck.js';
 import { compareCorner } from '../spice/confirm.js';
+import { circuitDeck } from '../spice/circuit-deck.js';
+import { compareCircuit } from '../spice/circuit-measures.js';
 import type { CornerComparison } from '../report/confirm-report.js';
 import { parseSimulatorOutput } from '../spice/results.js';
 import { checkSimulator } from '../spice/runner.js';
@@ -32,7 +34,9 @@ export interface ConfirmRun {
 
 /** Writes the decks of the chosen corners, runs ngspice on them and compares with the model. */
 export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string,
-  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean },
+  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean;
+    /** Also simulate the circuit section to its periodic steady state (confirm; tune confirms timing only). */
+    readonly circuit?: boolean },
   cornersFlag = '--corners'): ConfirmRun {
   const jobs = parseJobs(options.jobs);
   const tolerance = parseTolerance(options.tolerance, resolved.design.requirements.confirmTolerance);
@@ -40,14 +44,24 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const modelPath = modelFile(resolved.card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
-  if (io.stderrIsTTY && !options.quiet) noteTo(io, `simulating ${decks.length} corners with ${simulator}, ${jobs} at a time...`);
-  const outputs = runDecksWithProgress(io, decks.map((d) => ({ name: d.corner.name, text: d.text })), { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
+  const circuits = options.circuit && resolved.design.circuit ? corners.map((corner) => circuitDeck(resolved, corner, { modelPath })) : [];
+  if (io.stderrIsTTY && !options.quiet) noteTo(io, `simulating ${decks.length} corners${circuits.length > 0 ? ' and their circuit' : ''} with ${simulator}, ${jobs} at a time...`);
+  const all = [...decks.map((d) => ({ name: d.corner.name, text: d.text })), ...circuits.map((d) => ({ name: `${d.corner.name} circuit`, text: d.text }))];
+  const outputs = runDecksWithProgress(io, all, { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, [...deck.quantities.map((q) => q.name), ...deck.ron.map((r) => r.name)]);
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
       throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
     }
-    return compareCorner(deck, parsed, tolerance);
+    const timing = compareCorner(deck, parsed, tolerance);
+    const circuit = circuits[i];
+    if (!circuit) return timing;
+    const measured = parseSimulatorOutput(outputs[decks.length + i]!.output, circuit.measures);
+    if (measured.errors.length > 0 && [...measured.values.values()].every((v) => v === null)) {
+      throw inputError('ngspice', circuit.corner.name, `failed on the circuit deck of this corner: ${measured.errors[0]}`);
+    }
+    const compared = compareCircuit(circuit, measured);
+    return { ...timing, circuit: compared, errors: [...timing.errors, ...measured.errors], pass: timing.pass && compared.pass };
   });
   return { simulator, tolerance, comparisons };
 }

@@ -42,6 +42,8 @@ export interface CornerComparison {
   readonly ron: readonly RonComparison[];
   /** Errors the simulator reported. */
   readonly errors: readonly string[];
+  /** The circuit the switches serve, simulated to its periodic steady state (designs with a circuit section). */
+  readonly circuit?: CircuitComparison;
   readonly pass: boolean;
 }
 
@@ -65,4 +67,50 @@ export function worstDifference(corners: readonly CornerComparison[]): { corner:
     }
   }
   return worst;
+}
+
+/**
+ * Tolerances of the circuit figures: the mean output within 2 % of the corner's VDD, ripple and
+ * efficiency within 10 % of the simulator's value. Lost charge is shown, not judged: the
+ * simulator's figure also carries the displacement charge of the device capacitances.
+ */
+export const CIRCUIT_TOLERANCE = { output: 0.02, ripple: 0.10, efficiency: 0.10 } as const;
+
+export type CircuitFigureName = 'output' | 'ripple' | 'efficiency' | 'lost charge';
+
+export interface CircuitFigureComparison {
+  readonly figure: CircuitFigureName;
+  /** 'V', 'C' or '' (a fraction). */
+  readonly unit: 'V' | 'C' | '';
+  readonly model: number | null;
+  /** null when the simulator could not measure it. */
+  readonly simulator: number | null;
+  /** output: (model - sim) / VDD; ripple and efficiency: (model - sim) / |sim|; null when not judged or not measured. */
+  readonly difference: number | null;
+  /** Largest allowed |difference|; null when the figure is shown, not judged. */
+  readonly tolerance: number | null;
+  readonly pass: boolean;
+}
+
+/** Powers over the last simulated period, W. */
+export interface CircuitPowers {
+  /** Drawn from the circuit's rails. */
+  readonly input: number;
+  /** Drawn by the clock generator, switch bodies and gates. */
+  readonly generator: number;
+  /** Taken by the load. */
+  readonly output: number;
+}
+
+export interface CircuitComparison {
+  /** Periods simulated from the solver's steady state. */
+  readonly periods: number;
+  /** Mean output of the last period less that of the one before, V. */
+  readonly drift: number | null;
+  /** Whether the last three periods show the output settled (see circuit-measures.ts). */
+  readonly settled: boolean;
+  readonly figures: readonly CircuitFigureComparison[];
+  readonly power: { readonly model: CircuitPowers; readonly simulator: CircuitPowers | null };
+  /** Settled, and every judged figure within its tolerance. */
+  readonly pass: boolean;
 }

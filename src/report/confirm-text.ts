@@ -1,7 +1,7 @@
 /** The side-by-side table of `phasegap confirm`. */
-import { formatSignedTime, formatTime } from '../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import { renderTable } from './text-table.js';
-import type { CornerComparison } from './confirm-report.js';
+import type { CircuitFigureComparison, CornerComparison } from './confirm-report.js';
 import { RON_TOLERANCE, worstDifference } from './confirm-report.js';
 
 /** Ohms with three significant figures: 119 ohm, 1.23 kohm. */
@@ -51,6 +51,7 @@ export function renderConfirmText(s: ConfirmSummary): string {
       { header: s.simulator, align: 'right' }, { header: 'difference', align: 'right' }, { header: 'tolerance', align: 'left' },
     ], rons), '');
   }
+  out.push(...circuitLines(s));
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
   const worst = worstDifference(s.corners);
   if (worst) out.push(`largest difference: ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})`);
@@ -61,6 +62,37 @@ export function renderConfirmText(s: ConfirmSummary): string {
   const differ = pairs.filter((p) => p[4] !== 'alike').length;
   const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
     : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;
-  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike})`);
+  const circuits = s.corners.filter((c) => c.circuit);
+  const circuitWords = circuits.length === 0 ? '' : `, circuit figures within tolerance at ${circuits.filter((c) => c.circuit!.pass).length}/${circuits.length} corners`;
+  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike}${circuitWords})`);
   return `${out.join('\n')}\n`;
+}
+
+function figureValue(f: CircuitFigureComparison, v: number | null): string {
+  if (v === null) return 'not measured';
+  return f.unit === '' ? `${(v * 100).toFixed(1)} %` : formatEngineering(v, f.unit);
+}
+
+/** The circuit figures at periodic steady state, model against simulator, and each run's settling and powers. */
+function circuitLines(s: ConfirmSummary): string[] {
+  const corners = s.corners.filter((c) => c.circuit);
+  if (corners.length === 0) return [];
+  const rows = corners.flatMap((c) => c.circuit!.figures.map((f) => [c.corner, f.figure, figureValue(f, f.model), figureValue(f, f.simulator),
+    f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`,
+    f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER']));
+  const out = ['circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):', ''];
+  out.push(renderTable([
+    { header: 'corner', align: 'left' }, { header: 'figure', align: 'left' }, { header: 'model', align: 'right' },
+    { header: s.simulator, align: 'right' }, { header: 'difference', align: 'right' }, { header: 'tolerance', align: 'left' },
+  ], rows), '');
+  for (const c of corners) {
+    const k = c.circuit!;
+    const drift = k.drift === null ? 'not measured' : `${formatEngineering(k.drift, 'V')} per period`;
+    const power = (p: { input: number; generator: number; output: number }) =>
+      `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
+    out.push(`${c.corner}: ${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});`
+      + ` model ${power(k.power.model)}; ${s.simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`);
+  }
+  out.push('');
+  return out;
 }

@@ -32,6 +32,7 @@ export interface ComparedCorner {
   readonly corner: string;
   readonly quantities: ReadonlyArray<{ readonly quantity: string; readonly kind: string; readonly simulator: number | null; readonly pass: boolean }>;
   readonly breakBeforeMake: ReadonlyArray<{ readonly check: string; readonly agrees: boolean }>;
+  readonly circuit?: { readonly settled: boolean; readonly figures: ReadonlyArray<{ readonly figure: string; readonly pass: boolean }> };
 }
 
 export interface Confirmation {
@@ -87,6 +88,10 @@ export function confirmPart(c: Confirmation | null, deadTime?: { readonly min?: 
   if (over.length > 0) problems.push(`${over.length} quantit${over.length === 1 ? 'y' : 'ies'} beyond ${formatPercent(c.tolerance, 1)} (first: ${over[0]})`);
   const pairs = c.comparisons.flatMap((x) => x.breakBeforeMake.filter((b) => !b.agrees).map((b) => `${b.check} at ${x.corner}`));
   if (pairs.length > 0) problems.push(`${pairs.length} break-before-make pair${pairs.length === 1 ? '' : 's'} disagree${pairs.length === 1 ? 's' : ''} (first: ${pairs[0]})`);
+  const figures = c.comparisons.flatMap((x) => (x.circuit?.figures ?? []).filter((f) => !f.pass).map((f) => `${f.figure} at ${x.corner}`));
+  if (figures.length > 0) problems.push(`${figures.length} circuit figure${figures.length === 1 ? '' : 's'} beyond tolerance (first: ${figures[0]})`);
+  const unsettled = c.comparisons.filter((x) => x.circuit && !x.circuit.settled).map((x) => x.corner);
+  if (unsettled.length > 0) problems.push(`the circuit did not settle in ${c.simulator} at ${unsettled.length} corner${unsettled.length === 1 ? '' : 's'} (first: ${unsettled[0]})`);
   for (const x of c.comparisons) {
     for (const q of x.quantities) {
       if (q.kind !== 'dead' || q.simulator === null) continue;

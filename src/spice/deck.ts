@@ -42,6 +42,25 @@ export interface DeckOptions {
   readonly modelPath: string;
   /** Largest internal time step as a fraction of the period (default 1/2000). */
   readonly maxStepFraction?: number;
+  /** The circuit the switches serve, in place of holding them at their signal level (circuit-deck.ts). */
+  readonly circuit?: DeckCircuit;
+}
+
+/** What a circuit deck puts into the generator's deck. */
+export interface DeckCircuit {
+  /** Deck nodes of each switch's two terminals, in the design's switch order. */
+  readonly switchNodes: readonly (readonly [string, string])[];
+  /** The circuit's elements and initial conditions, written after the switches. */
+  readonly lines: readonly string[];
+  /** End of the transient, s. */
+  readonly stop: number;
+  /** Measurements in place of the generator's (the timing is confirmed by its own deck). */
+  readonly measures: readonly string[];
+}
+
+/** Deck node of a level-shifted switch gate behind its charge sense source (circuit decks only). */
+export function sensedGate(shifter: string): string {
+  return `${shifter}_g`;
 }
 
 /** The first clock edge comes after an eighth of a period; the measured period is the second. */
@@ -60,8 +79,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const T = 1 / design.clock.frequency;
   const tr = design.clock.transition;
   const firstEdge = FIRST_EDGE * T;
-  const window: DeckWindow = { start: firstEdge + T, period: T, duty: corner.duty };
-  const stop = window.start + 1.3 * T;
+  const window = deckWindow(T, corner.duty);
+  const stop = options.circuit?.stop ?? window.start + 1.3 * T;
   const nodes = spiceNodeNames(netlist.netNames);
   const node = (net: string) => nodes.get(net)!;
   const quantities = deckQuantities({ netlist, result: result.simulation, measurement: result.measurement, devices, switches: resolved.switches, node, window });
@@ -92,27 +111,34 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices));
+  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices, options.circuit));
+  if (options.circuit) lines.push(...options.circuit.lines);
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
   lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
   netlist.netNames.forEach((net, n) => {
     if (n !== netlist.clock) lines.push(`.nodeset v(${node(net)})=${start[n] === 1 ? spiceNumber(vdd) : '0'}`);
   });
-  const ron = ronBench(resolved.switches, devices, models.geometry, window.start);
+  const ron = options.circuit ? { lines: [], quantities: [] } : ronBench(resolved.switches, devices, models.geometry, window.start);
   if (ron.lines.length > 0) lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
   const maxStep = (options.maxStepFraction ?? 1 / 2000) * T;
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
-  for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
+  if (options.circuit) lines.push(...options.circuit.measures);
+  else for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
   lines.push('.end', '');
   const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
     name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
   }));
-  return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake, ron: ron.quantities };
+  return { text: lines.join('\n'), corner, quantities: options.circuit ? [] : quantities, window, breakBeforeMake, ron: ron.quantities };
+}
+
+/** The measured period of a deck: it opens at the clock's second rising edge. */
+export function deckWindow(period: number, duty: number): DeckWindow {
+  return { start: FIRST_EDGE * period + period, period, duty };
 }
 
 function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
-  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices): string[] {
+  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices, circuit?: DeckCircuit): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -139,16 +165,19 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
         return;
       }
       devices.push(...built);
-      gates.push(shifterNode(i, j));
+      if (!circuit) { gates.push(shifterNode(i, j)); continue; }
+      devices.push(`vq${shifterNode(i, j)} ${shifterNode(i, j)} ${sensedGate(shifterNode(i, j))} DC 0`);
+      gates.push(sensedGate(shifterNode(i, j)));
     }
     const signal = levelAt(plan.signal.min, vdd);
     plan.devices.forEach((device, j) => {
       const n = device.kind === 'n';
       const bulk = bulkLevel(plan, device.kind, vdd);
-      const terminal = bias(signal);
+      const [drain, source] = circuit?.switchNodes[i] ?? [bias(signal), bias(signal)];
       const geo = { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel };
-      devices.push(`${mosfet(`msw${i}_${j}`, terminal, gates[j]!, terminal, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)}${spiceInlineComment(plan.name)}`);
+      devices.push(`${mosfet(`msw${i}_${j}`, drain, gates[j]!, source, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)}${spiceInlineComment(plan.name)}`);
     });
   });
-  return devices.length === 0 ? [] : ['', '* switches (gate loads; drain and source held at the signal level)', ...lines, ...devices];
+  const words = circuit ? 'on the circuit\'s nodes' : 'gate loads; drain and source held at the signal level';
+  return devices.length === 0 ? [] : ['', `* switches (${words})`, ...lines, ...devices];
 }

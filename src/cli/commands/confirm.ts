@@ -35,7 +35,7 @@ export function runConfirm(io: Io, designPath: string, options: ConfirmOptions):
   checkOutput(options.junit, inputs, '--junit');
   const model = loadModel(card, cardDir, options, warnTo(io));
   const resolved = resolveDesign(design, card, model);
-  const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json });
+  const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json, circuit: true });
   const pass = comparisons.every((c) => c.pass);
   const verdict = verdictOf({ corners: null, mc: null, confirm: { simulator, tolerance, comparisons }, deadTime: design.requirements.deadTime, hints: CONFIRM_HINTS });
   const record = gatherProvenance(io, loaded, { model: model.name, options, simulator, spice: true });
