@@ -80,7 +80,7 @@ export interface CircuitDeck {
 export function deckSupplies(text: string): { source: string; node: string; volts: number }[] {
   const out: { source: string; node: string; volts: number }[] = [];
   for (const line of text.split('\n')) {
-    const m = /^(v\S+)\s+(\S+)\s+0\s+DC\s+(\S+)\s*(?:;.*)?$/i.exec(line);
+    const m = /^(v\S+)\s+(\S+)\s+0\s+DC\s+(\S+)\s*(?:[$;].*)?$/i.exec(line);
     if (m && Number(m[3]) !== 0 && Number.isFinite(Number(m[3]))) out.push({ source: m[1]!.toLowerCase(), node: m[2]!, volts: Number(m[3]) });
   }
   return out;
