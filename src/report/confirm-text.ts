@@ -68,7 +68,8 @@ export function renderConfirmText(s: ConfirmSummary): string {
   return `${out.join('\n')}\n`;
 }
 
-function figureValue(f: CircuitFigureComparison, v: number | null): string {
+/** A circuit figure's value for people: 3.33 V, 19.9 mV, 48.1 %, 271 fC. */
+export function formatCircuitFigure(f: Pick<CircuitFigureComparison, 'unit'>, v: number | null): string {
   if (v === null) return 'not measured';
   return f.unit === '' ? `${(v * 100).toFixed(1)} %` : formatEngineering(v, f.unit);
 }
@@ -77,7 +78,7 @@ function figureValue(f: CircuitFigureComparison, v: number | null): string {
 function circuitLines(s: ConfirmSummary): string[] {
   const corners = s.corners.filter((c) => c.circuit);
   if (corners.length === 0) return [];
-  const rows = corners.flatMap((c) => c.circuit!.figures.map((f) => [c.corner, f.figure, figureValue(f, f.model), figureValue(f, f.simulator),
+  const rows = corners.flatMap((c) => c.circuit!.figures.map((f) => [c.corner, f.figure, formatCircuitFigure(f, f.model), formatCircuitFigure(f, f.simulator),
     f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`,
     f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER']));
   const out = ['circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):', ''];

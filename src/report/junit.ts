@@ -12,6 +12,7 @@ import { mcPercent, type McReport } from './mc-report.js';
 import { provenanceLines, type Provenance } from './provenance.js';
 import type { RunVerdict } from './verdict.js';
 import { formatSignedTime, formatTime } from '../units/format.js';
+import { formatCircuitFigure } from './confirm-text.js';
 
 
 export interface JunitCase {
@@ -106,6 +107,12 @@ export function confirmSuite(design: string, simulator: string, tolerance: numbe
     for (const b of c.breakBeforeMake) {
       const words = `margin: model ${formatSignedTime(b.model)}, ${simulator} ${formatSignedTime(b.simulator, 'not measured')}`;
       cases.push({ name: `${b.check} at ${c.corner}`, className: 'phasegap.confirm.break-before-make', output: words, ...(b.agrees ? {} : { failure: `verdicts disagree; ${words}` }) });
+    }
+    for (const f of c.circuit?.figures ?? []) {
+      if (f.tolerance === null) continue;
+      const words = `model ${formatCircuitFigure(f, f.model)}, ${simulator} ${formatCircuitFigure(f, f.simulator)}${f.difference === null ? '' : `, difference ${(f.difference * 100).toFixed(2)} %`}`
+        + `, tolerance ${(f.tolerance * 100).toFixed(0)} %${f.figure === 'output' ? ` of VDD${c.circuit!.settled ? '' : '; not settled'}` : ''}`;
+      cases.push({ name: `circuit ${f.figure} at ${c.corner}`, className: 'phasegap.confirm.circuit', output: words, ...(f.pass ? {} : { failure: words }) });
     }
   }
   return { name: `${design}: ${simulator} against the model`, cases };

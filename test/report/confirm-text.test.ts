@@ -60,4 +60,25 @@ describe('renderConfirmText', () => {
     const text = renderConfirmText(summary([corner('tt/1.8V/27C', [])]));
     expect(text).toMatch(/^verdict: AGREE \(1\/1 corners within tolerance\)$/m);
   });
+
+  it('adds the circuit table, each run\'s settling and powers, and counts the corners whose circuit agrees', () => {
+    const fig = (figure: 'output' | 'ripple' | 'efficiency' | 'lost charge', unit: 'V' | 'C' | '', model: number, simulator: number, difference: number | null, tolerance: number | null, pass: boolean) =>
+      ({ figure, unit, model, simulator, difference, tolerance, pass });
+    const power = { input: 214e-6, generator: 134e-6, output: 167e-6 };
+    const c = {
+      ...corner('tt/1.8V/27C', []),
+      circuit: {
+        periods: 75, drift: -1.5e-5, settled: true, pass: false, power: { model: power, simulator: null },
+        figures: [fig('output', 'V', 3.345, 3.334, 0.0063, 0.02, true), fig('ripple', 'V', 0.0199, 0.0228, -0.127, 0.1, false),
+          fig('efficiency', '', 0.481, 0.444, 0.082, 0.1, true), fig('lost charge', 'C', 0, 271e-15, null, null, true)],
+      },
+    };
+    const text = renderConfirmText(summary([c]));
+    expect(text).toMatch(/^tt\/1\.8V\/27C\s+output\s+3\.35 V\s+3\.33 V\s+\+0\.6 % of VDD\s+within$/m);
+    expect(text).toMatch(/^tt\/1\.8V\/27C\s+ripple\s+19\.9 mV\s+22\.8 mV\s+-12\.7 %\s+OVER$/m);
+    expect(text).toMatch(/^tt\/1\.8V\/27C\s+efficiency\s+48\.1 %\s+44\.4 %\s+\+8\.2 %\s+within$/m);
+    expect(text).toMatch(/^tt\/1\.8V\/27C\s+lost charge\s+0 C\s+271 fC\s+-\s+shown$/m);
+    expect(text).toContain('tt/1.8V/27C: 75 periods from the solver\'s steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured');
+    expect(text).toMatch(/circuit figures within tolerance at 0\/1 corners\)$/m);
+  });
 });

@@ -90,4 +90,24 @@ describe('mcSuite and confirmSuite', () => {
     ]);
     expect(validate(junitXml([suite], record, junitBuilder))).toBe('');
   });
+
+  it('confirmSuite adds a case per judged circuit figure (lost charge is shown, not judged) and names an unsettled output', () => {
+    const fig = (figure: 'output' | 'ripple' | 'efficiency' | 'lost charge', unit: 'V' | 'C' | '', model: number, simulator: number, difference: number | null, tolerance: number | null, pass: boolean) =>
+      ({ figure, unit, model, simulator, difference, tolerance, pass });
+    const power = { input: 1e-4, generator: 1e-4, output: 1e-4 };
+    const suite = confirmSuite('d', 'ngspice-42', 0.1, [{
+      corner: 'tt', errors: [], pass: false, ron: [], quantities: [], breakBeforeMake: [],
+      circuit: {
+        periods: 36, drift: -0.025, settled: false, pass: false, power: { model: power, simulator: power },
+        figures: [fig('output', 'V', 2.251, 1.348, 0.5017, 0.02, false), fig('ripple', 'V', 0.0288, 0.0284, 0.014, 0.1, true),
+          fig('efficiency', '', 0.151, 0.099, 0.52, 0.1, false), fig('lost charge', 'C', 11e-12, 4.3e-12, null, null, true)],
+      },
+    }]);
+    expect(suite.cases.map((c) => [c.name, c.failure ?? 'pass'])).toEqual([
+      ['circuit output at tt', 'model 2.25 V, ngspice-42 1.35 V, difference 50.17 %, tolerance 2 % of VDD; not settled'],
+      ['circuit ripple at tt', 'pass'],
+      ['circuit efficiency at tt', 'model 15.1 %, ngspice-42 9.9 %, difference 52.00 %, tolerance 10 %'],
+    ]);
+    expect(validate(junitXml([suite], record, junitBuilder))).toBe('');
+  });
 });

@@ -86,6 +86,17 @@ describe('confirmPart', () => {
     expect(confirmPart(comparison(968e-12, true, false)).reason).toBe('1 quantity beyond 10.0 % (first: dead p1->p2 at ff/1.98V/-40C)');
   });
 
+  it('fails when a circuit figure is beyond its tolerance or the circuit did not settle', () => {
+    const base = comparison(968e-12, true);
+    const withCircuit = (settled: boolean, outputPass: boolean): Confirmation => ({
+      ...base, comparisons: base.comparisons.map((c) => ({ ...c, circuit: { settled, figures: [{ figure: 'output', pass: outputPass }, { figure: 'ripple', pass: true }] } })),
+    });
+    expect(confirmPart(withCircuit(true, true)).verdict).toBe('pass');
+    expect(confirmPart(withCircuit(true, false)).reason).toBe('1 circuit figure beyond tolerance (first: output at ff/1.98V/-40C)');
+    expect(confirmPart(withCircuit(false, false)).reason)
+      .toBe('1 circuit figure beyond tolerance (first: output at ff/1.98V/-40C); the circuit did not settle in ngspice-42 at 1 corner (first: ff/1.98V/-40C)');
+  });
+
   it('is not run without a comparison', () => {
     expect(confirmPart(null).verdict).toBe('not-run');
   });
