@@ -2,7 +2,7 @@
  * A complete ngspice testbench of a generator at one corner: every cell as a transistor-level
  * subcircuit sized as the model sizes it, the generator's and the design's extra capacitance, the
  * switches as devices on their gate nets (a level-shifted switch on its shifter's output, the shifter
- * built as the model describes it from XSPICE bridges: see level-shifter.ts), the input clock as a PULSE source, the
+ * a transistor-level cross-coupled shifter sized for the declared delay: see level-shifter.ts), the input clock as a PULSE source, the
  * corner's supply, temperature and device models, and a .meas for every dead time, clean gap,
  * phase width and switch crossing over one steady-state period.
  */
@@ -14,16 +14,16 @@ import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import { unitWidths } from '../cells/card-widths.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
-import { cellSubckt, cellSubcktName, mosfet } from './cells.js';
+import { cellSubckt, cellSubcktName, mosfet, type DeviceGeometry } from './cells.js';
 import { cornerModels } from './models.js';
 import { deckQuantities, measureLine, type DeckWindow, type Quantity } from './measures.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
 import { shifterLines, shifterNode } from './level-shifter.js';
 import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
-import { bulkLevel, gateWave } from '../switches/conduction.js';
-import { shifterScale } from '../switches/shifter-timing.js';
-import { CycleIndex } from '../measure/phases.js';
+import { bulkLevel } from '../switches/conduction.js';
+import { switchGateCapacitance } from '../switches/plan.js';
+import { nominalTransitions, sizeShifter } from './shifter-sizing.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
@@ -92,7 +92,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices));
+  const inputs = resolved.switches.some((plan) => plan.levelShifter) ? nominalTransitions(resolved, corner.duty) : null;
+  lines.push(...switchLines(resolved, vdd, node, models.geometry, devices, (net) => inputs?.(net) ?? tr));
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
   lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
@@ -111,8 +112,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   return { text: lines.join('\n'), corner, quantities, window, breakBeforeMake, ron: ron.quantities };
 }
 
-function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
-  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices): string[] {
+function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) => string, geometry: DeviceGeometry, corner: CornerDevices,
+  nominalInput: (net: string) => number): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -130,15 +131,11 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
     // Each device's gate: its net, or the output of the level shifter its net drives.
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
-      if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
-      const scale = shifterScale(plan.levelShifter, corner);
-      const wave = gateWave(plan, device, cycles, vdd, scale);
-      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd, scale);
-      if (typeof built === 'string') {
-        devices.push(spiceComment(`${plan.name} is left out: ${built}`));
-        return;
-      }
-      devices.push(...built);
+      const ls = plan.levelShifter;
+      if (!ls) { gates.push(node(device.net)); continue; }
+      const rails = { vdd: 'vdd', low: bias(levelAt(ls.low, vdd)), high: bias(levelAt(ls.high, vdd)) };
+      const size = sizeShifter(ls, corner.card, switchGateCapacitance(corner.card, device.kind, device.w, device.l), nominalInput(device.net));
+      devices.push(...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, { ...geometry, l: corner.card.lmin }));
       gates.push(shifterNode(i, j));
     }
     const signal = levelAt(plan.signal.min, vdd);
