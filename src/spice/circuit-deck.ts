@@ -22,7 +22,6 @@ import { levelAt, parseLevel, type Level } from '../schema/level.js';
 import { wrapTime } from '../measure/wrap-time.js';
 import { inputError } from '../errors.js';
 import { generatorDeck, deckWindow, type DeckOptions } from './deck.js';
-import { shifterNode } from './level-shifter.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
 import { spiceComment, spiceInlineComment } from './text.js';
 
@@ -68,8 +67,6 @@ export interface CircuitDeck {
   readonly to: number;
   readonly model: ModelCircuitFigures;
   readonly supplies: readonly DeckSupply[];
-  /** Level-shifted switch gates: the sense source and the shifter's high level, V. */
-  readonly shifters: readonly { readonly source: string; readonly high: number }[];
   /** The load: a current drawn from the output (signed like the output), A, or a resistance, ohm. */
   readonly load: { readonly current: number; readonly resistance: number | null };
   /** Every measurement name the deck writes (lower case). */
@@ -190,15 +187,6 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const clock = `vclock`;
   const clockNode = spiceNodeNames(resolved.netlist.netNames).get(resolved.netlist.netNames[resolved.netlist.clock]!)!;
   meas('e_clock', `INTEG par('-v(${clockNode})*i(${clock})') ${window3(1)}`);
-  const shifters: { source: string; high: number }[] = [];
-  resolved.switches.forEach((plan, i) => {
-    if (!plan.levelShifter) return;
-    plan.devices.forEach((_, j) => {
-      const source = `vq${shifterNode(i, j)}`;
-      shifters.push({ source, high: levelAt(plan.levelShifter!.high, vdd) });
-      meas(`q_${source}`, `INTEG par('abs(i(${source}))') ${window3(1)}`);
-    });
-  });
   design.switches.forEach((_, i) => {
     const c = result.switches[i];
     if (!c || c.status !== 'switching') return;
@@ -213,5 +201,5 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const write = () => generatorDeck(resolved, corner, { modelPath: options.modelPath, maxStepFraction: MAX_STEP, circuit: { switchNodes, lines, stop, measures } });
   const supplies = deckSupplies(write().text).map((s): DeckSupply => ({ source: s.source, volts: s.volts, feeds: /^vcr\d+$/.test(s.source) ? 'circuit' : 'generator' }));
   for (const s of supplies) meas(`q_${s.source}`, `INTEG i(${s.source}) ${window3(1)}`);
-  return { text: write().text, corner, vdd, period: T, periods, from, to: stop, model: modelFigures(circuit), supplies, shifters, load, measures: names };
+  return { text: write().text, corner, vdd, period: T, periods, from, to: stop, model: modelFigures(circuit), supplies, load, measures: names };
 }

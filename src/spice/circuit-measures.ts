@@ -44,11 +44,6 @@ export function simulatedPowers(deck: CircuitDeck, value: (name: string) => numb
   const clock = value('e_clock');
   if (clock === null) return null;
   generator += clock;
-  for (const sh of deck.shifters) {
-    const q = value(`q_${sh.source}`);
-    if (q === null) return null;
-    generator += (q / 2) * Math.abs(sh.high);
-  }
   const mean = value('vout_3');
   // The load's power: a current source's is exact from the mean, a resistor's from the rms.
   let output: number;

@@ -2,7 +2,7 @@
  * A complete ngspice testbench of a generator at one corner: every cell as a transistor-level
  * subcircuit sized as the model sizes it, the generator's and the design's extra capacitance, the
  * switches as devices on their gate nets (a level-shifted switch on its shifter's output, the shifter
- * built as the model describes it from XSPICE bridges: see level-shifter.ts), the input clock as a PULSE source, the
+ * a transistor-level cross-coupled shifter sized for the declared delay: see level-shifter.ts), the input clock as a PULSE source, the
  * corner's supply, temperature and device models, and a .meas for every dead time, clean gap,
  * phase width and switch crossing over one steady-state period.
  */
@@ -14,16 +14,16 @@ import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import { unitWidths } from '../cells/card-widths.js';
 import { levelAt } from '../schema/level.js';
 import type { PrimitiveCell } from '../cells/library.js';
-import { cellSubckt, cellSubcktName, mosfet } from './cells.js';
+import { cellSubckt, cellSubcktName, mosfet, type DeviceGeometry } from './cells.js';
 import { cornerModels } from './models.js';
 import { deckQuantities, measureLine, type DeckWindow, type Quantity } from './measures.js';
 import { spiceNodeNames, spiceNumber } from './names.js';
 import { shifterLines, shifterNode } from './level-shifter.js';
 import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
-import { bulkLevel, gateWave } from '../switches/conduction.js';
-import { shifterScale } from '../switches/shifter-timing.js';
-import { CycleIndex } from '../measure/phases.js';
+import { bulkLevel } from '../switches/conduction.js';
+import { switchGateCapacitance } from '../switches/plan.js';
+import { nominalTransitions, sizeShifter } from './shifter-sizing.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
@@ -56,11 +56,6 @@ export interface DeckCircuit {
   readonly stop: number;
   /** Measurements in place of the generator's (the timing is confirmed by its own deck). */
   readonly measures: readonly string[];
-}
-
-/** Deck node of a level-shifted switch gate behind its charge sense source (circuit decks only). */
-export function sensedGate(shifter: string): string {
-  return `${shifter}_g`;
 }
 
 /** The first clock edge comes after an eighth of a period; the measured period is the second. */
@@ -111,7 +106,8 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  lines.push(...switchLines(resolved, new CycleIndex(result.simulation, netlist), vdd, node, models.geometry, devices, options.circuit));
+  const inputs = resolved.switches.some((plan) => plan.levelShifter) ? nominalTransitions(resolved, corner.duty) : null;
+  lines.push(...switchLines(resolved, vdd, node, models.geometry, devices, (net) => inputs?.(net) ?? tr, options.circuit));
   if (options.circuit) lines.push(...options.circuit.lines);
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
@@ -137,8 +133,8 @@ export function deckWindow(period: number, duty: number): DeckWindow {
   return { start: FIRST_EDGE * period + period, period, duty };
 }
 
-function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, node: (net: string) => string,
-  geometry: { nModel: string; pModel: string; diffusion: number }, corner: CornerDevices, circuit?: DeckCircuit): string[] {
+function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) => string, geometry: DeviceGeometry, corner: CornerDevices,
+  nominalInput: (net: string) => number, circuit?: DeckCircuit): string[] {
   const lines: string[] = [];
   const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
   const bias = (volts: number): string => {
@@ -156,18 +152,12 @@ function switchLines(resolved: ResolvedDesign, cycles: CycleIndex, vdd: number, 
     // Each device's gate: its net, or the output of the level shifter its net drives.
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
-      if (!plan.levelShifter) { gates.push(node(device.net)); continue; }
-      const scale = shifterScale(plan.levelShifter, corner);
-      const wave = gateWave(plan, device, cycles, vdd, scale);
-      const built = typeof wave === 'string' ? `${plan.name}: ${wave}` : shifterLines(`ls${i}_${j}`, plan, node(device.net), shifterNode(i, j), wave, vdd, scale);
-      if (typeof built === 'string') {
-        devices.push(spiceComment(`${plan.name} is left out: ${built}`));
-        return;
-      }
-      devices.push(...built);
-      if (!circuit) { gates.push(shifterNode(i, j)); continue; }
-      devices.push(`vq${shifterNode(i, j)} ${shifterNode(i, j)} ${sensedGate(shifterNode(i, j))} DC 0`);
-      gates.push(sensedGate(shifterNode(i, j)));
+      const ls = plan.levelShifter;
+      if (!ls) { gates.push(node(device.net)); continue; }
+      const rails = { vdd: 'vdd', low: bias(levelAt(ls.low, vdd)), high: bias(levelAt(ls.high, vdd)) };
+      const size = sizeShifter(ls, corner.card, switchGateCapacitance(corner.card, device.kind, device.w, device.l), nominalInput(device.net));
+      devices.push(...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, { ...geometry, l: corner.card.lmin }));
+      gates.push(shifterNode(i, j));
     }
     const signal = levelAt(plan.signal.min, vdd);
     plan.devices.forEach((device, j) => {

@@ -1,52 +1,71 @@
 /**
- * A switch's level shifter in a deck, as the model describes it at the deck's corner (a delay from its input's 50 %
- * crossing to its output's, and linear output ramps between its own low and high levels), built
- * from ngspice's XSPICE bridges: a comparator at half the supply (adc_bridge, high input
- * impedance, so it loads its net as the model assumes: not at all), a digital buffer or inverter
- * holding the delay, and a ramp source (dac_bridge) whose ramp starts at the digital edge and
- * crosses 50 % half a transition later.
+ * A switch's level shifter in a deck, at transistor level, so the deck shows how the shifter
+ * really moves with the corner (the model scales its declared delay: shifter-timing.ts).
+ *
+ * Topology: the cross-coupled (ratioed latch) shifter, common practice for a low-to-high level
+ * converter. An ideal voltage-controlled source copies the gate net (or its complement VDD - v for
+ * an inverting shifter) into the shifter's input, so the shifter loads its net no more than the
+ * model assumes: not at all. From that input, on the core supply: an inverter gives the
+ * complement, and a skewed buffer (a weak n first stage with a capacitor, then an inverter)
+ * delays only the rising edge of the set side's drive. Two n pull-downs (set side on the buffered
+ * input, reset side on the complement) pull the two latch nodes to ground against two p devices
+ * cross-coupled to the high level; a capacitor on each latch node sets the delay. The output
+ * inverter, between the low and the high level, drives the switch's gate from the set-side latch
+ * node. Without the skewed buffer the output would rise on one pull-down edge and fall on the
+ * slower p-device edge; the buffer evens the two out, since the model has one delay for both.
+ * Sizes come from shifter-sizing.ts. The deck checks timing only: the latch swings 0 to the high
+ * level, more than a core device may stand, and no device rating is checked here.
  */
-import type { GateWave } from '../switches/conduction.js';
-import type { SwitchPlan } from '../switches/plan.js';
+import type { DeviceGeometry } from './cells.js';
+import { mosfet } from './cells.js';
 import { spiceNumber } from './names.js';
+import type { ShifterSizing } from './shifter-sizing.js';
 import { spiceComment } from './text.js';
-
-/** Delay of the comparator, s: the smallest the bridge takes, small beside any gate delay. */
-const COMPARATOR_DELAY = 1e-12;
 
 /** Deck node of the shifted gate of device `device` of switch `plan` (indices in the design). */
 export function shifterNode(plan: number, device: number): string {
   return `ls${plan}_${device}`;
 }
 
-/**
- * The digital delays that put each output ramp's 50 % point where the model has it, s, or null
- * when the shifter is faster than half its own output ramp (the bridge cannot start a ramp before
- * its input has switched).
- */
-export function shifterDelays(wave: GateWave, delay: number): { rise: number; fall: number } | null {
-  const rise = delay - COMPARATOR_DELAY - wave.rise.transition / 2;
-  const fall = delay - COMPARATOR_DELAY - wave.fall.transition / 2;
-  return rise > 0 && fall > 0 ? { rise, fall } : null;
+export interface ShifterRails {
+  /** Node of the core supply, of the output's low level and of its high level. */
+  readonly vdd: string;
+  readonly low: string;
+  readonly high: string;
 }
 
-/** The element and model lines of one shifter from `input` to `output`, or why it cannot be built. */
-export function shifterLines(id: string, plan: SwitchPlan, input: string, output: string, wave: GateWave, vdd: number, scale = 1): string[] | string {
-  const ls = plan.levelShifter!;
-  const delay = ls.delay * scale;
-  const delays = shifterDelays(wave, delay);
-  if (!delays) {
-    return `its level shifter's delay (${spiceNumber(ls.delay)} s) is shorter than half its output ramp, which the deck's bridges cannot start early`;
-  }
-  const { low, high } = wave.rise;
+/**
+ * The lines of one shifter named `id` from deck node `input` to `output`: `shifter` is the design's
+ * (inverting or not, its declared delay at the nominal corner, s), `label` names it in the comments.
+ */
+export function shifterLines(id: string, label: string, input: string, output: string, shifter: { invert: boolean; delay: number },
+  rails: ShifterRails, size: ShifterSizing, geometry: DeviceGeometry): string[] {
+  const { invert, delay: declared } = shifter;
+  const { nModel: n, pModel: p } = geometry;
+  const node = (suffix: string) => `${id}_${suffix}`;
+  const [a, b, mid, set, x, y] = ['in', 'inb', 'mid', 'set', 'x', 'y'].map(node) as [string, string, string, string, string, string];
+  const ps = (value: number) => `${spiceNumber(value * 1e12)} ps`;
+  const m = (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) => mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
+  const slowest = Math.max(size.estimate.rise, size.estimate.fall);
   return [
-    spiceComment(`${plan.name}: level shifter, ${spiceNumber(delay)} s, ${spiceNumber(low)} V .. ${spiceNumber(high)} V${ls.invert ? ', inverting' : ''}`
-      + ` (ideal: comparator at VDD/2, digital delay, linear ramps of ${spiceNumber(wave.rise.transition)} s up and ${spiceNumber(wave.fall.transition)} s down)`),
-    `a${id}_in [${input}] [${id}_d] ${id}_cmp`,
-    `.model ${id}_cmp adc_bridge(in_low=${spiceNumber(vdd / 2)} in_high=${spiceNumber(vdd / 2)} rise_delay=${spiceNumber(COMPARATOR_DELAY)} fall_delay=${spiceNumber(COMPARATOR_DELAY)})`,
-    `a${id}_dly ${id}_d ${id}_q ${id}_gate`,
-    `.model ${id}_gate ${ls.invert ? 'd_inverter' : 'd_buffer'}(rise_delay=${spiceNumber(delays.rise)} fall_delay=${spiceNumber(delays.fall)})`,
-    `a${id}_out [${id}_q] [${output}] ${id}_ramp`,
-    `.model ${id}_ramp dac_bridge(out_low=${spiceNumber(low)} out_high=${spiceNumber(high)} out_undef=${spiceNumber(low)} t_rise=${spiceNumber(wave.rise.transition)} t_fall=${spiceNumber(wave.fall.transition)})`,
+    spiceComment(`${label}: cross-coupled level shifter${invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,`
+      + ' skewed buffer on the set side, n pull-downs against a cross-coupled p latch on the high level, output inverter from the low to the high level)'),
+    spiceComment(`${label}: sized for ${ps(size.estimate.rise)} rising, ${ps(size.estimate.fall)} falling, ${ps(size.estimate.transition)} transition at the card's nominal corner`
+      + (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : '')),
+    invert ? `e${id} ${a} ${rails.vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`,
+    m('i1', b, a, '0', '0', n, size.inverterN),
+    m('i2', b, a, rails.vdd, rails.vdd, p, 2 * size.inverterN),
+    m('b1', mid, a, '0', '0', n, size.bufferN),
+    m('b2', mid, a, rails.vdd, rails.vdd, p, size.bufferP),
+    ...(size.bufferCap > 0 ? [`c${id}_mid ${mid} 0 ${spiceNumber(size.bufferCap)}`] : []),
+    m('b3', set, mid, '0', '0', n, size.inverterN),
+    m('b4', set, mid, rails.vdd, rails.vdd, p, 2 * size.inverterN),
+    m('n1', x, set, '0', '0', n, size.pullDown),
+    m('n2', y, b, '0', '0', n, size.pullDown),
+    m('p1', x, y, rails.high, rails.high, p, size.latchP),
+    m('p2', y, x, rails.high, rails.high, p, size.latchP),
+    ...(size.latchCap > 0 ? [`c${id}_x ${x} 0 ${spiceNumber(size.latchCap)}`, `c${id}_y ${y} 0 ${spiceNumber(size.latchCap)}`] : []),
+    m('o1', output, x, rails.low, '0', n, size.outputN),
+    m('o2', output, x, rails.high, rails.high, p, size.outputP),
   ];
 }

@@ -15,7 +15,7 @@ import type { SwitchPlan } from '../switches/plan.js';
 import { rampCrossing } from '../switches/physics.js';
 import { gateWave, turnOnLevel } from '../switches/conduction.js';
 import { shifterScale } from '../switches/shifter-timing.js';
-import { shifterDelays, shifterNode } from './level-shifter.js';
+import { shifterNode } from './level-shifter.js';
 import { levelAt } from '../schema/level.js';
 import { spiceNumber } from './names.js';
 import type { QuantityKind } from '../report/confirm-report.js';
@@ -114,8 +114,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
       const scale = plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1;
       const wave = gateWave(plan, device, cycles, vdd, scale);
       if (typeof wave === 'string') return;
-      // A level-shifted gate is the shifter's output, when the deck can build the shifter.
-      if (plan.levelShifter && !shifterDelays(wave, plan.levelShifter.delay * scale)) return;
+      // A level-shifted gate is the shifter's output.
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);
       const d = device.kind === 'n' ? devices.n : devices.p;
       const { low, high } = wave.rise;

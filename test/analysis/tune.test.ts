@@ -163,7 +163,7 @@ describe('phasegap tune', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^too-tight-clock: delay chains tuned at 20\.00 MHz over 45 corners/);
     // The analytic model's measured band on generic180 (src/delay/error-band.ts), read beside the margins.
-    expect(r.stdout.split('\n')[1]).toBe('model error: dead time -8.8 % to +0.7 % of ngspice (median |error| 3.9 %, 24 dead times on the shipped designs); read small margins against it');
+    expect(r.stdout.split('\n')[1]).toBe('model error: dead time -8.8 % to -0.2 % of ngspice (median |error| 3.9 %, 42 dead times on the shipped designs); read small margins against it');
     expect(r.stdout).toMatch(/current design +2 +1 +40 fF .* FAIL/);
     expect(r.stdout).toMatch(/proposal 1 /);
     const apply = /phasegap check (\S+) (--set generator\.stages=\d+) (--set generator\.stageSize=\S+) (--set generator\.stageLoad=\S+)( --set '?generator\.buffer=\[[\d.,]+\]'?)?( --set generator\.feedbackTap=\d+)?\n/.exec(r.stdout);

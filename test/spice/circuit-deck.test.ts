@@ -54,12 +54,11 @@ describe('circuitDeck', () => {
     expect(lines).toContain('c_c_out cn_out 0 1e-10 $ c_out');
     expect(lines).toContain('vcr1 cr1 0 DC 1.8');
     expect(lines).toContain('vqs3 cn_top qs3 DC 0 $ s_out: current sense');
-    expect(lines.some((l) => /^msw3_0 qs3 ls3_0_g cn_out bias1 pch /.test(l))).toBe(true);
+    expect(lines.some((l) => /^msw3_0 qs3 ls3_0 cn_out bias1 pch /.test(l))).toBe(true);
     expect(lines).toContain('iload cn_out 0 DC 5e-5');
     expectClose(deck.load.current, 50e-6, 1e-12);
     expect(deck.load.resistance).toBeNull();
     expect(deck.supplies.map((s) => [s.source, s.feeds])).toEqual([['vsupply', 'generator'], ['vbias1', 'generator'], ['vcr1', 'circuit']]);
-    expect(deck.shifters).toEqual([{ source: 'vqls1_0', high: 3.6 }, { source: 'vqls3_0', high: 3.6 }]);
     // No timing measurements or R_on benches: the generator's own deck confirms those.
     expect(deck.text).not.toMatch(/\.meas tran (dead|gap|width|sw|i_ron)/);
   });

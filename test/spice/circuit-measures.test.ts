@@ -6,15 +6,14 @@ import { expectClose } from '../helpers.js';
 
 const T = 50e-9;
 
-/** A deck as data: 1.8 V, one circuit rail, the generator supply, one shifted gate at 3.6 V, a 50 uA load. */
+/** A deck as data: 1.8 V, one circuit rail, the generator supply, a 50 uA load. */
 function deck(over: Partial<CircuitDeck> = {}): CircuitDeck {
   return {
     text: '', corner: { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 }, vdd: 1.8, period: T, periods: 75, from: 0, to: T,
     model: { output: 3.345, ripple: 0.0199, efficiency: 0.48, lostCharge: 0, inputPower: 214e-6, generatorPower: 134e-6, outputPower: 167e-6 },
     supplies: [{ source: 'vsupply', volts: 1.8, feeds: 'generator' }, { source: 'vcr1', volts: 1.8, feeds: 'circuit' }],
-    shifters: [{ source: 'vqls1_0', high: 3.6 }],
     load: { current: 50e-6, resistance: null },
-    measures: ['vout_1', 'vout_2', 'vout_3', 'vout_pp', 'e_clock', 'q_vqls1_0', 'qoff_0', 'qrev_0', 'q_vsupply', 'q_vcr1'],
+    measures: ['vout_1', 'vout_2', 'vout_3', 'vout_pp', 'e_clock', 'qoff_0', 'qrev_0', 'q_vsupply', 'q_vcr1'],
     ...over,
   };
 }
@@ -25,7 +24,7 @@ function output(values: Record<string, number | 'failed'>) {
   return parseSimulatorOutput(text, deck().measures);
 }
 
-const settled = { vout_1: 3.33390, vout_2: 3.33391, vout_3: 3.33390, vout_pp: 0.0199, e_clock: 6e-15, q_vqls1_0: 0.4e-12, qoff_0: 0.05e-12, qrev_0: -0.02e-12,
+const settled = { vout_1: 3.33390, vout_2: 3.33391, vout_3: 3.33390, vout_pp: 0.0199, e_clock: 6e-15, qoff_0: 0.05e-12, qrev_0: -0.02e-12,
   q_vsupply: -3.7e-12, q_vcr1: -6.2e-12 };
 
 describe('settledOutput', () => {
@@ -44,11 +43,11 @@ describe('settledOutput', () => {
 });
 
 describe('simulatedPowers', () => {
-  it('adds volts times delivered charge per source, the clock energy and half the shifted gate charge at its high level', () => {
+  it('adds volts times delivered charge per source (the level shifters\' rails among them) and the clock energy', () => {
     const v = output(settled).values;
     const p = simulatedPowers(deck(), (n) => v.get(n) ?? null)!;
     expectClose(p.input, (1.8 * 6.2e-12) / T, 1e-9);
-    expectClose(p.generator, (1.8 * 3.7e-12 + 6e-15 + 0.2e-12 * 3.6) / T, 1e-9);
+    expectClose(p.generator, (1.8 * 3.7e-12 + 6e-15) / T, 1e-9);
     expectClose(p.output, 50e-6 * 3.3339, 1e-9);
   });
   it('takes a resistive load\'s power from the rms of the output', () => {
@@ -76,7 +75,7 @@ describe('compareCircuit', () => {
     const f = Object.fromEntries(c.figures.map((x) => [x.figure, x]));
     expectClose(f.output!.difference!, (3.345 - 3.3339) / 1.8, 1e-6);
     expectClose(f.ripple!.difference!, 0, 1e-9, 'abs');
-    const eff = (50e-6 * 3.3339) / ((1.8 * 6.2e-12 + 1.8 * 3.7e-12 + 6e-15 + 0.2e-12 * 3.6) / T);
+    const eff = (50e-6 * 3.3339) / ((1.8 * 6.2e-12 + 1.8 * 3.7e-12 + 6e-15) / T);
     expectClose(f.efficiency!.simulator!, eff, 1e-9);
     expectClose(f.efficiency!.difference!, (0.48 - eff) / eff, 1e-9);
     expect(f['lost charge']!.tolerance).toBeNull();
