@@ -5,6 +5,8 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { circuitSection, CIRCUIT_HEAD } from '../../src/render/circuit-section.js';
 import { circuitSectionHtml } from '../../src/render/html/circuit-section.js';
 import { formatEngineering } from '../../src/units/format.js';
+import { buildReportModel } from '../../src/render/report-model.js';
+import { renderMarkdownReport } from '../../src/render/markdown/report.js';
 
 const unboosted = resolveYaml(readFileSync(design('doubler-unboosted-pump'), 'utf8'));
 const results = evaluateAll(unboosted);
@@ -46,6 +48,16 @@ describe('circuitSection', () => {
     expect(cells[2]!.attrs).toContain('data-pass="true"');
     expect(cells[7]!.attrs).toContain(`data-value="${first.lostCharge}"`);
     expect(html).toContain('id="figure-circuit-sweep"');
+  });
+
+  it('gives the Markdown page the same table, failing figures marked', () => {
+    const model = buildReportModel(unboosted, results, { processSource: 'fixtures', fmax: null, fmaxNote: 'skipped' });
+    const md = renderMarkdownReport(model, { worst: 'w.svg', all: 'a.svg', margins: 'm.svg' });
+    expect(md).toContain('## Circuit: out at every corner');
+    const c = results[0]!.circuit!;
+    const line = md.split('\n').find((l) => l.startsWith(`| ${results[0]!.corner.name} |`))!;
+    expect(line.split(' | ').slice(1, 3)).toEqual([`${formatEngineering(c.output, 'V')} ✕`, formatEngineering(c.ripple, 'V')]);
+    expect(line.endsWith('| ✕ FAIL: output min, efficiency, lost charge |')).toBe(true);
   });
 
   it('is null for a design without a circuit', () => {
