@@ -31,14 +31,17 @@ export interface CircuitWavesPlace {
   /** Room for a node name in the label column, px. */
   readonly labelWidth: number;
   readonly prefix: string;
+  /** The drawing overlays every corner: the circuit is the one of the corner drawn as the line. */
+  readonly overlay?: boolean;
 }
 
 export function drawCircuitWaves(root: Svg, w: CircuitWaves, scale: ScaleLinear<number, number>, place: CircuitWavesPlace): void {
   const [x0, x1] = scale.range() as [number, number];
   const g = root.group().attr({ class: 'circuit-waves', 'data-corner': xmlText(w.corner) });
   drawText(g, `Circuit at ${w.corner}`, x0, place.top + 20, { size: SIZE.label, bold: true, className: 'circuit-heading' });
-  drawText(g, 'one period of the periodic steady state, on the time scale above; each row has its own volt axis',
-    x0 + textWidth(`Circuit at ${w.corner}`, SIZE.label, true) + 12, place.top + 20, { size: SIZE.small, fill: MUTED, className: 'circuit-note' });
+  const noteX = x0 + textWidth(`Circuit at ${w.corner}`, SIZE.label, true) + 12;
+  const note = `${place.overlay ? 'the corner drawn as the line; ' : ''}one steady-state period on the time scale above; each row on its own volt axis`;
+  drawText(g, fitText(note, SIZE.small, x1 - noteX, false), noteX, place.top + 20, { size: SIZE.small, fill: MUTED, className: 'circuit-note' });
   w.nodes.forEach((node, i) => {
     const top = place.top + HEADER + i * ROW;
     drawRow(g, w, node, scale, top, place, `${place.prefix}-circuit-${i}`);

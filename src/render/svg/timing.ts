@@ -143,7 +143,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
   drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
-  if (d.circuit) drawCircuitWaves(root, d.circuit, overviewScale, { top: rows.bottom, labelRight: x0, labelWidth: LABEL_COLUMN - 14, prefix });
+  if (d.circuit) drawCircuitWaves(root, d.circuit, overviewScale, { top: rows.bottom, labelRight: x0, labelWidth: LABEL_COLUMN - 14, prefix, overlay: d.mode === 'all' });
   drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
   drawRowLabels(ctx, overview, x0 - 10, false);
 
