@@ -16,6 +16,7 @@ import { compareChecks, type Check } from '../checks/check.js';
 import { switchOffIn } from '../checks/bias-checks.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import type { StateIndex } from '../switches/nodes.js';
+import { circuitWaves, type CircuitWaves } from './circuit-waves.js';
 
 export interface CornerWave {
   readonly corner: string;
@@ -143,6 +144,8 @@ export interface Diagram {
   readonly windows: readonly [TimeWindow, TimeWindow];
   /** Corners left out of an overlay and why. */
   readonly excluded: ReadonlyArray<{ readonly corner: string; readonly reason: string }>;
+  /** The reference corner's circuit node waveforms over one period; null without a circuit. */
+  readonly circuit: CircuitWaves | null;
 }
 
 export type DiagramChoice = { readonly kind: 'corner'; readonly index: number } | { readonly kind: 'all'; readonly reference: number };
@@ -194,6 +197,7 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
     settle,
     windows: handoverWindows(period, clockFall, events),
     excluded,
+    circuit: circuitWaves(resolved, reference),
   };
 }
 

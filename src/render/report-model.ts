@@ -21,6 +21,7 @@ import type { CornerComparison } from '../report/confirm-report.js';
 import { runVerdict, type RunVerdict } from '../report/verdict.js';
 import type { Provenance } from '../report/provenance.js';
 import { withRunMetadata } from './svg/metadata.js';
+import { circuitSection, type CircuitSection } from './circuit-section.js';
 
 /** ngspice against the model at some corners, when the report was asked for it. */
 export interface ConfirmSection {
@@ -61,6 +62,8 @@ export interface ReportModel {
   readonly confirm: ConfirmSection | null;
   /** What made the page (version, inputs and their hashes, command, date); null when not recorded. */
   readonly provenance: Provenance | null;
+  /** The circuit's figures per corner and its frequency sweep; null without a circuit section. */
+  readonly circuit: CircuitSection | null;
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
@@ -113,6 +116,7 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
   const verdict = runVerdict(report, extras.mc?.report ?? null, extras.confirm ?? null, resolved.design.requirements.deadTime);
   const provenance = extras.provenance ?? null;
   const stamp = (svg: string) => (provenance === null ? svg : withRunMetadata(svg, verdict, provenance));
+  const circuit = circuitSection(resolved, results);
   return {
     report,
     verdict,
@@ -128,6 +132,7 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     mc: extras.mc ?? null,
     tune: extras.tune ?? null,
     confirm: extras.confirm ?? null,
+    circuit: circuit && { ...circuit, chart: stamp(circuit.chart) },
     svg: {
       worst: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst', run: verdict })),
       all: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all', run: verdict })),

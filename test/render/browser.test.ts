@@ -187,6 +187,57 @@ describe('report in headless Chromium', () => {
     }
   });
 
+  it('doubler-pump: lays out the circuit rows, the circuit table and the frequency chart with no label overlap, and prints them', async () => {
+    const { page, problems } = await openReport('doubler-pump', ['--no-fmax', '--no-tune']);
+    try {
+      expect(problems).toEqual([]);
+      const figures = await page.$$eval('figure', (fs) => fs.map((f) => {
+        const r = f.querySelector('svg')!.getBoundingClientRect();
+        return { id: f.id, w: r.width, h: r.height };
+      }));
+      expect(figures.map((f) => f.id)).toEqual(['figure-worst', 'figure-all', 'figure-margins', 'figure-circuit-sweep']);
+      for (const f of figures) expect(f.w > 0 && f.h > 0, f.id).toBe(true);
+      // Three circuit rows (out, top, bottom) in each timing diagram.
+      expect(await page.$$eval('#figure-worst .circuit-row', (rs) => rs.map((r) => r.getAttribute('data-node')))).toEqual(['out', 'top', 'bottom']);
+      const overlaps = await page.$$eval('figure svg', (svgs) => svgs.flatMap((svg) => {
+        const boxes = [...svg.querySelectorAll('text')].filter((t) => (t.textContent ?? '').trim() !== '')
+          .map((t) => ({ text: t.textContent ?? '', r: t.getBoundingClientRect() })).filter((b) => b.r.width > 0 && b.r.height > 0);
+        const found: string[] = [];
+        for (let i = 0; i < boxes.length; i++) {
+          for (let j = i + 1; j < boxes.length; j++) {
+            const a = boxes[i]!.r;
+            const b = boxes[j]!.r;
+            if (Math.min(a.right, b.right) - Math.max(a.left, b.left) > 0.5 && Math.min(a.bottom, b.bottom) - Math.max(a.top, b.top) > 0.5) found.push(`${boxes[i]!.text} / ${boxes[j]!.text}`);
+          }
+        }
+        return found;
+      }));
+      expect(overlaps).toEqual([]);
+      const table = await page.$eval('#circuit table', (t) => {
+        const r = t.getBoundingClientRect();
+        return { rows: t.querySelectorAll('tbody tr').length, w: r.width, fits: r.right <= document.documentElement.clientWidth + 0.5 };
+      });
+      expect(table.rows).toBe(45);
+      expect(table.w > 0 && table.fits).toBe(true);
+      await page.emulateMedia({ media: 'print' });
+      expect(await page.$eval('#circuit', (s) => getComputedStyle(s).breakBefore)).toBe('page');
+      const printed = await page.$eval('#circuit', (s) => ({
+        table: s.querySelector('table')!.getBoundingClientRect().width, chart: s.querySelector('svg')!.getBoundingClientRect().width,
+      }));
+      expect(printed.table).toBeGreaterThan(0);
+      expect(printed.chart).toBeGreaterThan(0);
+      const pdf = (await page.pdf({ preferCSSPageSize: true, printBackground: true })).toString('latin1');
+      expect(pdf.slice(0, 4)).toBe('%PDF');
+      if (SCREENSHOTS) {
+        mkdirSync(SCREENSHOTS, { recursive: true });
+        await page.emulateMedia({ media: 'screen' });
+        writeFileSync(join(SCREENSHOTS, 'report-doubler-pump.png'), await page.screenshot({ fullPage: true }));
+      }
+    } finally {
+      await page.close();
+    }
+  }, 120_000);
+
   it('prints as an A4 portrait document: a page per section, every drawing laid out', async () => {
     const { page, problems } = await openReport('doubler', ['--no-fmax']);
     try {

@@ -15,6 +15,7 @@ import { mcHead, mcHeadline, mcRows, mcShownNote } from '../mc-section.js';
 import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
 import { provenanceLines } from '../../report/provenance.js';
+import { circuitSectionHtml } from './circuit-section.js';
 
 function table(head: readonly string[], rows: ReadonlyArray<{ cells: readonly string[]; fail?: boolean }>, numeric: ReadonlySet<number>): string {
   const th = head.map((c) => `<th>${h(c)}</th>`).join('');
@@ -107,6 +108,7 @@ ${figure(m.svg.margins, 'Margin of every check at every corner; left of the zero
 <h3>Worst case of each check</h3>
 ${table(['kind', 'check', 'worst margin', 'at corner', 'verdict'], checkRows, new Set([2]))}
 </section>
+${m.circuit ? circuitSectionHtml(m.circuit, m.resolved.design.circuit!.output) : ''}
 ${m.tune ? ((t) => `<section id="tune">
 <h2>Delay chains that pass with the least dead time</h2>
 <p>${t.options.reduce((html, o) => html.split(h(o)).join(`<span class="option">${h(o)}</span>`), h(t.text))}</p>

@@ -29,6 +29,8 @@ td.num { text-align: right; font-family: ${MONO}; white-space: nowrap; }
 .option { font-family: ${MONO}; white-space: nowrap; }
 tr.fail td { background: ${FAIL_TINT}; }
 tr.fail td.verdict-cell { color: ${FAIL}; font-weight: bold; }
+td.fail-cell { color: ${FAIL}; font-weight: bold; background: repeating-linear-gradient(45deg, ${FAIL_TINT} 0 4px, #ffffff 4px 8px); }
+tr.required th { white-space: nowrap; font-weight: normal; color: ${MUTED}; background: #ffffff; }
 .table-wrap { overflow-x: auto; }
 code { font-family: ${MONO}; font-size: 13px; }
 footer { margin-top: 36px; color: ${MUTED}; font-size: 12px; }
@@ -50,6 +52,6 @@ footer { margin-top: 36px; color: ${MUTED}; font-size: 12px; }
   tr { break-inside: avoid; }
   p, li { orphans: 3; widows: 3; }
   footer { margin-top: 12px; }
-  .verdict, .cautions, tr.fail td, th { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
+  .verdict, .cautions, tr.fail td, td.fail-cell, th { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 }
 `;

@@ -55,6 +55,12 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
     c.kind, c.name, c.worst ? formatMargin(c.worst.margin, c.kind) : 'n/a', c.worst?.corner ?? (c.unmeasured[0] ?? ''),
     c.failing === 0 ? `${GLYPH.pass} holds at ${c.corners}` : `${GLYPH.fail} FAIL at ${c.failing}/${c.corners}`,
   ]), new Set([2])), '');
+  if (m.circuit) {
+    const c = m.circuit;
+    out.push(`## Circuit: ${markdownText(m.resolved.design.circuit!.output)} at every corner`, '', markdownParagraph(c.note), '');
+    out.push(table(c.head, [c.required, ...c.rows.map((r) => [r.corner, ...(r.cells.length > 0
+      ? r.cells.map((x) => `${x.text}${x.pass === false ? ` ${GLYPH.fail}` : ''}`) : c.head.slice(2).map(() => '-')), r.verdict])], new Set([1, 2, 3, 4, 5, 6, 7])), '');
+  }
   if (m.tune) {
     const t = tuneTable(m.tune);
     out.push('## Delay chains that pass with the least dead time', '', markdownLine(t.text), '');

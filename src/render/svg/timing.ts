@@ -24,6 +24,7 @@ import { xmlText } from './xml-text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
 import { runTitle } from './metadata.js';
 import type { RunVerdict } from '../../report/verdict.js';
+import { circuitLegendEntries, circuitWavesHeight, drawCircuitWaves } from './circuit-waves.js';
 
 export interface TimingSvgOptions {
   /** Prefix of element ids, unique per drawing when several share one page. */
@@ -120,7 +121,9 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const x0 = MARGIN + LABEL_COLUMN;
   const x1 = width - MARGIN;
   const overviewTop = TITLE_HEIGHT + 44;
-  const overview = layoutRows(d, overviewTop, OVERVIEW, false);
+  const rows = layoutRows(d, overviewTop, OVERVIEW, false);
+  // The circuit's node voltages sit under the whole period's lanes, above its time axis.
+  const overview = { ...rows, bottom: rows.bottom + circuitWavesHeight(d.circuit) };
   const detailTop = overview.bottom + AXIS_HEIGHT + 62;
   const detail = layoutRows(d, detailTop, DETAIL, true);
   const legendTop = detail.bottom + AXIS_HEIGHT + 16;
@@ -140,6 +143,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
   drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
+  if (d.circuit) drawCircuitWaves(root, d.circuit, overviewScale, { top: rows.bottom, labelRight: x0, labelWidth: LABEL_COLUMN - 14, prefix, overlay: d.mode === 'all' });
   drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
   drawRowLabels(ctx, overview, x0 - 10, false);
 
@@ -588,6 +592,7 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
       out.push({ text: 'must be off: the gate holds it off against both terminals', draw: (g, gx, y) => { g.rect(24, 3).move(round(gx), round(y + 7)).fill(FAINT).stroke({ color: MUTED, width: 0.5 }); } });
     }
   }
+  out.push(...circuitLegendEntries(d.circuit));
   if (d.mode === 'all') {
     out.push({ text: `edge band: earliest to latest corner; line: ${d.referenceCorner}`,
       draw: (g, gx, y) => { g.polygon(points([[gx, y + 14], [gx + 10, y + 2], [gx + 24, y + 2], [gx + 14, y + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); } });

@@ -1,0 +1,67 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { design, resolveYaml } from '../helpers.js';
+import { evaluateAll } from '../../src/analysis/evaluate.js';
+import { circuitSection, CIRCUIT_HEAD } from '../../src/render/circuit-section.js';
+import { circuitSectionHtml } from '../../src/render/html/circuit-section.js';
+import { formatEngineering } from '../../src/units/format.js';
+import { buildReportModel } from '../../src/render/report-model.js';
+import { renderMarkdownReport } from '../../src/render/markdown/report.js';
+
+const unboosted = resolveYaml(readFileSync(design('doubler-unboosted-pump'), 'utf8'));
+const results = evaluateAll(unboosted);
+const section = circuitSection(unboosted, results)!;
+
+describe('circuitSection', () => {
+  it('has a row per corner whose numbers are the corner\'s figures', () => {
+    expect(section.rows.length).toBe(45);
+    section.rows.forEach((row, i) => {
+      const c = results[i]!.circuit!;
+      expect(row.corner).toBe(results[i]!.corner.name);
+      expect(row.cells.map((x) => x.value)).toEqual([c.output, c.ripple, c.outputResistance, c.slowLimit, c.fastLimit, c.efficiency, c.lostCharge, c.startupTime]);
+      expect(row.cells[0]!.text).toBe(formatEngineering(c.output, 'V'));
+      expect(row.cells[1]!.text).toBe(formatEngineering(c.ripple, 'V'));
+      expect(row.cells[5]!.text).toBe(`${(c.efficiency! * 100).toFixed(1)} %`);
+      expect(row.cells[6]!.text).toBe(formatEngineering(c.lostCharge, 'C'));
+    });
+  });
+
+  it('marks each figure against its requirement: the unboosted pump misses the output, the efficiency and the lost charge everywhere', () => {
+    for (const row of section.rows) {
+      expect(row.cells.map((x) => x.pass)).toEqual([false, true, null, null, null, false, false, null]);
+      expect(row.pass).toBe(false);
+      expect(row.verdict).toBe('✕ FAIL: output min, efficiency, lost charge');
+    }
+    expect(section.required).toEqual(['required', '≥ 1.75vdd, ≤ 2vdd', '≤ 50.0 mV', '', '', '', '≥ 40.0 %', '≤ 1.00 pC', '', '']);
+    expect(section.head).toEqual(CIRCUIT_HEAD);
+  });
+
+  it('lays the table out in HTML with each number and its SI value, failing cells marked without colour', () => {
+    const html = circuitSectionHtml(section, 'out');
+    const first = results[0]!.circuit!;
+    const row = new RegExp(`<tr class="fail" data-corner="${results[0]!.corner.name}">(.*?)</tr>`).exec(html)![1]!;
+    const cells = [...row.matchAll(/<td([^>]*)>(.*?)<\/td>/g)].map((m) => ({ attrs: m[1]!, text: m[2]! }));
+    expect(cells.length).toBe(CIRCUIT_HEAD.length);
+    expect(cells[1]!.attrs).toContain(`data-value="${first.output}"`);
+    expect(cells[1]!.attrs).toContain('fail-cell');
+    expect(cells[1]!.text).toBe(`${formatEngineering(first.output, 'V')} ✕`);
+    expect(cells[2]!.attrs).toContain('data-pass="true"');
+    expect(cells[7]!.attrs).toContain(`data-value="${first.lostCharge}"`);
+    expect(html).toContain('id="figure-circuit-sweep"');
+  });
+
+  it('gives the Markdown page the same table, failing figures marked', () => {
+    const model = buildReportModel(unboosted, results, { processSource: 'fixtures', fmax: null, fmaxNote: 'skipped' });
+    const md = renderMarkdownReport(model, { worst: 'w.svg', all: 'a.svg', margins: 'm.svg' });
+    expect(md).toContain('## Circuit: out at every corner');
+    const c = results[0]!.circuit!;
+    const line = md.split('\n').find((l) => l.startsWith(`| ${results[0]!.corner.name} |`))!;
+    expect(line.split(' | ').slice(1, 3)).toEqual([`${formatEngineering(c.output, 'V')} ✕`, formatEngineering(c.ripple, 'V')]);
+    expect(line.endsWith('| ✕ FAIL: output min, efficiency, lost charge |')).toBe(true);
+  });
+
+  it('is null for a design without a circuit', () => {
+    const plain = resolveYaml(readFileSync(design('doubler'), 'utf8'));
+    expect(circuitSection(plain, [])).toBeNull();
+  });
+});
