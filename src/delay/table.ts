@@ -1,5 +1,5 @@
 /**
- * The table-driven delay model (SPEC 2.2): characterized delay and output-transition tables per
+ * The table-driven delay model (docs/physics.md, "Gate delay"): characterized delay and output-transition tables per
  * cell, input pin, output edge and corner, indexed by input transition and output load and
  * interpolated bilinearly (the usual non-linear delay model). Loads are re-counted with the
  * characterized pin capacitances (the net's declared and switch capacitance is kept as it is) and

@@ -1,4 +1,4 @@
-/** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (SPEC 2.2). */
+/** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (docs/physics.md, "Gate delay"). */
 import { inputError } from '../errors.js';
 import { parasiticCapacitance } from '../cells/library.js';
 import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../cells/card-widths.js';

@@ -1,5 +1,5 @@
 /**
- * Expands the cross-coupled generator templates into netlists (SPEC 2.3).
+ * Expands the cross-coupled generator templates into netlists (docs/physics.md, "Generator simulation").
  *
  * Both styles: a cross-coupled pair of two-input gates, each fed by the clock (or its complement)
  * and by the far end of the other side's inverter delay chain, with a tapered buffer from each

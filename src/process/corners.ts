@@ -1,4 +1,4 @@
-/** Corner sets (SPEC 2.5): the cartesian product of the design's axes, or an explicit list. */
+/** Corner sets (docs/physics.md, "Variation"): the cartesian product of the design's axes, or an explicit list. */
 import { InputError, inputError } from '../errors.js';
 import type { CornersSpec } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
