@@ -3,8 +3,24 @@
  * what was received and what is allowed. Rendering to words happens once, at the edge.
  */
 
+/**
+ * What kind of problem an issue is: `<area>.<problem>`, stable across releases (tests and scripts
+ * match on it, not on the words). The table in DEVELOPERS.md ("Errors") says what each means.
+ */
+export type IssueCode =
+  | 'field.unknown' | 'field.required' | 'field.not-allowed'
+  | 'value.wrong-type' | 'value.not-allowed' | 'value.out-of-range' | 'value.too-many' | 'value.not-finite'
+  | 'value.duplicate' | 'value.invalid'
+  | 'reference.unknown'
+  | 'file.not-found' | 'file.unreadable' | 'file.too-large' | 'file.syntax' | 'file.wrong-kind' | 'file.no-stdin' | 'file.data-limit'
+  | 'netlist.invalid' | 'tables.invalid'
+  | 'physics.device-off' | 'physics.limit' | 'physics.no-steady-state'
+  | 'option.invalid' | 'output.refused' | 'tool.failed';
+
 /** One problem found in the user's input. */
 export interface InputIssue {
+  /** The kind of problem, for programs and tests; the words below are for people. */
+  readonly code: IssueCode;
   /** Dotted field path, e.g. `corners.vdd[1]`, or a file name for file-level problems. */
   readonly path: string;
   /** The offending value as the user wrote it (stringified), if there is one. */
@@ -23,8 +39,8 @@ export class InputError extends Error {
   }
 }
 
-export function inputError(path: string, value: unknown, allowed: string): InputError {
-  return new InputError([{ path, value: value === undefined ? undefined : showValue(value), allowed }]);
+export function inputError(code: IssueCode, path: string, value: unknown, allowed: string): InputError {
+  return new InputError([{ code, path, value: value === undefined ? undefined : showValue(value), allowed }]);
 }
 
 export function renderIssue(issue: InputIssue): string {

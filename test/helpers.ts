@@ -7,7 +7,7 @@ import { parse as parseYaml } from 'yaml';
 import { run } from '../src/cli/program.js';
 import { writeFileAtomic, type Io } from '../src/cli/io.js';
 import { loadProcess } from '../src/cli/load.js';
-import { InputError } from '../src/errors.js';
+import { InputError, type InputIssue } from '../src/errors.js';
 import { designSchema, type Design } from '../src/schema/design.js';
 import { parseWith } from '../src/schema/validate.js';
 import { resolveDesign, type ResolvedDesign } from '../src/analysis/resolve.js';
@@ -71,6 +71,17 @@ export async function cliAsync(...argv: string[]): Promise<CliRun> {
 }
 
 /** The message of the InputError that `fn` throws; fails if it throws nothing or something else. */
+/** The issues of the InputError `fn` throws, for tests that assert codes and paths rather than words. */
+export function inputIssues(fn: () => unknown): readonly InputIssue[] {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof InputError) return error.issues;
+    throw error;
+  }
+  throw new Error('expected an InputError');
+}
+
 export function inputErrorMessage(fn: () => unknown): string {
   try {
     fn();

@@ -92,7 +92,7 @@ export class CornerEvaluator {
       for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
       this.current = switches;
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
-        this.resolved.switchCheckNames, checks);
+        this.resolved.switchCheckLabels, checks);
       if (this.circuit) {
         circuit = this.circuit.evaluate(switches, cycles, devices);
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);

@@ -1,5 +1,5 @@
 /**
- * Monte Carlo mismatch (SPEC 2.5): dies drawn with Pelgrom's law, each evaluated at every corner.
+ * Monte Carlo mismatch (docs/physics.md, "Variation"): dies drawn with Pelgrom's law, each evaluated at every corner.
  * Work is cut into chunks of consecutive dies whose size does not depend on the number of threads,
  * and chunk results are merged in chunk order, so any thread count gives identical numbers.
  */

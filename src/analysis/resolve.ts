@@ -10,7 +10,7 @@ import { analyticModel } from '../delay/analytic.js';
 import { checkLevelShifters, expandSwitches, type SwitchPlan } from '../switches/plan.js';
 import { checkConstraintReferences } from '../switches/references.js';
 import { requirementLabels, type RequirementLabels } from '../checks/requirements.js';
-import { switchCheckNames } from '../checks/switch-checks.js';
+import { switchCheckLabels, type SwitchCheckLabels } from '../checks/switch-checks.js';
 import { checkPhysicalLimits } from './physical-limits.js';
 import { resolveNodes } from '../switches/nodes.js';
 import { biasCheckNames, DEFAULT_OFF_DECADES, type BiasCheckNames, type BiasSettings } from '../checks/bias-checks.js';
@@ -29,6 +29,8 @@ export interface ResolvedDesign {
   readonly labels: RequirementLabels;
   /** Names of the switch constraint checks, in order. */
   readonly switchCheckNames: readonly string[];
+  /** Names and subjects of the switch constraint checks, in order. */
+  readonly switchCheckLabels: SwitchCheckLabels;
   /** Switch name -> its position in `switches`. */
   readonly switchIndex: ReadonlyMap<string, number>;
   /** Names of each switch's off-state, on-state and stress checks (null: none), and their settings. */
@@ -48,9 +50,11 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   checkPhysicalLimits(design, card, corners);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
   checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
+  const switchLabels = switchCheckLabels(design.constraints, design.requirements.guard, design.clock.dutyTolerance * (1 / design.clock.frequency));
   return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements, netlist.source.phases,
       [...netlist.source.phases, ...Object.values(netlist.source.early)]),
-    switchCheckNames: switchCheckNames(design.constraints, design.requirements.guard),
+    switchCheckNames: switchLabels.names,
+    switchCheckLabels: switchLabels,
     switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])),
     biasNames: biasCheckNames(expansion.plans, card.n.ratings !== undefined && card.p.ratings !== undefined),
     bias: {

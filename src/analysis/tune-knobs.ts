@@ -26,7 +26,7 @@ export interface ChainKnobs {
 export function templateOf(design: Design): TemplateGenerator {
   const gen = design.generator;
   if (gen.template === 'netlist') {
-    throw inputError('generator.template', 'netlist', 'is a free-form netlist; tune adjusts the delay chains of the nand or nor template');
+    throw inputError('value.invalid', 'generator.template', 'netlist', 'is a free-form netlist; tune adjusts the delay chains of the nand or nor template');
   }
   return gen;
 }

@@ -10,7 +10,7 @@ import { bulkAt, deviceOn, gateLevel, offStateMargin, onOverdrive, terminalSpan,
 import { rangeHigh, rangeLow, type StateIndex } from '../switches/nodes.js';
 import { offStateAllowance } from '../switches/physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from '../switches/plan.js';
-import { VOLTAGE_KINDS, type Check } from './check.js';
+import { VOLTAGE_KINDS, type Check, type CheckData, type CheckSubject } from './check.js';
 
 /** Points across a tgate's terminal span at which its on-state is evaluated (ends included). */
 const SPAN_POINTS = 9;
@@ -34,6 +34,8 @@ export interface BiasCheckNames {
   readonly off: string;
   readonly on: string;
   readonly stress: string;
+  /** The subject of all three: the switch. */
+  readonly subject: CheckSubject;
 }
 
 /** Whether the phase states of a switch's gate are known (always with declared terminals). */
@@ -50,6 +52,7 @@ export function biasCheckNames(plans: readonly SwitchPlan[], rated: boolean): Ar
       off: `${plan.name} holds off${limited}`,
       on: `${plan.name} turns on${limited}`,
       stress: `${plan.name} ${rated ? 'within ratings' : 'junctions reverse-biased'}${limited}`,
+      subject: { type: 'switch', switch: plan.name, offIn: STATES.filter((state) => switchOffIn(plan, state)) },
     };
   });
 }
@@ -250,29 +253,29 @@ export function biasChecks(plans: readonly SwitchPlan[], devices: CornerDevices,
     const dvth = mismatch?.[k];
     const off = offStateWorst(plan, devices, dvth, settings);
     if (off === null) {
-      checks.push({ kind: 'off-state', name: name.off, margin: null, pass: false, switch: plan.name,
+      checks.push({ kind: 'off-state', subject: name.subject, name: name.off, margin: null, pass: false, switch: plan.name,
         detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it` });
     } else {
       const pass = off.margin >= 0;
       const phase = settings.stateLabels[off.state];
-      checks.push(pass ? { kind: 'off-state', name: name.off, margin: off.margin, pass, switch: plan.name, phase }
-        : { kind: 'off-state', name: name.off, margin: off.margin, pass, switch: plan.name, phase, detail: offDetail(plan, off, vdd, settings) });
+      checks.push(pass ? { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase }
+        : { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase, detail: offDetail(plan, off, vdd, settings) });
     }
     const on = onStateWorst(plan, devices, dvth);
     if (on === null) {
-      checks.push({ kind: 'on-state', name: name.on, margin: null, pass: false, switch: plan.name,
+      checks.push({ kind: 'on-state', subject: name.subject, name: name.on, margin: null, pass: false, switch: plan.name,
         detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on` });
     } else {
       const pass = on.margin >= 0;
       const phase = settings.stateLabels[on.state];
-      checks.push(pass ? { kind: 'on-state', name: name.on, margin: on.margin, pass, switch: plan.name, phase }
-        : { kind: 'on-state', name: name.on, margin: on.margin, pass, switch: plan.name, phase, detail: onDetail(plan, on, vdd, settings) });
+      checks.push(pass ? { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase }
+        : { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase, detail: onDetail(plan, on, vdd, settings) });
     }
     const stress = stressWorst(plan, devices);
     const pass = stress.margin >= 0;
     const phase = settings.stateLabels[stress.state];
-    checks.push(pass ? { kind: 'stress', name: name.stress, margin: stress.margin, pass, switch: plan.name, phase }
-      : { kind: 'stress', name: name.stress, margin: stress.margin, pass, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) });
+    checks.push(pass ? { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase }
+      : { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) });
   }
   return checks;
 }
@@ -287,7 +290,7 @@ export interface SwitchFault {
 }
 
 /** Switches with a failing off-state, on-state or stress check over a set of corners, in the order first met. */
-export function switchFaults(corners: Iterable<{ readonly name: string; readonly checks: readonly Check[] }>): SwitchFault[] {
+export function switchFaults(corners: Iterable<{ readonly name: string; readonly checks: readonly CheckData[] }>): SwitchFault[] {
   const faults = new Map<string, { switch: string; kinds: string[]; corner: string; detail?: string }>();
   for (const c of corners) {
     for (const k of c.checks) {

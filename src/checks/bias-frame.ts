@@ -87,8 +87,8 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
   const stressPass = stress.margin >= 0;
   const phase = settings.stateLabels[stress.state];
   const stressCheck: Check = stressPass
-    ? { kind: 'stress', name: names.stress, margin: stress.margin, pass: true, switch: plan.name, phase }
-    : { kind: 'stress', name: names.stress, margin: stress.margin, pass: false, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) };
+    ? { kind: 'stress', subject: names.subject, name: names.stress, margin: stress.margin, pass: true, switch: plan.name, phase }
+    : { kind: 'stress', subject: names.subject, name: names.stress, margin: stress.margin, pass: false, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) };
   return { plan, k, names, off, on, stress: stressCheck };
 }
 
@@ -118,7 +118,7 @@ export class BiasChecker {
       const dvth = mismatch?.[f.k];
       const { plan, names } = f;
       if (f.off.length === 0) {
-        checks.push({ kind: 'off-state', name: names.off, margin: null, pass: false, switch: plan.name,
+        checks.push({ kind: 'off-state', subject: names.subject, name: names.off, margin: null, pass: false, switch: plan.name,
           detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it` });
       } else {
         let least = Infinity;
@@ -129,12 +129,12 @@ export class BiasChecker {
           if (m < least) { least = m; state = c.state; }
         }
         checks.push(least >= 0
-          ? { kind: 'off-state', name: names.off, margin: least, pass: true, switch: plan.name, phase: labels[state] }
-          : { kind: 'off-state', name: names.off, margin: least, pass: false, switch: plan.name, phase: labels[state],
+          ? { kind: 'off-state', subject: names.subject, name: names.off, margin: least, pass: true, switch: plan.name, phase: labels[state] }
+          : { kind: 'off-state', subject: names.subject, name: names.off, margin: least, pass: false, switch: plan.name, phase: labels[state],
             detail: offDetail(plan, offStateWorst(plan, devices, dvth, this.settings)!, devices.vdd, this.settings) });
       }
       if (f.on.length === 0) {
-        checks.push({ kind: 'on-state', name: names.on, margin: null, pass: false, switch: plan.name,
+        checks.push({ kind: 'on-state', subject: names.subject, name: names.on, margin: null, pass: false, switch: plan.name,
           detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on` });
       } else {
         let least = Infinity;
@@ -148,8 +148,8 @@ export class BiasChecker {
           if (best < least) { least = best; state = p.state; }
         }
         checks.push(least >= 0
-          ? { kind: 'on-state', name: names.on, margin: least, pass: true, switch: plan.name, phase: labels[state] }
-          : { kind: 'on-state', name: names.on, margin: least, pass: false, switch: plan.name, phase: labels[state],
+          ? { kind: 'on-state', subject: names.subject, name: names.on, margin: least, pass: true, switch: plan.name, phase: labels[state] }
+          : { kind: 'on-state', subject: names.subject, name: names.on, margin: least, pass: false, switch: plan.name, phase: labels[state],
             detail: onDetail(plan, onStateWorst(plan, devices, dvth)!, devices.vdd, this.settings) });
       }
       checks.push(f.stress);

@@ -9,7 +9,7 @@ import type { CornerCircuit } from '../circuit/corner-circuit.js';
 import type { CircuitRequirements } from '../schema/circuit.js';
 import { levelAt, type Level } from '../schema/level.js';
 import { formatEngineering } from '../units/format.js';
-import type { Check, CheckKind } from './check.js';
+import type { Check, CheckKind, CheckSubject } from './check.js';
 
 /** Check names, formatted once per design. */
 export interface CircuitCheckNames {
@@ -36,18 +36,24 @@ export function circuitCheckNames(req: CircuitRequirements, output: string): Cir
   };
 }
 
+const SUBJECTS: Readonly<Record<'output' | 'ripple' | 'efficiency' | 'lost-charge', CheckSubject>> = {
+  output: { type: 'circuit', figure: 'output' },
+  ripple: { type: 'circuit', figure: 'ripple' },
+  efficiency: { type: 'circuit', figure: 'efficiency' },
+  'lost-charge': { type: 'circuit', figure: 'lost-charge' },
+};
 /** Appends the circuit checks to `out`. */
 export function circuitChecks(c: CornerCircuit, req: CircuitRequirements, names: CircuitCheckNames, vdd: number, out: Check[]): void {
   const settled = c.method !== 'none';
-  const add = (kind: CheckKind, name: string | undefined, margin: number | null) => {
+  const add = (kind: CheckKind, subject: CheckSubject, name: string | undefined, margin: number | null) => {
     if (name === undefined) return;
     if (!settled || margin === null || !Number.isFinite(margin)) {
-      out.push({ kind, name, margin: null, pass: false, detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state' });
-    } else out.push({ kind, name, margin, pass: margin >= 0 });
+      out.push({ kind, subject, name, margin: null, pass: false, detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state' });
+    } else out.push({ kind, subject, name, margin, pass: margin >= 0 });
   };
-  if (req.output?.min) add('output-min', names.outputMin, c.output - levelAt(req.output.min, vdd));
-  if (req.output?.max) add('output-max', names.outputMax, levelAt(req.output.max, vdd) - c.lightOutput);
-  if (req.ripple) add('ripple-max', names.ripple, req.ripple.max - c.ripple);
-  if (req.efficiency) add('efficiency-min', names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
-  if (req.lostCharge) add('lost-charge-max', names.lostCharge, req.lostCharge.max - c.lostCharge);
+  if (req.output?.min) add('output-min', SUBJECTS.output, names.outputMin, c.output - levelAt(req.output.min, vdd));
+  if (req.output?.max) add('output-max', SUBJECTS.output, names.outputMax, levelAt(req.output.max, vdd) - c.lightOutput);
+  if (req.ripple) add('ripple-max', SUBJECTS.ripple, names.ripple, req.ripple.max - c.ripple);
+  if (req.efficiency) add('efficiency-min', SUBJECTS.efficiency, names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
+  if (req.lostCharge) add('lost-charge-max', SUBJECTS['lost-charge'], names.lostCharge, req.lostCharge.max - c.lostCharge);
 }

@@ -1,12 +1,12 @@
 /**
- * Constraints at the switches (SPEC 2.4): break-before-make at every handover, event ordering and
+ * Constraints at the switches (docs/physics.md, "Switches and constraints"): break-before-make at every handover, event ordering and
  * RC settling of series paths. Margins are seconds, positive when met, worst over the signal range.
  */
 import type { ConstraintsSpec } from '../schema/switches.js';
 import { formatTime } from '../units/format.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { bitsToError, settlingTimeConstants } from '../switches/physics.js';
-import type { Check } from './check.js';
+import type { Check, CheckSubject } from './check.js';
 import { handover } from '../measure/phases.js';
 import { wrapTime } from '../measure/wrap-time.js';
 
@@ -19,9 +19,9 @@ export function handoverGap(a: SwitchConduction, b: SwitchConduction, period: nu
   return handover(a.off, a.on, b.on, period);
 }
 
-function unmeasurable(kind: Check['kind'], name: string, who: readonly SwitchConduction[]): Check | null {
+function unmeasurable(kind: Check['kind'], subject: CheckSubject, name: string, who: readonly SwitchConduction[]): Check | null {
   const bad = who.find((s) => s.status !== 'switching');
-  return bad ? { kind, name, margin: null, pass: false, detail: bad.detail } : null;
+  return bad ? { kind, subject, name, margin: null, pass: false, detail: bad.detail } : null;
 }
 
 /**
@@ -49,18 +49,51 @@ export function settleTime(path: ConstraintsSpec['settle'][number], resistance: 
   return settlingTimeConstants(path.error ?? bitsToError(path.bits!)) * resistance * path.capacitance;
 }
 
+/** What a break-before-make pair requires, in words (its check's name unless the user named it). */
+function bbmRequirement(bbm: ConstraintsSpec['breakBeforeMake'][number], guard: number): string {
+  return `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
+}
+
+/** What an order constraint requires, in words. */
+function orderRequirement(o: ConstraintsSpec['order'][number]): string {
+  return `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`;
+}
+
 /** Display names of every switch constraint, in the order switchChecks emits them; computed once per design. */
 export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: number): string[] {
   return [
-    ...constraints.breakBeforeMake.map((bbm) => {
-      const guard = bbm.guard ?? defaultGuard;
-      return bbm.name ?? `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
-    }),
-    ...constraints.order.map((o) =>
-      o.name ?? `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`),
+    ...constraints.breakBeforeMake.map((bbm) => bbm.name ?? bbmRequirement(bbm, bbm.guard ?? defaultGuard)),
+    ...constraints.order.map((o) => o.name ?? orderRequirement(o)),
     ...constraints.settle.map((path) =>
       `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${path.error ?? bitsToError(path.bits!)}`}`),
   ];
+}
+
+/** Names and subjects of every switch constraint's check, in the order switchChecks emits them; made once per design. */
+export interface SwitchCheckLabels {
+  readonly names: readonly string[];
+  readonly subjects: readonly CheckSubject[];
+}
+
+/** `derating` (s) is what switchChecks takes off every settle window (its `windowDerating`). */
+export function switchCheckLabels(constraints: ConstraintsSpec, defaultGuard: number, derating = 0): SwitchCheckLabels {
+  const subjects: CheckSubject[] = [
+    ...constraints.breakBeforeMake.map((bbm): CheckSubject => {
+      const [a, b] = bbm.between;
+      const guard = bbm.guard ?? defaultGuard;
+      return {
+        type: 'switch-events', constraint: 'break-before-make', min: guard,
+        handovers: [{ first: { switch: a, event: 'off' }, then: { switch: b, event: 'on' } }, { first: { switch: b, event: 'off' }, then: { switch: a, event: 'on' } }],
+        label: bbm.name ?? `${a}/${b}`, requirement: bbmRequirement(bbm, guard), named: bbm.name !== undefined,
+      };
+    }),
+    ...constraints.order.map((o, k): CheckSubject => ({
+      type: 'switch-events', constraint: 'order', min: o.min, handovers: [{ first: o.first, then: o.then }],
+      label: o.name ?? `order ${k + 1}`, requirement: orderRequirement(o), named: o.name !== undefined,
+    })),
+    ...constraints.settle.map((path): CheckSubject => ({ type: 'settle', path: path.name, switches: path.switches, derating })),
+  ];
+  return { names: switchCheckNames(constraints, defaultGuard), subjects };
 }
 
 /**
@@ -68,41 +101,51 @@ export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: num
  * (s) shortens every on-window for settling: the input duty error moves a phase's width one for one.
  */
 export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction> | ((name: string) => SwitchConduction),
-  period: number, windowDerating = 0, names: readonly string[] = switchCheckNames(constraints, defaultGuard), checks: Check[] = []): Check[] {
+  period: number, windowDerating = 0, labels: SwitchCheckLabels = switchCheckLabels(constraints, defaultGuard, windowDerating), checks: Check[] = []): Check[] {
   const get = typeof byName === 'function' ? byName : (name: string) => byName.get(name)!;
+  const { names, subjects } = labels;
   let slot = 0;
   for (const bbm of constraints.breakBeforeMake) {
     const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];
     const guard = bbm.guard ?? defaultGuard;
+    const subject = subjects[slot]!;
     const name = names[slot++]!;
-    const bad = unmeasurable('break-before-make', name, [a, b]);
+    const bad = unmeasurable('break-before-make', subject, name, [a, b]);
     if (bad) { checks.push(bad); continue; }
-    const margin = Math.min(handoverGap(a, b, period), handoverGap(b, a, period)) - guard;
-    checks.push({ kind: 'break-before-make', name, margin, pass: margin >= 0 });
+    const ab = handoverGap(a, b, period);
+    const ba = handoverGap(b, a, period);
+    const margin = Math.min(ab, ba) - guard;
+    checks.push({ kind: 'break-before-make', subject, name, margin, pass: margin >= 0, parts: [
+      { margin: ab - guard, start: a.off, span: ab, need: guard },
+      { margin: ba - guard, start: b.off, span: ba, need: guard },
+    ] });
   }
   for (const order of constraints.order) {
     const first = get(order.first.switch);
     const then = get(order.then.switch);
+    const subject = subjects[slot]!;
     const name = names[slot++]!;
-    const bad = unmeasurable('order', name, [first, then]);
+    const bad = unmeasurable('order', subject, name, [first, then]);
     if (bad) { checks.push(bad); continue; }
     // Worst case: the first event as late as it gets, the second as early.
     const tFirst = order.first.event === 'on' ? first.onLatest : first.off;
     const tThen = order.then.event === 'on' ? then.on : then.offEarliest;
-    const margin = alignNear(tThen, tFirst, period) - tFirst - order.min;
-    checks.push({ kind: 'order', name, margin, pass: margin >= 0 });
+    const span = alignNear(tThen, tFirst, period) - tFirst;
+    const margin = span - order.min;
+    checks.push({ kind: 'order', subject, name, margin, pass: margin >= 0, parts: [{ margin, start: tFirst, span, need: order.min }] });
   }
   for (const path of constraints.settle) {
     const members = path.switches.map(get);
+    const subject = subjects[slot]!;
     const name = names[slot++]!;
-    const bad = unmeasurable('settle', name, members);
+    const bad = unmeasurable('settle', subject, name, members);
     if (bad) { checks.push(bad); continue; }
-    const { window, resistance } = settleWindow(members, period, windowDerating);
+    const { start, end, window, resistance } = settleWindow(members, period, windowDerating);
     const needed = settleTime(path, resistance);
     const margin = window - needed;
     checks.push(Number.isFinite(margin)
-      ? { kind: 'settle', name, margin, pass: margin >= 0 }
-      : { kind: 'settle', name, margin: null, pass: false, detail: `a switch of ${path.name} cannot conduct at some signal level (infinite on-resistance)` });
+      ? { kind: 'settle', subject, name, margin, pass: margin >= 0, parts: [{ margin, start, span: end - start, need: needed }] }
+      : { kind: 'settle', subject, name, margin: null, pass: false, detail: `a switch of ${path.name} cannot conduct at some signal level (infinite on-resistance)` });
   }
   return checks;
 }

@@ -22,7 +22,7 @@ export const DEFAULT_TOLERANCE = 0.1;
 export function parseTolerance(text: string | undefined, fromDesign?: number): number {
   if (text === undefined) return fromDesign ?? DEFAULT_TOLERANCE;
   const value = relativeNumber(text);
-  if (!(value > 0 && value < 10)) throw inputError('--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
+  if (!(value > 0 && value < 10)) throw inputError('option.invalid', '--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
   return value;
 }
 
@@ -51,7 +51,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, [...deck.quantities.map((q) => q.name), ...deck.ron.map((r) => r.name)]);
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-      throw inputError('ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
+      throw inputError('tool.failed', 'ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
     }
     const timing = compareCorner(deck, parsed, tolerance);
     const circuit = circuits[i];

@@ -92,18 +92,18 @@ export interface DesignSource {
  */
 export function readDesignSource(path: string, stdin?: Io['readStdin']): DesignSource {
   if (path !== STDIN) return { path, text: readBoundedText(path, 'DESIGN', KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
-  if (stdin === undefined) throw inputError('DESIGN', path, 'means standard input, which this run does not have; name a design file');
+  if (stdin === undefined) throw inputError('file.no-stdin', 'DESIGN', path, 'means standard input, which this run does not have; name a design file');
   const limit = Math.max(KINDS.design.bytes.json, KINDS.design.bytes.yaml);
   let text: string;
   try {
     text = stdin(limit);
   } catch (error) {
-    if (error instanceof StdinError) throw inputError('DESIGN', path, `${error.reason}`);
+    if (error instanceof StdinError) throw inputError('file.unreadable', 'DESIGN', path, `${error.reason}`);
     throw error;
   }
   const format = stdinFormat(text);
   if (Buffer.byteLength(text, 'utf8') > KINDS.design.bytes[format]) {
-    throw inputError('DESIGN', path, `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`);
+    throw inputError('file.too-large', 'DESIGN', path, `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`);
   }
   return { path, text };
 }
@@ -124,9 +124,9 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
   const expected = KINDS[kind].expect;
   const mapping = data !== null && typeof data === 'object' && !Array.isArray(data);
   if (expected && !(mapping && looksLike(data, expected.keys))) {
-    throw inputError(path, undefined, `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`);
+    throw inputError('file.wrong-kind', path, undefined, `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`);
   }
-  if (!mapping) throw inputError(path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
+  if (!mapping) throw inputError('file.wrong-kind', path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
   checkDataShape(data);
   return data;
 }
@@ -141,7 +141,7 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
 export function checkModelFile(path: string, label: string): ReadonlySet<string> | null {
   const text = readBoundedText(path, label, MAX_MODEL_BYTES, 'SPICE model file');
   if (!/^[ \t]*\.(model|subckt|lib)\b/im.test(text)) {
-    throw inputError(label, path, 'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown');
+    throw inputError('file.wrong-kind', label, path, 'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown');
   }
   if (/^[ \t]*\.(lib|include|inc)\b/im.test(text)) return null;
   return new Set([...text.matchAll(/^[ \t]*\.(?:model|subckt)[ \t]+(\S+)/gim)].map((m) => m[1]!.toLowerCase()));
@@ -155,14 +155,14 @@ function readBoundedText(path: string, label: string, limit: number, what: strin
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
-    throw inputError(label, path, code === 'ENOENT' ? 'does not exist' : code === 'EISDIR' ? 'is a directory, not a file' : `cannot be read (${code ?? 'error'})`);
+    throw inputError(code === 'ENOENT' ? 'file.not-found' : 'file.unreadable', label, path, code === 'ENOENT' ? 'does not exist' : code === 'EISDIR' ? 'is a directory, not a file' : `cannot be read (${code ?? 'error'})`);
   }
   try {
     const stat = fstatSync(fd);
-    if (stat.isDirectory()) throw inputError(label, path, 'is a directory, not a file');
-    if (!stat.isFile()) throw inputError(label, path, 'is not a regular file (it is a device, pipe or socket); phasegap reads only regular files');
+    if (stat.isDirectory()) throw inputError('file.unreadable', label, path, 'is a directory, not a file');
+    if (!stat.isFile()) throw inputError('file.unreadable', label, path, 'is not a regular file (it is a device, pipe or socket); phasegap reads only regular files');
     const tooBig = (): never => {
-      throw inputError(label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
+      throw inputError('file.too-large', label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
     };
     if (stat.size > limit) tooBig();
     // Read to the end, not to stat.size: some files (under /proc) report size 0 or grow.
@@ -180,7 +180,7 @@ function readBoundedText(path: string, label: string, limit: number, what: strin
   } catch (error) {
     if (error instanceof InputError) throw error;
     const code = (error as NodeJS.ErrnoException).code;
-    throw inputError(label, path, `cannot be read (${code ?? 'error'})`);
+    throw inputError('file.unreadable', label, path, `cannot be read (${code ?? 'error'})`);
   } finally {
     closeSync(fd);
   }

@@ -20,7 +20,7 @@ function checkModelNames(spice: SpiceSection, defined: ReadonlySet<string>, path
   for (const [field, name] of named) {
     if (name !== undefined && !defined.has(name.toLowerCase())) {
       const known = [...defined].filter((n) => /^[a-z0-9_.-]{1,32}$/.test(n)).slice(0, 8).join(', ');
-      throw inputError(field, name, `is not a model or subcircuit of ${path} (it defines ${known || 'none'})`);
+      throw inputError('reference.unknown', field, name, `is not a model or subcircuit of ${path} (it defines ${known || 'none'})`);
     }
   }
 }

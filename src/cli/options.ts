@@ -20,7 +20,7 @@ export function wholeNumber(option: string, text: string, range: WholeRange): nu
     const what = range.noun === undefined
       ? `of at least ${range.min} and at most ${range.max}`
       : `of ${range.noun} from ${range.min} to ${range.max}`;
-    throw inputError(option, text, `must be a whole number ${what}`);
+    throw inputError('option.invalid', option, text, `must be a whole number ${what}`);
   }
   return value;
 }

@@ -17,10 +17,10 @@ export function checkOutput(out: string | undefined, inputs: readonly string[], 
   if (toStdout(out)) return;
   const kind = pathKind(out);
   if (kind !== 'absent' && kind !== 'regular file') {
-    throw inputError(option, out, `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`);
+    throw inputError('output.refused', option, out, `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`);
   }
   const input = inputs.find((path) => sameFile(path, out));
-  if (input !== undefined) throw inputError(option, out, `is an input of this command (${input}); writing it would replace the input, pick another name`);
+  if (input !== undefined) throw inputError('output.refused', option, out, `is an input of this command (${input}); writing it would replace the input, pick another name`);
 }
 
 export function emit(io: Io, text: string, out: string | undefined, inputs: readonly string[], option = '--out'): void {
@@ -33,7 +33,7 @@ export function emit(io: Io, text: string, out: string | undefined, inputs: read
     io.writeFile(out, text);
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code ?? 'error';
-    throw inputError(option, out, `cannot be written (${code}); check that the folder exists and is writable`);
+    throw inputError('output.refused', option, out, `cannot be written (${code}); check that the folder exists and is writable`);
   }
 }
 

@@ -29,10 +29,10 @@ export function parseYamlText(text: string, source: TextSource): unknown {
   const lines = new LineCounter();
   const fail = (offset: number, what: string): never => {
     const { line, col } = lines.linePos(offset);
-    throw new InputError([{ path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` }]);
+    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` }]);
   };
   const unreadable = (): never => {
-    throw new InputError([{ path: source.name, allowed: 'could not be read as YAML or JSON' }]);
+    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: 'could not be read as YAML or JSON' }]);
   };
   let doc: ReturnType<typeof parseDocument>;
   try {
@@ -52,7 +52,7 @@ export function parseYamlText(text: string, source: TextSource): unknown {
     return doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (error) {
     if (!(error instanceof ReferenceError)) return unreadable();
-    throw new InputError([{ path: source.name, allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases` }]);
+    throw new InputError([{ code: 'file.data-limit', path: source.name, allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases` }]);
   }
 }
 

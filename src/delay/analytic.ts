@@ -187,5 +187,5 @@ export const analyticModel: DelayModel = {
 };
 
 function cannotTurnOn(device: DeviceAtCorner, vth: number, vdd: number, corner: string): Error {
-  return inputError(`corners (${corner})`, `${vdd} V`, `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`);
+  return inputError('physics.device-off', `corners (${corner})`, `${vdd} V`, `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`);
 }

@@ -14,14 +14,14 @@ export type ModelChoice = (typeof MODEL_CHOICES)[number];
 export function parseModelChoice(text: string | undefined): ModelChoice | undefined {
   if (text === undefined) return undefined;
   if ((MODEL_CHOICES as readonly string[]).includes(text)) return text as ModelChoice;
-  throw inputError('--model', text, `is not a delay model; allowed: ${MODEL_CHOICES.join(', ')}`);
+  throw inputError('option.invalid', '--model', text, `is not a delay model; allowed: ${MODEL_CHOICES.join(', ')}`);
 }
 
 export function selectModel(choice: ModelChoice | undefined, tables: DelayTables | undefined, warn: (message: string) => void): DelayModel {
   if (choice === 'analytic') return analyticModel;
   if (tables) return tableModel(tables, { warn });
   if (choice === 'table') {
-    throw inputError('--model', 'table', 'needs delay tables: name them in the process card (tables: FILE.json, from phasegap characterize) or pass --tables FILE');
+    throw inputError('option.invalid', '--model', 'table', 'needs delay tables: name them in the process card (tables: FILE.json, from phasegap characterize) or pass --tables FILE');
   }
   return analyticModel;
 }

@@ -1,5 +1,5 @@
 /**
- * The table-driven delay model (SPEC 2.2): characterized delay and output-transition tables per
+ * The table-driven delay model (docs/physics.md, "Gate delay"): characterized delay and output-transition tables per
  * cell, input pin, output edge and corner, indexed by input transition and output load and
  * interpolated bilinearly (the usual non-linear delay model). Loads are re-counted with the
  * characterized pin capacitances (the net's declared and switch capacitance is kept as it is) and
@@ -34,13 +34,13 @@ export function checkTables(tables: DelayTables, where: string): void {
     for (const [cell, entry] of Object.entries(corner.cells)) {
       const pins = CELLS[cell as PrimitiveCell].inputs;
       const path = `${where}: corners[${c}].cells.${cell}`;
-      if (entry.pins.length !== pins) throw inputError(`${path}.pins`, entry.pins.length, `tables for ${pins} pins are needed (one per input of ${cell})`);
+      if (entry.pins.length !== pins) throw inputError('tables.invalid', `${path}.pins`, entry.pins.length, `tables for ${pins} pins are needed (one per input of ${cell})`);
       entry.pins.forEach((pin, p) => {
         for (const edge of ['rise', 'fall'] as const) {
           for (const kind of ['delay', 'transition'] as const) {
             const grid = pin[edge][kind];
             if (grid.length !== rows || grid.some((r) => r.length !== cols)) {
-              throw inputError(`${path}.pins[${p}].${edge}.${kind}`, `${grid.length} rows`, `must have ${rows} rows (input transitions) of ${cols} values (loads)`);
+              throw inputError('tables.invalid', `${path}.pins[${p}].${edge}.${kind}`, `${grid.length} rows`, `must have ${rows} rows (input transitions) of ${cols} values (loads)`);
             }
           }
         }
@@ -171,7 +171,7 @@ function buildFrame(tables: DelayTables, netlist: CompiledNetlist, loads: Float6
   const analyticPins = gatePinCapacitance(netlist, card);
   const pinOf = (cell: PrimitiveCell): PinTables[] => {
     const entry = corner.cells[cell];
-    if (!entry) throw inputError('tables', cell, `has no tables at ${corner.name}; characterize this cell (phasegap characterize)`);
+    if (!entry) throw inputError('reference.unknown', 'tables', cell, `has no tables at ${corner.name}; characterize this cell (phasegap characterize)`);
     return entry.pins;
   };
   // External load of each net as the tables count it: characterized pin capacitances of the

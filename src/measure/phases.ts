@@ -1,5 +1,5 @@
 /**
- * Measurements of one simulated period (SPEC 2.3): both dead times at the 50 % points, the clean
+ * Measurements of one simulated period (docs/physics.md, "Generator simulation"): both dead times at the 50 % points, the clean
  * gap where neither phase is above a level of its swing (10 % unless the design says otherwise),
  * each phase's active width and duty, and any overlap at that level. All times in seconds.
  */

@@ -1,4 +1,4 @@
-/** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (SPEC 2.2). */
+/** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (docs/physics.md, "Gate delay"). */
 import { inputError } from '../errors.js';
 import { parasiticCapacitance } from '../cells/library.js';
 import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../cells/card-widths.js';
@@ -28,7 +28,7 @@ export function netLoads(net: CompiledNetlist, card: ProcessCard, ...extras: rea
   for (const { path, caps } of [{ path: 'generator', caps: net.source.loads }, ...extras]) {
     for (const [name, cap] of Object.entries(caps)) {
       const id = net.netIndex.get(name);
-      if (id === undefined) throw inputError(`${path}.${name}`, name, `is not a net of the generator; nets are ${net.netNames.join(', ')}`);
+      if (id === undefined) throw inputError('reference.unknown', `${path}.${name}`, name, `is not a net of the generator; nets are ${net.netNames.join(', ')}`);
       load[id]! += cap;
     }
   }

@@ -1,4 +1,4 @@
-/** Corner sets (SPEC 2.5): the cartesian product of the design's axes, or an explicit list. */
+/** Corner sets (docs/physics.md, "Variation"): the cartesian product of the design's axes, or an explicit list. */
 import { InputError, inputError } from '../errors.js';
 import type { CornersSpec } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
@@ -15,7 +15,7 @@ export interface SourcedCorner {
 
 export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
   if (spec.list && (spec.process || spec.vdd || spec.temperature || spec.duty)) {
-    throw inputError('corners', Object.keys(spec).join(', '), 'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty');
+    throw inputError('value.invalid', 'corners', Object.keys(spec).join(', '), 'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty');
   }
   const out: SourcedCorner[] = spec.list ? fromList(spec, nominalDuty) : fromAxes(spec, card, nominalDuty);
   checkCorners(out, card);
@@ -33,7 +33,7 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   const duties = spec.duty ?? [nominalDuty];
   const count = processes.length * vdds.length * temperatures.length * duties.length;
   if (count > MAX_CORNERS) {
-    throw inputError('corners', `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`, `is more than ${MAX_CORNERS} corners; list fewer values per axis`);
+    throw inputError('value.too-many', 'corners', `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`, `is more than ${MAX_CORNERS} corners; list fewer values per axis`);
   }
   const showDuty = duties.length > 1;
   const out: SourcedCorner[] = [];
@@ -68,16 +68,16 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
   const seen = new Set<string>();
   for (const { corner, paths } of corners) {
     if (processCornerOf(card, corner.process) === undefined) {
-      throw inputError(paths.process, corner.process, `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`);
+      throw inputError('reference.unknown', paths.process, corner.process, `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`);
     }
-    if (seen.has(corner.name)) throw inputError('corners', corner.name, 'appears twice; every corner must be distinct');
+    if (seen.has(corner.name)) throw inputError('value.duplicate', 'corners', corner.name, 'appears twice; every corner must be distinct');
     seen.add(corner.name);
     try {
       devicesAtCorner(card, corner);
     } catch (error) {
       if (!(error instanceof InputError)) throw error;
       const threshold = Math.max(thresholdOf(card, 'n', corner), thresholdOf(card, 'p', corner));
-      throw inputError(paths.vdd, `${corner.vdd} V`,
+      throw inputError('physics.device-off', paths.vdd, `${corner.vdd} V`,
         `is not above the device threshold at ${corner.name} (${threshold.toFixed(3)} V): a device cannot turn on at this corner; raise the supply or drop the corner`);
     }
   }

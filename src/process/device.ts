@@ -110,14 +110,14 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
   const params = card[type];
   const shift = processCornerOf(card, corner.process)?.[type];
   if (!shift) {
-    throw inputError('corners.process', corner.process,
+    throw inputError('reference.unknown', 'corners.process', corner.process,
       `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`);
   }
   const vth = thresholdAt(params, shift.dvth, corner.temperature, card.t0);
   const temperatureScale = mobilityScale(params, corner.temperature, card.t0);
   const driveConstant = params.drive * shift.drive * temperatureScale;
   if (!(corner.vdd > vth)) {
-    throw inputError(`corners (${corner.name})`, `${corner.vdd} V`,
+    throw inputError('physics.device-off', `corners (${corner.name})`, `${corner.vdd} V`,
       `is not above the ${type}-device threshold at ${corner.name} (${vth.toFixed(3)} V): the device cannot turn on; raise the supply or drop this corner`);
   }
   return {

@@ -6,14 +6,12 @@
  */
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
-import { handoverGap, settleTime, settleWindow } from '../checks/switch-checks.js';
-import { alignNear, type SwitchConduction } from '../switches/conduction.js';
+import type { SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, type NetWave } from './waveform.js';
 import { wrapTime } from '../measure/wrap-time.js';
 import { handoverWindows, type TimeWindow } from './windows.js';
-import { compareChecks, type Check } from '../checks/check.js';
-import { switchOffIn } from '../checks/bias-checks.js';
+import { compareChecks, type Check, type CheckKind, type DeadTimeIndex } from '../checks/check.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import type { StateIndex } from '../switches/nodes.js';
 import { circuitWaves, type CircuitWaves } from './circuit-waves.js';
@@ -81,6 +79,11 @@ export interface SpanMark {
   readonly reason: string;
 }
 
+/** A handover's span with its check's margin for it (value less the guard or the order's minimum), s. */
+export interface HandoverMark extends SpanMark {
+  readonly margin: number;
+}
+
 export interface DeadTimeMarks {
   readonly from: string;
   readonly to: string;
@@ -100,8 +103,8 @@ export interface BreakBeforeMakeMarks {
   readonly toEvent: 'on' | 'off';
   /** Least time required between the two events (guard or order minimum), s. */
   readonly guard: number;
-  /** value = the time from the first event to the second; the margin is value - guard. */
-  readonly marks: readonly SpanMark[];
+  /** value = the time from the first event to the second. */
+  readonly marks: readonly HandoverMark[];
 }
 
 /** A settle path's common on-window at its worst corner and the time it needs. */
@@ -170,7 +173,7 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
     reference: netWave(reference, netlist, row.net),
   }));
   const switches = switchRows(resolved, measured, reference);
-  const deadTimes = deadTimeMarks(resolved, measured, choice.kind === 'corner');
+  const deadTimes = deadTimeMarks(measured, choice.kind === 'corner');
   const breakBeforeMake = bbmMarks(resolved, measured, choice.kind === 'corner');
   const settle = settleMarks(resolved, measured);
   const clockFall = reference.corner.duty * period;
@@ -264,15 +267,15 @@ export function stateIntervals(resolved: ResolvedDesign, reference: CornerResult
 
 function offStateMark(resolved: ResolvedDesign, plan: SwitchPlan, results: readonly CornerResult[], reference: CornerResult): OffStateMark | null {
   const k = resolved.switchIndex.get(plan.name)!;
-  const name = resolved.biasNames[k]?.off;
-  if (!name) return null;
+  const subject = resolved.biasNames[k]?.subject;
+  if (!subject) return null;
   let worst: { check: Check; corner: string } | null = null;
   for (const r of results) {
-    const c = r.checks.find((x) => x.name === name);
+    const c = r.checks.find((x) => x.kind === 'off-state' && x.subject === subject);
     if (c && (worst === null || compareChecks(c, worst.check) < 0)) worst = { check: c, corner: r.corner.name };
   }
   if (!worst) return null;
-  const intervals = stateIntervals(resolved, reference).filter((i) => switchOffIn(plan, i.state))
+  const intervals = stateIntervals(resolved, reference).filter((i) => subject.type === 'switch' && subject.offIn.includes(i.state))
     .map((i) => ({ start: i.start, end: i.end, state: i.label }));
   return {
     intervals, margin: worst.check.margin, pass: worst.check.pass, corner: worst.corner,
@@ -280,19 +283,31 @@ function offStateMark(resolved: ResolvedDesign, plan: SwitchPlan, results: reado
   };
 }
 
-function deadTimeMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], single: boolean): DeadTimeMarks[] {
-  const req = resolved.design.requirements;
+/** Words for a dead time that fails a check of this kind. */
+const DEAD_TIME_WORDS: Partial<Record<CheckKind, string>> = {
+  'non-overlap': 'the phases overlap',
+  'dead-time-min': 'below the least dead time',
+  'dead-time-max': 'above the largest dead time',
+  'gap-min': 'clean gap too short',
+};
+
+/** Whether a check fails at dead time `index`: its part there, or the whole check when that dead time is all it covers. */
+function failsAtDeadTime(check: Check, index: DeadTimeIndex): boolean {
+  if (check.subject.type !== 'dead-time') return false;
+  const at = check.subject.deadTimes.indexOf(index);
+  if (at < 0) return false;
+  const part = check.parts?.[at];
+  return part ? part.margin < 0 : !check.pass;
+}
+
+function deadTimeMarks(measured: readonly CornerResult[], single: boolean): DeadTimeMarks[] {
   const out: DeadTimeMarks[] = [];
   for (const index of [0, 1] as const) {
     const all = measured.flatMap((r) => {
       if (!r.measurement.ok) return [];
       const d = r.measurement.deadTimes[index];
       const start = relative(d.start, r);
-      const reasons: string[] = [];
-      if (d.t50 < 0) reasons.push('the phases overlap');
-      if (req.deadTime?.min !== undefined && d.t50 < req.deadTime.min) reasons.push('below the least dead time');
-      if (req.deadTime?.max !== undefined && d.t50 > req.deadTime.max) reasons.push('above the largest dead time');
-      if (req.gap?.min !== undefined && d.gap < req.gap.min) reasons.push('clean gap too short');
+      const reasons = r.checks.filter((c) => failsAtDeadTime(c, index)).map((c) => DEAD_TIME_WORDS[c.kind] ?? c.name);
       return [{ d, mark: { role: 'single' as MarkRole, corner: r.corner.name, start, end: start + d.t50, value: d.t50, pass: reasons.length === 0, reason: reasons.join('; ') } }];
     });
     if (all.length === 0) continue;
@@ -310,83 +325,58 @@ function deadTimeMarks(resolved: ResolvedDesign, measured: readonly CornerResult
   return out;
 }
 
+/** Words for a handover that fails: the second event came first, or too soon. */
+const HANDOVER_WORDS = {
+  'break-before-make': { reversed: 'both conduct at once', short: 'less than the guard time' },
+  order: { reversed: 'the order is reversed', short: 'less than the required time' },
+} as const;
+
+/** Each handover of every break-before-make and order check, at the corner where its part's margin is least. */
 function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], single: boolean): BreakBeforeMakeMarks[] {
-  const { design } = resolved;
-  const period = 1 / design.clock.frequency;
   const out: BreakBeforeMakeMarks[] = [];
-  for (const bbm of design.constraints.breakBeforeMake) {
-    const guard = bbm.guard ?? design.requirements.guard;
-    for (const [fromName, toName] of [[bbm.between[0], bbm.between[1]], [bbm.between[1], bbm.between[0]]] as const) {
-      let worst: SpanMark | null = null;
+  for (const subject of resolved.switchCheckLabels.subjects) {
+    if (subject.type !== 'switch-events') continue;
+    const words = HANDOVER_WORDS[subject.constraint];
+    subject.handovers.forEach((handover, h) => {
+      let worst: HandoverMark | null = null;
       for (const r of measured) {
-        const a = r.switches.find((s) => s.name === fromName);
-        const b = r.switches.find((s) => s.name === toName);
-        if (!a || !b || a.status !== 'switching' || b.status !== 'switching') continue;
-        const gap = handoverGap(a, b, period);
-        const start = relative(a.off, r);
-        const margin = gap - guard;
-        const mark: SpanMark = {
-          role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + gap, value: gap, pass: margin >= 0,
-          reason: margin >= 0 ? '' : gap < 0 ? 'both conduct at once' : 'less than the guard time',
+        const part = r.checks.find((c) => c.subject === subject)?.parts?.[h];
+        if (part?.start === undefined || part.span === undefined) continue;
+        const start = relative(part.start, r);
+        const pass = part.margin >= 0;
+        const mark: HandoverMark = {
+          role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + part.span, value: part.span, pass,
+          reason: pass ? '' : part.span < 0 ? words.reversed : words.short, margin: part.margin,
         };
-        if (worst === null || mark.value < worst.value) worst = mark;
+        if (worst === null || mark.margin < worst.margin) worst = mark;
       }
       if (worst) {
-        out.push({ kind: 'break-before-make', name: bbm.name ?? `${bbm.between[0]}/${bbm.between[1]}`, from: fromName, to: toName,
-          fromEvent: 'off', toEvent: 'on', guard, marks: [worst] });
+        out.push({ kind: subject.constraint, name: subject.label, from: handover.first.switch, to: handover.then.switch,
+          fromEvent: handover.first.event, toEvent: handover.then.event, guard: subject.min, marks: [worst] });
       }
-    }
-  }
-  for (const [k, order] of design.constraints.order.entries()) {
-    let worst: SpanMark | null = null;
-    for (const r of measured) {
-      const a = r.switches.find((s) => s.name === order.first.switch);
-      const b = r.switches.find((s) => s.name === order.then.switch);
-      if (!a || !b || a.status !== 'switching' || b.status !== 'switching') continue;
-      // The worst case the order check takes: the first event as late as it gets, the second as early.
-      const tFirst = order.first.event === 'on' ? a.onLatest : a.off;
-      const tThen = order.then.event === 'on' ? b.on : b.offEarliest;
-      const gap = alignNear(tThen, tFirst, period) - tFirst;
-      const margin = gap - order.min;
-      const start = relative(tFirst, r);
-      const mark: SpanMark = {
-        role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + gap, value: gap, pass: margin >= 0,
-        reason: margin >= 0 ? '' : gap < 0 ? 'the order is reversed' : 'less than the required time',
-      };
-      if (worst === null || mark.value - order.min < worst.value - order.min) worst = mark;
-    }
-    if (worst) {
-      out.push({ kind: 'order', name: order.name ?? `order ${k + 1}`, from: order.first.switch, to: order.then.switch,
-        fromEvent: order.first.event, toEvent: order.then.event, guard: order.min, marks: [worst] });
-    }
+    });
   }
   return out;
 }
 
-/** Each settle path at the corner where its margin is least (the same window and need the check uses). */
+/** Each settle path at the corner where its check's margin is least (the check's own window and need). */
 function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]): Array<SettleMark | SettleUnmeasured> {
-  const { design } = resolved;
-  const period = 1 / design.clock.frequency;
-  const derating = design.clock.dutyTolerance * period;
   const out: Array<SettleMark | SettleUnmeasured> = [];
-  for (const path of design.constraints.settle) {
+  for (const subject of resolved.switchCheckLabels.subjects) {
+    if (subject.type !== 'settle') continue;
     let worst: SettleMark | null = null;
     let unmeasured: SettleUnmeasured | null = null;
     for (const r of measured) {
-      const check = r.checks.find((c) => c.kind === 'settle' && c.name.startsWith(`${path.name} settles`));
+      const check = r.checks.find((c) => c.subject === subject);
       if (check && check.margin === null) {
-        unmeasured ??= { name: path.name, corner: r.corner.name, reason: check.detail ?? 'not measurable', pass: false };
+        unmeasured ??= { name: subject.path, corner: r.corner.name, reason: check.detail ?? 'not measurable', pass: false };
         continue;
       }
-      const members = path.switches.map((name) => r.switches.find((s) => s.name === name));
-      if (members.some((m) => !m || m.status !== 'switching')) continue;
-      const w = settleWindow(members as SwitchConduction[], period, derating);
-      const needed = settleTime(path, w.resistance);
-      if (!Number.isFinite(needed)) continue;
-      const margin = w.window - needed;
-      const start = relative(w.start, r);
-      const mark: SettleMark = { name: path.name, corner: r.corner.name, start, end: start + (w.end - w.start), needed, margin, pass: margin >= 0 };
-      if (worst === null || margin < worst.margin) worst = mark;
+      const part = check?.parts?.[0];
+      if (!check || check.margin === null || part?.start === undefined || part.span === undefined || part.need === undefined) continue;
+      const start = relative(part.start, r);
+      const mark: SettleMark = { name: subject.path, corner: r.corner.name, start, end: start + part.span, needed: part.need, margin: check.margin, pass: check.pass };
+      if (worst === null || check.margin < worst.margin) worst = mark;
     }
     // A corner where the path cannot be measured fails it outright: that is what the lane shows.
     const shown = unmeasured ?? worst;

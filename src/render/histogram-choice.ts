@@ -34,7 +34,7 @@ export function matchCheck(names: readonly string[], value: string, where: strin
   const found = exact.length > 0 ? exact : names.filter((n) => n.toLowerCase().includes(lower));
   if (found.length === 1) return found[0]!;
   const quote = (list: readonly string[]) => list.map((n) => `'${n}'`).join(', ');
-  throw inputError('--histogram-check', value, found.length > 1
+  throw inputError('reference.unknown', '--histogram-check', value, found.length > 1
     ? `names ${found.length} checks ${where}; write more of one: ${quote(found)}`
     : `is not a check ${where}; allowed: ${DEAD_TIMES}, or a check name or a unique part of one: ${quote(names)}`);
 }
@@ -47,7 +47,7 @@ export function pickCorner(names: readonly string[], worst: string, corner: stri
   if (exact >= 0) return exact;
   const folded = names.findIndex((n) => n.toLowerCase() === want.toLowerCase());
   if (folded >= 0) return folded;
-  throw inputError('--histogram-corner', want, `is not a corner of this run; allowed: worst or one of ${names.join(', ')}`);
+  throw inputError('reference.unknown', '--histogram-corner', want, `is not a corner of this run; allowed: worst or one of ${names.join(', ')}`);
 }
 
 /** Reads `--histogram-corner` and `--histogram-check` (a check name, a unique part of one, or `dead-times`). */

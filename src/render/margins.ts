@@ -5,8 +5,6 @@
  */
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { CheckKind } from '../checks/check.js';
-import type { ConstraintsSpec } from '../schema/switches.js';
-import { formatTime } from '../units/format.js';
 
 export interface MarginPoint {
   readonly corner: string;
@@ -30,17 +28,11 @@ export interface MarginRow {
   readonly requirement?: string;
 }
 
-/** What each named break-before-make or order constraint requires, keyed by its check name. */
-export function namedRequirements(constraints: ConstraintsSpec, defaultGuard: number): Map<string, string> {
+/** What each named break-before-make or order check requires, in words, keyed by its check name (from the checks' subjects). */
+export function namedRequirements(results: readonly CornerResult[]): Map<string, string> {
   const out = new Map<string, string>();
-  for (const bbm of constraints.breakBeforeMake) {
-    if (bbm.name === undefined) continue;
-    const guard = bbm.guard ?? defaultGuard;
-    out.set(bbm.name, `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`);
-  }
-  for (const o of constraints.order) {
-    if (o.name === undefined) continue;
-    out.set(o.name, `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`);
+  for (const r of results) {
+    for (const c of r.checks) if (c.subject.type === 'switch-events' && c.subject.named) out.set(c.name, c.subject.requirement);
   }
   return out;
 }

@@ -67,7 +67,7 @@ export interface ReportModel {
 }
 
 export function marginChartInput(resolved: ResolvedDesign, results: readonly CornerResult[]): MarginChartInput {
-  const named = namedRequirements(resolved.design.constraints, resolved.design.requirements.guard);
+  const named = namedRequirements(results);
   const rows = marginRows(results).map((r) => (named.has(r.name) ? { ...r, requirement: named.get(r.name)! } : r));
   const failing = rows.filter((r) => r.failing > 0).length;
   return {

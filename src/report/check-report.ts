@@ -2,7 +2,7 @@
 import type { CornerResult, Limiting } from '../analysis/evaluate.js';
 import { limitingCheck } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
-import { CIRCUIT_KINDS, VOLTAGE_KINDS, type Check } from '../checks/check.js';
+import { CIRCUIT_KINDS, VOLTAGE_KINDS, checkData, type CheckData } from '../checks/check.js';
 import { CAUTIONS } from './cautions.js';
 import { circuitReport, type CircuitReport } from './circuit-report.js';
 
@@ -31,7 +31,7 @@ export interface CornerReport {
   readonly overlap: number | null;
   /** Glitches swallowed by inertial delay in the steady-state period. */
   readonly glitches: ReadonlyArray<{ readonly net: string; readonly time: number }>;
-  readonly checks: readonly Check[];
+  readonly checks: readonly CheckData[];
   readonly verdict: 'pass' | 'fail';
   /** Why the corner could not be measured, if so. */
   readonly reason?: string;
@@ -77,7 +77,7 @@ export function cornerReport(result: CornerResult, netNames: readonly string[]):
   const base = {
     name: corner.name, process: corner.process, vdd: corner.vdd, temperature: corner.temperature, duty: corner.duty,
     glitches: result.simulation.glitches.map((g) => ({ net: netNames[g.net] ?? '?', time: g.time - result.simulation.windowStart })),
-    checks: result.checks,
+    checks: result.checks.map(checkData),
     verdict: result.pass ? 'pass' as const : 'fail' as const,
   };
   if (!m.ok) return { ...base, deadTimes: [], widths: {}, overlap: null, reason: m.reason };

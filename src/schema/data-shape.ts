@@ -23,7 +23,7 @@ export function checkDataShape(data: unknown, prefix: readonly PropertyKey[] = [
   const path: PropertyKey[] = [...prefix];
   let values = 0;
   const fail = (allowed: string, value?: string): never => {
-    const issue: InputIssue = { path: formatPath(path), value: value === undefined ? undefined : showValue(value), allowed };
+    const issue: InputIssue = { code: 'file.data-limit', path: formatPath(path), value: value === undefined ? undefined : showValue(value), allowed };
     throw new InputError([issue]);
   };
   const visit = (node: unknown, depth: number): void => {

@@ -1,5 +1,5 @@
 /**
- * The design file (SPEC 3): the single source of the design's types and of `phasegap schema`.
+ * The design file (docs/contracts.md, "Design file"): the single source of the design's types and of `phasegap schema`.
  */
 import * as z from 'zod';
 import { quantity, ratio, temperature } from './fields.js';

@@ -1,4 +1,4 @@
-/** The process card: device parameters per type and named process corners (SPEC 2.1). */
+/** The process card: device parameters per type and named process corners (docs/physics.md, "Device at a corner"). */
 import * as z from 'zod';
 import { quantity, ratio, temperature } from './fields.js';
 import { description, identifier, patterned } from './names.js';

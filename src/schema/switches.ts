@@ -1,4 +1,4 @@
-/** Switches and their constraints in the design file (SPEC 2.4). */
+/** Switches and their constraints in the design file (docs/physics.md, "Switches and constraints"). */
 import * as z from 'zod';
 import { quantity, ratio } from './fields.js';
 import { level } from './level.js';

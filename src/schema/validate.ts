@@ -79,36 +79,37 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
   switch (issue.code) {
     case 'unrecognized_keys':
       return {
+        code: 'field.unknown',
         path: joinPath(path, ''),
         allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}${didYouMean(issue.keys, knownKeys(schema, issue.path, root))}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_key': {
       const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
-      return { path: joinPath(prefix, formatPath(issue.path.slice(0, -1))), value: showValue(issue.path[issue.path.length - 1]), allowed: `is not allowed as a key here: ${inner}` };
+      return { code: 'field.not-allowed', path: joinPath(prefix, formatPath(issue.path.slice(0, -1))), value: showValue(issue.path[issue.path.length - 1]), allowed: `is not allowed as a key here: ${inner}` };
     }
     case 'invalid_type':
       return received === undefined
-        ? { path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
-        : { path, value: showValue(received), allowed: `has the wrong type; expected ${issue.expected}` };
+        ? { code: 'field.required', path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
+        : { code: 'value.wrong-type', path, value: showValue(received), allowed: `has the wrong type; expected ${issue.expected}` };
     case 'invalid_value':
-      if (received === undefined) return { path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
-      return { path, value: showValue(received), allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
+      if (received === undefined) return { code: 'field.required', path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
+      return { code: 'value.not-allowed', path, value: showValue(received), allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
     case 'invalid_union':
       if ('discriminator' in issue && issue.discriminator) {
         // zod already ends the path with the discriminator key.
-        return { path, value: showValue(received), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
+        return { code: 'value.not-allowed', path, value: showValue(received), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
       }
-      if (received === undefined) return { path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}` };
-      return { path, value: showValue(received), allowed: describeUnion(issue) };
+      if (received === undefined) return { code: 'field.required', path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}` };
+      return { code: 'value.wrong-type', path, value: showValue(received), allowed: describeUnion(issue) };
     case 'too_small':
     case 'too_big':
       if (issue.origin === 'array' && Array.isArray(received)) {
         const bound = issue.code === 'too_big' ? `at most ${issue.maximum}` : `at least ${issue.minimum}`;
-        return { path, allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed` };
+        return { code: 'value.too-many', path, allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed` };
       }
-      return { path, value: showValue(received), allowed: `is out of range: ${lowerFirst(issue.message)}` };
+      return { code: 'value.out-of-range', path, value: showValue(received), allowed: `is out of range: ${lowerFirst(issue.message)}` };
     default:
-      return { path, value: received === undefined ? undefined : showValue(received), allowed: issue.message };
+      return { code: 'value.invalid', path, value: received === undefined ? undefined : showValue(received), allowed: issue.message };
   }
 }
 

@@ -1,5 +1,5 @@
 /**
- * Event-driven timing simulation of a gate netlist (SPEC 2.3). Each transition is a linear ramp
+ * Event-driven timing simulation of a gate netlist (docs/physics.md, "Generator simulation"). Each transition is a linear ramp
  * described by its 50 % time and its transition time. Delays are inertial: an output change that
  * its inputs take back before it happens is swallowed and reported as a glitch.
  *

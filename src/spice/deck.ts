@@ -66,7 +66,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const models = cornerModels(card, corner, options.modelPath);
   const result = evaluateCorner(resolved, corner);
   if (!result.measurement.ok) {
-    throw inputError(`corners (${corner.name})`, corner.name,
+    throw inputError('physics.no-steady-state', `corners (${corner.name})`, corner.name,
       `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`);
   }
   const devices = devicesAtCorner(card, corner);

@@ -18,7 +18,7 @@ export interface CornerModels {
 /** The card's spice section, or an input error saying how to add one. */
 export function spiceSection(card: ProcessCard): SpiceSection {
   if (!card.spice) {
-    throw inputError('process.spice', undefined,
+    throw inputError('value.invalid', 'process.spice', undefined,
       `is missing from card "${card.name}"; add a spice section with models (the model file), n and p (model names) to write transistor-level decks`);
   }
   return card.spice;

@@ -27,7 +27,7 @@ export function checkSimulator(program = 'ngspice'): string {
   const probe = spawnSync(program, ['-v'], { encoding: 'utf8' });
   if (probe.error) {
     const code = (probe.error as NodeJS.ErrnoException).code;
-    throw inputError('ngspice', program, code === 'ENOENT'
+    throw inputError('tool.failed', 'ngspice', program, code === 'ENOENT'
       ? 'is not installed (or not on the PATH); install it with: sudo apt-get install ngspice (Debian/Ubuntu), or pass --ngspice PATH'
       : `cannot be started (${code ?? probe.error.message})`);
   }
@@ -53,7 +53,7 @@ export function runDecks(decks: ReadonlyArray<{ readonly name: string; readonly 
     const run = spawnSync('xargs', ['-0', '-P', String(parallel), '-I', '{}', executable, '-b', '-o', '{}.log', '{}'], {
       input: files.join('\0'), encoding: 'utf8', maxBuffer: 64 * 1024 * 1024, cwd: folder, shell: false,
     });
-    if (run.error) throw inputError('ngspice', program, `could not be run through xargs (${run.error.message})`);
+    if (run.error) throw inputError('tool.failed', 'ngspice', program, `could not be run through xargs (${run.error.message})`);
     return decks.map((deck, i) => {
       const log = join(folder, `${files[i]!}.log`);
       const output = existsSync(log) ? readFileSync(log, 'utf8') : `error: ngspice wrote no output for ${deck.name}`;

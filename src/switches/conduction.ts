@@ -1,5 +1,5 @@
 /**
- * When each switch conducts at one corner (SPEC 2.4): the instants its gate ramp crosses the
+ * When each switch conducts at one corner (docs/physics.md, "Switches and constraints"): the instants its gate ramp crosses the
  * device's turn-on level, V_S + V_TN for an n device and V_S - |V_TP| for a p device, with body
  * effect, at every point of the signal range it passes. A tgate conducts while either device does.
  */

@@ -100,18 +100,18 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
   const names = new Set<string>();
   const plans = switches.map((spec, i): SwitchPlan => {
     const path = `switches[${i}]`;
-    if (names.has(spec.name)) throw inputError(`${path}.name`, spec.name, 'is used by two switches; switch names must be unique');
+    if (names.has(spec.name)) throw inputError('value.duplicate', `${path}.name`, spec.name, 'is used by two switches; switch names must be unique');
     names.add(spec.name);
     const known = () => [...nets].filter((n) => !n.includes('.')).join(', ');
-    if (!nets.has(spec.gate)) throw inputError(`${path}.gate`, spec.gate, `is not a net of the generator; nets are ${known()}`);
+    if (!nets.has(spec.gate)) throw inputError('reference.unknown', `${path}.gate`, spec.gate, `is not a net of the generator; nets are ${known()}`);
     if (spec.type === 'tgate' && spec.gateBar === undefined) {
-      throw inputError(`${path}.gateBar`, undefined, 'is required for a tgate: name the net that drives its p gate (usually the phase complement)');
+      throw inputError('field.required', `${path}.gateBar`, undefined, 'is required for a tgate: name the net that drives its p gate (usually the phase complement)');
     }
     if (spec.type !== 'tgate' && spec.gateBar !== undefined) {
-      throw inputError(`${path}.gateBar`, spec.gateBar, `is only for a tgate; a ${spec.type} switch has one gate`);
+      throw inputError('field.not-allowed', `${path}.gateBar`, spec.gateBar, `is only for a tgate; a ${spec.type} switch has one gate`);
     }
     if (spec.gateBar !== undefined && !nets.has(spec.gateBar)) {
-      throw inputError(`${path}.gateBar`, spec.gateBar, `is not a net of the generator; nets are ${known()}`);
+      throw inputError('reference.unknown', `${path}.gateBar`, spec.gateBar, `is not a net of the generator; nets are ${known()}`);
     }
     const ls = spec.levelShifter;
     const devices: SwitchDevicePlan[] = [];
@@ -149,15 +149,15 @@ function terminalsOf(spec: SwitchSpec, path: string, devices: readonly SwitchDev
     return { terminals: [node, node], declared: false, signal };
   }
   if (spec.signal !== undefined) {
-    throw inputError(`${path}.signal`, 'given', 'cannot be given with `terminals`: the terminals\' node voltages say what the switch passes');
+    throw inputError('field.not-allowed', `${path}.signal`, 'given', 'cannot be given with `terminals`: the terminals\' node voltages say what the switch passes');
   }
   const terminals = spec.terminals.map((raw, j) => resolveTerminal(raw, nodes, `${path}.terminals[${j}]`)) as [NodeLevels, NodeLevels];
   if (terminals[0] === terminals[1] || (terminals[0].rail && terminals[1].rail && terminals[0].name === terminals[1].name)) {
-    throw inputError(`${path}.terminals`, spec.terminals, 'connects a node to itself; name the two different nodes the switch connects');
+    throw inputError('value.invalid', `${path}.terminals`, spec.terminals, 'connects a node to itself; name the two different nodes the switch connects');
   }
   const unknown = devices.find((d) => d.onIn === null);
   if (unknown) {
-    throw inputError(`${path}.gate`, unknown.net, 'must be a phase, a phase complement or an early phase when terminals are declared, so the phase each terminal voltage belongs to is known');
+    throw inputError('value.invalid', `${path}.gate`, unknown.net, 'must be a phase, a phase complement or an early phase when terminals are declared, so the phase each terminal voltage belongs to is known');
   }
   // What it passes while it conducts: both terminals in every phase state in which a device is on.
   const on: VoltageRange[] = [];
@@ -173,7 +173,7 @@ export function checkLevelShifters(plans: readonly SwitchPlan[], vdds: readonly 
     if (!ls) return;
     for (const vdd of vdds) {
       if (!(levelAt(ls.high, vdd) > levelAt(ls.low, vdd))) {
-        throw inputError(`switches[${i}].levelShifter.high`, describeLevel(ls.high),
+        throw inputError('physics.limit', `switches[${i}].levelShifter.high`, describeLevel(ls.high),
           `must be above the low level (${describeLevel(ls.low)}); at vdd = ${vdd} V it is ${levelAt(ls.high, vdd).toFixed(3)} V against ${levelAt(ls.low, vdd).toFixed(3)} V`);
       }
     }

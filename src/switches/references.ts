@@ -6,11 +6,11 @@ export function checkConstraintReferences(constraints: ConstraintsSpec, switchNa
   const known = new Set(switchNames);
   const allowed = switchNames.length > 0 ? `switches are ${switchNames.join(', ')}` : 'the design declares no switches';
   const need = (path: string, name: string) => {
-    if (!known.has(name)) throw inputError(path, name, `is not a switch of the design; ${allowed}`);
+    if (!known.has(name)) throw inputError('reference.unknown', path, name, `is not a switch of the design; ${allowed}`);
   };
   constraints.breakBeforeMake.forEach((c, i) => {
     c.between.forEach((name, j) => need(`constraints.breakBeforeMake[${i}].between[${j}]`, name));
-    if (c.between[0] === c.between[1]) throw inputError(`constraints.breakBeforeMake[${i}].between`, c.between, 'names the same switch twice');
+    if (c.between[0] === c.between[1]) throw inputError('value.duplicate', `constraints.breakBeforeMake[${i}].between`, c.between, 'names the same switch twice');
   });
   constraints.order.forEach((c, i) => {
     need(`constraints.order[${i}].first.switch`, c.first.switch);
@@ -19,7 +19,7 @@ export function checkConstraintReferences(constraints: ConstraintsSpec, switchNa
   constraints.settle.forEach((c, i) => {
     c.switches.forEach((name, j) => need(`constraints.settle[${i}].switches[${j}]`, name));
     if ((c.error === undefined) === (c.bits === undefined)) {
-      throw inputError(`constraints.settle[${i}]`, undefined, 'needs exactly one of `error` (a fraction, e.g. 0.001) or `bits` (N bits: half an LSB)');
+      throw inputError('field.required', `constraints.settle[${i}]`, undefined, 'needs exactly one of `error` (a fraction, e.g. 0.001) or `bits` (N bits: half an LSB)');
     }
   });
 }

@@ -7,5 +7,5 @@ import { inputError } from '../errors.js';
 /** Returns `value` when it is finite; otherwise throws an InputError naming `what` (a field path or an output item). */
 export function finite(value: number, what: string, why = ''): number {
   if (Number.isFinite(value)) return value;
-  throw inputError(what, value, `is not a finite number and cannot be written${why ? `: ${why}` : ''}`);
+  throw inputError('value.not-finite', what, value, `is not a finite number and cannot be written${why ? `: ${why}` : ''}`);
 }

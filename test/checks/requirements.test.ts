@@ -47,3 +47,18 @@ describe('requirementChecks: overlap at the gap level', () => {
     expect(message).toContain('requirements.gap.level');
   });
 });
+
+describe('requirementChecks: subjects', () => {
+  it('gives non-overlap both dead times with each one\'s gap margin, and each limit check its one dead time', () => {
+    const { checks, m } = run('{ deadTime: { min: 300ps, max: 5ns } }');
+    const overlap = checks.find((c) => c.kind === 'non-overlap')!;
+    expect(overlap.subject).toEqual({ type: 'dead-time', deadTimes: [0, 1], level: 'gap', limit: null });
+    expect(overlap.parts).toEqual([{ margin: m.deadTimes[0].gapBound }, { margin: m.deadTimes[1].gapBound }]);
+    const mins = checks.filter((c) => c.kind === 'dead-time-min');
+    expect(mins.map((c) => c.subject)).toEqual([
+      { type: 'dead-time', deadTimes: [0], level: 't50', limit: 300e-12 },
+      { type: 'dead-time', deadTimes: [1], level: 't50', limit: 300e-12 },
+    ]);
+    expect(mins[1]!.margin).toBe(m.deadTimes[1].t50 - 300e-12);
+  });
+});

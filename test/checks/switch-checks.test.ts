@@ -104,3 +104,35 @@ describe('settle with an on-window longer than half a period', () => {
     expectClose(long.settle - half.settle, long.width - half.width, 1e-13, 'abs');
   });
 });
+
+describe('switchChecks: subjects and parts', () => {
+  it('gives a break-before-make check both handovers, each with its own span from the turn-off and margin', () => {
+    const resolved = resolveYaml(design('  breakBeforeMake: [{ between: [a, b] }]', '25ps'));
+    const r = evaluateCorner(resolved, resolved.corners[0]!.corner);
+    const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
+    const [a, b] = ['a', 'b'].map((n) => r.switches.find((s) => s.name === n)!) as [SwitchConduction, SwitchConduction];
+    const period = 1 / 20e6;
+    expect(bbm.subject).toBe(resolved.switchCheckLabels.subjects[0]);
+    expect(bbm.subject).toMatchObject({ type: 'switch-events', constraint: 'break-before-make', min: 25e-12, label: 'a/b', named: false,
+      handovers: [{ first: { switch: 'a', event: 'off' }, then: { switch: 'b', event: 'on' } }, { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } }] });
+    expect(bbm.parts).toEqual([
+      { margin: handoverGap(a, b, period) - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 },
+      { margin: handoverGap(b, a, period) - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 },
+    ]);
+    expect(bbm.margin).toBe(Math.min(bbm.parts![0]!.margin, bbm.parts![1]!.margin));
+  });
+
+  it('gives an order check one part from the first event, its minimum as need', () => {
+    const resolved = resolveYaml(design('  order: [{ first: { switch: a, event: off }, then: { switch: b, event: on }, min: 10ps }]'));
+    const r = evaluateCorner(resolved, resolved.corners[0]!.corner);
+    const order = r.checks.find((c) => c.kind === 'order')!;
+    const a = r.switches.find((s) => s.name === 'a')!;
+    expect(order.subject).toMatchObject({ type: 'switch-events', constraint: 'order', min: 10e-12, label: 'order 1' });
+    expect(order.parts).toHaveLength(1);
+    const part = order.parts![0]!;
+    expect(part.start).toBe(a.off);
+    expect(part.need).toBe(10e-12);
+    expect(part.margin).toBe(order.margin);
+    expect(part.span! - 10e-12).toBe(order.margin);
+  });
+});

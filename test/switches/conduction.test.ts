@@ -47,7 +47,7 @@ describe('switchConduction', () => {
     const m = result.measurement;
     if (!m.ok) throw new Error(m.reason);
     const cycle = m.cycles.p1!;
-    // Hand formula (REFERENCES 6, derived): off = t50 + t_f * ((V_DD - V_x)/V_DD - 1/2), V_x = V_S + V_T(V_SB).
+    // Hand formula (derived by hand; docs/physics.md, "Switches and constraints"): off = t50 + t_f * ((V_DD - V_x)/V_DD - 1/2), V_x = V_S + V_T(V_SB).
     const card = { vth: 0.45, gamma: 0.45, phi2f: 0.85 }; // generic180 n device at tt/27C
     const vx = 0.3 + card.vth + card.gamma * (Math.sqrt(card.phi2f + 0.3) - Math.sqrt(card.phi2f));
     const expectedOff = cycle.fall + cycle.fallTransition * ((1.8 - vx) / 1.8 - 0.5);

@@ -3,7 +3,7 @@ import { bitsToError, bodyThreshold, offStateAllowance, rampCrossing, settlingTi
 import { expectClose } from '../helpers.js';
 
 describe('rampCrossing', () => {
-  // Worked example derived from the linear ramp (REFERENCES 6, marked [D]): an nmos passing
+  // Worked example derived from the linear ramp (derived by hand; docs/physics.md, "Switches and constraints"): an nmos passing
   // V_S = 0.3 V with V_TN = 0.45 V on a 1.8 V -> 0 ramp of t_f = 600 ps opens
   // (1/2 - (V_S + V_TN)/V_DD) * t_f = (0.5 - 0.75/1.8) * 600 ps = 50.0 ps after the 50 % point.
   it('puts an nmos turn-off 50 ps after the 50 % point of a 600 ps falling ramp (V_S 0.3 V, V_TN 0.45 V)', () => {
@@ -41,7 +41,7 @@ describe('bodyThreshold', () => {
 });
 
 describe('triodeResistance', () => {
-  // REFERENCES 6 [D]: mu*Cox = 200 uA/V^2, W/L = 10, V_ov = 1 V -> 500 ohm (common-practice formula).
+  // Derived by hand (docs/physics.md, "Switches and constraints"): mu*Cox = 200 uA/V^2, W/L = 10, V_ov = 1 V -> 500 ohm (common-practice formula).
   it('gives 500 ohm for k\' = 200 uA/V^2, W/L = 10, 1 V overdrive', () => {
     expectClose(triodeResistance(200e-6, 10e-6, 1e-6, 1), 500, 1e-12);
   });
@@ -52,14 +52,14 @@ describe('triodeResistance', () => {
 });
 
 describe('settling time constants', () => {
-  // REFERENCES 6 [D]: ln(2^(N+1)) half-LSB: 10 b -> 7.6246 tau, 12 b -> 9.0109 tau; one LSB at 12 b 8.3178 tau.
+  // Derived by hand (docs/physics.md, "Switches and constraints"): ln(2^(N+1)) half-LSB: 10 b -> 7.6246 tau, 12 b -> 9.0109 tau; one LSB at 12 b 8.3178 tau.
   it.each([[10, 7.6246], [12, 9.0109]])('needs ln(2^(N+1)) tau for %i bits at half an LSB', (bits, taus) => {
     expectClose(settlingTimeConstants(bitsToError(bits)), taus, 1e-4);
   });
   it('needs 8.3178 tau for one LSB at 12 bits', () => {
     expectClose(settlingTimeConstants(Math.pow(2, -12)), 8.3178, 1e-4);
   });
-  // REFERENCES 6 [D]: 500 ohm with 1 pF is tau = 0.5 ns; 10-bit half-LSB settling takes 3.812 ns.
+  // Derived by hand (docs/physics.md, "Switches and constraints"): 500 ohm with 1 pF is tau = 0.5 ns; 10-bit half-LSB settling takes 3.812 ns.
   it('settles 500 ohm into 1 pF to 10 bits in 3.812 ns', () => {
     expectClose(settlingTimeConstants(bitsToError(10)) * 500 * 1e-12, 3.812e-9, 1e-3);
   });

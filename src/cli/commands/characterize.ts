@@ -56,9 +56,9 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
     const vdd = v === undefined ? undefined : parseQuantity(v, 'V');
     const temperature = t === undefined ? undefined : parseTemperature(t);
     if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
-      throw inputError('--corners', name, 'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas');
+      throw inputError('reference.unknown', '--corners', name, 'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas');
     }
-    if (processCornerOf(card, process) === undefined) throw inputError('--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
+    if (processCornerOf(card, process) === undefined) throw inputError('reference.unknown', '--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
     return { name: cornerName(process, vdd.value, temperature.value), process, vdd: vdd.value, temperature: temperature.value };
   });
 }
@@ -66,7 +66,7 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
 function parseCells(text: string | undefined): PrimitiveCell[] {
   if (text === undefined) return [...TABLE_CELLS];
   return text.split(',').map((s) => s.trim().toUpperCase()).map((cell) => {
-    if (!Object.hasOwn(CELLS, cell)) throw inputError('--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
+    if (!Object.hasOwn(CELLS, cell)) throw inputError('reference.unknown', '--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
     return cell as PrimitiveCell;
   });
 }
@@ -74,10 +74,10 @@ function parseCells(text: string | undefined): PrimitiveCell[] {
 export function runCharacterize(io: Io, processPath: string, options: CharacterizeOptions): number {
   const card = loadProcess(processPath);
   const cardDir = dirname(resolve(processPath));
-  if (options.grid !== 'coarse' && options.grid !== 'fine') throw inputError('--grid', options.grid, 'is not a grid; allowed: coarse, fine');
-  if (options.corners !== undefined && options.design !== undefined) throw inputError('--corners', options.corners, 'cannot be combined with --design; give one of them');
+  if (options.grid !== 'coarse' && options.grid !== 'fine') throw inputError('option.invalid', '--grid', options.grid, 'is not a grid; allowed: coarse, fine');
+  if (options.corners !== undefined && options.design !== undefined) throw inputError('option.invalid', '--corners', options.corners, 'cannot be combined with --design; give one of them');
   const size = options.size === undefined ? 1 : Number(options.size);
-  if (!(size > 0 && size <= 1000)) throw inputError('--size', options.size, 'must be a cell size above 0 and at most 1000');
+  if (!(size > 0 && size <= 1000)) throw inputError('option.invalid', '--size', options.size, 'must be a cell size above 0 and at most 1000');
   const cells = parseCells(options.cells);
   const jobs = parseJobs(options.jobs);
   let corners: CornerPoint[];
@@ -107,16 +107,16 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
       const ronDeck = ronCharacterizationDeck(card, corner, modelPath);
       const outputs = runDecks([...decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { name: `${corner.name} R_on`, text: ronDeck.text }], { program: options.ngspice, parallel: jobs });
       const ron = cornerRonFrom(ronDeck, parseSimulatorOutput(outputs[decks.length]!.output, ronDeck.names).values);
-      if (typeof ron === 'string') throw inputError('ngspice', corner.name, `on-resistance characterization failed: ${ron}`);
+      if (typeof ron === 'string') throw inputError('tool.failed', 'ngspice', corner.name, `on-resistance characterization failed: ${ron}`);
       const parts = decks.map((deck, i) => {
         const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
         if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-          throw inputError('ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
+          throw inputError('tool.failed', 'ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
         }
         return { deck, values: parsed.values };
       });
       const result = cornerTablesFrom(parts);
-      if (typeof result === 'string') throw inputError('ngspice', corner.name, `characterization failed: ${result}`);
+      if (typeof result === 'string') throw inputError('tool.failed', 'ngspice', corner.name, `characterization failed: ${result}`);
       tables.push({ ...result, ron });
       bar.update(tables.length);
     }

@@ -20,8 +20,8 @@ export const DEFAULT_DIFF_TOLERANCE = { time: 1e-12, voltage: 1e-3 } as const;
 function quantity(flag: string, text: string | undefined, unit: 's' | 'V', fallback: number): number {
   if (text === undefined) return fallback;
   const q = parseQuantity(text, unit);
-  if (!q.ok) throw inputError(flag, text, q.allowed);
-  if (!(q.value >= 0)) throw inputError(flag, text, `must not be negative, e.g. ${unit === 's' ? '5ps' : '10mV'}`);
+  if (!q.ok) throw inputError('option.invalid', flag, text, q.allowed);
+  if (!(q.value >= 0)) throw inputError('option.invalid', flag, text, `must not be negative, e.g. ${unit === 's' ? '5ps' : '10mV'}`);
   return q.value;
 }
 

@@ -29,7 +29,7 @@ export interface DrawOptions extends ModelOptions {
 export function runDraw(io: Io, designPath: string, options: DrawOptions): number {
   const out = requireOut(options.out, 'SVG');
   if (!(CHARTS as readonly string[]).includes(options.chart)) {
-    throw inputError('--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
+    throw inputError('option.invalid', '--chart', options.chart, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   }
   const nets = parseNets(options.nets);
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);

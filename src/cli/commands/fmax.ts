@@ -23,7 +23,7 @@ function parseResolution(text: string | undefined): number | undefined {
   if (text === undefined) return undefined;
   const value = relativeNumber(text);
   if (!(value >= MIN_FMAX_RESOLUTION && value < MAX_FMAX_RESOLUTION)) {
-    throw inputError('--resolution', text, `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`);
+    throw inputError('option.invalid', '--resolution', text, `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`);
   }
   return value;
 }

@@ -47,7 +47,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   checkOutput(options.histogram, inputs, '--histogram');
   checkOutput(options.junit, inputs, '--junit');
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
-    throw inputError('--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
+    throw inputError('option.invalid', '--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
   }
   const samples = optionalWholeNumber('--samples', options.samples, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, design.montecarlo?.samples ?? 1000);
   const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, design.montecarlo?.seed ?? 1);
@@ -67,7 +67,7 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     return verdict.verdict === 'pass' ? 0 : 1;
   }
   for (const [flag, value] of [['--histogram-corner', options.histogramCorner], ['--histogram-check', options.histogramCheck]] as const) {
-    if (value !== undefined && options.histogram === undefined) throw inputError(flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
+    if (value !== undefined && options.histogram === undefined) throw inputError('option.invalid', flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
   }
   if (options.histogram !== undefined && (options.histogramCorner !== undefined || options.histogramCheck !== undefined)) {
     // Names are checked before the run, so a typo costs no waiting (a design's check names are alike at every corner).

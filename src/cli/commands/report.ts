@@ -67,10 +67,10 @@ export function markdownImageNames(out: string): { worst: string; all: string; m
 export function runReport(io: Io, designPath: string, options: ReportOptions): number {
   const out = requireOut(options.out, options.format === 'md' ? 'Markdown' : 'HTML');
   if (!(REPORT_FORMATS as readonly string[]).includes(options.format)) {
-    throw inputError('--format', options.format, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
+    throw inputError('option.invalid', '--format', options.format, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
   }
   if (options.format === 'md' && out === '-') {
-    throw inputError('--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
+    throw inputError('option.invalid', '--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
   }
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const resolved = loaded.resolved;

@@ -29,7 +29,7 @@ export function runSpice(io: Io, designPath: string, options: SpiceOptions): num
   const cornerSpec = options.corner ?? 'worst';
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   if (cornerSpec === 'all' || cornerSpec.includes(',')) {
-    throw inputError('--corner', cornerSpec, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
+    throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
   }
   const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;
   const absolute = modelFile(card, cardDir, options.models);

@@ -36,7 +36,7 @@ function sink(io: Io, out: string | undefined, inputs: readonly string[]) {
   try {
     file = openTemp(out);
   } catch (error) {
-    throw inputError('--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
+    throw inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
   }
   const { fd, temp } = file;
   const abandon = () => {
@@ -46,7 +46,7 @@ function sink(io: Io, out: string | undefined, inputs: readonly string[]) {
   const failed = (error: unknown) => {
     abandon();
     if (error instanceof InputError) return error;
-    return inputError('--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`);
+    return inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`);
   };
   return {
     write: (t: string) => {
@@ -73,7 +73,7 @@ function checkAxes(setup: SweepSetup): SweepColumns {
   const found: SweepColumns[] = [];
   setup.axes.forEach((axis, a) => {
     const names = setup.axes.map((x) => x.path);
-    if (names.indexOf(axis.path) !== a) throw inputError('--vary', axis.path, 'is given twice; vary each axis once');
+    if (names.indexOf(axis.path) !== a) throw inputError('option.invalid', '--vary', axis.path, 'is given twice; vary each axis once');
     const stride = setup.axes.slice(a + 1).reduce((n, x) => n * x.values.length, 1);
     axis.values.forEach((_, k) => {
       sweepPoint(setup, k * stride);
@@ -87,7 +87,7 @@ function checkAxes(setup: SweepSetup): SweepColumns {
 const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export async function runSweep(io: Io, designPath: string, options: SweepOptions): Promise<number> {
-  if (options.vary.length === 0) throw inputError('--vary', undefined, 'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5');
+  if (options.vary.length === 0) throw inputError('option.invalid', '--vary', undefined, 'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5');
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design } = loaded;
   const inputs = inputFiles(loaded, options);
@@ -97,7 +97,7 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
   const threads = optionalWholeNumber('--workers', options.workers, { min: 1, max: MAX_WORKERS, noun: 'threads' }, Math.min(availableParallelism(), MAX_WORKERS));
   for (const axis of axes) {
     if ((CORNER_AXES as readonly string[]).includes(axis.path) && design.corners.list) {
-      throw inputError(`--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
+      throw inputError('option.invalid', `--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
     }
   }
   const setup: SweepSetup = { design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
@@ -111,7 +111,7 @@ export async function runSweep(io: Io, designPath: string, options: SweepOptions
     const unlisted = options.json ? [] : unlistedNames(row, columns);
     if (unlisted.length > 0) {
       // Only two or more design axes acting together can give a check that no single axis value gives.
-      throw inputError('--vary', axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
+      throw inputError('option.invalid', '--vary', axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
         `gives checks no single axis value gives (${unlisted.join('; ')}), so the CSV has no column for them; sweep these axes one at a time, or use --json`);
     }
     out.write(options.json ? jsonRow(row, axes, written === 0) : csvRow(row, columns));

@@ -36,15 +36,15 @@ function numberList(flag: string, text: string, check: (n: number) => boolean, a
   const items = text.split(',').map((s) => s.trim());
   const values = items.map(Number);
   const bad = items.findIndex((s, i) => s === '' || !check(values[i]!));
-  if (bad >= 0) throw inputError(flag, items[bad], allowed);
+  if (bad >= 0) throw inputError('option.invalid', flag, items[bad], allowed);
   return [...new Set(values)].sort((a, b) => a - b);
 }
 
 /** A quantity option in `unit`, at least 0 (or above 0 with `positive`); `allowed` words the bound. */
 function quantityOption(flag: string, text: string, unit: Unit, positive: boolean, allowed: string): number {
   const q = parseQuantity(text, unit);
-  if (!q.ok) throw inputError(flag, text, q.allowed);
-  if (!(positive ? q.value > 0 : q.value >= 0)) throw inputError(flag, text, allowed);
+  if (!q.ok) throw inputError('option.invalid', flag, text, q.allowed);
+  if (!(positive ? q.value > 0 : q.value >= 0)) throw inputError('option.invalid', flag, text, allowed);
   return q.value;
 }
 
@@ -95,7 +95,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
     loadStep: options.step === undefined ? base.loadStep : capacitance('--step', options.step),
     headroom: options.margin === undefined ? base.headroom : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
   };
-  if (space.loadStep > space.maxLoad) throw inputError('--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
+  if (space.loadStep > space.maxLoad) throw inputError('option.invalid', '--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
   const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
   const confirmTop = optionalWholeNumber('--confirm-top', options.confirmTop, { min: 1, max: 20 }, 3);
   const { simulate, note } = tuneSimulator(io, card, loaded.cardDir, options);

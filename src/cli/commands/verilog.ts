@@ -33,7 +33,7 @@ export function runVerilog(io: Io, designPath: string, options: VerilogOptions):
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
   const cornerSpec = options.corner ?? 'worst';
-  if (cornerSpec === 'all' || cornerSpec.includes(',')) throw inputError('--corner', cornerSpec, 'must name one corner or worst');
+  if (cornerSpec === 'all' || cornerSpec.includes(',')) throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner or worst');
   const periods = optionalWholeNumber('--periods', options.periods, { min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }, 6);
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;

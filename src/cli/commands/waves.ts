@@ -27,7 +27,7 @@ export interface WavesOptions extends ModelOptions {
 export function runWaves(io: Io, designPath: string, options: WavesOptions): number {
   const out = requireOut(options.out, 'VCD');
   const allowed = Object.keys(TIMESCALES);
-  if (!allowed.includes(options.timescale)) throw inputError('--timescale', options.timescale, `is not offered; allowed: ${allowed.join(', ')}`);
+  if (!allowed.includes(options.timescale)) throw inputError('option.invalid', '--timescale', options.timescale, `is not offered; allowed: ${allowed.join(', ')}`);
   const timescale = options.timescale as Timescale;
   const periods = wholeNumber('--periods', options.periods, { min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' });
   const nets = parseNets(options.nets);
@@ -40,7 +40,7 @@ export function runWaves(io: Io, designPath: string, options: WavesOptions): num
   const index = selection.kind === 'corner' ? selection.index : selection.reference;
   const result = results[index]!;
   if (!result.measurement.ok) {
-    throw inputError('--corner', result.corner.name, `has no steady state to dump (${result.measurement.reason}); pick another corner`);
+    throw inputError('option.invalid', '--corner', result.corner.name, `has no steady state to dump (${result.measurement.reason}); pick another corner`);
   }
   const period = result.simulation.period;
   const text = renderVcd({

@@ -510,11 +510,11 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       drawText(labels, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
         size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', ground: true,
-        data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.value - bbm.guard) },
+        data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.margin) },
       });
       const overlap = mark.value >= 0 ? '' : bbm.kind === 'order' ? `reversed by ${psText(-mark.value)} · ` : `both conduct for ${psText(-mark.value)} · `;
       const required = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
-      const note = `${overlap}margin ${signedPs(mark.value - bbm.guard)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
+      const note = `${overlap}margin ${signedPs(mark.margin)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
       drawNote(labels, note, centre, lineY + 18, scale, mark.pass);
     }
   }
