@@ -58,7 +58,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
     if (!circuit) return timing;
     const measured = parseSimulatorOutput(outputs[decks.length + i]!.output, circuit.measures);
     if (measured.errors.length > 0 && [...measured.values.values()].every((v) => v === null)) {
-      throw inputError('ngspice', circuit.corner.name, `failed on the circuit deck of this corner: ${measured.errors[0]}`);
+      throw inputError('tool.failed', 'ngspice', circuit.corner.name, `failed on the circuit deck of this corner: ${measured.errors[0]}`);
     }
     const compared = compareCircuit(circuit, measured);
     return { ...timing, circuit: compared, errors: [...timing.errors, ...measured.errors], pass: timing.pass && compared.pass };

@@ -107,11 +107,11 @@ function modelFigures(c: CornerCircuit): ModelCircuitFigures {
 export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: Pick<DeckOptions, 'modelPath'>): CircuitDeck {
   const { design } = resolved;
   const spec = design.circuit;
-  if (!spec) throw inputError('circuit', undefined, 'is missing: only a design with a circuit section has a circuit deck');
+  if (!spec) throw inputError('field.required', 'circuit', undefined, 'is missing: only a design with a circuit section has a circuit deck');
   const result = evaluateCorner(resolved, corner);
   const circuit = result.circuit;
   if (!result.measurement.ok || !circuit) {
-    throw inputError(`corners (${corner.name})`, corner.name, 'cannot be written as a circuit deck: the model finds no steady state there');
+    throw inputError('physics.no-steady-state', `corners (${corner.name})`, corner.name, 'cannot be written as a circuit deck: the model finds no steady state there');
   }
   const vdd = corner.vdd;
   const T = 1 / design.clock.frequency;
