@@ -37,7 +37,7 @@ function solveAll(list: readonly CircuitModel[]): number {
   return performance.now() - t;
 }
 for (let i = 0; i < 5; i++) solveAll(models); // warm the JIT
-const repeats = 20;
+const repeats = 60; // the least of many runs: a loaded machine preempts single runs of a few milliseconds
 let one = Infinity;
 let all = Infinity;
 for (let i = 0; i < repeats; i++) {
