@@ -39,6 +39,9 @@ describe('every shipped demo design', () => {
     ['doubler-unboosted', 1, 'stress'],
     ['doubler-unboosted-pump', 1, 'stress'],
     ['doubler-diode-pump', 1, 'output-min'],
+    ['dickson-pump', 0, null],
+    ['negative-pump', 0, null],
+    ['sc-integrator-path', 0, null],
   ] as const)('%s exits %i', (name, code, kind) => {
     const run = cli('check', design(name), '--json');
     expect(run.code).toBe(code);
