@@ -48,5 +48,5 @@ describe('every shipped demo design', () => {
     const report = JSON.parse(run.stdout) as { verdict: string; limiting?: { kind: string } | null };
     expect(report.verdict).toBe(code === 0 ? 'pass' : 'fail');
     if (kind !== null) expect(report.limiting?.kind).toBe(kind);
-  });
+  }, 600_000); // dickson-pump solves four diodes at 45 corners: about 25 s of CPU, minutes on a loaded machine
 });
