@@ -1,9 +1,11 @@
 /**
  * The highest clock frequency at which every check holds at every corner: bracket by doubling or
- * halving from the design's frequency, then bisect to a relative resolution.
+ * halving from the design's frequency, then bisect to a relative resolution. A design with a
+ * circuit section has its output requirements among the checks, so without a settle constraint
+ * the output spec (output level, ripple, efficiency, lost charge) sets fmax and the note says so.
  */
 import { CornerEvaluator, limitingCheck, type Limiting } from './evaluate.js';
-import { VOLTAGE_KINDS, type CheckKind } from '../checks/check.js';
+import { CIRCUIT_KINDS, VOLTAGE_KINDS, type CheckKind } from '../checks/check.js';
 import type { ResolvedDesign } from './resolve.js';
 
 export interface FmaxOptions {
@@ -106,5 +108,12 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     if (t.pass) { lo = mid; passing = t.limiting; }
     else { hi = mid; failing = t.limiting; probe = mid; }
   }
-  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, atFmax: passing, probeFrequency: probe, note: '', evaluations };
+  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, atFmax: passing, probeFrequency: probe, note: circuitNote(resolved, failing), evaluations };
+}
+
+/** Words naming the circuit requirement that sets fmax, when one does. */
+function circuitNote(resolved: ResolvedDesign, limiting: Limiting | null): string {
+  if (!limiting || !CIRCUIT_KINDS.has(limiting.kind as CheckKind)) return '';
+  const settle = resolved.design.constraints.settle.length > 0 ? '' : ' (the design has no settle constraint)';
+  return `the circuit's output requirement ${limiting.check} sets fmax${settle}`;
 }

@@ -1,6 +1,7 @@
 /**
  * Requirement checks on the circuit's figures at one corner (`circuit.requirements`): mean output
- * at least its minimum (at the heavier load) and at most its maximum (at the lighter load),
+ * at least its minimum and at most its maximum, each at the load end that is harder on it (for a
+ * positive output the minimum at the heavier load, for a negative one the maximum),
  * ripple, efficiency and charge lost per period. Margins are positive when met: V for output and
  * ripple, a fraction for efficiency, C for lost charge. A circuit with no steady state fails them
  * all without a margin.
@@ -51,8 +52,10 @@ export function circuitChecks(c: CornerCircuit, req: CircuitRequirements, names:
       out.push({ kind, subject, name, margin: null, pass: false, detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state' });
     } else out.push({ kind, subject, name, margin, pass: margin >= 0 });
   };
-  if (req.output?.min) add('output-min', SUBJECTS.output, names.outputMin, c.output - levelAt(req.output.min, vdd));
-  if (req.output?.max) add('output-max', SUBJECTS.output, names.outputMax, levelAt(req.output.max, vdd) - c.lightOutput);
+  // The heavier load pulls the output towards ground: a positive output's minimum and a negative one's maximum are checked there.
+  const [low, high] = c.output < 0 ? [c.lightOutput, c.output] : [c.output, c.lightOutput];
+  if (req.output?.min) add('output-min', SUBJECTS.output, names.outputMin, low - levelAt(req.output.min, vdd));
+  if (req.output?.max) add('output-max', SUBJECTS.output, names.outputMax, levelAt(req.output.max, vdd) - high);
   if (req.ripple) add('ripple-max', SUBJECTS.ripple, names.ripple, req.ripple.max - c.ripple);
   if (req.efficiency) add('efficiency-min', SUBJECTS.efficiency, names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
   if (req.lostCharge) add('lost-charge-max', SUBJECTS['lost-charge'], names.lostCharge, req.lostCharge.max - c.lostCharge);

@@ -15,7 +15,7 @@ import { circuitFigures, solve, withLoad, type CircuitFigures } from './figures.
 import { buildNetwork, type CircuitNetwork } from './network.js';
 
 export interface CornerCircuit extends CircuitFigures {
-  /** Mean output at the lighter end of the load range, V (the output maximum is checked there). */
+  /** Mean output at the lighter end of the load range, V (a positive output's maximum and a negative one's minimum are checked there). */
   readonly lightOutput: number;
   /** Names of the circuit nodes, for the waveforms in trace.voltages. */
   readonly nodes: readonly string[];
@@ -54,8 +54,9 @@ export class CircuitEvaluator {
     const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period);
     const figures = circuitFigures(model, net.load, generatorEnergy(this.netLoads, this.plans, this.card, devices.vdd), net.spec.startupCycles);
     const sameLoad = net.lightLoad.current === net.load.current && net.lightLoad.conductance === net.load.conductance;
-    const needLight = !sameLoad && net.spec.requirements.output?.max !== undefined;
     const sign = figures.output < 0 ? -1 : 1;
+    const bound = sign > 0 ? net.spec.requirements.output?.max : net.spec.requirements.output?.min;
+    const needLight = !sameLoad && bound !== undefined;
     const lightOutput = needLight ? solve(withLoad(model, net.lightLoad, sign)).trace.outputMean : figures.output;
     return { ...figures, lightOutput, nodes: net.nodes, start: model.start };
   }

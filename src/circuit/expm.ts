@@ -2,7 +2,9 @@
  * Matrix exponential by scaling and squaring with a diagonal Pade approximant of degree 6
  * (G. H. Golub, C. F. Van Loan, Matrix Computations, 3rd ed., algorithm 11.3.1): the matrix is
  * scaled by 2^-j until its infinity norm is at most 1/2, the approximant solved as D^-1 N with
- * ml-matrix's LU decomposition, then squared j times.
+ * ml-matrix's LU decomposition, then squared j times. The powers and squarings run on flat
+ * scratch arrays (the same summation order as ml-matrix's `mmul`): a circuit solve takes
+ * thousands of small exponentials and the per-product allocations dominated its time.
  */
 import { LuDecomposition, Matrix } from 'ml-matrix';
 
@@ -19,28 +21,88 @@ export function infinityNorm(a: Float64Array, m: number): number {
   return best;
 }
 
+/** out = a b for row-major m x m matrices (out must not alias a or b); col is scratch of length m. */
+function multiply(a: Float64Array, b: Float64Array, m: number, out: Float64Array, col: Float64Array): void {
+  for (let j = 0; j < m; j++) {
+    for (let k = 0; k < m; k++) col[k] = b[k * m + j]!;
+    for (let i = 0; i < m; i++) {
+      let s = 0;
+      for (let k = 0; k < m; k++) s += a[i * m + k]! * col[k]!;
+      out[i * m + j] = s;
+    }
+  }
+}
+
+/** Scratch for exponentials of one size, reused across calls. */
+class Scratch {
+  readonly a: Float64Array;
+  readonly x: Float64Array;
+  readonly y: Float64Array;
+  readonly n: Float64Array;
+  readonly d: Float64Array;
+  readonly col: Float64Array;
+  readonly dm: Matrix;
+  readonly nm: Matrix;
+  constructor(readonly m: number) {
+    const size = m * m;
+    this.a = new Float64Array(size);
+    this.x = new Float64Array(size);
+    this.y = new Float64Array(size);
+    this.n = new Float64Array(size);
+    this.d = new Float64Array(size);
+    this.col = new Float64Array(m);
+    this.dm = new Matrix(m, m);
+    this.nm = new Matrix(m, m);
+  }
+}
+
+const scratchBySize = new Map<number, Scratch>();
+
 /** e^(a t) for a row-major m x m matrix `a`, written into `out` (row-major). */
 export function expm(a: Float64Array, m: number, t: number, out: Float64Array): Float64Array {
+  let s = scratchBySize.get(m);
+  if (!s) { s = new Scratch(m); scratchBySize.set(m, s); }
+  const size = m * m;
   const norm = infinityNorm(a, m) * t;
   const j = norm > 0.5 ? Math.max(0, Math.ceil(Math.log2(norm / 0.5))) : 0;
   const scale = t / 2 ** j;
-  const A = new Matrix(m, m);
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) A.set(r, c, a[r * m + c]! * scale);
-  let X = A;
+  const A = s.a;
+  for (let i = 0; i < size; i++) A[i] = a[i]! * scale;
   let c = 0.5;
-  const N = Matrix.eye(m, m).add(Matrix.mul(A, c));
-  const D = Matrix.eye(m, m).sub(Matrix.mul(A, c));
+  const N = s.n;
+  const D = s.d;
+  for (let i = 0; i < size; i++) {
+    const eye = i % (m + 1) === 0 ? 1 : 0;
+    N[i] = eye + A[i]! * c;
+    D[i] = eye - A[i]! * c;
+  }
+  let X = s.x;
+  let Y = s.y;
+  X.set(A);
   let positive = true;
   for (let k = 2; k <= DEGREE; k++) {
     c = (c * (DEGREE - k + 1)) / (k * (2 * DEGREE - k + 1));
-    X = A.mmul(X);
-    N.add(Matrix.mul(X, c));
-    if (positive) D.add(Matrix.mul(X, c));
-    else D.sub(Matrix.mul(X, c));
+    multiply(A, X, m, Y, s.col);
+    [X, Y] = [Y, X];
+    for (let i = 0; i < size; i++) {
+      const term = X[i]! * c;
+      N[i] = N[i]! + term;
+      D[i] = positive ? D[i]! + term : D[i]! - term;
+    }
     positive = !positive;
   }
-  let F = new LuDecomposition(D).solve(N);
-  for (let k = 0; k < j; k++) F = F.mmul(F);
-  for (let r = 0; r < m; r++) for (let col = 0; col < m; col++) out[r * m + col] = F.get(r, col);
+  for (let r = 0; r < m; r++) {
+    for (let col = 0; col < m; col++) {
+      s.dm.set(r, col, D[r * m + col]!);
+      s.nm.set(r, col, N[r * m + col]!);
+    }
+  }
+  const solved = new LuDecomposition(s.dm).solve(s.nm);
+  for (let r = 0; r < m; r++) for (let col = 0; col < m; col++) X[r * m + col] = solved.get(r, col);
+  for (let k = 0; k < j; k++) {
+    multiply(X, X, m, Y, s.col);
+    [X, Y] = [Y, X];
+  }
+  out.set(X);
   return out;
 }

@@ -9,6 +9,7 @@
  */
 import type { CircuitModel } from './model.js';
 import { periodOf } from './model.js';
+import { pwlCount } from './branches.js';
 import { PeriodSolver, type SteadyState } from './period-solver.js';
 import { startup } from './startup.js';
 import { tracePeriod, type PeriodTrace } from './trace.js';
@@ -100,6 +101,23 @@ function impedance(model: CircuitModel, load: CircuitLoad, sign: number, full?: 
   return { r, open: heavy.outputMean + r * (heavy.loadCharge / period) };
 }
 
+/** Periods run from rest to tell a positive output from a negative one. */
+const SIGN_PERIODS = 20;
+
+/**
+ * The sign of the output, from a few periods run from rest without the load's current: the
+ * load's current flows towards ground from a positive output and out of ground into a negative
+ * one. (A steady-state solve without the current has no unique answer for a diode pump, whose
+ * diodes then rest exactly at their drop, and falls back to running hundreds of periods.)
+ */
+export function outputSign(model: CircuitModel): 1 | -1 {
+  const solver = new PeriodSolver(model);
+  const x = new Float64Array(solver.n);
+  const segments = Array.from({ length: solver.substeps }, () => new Uint8Array(pwlCount(model)));
+  for (let period = 0; period < SIGN_PERIODS; period++) solver.runPeriod(x, segments);
+  return x[model.output]! < 0 ? -1 : 1;
+}
+
 /**
  * `model` carries no load; `generatorEnergy` is what the clock generator and the switch gates
  * draw per period, J.
@@ -107,8 +125,7 @@ function impedance(model: CircuitModel, load: CircuitLoad, sign: number, full?: 
 export function circuitFigures(model: CircuitModel, load: CircuitLoad, generatorEnergy: number, startupLimit: number): CircuitFigures {
   const period = periodOf(model);
   const hasLoad = load.current !== 0 || load.conductance !== 0;
-  // The load's current flows towards ground from a positive output and out of ground into a negative one.
-  const sign = hasLoad && solve(withLoad(model, { current: 0, conductance: load.conductance }, 1)).trace.outputMean < 0 ? -1 : 1;
+  const sign = hasLoad ? outputSign(withLoad(model, { current: 0, conductance: load.conductance }, 1)) : 1;
   const loaded = solve(withLoad(model, load, sign));
   const t = loaded.trace;
   const loadCurrent = t.loadCharge / period;

@@ -41,7 +41,9 @@ export class PeriodSolver {
   readonly substepInterval: Int32Array;
   readonly substepLength: Float64Array;
   private readonly builder: SubstepBuilder;
-  private readonly cache = new Map<string, SubstepMap>();
+  private readonly cache = new Map<number | string, SubstepMap>();
+  /** Segment codes fit a number below 2^53 (base 3 per part, times the interval count). */
+  private readonly numericKeys: boolean;
   private readonly pwl: number;
   private readonly voltages: Float64Array;
   private readonly scratch: Float64Array;
@@ -67,6 +69,7 @@ export class PeriodSolver {
     this.integrals = new Float64Array(this.n);
     this.end = new Float64Array(this.n);
     this.endSegments = new Uint8Array(this.pwl);
+    this.numericKeys = 3 ** this.pwl * model.intervals.length < Number.MAX_SAFE_INTEGER;
   }
 
   get substeps(): number {
@@ -76,7 +79,10 @@ export class PeriodSolver {
   /** The exact map of substep k with the given segments (cached). */
   map(k: number, segments: Uint8Array): SubstepMap {
     const interval = this.substepInterval[k]!;
-    const key = this.pwl === 0 ? String(interval) : `${interval}:${segments.join('')}`;
+    let key: number | string = interval;
+    if (this.numericKeys) {
+      for (let i = 0; i < this.pwl; i++) key = key * 3 + segments[i]!;
+    } else key = `${interval}:${segments.join('')}`;
     let m = this.cache.get(key);
     if (!m) {
       m = this.builder.build(interval, segments, this.substepLength[k]!);

@@ -62,8 +62,8 @@ export const loadSchema = z.union([
 
 export const circuitRequirementsSchema = z.strictObject({
   output: z.strictObject({
-    min: level('Lowest allowed mean output (for a negative pump, the least magnitude: write it negative)').optional(),
-    max: level('Highest allowed mean output').optional(),
+    min: level('Lowest allowed mean output (for a negative pump, "-vdd" and the like: its largest magnitude, checked at the lighter load)').optional(),
+    max: level('Highest allowed mean output (for a negative pump, e.g. "-0.85vdd": its least magnitude, checked at the heavier load)').optional(),
   }).optional(),
   ripple: z.strictObject({ max: quantity('V', 'Largest allowed peak-to-peak output ripple', { above: 0 }) }).optional(),
   efficiency: z.strictObject({ min: ratio('Smallest allowed efficiency, output power over input power', { above: 0, atMost: 1 }) }).optional(),

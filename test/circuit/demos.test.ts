@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import { cli, design, expectClose } from '../helpers.js';
+
+interface Circuit { output: number; ripple: number; slowLimit: number; efficiency: number; lostCharge: number; startupCycles: number }
+interface Corner { name: string; circuit: Circuit; checks: { kind: string; pass: boolean; margin: number | null }[] }
+
+function tt(name: string): Corner {
+  const run = cli('check', design(name), '--json', '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]');
+  return (JSON.parse(run.stdout) as { corners: Corner[] }).corners[0]!;
+}
+
+// Figures measured at tt/1.8V/27C and pinned to 1e-4 relative: a change to the solver or the timing model shows here.
+const PIN = 1e-4;
+
+describe('the circuit demos at tt/1.8V/27C', () => {
+  it('check of dickson-pump gives 4.589 V: four 0.5 V drops and 3 I/(f C) = 0.6 V off 4 VDD (Dickson 1976, eq. 7), R_SSL = 3/(f C)', () => {
+    const c = tt('dickson-pump').circuit;
+    expectClose(c.output, 4.58855, PIN);
+    expectClose(c.ripple, 7.478e-3, 1e-3);
+    expectClose(c.efficiency, 0.28711, PIN);
+    expectClose(c.slowLimit, 3 / (20e6 * 5e-12), 0.005);
+    expect(c.startupCycles).toBe(145);
+    // the ideal figure with 10 fF of node wiring against 5 pF: 4 (VDD - V_d) - 3 I/(f C) = 4.6 V; R_on and the diodes' 400 ohm take the rest
+    expect(4 * (1.8 - 0.5) - 3 * 20e-6 / (20e6 * 5e-12) - c.output).toBeGreaterThan(0);
+    expect(4 * (1.8 - 0.5) - 3 * 20e-6 / (20e6 * 5e-12) - c.output).toBeLessThan(0.02);
+  });
+
+  it('check of negative-pump gives -1.569 V at 30 uA: -VDD C/(C + C_bp) + I R_out, the bottom plate\'s parasitic on the pumped plate', () => {
+    const c = tt('negative-pump').circuit;
+    expectClose(c.output, -1.56851, PIN);
+    expectClose(c.ripple, 12.63e-3, 1e-3);
+    expectClose(c.efficiency, 0.229044, PIN);
+    // slow-switching limit 1/(f C) = 5 kohm, less the 5 % bottom-plate share
+    expectClose(c.slowLimit, 4780.7, 1e-3);
+    expect(c.lostCharge).toBe(0);
+  });
+
+  it('check of negative-pump checks its maximum (least magnitude) at the heavier load and its minimum at the lighter', () => {
+    const k = tt('negative-pump').checks;
+    // -0.85 VDD = -1.53 V against -1.5685 V at 30 uA; -VDD = -1.8 V against -1.6646 V at 10 uA
+    expectClose(k.find((x) => x.kind === 'output-max')!.margin!, -0.85 * 1.8 + 1.56851, 1e-3);
+    expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.66460 + 1.8, 1e-3);
+  });
+
+  it('check of sc-integrator-path settles at Vin f Cs R / (1 + f Cs R) = 1.25 V and R_SSL = 1/(f Cs) = 40 kohm', () => {
+    const c = tt('sc-integrator-path').circuit;
+    expectClose(c.output, 1.3 * 25 / 26, 2e-4);
+    expectClose(c.output, 1.249870, PIN);
+    expectClose(c.ripple, 5.631e-3, 1e-3);
+    expectClose(c.slowLimit, 1 / (50e6 * 0.5e-12), 0.002);
+    expect(c.lostCharge).toBe(0);
+  });
+});
