@@ -63,13 +63,25 @@ export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: num
   ];
 }
 
+/** What one design's switch constraints are checked with, the same at every corner: made once per evaluator. */
+export interface SwitchCheckSetup {
+  readonly constraints: ConstraintsSpec;
+  /** Break-before-make guard where a constraint names none, s. */
+  readonly defaultGuard: number;
+  /** Clock period, s. */
+  readonly period: number;
+  /** Shortens every on-window for settling, s: the input duty error moves a phase's width one for one. */
+  readonly windowDerating: number;
+  /** The checks' names, `switchCheckNames(constraints, defaultGuard)`, formatted once per design. */
+  readonly names: readonly string[];
+}
+
 /**
- * All switch constraints at one corner, appended to `checks` (which is returned). `windowDerating`
- * (s) shortens every on-window for settling: the input duty error moves a phase's width one for one.
+ * All switch constraints at one corner, appended to `checks` (which is returned): the evaluator
+ * collects every kind of check into one list without copying it.
  */
-export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction> | ((name: string) => SwitchConduction),
-  period: number, windowDerating = 0, names: readonly string[] = switchCheckNames(constraints, defaultGuard), checks: Check[] = []): Check[] {
-  const get = typeof byName === 'function' ? byName : (name: string) => byName.get(name)!;
+export function appendSwitchChecks(setup: SwitchCheckSetup, get: (name: string) => SwitchConduction, checks: Check[]): Check[] {
+  const { constraints, defaultGuard, period, windowDerating, names } = setup;
   let slot = 0;
   for (const bbm of constraints.breakBeforeMake) {
     const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];
