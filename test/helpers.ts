@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parse as parseYaml } from 'yaml';
 import { run } from '../src/cli/program.js';
-import { writeFileAtomic, type Io } from '../src/cli/io.js';
+import { openFileStream, writeFileAtomic, type Io } from '../src/cli/io.js';
 import { loadProcess } from '../src/cli/load.js';
 import { InputError, type InputIssue } from '../src/errors.js';
 import { designSchema, type Design } from '../src/schema/design.js';
@@ -41,6 +41,7 @@ function capturingIo(extra: Partial<Io> = {}): { io: Io; captured: () => { stdou
     stdout: (t) => { stdout += t; },
     stderr: (t) => { stderr += t; },
     writeFile: writeFileAtomic,
+    openFileStream,
     exists: existsSync,
     stderrIsTTY: false,
     ...extra,

@@ -17,7 +17,7 @@ export function checkMarginHistogram(resolved: ResolvedDesign, seed: number, sam
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
   const h = emptyHistogram();
   for (const { start, count } of chunkPlan(samples)) {
-    const evaluator = new CornerEvaluator(resolved, true, true);
+    const evaluator = CornerEvaluator.forDies(resolved);
     const margins = new Float64Array(count);
     for (let i = 0; i < count; i++) {
       const r = evaluator.evaluate(corner, drawMismatch(sigmas, seed, start + i, mismatchBuffers(sigmas)), devices);

@@ -8,7 +8,7 @@ import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
 import { compareChecks, type Check } from '../checks/check.js';
-import { switchChecks } from '../checks/switch-checks.js';
+import { appendSwitchChecks, type SwitchCheckSetup } from '../checks/switch-checks.js';
 import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
@@ -27,28 +27,57 @@ export interface CornerResult {
   readonly circuit?: CornerCircuit;
 }
 
+/** How an evaluator reuses its work between calls; `new CornerEvaluator(resolved)` reuses nothing a result holds. */
+export interface EvaluatorReuse {
+  /**
+   * Hand out the scratch itself (simulation buffers, cycle index, timing table) instead of fresh
+   * copies: a result is valid only until the next call. The fast path of tight loops.
+   */
+  readonly borrowScratch: boolean;
+  /**
+   * Start each simulation from the previous one's steady state: for many runs of one corner with
+   * small changes (Monte Carlo dies), never across corners. A warm evaluator also replays the
+   * previous steady period where that provably gives the simulation's answer, and skips the circuit.
+   */
+  readonly warmStart: boolean;
+}
+
 /**
  * Evaluates corners one after another with reused scratch (simulator, cycle index, timing
- * table). With `borrow`, the result's simulation buffers stay the evaluator's: read it before
- * the next call.
+ * table). With `borrowScratch`, the result's simulation buffers stay the evaluator's: read it
+ * before the next call.
  */
 export class CornerEvaluator {
+  /** Results valid until the next call: for loops that read each result at once (fmax probes). */
+  static borrowingScratch(resolved: ResolvedDesign): CornerEvaluator {
+    return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: false });
+  }
+
+  /** Borrowed scratch and warm starts: for the dies of one corner (Monte Carlo). */
+  static forDies(resolved: ResolvedDesign): CornerEvaluator {
+    return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: true });
+  }
+
   private readonly simulator: Simulator;
   private cycles: CycleIndex | null = null;
   private timing: GateTiming | undefined;
 
-  /**
-   * `warm` starts each simulation from the previous one's steady state: for many runs of one
-   * corner with small changes (Monte Carlo dies), never across corners. A warm evaluator also
-   * replays the previous steady period where that provably gives the simulation's answer.
-   */
-  constructor(private readonly resolved: ResolvedDesign, private readonly borrow = false, warm = false) {
+  private readonly borrow: boolean;
+
+  constructor(private readonly resolved: ResolvedDesign, reuse: EvaluatorReuse = { borrowScratch: false, warmStart: false }) {
+    const borrow = reuse.borrowScratch;
+    const warm = reuse.warmStart;
+    this.borrow = borrow;
     this.simulator = new Simulator(resolved.netlist);
     const { clock } = resolved.design;
     this.period = 1 / clock.frequency;
     this.widthContext = { period: this.period, dutyTolerance: clock.dutyTolerance };
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
+    this.switchSetup = {
+      constraints: resolved.design.constraints, defaultGuard: resolved.design.requirements.guard, period: this.period,
+      windowDerating: clock.dutyTolerance * this.period, names: resolved.switchCheckNames, subjects: resolved.switchCheckLabels.subjects,
+    };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     // Monte Carlo dies (warm runs) skip the circuit: its figures cost milliseconds per corner.
@@ -71,6 +100,7 @@ export class CornerEvaluator {
   /** Switch conduction of the evaluation in progress, looked up by name for the constraints. */
   private current: readonly SwitchConduction[] = [];
   private readonly switchByName: (name: string) => SwitchConduction;
+  private readonly switchSetup: SwitchCheckSetup;
   /** Switch devices with k' calibrated by the model's characterized R_on, when it has any. */
   private readonly ronCalibration: ((devices: CornerDevices) => CornerDevices) | undefined;
 
@@ -91,8 +121,7 @@ export class CornerEvaluator {
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
       for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
       this.current = switches;
-      switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
-        this.resolved.switchCheckLabels, checks);
+      appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {
         circuit = this.circuit.evaluate(switches, cycles, devices);
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);

@@ -168,7 +168,7 @@ export function runChunk(resolved: ResolvedDesign, seed: number, start: number, 
   // Corner by corner, so each simulation starts warm from the previous die at the same corner.
   for (let c = 0; c < corners.length; c++) {
     const out: CornerOutputs = { acc: acc[c]!, least: least[c]!, dead0: dead0[c]!, dead1: dead1[c]!, failedSomewhere };
-    evaluateDies(new CornerEvaluator(resolved, true, true), corners[c]!.corner, corners[c]!.devices, dies, names, out);
+    evaluateDies(CornerEvaluator.forDies(resolved), corners[c]!.corner, corners[c]!.devices, dies, names, out);
   }
   const passesEverywhere = failedSomewhere.reduce((n, f) => n + (f === 0 ? 1 : 0), 0);
   return { start, count, corners: acc.map((a, c) => a.toChunk(least[c]!, dead0[c]!, dead1[c]!)), passesEverywhere };

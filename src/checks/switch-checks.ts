@@ -59,7 +59,7 @@ function orderRequirement(o: ConstraintsSpec['order'][number]): string {
   return `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`;
 }
 
-/** Display names of every switch constraint, in the order switchChecks emits them; computed once per design. */
+/** Display names of every switch constraint, in the order appendSwitchChecks emits them; computed once per design. */
 export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: number): string[] {
   return [
     ...constraints.breakBeforeMake.map((bbm) => bbm.name ?? bbmRequirement(bbm, bbm.guard ?? defaultGuard)),
@@ -69,13 +69,13 @@ export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: num
   ];
 }
 
-/** Names and subjects of every switch constraint's check, in the order switchChecks emits them; made once per design. */
+/** Names and subjects of every switch constraint's check, in the order appendSwitchChecks emits them; made once per design. */
 export interface SwitchCheckLabels {
   readonly names: readonly string[];
   readonly subjects: readonly CheckSubject[];
 }
 
-/** `derating` (s) is what switchChecks takes off every settle window (its `windowDerating`). */
+/** `derating` (s) is what appendSwitchChecks takes off every settle window (its `windowDerating`). */
 export function switchCheckLabels(constraints: ConstraintsSpec, defaultGuard: number, derating = 0): SwitchCheckLabels {
   const subjects: CheckSubject[] = [
     ...constraints.breakBeforeMake.map((bbm): CheckSubject => {
@@ -96,14 +96,27 @@ export function switchCheckLabels(constraints: ConstraintsSpec, defaultGuard: nu
   return { names: switchCheckNames(constraints, defaultGuard), subjects };
 }
 
+/** What one design's switch constraints are checked with, the same at every corner: made once per evaluator. */
+export interface SwitchCheckSetup {
+  readonly constraints: ConstraintsSpec;
+  /** Break-before-make guard where a constraint names none, s. */
+  readonly defaultGuard: number;
+  /** Clock period, s. */
+  readonly period: number;
+  /** Shortens every on-window for settling, s: the input duty error moves a phase's width one for one. */
+  readonly windowDerating: number;
+  /** The checks' names, `switchCheckNames(constraints, defaultGuard)`, formatted once per design. */
+  readonly names: readonly string[];
+  /** The checks' subjects, in the same order (`switchCheckLabels`). */
+  readonly subjects: readonly CheckSubject[];
+}
+
 /**
- * All switch constraints at one corner, appended to `checks` (which is returned). `windowDerating`
- * (s) shortens every on-window for settling: the input duty error moves a phase's width one for one.
+ * All switch constraints at one corner, appended to `checks` (which is returned): the evaluator
+ * collects every kind of check into one list without copying it.
  */
-export function switchChecks(constraints: ConstraintsSpec, defaultGuard: number, byName: ReadonlyMap<string, SwitchConduction> | ((name: string) => SwitchConduction),
-  period: number, windowDerating = 0, labels: SwitchCheckLabels = switchCheckLabels(constraints, defaultGuard, windowDerating), checks: Check[] = []): Check[] {
-  const get = typeof byName === 'function' ? byName : (name: string) => byName.get(name)!;
-  const { names, subjects } = labels;
+export function appendSwitchChecks(setup: SwitchCheckSetup, get: (name: string) => SwitchConduction, checks: Check[]): Check[] {
+  const { constraints, defaultGuard, period, windowDerating, names, subjects } = setup;
   let slot = 0;
   for (const bbm of constraints.breakBeforeMake) {
     const [a, b] = bbm.between.map(get) as [SwitchConduction, SwitchConduction];

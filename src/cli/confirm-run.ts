@@ -13,17 +13,26 @@ import { runDecksWithProgress } from './deck-progress.js';
 import { shellCommand } from '../report/shell-quote.js';
 import type { Io } from './io.js';
 import { modelFile } from './model-file.js';
-import { parseJobs, relativeNumber } from './options.js';
+import { defaultParallelism } from './options.js';
 import { noteTo } from './warn.js';
 
 export const DEFAULT_TOLERANCE = 0.1;
 
-/** `--tolerance`, else the design's requirements.confirmTolerance, else 10 %. */
-export function parseTolerance(text: string | undefined, fromDesign?: number): number {
-  if (text === undefined) return fromDesign ?? DEFAULT_TOLERANCE;
-  const value = relativeNumber(text);
-  if (!(value > 0 && value < 10)) throw inputError('option.invalid', '--tolerance', text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
-  return value;
+export interface ConfirmRequest {
+  /** worst (the extremes), all, or corner names separated by commas. */
+  readonly corners: string;
+  /** The option that named the corners, for messages (default `--corners`). */
+  readonly cornersFlag?: string;
+  /** Largest allowed relative difference; absent: the design's requirements.confirmTolerance, else 10 %. */
+  readonly tolerance?: number;
+  readonly models?: string;
+  readonly ngspice?: string;
+  /** Simulations at once (default: the number of cores). */
+  readonly jobs?: number;
+  /** Neither the note nor the progress bar on stderr. */
+  readonly quiet?: boolean;
+  /** Also simulate the circuit section to its periodic steady state (confirm; tune confirms timing only). */
+  readonly circuit?: boolean;
 }
 
 export interface ConfirmRun {
@@ -33,14 +42,10 @@ export interface ConfirmRun {
 }
 
 /** Writes the decks of the chosen corners, runs ngspice on them and compares with the model. */
-export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string,
-  options: { readonly corners: string; readonly tolerance?: string; readonly models?: string; readonly ngspice?: string; readonly jobs?: string; readonly quiet?: boolean;
-    /** Also simulate the circuit section to its periodic steady state (confirm; tune confirms timing only). */
-    readonly circuit?: boolean },
-  cornersFlag = '--corners'): ConfirmRun {
-  const jobs = parseJobs(options.jobs);
-  const tolerance = parseTolerance(options.tolerance, resolved.design.requirements.confirmTolerance);
-  const corners = chooseCorners(resolved, options.corners, cornersFlag);
+export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string, options: ConfirmRequest): ConfirmRun {
+  const jobs = options.jobs ?? defaultParallelism();
+  const tolerance = options.tolerance ?? resolved.design.requirements.confirmTolerance ?? DEFAULT_TOLERANCE;
+  const corners = chooseCorners(resolved, options.corners, options.cornersFlag ?? '--corners');
   const modelPath = modelFile(resolved.card, cardDir, options.models);
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));

@@ -8,6 +8,8 @@ export interface Io {
   stderr(text: string): void;
   /** Writes a whole file atomically (temp file in the same folder, then rename). */
   writeFile(path: string, content: string): void;
+  /** Opens a file written piece by piece (a large output, streamed), which takes its name only when committed. */
+  openFileStream(path: string): FileStream;
   exists(path: string): boolean;
   /** Whether stderr is an interactive terminal (progress bars only then). */
   readonly stderrIsTTY: boolean;
@@ -20,6 +22,15 @@ export interface Io {
   readonly now?: () => Date;
   /** The command's words after the program name, as given (set by `run`). */
   readonly argv?: readonly string[];
+}
+
+/** A file being written: a temp file in the target's folder until `commit` renames it into place. */
+export interface FileStream {
+  write(text: string): void;
+  /** Closes the temp file and renames it to the target; `beforeRename` may refuse by throwing. */
+  commit(beforeRename?: () => void): void;
+  /** Closes and removes the temp file; calling it again does nothing. */
+  abandon(): void;
 }
 
 /** Why standard input could not be read (a terminal, a closed descriptor). */
@@ -127,6 +138,22 @@ export function writeFileAtomic(path: string, content: string): void {
   }
 }
 
+export function openFileStream(path: string): FileStream {
+  const { fd, temp } = openTemp(path);
+  return {
+    write: (text) => writeAll(fd, text),
+    commit: (beforeRename) => {
+      closeSync(fd);
+      beforeRename?.();
+      renameSync(temp, path);
+    },
+    abandon: () => {
+      try { closeSync(fd); } catch { /* already closed */ }
+      try { unlinkSync(temp); } catch { /* already gone */ }
+    },
+  };
+}
+
 /** A failed write to stdout or stderr (a full disk, a closed pipe), kept apart from the command's own errors. */
 export class StreamWriteError extends Error {
   constructor(readonly stream: 'standard output' | 'standard error', readonly code: string) {
@@ -159,6 +186,7 @@ export const processIo: Io = {
   stdout: streamWriter(process.stdout, 'standard output'),
   stderr: streamWriter(process.stderr, 'standard error'),
   writeFile: writeFileAtomic,
+  openFileStream,
   exists: existsSync,
   stderrIsTTY: Boolean(process.stderr.isTTY) && !process.env.CI,
   readStdin: readProcessStdin,

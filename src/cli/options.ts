@@ -30,12 +30,18 @@ export function optionalWholeNumber(option: string, text: string | undefined, ra
   return text === undefined ? fallback : wholeNumber(option, text, range);
 }
 
-export function parseJobs(text: string | undefined): number {
-  return optionalWholeNumber('--jobs', text, { min: 1, max: MAX_WORKERS, noun: 'simulations at once' }, Math.min(availableParallelism(), MAX_WORKERS));
-}
-
 /** `text` as a relative value, a plain number (0.1) or a percentage (10%); NaN when it is neither. */
 export function relativeNumber(text: string): number {
   const percent = /^(\d*\.?\d+)\s*%$/.exec(text.trim());
   return percent ? Number(percent[1]) / 100 : Number(text);
+}
+
+/** The parser of a whole-number option within `range`. */
+export function wholeNumberIn(range: WholeRange): (text: string, flag: string) => number {
+  return (text, flag) => wholeNumber(flag, text, range);
+}
+
+/** Threads or simulations at once when the option is absent: the number of cores, within the bound. */
+export function defaultParallelism(): number {
+  return Math.min(availableParallelism(), MAX_WORKERS);
 }

@@ -1,7 +1,7 @@
 /** Where a command's main output goes: stdout, or a file written atomically (`-o FILE`, `-o -` for stdout). */
 import { dirname, resolve } from 'node:path';
-import { inputError } from '../errors.js';
-import { pathKind, sameFile, type Io } from './io.js';
+import { InputError, inputError } from '../errors.js';
+import { pathKind, sameFile, type FileStream, type Io } from './io.js';
 import type { LoadedDesign } from './load.js';
 
 /** Whether `out` means standard output. */
@@ -35,6 +35,43 @@ export function emit(io: Io, text: string, out: string | undefined, inputs: read
     const code = (error as NodeJS.ErrnoException).code ?? 'error';
     throw inputError('output.refused', option, out, `cannot be written (${code}); check that the folder exists and is writable`);
   }
+}
+
+/** An output written as it is produced (sweep rows): to stdout, or to a file that appears whole at `finish`. */
+export interface OutputSink {
+  write(text: string): void;
+  finish(): void;
+  /** Drops a file output (nothing is left behind); stdout keeps what was written. */
+  abandon(): void;
+}
+
+/**
+ * Like `emit` for an output too large to hold: a file output goes through `io.openFileStream` and
+ * is renamed into place at `finish`, after `checkOutput` once more.
+ */
+export function streamOutput(io: Io, out: string | undefined, inputs: readonly string[]): OutputSink {
+  if (toStdout(out)) return { write: (t) => io.stdout(t), finish: () => undefined, abandon: () => undefined };
+  checkOutput(out, inputs);
+  let file: FileStream;
+  try {
+    file = io.openFileStream(out);
+  } catch (error) {
+    throw inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
+  }
+  const failed = (error: unknown) => {
+    file.abandon();
+    if (error instanceof InputError) return error;
+    return inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`);
+  };
+  return {
+    write: (t) => {
+      try { file.write(t); } catch (error) { throw failed(error); }
+    },
+    finish: () => {
+      try { file.commit(() => checkOutput(out, inputs)); } catch (error) { throw failed(error); }
+    },
+    abandon: () => file.abandon(),
+  };
 }
 
 /**

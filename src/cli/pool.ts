@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
 import { existsSync } from 'node:fs';
 import { InputError, type InputIssue } from '../errors.js';
+import type { WorkerSetup } from './worker.js';
 
 /** The compiled worker script (tests run from TypeScript sources, workers always run compiled JS). */
 function workerScript(): string {
@@ -25,18 +26,24 @@ export interface PoolHandle {
   stop(): void;
 }
 
-/**
- * With `local`, the calling thread is one of the `threads`: it runs tasks itself between the
- * messages of `threads - 1` workers (each kept two tasks ahead so it never waits on the caller).
- */
-export function runPool<T, R>(
-  setup: unknown,
-  tasks: readonly T[],
-  threads: number,
-  onResult: (index: number, result: R) => void,
-  onStart?: (handle: PoolHandle) => void,
-  local?: (task: T) => R,
-): Promise<void> {
+/** One run of the pool: the tasks, the threads and what to do with each result. */
+export interface PoolRun<T, R> {
+  /** What every worker thread loads once before its first task (`src/cli/worker.ts`). */
+  readonly setup: WorkerSetup;
+  readonly tasks: readonly T[];
+  readonly threads: number;
+  /** Called with each result and the index of its task, in the order results arrive. */
+  readonly onResult: (index: number, result: R) => void;
+  /** Called once the threads are started, with the handle that stops them. */
+  readonly onStart?: (handle: PoolHandle) => void;
+  /**
+   * With `local`, the calling thread is one of the `threads`: it runs tasks itself between the
+   * messages of `threads - 1` workers (each kept two tasks ahead so it never waits on the caller).
+   */
+  readonly local?: (task: T) => R;
+}
+
+export function runPool<T, R>({ setup, tasks, threads, onResult, onStart, local }: PoolRun<T, R>): Promise<void> {
   return new Promise((resolve, reject) => {
     const script = workerScript();
     const workers: Worker[] = [];

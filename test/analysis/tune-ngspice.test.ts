@@ -13,12 +13,12 @@ import { runMonteCarlo } from '../../src/analysis/montecarlo.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { tuneSimulator } from '../../src/cli/commands/tune.js';
 import { cli, design, inputErrorMessage } from '../helpers.js';
-import type { Io } from '../../src/cli/io.js';
+import { openFileStream, type Io } from '../../src/cli/io.js';
 import { requireTool } from '../tools.js';
 
 requireTool('ngspice', 'ngspice');
 
-const io: Io = { stdout: () => {}, stderr: () => {}, writeFile: () => {}, exists: () => false, stderrIsTTY: false };
+const io: Io = { stdout: () => {}, stderr: () => {}, writeFile: () => {}, openFileStream, exists: () => false, stderrIsTTY: false };
 
 /** Dies per corner in the yield check: 1000 dies, so 99.73 % allows at most 2 failing dies per corner. */
 const DIES = 1000;

@@ -9,11 +9,11 @@ import { dirname } from 'node:path';
 import { loadDesign } from '../../src/cli/load.js';
 import { defaultSpace, tuneChains } from '../../src/analysis/tune.js';
 import { tuneSimulator } from '../../src/cli/commands/tune.js';
-import type { Io } from '../../src/cli/io.js';
+import { openFileStream, type Io } from '../../src/cli/io.js';
 
 const demo = fileURLToPath(new URL('../../../fixtures/designs/doubler.yaml', import.meta.url));
 const { design, card, cardDir } = loadDesign(demo);
-const io: Io = { stdout: () => {}, stderr: () => {}, writeFile: () => {}, exists: () => false, stderrIsTTY: false };
+const io: Io = { stdout: () => {}, stderr: () => {}, writeFile: () => {}, openFileStream, exists: () => false, stderrIsTTY: false };
 
 function timed<T>(run: () => T): { value: T; wall: number; cpu: number } {
   const cpu0 = process.cpuUsage();

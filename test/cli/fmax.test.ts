@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { findFmax } from '../../src/analysis/fmax.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
-import { fmaxMarginLines } from '../../src/cli/commands/fmax.js';
+import { fmaxMarginLines } from '../../src/report/fmax-text.js';
 import { formatMargin } from '../../src/report/margin-format.js';
 import { cli, design } from '../helpers.js';
 

@@ -53,10 +53,14 @@ describe('worker pool stop', () => {
     const tasks = Array.from({ length: 6 }, (_, i) => ({ start: i % 5, count: 1 }));
     const seen: number[] = [];
     let handle: PoolHandle | undefined;
-    const finished = fakePool<{ start: number; count: number }, SweepRow[]>({ kind: 'sweep', ...setup }, tasks, 2, (index) => {
-      seen.push(index);
-      handle!.stop();
-    }, (h) => { handle = h; });
+    const finished = fakePool<{ start: number; count: number }, SweepRow[]>({
+      setup: { kind: 'sweep', ...setup }, tasks, threads: 2,
+      onResult: (index) => {
+        seen.push(index);
+        handle!.stop();
+      },
+      onStart: (h) => { handle = h; },
+    });
     const [a, b] = FakeWorker.made;
     expect(FakeWorker.made).toHaveLength(2);
     expect([a!.posted, b!.posted]).toEqual([[{ index: 0, task: tasks[0] }], [{ index: 1, task: tasks[1] }]]);
@@ -74,9 +78,12 @@ describe('worker pool stop', () => {
   it('delivers every result exactly once when it runs to the end', async () => {
     const tasks = Array.from({ length: 10 }, (_, i) => ({ start: i % 5, count: 1 }));
     const seen: number[] = [];
-    await runPool<{ start: number; count: number }, SweepRow[]>({ kind: 'sweep', ...setup }, tasks, 2, (index, rows) => {
-      expect(rows).toHaveLength(1);
-      seen.push(index);
+    await runPool<{ start: number; count: number }, SweepRow[]>({
+      setup: { kind: 'sweep', ...setup }, tasks, threads: 2,
+      onResult: (index, rows) => {
+        expect(rows).toHaveLength(1);
+        seen.push(index);
+      },
     });
     expect([...seen].sort((a, b) => a - b)).toEqual([...Array(10).keys()]);
   }, 30_000);

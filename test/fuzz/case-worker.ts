@@ -7,7 +7,7 @@
  */
 import { existsSync } from 'node:fs';
 import { run } from '../../src/cli/program.js';
-import { writeFileAtomic, type Io } from '../../src/cli/io.js';
+import { openFileStream, writeFileAtomic, type Io } from '../../src/cli/io.js';
 
 export interface WorkerRequest { readonly id: number; readonly argv: readonly string[] }
 export interface WorkerReply {
@@ -31,6 +31,7 @@ process.on('message', async (request: WorkerRequest) => {
     stdout: (t) => { if (stdout.length < MAX_CAPTURE) stdout += t; },
     stderr: (t) => { if (stderr.length < MAX_CAPTURE) stderr += t; },
     writeFile: writeFileAtomic,
+    openFileStream,
     exists: existsSync,
     stderrIsTTY: false,
   };

@@ -19,22 +19,11 @@ import type { Io } from '../io.js';
 import { loadDesign, loadProcess } from '../load.js';
 import { checkOutput, designFiles, emit } from '../output.js';
 import { tablesJson } from '../../spice/tables-json.js';
-import { parseJobs } from '../options.js';
 import { modelFile } from '../model-file.js';
 import { progressBar } from '../progress.js';
 import { noteTo } from '../warn.js';
-
-export interface CharacterizeOptions {
-  readonly corners?: string;
-  readonly design?: string;
-  readonly grid: string;
-  readonly cells?: string;
-  readonly size?: string;
-  readonly models?: string;
-  readonly ngspice?: string;
-  readonly jobs?: string;
-  readonly out?: string;
-}
+import { defineCommand, parsedOption, textOption, type CommandOptions } from '../command.js';
+import { JOBS_OPTION, MODELS_OPTION, NGSPICE_OPTION, outOption } from '../common-options.js';
 
 type CornerPoint = { name: string; process: string; vdd: number; temperature: number };
 
@@ -63,23 +52,46 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
   });
 }
 
-function parseCells(text: string | undefined): PrimitiveCell[] {
-  if (text === undefined) return [...TABLE_CELLS];
+function parseCells(text: string): PrimitiveCell[] {
   return text.split(',').map((s) => s.trim().toUpperCase()).map((cell) => {
     if (!Object.hasOwn(CELLS, cell)) throw inputError('reference.unknown', '--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
     return cell as PrimitiveCell;
   });
 }
 
-export function runCharacterize(io: Io, processPath: string, options: CharacterizeOptions): number {
+function parseSize(text: string, flag: string): number {
+  const size = Number(text);
+  if (!(size > 0 && size <= 1000)) throw inputError('option.invalid', flag, text, 'must be a cell size above 0 and at most 1000');
+  return size;
+}
+
+const OPTIONS = {
+  corners: textOption('--corners <LIST>', 'corner names like ss/1.62V/125C, separated by commas (default: every process corner at 90/100/110 % supply and -40/27/125 C)'),
+  design: textOption('--design <FILE>', 'characterize the corners of this design instead'),
+  grid: textOption('--grid <GRID>', 'table grid: coarse (4 x 4) or fine (7 x 7)', { default: 'fine', choices: Object.keys(GRIDS) }),
+  cells: parsedOption('--cells <LIST>', 'cells to characterize (default: INV,NAND2,NAND3,NOR2,NOR3)', parseCells, { fallback: [...TABLE_CELLS] }),
+  size: parsedOption('--size <S>', 'cell size to characterize at (default 1; other sizes scale from it)', parseSize, { fallback: 1 }),
+  models: MODELS_OPTION,
+  ngspice: NGSPICE_OPTION,
+  jobs: JOBS_OPTION,
+  out: outOption('the tables (JSON)'),
+} as const;
+
+export const characterizeCommand = defineCommand({
+  name: 'characterize',
+  description: 'simulate every cell, pin and edge in ngspice over input transition x load and write delay tables',
+  arguments: [{ name: '<PROCESS>', help: 'process card with a spice section (YAML or JSON)' }],
+  options: OPTIONS,
+  run: (io, [card], options) => runCharacterize(io, card, options),
+});
+
+export function runCharacterize(io: Io, processPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const card = loadProcess(processPath);
   const cardDir = dirname(resolve(processPath));
-  if (options.grid !== 'coarse' && options.grid !== 'fine') throw inputError('option.invalid', '--grid', options.grid, 'is not a grid; allowed: coarse, fine');
+  // commander's choices have refused any other grid.
+  const grid = options.grid as keyof typeof GRIDS;
   if (options.corners !== undefined && options.design !== undefined) throw inputError('option.invalid', '--corners', options.corners, 'cannot be combined with --design; give one of them');
-  const size = options.size === undefined ? 1 : Number(options.size);
-  if (!(size > 0 && size <= 1000)) throw inputError('option.invalid', '--size', options.size, 'must be a cell size above 0 and at most 1000');
-  const cells = parseCells(options.cells);
-  const jobs = parseJobs(options.jobs);
+  const { size, cells, jobs } = options;
   let corners: CornerPoint[];
   const inputs = [processPath];
   if (options.design !== undefined) {
@@ -98,7 +110,7 @@ export function runCharacterize(io: Io, processPath: string, options: Characteri
   inputs.push(modelPath);
   checkOutput(options.out, inputs);
   const simulator = checkSimulator(options.ngspice);
-  const axes = gridAxes(card, GRIDS[options.grid], size);
+  const axes = gridAxes(card, GRIDS[grid], size);
   const tables: CornerTables[] = [];
   const bar = progressBar(io, corners.length, 'characterize', true);
   try {

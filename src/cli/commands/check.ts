@@ -5,20 +5,32 @@ import { checkReport } from '../../report/check-report.js';
 import { renderCheckText } from '../../report/check-text.js';
 import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
-import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { loadDesign, loadModel } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
 import { warnTo } from '../warn.js';
+import { defineCommand, type CommandOptions } from '../command.js';
+import { DESIGN_ARGUMENT, JUNIT_OPTION, SET_OPTION, jsonOption, outOption } from '../common-options.js';
 
-export interface CheckOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly json: boolean;
-  readonly out?: string;
-  readonly junit?: string;
-}
+const OPTIONS = {
+  set: SET_OPTION,
+  json: jsonOption('print the machine report (SI units) instead of the table'),
+  out: outOption('the report'),
+  junit: JUNIT_OPTION,
+} as const;
+
+export type CheckOptions = CommandOptions<typeof OPTIONS>;
+
+export const checkCommand = defineCommand({
+  name: 'check',
+  description: 'every corner: dead times, gaps, widths, requirement margins and a verdict',
+  arguments: [DESIGN_ARGUMENT],
+  options: OPTIONS,
+  run: (io, [design], options) => runCheck(io, design, options),
+});
 
 export function runCheck(io: Io, designPath: string, options: CheckOptions): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);

@@ -4,7 +4,7 @@ import { worstDifference } from '../../report/confirm-report.js';
 import { renderConfirmText } from '../../report/confirm-text.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import type { Io } from '../io.js';
-import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { loadDesign, loadModel } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
 import { confirmCorners } from '../confirm-run.js';
 import { warnTo } from '../warn.js';
@@ -12,22 +12,32 @@ import { verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
+import { defineCommand, textOption, type CommandOptions } from '../command.js';
+import { DESIGN_ARGUMENT, JOBS_OPTION, JUNIT_OPTION, MODELS_OPTION, NGSPICE_OPTION, SET_OPTION, jsonOption, outOption, toleranceOption } from '../common-options.js';
 
 export const CONFIRM_HINTS = { corners: 'run phasegap check', montecarlo: 'run phasegap mc' } as const;
 
-export interface ConfirmOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly corners: string;
-  readonly tolerance?: string;
-  readonly json: boolean;
-  readonly out?: string;
-  readonly models?: string;
-  readonly ngspice?: string;
-  readonly jobs?: string;
-  readonly junit?: string;
-}
+const OPTIONS = {
+  set: SET_OPTION,
+  corners: textOption('--corners <WHICH>', 'worst (the extremes), all, or corner names separated by commas', { default: 'worst' }),
+  tolerance: toleranceOption('largest allowed relative difference, e.g. 0.1 or 10% (default 10 %)'),
+  models: MODELS_OPTION,
+  ngspice: NGSPICE_OPTION,
+  jobs: JOBS_OPTION,
+  json: jsonOption('print the machine report (SI units)'),
+  out: outOption('the report'),
+  junit: JUNIT_OPTION,
+} as const;
 
-export function runConfirm(io: Io, designPath: string, options: ConfirmOptions): number {
+export const confirmCommand = defineCommand({
+  name: 'confirm',
+  description: 'simulate corners in ngspice and compare dead times, gaps and widths with the model',
+  arguments: [DESIGN_ARGUMENT],
+  options: OPTIONS,
+  run: (io, [design], options) => runConfirm(io, design, options),
+});
+
+export function runConfirm(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);

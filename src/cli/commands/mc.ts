@@ -1,5 +1,4 @@
 /** `phasegap mc DESIGN`: Monte Carlo mismatch on every corner, yield and sigma margins, in parallel threads. */
-import { availableParallelism } from 'node:os';
 import { chunkPlan, McMerger, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
 import { CornerEvaluator } from '../../analysis/evaluate.js';
 import { checkReport } from '../../report/check-report.js';
@@ -7,38 +6,47 @@ import { renderCheckText } from '../../report/check-text.js';
 import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
 import type { Io } from '../io.js';
-import { loadResolved, type ModelOptions } from '../load.js';
+import { loadResolved } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
-import { runPool } from '../pool.js';
+import { runParallel, type RunEnd } from '../parallel-run.js';
 import { progressBar } from '../progress.js';
-import { optionalWholeNumber } from '../options.js';
+import { wholeNumberIn } from '../options.js';
 import { inputError } from '../../errors.js';
-import { MAX_SAMPLES, MAX_SEED, MAX_WORKERS } from '../run-limits.js';
+import { MAX_SAMPLES } from '../run-limits.js';
 import { verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
 import { warnTo } from '../warn.js';
+import { defineCommand, flagOption, parsedOption, textOption, type CommandOptions } from '../command.js';
+import { DESIGN_ARGUMENT, JUNIT_OPTION, SET_OPTION, jsonOption, outOption, seedOption, workersOption } from '../common-options.js';
 
-export interface McOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly json: boolean;
-  readonly out?: string;
-  readonly samples?: string;
-  readonly seed?: string;
-  readonly workers?: string;
-  readonly replay?: string;
-  readonly histogram?: string;
-  /** Corner and check the histogram shows (default: the worst corner and the check that limits yield there). */
-  readonly histogramCorner?: string;
-  readonly histogramCheck?: string;
-  readonly timings?: boolean;
-  readonly junit?: string;
-}
+const OPTIONS = {
+  set: SET_OPTION,
+  samples: parsedOption('--samples <N>', 'dies to draw (default: montecarlo.samples, else 1000)', wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' })),
+  seed: seedOption('random seed, a whole number (default: montecarlo.seed, else 1)'),
+  workers: workersOption('threads (default: the number of cores); results do not depend on it'),
+  replay: parsedOption('--replay <INDEX>', 'evaluate one die at every corner and print its check table', wholeNumberIn({ min: 0, max: MAX_SAMPLES - 1, noun: 'die indices' })),
+  histogram: textOption('--histogram <FILE.svg>', 'also draw a histogram over the dies: by default the margin of the check that limits yield at the worst corner'),
+  histogramCorner: textOption('--histogram-corner <NAME>', "corner the histogram shows (default: 'worst', the corner with the lowest yield)"),
+  histogramCheck: textOption('--histogram-check <NAME>', "check the histogram shows: a check name or a unique part of one, or 'dead-times' for both dead times"),
+  timings: flagOption('--timings', 'print on stderr how long setup, evaluation and the report took', false),
+  json: jsonOption('print the machine report (SI units)'),
+  out: outOption('the report'),
+  junit: JUNIT_OPTION,
+} as const;
+
+export const mcCommand = defineCommand({
+  name: 'mc',
+  description: 'Monte Carlo local mismatch (Pelgrom) on every corner: yield with a 95 % interval, sigma margins',
+  arguments: [DESIGN_ARGUMENT],
+  options: OPTIONS,
+  run: (io, [design], options) => runMc(io, design, options),
+});
 
 export const MC_HINTS = { corners: 'run phasegap check', simulator: 'run phasegap confirm' } as const;
 
-export async function runMc(io: Io, designPath: string, options: McOptions): Promise<number> {
+export async function runMc(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): Promise<number> {
   const started = performance.now();
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
@@ -49,11 +57,11 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
     throw inputError('option.invalid', '--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
   }
-  const samples = optionalWholeNumber('--samples', options.samples, { min: 1, max: MAX_SAMPLES, noun: 'dies' }, design.montecarlo?.samples ?? 1000);
-  const seed = optionalWholeNumber('--seed', options.seed, { min: 0, max: MAX_SEED }, design.montecarlo?.seed ?? 1);
-  const threads = optionalWholeNumber('--workers', options.workers, { min: 1, max: MAX_WORKERS, noun: 'threads' }, Math.min(availableParallelism(), MAX_WORKERS));
+  const samples = options.samples ?? design.montecarlo?.samples ?? 1000;
+  const seed = options.seed ?? design.montecarlo?.seed ?? 1;
+  const threads = options.workers;
   if (options.replay !== undefined) {
-    const die = optionalWholeNumber('--replay', options.replay, { min: 0, max: MAX_SAMPLES - 1, noun: 'die indices' }, 0);
+    const die = options.replay;
     const sigmas = mismatchSigmas(resolved.netlist, card, resolved.switches);
     const mismatch = drawMismatch(sigmas, seed, die, mismatchBuffers(sigmas));
     const evaluator = new CornerEvaluator(resolved);
@@ -89,30 +97,19 @@ export async function runMc(io: Io, designPath: string, options: McOptions): Pro
     done += result.count * resolved.corners.length;
     bar.update(done);
   };
-  if (threads === 1 || plan.length === 1) {
-    for (const { start, count } of plan) take(runChunk(resolved, seed, start, count));
-  } else {
-    let interrupted = false;
-    let stopPool = () => undefined as void;
-    const onSigint = () => { interrupted = true; stopPool(); };
-    process.once('SIGINT', onSigint);
-    try {
-      await runPool<{ start: number; count: number }, ChunkResult>(
-        { kind: 'mc', design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, seed, model: { model: options.model, tables: options.tables } }, plan, threads,
-        (_i, result) => take(result),
-        (handle) => { stopPool = () => handle.stop(); },
-        (task) => runChunk(resolved, seed, task.start, task.count),
-      );
-    } finally {
-      process.removeListener('SIGINT', onSigint);
-      bar.stop();
-    }
-    if (interrupted) {
-      io.stderr('phasegap: interrupted; no report written\n');
-      return 130;
-    }
+  let end: RunEnd;
+  try {
+    end = await runParallel<{ start: number; count: number }, ChunkResult>({
+      setup: { kind: 'mc', design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, seed, model: { model: options.model, tables: options.tables } },
+      tasks: plan, threads, local: (task) => runChunk(resolved, seed, task.start, task.count), onResult: take,
+    });
+  } finally {
+    bar.stop();
   }
-  bar.stop();
+  if (end === 'interrupted') {
+    io.stderr('phasegap: interrupted; no report written\n');
+    return 130;
+  }
   const reporting = performance.now();
   const mc = merger.finish();
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);

@@ -5,7 +5,7 @@ import { resolveDesign } from '../../analysis/resolve.js';
 import { generatorDeck } from '../../spice/deck.js';
 import { chooseCorners, oneCornerName } from '../../analysis/corner-choice.js';
 import type { Io } from '../io.js';
-import { loadDesign, loadModel, type ModelOptions } from '../load.js';
+import { loadDesign, loadModel } from '../load.js';
 import { modelFile } from '../model-file.js';
 import { noteTo, warnTo } from '../warn.js';
 import { gatherProvenance } from '../provenance.js';
@@ -13,15 +13,25 @@ import { provenanceLines } from '../../report/provenance.js';
 import { spiceComment } from '../../spice/text.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
+import { defineCommand, textOption, type CommandOptions } from '../command.js';
+import { DESIGN_ARGUMENT, MODELS_OPTION, SET_OPTION, outOption } from '../common-options.js';
 
-export interface SpiceOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly corner?: string;
-  readonly out?: string;
-  readonly models?: string;
-}
+const OPTIONS = {
+  set: SET_OPTION,
+  corner: textOption('--corner <NAME>', 'the corner, e.g. ss/1.62V/125C, or worst (the limiting corner)', { default: 'worst' }),
+  models: MODELS_OPTION,
+  out: outOption('the deck'),
+} as const;
 
-export function runSpice(io: Io, designPath: string, options: SpiceOptions): number {
+export const spiceCommand = defineCommand({
+  name: 'spice',
+  description: 'write a runnable ngspice testbench of the generator and its switches at one corner',
+  arguments: [DESIGN_ARGUMENT],
+  options: OPTIONS,
+  run: (io, [design], options) => runSpice(io, design, options),
+});
+
+export function runSpice(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
   const inputs = inputFiles(loaded, options);

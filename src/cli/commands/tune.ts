@@ -6,31 +6,16 @@ import { InputError, inputError } from '../../errors.js';
 import type { ProcessCard } from '../../schema/process.js';
 import { checkSimulator } from '../../spice/runner.js';
 import type { Io } from '../io.js';
-import { loadResolved, type ModelOptions } from '../load.js';
+import { loadResolved } from '../load.js';
 import { checkOutput, emit, inputFiles, toJson } from '../output.js';
-import { optionalWholeNumber } from '../options.js';
+import { wholeNumberIn } from '../options.js';
 import { MAX_TOP } from '../run-limits.js';
 import { confirmCorners } from '../confirm-run.js';
 import { modelFile } from '../model-file.js';
 import { noteTo, warnTo } from '../warn.js';
 import { errorBandText } from '../../delay/error-band.js';
-
-export interface TuneOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly json: boolean;
-  readonly out?: string;
-  readonly stages?: string;
-  readonly sizes?: string;
-  readonly maxLoad?: string;
-  readonly step?: string;
-  readonly top?: string;
-  readonly margin?: string;
-  /** false with --no-confirm. */
-  readonly confirm?: boolean;
-  readonly confirmTop?: string;
-  readonly models?: string;
-  readonly ngspice?: string;
-}
+import { defineCommand, flagOption, parsedOption, textOption, type CommandOptions } from '../command.js';
+import { SET_OPTION, jsonOption, outOption } from '../common-options.js';
 
 function numberList(flag: string, text: string, check: (n: number) => boolean, allowed: string): number[] {
   const items = text.split(',').map((s) => s.trim());
@@ -50,12 +35,39 @@ function quantityOption(flag: string, text: string, unit: Unit, positive: boolea
 
 const capacitance = (flag: string, text: string) => quantityOption(flag, text, 'F', true, 'must be a positive capacitance, e.g. 200fF');
 
+const OPTIONS = {
+  set: SET_OPTION,
+  stages: textOption('--stages <LIST>', 'chain lengths to try, even, e.g. 2,4,6 (default: every even length from the early tap to 16)'),
+  sizes: textOption('--sizes <LIST>', "stage sizes to try, e.g. 1,2 (default: the design's own, 1 and 2)"),
+  maxLoad: textOption('--max-load <C>', 'largest delay capacitor per chain node (default 500fF)'),
+  step: textOption('--step <C>', 'resolution of the delay capacitor (default 0.5fF)'),
+  margin: parsedOption('--margin <T>', "headroom every check must keep beyond its requirement, e.g. 50ps (default: the model's band + z sigma of mismatch; 0: just pass)",
+    (text, flag) => quantityOption(flag, text, 's', false, 'must be a time of at least 0, e.g. 50ps')),
+  top: parsedOption('--top <N>', 'proposals to list (default 5)', wholeNumberIn({ min: 1, max: MAX_TOP }), { fallback: 5 }),
+  confirm: flagOption('--no-confirm', 'do not simulate the first proposals in ngspice'),
+  confirmTop: parsedOption('--confirm-top <N>', 'proposals to confirm in ngspice at their worst corners (default 3)', wholeNumberIn({ min: 1, max: 20 }), { fallback: 3 }),
+  models: textOption('--models <FILE>', "SPICE model file for the confirmation instead of the card's spice.models"),
+  ngspice: textOption('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)'),
+  json: jsonOption('print the machine report (SI units)'),
+  out: outOption('the report'),
+} as const;
+
+export type TuneOptions = CommandOptions<typeof OPTIONS>;
+
+export const tuneCommand = defineCommand({
+  name: 'tune',
+  description: 'proposes delay-chain length, stage size and delay capacitor that pass every corner with the least wasted dead time',
+  arguments: [{ name: '<DESIGN>', help: 'design file (YAML or JSON) with a nand or nor template' }],
+  options: OPTIONS,
+  run: (io, [design], options) => runTune(io, design, options),
+});
+
 /**
  * The simulator tune confirms its first proposals with, or why there is none: --no-confirm, no
  * ngspice on the PATH, or a card without SPICE models. A deck ngspice cannot run leaves that
  * proposal unconfirmed.
  */
-export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, options: Pick<TuneOptions, 'confirm' | 'models' | 'ngspice'>): { simulate: Simulate | null; note: string } {
+export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, options: { readonly confirm?: boolean; readonly models?: string; readonly ngspice?: string }): { simulate: Simulate | null; note: string } {
   if (options.confirm === false) return { simulate: null, note: 'skipped with --no-confirm' };
   try {
     modelFile(card, cardDir, options.models);
@@ -93,11 +105,10 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
       : numberList('--sizes', options.sizes, (n) => n > 0 && n <= 1000, 'must be stage sizes above 0 and at most 1000, separated by commas, e.g. 1,2'),
     maxLoad: options.maxLoad === undefined ? base.maxLoad : capacitance('--max-load', options.maxLoad),
     loadStep: options.step === undefined ? base.loadStep : capacitance('--step', options.step),
-    headroom: options.margin === undefined ? base.headroom : quantityOption('--margin', options.margin, 's', false, 'must be a time of at least 0, e.g. 50ps'),
+    headroom: options.margin ?? base.headroom,
   };
   if (space.loadStep > space.maxLoad) throw inputError('option.invalid', '--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
-  const top = optionalWholeNumber('--top', options.top, { min: 1, max: MAX_TOP }, 5);
-  const confirmTop = optionalWholeNumber('--confirm-top', options.confirmTop, { min: 1, max: 20 }, 3);
+  const { top, confirmTop } = options;
   const { simulate, note } = tuneSimulator(io, card, loaded.cardDir, options);
   if (simulate && io.stderrIsTTY && !options.json) noteTo(io, `confirming the first ${confirmTop} proposals in ngspice...`);
   const result = tuneChains(design, card, resolved.model, space, { simulate, confirmTop, top });

@@ -8,29 +8,41 @@ import type { Io } from '../io.js';
 import { gatherProvenance } from '../provenance.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { VERSION } from '../version.js';
-import { loadResolved, type ModelOptions } from '../load.js';
+import { loadResolved } from '../load.js';
 import { checkOutput, emit, inputFiles } from '../output.js';
-import { wholeNumber } from '../options.js';
+import { wholeNumberIn } from '../options.js';
 import { MAX_VCD_PERIODS } from '../run-limits.js';
 import { parseNets, requireOut } from '../out-options.js';
 import { warnTo } from '../warn.js';
+import { defineCommand, parsedOption, textOption, type CommandOptions } from '../command.js';
+import { DESIGN_ARGUMENT, SET_OPTION, outOption } from '../common-options.js';
 
-export interface WavesOptions extends ModelOptions {
-  readonly set: readonly string[];
-  readonly corner: string;
-  readonly nets: string;
-  readonly timescale: string;
-  readonly periods: string;
-  readonly out?: string;
+function parseTimescale(text: string, flag: string): Timescale {
+  const allowed = Object.keys(TIMESCALES);
+  if (!allowed.includes(text)) throw inputError('option.invalid', flag, text, `is not offered; allowed: ${allowed.join(', ')}`);
+  return text as Timescale;
 }
 
-export function runWaves(io: Io, designPath: string, options: WavesOptions): number {
+const OPTIONS = {
+  set: SET_OPTION,
+  corner: textOption('--corner <NAME>', "a corner name like ss/1.62V/125C or 'worst'", { default: 'worst' }),
+  nets: parsedOption('--nets <WHICH>', "'phases' or 'all' (internal nets in scope internal)", parseNets, { default: 'phases' }),
+  timescale: parsedOption('--timescale <UNIT>', "'1fs' or '10fs'", parseTimescale, { default: '1fs' }),
+  periods: parsedOption('--periods <N>', 'clock periods to dump', wholeNumberIn({ min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' }), { default: '2' }),
+  out: outOption('the VCD'),
+} as const;
+
+export const wavesCommand = defineCommand({
+  name: 'waves',
+  description: 'steady-state waveforms of a corner as an IEEE 1364 VCD file (50 % crossings, switch conduction)',
+  arguments: [DESIGN_ARGUMENT],
+  options: OPTIONS,
+  run: (io, [design], options) => runWaves(io, design, options),
+});
+
+export function runWaves(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const out = requireOut(options.out, 'VCD');
-  const allowed = Object.keys(TIMESCALES);
-  if (!allowed.includes(options.timescale)) throw inputError('option.invalid', '--timescale', options.timescale, `is not offered; allowed: ${allowed.join(', ')}`);
-  const timescale = options.timescale as Timescale;
-  const periods = wholeNumber('--periods', options.periods, { min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' });
-  const nets = parseNets(options.nets);
+  const { timescale, periods, nets } = options;
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
   const inputs = inputFiles(loaded, options);
