@@ -4,6 +4,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { ROOT } from './helpers.js';
 import { findOnPath, missingToolError, missingToolMessage } from './tools.js';
+import { INTEGRATION_FILES, integrationFiles, missingToolsReport, TOOLS, underCi } from './outside-tools.js';
 
 /** Every test source under test/, recursively. */
 function testSources(dir = join(ROOT, 'test')): string[] {
@@ -52,9 +53,46 @@ describe('requireTool calls in the tests', () => {
     expect(calls.filter((c) => !packages.includes(c.pkg))).toEqual([]);
   });
 
+  it('are made by exactly the integration files, each for the programs the project table lists', () => {
+    const byFile = new Map<string, Set<string>>();
+    for (const c of calls) byFile.set(c.file, (byFile.get(c.file) ?? new Set()).add(c.command));
+    const table = Object.fromEntries(Object.entries(INTEGRATION_FILES).filter(([, tools]) => tools.length > 0).map(([file, tools]) => [file, [...tools].sort()]));
+    expect(Object.fromEntries([...byFile].map(([file, tools]) => [file, [...tools].sort()]))).toEqual(table);
+    for (const c of calls) expect(c.pkg).toBe(TOOLS[c.command as keyof typeof TOOLS]);
+  });
+
   it('cover every outside program the tests drive', () => {
     const tools = new Set(calls.map((c) => c.command));
     for (const tool of ['ngspice', 'chromium', 'sigrok-cli', 'iverilog', 'rsvg-convert', 'xmllint']) expect(tools).toContain(tool);
+  });
+});
+
+describe('integrationFiles', () => {
+  it('blocks exactly the files that need a missing program', () => {
+    const { runnable, blocked } = integrationFiles(['iverilog']);
+    expect(blocked).toEqual(['test/verilog/identifiers.test.ts', 'test/verilog/verilog.test.ts']);
+    expect(runnable).toHaveLength(Object.keys(INTEGRATION_FILES).length - 2);
+    expect(integrationFiles([]).blocked).toEqual([]);
+  });
+});
+
+describe('missingToolsReport', () => {
+  it('names each missing program, what happens to their tests and the packages to install', () => {
+    expect(missingToolsReport(['xmllint', 'rsvg-convert'], false)).toBe(
+      'integration: missing xmllint, rsvg-convert: 5 test files that need them are skipped; install with `sudo apt-get install libxml2-utils librsvg2-bin` (or `sudo bash .ci/run`)');
+    expect(missingToolsReport(['chromium'], true)).toBe(
+      'integration: missing chromium: CI is set, so the run fails; install with `sudo apt-get install chromium` (or `sudo bash .ci/run`)');
+    expect(missingToolsReport([], true)).toBe('');
+  });
+});
+
+describe('underCi', () => {
+  it('is true for any CI value but empty and false', () => {
+    expect(underCi({ CI: 'true' })).toBe(true);
+    expect(underCi({ CI: '1' })).toBe(true);
+    expect(underCi({ CI: '' })).toBe(false);
+    expect(underCi({ CI: 'false' })).toBe(false);
+    expect(underCi({})).toBe(false);
   });
 });
 

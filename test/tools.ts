@@ -3,24 +3,10 @@
  * line naming the Debian package when the program is not on the PATH, instead of each test
  * failing with a spawn error and a stack.
  */
-import { accessSync, constants } from 'node:fs';
-import { delimiter, join } from 'node:path';
 import { beforeAll } from 'vitest';
+import { findOnPath } from './outside-tools.js';
 
-/** The path of `command` on `path` (a PATH value), or undefined. */
-export function findOnPath(command: string, path: string = process.env.PATH ?? ''): string | undefined {
-  for (const dir of path.split(delimiter)) {
-    if (dir === '') continue;
-    const file = join(dir, command);
-    try {
-      accessSync(file, constants.X_OK);
-      return file;
-    } catch {
-      // not in this folder
-    }
-  }
-  return undefined;
-}
+export { findOnPath };
 
 /** The one-line message for a missing program. */
 export function missingToolMessage(command: string, debianPackage: string): string {

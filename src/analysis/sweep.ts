@@ -116,7 +116,8 @@ export function summarizePoint(index: number, point: readonly (string | number)[
     const m = r.measurement;
     if (m.ok) {
       m.deadTimes.forEach((d, k) => {
-        const slot = deadTimes[k] ?? (deadTimes[k] = { label: `${d.from}->${d.to}`, min: Infinity, max: -Infinity, gapMin: Infinity });
+        deadTimes[k] ??= { label: `${d.from}->${d.to}`, min: Infinity, max: -Infinity, gapMin: Infinity };
+        const slot = deadTimes[k];
         slot.min = Math.min(slot.min, d.t50);
         slot.max = Math.max(slot.max, d.t50);
         slot.gapMin = Math.min(slot.gapMin, d.gap);

@@ -1,5 +1,5 @@
 /** The CLI's only contact with the outside: streams and files, injected so tests never touch the real ones. */
-import { closeSync, existsSync, fchmodSync, fstatSync, lstatSync, openSync, readSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { type Stats, closeSync, existsSync, fchmodSync, fstatSync, lstatSync, openSync, readSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { basename, dirname, join } from 'node:path';
 
@@ -43,7 +43,7 @@ export class StdinError extends Error {
 
 /** Reads fd 0 to its end, at most `limit` + 1 bytes; refuses a terminal, which would wait for typing. */
 export function readProcessStdin(limit: number): string {
-  let stat;
+  let stat: Stats;
   try {
     stat = fstatSync(0);
   } catch (error) {
@@ -75,7 +75,7 @@ export function readProcessStdin(limit: number): string {
 export type PathKind = 'absent' | 'regular file' | 'directory' | 'symbolic link' | 'character device' | 'block device' | 'FIFO (named pipe)' | 'socket';
 
 export function pathKind(path: string): PathKind {
-  let s;
+  let s: Stats;
   try {
     s = lstatSync(path);
   } catch {

@@ -79,7 +79,8 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
       return;
     }
     const current = Object.hasOwn(container, key) ? container[key] : undefined;
-    node = current === undefined || current === null ? (container[key] = typeof path[i + 1] === 'number' ? [] : {}) : current;
+    if (current === undefined || current === null) container[key] = typeof path[i + 1] === 'number' ? [] : {};
+    node = container[key];
   }
 }
 

@@ -128,7 +128,10 @@ const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>
 
 function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
   let byCard = widthCache.get(netlist);
-  if (!byCard) widthCache.set(netlist, byCard = new WeakMap());
+  if (!byCard) {
+    byCard = new WeakMap();
+    widthCache.set(netlist, byCard);
+  }
   const cached = byCard.get(card);
   if (cached) return cached;
   const unit = unitWidths(card);

@@ -58,7 +58,7 @@ export function solveEdge(alpha: number, vT: number, s: number, depth = 1): { de
   const pull = (gate: number, v: number, series: number): number => {
     if (gate <= vT) return 0;
     const x = (gate - vT) / (1 - vT);
-    const sat = stackFactor(alpha === 2 ? x * x : Math.pow(x, alpha), series);
+    const sat = stackFactor(alpha === 2 ? x * x : x ** alpha, series);
     const vdsat = d0 * Math.sqrt(sat);
     if (v >= vdsat) return sat;
     const r = v / vdsat;
@@ -136,6 +136,7 @@ export class RampResponse {
 
   /** Position of input transition s (in tau) on the grid: index of the segment plus the weight of its end (above 1 past the grid). */
   static sPosition(s: number): number {
+    // biome-ignore lint/complexity/useMathMinMax: a NaN transition maps to 0 here, where Math.max would keep it
     const q = Math.sqrt(s > 0 ? s : 0) / Q_STEP;
     const k = q >= S_POINTS - 1 ? S_POINTS - 2 : q | 0;
     const s0 = gridTransition(k);

@@ -132,7 +132,10 @@ export function tableModel(tables: DelayTables, options: TableModelOptions = {})
   const frames = new WeakMap<CompiledNetlist, WeakMap<CornerDevices, Frame>>();
   const frameFor = (netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices): Frame => {
     let byCorner = frames.get(netlist);
-    if (!byCorner) frames.set(netlist, byCorner = new WeakMap());
+    if (!byCorner) {
+      byCorner = new WeakMap();
+      frames.set(netlist, byCorner);
+    }
     const cached = byCorner.get(devices);
     if (cached && sameValues(cached.loads, loads)) return cached;
     const frame = buildFrame(tables, netlist, loads, devices, warn);

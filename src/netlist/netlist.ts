@@ -171,7 +171,9 @@ function checkLoops(net: CompiledNetlist, where: string): void {
   const components = stronglyConnected(net);
   const clocked = clockDependence(net);
   const componentOf = new Int32Array(net.gateCount);
-  components.forEach((comp, c) => comp.forEach((g) => (componentOf[g] = c)));
+  components.forEach((comp, c) => {
+    for (const g of comp) componentOf[g] = c;
+  });
   for (const [c, comp] of components.entries()) {
     const g0 = comp[0]!;
     const selfLoop = comp.length === 1 && gateInputsOf(net, g0).includes(net.gateOutput[g0]!);

@@ -37,7 +37,7 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   }
   const showDuty = duties.length > 1;
   const out: SourcedCorner[] = [];
-  processes.forEach((process, pi) => vdds.forEach((vdd, vi) => temperatures.forEach((temperature, ti) => duties.forEach((duty) => {
+  for (const [pi, process] of processes.entries()) for (const [vi, vdd] of vdds.entries()) for (const [ti, temperature] of temperatures.entries()) for (const duty of duties) {
     out.push({
       corner: { name: cornerName(process, vdd, temperature, showDuty ? duty : undefined), process, vdd, temperature, duty },
       paths: {
@@ -46,7 +46,7 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
         temperature: spec.temperature ? `corners.temperature[${ti}]` : 'process.t0',
       },
     });
-  }))));
+  }
   return out;
 }
 

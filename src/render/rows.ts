@@ -21,7 +21,9 @@ export function signalRows(netlist: CompiledNetlist, nets: NetChoice): SignalRow
   const rows: SignalRow[] = [{ net: src.clock, role: 'clock', phase: null }];
   const clockBar = netlist.gateOutput.length > 0 ? complementOfClock(netlist) : null;
   if (clockBar !== null) rows.push({ net: clockBar, role: 'clock-complement', phase: null });
-  src.phases.forEach((p, i) => rows.push({ net: p, role: 'phase', phase: i as 0 | 1 }));
+  src.phases.forEach((p, i) => {
+    rows.push({ net: p, role: 'phase', phase: i as 0 | 1 });
+  });
   src.phases.forEach((p, i) => {
     const c = src.complements[p];
     if (c !== undefined) rows.push({ net: c, role: 'complement', phase: i as 0 | 1 });

@@ -74,7 +74,7 @@ export function renderCheckText(report: CheckReport): string {
   out.push(...worstPerCheck(report));
   out.push('');
   out.push(...summaryLines(report, series[0]!.values, series[1]!.values));
-  return out.join('\n') + '\n';
+  return `${out.join('\n')}\n`;
 }
 
 /** Each check's worst corner and margin, switch constraints included; the limiting one first. */

@@ -1,43 +1,18 @@
 /** The circuit figures of one corner as report data (SI units), and their text table. */
-import type { CornerCircuit } from '../circuit/corner-circuit.js';
+import type { CircuitFigures } from '../circuit/figures.js';
 import { formatEngineering } from '../units/format.js';
 import { renderTable, type Column } from './text-table.js';
 
-export interface CircuitReport {
-  /** How the steady state was found: 'direct' (fixed point), 'periods' (run to rest) or 'none'. */
-  readonly method: string;
-  /** Mean output and peak-to-peak ripple, V. */
-  readonly output: number;
-  readonly ripple: number;
-  readonly noLoadOutput: number;
-  /** Mean load current, A. */
-  readonly loadCurrent: number;
-  /** Output impedance and its slow- and fast-switching asymptotes, ohm. */
-  readonly outputResistance: number | null;
-  readonly slowLimit: number | null;
-  readonly fastLimit: number | null;
-  readonly efficiency: number | null;
-  /** W */
-  readonly inputPower: number;
-  readonly outputPower: number;
-  readonly generatorPower: number;
-  /** Charge lost per period, C. */
-  readonly lostCharge: number;
-  readonly reverseCharge: number;
-  readonly shootThroughCharge: number;
-  readonly startupCycles: number | null;
-  /** s */
-  readonly startupTime: number | null;
-}
+/** The figures a report carries, in the order its JSON writes them (units as in `CircuitFigures`). */
+const REPORT_KEYS = [
+  'method', 'output', 'ripple', 'noLoadOutput', 'loadCurrent', 'outputResistance', 'slowLimit', 'fastLimit', 'efficiency',
+  'inputPower', 'outputPower', 'generatorPower', 'lostCharge', 'reverseCharge', 'shootThroughCharge', 'startupCycles', 'startupTime',
+] as const satisfies readonly (keyof CircuitFigures)[];
 
-export function circuitReport(c: CornerCircuit): CircuitReport {
-  return {
-    method: c.method, output: c.output, ripple: c.ripple, noLoadOutput: c.noLoadOutput, loadCurrent: c.loadCurrent,
-    outputResistance: c.outputResistance, slowLimit: c.slowLimit, fastLimit: c.fastLimit, efficiency: c.efficiency,
-    inputPower: c.inputPower, outputPower: c.outputPower, generatorPower: c.generatorPower,
-    lostCharge: c.lostCharge, reverseCharge: c.reverseCharge, shootThroughCharge: c.shootThroughCharge,
-    startupCycles: c.startupCycles, startupTime: c.startupTime,
-  };
+export type CircuitReport = Pick<CircuitFigures, (typeof REPORT_KEYS)[number]>;
+
+export function circuitReport(c: CircuitFigures): CircuitReport {
+  return Object.fromEntries(REPORT_KEYS.map((key) => [key, c[key]])) as unknown as CircuitReport;
 }
 
 const eng = (unit: string) => (x: number | null) => (x === null || !Number.isFinite(x) ? '-' : formatEngineering(x, unit));

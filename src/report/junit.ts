@@ -126,7 +126,9 @@ export function junitXml(suites: readonly JunitSuite[], p: Provenance, junitBuil
   for (const s of suites) {
     const suite = builder.testSuite().name(s.name);
     suite.property('phasegap.version', p.version).property('phasegap.date', p.date);
-    record.forEach((line, i) => suite.property(`phasegap.provenance.${i}`, line));
+    record.forEach((line, i) => {
+      suite.property(`phasegap.provenance.${i}`, line);
+    });
     for (const c of s.cases) {
       const tc = suite.testCase().className(c.className).name(c.name);
       if (c.failure !== undefined) tc.failure(c.failure);

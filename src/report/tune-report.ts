@@ -1,5 +1,5 @@
 /** The tune report: plain data for --json, and its tables for people. */
-import type { AutoHeadroom, ChainCandidate, ChainKnobs, Confirmation, CornerYield, Diagnosis, FailingCheck, Headroom, StuckSwitch, TuneResult } from '../analysis/tune.js';
+import type { AutoHeadroom, ChainCandidate, ChainKnobs, Confirmation, CornerYield, Diagnosis, Headroom, StuckSwitch, TuneResult } from '../analysis/tune.js';
 import { proposalOverrides } from '../analysis/tune.js';
 import { objectiveText, type TuneObjective } from '../analysis/tune-objective.js';
 import { switchFaultAdvice, type SwitchFault } from '../checks/bias-checks.js';
@@ -10,23 +10,15 @@ import { shellCommand } from './shell-quote.js';
 import { renderTable } from './text-table.js';
 import { CIRCUIT_KINDS, type CheckKind } from '../checks/check.js';
 
-export interface TuneCandidateReport {
-  readonly stages: number;
-  readonly stageSize: number | readonly number[];
-  /** F. */
-  readonly stageLoad: number;
-  /** Output buffer sizes, chain end to phase. */
-  readonly buffer: readonly number[];
-  /** Buffer inverters between the chain end and the feedback. */
-  readonly feedbackTap: number;
-  readonly pass: boolean;
-  /** Passes with the asked headroom on every margin. */
-  readonly meets: boolean;
+/**
+ * One candidate as the report shows it: its knobs, the candidate's verdicts and findings as the
+ * search left them, and its figures with NaN (a corner that did not settle) as null.
+ */
+export interface TuneCandidateReport
+  extends ChainKnobs, Pick<ChainCandidate, 'pass' | 'meets' | 'slowCorner' | 'limiting' | 'failing' | 'headroom' | 'yields' | 'confirmation'> {
   /** Smallest and largest dead time over every corner and both handovers, s. */
   readonly deadTimeMin: number | null;
   readonly deadTimeMax: number | null;
-  /** Corner of the largest dead time. */
-  readonly slowCorner: string;
   /** Largest dead time beyond the requirement (requirements.deadTime.min, else the least dead time), s. */
   readonly waste: number | null;
   /** Least useful conduction time over the corners, s, and its corner. */
@@ -34,15 +26,6 @@ export interface TuneCandidateReport {
   readonly conductionCorner: string;
   /** The objective's score, s (larger is better). */
   readonly score: number | null;
-  readonly limiting: ChainCandidate['limiting'];
-  /** Checks that fail and where (empty when it passes). */
-  readonly failing: readonly FailingCheck[];
-  /** The headroom a proposal keeps (s); null for the design and the closest candidate. */
-  readonly headroom: Headroom | null;
-  /** Monte Carlo yield at the limiting corners with 95 % Wilson intervals; null for the design and the closest candidate. */
-  readonly yields: readonly CornerYield[] | null;
-  /** The simulator's margins at the worst corners; null when not simulated. */
-  readonly confirmation: Confirmation | null;
   /** The `--set` overrides that give this candidate. */
   readonly overrides: readonly string[];
 }

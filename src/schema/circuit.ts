@@ -134,7 +134,9 @@ export function checkCircuitReferences(design: DesignView, ctx: z.RefinementCtx)
   };
   circuit.capacitors.forEach((c, i) => {
     unique(['capacitors', i, 'name'], c.name);
-    c.between.forEach((t, k) => at(['capacitors', i, 'between', k], t));
+    c.between.forEach((t, k) => {
+      at(['capacitors', i, 'between', k], t);
+    });
   });
   circuit.diodes.forEach((d, i) => {
     unique(['diodes', i, 'name'], d.name);
@@ -146,6 +148,8 @@ export function checkCircuitReferences(design: DesignView, ctx: z.RefinementCtx)
       ctx.addIssue({ code: 'custom', path: ['switches', i, 'terminals'], message: 'is required when the design has a `circuit` section: the solver needs the two nodes each switch connects' });
       return;
     }
-    s.terminals.forEach((t, k) => at(['switches', i, 'terminals', k], t, []));
+    s.terminals.forEach((t, k) => {
+      at(['switches', i, 'terminals', k], t, []);
+    });
   });
 }

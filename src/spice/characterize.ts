@@ -248,7 +248,8 @@ export function cornerTablesFrom(parts: ReadonlyArray<{ readonly deck: Character
       fall: { delay: onAxis(grids.sr, grids.df), transition: onAxis(grids.sr, grids.tf) },
       rise: { delay: onAxis(grids.sf, grids.dr), transition: onAxis(grids.sf, grids.tr) },
     };
-    (cells[cell] ??= { pins: [] }).pins[pin] = tables;
+    cells[cell] ??= { pins: [] };
+    cells[cell].pins[pin] = tables;
   }
   return { name: deck.corner.name, process: deck.corner.process, vdd: deck.corner.vdd, temperature: deck.corner.temperature, cells };
 }

@@ -92,7 +92,9 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   ];
   const unit = unitWidths(card);
   const subckts = new Map<string, [PrimitiveCell, number]>();
-  netlist.gateCell.forEach((cell, g) => subckts.set(cellSubcktName(cell, netlist.gateSize[g]!), [cell, netlist.gateSize[g]!]));
+  netlist.gateCell.forEach((cell, g) => {
+    subckts.set(cellSubcktName(cell, netlist.gateSize[g]!), [cell, netlist.gateSize[g]!]);
+  });
   for (const [cell, size] of subckts.values()) lines.push(cellSubckt(cell, size, unit, models.geometry));
   lines.push('', '* generator');
   netlist.source.gates.forEach((gate, g) => {

@@ -17,7 +17,7 @@ export function gateSwing(plan: SwitchPlan, vdd: number): { low: number; high: n
 
 /** Whether the device's gate turns it on in a phase state (false when unknown). */
 export function deviceOn(device: SwitchDevicePlan, state: StateIndex): boolean {
-  return device.onIn !== null && device.onIn[state];
+  return device.onIn?.[state] === true;
 }
 
 /** Gate voltage of a device in a phase state, V: the on level (high for n, low for p) where it is on. */

@@ -55,7 +55,7 @@ export function settlingTimeConstants(epsilon: number): number {
 
 /** Settling error for N bits at half an LSB, 2^-(N+1). */
 export function bitsToError(bits: number): number {
-  return Math.pow(2, -(bits + 1));
+  return 2 ** -(bits + 1);
 }
 
 /** Boltzmann constant over the elementary charge, V/K (CODATA 2018: k = 1.380649e-23 J/K, q = 1.602176634e-19 C). */

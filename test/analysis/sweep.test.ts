@@ -95,7 +95,7 @@ describe('phasegap sweep', () => {
     expect(slow!['margin_s.phases_never_both_above_10_of_swing']).toBe('');
     expect(Object.keys(fast!)).toEqual(Object.keys(reference!));
     expect(fast).toEqual(reference);
-    expect(Number(fast!['margin_s.dead_p1_p2_min'])).toBeCloseTo(Number(fast!['dead_p1_p2_min_s']) - 500e-12, 18);
+    expect(Number(fast!['margin_s.dead_p1_p2_min'])).toBeCloseTo(Number(fast!.dead_p1_p2_min_s) - 500e-12, 18);
   });
 
   it('gives the same rows on one and two threads when points differ in their checks', async () => {

@@ -38,7 +38,7 @@ describe('withKnobs and the feedback tap', () => {
       .map((r) => (r.measurement.ok ? Math.min(...r.measurement.deadTimes.map((x) => x.t50)) : NaN));
     const before = dead(0);
     const after = dead(2);
-    after.forEach((t, i) => expect(t).toBeGreaterThan(before[i]!));
+    after.forEach((t, i) => { expect(t).toBeGreaterThan(before[i]!); });
   });
 
   it('an odd tap or one past the buffer is refused with the field and the rule', () => {

@@ -14,6 +14,9 @@ import { ownKnobs, templateOf, withKnobs } from '../../src/analysis/tune-knobs.j
 import { cli, design, inputErrorMessage, tempDir } from '../helpers.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
+import { requireTool } from '../tools.js';
+
+requireTool('ngspice', 'ngspice');
 
 const fF = 1e-15;
 

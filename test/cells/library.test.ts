@@ -115,7 +115,7 @@ describe('CELLS evaluate', () => {
   ] as const)('computes the truth table of %s', (kind, table) => {
     const cell = CELLS[kind];
     expect(table).toHaveLength(1 << cell.inputs);
-    table.forEach((out, bits) => expect(cell.evaluate(bits)).toBe(out));
+    table.forEach((out, bits) => { expect(cell.evaluate(bits)).toBe(out); });
   });
 
   it('describes the series depth of each pull network', () => {

@@ -54,9 +54,9 @@ describe('biasChecks: off-state', () => {
 
   it('uses offMargin instead of the decades rule when given, and offDecades when given', () => {
     const sw = `  - { name: s_gnd, type: nmos, w: 10um, l: 0.18um, gate: p1, terminals: [bottom, 0V] }`;
-    const withMargin = pump(PLATES, sw) + 'requirements: { offMargin: 100mV }\n';
+    const withMargin = `${pump(PLATES, sw)}requirements: { offMargin: 100mV }\n`;
     expectClose(find(checksOf(withMargin), 'off-state', 's_gnd').margin!, 0.45 - 0.1, 1e-9, 'abs');
-    const withDecades = pump(PLATES, sw) + 'requirements: { offDecades: 3 }\n';
+    const withDecades = `${pump(PLATES, sw)}requirements: { offDecades: 3 }\n`;
     expectClose(find(checksOf(withDecades), 'off-state', 's_gnd').margin!, 0.45 - 1.5 * ALLOWANCE_27C, 1e-5, 'abs');
   });
 

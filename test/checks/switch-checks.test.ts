@@ -81,7 +81,7 @@ describe('settle', () => {
     const big = run(design('  settle: [{ name: p, switches: [a], capacitance: 2nF, bits: 10 }]'));
     const a = small.switches[0]!;
     const window = a.offEarliest - a.onLatest;
-    const need = Math.log(Math.pow(2, 11)) * a.ron * 1e-12;
+    const need = Math.log(2 ** 11) * a.ron * 1e-12;
     expectClose(small.checks.find((c) => c.kind === 'settle')!.margin!, window - need, 1e-15, 'abs');
     expect(big.checks.find((c) => c.kind === 'settle')!.pass).toBe(false);
   });

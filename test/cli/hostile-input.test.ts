@@ -192,7 +192,7 @@ describe('a foreign file named as a process card or table file', () => {
 describe('a foreign file named as the SPICE model file', () => {
   it('refuses a card whose spice.models is not a model file before ngspice can echo its lines, and names no line of it', () => {
     const shadow = write('shadow', 'root:$6$Qw8r1xTz$Zk3p0lYHnq9Tn0V1:19700:0:99999:7:::\nerror: Yt7uR4wE1qP0oI9u\n');
-    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^  models: .*$/m, `  models: ${shadow}`).replace(/^tables: .*$/m, ''));
+    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^ {2}models: .*$/m, `  models: ${shadow}`).replace(/^tables: .*$/m, ''));
     const path = designWithCard(card);
     for (const command of [['spice', path, '--corner', 'tt/1.8V/27C', '--model', 'analytic'], ['confirm', path, '--corners', 'tt/1.8V/27C', '--model', 'analytic']]) {
       const stderr = refused(cli(...command));
@@ -203,7 +203,7 @@ describe('a foreign file named as the SPICE model file', () => {
 
   it('refuses a card whose device model is not defined in its model file (ngspice would stop on the deck)', () => {
     const models = write('models.lib', '* two models\n.model nch nmos level=1\n.model pch pmos level=1\n');
-    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^  models: .*$/m, `  models: ${models}`).replace(/^  p: pch$/m, '  p: Clk'));
+    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^ {2}models: .*$/m, `  models: ${models}`).replace(/^ {2}p: pch$/m, '  p: Clk'));
     expect(refused(cli('spice', designWithCard(card), '--corner', 'tt/1.8V/27C', '--model', 'analytic', '-o', join(tempDir(), 'x.cir'))))
       .toBe(`phasegap: error: process.spice.p: "Clk" is not a model or subcircuit of ${models} (it defines nch, pch)\n`);
   });

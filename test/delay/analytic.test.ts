@@ -96,8 +96,8 @@ describe('analyticModel.bind: logical-effort units', () => {
   const devices = devicesAtCorner(card, at('tt', 1.8, 27));
   const cin = (card.unit.wn + card.unit.wp) * card.n.cgate;
   // tau of each edge: the unit inverter charging its own input capacitance, C_in V_DD / (2 I).
-  const currentUp = card.unit.wp * card.p.drive * Math.pow(1.8 - card.p.vth0, card.p.alpha);
-  const currentDown = card.unit.wn * card.n.drive * Math.pow(1.8 - card.n.vth0, card.n.alpha);
+  const currentUp = card.unit.wp * card.p.drive * (1.8 - card.p.vth0) ** card.p.alpha;
+  const currentDown = card.unit.wn * card.n.drive * (1.8 - card.n.vth0) ** card.n.alpha;
   const tauUp = (cin * 1.8) / (2 * currentUp);
   const tauDown = (cin * 1.8) / (2 * currentDown);
 

@@ -108,7 +108,7 @@ describe('tableModel.bind', () => {
   });
 
   it('gives each input pin its own characterized row', () => {
-    const nand = netlist.gateCell.findIndex((c) => c === 'NAND2');
+    const nand = netlist.gateCell.indexOf('NAND2');
     const timing = model.bind(netlist, loads, devices);
     expect(timing.delay(nand, 0, false, 1e-10)).not.toBe(timing.delay(nand, 1, false, 1e-10));
   });
@@ -153,13 +153,13 @@ describe('characterized tables (ngspice, Debian package ngspice)', () => {
         for (const edge of ['rise', 'fall'] as const) {
           for (const kind of ['delay', 'transition'] as const) {
             const grid = pin[edge][kind];
-            grid.forEach((row, i) => expect(monotonic(row), `${cell} pin ${p} ${edge} ${kind} row ${i} in load`).toBe(1));
+            grid.forEach((row, i) => { expect(monotonic(row), `${cell} pin ${p} ${edge} ${kind} row ${i} in load`).toBe(1); });
             // In input transition: wherever the simulator's column is monotonic, so is the model between the points.
             tables.loads.forEach((_, j) => {
               const column = grid.map((row) => row[j]!);
               const sense = monotonic(column);
               if (sense === 0) return;
-              const xs = Array.from({ length: 31 }, (_, k) => tables.transitions[0]! * Math.pow(tables.transitions.at(-1)! / tables.transitions[0]!, k / 30));
+              const xs = Array.from({ length: 31 }, (_, k) => tables.transitions[0]! * (tables.transitions.at(-1)! / tables.transitions[0]!) ** (k / 30));
               const ys = xs.map((x) => bilinear(grid, bracket(tables.transitions, x), bracket(tables.loads, tables.loads[j]!)));
               expect(monotonic(ys), `${cell} pin ${p} ${edge} ${kind} load ${j} in input transition`).toBe(sense);
               checkedSlew++;

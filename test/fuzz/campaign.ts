@@ -108,7 +108,9 @@ export function summarize(outcomes: readonly CaseOutcome[], options: Pick<Campai
   const byProperty: Record<string, number> = {};
   const byCommand: Summary['byCommand'] = {};
   for (const o of outcomes) {
-    const cmd = (byCommand[o.case.command as CommandName] ??= { cases: 0, failing: 0, exit: {} });
+    const name = o.case.command as CommandName;
+    const cmd = byCommand[name] ?? { cases: 0, failing: 0, exit: {} };
+    byCommand[name] = cmd;
     cmd.cases++;
     const exit = o.code === undefined ? 'none' : String(o.code);
     cmd.exit[exit] = (cmd.exit[exit] ?? 0) + 1;
@@ -132,7 +134,7 @@ export function summarize(outcomes: readonly CaseOutcome[], options: Pick<Campai
 export function renderSummary(summary: Summary, outcomes: readonly CaseOutcome[]): string {
   const lines = [
     `fuzz: seed ${summary.seed}, ${summary.runs} cases, ${summary.failing} failing (crashes ${summary.crashes}, hangs ${summary.hangs}, malformed outputs ${summary.malformed})`,
-    'by property: ' + (Object.entries(summary.byProperty).map(([p, n]) => `${p} ${n}`).join(', ') || 'none'),
+    `by property: ${Object.entries(summary.byProperty).map(([p, n]) => `${p} ${n}`).join(', ') || 'none'}`,
     'by command:',
     ...Object.entries(summary.byCommand).map(([cmd, s]) => `  ${cmd.padEnd(8)} ${String(s.cases).padStart(5)} cases, ${String(s.failing).padStart(4)} failing, exits ${JSON.stringify(s.exit)}`),
   ];

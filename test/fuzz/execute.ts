@@ -84,7 +84,8 @@ export class WorkerRunner {
   }
 
   run(args: readonly string[], timeoutMs: number): Promise<RunResult> {
-    const worker = this.worker ??= this.spawn();
+    this.worker ??= this.spawn();
+    const worker = this.worker;
     const id = ++this.next;
     const start = Date.now();
     return new Promise((resolve) => {

@@ -45,6 +45,7 @@ export const PAYLOADS: readonly string[] = [
   '', ' ', '\t', '\n', '\r\n',
   '../../../../tmp/pgx', '/dev/zero', 'C:\\pgx', '-o', '--help',
   '__proto__', 'constructor', 'prototype', 'toString', 'hasOwnProperty', 'valueOf',
+  // biome-ignore lint/suspicious/noTemplateCurlyInString: a literal `${...}` is the hostile text itself
   '%s%n%x', '${pgx}', '{{pgx}}', '\\u0000',
   'NaN', 'Infinity', '-Infinity', '1e400', '-0', '0x10', '1_000',
   '1e400fF', 'NaN ps', 'Infinity MHz', '-1e-300V', '1e-400s', '9e307 pF', '0 Hz', '-0 MHz',

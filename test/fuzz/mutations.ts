@@ -191,7 +191,7 @@ export function oneCorner(root: Node): void {
 export function applyPlan(baseText: string, p: Plan, prepare?: (root: Node) => void): Buffer {
   const root = clone(fromValue(parse(baseText)));
   prepare?.(root);
-  p.tree.forEach((op, i) => applyTreeOp(root, op, i));
+  p.tree.forEach((op, i) => { applyTreeOp(root, op, i); });
   const text = p.block && onlyPlain(root) ? stringify(toPlain(root)) : `${emit(root)}\n`;
   let bytes: Buffer = Buffer.from(text, 'utf8');
   for (const op of p.text) bytes = applyTextOp(bytes, op);

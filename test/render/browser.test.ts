@@ -1,3 +1,4 @@
+// biome-ignore-all lint/performance/useDomNodeTextContent: innerText is the text as the browser lays it out, which these tests read
 /**
  * The review page in a real browser: Debian's chromium driven by playwright-core. It must load
  * with no console error and no failed (or any network) request, lay out every drawing at a

@@ -6,6 +6,9 @@ import { all, parseSvg } from './svg-dom.js';
 import { cliAsync, design, expectClose, tempDir } from '../helpers.js';
 import { readFileSync, existsSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { requireTool } from '../tools.js';
+
+requireTool('xmllint', 'libxml2-utils');
 
 const list = (centre: number, n: number) => Float64Array.from({ length: n }, (_, i) => centre + ((i % 21) - 10) * 1e-12);
 const values = (centre: number, n: number) => histogramOf(list(centre, n));

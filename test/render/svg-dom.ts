@@ -9,7 +9,7 @@ export function parseSvg(text: string): Element {
   const holder = window.document.documentElement as unknown as Element;
   holder.innerHTML = text.replace(/^<\?xml[^>]*>\s*/, '');
   const svg = holder.firstElementChild;
-  if (!svg || svg.nodeName !== 'svg') throw new Error('not an SVG document');
+  if (svg?.nodeName !== 'svg') throw new Error('not an SVG document');
   return svg;
 }
 

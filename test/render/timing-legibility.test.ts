@@ -16,6 +16,9 @@ import { OFF_LABEL_GAP, renderTimingSvg, withoutBusy } from '../../src/render/sv
 import { textWidth } from '../../src/render/svg/text.js';
 import { design, tempDir } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
+import { requireTool } from '../tools.js';
+
+requireTool('xmllint', 'libxml2-utils');
 
 function drawn(name: string, kind: 'corner' | 'all', set: string[] = []): { svg: string; doc: Element; results: CornerResult[]; resolved: ResolvedDesign } {
   const { design: d, card } = loadDesign(design(name), set);
@@ -56,7 +59,7 @@ describe('renderTimingSvg labels', () => {
     const axes = order.flatMap((c, i) => (c === 'axis' ? [i] : []));
     const panels = order.flatMap((c, i) => (c?.startsWith('panel ') ? [i] : []));
     expect(axes).toHaveLength(3);
-    axes.forEach((a, k) => expect(a).toBeLessThan(panels[k]!));
+    axes.forEach((a, k) => { expect(a).toBeLessThan(panels[k]!); });
   });
 });
 

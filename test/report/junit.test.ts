@@ -11,6 +11,9 @@ import { mcReport } from '../../src/report/mc-report.js';
 import { provenance } from '../../src/report/provenance.js';
 import { runVerdict } from '../../src/report/verdict.js';
 import { design, resolveYaml, ROOT, tempDir } from '../helpers.js';
+import { requireTool } from '../tools.js';
+
+requireTool('xmllint', 'libxml2-utils');
 
 // The schema: test/report/fixtures/junit.xsd, written after the Jenkins xunit plugin's junit-10.xsd
 // (github.com/jenkinsci/xunit-plugin); validated with xmllint from Debian's libxml2-utils.

@@ -12,7 +12,7 @@ describe('renderMcText replay hint', () => {
     const text = readFileSync(design('doubler'), 'utf8');
     writeFileSync(path, text);
     const cardLine = /^process:\s*(\S+)/m.exec(text)?.[1];
-    if (cardLine && cardLine.includes('/')) {
+    if (cardLine?.includes('/')) {
       mkdirSync(join(dir, cardLine, '..'), { recursive: true });
       copyFileSync(processCard('generic180'), join(dir, cardLine));
     }

@@ -6,6 +6,7 @@ import { parseWith } from '../../src/schema/validate.js';
 import { InputError } from '../../src/errors.js';
 import { design } from '../helpers.js';
 
+// biome-ignore lint/suspicious/noExplicitAny: the tests edit arbitrary parsed YAML by path
 const base = () => parse(readFileSync(design('doubler-pump'), 'utf8')) as Record<string, any>;
 
 function issues(raw: unknown): { path: string; value?: string; allowed: string }[] {

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import * as z from 'zod';
+import type * as z from 'zod';
 import { PLAUSIBLE, TEMPERATURE_RANGE, quantity, ratio, temperature } from '../../src/schema/fields.js';
 import { parseQuantity, parseTemperature } from '../../src/units/quantity.js';
 

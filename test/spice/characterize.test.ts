@@ -62,7 +62,7 @@ describe('resampleColumn', () => {
     const f = (x: number) => 3e-11 + 0.4 * x;
     const measured = [4e-11, 2e-10, 9e-10];
     const out = resampleColumn(measured, measured.map(f), [2e-11, 1e-10, 1e-9]);
-    out.forEach((v, i) => expectClose(v, f([2e-11, 1e-10, 1e-9][i]!), 1e-12));
+    out.forEach((v, i) => { expectClose(v, f([2e-11, 1e-10, 1e-9][i]!), 1e-12); });
   });
 
   it('sorts the points first when a slow row measured faster than its neighbour', () => {

@@ -152,7 +152,7 @@ describe('break-before-make from the deck instants', () => {
         const margins = breakBeforeMakeMargins(deck.quantities, () => null, deck.breakBeforeMake, deck.window.period);
         const checks = evaluateCorner(resolved, corner).checks.filter((c) => c.kind === 'break-before-make');
         expect(margins.map((m) => m.check)).toEqual(checks.map((c) => c.name));
-        margins.forEach((m, i) => expect(m.model).toBeCloseTo(checks[i]!.margin!, 15));
+        margins.forEach((m, i) => { expect(m.model).toBeCloseTo(checks[i]!.margin!, 15); });
       }
     }
   });
@@ -189,7 +189,7 @@ describe('phasegap confirm', () => {
     const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1', '--junit', junit);
     expect(r.code).toBe(1);
     expect(r.stdout.split('\n')[0]).toBe('verdict: FAIL (fails: simulator agreement)');
-    expect(r.stdout).toMatch(/^  simulator agreement: FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)$/m);
+    expect(r.stdout).toMatch(/^ {2}simulator agreement: FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)$/m);
     expect(r.stdout).toMatch(/^provenance: simulator: ngspice-\S+$/m);
     expect(readFileSync(junit, 'utf8')).toMatch(/<testcase classname="phasegap.confirm.dead" name="dead p1->p2 at tt\/1.8V\/27C">\s*<failure/);
     expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 0\.5 %, 1 corner$/m);

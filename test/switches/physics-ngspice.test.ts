@@ -51,7 +51,7 @@ function deck(c: Case, lmin: number, params: Readonly<Record<string, number>>): 
   const p = Object.entries(params).map(([k, v]) => `${k}=${v}`).join(' ');
   const head = [`* R_on of one ${c.type} device`, `.include ${fixture('models', `${c.card}.lib`)}`, ...(p ? [`.param ${p}`] : []), `.temp ${c.temperature}`];
   const body = c.type === 'n'
-    ? ['vg g 0 ' + c.vdd, 'vs s 0 0', `vb b 0 ${-c.vsb}`, `vd d 0 ${VDS}`, `m1 d g s b nch w=${W} l=${lmin}`, '.op', '.control', 'op', 'print v(d)/(-i(vd))', '.endc']
+    ? [`vg g 0 ${c.vdd}`, 'vs s 0 0', `vb b 0 ${-c.vsb}`, `vd d 0 ${VDS}`, `m1 d g s b nch w=${W} l=${lmin}`, '.op', '.control', 'op', 'print v(d)/(-i(vd))', '.endc']
     : ['vg g 0 0', `vs s 0 ${c.vdd}`, `vb b 0 ${c.vdd + c.vsb}`, `vd d 0 ${c.vdd - VDS}`, `m1 d g s b pch w=${W} l=${lmin}`, '.op', '.control', 'op', `print (v(s)-v(d))/i(vd)`, '.endc'];
   return [...head, ...body, '.end', ''].join('\n');
 }

@@ -57,7 +57,7 @@ describe('settling time constants', () => {
     expectClose(settlingTimeConstants(bitsToError(bits)), taus, 1e-4);
   });
   it('needs 8.3178 tau for one LSB at 12 bits', () => {
-    expectClose(settlingTimeConstants(Math.pow(2, -12)), 8.3178, 1e-4);
+    expectClose(settlingTimeConstants(2 ** -12), 8.3178, 1e-4);
   });
   // Derived by hand (docs/physics.md, "Switches and constraints"): 500 ohm with 1 pF is tau = 0.5 ns; 10-bit half-LSB settling takes 3.812 ns.
   it('settles 500 ohm into 1 pF to 10 bits in 3.812 ns', () => {

@@ -66,7 +66,7 @@ describe('wilsonInterval', () => {
   it.each([100, 1000, 10000])('puts the one-sided 95 percent bound for 0 failures in %i dies near 3/n', (n) => {
     const z = 1.6448536269514722;
     const failureBound = 1 - wilsonInterval(n, n, z).low;
-    const exact = 1 - Math.pow(0.05, 1 / n);
+    const exact = 1 - 0.05 ** (1 / n);
     expectClose(exact, 3 / n, 0.02);
     // Wilson's closed form for k = n, derived from the interval's formula: z^2 / (n + z^2) = 2.706/(n + 2.706).
     expectClose(failureBound, (z * z) / (n + z * z), 1e-9);

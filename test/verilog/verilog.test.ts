@@ -116,7 +116,7 @@ describe('verilog export', () => {
       const fixed = measurePhases(sim, resolved.netlist);
       const reference = evaluateCorner(resolved, corner).measurement;
       if (!fixed.ok || !reference.ok) throw new Error('expected both runs to settle');
-      fixed.deadTimes.forEach((dt, i) => expect(Math.abs(dt.t50 - reference.deadTimes[i]!.t50)).toBeLessThan(1e-15));
+      fixed.deadTimes.forEach((dt, i) => { expect(Math.abs(dt.t50 - reference.deadTimes[i]!.t50)).toBeLessThan(1e-15); });
     }
   });
 

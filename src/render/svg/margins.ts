@@ -239,7 +239,9 @@ function drawBlock(root: G, rows: readonly MarginRow[], axis: AxisUnit, f: Block
     drawText(bg, axis.label, f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
   }
   drawAxis(block.group(), scale, decadeTicks(lo, hi, axis.decades), f.bottom, f.top, axis);
-  rows.forEach((row, i) => drawRow(block.group(), row, i, { top: f.top + i * f.rowHeight, height: f.rowHeight }, scale, processes, f.x0, f.x1, axis));
+  rows.forEach((row, i) => {
+    drawRow(block.group(), row, i, { top: f.top + i * f.rowHeight, height: f.rowHeight }, scale, processes, f.x0, f.x1, axis);
+  });
   block.line(round(zero), f.top - (f.first ? 22 : 4), round(zero), round(f.bottom)).stroke({ color: INK, width: 2 }).attr({ class: 'zero-line' });
 }
 

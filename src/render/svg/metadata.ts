@@ -9,12 +9,12 @@ import { verdictBlock } from '../../report/verdict-text.js';
 import type { TitleInfo } from './title.js';
 import { xmlText } from './xml-text.js';
 
-const escape = (text: string) => xmlText(text).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+const escapeXml = (text: string) => xmlText(text).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 
 /** Inserts the metadata element as the first child of the root `<svg>`. */
 export function withRunMetadata(svg: string, verdict: RunVerdict, p: Provenance): string {
-  const lines = [...verdictBlock(verdict), ...provenanceLines(p)].map(escape);
-  const element = `<metadata data-verdict="${verdict.verdict}" data-sha256="${escape(p.inputs[0]?.sha256 ?? '')}">\n${lines.join('\n')}\n</metadata>`;
+  const lines = [...verdictBlock(verdict), ...provenanceLines(p)].map(escapeXml);
+  const element = `<metadata data-verdict="${verdict.verdict}" data-sha256="${escapeXml(p.inputs[0]?.sha256 ?? '')}">\n${lines.join('\n')}\n</metadata>`;
   return svg.replace(/<svg\b[^>]*>/, (open) => `${open}${element}`);
 }
 

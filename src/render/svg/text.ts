@@ -101,7 +101,9 @@ export function wrapLines(text: string, size: number, width: number): string[] {
   };
   for (const part of parts) {
     if (textWidth(part, size) <= width) { push(part, ' · '); continue; }
-    part.split(' ').forEach((word, i) => push(word, i === 0 ? ' · ' : ' '));
+    part.split(' ').forEach((word, i) => {
+      push(word, i === 0 ? ' · ' : ' ');
+    });
   }
   if (line !== '') lines.push(line);
   return lines;

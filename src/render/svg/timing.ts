@@ -219,8 +219,12 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
     clipped.line(round(px0), round(band.top + band.height), round(px1), round(band.top + band.height)).stroke({ color: GRID, width: 1 });
   }
   if (detail) drawDeadZones(ctx, clipped, w, scale, layout);
-  ctx.d.rows.forEach((row, i) => drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail));
-  ctx.d.switches.forEach((s, i) => drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail));
+  ctx.d.rows.forEach((row, i) => {
+    drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail);
+  });
+  ctx.d.switches.forEach((s, i) => {
+    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail);
+  });
   if (detail) {
     // Labels go on a layer above every mark's lines, so no later mark's extension line crosses them.
     const labels = panel.group().attr({ class: 'mark-labels' });
@@ -641,6 +645,8 @@ function drawLegend(ctx: Context, x: number, y: number, width: number): void {
     drawText(g, e.text, x + dx + 30, ey + 12, { size: SIZE.small, fill: INK, className: 'legend-label' });
   });
   const rows = 1 + Math.max(0, ...places.map((p) => p.row));
-  legendNotes(ctx.d).forEach((n, i) => drawText(g, n, x, y + rows * LEGEND_ROW + 6 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' }));
+  legendNotes(ctx.d).forEach((n, i) => {
+    drawText(g, n, x, y + rows * LEGEND_ROW + 6 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' });
+  });
 }
 
