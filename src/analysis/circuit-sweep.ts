@@ -119,7 +119,9 @@ export function circuitSweep(resolved: ResolvedDesign, results: readonly CornerR
   for (const factor of factors) {
     const frequency = f0 * factor;
     const evaluator = new CornerEvaluator(atFrequency(resolved, frequency));
-    picked.forEach((p, s) => points[s]!.push(point(evaluator.evaluate(resolved.corners[p.index]!.corner), frequency)));
+    picked.forEach((p, s) => {
+      points[s]!.push(point(evaluator.evaluate(resolved.corners[p.index]!.corner), frequency));
+    });
   }
   const req = spec.requirements;
   return {

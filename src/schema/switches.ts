@@ -60,7 +60,6 @@ export const constraintsSchema = z.strictObject({
   order: z.array(z.strictObject({
     name: identifier().optional(),
     first: eventRef,
-    // biome-ignore lint/suspicious/noThenProperty: `then` is the design file's field name; the schema object is never awaited
     then: eventRef,
     min: quantity('s', 'Least time from the first event to the second', { atLeast: 0 }).default(0),
   })).max(MAX_CONSTRAINTS).default([]).describe('Event ordering, e.g. the bottom-plate switch opens before the top-plate one'),

@@ -175,7 +175,9 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const t0 = wrapTime(result.simulation.windowStart - window.start - circuit.start, T);
   const x0 = stateAt(circuit.trace.times, circuit.trace.voltages, network.nodes.length, t0);
   lines.push('* start at the solver\'s periodic steady state');
-  network.nodes.forEach((n, i) => lines.push(`.ic v(${nodeName.get(n)!})=${spiceNumber(x0[i]!)}`));
+  network.nodes.forEach((n, i) => {
+    lines.push(`.ic v(${nodeName.get(n)!})=${spiceNumber(x0[i]!)}`);
+  });
 
   const window3 = (k: number) => `FROM=${spiceNumber(stop - k * T)} TO=${spiceNumber(stop - (k - 1) * T)}`;
   const measures: string[] = [spiceComment(`circuit measurements over the last period(s) of ${periods}`)];
@@ -189,13 +191,15 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   meas('e_clock', `INTEG par('-v(${clockNode})*i(${clock})') ${window3(1)}`);
   design.switches.forEach((_, i) => {
     const c = result.switches[i];
-    if (!c || c.status !== 'switching') return;
+    if (c?.status !== 'switching') return;
     const dur = wrapTime(c.on - c.off, T);
     let a = from + wrapTime(c.off - result.simulation.windowStart, T);
     if (a + dur > stop) a -= T;
     meas(`qoff_${i}`, `INTEG i(vqs${i}) FROM=${spiceNumber(a)} TO=${spiceNumber(a + dur)}`);
   });
-  spec.diodes.forEach((_, i) => meas(`qrev_${i}`, `INTEG par('min(i(vqd${i}),0)') ${window3(1)}`));
+  spec.diodes.forEach((_, i) => {
+    meas(`qrev_${i}`, `INTEG par('min(i(vqd${i}),0)') ${window3(1)}`);
+  });
 
   // Every DC source of the deck delivers power (the supply, switch bodies, rails); the first pass finds them.
   const write = () => generatorDeck(resolved, corner, { modelPath: options.modelPath, maxStepFraction: MAX_STEP, circuit: { switchNodes, lines, stop, measures } });
