@@ -11,6 +11,11 @@ root=$(cd "$(dirname "$0")/.." && pwd)
 bin="$root/dist/src/cli/main.js"
 mkdir -p "$out"
 out=$(cd "$out" && pwd)
+# A fixed date, and reports written to one fixed scratch folder before they move into $out: the
+# date and the -o path are recorded in the outputs, and two snapshots must not differ by them.
+export SOURCE_DATE_EPOCH=${SOURCE_DATE_EPOCH:-1700000000}
+scratch=${TMPDIR:-/tmp}/phasegap-snapshot-scratch
+rm -rf "$scratch" && mkdir -p "$scratch"
 
 # run NAME ARGS...: stdout to NAME.out, stderr to NAME.err, exit code to NAME.code
 # SNAPSHOT_ONLY=REGEX runs only the outputs whose name matches.
@@ -43,12 +48,15 @@ for design in "$root"/fixtures/designs/*.yaml; do
   run "$d.mc-replay" mc --samples 200 --workers 1 --replay 7 "$f"
   run "$d.sweep" sweep --workers 1 --vary vdd=1.6,1.8 --vary clock.frequency=10MHz:40MHz:3 "$f" -o -
   run "$d.sweep-json" sweep --workers 1 --json --vary temperature=-40,125 "$f" -o -
-  run "$d.report" report --mc 100 "$f" -o "$out/$d.report.html"
-  mkdir -p "$out/$d.md"
-  run "$d.report-md" report --format md --no-fmax "$f" -o "$out/$d.md/report.md"
+  run "$d.report" report --mc 100 "$f" -o "$scratch/report.html"
+  mv "$scratch/report.html" "$out/$d.report.html" 2>/dev/null
+  mkdir -p "$scratch/md"
+  run "$d.report-md" report --format md --no-fmax "$f" -o "$scratch/md/report.md"
+  rm -rf "$out/$d.md" && mv "$scratch/md" "$out/$d.md"
 done
 # bad input: message and exit code
 for design in "$root"/fixtures/designs/bad/*.yaml; do
   d=$(basename "$design" .yaml)
   run "bad.$d" check "fixtures/designs/bad/$d.yaml"
 done
+rm -rf "$scratch"
