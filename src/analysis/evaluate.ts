@@ -94,7 +94,7 @@ export class CornerEvaluator {
       switchChecks(design.constraints, design.requirements.guard, this.switchByName, period, design.clock.dutyTolerance * period,
         this.resolved.switchCheckNames, checks);
       if (this.circuit) {
-        circuit = this.circuit.evaluate(switches, cycles, devices);
+        circuit = this.circuit.evaluate(switches, cycles, devices, { devices: switchDevices, dvth: mismatch?.switches });
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
       }
     }
