@@ -46,7 +46,7 @@ export interface SwitchDrive {
 }
 
 /** Conductance of a switch's devices in parallel with n sources at nSource and p sources at pSource, S. */
-function driveOf(plan: SwitchPlan, drive: SwitchDrive, dvth: ArrayLike<number> | undefined): (nSource: number, pSource: number) => number {
+export function onConductanceOf(plan: SwitchPlan, drive: SwitchDrive, dvth: ArrayLike<number> | undefined): (nSource: number, pSource: number) => number {
   return (nSource, pSource) => {
     let g = 0;
     plan.devices.forEach((device, i) => {
@@ -89,7 +89,7 @@ export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[
       if (Number.isFinite(full)) channels.push({ switchIndex: k, a, b, polarity: n ? 'n' : 'p', gate, vt, g: 1 / full });
     });
     windows.push(window);
-    const onConductance = c?.status === 'switching' ? driveOf(plan, drive, drive.dvth?.[k]) : undefined;
+    const onConductance = c?.status === 'switching' ? onConductanceOf(plan, drive, drive.dvth?.[k]) : undefined;
     switches.push(onConductance ? { name: plan.name, a, b, gOn, gOff: network.switchLeak, onConductance } : { name: plan.name, a, b, gOn, gOff: network.switchLeak });
   });
   const events = new Set<number>();

@@ -143,9 +143,9 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
     loadCurrent,
     outputResistance: own.r,
     slowLimit: hasLoad ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
-    // The fast-switching limit keeps the switches' resistance of the real steady state: grown
-    // capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
-    fastLimit: hasLoad ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r : null,
+    // The fast-switching limit keeps the switches' resistance of the real steady state (none
+    // without one): grown capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
+    fastLimit: hasLoad && loaded.state.method !== 'none' ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r : null,
     inputPower,
     outputPower,
     generatorPower,
