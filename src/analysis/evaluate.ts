@@ -123,7 +123,7 @@ export class CornerEvaluator {
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {
-        circuit = this.circuit.evaluate(switches, cycles, devices);
+        circuit = this.circuit.evaluate(switches, cycles, devices, { devices: switchDevices, dvth: mismatch?.switches });
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
       }
     }

@@ -62,9 +62,10 @@ export function chooseSegments(model: CircuitModel, interval: number, v: ArrayLi
 
 export function branchesFor(model: CircuitModel, interval: number, segments: Uint8Array): Branch[] {
   const branches: Branch[] = [];
-  const on = model.intervals[interval]!.on;
+  const { on, g: drive } = model.intervals[interval]!;
   model.switches.forEach((s, i) => {
-    const g = on[i] === 1 ? s.gOn : s.gOff;
+    const gOn = drive ? drive[i]! : s.gOn;
+    const g = on[i] === 1 && gOn > 0 ? gOn : s.gOff;
     if (g > 0) branches.push({ f: s.a, t: s.b, j1: s.a, c1: g, j2: s.b, c2: -g, k: 0, tag: SWITCH, part: i, segment: 0 });
   });
   model.channels.forEach((c, i) => {

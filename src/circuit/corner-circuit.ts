@@ -10,7 +10,7 @@ import { levelAt } from '../schema/level.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { SwitchConduction } from '../switches/conduction.js';
 import { switchGateCapacitance, type SwitchPlan } from '../switches/plan.js';
-import { cornerModel } from './corner-model.js';
+import { cornerModel, type SwitchDrive } from './corner-model.js';
 import { circuitFigures, solve, withLoad, type CircuitFigures } from './figures.js';
 import { buildNetwork, type CircuitNetwork } from './network.js';
 
@@ -49,9 +49,10 @@ export class CircuitEvaluator {
     this.network = buildNetwork(design, plans);
   }
 
-  evaluate(conduction: readonly SwitchConduction[], cycles: CycleIndex, devices: CornerDevices): CornerCircuit {
+  /** `drive` sets the switches' on-resistance (the devices R_on is calibrated on, mismatch); by default `devices`. */
+  evaluate(conduction: readonly SwitchConduction[], cycles: CycleIndex, devices: CornerDevices, drive: SwitchDrive = { devices }): CornerCircuit {
     const net = this.network;
-    const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period);
+    const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period, drive);
     const figures = circuitFigures(model, net.load, generatorEnergy(this.netLoads, this.plans, this.card, devices.vdd), net.spec.startupCycles);
     const sameLoad = net.lightLoad.current === net.load.current && net.lightLoad.conductance === net.load.conductance;
     const sign = figures.output < 0 ? -1 : 1;

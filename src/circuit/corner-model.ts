@@ -4,11 +4,14 @@
  * that corner, and for every off device a channel that conducts backwards if a terminal passes
  * its gate's off level by a threshold. A switch that never turns off (or on) at some signal
  * keeps its gate's own 50 % instants, so a wrongly driven device still shows what it does.
+ * A switching switch's on-conductance follows its devices' overdrive at the node voltages
+ * (`onConductance`, evaluated by the solver along the steady state); gOn, from the conduction's
+ * worst R_on over the declared signal range, is only the first guess.
  */
 import type { CycleIndex } from '../measure/phases.js';
 import type { CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
-import { bulkLevel, gateWave, type SwitchConduction } from '../switches/conduction.js';
+import { bulkLevel, deviceOnResistance, gateWave, type SwitchConduction } from '../switches/conduction.js';
 import { bodyThreshold, triodeResistance } from '../switches/physics.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import type { CircuitModel, ModelChannel, ModelInterval, ModelSwitch } from './model.js';
@@ -36,8 +39,26 @@ function onsetThreshold(vth: number, gamma: number, phi2f: number, gate: number,
   return vt;
 }
 
+/** What sets a switch's on-resistance: the devices (calibrated, if the run calibrates R_on) and per-switch threshold shifts (mismatch), V. */
+export interface SwitchDrive {
+  readonly devices: CornerDevices;
+  readonly dvth?: readonly (ArrayLike<number> | undefined)[];
+}
+
+/** Conductance of a switch's devices in parallel with n sources at nSource and p sources at pSource, S. */
+export function onConductanceOf(plan: SwitchPlan, drive: SwitchDrive, dvth: ArrayLike<number> | undefined): (nSource: number, pSource: number) => number {
+  return (nSource, pSource) => {
+    let g = 0;
+    plan.devices.forEach((device, i) => {
+      const r = deviceOnResistance(plan, device, drive.devices, device.kind === 'n' ? nSource : pSource, dvth ? dvth[i]! : 0);
+      if (Number.isFinite(r)) g += 1 / r;
+    });
+    return g;
+  };
+}
+
 export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[], conduction: readonly SwitchConduction[],
-  cycles: CycleIndex, devices: CornerDevices, period: number): CircuitModel {
+  cycles: CycleIndex, devices: CornerDevices, period: number, drive: SwitchDrive = { devices }): CircuitModel {
   const vdd = devices.vdd;
   const windows: (Window | null)[] = [];
   const switches: ModelSwitch[] = [];
@@ -68,7 +89,8 @@ export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[
       if (Number.isFinite(full)) channels.push({ switchIndex: k, a, b, polarity: n ? 'n' : 'p', gate, vt, g: 1 / full });
     });
     windows.push(window);
-    switches.push({ name: plan.name, a, b, gOn, gOff: network.switchLeak });
+    const onConductance = c?.status === 'switching' ? onConductanceOf(plan, drive, drive.dvth?.[k]) : undefined;
+    switches.push(onConductance ? { name: plan.name, a, b, gOn, gOff: network.switchLeak, onConductance } : { name: plan.name, a, b, gOn, gOff: network.switchLeak });
   });
   const events = new Set<number>();
   for (const w of windows) if (w) { events.add(wrap(w.on, period)); events.add(wrap(w.off, period)); }

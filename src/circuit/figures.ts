@@ -10,9 +10,10 @@
 import type { CircuitModel } from './model.js';
 import { periodOf } from './model.js';
 import { pwlCount } from './branches.js';
+import { fixedConductances, solveDriven, type Solved } from './overdrive.js';
 import { PeriodSolver, type SteadyState } from './period-solver.js';
 import { startup } from './startup.js';
-import { tracePeriod, type PeriodTrace } from './trace.js';
+import type { PeriodTrace } from './trace.js';
 
 const ASYMPTOTE = 1e3;
 
@@ -59,11 +60,12 @@ export function withLoad(model: CircuitModel, load: CircuitLoad, sign: number): 
   return { ...model, loadCurrent: sign * load.current, loadConductance: load.conductance };
 }
 
-/** The model with every on-conductance multiplied by k (k large: ideal switches). */
+/** The model with every on-conductance multiplied by k (k large: ideal switches, fixed at k gOn whatever their overdrive). */
 export function scaleConductance(model: CircuitModel, k: number): CircuitModel {
   return {
     ...model,
-    switches: model.switches.map((s) => ({ ...s, gOn: s.gOn * k })),
+    switches: model.switches.map((s) => ({ name: s.name, a: s.a, b: s.b, gOn: s.gOn * k, gOff: s.gOff })),
+    intervals: model.intervals.map((iv) => (iv.g ? { ...iv, g: iv.g.map((g) => g * k) } : iv)),
     channels: model.channels.map((c) => ({ ...c, g: c.g * k })),
     diodes: model.diodes.map((d) => ({ ...d, gOn: d.gOn * k })),
   };
@@ -74,16 +76,11 @@ export function scaleCapacitance(model: CircuitModel, k: number): CircuitModel {
   return { ...model, inverseCapacitance: model.inverseCapacitance.map((x) => x / k) };
 }
 
-export interface Solved {
-  readonly state: SteadyState;
-  readonly trace: PeriodTrace;
-  readonly solver: PeriodSolver;
-}
+export type { Solved };
 
+/** The steady state, each switch's on-resistance following its overdrive where the model gives it (overdrive.ts). */
 export function solve(model: CircuitModel): Solved {
-  const solver = new PeriodSolver(model);
-  const state = solver.steadyState();
-  return { state, trace: tracePeriod(solver, state.x0, state.segments), solver };
+  return solveDriven(model);
 }
 
 /**
@@ -136,7 +133,8 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
   const outputPower = t.loadEnergy / period;
   const generatorPower = generatorEnergy / period;
   const drawn = inputPower + generatorPower;
-  const up = startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
+  // Without a steady state there is nothing to start up to.
+  const up = loaded.state.method === 'none' ? { cycles: null } : startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
   return {
     method: loaded.state.method,
     output: t.outputMean,
@@ -145,7 +143,9 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
     loadCurrent,
     outputResistance: own.r,
     slowLimit: hasLoad ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
-    fastLimit: hasLoad ? impedance(scaleCapacitance(model, ASYMPTOTE), load, sign).r : null,
+    // The fast-switching limit keeps the switches' resistance of the real steady state (none
+    // without one): grown capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
+    fastLimit: hasLoad && loaded.state.method !== 'none' ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r : null,
     inputPower,
     outputPower,
     generatorPower,

@@ -14,6 +14,12 @@ export interface ModelSwitch {
   readonly gOn: number;
   /** Conductance while the gate is off (leakage), S. */
   readonly gOff: number;
+  /**
+   * On-conductance from the node voltages, S (0 without overdrive): the devices' triode
+   * conductance with an n device's source at `nSource` and a p device's at `pSource`. Absent
+   * for a switch whose conductance is fixed at gOn.
+   */
+  readonly onConductance?: (nSource: number, pSource: number) => number;
 }
 
 /**
@@ -52,6 +58,8 @@ export interface ModelInterval {
   readonly duration: number;
   /** Gate on (1) or off (0) per switch. */
   readonly on: Uint8Array;
+  /** On-conductance per switch in this interval, S, in place of gOn (0: no overdrive, only the leak conducts). */
+  readonly g?: Float64Array;
 }
 
 export interface CircuitModel {

@@ -199,7 +199,8 @@ export class PeriodSolver {
     for (let k = 0; k < this.substeps; k++) this.step(this.map(k, this.refine(k, x, segments[k]!)), x);
   }
 
-  steadyState(): SteadyState {
+  /** Where the direct solve fails, periods are run until they settle, at most `maxPeriods`. */
+  steadyState(options: { maxPeriods?: number } = {}): SteadyState {
     const off = (): Uint8Array[] => Array.from({ length: this.substeps }, () => new Uint8Array(this.pwl));
     const first = this.iterate(off(), new Float64Array(this.n));
     if (first.method === 'direct' || this.pwl === 0) return first;
@@ -211,7 +212,8 @@ export class PeriodSolver {
     for (let period = 0; period < WARM_UP_PERIODS; period++) this.runPeriod(x, segments);
     segments = this.consistentSegments(x, segments);
     const second = this.iterate(segments, x);
-    return second.method === 'direct' ? second : this.runToSteadyState(second.x0, second.segments as Uint8Array[]);
+    if (second.method === 'direct') return second;
+    return this.runToSteadyState(second.x0, second.segments as Uint8Array[], options.maxPeriods ?? FALLBACK_PERIODS);
   }
 
   /** Rounds of: solve the fixed point for the segments, re-choose them along it; 'none' if they do not agree. */
@@ -233,16 +235,16 @@ export class PeriodSolver {
   }
 
   /** The steady state found by running periods from x0 until a period changes no node by more than PERIOD_TOLERANCE. */
-  private runToSteadyState(start: Float64Array, segments: Uint8Array[]): SteadyState {
+  private runToSteadyState(start: Float64Array, segments: Uint8Array[], maxPeriods: number): SteadyState {
     const x = Float64Array.from(start);
     const before = new Float64Array(this.n);
-    for (let period = 1; period <= FALLBACK_PERIODS; period++) {
+    for (let period = 1; period <= maxPeriods; period++) {
       before.set(x);
       this.runPeriod(x, segments);
       let change = 0;
       for (let i = 0; i < this.n; i++) change = Math.max(change, Math.abs(x[i]! - before[i]!));
       if (change < PERIOD_TOLERANCE) return { x0: x, segments: this.consistentSegments(x, segments), method: 'periods', rounds: period };
     }
-    return { x0: x, segments, method: 'none', rounds: FALLBACK_PERIODS };
+    return { x0: x, segments, method: 'none', rounds: maxPeriods };
   }
 }

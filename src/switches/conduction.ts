@@ -184,20 +184,28 @@ function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: st
 }
 
 /**
- * On-resistance of a switch at signal vs with every device's gate fully on (the top of its swing
- * for n, the bottom for p), its devices in parallel, ohm; Infinity when none conducts.
+ * Triode on-resistance of one device of a switch with its source at vs and its gate fully on (the
+ * top of its swing for n, the bottom for p), ohm; Infinity when it has no overdrive there. `dvth`
+ * is a local mismatch shift of its threshold magnitude.
  */
-export function onResistanceAt(plan: SwitchPlan, devices: CornerDevices, vs: number): number {
+export function deviceOnResistance(plan: SwitchPlan, device: SwitchDevicePlan, devices: CornerDevices, vs: number, dvth = 0): number {
   const vdd = devices.vdd;
   const ls = plan.levelShifter;
-  const low = ls ? levelAt(ls.low, vdd) : 0;
-  const high = ls ? levelAt(ls.high, vdd) : vdd;
+  const n = device.kind === 'n';
+  const gate = n ? (ls ? levelAt(ls.high, vdd) : vdd) : (ls ? levelAt(ls.low, vdd) : 0);
+  const d = n ? devices.n : devices.p;
+  const vt = switchThreshold(plan, device, d, vs, vdd, dvth);
+  return triodeResistance(d.kprime, device.w, device.l, (n ? gate - vs : vs - gate) - vt - d.ronVthShift, d.theta);
+}
+
+/**
+ * On-resistance of a switch at signal vs with every device's gate fully on, its devices in
+ * parallel, ohm; Infinity when none conducts.
+ */
+export function onResistanceAt(plan: SwitchPlan, devices: CornerDevices, vs: number): number {
   let conductance = 0;
   for (const device of plan.devices) {
-    const n = device.kind === 'n';
-    const d = n ? devices.n : devices.p;
-    const vt = switchThreshold(plan, device, d, vs, vdd, 0);
-    const r = triodeResistance(d.kprime, device.w, device.l, (n ? high - vs : vs - low) - vt - d.ronVthShift, d.theta);
+    const r = deviceOnResistance(plan, device, devices, vs);
     if (Number.isFinite(r)) conductance += 1 / r;
   }
   return conductance > 0 ? 1 / conductance : Infinity;

@@ -37,7 +37,7 @@ describe('every shipped demo design', () => {
     ['sc-integrator', 0, null],
     ['too-tight', 1, 'break-before-make'],
     ['doubler-unboosted', 1, 'stress'],
-    ['doubler-unboosted-pump', 1, 'stress'],
+    ['doubler-unboosted-pump', 1, 'output-min'], // the output collapses: s_out has no overdrive
     ['doubler-diode-pump', 1, 'output-min'],
     ['dickson-pump', 0, null],
     ['negative-pump', 0, null],
