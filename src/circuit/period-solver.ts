@@ -20,6 +20,9 @@ const FALLBACK_PERIODS = 20_000;
 const PERIOD_TOLERANCE = 1e-7;
 /** Periods run from rest for the first guess of the segments. */
 const WARM_UP_PERIODS = 20;
+/** While periods are run, a direct solve is tried every RETRY_PERIODS periods, with at most RETRY_ROUNDS rounds. */
+const RETRY_PERIODS = 25;
+const RETRY_ROUNDS = 3;
 /** A steady state beyond this multiple of the largest rail (plus 1 V) is taken for an unphysical segment choice. */
 const WILD_VOLTAGE = 100;
 /** Most re-choices of the segments within one substep. */
@@ -217,11 +220,11 @@ export class PeriodSolver {
   }
 
   /** Rounds of: solve the fixed point for the segments, re-choose them along it; 'none' if they do not agree. */
-  private iterate(start: Uint8Array[], guess: Float64Array): SteadyState {
+  private iterate(start: Uint8Array[], guess: Float64Array, rounds = SEGMENT_ROUNDS): SteadyState {
     let segments = start;
     let x0 = guess;
     const bound = WILD_VOLTAGE * (1 + this.model.rails.reduce((m, v) => Math.max(m, Math.abs(v)), 0));
-    for (let round = 1; round <= SEGMENT_ROUNDS; round++) {
+    for (let round = 1; round <= rounds; round++) {
       const { P, p } = this.periodMap(segments);
       const x = this.fixedPoint(P, p);
       if (!x.every((v) => Math.abs(v) < bound)) break;
@@ -231,7 +234,7 @@ export class PeriodSolver {
       if (chosen.every((s, k) => s.every((v, i) => v === segments[k]![i]))) return { x0, segments, method: 'direct', rounds: round };
       segments = chosen;
     }
-    return { x0, segments, method: 'none', rounds: SEGMENT_ROUNDS };
+    return { x0, segments, method: 'none', rounds };
   }
 
   /** The steady state found by running periods from x0 until a period changes no node by more than PERIOD_TOLERANCE. */
@@ -244,6 +247,12 @@ export class PeriodSolver {
       let change = 0;
       for (let i = 0; i < this.n; i++) change = Math.max(change, Math.abs(x[i]! - before[i]!));
       if (change < PERIOD_TOLERANCE) return { x0: x, segments: this.consistentSegments(x, segments), method: 'periods', rounds: period };
+      // Once the parts have stopped changing segment, the fixed point for their segments is the steady state:
+      // a slow pump (hundreds of periods to settle) is solved directly instead of run out.
+      if (period % RETRY_PERIODS === 0 && this.pwl > 0) {
+        const direct = this.iterate(this.consistentSegments(x, segments), x, RETRY_ROUNDS);
+        if (direct.method === 'direct') return direct;
+      }
     }
     return { x0: x, segments, method: 'none', rounds: maxPeriods };
   }
