@@ -63,7 +63,7 @@ module.exports = {
     },
     {
       name: 'no-circular',
-      comment: 'modules do not import each other\'s code in a cycle (a cycle of type imports only is fine)',
+      comment: "modules do not import each other's code in a cycle (a cycle of type imports only is fine)",
       severity: 'error',
       from: {},
       to: { circular: true, viaOnly: { dependencyTypesNot: ['type-only'] } },

@@ -8,14 +8,32 @@
  * match on it, not on the words). The table in DEVELOPERS.md ("Errors") says what each means.
  */
 export type IssueCode =
-  | 'field.unknown' | 'field.required' | 'field.not-allowed'
-  | 'value.wrong-type' | 'value.not-allowed' | 'value.out-of-range' | 'value.too-many' | 'value.not-finite'
-  | 'value.duplicate' | 'value.invalid'
+  | 'field.unknown'
+  | 'field.required'
+  | 'field.not-allowed'
+  | 'value.wrong-type'
+  | 'value.not-allowed'
+  | 'value.out-of-range'
+  | 'value.too-many'
+  | 'value.not-finite'
+  | 'value.duplicate'
+  | 'value.invalid'
   | 'reference.unknown'
-  | 'file.not-found' | 'file.unreadable' | 'file.too-large' | 'file.syntax' | 'file.wrong-kind' | 'file.no-stdin' | 'file.data-limit'
-  | 'netlist.invalid' | 'tables.invalid'
-  | 'physics.device-off' | 'physics.limit' | 'physics.no-steady-state'
-  | 'option.invalid' | 'output.refused' | 'tool.failed';
+  | 'file.not-found'
+  | 'file.unreadable'
+  | 'file.too-large'
+  | 'file.syntax'
+  | 'file.wrong-kind'
+  | 'file.no-stdin'
+  | 'file.data-limit'
+  | 'netlist.invalid'
+  | 'tables.invalid'
+  | 'physics.device-off'
+  | 'physics.limit'
+  | 'physics.no-steady-state'
+  | 'option.invalid'
+  | 'output.refused'
+  | 'tool.failed';
 
 /** One problem found in the user's input. */
 export interface InputIssue {

@@ -38,8 +38,12 @@ function capturingIo(extra: Partial<Io> = {}): { io: Io; captured: () => { stdou
   let stdout = '';
   let stderr = '';
   const io: Io = {
-    stdout: (t) => { stdout += t; },
-    stderr: (t) => { stderr += t; },
+    stdout: (t) => {
+      stdout += t;
+    },
+    stderr: (t) => {
+      stderr += t;
+    },
     writeFile: writeFileAtomic,
     openFileStream,
     exists: existsSync,
@@ -124,7 +128,5 @@ export function withoutRunRecord(text: string): string {
     delete parsed.provenance;
     return JSON.stringify(parsed, null, 2);
   }
-  return text
-    .replace(/\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?Z/g, 'DATE')
-    .replace(/command: phasegap[^;\n]*/g, 'command: COMMAND');
+  return text.replace(/\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?Z/g, 'DATE').replace(/command: phasegap[^;\n]*/g, 'command: COMMAND');
 }

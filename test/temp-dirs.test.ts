@@ -13,7 +13,7 @@ describe('tempDir', () => {
     expect(existsSync(join(previous, 'x.txt'))).toBe(true);
   });
 
-  it('has removed the previous test\'s folder, with its files, once that test ended', () => {
+  it("has removed the previous test's folder, with its files, once that test ended", () => {
     expect(previous).not.toBe('');
     expect(existsSync(previous)).toBe(false);
   });

@@ -44,7 +44,12 @@ describe('missingToolError', () => {
 
 describe('requireTool calls in the tests', () => {
   const calls = testSources().flatMap((file) =>
-    [...readFileSync(file, 'utf8').matchAll(/requireTool\('([^']+)', '([^']+)'\)/g)].map((m) => ({ file: relative(ROOT, file), command: m[1]!, pkg: m[2]! })));
+    [...readFileSync(file, 'utf8').matchAll(/requireTool\('([^']+)', '([^']+)'\)/g)].map((m) => ({
+      file: relative(ROOT, file),
+      command: m[1]!,
+      pkg: m[2]!,
+    })),
+  );
 
   it('name only packages that .ci/run installs', () => {
     expect(calls.length).toBeGreaterThanOrEqual(15);
@@ -56,7 +61,11 @@ describe('requireTool calls in the tests', () => {
   it('are made by exactly the integration files, each for the programs the project table lists', () => {
     const byFile = new Map<string, Set<string>>();
     for (const c of calls) byFile.set(c.file, (byFile.get(c.file) ?? new Set()).add(c.command));
-    const table = Object.fromEntries(Object.entries(INTEGRATION_FILES).filter(([, tools]) => tools.length > 0).map(([file, tools]) => [file, [...tools].sort()]));
+    const table = Object.fromEntries(
+      Object.entries(INTEGRATION_FILES)
+        .filter(([, tools]) => tools.length > 0)
+        .map(([file, tools]) => [file, [...tools].sort()]),
+    );
     expect(Object.fromEntries([...byFile].map(([file, tools]) => [file, [...tools].sort()]))).toEqual(table);
     for (const c of calls) expect(c.pkg).toBe(TOOLS[c.command as keyof typeof TOOLS]);
   });
@@ -79,9 +88,11 @@ describe('integrationFiles', () => {
 describe('missingToolsReport', () => {
   it('names each missing program, what happens to their tests and the packages to install', () => {
     expect(missingToolsReport(['xmllint', 'rsvg-convert'], false)).toBe(
-      'integration: missing xmllint, rsvg-convert: 5 test files that need them are skipped; install with `sudo apt-get install libxml2-utils librsvg2-bin` (or `sudo bash .ci/run`)');
+      'integration: missing xmllint, rsvg-convert: 5 test files that need them are skipped; install with `sudo apt-get install libxml2-utils librsvg2-bin` (or `sudo bash .ci/run`)',
+    );
     expect(missingToolsReport(['chromium'], true)).toBe(
-      'integration: missing chromium: CI is set, so the run fails; install with `sudo apt-get install chromium` (or `sudo bash .ci/run`)');
+      'integration: missing chromium: CI is set, so the run fails; install with `sudo apt-get install chromium` (or `sudo bash .ci/run`)',
+    );
     expect(missingToolsReport([], true)).toBe('');
   });
 });
@@ -99,13 +110,17 @@ describe('underCi', () => {
 describe('the README quick start', () => {
   const readme = readFileSync(join(ROOT, 'README.md'), 'utf8');
   const section = readme.slice(readme.indexOf('## Quick start'), readme.indexOf('## A tour of the commands'));
-  const commands = /```sh\n([\s\S]*?)```/.exec(section)![1]!.trim().split('\n').map((l) => l.replace(/\s+#.*$/, ''));
+  const commands = /```sh\n([\s\S]*?)```/
+    .exec(section)![1]!
+    .trim()
+    .split('\n')
+    .map((l) => l.replace(/\s+#.*$/, ''));
 
   it('is two commands: the demo through npx, then the set-up and test script as root', () => {
     expect(commands).toEqual(['npm ci && npx phasegap check fixtures/designs/doubler.yaml', 'sudo bash .ci/run']);
   });
 
-  it('runs this folder\'s own bin with npx phasegap (npm 10, as shipped with Node 20)', () => {
+  it("runs this folder's own bin with npx phasegap (npm 10, as shipped with Node 20)", () => {
     const version = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
     const out = execFileSync('npx', ['--offline', 'phasegap', '--version'], { cwd: ROOT, encoding: 'utf8', timeout: 600_000 });
     expect(out.trim()).toBe(version);

@@ -11,7 +11,13 @@ import { addToHistogram, emptyHistogram, hasEdges, setEdges, type StreamingHisto
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../variation/mismatch.js';
 
 /** Margins of `check` (s or V) at corner `cornerIndex` over dies 0..samples-1; an unmeasured die adds nothing. */
-export function checkMarginHistogram(resolved: ResolvedDesign, seed: number, samples: number, cornerIndex: number, check: string): StreamingHistogram {
+export function checkMarginHistogram(
+  resolved: ResolvedDesign,
+  seed: number,
+  samples: number,
+  cornerIndex: number,
+  check: string,
+): StreamingHistogram {
   const { corner } = resolved.corners[cornerIndex]!;
   const devices = devicesAtCorner(resolved.card, corner);
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);

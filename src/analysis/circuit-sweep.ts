@@ -55,8 +55,12 @@ export function typicalCornerIndex(resolved: ResolvedDesign): number {
   let bestScore = Infinity;
   corners.forEach((c, i) => {
     if (c.process !== process) return;
-    const score = Math.abs(c.vdd - resolved.card.vddNominal) * 1e6 + Math.abs(c.temperature - 27) * 1e2 + Math.abs(c.duty - resolved.design.clock.duty);
-    if (score < bestScore) { bestScore = score; best = i; }
+    const score =
+      Math.abs(c.vdd - resolved.card.vddNominal) * 1e6 + Math.abs(c.temperature - 27) * 1e2 + Math.abs(c.duty - resolved.design.clock.duty);
+    if (score < bestScore) {
+      bestScore = score;
+      best = i;
+    }
   });
   return best;
 }
@@ -65,11 +69,16 @@ export function typicalCornerIndex(resolved: ResolvedDesign): number {
 function relativeMargin(resolved: ResolvedDesign, r: CornerResult, kind: string, margin: number): number {
   const req = resolved.design.circuit!.requirements;
   const vdd = r.corner.vdd;
-  const size = kind === 'output-min' && req.output?.min ? Math.abs(levelAt(req.output.min, vdd))
-    : kind === 'output-max' && req.output?.max ? Math.abs(levelAt(req.output.max, vdd))
-      : kind === 'ripple-max' ? req.ripple?.max ?? 1
-        : kind === 'efficiency-min' ? req.efficiency?.min ?? 1
-          : req.lostCharge?.max ?? 1;
+  const size =
+    kind === 'output-min' && req.output?.min
+      ? Math.abs(levelAt(req.output.min, vdd))
+      : kind === 'output-max' && req.output?.max
+        ? Math.abs(levelAt(req.output.max, vdd))
+        : kind === 'ripple-max'
+          ? (req.ripple?.max ?? 1)
+          : kind === 'efficiency-min'
+            ? (req.efficiency?.min ?? 1)
+            : (req.lostCharge?.max ?? 1);
   return size > 0 ? margin / size : margin;
 }
 
@@ -88,7 +97,10 @@ export function circuitWorstIndex(resolved: ResolvedDesign, results: readonly Co
       score = Math.min(score, c.margin === null ? -Infinity : relativeMargin(resolved, r, c.kind, c.margin));
     }
     if (score === Infinity) score = r.circuit ? 1e9 + Math.abs(r.circuit.output) : Infinity;
-    if (score < bestScore) { bestScore = score; best = i; }
+    if (score < bestScore) {
+      bestScore = score;
+      best = i;
+    }
   });
   return best;
 }
@@ -101,19 +113,33 @@ function point(result: CornerResult, frequency: number): SweepPoint {
     const some = checks.filter((k) => kinds.includes(k.kind));
     return some.length === 0 ? null : some.every((k) => k.pass);
   };
-  return { frequency, output: c.output, efficiency: c.efficiency, pass: checks.every((k) => k.pass),
-    outputPass: holds(['output-min', 'output-max']), efficiencyPass: holds(['efficiency-min']) };
+  return {
+    frequency,
+    output: c.output,
+    efficiency: c.efficiency,
+    pass: checks.every((k) => k.pass),
+    outputPass: holds(['output-min', 'output-max']),
+    efficiencyPass: holds(['efficiency-min']),
+  };
 }
 
 /** The sweep at the typical and the worst corner; null without a circuit section. */
-export function circuitSweep(resolved: ResolvedDesign, results: readonly CornerResult[], factors: readonly number[] = SWEEP_FACTORS): CircuitSweep | null {
+export function circuitSweep(
+  resolved: ResolvedDesign,
+  results: readonly CornerResult[],
+  factors: readonly number[] = SWEEP_FACTORS,
+): CircuitSweep | null {
   const spec = resolved.design.circuit;
   if (!spec) return null;
   const typical = typicalCornerIndex(resolved);
   const worst = circuitWorstIndex(resolved, results);
-  const picked: Array<{ index: number; role: SweepSeries['role'] }> = worst < 0 || worst === typical
-    ? [{ index: typical, role: worst === typical ? 'typical, worst' : 'typical' }]
-    : [{ index: typical, role: 'typical' }, { index: worst, role: 'worst' }];
+  const picked: Array<{ index: number; role: SweepSeries['role'] }> =
+    worst < 0 || worst === typical
+      ? [{ index: typical, role: worst === typical ? 'typical, worst' : 'typical' }]
+      : [
+          { index: typical, role: 'typical' },
+          { index: worst, role: 'worst' },
+        ];
   const f0 = resolved.design.clock.frequency;
   const points = picked.map(() => [] as SweepPoint[]);
   for (const factor of factors) {
@@ -130,7 +156,9 @@ export function circuitSweep(resolved: ResolvedDesign, results: readonly CornerR
     series: picked.map((p, s) => {
       const vdd = resolved.corners[p.index]!.corner.vdd;
       return {
-        corner: resolved.corners[p.index]!.corner.name, role: p.role, points: points[s]!,
+        corner: resolved.corners[p.index]!.corner.name,
+        role: p.role,
+        points: points[s]!,
         outputMin: req.output?.min ? levelAt(req.output.min, vdd) : null,
         outputMax: req.output?.max ? levelAt(req.output.max, vdd) : null,
       };

@@ -26,7 +26,12 @@ export function selectCorner(results: readonly CornerResult[], value: string, al
   const index = results.findIndex((r) => namesCorner(value, r.corner));
   if (index >= 0) return { kind: 'corner', index };
   const names = results.map((r) => r.corner.name).join(', ');
-  throw inputError('reference.unknown', flag, value, `is not a corner of this design; allowed: worst, ${allowAll ? 'all, ' : ''}or one of ${names}`);
+  throw inputError(
+    'reference.unknown',
+    flag,
+    value,
+    `is not a corner of this design; allowed: worst, ${allowAll ? 'all, ' : ''}or one of ${names}`,
+  );
 }
 
 /** The name of the one corner `--corner` asks for: `worst` is the corner of the limiting check. */
@@ -62,11 +67,21 @@ export function chooseCorners(resolved: ResolvedDesign, spec: string, flag = '--
   const all = resolved.corners.map((c) => c.corner);
   if (spec === 'all') return all;
   if (spec === 'worst') return worstCorners(resolved);
-  const names = spec.split(',').map((s) => s.trim()).filter((s) => s !== '');
-  if (names.length === 0) throw inputError('option.invalid', flag, spec, 'names no corner; give worst, all, or corner names separated by commas');
+  const names = spec
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
+  if (names.length === 0)
+    throw inputError('option.invalid', flag, spec, 'names no corner; give worst, all, or corner names separated by commas');
   return names.map((name) => {
     const corner = all.find((c) => namesCorner(name, c));
-    if (!corner) throw inputError('reference.unknown', flag, name, `is not a corner of the design; its corners are ${all.map((c) => c.name).join(', ')}`);
+    if (!corner)
+      throw inputError(
+        'reference.unknown',
+        flag,
+        name,
+        `is not a corner of the design; its corners are ${all.map((c) => c.name).join(', ')}`,
+      );
     return corner;
   });
 }

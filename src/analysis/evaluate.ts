@@ -64,7 +64,10 @@ export class CornerEvaluator {
 
   private readonly borrow: boolean;
 
-  constructor(private readonly resolved: ResolvedDesign, reuse: EvaluatorReuse = { borrowScratch: false, warmStart: false }) {
+  constructor(
+    private readonly resolved: ResolvedDesign,
+    reuse: EvaluatorReuse = { borrowScratch: false, warmStart: false },
+  ) {
     const borrow = reuse.borrowScratch;
     const warm = reuse.warmStart;
     this.borrow = borrow;
@@ -75,8 +78,12 @@ export class CornerEvaluator {
     this.runOptions = { borrow, warm, replay: warm };
     this.switchByName = (name: string) => this.current[resolved.switchIndex.get(name)!]!;
     this.switchSetup = {
-      constraints: resolved.design.constraints, defaultGuard: resolved.design.requirements.guard, period: this.period,
-      windowDerating: clock.dutyTolerance * this.period, names: resolved.switchCheckNames, subjects: resolved.switchCheckLabels.subjects,
+      constraints: resolved.design.constraints,
+      defaultGuard: resolved.design.requirements.guard,
+      period: this.period,
+      windowDerating: clock.dutyTolerance * this.period,
+      names: resolved.switchCheckNames,
+      subjects: resolved.switchCheckLabels.subjects,
     };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
@@ -119,7 +126,8 @@ export class CornerEvaluator {
     if (measurement.ok) {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
-      for (let k = 0; k < plans.length; k++) switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
+      for (let k = 0; k < plans.length; k++)
+        switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {
@@ -130,8 +138,14 @@ export class CornerEvaluator {
     // The switch bias checks need no timing: they hold (or not) whether or not the run settled.
     this.bias.run(devices, mismatch?.switches, checks);
     let pass = true;
-    for (const c of checks) if (!c.pass) { pass = false; break; }
-    return circuit ? { corner, simulation, measurement, switches, checks, pass, circuit } : { corner, simulation, measurement, switches, checks, pass };
+    for (const c of checks)
+      if (!c.pass) {
+        pass = false;
+        break;
+      }
+    return circuit
+      ? { corner, simulation, measurement, switches, checks, pass, circuit }
+      : { corner, simulation, measurement, switches, checks, pass };
   }
 }
 
@@ -161,7 +175,8 @@ export interface Limiting {
 export function limitingCheck(results: readonly CornerResult[], start: Limiting | null = null): Limiting | null {
   let best: Limiting | null = start;
   let bestCheck: Pick<Check, 'kind' | 'margin' | 'pass'> | null = start
-    ? { kind: start.kind as Check['kind'], margin: start.margin, pass: start.margin !== null && start.margin >= 0 } : null;
+    ? { kind: start.kind as Check['kind'], margin: start.margin, pass: start.margin !== null && start.margin >= 0 }
+    : null;
   for (const r of results) {
     for (const c of r.checks) {
       if (bestCheck === null || compareChecks(c, bestCheck) < 0) {

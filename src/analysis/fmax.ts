@@ -62,8 +62,14 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
   const first = trial(f0);
   if (!first.pass && first.limiting && VOLTAGE_KINDS.has(first.limiting.kind as CheckKind)) {
     return {
-      fmax: null, resolution, designFrequency: f0, limiting: first.limiting, atFmax: null, probeFrequency: f0,
-      note: `a switch fails its ${first.limiting.kind} check, which no clock frequency changes`, evaluations,
+      fmax: null,
+      resolution,
+      designFrequency: f0,
+      limiting: first.limiting,
+      atFmax: null,
+      probeFrequency: f0,
+      note: `a switch fails its ${first.limiting.kind} check, which no clock frequency changes`,
+      evaluations,
     };
   }
   let lo: number;
@@ -76,10 +82,23 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     hi = f0 * 2;
     for (;;) {
       if (hi > ceiling) {
-        return { fmax: lo, resolution, designFrequency: f0, limiting: null, atFmax: passing, probeFrequency: null, note: `still passing at the search ceiling ${ceiling} Hz`, evaluations };
+        return {
+          fmax: lo,
+          resolution,
+          designFrequency: f0,
+          limiting: null,
+          atFmax: passing,
+          probeFrequency: null,
+          note: `still passing at the search ceiling ${ceiling} Hz`,
+          evaluations,
+        };
       }
       const t = trial(hi);
-      if (!t.pass) { failing = t.limiting; probe = hi; break; }
+      if (!t.pass) {
+        failing = t.limiting;
+        probe = hi;
+        break;
+      }
       passing = t.limiting;
       lo = hi;
       hi *= 2;
@@ -90,12 +109,21 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     for (;;) {
       if (lo < floor) {
         return {
-          fmax: null, resolution, designFrequency: f0, limiting: first.limiting, atFmax: null, probeFrequency: f0,
-          note: `no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`, evaluations,
+          fmax: null,
+          resolution,
+          designFrequency: f0,
+          limiting: first.limiting,
+          atFmax: null,
+          probeFrequency: f0,
+          note: `no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`,
+          evaluations,
         };
       }
       const t = trial(lo);
-      if (t.pass) { passing = t.limiting; break; }
+      if (t.pass) {
+        passing = t.limiting;
+        break;
+      }
       hi = lo;
       failing = t.limiting;
       probe = lo;
@@ -105,10 +133,25 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
   while ((hi - lo) / lo > resolution) {
     const mid = Math.sqrt(lo * hi);
     const t = trial(mid);
-    if (t.pass) { lo = mid; passing = t.limiting; }
-    else { hi = mid; failing = t.limiting; probe = mid; }
+    if (t.pass) {
+      lo = mid;
+      passing = t.limiting;
+    } else {
+      hi = mid;
+      failing = t.limiting;
+      probe = mid;
+    }
   }
-  return { fmax: lo, resolution, designFrequency: f0, limiting: failing, atFmax: passing, probeFrequency: probe, note: circuitNote(resolved, failing), evaluations };
+  return {
+    fmax: lo,
+    resolution,
+    designFrequency: f0,
+    limiting: failing,
+    atFmax: passing,
+    probeFrequency: probe,
+    note: circuitNote(resolved, failing),
+    evaluations,
+  };
 }
 
 /** Words naming the circuit requirement that sets fmax, when one does. */

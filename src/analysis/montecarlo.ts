@@ -82,7 +82,16 @@ class CornerAccumulator {
       quantities[this.names[i]!] = s;
       kinds[this.names[i]!] = this.kinds[i]!;
     });
-    return { passes: this.passes, unsettled: this.unsettled, quantities, kinds, failures: Object.fromEntries(this.failures), leastMargin, dead0, dead1 };
+    return {
+      passes: this.passes,
+      unsettled: this.unsettled,
+      quantities,
+      kinds,
+      failures: Object.fromEntries(this.failures),
+      leastMargin,
+      dead0,
+      dead1,
+    };
   }
 }
 
@@ -113,8 +122,14 @@ interface CornerOutputs {
  * The hot loop: every die at one corner. A function of its own, so the optimiser sees only this
  * loop and its callees, and the chunk's one-off setup around it cannot throw its code away.
  */
-function evaluateDies(evaluator: CornerEvaluator, corner: Corner, devices: CornerDevices, dies: readonly SampleMismatch[],
-  names: ReturnType<typeof measureNames>, out: CornerOutputs): void {
+function evaluateDies(
+  evaluator: CornerEvaluator,
+  corner: Corner,
+  devices: CornerDevices,
+  dies: readonly SampleMismatch[],
+  names: ReturnType<typeof measureNames>,
+  out: CornerOutputs,
+): void {
   const a = out.acc;
   for (let i = 0; i < dies.length; i++) {
     const r = evaluator.evaluate(corner, dies[i], devices);
@@ -230,9 +245,19 @@ export class McMerger {
   private next = 0;
   private everywhere = 0;
 
-  constructor(private readonly resolved: ResolvedDesign, private readonly seed: number, private readonly samples: number) {
+  constructor(
+    private readonly resolved: ResolvedDesign,
+    private readonly seed: number,
+    private readonly samples: number,
+  ) {
     this.totals = resolved.corners.map(() => ({
-      quantities: {}, kinds: {}, failures: {}, passes: 0, unsettled: 0, worstIndex: -1, worstMargin: Infinity,
+      quantities: {},
+      kinds: {},
+      failures: {},
+      passes: 0,
+      unsettled: 0,
+      worstIndex: -1,
+      worstMargin: Infinity,
       dead: [emptyHistogram(), emptyHistogram()],
     }));
   }
@@ -281,19 +306,46 @@ export class McMerger {
       const reports = Object.entries(quantities).map(([q, s]): QuantityReport => {
         const summary = summarize(s);
         if (kinds[q] === 'measure') return { name: q, kind: 'measure', ...summary };
-        return { name: q, kind: kinds[q]!, ...summary, failures: failures[q] ?? 0, sigmaMargin: summary.sigma > 0 ? summary.mean / summary.sigma : null };
+        return {
+          name: q,
+          kind: kinds[q]!,
+          ...summary,
+          failures: failures[q] ?? 0,
+          sigmaMargin: summary.sigma > 0 ? summary.mean / summary.sigma : null,
+        };
       });
       for (const [q, n] of Object.entries(failures)) {
-        if (!quantities[q]) reports.push({ name: q, kind: 'steady-state', count: 0, mean: NaN, sigma: 0, min: NaN, max: NaN, failures: n, sigmaMargin: null });
+        if (!quantities[q])
+          reports.push({
+            name: q,
+            kind: 'steady-state',
+            count: 0,
+            mean: NaN,
+            sigma: 0,
+            min: NaN,
+            max: NaN,
+            failures: n,
+            sigmaMargin: null,
+          });
       }
       return {
-        name: corner.name, samples, passes, unsettled, yield: passes / samples, yieldInterval: wilsonInterval(passes, samples), quantities: reports,
+        name: corner.name,
+        samples,
+        passes,
+        unsettled,
+        yield: passes / samples,
+        yieldInterval: wilsonInterval(passes, samples),
+        quantities: reports,
         worstSample: { index: worstIndex, leastMargin: Number.isFinite(worstMargin) ? worstMargin : null },
       };
     });
     return {
-      samples, seed: this.seed, corners, yieldEverywhere: this.everywhere / samples,
-      yieldEverywhereInterval: wilsonInterval(this.everywhere, samples), deadTimes: this.totals.map((t) => t.dead),
+      samples,
+      seed: this.seed,
+      corners,
+      yieldEverywhere: this.everywhere / samples,
+      yieldEverywhereInterval: wilsonInterval(this.everywhere, samples),
+      deadTimes: this.totals.map((t) => t.dead),
     };
   }
 }

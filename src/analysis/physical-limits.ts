@@ -30,16 +30,28 @@ export function checkPhysicalLimits(design: Design, card: ProcessCard, corners: 
   const half = shortestHalfPeriod(design, corners);
   const transition = design.clock.transition;
   if (half.time <= 0) {
-    issues.push({ code: 'physics.limit', path: 'clock.dutyTolerance', value: showValue(design.clock.dutyTolerance),
-      allowed: `leaves the clock no high or low time at duty ${showValue(half.duty)}; the duty plus or minus the tolerance must stay inside (0, 1)` });
+    issues.push({
+      code: 'physics.limit',
+      path: 'clock.dutyTolerance',
+      value: showValue(design.clock.dutyTolerance),
+      allowed: `leaves the clock no high or low time at duty ${showValue(half.duty)}; the duty plus or minus the tolerance must stay inside (0, 1)`,
+    });
   } else if (!(transition < half.time)) {
-    issues.push({ code: 'physics.limit', path: 'clock.transition', value: formatPs(transition),
-      allowed: `must be shorter than the clock's shortest half period, ${formatPs(half.time)} (duty ${half.duty.toFixed(3)} within tolerance at ${formatEngineering(design.clock.frequency, 'Hz')})` });
+    issues.push({
+      code: 'physics.limit',
+      path: 'clock.transition',
+      value: formatPs(transition),
+      allowed: `must be shorter than the clock's shortest half period, ${formatPs(half.time)} (duty ${half.duty.toFixed(3)} within tolerance at ${formatEngineering(design.clock.frequency, 'Hz')})`,
+    });
   }
   design.switches.forEach((s, i) => {
     if (s.l < card.lmin) {
-      issues.push({ code: 'physics.limit', path: `switches[${i}].l`, value: `${Number(s.l.toPrecision(4))} m`,
-        allowed: `is shorter than the process card's minimum length lmin = ${formatEngineering(card.lmin, 'm')} (${card.name})` });
+      issues.push({
+        code: 'physics.limit',
+        path: `switches[${i}].l`,
+        value: `${Number(s.l.toPrecision(4))} m`,
+        allowed: `is shorter than the process card's minimum length lmin = ${formatEngineering(card.lmin, 'm')} (${card.name})`,
+      });
     }
   });
   if (issues.length > 0) throw new InputError(issues);

@@ -49,17 +49,36 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const corners = expandCorners(design.corners, card, design.clock.duty);
   checkPhysicalLimits(design, card, corners);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);
-  checkConstraintReferences(design.constraints, expansion.plans.map((p) => p.name));
-  const switchLabels = switchCheckLabels(design.constraints, design.requirements.guard, design.clock.dutyTolerance * (1 / design.clock.frequency));
-  return { design, card, netlist, loads, corners, switches: expansion.plans, model, labels: requirementLabels(design.requirements, netlist.source.phases,
-      [...netlist.source.phases, ...Object.values(netlist.source.early)]),
+  checkConstraintReferences(
+    design.constraints,
+    expansion.plans.map((p) => p.name),
+  );
+  const switchLabels = switchCheckLabels(
+    design.constraints,
+    design.requirements.guard,
+    design.clock.dutyTolerance * (1 / design.clock.frequency),
+  );
+  return {
+    design,
+    card,
+    netlist,
+    loads,
+    corners,
+    switches: expansion.plans,
+    model,
+    labels: requirementLabels(design.requirements, netlist.source.phases, [
+      ...netlist.source.phases,
+      ...Object.values(netlist.source.early),
+    ]),
     switchCheckNames: switchLabels.names,
     switchCheckLabels: switchLabels,
     switchIndex: new Map(expansion.plans.map((p, i) => [p.name, i])),
     biasNames: biasCheckNames(expansion.plans, card.n.ratings !== undefined && card.p.ratings !== undefined),
     bias: {
-      offDecades: design.requirements.offDecades ?? DEFAULT_OFF_DECADES, offMargin: design.requirements.offMargin,
+      offDecades: design.requirements.offDecades ?? DEFAULT_OFF_DECADES,
+      offMargin: design.requirements.offMargin,
       stateLabels: [`phase ${base.phases[0]}`, `phase ${base.phases[1]}`, 'the dead time'],
     },
-    warnings: expansion.warnings };
+    warnings: expansion.warnings,
+  };
 }

@@ -37,7 +37,8 @@ export function parseRangeNumber(text: string): number | null {
 /** Parses one `--vary AXIS=VALUES` argument; a range longer than `maxPoints` is refused before it is expanded. */
 export function parseAxis(spec: string, maxPoints = Infinity): SweepAxis {
   const eq = spec.indexOf('=');
-  if (eq <= 0) throw inputError('option.invalid', '--vary', spec, 'must read AXIS=VALUES, with VALUES a list (1.6,1.7,1.8) or a range START:STOP:N');
+  if (eq <= 0)
+    throw inputError('option.invalid', '--vary', spec, 'must read AXIS=VALUES, with VALUES a list (1.6,1.7,1.8) or a range START:STOP:N');
   const path = spec.slice(0, eq).trim();
   const text = spec.slice(eq + 1).trim();
   const range = /^([^:,]+):([^:,]+):([^:,]+)$/.exec(text);
@@ -45,16 +46,37 @@ export function parseAxis(spec: string, maxPoints = Infinity): SweepAxis {
     const start = parseRangeNumber(range[1]!);
     const stop = parseRangeNumber(range[2]!);
     const n = Number(range[3]);
-    if (start === null || stop === null) throw inputError('option.invalid', `--vary ${path}`, text, 'has a range end that is not a number (an SI prefix and unit may follow, e.g. 1.6V:2.0V:5)');
-    if (!Number.isInteger(n) || n < 1) throw inputError('option.invalid', `--vary ${path}`, text, `asks for ${range[3]} points; N must be a whole number of at least 1 (the range is empty otherwise)`);
-    if (n > maxPoints) throw inputError('option.invalid', `--vary ${path}`, text, `asks for ${range[3]} points; a sweep has at most ${maxPoints} points (N from 1 to ${maxPoints})`);
-    if (n === 1 && start !== stop) throw inputError('option.invalid', `--vary ${path}`, text, 'has one point but two different ends; use N >= 2 or equal ends');
+    if (start === null || stop === null)
+      throw inputError(
+        'option.invalid',
+        `--vary ${path}`,
+        text,
+        'has a range end that is not a number (an SI prefix and unit may follow, e.g. 1.6V:2.0V:5)',
+      );
+    if (!Number.isInteger(n) || n < 1)
+      throw inputError(
+        'option.invalid',
+        `--vary ${path}`,
+        text,
+        `asks for ${range[3]} points; N must be a whole number of at least 1 (the range is empty otherwise)`,
+      );
+    if (n > maxPoints)
+      throw inputError(
+        'option.invalid',
+        `--vary ${path}`,
+        text,
+        `asks for ${range[3]} points; a sweep has at most ${maxPoints} points (N from 1 to ${maxPoints})`,
+      );
+    if (n === 1 && start !== stop)
+      throw inputError('option.invalid', `--vary ${path}`, text, 'has one point but two different ends; use N >= 2 or equal ends');
     const values = Array.from({ length: n }, (_, i) => (n === 1 ? start : start + ((stop - start) * i) / (n - 1)));
     return { path, values: values.map((v) => Number(v.toPrecision(12))) };
   }
   const values = text.split(',').map((v) => v.trim());
-  if (values.length > maxPoints) throw inputError('option.invalid', `--vary ${path}`, `${values.length} values`, `is too long; a sweep has at most ${maxPoints} points`);
-  if (text === '' || values.some((v) => v === '')) throw inputError('option.invalid', `--vary ${path}`, text, 'is an empty list or has an empty item; give values separated by commas');
+  if (values.length > maxPoints)
+    throw inputError('option.invalid', `--vary ${path}`, `${values.length} values`, `is too long; a sweep has at most ${maxPoints} points`);
+  if (text === '' || values.some((v) => v === ''))
+    throw inputError('option.invalid', `--vary ${path}`, text, 'is an empty list or has an empty item; give values separated by commas');
   return { path, values };
 }
 
@@ -66,7 +88,12 @@ export function gridSize(axes: readonly SweepAxis[]): number {
 export function checkGridSize(axes: readonly SweepAxis[], maxPoints: number): number {
   const size = gridSize(axes);
   if (size > maxPoints) {
-    throw inputError('option.invalid', '--vary', axes.map((a) => `${a.path} (${a.values.length})`).join(' x '), `makes ${size} points; a sweep has at most ${maxPoints} points`);
+    throw inputError(
+      'option.invalid',
+      '--vary',
+      axes.map((a) => `${a.path} (${a.values.length})`).join(' x '),
+      `makes ${size} points; a sweep has at most ${maxPoints} points`,
+    );
   }
   return size;
 }
@@ -133,10 +160,14 @@ export function summarizePoint(index: number, point: readonly (string | number)[
   }
   const lim = limitingCheck(results);
   return {
-    index, point, corners: results.length,
+    index,
+    point,
+    corners: results.length,
     verdict: results.every((r) => r.pass) ? 'pass' : 'fail',
     limiting: lim ? { corner: lim.corner, check: lim.check, kind: lim.kind, margin: lim.margin } : null,
-    deadTimes, widths: [...widths.entries()].map(([phase, min]) => ({ phase, min })), checks,
+    deadTimes,
+    widths: [...widths.entries()].map(([phase, min]) => ({ phase, min })),
+    checks,
   };
 }
 
@@ -180,15 +211,25 @@ export function sweepColumns(resolved: ResolvedDesign): SweepColumns {
   const fractionChecks = defined([names.efficiency]);
   const chargeChecks = defined([names.lostCharge]);
   checks.push(...defined([names.outputMin, names.outputMax, names.ripple, names.efficiency, names.lostCharge]), ...voltChecks);
-  return { deadTimes: [`${a}->${b}`, `${b}->${a}`], widths: widthNets, checks, voltChecks: [...circuitVolt, ...voltChecks], chargeChecks, fractionChecks };
+  return {
+    deadTimes: [`${a}->${b}`, `${b}->${a}`],
+    widths: widthNets,
+    checks,
+    voltChecks: [...circuitVolt, ...voltChecks],
+    chargeChecks,
+    fractionChecks,
+  };
 }
 
 /** The union of column sets, each name once, in first-seen order. */
 export function mergeColumns(sets: readonly SweepColumns[]): SweepColumns {
   const union = (pick: (c: SweepColumns) => readonly string[]) => [...new Set(sets.flatMap(pick))];
   return {
-    deadTimes: union((c) => c.deadTimes), widths: union((c) => c.widths),
-    checks: union((c) => c.checks), voltChecks: union((c) => c.voltChecks),
-    chargeChecks: union((c) => c.chargeChecks), fractionChecks: union((c) => c.fractionChecks),
+    deadTimes: union((c) => c.deadTimes),
+    widths: union((c) => c.widths),
+    checks: union((c) => c.checks),
+    voltChecks: union((c) => c.voltChecks),
+    chargeChecks: union((c) => c.chargeChecks),
+    fractionChecks: union((c) => c.fractionChecks),
   };
 }

@@ -12,7 +12,12 @@ import { formatTime } from '../units/format.js';
 export interface SimulatedCorner {
   readonly corner: string;
   /** Dead times, clean gaps and phase widths: `dead p1->p2`, `gap p1->p2`, `width p1`; s. */
-  readonly quantities: ReadonlyArray<{ readonly quantity: string; readonly kind: string; readonly model: number; readonly simulator: number | null }>;
+  readonly quantities: ReadonlyArray<{
+    readonly quantity: string;
+    readonly kind: string;
+    readonly model: number;
+    readonly simulator: number | null;
+  }>;
   /** Break-before-make margins, s. */
   readonly breakBeforeMake: ReadonlyArray<{ readonly check: string; readonly model: number; readonly simulator: number | null }>;
 }
@@ -76,7 +81,18 @@ export function confirmation(design: Design, run: SimulatorRun, spare: number): 
   let limiting: SimulatedCheck | null = null;
   for (const c of checks) {
     const m = c.simulator ?? -Infinity;
-    if (m < least) { least = m; limiting = c; }
+    if (m < least) {
+      least = m;
+      limiting = c;
+    }
   }
-  return { simulator: run.simulator, corners: run.corners.map((c) => c.corner), checks, least, limiting, pass: least >= 0, meets: least >= spare };
+  return {
+    simulator: run.simulator,
+    corners: run.corners.map((c) => c.corner),
+    checks,
+    least,
+    limiting,
+    pass: least >= 0,
+    meets: least >= spare,
+  };
 }

@@ -90,7 +90,11 @@ export interface Closest {
 }
 
 /** What the closest candidate fails, whether the dead-time requirements conflict, and whether a wider search can help. */
-export function diagnose(design: Design, closest: Closest | null, searched: ReadonlyArray<{ deadMin: number; deadMax: number }>): Diagnosis | null {
+export function diagnose(
+  design: Design,
+  closest: Closest | null,
+  searched: ReadonlyArray<{ deadMin: number; deadMax: number }>,
+): Diagnosis | null {
   if (!closest) return null;
   const failing = closest.failing;
   const req = design.requirements.deadTime;

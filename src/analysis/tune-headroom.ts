@@ -59,7 +59,12 @@ export const HEADROOM_CORNERS = 3;
 /** z = Φ⁻¹(minYield) for the per-corner yield, or DEFAULT_Z. */
 export function autoHeadroom(design: Design): AutoHeadroom {
   const y = design.requirements.minYield;
-  return { z: y === undefined ? DEFAULT_Z : normalQuantile(y), dies: HEADROOM_DIES, corners: HEADROOM_CORNERS, seed: design.montecarlo?.seed ?? 1 };
+  return {
+    z: y === undefined ? DEFAULT_Z : normalQuantile(y),
+    dies: HEADROOM_DIES,
+    corners: HEADROOM_CORNERS,
+    seed: design.montecarlo?.seed ?? 1,
+  };
 }
 
 export function yieldTarget(design: Design): number {
@@ -87,8 +92,17 @@ export interface MismatchRun {
  * A seeded Monte Carlo of `dies` dies at the `count` corners with the least margins: the largest
  * sigma of the least margin per die (Infinity when a die cannot be measured) and each corner's yield.
  */
-export function mismatchAtLimits(resolved: ResolvedDesign, results: readonly CornerResult[], count: number, dies: number, seed: number): MismatchRun {
-  const limiting = results.map((r, i) => ({ i, least: leastMargin(r.checks) })).sort((a, b) => a.least - b.least || a.i - b.i).slice(0, count);
+export function mismatchAtLimits(
+  resolved: ResolvedDesign,
+  results: readonly CornerResult[],
+  count: number,
+  dies: number,
+  seed: number,
+): MismatchRun {
+  const limiting = results
+    .map((r, i) => ({ i, least: leastMargin(r.checks) }))
+    .sort((a, b) => a.least - b.least || a.i - b.i)
+    .slice(0, count);
   const sub: ResolvedDesign = { ...resolved, corners: limiting.map(({ i }) => resolved.corners[i]!) };
   const chunks = chunkPlan(dies).map(({ start, count: n }) => runChunk(sub, seed, start, n));
   let sigma = 0;
@@ -102,7 +116,10 @@ export function mismatchAtLimits(resolved: ResolvedDesign, results: readonly Cor
       const corner = chunk.corners[c]!;
       passes += corner.passes;
       for (const x of corner.leastMargin) {
-        if (!Number.isFinite(x)) { m2 = Infinity; continue; }
+        if (!Number.isFinite(x)) {
+          m2 = Infinity;
+          continue;
+        }
         n++;
         const d = x - mean;
         mean += d / n;
@@ -117,9 +134,23 @@ export function mismatchAtLimits(resolved: ResolvedDesign, results: readonly Cor
 }
 
 /** The headroom a candidate needs, from its Monte Carlo run; `simulator` is added on top. */
-export function candidateHeadroom(resolved: ResolvedDesign, deadMax: number, auto: AutoHeadroom, run: MismatchRun, simulator = 0): Headroom {
+export function candidateHeadroom(
+  resolved: ResolvedDesign,
+  deadMax: number,
+  auto: AutoHeadroom,
+  run: MismatchRun,
+  simulator = 0,
+): Headroom {
   const band = (resolved.model.gapBand ?? 0) * deadMax;
-  return { band, sigma: run.sigma, z: auto.z, simulator, total: band + auto.z * run.sigma + simulator, corners: run.corners, dies: auto.dies };
+  return {
+    band,
+    sigma: run.sigma,
+    z: auto.z,
+    simulator,
+    total: band + auto.z * run.sigma + simulator,
+    corners: run.corners,
+    dies: auto.dies,
+  };
 }
 
 /** A fixed headroom (`--margin`). */

@@ -26,7 +26,12 @@ export interface ChainKnobs {
 export function templateOf(design: Design): TemplateGenerator {
   const gen = design.generator;
   if (gen.template === 'netlist') {
-    throw inputError('value.invalid', 'generator.template', 'netlist', 'is a free-form netlist; tune adjusts the delay chains of the nand or nor template');
+    throw inputError(
+      'value.invalid',
+      'generator.template',
+      'netlist',
+      'is a free-form netlist; tune adjusts the delay chains of the nand or nor template',
+    );
   }
   return gen;
 }
@@ -36,7 +41,13 @@ export function ownBuffer(gen: TemplateGenerator): readonly number[] {
 }
 
 export function ownKnobs(gen: TemplateGenerator): ChainKnobs {
-  return { stages: gen.stages, stageSize: gen.stageSize, stageLoad: gen.stageLoad, buffer: ownBuffer(gen), feedbackTap: gen.feedbackTap ?? 0 };
+  return {
+    stages: gen.stages,
+    stageSize: gen.stageSize,
+    stageLoad: gen.stageLoad,
+    buffer: ownBuffer(gen),
+    feedbackTap: gen.feedbackTap ?? 0,
+  };
 }
 
 /** The design with these knobs on its generator. */
@@ -45,8 +56,12 @@ export function withKnobs(design: Design, knobs: ChainKnobs): Design {
   return {
     ...design,
     generator: {
-      ...gen, stages: knobs.stages, stageSize: knobs.stageSize as TemplateGenerator['stageSize'], stageLoad: knobs.stageLoad,
-      buffer: [...knobs.buffer], ...(knobs.feedbackTap > 0 || gen.feedbackTap !== undefined ? { feedbackTap: knobs.feedbackTap } : {}),
+      ...gen,
+      stages: knobs.stages,
+      stageSize: knobs.stageSize as TemplateGenerator['stageSize'],
+      stageLoad: knobs.stageLoad,
+      buffer: [...knobs.buffer],
+      ...(knobs.feedbackTap > 0 || gen.feedbackTap !== undefined ? { feedbackTap: knobs.feedbackTap } : {}),
     },
   };
 }

@@ -49,7 +49,10 @@ export function leastConduction(results: readonly CornerResult[], period: number
   for (const r of results) {
     const t = usefulConduction(r, period);
     if (Number.isNaN(t)) return { time: NaN, corner: r.corner.name };
-    if (t < time) { time = t; corner = r.corner.name; }
+    if (t < time) {
+      time = t;
+      corner = r.corner.name;
+    }
   }
   return { time, corner };
 }
@@ -64,7 +67,10 @@ export interface ScoreInputs {
 /** Larger is better; NaN inputs score -Infinity. */
 export function score(objective: TuneObjective, x: ScoreInputs): number {
   const w = objective.weights;
-  const s = (w.conduction > 0 ? w.conduction * x.conduction : 0) + (w.margin > 0 ? w.margin * x.margin : 0) - (w.deadTime > 0 ? w.deadTime * x.deadMax : 0);
+  const s =
+    (w.conduction > 0 ? w.conduction * x.conduction : 0) +
+    (w.margin > 0 ? w.margin * x.margin : 0) -
+    (w.deadTime > 0 ? w.deadTime * x.deadMax : 0);
   return Number.isFinite(s) ? s : -Infinity;
 }
 

@@ -30,11 +30,26 @@ import { CIRCUIT_KINDS } from '../checks/check.js';
 import { evaluateAll, limitingCheck, type Limiting } from './evaluate.js';
 import { switchFaults, type SwitchFault } from '../checks/bias-checks.js';
 import {
-  comboKey, ownKnobs, searchableTapers, searchableTaps, taperedBuffer, templateOf, withKnobs, type ChainKnobs,
+  comboKey,
+  ownKnobs,
+  searchableTapers,
+  searchableTaps,
+  taperedBuffer,
+  templateOf,
+  withKnobs,
+  type ChainKnobs,
 } from './tune-knobs.js';
 import {
-  autoHeadroom, candidateHeadroom, fixedHeadroom, HEADROOM_CORNERS, HEADROOM_DIES, mismatchAtLimits, yieldTarget,
-  type AutoHeadroom, type CornerYield, type Headroom,
+  autoHeadroom,
+  candidateHeadroom,
+  fixedHeadroom,
+  HEADROOM_CORNERS,
+  HEADROOM_DIES,
+  mismatchAtLimits,
+  yieldTarget,
+  type AutoHeadroom,
+  type CornerYield,
+  type Headroom,
 } from './tune-headroom.js';
 import { leastConduction, objectiveOf, score, type Conduction, type TuneObjective } from './tune-objective.js';
 import { diagnose, failingChecks, stuckSwitches, type Diagnosis, type FailingCheck, type StuckSwitch } from './tune-diagnosis.js';
@@ -151,8 +166,13 @@ export function defaultSpace(design: Design): TuneSpace {
   for (let n = gen.earlyTap; n <= Math.max(DEFAULT_MAX_STAGES, gen.stages); n += 2) stages.push(n);
   const own = typeof gen.stageSize === 'number' ? [gen.stageSize] : [];
   return {
-    stages, stageSizes: [...new Set([...own, 1, 2])], maxLoad: Math.max(DEFAULT_MAX_LOAD, gen.stageLoad), loadStep: DEFAULT_LOAD_STEP,
-    headroom: autoHeadroom(design), tapers: searchableTapers(gen), feedbackTaps: searchableTaps(gen),
+    stages,
+    stageSizes: [...new Set([...own, 1, 2])],
+    maxLoad: Math.max(DEFAULT_MAX_LOAD, gen.stageLoad),
+    loadStep: DEFAULT_LOAD_STEP,
+    headroom: autoHeadroom(design),
+    tapers: searchableTapers(gen),
+    feedbackTaps: searchableTaps(gen),
   };
 }
 
@@ -168,7 +188,9 @@ function rank(list: ChainCandidate[]): ChainCandidate[] {
   const top = list.reduce((a, b) => (b.score > a.score ? b : a));
   const band = TIE_FRACTION * top.deadMax;
   const bucket = (c: ChainCandidate) => (Number.isFinite(c.score) ? Math.floor((top.score - c.score) / band) : Infinity);
-  return list.sort((a, b) => bucket(a) - bucket(b) || a.knobs.stages - b.knobs.stages || a.knobs.stageLoad - b.knobs.stageLoad || b.score - a.score);
+  return list.sort(
+    (a, b) => bucket(a) - bucket(b) || a.knobs.stages - b.knobs.stages || a.knobs.stageLoad - b.knobs.stageLoad || b.score - a.score,
+  );
 }
 
 /** The simulator's word on a proposal, for the final order: meets, passes thin, not simulated, fails. */
@@ -179,7 +201,13 @@ function confirmGroup(c: ChainCandidate): number {
 
 type Combo = Omit<ChainKnobs, 'stageLoad'>;
 
-export function tuneChains(design: Design, card: ProcessCard, model: DelayModel = analyticModel, space: TuneSpace = defaultSpace(design), options: TuneOptions = {}): TuneResult {
+export function tuneChains(
+  design: Design,
+  card: ProcessCard,
+  model: DelayModel = analyticModel,
+  space: TuneSpace = defaultSpace(design),
+  options: TuneOptions = {},
+): TuneResult {
   const gen = templateOf(design);
   const objective = objectiveOf(design);
   const target = yieldTarget(design);
@@ -205,10 +233,18 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     let slowCorner = '';
     for (const r of results) {
       const m = r.measurement;
-      if (!m.ok) { deadMin = NaN; deadMax = NaN; slowCorner = r.corner.name; break; }
+      if (!m.ok) {
+        deadMin = NaN;
+        deadMax = NaN;
+        slowCorner = r.corner.name;
+        break;
+      }
       for (const d of m.deadTimes) {
         deadMin = Math.min(deadMin, d.t50);
-        if (d.t50 > deadMax) { deadMax = d.t50; slowCorner = r.corner.name; }
+        if (d.t50 > deadMax) {
+          deadMax = d.t50;
+          slowCorner = r.corner.name;
+        }
       }
     }
     const pass = results.every((r) => r.pass);
@@ -216,21 +252,47 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     const conduction = leastConduction(results, period);
     const margin = limiting?.margin ?? -Infinity;
     const candidate: ChainCandidate = {
-      knobs, pass, meets: pass, deadMin, deadMax, slowCorner, limiting, conduction, waste: deadMax - (required ?? deadMin),
+      knobs,
+      pass,
+      meets: pass,
+      deadMin,
+      deadMax,
+      slowCorner,
+      limiting,
+      conduction,
+      waste: deadMax - (required ?? deadMin),
       score: score(objective, { conduction: conduction.time, margin, deadMax }),
-      failing: pass ? [] : failingChecks(results), stuck: pass ? [] : stuckSwitches(results), headroom: null, yields: null, confirmation: null,
+      failing: pass ? [] : failingChecks(results),
+      stuck: pass ? [] : stuckSwitches(results),
+      headroom: null,
+      yields: null,
+      confirmation: null,
     };
     seen.set(key, candidate);
     return candidate;
   };
-  const meetsAt = (c: ChainCandidate, need: number) => c.pass && (c.limiting === null || (c.limiting.margin !== null && c.limiting.margin >= need));
+  const meetsAt = (c: ChainCandidate, need: number) =>
+    c.pass && (c.limiting === null || (c.limiting.margin !== null && c.limiting.margin >= need));
   let current = evaluate(ownKnobs(gen));
   const faults = firstFaults;
   const found: ChainCandidate[] = [];
-  const passing = () => [...seen.values()].filter((c) => c.pass && c !== current)
-    .sort((a, b) => (a.limiting?.margin ?? -Infinity) - (b.limiting?.margin ?? -Infinity));
-  const result = (proposals: ChainCandidate[], closest: ChainCandidate | null, diagnosis: Diagnosis | null): TuneResult =>
-    ({ current, proposals, candidates: passing(), closest, space, objective, yieldTarget: target, evaluations, simulations, faults, diagnosis });
+  const passing = () =>
+    [...seen.values()]
+      .filter((c) => c.pass && c !== current)
+      .sort((a, b) => (a.limiting?.margin ?? -Infinity) - (b.limiting?.margin ?? -Infinity));
+  const result = (proposals: ChainCandidate[], closest: ChainCandidate | null, diagnosis: Diagnosis | null): TuneResult => ({
+    current,
+    proposals,
+    candidates: passing(),
+    closest,
+    space,
+    objective,
+    yieldTarget: target,
+    evaluations,
+    simulations,
+    faults,
+    diagnosis,
+  });
   if (faults.length > 0) return result([], null, null);
   let closest: ChainCandidate | null = null;
   /** Best least margin each combination reached, for choosing the chains the other knobs are tried on when few pass. */
@@ -252,7 +314,10 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
     for (const load of [...SCAN.filter((c) => c < space.maxLoad), space.maxLoad]) {
       const c = at(load);
       consider(c);
-      if (ok(c)) { found = c; break; }
+      if (ok(c)) {
+        found = c;
+        break;
+      }
       below = load;
     }
     if (!found || below < 0) return found;
@@ -274,7 +339,13 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
       }
       const c = at(mid * step);
       const side = ok(c) ? 1 : -1;
-      if (side > 0) { hi = mid; hiC = c; } else { lo = mid; loC = c; }
+      if (side > 0) {
+        hi = mid;
+        hiC = c;
+      } else {
+        lo = mid;
+        loC = c;
+      }
       stalls = side === lastSide ? stalls + 1 : 0;
       lastSide = side;
     }
@@ -289,7 +360,13 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
       const resolved = resolveTiming(c.knobs);
       const results = evaluateAll(resolved);
       const dies = typeof auto === 'number' ? HEADROOM_DIES : auto.dies;
-      const run = mismatchAtLimits(resolved, results, typeof auto === 'number' ? HEADROOM_CORNERS : auto.corners, dies, typeof auto === 'number' ? design.montecarlo?.seed ?? 1 : auto.seed);
+      const run = mismatchAtLimits(
+        resolved,
+        results,
+        typeof auto === 'number' ? HEADROOM_CORNERS : auto.corners,
+        dies,
+        typeof auto === 'number' ? (design.montecarlo?.seed ?? 1) : auto.seed,
+      );
       evaluations += results.length + run.corners.length * dies;
       if (typeof auto === 'number') return { ...c, meets: meetsAt(c, auto), headroom: fixedHeadroom(auto, run, dies), yields: run.yields };
       const h = candidateHeadroom(resolved, c.deadMax, auto, run, extra);
@@ -324,7 +401,10 @@ export function tuneChains(design: Design, card: ProcessCard, model: DelayModel 
   const own = ownKnobs(gen);
   const taperOptions = [own.buffer, ...space.tapers.map((r) => taperedBuffer(own.buffer[own.buffer.length - 1]!, own.buffer.length, r))];
   const best = new Set<string>();
-  const chains = [...rank([...found]).map((c) => c.knobs), ...[...reached.values()].sort((a, b) => b.margin - a.margin).map((r) => r.combo)];
+  const chains = [
+    ...rank([...found]).map((c) => c.knobs),
+    ...[...reached.values()].sort((a, b) => b.margin - a.margin).map((r) => r.combo),
+  ];
   for (const c of chains) {
     if (best.size >= KNOB_CHAINS) break;
     if (best.has(comboKey(c))) continue;

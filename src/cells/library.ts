@@ -62,7 +62,8 @@ export function cellWidths(kind: PrimitiveCell, size: number, unit: UnitWidths):
   const nOnOutput = shape.nSeries === 1 ? shape.inputs : 1;
   const pOnOutput = shape.pSeries === 1 ? shape.inputs : 1;
   return {
-    wn, wp,
+    wn,
+    wp,
     pullDown: size * unit.wn,
     pullUp: size * unit.wp,
     drainN: nOnOutput * wn,

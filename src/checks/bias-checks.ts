@@ -71,19 +71,37 @@ const volts = (v: number) => `${v.toFixed(3)} V`;
 const mv = (v: number) => `${Math.round(v * 1e3)} mV`;
 
 function terminalWords(plan: SwitchPlan, state: StateIndex, vdd: number): string {
-  return plan.terminals.map((t) => {
-    const lo = rangeLow(t.states[state], vdd);
-    const hi = rangeHigh(t.states[state], vdd);
-    return `${t.name} ${hi - lo > EPS ? `${lo.toFixed(3)}..${volts(hi)}` : volts(lo)}`;
-  }).join(', ');
+  return plan.terminals
+    .map((t) => {
+      const lo = rangeLow(t.states[state], vdd);
+      const hi = rangeHigh(t.states[state], vdd);
+      return `${t.name} ${hi - lo > EPS ? `${lo.toFixed(3)}..${volts(hi)}` : volts(lo)}`;
+    })
+    .join(', ');
 }
 
-const deviceName = (plan: SwitchPlan, device: SwitchDevicePlan) => (plan.type === 'tgate' ? `the ${device.kind} device of ${plan.name}` : `${plan.name} (${plan.type})`);
+const deviceName = (plan: SwitchPlan, device: SwitchDevicePlan) =>
+  plan.type === 'tgate' ? `the ${device.kind} device of ${plan.name}` : `${plan.name} (${plan.type})`;
 
-interface OffWorst { margin: number; device: number; state: StateIndex; source: number; sourceTerminal: number; gate: number; bulk: number; vt: number; allowance: number }
+interface OffWorst {
+  margin: number;
+  device: number;
+  state: StateIndex;
+  source: number;
+  sourceTerminal: number;
+  gate: number;
+  bulk: number;
+  vt: number;
+  allowance: number;
+}
 
 /** The least off-state margin over the devices and the states in which the switch must be off; null when it is never off. */
-export function offStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: ArrayLike<number> | undefined, settings: BiasSettings): OffWorst | null {
+export function offStateWorst(
+  plan: SwitchPlan,
+  devices: CornerDevices,
+  dvth: ArrayLike<number> | undefined,
+  settings: BiasSettings,
+): OffWorst | null {
   const vdd = devices.vdd;
   let worst: OffWorst | null = null;
   for (const state of STATES) {
@@ -104,7 +122,17 @@ export function offStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Ar
       const allowance = allowanceFor(d, devices.corner.temperature, settings);
       const margin = offStateMargin(device.kind, d, gate, source, bulk, shift, allowance);
       if (worst === null || margin < worst.margin) {
-        worst = { margin, device: i, state, source, sourceTerminal, gate, bulk, vt: thresholdAt(device.kind, d, source, bulk, shift), allowance };
+        worst = {
+          margin,
+          device: i,
+          state,
+          source,
+          sourceTerminal,
+          gate,
+          bulk,
+          vt: thresholdAt(device.kind, d, source, bulk, shift),
+          allowance,
+        };
       }
     }
   }
@@ -138,7 +166,12 @@ export function offDetail(plan: SwitchPlan, w: OffWorst, vdd: number, settings: 
   return head + cause + numbers + distance;
 }
 
-interface OnWorst { margin: number; state: StateIndex; v: number; gate: number }
+interface OnWorst {
+  margin: number;
+  state: StateIndex;
+  v: number;
+  gate: number;
+}
 
 /** The least gate overdrive over the states in which the switch must conduct and its terminal span there; null when it never conducts. */
 export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: ArrayLike<number> | undefined): OnWorst | null {
@@ -152,7 +185,13 @@ export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Arr
     const single = plan.devices.length === 1;
     const points = span.high - span.low <= EPS ? 1 : single ? 1 : SPAN_POINTS;
     for (let k = 0; k < points; k++) {
-      const v = single ? (plan.devices[0]!.kind === 'n' ? span.high : span.low) : points === 1 ? span.low : span.low + ((span.high - span.low) * k) / (points - 1);
+      const v = single
+        ? plan.devices[0]!.kind === 'n'
+          ? span.high
+          : span.low
+        : points === 1
+          ? span.low
+          : span.low + ((span.high - span.low) * k) / (points - 1);
       let best = -Infinity;
       let gateOfBest = NaN;
       for (let i = 0; i < plan.devices.length; i++) {
@@ -161,7 +200,10 @@ export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Arr
         const d = device.kind === 'n' ? devices.n : devices.p;
         const gate = gateLevel(plan, device, state, vdd);
         const od = onOverdrive(device.kind, d, gate, v, bulkAt(plan, device.kind, state, vdd), dvth ? dvth[i]! : 0);
-        if (od > best) { best = od; gateOfBest = gate; }
+        if (od > best) {
+          best = od;
+          gateOfBest = gate;
+        }
       }
       if (worst === null || best < worst.margin) worst = { margin: best, state, v, gate: gateOfBest };
     }
@@ -170,27 +212,48 @@ export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Arr
 }
 
 export function onDetail(plan: SwitchPlan, w: OnWorst, vdd: number, settings: BiasSettings): string {
-  return `${plan.name} (${plan.type}) in ${settings.stateLabels[w.state]} does not conduct at ${volts(w.v)}: gate ${volts(w.gate)}, terminals ${terminalWords(plan, w.state, vdd)}; `
-    + `the gate swing falls ${mv(-w.margin)} short of the turn-on level there`;
+  return (
+    `${plan.name} (${plan.type}) in ${settings.stateLabels[w.state]} does not conduct at ${volts(w.v)}: gate ${volts(w.gate)}, terminals ${terminalWords(plan, w.state, vdd)}; ` +
+    `the gate swing falls ${mv(-w.margin)} short of the turn-on level there`
+  );
 }
 
 /** Which limit a stress margin is: the junction, |V_GS| or |V_GD|, |V_DS|, |V_GB|. */
 type StressLimit = 0 | 1 | 2 | 3;
 
-interface StressWorst { margin: number; state: StateIndex; device: number; limit: StressLimit }
+interface StressWorst {
+  margin: number;
+  state: StateIndex;
+  device: number;
+  limit: StressLimit;
+}
 
-interface StressValues { readonly gate: number; readonly bulk: number; readonly lo: number; readonly hi: number; readonly vg: number; readonly vds: number; readonly vgb: number }
+interface StressValues {
+  readonly gate: number;
+  readonly bulk: number;
+  readonly lo: number;
+  readonly hi: number;
+  readonly vg: number;
+  readonly vds: number;
+  readonly vgb: number;
+}
 
 function stressValues(plan: SwitchPlan, device: SwitchDevicePlan, state: StateIndex, vdd: number): StressValues {
   const [a, b] = plan.terminals;
-  const aLo = rangeLow(a.states[state], vdd); const aHi = rangeHigh(a.states[state], vdd);
-  const bLo = rangeLow(b.states[state], vdd); const bHi = rangeHigh(b.states[state], vdd);
+  const aLo = rangeLow(a.states[state], vdd);
+  const aHi = rangeHigh(a.states[state], vdd);
+  const bLo = rangeLow(b.states[state], vdd);
+  const bHi = rangeHigh(b.states[state], vdd);
   const gate = gateLevel(plan, device, state, vdd);
   const bulk = bulkAt(plan, device.kind, state, vdd);
   return {
-    gate, bulk, lo: Math.min(aLo, bLo), hi: Math.max(aHi, bHi),
+    gate,
+    bulk,
+    lo: Math.min(aLo, bLo),
+    hi: Math.max(aHi, bHi),
     vg: Math.max(Math.abs(gate - aLo), Math.abs(gate - aHi), Math.abs(gate - bLo), Math.abs(gate - bHi)),
-    vds: Math.max(aHi - bLo, bHi - aLo), vgb: Math.abs(gate - bulk),
+    vds: Math.max(aHi - bLo, bHi - aLo),
+    vgb: Math.abs(gate - bulk),
   };
 }
 
@@ -234,8 +297,12 @@ export function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDe
       : `${who}: a terminal at ${volts(x.hi)} is above the body at ${volts(x.bulk)}: the source/drain junction is forward-biased (${where})`;
   }
   const rating = (device.kind === 'n' ? devices.n : devices.p).params.ratings!;
-  const [what, value, limit] = w.limit === 1 ? ['|V_GS| or |V_GD|', x.vg, rating.vgs] as const
-    : w.limit === 2 ? ['|V_DS|', x.vds, rating.vds] as const : ['|V_GB|', x.vgb, rating.vgb] as const;
+  const [what, value, limit] =
+    w.limit === 1
+      ? (['|V_GS| or |V_GD|', x.vg, rating.vgs] as const)
+      : w.limit === 2
+        ? (['|V_DS|', x.vds, rating.vds] as const)
+        : (['|V_GB|', x.vgb, rating.vgb] as const);
   return `${who}: ${what} ${volts(value)} exceeds the ${device.kind}-device rating ${volts(limit)} (${where})`;
 }
 
@@ -243,8 +310,14 @@ export function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDe
  * All bias checks of every switch at one corner, appended to `checks` (which is returned): the
  * reference the per-corner BiasChecker (bias-frame.ts) must equal bit for bit.
  */
-export function biasChecks(plans: readonly SwitchPlan[], devices: CornerDevices, mismatch: readonly ArrayLike<number>[] | undefined,
-  settings: BiasSettings, names: ReadonlyArray<BiasCheckNames | null>, checks: Check[] = []): Check[] {
+export function biasChecks(
+  plans: readonly SwitchPlan[],
+  devices: CornerDevices,
+  mismatch: readonly ArrayLike<number>[] | undefined,
+  settings: BiasSettings,
+  names: ReadonlyArray<BiasCheckNames | null>,
+  checks: Check[] = [],
+): Check[] {
   const vdd = devices.vdd;
   for (let k = 0; k < plans.length; k++) {
     const name = names[k];
@@ -253,33 +326,82 @@ export function biasChecks(plans: readonly SwitchPlan[], devices: CornerDevices,
     const dvth = mismatch?.[k];
     const off = offStateWorst(plan, devices, dvth, settings);
     if (off === null) {
-      checks.push({ kind: 'off-state', subject: name.subject, name: name.off, margin: null, pass: false, switch: plan.name,
-        detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it` });
+      checks.push({
+        kind: 'off-state',
+        subject: name.subject,
+        name: name.off,
+        margin: null,
+        pass: false,
+        switch: plan.name,
+        detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it`,
+      });
     } else {
       const pass = off.margin >= 0;
       const phase = settings.stateLabels[off.state];
-      checks.push(pass ? { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase }
-        : { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase, detail: offDetail(plan, off, vdd, settings) });
+      checks.push(
+        pass
+          ? { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase }
+          : {
+              kind: 'off-state',
+              subject: name.subject,
+              name: name.off,
+              margin: off.margin,
+              pass,
+              switch: plan.name,
+              phase,
+              detail: offDetail(plan, off, vdd, settings),
+            },
+      );
     }
     const on = onStateWorst(plan, devices, dvth);
     if (on === null) {
-      checks.push({ kind: 'on-state', subject: name.subject, name: name.on, margin: null, pass: false, switch: plan.name,
-        detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on` });
+      checks.push({
+        kind: 'on-state',
+        subject: name.subject,
+        name: name.on,
+        margin: null,
+        pass: false,
+        switch: plan.name,
+        detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on`,
+      });
     } else {
       const pass = on.margin >= 0;
       const phase = settings.stateLabels[on.state];
-      checks.push(pass ? { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase }
-        : { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase, detail: onDetail(plan, on, vdd, settings) });
+      checks.push(
+        pass
+          ? { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase }
+          : {
+              kind: 'on-state',
+              subject: name.subject,
+              name: name.on,
+              margin: on.margin,
+              pass,
+              switch: plan.name,
+              phase,
+              detail: onDetail(plan, on, vdd, settings),
+            },
+      );
     }
     const stress = stressWorst(plan, devices);
     const pass = stress.margin >= 0;
     const phase = settings.stateLabels[stress.state];
-    checks.push(pass ? { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase }
-      : { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) });
+    checks.push(
+      pass
+        ? { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase }
+        : {
+            kind: 'stress',
+            subject: name.subject,
+            name: name.stress,
+            margin: stress.margin,
+            pass,
+            switch: plan.name,
+            phase,
+            detail: stressDetail(plan, stress, devices, settings),
+          },
+    );
   }
   return checks;
 }
-
 
 /** A switch whose bias checks fail somewhere: the failing kinds and the first failure's corner and words. */
 export interface SwitchFault {

@@ -9,8 +9,16 @@ import { rangeHigh, rangeLow, type StateIndex } from '../switches/nodes.js';
 import { bodyThreshold } from '../switches/physics.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import {
-  offDetail, offStateWorst, onDetail, onStateWorst, stressDetail, stressWorst, switchOffIn,
-  allowanceFor, type BiasCheckNames, type BiasSettings,
+  offDetail,
+  offStateWorst,
+  onDetail,
+  onStateWorst,
+  stressDetail,
+  stressWorst,
+  switchOffIn,
+  allowanceFor,
+  type BiasCheckNames,
+  type BiasSettings,
 } from './bias-checks.js';
 import type { Check } from './check.js';
 
@@ -32,7 +40,10 @@ interface Case {
 }
 
 /** On-state: at each point, the best device's overdrive counts; the least point counts. */
-interface OnPoint { readonly state: StateIndex; readonly cases: readonly Case[] }
+interface OnPoint {
+  readonly state: StateIndex;
+  readonly cases: readonly Case[];
+}
 
 interface SwitchFrame {
   readonly plan: SwitchPlan;
@@ -62,8 +73,14 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
         const source = n ? Math.min(va, vb) : Math.max(va, vb);
         const gate = gateLevel(plan, device, state, vdd);
         const bulk = bulkAt(plan, device.kind, state, vdd);
-        off.push({ device: i, state, d, vsb: n ? source - bulk : bulk - source,
-          drive: n ? gate - source : source - gate, allowance: allowanceFor(d, devices.corner.temperature, settings) });
+        off.push({
+          device: i,
+          state,
+          d,
+          vsb: n ? source - bulk : bulk - source,
+          drive: n ? gate - source : source - gate,
+          allowance: allowanceFor(d, devices.corner.temperature, settings),
+        });
       });
       continue;
     }
@@ -71,14 +88,27 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
     const single = plan.devices.length === 1;
     const points = span.high - span.low <= EPS || single ? 1 : SPAN_POINTS;
     for (let p = 0; p < points; p++) {
-      const v = single ? (plan.devices[0]!.kind === 'n' ? span.high : span.low) : points === 1 ? span.low : span.low + ((span.high - span.low) * p) / (points - 1);
+      const v = single
+        ? plan.devices[0]!.kind === 'n'
+          ? span.high
+          : span.low
+        : points === 1
+          ? span.low
+          : span.low + ((span.high - span.low) * p) / (points - 1);
       const cases: Case[] = [];
       plan.devices.forEach((device, i) => {
         if (!deviceOn(device, state)) return;
         const n = device.kind === 'n';
         const gate = gateLevel(plan, device, state, vdd);
         const bulk = bulkAt(plan, device.kind, state, vdd);
-        cases.push({ device: i, state, d: n ? devices.n : devices.p, vsb: n ? v - bulk : bulk - v, drive: n ? gate - v : v - gate, allowance: 0 });
+        cases.push({
+          device: i,
+          state,
+          d: n ? devices.n : devices.p,
+          vsb: n ? v - bulk : bulk - v,
+          drive: n ? gate - v : v - gate,
+          allowance: 0,
+        });
       });
       on.push({ state, cases });
     }
@@ -88,7 +118,16 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
   const phase = settings.stateLabels[stress.state];
   const stressCheck: Check = stressPass
     ? { kind: 'stress', subject: names.subject, name: names.stress, margin: stress.margin, pass: true, switch: plan.name, phase }
-    : { kind: 'stress', subject: names.subject, name: names.stress, margin: stress.margin, pass: false, switch: plan.name, phase, detail: stressDetail(plan, stress, devices, settings) };
+    : {
+        kind: 'stress',
+        subject: names.subject,
+        name: names.stress,
+        margin: stress.margin,
+        pass: false,
+        switch: plan.name,
+        phase,
+        detail: stressDetail(plan, stress, devices, settings),
+      };
   return { plan, k, names, off, on, stress: stressCheck };
 }
 
@@ -100,8 +139,11 @@ export class BiasChecker {
   private devices: CornerDevices | null = null;
   private frames: SwitchFrame[] = [];
 
-  constructor(private readonly plans: readonly SwitchPlan[], private readonly settings: BiasSettings,
-    private readonly names: ReadonlyArray<BiasCheckNames | null>) {}
+  constructor(
+    private readonly plans: readonly SwitchPlan[],
+    private readonly settings: BiasSettings,
+    private readonly names: ReadonlyArray<BiasCheckNames | null>,
+  ) {}
 
   /** Appends every switch's off-state, on-state and stress check to `checks` (which is returned). */
   run(devices: CornerDevices, mismatch: readonly ArrayLike<number>[] | undefined, checks: Check[]): Check[] {
@@ -118,24 +160,59 @@ export class BiasChecker {
       const dvth = mismatch?.[f.k];
       const { plan, names } = f;
       if (f.off.length === 0) {
-        checks.push({ kind: 'off-state', subject: names.subject, name: names.off, margin: null, pass: false, switch: plan.name,
-          detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it` });
+        checks.push({
+          kind: 'off-state',
+          subject: names.subject,
+          name: names.off,
+          margin: null,
+          pass: false,
+          switch: plan.name,
+          detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it`,
+        });
       } else {
         let least = Infinity;
         let state: StateIndex = 0;
         for (const c of f.off) {
           // The same operations, in the same order, as offStateMargin: the same bits.
           const m = vt(c, dvth) - c.allowance - c.drive;
-          if (m < least) { least = m; state = c.state; }
+          if (m < least) {
+            least = m;
+            state = c.state;
+          }
         }
-        checks.push(least >= 0
-          ? { kind: 'off-state', subject: names.subject, name: names.off, margin: least, pass: true, switch: plan.name, phase: labels[state] }
-          : { kind: 'off-state', subject: names.subject, name: names.off, margin: least, pass: false, switch: plan.name, phase: labels[state],
-            detail: offDetail(plan, offStateWorst(plan, devices, dvth, this.settings)!, devices.vdd, this.settings) });
+        checks.push(
+          least >= 0
+            ? {
+                kind: 'off-state',
+                subject: names.subject,
+                name: names.off,
+                margin: least,
+                pass: true,
+                switch: plan.name,
+                phase: labels[state],
+              }
+            : {
+                kind: 'off-state',
+                subject: names.subject,
+                name: names.off,
+                margin: least,
+                pass: false,
+                switch: plan.name,
+                phase: labels[state],
+                detail: offDetail(plan, offStateWorst(plan, devices, dvth, this.settings)!, devices.vdd, this.settings),
+              },
+        );
       }
       if (f.on.length === 0) {
-        checks.push({ kind: 'on-state', subject: names.subject, name: names.on, margin: null, pass: false, switch: plan.name,
-          detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on` });
+        checks.push({
+          kind: 'on-state',
+          subject: names.subject,
+          name: names.on,
+          margin: null,
+          pass: false,
+          switch: plan.name,
+          detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on`,
+        });
       } else {
         let least = Infinity;
         let state: StateIndex = 0;
@@ -145,12 +222,33 @@ export class BiasChecker {
             const od = c.drive - vt(c, dvth);
             if (od > best) best = od;
           }
-          if (best < least) { least = best; state = p.state; }
+          if (best < least) {
+            least = best;
+            state = p.state;
+          }
         }
-        checks.push(least >= 0
-          ? { kind: 'on-state', subject: names.subject, name: names.on, margin: least, pass: true, switch: plan.name, phase: labels[state] }
-          : { kind: 'on-state', subject: names.subject, name: names.on, margin: least, pass: false, switch: plan.name, phase: labels[state],
-            detail: onDetail(plan, onStateWorst(plan, devices, dvth)!, devices.vdd, this.settings) });
+        checks.push(
+          least >= 0
+            ? {
+                kind: 'on-state',
+                subject: names.subject,
+                name: names.on,
+                margin: least,
+                pass: true,
+                switch: plan.name,
+                phase: labels[state],
+              }
+            : {
+                kind: 'on-state',
+                subject: names.subject,
+                name: names.on,
+                margin: least,
+                pass: false,
+                switch: plan.name,
+                phase: labels[state],
+                detail: onDetail(plan, onStateWorst(plan, devices, dvth)!, devices.vdd, this.settings),
+              },
+        );
       }
       checks.push(f.stress);
     }

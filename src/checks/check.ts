@@ -25,7 +25,13 @@ export type CheckKind =
 export const VOLTAGE_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['off-state', 'on-state', 'stress']);
 
 /** Checks on the circuit the switches serve: margins in V (output, ripple), a fraction (efficiency) or C (lost charge). */
-export const CIRCUIT_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['output-min', 'output-max', 'ripple-max', 'efficiency-min', 'lost-charge-max']);
+export const CIRCUIT_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>([
+  'output-min',
+  'output-max',
+  'ripple-max',
+  'efficiency-min',
+  'lost-charge-max',
+]);
 
 /** Unit of a check's margin ('' for a fraction). */
 export function marginUnit(kind: CheckKind | string): 's' | 'V' | 'C' | '' {
@@ -55,7 +61,12 @@ export type CheckSubject =
    * Dead times, by index into the measurement's `deadTimes`: at the 50 % points (`t50`) or between
    * the gap-level crossings (`gap`). `limit` is the requirement, s (null for non-overlap, whose limit is 0).
    */
-  | { readonly type: 'dead-time'; readonly deadTimes: readonly DeadTimeIndex[]; readonly level: 't50' | 'gap'; readonly limit: number | null }
+  | {
+      readonly type: 'dead-time';
+      readonly deadTimes: readonly DeadTimeIndex[];
+      readonly level: 't50' | 'gap';
+      readonly limit: number | null;
+    }
   /** A phase's (or early phase's) active width at the worst duty; `limit` s. */
   | { readonly type: 'width'; readonly net: string; readonly limit: number }
   /**
@@ -64,10 +75,14 @@ export type CheckSubject =
    * name drawings use; `requirement` the rule in words; `named` whether the user named the constraint.
    */
   | {
-    readonly type: 'switch-events'; readonly constraint: 'break-before-make' | 'order';
-    readonly handovers: ReadonlyArray<{ readonly first: SwitchEvent; readonly then: SwitchEvent }>;
-    readonly min: number; readonly label: string; readonly requirement: string; readonly named: boolean;
-  }
+      readonly type: 'switch-events';
+      readonly constraint: 'break-before-make' | 'order';
+      readonly handovers: ReadonlyArray<{ readonly first: SwitchEvent; readonly then: SwitchEvent }>;
+      readonly min: number;
+      readonly label: string;
+      readonly requirement: string;
+      readonly named: boolean;
+    }
   /** A series path that must conduct long enough to settle; `derating` s is taken off its window for the input duty error. */
   | { readonly type: 'settle'; readonly path: string; readonly switches: readonly string[]; readonly derating: number }
   /**
@@ -129,6 +144,6 @@ export function checkData(check: Check): CheckData {
  */
 export function compareChecks(a: Pick<Check, 'kind' | 'margin' | 'pass'>, b: Pick<Check, 'kind' | 'margin' | 'pass'>): number {
   const tier = (c: Pick<Check, 'kind' | 'margin' | 'pass'>) =>
-    (c.margin === null ? 0 : VOLTAGE_KINDS.has(c.kind) || CIRCUIT_KINDS.has(c.kind) ? (c.pass ? 3 : 1) : 2);
+    c.margin === null ? 0 : VOLTAGE_KINDS.has(c.kind) || CIRCUIT_KINDS.has(c.kind) ? (c.pass ? 3 : 1) : 2;
   return tier(a) - tier(b) || (a.margin ?? 0) - (b.margin ?? 0);
 }

@@ -49,7 +49,14 @@ export function circuitChecks(c: CornerCircuit, req: CircuitRequirements, names:
   const add = (kind: CheckKind, subject: CheckSubject, name: string | undefined, margin: number | null) => {
     if (name === undefined) return;
     if (!settled || margin === null || !Number.isFinite(margin)) {
-      out.push({ kind, subject, name, margin: null, pass: false, detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state' });
+      out.push({
+        kind,
+        subject,
+        name,
+        margin: null,
+        pass: false,
+        detail: settled ? 'the figure could not be computed' : 'the circuit reached no periodic steady state',
+      });
     } else out.push({ kind, subject, name, margin, pass: margin >= 0 });
   };
   // The heavier load pulls the output towards ground: a positive output's minimum and a negative one's maximum are checked there.
@@ -57,6 +64,7 @@ export function circuitChecks(c: CornerCircuit, req: CircuitRequirements, names:
   if (req.output?.min) add('output-min', SUBJECTS.output, names.outputMin, low - levelAt(req.output.min, vdd));
   if (req.output?.max) add('output-max', SUBJECTS.output, names.outputMax, levelAt(req.output.max, vdd) - high);
   if (req.ripple) add('ripple-max', SUBJECTS.ripple, names.ripple, req.ripple.max - c.ripple);
-  if (req.efficiency) add('efficiency-min', SUBJECTS.efficiency, names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
+  if (req.efficiency)
+    add('efficiency-min', SUBJECTS.efficiency, names.efficiency, c.efficiency === null ? null : c.efficiency - req.efficiency.min);
   if (req.lostCharge) add('lost-charge-max', SUBJECTS['lost-charge'], names.lostCharge, req.lostCharge.max - c.lostCharge);
 }

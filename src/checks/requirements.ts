@@ -43,9 +43,16 @@ export interface RequirementSubjects {
 }
 
 function requirementSubjects(req: Requirements, widthNets: readonly string[]): RequirementSubjects {
-  const one = (k: DeadTimeIndex, level: 't50' | 'gap', limit: number | undefined): CheckSubject =>
-    ({ type: 'dead-time', deadTimes: [k], level, limit: limit ?? null });
-  const pair = (level: 't50' | 'gap', limit: number | undefined): [CheckSubject, CheckSubject] => [one(0, level, limit), one(1, level, limit)];
+  const one = (k: DeadTimeIndex, level: 't50' | 'gap', limit: number | undefined): CheckSubject => ({
+    type: 'dead-time',
+    deadTimes: [k],
+    level,
+    limit: limit ?? null,
+  });
+  const pair = (level: 't50' | 'gap', limit: number | undefined): [CheckSubject, CheckSubject] => [
+    one(0, level, limit),
+    one(1, level, limit),
+  ];
   return {
     steadyState: { type: 'generator' },
     overlap: { type: 'dead-time', deadTimes: [0, 1], level: 'gap', limit: null },
@@ -59,8 +66,10 @@ function requirementSubjects(req: Requirements, widthNets: readonly string[]): R
 export function requirementLabels(req: Requirements, phases: readonly [string, string], widthNets: readonly string[]): RequirementLabels {
   const show = (v: number | undefined) => (v === undefined ? '' : formatTime(v));
   const [a, b] = phases;
-  const pair = (what: string, op: string, v: number | undefined): [string, string] =>
-    [`${what} ${a}->${b} ${op} ${show(v)}`, `${what} ${b}->${a} ${op} ${show(v)}`];
+  const pair = (what: string, op: string, v: number | undefined): [string, string] => [
+    `${what} ${a}->${b} ${op} ${show(v)}`,
+    `${what} ${b}->${a} ${op} ${show(v)}`,
+  ];
   return {
     deadMin: pair('dead', '>=', req.deadTime?.min),
     deadMax: pair('dead', '<=', req.deadTime?.max),
@@ -71,14 +80,23 @@ export function requirementLabels(req: Requirements, phases: readonly [string, s
   };
 }
 
-export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req: Requirements, context: WidthContext,
-  labels: RequirementLabels): Check[] {
+export function requirementChecks(
+  m: PhaseMeasurement | MeasurementFailure,
+  req: Requirements,
+  context: WidthContext,
+  labels: RequirementLabels,
+): Check[] {
   const subjects = labels.subjects;
-  if (!m.ok) return [{ kind: 'steady-state', subject: subjects.steadyState, name: 'periodic steady state', margin: null, pass: false, detail: m.reason }];
+  if (!m.ok)
+    return [
+      { kind: 'steady-state', subject: subjects.steadyState, name: 'periodic steady state', margin: null, pass: false, detail: m.reason },
+    ];
   const checks: Check[] = [];
   const [first, second] = m.deadTimes;
-  checks.push({ ...marginCheck('non-overlap', subjects.overlap, labels.overlap, Math.min(first.gapBound, second.gapBound)),
-    parts: [{ margin: first.gapBound }, { margin: second.gapBound }] });
+  checks.push({
+    ...marginCheck('non-overlap', subjects.overlap, labels.overlap, Math.min(first.gapBound, second.gapBound)),
+    parts: [{ margin: first.gapBound }, { margin: second.gapBound }],
+  });
   const min = req.deadTime?.min;
   const max = req.deadTime?.max;
   const gap = req.gap?.min;
@@ -92,7 +110,9 @@ export function requirementChecks(m: PhaseMeasurement | MeasurementFailure, req:
   if (minWidth !== undefined) {
     for (const phase in m.widths) {
       const subject = subjects.widthMin.get(phase) ?? { type: 'width', net: phase, limit: minWidth };
-      checks.push(marginCheck('width-min', subject, labels.widthMin[phase] ?? `width ${phase}`, worstWidth(m.widths[phase]!, context) - minWidth));
+      checks.push(
+        marginCheck('width-min', subject, labels.widthMin[phase] ?? `width ${phase}`, worstWidth(m.widths[phase]!, context) - minWidth),
+      );
     }
   }
   return checks;

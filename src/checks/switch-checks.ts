@@ -10,7 +10,6 @@ import type { Check, CheckSubject } from './check.js';
 import { handover } from '../measure/phases.js';
 import { wrapTime } from '../measure/wrap-time.js';
 
-
 /**
  * Time from `a` stopping to `b` starting, s: positive when b starts while a is off, minus the
  * overlap when b starts while a is still on.
@@ -28,7 +27,11 @@ function unmeasurable(kind: Check['kind'], subject: CheckSubject, name: string, 
  * The time every switch of a series path conducts together, s, from its latest common turn-on to
  * its earliest turn-off, less `derating`; and the path's worst on-resistance, ohm.
  */
-export function settleWindow(members: readonly SwitchConduction[], period: number, derating = 0): { start: number; end: number; window: number; resistance: number } {
+export function settleWindow(
+  members: readonly SwitchConduction[],
+  period: number,
+  derating = 0,
+): { start: number; end: number; window: number; resistance: number } {
   const ref = members[0]!.onLatest;
   let start = -Infinity;
   let end = Infinity;
@@ -64,8 +67,9 @@ export function switchCheckNames(constraints: ConstraintsSpec, defaultGuard: num
   return [
     ...constraints.breakBeforeMake.map((bbm) => bbm.name ?? bbmRequirement(bbm, bbm.guard ?? defaultGuard)),
     ...constraints.order.map((o) => o.name ?? orderRequirement(o)),
-    ...constraints.settle.map((path) =>
-      `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${path.error ?? bitsToError(path.bits!)}`}`),
+    ...constraints.settle.map(
+      (path) => `${path.name} settles to ${path.bits !== undefined ? `${path.bits} bits` : `${path.error ?? bitsToError(path.bits!)}`}`,
+    ),
   ];
 }
 
@@ -82,15 +86,29 @@ export function switchCheckLabels(constraints: ConstraintsSpec, defaultGuard: nu
       const [a, b] = bbm.between;
       const guard = bbm.guard ?? defaultGuard;
       return {
-        type: 'switch-events', constraint: 'break-before-make', min: guard,
-        handovers: [{ first: { switch: a, event: 'off' }, then: { switch: b, event: 'on' } }, { first: { switch: b, event: 'off' }, then: { switch: a, event: 'on' } }],
-        label: bbm.name ?? `${a}/${b}`, requirement: bbmRequirement(bbm, guard), named: bbm.name !== undefined,
+        type: 'switch-events',
+        constraint: 'break-before-make',
+        min: guard,
+        handovers: [
+          { first: { switch: a, event: 'off' }, then: { switch: b, event: 'on' } },
+          { first: { switch: b, event: 'off' }, then: { switch: a, event: 'on' } },
+        ],
+        label: bbm.name ?? `${a}/${b}`,
+        requirement: bbmRequirement(bbm, guard),
+        named: bbm.name !== undefined,
       };
     }),
-    ...constraints.order.map((o, k): CheckSubject => ({
-      type: 'switch-events', constraint: 'order', min: o.min, handovers: [{ first: o.first, then: o.then }],
-      label: o.name ?? `order ${k + 1}`, requirement: orderRequirement(o), named: o.name !== undefined,
-    })),
+    ...constraints.order.map(
+      (o, k): CheckSubject => ({
+        type: 'switch-events',
+        constraint: 'order',
+        min: o.min,
+        handovers: [{ first: o.first, then: o.then }],
+        label: o.name ?? `order ${k + 1}`,
+        requirement: orderRequirement(o),
+        named: o.name !== undefined,
+      }),
+    ),
     ...constraints.settle.map((path): CheckSubject => ({ type: 'settle', path: path.name, switches: path.switches, derating })),
   ];
   return { names: switchCheckNames(constraints, defaultGuard), subjects };
@@ -124,14 +142,24 @@ export function appendSwitchChecks(setup: SwitchCheckSetup, get: (name: string) 
     const subject = subjects[slot]!;
     const name = names[slot++]!;
     const bad = unmeasurable('break-before-make', subject, name, [a, b]);
-    if (bad) { checks.push(bad); continue; }
+    if (bad) {
+      checks.push(bad);
+      continue;
+    }
     const ab = handoverGap(a, b, period);
     const ba = handoverGap(b, a, period);
     const margin = Math.min(ab, ba) - guard;
-    checks.push({ kind: 'break-before-make', subject, name, margin, pass: margin >= 0, parts: [
-      { margin: ab - guard, start: a.off, span: ab, need: guard },
-      { margin: ba - guard, start: b.off, span: ba, need: guard },
-    ] });
+    checks.push({
+      kind: 'break-before-make',
+      subject,
+      name,
+      margin,
+      pass: margin >= 0,
+      parts: [
+        { margin: ab - guard, start: a.off, span: ab, need: guard },
+        { margin: ba - guard, start: b.off, span: ba, need: guard },
+      ],
+    });
   }
   for (const order of constraints.order) {
     const first = get(order.first.switch);
@@ -139,7 +167,10 @@ export function appendSwitchChecks(setup: SwitchCheckSetup, get: (name: string) 
     const subject = subjects[slot]!;
     const name = names[slot++]!;
     const bad = unmeasurable('order', subject, name, [first, then]);
-    if (bad) { checks.push(bad); continue; }
+    if (bad) {
+      checks.push(bad);
+      continue;
+    }
     // Worst case: the first event as late as it gets, the second as early.
     const tFirst = order.first.event === 'on' ? first.onLatest : first.off;
     const tThen = order.then.event === 'on' ? then.on : then.offEarliest;
@@ -152,13 +183,25 @@ export function appendSwitchChecks(setup: SwitchCheckSetup, get: (name: string) 
     const subject = subjects[slot]!;
     const name = names[slot++]!;
     const bad = unmeasurable('settle', subject, name, members);
-    if (bad) { checks.push(bad); continue; }
+    if (bad) {
+      checks.push(bad);
+      continue;
+    }
     const { start, end, window, resistance } = settleWindow(members, period, windowDerating);
     const needed = settleTime(path, resistance);
     const margin = window - needed;
-    checks.push(Number.isFinite(margin)
-      ? { kind: 'settle', subject, name, margin, pass: margin >= 0, parts: [{ margin, start, span: end - start, need: needed }] }
-      : { kind: 'settle', subject, name, margin: null, pass: false, detail: `a switch of ${path.name} cannot conduct at some signal level (infinite on-resistance)` });
+    checks.push(
+      Number.isFinite(margin)
+        ? { kind: 'settle', subject, name, margin, pass: margin >= 0, parts: [{ margin, start, span: end - start, need: needed }] }
+        : {
+            kind: 'settle',
+            subject,
+            name,
+            margin: null,
+            pass: false,
+            detail: `a switch of ${path.name} cannot conduct at some signal level (infinite on-resistance)`,
+          },
+    );
   }
   return checks;
 }

@@ -41,7 +41,10 @@ export function chooseSegments(model: CircuitModel, interval: number, v: ArrayLi
   const channels = model.channels;
   for (let i = 0; i < channels.length; i++) {
     const c = channels[i]!;
-    if (on[c.switchIndex] === 1) { out[i] = 0; continue; }
+    if (on[c.switchIndex] === 1) {
+      out[i] = 0;
+      continue;
+    }
     const va = v[c.a]!;
     const vb = v[c.b]!;
     if (c.polarity === 'p') {
@@ -73,20 +76,57 @@ export function branchesFor(model: CircuitModel, interval: number, segments: Uin
     if (seg === 0) return;
     const source = seg === 1 ? c.a : c.b;
     const drain = seg === 1 ? c.b : c.a;
-    if (c.polarity === 'p') branches.push({ f: source, t: drain, j1: source, c1: c.g, j2: -1, c2: 0, k: -c.g * (c.gate + c.vt), tag: CHANNEL, part: i, segment: seg });
-    else branches.push({ f: drain, t: source, j1: source, c1: -c.g, j2: -1, c2: 0, k: c.g * (c.gate - c.vt), tag: CHANNEL, part: i, segment: seg });
+    if (c.polarity === 'p')
+      branches.push({
+        f: source,
+        t: drain,
+        j1: source,
+        c1: c.g,
+        j2: -1,
+        c2: 0,
+        k: -c.g * (c.gate + c.vt),
+        tag: CHANNEL,
+        part: i,
+        segment: seg,
+      });
+    else
+      branches.push({
+        f: drain,
+        t: source,
+        j1: source,
+        c1: -c.g,
+        j2: -1,
+        c2: 0,
+        k: c.g * (c.gate - c.vt),
+        tag: CHANNEL,
+        part: i,
+        segment: seg,
+      });
   });
   const base = model.channels.length;
   model.diodes.forEach((d, i) => {
     const seg = segments[base + i]!;
     const g = seg === 1 ? d.gOn : d.gOff;
-    if (g > 0) branches.push({ f: d.a, t: d.b, j1: d.a, c1: g, j2: d.b, c2: -g, k: seg === 1 ? -g * d.drop : 0, tag: DIODE, part: i, segment: seg });
+    if (g > 0)
+      branches.push({ f: d.a, t: d.b, j1: d.a, c1: g, j2: d.b, c2: -g, k: seg === 1 ? -g * d.drop : 0, tag: DIODE, part: i, segment: seg });
   });
   const ground = model.nodes.length;
   if (model.loadConductance > 0) {
-    branches.push({ f: model.output, t: ground, j1: model.output, c1: model.loadConductance, j2: -1, c2: 0, k: 0, tag: LOAD, part: 0, segment: 0 });
+    branches.push({
+      f: model.output,
+      t: ground,
+      j1: model.output,
+      c1: model.loadConductance,
+      j2: -1,
+      c2: 0,
+      k: 0,
+      tag: LOAD,
+      part: 0,
+      segment: 0,
+    });
   }
-  if (model.loadCurrent !== 0) branches.push({ f: model.output, t: ground, j1: -1, c1: 0, j2: -1, c2: 0, k: model.loadCurrent, tag: LOAD, part: 1, segment: 0 });
+  if (model.loadCurrent !== 0)
+    branches.push({ f: model.output, t: ground, j1: -1, c1: 0, j2: -1, c2: 0, k: model.loadCurrent, tag: LOAD, part: 1, segment: 0 });
   return branches;
 }
 

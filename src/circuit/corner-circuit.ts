@@ -44,16 +44,31 @@ export function generatorEnergy(netLoads: ArrayLike<number>, plans: readonly Swi
 export class CircuitEvaluator {
   readonly network: CircuitNetwork;
 
-  constructor(design: Design, private readonly plans: readonly SwitchPlan[], private readonly card: ProcessCard,
-    private readonly netLoads: ArrayLike<number>, private readonly period: number) {
+  constructor(
+    design: Design,
+    private readonly plans: readonly SwitchPlan[],
+    private readonly card: ProcessCard,
+    private readonly netLoads: ArrayLike<number>,
+    private readonly period: number,
+  ) {
     this.network = buildNetwork(design, plans);
   }
 
   /** `drive` sets the switches' on-resistance (the devices R_on is calibrated on, mismatch); by default `devices`. */
-  evaluate(conduction: readonly SwitchConduction[], cycles: CycleIndex, devices: CornerDevices, drive: SwitchDrive = { devices }): CornerCircuit {
+  evaluate(
+    conduction: readonly SwitchConduction[],
+    cycles: CycleIndex,
+    devices: CornerDevices,
+    drive: SwitchDrive = { devices },
+  ): CornerCircuit {
     const net = this.network;
     const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period, drive);
-    const figures = circuitFigures(model, net.load, generatorEnergy(this.netLoads, this.plans, this.card, devices.vdd), net.spec.startupCycles);
+    const figures = circuitFigures(
+      model,
+      net.load,
+      generatorEnergy(this.netLoads, this.plans, this.card, devices.vdd),
+      net.spec.startupCycles,
+    );
     const sameLoad = net.lightLoad.current === net.load.current && net.lightLoad.conductance === net.load.conductance;
     const sign = figures.output < 0 ? -1 : 1;
     const bound = sign > 0 ? net.spec.requirements.output?.max : net.spec.requirements.output?.min;

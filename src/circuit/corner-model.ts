@@ -17,7 +17,10 @@ import type { SwitchPlan } from '../switches/plan.js';
 import type { CircuitModel, ModelChannel, ModelInterval, ModelSwitch } from './model.js';
 import type { CircuitNetwork } from './network.js';
 
-interface Window { readonly on: number; readonly off: number }
+interface Window {
+  readonly on: number;
+  readonly off: number;
+}
 
 function wrap(t: number, period: number): number {
   const x = t % period;
@@ -46,7 +49,11 @@ export interface SwitchDrive {
 }
 
 /** Conductance of a switch's devices in parallel with n sources at nSource and p sources at pSource, S. */
-export function onConductanceOf(plan: SwitchPlan, drive: SwitchDrive, dvth: ArrayLike<number> | undefined): (nSource: number, pSource: number) => number {
+export function onConductanceOf(
+  plan: SwitchPlan,
+  drive: SwitchDrive,
+  dvth: ArrayLike<number> | undefined,
+): (nSource: number, pSource: number) => number {
   return (nSource, pSource) => {
     let g = 0;
     plan.devices.forEach((device, i) => {
@@ -57,8 +64,15 @@ export function onConductanceOf(plan: SwitchPlan, drive: SwitchDrive, dvth: Arra
   };
 }
 
-export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[], conduction: readonly SwitchConduction[],
-  cycles: CycleIndex, devices: CornerDevices, period: number, drive: SwitchDrive = { devices }): CircuitModel {
+export function cornerModel(
+  network: CircuitNetwork,
+  plans: readonly SwitchPlan[],
+  conduction: readonly SwitchConduction[],
+  cycles: CycleIndex,
+  devices: CornerDevices,
+  period: number,
+  drive: SwitchDrive = { devices },
+): CircuitModel {
   const vdd = devices.vdd;
   const windows: (Window | null)[] = [];
   const switches: ModelSwitch[] = [];
@@ -90,10 +104,18 @@ export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[
     });
     windows.push(window);
     const onConductance = c?.status === 'switching' ? onConductanceOf(plan, drive, drive.dvth?.[k]) : undefined;
-    switches.push(onConductance ? { name: plan.name, a, b, gOn, gOff: network.switchLeak, onConductance } : { name: plan.name, a, b, gOn, gOff: network.switchLeak });
+    switches.push(
+      onConductance
+        ? { name: plan.name, a, b, gOn, gOff: network.switchLeak, onConductance }
+        : { name: plan.name, a, b, gOn, gOff: network.switchLeak },
+    );
   });
   const events = new Set<number>();
-  for (const w of windows) if (w) { events.add(wrap(w.on, period)); events.add(wrap(w.off, period)); }
+  for (const w of windows)
+    if (w) {
+      events.add(wrap(w.on, period));
+      events.add(wrap(w.off, period));
+    }
   const times = [...events].sort((x, y) => x - y);
   if (times.length === 0) times.push(0);
   const intervals: ModelInterval[] = times.map((t, i) => {
@@ -105,7 +127,14 @@ export function cornerModel(network: CircuitNetwork, plans: readonly SwitchPlan[
     nodes: network.nodes,
     rails: Float64Array.from(network.railLevels, (l) => levelAt(l, vdd)),
     inverseCapacitance: network.inverseCapacitance,
-    intervals, start: times[0]!, switches, channels,
-    diodes: network.diodes, pairs: network.pairs, output: network.output, loadCurrent: 0, loadConductance: 0,
+    intervals,
+    start: times[0]!,
+    switches,
+    channels,
+    diodes: network.diodes,
+    pairs: network.pairs,
+    output: network.output,
+    loadCurrent: 0,
+    loadConductance: 0,
   };
 }

@@ -61,7 +61,10 @@ const scratchBySize = new Map<number, Scratch>();
 /** e^(a t) for a row-major m x m matrix `a`, written into `out` (row-major). */
 export function expm(a: Float64Array, m: number, t: number, out: Float64Array): Float64Array {
   let s = scratchBySize.get(m);
-  if (!s) { s = new Scratch(m); scratchBySize.set(m, s); }
+  if (!s) {
+    s = new Scratch(m);
+    scratchBySize.set(m, s);
+  }
   const size = m * m;
   const norm = infinityNorm(a, m) * t;
   const j = norm > 0.5 ? Math.max(0, Math.ceil(Math.log2(norm / 0.5))) : 0;

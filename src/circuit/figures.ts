@@ -134,7 +134,8 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
   const generatorPower = generatorEnergy / period;
   const drawn = inputPower + generatorPower;
   // Without a steady state there is nothing to start up to.
-  const up = loaded.state.method === 'none' ? { cycles: null } : startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
+  const up =
+    loaded.state.method === 'none' ? { cycles: null } : startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
   return {
     method: loaded.state.method,
     output: t.outputMean,
@@ -145,7 +146,10 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
     slowLimit: hasLoad ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
     // The fast-switching limit keeps the switches' resistance of the real steady state (none
     // without one): grown capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
-    fastLimit: hasLoad && loaded.state.method !== 'none' ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r : null,
+    fastLimit:
+      hasLoad && loaded.state.method !== 'none'
+        ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r
+        : null,
     inputPower,
     outputPower,
     generatorPower,

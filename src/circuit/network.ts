@@ -56,16 +56,31 @@ export function buildNetwork(design: Design, plans: readonly SwitchPlan[]): Circ
   const nodeIndex = new Map<string, number>();
   const railIndex = new Map<string, number>([['0V', 0]]);
   const declared = design.nodes as Readonly<Record<string, unknown>>;
-  const all = [spec.output, ...spec.capacitors.flatMap((c) => c.between), ...spec.diodes.flatMap((d) => [d.anode, d.cathode]),
-    ...design.switches.flatMap((s) => s.terminals ?? [])];
+  const all = [
+    spec.output,
+    ...spec.capacitors.flatMap((c) => c.between),
+    ...spec.diodes.flatMap((d) => [d.anode, d.cathode]),
+    ...design.switches.flatMap((s) => s.terminals ?? []),
+  ];
   for (const raw of all) {
     const ref = classifyTerminal(raw, declared, spec.rails);
-    if (ref.kind === 'node' && !nodeIndex.has(ref.name)) { nodeIndex.set(ref.name, nodes.length); nodes.push(ref.name); }
+    if (ref.kind === 'node' && !nodeIndex.has(ref.name)) {
+      nodeIndex.set(ref.name, nodes.length);
+      nodes.push(ref.name);
+    }
   }
   const railOf = (name: string, raw: string | number): number => {
-    const level = Object.hasOwn(spec.rails, name) ? spec.rails[name]! : Object.hasOwn(declared, name) ? declared[name] as Level : parseLevel(raw)!;
+    const level = Object.hasOwn(spec.rails, name)
+      ? spec.rails[name]!
+      : Object.hasOwn(declared, name)
+        ? (declared[name] as Level)
+        : parseLevel(raw)!;
     const key = level.scale === 0 && level.offset === 0 ? '0V' : name;
-    if (!railIndex.has(key)) { railIndex.set(key, railNames.length); railNames.push(key); railLevels.push(level); }
+    if (!railIndex.has(key)) {
+      railIndex.set(key, railNames.length);
+      railNames.push(key);
+      railLevels.push(level);
+    }
     return railIndex.get(key)!;
   };
   const n = nodes.length;
@@ -84,12 +99,31 @@ export function buildNetwork(design: Design, plans: readonly SwitchPlan[]): Circ
   // Every circuit node has its own capacitance to ground, so the matrix is positive definite.
   const inverseCapacitance = invertCapacitance(capacitanceMatrix(n, caps), n)!;
   const switchTerminals = design.switches.map((s) => [index(s.terminals![0]), index(s.terminals![1])] as const);
-  const diodes = spec.diodes.map((d) => ({ name: d.name, a: index(d.anode), b: index(d.cathode), drop: d.drop, gOn: 1 / d.resistance, gOff: d.leakage }));
+  const diodes = spec.diodes.map((d) => ({
+    name: d.name,
+    a: index(d.anode),
+    b: index(d.cathode),
+    drop: d.drop,
+    gOn: 1 / d.resistance,
+    gOff: d.leakage,
+  }));
   const planIndex = new Map(plans.map((p, i) => [p.name, i]));
   const pairs = design.constraints.breakBeforeMake
     .map((c) => [planIndex.get(c.between[0]), planIndex.get(c.between[1])] as const)
     .filter((p): p is readonly [number, number] => p[0] !== undefined && p[1] !== undefined);
   const { heavy, light } = loadEnds(spec.load);
-  return { spec, nodes, railNames, railLevels, inverseCapacitance, switchTerminals, diodes, output: nodeIndex.get(spec.output)!,
-    load: heavy, lightLoad: light, pairs, switchLeak: spec.switchLeakage };
+  return {
+    spec,
+    nodes,
+    railNames,
+    railLevels,
+    inverseCapacitance,
+    switchTerminals,
+    diodes,
+    output: nodeIndex.get(spec.output)!,
+    load: heavy,
+    lightLoad: light,
+    pairs,
+    switchLeak: spec.switchLeakage,
+  };
 }

@@ -54,21 +54,25 @@ export function intervalConductances(solver: PeriodSolver, trace: PeriodTrace): 
       }
     }
   }
-  return model.intervals.map((iv, i) => Float64Array.from(model.switches, (sw, s) => {
-    const lo = nSource[i]![s]!;
-    if (sw.onConductance && iv.on[s] === 1 && Number.isFinite(lo)) return sw.onConductance(lo, pSource[i]![s]!);
-    return iv.g ? iv.g[s]! : sw.gOn;
-  }));
+  return model.intervals.map((iv, i) =>
+    Float64Array.from(model.switches, (sw, s) => {
+      const lo = nSource[i]![s]!;
+      if (sw.onConductance && iv.on[s] === 1 && Number.isFinite(lo)) return sw.onConductance(lo, pSource[i]![s]!);
+      return iv.g ? iv.g[s]! : sw.gOn;
+    }),
+  );
 }
 
 function agree(model: CircuitModel, g: readonly Float64Array[]): boolean {
-  return model.intervals.every((iv, i) => iv.on.every((on, s) => {
-    if (on !== 1) return true;
-    const before = iv.g ? iv.g[s]! : model.switches[s]!.gOn;
-    const after = g[i]![s]!;
-    if (before === 0 || after === 0) return before === after;
-    return Math.abs(after - before) <= DRIVE_TOLERANCE * Math.max(before, after);
-  }));
+  return model.intervals.every((iv, i) =>
+    iv.on.every((on, s) => {
+      if (on !== 1) return true;
+      const before = iv.g ? iv.g[s]! : model.switches[s]!.gOn;
+      const after = g[i]![s]!;
+      if (before === 0 || after === 0) return before === after;
+      return Math.abs(after - before) <= DRIVE_TOLERANCE * Math.max(before, after);
+    }),
+  );
 }
 
 /** The model with each switch's conductance fixed where it stands (per interval, if evaluated): nothing is re-evaluated. */

@@ -62,7 +62,10 @@ export class PeriodSolver {
     const lengths: number[] = [];
     model.intervals.forEach((iv, i) => {
       if (!(iv.duration > 0)) return;
-      for (let k = 0; k < SUBSTEPS; k++) { intervals.push(i); lengths.push(iv.duration / SUBSTEPS); }
+      for (let k = 0; k < SUBSTEPS; k++) {
+        intervals.push(i);
+        lengths.push(iv.duration / SUBSTEPS);
+      }
     });
     this.substepInterval = Int32Array.from(intervals);
     this.substepLength = Float64Array.from(lengths);
@@ -178,7 +181,10 @@ export class PeriodSolver {
         this.step(m, end);
         this.decide(k, end, this.endSegments);
         for (let i = 0; i < this.pwl; i++) {
-          if (out[i] === 0 && this.endSegments[i] !== 0) { out[i] = this.endSegments[i]!; changed = true; }
+          if (out[i] === 0 && this.endSegments[i] !== 0) {
+            out[i] = this.endSegments[i]!;
+            changed = true;
+          }
         }
       }
       if (!changed) break;

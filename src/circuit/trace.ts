@@ -70,13 +70,23 @@ export function tracePeriod(solver: PeriodSolver, x0: Float64Array, segments: re
     outIntegral += integrals[out]!;
     // A current load's energy is exact; a resistive load's uses the trapezoid of V^2 over the substep.
     const vEnd = x[out]!;
-    loadEnergy += model.loadCurrent * integrals[out]! + (model.loadConductance * (vStart * vStart + vEnd * vEnd) / 2) * m.h;
+    loadEnergy += model.loadCurrent * integrals[out]! + ((model.loadConductance * (vStart * vStart + vEnd * vEnd)) / 2) * m.h;
     times[k + 1] = times[k]! + m.h;
     voltages.set(x, (k + 1) * n);
     if (vEnd < outMin) outMin = vEnd;
     if (vEnd > outMax) outMax = vEnd;
   }
   const period = times[count]!;
-  return { times, voltages, outputMean: outIntegral / period, outputMin: outMin, outputMax: outMax, railCharge, loadCharge, loadEnergy,
-    reverseCharge: reverse, shootThroughCharge: shoot };
+  return {
+    times,
+    voltages,
+    outputMean: outIntegral / period,
+    outputMin: outMin,
+    outputMax: outMax,
+    railCharge,
+    loadCharge,
+    loadEnergy,
+    reverseCharge: reverse,
+    shootThroughCharge: shoot,
+  };
 }

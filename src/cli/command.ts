@@ -40,8 +40,11 @@ export interface ArgumentSpec {
   readonly help: string;
 }
 
-export type Handler<S extends OptionSpecs, A extends readonly ArgumentSpec[]> =
-  (io: Io, args: { readonly [K in keyof A]: string }, options: CommandOptions<S>) => number | Promise<number>;
+export type Handler<S extends OptionSpecs, A extends readonly ArgumentSpec[]> = (
+  io: Io,
+  args: { readonly [K in keyof A]: string },
+  options: CommandOptions<S>,
+) => number | Promise<number>;
 
 export interface CommandDefinition<S extends OptionSpecs, A extends readonly ArgumentSpec[]> {
   readonly name: string;
@@ -62,21 +65,41 @@ export interface AnyCommand {
   readonly run: (io: Io, args: readonly string[], options: Readonly<Record<string, unknown>>) => number | Promise<number>;
 }
 
-export function defineCommand<const S extends OptionSpecs, const A extends readonly ArgumentSpec[]>(definition: CommandDefinition<S, A>): AnyCommand {
+export function defineCommand<const S extends OptionSpecs, const A extends readonly ArgumentSpec[]>(
+  definition: CommandDefinition<S, A>,
+): AnyCommand {
   return definition as unknown as AnyCommand;
 }
 
 /** An option whose text is used as given: `undefined` when absent, or its shown `default`. */
 export function textOption(flags: string, help: string): OptionSpec<string | undefined>;
-export function textOption(flags: string, help: string, extra: { readonly default: string; readonly choices?: readonly string[] }): OptionSpec<string>;
-export function textOption(flags: string, help: string, extra?: { readonly default: string; readonly choices?: readonly string[] }): OptionSpec<string | undefined> {
+export function textOption(
+  flags: string,
+  help: string,
+  extra: { readonly default: string; readonly choices?: readonly string[] },
+): OptionSpec<string>;
+export function textOption(
+  flags: string,
+  help: string,
+  extra?: { readonly default: string; readonly choices?: readonly string[] },
+): OptionSpec<string | undefined> {
   return { flags, help, ...extra };
 }
 
 /** An option read by `parse`: `undefined` when absent unless it has a `fallback` or a shown `default`. */
 export function parsedOption<V>(flags: string, help: string, parse: OptionParser<V>): OptionSpec<V | undefined>;
-export function parsedOption<V>(flags: string, help: string, parse: OptionParser<V>, extra: { readonly fallback: V } | { readonly default: string }): OptionSpec<V>;
-export function parsedOption<V>(flags: string, help: string, parse: OptionParser<V>, extra?: { readonly fallback: V } | { readonly default: string }): OptionSpec<V | undefined> {
+export function parsedOption<V>(
+  flags: string,
+  help: string,
+  parse: OptionParser<V>,
+  extra: { readonly fallback: V } | { readonly default: string },
+): OptionSpec<V>;
+export function parsedOption<V>(
+  flags: string,
+  help: string,
+  parse: OptionParser<V>,
+  extra?: { readonly fallback: V } | { readonly default: string },
+): OptionSpec<V | undefined> {
   return { flags, help, parse, ...extra };
 }
 

@@ -9,13 +9,19 @@ import { MAX_SEED, MAX_WORKERS } from './run-limits.js';
 
 /** On the program itself, read by every command that loads a design. */
 export const GLOBAL_OPTIONS = {
-  model: textOption('--model <KIND>', 'delay model for every command: analytic or table (default: table when the process card names tables)'),
-  tables: textOption('--tables <FILE>', 'delay tables (from phasegap characterize) to use instead of the card\'s; implies --model table'),
+  model: textOption(
+    '--model <KIND>',
+    'delay model for every command: analytic or table (default: table when the process card names tables)',
+  ),
+  tables: textOption('--tables <FILE>', "delay tables (from phasegap characterize) to use instead of the card's; implies --model table"),
 } as const;
 
 export const DESIGN_ARGUMENT: ArgumentSpec = { name: '<DESIGN>', help: 'design file (YAML or JSON)' };
 
-export const SET_OPTION = listOption('--set <PATH=VALUE>', 'override a design value before validation (repeatable), e.g. clock.frequency=40MHz');
+export const SET_OPTION = listOption(
+  '--set <PATH=VALUE>',
+  'override a design value before validation (repeatable), e.g. clock.frequency=40MHz',
+);
 
 export const JUNIT_OPTION = textOption('--junit <FILE>', 'also write the results as JUnit XML for a CI server (one test case per check)');
 
@@ -30,12 +36,18 @@ export function jsonOption(help: string) {
 }
 
 /** ngspice runs at once (confirm, characterize). */
-export const JOBS_OPTION = parsedOption('--jobs <N>', 'simulations at once (default: the number of cores)',
-  wholeNumberIn({ min: 1, max: MAX_WORKERS, noun: 'simulations at once' }), { fallback: defaultParallelism() });
+export const JOBS_OPTION = parsedOption(
+  '--jobs <N>',
+  'simulations at once (default: the number of cores)',
+  wholeNumberIn({ min: 1, max: MAX_WORKERS, noun: 'simulations at once' }),
+  { fallback: defaultParallelism() },
+);
 
 /** Worker threads (mc, sweep); `help` says what does not depend on them. */
 export function workersOption(help: string) {
-  return parsedOption('--workers <K>', help, wholeNumberIn({ min: 1, max: MAX_WORKERS, noun: 'threads' }), { fallback: defaultParallelism() });
+  return parsedOption('--workers <K>', help, wholeNumberIn({ min: 1, max: MAX_WORKERS, noun: 'threads' }), {
+    fallback: defaultParallelism(),
+  });
 }
 
 /** A Monte Carlo seed; absent, the design's montecarlo.seed or 1 applies. */
@@ -43,7 +55,7 @@ export function seedOption(help: string) {
   return parsedOption('--seed <S>', help, wholeNumberIn({ min: 0, max: MAX_SEED }));
 }
 
-export const MODELS_OPTION = textOption('--models <FILE>', 'SPICE model file to include instead of the card\'s spice.models');
+export const MODELS_OPTION = textOption('--models <FILE>', "SPICE model file to include instead of the card's spice.models");
 
 export const NGSPICE_OPTION = textOption('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)');
 

@@ -50,13 +50,25 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
   const simulator = checkSimulator(options.ngspice);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));
   const circuits = options.circuit && resolved.design.circuit ? corners.map((corner) => circuitDeck(resolved, corner, { modelPath })) : [];
-  if (io.stderrIsTTY && !options.quiet) noteTo(io, `simulating ${decks.length} corners${circuits.length > 0 ? ' and their circuit' : ''} with ${simulator}, ${jobs} at a time...`);
-  const all = [...decks.map((d) => ({ name: d.corner.name, text: d.text })), ...circuits.map((d) => ({ name: `${d.corner.name} circuit`, text: d.text }))];
+  if (io.stderrIsTTY && !options.quiet)
+    noteTo(
+      io,
+      `simulating ${decks.length} corners${circuits.length > 0 ? ' and their circuit' : ''} with ${simulator}, ${jobs} at a time...`,
+    );
+  const all = [
+    ...decks.map((d) => ({ name: d.corner.name, text: d.text })),
+    ...circuits.map((d) => ({ name: `${d.corner.name} circuit`, text: d.text })),
+  ];
   const outputs = runDecksWithProgress(io, all, { program: options.ngspice, parallel: jobs }, 'confirm', !options.quiet);
   const comparisons = decks.map((deck, i) => {
     const parsed = parseSimulatorOutput(outputs[i]!.output, [...deck.quantities.map((q) => q.name), ...deck.ron.map((r) => r.name)]);
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-      throw inputError('tool.failed', 'ngspice', deck.corner.name, `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`);
+      throw inputError(
+        'tool.failed',
+        'ngspice',
+        deck.corner.name,
+        `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`,
+      );
     }
     const timing = compareCorner(deck, parsed, tolerance);
     const circuit = circuits[i];

@@ -6,8 +6,13 @@ import { runDecks, type RunOutput } from '../spice/runner.js';
 import type { Io } from './io.js';
 import { progressBar } from './progress.js';
 
-export function runDecksWithProgress(io: Io, decks: ReadonlyArray<{ readonly name: string; readonly text: string }>,
-  options: { readonly program?: string; readonly parallel: number }, label: string, enabled: boolean): RunOutput[] {
+export function runDecksWithProgress(
+  io: Io,
+  decks: ReadonlyArray<{ readonly name: string; readonly text: string }>,
+  options: { readonly program?: string; readonly parallel: number },
+  label: string,
+  enabled: boolean,
+): RunOutput[] {
   const shown = enabled && io.stderrIsTTY;
   const batch = Math.max(1, shown ? options.parallel : decks.length);
   const bar = progressBar(io, decks.length, label, shown);

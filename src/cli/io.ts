@@ -1,5 +1,18 @@
 /** The CLI's only contact with the outside: streams and files, injected so tests never touch the real ones. */
-import { type Stats, closeSync, existsSync, fchmodSync, fstatSync, lstatSync, openSync, readSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import {
+  type Stats,
+  closeSync,
+  existsSync,
+  fchmodSync,
+  fstatSync,
+  lstatSync,
+  openSync,
+  readSync,
+  renameSync,
+  statSync,
+  unlinkSync,
+  writeSync,
+} from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { basename, dirname, join } from 'node:path';
 
@@ -49,7 +62,8 @@ export function readProcessStdin(limit: number): string {
   } catch (error) {
     throw new StdinError(`standard input cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
   }
-  if (stat.isCharacterDevice() && process.stdin.isTTY) throw new StdinError('standard input is a terminal; pipe or redirect a design into it');
+  if (stat.isCharacterDevice() && process.stdin.isTTY)
+    throw new StdinError('standard input is a terminal; pipe or redirect a design into it');
   const chunks: Buffer[] = [];
   let total = 0;
   for (;;) {
@@ -72,7 +86,15 @@ export function readProcessStdin(limit: number): string {
 }
 
 /** What a path names, without following a final symbolic link. */
-export type PathKind = 'absent' | 'regular file' | 'directory' | 'symbolic link' | 'character device' | 'block device' | 'FIFO (named pipe)' | 'socket';
+export type PathKind =
+  | 'absent'
+  | 'regular file'
+  | 'directory'
+  | 'symbolic link'
+  | 'character device'
+  | 'block device'
+  | 'FIFO (named pipe)'
+  | 'socket';
 
 export function pathKind(path: string): PathKind {
   let s: Stats;
@@ -122,7 +144,7 @@ export function openTemp(path: string): { fd: number; temp: string } {
 /** Writes all of `text` to `fd` (a single write may be short). */
 export function writeAll(fd: number, text: string): void {
   const bytes = Buffer.from(text, 'utf8');
-  for (let at = 0; at < bytes.length;) at += writeSync(fd, bytes, at, bytes.length - at);
+  for (let at = 0; at < bytes.length; ) at += writeSync(fd, bytes, at, bytes.length - at);
 }
 
 export function writeFileAtomic(path: string, content: string): void {
@@ -132,8 +154,16 @@ export function writeFileAtomic(path: string, content: string): void {
     closeSync(fd);
     renameSync(temp, path);
   } catch (error) {
-    try { closeSync(fd); } catch { /* already closed */ }
-    try { unlinkSync(temp); } catch { /* already renamed or removed */ }
+    try {
+      closeSync(fd);
+    } catch {
+      /* already closed */
+    }
+    try {
+      unlinkSync(temp);
+    } catch {
+      /* already renamed or removed */
+    }
     throw error;
   }
 }
@@ -148,15 +178,26 @@ export function openFileStream(path: string): FileStream {
       renameSync(temp, path);
     },
     abandon: () => {
-      try { closeSync(fd); } catch { /* already closed */ }
-      try { unlinkSync(temp); } catch { /* already gone */ }
+      try {
+        closeSync(fd);
+      } catch {
+        /* already closed */
+      }
+      try {
+        unlinkSync(temp);
+      } catch {
+        /* already gone */
+      }
     },
   };
 }
 
 /** A failed write to stdout or stderr (a full disk, a closed pipe), kept apart from the command's own errors. */
 export class StreamWriteError extends Error {
-  constructor(readonly stream: 'standard output' | 'standard error', readonly code: string) {
+  constructor(
+    readonly stream: 'standard output' | 'standard error',
+    readonly code: string,
+  ) {
     super(`cannot write to ${stream} (${code})`);
     this.name = 'StreamWriteError';
   }

@@ -9,7 +9,10 @@ import { shapeMessages } from '../schema/data-shape.js';
 import type { TextSource } from './yaml-text.js';
 
 class Stop extends Error {
-  constructor(readonly offset: number, message: string) {
+  constructor(
+    readonly offset: number,
+    message: string,
+  ) {
     super(message);
   }
 }
@@ -21,7 +24,9 @@ export function parseJsonText(raw: string, source: TextSource): unknown {
   } catch (error) {
     if (!(error instanceof Stop)) throw error;
     const { line, col } = linePos(text, error.offset);
-    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: `is not valid JSON at line ${line}, column ${col}: ${error.message}` }]);
+    throw new InputError([
+      { code: 'file.syntax', path: source.name, allowed: `is not valid JSON at line ${line}, column ${col}: ${error.message}` },
+    ]);
   }
   try {
     return JSON.parse(text) as unknown;
@@ -92,7 +97,11 @@ function scan(text: string, quote: boolean): void {
           if (text.charAt(i) !== '"') expect('a key in double quotes');
           const at = i;
           const key = string();
-          if (keys.has(key)) throw new Stop(at, `duplicate key${quote ? ` ${JSON.stringify(key.slice(0, 40))}` : ''} in one object; each key may appear once`);
+          if (keys.has(key))
+            throw new Stop(
+              at,
+              `duplicate key${quote ? ` ${JSON.stringify(key.slice(0, 40))}` : ''} in one object; each key may appear once`,
+            );
           keys.add(key);
           ws();
           if (text.charAt(i) !== ':') expect('":" after the key');

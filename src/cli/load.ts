@@ -40,9 +40,20 @@ const KINDS: Readonly<Record<DataKind, KindRules>> = {
   design: { bytes: MAX_DESIGN_BYTES, quote: true },
   // A card or table file is named by a design, so it may be any file on disk.
   card: { bytes: MAX_DESIGN_BYTES, quote: false, expect: { what: 'a process card', keys: Object.keys(processSchema.shape) } },
-  tables: { bytes: MAX_TABLE_BYTES, quote: false, expect: { what: 'a delay-table file (phasegap characterize output)', keys: Object.keys(tablesSchema.shape) } },
+  tables: {
+    bytes: MAX_TABLE_BYTES,
+    quote: false,
+    expect: { what: 'a delay-table file (phasegap characterize output)', keys: Object.keys(tablesSchema.shape) },
+  },
   // A report given to diff may be any file; it is quoted only once it looks like a check report.
-  report: { bytes: MAX_TABLE_BYTES, quote: false, expect: { what: 'a phasegap check report (the output of check --json)', keys: ['tool', 'design', 'process', 'model', 'clock', 'phases', 'verdict', 'limiting', 'corners', 'warnings', 'cautions'] } },
+  report: {
+    bytes: MAX_TABLE_BYTES,
+    quote: false,
+    expect: {
+      what: 'a phasegap check report (the output of check --json)',
+      keys: ['tool', 'design', 'process', 'model', 'clock', 'phases', 'verdict', 'limiting', 'corners', 'warnings', 'cautions'],
+    },
+  },
 };
 
 /**
@@ -91,8 +102,10 @@ export interface DesignSource {
  * else YAML), within the same byte limits.
  */
 export function readDesignSource(path: string, stdin?: Io['readStdin']): DesignSource {
-  if (path !== STDIN) return { path, text: readBoundedText(path, 'DESIGN', KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
-  if (stdin === undefined) throw inputError('file.no-stdin', 'DESIGN', path, 'means standard input, which this run does not have; name a design file');
+  if (path !== STDIN)
+    return { path, text: readBoundedText(path, 'DESIGN', KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
+  if (stdin === undefined)
+    throw inputError('file.no-stdin', 'DESIGN', path, 'means standard input, which this run does not have; name a design file');
   const limit = Math.max(KINDS.design.bytes.json, KINDS.design.bytes.yaml);
   let text: string;
   try {
@@ -103,7 +116,12 @@ export function readDesignSource(path: string, stdin?: Io['readStdin']): DesignS
   }
   const format = stdinFormat(text);
   if (Buffer.byteLength(text, 'utf8') > KINDS.design.bytes[format]) {
-    throw inputError('file.too-large', 'DESIGN', path, `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`);
+    throw inputError(
+      'file.too-large',
+      'DESIGN',
+      path,
+      `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`,
+    );
   }
   return { path, text };
 }
@@ -124,7 +142,12 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
   const expected = KINDS[kind].expect;
   const mapping = data !== null && typeof data === 'object' && !Array.isArray(data);
   if (expected && !(mapping && looksLike(data, expected.keys))) {
-    throw inputError('file.wrong-kind', path, undefined, `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`);
+    throw inputError(
+      'file.wrong-kind',
+      path,
+      undefined,
+      `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`,
+    );
   }
   if (!mapping) throw inputError('file.wrong-kind', path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
   checkDataShape(data);
@@ -141,7 +164,12 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
 export function checkModelFile(path: string, label: string): ReadonlySet<string> | null {
   const text = readBoundedText(path, label, MAX_MODEL_BYTES, 'SPICE model file');
   if (!/^[ \t]*\.(model|subckt|lib)\b/im.test(text)) {
-    throw inputError('file.wrong-kind', label, path, 'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown');
+    throw inputError(
+      'file.wrong-kind',
+      label,
+      path,
+      'is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown',
+    );
   }
   if (/^[ \t]*\.(lib|include|inc)\b/im.test(text)) return null;
   return new Set([...text.matchAll(/^[ \t]*\.(?:model|subckt)[ \t]+(\S+)/gim)].map((m) => m[1]!.toLowerCase()));
@@ -155,12 +183,23 @@ function readBoundedText(path: string, label: string, limit: number, what: strin
     fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0));
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
-    throw inputError(code === 'ENOENT' ? 'file.not-found' : 'file.unreadable', label, path, code === 'ENOENT' ? 'does not exist' : code === 'EISDIR' ? 'is a directory, not a file' : `cannot be read (${code ?? 'error'})`);
+    throw inputError(
+      code === 'ENOENT' ? 'file.not-found' : 'file.unreadable',
+      label,
+      path,
+      code === 'ENOENT' ? 'does not exist' : code === 'EISDIR' ? 'is a directory, not a file' : `cannot be read (${code ?? 'error'})`,
+    );
   }
   try {
     const stat = fstatSync(fd);
     if (stat.isDirectory()) throw inputError('file.unreadable', label, path, 'is a directory, not a file');
-    if (!stat.isFile()) throw inputError('file.unreadable', label, path, 'is not a regular file (it is a device, pipe or socket); phasegap reads only regular files');
+    if (!stat.isFile())
+      throw inputError(
+        'file.unreadable',
+        label,
+        path,
+        'is not a regular file (it is a device, pipe or socket); phasegap reads only regular files',
+      );
     const tooBig = (): never => {
       throw inputError('file.too-large', label, path, `is larger than ${mebibytes(limit)}, the limit for a ${what}`);
     };
@@ -216,9 +255,21 @@ export function loadDesign(from: string | DesignSource, overrides: readonly stri
   if (typeof design.process === 'string') {
     const cardPath = resolve(dirname(path), design.process);
     const { card, text } = loadProcessText(cardPath, 'process');
-    return { ...base, card, processSource: design.process, cardDir: dirname(cardPath), hashes: { design: sha256(source.text), card: sha256(text) } };
+    return {
+      ...base,
+      card,
+      processSource: design.process,
+      cardDir: dirname(cardPath),
+      hashes: { design: sha256(source.text), card: sha256(text) },
+    };
   }
-  return { ...base, card: design.process, processSource: 'inline', cardDir: dirname(resolve(path)), hashes: { design: sha256(source.text), card: null } };
+  return {
+    ...base,
+    card: design.process,
+    processSource: 'inline',
+    cardDir: dirname(resolve(path)),
+    hashes: { design: sha256(source.text), card: null },
+  };
 }
 
 export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
@@ -245,7 +296,8 @@ export function loadTables(path: string, label = 'tables'): DelayTables {
     checkTables(tables, path);
     return tables;
   } catch (error) {
-    if (error instanceof InputError) throw new InputError(error.issues.map((i) => ({ ...i, path: i.path.startsWith(path) ? i.path : `${path}: ${i.path}` })));
+    if (error instanceof InputError)
+      throw new InputError(error.issues.map((i) => ({ ...i, path: i.path.startsWith(path) ? i.path : `${path}: ${i.path}` })));
     throw error;
   }
 }
@@ -266,7 +318,13 @@ export function loadModel(card: ProcessCard, cardDir: string, options: ModelOpti
 }
 
 /** A design loaded, its delay model chosen from the global options, and resolved once. */
-export function loadResolved(designPath: string | DesignSource, overrides: readonly string[], options: ModelOptions, warn: (message: string) => void, stdin?: Io['readStdin']): LoadedDesign & { readonly resolved: ResolvedDesign } {
+export function loadResolved(
+  designPath: string | DesignSource,
+  overrides: readonly string[],
+  options: ModelOptions,
+  warn: (message: string) => void,
+  stdin?: Io['readStdin'],
+): LoadedDesign & { readonly resolved: ResolvedDesign } {
   const loaded = loadDesign(designPath, overrides, stdin);
   const resolved = resolveDesign(loaded.design, loaded.card, loadModel(loaded.card, loaded.cardDir, options, warn));
   return { ...loaded, resolved };

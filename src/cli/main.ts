@@ -10,7 +10,11 @@ import { EXIT_INPUT, run } from './program.js';
 function streamFailed(stream: StreamWriteError['stream'], code: string): never {
   if (code === 'EPIPE') process.exit(process.exitCode ?? 0);
   if (stream === 'standard output') {
-    try { process.stderr.write(`phasegap: cannot write to ${stream} (${code})\n`); } catch { /* stderr is gone too */ }
+    try {
+      process.stderr.write(`phasegap: cannot write to ${stream} (${code})\n`);
+    } catch {
+      /* stderr is gone too */
+    }
   }
   process.exit(EXIT_INPUT);
 }
@@ -22,6 +26,6 @@ try {
   process.exitCode = await run(process.argv.slice(2), processIo);
 } catch (error) {
   if (error instanceof StreamWriteError) streamFailed(error.stream, error.code);
-  process.stderr.write(`phasegap: internal error: ${error instanceof Error ? error.stack ?? error.message : String(error)}\n`);
+  process.stderr.write(`phasegap: internal error: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`);
   process.exitCode = 3;
 }

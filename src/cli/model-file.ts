@@ -15,11 +15,18 @@ export function modelFile(card: ProcessCard, cardDir: string, override?: string)
 
 /** Every device model the card names must be defined in the model file, or ngspice stops on the deck. */
 function checkModelNames(spice: SpiceSection, defined: ReadonlySet<string>, path: string): void {
-  const named: Array<[string, string | undefined]> = [['process.spice.n', spice.n], ['process.spice.p', spice.p]];
-  for (const [corner, models] of Object.entries(spice.corners)) named.push([`process.spice.corners.${corner}.n`, models.n], [`process.spice.corners.${corner}.p`, models.p]);
+  const named: Array<[string, string | undefined]> = [
+    ['process.spice.n', spice.n],
+    ['process.spice.p', spice.p],
+  ];
+  for (const [corner, models] of Object.entries(spice.corners))
+    named.push([`process.spice.corners.${corner}.n`, models.n], [`process.spice.corners.${corner}.p`, models.p]);
   for (const [field, name] of named) {
     if (name !== undefined && !defined.has(name.toLowerCase())) {
-      const known = [...defined].filter((n) => /^[a-z0-9_.-]{1,32}$/.test(n)).slice(0, 8).join(', ');
+      const known = [...defined]
+        .filter((n) => /^[a-z0-9_.-]{1,32}$/.test(n))
+        .slice(0, 8)
+        .join(', ');
       throw inputError('reference.unknown', field, name, `is not a model or subcircuit of ${path} (it defines ${known || 'none'})`);
     }
   }

@@ -17,9 +17,8 @@ export interface WholeRange {
 export function wholeNumber(option: string, text: string, range: WholeRange): number {
   const value = /^\d{1,16}$/.test(text) ? Number(text) : NaN;
   if (!(Number.isSafeInteger(value) && value >= range.min && value <= range.max)) {
-    const what = range.noun === undefined
-      ? `of at least ${range.min} and at most ${range.max}`
-      : `of ${range.noun} from ${range.min} to ${range.max}`;
+    const what =
+      range.noun === undefined ? `of at least ${range.min} and at most ${range.max}` : `of ${range.noun} from ${range.min} to ${range.max}`;
     throw inputError('option.invalid', option, text, `must be a whole number ${what}`);
   }
   return value;

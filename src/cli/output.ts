@@ -17,10 +17,21 @@ export function checkOutput(out: string | undefined, inputs: readonly string[], 
   if (toStdout(out)) return;
   const kind = pathKind(out);
   if (kind !== 'absent' && kind !== 'regular file') {
-    throw inputError('output.refused', option, out, `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`);
+    throw inputError(
+      'output.refused',
+      option,
+      out,
+      `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`,
+    );
   }
   const input = inputs.find((path) => sameFile(path, out));
-  if (input !== undefined) throw inputError('output.refused', option, out, `is an input of this command (${input}); writing it would replace the input, pick another name`);
+  if (input !== undefined)
+    throw inputError(
+      'output.refused',
+      option,
+      out,
+      `is an input of this command (${input}); writing it would replace the input, pick another name`,
+    );
 }
 
 export function emit(io: Io, text: string, out: string | undefined, inputs: readonly string[], option = '--out'): void {
@@ -56,19 +67,37 @@ export function streamOutput(io: Io, out: string | undefined, inputs: readonly s
   try {
     file = io.openFileStream(out);
   } catch (error) {
-    throw inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`);
+    throw inputError(
+      'option.invalid',
+      '--out',
+      out,
+      `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`,
+    );
   }
   const failed = (error: unknown) => {
     file.abandon();
     if (error instanceof InputError) return error;
-    return inputError('option.invalid', '--out', out, `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`);
+    return inputError(
+      'option.invalid',
+      '--out',
+      out,
+      `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`,
+    );
   };
   return {
     write: (t) => {
-      try { file.write(t); } catch (error) { throw failed(error); }
+      try {
+        file.write(t);
+      } catch (error) {
+        throw failed(error);
+      }
     },
     finish: () => {
-      try { file.commit(() => checkOutput(out, inputs)); } catch (error) { throw failed(error); }
+      try {
+        file.commit(() => checkOutput(out, inputs));
+      } catch (error) {
+        throw failed(error);
+      }
     },
     abandon: () => file.abandon(),
   };
@@ -89,7 +118,11 @@ export function designFiles(loaded: LoadedDesign): string[] {
 }
 
 /** The tables and SPICE model file a process card names (or the options replace), resolved. */
-export function cardFiles(card: LoadedDesign['card'], cardDir: string, options: { readonly tables?: string; readonly models?: string }): string[] {
+export function cardFiles(
+  card: LoadedDesign['card'],
+  cardDir: string,
+  options: { readonly tables?: string; readonly models?: string },
+): string[] {
   const files: string[] = [];
   if (options.tables !== undefined) files.push(options.tables);
   else if (card.tables !== undefined) files.push(resolve(cardDir, card.tables));

@@ -23,13 +23,15 @@ function readValue(source: string, text: string, path: ReadonlyArray<string | nu
   try {
     value = parseYamlText(source, { name: '--set', quote: false });
   } catch (error) {
-    if (error instanceof InputError) throw inputError('option.invalid', '--set', text, 'has a value that is not a YAML scalar, list or mapping');
+    if (error instanceof InputError)
+      throw inputError('option.invalid', '--set', text, 'has a value that is not a YAML scalar, list or mapping');
     throw error;
   }
   try {
     checkDataShape(value, path);
   } catch (error) {
-    if (error instanceof InputError) throw inputError('option.invalid', '--set', text, `is refused at ${error.issues[0]!.path}: it ${error.issues[0]!.allowed}`);
+    if (error instanceof InputError)
+      throw inputError('option.invalid', '--set', text, `is refused at ${error.issues[0]!.path}: it ${error.issues[0]!.allowed}`);
     throw error;
   }
   return value;
@@ -39,17 +41,36 @@ function splitPath(path: string, text: string): Array<string | number> {
   const parts: Array<string | number> = [];
   for (const piece of path.split('.')) {
     const match = /^([^[\]]+)((?:\[\d+\])*)$/.exec(piece);
-    if (!match) throw inputError('option.invalid', '--set', text, 'has a malformed path; write keys separated by dots, list items as [N], e.g. corners.vdd[0]=1.6V');
+    if (!match)
+      throw inputError(
+        'option.invalid',
+        '--set',
+        text,
+        'has a malformed path; write keys separated by dots, list items as [N], e.g. corners.vdd[0]=1.6V',
+      );
     const key = match[1]!;
-    if (RESERVED_KEYS.has(key)) throw inputError('option.invalid', '--set', text, `names the reserved key ${JSON.stringify(key)} (a built-in object member name), which no field, net, corner or switch may use`);
+    if (RESERVED_KEYS.has(key))
+      throw inputError(
+        'option.invalid',
+        '--set',
+        text,
+        `names the reserved key ${JSON.stringify(key)} (a built-in object member name), which no field, net, corner or switch may use`,
+      );
     parts.push(key);
     for (const index of match[2]!.matchAll(/\[(\d+)\]/g)) {
       const n = Number(index[1]);
-      if (n > MAX_SET_INDEX) throw inputError('option.invalid', '--set', text, `has list index ${index[1]}; a list holds at most ${MAX_SET_INDEX} items`);
+      if (n > MAX_SET_INDEX)
+        throw inputError('option.invalid', '--set', text, `has list index ${index[1]}; a list holds at most ${MAX_SET_INDEX} items`);
       parts.push(n);
     }
   }
-  if (parts.length > MAX_DEPTH) throw inputError('option.invalid', '--set', text, `has a path ${parts.length} levels deep; design fields nest at most ${MAX_DEPTH} deep`);
+  if (parts.length > MAX_DEPTH)
+    throw inputError(
+      'option.invalid',
+      '--set',
+      text,
+      `has a path ${parts.length} levels deep; design fields nest at most ${MAX_DEPTH} deep`,
+    );
   return parts;
 }
 
@@ -63,15 +84,32 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
       throw inputError('option.invalid', '--set', text, `cannot set inside ${where}, which holds a plain value`);
     }
     if (Array.isArray(node) !== (typeof key === 'number')) {
-      throw inputError('option.invalid', '--set', text, Array.isArray(node) ? `cannot set key ${JSON.stringify(key)} in ${where}, which is a list; write ${where}[N]` : `cannot set item [${key}] in ${where}, which is a mapping; write ${where}.KEY`);
+      throw inputError(
+        'option.invalid',
+        '--set',
+        text,
+        Array.isArray(node)
+          ? `cannot set key ${JSON.stringify(key)} in ${where}, which is a list; write ${where}[N]`
+          : `cannot set item [${key}] in ${where}, which is a mapping; write ${where}.KEY`,
+      );
     }
     if (typeof key === 'number' && key > (node as unknown[]).length) {
-      throw inputError('option.invalid', '--set', text, `sets item [${key}] of ${where}, which has ${(node as unknown[]).length} items; give an index from 0 to ${(node as unknown[]).length} (the last appends)`);
+      throw inputError(
+        'option.invalid',
+        '--set',
+        text,
+        `sets item [${key}] of ${where}, which has ${(node as unknown[]).length} items; give an index from 0 to ${(node as unknown[]).length} (the last appends)`,
+      );
     }
     // A field of a new item would leave the item's other required fields missing: one error here, not one per field.
     if (typeof key === 'number' && key === (node as unknown[]).length && i < path.length - 1) {
       const items = (node as unknown[]).length;
-      throw inputError('option.invalid', '--set', text, `sets a field of item [${key}] of ${where}, which has ${items} items${items > 0 ? ` (0 to ${items - 1})` : ''}; to add an item, set it whole, e.g. ${where}[${key}]={...}`);
+      throw inputError(
+        'option.invalid',
+        '--set',
+        text,
+        `sets a field of item [${key}] of ${where}, which has ${items} items${items > 0 ? ` (0 to ${items - 1})` : ''}; to add an item, set it whole, e.g. ${where}[${key}]={...}`,
+      );
     }
     const container = node as Record<string | number, unknown>;
     if (i === path.length - 1) {
@@ -87,5 +125,8 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
 /** The path up to (not including) part i, for messages: the container being edited. */
 function describe(path: ReadonlyArray<string | number>, i: number): string {
   if (i === 0) return 'the design';
-  return path.slice(0, i).map((p, k) => (typeof p === 'number' ? `[${p}]` : k === 0 ? p : `.${p}`)).join('');
+  return path
+    .slice(0, i)
+    .map((p, k) => (typeof p === 'number' ? `[${p}]` : k === 0 ? p : `.${p}`))
+    .join('');
 }

@@ -41,9 +41,14 @@ export async function runParallel<T, R>(run: ParallelRun<T, R>): Promise<RunEnd>
       }
     } else {
       await runPool<T, R>({
-        setup: run.setup, tasks: run.tasks, threads: run.threads, local: run.local,
+        setup: run.setup,
+        tasks: run.tasks,
+        threads: run.threads,
+        local: run.local,
         onResult: run.ordered ? inOrder(run.onResult) : (index, result) => run.onResult(result, index),
-        onStart: (handle) => { stopPool = () => handle.stop(); },
+        onStart: (handle) => {
+          stopPool = () => handle.stop();
+        },
       });
     }
   } finally {

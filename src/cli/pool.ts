@@ -116,7 +116,12 @@ export function runPool<T, R>({ setup, tasks, threads, onResult, onStart, local 
       });
       for (let k = 0; k < ahead; k++) feed(w);
     }
-    onStart?.({ stop: () => { stop(); resolve(); } });
+    onStart?.({
+      stop: () => {
+        stop();
+        resolve();
+      },
+    });
     setImmediate(runLocal);
   });
 }

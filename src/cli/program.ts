@@ -28,12 +28,17 @@ function commanderOption(spec: OptionSpec<unknown>): Option {
 }
 
 /** The declared options' values from commander's: parsed in declaration order, then fallbacks. */
-function optionValues(specs: OptionSpecs, options: ReadonlyMap<string, Option>, given: Readonly<Record<string, unknown>>): Record<string, unknown> {
+function optionValues(
+  specs: OptionSpecs,
+  options: ReadonlyMap<string, Option>,
+  given: Readonly<Record<string, unknown>>,
+): Record<string, unknown> {
   const values: Record<string, unknown> = {};
   for (const [key, spec] of Object.entries(specs)) {
     const option = options.get(key)!;
     const raw = given[option.attributeName()];
-    values[key] = raw === undefined ? spec.fallback : spec.parse && typeof raw === 'string' ? spec.parse(raw, option.long ?? option.flags) : raw;
+    values[key] =
+      raw === undefined ? spec.fallback : spec.parse && typeof raw === 'string' ? spec.parse(raw, option.long ?? option.flags) : raw;
   }
   return values;
 }
@@ -70,7 +75,9 @@ export function buildProgram(io: Io, setCode: (code: number | Promise<number>) =
  */
 export function run(argv: readonly string[], io: Io): number | Promise<number> {
   const outcome: { code: number | Promise<number> } = { code: EXIT_PASS };
-  const program = buildProgram({ ...io, argv: [...argv] }, (c) => { outcome.code = c; });
+  const program = buildProgram({ ...io, argv: [...argv] }, (c) => {
+    outcome.code = c;
+  });
   const fail = (error: unknown): number => {
     if (error instanceof CommanderError) return error.exitCode === 0 ? EXIT_PASS : EXIT_INPUT;
     if (error instanceof InputError) {

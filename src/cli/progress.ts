@@ -9,13 +9,16 @@ export interface Progress {
 
 export function progressBar(io: Io, total: number, label: string, enabled: boolean): Progress {
   if (!enabled || !io.stderrIsTTY) return { update: () => undefined, stop: () => undefined };
-  const bar = new cliProgress.SingleBar({
-    format: `${label} {bar} {percentage}% | {value}/{total} | {rate}/s | {eta_formatted} left`,
-    stream: process.stderr,
-    hideCursor: true,
-    clearOnComplete: true,
-    etaBuffer: 50,
-  }, cliProgress.Presets.shades_classic);
+  const bar = new cliProgress.SingleBar(
+    {
+      format: `${label} {bar} {percentage}% | {value}/{total} | {rate}/s | {eta_formatted} left`,
+      stream: process.stderr,
+      hideCursor: true,
+      clearOnComplete: true,
+      etaBuffer: 50,
+    },
+    cliProgress.Presets.shades_classic,
+  );
   const started = Date.now();
   bar.start(total, 0, { rate: '0' });
   return {

@@ -34,12 +34,22 @@ const shown = (path: string): string => relative(process.cwd(), path) || path;
 /** The band measured for this model and card (src/delay/error-band.ts), in the record's terms. */
 function measuredBand(model: string, card: string): ErrorBand | null {
   const band = errorBand(model, card);
-  return band ? { relative: band.worst, source: `dead time against ngspice on ${band.count} dead times of the shipped designs, test/bench/accuracy.bench.ts` } : null;
+  return band
+    ? {
+        relative: band.worst,
+        source: `dead time against ngspice on ${band.count} dead times of the shipped designs, test/bench/accuracy.bench.ts`,
+      }
+    : null;
 }
 
 export function gatherProvenance(io: Io, loaded: LoadedDesign, run: ProvenanceRun): Provenance {
   const inputs: InputFile[] = [{ role: 'design', path: loaded.designPath, sha256: loaded.hashes.design }];
-  if (loaded.hashes.card !== null) inputs.push({ role: 'process card', path: shown(resolve(dirname(loaded.designPath), loaded.processSource)), sha256: loaded.hashes.card });
+  if (loaded.hashes.card !== null)
+    inputs.push({
+      role: 'process card',
+      path: shown(resolve(dirname(loaded.designPath), loaded.processSource)),
+      sha256: loaded.hashes.card,
+    });
   if (run.model === 'table') {
     const tables = run.options.tables ?? (loaded.card.tables === undefined ? undefined : resolve(loaded.cardDir, loaded.card.tables));
     if (tables !== undefined) inputs.push({ role: 'delay tables', path: shown(tables), sha256: hashFile(tables) });
@@ -49,7 +59,12 @@ export function gatherProvenance(io: Io, loaded: LoadedDesign, run: ProvenanceRu
     if (models !== undefined) inputs.push({ role: 'SPICE models', path: shown(models), sha256: hashFile(models) });
   }
   return provenance({
-    version: VERSION, now: io.now?.() ?? new Date(), command: io.argv ?? [], inputs,
-    model: run.model, errorBand: run.errorBand ?? measuredBand(run.model, loaded.card.name), simulator: run.simulator ?? null,
+    version: VERSION,
+    now: io.now?.() ?? new Date(),
+    command: io.argv ?? [],
+    inputs,
+    model: run.model,
+    errorBand: run.errorBand ?? measuredBand(run.model, loaded.card.name),
+    simulator: run.simulator ?? null,
   });
 }

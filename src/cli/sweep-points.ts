@@ -8,7 +8,15 @@ import type { ResolvedDesign } from '../analysis/resolve.js';
 import { parseWith } from '../schema/validate.js';
 import { resolveDesign } from '../analysis/resolve.js';
 import { evaluateAll } from '../analysis/evaluate.js';
-import { gridPoint, pointOverrides, summarizePoint, sweepColumns, type SweepAxis, type SweepColumns, type SweepRow } from '../analysis/sweep.js';
+import {
+  gridPoint,
+  pointOverrides,
+  summarizePoint,
+  sweepColumns,
+  type SweepAxis,
+  type SweepColumns,
+  type SweepRow,
+} from '../analysis/sweep.js';
 import { InputError } from '../errors.js';
 import { dirname, resolve } from 'node:path';
 import type { ProcessCard } from '../schema/process.js';
@@ -55,7 +63,11 @@ function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): Re
     p.cards.set(path, card);
     cardDir = dirname(path);
   } else card = design.process;
-  const resolved = resolveDesign(design, card, loadModel(card, cardDir, setup.model, (m) => process.stderr.write(warningLine(m))));
+  const resolved = resolveDesign(
+    design,
+    card,
+    loadModel(card, cardDir, setup.model, (m) => process.stderr.write(warningLine(m))),
+  );
   p.last = { key, resolved };
   return resolved;
 }
@@ -88,7 +100,13 @@ export function sweepPoint(setup: SweepSetup, index: number): SweepRow {
 export function pointColumns(setup: SweepSetup, index: number): SweepColumns {
   const p = prepare(setup);
   const sets = pointOverrides(setup.axes, gridPoint(setup.axes, index));
-  return sweepColumns(resolveFor(setup, p, sets.filter((_, i) => !isCornerAxis(setup.axes[i]!.path))));
+  return sweepColumns(
+    resolveFor(
+      setup,
+      p,
+      sets.filter((_, i) => !isCornerAxis(setup.axes[i]!.path)),
+    ),
+  );
 }
 
 function rawCorners(raw: unknown): Record<string, unknown> {

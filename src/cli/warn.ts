@@ -6,7 +6,10 @@ import type { Io } from './io.js';
 
 export const warningLine = (message: string): string => `phasegap: warning: ${message}\n`;
 
-export const warnTo = (io: Io) => (message: string): void => io.stderr(warningLine(message));
+export const warnTo =
+  (io: Io) =>
+  (message: string): void =>
+    io.stderr(warningLine(message));
 
 /** A progress or file note on stderr: `phasegap: wrote x.sp ...`. */
 export const noteTo = (io: Io, message: string): void => io.stderr(`phasegap: ${message}\n`);

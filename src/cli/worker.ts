@@ -7,7 +7,13 @@ import { InputError } from '../errors.js';
 import { warningLine } from './warn.js';
 
 export type WorkerSetup =
-  | { readonly kind: 'mc'; readonly design: DesignSource; readonly overrides: readonly string[]; readonly seed: number; readonly model: ModelOptions }
+  | {
+      readonly kind: 'mc';
+      readonly design: DesignSource;
+      readonly overrides: readonly string[];
+      readonly seed: number;
+      readonly model: ModelOptions;
+    }
   | ({ readonly kind: 'sweep' } & SweepSetup);
 
 const setup = workerData as WorkerSetup;
@@ -36,5 +42,5 @@ if (setup.kind === 'mc') {
 
 function failure(index: number, error: unknown) {
   if (error instanceof InputError) return { index, error: error.message, issues: error.issues };
-  return { index, error: error instanceof Error ? error.stack ?? error.message : String(error) };
+  return { index, error: error instanceof Error ? (error.stack ?? error.message) : String(error) };
 }

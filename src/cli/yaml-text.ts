@@ -20,7 +20,10 @@ export interface TextSource {
 }
 
 class Located extends Error {
-  constructor(readonly offset: number, message: string) {
+  constructor(
+    readonly offset: number,
+    message: string,
+  ) {
     super(message);
   }
 }
@@ -29,7 +32,9 @@ export function parseYamlText(text: string, source: TextSource): unknown {
   const lines = new LineCounter();
   const fail = (offset: number, what: string): never => {
     const { line, col } = lines.linePos(offset);
-    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` }]);
+    throw new InputError([
+      { code: 'file.syntax', path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` },
+    ]);
   };
   const unreadable = (): never => {
     throw new InputError([{ code: 'file.syntax', path: source.name, allowed: 'could not be read as YAML or JSON' }]);
@@ -52,7 +57,13 @@ export function parseYamlText(text: string, source: TextSource): unknown {
     return doc.toJS({ maxAliasCount: MAX_ALIAS_COUNT });
   } catch (error) {
     if (!(error instanceof ReferenceError)) return unreadable();
-    throw new InputError([{ code: 'file.data-limit', path: source.name, allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases` }]);
+    throw new InputError([
+      {
+        code: 'file.data-limit',
+        path: source.name,
+        allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases`,
+      },
+    ]);
   }
 }
 
@@ -107,7 +118,8 @@ function checkNodes(root: unknown, quote: boolean): void {
     const key = pair.key;
     const at = (key as { range?: [number, number, number] } | null)?.range?.[0] ?? 0;
     const value: unknown = isScalar(key) ? key.value : key;
-    if (value !== null && typeof value === 'object') throw new Located(at, 'a mapping key must be a plain name, not a list, mapping or alias');
+    if (value !== null && typeof value === 'object')
+      throw new Located(at, 'a mapping key must be a plain name, not a list, mapping or alias');
     const keyAnchor = (key as Node | null)?.anchor;
     if (keyAnchor !== undefined) {
       if (++anchors > MAX_ANCHORS) throw new Located(at, `defines more than ${MAX_ANCHORS} anchors`);

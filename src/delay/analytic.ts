@@ -43,7 +43,10 @@ const STRIDE = 6;
 
 class AnalyticTiming implements GateTiming {
   /** responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge. */
-  constructor(readonly table: Float64Array, readonly responses: RampResponse[]) {}
+  constructor(
+    readonly table: Float64Array,
+    readonly responses: RampResponse[],
+  ) {}
 
   /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
   private lastEdge = -1;
@@ -91,7 +94,10 @@ class AnalyticTiming implements GateTiming {
     const falling = outputRising ? 0 : 1;
     const edge = 2 * gate + falling;
     const tau = this.tau(gate, falling, pin);
-    return tau * this.responses[edge]!.crossing(this.table[gate * STRIDE + 2 * falling + 1]!, inputTransition / tau, outputRising ? 1 - level : level);
+    return (
+      tau *
+      this.responses[edge]!.crossing(this.table[gate * STRIDE + 2 * falling + 1]!, inputTransition / tau, outputRising ? 1 - level : level)
+    );
   }
 }
 
@@ -137,7 +143,12 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
   const unit = unitWidths(card);
   const junctions = card.spice?.stackJunctions === true;
   const n = netlist.gateCount;
-  const entry: PullWidths = { up: new Float64Array(n), down: new Float64Array(n), nodeUp: new Float64Array(n), nodeDown: new Float64Array(n) };
+  const entry: PullWidths = {
+    up: new Float64Array(n),
+    down: new Float64Array(n),
+    nodeUp: new Float64Array(n),
+    nodeDown: new Float64Array(n),
+  };
   for (let g = 0; g < n; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
     const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
@@ -159,8 +170,13 @@ export const analyticModel: DelayModel = {
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
     const { n, p } = devices;
-    const recycled = reuse instanceof AnalyticTiming && reuse.table.length === count * STRIDE
-      && reuse.responses[0]!.alpha === p.alpha && reuse.responses[1]!.alpha === n.alpha ? reuse : null;
+    const recycled =
+      reuse instanceof AnalyticTiming &&
+      reuse.table.length === count * STRIDE &&
+      reuse.responses[0]!.alpha === p.alpha &&
+      reuse.responses[1]!.alpha === n.alpha
+        ? reuse
+        : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
     const widths = pullWidths(netlist, devices.card);
     const vdd = devices.vdd;
@@ -172,7 +188,8 @@ export const analyticModel: DelayModel = {
       // by (1 - dVth/overdrive)^alpha.
       const upCurrent = widths.up[g]! * p.idsatPerWidth * (mismatch ? shiftFactor(mismatch.dvthP[g]! / (vdd - p.vth), p.alpha) : 1);
       const downCurrent = widths.down[g]! * n.idsatPerWidth * (mismatch ? shiftFactor(mismatch.dvthN[g]! / (vdd - n.vth), n.alpha) : 1);
-      if (!(upCurrent > 0 && downCurrent > 0)) throw cannotTurnOn(upCurrent > 0 ? n : p, upCurrent > 0 ? vthN : vthP, vdd, devices.corner.name);
+      if (!(upCurrent > 0 && downCurrent > 0))
+        throw cannotTurnOn(upCurrent > 0 ? n : p, upCurrent > 0 ? vthN : vthP, vdd, devices.corner.name);
       const i = g * STRIDE;
       table[i] = (load * vdd) / upCurrent;
       table[i + 1] = RampResponse.vtPosition(vthP / vdd);
@@ -190,5 +207,10 @@ export const analyticModel: DelayModel = {
 };
 
 function cannotTurnOn(device: DeviceAtCorner, vth: number, vdd: number, corner: string): Error {
-  return inputError('physics.device-off', `corners (${corner})`, `${vdd} V`, `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`);
+  return inputError(
+    'physics.device-off',
+    `corners (${corner})`,
+    `${vdd} V`,
+    `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`,
+  );
 }

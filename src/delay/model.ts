@@ -33,7 +33,12 @@ export interface DelayModel {
    */
   readonly gapBand?: number;
   /** Characterized switch on-resistance per corner, when the model carries it (the table model). */
-  readonly ron?: ReadonlyArray<{ readonly process: string; readonly vdd: number; readonly temperature: number; readonly ron: { readonly n: number; readonly p: number } }>;
+  readonly ron?: ReadonlyArray<{
+    readonly process: string;
+    readonly vdd: number;
+    readonly temperature: number;
+    readonly ron: { readonly n: number; readonly p: number };
+  }>;
   /**
    * Binds the model to a netlist, its net loads (F) and a corner. Throws an InputError if the
    * corner is outside what the model can answer for. `reuse`, a timing this model bound earlier

@@ -37,7 +37,7 @@ const FIRST_LEVEL = 2;
 
 /** Input transition on the grid, in tau. */
 export function gridTransition(k: number): number {
-  return (k * Q_STEP) * (k * Q_STEP);
+  return k * Q_STEP * (k * Q_STEP);
 }
 
 /**
@@ -103,7 +103,11 @@ export function solveEdge(alpha: number, vT: number, s: number, depth = 1): { de
 
 /** The solved grid of one alpha. */
 export class RampResponse {
-  private constructor(readonly alpha: number, readonly depth: number, private readonly grid: Float64Array) {}
+  private constructor(
+    readonly alpha: number,
+    readonly depth: number,
+    private readonly grid: Float64Array,
+  ) {}
 
   private static readonly cache = new Map<string, RampResponse>();
 

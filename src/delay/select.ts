@@ -21,7 +21,12 @@ export function selectModel(choice: ModelChoice | undefined, tables: DelayTables
   if (choice === 'analytic') return analyticModel;
   if (tables) return tableModel(tables, { warn });
   if (choice === 'table') {
-    throw inputError('option.invalid', '--model', 'table', 'needs delay tables: name them in the process card (tables: FILE.json, from phasegap characterize) or pass --tables FILE');
+    throw inputError(
+      'option.invalid',
+      '--model',
+      'table',
+      'needs delay tables: name them in the process card (tables: FILE.json, from phasegap characterize) or pass --tables FILE',
+    );
   }
   return analyticModel;
 }

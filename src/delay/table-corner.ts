@@ -22,7 +22,9 @@ function blendGrid(a: readonly (readonly number[])[], b: readonly (readonly numb
 function blendCorner(a: CornerTables, b: CornerTables, t: number, name: string): CornerTables {
   if (t === 0) return a;
   const cells: CornerTables['cells'] = {};
-  for (const [cell, entry] of Object.entries(a.cells) as Array<[keyof CornerTables['cells'], NonNullable<CornerTables['cells'][keyof CornerTables['cells']]>]>) {
+  for (const [cell, entry] of Object.entries(a.cells) as Array<
+    [keyof CornerTables['cells'], NonNullable<CornerTables['cells'][keyof CornerTables['cells']]>]
+  >) {
     const other = b.cells[cell];
     if (!other) continue;
     cells[cell] = {
@@ -36,7 +38,13 @@ function blendCorner(a: CornerTables, b: CornerTables, t: number, name: string):
       }),
     };
   }
-  return { name, process: a.process, vdd: a.vdd + (b.vdd - a.vdd) * t, temperature: a.temperature + (b.temperature - a.temperature) * t, cells };
+  return {
+    name,
+    process: a.process,
+    vdd: a.vdd + (b.vdd - a.vdd) * t,
+    temperature: a.temperature + (b.temperature - a.temperature) * t,
+    cells,
+  };
 }
 
 export function cornerTables(tables: DelayTables, corner: Corner, warn: (message: string) => void): CornerTables {
@@ -45,21 +53,37 @@ export function cornerTables(tables: DelayTables, corner: Corner, warn: (message
   if (exact) return exact;
   const listed = tables.corners.map((c) => c.name).join(', ');
   if (same.length === 0) {
-    throw inputError('reference.unknown', 'tables', corner.name, `has no tables for process corner "${corner.process}"; the file holds ${listed}`);
+    throw inputError(
+      'reference.unknown',
+      'tables',
+      corner.name,
+      `has no tables for process corner "${corner.process}"; the file holds ${listed}`,
+    );
   }
   const vdds = unique(same.map((c) => c.vdd));
   const temps = unique(same.map((c) => c.temperature));
   const at = (v: number, t: number) => same.find((c) => Math.abs(c.vdd - v) < SAME && Math.abs(c.temperature - t) < SAME);
   if (vdds.some((v) => temps.some((t) => !at(v, t)))) {
-    throw inputError('tables.invalid', 'tables', corner.name, `is not characterized and the ${corner.process} corners do not form a supply x temperature grid to interpolate in; the file holds ${listed}`);
+    throw inputError(
+      'tables.invalid',
+      'tables',
+      corner.name,
+      `is not characterized and the ${corner.process} corners do not form a supply x temperature grid to interpolate in; the file holds ${listed}`,
+    );
   }
   const vb = vdds.length > 1 ? bracket(vdds, corner.vdd) : { i: 0, t: 0, outside: corner.vdd !== vdds[0] };
   const tb = temps.length > 1 ? bracket(temps, corner.temperature) : { i: 0, t: 0, outside: corner.temperature !== temps[0] };
   if (vb.outside || tb.outside || vdds.length === 1 || temps.length === 1) {
-    if (vdds.length === 1 && corner.vdd !== vdds[0] || temps.length === 1 && corner.temperature !== temps[0]) {
-      throw inputError('tables.invalid', 'tables', corner.name, `is not characterized and cannot be interpolated (one supply or temperature only); the file holds ${listed}`);
+    if ((vdds.length === 1 && corner.vdd !== vdds[0]) || (temps.length === 1 && corner.temperature !== temps[0])) {
+      throw inputError(
+        'tables.invalid',
+        'tables',
+        corner.name,
+        `is not characterized and cannot be interpolated (one supply or temperature only); the file holds ${listed}`,
+      );
     }
-    if (vb.outside || tb.outside) warn(`table model: ${corner.name} lies outside the characterized supplies/temperatures of ${corner.process}; extrapolating`);
+    if (vb.outside || tb.outside)
+      warn(`table model: ${corner.name} lies outside the characterized supplies/temperatures of ${corner.process}; extrapolating`);
   }
   const v0 = vdds[vb.i]!;
   const v1 = vdds[Math.min(vb.i + 1, vdds.length - 1)]!;

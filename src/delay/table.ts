@@ -34,13 +34,24 @@ export function checkTables(tables: DelayTables, where: string): void {
     for (const [cell, entry] of Object.entries(corner.cells)) {
       const pins = CELLS[cell as PrimitiveCell].inputs;
       const path = `${where}: corners[${c}].cells.${cell}`;
-      if (entry.pins.length !== pins) throw inputError('tables.invalid', `${path}.pins`, entry.pins.length, `tables for ${pins} pins are needed (one per input of ${cell})`);
+      if (entry.pins.length !== pins)
+        throw inputError(
+          'tables.invalid',
+          `${path}.pins`,
+          entry.pins.length,
+          `tables for ${pins} pins are needed (one per input of ${cell})`,
+        );
       entry.pins.forEach((pin, p) => {
         for (const edge of ['rise', 'fall'] as const) {
           for (const kind of ['delay', 'transition'] as const) {
             const grid = pin[edge][kind];
             if (grid.length !== rows || grid.some((r) => r.length !== cols)) {
-              throw inputError('tables.invalid', `${path}.pins[${p}].${edge}.${kind}`, `${grid.length} rows`, `must have ${rows} rows (input transitions) of ${cols} values (loads)`);
+              throw inputError(
+                'tables.invalid',
+                `${path}.pins[${p}].${edge}.${kind}`,
+                `${grid.length} rows`,
+                `must have ${rows} rows (input transitions) of ${cols} values (loads)`,
+              );
             }
           }
         }
@@ -74,7 +85,10 @@ class TableTiming implements GateTiming {
   private segment = 0;
   private fraction = 0;
 
-  constructor(public frame: Frame, private readonly axis: Float64Array) {}
+  constructor(
+    public frame: Frame,
+    private readonly axis: Float64Array,
+  ) {}
 
   /** The axis segment of an input transition; the engine asks for a delay and then a transition at the same one. */
   private locate(gate: number, slew: number): void {
@@ -111,7 +125,9 @@ class TableTiming implements GateTiming {
 }
 
 function rowsAt(edge: EdgeTables, kind: 'delay' | 'transition', column: ReturnType<typeof bracket>, out: Float64Array, at: number): void {
-  edge[kind].forEach((row, r) => { out[at + r] = linear(row, column); });
+  edge[kind].forEach((row, r) => {
+    out[at + r] = linear(row, column);
+  });
 }
 
 function sameValues(a: Float64Array, b: Float64Array): boolean {
@@ -147,7 +163,8 @@ export function tableModel(tables: DelayTables, options: TableModelOptions = {})
     ron: tables.corners.flatMap((c) => (c.ron ? [{ process: c.process, vdd: c.vdd, temperature: c.temperature, ron: c.ron }] : [])),
     bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
       const frame = frameFor(netlist, loads, devices);
-      const timing = reuse instanceof TableTiming && reuse.frame.rowStart.length === frame.rowStart.length ? reuse : new TableTiming(frame, axis);
+      const timing =
+        reuse instanceof TableTiming && reuse.frame.rowStart.length === frame.rowStart.length ? reuse : new TableTiming(frame, axis);
       timing.frame = frame;
       if (!mismatch) {
         timing.scale = null;
@@ -166,7 +183,13 @@ export function tableModel(tables: DelayTables, options: TableModelOptions = {})
   };
 }
 
-function buildFrame(tables: DelayTables, netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, warn: (key: string, message: string) => void): Frame {
+function buildFrame(
+  tables: DelayTables,
+  netlist: CompiledNetlist,
+  loads: Float64Array,
+  devices: CornerDevices,
+  warn: (key: string, message: string) => void,
+): Frame {
   const corner = cornerTables(tables, devices.corner, (m) => warn(`corner ${devices.corner.name}`, m));
   const card = devices.card;
   const unit = unitWidths(card);
@@ -174,7 +197,13 @@ function buildFrame(tables: DelayTables, netlist: CompiledNetlist, loads: Float6
   const analyticPins = gatePinCapacitance(netlist, card);
   const pinOf = (cell: PrimitiveCell): PinTables[] => {
     const entry = corner.cells[cell];
-    if (!entry) throw inputError('reference.unknown', 'tables', cell, `has no tables at ${corner.name}; characterize this cell (phasegap characterize)`);
+    if (!entry)
+      throw inputError(
+        'reference.unknown',
+        'tables',
+        cell,
+        `has no tables at ${corner.name}; characterize this cell (phasegap characterize)`,
+      );
     return entry.pins;
   };
   // External load of each net as the tables count it: characterized pin capacitances of the
@@ -203,7 +232,10 @@ function buildFrame(tables: DelayTables, netlist: CompiledNetlist, loads: Float6
     const load = Math.max(0, external[netlist.gateOutput[g]!]!) * (tables.size / netlist.gateSize[g]!);
     const column = bracket(tables.loads, load);
     if (column.outside) {
-      warn(`load ${cell} ${g}`, `table model: ${netlist.source.gates[g]!.name} (${cell}) drives ${(load * 1e15).toFixed(1)} fF per characterized size, outside the table's ${(tables.loads[0]! * 1e15).toFixed(1)}..${(tables.loads[tables.loads.length - 1]! * 1e15).toFixed(1)} fF at ${corner.name}; extrapolating`);
+      warn(
+        `load ${cell} ${g}`,
+        `table model: ${netlist.source.gates[g]!.name} (${cell}) drives ${(load * 1e15).toFixed(1)} fF per characterized size, outside the table's ${(tables.loads[0]! * 1e15).toFixed(1)}..${(tables.loads[tables.loads.length - 1]! * 1e15).toFixed(1)} fF at ${corner.name}; extrapolating`,
+      );
     }
     pinOf(cell).forEach((p, k) => {
       const at = (rowStart[g]! + 2 * k) * width;
@@ -221,7 +253,15 @@ function buildFrame(tables: DelayTables, netlist: CompiledNetlist, loads: Float6
   }
   const slews = tables.transitions;
   return {
-    loads: Float64Array.from(loads), delayRows, transitionRows, rowStart, base,
-    onSlewOutside: (g, slew) => warn(`slew ${g}`, `table model: ${netlist.source.gates[g]!.name} sees an input transition of ${psNumber(slew)} ps, outside the table's ${psNumber(slews[0]!)}..${psNumber(slews[slews.length - 1]!)} ps at ${corner.name}; extrapolating`),
+    loads: Float64Array.from(loads),
+    delayRows,
+    transitionRows,
+    rowStart,
+    base,
+    onSlewOutside: (g, slew) =>
+      warn(
+        `slew ${g}`,
+        `table model: ${netlist.source.gates[g]!.name} sees an input transition of ${psNumber(slew)} ps, outside the table's ${psNumber(slews[0]!)}..${psNumber(slews[slews.length - 1]!)} ps at ${corner.name}; extrapolating`,
+      ),
   };
 }

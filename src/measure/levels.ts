@@ -26,7 +26,13 @@ export function linearCrossings(cycle: NetCycle, level: number): LevelCrossings 
  * opposite edge on one of its driver's inputs (every library cell inverts); an input that does
  * not switch exactly once each way leaves that edge a linear ramp.
  */
-export function modelCrossings(cycle: NetCycle, index: CycleIndex, netlist: CompiledNetlist, timing: GateTiming, level: number): LevelCrossings {
+export function modelCrossings(
+  cycle: NetCycle,
+  index: CycleIndex,
+  netlist: CompiledNetlist,
+  timing: GateTiming,
+  level: number,
+): LevelCrossings {
   const linear = linearCrossings(cycle, level);
   const id = netlist.netIndex.get(cycle.net);
   const g = id === undefined ? -1 : netlist.driver[id]!;
@@ -36,8 +42,15 @@ export function modelCrossings(cycle: NetCycle, index: CycleIndex, netlist: Comp
   return { rise: rise ?? linear.rise, fall: fall ?? linear.fall };
 }
 
-function edgeCrossing(g: number, rising: boolean, time: number, index: CycleIndex, netlist: CompiledNetlist, timing: GateTiming,
-  level: number): number | null {
+function edgeCrossing(
+  g: number,
+  rising: boolean,
+  time: number,
+  index: CycleIndex,
+  netlist: CompiledNetlist,
+  timing: GateTiming,
+  level: number,
+): number | null {
   let best = Infinity;
   let pin = -1;
   let inputTransition = 0;

@@ -71,7 +71,10 @@ export class CycleIndex {
 
   private result: SimulationResult;
 
-  constructor(result: SimulationResult, private readonly netlist: CompiledNetlist) {
+  constructor(
+    result: SimulationResult,
+    private readonly netlist: CompiledNetlist,
+  ) {
     const n = netlist.netNames.length;
     this.rises = new Uint16Array(n);
     this.falls = new Uint16Array(n);
@@ -118,8 +121,10 @@ export class CycleIndex {
     if (id === undefined) return `${name} is not a net of the generator`;
     const rises = this.rises[id]!;
     const falls = this.falls[id]!;
-    if (rises === 0 && falls === 0) return `${name} never switches: it stays ${this.result.startValues[id] === 1 ? 'high' : 'low'} (the generator is stuck)`;
-    if (rises !== 1 || falls !== 1) return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
+    if (rises === 0 && falls === 0)
+      return `${name} never switches: it stays ${this.result.startValues[id] === 1 ? 'high' : 'low'} (the generator is stuck)`;
+    if (rises !== 1 || falls !== 1)
+      return `${name} switches ${rises} times up and ${falls} times down per period; a phase must switch once each way (glitching)`;
     return { net: name, rise: this.rise[id]!, fall: this.fall[id]!, riseTransition: this.riseT[id]!, fallTransition: this.fallT[id]! };
   }
 }
@@ -146,8 +151,14 @@ export function highWidth(cycle: NetCycle, period: number): number {
  * the (positive) wait; if b rises while a is still high, it is minus the time they overlap. The
  * clean gap takes each edge's crossing of the gap level (linear ramps at 10 % unless given).
  */
-export function deadTime(a: NetCycle, b: NetCycle, period: number,
-  aLevels: LevelCrossings = linearCrossings(a, GAP_LEVEL), bLevels: LevelCrossings = linearCrossings(b, GAP_LEVEL), band = 0): DeadTime {
+export function deadTime(
+  a: NetCycle,
+  b: NetCycle,
+  period: number,
+  aLevels: LevelCrossings = linearCrossings(a, GAP_LEVEL),
+  bLevels: LevelCrossings = linearCrossings(b, GAP_LEVEL),
+  band = 0,
+): DeadTime {
   const t50 = handover(a.fall, a.rise, b.rise, period);
   const gap = t50 + bLevels.rise - aLevels.fall;
   return { from: a.net, to: b.net, t50, gap, gapBound: gap - band * Math.abs(t50), start: a.fall };
@@ -162,8 +173,12 @@ export interface GapOptions {
   readonly band?: number;
 }
 
-export function measurePhases(result: SimulationResult, netlist: CompiledNetlist, index = new CycleIndex(result, netlist),
-  options: GapOptions = {}): PhaseMeasurement | MeasurementFailure {
+export function measurePhases(
+  result: SimulationResult,
+  netlist: CompiledNetlist,
+  index = new CycleIndex(result, netlist),
+  options: GapOptions = {},
+): PhaseMeasurement | MeasurementFailure {
   if (result.status !== 'settled') return { ok: false, reason: result.reason };
   const src = netlist.source;
   const names = [...src.phases, ...Object.values(src.complements), ...Object.values(src.early)];

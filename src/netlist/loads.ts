@@ -28,7 +28,13 @@ export function netLoads(net: CompiledNetlist, card: ProcessCard, ...extras: rea
   for (const { path, caps } of [{ path: 'generator', caps: net.source.loads }, ...extras]) {
     for (const [name, cap] of Object.entries(caps)) {
       const id = net.netIndex.get(name);
-      if (id === undefined) throw inputError('reference.unknown', `${path}.${name}`, name, `is not a net of the generator; nets are ${net.netNames.join(', ')}`);
+      if (id === undefined)
+        throw inputError(
+          'reference.unknown',
+          `${path}.${name}`,
+          name,
+          `is not a net of the generator; nets are ${net.netNames.join(', ')}`,
+        );
       load[id]! += cap;
     }
   }

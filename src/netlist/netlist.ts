@@ -76,9 +76,15 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
   netlist.gates.forEach((gate, g) => {
     const expected = CELLS[gate.cell].inputs;
     if (gate.inputs.length !== expected) {
-      throw inputError('netlist.invalid', `${at(g)}.inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell ${gate.cell} takes exactly ${expected}`);
+      throw inputError(
+        'netlist.invalid',
+        `${at(g)}.inputs`,
+        gate.inputs,
+        `has ${gate.inputs.length} nets; cell ${gate.cell} takes exactly ${expected}`,
+      );
     }
-    if (names.has(gate.name)) throw inputError('value.duplicate', `${at(g)}.name`, gate.name, 'is used by two gates; instance names must be unique');
+    if (names.has(gate.name))
+      throw inputError('value.duplicate', `${at(g)}.name`, gate.name, 'is used by two gates; instance names must be unique');
     names.add(gate.name);
   });
   const gateInputStart = new Int32Array(gateCount + 1);
@@ -94,10 +100,21 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
   const driver = new Int32Array(netCount).fill(-1);
   netlist.gates.forEach((gate, g) => {
     const out = gateOutput[g]!;
-    if (out === clock) throw inputError('netlist.invalid', `${at(g)}.output`, gate.output, 'is the input clock net; the clock is driven by the ideal source only');
+    if (out === clock)
+      throw inputError(
+        'netlist.invalid',
+        `${at(g)}.output`,
+        gate.output,
+        'is the input clock net; the clock is driven by the ideal source only',
+      );
     const other = driver[out]!;
     if (other >= 0) {
-      throw inputError('value.duplicate', `${at(g)}.output`, gate.output, `is already driven by gate "${netlist.gates[other]!.name}"; a net has one driver`);
+      throw inputError(
+        'value.duplicate',
+        `${at(g)}.output`,
+        gate.output,
+        `is already driven by gate "${netlist.gates[other]!.name}"; a net has one driver`,
+      );
     }
     driver[out] = g;
   });
@@ -118,10 +135,20 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
     }
   }
   const compiled: CompiledNetlist = {
-    source: netlist, netNames, netIndex, clock, gateCount,
+    source: netlist,
+    netNames,
+    netIndex,
+    clock,
+    gateCount,
     gateCell: netlist.gates.map((g) => g.cell),
     gateSize: Float64Array.from(netlist.gates.map((g) => g.size)),
-    gateInputStart, gateInputs, gateOutput, driver, fanoutStart, fanoutGate, fanoutPin,
+    gateInputStart,
+    gateInputs,
+    gateOutput,
+    driver,
+    fanoutStart,
+    fanoutGate,
+    fanoutPin,
   };
   checkDriven(compiled, at);
   checkRoles(compiled);
@@ -139,8 +166,12 @@ function checkDriven(net: CompiledNetlist, at: (g: number) => string): void {
     for (let i = net.gateInputStart[g]!; i < net.gateInputStart[g + 1]!; i++) {
       const n = net.gateInputs[i]!;
       if (n !== net.clock && net.driver[n]! < 0) {
-        throw inputError('netlist.invalid', `${at(g)}.inputs[${i - net.gateInputStart[g]!}]`, net.netNames[n],
-          `is not driven by any gate and is not the clock "${net.netNames[net.clock]}"; every input net needs a driver`);
+        throw inputError(
+          'netlist.invalid',
+          `${at(g)}.inputs[${i - net.gateInputStart[g]!}]`,
+          net.netNames[n],
+          `is not driven by any gate and is not the clock "${net.netNames[net.clock]}"; every input net needs a driver`,
+        );
       }
     }
   }
@@ -155,10 +186,12 @@ function checkRoles(net: CompiledNetlist): void {
   ];
   for (const [path, name] of named) {
     const id = net.netIndex.get(name);
-    if (id === undefined || net.driver[id]! < 0) throw inputError('reference.unknown', path, name, 'is not the output of any gate in the netlist');
+    if (id === undefined || net.driver[id]! < 0)
+      throw inputError('reference.unknown', path, name, 'is not the output of any gate in the netlist');
   }
   for (const key of [...Object.keys(src.complements), ...Object.keys(src.early)]) {
-    if (!src.phases.includes(key)) throw inputError('reference.unknown', 'generator', key, `is not one of the phases ${src.phases.join(', ')}`);
+    if (!src.phases.includes(key))
+      throw inputError('reference.unknown', 'generator', key, `is not one of the phases ${src.phases.join(', ')}`);
   }
 }
 
@@ -178,13 +211,23 @@ function checkLoops(net: CompiledNetlist, where: string): void {
     const g0 = comp[0]!;
     const selfLoop = comp.length === 1 && gateInputsOf(net, g0).includes(net.gateOutput[g0]!);
     if (comp.length === 1 && !selfLoop) continue;
-    const broken = comp.some((g) => gateInputsOf(net, g).some((n) => {
-      const d = net.driver[n]!;
-      return clocked[n] === 1 && (d < 0 || componentOf[d] !== c);
-    }));
+    const broken = comp.some((g) =>
+      gateInputsOf(net, g).some((n) => {
+        const d = net.driver[n]!;
+        return clocked[n] === 1 && (d < 0 || componentOf[d] !== c);
+      }),
+    );
     if (!broken) {
-      const names = comp.map((g) => net.source.gates[g]!.name).sort().join(', ');
-      throw inputError('netlist.invalid', where, names, 'form a combinational loop that no input from the clock controls; it would oscillate or stick. Break the loop or feed it from the clock');
+      const names = comp
+        .map((g) => net.source.gates[g]!.name)
+        .sort()
+        .join(', ');
+      throw inputError(
+        'netlist.invalid',
+        where,
+        names,
+        'form a combinational loop that no input from the clock controls; it would oscillate or stick. Break the loop or feed it from the clock',
+      );
     }
   }
 }

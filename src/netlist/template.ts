@@ -23,27 +23,48 @@ export function expandTemplate(input: TemplateSpec): Netlist {
   const spec = { ...input, buffer: input.buffer ?? [...DEFAULT_BUFFERS[input.template]] };
   const stages = spec.stages;
   if (stages % 2 !== 0) {
-    throw inputError('netlist.invalid', 'generator.stages', stages, `is odd; the ${spec.template} template needs an even number of inverters per chain (0, 2, 4, ...) so the feedback keeps its sense`);
+    throw inputError(
+      'netlist.invalid',
+      'generator.stages',
+      stages,
+      `is odd; the ${spec.template} template needs an even number of inverters per chain (0, 2, 4, ...) so the feedback keeps its sense`,
+    );
   }
   const stageSizes = Array.isArray(spec.stageSize) ? spec.stageSize : Array.from({ length: stages }, () => spec.stageSize as number);
   if (stageSizes.length !== stages) {
-    throw inputError('netlist.invalid', 'generator.stageSize', spec.stageSize, `lists ${stageSizes.length} sizes; give one per stage (${stages}) or a single number`);
+    throw inputError(
+      'netlist.invalid',
+      'generator.stageSize',
+      spec.stageSize,
+      `lists ${stageSizes.length} sizes; give one per stage (${stages}) or a single number`,
+    );
   }
   const bufferParity = spec.template === 'nand' ? 1 : 0;
   checkBuffer('generator.buffer', spec.buffer, bufferParity, spec.template);
   const earlyBuffer = spec.earlyBuffer ?? spec.buffer;
   if (spec.earlyTap > 0) {
     if (spec.earlyTap % 2 !== 0 || spec.earlyTap > stages) {
-      throw inputError('netlist.invalid', 'generator.earlyTap', spec.earlyTap, `must be even and at most the chain length (${stages}); it counts stages back from the chain end`);
+      throw inputError(
+        'netlist.invalid',
+        'generator.earlyTap',
+        spec.earlyTap,
+        `must be even and at most the chain length (${stages}); it counts stages back from the chain end`,
+      );
     }
     checkBuffer('generator.earlyBuffer', earlyBuffer, bufferParity, spec.template);
   }
   const feedbackTap = spec.feedbackTap ?? 0;
   if (feedbackTap % 2 !== 0 || feedbackTap > spec.buffer.length) {
-    throw inputError('netlist.invalid', 'generator.feedbackTap', feedbackTap, `must be even and at most the buffer length (${spec.buffer.length}); the feedback keeps its sense only after an even number of buffer inverters`);
+    throw inputError(
+      'netlist.invalid',
+      'generator.feedbackTap',
+      feedbackTap,
+      `must be even and at most the buffer length (${spec.buffer.length}); the feedback keeps its sense only after an even number of buffer inverters`,
+    );
   }
   const [phase1, phase2] = spec.phases;
-  if (phase1 === phase2) throw inputError('value.duplicate', 'generator.phases', spec.phases, 'names the same net twice; the two phases need distinct names');
+  if (phase1 === phase2)
+    throw inputError('value.duplicate', 'generator.phases', spec.phases, 'names the same net twice; the two phases need distinct names');
   const gates: GateSpec[] = [];
   gates.push({ name: 'u_clkinv', cell: 'INV', size: spec.inputSize, inputs: ['clk'], output: 'clkb' });
   const cell = spec.template === 'nand' ? 'NAND2' : 'NOR2';
@@ -59,7 +80,13 @@ export function expandTemplate(input: TemplateSpec): Netlist {
     const ownEnd = chainEnd(nets, spec.buffer.length, phase);
     const gateOutput = stages === 0 ? ownEnd : nets[0]!;
     const clock = ownClock[side - 1]!;
-    gates.push({ name: `u_gate${side}`, cell, size: spec.gateSize, inputs: spec.clockInput === 'inner' ? [otherEnd, clock] : [clock, otherEnd], output: gateOutput });
+    gates.push({
+      name: `u_gate${side}`,
+      cell,
+      size: spec.gateSize,
+      inputs: spec.clockInput === 'inner' ? [otherEnd, clock] : [clock, otherEnd],
+      output: gateOutput,
+    });
     stageSizes.forEach((size, k) => {
       const output = k === stages - 1 ? ownEnd : nets[k + 1]!;
       gates.push({ name: `u_chain${side}_${k + 1}`, cell: 'INV', size, inputs: [nets[k]!], output });
@@ -108,7 +135,12 @@ function pushBuffer(gates: GateSpec[], prefix: string, netPrefix: string, from: 
 
 function checkBuffer(path: string, sizes: readonly number[], parity: number, style: string): void {
   if (sizes.length % 2 !== parity) {
-    throw inputError('netlist.invalid', path, sizes, `has ${sizes.length} inverters; the ${style} template needs an ${parity === 1 ? 'odd' : 'even'} count so each phase is active high`);
+    throw inputError(
+      'netlist.invalid',
+      path,
+      sizes,
+      `has ${sizes.length} inverters; the ${style} template needs an ${parity === 1 ? 'odd' : 'even'} count so each phase is active high`,
+    );
   }
 }
 
@@ -126,7 +158,13 @@ export function expandNetlist(spec: NetlistSpec): Netlist {
   const origins: number[] = [];
   for (const [g, gate] of spec.gates.entries()) {
     if (gate.cell === 'BUF') {
-      if (gate.inputs.length !== 1) throw inputError('netlist.invalid', `generator.gates[${g}].inputs`, gate.inputs, `has ${gate.inputs.length} nets; cell BUF takes exactly 1`);
+      if (gate.inputs.length !== 1)
+        throw inputError(
+          'netlist.invalid',
+          `generator.gates[${g}].inputs`,
+          gate.inputs,
+          `has ${gate.inputs.length} nets; cell BUF takes exactly 1`,
+        );
       const mid = `${gate.name}.mid`;
       const [first, second] = bufferStages(gate.size);
       gates.push({ name: `${gate.name}.1`, cell: 'INV', size: first, inputs: gate.inputs.slice(0, 1), output: mid });

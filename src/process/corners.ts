@@ -15,7 +15,12 @@ export interface SourcedCorner {
 
 export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
   if (spec.list && (spec.process || spec.vdd || spec.temperature || spec.duty)) {
-    throw inputError('value.invalid', 'corners', Object.keys(spec).join(', '), 'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty');
+    throw inputError(
+      'value.invalid',
+      'corners',
+      Object.keys(spec).join(', '),
+      'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty',
+    );
   }
   const out: SourcedCorner[] = spec.list ? fromList(spec, nominalDuty) : fromAxes(spec, card, nominalDuty);
   checkCorners(out, card);
@@ -23,7 +28,7 @@ export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty:
 }
 
 function defaultProcess(card: ProcessCard): string {
-  return Object.hasOwn(card.corners, 'tt') ? 'tt' : Object.keys(card.corners)[0] ?? 'tt';
+  return Object.hasOwn(card.corners, 'tt') ? 'tt' : (Object.keys(card.corners)[0] ?? 'tt');
 }
 
 function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
@@ -33,20 +38,28 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   const duties = spec.duty ?? [nominalDuty];
   const count = processes.length * vdds.length * temperatures.length * duties.length;
   if (count > MAX_CORNERS) {
-    throw inputError('value.too-many', 'corners', `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`, `is more than ${MAX_CORNERS} corners; list fewer values per axis`);
+    throw inputError(
+      'value.too-many',
+      'corners',
+      `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`,
+      `is more than ${MAX_CORNERS} corners; list fewer values per axis`,
+    );
   }
   const showDuty = duties.length > 1;
   const out: SourcedCorner[] = [];
-  for (const [pi, process] of processes.entries()) for (const [vi, vdd] of vdds.entries()) for (const [ti, temperature] of temperatures.entries()) for (const duty of duties) {
-    out.push({
-      corner: { name: cornerName(process, vdd, temperature, showDuty ? duty : undefined), process, vdd, temperature, duty },
-      paths: {
-        process: spec.process ? `corners.process[${pi}]` : 'corners.process',
-        vdd: spec.vdd ? `corners.vdd[${vi}]` : 'process.vddNominal',
-        temperature: spec.temperature ? `corners.temperature[${ti}]` : 'process.t0',
-      },
-    });
-  }
+  for (const [pi, process] of processes.entries())
+    for (const [vi, vdd] of vdds.entries())
+      for (const [ti, temperature] of temperatures.entries())
+        for (const duty of duties) {
+          out.push({
+            corner: { name: cornerName(process, vdd, temperature, showDuty ? duty : undefined), process, vdd, temperature, duty },
+            paths: {
+              process: spec.process ? `corners.process[${pi}]` : 'corners.process',
+              vdd: spec.vdd ? `corners.vdd[${vi}]` : 'process.vddNominal',
+              temperature: spec.temperature ? `corners.temperature[${ti}]` : 'process.t0',
+            },
+          });
+        }
   return out;
 }
 
@@ -56,7 +69,13 @@ function fromList(spec: CornersSpec, nominalDuty: number): SourcedCorner[] {
   return list.map((c, i) => {
     const duty = c.duty ?? nominalDuty;
     return {
-      corner: { name: cornerName(c.process, c.vdd, c.temperature, showDuty ? duty : undefined), process: c.process, vdd: c.vdd, temperature: c.temperature, duty },
+      corner: {
+        name: cornerName(c.process, c.vdd, c.temperature, showDuty ? duty : undefined),
+        process: c.process,
+        vdd: c.vdd,
+        temperature: c.temperature,
+        duty,
+      },
       paths: { process: `corners.list[${i}].process`, vdd: `corners.list[${i}].vdd`, temperature: `corners.list[${i}].temperature` },
     };
   });
@@ -68,7 +87,12 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
   const seen = new Set<string>();
   for (const { corner, paths } of corners) {
     if (processCornerOf(card, corner.process) === undefined) {
-      throw inputError('reference.unknown', paths.process, corner.process, `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`);
+      throw inputError(
+        'reference.unknown',
+        paths.process,
+        corner.process,
+        `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`,
+      );
     }
     if (seen.has(corner.name)) throw inputError('value.duplicate', 'corners', corner.name, 'appears twice; every corner must be distinct');
     seen.add(corner.name);
@@ -77,8 +101,12 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
     } catch (error) {
       if (!(error instanceof InputError)) throw error;
       const threshold = Math.max(thresholdOf(card, 'n', corner), thresholdOf(card, 'p', corner));
-      throw inputError('physics.device-off', paths.vdd, `${corner.vdd} V`,
-        `is not above the device threshold at ${corner.name} (${threshold.toFixed(3)} V): a device cannot turn on at this corner; raise the supply or drop the corner`);
+      throw inputError(
+        'physics.device-off',
+        paths.vdd,
+        `${corner.vdd} V`,
+        `is not above the device threshold at ${corner.name} (${threshold.toFixed(3)} V): a device cannot turn on at this corner; raise the supply or drop the corner`,
+      );
     }
   }
 }
@@ -100,7 +128,8 @@ export function namesCorner(text: string, corner: Corner): boolean {
   if (process.trim().toLowerCase() !== corner.process.toLowerCase()) return false;
   const vdd = parseQuantity(supply.trim(), 'V');
   const celsius = parseTemperature(temperature.trim());
-  if (!vdd.ok || !celsius.ok || Math.abs(vdd.value - corner.vdd) > 1e-9 || Math.abs(celsius.value - corner.temperature) > 1e-9) return false;
+  if (!vdd.ok || !celsius.ok || Math.abs(vdd.value - corner.vdd) > 1e-9 || Math.abs(celsius.value - corner.temperature) > 1e-9)
+    return false;
   const namedDuty = corner.name.split('/').length === 4;
   if (duty === undefined) return !namedDuty;
   const d = /^duty\s*([0-9.]+)$/i.exec(duty.trim());

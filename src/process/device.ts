@@ -110,15 +110,23 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
   const params = card[type];
   const shift = processCornerOf(card, corner.process)?.[type];
   if (!shift) {
-    throw inputError('reference.unknown', 'corners.process', corner.process,
-      `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`);
+    throw inputError(
+      'reference.unknown',
+      'corners.process',
+      corner.process,
+      `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`,
+    );
   }
   const vth = thresholdAt(params, shift.dvth, corner.temperature, card.t0);
   const temperatureScale = mobilityScale(params, corner.temperature, card.t0);
   const driveConstant = params.drive * shift.drive * temperatureScale;
   if (!(corner.vdd > vth)) {
-    throw inputError('physics.device-off', `corners (${corner.name})`, `${corner.vdd} V`,
-      `is not above the ${type}-device threshold at ${corner.name} (${vth.toFixed(3)} V): the device cannot turn on; raise the supply or drop this corner`);
+    throw inputError(
+      'physics.device-off',
+      `corners (${corner.name})`,
+      `${corner.vdd} V`,
+      `is not above the ${type}-device threshold at ${corner.name} (${vth.toFixed(3)} V): the device cannot turn on; raise the supply or drop this corner`,
+    );
   }
   return {
     type,
@@ -126,7 +134,10 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
     alpha: params.alpha,
     idsatPerWidth: saturationCurrent(driveConstant, params.alpha, corner.vdd - vth),
     driveConstant,
-    kprime: params.kprime * shift.drive * mobilityScale({ mobilityExponent: params.triode?.mobilityExponent ?? params.mobilityExponent }, corner.temperature, card.t0),
+    kprime:
+      params.kprime *
+      shift.drive *
+      mobilityScale({ mobilityExponent: params.triode?.mobilityExponent ?? params.mobilityExponent }, corner.temperature, card.t0),
     ronVthShift: (params.vthTempco - (params.triode?.vthTempco ?? params.vthTempco)) * (corner.temperature - card.t0),
     theta: params.theta ?? derivedTheta(card, type),
     gamma: params.gamma,

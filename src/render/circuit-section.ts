@@ -38,13 +38,31 @@ export interface CircuitSection {
   readonly note: string;
 }
 
-export const CIRCUIT_HEAD = ['corner', 'V out', 'ripple', 'R out', 'R ssl', 'R fsl', 'efficiency', 'lost / period', 'start-up', 'verdict'] as const;
+export const CIRCUIT_HEAD = [
+  'corner',
+  'V out',
+  'ripple',
+  'R out',
+  'R ssl',
+  'R fsl',
+  'efficiency',
+  'lost / period',
+  'start-up',
+  'verdict',
+] as const;
 
-const eng = (unit: string) => (x: number | null): string => (x === null || !Number.isFinite(x) ? '-' : formatEngineering(x, unit));
+const eng =
+  (unit: string) =>
+  (x: number | null): string =>
+    x === null || !Number.isFinite(x) ? '-' : formatEngineering(x, unit);
 
 /** The figure each circuit check kind judges, as the verdict column names it. */
 const FIGURE: Readonly<Partial<Record<CheckKind, string>>> = {
-  'output-min': 'output min', 'output-max': 'output max', 'ripple-max': 'ripple', 'efficiency-min': 'efficiency', 'lost-charge-max': 'lost charge',
+  'output-min': 'output min',
+  'output-max': 'output max',
+  'ripple-max': 'ripple',
+  'efficiency-min': 'efficiency',
+  'lost-charge-max': 'lost charge',
 };
 
 function verdictOf(result: CornerResult, kinds: readonly CheckKind[]): boolean | null {
@@ -56,13 +74,24 @@ function row(result: CornerResult): CircuitRow {
   const c = result.circuit;
   const failing = result.checks.filter((k) => CIRCUIT_KINDS.has(k.kind) && !k.pass);
   const pass = c !== undefined && failing.length === 0;
-  const verdict = c === undefined ? `${GLYPH.fail} no figures: the generator did not settle`
-    : pass ? `${GLYPH.pass} pass` : `${GLYPH.fail} FAIL: ${[...new Set(failing.map((k) => FIGURE[k.kind] ?? k.kind))].join(', ')}`;
+  const verdict =
+    c === undefined
+      ? `${GLYPH.fail} no figures: the generator did not settle`
+      : pass
+        ? `${GLYPH.pass} pass`
+        : `${GLYPH.fail} FAIL: ${[...new Set(failing.map((k) => FIGURE[k.kind] ?? k.kind))].join(', ')}`;
   if (!c) return { corner: result.corner.name, cells: [], pass: false, verdict };
   const v = eng('V');
   const ohm = eng('ohm');
-  const cell = (text: string, value: number | null, kinds: readonly CheckKind[] = []): CircuitCell => ({ text, value, pass: verdictOf(result, kinds) });
-  const startup = c.startupCycles === null ? `not reached in ${c.startupLimit} periods` : `${c.startupCycles} (${formatEngineering(c.startupTime!, 's')})`;
+  const cell = (text: string, value: number | null, kinds: readonly CheckKind[] = []): CircuitCell => ({
+    text,
+    value,
+    pass: verdictOf(result, kinds),
+  });
+  const startup =
+    c.startupCycles === null
+      ? `not reached in ${c.startupLimit} periods`
+      : `${c.startupCycles} (${formatEngineering(c.startupTime!, 's')})`;
   return {
     corner: result.corner.name + (c.method === 'none' ? ' (unsettled)' : ''),
     cells: [
@@ -86,9 +115,21 @@ export function circuitSection(resolved: ResolvedDesign, results: readonly Corne
   const sweep = circuitSweep(resolved, results);
   if (!spec || !sweep) return null;
   const req = spec.requirements;
-  const output = [req.output?.min ? `≥ ${levelText(req.output.min)}` : '', req.output?.max ? `≤ ${levelText(req.output.max)}` : ''].filter((t) => t).join(', ');
-  const required = ['required', output, req.ripple ? `≤ ${formatEngineering(req.ripple.max, 'V')}` : '', '', '', '',
-    req.efficiency ? `≥ ${(req.efficiency.min * 100).toFixed(1)} %` : '', req.lostCharge ? `≤ ${formatEngineering(req.lostCharge.max, 'C')}` : '', '', ''];
+  const output = [req.output?.min ? `≥ ${levelText(req.output.min)}` : '', req.output?.max ? `≤ ${levelText(req.output.max)}` : '']
+    .filter((t) => t)
+    .join(', ');
+  const required = [
+    'required',
+    output,
+    req.ripple ? `≤ ${formatEngineering(req.ripple.max, 'V')}` : '',
+    '',
+    '',
+    '',
+    req.efficiency ? `≥ ${(req.efficiency.min * 100).toFixed(1)} %` : '',
+    req.lostCharge ? `≤ ${formatEngineering(req.lostCharge.max, 'C')}` : '',
+    '',
+    '',
+  ];
   const load = spec.load ? ('current' in spec.load ? 'the heavier load current' : 'the lower load resistance') : 'no load';
   return {
     head: CIRCUIT_HEAD,
@@ -96,9 +137,10 @@ export function circuitSection(resolved: ResolvedDesign, results: readonly Corne
     rows: results.map(row),
     sweep,
     chart: renderCircuitSweepChart({ design: resolved.design.name, output: spec.output, sweep }, 'sweep'),
-    note: `Mean output, ripple (peak to peak), output impedance with its slow- and fast-switching asymptotes, efficiency and start-up at ${load}; `
-      + 'the output maximum is checked at the lighter load. Efficiency counts the clock generator and the switch gates as input. '
-      + 'Lost charge is what flows back through off switches and reverse-biased diodes and through pairs that conduct together, per period. '
-      + 'Start-up counts periods from all capacitors discharged to 90 % of the final output. A failing figure is marked ✕ and shaded.',
+    note:
+      `Mean output, ripple (peak to peak), output impedance with its slow- and fast-switching asymptotes, efficiency and start-up at ${load}; ` +
+      'the output maximum is checked at the lighter load. Efficiency counts the clock generator and the switch gates as input. ' +
+      'Lost charge is what flows back through off switches and reverse-biased diodes and through pairs that conduct together, per period. ' +
+      'Start-up counts periods from all capacitors discharged to 90 % of the final output. A failing figure is marked ✕ and shaded.',
   };
 }

@@ -70,7 +70,8 @@ export function circuitWaves(resolved: ResolvedDesign, result: CornerResult): Ci
   const count = t.times.length - 1;
   const offset = wrapTime(c.start - result.simulation.windowStart, period);
   // Samples of one period (the last boundary repeats the first), rotated to start at the window start.
-  const order = Array.from({ length: count }, (_, k) => k).map((k) => ({ k, at: wrapTime(offset + t.times[k]!, period) }))
+  const order = Array.from({ length: count }, (_, k) => k)
+    .map((k) => ({ k, at: wrapTime(offset + t.times[k]!, period) }))
     .sort((a, b) => a.at - b.at || a.k - b.k);
   const nodes = drawnNodes(resolved, c.nodes).map(({ node, role, note }) => {
     const i = c.nodes.indexOf(node);
@@ -96,7 +97,14 @@ export function circuitWaves(resolved: ResolvedDesign, result: CornerResult): Ci
     const mean = role === 'output' ? c.output : area / period;
     return { node, role, note, points, min, max, mean };
   });
-  return { corner: result.corner.name, period, nodes, output: c.output, ripple: c.ripple, packets: chargePackets(nodes[0]!.points, c.ripple, Math.sign(c.output) || 1) };
+  return {
+    corner: result.corner.name,
+    period,
+    nodes,
+    output: c.output,
+    ripple: c.ripple,
+    packets: chargePackets(nodes[0]!.points, c.ripple, Math.sign(c.output) || 1),
+  };
 }
 
 /**
@@ -110,7 +118,10 @@ export function chargePackets(points: ReadonlyArray<readonly [number, number]>, 
   for (let p = 1; p < points.length; p++) {
     const up = sign * (points[p]![1] - points[p - 1]![1]) > threshold && points[p]![0] > points[p - 1]![0];
     if (up) open = open ? { a: open.a, b: p } : { a: p - 1, b: p };
-    else if (open) { runs.push(open); open = null; }
+    else if (open) {
+      runs.push(open);
+      open = null;
+    }
   }
   if (open) runs.push(open);
   if (runs.length === 0 || ripple <= 0) return [];
@@ -119,7 +130,11 @@ export function chargePackets(points: ReadonlyArray<readonly [number, number]>, 
   const last = runs[runs.length - 1]!;
   const packets = runs.map((r) => ({ start: points[r.a]![0], end: points[r.b]![0], rise: points[r.b]![1] - points[r.a]![1] }));
   if (runs.length > 1 && last.b === points.length - 1 && first.a === 0) {
-    const joined = { start: packets[packets.length - 1]!.start, end: period + packets[0]!.end, rise: packets[packets.length - 1]!.rise + packets[0]!.rise };
+    const joined = {
+      start: packets[packets.length - 1]!.start,
+      end: period + packets[0]!.end,
+      rise: packets[packets.length - 1]!.rise + packets[0]!.rise,
+    };
     return [...packets.slice(1, -1), joined];
   }
   return packets;

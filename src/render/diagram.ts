@@ -163,10 +163,11 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
   const refIndex = choice.kind === 'corner' ? choice.index : choice.reference;
   const chosen = choice.kind === 'corner' ? [results[refIndex]!] : results;
   const measured = chosen.filter((r) => r.measurement.ok);
-  const excluded = chosen.filter((r) => !r.measurement.ok)
+  const excluded = chosen
+    .filter((r) => !r.measurement.ok)
     .map((r) => ({ corner: r.corner.name, reason: r.measurement.ok ? '' : r.measurement.reason }));
   const refResult = results[refIndex]!;
-  const reference = refResult.measurement.ok ? refResult : measured[0] ?? refResult;
+  const reference = refResult.measurement.ok ? refResult : (measured[0] ?? refResult);
   const rows: DiagramRow[] = signalRows(netlist, nets).map((row) => ({
     ...row,
     waves: (measured.length > 0 ? measured : [reference]).map((r) => ({ corner: r.corner.name, wave: netWave(r, netlist, row.net) })),
@@ -179,9 +180,11 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
   const clockFall = reference.corner.duty * period;
   const events: Array<{ t: number; lo: number; hi: number }> = [];
   for (const row of rows) {
-    for (const { wave } of row.waves) for (const r of wave.ramps) events.push({ t: r.t50, lo: r.t50 - r.transition / 2, hi: r.t50 + r.transition / 2 });
+    for (const { wave } of row.waves)
+      for (const r of wave.ramps) events.push({ t: r.t50, lo: r.t50 - r.transition / 2, hi: r.t50 + r.transition / 2 });
   }
-  for (const s of switches) for (const w of s.windows) for (const t of [w.on, w.off, w.onLatest, w.offEarliest]) events.push({ t, lo: t, hi: t });
+  for (const s of switches)
+    for (const w of s.windows) for (const t of [w.on, w.off, w.onLatest, w.offEarliest]) events.push({ t, lo: t, hi: t });
   const checks = chosen.flatMap((r) => r.checks);
   return {
     design: design.name,
@@ -214,7 +217,10 @@ function switchRows(resolved: ResolvedDesign, measured: readonly CornerResult[],
     for (const r of measured) {
       const s = r.switches.find((x) => x.name === plan.name);
       if (!s) continue;
-      if (s.status !== 'switching') { problems.push({ corner: r.corner.name, detail: s.detail }); continue; }
+      if (s.status !== 'switching') {
+        problems.push({ corner: r.corner.name, detail: s.detail });
+        continue;
+      }
       const on = relative(s.on, r);
       windows.push({
         corner: r.corner.name,
@@ -236,7 +242,14 @@ function switchRows(resolved: ResolvedDesign, measured: readonly CornerResult[],
         if (wrapTime(mid - rise, period) <= high) phase = i as 0 | 1;
       });
     }
-    return { name: plan.name, type: plan.type, phase, windows, problems, offState: offStateMark(resolved, plan, measured.length > 0 ? measured : [reference], reference) };
+    return {
+      name: plan.name,
+      type: plan.type,
+      phase,
+      windows,
+      problems,
+      offState: offStateMark(resolved, plan, measured.length > 0 ? measured : [reference], reference),
+    };
   });
 }
 
@@ -244,7 +257,10 @@ function switchRows(resolved: ResolvedDesign, measured: readonly CornerResult[],
  * The phase states of the reference period as intervals (phase 1 active, the dead time after it,
  * phase 2 active, the dead time after that), s from the window start; empty if it did not settle.
  */
-export function stateIntervals(resolved: ResolvedDesign, reference: CornerResult): Array<{ start: number; end: number; state: StateIndex; label: string }> {
+export function stateIntervals(
+  resolved: ResolvedDesign,
+  reference: CornerResult,
+): Array<{ start: number; end: number; state: StateIndex; label: string }> {
   if (!reference.measurement.ok) return [];
   const period = 1 / resolved.design.clock.frequency;
   const [a, b] = resolved.netlist.source.phases;
@@ -265,7 +281,12 @@ export function stateIntervals(resolved: ResolvedDesign, reference: CornerResult
   ];
 }
 
-function offStateMark(resolved: ResolvedDesign, plan: SwitchPlan, results: readonly CornerResult[], reference: CornerResult): OffStateMark | null {
+function offStateMark(
+  resolved: ResolvedDesign,
+  plan: SwitchPlan,
+  results: readonly CornerResult[],
+  reference: CornerResult,
+): OffStateMark | null {
   const k = resolved.switchIndex.get(plan.name)!;
   const subject = resolved.biasNames[k]?.subject;
   if (!subject) return null;
@@ -275,11 +296,16 @@ function offStateMark(resolved: ResolvedDesign, plan: SwitchPlan, results: reado
     if (c && (worst === null || compareChecks(c, worst.check) < 0)) worst = { check: c, corner: r.corner.name };
   }
   if (!worst) return null;
-  const intervals = stateIntervals(resolved, reference).filter((i) => subject.type === 'switch' && subject.offIn.includes(i.state))
+  const intervals = stateIntervals(resolved, reference)
+    .filter((i) => subject.type === 'switch' && subject.offIn.includes(i.state))
     .map((i) => ({ start: i.start, end: i.end, state: i.label }));
   return {
-    intervals, margin: worst.check.margin, pass: worst.check.pass, corner: worst.corner,
-    phase: worst.check.phase ?? '', detail: worst.check.detail ?? '',
+    intervals,
+    margin: worst.check.margin,
+    pass: worst.check.pass,
+    corner: worst.corner,
+    phase: worst.check.phase ?? '',
+    detail: worst.check.detail ?? '',
   };
 }
 
@@ -308,7 +334,20 @@ function deadTimeMarks(measured: readonly CornerResult[], single: boolean): Dead
       const d = r.measurement.deadTimes[index];
       const start = relative(d.start, r);
       const reasons = r.checks.filter((c) => failsAtDeadTime(c, index)).map((c) => DEAD_TIME_WORDS[c.kind] ?? c.name);
-      return [{ d, mark: { role: 'single' as MarkRole, corner: r.corner.name, start, end: start + d.t50, value: d.t50, pass: reasons.length === 0, reason: reasons.join('; ') } }];
+      return [
+        {
+          d,
+          mark: {
+            role: 'single' as MarkRole,
+            corner: r.corner.name,
+            start,
+            end: start + d.t50,
+            value: d.t50,
+            pass: reasons.length === 0,
+            reason: reasons.join('; '),
+          },
+        },
+      ];
     });
     if (all.length === 0) continue;
     let least = all[0]!;
@@ -317,9 +356,13 @@ function deadTimeMarks(measured: readonly CornerResult[], single: boolean): Dead
       if (m.d.t50 < least.d.t50) least = m;
       if (m.d.t50 > most.d.t50) most = m;
     }
-    const marks: SpanMark[] = single || least === most
-      ? [{ ...least.mark, role: single ? 'single' : 'least' }]
-      : [{ ...least.mark, role: 'least' }, { ...most.mark, role: 'most' }];
+    const marks: SpanMark[] =
+      single || least === most
+        ? [{ ...least.mark, role: single ? 'single' : 'least' }]
+        : [
+            { ...least.mark, role: 'least' },
+            { ...most.mark, role: 'most' },
+          ];
     out.push({ from: least.d.from, to: least.d.to, marks, gap: least.d.gap });
   }
   return out;
@@ -345,14 +388,28 @@ function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], s
         const start = relative(part.start, r);
         const pass = part.margin >= 0;
         const mark: HandoverMark = {
-          role: single ? 'single' : 'least', corner: r.corner.name, start, end: start + part.span, value: part.span, pass,
-          reason: pass ? '' : part.span < 0 ? words.reversed : words.short, margin: part.margin,
+          role: single ? 'single' : 'least',
+          corner: r.corner.name,
+          start,
+          end: start + part.span,
+          value: part.span,
+          pass,
+          reason: pass ? '' : part.span < 0 ? words.reversed : words.short,
+          margin: part.margin,
         };
         if (worst === null || mark.margin < worst.margin) worst = mark;
       }
       if (worst) {
-        out.push({ kind: subject.constraint, name: subject.label, from: handover.first.switch, to: handover.then.switch,
-          fromEvent: handover.first.event, toEvent: handover.then.event, guard: subject.min, marks: [worst] });
+        out.push({
+          kind: subject.constraint,
+          name: subject.label,
+          from: handover.first.switch,
+          to: handover.then.switch,
+          fromEvent: handover.first.event,
+          toEvent: handover.then.event,
+          guard: subject.min,
+          marks: [worst],
+        });
       }
     });
   }
@@ -375,7 +432,15 @@ function settleMarks(resolved: ResolvedDesign, measured: readonly CornerResult[]
       const part = check?.parts?.[0];
       if (!check || check.margin === null || part?.start === undefined || part.span === undefined || part.need === undefined) continue;
       const start = relative(part.start, r);
-      const mark: SettleMark = { name: subject.path, corner: r.corner.name, start, end: start + part.span, needed: part.need, margin: check.margin, pass: check.pass };
+      const mark: SettleMark = {
+        name: subject.path,
+        corner: r.corner.name,
+        start,
+        end: start + part.span,
+        needed: part.need,
+        margin: check.margin,
+        pass: check.pass,
+      };
       if (worst === null || check.margin < worst.margin) worst = mark;
     }
     // A corner where the path cannot be measured fails it outright: that is what the lane shows.

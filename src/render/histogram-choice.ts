@@ -34,9 +34,14 @@ export function matchCheck(names: readonly string[], value: string, where: strin
   const found = exact.length > 0 ? exact : names.filter((n) => n.toLowerCase().includes(lower));
   if (found.length === 1) return found[0]!;
   const quote = (list: readonly string[]) => list.map((n) => `'${n}'`).join(', ');
-  throw inputError('reference.unknown', '--histogram-check', value, found.length > 1
-    ? `names ${found.length} checks ${where}; write more of one: ${quote(found)}`
-    : `is not a check ${where}; allowed: ${DEAD_TIMES}, or a check name or a unique part of one: ${quote(names)}`);
+  throw inputError(
+    'reference.unknown',
+    '--histogram-check',
+    value,
+    found.length > 1
+      ? `names ${found.length} checks ${where}; write more of one: ${quote(found)}`
+      : `is not a check ${where}; allowed: ${DEAD_TIMES}, or a check name or a unique part of one: ${quote(names)}`,
+  );
 }
 
 /** Index of the corner `value` names (`worst` or a corner name, any case); an InputError otherwise. */
@@ -47,12 +52,21 @@ export function pickCorner(names: readonly string[], worst: string, corner: stri
   if (exact >= 0) return exact;
   const folded = names.findIndex((n) => n.toLowerCase() === want.toLowerCase());
   if (folded >= 0) return folded;
-  throw inputError('reference.unknown', '--histogram-corner', want, `is not a corner of this run; allowed: worst or one of ${names.join(', ')}`);
+  throw inputError(
+    'reference.unknown',
+    '--histogram-corner',
+    want,
+    `is not a corner of this run; allowed: worst or one of ${names.join(', ')}`,
+  );
 }
 
 /** Reads `--histogram-corner` and `--histogram-check` (a check name, a unique part of one, or `dead-times`). */
 export function histogramSubject(r: McReport, corner?: string, check?: string): HistogramSubject {
-  const index = pickCorner(r.corners.map((c) => c.name), r.worstCorner, corner);
+  const index = pickCorner(
+    r.corners.map((c) => c.name),
+    r.worstCorner,
+    corner,
+  );
   const c = r.corners[index]!;
   const deadTimes = c.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '));
   const checks = drawable(c);
@@ -61,6 +75,10 @@ export function histogramSubject(r: McReport, corner?: string, check?: string): 
     const limiting = yieldLimitingCheck(c);
     return limiting ? { corner: index, kind: 'check', check: limiting } : { corner: index, kind: 'dead-times', deadTimes };
   }
-  const name = matchCheck(checks.map((q) => q.name), check, `at ${c.name}`);
+  const name = matchCheck(
+    checks.map((q) => q.name),
+    check,
+    `at ${c.name}`,
+  );
   return { corner: index, kind: 'check', check: checks.find((q) => q.name === name)! };
 }

@@ -42,7 +42,10 @@ export function marginRows(results: readonly CornerResult[]): MarginRow[] {
   for (const r of results) {
     for (const c of r.checks) {
       let row = rows.get(c.name);
-      if (!row) { row = { kind: c.kind, points: [], unmeasured: [], failing: 0, corners: 0 }; rows.set(c.name, row); }
+      if (!row) {
+        row = { kind: c.kind, points: [], unmeasured: [], failing: 0, corners: 0 };
+        rows.set(c.name, row);
+      }
       row.corners++;
       if (!c.pass) row.failing++;
       if (c.margin === null) row.unmeasured.push(r.corner.name);
@@ -50,7 +53,8 @@ export function marginRows(results: readonly CornerResult[]): MarginRow[] {
     }
   }
   return [...rows.entries()].map(([name, row]) => ({
-    name, ...row,
+    name,
+    ...row,
     worst: row.points.reduce<MarginPoint | null>((w, p) => (w === null || p.margin < w.margin ? p : w), null),
   }));
 }

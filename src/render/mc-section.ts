@@ -23,8 +23,10 @@ function leastSigma(c: McReport['corners'][number]): { value: number; check: str
 
 export function mcHeadline(r: McReport): string {
   const pct = mcPercent(r);
-  return `${r.samples} dies (seed ${r.seed}) at each of ${r.corners.length} corners: yield at every corner ${pct(r.yield.value)}`
-    + ` (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}; worst corner ${r.worstCorner}.`;
+  return (
+    `${r.samples} dies (seed ${r.seed}) at each of ${r.corners.length} corners: yield at every corner ${pct(r.yield.value)}` +
+    ` (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}; worst corner ${r.worstCorner}.`
+  );
 }
 
 /** Rows for the corners with the lowest yield, then the least sigma margin, at most `count`. */
@@ -35,9 +37,12 @@ export function mcRows(r: McReport, count = 8): string[][] {
     const dead = c.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead '));
     const least = leastSigma(c);
     return [
-      c.name, pct(c.yield), `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
+      c.name,
+      pct(c.yield),
+      `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
       ...dead.slice(0, 2).map((d) => `${ps(d.mean)} ± ${ps(d.sigma)}`),
-      Number.isFinite(least.value) ? `${least.value.toFixed(1)} (${least.check})` : '-', String(c.worstSample.index),
+      Number.isFinite(least.value) ? `${least.value.toFixed(1)} (${least.check})` : '-',
+      String(c.worstSample.index),
     ];
   });
 }
@@ -50,6 +55,8 @@ export function mcShownNote(r: McReport, count = 8): string {
 
 export function mcHead(r: McReport): string[] {
   const first = r.corners[0];
-  const dead = first ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => `${q.name} mean ± sigma`) : [];
+  const dead = first
+    ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => `${q.name} mean ± sigma`)
+    : [];
   return ['corner', 'yield', '95 % interval', ...dead.slice(0, 2), 'least sigma margin', 'worst die'];
 }

@@ -95,7 +95,14 @@ function deadTimeRanges(results: readonly CornerResult[]): DeadTimeRange[] {
       if (m.d.t50 < least.d.t50) least = m;
       if (m.d.t50 > most.d.t50) most = m;
     }
-    out.push({ from: first.d.from, to: first.d.to, least: least.d.t50, leastCorner: least.corner, most: most.d.t50, mostCorner: most.corner });
+    out.push({
+      from: first.d.from,
+      to: first.d.to,
+      least: least.d.t50,
+      leastCorner: least.corner,
+      most: most.d.t50,
+      mostCorner: most.corner,
+    });
   }
   return out;
 }
@@ -134,8 +141,12 @@ export function buildReportModel(resolved: ResolvedDesign, results: readonly Cor
     confirm: extras.confirm ?? null,
     circuit: circuit && { ...circuit, chart: stamp(circuit.chart) },
     svg: {
-      worst: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst', run: verdict })),
-      all: stamp(renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all', run: verdict })),
+      worst: stamp(
+        renderTimingSvg(buildDiagram(resolved, results, { kind: 'corner', index: worst }, 'phases'), { idPrefix: 'worst', run: verdict }),
+      ),
+      all: stamp(
+        renderTimingSvg(buildDiagram(resolved, results, { kind: 'all', reference: worst }, 'phases'), { idPrefix: 'all', run: verdict }),
+      ),
       margins: stamp(renderMarginSvg(marginChartInput(resolved, results), { idPrefix: 'margins', run: verdict })),
     },
   };

@@ -16,24 +16,41 @@ export function signedTime(seconds: number): string {
 
 /** The ngspice comparison as two tables (quantities, then break-before-make) and one sentence. */
 export function confirmTables(c: ConfirmSection, model: string) {
-  const quantities = c.comparisons.flatMap((corner) => corner.quantities.map((q) => ({
-    cells: [corner.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
-      q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? 'within' : 'OVER'],
-    fail: !q.pass,
-  })));
-  const pairs = c.comparisons.flatMap((corner) => corner.breakBeforeMake.map((b) => ({
-    cells: [corner.corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured'), b.agrees ? 'alike' : 'DISAGREE'],
-    fail: !b.agrees,
-  })));
+  const quantities = c.comparisons.flatMap((corner) =>
+    corner.quantities.map((q) => ({
+      cells: [
+        corner.corner,
+        q.quantity,
+        formatTime(q.model),
+        q.simulator === null ? 'not measured' : formatTime(q.simulator),
+        q.relativeError === null ? '-' : percent(q.relativeError),
+        q.pass ? 'within' : 'OVER',
+      ],
+      fail: !q.pass,
+    })),
+  );
+  const pairs = c.comparisons.flatMap((corner) =>
+    corner.breakBeforeMake.map((b) => ({
+      cells: [
+        corner.corner,
+        b.check,
+        formatSignedTime(b.model),
+        formatSignedTime(b.simulator, 'not measured'),
+        b.agrees ? 'alike' : 'DISAGREE',
+      ],
+      fail: !b.agrees,
+    })),
+  );
   const within = c.comparisons.filter((x) => x.quantities.every((q) => q.pass)).length;
   const alike = pairs.filter((p) => !p.fail).length;
   const worst = worstDifference(c.comparisons);
   const n = c.comparisons.length;
-  const text = `The ${model} model against ${c.simulator} at ${n} corner${n === 1 ? '' : 's'}: `
-    + `dead times, gaps and widths within ${(c.tolerance * 100).toFixed(1)} % at ${within} of ${n}`
-    + `${pairs.length > 0 ? `, break-before-make verdicts alike for ${alike} of ${pairs.length} pairs` : ''}`
-    + `${worst ? `; largest difference ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})` : ''}. `
-    + 'The decks use the invented device models of the process card; sign-off needs the foundry\'s.';
+  const text =
+    `The ${model} model against ${c.simulator} at ${n} corner${n === 1 ? '' : 's'}: ` +
+    `dead times, gaps and widths within ${(c.tolerance * 100).toFixed(1)} % at ${within} of ${n}` +
+    `${pairs.length > 0 ? `, break-before-make verdicts alike for ${alike} of ${pairs.length} pairs` : ''}` +
+    `${worst ? `; largest difference ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})` : ''}. ` +
+    "The decks use the invented device models of the process card; sign-off needs the foundry's.";
   return {
     text,
     quantities: { head: ['corner', 'quantity', 'model', c.simulator, 'difference', 'verdict'], rows: quantities },
@@ -43,7 +60,12 @@ export function confirmTables(c: ConfirmSection, model: string) {
 
 /** The delay-chain proposals as a table (the design's own chain first), and one sentence on them. */
 /** `options`: the command-line options inside `text`, each to be kept on one line. */
-export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells: string[]; fail: boolean }>; text: string; options: string[] } {
+export function tuneTable(t: TuneReport): {
+  head: string[];
+  rows: Array<{ cells: string[]; fail: boolean }>;
+  text: string;
+  options: string[];
+} {
   const row = (label: string, c: TuneCandidateReport) => {
     const x = candidateCells(c);
     return { cells: [label, x.stages, x.size, x.load, x.deadMin, x.deadMax, x.margin, c.pass ? 'pass' : 'FAIL'], fail: !c.pass };
@@ -52,13 +74,19 @@ export function tuneTable(t: TuneReport): { head: string[]; rows: Array<{ cells:
   if (t.closest) rows.push(row('closest', t.closest));
   const best = t.proposals[0];
   const text = best
-    ? `The least wasteful chain that passes every corner: ${best.stages} stages of size ${String(best.stageSize)} with ${loadText(best.stageLoad)} per node, `
-      + `largest dead time ${formatTime(best.deadTimeMax ?? NaN)} against ${formatTime(t.current.deadTimeMax ?? NaN)} now (${best.overrides.map((o) => `--set ${o}`).join(' ')}). `
-      + (t.confirmed ? `The first proposals were simulated in ngspice at their worst corners (${t.confirmNote}).` : `Proposals keep the model's band and mismatch headroom but are unconfirmed in ngspice (${t.confirmNote}): run phasegap tune or confirm where it is installed.`)
+    ? `The least wasteful chain that passes every corner: ${best.stages} stages of size ${String(best.stageSize)} with ${loadText(best.stageLoad)} per node, ` +
+      `largest dead time ${formatTime(best.deadTimeMax ?? NaN)} against ${formatTime(t.current.deadTimeMax ?? NaN)} now (${best.overrides.map((o) => `--set ${o}`).join(' ')}). ` +
+      (t.confirmed
+        ? `The first proposals were simulated in ngspice at their worst corners (${t.confirmNote}).`
+        : `Proposals keep the model's band and mismatch headroom but are unconfirmed in ngspice (${t.confirmNote}): run phasegap tune or confirm where it is installed.`)
     : `No chain searched passes every corner${t.closest?.limiting ? `; closest still fails ${t.closest.limiting.check} at ${t.closest.limiting.corner}` : ''}.`;
-  return { head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'], rows, text, options: best ? best.overrides.map((o) => `--set ${o}`) : [] };
+  return {
+    head: ['chain', 'stages', 'stage size', 'stage load', 'dead min', 'dead max', 'least margin', 'verdict'],
+    rows,
+    text,
+    options: best ? best.overrides.map((o) => `--set ${o}`) : [],
+  };
 }
-
 
 /** The run's verdict in one word with its glyph: "✓ PASS" or "✕ FAIL". */
 export function verdictWord(verdict: 'pass' | 'fail'): string {
@@ -89,7 +117,10 @@ export function fmaxText(m: ReportModel): string {
 export function generatorText(m: ReportModel): string {
   const g = m.resolved.design.generator;
   if (g.template === 'netlist') return `free-form netlist of ${g.gates.length} cells`;
-  const extras = [g.complementary ? 'complementary outputs' : '', g.earlyTap > 0 ? `early phases tapped ${g.earlyTap} stages early` : ''].filter(Boolean);
+  const extras = [
+    g.complementary ? 'complementary outputs' : '',
+    g.earlyTap > 0 ? `early phases tapped ${g.earlyTap} stages early` : '',
+  ].filter(Boolean);
   return `${g.template} cross-coupled, ${g.stages} chain stages, gate size ${g.gateSize}, buffer ${(g.buffer ?? []).join('/')}${extras.length ? `, ${extras.join(', ')}` : ''}`;
 }
 
@@ -97,14 +128,20 @@ export function summaryItems(m: ReportModel): Array<[string, string]> {
   const r = m.report;
   const c = r.clock;
   const items: Array<[string, string]> = [
-    ['clock', `${formatEngineering(c.frequency, 'Hz')}, period ${formatTime(c.period)}, duty ${c.duty} ± ${c.dutyTolerance}, edges ${formatTime(c.transition)}`],
+    [
+      'clock',
+      `${formatEngineering(c.frequency, 'Hz')}, period ${formatTime(c.period)}, duty ${c.duty} ± ${c.dutyTolerance}, edges ${formatTime(c.transition)}`,
+    ],
     ['generator', generatorText(m)],
     ['delay model', r.model],
     ['process card', `${r.process} (${m.processSource})`],
     ['corners', `${r.corners.length}, ${r.corners.filter((x) => x.verdict === 'pass').length} pass`],
   ];
   for (const d of m.deadTimes) {
-    items.push([`dead time ${d.from}→${d.to}`, `${formatTime(d.least)} at ${d.leastCorner} to ${formatTime(d.most)} at ${d.mostCorner}${d.least > 0 ? `, spread ${(d.most / d.least).toFixed(2)}x` : ''}`]);
+    items.push([
+      `dead time ${d.from}→${d.to}`,
+      `${formatTime(d.least)} at ${d.leastCorner} to ${formatTime(d.most)} at ${d.mostCorner}${d.least > 0 ? `, spread ${(d.most / d.least).toFixed(2)}x` : ''}`,
+    ]);
   }
   const req = m.resolved.design.requirements;
   const wants = [
@@ -116,7 +153,11 @@ export function summaryItems(m: ReportModel): Array<[string, string]> {
   ].filter(Boolean);
   items.push(['requirements', wants.join(', ')]);
   items.push(['maximum frequency', fmaxText(m)]);
-  if (r.limiting) items.push(['limiting check', `${r.limiting.check} at ${r.limiting.corner}${r.limiting.margin === null ? ' (not measurable)' : `, margin ${formatMargin(r.limiting.margin, r.limiting.kind)}`}`]);
+  if (r.limiting)
+    items.push([
+      'limiting check',
+      `${r.limiting.check} at ${r.limiting.corner}${r.limiting.margin === null ? ' (not measurable)' : `, margin ${formatMargin(r.limiting.margin, r.limiting.kind)}`}`,
+    ]);
   return items;
 }
 
@@ -133,8 +174,14 @@ export function cornerRows(m: ReportModel): string[][] {
   return m.report.corners.map((c) => {
     const least = leastMargin(c);
     return [
-      c.name, ps(c.deadTimes[0]?.t50), ps(c.deadTimes[1]?.t50), ps(c.deadTimes[0]?.gap), ps(c.deadTimes[1]?.gap),
-      ns(c.widths[a]), ns(c.widths[b]), least === null ? 'n/a' : least === -Infinity ? 'switch bias fails' : signedTime(least),
+      c.name,
+      ps(c.deadTimes[0]?.t50),
+      ps(c.deadTimes[1]?.t50),
+      ps(c.deadTimes[0]?.gap),
+      ps(c.deadTimes[1]?.gap),
+      ns(c.widths[a]),
+      ns(c.widths[b]),
+      least === null ? 'n/a' : least === -Infinity ? 'switch bias fails' : signedTime(least),
       c.verdict === 'pass' ? '✓ pass' : `✕ FAIL${c.reason ? ` (${c.reason})` : ''}`,
     ];
   });

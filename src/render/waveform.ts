@@ -82,7 +82,11 @@ function line(r: Ramp, t: number): number {
 export function wavePoints(wave: NetWave, from: number, to: number): WavePoint[] {
   const ramps = rampsBetween(wave, from, to);
   const raw: WavePoint[] = [];
-  if (ramps.length === 0) return [[from, wave.initial], [to, wave.initial]];
+  if (ramps.length === 0)
+    return [
+      [from, wave.initial],
+      [to, wave.initial],
+    ];
   let start: WavePoint = [ramps[0]!.t50 - ramps[0]!.transition / 2, ramps[0]!.rising ? 0 : 1];
   raw.push([-Infinity, start[1]]);
   for (let i = 0; i < ramps.length; i++) {
@@ -120,4 +124,3 @@ function clip(points: readonly WavePoint[], from: number, to: number): WavePoint
   out.push([to, at(to)]);
   return out;
 }
-

@@ -44,7 +44,13 @@ export interface CheckReport {
   readonly design: string;
   readonly process: string;
   readonly model: string;
-  readonly clock: { readonly frequency: number; readonly period: number; readonly duty: number; readonly dutyTolerance: number; readonly transition: number };
+  readonly clock: {
+    readonly frequency: number;
+    readonly period: number;
+    readonly duty: number;
+    readonly dutyTolerance: number;
+    readonly transition: number;
+  };
   readonly phases: readonly string[];
   readonly verdict: 'pass' | 'fail';
   readonly limiting: Limiting | null;
@@ -75,10 +81,14 @@ export function leastMargin(corner: CornerReport): number | null {
 export function cornerReport(result: CornerResult, netNames: readonly string[]): CornerReport {
   const { corner, measurement: m } = result;
   const base = {
-    name: corner.name, process: corner.process, vdd: corner.vdd, temperature: corner.temperature, duty: corner.duty,
+    name: corner.name,
+    process: corner.process,
+    vdd: corner.vdd,
+    temperature: corner.temperature,
+    duty: corner.duty,
     glitches: result.simulation.glitches.map((g) => ({ net: netNames[g.net] ?? '?', time: g.time - result.simulation.windowStart })),
     checks: result.checks.map(checkData),
-    verdict: result.pass ? 'pass' as const : 'fail' as const,
+    verdict: result.pass ? ('pass' as const) : ('fail' as const),
   };
   if (!m.ok) return { ...base, deadTimes: [], widths: {}, overlap: null, reason: m.reason };
   return {
@@ -99,8 +109,11 @@ export function checkReport(resolved: ResolvedDesign, results: readonly CornerRe
     process: card.name,
     model: model.name,
     clock: {
-      frequency: design.clock.frequency, period: 1 / design.clock.frequency, duty: design.clock.duty,
-      dutyTolerance: design.clock.dutyTolerance, transition: design.clock.transition,
+      frequency: design.clock.frequency,
+      period: 1 / design.clock.frequency,
+      duty: design.clock.duty,
+      dutyTolerance: design.clock.dutyTolerance,
+      transition: design.clock.transition,
     },
     phases: netlist.source.phases,
     verdict: corners.every((c) => c.verdict === 'pass') ? 'pass' : 'fail',

@@ -59,11 +59,17 @@ export function renderCheckText(report: CheckReport): string {
   const rows = corners.map((c, i) => [
     c.name,
     ...cells.map((col) => col[i]!),
-    leastMargin(c) === -Infinity ? (c.checks.some((k) => !k.pass && CIRCUIT_KINDS.has(k.kind)) ? 'circuit fails' : 'switch bias fails') : signed(leastMargin(c)),
+    leastMargin(c) === -Infinity
+      ? c.checks.some((k) => !k.pass && CIRCUIT_KINDS.has(k.kind))
+        ? 'circuit fails'
+        : 'switch bias fails'
+      : signed(leastMargin(c)),
     c.verdict === 'pass' ? 'pass' : `FAIL${c.reason ? ` (${c.reason})` : ''}`,
   ]);
   const out: string[] = [];
-  out.push(`${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`);
+  out.push(
+    `${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`,
+  );
   out.push(errorBandText(report.model, report.process));
   out.push('');
   out.push(renderTable(columns, rows));
@@ -93,38 +99,59 @@ function worstPerCheck(report: CheckReport): string[] {
   }
   const rows = [...worst.entries()]
     .sort(([, a], [, b]) => compareChecks(a, b))
-    .map(([name, w]) => [w.kind, name, formatMargin(w.margin, w.kind), w.corner, w.failing === 0 ? 'pass' : `FAIL at ${w.failing} corner${w.failing > 1 ? 's' : ''}`]);
+    .map(([name, w]) => [
+      w.kind,
+      name,
+      formatMargin(w.margin, w.kind),
+      w.corner,
+      w.failing === 0 ? 'pass' : `FAIL at ${w.failing} corner${w.failing > 1 ? 's' : ''}`,
+    ]);
   return [
     'worst case of each check:',
-    renderTable([
-      { header: 'kind', align: 'left' }, { header: 'check', align: 'left' }, { header: 'margin', align: 'right' },
-      { header: 'at corner', align: 'left' }, { header: 'verdict', align: 'left' },
-    ], rows),
+    renderTable(
+      [
+        { header: 'kind', align: 'left' },
+        { header: 'check', align: 'left' },
+        { header: 'margin', align: 'right' },
+        { header: 'at corner', align: 'left' },
+        { header: 'verdict', align: 'left' },
+      ],
+      rows,
+    ),
   ];
 }
 
 function summaryLines(report: CheckReport, first: Array<number | undefined>, second: Array<number | undefined>): string[] {
   const lines: string[] = [];
   const [a, b] = report.phases as [string, string];
-  for (const [label, values] of [[`${a}->${b}`, first], [`${b}->${a}`, second]] as const) {
+  for (const [label, values] of [
+    [`${a}->${b}`, first],
+    [`${b}->${a}`, second],
+  ] as const) {
     const { min, max } = extremes(values);
     if (min < 0) continue;
     const lo = values[min]!;
     const hi = values[max]!;
     const spread = lo > 0 ? `, spread ${(hi / lo).toFixed(2)}x` : '';
-    lines.push(`dead time ${label}: ${formatTime(lo)} at ${report.corners[min]!.name} .. ${formatTime(hi)} at ${report.corners[max]!.name}${spread}`);
+    lines.push(
+      `dead time ${label}: ${formatTime(lo)} at ${report.corners[min]!.name} .. ${formatTime(hi)} at ${report.corners[max]!.name}${spread}`,
+    );
   }
   const lim = report.limiting;
   if (lim) lines.push(`limiting: ${lim.check} at ${lim.corner}, margin ${formatMargin(lim.margin, lim.kind)}`);
   const failing = report.corners.flatMap((c) => c.checks.filter((k) => !k.pass).map((k) => ({ corner: c.name, check: k })));
   if (failing.length > 0) {
     lines.push(`failing checks: ${failing.length}`);
-    for (const f of failing.slice(0, 10)) lines.push(`  ${f.corner}: ${f.check.name}, margin ${formatMargin(f.check.margin, f.check.kind)}${f.check.detail ? ` (${f.check.detail})` : ''}`);
+    for (const f of failing.slice(0, 10))
+      lines.push(
+        `  ${f.corner}: ${f.check.name}, margin ${formatMargin(f.check.margin, f.check.kind)}${f.check.detail ? ` (${f.check.detail})` : ''}`,
+      );
     if (failing.length > 10) lines.push(`  ... and ${failing.length - 10} more (use --json for all)`);
   }
   for (const w of report.warnings) lines.push(`warning: ${w}`);
   const passing = report.corners.filter((c) => c.verdict === 'pass').length;
-  const limited = report.warnings.length > 0 ? `; limited: ${report.warnings.length} warning${report.warnings.length > 1 ? 's' : ''} above` : '';
+  const limited =
+    report.warnings.length > 0 ? `; limited: ${report.warnings.length} warning${report.warnings.length > 1 ? 's' : ''} above` : '';
   lines.push(`verdict: ${report.verdict === 'pass' ? 'PASS' : 'FAIL'} (${passing}/${report.corners.length} corners pass${limited})`);
   lines.push('');
   lines.push(...report.cautions.map((c) => `caution: ${c}`));

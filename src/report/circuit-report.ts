@@ -5,8 +5,23 @@ import { renderTable, type Column } from './text-table.js';
 
 /** The figures a report carries, in the order its JSON writes them (units as in `CircuitFigures`). */
 const REPORT_KEYS = [
-  'method', 'output', 'ripple', 'noLoadOutput', 'loadCurrent', 'outputResistance', 'slowLimit', 'fastLimit', 'efficiency',
-  'inputPower', 'outputPower', 'generatorPower', 'lostCharge', 'reverseCharge', 'shootThroughCharge', 'startupCycles', 'startupTime',
+  'method',
+  'output',
+  'ripple',
+  'noLoadOutput',
+  'loadCurrent',
+  'outputResistance',
+  'slowLimit',
+  'fastLimit',
+  'efficiency',
+  'inputPower',
+  'outputPower',
+  'generatorPower',
+  'lostCharge',
+  'reverseCharge',
+  'shootThroughCharge',
+  'startupCycles',
+  'startupTime',
 ] as const satisfies readonly (keyof CircuitFigures)[];
 
 export type CircuitReport = Pick<CircuitFigures, (typeof REPORT_KEYS)[number]>;
@@ -24,14 +39,26 @@ export function renderCircuitTable(rows: readonly { readonly name: string; reado
   const v = eng('V');
   const ohm = eng('ohm');
   const q = eng('C');
-  const columns: Column[] = ['corner', 'V out', 'ripple', 'R out', 'R ssl', 'R fsl', 'efficiency', 'lost/period', 'start-up']
-    .map((header, i) => ({ header, align: i === 0 ? 'left' : 'right' }));
+  const columns: Column[] = ['corner', 'V out', 'ripple', 'R out', 'R ssl', 'R fsl', 'efficiency', 'lost/period', 'start-up'].map(
+    (header, i) => ({ header, align: i === 0 ? 'left' : 'right' }),
+  );
   const table = withCircuit.map((r) => {
     const c = r.circuit!;
     const startup = c.startupCycles === null ? 'not reached' : `${c.startupCycles} (${formatEngineering(c.startupTime!, 's')})`;
-    return [r.name + (c.method === 'none' ? ' (unsettled)' : ''), v(c.output), v(c.ripple), ohm(c.outputResistance), ohm(c.slowLimit), ohm(c.fastLimit),
-      c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`, q(c.lostCharge), startup];
+    return [
+      r.name + (c.method === 'none' ? ' (unsettled)' : ''),
+      v(c.output),
+      v(c.ripple),
+      ohm(c.outputResistance),
+      ohm(c.slowLimit),
+      ohm(c.fastLimit),
+      c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`,
+      q(c.lostCharge),
+      startup,
+    ];
   });
-  return ['circuit figures (mean output and ripple at the heavier load; start-up in periods from all capacitors discharged to 90 % of the output):',
-    renderTable(columns, table)];
+  return [
+    'circuit figures (mean output and ripple at the heavier load; start-up in periods from all capacitors discharged to 90 % of the output):',
+    renderTable(columns, table),
+  ];
 }

@@ -8,7 +8,7 @@
 export type QuantityKind = 'dead' | 'gap' | 'width' | 'switch';
 
 /** Largest |relative error| of a switch R_on that counts as agreeing. */
-export const RON_TOLERANCE = 0.10;
+export const RON_TOLERANCE = 0.1;
 
 export interface RonComparison {
   readonly label: string;
@@ -74,7 +74,7 @@ export function worstDifference(corners: readonly CornerComparison[]): { corner:
  * efficiency within 10 % of the simulator's value. Lost charge is shown, not judged: the
  * simulator's figure also carries the displacement charge of the device capacitances.
  */
-export const CIRCUIT_TOLERANCE = { output: 0.02, ripple: 0.10, efficiency: 0.10 } as const;
+export const CIRCUIT_TOLERANCE = { output: 0.02, ripple: 0.1, efficiency: 0.1 } as const;
 
 export type CircuitFigureName = 'output' | 'ripple' | 'efficiency' | 'lost charge';
 

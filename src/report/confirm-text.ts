@@ -26,30 +26,84 @@ export function renderConfirmText(s: ConfirmSummary): string {
   const rows: string[][] = [['corner', 'quantity', 'model', s.simulator, 'difference', 'tolerance']];
   for (const c of s.corners) {
     for (const q of c.quantities) {
-      rows.push([c.corner, q.quantity, formatTime(q.model), q.simulator === null ? 'not measured' : formatTime(q.simulator),
-        q.relativeError === null ? '-' : percent(q.relativeError), q.pass ? 'within' : 'over']);
+      rows.push([
+        c.corner,
+        q.quantity,
+        formatTime(q.model),
+        q.simulator === null ? 'not measured' : formatTime(q.simulator),
+        q.relativeError === null ? '-' : percent(q.relativeError),
+        q.pass ? 'within' : 'over',
+      ]);
     }
   }
   const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
-  const line = (r: string[]) => r.map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!))).join('  ').trimEnd();
-  const out = [`${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`, '', line(rows[0]!), widths.map((w) => '-'.repeat(w)).join('  ').trimEnd(), ...rows.slice(1).map(line), ''];
-  const pairs = s.corners.flatMap((c) => c.breakBeforeMake.map((b) => [c.corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured'),
-    b.agrees ? 'alike' : 'DISAGREES']));
+  const line = (r: string[]) =>
+    r
+      .map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!)))
+      .join('  ')
+      .trimEnd();
+  const out = [
+    `${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`,
+    '',
+    line(rows[0]!),
+    widths
+      .map((w) => '-'.repeat(w))
+      .join('  ')
+      .trimEnd(),
+    ...rows.slice(1).map(line),
+    '',
+  ];
+  const pairs = s.corners.flatMap((c) =>
+    c.breakBeforeMake.map((b) => [
+      c.corner,
+      b.check,
+      formatSignedTime(b.model),
+      formatSignedTime(b.simulator, 'not measured'),
+      b.agrees ? 'alike' : 'DISAGREES',
+    ]),
+  );
   if (pairs.length > 0) {
     out.push('break-before-make at the switches (margin, model vs simulator; they must agree on pass or fail):', '');
-    out.push(renderTable([
-      { header: 'corner', align: 'left' }, { header: 'check', align: 'left' }, { header: 'model', align: 'right' },
-      { header: s.simulator, align: 'right' }, { header: 'verdicts', align: 'left' },
-    ], pairs), '');
+    out.push(
+      renderTable(
+        [
+          { header: 'corner', align: 'left' },
+          { header: 'check', align: 'left' },
+          { header: 'model', align: 'right' },
+          { header: s.simulator, align: 'right' },
+          { header: 'verdicts', align: 'left' },
+        ],
+        pairs,
+      ),
+      '',
+    );
   }
-  const rons = s.corners.flatMap((c) => c.ron.map((r) => [c.corner, r.label, formatOhms(r.model), r.simulator === null ? 'not measured' : formatOhms(r.simulator),
-    r.relativeError === null ? '-' : percent(r.relativeError), r.pass ? 'within' : 'OVER']));
+  const rons = s.corners.flatMap((c) =>
+    c.ron.map((r) => [
+      c.corner,
+      r.label,
+      formatOhms(r.model),
+      r.simulator === null ? 'not measured' : formatOhms(r.simulator),
+      r.relativeError === null ? '-' : percent(r.relativeError),
+      r.pass ? 'within' : 'OVER',
+    ]),
+  );
   if (rons.length > 0) {
     out.push(`switch on-resistance (deep triode, gate fully on; tolerance ${(RON_TOLERANCE * 100).toFixed(0)} %):`, '');
-    out.push(renderTable([
-      { header: 'corner', align: 'left' }, { header: 'switch', align: 'left' }, { header: 'model', align: 'right' },
-      { header: s.simulator, align: 'right' }, { header: 'difference', align: 'right' }, { header: 'tolerance', align: 'left' },
-    ], rons), '');
+    out.push(
+      renderTable(
+        [
+          { header: 'corner', align: 'left' },
+          { header: 'switch', align: 'left' },
+          { header: 'model', align: 'right' },
+          { header: s.simulator, align: 'right' },
+          { header: 'difference', align: 'right' },
+          { header: 'tolerance', align: 'left' },
+        ],
+        rons,
+      ),
+      '',
+    );
   }
   out.push(...circuitLines(s));
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
@@ -58,13 +112,27 @@ export function renderConfirmText(s: ConfirmSummary): string {
   const failed = s.corners.filter((c) => !c.pass).length;
   const within = s.corners.filter((c) => c.quantities.every((q) => q.pass)).length;
   const ronOver = rons.filter((r) => r[5] !== 'within').length;
-  if (rons.length > 0) out.push(ronOver === 0 ? `switch R_on: all ${rons.length} within ${(RON_TOLERANCE * 100).toFixed(0)} %` : `switch R_on: ${ronOver} of ${rons.length} over ${(RON_TOLERANCE * 100).toFixed(0)} %`);
+  if (rons.length > 0)
+    out.push(
+      ronOver === 0
+        ? `switch R_on: all ${rons.length} within ${(RON_TOLERANCE * 100).toFixed(0)} %`
+        : `switch R_on: ${ronOver} of ${rons.length} over ${(RON_TOLERANCE * 100).toFixed(0)} %`,
+    );
   const differ = pairs.filter((p) => p[4] !== 'alike').length;
-  const alike = pairs.length === 0 ? '' : differ === 0 ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
-    : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;
+  const alike =
+    pairs.length === 0
+      ? ''
+      : differ === 0
+        ? `, break-before-make verdicts alike for ${pairs.length === 1 ? 'the one pair' : `all ${pairs.length} pairs`}`
+        : `, break-before-make verdicts disagree for ${differ} of ${pairs.length} pair${pairs.length === 1 ? '' : 's'}`;
   const circuits = s.corners.filter((c) => c.circuit);
-  const circuitWords = circuits.length === 0 ? '' : `, circuit figures within tolerance at ${circuits.filter((c) => c.circuit!.pass).length}/${circuits.length} corners`;
-  out.push(`verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike}${circuitWords})`);
+  const circuitWords =
+    circuits.length === 0
+      ? ''
+      : `, circuit figures within tolerance at ${circuits.filter((c) => c.circuit!.pass).length}/${circuits.length} corners`;
+  out.push(
+    `verdict: ${failed === 0 ? 'AGREE' : 'DISAGREE'} (${within}/${s.corners.length} corners within tolerance${alike}${circuitWords})`,
+  );
   return `${out.join('\n')}\n`;
 }
 
@@ -78,21 +146,43 @@ export function formatCircuitFigure(f: Pick<CircuitFigureComparison, 'unit'>, v:
 function circuitLines(s: ConfirmSummary): string[] {
   const corners = s.corners.filter((c) => c.circuit);
   if (corners.length === 0) return [];
-  const rows = corners.flatMap((c) => c.circuit!.figures.map((f) => [c.corner, f.figure, formatCircuitFigure(f, f.model), formatCircuitFigure(f, f.simulator),
-    f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`,
-    f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER']));
-  const out = ['circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):', ''];
-  out.push(renderTable([
-    { header: 'corner', align: 'left' }, { header: 'figure', align: 'left' }, { header: 'model', align: 'right' },
-    { header: s.simulator, align: 'right' }, { header: 'difference', align: 'right' }, { header: 'tolerance', align: 'left' },
-  ], rows), '');
+  const rows = corners.flatMap((c) =>
+    c.circuit!.figures.map((f) => [
+      c.corner,
+      f.figure,
+      formatCircuitFigure(f, f.model),
+      formatCircuitFigure(f, f.simulator),
+      f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`,
+      f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER',
+    ]),
+  );
+  const out = [
+    'circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):',
+    '',
+  ];
+  out.push(
+    renderTable(
+      [
+        { header: 'corner', align: 'left' },
+        { header: 'figure', align: 'left' },
+        { header: 'model', align: 'right' },
+        { header: s.simulator, align: 'right' },
+        { header: 'difference', align: 'right' },
+        { header: 'tolerance', align: 'left' },
+      ],
+      rows,
+    ),
+    '',
+  );
   for (const c of corners) {
     const k = c.circuit!;
     const drift = k.drift === null ? 'not measured' : `${formatEngineering(k.drift, 'V')} per period`;
     const power = (p: { input: number; generator: number; output: number }) =>
       `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
-    out.push(`${c.corner}: ${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});`
-      + ` model ${power(k.power.model)}; ${s.simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`);
+    out.push(
+      `${c.corner}: ${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});` +
+        ` model ${power(k.power.model)}; ${s.simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`,
+    );
   }
   out.push('');
   return out;

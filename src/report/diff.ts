@@ -15,12 +15,16 @@ const finite = z.number().refine(Number.isFinite, 'must be a finite number');
 export const checkReportShape = z.object({
   tool: z.literal('phasegap'),
   design: z.string().max(1000),
-  corners: z.array(z.object({
-    name: z.string().max(200),
-    verdict: z.enum(['pass', 'fail']),
-    deadTimes: z.array(z.object({ from: z.string().max(200), to: z.string().max(200), t50: finite, gap: finite })),
-    checks: z.array(z.object({ kind: z.string().max(100), name: z.string().max(1000), margin: finite.nullable(), pass: z.boolean() })),
-  })).min(1),
+  corners: z
+    .array(
+      z.object({
+        name: z.string().max(200),
+        verdict: z.enum(['pass', 'fail']),
+        deadTimes: z.array(z.object({ from: z.string().max(200), to: z.string().max(200), t50: finite, gap: finite })),
+        checks: z.array(z.object({ kind: z.string().max(100), name: z.string().max(1000), margin: finite.nullable(), pass: z.boolean() })),
+      }),
+    )
+    .min(1),
 });
 
 export type DiffInput = z.infer<typeof checkReportShape>;
@@ -76,7 +80,12 @@ export interface ReportDiff {
 
 const limit = (kind: string, t: DiffTolerance) => (marginUnit(kind) === 's' ? t.time : t.voltage);
 
-export function diffReports(before: DiffInput, after: DiffInput, files: { old: string; new: string }, tolerance: DiffTolerance): ReportDiff {
+export function diffReports(
+  before: DiffInput,
+  after: DiffInput,
+  files: { old: string; new: string },
+  tolerance: DiffTolerance,
+): ReportDiff {
   const oldCorners = new Map(before.corners.map((c) => [c.name, c]));
   const newCorners = new Map(after.corners.map((c) => [c.name, c]));
   const changes: CheckChange[] = [];
@@ -93,8 +102,14 @@ export function diffReports(before: DiffInput, after: DiffInput, files: { old: s
       const old = a?.margin ?? null;
       const now = b?.margin ?? null;
       changes.push({
-        check, kind: (b ?? a)!.kind, corner, old, new: now, delta: old === null || now === null ? null : now - old,
-        oldPass: a?.pass ?? null, newPass: b?.pass ?? null,
+        check,
+        kind: (b ?? a)!.kind,
+        corner,
+        old,
+        new: now,
+        delta: old === null || now === null ? null : now - old,
+        oldPass: a?.pass ?? null,
+        newPass: b?.pass ?? null,
       });
     }
     if (o && n) {
@@ -109,9 +124,14 @@ export function diffReports(before: DiffInput, after: DiffInput, files: { old: s
   const newFailures = changes.filter((c) => c.newPass === false && c.oldPass !== false);
   const fixedFailures = changes.filter((c) => c.oldPass === false && c.newPass === true);
   // Seconds and volts do not compare: timing changes first, each unit by size.
-  const unitOrder = (x: CheckChange, y: CheckChange) => (marginUnit(x.kind) === marginUnit(y.kind) ? 0 : marginUnit(x.kind) === 's' ? -1 : 1);
-  const marginLosses = changes.filter((c) => c.delta !== null && c.delta < -limit(c.kind, tolerance)).sort((x, y) => unitOrder(x, y) || x.delta! - y.delta!);
-  const marginGains = changes.filter((c) => c.delta !== null && c.delta > limit(c.kind, tolerance)).sort((x, y) => unitOrder(x, y) || y.delta! - x.delta!);
+  const unitOrder = (x: CheckChange, y: CheckChange) =>
+    marginUnit(x.kind) === marginUnit(y.kind) ? 0 : marginUnit(x.kind) === 's' ? -1 : 1;
+  const marginLosses = changes
+    .filter((c) => c.delta !== null && c.delta < -limit(c.kind, tolerance))
+    .sort((x, y) => unitOrder(x, y) || x.delta! - y.delta!);
+  const marginGains = changes
+    .filter((c) => c.delta !== null && c.delta > limit(c.kind, tolerance))
+    .sort((x, y) => unitOrder(x, y) || y.delta! - x.delta!);
   const checksOf = (r: DiffInput) => new Set(r.corners.flatMap((c) => c.checks.map((k) => k.name)));
   const oldNames = checksOf(before);
   const newNames = checksOf(after);
@@ -121,7 +141,11 @@ export function diffReports(before: DiffInput, after: DiffInput, files: { old: s
     new: { file: files.new, design: after.design },
     tolerance,
     verdict: newFailures.length > 0 || marginLosses.length > 0 ? 'fail' : 'pass',
-    newFailures, fixedFailures, marginLosses, marginGains, deadTimeShifts: shifts,
+    newFailures,
+    fixedFailures,
+    marginLosses,
+    marginGains,
+    deadTimeShifts: shifts,
     onlyInOld: { corners: names.filter((c) => !newCorners.has(c)), checks: [...oldNames].filter((k) => !newNames.has(k)) },
     onlyInNew: { corners: names.filter((c) => !oldCorners.has(c)), checks: [...newNames].filter((k) => !oldNames.has(k)) },
     changes,
@@ -131,14 +155,32 @@ export function diffReports(before: DiffInput, after: DiffInput, files: { old: s
 /** Names from an untrusted file, printed: controls and invisible format characters become "?". */
 const shown = (text: string) => text.replace(/[\p{Cc}\p{Cf}\p{Zl}\p{Zp}]/gu, '?');
 
-const delta = (c: CheckChange) => (c.delta === null ? 'n/a' : marginUnit(c.kind) === 's' ? formatSignedTime(c.delta) : formatMargin(c.delta, c.kind));
-const row = (c: CheckChange) => [shown(c.check), shown(c.corner), formatMargin(c.old, c.kind, c.oldPass === null ? 'absent' : 'n/a'), formatMargin(c.new, c.kind, c.newPass === null ? 'absent' : 'n/a'), delta(c)];
-const HEAD = [{ header: 'check', align: 'left' }, { header: 'corner', align: 'left' }, { header: 'old margin', align: 'right' }, { header: 'new margin', align: 'right' }, { header: 'change', align: 'right' }] as const;
+const delta = (c: CheckChange) =>
+  c.delta === null ? 'n/a' : marginUnit(c.kind) === 's' ? formatSignedTime(c.delta) : formatMargin(c.delta, c.kind);
+const row = (c: CheckChange) => [
+  shown(c.check),
+  shown(c.corner),
+  formatMargin(c.old, c.kind, c.oldPass === null ? 'absent' : 'n/a'),
+  formatMargin(c.new, c.kind, c.newPass === null ? 'absent' : 'n/a'),
+  delta(c),
+];
+const HEAD = [
+  { header: 'check', align: 'left' },
+  { header: 'corner', align: 'left' },
+  { header: 'old margin', align: 'right' },
+  { header: 'new margin', align: 'right' },
+  { header: 'change', align: 'right' },
+] as const;
 
 /** At most `n` rows, then a count of the rest. */
 function listed(title: string, items: readonly CheckChange[], n = 20): string[] {
   if (items.length === 0) return [];
-  return [`${title} (${items.length}):`, renderTable([...HEAD], items.slice(0, n).map(row)), ...(items.length > n ? [`... and ${items.length - n} more (use --json for all)`] : []), ''];
+  return [
+    `${title} (${items.length}):`,
+    renderTable([...HEAD], items.slice(0, n).map(row)),
+    ...(items.length > n ? [`... and ${items.length - n} more (use --json for all)`] : []),
+    '',
+  ];
 }
 
 /** Per check: its least margin before and after over the corners both reports share, and the largest change. */
@@ -146,10 +188,25 @@ function perCheck(d: ReportDiff): string[][] {
   const by = new Map<string, CheckChange[]>();
   for (const c of d.changes) by.set(c.check, [...(by.get(c.check) ?? []), c]);
   return [...by.entries()].map(([name, list]) => {
-    const least = (pick: (c: CheckChange) => number | null) => list.reduce<number | null>((m, c) => { const v = pick(c); return v === null ? m : m === null || v < m ? v : m; }, null);
+    const least = (pick: (c: CheckChange) => number | null) =>
+      list.reduce<number | null>((m, c) => {
+        const v = pick(c);
+        return v === null ? m : m === null || v < m ? v : m;
+      }, null);
     const kind = list[0]!.kind;
     const moved = list.filter((c) => c.delta !== null).sort((x, y) => Math.abs(y.delta!) - Math.abs(x.delta!))[0];
-    return [shown(name), formatMargin(least((c) => c.old), kind), formatMargin(least((c) => c.new), kind), moved ? `${delta(moved)} at ${shown(moved.corner)}` : 'n/a'];
+    return [
+      shown(name),
+      formatMargin(
+        least((c) => c.old),
+        kind,
+      ),
+      formatMargin(
+        least((c) => c.new),
+        kind,
+      ),
+      moved ? `${delta(moved)} at ${shown(moved.corner)}` : 'n/a',
+    ];
   });
 }
 
@@ -164,7 +221,15 @@ export function renderDiffText(d: ReportDiff): string {
     `${shown(d.old.design)} (${shown(d.old.file)}) -> ${shown(d.new.design)} (${shown(d.new.file)}), tolerance ${t}`,
     '',
     'least margin of each check over the corners, old -> new, and its largest change:',
-    renderTable([{ header: 'check', align: 'left' }, { header: 'old', align: 'right' }, { header: 'new', align: 'right' }, { header: 'largest change', align: 'left' }], perCheck(d)),
+    renderTable(
+      [
+        { header: 'check', align: 'left' },
+        { header: 'old', align: 'right' },
+        { header: 'new', align: 'right' },
+        { header: 'largest change', align: 'left' },
+      ],
+      perCheck(d),
+    ),
     '',
     ...listed('new failures', d.newFailures),
     ...listed('fixed failures', d.fixedFailures),
@@ -173,12 +238,27 @@ export function renderDiffText(d: ReportDiff): string {
   ];
   if (d.deadTimeShifts.length > 0) {
     out.push(`dead times moved beyond ${formatTime(d.tolerance.time)} (${d.deadTimeShifts.length}):`);
-    out.push(renderTable([{ header: 'corner', align: 'left' }, { header: 'dead time', align: 'left' }, { header: 'old', align: 'right' }, { header: 'new', align: 'right' }, { header: 'shift', align: 'right' }],
-      d.deadTimeShifts.slice(0, 20).map((s) => [shown(s.corner), shown(s.edge), formatTime(s.old), formatTime(s.new), formatSignedTime(s.shift)])));
+    out.push(
+      renderTable(
+        [
+          { header: 'corner', align: 'left' },
+          { header: 'dead time', align: 'left' },
+          { header: 'old', align: 'right' },
+          { header: 'new', align: 'right' },
+          { header: 'shift', align: 'right' },
+        ],
+        d.deadTimeShifts
+          .slice(0, 20)
+          .map((s) => [shown(s.corner), shown(s.edge), formatTime(s.old), formatTime(s.new), formatSignedTime(s.shift)]),
+      ),
+    );
     if (d.deadTimeShifts.length > 20) out.push(`... and ${d.deadTimeShifts.length - 20} more (use --json for all)`);
     out.push('');
   }
-  for (const [side, only] of [['old', d.onlyInOld], ['new', d.onlyInNew]] as const) {
+  for (const [side, only] of [
+    ['old', d.onlyInOld],
+    ['new', d.onlyInNew],
+  ] as const) {
     if (only.corners.length > 0) out.push(`corners only in the ${side} report: ${only.corners.map(shown).join(', ')}`);
     if (only.checks.length > 0) out.push(`checks only in the ${side} report: ${only.checks.map(shown).join(', ')}`);
   }

@@ -16,7 +16,9 @@ export function renderFmaxText(designName: string, result: FmaxResult): string {
   if (result.fmax === null) {
     lines.push(`${designName}: no safe clock frequency (${result.note})`);
   } else {
-    lines.push(`${designName}: fmax ${formatEngineering(result.fmax, 'Hz', 4)} (resolution ${(result.resolution * 100).toPrecision(2)} %), design clock ${formatEngineering(result.designFrequency, 'Hz', 4)}, ${(result.fmax / result.designFrequency).toFixed(2)}x headroom`);
+    lines.push(
+      `${designName}: fmax ${formatEngineering(result.fmax, 'Hz', 4)} (resolution ${(result.resolution * 100).toPrecision(2)} %), design clock ${formatEngineering(result.designFrequency, 'Hz', 4)}, ${(result.fmax / result.designFrequency).toFixed(2)}x headroom`,
+    );
     if (result.note) lines.push(`note: ${result.note}`);
   }
   if (lim) {
@@ -39,11 +41,16 @@ export function fmaxMarginLines(result: FmaxResult): string[] {
   const at = result.atFmax;
   if (result.fmax !== null && at && at.margin !== null) {
     const same = result.limiting !== null && at.check === result.limiting.check && at.corner === result.limiting.corner;
-    lines.push(`  margin at fmax ${formatEngineering(result.fmax, 'Hz', 4)}: ${formatMargin(at.margin, at.kind)}${same ? '' : ` (${at.check} at ${at.corner})`}`);
+    lines.push(
+      `  margin at fmax ${formatEngineering(result.fmax, 'Hz', 4)}: ${formatMargin(at.margin, at.kind)}${same ? '' : ` (${at.check} at ${at.corner})`}`,
+    );
   }
   const lim = result.limiting;
   if (lim && lim.margin !== null && result.probeFrequency !== null && result.probeFrequency !== undefined) {
-    const above = result.fmax === null ? 'the design clock' : `the first failing probe, ${((result.probeFrequency / result.fmax - 1) * 100).toFixed(2)} % above fmax`;
+    const above =
+      result.fmax === null
+        ? 'the design clock'
+        : `the first failing probe, ${((result.probeFrequency / result.fmax - 1) * 100).toFixed(2)} % above fmax`;
     lines.push(`  margin at ${formatEngineering(result.probeFrequency, 'Hz', 4)} (${above}): ${formatMargin(lim.margin, lim.kind)}`);
   }
   return lines;

@@ -14,7 +14,6 @@ import type { RunVerdict } from './verdict.js';
 import { formatSignedTime, formatTime } from '../units/format.js';
 import { formatCircuitFigure } from './confirm-text.js';
 
-
 export interface JunitCase {
   readonly name: string;
   readonly className: string;
@@ -35,7 +34,9 @@ export function verdictSuite(design: string, v: RunVerdict): JunitSuite {
   return {
     name: `${design}: verdict`,
     cases: v.parts.map((p) => ({
-      name: p.name, className: `phasegap.verdict.${p.key}`, output: p.reason,
+      name: p.name,
+      className: `phasegap.verdict.${p.key}`,
+      output: p.reason,
       ...(p.verdict === 'fail' ? { failure: p.reason } : p.verdict === 'not-run' ? { skipped: p.reason } : {}),
     })),
   };
@@ -58,13 +59,23 @@ export function checkSuite(r: CheckReport): JunitSuite {
   for (const [name, w] of worst) {
     const className = `phasegap.check.${w.check.kind}`;
     const margin = `margin ${formatMargin(w.check.margin, w.check.kind)} at ${w.corner}`;
-    cases.push({ name, className, output: `worst ${margin}`, ...(w.failing.length > 0 ? { failure: `fails at ${w.failing.length} of ${r.corners.length} corners; worst ${margin}` } : {}) });
+    cases.push({
+      name,
+      className,
+      output: `worst ${margin}`,
+      ...(w.failing.length > 0 ? { failure: `fails at ${w.failing.length} of ${r.corners.length} corners; worst ${margin}` } : {}),
+    });
     for (const corner of w.failing) {
       const k = r.corners.find((c) => c.name === corner)!.checks.find((x) => x.name === name)!;
-      cases.push({ name: `${name} at ${corner}`, className, failure: `margin ${formatMargin(k.margin, k.kind)}${k.detail ? ` (${k.detail})` : ''}` });
+      cases.push({
+        name: `${name} at ${corner}`,
+        className,
+        failure: `margin ${formatMargin(k.margin, k.kind)}${k.detail ? ` (${k.detail})` : ''}`,
+      });
     }
   }
-  for (const c of r.corners) if (c.reason !== undefined) cases.push({ name: `steady state at ${c.name}`, className: 'phasegap.check.corner', failure: c.reason });
+  for (const c of r.corners)
+    if (c.reason !== undefined) cases.push({ name: `steady state at ${c.name}`, className: 'phasegap.check.corner', failure: c.reason });
   return { name: `${r.design}: corner checks`, cases };
 }
 
@@ -75,10 +86,14 @@ export function checkSuite(r: CheckReport): JunitSuite {
 export function mcSuite(r: McReport): JunitSuite {
   const pct = mcPercent(r);
   const required = r.minYield === null ? 'every die must pass (no requirements.minYield)' : `required ${pct(r.minYield)}`;
-  const cases: JunitCase[] = [{
-    name: 'yield at every corner', className: 'phasegap.mc.yield', output: `${pct(r.yield.value)} over ${r.samples} dies, ${required}`,
-    ...(r.verdict === 'fail' ? { failure: `yield ${pct(r.yield.value)} over ${r.samples} dies; ${required}` } : {}),
-  }];
+  const cases: JunitCase[] = [
+    {
+      name: 'yield at every corner',
+      className: 'phasegap.mc.yield',
+      output: `${pct(r.yield.value)} over ${r.samples} dies, ${required}`,
+      ...(r.verdict === 'fail' ? { failure: `yield ${pct(r.yield.value)} over ${r.samples} dies; ${required}` } : {}),
+    },
+  ];
   const names = new Map<string, { kind: string; failures: number; corner: string }>();
   for (const c of r.corners) {
     for (const q of c.quantities) {
@@ -90,7 +105,12 @@ export function mcSuite(r: McReport): JunitSuite {
   }
   for (const [name, x] of names) {
     const words = x.failures === 0 ? 'no die fails it at any corner' : `${x.failures} of ${r.samples} dies fail it at ${x.corner}`;
-    cases.push({ name, className: `phasegap.mc.${x.kind}`, output: words, ...(x.failures > 0 && r.verdict === 'fail' ? { failure: words } : {}) });
+    cases.push({
+      name,
+      className: `phasegap.mc.${x.kind}`,
+      output: words,
+      ...(x.failures > 0 && r.verdict === 'fail' ? { failure: words } : {}),
+    });
   }
   return { name: `${r.design}: Monte Carlo`, cases };
 }
@@ -100,19 +120,36 @@ export function confirmSuite(design: string, simulator: string, tolerance: numbe
   const cases: JunitCase[] = [];
   for (const c of comparisons) {
     for (const q of c.quantities) {
-      const words = `model ${formatTime(q.model)}, ${simulator} ${q.simulator === null ? 'not measured' : formatTime(q.simulator)}`
-        + `${q.relativeError === null ? '' : `, difference ${(q.relativeError * 100).toFixed(1)} %`}, tolerance ${(tolerance * 100).toFixed(1)} %`;
-      cases.push({ name: `${q.quantity} at ${c.corner}`, className: `phasegap.confirm.${q.kind}`, output: words, ...(q.pass ? {} : { failure: words }) });
+      const words =
+        `model ${formatTime(q.model)}, ${simulator} ${q.simulator === null ? 'not measured' : formatTime(q.simulator)}` +
+        `${q.relativeError === null ? '' : `, difference ${(q.relativeError * 100).toFixed(1)} %`}, tolerance ${(tolerance * 100).toFixed(1)} %`;
+      cases.push({
+        name: `${q.quantity} at ${c.corner}`,
+        className: `phasegap.confirm.${q.kind}`,
+        output: words,
+        ...(q.pass ? {} : { failure: words }),
+      });
     }
     for (const b of c.breakBeforeMake) {
       const words = `margin: model ${formatSignedTime(b.model)}, ${simulator} ${formatSignedTime(b.simulator, 'not measured')}`;
-      cases.push({ name: `${b.check} at ${c.corner}`, className: 'phasegap.confirm.break-before-make', output: words, ...(b.agrees ? {} : { failure: `verdicts disagree; ${words}` }) });
+      cases.push({
+        name: `${b.check} at ${c.corner}`,
+        className: 'phasegap.confirm.break-before-make',
+        output: words,
+        ...(b.agrees ? {} : { failure: `verdicts disagree; ${words}` }),
+      });
     }
     for (const f of c.circuit?.figures ?? []) {
       if (f.tolerance === null) continue;
-      const words = `model ${formatCircuitFigure(f, f.model)}, ${simulator} ${formatCircuitFigure(f, f.simulator)}${f.difference === null ? '' : `, difference ${(f.difference * 100).toFixed(2)} %`}`
-        + `, tolerance ${(f.tolerance * 100).toFixed(0)} %${f.figure === 'output' ? ` of VDD${c.circuit!.settled ? '' : '; not settled'}` : ''}`;
-      cases.push({ name: `circuit ${f.figure} at ${c.corner}`, className: 'phasegap.confirm.circuit', output: words, ...(f.pass ? {} : { failure: words }) });
+      const words =
+        `model ${formatCircuitFigure(f, f.model)}, ${simulator} ${formatCircuitFigure(f, f.simulator)}${f.difference === null ? '' : `, difference ${(f.difference * 100).toFixed(2)} %`}` +
+        `, tolerance ${(f.tolerance * 100).toFixed(0)} %${f.figure === 'output' ? ` of VDD${c.circuit!.settled ? '' : '; not settled'}` : ''}`;
+      cases.push({
+        name: `circuit ${f.figure} at ${c.corner}`,
+        className: 'phasegap.confirm.circuit',
+        output: words,
+        ...(f.pass ? {} : { failure: words }),
+      });
     }
   }
   return { name: `${design}: ${simulator} against the model`, cases };

@@ -60,12 +60,20 @@ export function mcReport(design: string, process: string, mc: McResult, minYield
   }
   const pass = yieldMeets(mc.yieldEverywhere, minYield);
   return {
-    tool: 'phasegap', design, process, model, samples: mc.samples, seed: mc.seed, minYield: minYield ?? null,
+    tool: 'phasegap',
+    design,
+    process,
+    model,
+    samples: mc.samples,
+    seed: mc.seed,
+    minYield: minYield ?? null,
     yield: { value: mc.yieldEverywhere, ...mc.yieldEverywhereInterval },
-    verdict: pass ? 'pass' : 'fail', worstCorner: worst.name, corners, cautions: CAUTIONS,
+    verdict: pass ? 'pass' : 'fail',
+    worstCorner: worst.name,
+    corners,
+    cautions: CAUTIONS,
   };
 }
-
 
 const ps = psTenthsNumber;
 
@@ -78,14 +86,22 @@ const ps = psTenthsNumber;
  * section, the verdict line): one precision, fine enough that no yield short of 100 % reads as 100 %.
  */
 export function mcPercent(r: McReport): (fraction: number) => string {
-  const decimals = percentDecimals([r.yield.value, r.yield.low, r.yield.high, ...(r.minYield === null ? [] : [r.minYield]), ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high])]);
+  const decimals = percentDecimals([
+    r.yield.value,
+    r.yield.low,
+    r.yield.high,
+    ...(r.minYield === null ? [] : [r.minYield]),
+    ...r.corners.flatMap((c) => [c.yield, c.yieldInterval.low, c.yieldInterval.high]),
+  ]);
   return (x) => formatPercent(x, decimals);
 }
 
 export function renderMcText(r: McReport, invocation: readonly string[] = ['phasegap', 'mc', 'DESIGN']): string {
   const lines: string[] = [];
   const pct = mcPercent(r);
-  lines.push(`${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`);
+  lines.push(
+    `${r.design}: Monte Carlo mismatch on ${r.process} (${r.model} model), ${r.samples} dies x ${r.corners.length} corners, seed ${r.seed}`,
+  );
   lines.push('');
   const dead = (c: McCornerReport, k: number) => c.quantities.find((q) => q.kind === 'measure' && q.name.startsWith('dead ') && k-- === 0);
   const rows = r.corners.map((c) => {
@@ -93,37 +109,71 @@ export function renderMcText(r: McReport, invocation: readonly string[] = ['phas
     const d1 = dead(c, 1);
     const sigma = leastSigma(c);
     return [
-      c.name, pct(c.yield), `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
-      d0 ? `${ps(d0.mean)} / ${ps(d0.sigma)}` : '-', d0 ? ps(d0.min) : '-',
-      d1 ? `${ps(d1.mean)} / ${ps(d1.sigma)}` : '-', d1 ? ps(d1.min) : '-',
-      Number.isFinite(sigma) ? sigma.toFixed(1) : '-', String(c.worstSample.index),
+      c.name,
+      pct(c.yield),
+      `${pct(c.yieldInterval.low)} .. ${pct(c.yieldInterval.high)}`,
+      d0 ? `${ps(d0.mean)} / ${ps(d0.sigma)}` : '-',
+      d0 ? ps(d0.min) : '-',
+      d1 ? `${ps(d1.mean)} / ${ps(d1.sigma)}` : '-',
+      d1 ? ps(d1.min) : '-',
+      Number.isFinite(sigma) ? sigma.toFixed(1) : '-',
+      String(c.worstSample.index),
     ];
   });
   const first = r.corners[0];
   const deadNames = first ? first.quantities.filter((q) => q.kind === 'measure' && q.name.startsWith('dead ')).map((q) => q.name) : [];
-  lines.push(renderTable([
-    { header: 'corner', align: 'left' }, { header: 'yield', align: 'right' }, { header: '95 % interval', align: 'right' },
-    { header: `${deadNames[0] ?? 'dead'} mean/sigma ps`, align: 'right' }, { header: 'min ps', align: 'right' },
-    { header: `${deadNames[1] ?? 'dead'} mean/sigma ps`, align: 'right' }, { header: 'min ps', align: 'right' },
-    { header: 'least sigma margin', align: 'right' }, { header: 'worst die', align: 'right' },
-  ], rows));
+  lines.push(
+    renderTable(
+      [
+        { header: 'corner', align: 'left' },
+        { header: 'yield', align: 'right' },
+        { header: '95 % interval', align: 'right' },
+        { header: `${deadNames[0] ?? 'dead'} mean/sigma ps`, align: 'right' },
+        { header: 'min ps', align: 'right' },
+        { header: `${deadNames[1] ?? 'dead'} mean/sigma ps`, align: 'right' },
+        { header: 'min ps', align: 'right' },
+        { header: 'least sigma margin', align: 'right' },
+        { header: 'worst die', align: 'right' },
+      ],
+      rows,
+    ),
+  );
   const worst = r.corners.find((c) => c.name === r.worstCorner)!;
   lines.push('');
   lines.push(`checks at the worst corner ${worst.name} (sigma margin = mean margin / sigma):`);
-  const checkRows = worst.quantities.filter((q) => q.kind !== 'measure').map((q) => [
-    q.kind, q.name, formatMargin(q.mean, q.kind, '-'), formatSpread(q.sigma, q.kind), formatMargin(q.min, q.kind, '-'),
-    q.sigmaMargin === null || q.sigmaMargin === undefined ? '-' : q.sigmaMargin.toFixed(1), String(q.failures ?? 0),
-  ]);
-  lines.push(renderTable([
-    { header: 'kind', align: 'left' }, { header: 'check', align: 'left' }, { header: 'mean margin', align: 'right' },
-    { header: 'sigma', align: 'right' }, { header: 'worst', align: 'right' }, { header: 'sigma margin', align: 'right' },
-    { header: 'failing dies', align: 'right' },
-  ], checkRows));
+  const checkRows = worst.quantities
+    .filter((q) => q.kind !== 'measure')
+    .map((q) => [
+      q.kind,
+      q.name,
+      formatMargin(q.mean, q.kind, '-'),
+      formatSpread(q.sigma, q.kind),
+      formatMargin(q.min, q.kind, '-'),
+      q.sigmaMargin === null || q.sigmaMargin === undefined ? '-' : q.sigmaMargin.toFixed(1),
+      String(q.failures ?? 0),
+    ]);
+  lines.push(
+    renderTable(
+      [
+        { header: 'kind', align: 'left' },
+        { header: 'check', align: 'left' },
+        { header: 'mean margin', align: 'right' },
+        { header: 'sigma', align: 'right' },
+        { header: 'worst', align: 'right' },
+        { header: 'sigma margin', align: 'right' },
+        { header: 'failing dies', align: 'right' },
+      ],
+      checkRows,
+    ),
+  );
   lines.push('');
-  lines.push(`yield at every corner: ${pct(r.yield.value)} (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}`);
-  lines.push(`replay the worst die: ${shellCommand([...invocation, '--seed', String(r.seed), '--replay', String(worst.worstSample.index)])}`);
+  lines.push(
+    `yield at every corner: ${pct(r.yield.value)} (95 % Wilson interval ${pct(r.yield.low)} .. ${pct(r.yield.high)})${r.minYield === null ? '' : `, required ${pct(r.minYield)}`}`,
+  );
+  lines.push(
+    `replay the worst die: ${shellCommand([...invocation, '--seed', String(r.seed), '--replay', String(worst.worstSample.index)])}`,
+  );
   lines.push(`verdict: ${r.verdict === 'pass' ? 'PASS' : 'FAIL'}`);
   lines.push('', ...r.cautions.map((c) => `caution: ${c}`));
   return `${lines.join('\n')}\n`;
 }
-

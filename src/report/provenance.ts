@@ -47,8 +47,13 @@ export interface ProvenanceFacts {
 
 export function provenance(f: ProvenanceFacts): Provenance {
   return {
-    tool: 'phasegap', version: f.version, date: f.now.toISOString(), command: [...f.command], inputs: [...f.inputs],
-    model: { name: f.model, errorBand: f.errorBand ?? null }, simulator: f.simulator ?? null,
+    tool: 'phasegap',
+    version: f.version,
+    date: f.now.toISOString(),
+    command: [...f.command],
+    inputs: [...f.inputs],
+    model: { name: f.model, errorBand: f.errorBand ?? null },
+    simulator: f.simulator ?? null,
   };
 }
 

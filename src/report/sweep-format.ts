@@ -13,7 +13,14 @@ import { marginUnit } from '../checks/check.js';
  */
 function csvField(value: string | number | null): string {
   if (value === null) return '';
-  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(Number(value.toPrecision(9))) : '') : /^[=+\-@]/.test(value) ? `'${value}` : value;
+  const text =
+    typeof value === 'number'
+      ? Number.isFinite(value)
+        ? String(Number(value.toPrecision(9)))
+        : ''
+      : /^[=+\-@]/.test(value)
+        ? `'${value}`
+        : value;
   return /[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
@@ -29,7 +36,12 @@ export interface CsvColumn {
 
 /** Lower-case letters, digits and single underscores: "dead p1->p2" -> "dead_p1_p2". */
 function slug(text: string): string {
-  return text.toLowerCase().replace(/[^a-z0-9]+/g, '_').replace(/^_+|_+$/g, '') || 'check';
+  return (
+    text
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '_')
+      .replace(/^_+|_+$/g, '') || 'check'
+  );
 }
 
 /** A check's name without its stated requirement: "dead p1->p2 >= 500 ps" -> "dead p1->p2". */
@@ -68,11 +80,19 @@ function checkKeys(columns: SweepColumns): string[] {
  * only when the design has such a check, so a sweep without them keeps its columns.
  */
 function limitingUnits(columns: SweepColumns): MarginUnit[] {
-  return ['s', 'V', ...(columns.chargeChecks.length > 0 ? ['C' as const] : []), ...(columns.fractionChecks.length > 0 ? ['fraction' as const] : [])];
+  return [
+    's',
+    'V',
+    ...(columns.chargeChecks.length > 0 ? ['C' as const] : []),
+    ...(columns.fractionChecks.length > 0 ? ['fraction' as const] : []),
+  ];
 }
 
 const LIMITING_LABEL: Readonly<Record<MarginUnit, string>> = {
-  s: 'a timing check', V: 'a voltage check', C: 'a charge check', fraction: 'an efficiency check (a fraction)',
+  s: 'a timing check',
+  V: 'a voltage check',
+  C: 'a charge check',
+  fraction: 'an efficiency check (a fraction)',
 };
 
 /** Every column of the CSV in order, with a notebook key, its label and unit. */
@@ -84,19 +104,29 @@ export function csvColumns(axes: readonly SweepAxis[], columns: SweepColumns): C
     { key: 'verdict', label: 'pass or fail at every corner', unit: null },
     { key: 'limiting_corner', label: 'corner of the limiting check', unit: null },
     { key: 'limiting_check', label: 'limiting check', unit: null },
-    ...limitingUnits(columns).map((u) => ({ key: `limiting_margin_${KEY_UNIT[u]}`, label: `margin of the limiting check when it is ${LIMITING_LABEL[u]}`, unit: u })),
+    ...limitingUnits(columns).map((u) => ({
+      key: `limiting_margin_${KEY_UNIT[u]}`,
+      label: `margin of the limiting check when it is ${LIMITING_LABEL[u]}`,
+      unit: u,
+    })),
     ...columns.deadTimes.flatMap((d) => [
       { key: `dead_${slug(d)}_min_s`, label: `least ${d} over the corners`, unit: 's' as const },
       { key: `dead_${slug(d)}_max_s`, label: `largest ${d} over the corners`, unit: 's' as const },
       { key: `gap_${slug(d)}_min_s`, label: `least clean gap of ${d} over the corners`, unit: 's' as const },
     ]),
-    ...columns.widths.map((w) => ({ key: `width_${slug(w)}_min_s`, label: `least active width of ${w} over the corners`, unit: 's' as const })),
+    ...columns.widths.map((w) => ({
+      key: `width_${slug(w)}_min_s`,
+      label: `least active width of ${w} over the corners`,
+      unit: 's' as const,
+    })),
     ...columns.checks.map((c, i) => ({ key: keys[i]!, label: `least margin over the corners: ${c}`, unit: checkUnit(c, columns) })),
   ];
 }
 
 export function csvHeader(axes: readonly SweepAxis[], columns: SweepColumns): string {
-  return `${csvColumns(axes, columns).map((c) => csvField(c.key)).join(',')}\n`;
+  return `${csvColumns(axes, columns)
+    .map((c) => csvField(c.key))
+    .join(',')}\n`;
 }
 
 /** The JSON sidecar beside a CSV file (FILE.columns.json): each header key with its label and unit. */
@@ -120,7 +150,11 @@ function limitingUnitOf(kind: string): MarginUnit {
 
 export function csvRow(row: SweepRow, columns: SweepColumns): string {
   const cells: Array<string | number | null> = [
-    ...row.point, row.corners, row.verdict, row.limiting?.corner ?? null, row.limiting?.check ?? null,
+    ...row.point,
+    row.corners,
+    row.verdict,
+    row.limiting?.corner ?? null,
+    row.limiting?.check ?? null,
     ...limitingUnits(columns).map((u) => (row.limiting && limitingUnitOf(row.limiting.kind) === u ? row.limiting.margin : null)),
     ...columns.deadTimes.flatMap((label) => {
       const d = row.deadTimes.find((x) => x.label === label);

@@ -7,6 +7,16 @@ export interface Column {
 export function renderTable(columns: readonly Column[], rows: readonly (readonly string[])[]): string {
   const widths = columns.map((c, i) => Math.max(c.header.length, ...rows.map((r) => (r[i] ?? '').length)));
   const line = (cells: readonly string[]) =>
-    cells.map((cell, i) => (columns[i]!.align === 'left' ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!))).join('  ').trimEnd();
-  return [line(columns.map((c) => c.header)), widths.map((w) => '-'.repeat(w)).join('  ').trimEnd(), ...rows.map(line)].join('\n');
+    cells
+      .map((cell, i) => (columns[i]!.align === 'left' ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!)))
+      .join('  ')
+      .trimEnd();
+  return [
+    line(columns.map((c) => c.header)),
+    widths
+      .map((w) => '-'.repeat(w))
+      .join('  ')
+      .trimEnd(),
+    ...rows.map(line),
+  ].join('\n');
 }

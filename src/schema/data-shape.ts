@@ -13,7 +13,8 @@ export const shapeMessages = {
   keys: (count: number) => `has ${count} keys; a mapping may hold at most ${MAX_MAPPING_KEYS}`,
   items: (count: number) => `has ${count} items; a list may hold at most ${MAX_LIST_ITEMS}`,
   values: `holds more than ${MAX_VALUES} values in all (counting each use of a YAML alias); phasegap files hold far fewer`,
-  reserved: (key: string) => `uses the reserved key ${JSON.stringify(key)} (a built-in object member name: constructor, prototype, __proto__, toString, ...); choose another name`,
+  reserved: (key: string) =>
+    `uses the reserved key ${JSON.stringify(key)} (a built-in object member name: constructor, prototype, __proto__, toString, ...); choose another name`,
   reservedName: 'is a reserved name (a built-in object member: constructor, prototype, __proto__, toString, ...); choose another name',
   kind: 'is not plain data; write numbers, strings, booleans, lists and mappings (YAML sets, timestamps and binary are not read)',
 };
@@ -23,7 +24,12 @@ export function checkDataShape(data: unknown, prefix: readonly PropertyKey[] = [
   const path: PropertyKey[] = [...prefix];
   let values = 0;
   const fail = (allowed: string, value?: string): never => {
-    const issue: InputIssue = { code: 'file.data-limit', path: formatPath(path), value: value === undefined ? undefined : showValue(value), allowed };
+    const issue: InputIssue = {
+      code: 'file.data-limit',
+      path: formatPath(path),
+      value: value === undefined ? undefined : showValue(value),
+      allowed,
+    };
     throw new InputError([issue]);
   };
   const visit = (node: unknown, depth: number): void => {

@@ -11,7 +11,13 @@ import { bareNumberProblem } from '../units/bare-number.js';
  */
 export const PLAUSIBLE: Readonly<Record<Unit, number>> = {
   // the clock is checked against 1 Hz .. 100 GHz; no time within a period can exceed 1 s
-  Hz: 100e9, s: 1, F: 1e-3, m: 1, V: 1000, A: 1000, ohm: 1e12,
+  Hz: 100e9,
+  s: 1,
+  F: 1e-3,
+  m: 1,
+  V: 1000,
+  A: 1000,
+  ohm: 1e12,
 };
 
 /**
@@ -50,14 +56,18 @@ function describeBounds(bounds: Bounds, unit: string): string {
 function boundText(x: number, unit: string): string {
   const magnitude = Math.abs(x);
   if (unit === '' || magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e4)) return `${x}${unit}`;
-  return formatEngineering(x, unit.trim()).replace(/(\.\d*?)0+ /, '$1 ').replace('. ', ' ');
+  return formatEngineering(x, unit.trim())
+    .replace(/(\.\d*?)0+ /, '$1 ')
+    .replace('. ', ' ');
 }
 
 function outside(value: number, bounds: Bounds): boolean {
-  return (bounds.above !== undefined && !(value > bounds.above))
-    || (bounds.atLeast !== undefined && !(value >= bounds.atLeast))
-    || (bounds.below !== undefined && !(value < bounds.below))
-    || (bounds.atMost !== undefined && !(value <= bounds.atMost));
+  return (
+    (bounds.above !== undefined && !(value > bounds.above)) ||
+    (bounds.atLeast !== undefined && !(value >= bounds.atLeast)) ||
+    (bounds.below !== undefined && !(value < bounds.below)) ||
+    (bounds.atMost !== undefined && !(value <= bounds.atMost))
+  );
 }
 
 /** A quantity with a unit, written as "20MHz" or as a plain SI number; parsed to a number. */
@@ -74,7 +84,11 @@ export function quantity(unit: Unit, description: string, given: Bounds = {}) {
       }
       const bare = bareNumberProblem(raw, parsed.value, unit);
       if (outside(parsed.value, bounds)) {
-        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}${bare === undefined ? '' : `; it ${bare}`}`, input: raw });
+        ctx.addIssue({
+          code: 'custom',
+          message: `is out of range; it must be ${words}${bare === undefined ? '' : `; it ${bare}`}`,
+          input: raw,
+        });
         return z.NEVER;
       }
       if (bare !== undefined) {
@@ -110,7 +124,11 @@ export function temperature(description: string) {
         return z.NEVER;
       }
       if (!(parsed.value >= min && parsed.value <= max)) {
-        ctx.addIssue({ code: 'custom', message: `is outside the temperatures the device models cover; write degrees Celsius from ${min} to ${max}`, input: raw });
+        ctx.addIssue({
+          code: 'custom',
+          message: `is outside the temperatures the device models cover; write degrees Celsius from ${min} to ${max}`,
+          input: raw,
+        });
         return z.NEVER;
       }
       return parsed.value;

@@ -17,7 +17,8 @@ export function levelAt(level: Level, vdd: number): number {
   return level.scale * vdd + level.offset;
 }
 
-const ALLOWED = 'is not a voltage level; write volts ("1.8V", 0.9) or a multiple of the supply ("vdd", "2vdd", "0.5*vdd", "vdd+1V", "-vdd")';
+const ALLOWED =
+  'is not a voltage level; write volts ("1.8V", 0.9) or a multiple of the supply ("vdd", "2vdd", "0.5*vdd", "vdd+1V", "-vdd")';
 
 export function parseLevel(raw: unknown): Level | null {
   if (typeof raw === 'number') return Number.isFinite(raw) ? { scale: 0, offset: raw } : null;

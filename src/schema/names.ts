@@ -16,19 +16,22 @@ export const TITLE_MAX = 200;
 /** Longest description. */
 export const DESCRIPTION_MAX = 2000;
 
-const NOT_PRINTABLE = '\\u0000-\\u001f\\u007f-\\u009f\\u00ad\\u061c\\u180e\\u200b-\\u200f\\u2028-\\u202e\\u2060-\\u206f\\ufeff\\ufff9-\\ufffb\\ufffe\\uffff';
+const NOT_PRINTABLE =
+  '\\u0000-\\u001f\\u007f-\\u009f\\u00ad\\u061c\\u180e\\u200b-\\u200f\\u2028-\\u202e\\u2060-\\u206f\\ufeff\\ufff9-\\ufffb\\ufffe\\uffff';
 
 const PRINTABLE = new RegExp(`^[^${NOT_PRINTABLE}]+$`);
 const PRINTABLE_LINES = new RegExp(`^[^${NOT_PRINTABLE.replace('\\u0000-\\u001f', '\\u0000-\\u0009\\u000b-\\u001f')}]*$`);
 const UNPAIRED_SURROGATE = /[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/;
 
-const RULE = 'printable characters only (no control character, line break, tab, separator or invisible format character such as a bidirectional override or zero-width space)';
+const RULE =
+  'printable characters only (no control character, line break, tab, separator or invisible format character such as a bidirectional override or zero-width space)';
 export const IDENTIFIER_ALLOWED = `${RULE}, 1 to ${IDENTIFIER_MAX} characters`;
 const TITLE_ALLOWED = `${RULE}, 1 to ${TITLE_MAX} characters`;
 const DESCRIPTION_ALLOWED = `printable characters and line feeds only (no other control character, tab, separator or invisible format character), at most ${DESCRIPTION_MAX} characters`;
 
 function text(pattern: RegExp, min: number, max: number, allowed: string) {
-  return z.string()
+  return z
+    .string()
     .min(min, `must be ${allowed}`)
     .max(max, `must be ${allowed}`)
     .regex(pattern, `is not allowed; it must be ${allowed}`)

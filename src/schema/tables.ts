@@ -16,13 +16,19 @@
 import * as z from 'zod';
 import { MAX_TABLE_AXIS, MAX_TABLE_CORNERS } from './limits.js';
 
-const axis = (what: string) => z.array(z.number().positive()).min(2).max(MAX_TABLE_AXIS)
-  .refine((a) => a.every((v, i) => i === 0 || v > a[i - 1]!), { message: 'must be strictly ascending' })
-  .describe(what);
+const axis = (what: string) =>
+  z
+    .array(z.number().positive())
+    .min(2)
+    .max(MAX_TABLE_AXIS)
+    .refine((a) => a.every((v, i) => i === 0 || v > a[i - 1]!), { message: 'must be strictly ascending' })
+    .describe(what);
 
 /** One table row checked in a single loop: a file holds some 150,000 of these numbers. */
-const row = z.custom<number[]>((v) => Array.isArray(v) && v.length >= 2 && v.length <= MAX_TABLE_AXIS
-  && v.every((x) => typeof x === 'number' && Number.isFinite(x)), { message: `must be a list of 2 to ${MAX_TABLE_AXIS} finite numbers` });
+const row = z.custom<number[]>(
+  (v) => Array.isArray(v) && v.length >= 2 && v.length <= MAX_TABLE_AXIS && v.every((x) => typeof x === 'number' && Number.isFinite(x)),
+  { message: `must be a list of 2 to ${MAX_TABLE_AXIS} finite numbers` },
+);
 
 const grid = z.array(row).min(2).max(MAX_TABLE_AXIS);
 

@@ -32,9 +32,14 @@ function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unkno
   const def = defOf(schema);
   const child = (key: PropertyKey) => ownValue(value, key);
   switch (def.type) {
-    case 'default': case 'optional': case 'prefault': case 'nullable': case 'readonly':
+    case 'default':
+    case 'optional':
+    case 'prefault':
+    case 'nullable':
+    case 'readonly':
       return objectsAt(def.innerType!, path, value);
-    case 'pipe': return objectsAt(def.in!, path, value);
+    case 'pipe':
+      return objectsAt(def.in!, path, value);
     case 'union': {
       const all = def.options!.map((o) => objectsAt(o, path, value));
       const key = (def as { discriminator?: string }).discriminator;
@@ -44,15 +49,19 @@ function objectsAt(schema: z.ZodType, path: readonly PropertyKey[], value: unkno
       }
       return all.flat();
     }
-    case 'array': return path.length === 0 ? [] : objectsAt(def.element!, path.slice(1), child(path[0]!));
-    case 'tuple': return path.length === 0 ? [] : objectsAt(def.items![Number(path[0])] ?? def.items![0]!, path.slice(1), child(path[0]!));
-    case 'record': return path.length === 0 ? [] : objectsAt(def.valueType!, path.slice(1), child(path[0]!));
+    case 'array':
+      return path.length === 0 ? [] : objectsAt(def.element!, path.slice(1), child(path[0]!));
+    case 'tuple':
+      return path.length === 0 ? [] : objectsAt(def.items![Number(path[0])] ?? def.items![0]!, path.slice(1), child(path[0]!));
+    case 'record':
+      return path.length === 0 ? [] : objectsAt(def.valueType!, path.slice(1), child(path[0]!));
     case 'object': {
       if (path.length === 0) return [def];
       const next = ownValue(def.shape, String(path[0])) as z.ZodType | undefined;
       return next ? objectsAt(next, path.slice(1), child(path[0]!)) : [];
     }
-    default: return [];
+    default:
+      return [];
   }
 }
 
@@ -84,28 +93,56 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
         allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}${didYouMean(issue.keys, knownKeys(schema, issue.path, root))}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_key': {
-      const inner = issue.issues.map((i) => i.message).filter((m, i, all) => all.indexOf(m) === i).join('; ');
-      return { code: 'field.not-allowed', path: joinPath(prefix, formatPath(issue.path.slice(0, -1))), value: showValue(issue.path[issue.path.length - 1]), allowed: `is not allowed as a key here: ${inner}` };
+      const inner = issue.issues
+        .map((i) => i.message)
+        .filter((m, i, all) => all.indexOf(m) === i)
+        .join('; ');
+      return {
+        code: 'field.not-allowed',
+        path: joinPath(prefix, formatPath(issue.path.slice(0, -1))),
+        value: showValue(issue.path[issue.path.length - 1]),
+        allowed: `is not allowed as a key here: ${inner}`,
+      };
     }
     case 'invalid_type':
       return received === undefined
         ? { code: 'field.required', path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
         : { code: 'value.wrong-type', path, value: showValue(received), allowed: `has the wrong type; expected ${issue.expected}` };
     case 'invalid_value':
-      if (received === undefined) return { code: 'field.required', path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
-      return { code: 'value.not-allowed', path, value: showValue(received), allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
+      if (received === undefined)
+        return { code: 'field.required', path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
+      return {
+        code: 'value.not-allowed',
+        path,
+        value: showValue(received),
+        allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`,
+      };
     case 'invalid_union':
       if ('discriminator' in issue && issue.discriminator) {
         // zod already ends the path with the discriminator key.
-        return { code: 'value.not-allowed', path, value: showValue(received), allowed: `is not a known ${issue.discriminator}; ${issue.message}` };
+        return {
+          code: 'value.not-allowed',
+          path,
+          value: showValue(received),
+          allowed: `is not a known ${issue.discriminator}; ${issue.message}`,
+        };
       }
-      if (received === undefined) return { code: 'field.required', path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}` };
+      if (received === undefined)
+        return {
+          code: 'field.required',
+          path,
+          allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}`,
+        };
       return { code: 'value.wrong-type', path, value: showValue(received), allowed: describeUnion(issue) };
     case 'too_small':
     case 'too_big':
       if (issue.origin === 'array' && Array.isArray(received)) {
         const bound = issue.code === 'too_big' ? `at most ${issue.maximum}` : `at least ${issue.minimum}`;
-        return { code: 'value.too-many', path, allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed` };
+        return {
+          code: 'value.too-many',
+          path,
+          allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed`,
+        };
       }
       return { code: 'value.out-of-range', path, value: showValue(received), allowed: `is out of range: ${lowerFirst(issue.message)}` };
     default:
@@ -148,7 +185,10 @@ function listKeys(keys: readonly string[]): string {
 }
 
 function describeUnion(issue: z.core.$ZodIssueInvalidUnion): string {
-  const inner = issue.errors.flat().map((e) => e.message).filter((m, i, all) => all.indexOf(m) === i);
+  const inner = issue.errors
+    .flat()
+    .map((e) => e.message)
+    .filter((m, i, all) => all.indexOf(m) === i);
   return `does not match any allowed form (${inner.slice(0, 3).join('; ')})`;
 }
 
@@ -175,5 +215,7 @@ function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
 
 /** `node[key]` when node is an object that has `key` itself; a name never finds an inherited member. */
 function ownValue(node: unknown, key: PropertyKey): unknown {
-  return node !== null && typeof node === 'object' && Object.hasOwn(node, key) ? (node as Record<PropertyKey, unknown>)[key as string] : undefined;
+  return node !== null && typeof node === 'object' && Object.hasOwn(node, key)
+    ? (node as Record<PropertyKey, unknown>)[key as string]
+    : undefined;
 }

@@ -39,10 +39,18 @@ export class EdgeBuffer {
 
   private grow(): void {
     const cap = this.net.length * 2;
-    const net = new Int32Array(cap); net.set(this.net); this.net = net;
-    const time = new Float64Array(cap); time.set(this.time); this.time = time;
-    const rising = new Uint8Array(cap); rising.set(this.rising); this.rising = rising;
-    const transition = new Float64Array(cap); transition.set(this.transition); this.transition = transition;
+    const net = new Int32Array(cap);
+    net.set(this.net);
+    this.net = net;
+    const time = new Float64Array(cap);
+    time.set(this.time);
+    this.time = time;
+    const rising = new Uint8Array(cap);
+    rising.set(this.rising);
+    this.rising = rising;
+    const transition = new Float64Array(cap);
+    transition.set(this.transition);
+    this.transition = transition;
   }
 }
 

@@ -199,7 +199,10 @@ export class Simulator {
           this.warmReady = true;
           this.traceReady = repeats && glitchesCurrent.length === 0 && this.captureTrace();
           return {
-            status: 'settled', reason: '', period: T, windowStart: windowEnd - T,
+            status: 'settled',
+            reason: '',
+            period: T,
+            windowStart: windowEnd - T,
             edges: options.borrow ? this.current : this.current.snapshot(),
             startValues: options.borrow ? this.startCurrent : this.startCurrent.slice(),
             glitches: options.borrow ? glitchesCurrent : glitchesCurrent.slice(),
@@ -207,7 +210,14 @@ export class Simulator {
           };
         }
         if (periods >= maxPeriods) {
-          return this.failure('unsettled', unsettledReason(net, this.previous, this.current, maxPeriods), T, windowEnd - T, periods, glitchesCurrent);
+          return this.failure(
+            'unsettled',
+            unsettledReason(net, this.previous, this.current, maxPeriods),
+            T,
+            windowEnd - T,
+            periods,
+            glitchesCurrent,
+          );
         }
       }
       // Open the next window.
@@ -253,8 +263,12 @@ export class Simulator {
   private recordEdge(n: number, time: number, v: number, trans: number): void {
     const i = this.current.count;
     if (i === this.edgeCause.length) {
-      const cause = new Int32Array(2 * i); cause.set(this.edgeCause); this.edgeCause = cause;
-      const pin = new Int32Array(2 * i); pin.set(this.edgePin); this.edgePin = pin;
+      const cause = new Int32Array(2 * i);
+      cause.set(this.edgeCause);
+      this.edgeCause = cause;
+      const pin = new Int32Array(2 * i);
+      pin.set(this.edgePin);
+      this.edgePin = pin;
     }
     this.edgeCause[i] = this.pendingCause[n]!;
     this.edgePin[i] = this.pendingPin[n]!;
@@ -274,7 +288,13 @@ export class Simulator {
     }
     let trace = this.trace;
     if (trace.net.length < count) {
-      trace = { count: 0, net: new Int32Array(count), rising: new Uint8Array(count), cause: new Int32Array(count), pin: new Int32Array(count) };
+      trace = {
+        count: 0,
+        net: new Int32Array(count),
+        rising: new Uint8Array(count),
+        cause: new Int32Array(count),
+        pin: new Int32Array(count),
+      };
       this.trace = trace;
     }
     trace.net.set(edges.net.subarray(0, count));
@@ -332,7 +352,10 @@ export class Simulator {
     this.startCurrent.set(this.warmValues);
     this.glitches.length = 0;
     return {
-      status: 'settled', reason: '', period: T, windowStart: 0,
+      status: 'settled',
+      reason: '',
+      period: T,
+      windowStart: 0,
       edges: borrow ? edges : edges.snapshot(),
       startValues: borrow ? this.startCurrent : this.startCurrent.slice(),
       glitches: borrow ? this.glitches : [],
@@ -340,8 +363,15 @@ export class Simulator {
     };
   }
 
-  private evaluateGate(timing: GateTiming, g: number, pin: number, time: number, inputTransition: number,
-    glitches: Array<{ net: number; time: number }> | null, cause: number): void {
+  private evaluateGate(
+    timing: GateTiming,
+    g: number,
+    pin: number,
+    time: number,
+    inputTransition: number,
+    glitches: Array<{ net: number; time: number }> | null,
+    cause: number,
+  ): void {
     const net = this.net;
     let bits = 0;
     const start = net.gateInputStart[g]!;
@@ -364,11 +394,23 @@ export class Simulator {
     this.schedule(out, time + delay, next, timing.transition(g, pin, rising, inputTransition), cause, pin);
   }
 
-  private failure(status: SimulationStatus, reason: string, T: number, windowStart: number, periods: number,
-    glitches: Array<{ net: number; time: number }>): SimulationResult {
+  private failure(
+    status: SimulationStatus,
+    reason: string,
+    T: number,
+    windowStart: number,
+    periods: number,
+    glitches: Array<{ net: number; time: number }>,
+  ): SimulationResult {
     return {
-      status, reason, period: T, windowStart, edges: this.current.snapshot(), startValues: this.startCurrent.slice(),
-      glitches: glitches.slice(0, 50), periodsSimulated: periods,
+      status,
+      reason,
+      period: T,
+      windowStart,
+      edges: this.current.snapshot(),
+      startValues: this.startCurrent.slice(),
+      glitches: glitches.slice(0, 50),
+      periodsSimulated: periods,
     };
   }
 }

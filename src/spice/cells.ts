@@ -39,21 +39,41 @@ export function cellSubcktName(kind: PrimitiveCell, size: number): string {
 
 /** Area (m^2) and perimeter (m) of one diffusion side of a device of width w. */
 export function diffusion(w: number, geo: DeviceGeometry, internal: boolean): { area: number; perimeter: number } {
-  if (geo.diffusion <= 0 || internal && !geo.stackJunctions) return { area: 0, perimeter: 0 };
+  if (geo.diffusion <= 0 || (internal && !geo.stackJunctions)) return { area: 0, perimeter: 0 };
   const area = w * geo.diffusion;
   const perimeter = 2 * (w + geo.diffusion);
   return internal ? { area: area / 2, perimeter: perimeter / 2 } : { area, perimeter };
 }
 
-export function mosfet(name: string, d: string, g: string, s: string, b: string, model: string, w: number, geo: DeviceGeometry,
-  internal: InternalSides = {}): string {
+export function mosfet(
+  name: string,
+  d: string,
+  g: string,
+  s: string,
+  b: string,
+  model: string,
+  w: number,
+  geo: DeviceGeometry,
+  internal: InternalSides = {},
+): string {
   const drain = diffusion(w, geo, internal.drain === true);
   const source = diffusion(w, geo, internal.source === true);
-  return `${name} ${d} ${g} ${s} ${b} ${model} W=${spiceNumber(w)} L=${spiceNumber(geo.l)}`
-    + ` AD=${spiceNumber(drain.area)} AS=${spiceNumber(source.area)} PD=${spiceNumber(drain.perimeter)} PS=${spiceNumber(source.perimeter)}`;
+  return (
+    `${name} ${d} ${g} ${s} ${b} ${model} W=${spiceNumber(w)} L=${spiceNumber(geo.l)}` +
+    ` AD=${spiceNumber(drain.area)} AS=${spiceNumber(source.area)} PD=${spiceNumber(drain.perimeter)} PS=${spiceNumber(source.perimeter)}`
+  );
 }
 
-function stack(lines: string[], inputs: readonly string[], series: boolean, prefix: 'n' | 'p', rail: string, model: string, w: number, geo: DeviceGeometry): void {
+function stack(
+  lines: string[],
+  inputs: readonly string[],
+  series: boolean,
+  prefix: 'n' | 'p',
+  rail: string,
+  model: string,
+  w: number,
+  geo: DeviceGeometry,
+): void {
   inputs.forEach((a, i) => {
     if (!series) {
       lines.push(mosfet(`m${prefix}${i}`, 'y', a, rail, rail, model, w, geo));
@@ -70,7 +90,10 @@ export function cellSubckt(kind: PrimitiveCell, size: number, unit: UnitWidths, 
   const shape = CELLS[kind];
   const widths = cellWidths(kind, size, unit);
   const inputs = Array.from({ length: shape.inputs }, (_, i) => `a${i}`);
-  const lines = [`.subckt ${cellSubcktName(kind, size)} ${inputs.join(' ')} y vdd`, `* ${kind} size ${size}: n ${spiceNumber(widths.wn)} m, p ${spiceNumber(widths.wp)} m per device`];
+  const lines = [
+    `.subckt ${cellSubcktName(kind, size)} ${inputs.join(' ')} y vdd`,
+    `* ${kind} size ${size}: n ${spiceNumber(widths.wn)} m, p ${spiceNumber(widths.wp)} m per device`,
+  ];
   // Pull-down and pull-up: a series stack (input 0 at the top, next to the output) or parallel devices.
   stack(lines, inputs, shape.nSeries > 1, 'n', '0', geo.nModel, widths.wn, geo);
   stack(lines, inputs, shape.pSeries > 1, 'p', 'vdd', geo.pModel, widths.wp, geo);

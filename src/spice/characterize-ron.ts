@@ -22,7 +22,11 @@ export interface RonDeck {
   readonly aspect: number;
 }
 
-export function ronCharacterizationDeck(card: ProcessCard, corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>, modelPath: string): RonDeck {
+export function ronCharacterizationDeck(
+  card: ProcessCard,
+  corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>,
+  modelPath: string,
+): RonDeck {
   const models = cornerModels(card, corner, modelPath);
   const vdd = spiceNumber(corner.vdd);
   const w = ASPECT * card.lmin;
@@ -49,7 +53,9 @@ export function ronCharacterizationDeck(card: ProcessCard, corner: Pick<Corner, 
 export function cornerRonFrom(deck: RonDeck, values: ReadonlyMap<string, number | null>): CornerRon | string {
   const r = (name: string): number | string => {
     const i = values.get(name);
-    return i === null || i === undefined || !Number.isFinite(i) || i === 0 ? `${name} was not measured` : (RON_VDS / Math.abs(i)) * deck.aspect;
+    return i === null || i === undefined || !Number.isFinite(i) || i === 0
+      ? `${name} was not measured`
+      : (RON_VDS / Math.abs(i)) * deck.aspect;
   };
   const n = r('ron_in');
   const p = r('ron_ip');

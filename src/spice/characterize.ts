@@ -103,13 +103,24 @@ export function driverFor(card: ProcessCard, axes: Axes, cell: PrimitiveCell, tr
 }
 
 /** The decks of one corner, one per input transition. */
-export function characterizationDecks(card: ProcessCard, corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>, axes: Axes,
-  modelPath: string, cells: readonly PrimitiveCell[] = TABLE_CELLS): CharacterizationDeck[] {
+export function characterizationDecks(
+  card: ProcessCard,
+  corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>,
+  axes: Axes,
+  modelPath: string,
+  cells: readonly PrimitiveCell[] = TABLE_CELLS,
+): CharacterizationDeck[] {
   return axes.transitions.map((_, row) => characterizationDeck(card, corner, axes, modelPath, cells, row));
 }
 
-export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>, axes: Axes,
-  modelPath: string, cells: readonly PrimitiveCell[], row: number): CharacterizationDeck {
+export function characterizationDeck(
+  card: ProcessCard,
+  corner: Pick<Corner, 'name' | 'process' | 'vdd' | 'temperature'>,
+  axes: Axes,
+  modelPath: string,
+  cells: readonly PrimitiveCell[],
+  row: number,
+): CharacterizationDeck {
   const models = cornerModels(card, corner, modelPath);
   const vdd = corner.vdd;
   const devices = devicesAtCorner(card, { ...corner, duty: 0.5 });
@@ -120,14 +131,17 @@ export function characterizationDeck(card: ProcessCard, corner: Pick<Corner, 'na
   const half = Math.max(1e-9, 5 * slowest + 4 * slew);
   const stop = 2 * (TD + slew + half);
   const lines = [
-    spiceComment(`phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}, input transition ${spiceNumber(slew)} s`),
+    spiceComment(
+      `phasegap characterization: ${card.name} at ${corner.name}, cells of size ${axes.size}, input transition ${spiceNumber(slew)} s`,
+    ),
     ...models.header,
     `vsupply vdd 0 DC ${spiceNumber(vdd)}`,
   ];
   const drivers = new Map(cells.map((cell) => [cell, driverFor(card, axes, cell, slew)]));
   const subckts = new Map<string, string>();
   for (const cell of cells) subckts.set(cellSubcktName(cell, axes.size), cellSubckt(cell, axes.size, unitWidths(card), models.geometry));
-  for (const { size } of drivers.values()) subckts.set(cellSubcktName('INV', size), cellSubckt('INV', size, unitWidths(card), models.geometry));
+  for (const { size } of drivers.values())
+    subckts.set(cellSubcktName('INV', size), cellSubckt('INV', size, unitWidths(card), models.geometry));
   lines.push(...subckts.values());
   const arcs: Arc[] = [];
   const names: string[] = [];
@@ -194,7 +208,9 @@ export function resampleColumn(measured: readonly number[], values: readonly num
 }
 
 /** Builds a corner's tables from its decks' measured values; a missing value is an error naming it. */
-export function cornerTablesFrom(parts: ReadonlyArray<{ readonly deck: CharacterizationDeck; readonly values: ReadonlyMap<string, number | null> }>): CornerTables | string {
+export function cornerTablesFrom(
+  parts: ReadonlyArray<{ readonly deck: CharacterizationDeck; readonly values: ReadonlyMap<string, number | null> }>,
+): CornerTables | string {
   const deck = parts[0]!.deck;
   const rows = deck.axes.transitions.length;
   const cols = deck.axes.loads.length;
@@ -204,38 +220,53 @@ export function cornerTablesFrom(parts: ReadonlyArray<{ readonly deck: Character
   const grid = (): Grid => Array.from({ length: rows }, () => new Array<number>(cols).fill(NaN));
   const KEYS = ['sr', 'sf', 'df', 'dr', 'tf', 'tr', 'cr', 'cf'] as const;
   const pins = new Map<string, { cell: PrimitiveCell; pin: number; grids: Record<(typeof KEYS)[number], Grid> }>();
-  for (const { deck, values } of parts) for (const arc of deck.arcs) {
-    const key = `${arc.cell}/${arc.pin}`;
-    let entry = pins.get(key);
-    if (!entry) {
-      entry = { cell: arc.cell, pin: arc.pin, grids: Object.fromEntries(KEYS.map((k) => [k, grid()])) as Record<(typeof KEYS)[number], Grid> };
-      pins.set(key, entry);
+  for (const { deck, values } of parts)
+    for (const arc of deck.arcs) {
+      const key = `${arc.cell}/${arc.pin}`;
+      let entry = pins.get(key);
+      if (!entry) {
+        entry = {
+          cell: arc.cell,
+          pin: arc.pin,
+          grids: Object.fromEntries(KEYS.map((k) => [k, grid()])) as Record<(typeof KEYS)[number], Grid>,
+        };
+        pins.set(key, entry);
+      }
+      const get = (name: string): number | string => {
+        const v = values.get(name);
+        return v === null || v === undefined || !Number.isFinite(v)
+          ? `${name} (${arc.cell} pin ${arc.pin}, transition ${deck.axes.transitions[arc.row]} s, load ${deck.axes.loads[arc.column]} F) was not measured`
+          : v;
+      };
+      const measured = ['sr', 'sf', 'df', 'dr', 'tf', 'tr', 'qr', 'qh', 'qf'].map((m) => get(`${m}${arc.id}`));
+      const absent = measured.find((m) => typeof m === 'string');
+      if (absent !== undefined) return absent as string;
+      const [sr, sf, df, dr, tf, tr, qr, qh, qf] = measured as number[];
+      const put = (k: (typeof KEYS)[number], v: number) => {
+        entry.grids[k][arc.row]![arc.column] = v;
+      };
+      put('sr', sr! / 0.8);
+      put('sf', sf! / 0.8);
+      put('df', df!);
+      put('dr', dr!);
+      put('tf', tf! / 0.8);
+      put('tr', tr! / 0.8);
+      // Charge to the pin's 50 % point over half the swing, on its rising and its falling edge.
+      put('cr', (qr! * QSCALE) / (vdd / 2));
+      put('cf', ((qh! - qf!) * QSCALE) / (vdd / 2));
     }
-    const get = (name: string): number | string => {
-      const v = values.get(name);
-      return v === null || v === undefined || !Number.isFinite(v) ? `${name} (${arc.cell} pin ${arc.pin}, transition ${deck.axes.transitions[arc.row]} s, load ${deck.axes.loads[arc.column]} F) was not measured` : v;
-    };
-    const measured = ['sr', 'sf', 'df', 'dr', 'tf', 'tr', 'qr', 'qh', 'qf'].map((m) => get(`${m}${arc.id}`));
-    const absent = measured.find((m) => typeof m === 'string');
-    if (absent !== undefined) return absent as string;
-    const [sr, sf, df, dr, tf, tr, qr, qh, qf] = measured as number[];
-    const put = (k: (typeof KEYS)[number], v: number) => { entry.grids[k][arc.row]![arc.column] = v; };
-    put('sr', sr! / 0.8);
-    put('sf', sf! / 0.8);
-    put('df', df!);
-    put('dr', dr!);
-    put('tf', tf! / 0.8);
-    put('tr', tr! / 0.8);
-    // Charge to the pin's 50 % point over half the swing, on its rising and its falling edge.
-    put('cr', (qr! * QSCALE) / (vdd / 2));
-    put('cf', ((qh! - qf!) * QSCALE) / (vdd / 2));
-  }
   const axis = deck.axes.transitions;
   const onAxis = (slews: Grid, values: Grid): Grid => {
     const out = grid();
     for (let c = 0; c < cols; c++) {
-      const column = resampleColumn(slews.map((r) => r[c]!), values.map((r) => r[c]!), axis);
-      column.forEach((v, r) => { out[r]![c] = v; });
+      const column = resampleColumn(
+        slews.map((r) => r[c]!),
+        values.map((r) => r[c]!),
+        axis,
+      );
+      column.forEach((v, r) => {
+        out[r]![c] = v;
+      });
     }
     return out;
   };

@@ -78,7 +78,8 @@ export function deckSupplies(text: string): { source: string; node: string; volt
   const out: { source: string; node: string; volts: number }[] = [];
   for (const line of text.split('\n')) {
     const m = /^(v\S+)\s+(\S+)\s+0\s+DC\s+(\S+)\s*(?:[$;].*)?$/i.exec(line);
-    if (m && Number(m[3]) !== 0 && Number.isFinite(Number(m[3]))) out.push({ source: m[1]!.toLowerCase(), node: m[2]!, volts: Number(m[3]) });
+    if (m && Number(m[3]) !== 0 && Number.isFinite(Number(m[3])))
+      out.push({ source: m[1]!.toLowerCase(), node: m[2]!, volts: Number(m[3]) });
   }
   return out;
 }
@@ -100,18 +101,31 @@ export function settlePeriods(startup: number | null): number {
 }
 
 function modelFigures(c: CornerCircuit): ModelCircuitFigures {
-  return { output: c.output, ripple: c.ripple, efficiency: c.efficiency, lostCharge: c.lostCharge,
-    inputPower: c.inputPower, generatorPower: c.generatorPower, outputPower: c.outputPower };
+  return {
+    output: c.output,
+    ripple: c.ripple,
+    efficiency: c.efficiency,
+    lostCharge: c.lostCharge,
+    inputPower: c.inputPower,
+    generatorPower: c.generatorPower,
+    outputPower: c.outputPower,
+  };
 }
 
 export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: Pick<DeckOptions, 'modelPath'>): CircuitDeck {
   const { design } = resolved;
   const spec = design.circuit;
-  if (!spec) throw inputError('field.required', 'circuit', undefined, 'is missing: only a design with a circuit section has a circuit deck');
+  if (!spec)
+    throw inputError('field.required', 'circuit', undefined, 'is missing: only a design with a circuit section has a circuit deck');
   const result = evaluateCorner(resolved, corner);
   const circuit = result.circuit;
   if (!result.measurement.ok || !circuit) {
-    throw inputError('physics.no-steady-state', `corners (${corner.name})`, corner.name, 'cannot be written as a circuit deck: the model finds no steady state there');
+    throw inputError(
+      'physics.no-steady-state',
+      `corners (${corner.name})`,
+      corner.name,
+      'cannot be written as a circuit deck: the model finds no steady state there',
+    );
   }
   const vdd = corner.vdd;
   const T = 1 / design.clock.frequency;
@@ -146,14 +160,22 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
     const ref = classifyTerminal(raw, declared, spec.rails);
     if (ref.kind === 'node') return nodeName.get(ref.name)!;
     const name = ref.kind === 'rail' ? ref.name : String(raw);
-    const level = Object.hasOwn(spec.rails, name) ? spec.rails[name]! : Object.hasOwn(declared, name) ? declared[name] as Level : parseLevel(raw)!;
+    const level = Object.hasOwn(spec.rails, name)
+      ? spec.rails[name]!
+      : Object.hasOwn(declared, name)
+        ? (declared[name] as Level)
+        : parseLevel(raw)!;
     return railNode(levelAt(level, vdd));
   };
-  for (const [net, name] of nodeName) lines.push(`cn_${name} ${name} 0 ${spiceNumber(spec.nodeCapacitance)}${spiceInlineComment(`${net}: node capacitance`)}`);
+  for (const [net, name] of nodeName)
+    lines.push(`cn_${name} ${name} 0 ${spiceNumber(spec.nodeCapacitance)}${spiceInlineComment(`${net}: node capacitance`)}`);
   for (const c of spec.capacitors) {
     const [a, b] = [node(c.between[0]), node(c.between[1])];
     lines.push(`c_${c.name.replace(/[^A-Za-z0-9_]/g, '_')} ${a} ${b} ${spiceNumber(c.value)}${spiceInlineComment(c.name)}`);
-    if (c.bottomPlate > 0) lines.push(`c_${c.name.replace(/[^A-Za-z0-9_]/g, '_')}_bp ${b} 0 ${spiceNumber(c.value * c.bottomPlate)}${spiceInlineComment(`${c.name}: bottom plate`)}`);
+    if (c.bottomPlate > 0)
+      lines.push(
+        `c_${c.name.replace(/[^A-Za-z0-9_]/g, '_')}_bp ${b} 0 ${spiceNumber(c.value * c.bottomPlate)}${spiceInlineComment(`${c.name}: bottom plate`)}`,
+      );
   }
   const switchNodes = design.switches.map((s, i): readonly [string, string] => {
     lines.push(`vqs${i} ${node(s.terminals![0])} qs${i} DC 0${spiceInlineComment(`${s.name}: current sense`)}`);
@@ -161,20 +183,23 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   });
   spec.diodes.forEach((d, i) => {
     const v = `v(qd${i},${node(d.cathode)})`;
-    lines.push(`vqd${i} ${node(d.anode)} qd${i} DC 0${spiceInlineComment(`${d.name}: current sense`)}`,
-      `bd${i} qd${i} ${node(d.cathode)} I=${spiceNumber(d.leakage)}*${v}+${spiceNumber(1 / d.resistance)}*max(${v}-${spiceNumber(d.drop)},0)${spiceInlineComment(`${d.name}: piecewise linear`)}`);
+    lines.push(
+      `vqd${i} ${node(d.anode)} qd${i} DC 0${spiceInlineComment(`${d.name}: current sense`)}`,
+      `bd${i} qd${i} ${node(d.cathode)} I=${spiceNumber(d.leakage)}*${v}+${spiceNumber(1 / d.resistance)}*max(${v}-${spiceNumber(d.drop)},0)${spiceInlineComment(`${d.name}: piecewise linear`)}`,
+    );
   });
   const out = nodeName.get(spec.output)!;
   const sign = circuit.output < 0 ? -1 : 1;
-  const load = network.load.conductance > 0
-    ? { current: 0, resistance: 1 / network.load.conductance }
-    : { current: sign * network.load.current, resistance: null };
+  const load =
+    network.load.conductance > 0
+      ? { current: 0, resistance: 1 / network.load.conductance }
+      : { current: sign * network.load.current, resistance: null };
   if (load.resistance !== null) lines.push(`rload ${out} 0 ${spiceNumber(load.resistance)}`);
   else if (load.current !== 0) lines.push(`iload ${out} 0 DC ${spiceNumber(load.current)}`);
   // The deck's time 0 is the model's time window.start earlier than its period start, modulo T.
   const t0 = wrapTime(result.simulation.windowStart - window.start - circuit.start, T);
   const x0 = stateAt(circuit.trace.times, circuit.trace.voltages, network.nodes.length, t0);
-  lines.push('* start at the solver\'s periodic steady state');
+  lines.push("* start at the solver's periodic steady state");
   network.nodes.forEach((n, i) => {
     lines.push(`.ic v(${nodeName.get(n)!})=${spiceNumber(x0[i]!)}`);
   });
@@ -182,7 +207,10 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const window3 = (k: number) => `FROM=${spiceNumber(stop - k * T)} TO=${spiceNumber(stop - (k - 1) * T)}`;
   const measures: string[] = [spiceComment(`circuit measurements over the last period(s) of ${periods}`)];
   const names: string[] = [];
-  const meas = (name: string, what: string) => { names.push(name); measures.push(`.meas tran ${name} ${what}`); };
+  const meas = (name: string, what: string) => {
+    names.push(name);
+    measures.push(`.meas tran ${name} ${what}`);
+  };
   for (const k of [3, 2, 1]) meas(`vout_${4 - k}`, `AVG v(${out}) ${window3(k)}`);
   meas('vout_pp', `PP v(${out}) ${window3(1)}`);
   if (load.resistance !== null) meas('vout_rms', `RMS v(${out}) ${window3(1)}`);
@@ -202,8 +230,27 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   });
 
   // Every DC source of the deck delivers power (the supply, switch bodies, rails); the first pass finds them.
-  const write = () => generatorDeck(resolved, corner, { modelPath: options.modelPath, maxStepFraction: MAX_STEP, circuit: { switchNodes, lines, stop, measures } });
-  const supplies = deckSupplies(write().text).map((s): DeckSupply => ({ source: s.source, volts: s.volts, feeds: /^vcr\d+$/.test(s.source) ? 'circuit' : 'generator' }));
+  const write = () =>
+    generatorDeck(resolved, corner, {
+      modelPath: options.modelPath,
+      maxStepFraction: MAX_STEP,
+      circuit: { switchNodes, lines, stop, measures },
+    });
+  const supplies = deckSupplies(write().text).map(
+    (s): DeckSupply => ({ source: s.source, volts: s.volts, feeds: /^vcr\d+$/.test(s.source) ? 'circuit' : 'generator' }),
+  );
   for (const s of supplies) meas(`q_${s.source}`, `INTEG i(${s.source}) ${window3(1)}`);
-  return { text: write().text, corner, vdd, period: T, periods, from, to: stop, model: modelFigures(circuit), supplies, load, measures: names };
+  return {
+    text: write().text,
+    corner,
+    vdd,
+    period: T,
+    periods,
+    from,
+    to: stop,
+    model: modelFigures(circuit),
+    supplies,
+    load,
+    measures: names,
+  };
 }

@@ -75,8 +75,14 @@ function relative(model: number | null, sim: number | null, scale: number | null
   return (model - sim) / scale;
 }
 
-function judged(figure: CircuitFigureComparison['figure'], unit: CircuitFigureComparison['unit'], model: number | null, simulator: number | null,
-  difference: number | null, tolerance: number): CircuitFigureComparison {
+function judged(
+  figure: CircuitFigureComparison['figure'],
+  unit: CircuitFigureComparison['unit'],
+  model: number | null,
+  simulator: number | null,
+  difference: number | null,
+  tolerance: number,
+): CircuitFigureComparison {
   return { figure, unit, model, simulator, difference, tolerance, pass: difference !== null && Math.abs(difference) <= tolerance };
 }
 
@@ -96,12 +102,37 @@ export function compareCircuit(deck: CircuitDeck, output: SimulatorOutput): Circ
   const out = judged('output', 'V', m.output, mean, relative(m.output, mean, deck.vdd), CIRCUIT_TOLERANCE.output);
   const figures: CircuitFigureComparison[] = [
     { ...out, pass: out.pass && settled },
-    judged('ripple', 'V', m.ripple, ripple, relative(m.ripple, ripple, ripple === null ? null : Math.abs(ripple)), CIRCUIT_TOLERANCE.ripple),
-    judged('efficiency', '', m.efficiency, efficiency, relative(m.efficiency, efficiency, efficiency === null ? null : Math.abs(efficiency)), CIRCUIT_TOLERANCE.efficiency),
-    { figure: 'lost charge', unit: 'C', model: m.lostCharge, simulator: simulatedLostCharge(deck, value), difference: null, tolerance: null, pass: true },
+    judged(
+      'ripple',
+      'V',
+      m.ripple,
+      ripple,
+      relative(m.ripple, ripple, ripple === null ? null : Math.abs(ripple)),
+      CIRCUIT_TOLERANCE.ripple,
+    ),
+    judged(
+      'efficiency',
+      '',
+      m.efficiency,
+      efficiency,
+      relative(m.efficiency, efficiency, efficiency === null ? null : Math.abs(efficiency)),
+      CIRCUIT_TOLERANCE.efficiency,
+    ),
+    {
+      figure: 'lost charge',
+      unit: 'C',
+      model: m.lostCharge,
+      simulator: simulatedLostCharge(deck, value),
+      difference: null,
+      tolerance: null,
+      pass: true,
+    },
   ];
   return {
-    periods: deck.periods, drift, settled, figures,
+    periods: deck.periods,
+    drift,
+    settled,
+    figures,
     power: { model: { input: m.inputPower, generator: m.generatorPower, output: m.outputPower }, simulator: power },
     pass: settled && figures.every((f) => f.pass),
   };

@@ -66,8 +66,12 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const models = cornerModels(card, corner, options.modelPath);
   const result = evaluateCorner(resolved, corner);
   if (!result.measurement.ok) {
-    throw inputError('physics.no-steady-state', `corners (${corner.name})`, corner.name,
-      `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`);
+    throw inputError(
+      'physics.no-steady-state',
+      `corners (${corner.name})`,
+      corner.name,
+      `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`,
+    );
   }
   const devices = devicesAtCorner(card, corner);
   const vdd = corner.vdd;
@@ -78,7 +82,15 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   const stop = options.circuit?.stop ?? window.start + 1.3 * T;
   const nodes = spiceNodeNames(netlist.netNames);
   const node = (net: string) => nodes.get(net)!;
-  const quantities = deckQuantities({ netlist, result: result.simulation, measurement: result.measurement, devices, switches: resolved.switches, node, window });
+  const quantities = deckQuantities({
+    netlist,
+    result: result.simulation,
+    measurement: result.measurement,
+    devices,
+    switches: resolved.switches,
+    node,
+    window,
+  });
   const lines: string[] = [
     spiceComment(`phasegap testbench: ${design.name} at ${corner.name}`),
     `* ${netlist.gateCount} cells, clock ${spiceNumber(design.clock.frequency)} Hz; measured period starts at ${spiceNumber(window.start)} s`,
@@ -99,7 +111,9 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   lines.push('', '* generator');
   netlist.source.gates.forEach((gate, g) => {
     const name = `x${g}_${node(gate.output)}`;
-    lines.push(`${name} ${gate.inputs.map(node).join(' ')} ${node(gate.output)} vdd ${cellSubcktName(gate.cell, gate.size)}${spiceInlineComment(gate.name)}`);
+    lines.push(
+      `${name} ${gate.inputs.map(node).join(' ')} ${node(gate.output)} vdd ${cellSubcktName(gate.cell, gate.size)}${spiceInlineComment(gate.name)}`,
+    );
   });
   lines.push('', '* extra capacitance (delay capacitors, declared loads)');
   const extra = new Map<string, number>();
@@ -113,20 +127,25 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   if (options.circuit) lines.push(...options.circuit.lines);
   // The model's logic state while the clock is low helps the operating point of the latch.
   const start = result.simulation.startValues;
-  lines.push('', '* starting guess for the operating point: the model\'s state with the clock low');
+  lines.push('', "* starting guess for the operating point: the model's state with the clock low");
   netlist.netNames.forEach((net, n) => {
     if (n !== netlist.clock) lines.push(`.nodeset v(${node(net)})=${start[n] === 1 ? spiceNumber(vdd) : '0'}`);
   });
   const ron = options.circuit ? { lines: [], quantities: [] } : ronBench(resolved.switches, devices, models.geometry, window.start);
-  if (ron.lines.length > 0) lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
+  if (ron.lines.length > 0)
+    lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
   const maxStep = (options.maxStepFraction ?? 1 / 2000) * T;
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
   if (options.circuit) lines.push(...options.circuit.measures);
   else for (const q of quantities) lines.push(spiceComment(`${q.name}: ${q.label}`), measureLine(q));
   lines.push('.end', '');
-  const breakBeforeMake = design.constraints.breakBeforeMake.map((b, i): BreakBeforeMakePair => ({
-    name: resolved.switchCheckNames[i]!, between: b.between, guard: b.guard ?? design.requirements.guard,
-  }));
+  const breakBeforeMake = design.constraints.breakBeforeMake.map(
+    (b, i): BreakBeforeMakePair => ({
+      name: resolved.switchCheckNames[i]!,
+      between: b.between,
+      guard: b.guard ?? design.requirements.guard,
+    }),
+  );
   return { text: lines.join('\n'), corner, quantities: options.circuit ? [] : quantities, window, breakBeforeMake, ron: ron.quantities };
 }
 
@@ -135,10 +154,20 @@ export function deckWindow(period: number, duty: number): DeckWindow {
   return { start: FIRST_EDGE * period + period, period, duty };
 }
 
-function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) => string, geometry: DeviceGeometry, corner: CornerDevices,
-  nominalInput: (net: string) => number, circuit?: DeckCircuit): string[] {
+function switchLines(
+  resolved: ResolvedDesign,
+  vdd: number,
+  node: (net: string) => string,
+  geometry: DeviceGeometry,
+  corner: CornerDevices,
+  nominalInput: (net: string) => number,
+  circuit?: DeckCircuit,
+): string[] {
   const lines: string[] = [];
-  const biases = new Map<number, string>([[0, '0'], [vdd, 'vdd']]);
+  const biases = new Map<number, string>([
+    [0, '0'],
+    [vdd, 'vdd'],
+  ]);
   const bias = (volts: number): string => {
     const key = Number(volts.toPrecision(9));
     let name = biases.get(key);
@@ -155,10 +184,23 @@ function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) 
     const gates: string[] = [];
     for (const [j, device] of plan.devices.entries()) {
       const ls = plan.levelShifter;
-      if (!ls) { gates.push(node(device.net)); continue; }
+      if (!ls) {
+        gates.push(node(device.net));
+        continue;
+      }
       const rails = { vdd: 'vdd', low: bias(levelAt(ls.low, vdd)), high: bias(levelAt(ls.high, vdd)) };
-      const size = sizeShifter(ls, corner.card, switchGateCapacitance(corner.card, device.kind, device.w, device.l), nominalInput(device.net));
-      devices.push(...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, { ...geometry, l: corner.card.lmin }));
+      const size = sizeShifter(
+        ls,
+        corner.card,
+        switchGateCapacitance(corner.card, device.kind, device.w, device.l),
+        nominalInput(device.net),
+      );
+      devices.push(
+        ...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, {
+          ...geometry,
+          l: corner.card.lmin,
+        }),
+      );
       gates.push(shifterNode(i, j));
     }
     const signal = levelAt(plan.signal.min, vdd);
@@ -167,9 +209,11 @@ function switchLines(resolved: ResolvedDesign, vdd: number, node: (net: string) 
       const bulk = bulkLevel(plan, device.kind, vdd);
       const [drain, source] = circuit?.switchNodes[i] ?? [bias(signal), bias(signal)];
       const geo = { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel };
-      devices.push(`${mosfet(`msw${i}_${j}`, drain, gates[j]!, source, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)}${spiceInlineComment(plan.name)}`);
+      devices.push(
+        `${mosfet(`msw${i}_${j}`, drain, gates[j]!, source, bias(bulk), n ? geometry.nModel : geometry.pModel, device.w, geo)}${spiceInlineComment(plan.name)}`,
+      );
     });
   });
-  const words = circuit ? 'on the circuit\'s nodes' : 'gate loads; drain and source held at the signal level';
+  const words = circuit ? "on the circuit's nodes" : 'gate loads; drain and source held at the signal level';
   return devices.length === 0 ? [] : ['', `* switches (${words})`, ...lines, ...devices];
 }

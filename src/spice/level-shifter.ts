@@ -38,20 +38,33 @@ export interface ShifterRails {
  * The lines of one shifter named `id` from deck node `input` to `output`: `shifter` is the design's
  * (inverting or not, its declared delay at the nominal corner, s), `label` names it in the comments.
  */
-export function shifterLines(id: string, label: string, input: string, output: string, shifter: { invert: boolean; delay: number },
-  rails: ShifterRails, size: ShifterSizing, geometry: DeviceGeometry): string[] {
+export function shifterLines(
+  id: string,
+  label: string,
+  input: string,
+  output: string,
+  shifter: { invert: boolean; delay: number },
+  rails: ShifterRails,
+  size: ShifterSizing,
+  geometry: DeviceGeometry,
+): string[] {
   const { invert, delay: declared } = shifter;
   const { nModel: n, pModel: p } = geometry;
   const node = (suffix: string) => `${id}_${suffix}`;
   const [a, b, mid, set, x, y] = ['in', 'inb', 'mid', 'set', 'x', 'y'].map(node) as [string, string, string, string, string, string];
   const ps = (value: number) => `${spiceNumber(value * 1e12)} ps`;
-  const m = (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) => mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
+  const m = (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) =>
+    mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
   const slowest = Math.max(size.estimate.rise, size.estimate.fall);
   return [
-    spiceComment(`${label}: cross-coupled level shifter${invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,`
-      + ' skewed buffer on the set side, n pull-downs against a cross-coupled p latch on the high level, output inverter from the low to the high level)'),
-    spiceComment(`${label}: sized for ${ps(size.estimate.rise)} rising, ${ps(size.estimate.fall)} falling, ${ps(size.estimate.transition)} transition at the card's nominal corner`
-      + (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : '')),
+    spiceComment(
+      `${label}: cross-coupled level shifter${invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,` +
+        ' skewed buffer on the set side, n pull-downs against a cross-coupled p latch on the high level, output inverter from the low to the high level)',
+    ),
+    spiceComment(
+      `${label}: sized for ${ps(size.estimate.rise)} rising, ${ps(size.estimate.fall)} falling, ${ps(size.estimate.transition)} transition at the card's nominal corner` +
+        (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : ''),
+    ),
     invert ? `e${id} ${a} ${rails.vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`,
     m('i1', b, a, '0', '0', n, size.inverterN),
     m('i2', b, a, rails.vdd, rails.vdd, p, 2 * size.inverterN),

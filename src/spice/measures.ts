@@ -57,7 +57,6 @@ export interface DeckWindow {
   readonly duty: number;
 }
 
-
 /** The clock 50 % edge (rising or falling) at or before a time on the deck's axis. */
 export function anchorBefore(time: number, window: DeckWindow): number {
   const rel = time - window.start;
@@ -82,15 +81,25 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   const T = window.period;
   // Model time -> deck time: the model's reported period maps onto the deck's window.
   const toDeck = (t: number) => window.start + wrapTime(t - ctx.result.windowStart, T);
-  const crossing = (net: string, level: number, rising: boolean, deckTime: number): Crossing =>
-    ({ node: ctx.node(net), level, rising, td: Math.max(0, anchorBefore(deckTime, window)) });
+  const crossing = (net: string, level: number, rising: boolean, deckTime: number): Crossing => ({
+    node: ctx.node(net),
+    level,
+    rising,
+    td: Math.max(0, anchorBefore(deckTime, window)),
+  });
   const out: Quantity[] = [];
   m.deadTimes.forEach((d, i) => {
     const from = m.cycles[d.from]!;
     const start = toDeck(from.fall);
-    for (const [kind, level, value] of [['dead', 0.5, d.t50], ['gap', GAP_LEVEL, d.gap]] as const) {
+    for (const [kind, level, value] of [
+      ['dead', 0.5, d.t50],
+      ['gap', GAP_LEVEL, d.gap],
+    ] as const) {
       out.push({
-        name: `${kind}_${i + 1}`, kind, label: `${kind} ${d.from}->${d.to}`, model: value,
+        name: `${kind}_${i + 1}`,
+        kind,
+        label: `${kind} ${d.from}->${d.to}`,
+        model: value,
         trig: crossing(d.from, level * vdd, false, start),
         targ: crossing(d.to, level * vdd, true, start + d.t50),
       });
@@ -99,7 +108,10 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   Object.entries(m.widths).forEach(([net, width], i) => {
     const rise = toDeck(m.cycles[net]!.rise);
     out.push({
-      name: `width_${i + 1}`, kind: 'width', label: `width ${net}`, model: width,
+      name: `width_${i + 1}`,
+      kind: 'width',
+      label: `width ${net}`,
+      model: width,
       trig: crossing(net, 0.5 * vdd, true, rise),
       targ: crossing(net, 0.5 * vdd, false, rise + width),
     });
@@ -123,18 +135,31 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
         if (!(level > low && level < high)) continue;
         const rise = rampCrossing(wave.rise, level);
         const fall = rampCrossing(wave.fall, level);
-        const events: Array<['on' | 'off', number, boolean]> = device.kind === 'n'
-          ? [['on', rise, true], ['off', fall, false]]
-          : [['on', fall, false], ['off', rise, true]];
+        const events: Array<['on' | 'off', number, boolean]> =
+          device.kind === 'n'
+            ? [
+                ['on', rise, true],
+                ['off', fall, false],
+              ]
+            : [
+                ['on', fall, false],
+                ['off', rise, true],
+              ];
         for (const [event, time, rising] of events) {
           const at = toDeck(time);
           const clockEdge = at - wrapTime(at - window.start, T);
           k++;
           out.push({
-            name: `sw_${k}`, kind: 'switch',
+            name: `sw_${k}`,
+            kind: 'switch',
             label: `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} ${event} @ ${Number(vs.toFixed(3))} V`,
             model: at - clockEdge,
-            trig: { node: ctx.node(ctx.netlist.netNames[ctx.netlist.clock]!), level: 0.5 * vdd, rising: true, td: Math.max(0, clockEdge - 0.25 * window.duty * T) },
+            trig: {
+              node: ctx.node(ctx.netlist.netNames[ctx.netlist.clock]!),
+              level: 0.5 * vdd,
+              rising: true,
+              td: Math.max(0, clockEdge - 0.25 * window.duty * T),
+            },
             targ: { node: gate, level, rising, td: Math.max(0, anchorBefore(at, window)) },
             event: { switch: plan.name, event, anchor: clockEdge },
           });

@@ -18,8 +18,12 @@ export interface CornerModels {
 /** The card's spice section, or an input error saying how to add one. */
 export function spiceSection(card: ProcessCard): SpiceSection {
   if (!card.spice) {
-    throw inputError('value.invalid', 'process.spice', undefined,
-      `is missing from card "${card.name}"; add a spice section with models (the model file), n and p (model names) to write transistor-level decks`);
+    throw inputError(
+      'value.invalid',
+      'process.spice',
+      undefined,
+      `is missing from card "${card.name}"; add a spice section with models (the model file), n and p (model names) to write transistor-level decks`,
+    );
   }
   return card.spice;
 }
@@ -39,7 +43,13 @@ export function cornerModels(card: ProcessCard, corner: Pick<Corner, 'process' |
     `.temp ${corner.temperature}`,
   ];
   return {
-    geometry: { l: card.lmin, diffusion: spice.diffusion, stackJunctions: spice.stackJunctions, nModel: spiceIdentifier(perCorner?.n ?? spice.n), pModel: spiceIdentifier(perCorner?.p ?? spice.p) },
+    geometry: {
+      l: card.lmin,
+      diffusion: spice.diffusion,
+      stackJunctions: spice.stackJunctions,
+      nModel: spiceIdentifier(perCorner?.n ?? spice.n),
+      pModel: spiceIdentifier(perCorner?.p ?? spice.p),
+    },
     header,
   };
 }

@@ -63,14 +63,28 @@ export function ronBench(switches: readonly SwitchPlan[], devices: CornerDevices
       const id = `ron${k}`;
       // The drain sits on the side the source's body is not, so no junction is forward-biased.
       const vd = plan.devices.every((d) => d.kind === 'p') ? vs - RON_VDS : vs + RON_VDS;
-      lines.push(`v${id}s ${id}s 0 DC ${spiceNumber(vs)}${spiceInlineComment(plan.name)}`, `v${id}d ${id}d 0 DC ${spiceNumber(vd)}`,
-        `v${id}gn ${id}gn 0 DC ${spiceNumber(high)}`, `v${id}gp ${id}gp 0 DC ${spiceNumber(low)}`);
+      lines.push(
+        `v${id}s ${id}s 0 DC ${spiceNumber(vs)}${spiceInlineComment(plan.name)}`,
+        `v${id}d ${id}d 0 DC ${spiceNumber(vd)}`,
+        `v${id}gn ${id}gn 0 DC ${spiceNumber(high)}`,
+        `v${id}gp ${id}gp 0 DC ${spiceNumber(low)}`,
+      );
       plan.devices.forEach((device, j) => {
         const n = device.kind === 'n';
         const bulk = bulkLevel(plan, device.kind, vdd);
         lines.push(`v${id}b${j} ${id}b${j} 0 DC ${spiceNumber(bulk)}`);
-        lines.push(mosfet(`m${id}_${j}`, `${id}d`, n ? `${id}gn` : `${id}gp`, `${id}s`, `${id}b${j}`, n ? geometry.nModel : geometry.pModel, device.w,
-          { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel }));
+        lines.push(
+          mosfet(
+            `m${id}_${j}`,
+            `${id}d`,
+            n ? `${id}gn` : `${id}gp`,
+            `${id}s`,
+            `${id}b${j}`,
+            n ? geometry.nModel : geometry.pModel,
+            device.w,
+            { l: device.l, diffusion: geometry.diffusion, nModel: geometry.nModel, pModel: geometry.pModel },
+          ),
+        );
       });
       quantities.push({ name: `i_${id}`, switch: plan.name, signal: vs, label: `R_on ${plan.name} @ ${Number(vs.toFixed(3))} V`, model });
       lines.push(`.meas tran i_${id} FIND i(v${id}d) AT=${spiceNumber(at)}`);

@@ -27,9 +27,14 @@ export function checkSimulator(program = 'ngspice'): string {
   const probe = spawnSync(program, ['-v'], { encoding: 'utf8' });
   if (probe.error) {
     const code = (probe.error as NodeJS.ErrnoException).code;
-    throw inputError('tool.failed', 'ngspice', program, code === 'ENOENT'
-      ? 'is not installed (or not on the PATH); install it with: sudo apt-get install ngspice (Debian/Ubuntu), or pass --ngspice PATH'
-      : `cannot be started (${code ?? probe.error.message})`);
+    throw inputError(
+      'tool.failed',
+      'ngspice',
+      program,
+      code === 'ENOENT'
+        ? 'is not installed (or not on the PATH); install it with: sudo apt-get install ngspice (Debian/Ubuntu), or pass --ngspice PATH'
+        : `cannot be started (${code ?? probe.error.message})`,
+    );
   }
   const version = /ngspice-\S+/.exec(`${probe.stdout}${probe.stderr}`)?.[0];
   return version ?? 'ngspice';
@@ -51,7 +56,11 @@ export function runDecks(decks: ReadonlyArray<{ readonly name: string; readonly 
     // in the fresh folder, so no .spiceinit from the caller's working directory is read.
     const executable = program.includes('/') ? resolve(program) : program;
     const run = spawnSync('xargs', ['-0', '-P', String(parallel), '-I', '{}', executable, '-b', '-o', '{}.log', '{}'], {
-      input: files.join('\0'), encoding: 'utf8', maxBuffer: 64 * 1024 * 1024, cwd: folder, shell: false,
+      input: files.join('\0'),
+      encoding: 'utf8',
+      maxBuffer: 64 * 1024 * 1024,
+      cwd: folder,
+      shell: false,
     });
     if (run.error) throw inputError('tool.failed', 'ngspice', program, `could not be run through xargs (${run.error.message})`);
     return decks.map((deck, i) => {

@@ -70,7 +70,7 @@ const GROUNDED: Fits = {
 /** Output low level above ground (a floating output domain such as VDD .. 2 VDD). */
 const FLOATING: Fits = {
   fall: [72.24e-12, 1.0844, 1.7978, 0.7565, 0.1646],
-  rise: [77.30e-12, 1.2872, 0.7428, 0.5482, 0.2646],
+  rise: [77.3e-12, 1.2872, 0.7428, 0.5482, 0.2646],
   transitionRise: [34.46e-12, 1.5185],
   transitionFall: [64.59e-12, 1.2783],
 };
@@ -100,16 +100,16 @@ export function sizeShifter(ls: Shifter, card: ProcessCard, load: number, input:
   // Per width: the pull-down at the input swing, a latch p device with its gate at ground.
   const inPull = current(n, vdd);
   const inLatch = current(p, high);
-  const latchRatio = Math.min(LATCH_RATIO, 0.5 * inPull / inLatch);
+  const latchRatio = Math.min(LATCH_RATIO, (0.5 * inPull) / inLatch);
   // Output inverter: n gate-source at high - low, p source-gate at high; both edges alike.
   const outN = current(n, swing);
   const ratio = outN / inLatch;
   const target = ls.transition ?? ls.delay;
   const [tr0, tr1] = fits.transitionRise;
   const [tf0, tf1] = fits.transitionFall;
-  const selfLoaded = 2 * n.cdrain * swing * (1 + ratio) / outN;
+  const selfLoaded = (2 * n.cdrain * swing * (1 + ratio)) / outN;
   const outEstimate = Math.max(MIN_TRANSITION, selfLoaded, (target - (tr0 + tf0) / 2) / ((tr1 + tf1) / 2));
-  const outputN = load * swing / (outEstimate * outN - n.cdrain * swing * (1 + ratio));
+  const outputN = (load * swing) / (outEstimate * outN - n.cdrain * swing * (1 + ratio));
   const outputP = outputN * ratio;
   // Latch node: drains, the other side's p gate, the output inverter's gates, and a capacitor.
   // Per unit of pull-down width: the latch's own part of the node and its times per farad.
@@ -117,7 +117,7 @@ export function sizeShifter(ls: Shifter, card: ProcessCard, load: number, input:
   const outputGates = n.cgate * outputN + p.cgate * outputP;
   const [f0, f1, f2, f3, f4] = fits.fall;
   const fixedFall = f0 + f3 * outEstimate + f4 * input;
-  const perFarad = (w: number) => f1 * high / (2 * (inPull - inLatch * latchRatio) * w) + f2 * high / (2 * inLatch * latchRatio * w);
+  const perFarad = (w: number) => (f1 * high) / (2 * (inPull - inLatch * latchRatio) * w) + (f2 * high) / (2 * inLatch * latchRatio * w);
   // The declared pull-down width, else the default one, widened when the delay needs a faster latch.
   let pullDown = ls.w ?? PULL_DOWN_UNITS * unit;
   const spare = (ls.delay - fixedFall) / perFarad(pullDown) - ownPerWidth * pullDown;
@@ -140,7 +140,15 @@ export function sizeShifter(ls: Shifter, card: ProcessCard, load: number, input:
   const riseAt = (mid: number) => fixedRise + r1 * mid * perBuffer;
   const bufferCap = Math.max(0, (ls.delay - fixedRise) / (r1 * perBuffer) - mid0);
   return {
-    inverterN, bufferN, bufferP, bufferCap, pullDown, latchP, latchCap, outputN, outputP,
+    inverterN,
+    bufferN,
+    bufferP,
+    bufferCap,
+    pullDown,
+    latchP,
+    latchCap,
+    outputN,
+    outputP,
     estimate: {
       rise: riseAt(mid0 + bufferCap),
       fall: fallAt(node),

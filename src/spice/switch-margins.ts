@@ -43,8 +43,12 @@ function margin(a: Conduction, b: Conduction, guard: number, period: number): nu
  * Every pair whose two switches are both in the deck; `measured` gives the simulator's value of a
  * quantity by name (null when it did not measure it).
  */
-export function breakBeforeMakeMargins(quantities: readonly Quantity[], measured: (name: string) => number | null,
-  pairs: readonly BreakBeforeMakePair[], period: number): BreakBeforeMakeComparison[] {
+export function breakBeforeMakeMargins(
+  quantities: readonly Quantity[],
+  measured: (name: string) => number | null,
+  pairs: readonly BreakBeforeMakePair[],
+  period: number,
+): BreakBeforeMakeComparison[] {
   const out: BreakBeforeMakeComparison[] = [];
   for (const pair of pairs) {
     const [a, b] = pair.between.map((name) => quantities.filter((q) => q.event?.switch === name));
@@ -60,7 +64,12 @@ export function breakBeforeMakeMargins(quantities: readonly Quantity[], measured
     const sa = conduction(a!, sim, period);
     const sb = conduction(b!, sim, period);
     const simMargin = sa && sb ? margin(sa, sb, pair.guard, period) : null;
-    out.push({ check: pair.name, model: modelMargin, simulator: simMargin, agrees: simMargin !== null && (simMargin >= 0) === (modelMargin >= 0) });
+    out.push({
+      check: pair.name,
+      model: modelMargin,
+      simulator: simMargin,
+      agrees: simMargin !== null && simMargin >= 0 === modelMargin >= 0,
+    });
   }
   return out;
 }

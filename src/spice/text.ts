@@ -34,7 +34,12 @@ export function spiceIdentifier(name: string): string {
 /** `.include "PATH"`; a path that cannot be quoted (a double quote, a control character) is refused. */
 export function spiceInclude(path: string, field = 'process.spice.models (or --models)'): string {
   if (/["\p{Cc}\u2028\u2029]/u.test(path)) {
-    throw inputError('value.invalid', field, path, 'cannot be written in a deck\'s .include line: a model file path may not contain a double quote, a line break or another control character; rename the file or its folder');
+    throw inputError(
+      'value.invalid',
+      field,
+      path,
+      "cannot be written in a deck's .include line: a model file path may not contain a double quote, a line break or another control character; rename the file or its folder",
+    );
   }
   return `.include "${path}"`;
 }

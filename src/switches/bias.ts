@@ -60,7 +60,15 @@ export function thresholdAt(kind: DeviceKind, d: DeviceAtCorner, vs: number, vb:
  * (V_S - V_G) with V_S the higher terminal. Positive when it holds off. The terminal that acts as
  * source also sets the body effect, and is the worst for both terms.
  */
-export function offStateMargin(kind: DeviceKind, d: DeviceAtCorner, gate: number, source: number, bulk: number, dvth: number, allowance: number): number {
+export function offStateMargin(
+  kind: DeviceKind,
+  d: DeviceAtCorner,
+  gate: number,
+  source: number,
+  bulk: number,
+  dvth: number,
+  allowance: number,
+): number {
   const vt = thresholdAt(kind, d, source, bulk, dvth);
   return vt - allowance - (kind === 'n' ? gate - source : source - gate);
 }

@@ -77,7 +77,14 @@ export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: Cyc
  * mismatch shift of its threshold magnitude. The gate turns an n device on above vs + vt and a
  * p device below vs - vt.
  */
-export function switchThreshold(plan: SwitchPlan, device: SwitchDevicePlan, d: DeviceAtCorner, vs: number, vdd: number, dvth: number): number {
+export function switchThreshold(
+  plan: SwitchPlan,
+  device: SwitchDevicePlan,
+  d: DeviceAtCorner,
+  vs: number,
+  vdd: number,
+  dvth: number,
+): number {
   const bulk = bulkLevel(plan, device.kind, vdd);
   return bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, device.kind === 'n' ? vs - bulk : bulk - vs);
 }
@@ -104,13 +111,25 @@ export function conductingState(plan: SwitchPlan): StateIndex {
 }
 
 /** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth` the level shifter's pull-down. */
-export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: CornerDevices, dvth?: ArrayLike<number>, shifterDvth = 0): SwitchConduction {
+export function switchConduction(
+  plan: SwitchPlan,
+  cycles: CycleIndex,
+  devices: CornerDevices,
+  dvth?: ArrayLike<number>,
+  shifterDvth = 0,
+): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, plan.levelShifter ? shifterScaleWithMismatch(plan.levelShifter, devices, shifterDvth) : 1);
+    const wave = gateWave(
+      plan,
+      plan.devices[i]!,
+      cycles,
+      vdd,
+      plan.levelShifter ? shifterScaleWithMismatch(plan.levelShifter, devices, shifterDvth) : 1,
+    );
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
@@ -122,7 +141,10 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
   // A single device's turn-on level and resistance are monotonic in the signal, so its range ends
   // bound it; a tgate's resistance peaks inside the range, so it is sampled across.
   const points = vMin === vMax ? 1 : count === 1 ? 2 : SIGNAL_POINTS;
-  let on = NaN; let off = NaN; let onLatest = NaN; let offEarliest = NaN;
+  let on = NaN;
+  let off = NaN;
+  let onLatest = NaN;
+  let offEarliest = NaN;
   let ron = 0;
   for (let k = 0; k < points; k++) {
     const vs = points === 1 ? vMin : vMin + ((vMax - vMin) * k) / (points - 1);
@@ -143,7 +165,17 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
       const vt = bodyThreshold(d.vth + (dvth ? dvth[i]! : 0), d.gamma, d.phi2f, n ? vs - bulk : bulk - vs);
       const level = n ? vs + vt : vs - vt;
       const overdrive = n ? high - vs - vt : vs - vt - low;
-      const own: PointState = n ? (level >= high ? NEVER : level <= low ? ALWAYS : SWITCHING) : (level <= low ? NEVER : level >= high ? ALWAYS : SWITCHING);
+      const own: PointState = n
+        ? level >= high
+          ? NEVER
+          : level <= low
+            ? ALWAYS
+            : SWITCHING
+        : level <= low
+          ? NEVER
+          : level >= high
+            ? ALWAYS
+            : SWITCHING;
       if (state === ALWAYS || own === ALWAYS) state = ALWAYS;
       else if (own === SWITCHING) {
         const on = rampCrossing(n ? wave.rise : wave.fall, level);
@@ -160,8 +192,18 @@ export function switchConduction(plan: SwitchPlan, cycles: CycleIndex, devices: 
       const r = triodeResistance(d.kprime, device.w, device.l, overdrive - d.ronVthShift, d.theta);
       if (Number.isFinite(r)) conductance += 1 / r;
     }
-    if (state === NEVER) return failed(plan, 'never', `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`);
-    if (state === ALWAYS) return failed(plan, 'always', `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`);
+    if (state === NEVER)
+      return failed(
+        plan,
+        'never',
+        `${plan.name} never conducts at a signal of ${vs.toFixed(3)} V: its gate swing does not reach the turn-on level`,
+      );
+    if (state === ALWAYS)
+      return failed(
+        plan,
+        'always',
+        `${plan.name} conducts all the time at a signal of ${vs.toFixed(3)} V: its gate swing never turns it off`,
+      );
     if (k === 0) {
       on = onLatest = pointOn;
       off = offEarliest = pointOff;
@@ -192,7 +234,7 @@ export function deviceOnResistance(plan: SwitchPlan, device: SwitchDevicePlan, d
   const vdd = devices.vdd;
   const ls = plan.levelShifter;
   const n = device.kind === 'n';
-  const gate = n ? (ls ? levelAt(ls.high, vdd) : vdd) : (ls ? levelAt(ls.low, vdd) : 0);
+  const gate = n ? (ls ? levelAt(ls.high, vdd) : vdd) : ls ? levelAt(ls.low, vdd) : 0;
   const d = n ? devices.n : devices.p;
   const vt = switchThreshold(plan, device, d, vs, vdd, dvth);
   return triodeResistance(d.kprime, device.w, device.l, (n ? gate - vs : vs - gate) - vt - d.ronVthShift, d.theta);

@@ -54,7 +54,12 @@ export function resolveNodes(spec: NodesSpec): ReadonlyMap<string, NodeLevels> {
   const nodes = new Map<string, NodeLevels>();
   for (const [name, node] of Object.entries(spec)) {
     if (parseLevel(name) !== null) {
-      throw inputError('value.invalid', `nodes.${name}`, name, 'reads as a voltage level; name nodes so they cannot be taken for a rail (e.g. "top", "v_out")');
+      throw inputError(
+        'value.invalid',
+        `nodes.${name}`,
+        name,
+        'reads as a voltage level; name nodes so they cannot be taken for a rail (e.g. "top", "v_out")',
+      );
     }
     if (typeof node === 'object' && 'phase1' in node) {
       const p1 = rangeOf(node.phase1);
@@ -78,7 +83,12 @@ export function resolveTerminal(raw: string | number, nodes: ReadonlyMap<string,
   const level = parseLevel(raw);
   if (level) return fixedNode(String(raw), { lo: [level], hi: [level] }, true);
   const declared = [...nodes.keys()];
-  throw inputError('reference.unknown', path, raw, `is neither a node declared under \`nodes\` (${declared.length > 0 ? declared.join(', ') : 'none declared'}) nor a voltage level ("vdd", "2vdd", "0V")`);
+  throw inputError(
+    'reference.unknown',
+    path,
+    raw,
+    `is neither a node declared under \`nodes\` (${declared.length > 0 ? declared.join(', ') : 'none declared'}) nor a voltage level ("vdd", "2vdd", "0V")`,
+  );
 }
 
 /** Lowest and highest level of a range at a nominal supply: the range as two levels for a single-supply view. */

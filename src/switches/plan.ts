@@ -92,7 +92,12 @@ function driverChain(spec: SwitchSpec, from: string, tag: string, gates: GateSpe
   return input;
 }
 
-export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], card: ProcessCard, nodes: ReadonlyMap<string, NodeLevels> = new Map()): SwitchExpansion {
+export function expandSwitches(
+  base: Netlist,
+  switches: readonly SwitchSpec[],
+  card: ProcessCard,
+  nodes: ReadonlyMap<string, NodeLevels> = new Map(),
+): SwitchExpansion {
   const warnings: string[] = [];
   const nets = new Set<string>([base.clock, ...base.gates.map((g) => g.output)]);
   const gates: GateSpec[] = [...base.gates];
@@ -100,12 +105,19 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
   const names = new Set<string>();
   const plans = switches.map((spec, i): SwitchPlan => {
     const path = `switches[${i}]`;
-    if (names.has(spec.name)) throw inputError('value.duplicate', `${path}.name`, spec.name, 'is used by two switches; switch names must be unique');
+    if (names.has(spec.name))
+      throw inputError('value.duplicate', `${path}.name`, spec.name, 'is used by two switches; switch names must be unique');
     names.add(spec.name);
     const known = () => [...nets].filter((n) => !n.includes('.')).join(', ');
-    if (!nets.has(spec.gate)) throw inputError('reference.unknown', `${path}.gate`, spec.gate, `is not a net of the generator; nets are ${known()}`);
+    if (!nets.has(spec.gate))
+      throw inputError('reference.unknown', `${path}.gate`, spec.gate, `is not a net of the generator; nets are ${known()}`);
     if (spec.type === 'tgate' && spec.gateBar === undefined) {
-      throw inputError('field.required', `${path}.gateBar`, undefined, 'is required for a tgate: name the net that drives its p gate (usually the phase complement)');
+      throw inputError(
+        'field.required',
+        `${path}.gateBar`,
+        undefined,
+        'is required for a tgate: name the net that drives its p gate (usually the phase complement)',
+      );
     }
     if (spec.type !== 'tgate' && spec.gateBar !== undefined) {
       throw inputError('field.not-allowed', `${path}.gateBar`, spec.gateBar, `is only for a tgate; a ${spec.type} switch has one gate`);
@@ -129,9 +141,11 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
     const wiring = terminalsOf(spec, path, devices, nodes, card.vddNominal);
     if (!wiring.declared) {
       const unknown = devices.find((d) => d.onIn === null);
-      warnings.push(unknown
-        ? `${spec.name}: terminals undeclared (older \`signal\` form) and its gate net ${unknown.net} is not a phase, a complement or an early phase: it gets no off-state, on-state or stress check`
-        : `${spec.name}: terminals undeclared (older \`signal\` form); its off-state and stress checks assume both terminals at the signal level and cannot see a boosted node: declare \`nodes\` and \`terminals\``);
+      warnings.push(
+        unknown
+          ? `${spec.name}: terminals undeclared (older \`signal\` form) and its gate net ${unknown.net} is not a phase, a complement or an early phase: it gets no off-state, on-state or stress check`
+          : `${spec.name}: terminals undeclared (older \`signal\` form); its off-state and stress checks assume both terminals at the signal level and cannot see a boosted node: declare \`nodes\` and \`terminals\``,
+      );
     }
     const bulkNode = spec.bulk === undefined ? undefined : resolveTerminal(spec.bulk, nodes, `${path}.bulk`);
     const bulk = bulkNode?.rail ? parseLevel(spec.bulk!)! : undefined;
@@ -140,8 +154,13 @@ export function expandSwitches(base: Netlist, switches: readonly SwitchSpec[], c
   return { netlist: { ...base, gates }, plans, loads, warnings };
 }
 
-function terminalsOf(spec: SwitchSpec, path: string, devices: readonly SwitchDevicePlan[], nodes: ReadonlyMap<string, NodeLevels>, vddNominal: number):
-  Pick<SwitchPlan, 'terminals' | 'declared' | 'signal'> {
+function terminalsOf(
+  spec: SwitchSpec,
+  path: string,
+  devices: readonly SwitchDevicePlan[],
+  nodes: ReadonlyMap<string, NodeLevels>,
+  vddNominal: number,
+): Pick<SwitchPlan, 'terminals' | 'declared' | 'signal'> {
   if (spec.terminals === undefined) {
     const raw = spec.signal ?? { scale: 0, offset: 0 };
     const signal = 'min' in raw ? raw : { min: raw, max: raw };
@@ -149,15 +168,30 @@ function terminalsOf(spec: SwitchSpec, path: string, devices: readonly SwitchDev
     return { terminals: [node, node], declared: false, signal };
   }
   if (spec.signal !== undefined) {
-    throw inputError('field.not-allowed', `${path}.signal`, 'given', 'cannot be given with `terminals`: the terminals\' node voltages say what the switch passes');
+    throw inputError(
+      'field.not-allowed',
+      `${path}.signal`,
+      'given',
+      "cannot be given with `terminals`: the terminals' node voltages say what the switch passes",
+    );
   }
   const terminals = spec.terminals.map((raw, j) => resolveTerminal(raw, nodes, `${path}.terminals[${j}]`)) as [NodeLevels, NodeLevels];
   if (terminals[0] === terminals[1] || (terminals[0].rail && terminals[1].rail && terminals[0].name === terminals[1].name)) {
-    throw inputError('value.invalid', `${path}.terminals`, spec.terminals, 'connects a node to itself; name the two different nodes the switch connects');
+    throw inputError(
+      'value.invalid',
+      `${path}.terminals`,
+      spec.terminals,
+      'connects a node to itself; name the two different nodes the switch connects',
+    );
   }
   const unknown = devices.find((d) => d.onIn === null);
   if (unknown) {
-    throw inputError('value.invalid', `${path}.gate`, unknown.net, 'must be a phase, a phase complement or an early phase when terminals are declared, so the phase each terminal voltage belongs to is known');
+    throw inputError(
+      'value.invalid',
+      `${path}.gate`,
+      unknown.net,
+      'must be a phase, a phase complement or an early phase when terminals are declared, so the phase each terminal voltage belongs to is known',
+    );
   }
   // What it passes while it conducts: both terminals in every phase state in which a device is on.
   const on: VoltageRange[] = [];
@@ -173,8 +207,12 @@ export function checkLevelShifters(plans: readonly SwitchPlan[], vdds: readonly 
     if (!ls) return;
     for (const vdd of vdds) {
       if (!(levelAt(ls.high, vdd) > levelAt(ls.low, vdd))) {
-        throw inputError('physics.limit', `switches[${i}].levelShifter.high`, describeLevel(ls.high),
-          `must be above the low level (${describeLevel(ls.low)}); at vdd = ${vdd} V it is ${levelAt(ls.high, vdd).toFixed(3)} V against ${levelAt(ls.low, vdd).toFixed(3)} V`);
+        throw inputError(
+          'physics.limit',
+          `switches[${i}].levelShifter.high`,
+          describeLevel(ls.high),
+          `must be above the low level (${describeLevel(ls.low)}); at vdd = ${vdd} V it is ${levelAt(ls.high, vdd).toFixed(3)} V against ${levelAt(ls.low, vdd).toFixed(3)} V`,
+        );
       }
     }
   });

@@ -12,7 +12,8 @@ export function checkConstraintReferences(constraints: ConstraintsSpec, switchNa
     c.between.forEach((name, j) => {
       need(`constraints.breakBeforeMake[${i}].between[${j}]`, name);
     });
-    if (c.between[0] === c.between[1]) throw inputError('value.duplicate', `constraints.breakBeforeMake[${i}].between`, c.between, 'names the same switch twice');
+    if (c.between[0] === c.between[1])
+      throw inputError('value.duplicate', `constraints.breakBeforeMake[${i}].between`, c.between, 'names the same switch twice');
   });
   constraints.order.forEach((c, i) => {
     need(`constraints.order[${i}].first.switch`, c.first.switch);
@@ -23,7 +24,12 @@ export function checkConstraintReferences(constraints: ConstraintsSpec, switchNa
       need(`constraints.settle[${i}].switches[${j}]`, name);
     });
     if ((c.error === undefined) === (c.bits === undefined)) {
-      throw inputError('field.required', `constraints.settle[${i}]`, undefined, 'needs exactly one of `error` (a fraction, e.g. 0.001) or `bits` (N bits: half an LSB)');
+      throw inputError(
+        'field.required',
+        `constraints.settle[${i}]`,
+        undefined,
+        'needs exactly one of `error` (a fraction, e.g. 0.001) or `bits` (N bits: half an LSB)',
+      );
     }
   });
 }

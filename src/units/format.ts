@@ -9,7 +9,15 @@ export function formatEngineering(value: number, unit: string, digits = 3): stri
   if (!Number.isFinite(value)) return String(value);
   if (value === 0) return `0 ${unit}`;
   const steps: ReadonlyArray<[number, string]> = [
-    [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'u'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
+    [1e9, 'G'],
+    [1e6, 'M'],
+    [1e3, 'k'],
+    [1, ''],
+    [1e-3, 'm'],
+    [1e-6, 'u'],
+    [1e-9, 'n'],
+    [1e-12, 'p'],
+    [1e-15, 'f'],
   ];
   const magnitude = Math.abs(value);
   for (const [scale, prefix] of steps) {
@@ -55,7 +63,8 @@ export function percentDecimals(fractions: readonly number[], least = 1): number
   let decimals = least;
   for (const f of fractions) {
     if (!Number.isFinite(f) || f <= 0 || f >= 1) continue;
-    while (decimals < 4 && ((f * 100).toFixed(decimals) === (100).toFixed(decimals) || Number((f * 100).toFixed(decimals)) === 0)) decimals++;
+    while (decimals < 4 && ((f * 100).toFixed(decimals) === (100).toFixed(decimals) || Number((f * 100).toFixed(decimals)) === 0))
+      decimals++;
   }
   return decimals;
 }
@@ -100,6 +109,7 @@ export function formatPsShort(seconds: number): string {
 export function formatSignedTimeShort(seconds: number): string {
   const a = Math.abs(seconds);
   const ps = a * 1e12;
-  const text = ps < 1000 ? `${Math.round(ps)} ps` : ps < 1e6 ? `${(ps / 1000).toFixed(ps < 1e4 ? 2 : 1)} ns` : `${(ps / 1e6).toFixed(2)} us`;
+  const text =
+    ps < 1000 ? `${Math.round(ps)} ps` : ps < 1e6 ? `${(ps / 1000).toFixed(ps < 1e4 ? 2 : 1)} ns` : `${(ps / 1e6).toFixed(2)} us`;
   return `${seconds < 0 ? '-' : '+'}${text}`;
 }

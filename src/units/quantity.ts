@@ -5,8 +5,17 @@
 
 /** SI prefixes and their scale; '' is no prefix. */
 export const PREFIXES: Readonly<Record<string, number>> = {
-  f: 1e-15, p: 1e-12, n: 1e-9, u: 1e-6, 'µ': 1e-6, 'μ': 1e-6, m: 1e-3,
-  '': 1, k: 1e3, M: 1e6, G: 1e9,
+  f: 1e-15,
+  p: 1e-12,
+  n: 1e-9,
+  u: 1e-6,
+  µ: 1e-6,
+  μ: 1e-6,
+  m: 1e-3,
+  '': 1,
+  k: 1e3,
+  M: 1e6,
+  G: 1e9,
 };
 
 /** Units a quantity field may carry, with the words used in messages. */
@@ -58,13 +67,20 @@ function unitSymbol(unit: Unit): string {
 
 function example(unit: Unit): string {
   switch (unit) {
-    case 'Hz': return '"20MHz"';
-    case 's': return '"85ps"';
-    case 'F': return '"4.7pF"';
-    case 'm': return '"0.18um"';
-    case 'V': return '"1.8V"';
-    case 'A': return '"10uA"';
-    case 'ohm': return '"500ohm"';
+    case 'Hz':
+      return '"20MHz"';
+    case 's':
+      return '"85ps"';
+    case 'F':
+      return '"4.7pF"';
+    case 'm':
+      return '"0.18um"';
+    case 'V':
+      return '"1.8V"';
+    case 'A':
+      return '"10uA"';
+    case 'ohm':
+      return '"500ohm"';
   }
 }
 

@@ -58,8 +58,11 @@ export function mismatchSigmas(netlist: CompiledNetlist, card: ProcessCard, swit
     gateP[g] = pelgromSigma(card.p.avt, w.wp, card.lmin, card.avtConvention) / Math.sqrt(shape.pSeries);
   }
   const sw = switches.map((plan) => Float64Array.from(plan.devices, (d) => pelgromSigma(card[d.kind].avt, d.w, d.l, card.avtConvention)));
-  const shifters = Float64Array.from(switches, (plan) => (plan.levelShifter
-    ? pelgromSigma(card.n.avt, plan.levelShifter.w ?? SHIFTER_PULL_DOWN_UNITS * card.unit.wn, card.lmin, card.avtConvention) : 0));
+  const shifters = Float64Array.from(switches, (plan) =>
+    plan.levelShifter
+      ? pelgromSigma(card.n.avt, plan.levelShifter.w ?? SHIFTER_PULL_DOWN_UNITS * card.unit.wn, card.lmin, card.avtConvention)
+      : 0,
+  );
   return { gateN, gateP, switches: sw, shifters };
 }
 
@@ -101,6 +104,7 @@ export function drawMismatch(sigmas: MismatchSigmas, seed: number, sample: numbe
   }
   // Drawn after everything else, so adding a shifter leaves the other draws of a die unchanged.
   const shifters = out.shifters;
-  if (shifters) for (let k = 0; k < sigmas.shifters.length; k++) shifters[k] = sigmas.shifters[k]! === 0 ? 0 : sigmas.shifters[k]! * normal();
+  if (shifters)
+    for (let k = 0; k < sigmas.shifters.length; k++) shifters[k] = sigmas.shifters[k]! === 0 ? 0 : sigmas.shifters[k]! * normal();
   return out;
 }

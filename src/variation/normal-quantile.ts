@@ -33,7 +33,8 @@ export function normalQuantile(p: number): number {
   let hi = LIMIT;
   for (let i = 0; i < 80 && hi - lo > 1e-13; i++) {
     const mid = (lo + hi) / 2;
-    if (normalCdf(mid) < p) lo = mid; else hi = mid;
+    if (normalCdf(mid) < p) lo = mid;
+    else hi = mid;
   }
   return (lo + hi) / 2;
 }

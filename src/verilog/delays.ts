@@ -27,9 +27,18 @@ export function steadyStateDelays(resolved: ResolvedDesign, corner: Corner): Fix
     },
     transition: (gate, pin, rising, inputTransition) => timing.transition(gate, pin, rising, inputTransition),
   };
-  const result = new Simulator(netlist).run(recording, { period: 1 / design.clock.frequency, duty: corner.duty, transition: design.clock.transition });
+  const result = new Simulator(netlist).run(recording, {
+    period: 1 / design.clock.frequency,
+    duty: corner.duty,
+    transition: design.clock.transition,
+  });
   if (result.status !== 'settled') {
-    throw inputError('physics.no-steady-state', `corners (${corner.name})`, corner.name, `has no periodic steady state in the model (${result.reason}); its delays cannot be exported`);
+    throw inputError(
+      'physics.no-steady-state',
+      `corners (${corner.name})`,
+      corner.name,
+      `has no periodic steady state in the model (${result.reason}); its delays cannot be exported`,
+    );
   }
   for (let g = 0; g < count; g++) {
     if (Number.isNaN(rise[g]!)) rise[g] = timing.delay(g, 0, true, design.clock.transition);

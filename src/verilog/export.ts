@@ -23,7 +23,14 @@ const PRIMITIVE: Readonly<Record<PrimitiveCell, string>> = { INV: 'not', NAND2: 
 
 export function timescaleText(t: Timescale): string {
   const show = (s: number) => {
-    for (const [scale, unit] of [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns'], [1e-12, 'ps'], [1e-15, 'fs']] as const) {
+    for (const [scale, unit] of [
+      [1, 's'],
+      [1e-3, 'ms'],
+      [1e-6, 'us'],
+      [1e-9, 'ns'],
+      [1e-12, 'ps'],
+      [1e-15, 'fs'],
+    ] as const) {
       const n = Math.round(s / scale);
       if ([1, 10, 100].includes(n) && Math.abs(n * scale - s) < 1e-3 * s) return `${n}${unit}`;
     }
@@ -36,7 +43,7 @@ export function timescaleText(t: Timescale): string {
 export function delayText(seconds: number, t: Timescale): string {
   const steps = Math.round(finite(seconds, 'Verilog delay') / t.precision);
   const digits = Math.max(0, Math.round(Math.log10(t.unit / t.precision)));
-  return (steps * t.precision / t.unit).toFixed(digits);
+  return ((steps * t.precision) / t.unit).toFixed(digits);
 }
 
 /** The delay actually simulated, s: rounded to the precision. */
@@ -51,7 +58,13 @@ export interface VerilogModule {
   readonly outputs: readonly string[];
 }
 
-export function verilogModule(netlist: CompiledNetlist, delays: FixedDelays, name: string, header: readonly string[], t: Timescale = DEFAULT_TIMESCALE): VerilogModule {
+export function verilogModule(
+  netlist: CompiledNetlist,
+  delays: FixedDelays,
+  name: string,
+  header: readonly string[],
+  t: Timescale = DEFAULT_TIMESCALE,
+): VerilogModule {
   const src = netlist.source;
   const clock = netlist.netNames[netlist.clock]!;
   const outputs = [...src.phases, ...Object.values(src.complements), ...Object.values(src.early)];
@@ -79,7 +92,14 @@ export function verilogModule(netlist: CompiledNetlist, delays: FixedDelays, nam
  * A testbench that drives the clock like the engine does (low for one period, then rising every
  * period at the given duty), dumps every signal to a VCD file and stops after `periods` periods.
  */
-export function verilogTestbench(module: VerilogModule, period: number, duty: number, periods: number, vcdFile: string, t: Timescale = DEFAULT_TIMESCALE): string {
+export function verilogTestbench(
+  module: VerilogModule,
+  period: number,
+  duty: number,
+  periods: number,
+  vcdFile: string,
+  t: Timescale = DEFAULT_TIMESCALE,
+): string {
   const id = verilogIdentifier;
   const clock = module.inputs[0]!;
   const high = delayText(duty * period, t);

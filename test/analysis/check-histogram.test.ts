@@ -13,7 +13,7 @@ describe('checkMarginHistogram', () => {
   // 260 dies: two chunks, so the second chunk's dies land in the edges the first one set.
   const mc = runMonteCarlo(resolved, 260, 3);
 
-  it('counts every die once and agrees with the run\'s own statistics of that check', () => {
+  it("counts every die once and agrees with the run's own statistics of that check", () => {
     const corner = 4;
     const q = mc.corners[corner]!.quantities.find((x) => x.kind === 'break-before-make')!;
     const h = checkMarginHistogram(resolved, 3, 260, corner, q.name);

@@ -19,7 +19,7 @@ describe('SWEEP_FACTORS', () => {
 });
 
 describe('typicalCornerIndex and circuitWorstIndex', () => {
-  it('take tt at the card\'s nominal 1.8 V and 27 C as typical', () => {
+  it("take tt at the card's nominal 1.8 V and 27 C as typical", () => {
     expect(pump.corners[typicalCornerIndex(pump)]!.corner.name).toBe('tt/1.8V/27C');
   });
 
@@ -38,7 +38,10 @@ describe('circuitSweep', () => {
   it('sweeps the typical and the worst corner with the requirements at their supplies', () => {
     expect(sweep.designFrequency).toBe(20e6);
     expect(sweep.efficiencyMin).toBe(0.4);
-    expect(sweep.series.map((s) => [s.corner, s.role])).toEqual([['tt/1.8V/27C', 'typical'], ['ff/1.98V/-40C', 'worst']]);
+    expect(sweep.series.map((s) => [s.corner, s.role])).toEqual([
+      ['tt/1.8V/27C', 'typical'],
+      ['ff/1.98V/-40C', 'worst'],
+    ]);
     expect(sweep.series[0]!.outputMin).toBeCloseTo(1.75 * 1.8, 12);
     expect(sweep.series[1]!.outputMax).toBeCloseTo(2 * 1.98, 12);
     for (const s of sweep.series) expect(s.points.map((p) => p.frequency)).toEqual(SWEEP_FACTORS.map((f) => 20e6 * f));
@@ -62,7 +65,7 @@ describe('circuitSweep', () => {
     }
   });
 
-  it('shows the pump\'s trade: the output rises with the clock (slow-switching limit) and the efficiency falls past its peak', () => {
+  it("shows the pump's trade: the output rises with the clock (slow-switching limit) and the efficiency falls past its peak", () => {
     const out = sweep.series[0]!.points.map((p) => p.output!);
     for (let k = 1; k < out.length; k++) expect(out[k]!).toBeGreaterThan(out[k - 1]!);
     const eff = sweep.series[0]!.points.map((p) => p.efficiency!);

@@ -76,12 +76,15 @@ describe('findFmax: circuit requirements', () => {
     expectClose(result.fmax!, 26.79e6, 0.005);
     expect(result.limiting).toMatchObject({ kind: 'efficiency-min', check: 'efficiency >= 40.0 %', corner: 'ss/1.98V/125C' });
     expect(result.note).toBe("the circuit's output requirement efficiency >= 40.0 % sets fmax (the design has no settle constraint)");
-    const at = (f: number) => JSON.parse(cli('check', design('doubler-pump'), '--json', '--set', settleless[0]!, '--set', `clock.frequency=${f}`).stdout);
+    const at = (f: number) =>
+      JSON.parse(cli('check', design('doubler-pump'), '--json', '--set', settleless[0]!, '--set', `clock.frequency=${f}`).stdout);
     const pass = at(result.fmax!);
     expect(pass.verdict).toBe('pass');
     const fail = at(1.05 * result.fmax!);
     expect(fail.verdict).toBe('fail');
-    const failing = fail.corners.flatMap((c: { checks: { kind: string; pass: boolean }[] }) => c.checks.filter((k) => !k.pass).map((k) => k.kind));
+    const failing = fail.corners.flatMap((c: { checks: { kind: string; pass: boolean }[] }) =>
+      c.checks.filter((k) => !k.pass).map((k) => k.kind),
+    );
     expect(new Set(failing)).toEqual(new Set(['efficiency-min']));
   });
 });

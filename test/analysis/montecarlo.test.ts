@@ -45,7 +45,9 @@ describe('runMonteCarlo', () => {
 
   it('computes dead-time quantiles within one histogram bin of simple-statistics on the same dies', () => {
     const report = mcReport('d', 'c', mc, undefined);
-    const values = chunkPlan(400).flatMap(({ start, count }) => Array.from(runChunk(resolved, 5, start, count).corners[3]!.dead0)).sort((a, b) => a - b);
+    const values = chunkPlan(400)
+      .flatMap(({ start, count }) => Array.from(runChunk(resolved, 5, start, count).corners[3]!.dead0))
+      .sort((a, b) => a - b);
     const width = binWidth(mc.deadTimes[3]![0]);
     // The histogram is fine: a bin is far narrower than the dies' spread.
     expect(width).toBeLessThan((values[values.length - 1]! - values[0]!) / 100);
@@ -92,18 +94,23 @@ describe('phasegap mc', () => {
     const timed = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json', '--timings');
     expect(withoutRunRecord(timed.stdout)).toBe(withoutRunRecord(plain.stdout));
     expect(plain.stderr).toBe('');
-    const m = /^phasegap: timings: setup ([\d.]+) s, evaluation ([\d.]+) s \((\d+) evaluations on 1 thread, (\d+)\/s\), report ([\d.]+) s\n$/.exec(timed.stderr);
+    const m =
+      /^phasegap: timings: setup ([\d.]+) s, evaluation ([\d.]+) s \((\d+) evaluations on 1 thread, (\d+)\/s\), report ([\d.]+) s\n$/.exec(
+        timed.stderr,
+      );
     expect(m).not.toBeNull();
     // 300 dies at each of the demo's 45 corners.
     expect(Number(m![3])).toBe(300 * 45);
     // The rate is computed from the unrounded time; the printed time is rounded to 1 ms.
-    expectClose(Number(m![4]), 300 * 45 / Number(m![2]), 0.05);
+    expectClose(Number(m![4]), (300 * 45) / Number(m![2]), 0.05);
   });
 
   it('replays the worst die: its least margin at that corner equals the one Monte Carlo found', async () => {
     const mc = JSON.parse((await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '9', '--json')).stdout);
     const corner = mc.corners.find((c: { name: string }) => c.name === mc.worstCorner);
-    const replay = JSON.parse((await cliAsync('mc', design('doubler'), '--seed', '9', '--replay', String(corner.worstSample.index), '--json')).stdout);
+    const replay = JSON.parse(
+      (await cliAsync('mc', design('doubler'), '--seed', '9', '--replay', String(corner.worstSample.index), '--json')).stdout,
+    );
     const same = replay.corners.find((c: { name: string }) => c.name === mc.worstCorner);
     const least = Math.min(...same.checks.map((k: { margin: number }) => k.margin));
     expectClose(least, corner.worstSample.leastMargin, 1e-15, 'abs');

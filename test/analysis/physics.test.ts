@@ -48,18 +48,24 @@ function expectIncreasing(series: ReadonlyArray<readonly [number, number]>, labe
 let probe = '';
 beforeAll(() => {
   probe = join(tempDir(), 'probe.yaml');
-  writeFileSync(probe, [
-    'name: physics-probe',
-    `process: ${JSON.stringify(processCard('generic180'))}`,
-    'clock: { frequency: 20MHz, transition: 200ps }',
-    'generator: { template: nand, gateSize: 2, stages: 6, stageLoad: 40fF, buffer: [2, 6, 18] }',
-    'loads: { p1: 0.8pF, p2: 0.8pF }',
-    '',
-  ].join('\n'));
+  writeFileSync(
+    probe,
+    [
+      'name: physics-probe',
+      `process: ${JSON.stringify(processCard('generic180'))}`,
+      'clock: { frequency: 20MHz, transition: 200ps }',
+      'generator: { template: nand, gateSize: 2, stages: 6, stageLoad: 40fF, buffer: [2, 6, 18] }',
+      'loads: { p1: 0.8pF, p2: 0.8pF }',
+      '',
+    ].join('\n'),
+  );
 });
 
-const axes = (process: string, vdd: readonly string[], temperature: readonly number[]): string[] =>
-  [`corners.process=[${process}]`, `corners.vdd=[${vdd.join(', ')}]`, `corners.temperature=[${temperature.join(', ')}]`];
+const axes = (process: string, vdd: readonly string[], temperature: readonly number[]): string[] => [
+  `corners.process=[${process}]`,
+  `corners.vdd=[${vdd.join(', ')}]`,
+  `corners.temperature=[${temperature.join(', ')}]`,
+];
 
 describe('dead time across PVT at generic180', () => {
   it('rises from ff/1.98V/-40C through tt/1.8V/27C to ss/1.62V/125C on the demo design, whose extremes they are', () => {
@@ -74,7 +80,11 @@ describe('dead time across PVT at generic180', () => {
   });
 
   it('rises monotonically along ff/1.98V/-40C -> tt/1.8V/27C -> ss/1.62V/125C', () => {
-    const path = [['ff', '1.98V', -40], ['tt', '1.8V', 27], ['ss', '1.62V', 125]] as const;
+    const path = [
+      ['ff', '1.98V', -40],
+      ['tt', '1.8V', 27],
+      ['ss', '1.62V', 125],
+    ] as const;
     const series = path.map(([p, v, t]) => get(deadTimes(probe, axes(p, [v], [t])), `${p}/${v}/${t}C`));
     expectIncreasing(series, 'fast -> typical -> slow');
   });
@@ -82,13 +92,19 @@ describe('dead time across PVT at generic180', () => {
   it('falls monotonically as the supply rises at tt/27C', () => {
     const vdds = ['2.1V', '1.98V', '1.9V', '1.8V', '1.7V', '1.62V', '1.5V'];
     const map = deadTimes(probe, axes('tt', vdds, [27]));
-    expectIncreasing(vdds.map((v) => get(map, `tt/${v}/27C`)), 'supply falling');
+    expectIncreasing(
+      vdds.map((v) => get(map, `tt/${v}/27C`)),
+      'supply falling',
+    );
   });
 
   it('rises monotonically with temperature at tt/1.8V', () => {
     const temps = [-40, 0, 27, 85, 125];
     const map = deadTimes(probe, axes('tt', ['1.8V'], temps));
-    expectIncreasing(temps.map((t) => get(map, `tt/1.8V/${t}C`)), 'temperature rising');
+    expectIncreasing(
+      temps.map((t) => get(map, `tt/1.8V/${t}C`)),
+      'temperature rising',
+    );
   });
 
   it('moves in opposite directions from tt at the skewed corners fs and sf', () => {
@@ -133,7 +149,11 @@ describe('delay chain length', () => {
     const stages = [0, 2, 4, 6, 8, 10, 12];
     const corners = axes('ff, tt, ss', ['1.62V', '1.98V'], [-40, 125]);
     const runs = stages.map((n) => deadTimes(probe, [...corners, `generator.stages=${n}`]));
-    for (const name of runs[0]!.keys()) expectIncreasing(runs.map((r) => get(r, name)), `${name} over stages`);
+    for (const name of runs[0]!.keys())
+      expectIncreasing(
+        runs.map((r) => get(r, name)),
+        `${name} over stages`,
+      );
   });
 });
 
@@ -156,7 +176,11 @@ describe('generator style', () => {
 describe('temperature inversion on generic-lp', () => {
   const temps = [-40, 0, 27, 85, 125];
   const lp = (vdd: string) => {
-    const map = deadTimes(probe, [`process=${JSON.stringify(processCard('generic-lp'))}`, ...axes('tt', [vdd], temps), 'clock.transition=300ps']);
+    const map = deadTimes(probe, [
+      `process=${JSON.stringify(processCard('generic-lp'))}`,
+      ...axes('tt', [vdd], temps),
+      'clock.transition=300ps',
+    ]);
     return temps.map((t) => get(map, `tt/${vdd}/${t}C`));
   };
 

@@ -1,5 +1,15 @@
 import { describe, it, expect } from 'vitest';
-import { checkGridSize, gridPoint, gridSize, mergeColumns, parseAxis, parseRangeNumber, pointOverrides, summarizePoint, sweepColumns } from '../../src/analysis/sweep.js';
+import {
+  checkGridSize,
+  gridPoint,
+  gridSize,
+  mergeColumns,
+  parseAxis,
+  parseRangeNumber,
+  pointOverrides,
+  summarizePoint,
+  sweepColumns,
+} from '../../src/analysis/sweep.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { loadResolved } from '../../src/cli/load.js';
 import { csvHeader, csvRow, unlistedNames } from '../../src/report/sweep-format.js';
@@ -28,8 +38,9 @@ describe('parseAxis', () => {
   });
   it('refuses a range or list longer than the largest grid before expanding it', () => {
     expect(parseAxis('vdd=1:2:4', 4).values).toHaveLength(4);
-    expect(inputErrorMessage(() => parseAxis('temperature=0:100:1000000000', 1000)))
-      .toBe('--vary temperature: "0:100:1000000000" asks for 1000000000 points; a sweep has at most 1000 points (N from 1 to 1000)');
+    expect(inputErrorMessage(() => parseAxis('temperature=0:100:1000000000', 1000))).toBe(
+      '--vary temperature: "0:100:1000000000" asks for 1000000000 points; a sweep has at most 1000 points (N from 1 to 1000)',
+    );
     expect(inputErrorMessage(() => parseAxis('vdd=1,2,3', 2))).toBe('--vary vdd: "3 values" is too long; a sweep has at most 2 points');
   });
   it('reads SI prefixes on range ends', () => {
@@ -43,14 +54,22 @@ describe('grid', () => {
   const axes = [parseAxis('a=1,2,3'), parseAxis('b=x,y')];
   it('has the product of the axis lengths as its size and walks the last axis fastest', () => {
     expect(gridSize(axes)).toBe(6);
-    expect([0, 1, 2, 5].map((i) => gridPoint(axes, i))).toEqual([['1', 'x'], ['1', 'y'], ['2', 'x'], ['3', 'y']]);
+    expect([0, 1, 2, 5].map((i) => gridPoint(axes, i))).toEqual([
+      ['1', 'x'],
+      ['1', 'y'],
+      ['2', 'x'],
+      ['3', 'y'],
+    ]);
   });
   it('accepts a grid of exactly the largest size and refuses one point more, naming every axis', () => {
     expect(checkGridSize(axes, 6)).toBe(6);
     expect(inputErrorMessage(() => checkGridSize(axes, 5))).toBe('--vary: "a (3) x b (2)" makes 6 points; a sweep has at most 5 points');
   });
   it('turns corner axes into one-value corner lists and paths into plain overrides', () => {
-    expect(pointOverrides([parseAxis('vdd=1.7'), parseAxis('generator.stages=4')], ['1.7', '4'])).toEqual(['corners.vdd=[1.7]', 'generator.stages=4']);
+    expect(pointOverrides([parseAxis('vdd=1.7'), parseAxis('generator.stages=4')], ['1.7', '4'])).toEqual([
+      'corners.vdd=[1.7]',
+      'generator.stages=4',
+    ]);
   });
 });
 
@@ -150,20 +169,48 @@ describe('sweepColumns', () => {
 
   it('merges column sets in first-seen order, each name once', () => {
     const a = { deadTimes: ['p1->p2'], widths: ['p1'], checks: ['x', 'y'], voltChecks: ['y'], chargeChecks: ['x'], fractionChecks: [] };
-    const b = { deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['y', 'z'], voltChecks: ['y'], chargeChecks: [], fractionChecks: ['z'] };
-    expect(mergeColumns([a, b])).toEqual({ deadTimes: ['p1->p2'], widths: ['p1', 'p1e'], checks: ['x', 'y', 'z'], voltChecks: ['y'], chargeChecks: ['x'], fractionChecks: ['z'] });
+    const b = {
+      deadTimes: ['p1->p2'],
+      widths: ['p1', 'p1e'],
+      checks: ['y', 'z'],
+      voltChecks: ['y'],
+      chargeChecks: [],
+      fractionChecks: ['z'],
+    };
+    expect(mergeColumns([a, b])).toEqual({
+      deadTimes: ['p1->p2'],
+      widths: ['p1', 'p1e'],
+      checks: ['x', 'y', 'z'],
+      voltChecks: ['y'],
+      chargeChecks: ['x'],
+      fractionChecks: ['z'],
+    });
   });
 });
 
 describe('csvRow', () => {
   it('fills columns by name and leaves what a row lacks empty', () => {
-    const columns = { deadTimes: ['a->b'], widths: ['a', 'b'], checks: ['one', 'two'], voltChecks: ['one'], chargeChecks: [], fractionChecks: [] };
+    const columns = {
+      deadTimes: ['a->b'],
+      widths: ['a', 'b'],
+      checks: ['one', 'two'],
+      voltChecks: ['one'],
+      chargeChecks: [],
+      fractionChecks: [],
+    };
     const row = {
-      index: 0, point: [1], corners: 3, verdict: 'pass' as const, limiting: null,
-      deadTimes: [{ label: 'a->b', min: 1, max: 2, gapMin: 0.5 }], widths: [{ phase: 'b', min: 7 }],
+      index: 0,
+      point: [1],
+      corners: 3,
+      verdict: 'pass' as const,
+      limiting: null,
+      deadTimes: [{ label: 'a->b', min: 1, max: 2, gapMin: 0.5 }],
+      widths: [{ phase: 'b', min: 7 }],
       checks: [{ name: 'two', kind: 'order', margin: 4 }],
     };
-    const header = csvHeader([{ path: 'x', values: [1] }], columns).trim().split(',');
+    const header = csvHeader([{ path: 'x', values: [1] }], columns)
+      .trim()
+      .split(',');
     expect(header).toHaveLength(6 + 1 + 3 + 2 + 2);
     expect(header.slice(-2)).toEqual(['margin_V.one', 'margin_s.two']);
     expect(csvRow(row, columns)).toBe('1,3,pass,,,,,1,2,0.5,,7,,4\n');
@@ -174,10 +221,21 @@ describe('unlistedNames', () => {
   it('names what a row carries beyond the columns, ignoring the margin-less steady-state check', () => {
     const columns = { deadTimes: ['a->b'], widths: ['a'], checks: ['one'], voltChecks: [], chargeChecks: [], fractionChecks: [] };
     const row = {
-      index: 0, point: [], corners: 1, verdict: 'fail' as const, limiting: null,
-      deadTimes: [{ label: 'a->b', min: 1, max: 1, gapMin: 1 }, { label: 'b->a', min: 1, max: 1, gapMin: 1 }],
+      index: 0,
+      point: [],
+      corners: 1,
+      verdict: 'fail' as const,
+      limiting: null,
+      deadTimes: [
+        { label: 'a->b', min: 1, max: 1, gapMin: 1 },
+        { label: 'b->a', min: 1, max: 1, gapMin: 1 },
+      ],
       widths: [{ phase: 'a', min: 1 }],
-      checks: [{ name: 'periodic steady state', kind: 'steady-state', margin: null }, { name: 'one', kind: 'order', margin: 1 }, { name: 'two', kind: 'order', margin: 2 }],
+      checks: [
+        { name: 'periodic steady state', kind: 'steady-state', margin: null },
+        { name: 'one', kind: 'order', margin: 1 },
+        { name: 'two', kind: 'order', margin: 2 },
+      ],
     };
     expect(unlistedNames(row, columns)).toEqual(['b->a', 'two']);
     expect(unlistedNames({ ...row, deadTimes: [], checks: row.checks.slice(0, 2) }, columns)).toEqual([]);

@@ -12,21 +12,28 @@ describe('confirmation', () => {
   const { design: d } = loadDesign(design('doubler'));
   const run: SimulatorRun = {
     simulator: 'ngspice-39',
-    corners: [{
-      corner: 'ff/1.98V/-40C',
-      quantities: [
-        { quantity: 'dead p1->p2', kind: 'dead', model: 571 * ps, simulator: 540 * ps },
-        { quantity: 'gap p1->p2', kind: 'gap', model: 443 * ps, simulator: 394 * ps },
-        { quantity: 'width p1', kind: 'width', model: 24.4e-9, simulator: 24.4e-9 },
-      ],
-      breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 356 * ps, simulator: 327 * ps }],
-    }],
+    corners: [
+      {
+        corner: 'ff/1.98V/-40C',
+        quantities: [
+          { quantity: 'dead p1->p2', kind: 'dead', model: 571 * ps, simulator: 540 * ps },
+          { quantity: 'gap p1->p2', kind: 'gap', model: 443 * ps, simulator: 394 * ps },
+          { quantity: 'width p1', kind: 'width', model: 24.4e-9, simulator: 24.4e-9 },
+        ],
+        breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 356 * ps, simulator: 327 * ps }],
+      },
+    ],
   };
 
-  it('works out each requirement from the simulator\'s values: dead time against the demo\'s 500 ps minimum, pairs as measured', () => {
+  it("works out each requirement from the simulator's values: dead time against the demo's 500 ps minimum, pairs as measured", () => {
     const c = confirmation(d, run, 10 * ps);
     // The demo requires dead times of 500 ps to 4 ns and phases of at least 10 ns; it sets no gap minimum.
-    expect(c.checks.map((k) => k.check)).toEqual(['dead p1->p2 >= 500 ps', 'dead p1->p2 <= 4.00 ns', 'width p1 >= 10.0 ns', 's_gnd/s_vdd break-before-make + 100 ps']);
+    expect(c.checks.map((k) => k.check)).toEqual([
+      'dead p1->p2 >= 500 ps',
+      'dead p1->p2 <= 4.00 ns',
+      'width p1 >= 10.0 ns',
+      's_gnd/s_vdd break-before-make + 100 ps',
+    ]);
     expectClose(c.checks[0]!.simulator!, 40 * ps, 1e-9);
     expectClose(c.checks[0]!.model, 71 * ps, 1e-9);
     expectClose(c.least, 40 * ps, 1e-9);
@@ -38,14 +45,20 @@ describe('confirmation', () => {
 
   it('passes but does not meet when the simulator margin is below the mismatch headroom, and fails below zero', () => {
     expect(confirmation(d, run, 50 * ps)).toMatchObject({ pass: true, meets: false });
-    const short: SimulatorRun = { ...run, corners: [{ ...run.corners[0]!, quantities: [{ quantity: 'dead p1->p2', kind: 'dead', model: 571 * ps, simulator: 440 * ps }] }] };
+    const short: SimulatorRun = {
+      ...run,
+      corners: [{ ...run.corners[0]!, quantities: [{ quantity: 'dead p1->p2', kind: 'dead', model: 571 * ps, simulator: 440 * ps }] }],
+    };
     const c = confirmation(d, short, 10 * ps);
     expectClose(c.least, -60 * ps, 1e-9);
     expect(c.pass).toBe(false);
   });
 
   it('treats a quantity the simulator could not measure as failing', () => {
-    const missing: SimulatorRun = { ...run, corners: [{ ...run.corners[0]!, breakBeforeMake: [{ check: 'pair', model: 1 * ps, simulator: null }] }] };
+    const missing: SimulatorRun = {
+      ...run,
+      corners: [{ ...run.corners[0]!, breakBeforeMake: [{ check: 'pair', model: 1 * ps, simulator: null }] }],
+    };
     const c = confirmation(d, missing, 0);
     expect(c.least).toBe(-Infinity);
     expect(c.limiting!.check).toBe('pair');
@@ -53,7 +66,11 @@ describe('confirmation', () => {
   });
 
   it('checks the gap and width minimums and the dead-time maximum when the design sets them', () => {
-    const { design: strict } = loadDesign(design('doubler'), ['requirements.gap.min=400ps', 'requirements.width.min=24ns', 'requirements.deadTime.max=560ps']);
+    const { design: strict } = loadDesign(design('doubler'), [
+      'requirements.gap.min=400ps',
+      'requirements.width.min=24ns',
+      'requirements.deadTime.max=560ps',
+    ]);
     const c = confirmation(strict, run, 0);
     const byName = new Map(c.checks.map((k) => [k.check, k.simulator!]));
     expectClose(byName.get('dead p1->p2 <= 560 ps')!, 20 * ps, 1e-9);
@@ -69,16 +86,27 @@ describe('tuneChains with a simulator', () => {
    * A simulator that measures every dead time `short` below the model (the direction ngspice
    * differs in on the shipped cards); pairs as the model has them.
    */
-  const slower = (short: number): Simulate => (resolved) => ({
-    simulator: 'test',
-    corners: evaluateAll(resolved).filter((r) => r.corner.name === 'ff/1.98V/-40C').map((r) => ({
-      corner: r.corner.name,
-      quantities: r.measurement.ok ? r.measurement.deadTimes.map((x) => ({ quantity: `dead ${x.from}->${x.to}`, kind: 'dead', model: x.t50, simulator: x.t50 - short })) : [],
-      breakBeforeMake: [],
-    })),
-  });
+  const slower =
+    (short: number): Simulate =>
+    (resolved) => ({
+      simulator: 'test',
+      corners: evaluateAll(resolved)
+        .filter((r) => r.corner.name === 'ff/1.98V/-40C')
+        .map((r) => ({
+          corner: r.corner.name,
+          quantities: r.measurement.ok
+            ? r.measurement.deadTimes.map((x) => ({
+                quantity: `dead ${x.from}->${x.to}`,
+                kind: 'dead',
+                model: x.t50,
+                simulator: x.t50 - short,
+              }))
+            : [],
+          breakBeforeMake: [],
+        })),
+    });
 
-  it('searches a proposal again with the simulator\'s shortfall added to its headroom, so the simulator then finds it met', () => {
+  it("searches a proposal again with the simulator's shortfall added to its headroom, so the simulator then finds it met", () => {
     const { design: d, card } = loadDesign(design('doubler'));
     const space = { ...defaultSpace(d), stages: [2], stageSizes: [1], tapers: [], feedbackTaps: [] };
     const plain = tuneChains(d, card, undefined, space).proposals[0]!;

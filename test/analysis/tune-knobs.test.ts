@@ -1,5 +1,13 @@
 import { describe, it, expect } from 'vitest';
-import { ownKnobs, proposalOverrides, searchableTapers, searchableTaps, taperedBuffer, templateOf, withKnobs } from '../../src/analysis/tune-knobs.js';
+import {
+  ownKnobs,
+  proposalOverrides,
+  searchableTapers,
+  searchableTaps,
+  taperedBuffer,
+  templateOf,
+  withKnobs,
+} from '../../src/analysis/tune-knobs.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { loadDesign } from '../../src/cli/load.js';
@@ -34,11 +42,15 @@ describe('withKnobs and the feedback tap', () => {
   it('feeding back after two buffer inverters puts them inside the dead time: every dead time grows', () => {
     const { design: d, card } = loadDesign(design('doubler'));
     const own = ownKnobs(templateOf(d));
-    const dead = (tap: number) => evaluateAll(resolveDesign(withKnobs(d, { ...own, feedbackTap: tap }), card))
-      .map((r) => (r.measurement.ok ? Math.min(...r.measurement.deadTimes.map((x) => x.t50)) : NaN));
+    const dead = (tap: number) =>
+      evaluateAll(resolveDesign(withKnobs(d, { ...own, feedbackTap: tap }), card)).map((r) =>
+        r.measurement.ok ? Math.min(...r.measurement.deadTimes.map((x) => x.t50)) : NaN,
+      );
     const before = dead(0);
     const after = dead(2);
-    after.forEach((t, i) => { expect(t).toBeGreaterThan(before[i]!); });
+    after.forEach((t, i) => {
+      expect(t).toBeGreaterThan(before[i]!);
+    });
   });
 
   it('an odd tap or one past the buffer is refused with the field and the rule', () => {
@@ -53,8 +65,17 @@ describe('proposalOverrides', () => {
   it('names the buffer and the tap only when they differ from the design', () => {
     const own = { stages: 6, stageSize: 1, stageLoad: 40e-15, buffer: [2, 6, 18], feedbackTap: 0 };
     const f = (c: number) => `${c / 1e-15}fF`;
-    expect(proposalOverrides({ ...own, stages: 2 }, f, own)).toEqual(['generator.stages=2', 'generator.stageSize=1', 'generator.stageLoad=40fF']);
-    expect(proposalOverrides({ ...own, buffer: [1.13, 4.5, 18], feedbackTap: 2 }, f, own))
-      .toEqual(['generator.stages=6', 'generator.stageSize=1', 'generator.stageLoad=40fF', 'generator.buffer=[1.13,4.5,18]', 'generator.feedbackTap=2']);
+    expect(proposalOverrides({ ...own, stages: 2 }, f, own)).toEqual([
+      'generator.stages=2',
+      'generator.stageSize=1',
+      'generator.stageLoad=40fF',
+    ]);
+    expect(proposalOverrides({ ...own, buffer: [1.13, 4.5, 18], feedbackTap: 2 }, f, own)).toEqual([
+      'generator.stages=6',
+      'generator.stageSize=1',
+      'generator.stageLoad=40fF',
+      'generator.buffer=[1.13,4.5,18]',
+      'generator.feedbackTap=2',
+    ]);
   });
 });

@@ -26,7 +26,9 @@ const DIES = 1000;
 describe('tune on the shipped designs, confirmed in ngspice', () => {
   it('accepts every shipped design but the free-form netlist, the two whose switch no chain can fix and the diode pump', () => {
     const netlist = loadDesign(design('lp-netlist'));
-    expect(inputErrorMessage(() => tuneChains(netlist.design, netlist.card))).toMatch(/^generator\.template: "netlist" is a free-form netlist/);
+    expect(inputErrorMessage(() => tuneChains(netlist.design, netlist.card))).toMatch(
+      /^generator\.template: "netlist" is a free-form netlist/,
+    );
     for (const name of ['doubler-unboosted', 'doubler-unboosted-pump']) {
       const unboosted = loadDesign(design(name));
       expect(tuneChains(unboosted.design, unboosted.card).faults.map((f) => f.switch)).toEqual(['s_chg']);
@@ -55,8 +57,13 @@ describe('tune on the shipped designs, confirmed in ngspice', () => {
       expect(c.pass).toBe(true);
       expect(c.least).toBeGreaterThanOrEqual(0);
       // The same proposal through `phasegap confirm`: the simulator's dead times meet the minimum, every pair holds.
-      const sets = [`generator.stages=${best.knobs.stages}`, `generator.stageSize=${String(best.knobs.stageSize)}`,
-        `generator.stageLoad=${best.knobs.stageLoad}`, `generator.buffer=[${best.knobs.buffer.join(',')}]`, `generator.feedbackTap=${best.knobs.feedbackTap}`];
+      const sets = [
+        `generator.stages=${best.knobs.stages}`,
+        `generator.stageSize=${String(best.knobs.stageSize)}`,
+        `generator.stageLoad=${best.knobs.stageLoad}`,
+        `generator.buffer=[${best.knobs.buffer.join(',')}]`,
+        `generator.feedbackTap=${best.knobs.feedbackTap}`,
+      ];
       const run = cli('confirm', design(name), ...sets.flatMap((s) => ['--set', s]), '--json');
       expect([0, 1]).toContain(run.code);
       const confirm = JSON.parse(run.stdout);

@@ -30,8 +30,15 @@ describe('usefulConduction', () => {
 
 describe('objectiveOf and score', () => {
   it('defaults to the conduction time, and reads the dead-time and weighted objectives from the tune section', () => {
-    expect(objectiveOf(loadDesign(design('doubler')).design)).toEqual({ kind: 'conduction', weights: { conduction: 1, margin: 0, deadTime: 0 } });
-    expect(objectiveOf(loadDesign(design('doubler'), ['tune.objective=dead-time']).design).weights).toEqual({ conduction: 0, margin: 0, deadTime: 1 });
+    expect(objectiveOf(loadDesign(design('doubler')).design)).toEqual({
+      kind: 'conduction',
+      weights: { conduction: 1, margin: 0, deadTime: 0 },
+    });
+    expect(objectiveOf(loadDesign(design('doubler'), ['tune.objective=dead-time']).design).weights).toEqual({
+      conduction: 0,
+      margin: 0,
+      deadTime: 1,
+    });
     const w = objectiveOf(loadDesign(design('doubler'), ['tune.objective=weighted', 'tune.weights.margin=10']).design);
     expect(w.weights).toEqual({ conduction: 1, margin: 10, deadTime: 0 });
     expect(score(w, { conduction: 23e-9, margin: 70e-12, deadMax: 1.9e-9 })).toBeCloseTo(23e-9 + 700e-12, 20);
@@ -39,7 +46,11 @@ describe('objectiveOf and score', () => {
   });
 
   it('a weighted objective that values margin ranks a chain with more margin first', () => {
-    const { design: d, card } = loadDesign(design('doubler'), ['tune.objective=weighted', 'tune.weights.conduction=0', 'tune.weights.margin=1']);
+    const { design: d, card } = loadDesign(design('doubler'), [
+      'tune.objective=weighted',
+      'tune.weights.conduction=0',
+      'tune.weights.margin=1',
+    ]);
     const space = { ...defaultSpace(d), stages: [2, 4, 6], stageSizes: [1], headroom: 0, tapers: [], feedbackTaps: [] };
     const r = tuneChains(d, card, undefined, space, { top: 3 });
     const margins = r.proposals.map((p) => p.limiting!.margin!);

@@ -26,19 +26,38 @@ function load(name: string, overrides: string[] = []) {
 }
 
 /** Every corner of the design with these chain knobs. */
-function verdicts(d: Design, card: ReturnType<typeof load>['card'], knobs: Pick<ChainKnobs, 'stages' | 'stageSize' | 'stageLoad'> & Partial<ChainKnobs>) {
+function verdicts(
+  d: Design,
+  card: ReturnType<typeof load>['card'],
+  knobs: Pick<ChainKnobs, 'stages' | 'stageSize' | 'stageLoad'> & Partial<ChainKnobs>,
+) {
   const resolved = resolveDesign(withKnobs(d, { ...ownKnobs(templateOf(d)), ...knobs }), card);
   return evaluateAll(resolved);
 }
 
 /** A narrow search at the edge of the requirements (no headroom), for the search mechanics. */
-const small = (d: Design, extra: Partial<TuneSpace> = {}): TuneSpace => ({ ...defaultSpace(d), stages: [2, 4], stageSizes: [1], headroom: 0, tapers: [], feedbackTaps: [], ...extra });
+const small = (d: Design, extra: Partial<TuneSpace> = {}): TuneSpace => ({
+  ...defaultSpace(d),
+  stages: [2, 4],
+  stageSizes: [1],
+  headroom: 0,
+  tapers: [],
+  feedbackTaps: [],
+  ...extra,
+});
 
 /**
  * Sample sigma of the least timing margin per die, at each of the given corners, computed die by
  * die with a plain evaluator (not the Monte Carlo chunks tune uses).
  */
-function leastMarginSigmas(d: Design, card: ReturnType<typeof load>['card'], knobs: ChainKnobs, corners: readonly string[], dies: number, seed: number): number[] {
+function leastMarginSigmas(
+  d: Design,
+  card: ReturnType<typeof load>['card'],
+  knobs: ChainKnobs,
+  corners: readonly string[],
+  dies: number,
+  seed: number,
+): number[] {
   const resolved = resolveDesign(withKnobs(d, knobs), card);
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
   const evaluator = new CornerEvaluator(resolved);
@@ -96,7 +115,13 @@ describe('tuneChains', () => {
 
   it('ranks by the least useful conduction time, treating scores within the tie band as equal and then preferring shorter chains', () => {
     const { d, card } = load('doubler');
-    const result = tuneChains(d, card, undefined, { ...defaultSpace(d), stages: [2, 4, 6, 8], stageSizes: [1, 2], headroom: 0, tapers: [], feedbackTaps: [] }, { top: 8 });
+    const result = tuneChains(
+      d,
+      card,
+      undefined,
+      { ...defaultSpace(d), stages: [2, 4, 6, 8], stageSizes: [1, 2], headroom: 0, tapers: [], feedbackTaps: [] },
+      { top: 8 },
+    );
     expect(result.objective.kind).toBe('conduction');
     expect(result.proposals.length).toBe(8);
     const top = result.proposals.reduce((a, b) => (b.score > a.score ? b : a));
@@ -130,21 +155,26 @@ describe('tuneChains', () => {
     const r = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1', '--max-load', '30fF');
     expect(r.code).toBe(1);
     // Every corner where it fails is listed, worst first.
-    expect(r.stdout).toMatch(/dead p\d->p\d >= 500 ps \(dead-time-min\) at 10 corners, worst -1\d\d ps: ff\/1\.98V\/-40C, ff\/1\.8V\/-40C, (\S+, ){7}\S+\n/);
+    expect(r.stdout).toMatch(
+      /dead p\d->p\d >= 500 ps \(dead-time-min\) at 10 corners, worst -1\d\d ps: ff\/1\.98V\/-40C, ff\/1\.8V\/-40C, (\S+, ){7}\S+\n/,
+    );
     expect(r.stdout).toContain('it wants more delay than the search allows: widen it with --max-load or --stages');
   });
 
   it('refuses a free-form netlist, naming the field', () => {
     const { d, card } = load('lp-netlist');
-    expect(inputErrorMessage(() => tuneChains(d, card))).toBe('generator.template: "netlist" is a free-form netlist; tune adjusts the delay chains of the nand or nor template');
+    expect(inputErrorMessage(() => tuneChains(d, card))).toBe(
+      'generator.template: "netlist" is a free-form netlist; tune adjusts the delay chains of the nand or nor template',
+    );
   });
 
   it('more delay capacitance never shortens the fast-corner dead time (common practice: a delay cap slows its node)', () => {
     const { d, card } = load('doubler');
     let previous = -Infinity;
     for (const c of [0, 10, 20, 40, 80]) {
-      const dead = verdicts(d, card, { stages: 4, stageSize: 1, stageLoad: c * fF })
-        .flatMap((x) => (x.measurement.ok ? x.measurement.deadTimes.map((y) => y.t50) : []));
+      const dead = verdicts(d, card, { stages: 4, stageSize: 1, stageLoad: c * fF }).flatMap((x) =>
+        x.measurement.ok ? x.measurement.deadTimes.map((y) => y.t50) : [],
+      );
       const least = Math.min(...dead);
       expect(least).toBeGreaterThan(previous);
       previous = least;
@@ -166,13 +196,25 @@ describe('phasegap tune', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^too-tight-clock: delay chains tuned at 20\.00 MHz over 45 corners/);
     // The analytic model's measured band on generic180 (src/delay/error-band.ts), read beside the margins.
-    expect(r.stdout.split('\n')[1]).toBe('model error: dead time -8.8 % to -0.2 % of ngspice (median |error| 3.9 %, 42 dead times on the shipped designs); read small margins against it');
+    expect(r.stdout.split('\n')[1]).toBe(
+      'model error: dead time -8.8 % to -0.2 % of ngspice (median |error| 3.9 %, 42 dead times on the shipped designs); read small margins against it',
+    );
     expect(r.stdout).toMatch(/current design +2 +1 +40 fF .* FAIL/);
     expect(r.stdout).toMatch(/proposal 1 /);
-    const apply = /phasegap check (\S+) (--set generator\.stages=\d+) (--set generator\.stageSize=\S+) (--set generator\.stageLoad=\S+)( --set '?generator\.buffer=\[[\d.,]+\]'?)?( --set generator\.feedbackTap=\d+)?\n/.exec(r.stdout);
+    const apply =
+      /phasegap check (\S+) (--set generator\.stages=\d+) (--set generator\.stageSize=\S+) (--set generator\.stageLoad=\S+)( --set '?generator\.buffer=\[[\d.,]+\]'?)?( --set generator\.feedbackTap=\d+)?\n/.exec(
+        r.stdout,
+      );
     expect(apply).not.toBeNull();
     // The printed command passes.
-    const check = cli('check', apply![1]!, ...apply!.slice(2).filter((x) => x !== undefined).flatMap((s) => s.trim().replace(/'/g, '').split(' ')));
+    const check = cli(
+      'check',
+      apply![1]!,
+      ...apply!
+        .slice(2)
+        .filter((x) => x !== undefined)
+        .flatMap((s) => s.trim().replace(/'/g, '').split(' ')),
+    );
     expect(check.code).toBe(0);
     expect(r.stdout).toContain('caution: These are model estimates');
   });
@@ -185,7 +227,15 @@ describe('phasegap tune', () => {
     expect(report.proposals).toEqual([]);
     expect(report.closest.pass).toBe(false);
     // The demo's nand buffer [2, 6, 18] can be tapered and tapped after 0 or 2 of its inverters.
-    expect(report.searched).toEqual({ stages: [2], stageSizes: [1], maxLoad: 500e-15, loadStep: 0.5e-15, headroom: { z: 3, dies: 200, corners: 3, seed: 1 }, tapers: [2, 3, 4], feedbackTaps: [0, 2] });
+    expect(report.searched).toEqual({
+      stages: [2],
+      stageSizes: [1],
+      maxLoad: 500e-15,
+      loadStep: 0.5e-15,
+      headroom: { z: 3, dies: 200, corners: 3, seed: 1 },
+      tapers: [2, 3, 4],
+      feedbackTaps: [0, 2],
+    });
     expect(report.confirmed).toBe(false);
     expect(report.diagnosis.failing.length).toBeGreaterThan(0);
     expect(report.cautions.length).toBe(3);
@@ -231,7 +281,7 @@ describe('tuneChains: switch faults', () => {
 });
 
 describe('tuneChains: headroom', () => {
-  it('by default keeps the model band plus 3 sigma of mismatch on the demo\'s first proposal, recomputed die by die', () => {
+  it("by default keeps the model band plus 3 sigma of mismatch on the demo's first proposal, recomputed die by die", () => {
     const { d, card } = load('doubler');
     const result = tuneChains(d, card, undefined, { ...defaultSpace(d), stages: [2, 4], stageSizes: [1, 2], tapers: [], feedbackTaps: [] });
     const best = result.proposals[0]!;
@@ -245,7 +295,10 @@ describe('tuneChains: headroom', () => {
     expect(h.corners.length).toBe(3);
     // The limiting corners are the three with the least margins in a plain corner evaluation.
     const byMargin = verdicts(d, card, best.knobs)
-      .map((r) => ({ name: r.corner.name, least: Math.min(...r.checks.filter((c) => !(c.pass && VOLTAGE_KINDS.has(c.kind))).map((c) => c.margin!)) }))
+      .map((r) => ({
+        name: r.corner.name,
+        least: Math.min(...r.checks.filter((c) => !(c.pass && VOLTAGE_KINDS.has(c.kind))).map((c) => c.margin!)),
+      }))
       .sort((a, b) => a.least - b.least);
     expect(h.corners).toEqual(byMargin.slice(0, 3).map((c) => c.name));
     const sigma = Math.max(...leastMarginSigmas(d, card, best.knobs, h.corners, 200, 1));
@@ -282,7 +335,9 @@ describe('tuneChains: headroom', () => {
     const r = cli('tune', design('doubler'), '--margin', '0', '--top', '1', '--no-confirm');
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('over 45 corners, with no headroom');
-    expect(r.stdout).toMatch(/proposal 1 +2 +1 +\d+(\.5)? fF +[\d.,]+ +2 +50\d ps +1\.\d\d ns +2\d\.\d ns +pass +\+\d\.\d\d ps +0 s +\d+ % \[/);
+    expect(r.stdout).toMatch(
+      /proposal 1 +2 +1 +\d+(\.5)? fF +[\d.,]+ +2 +50\d ps +1\.\d\d ns +2\d\.\d ns +pass +\+\d\.\d\d ps +0 s +\d+ % \[/,
+    );
     expect(r.stdout).toContain('unconfirmed in ngspice (skipped with --no-confirm)');
   });
 
@@ -323,7 +378,9 @@ describe('tuneChains: diagnosis', () => {
     // Every failing check at every corner, as a plain evaluation finds them.
     const expected = new Map<string, string[]>();
     for (const r of results) for (const c of r.checks) if (!c.pass) expected.set(c.name, [...(expected.get(c.name) ?? []), r.corner.name]);
-    expect(new Map(diag.failing.map((f) => [f.check, [...f.corners].sort()]))).toEqual(new Map([...expected].map(([k, v]) => [k, v.sort()])));
+    expect(new Map(diag.failing.map((f) => [f.check, [...f.corners].sort()]))).toEqual(
+      new Map([...expected].map(([k, v]) => [k, v.sort()])),
+    );
     // Worst corner first: the fast corner for the minimum, the slow one for the maximum.
     expect(diag.failing.find((f) => f.kind === 'dead-time-min')!.corners[0]).toBe('ff/1.98V/-40C');
     expect(diag.failing.find((f) => f.kind === 'dead-time-max')!.corners[0]).toBe('ss/1.62V/125C');
@@ -333,7 +390,9 @@ describe('tuneChains: diagnosis', () => {
   it('says so in the text and never advises widening the search', () => {
     const r = cli('tune', design('doubler'), ...contradictory.flatMap((s) => ['--set', s]));
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/conflicting requirements: requirements\.deadTime\.min 1\.00 ns and \.max 1\.50 ns allow a spread of 1\.50x over the corners but the dead time of the closest candidate spreads 3\.\d\dx/);
+    expect(r.stdout).toMatch(
+      /conflicting requirements: requirements\.deadTime\.min 1\.00 ns and \.max 1\.50 ns allow a spread of 1\.50x over the corners but the dead time of the closest candidate spreads 3\.\d\dx/,
+    );
     expect(r.stdout).toMatch(/dead p1->p2 <= 1\.50 ns \(dead-time-max\) at \d+ corners, worst -\d+ ps: ss\/1\.62V\/125C/);
     expect(r.stdout).toContain('a wider search cannot help');
     expect(r.stdout).not.toMatch(/widen|--max-load or --stages/);
@@ -358,7 +417,7 @@ describe('tune on a design with a circuit section', () => {
     expect(result.diagnosis!.failing.map((f) => f.kind).sort()).toEqual(['efficiency-min', 'output-min']);
     const r = cli('tune', design('doubler-diode-pump'), '--top', '1', '--no-confirm');
     expect(r.code).toBe(1);
-    expect(r.stdout).toContain('only the circuit\'s own requirements fail, with timing that passes: no delay chain fixes them');
+    expect(r.stdout).toContain("only the circuit's own requirements fail, with timing that passes: no delay chain fixes them");
   });
 
   it('keeps a proposal that meets them (doubler-pump)', () => {

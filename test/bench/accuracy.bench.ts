@@ -32,11 +32,20 @@ function defaultPick(all: readonly Corner[]): Corner[] {
   const vdds = [...new Set(all.map((c) => c.vdd))].sort((a, b) => a - b);
   const temps = [...new Set(all.map((c) => c.temperature))].sort((a, b) => a - b);
   const mid = (v: number[]) => v[v.length >> 1]!;
-  const picks: Array<[string, number, number]> = [['tt', mid(vdds), mid(temps)], ['ss', vdds[0]!, temps.at(-1)!], ['ff', vdds.at(-1)!, temps[0]!]];
-  return picks.map(([p, v, t]) => all.find((c) => c.process === p && c.vdd === v && c.temperature === t)).filter((c): c is Corner => c !== undefined);
+  const picks: Array<[string, number, number]> = [
+    ['tt', mid(vdds), mid(temps)],
+    ['ss', vdds[0]!, temps.at(-1)!],
+    ['ff', vdds.at(-1)!, temps[0]!],
+  ];
+  return picks
+    .map(([p, v, t]) => all.find((c) => c.process === p && c.vdd === v && c.temperature === t))
+    .filter((c): c is Corner => c !== undefined);
 }
 
-interface Errors { relative: number[]; absolute: number[] }
+interface Errors {
+  relative: number[];
+  absolute: number[];
+}
 const byKey = new Map<string, Errors>();
 const note = (key: string, rel: number, abs: number) => {
   const e = byKey.get(key) ?? { relative: [], absolute: [] };
@@ -45,7 +54,9 @@ const note = (key: string, rel: number, abs: number) => {
   byKey.set(key, e);
 };
 
-for (const file of readdirSync(designs).filter((f) => f.endsWith('.yaml')).sort()) {
+for (const file of readdirSync(designs)
+  .filter((f) => f.endsWith('.yaml'))
+  .sort()) {
   const loaded = loadDesign(join(designs, file));
   const { design, card, cardDir } = loaded;
   const models: Array<[string, DelayModel]> = [['analytic', analyticModel]];
@@ -59,23 +70,37 @@ for (const file of readdirSync(designs).filter((f) => f.endsWith('.yaml')).sort(
   if (corners.length === 0) continue;
   const modelPath = modelFile(card, cardDir);
   const decks = corners.map((corner) => generatorDeck(base, corner, { modelPath }));
-  const outputs = runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { parallel: 2 });
+  const outputs = runDecks(
+    decks.map((d) => ({ name: d.corner.name, text: d.text })),
+    { parallel: 2 },
+  );
   for (const [name, model] of models) {
     const resolved = resolveDesign(design, card, model);
     corners.forEach((corner, i) => {
       const deck = generatorDeck(resolved, corner, { modelPath });
-      const parsed = parseSimulatorOutput(outputs[i]!.output, decks[i]!.quantities.map((q) => q.name));
+      const parsed = parseSimulatorOutput(
+        outputs[i]!.output,
+        decks[i]!.quantities.map((q) => q.name),
+      );
       for (const q of compareCorner(deck, parsed, 0.1).quantities) {
         if (q.kind !== 'dead' || q.relativeError === null || q.simulator === null) continue;
         note(`${name} ${card.name}`, q.relativeError, q.model - q.simulator);
-        console.log(`${file} ${name} ${corner.name} ${q.quantity}: model ${(q.model * 1e12).toFixed(1)} ps, ngspice ${(q.simulator * 1e12).toFixed(1)} ps, ${(100 * q.relativeError).toFixed(1)} %`);
+        console.log(
+          `${file} ${name} ${corner.name} ${q.quantity}: model ${(q.model * 1e12).toFixed(1)} ps, ngspice ${(q.simulator * 1e12).toFixed(1)} ps, ${(100 * q.relativeError).toFixed(1)} %`,
+        );
       }
     });
   }
 }
-const median = (v: number[]) => { const s = [...v].sort((a, b) => a - b); const m = s.length >> 1; return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2; };
+const median = (v: number[]) => {
+  const s = [...v].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+};
 for (const [key, e] of byKey) {
   const abs = e.relative.map(Math.abs);
-  console.log(`${key}: ${e.relative.length} dead times, |error| median ${(100 * median(abs)).toFixed(1)} %, worst ${(100 * Math.max(...abs)).toFixed(1)} %, `
-    + `signed ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, absolute ${(Math.min(...e.absolute) * 1e12).toFixed(0)}..${(Math.max(...e.absolute) * 1e12).toFixed(0)} ps`);
+  console.log(
+    `${key}: ${e.relative.length} dead times, |error| median ${(100 * median(abs)).toFixed(1)} %, worst ${(100 * Math.max(...abs)).toFixed(1)} %, ` +
+      `signed ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, absolute ${(Math.min(...e.absolute) * 1e12).toFixed(0)}..${(Math.max(...e.absolute) * 1e12).toFixed(0)} ps`,
+  );
 }

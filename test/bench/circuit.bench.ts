@@ -27,7 +27,14 @@ for (const { corner } of resolved.corners) {
   const r = evaluator.evaluate(corner);
   figuresMs += performance.now() - t;
   const cycles = new CycleIndex(r.simulation, resolved.netlist);
-  const model = cornerModel(network, resolved.switches, r.switches, cycles, devicesAtCorner(resolved.card, corner), 1 / resolved.design.clock.frequency);
+  const model = cornerModel(
+    network,
+    resolved.switches,
+    r.switches,
+    cycles,
+    devicesAtCorner(resolved.card, corner),
+    1 / resolved.design.clock.frequency,
+  );
   models.push(withLoad(model, network.load, 1));
 }
 const tt = models[resolved.corners.findIndex((c) => c.corner.name === 'tt/1.8V/27C')]!;
@@ -52,5 +59,9 @@ for (let i = 0; i < repeats; i++) {
   all = Math.min(all, solveAll(models));
 }
 console.log(`circuit: periodic steady state of ${demo.split('/').pop()} at tt/1.8V/27C: ${one.toFixed(3)} ms (target < 1 ms)`);
-console.log(`circuit: periodic steady state at ${models.length} corners: ${all.toFixed(2)} ms (target < 50 ms; ${cpuAll.toFixed(2)} ms of CPU, which a loaded machine does not inflate; ${rounds} rounds of R_on evaluation)`);
-console.log(`circuit: check of all ${models.length} corners with every figure (timing, steady states, impedance asymptotes, start-up): ${figuresMs.toFixed(0)} ms (first run, JIT cold)`);
+console.log(
+  `circuit: periodic steady state at ${models.length} corners: ${all.toFixed(2)} ms (target < 50 ms; ${cpuAll.toFixed(2)} ms of CPU, which a loaded machine does not inflate; ${rounds} rounds of R_on evaluation)`,
+);
+console.log(
+  `circuit: check of all ${models.length} corners with every figure (timing, steady states, impedance asymptotes, start-up): ${figuresMs.toFixed(0)} ms (first run, JIT cold)`,
+);

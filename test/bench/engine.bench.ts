@@ -31,7 +31,9 @@ function evaluations(seconds: number, borrow: boolean): { count: number; elapsed
 function report(label: string, borrow: boolean): void {
   evaluations(0.5, borrow);
   const { count, elapsed } = evaluations(3, borrow);
-  console.log(`${label.padEnd(34)} ${String(Math.round(count / elapsed)).padStart(8)} evaluations/s  (${((elapsed / count) * 1e6).toFixed(1)} us each)`);
+  console.log(
+    `${label.padEnd(34)} ${String(Math.round(count / elapsed)).padStart(8)} evaluations/s  (${((elapsed / count) * 1e6).toFixed(1)} us each)`,
+  );
 }
 
 console.log(`design: ${design.name}, ${resolved.netlist.gateCount} gates, ${resolved.switches.length} switches, ${corners.length} corners`);

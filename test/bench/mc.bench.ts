@@ -43,15 +43,25 @@ const dies = Math.ceil(1_000_000 / CORNERS);
 const evaluations = dies * CORNERS;
 const one = timed(dies, 1);
 const all = timed(dies, cores);
-console.log(`Monte Carlo, 1,000,000 evaluations (${dies} dies x ${CORNERS} corners of the demo design), ${cores} cores; whole runs, start-up included`);
-console.log(`one thread        ${Math.round(evaluations / one.seconds)} evaluations/s, ${one.seconds.toFixed(2)} s wall, peak RSS ${one.rssMb.toFixed(0)} MB`);
-console.log(`${cores} threads         ${Math.round(evaluations / all.seconds)} evaluations/s, ${all.seconds.toFixed(2)} s wall, peak RSS ${all.rssMb.toFixed(0)} MB (${(one.seconds / all.seconds).toFixed(2)}x)`);
-console.log('evaluation phase only (mc --timings: without start-up, design loading and the report; each thread\'s warm-up included)');
+console.log(
+  `Monte Carlo, 1,000,000 evaluations (${dies} dies x ${CORNERS} corners of the demo design), ${cores} cores; whole runs, start-up included`,
+);
+console.log(
+  `one thread        ${Math.round(evaluations / one.seconds)} evaluations/s, ${one.seconds.toFixed(2)} s wall, peak RSS ${one.rssMb.toFixed(0)} MB`,
+);
+console.log(
+  `${cores} threads         ${Math.round(evaluations / all.seconds)} evaluations/s, ${all.seconds.toFixed(2)} s wall, peak RSS ${all.rssMb.toFixed(0)} MB (${(one.seconds / all.seconds).toFixed(2)}x)`,
+);
+console.log("evaluation phase only (mc --timings: without start-up, design loading and the report; each thread's warm-up included)");
 console.log(`one thread        ${Math.round(evaluations / one.evaluation)} evaluations/s, ${one.evaluation.toFixed(2)} s`);
-console.log(`${cores} threads         ${Math.round(evaluations / all.evaluation)} evaluations/s, ${all.evaluation.toFixed(2)} s (${(one.evaluation / all.evaluation).toFixed(2)}x)`);
+console.log(
+  `${cores} threads         ${Math.round(evaluations / all.evaluation)} evaluations/s, ${all.evaluation.toFixed(2)} s (${(one.evaluation / all.evaluation).toFixed(2)}x)`,
+);
 
 // The two delay models on the same dies, one thread: the table model must keep at least half the analytic rate.
 const modelDies = 2000;
 const byModel = (['analytic', 'table'] as const).map((m) => timed(modelDies, 1, ['--model', m, '--tables', demoTables]));
 const rate = (t: Timed) => Math.round((modelDies * CORNERS) / t.evaluation);
-console.log(`delay models, ${modelDies * CORNERS} evaluations on one thread (evaluation phase): analytic ${rate(byModel[0]!)} evaluations/s, table ${rate(byModel[1]!)} evaluations/s (${(100 * rate(byModel[1]!) / rate(byModel[0]!)).toFixed(0)} % of analytic)`);
+console.log(
+  `delay models, ${modelDies * CORNERS} evaluations on one thread (evaluation phase): analytic ${rate(byModel[0]!)} evaluations/s, table ${rate(byModel[1]!)} evaluations/s (${((100 * rate(byModel[1]!)) / rate(byModel[0]!)).toFixed(0)} % of analytic)`,
+);

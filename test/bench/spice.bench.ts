@@ -24,7 +24,10 @@ let start = performance.now();
 const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath: models }));
 const deckSeconds = (performance.now() - start) / 1000;
 start = performance.now();
-runDecks(decks.map((d) => ({ name: d.corner.name, text: d.text })), { parallel });
+runDecks(
+  decks.map((d) => ({ name: d.corner.name, text: d.text })),
+  { parallel },
+);
 const spiceSeconds = (performance.now() - start) / 1000;
 
 checkReport(resolved, evaluateAll(resolved));
@@ -34,6 +37,8 @@ for (let i = 0; i < repeats; i++) checkReport(resolved, evaluateAll(resolved));
 const checkSeconds = (performance.now() - start) / 1000 / repeats;
 
 console.log(`design            ${design.name} (${resolved.netlist.gateCount} gates, ${corners.length} corners)`);
-console.log(`${simulator.padEnd(17)} ${spiceSeconds.toFixed(2)} s wall for ${corners.length} corners, ${parallel} at a time (decks written in ${(deckSeconds * 1000).toFixed(0)} ms)`);
+console.log(
+  `${simulator.padEnd(17)} ${spiceSeconds.toFixed(2)} s wall for ${corners.length} corners, ${parallel} at a time (decks written in ${(deckSeconds * 1000).toFixed(0)} ms)`,
+);
 console.log(`phasegap check    ${(checkSeconds * 1000).toFixed(2)} ms for the same corners (one thread, mean of ${repeats})`);
 console.log(`ratio             ngspice / check = ${Math.round(spiceSeconds / checkSeconds)}x`);

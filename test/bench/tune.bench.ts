@@ -27,8 +27,12 @@ function timed<T>(run: () => T): { value: T; wall: number; cpu: number } {
 const search = timed(() => tuneChains(design, card, undefined, defaultSpace(design)));
 const best = search.value.proposals[0];
 console.log(`tune ${design.name} (${dirname(demo).split('/').pop()}/doubler.yaml), Monte Carlo headroom, no simulator`);
-console.log(`  search          ${search.wall.toFixed(2)} s wall, ${search.cpu.toFixed(2)} s CPU, ${search.value.evaluations} corner evaluations (${(search.value.evaluations / search.cpu).toFixed(0)} per CPU second)`);
-console.log(`  first proposal  ${best ? `${best.knobs.stages} stages, ${(best.knobs.stageLoad / 1e-15).toFixed(1)} fF, buffer [${best.knobs.buffer.join(', ')}], tap ${best.knobs.feedbackTap}` : 'none'}`);
+console.log(
+  `  search          ${search.wall.toFixed(2)} s wall, ${search.cpu.toFixed(2)} s CPU, ${search.value.evaluations} corner evaluations (${(search.value.evaluations / search.cpu).toFixed(0)} per CPU second)`,
+);
+console.log(
+  `  first proposal  ${best ? `${best.knobs.stages} stages, ${(best.knobs.stageLoad / 1e-15).toFixed(1)} fF, buffer [${best.knobs.buffer.join(', ')}], tap ${best.knobs.feedbackTap}` : 'none'}`,
+);
 const { simulate, note } = tuneSimulator(io, card, cardDir, {});
 if (!simulate) {
   console.log(`  ngspice         skipped: ${note}`);
@@ -42,5 +46,7 @@ if (!simulate) {
   };
   const withSpice = timed(() => tuneChains(design, card, undefined, defaultSpace(design), { simulate: clocked, confirmTop: 3 }));
   const runs = withSpice.value.simulations;
-  console.log(`  ngspice         ${spice.toFixed(2)} s wall in ${runs} runs at the worst corners (${(spice / Math.max(1, runs)).toFixed(2)} s each); whole tune with it ${withSpice.wall.toFixed(2)} s wall`);
+  console.log(
+    `  ngspice         ${spice.toFixed(2)} s wall in ${runs} runs at the worst corners (${(spice / Math.max(1, runs)).toFixed(2)} s each); whole tune with it ${withSpice.wall.toFixed(2)} s wall`,
+  );
 }

@@ -7,12 +7,17 @@ import { processCard } from '../helpers.js';
 describe('card widths', () => {
   const card = loadProcess(processCard('generic180'));
 
-  it('unitWidths and capacitancePerWidth read the card\'s unit devices and capacitances', () => {
+  it("unitWidths and capacitancePerWidth read the card's unit devices and capacitances", () => {
     expect(unitWidths(card)).toEqual({ wn: card.unit.wn, wp: card.unit.wp });
-    expect(capacitancePerWidth(card)).toEqual({ cgateN: card.n.cgate, cgateP: card.p.cgate, cdrainN: card.n.cdrain, cdrainP: card.p.cdrain });
+    expect(capacitancePerWidth(card)).toEqual({
+      cgateN: card.n.cgate,
+      cgateP: card.p.cgate,
+      cdrainN: card.n.cdrain,
+      cdrainP: card.p.cdrain,
+    });
   });
 
-  it('gatePinCapacitance gives each gate its cell\'s pin capacitance at its size', () => {
+  it("gatePinCapacitance gives each gate its cell's pin capacitance at its size", () => {
     const gates = { gateCell: ['INV', 'NAND2'] as const, gateSize: Float64Array.of(1, 3) };
     const pins = gatePinCapacitance({ gateCell: [...gates.gateCell], gateSize: gates.gateSize }, card);
     expect(Array.from(pins)).toEqual([

@@ -1,7 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import {
-  CELLS, cellWidths, parasiticCapacitance, pinCapacitance,
-  type CapacitancePerWidth, type PrimitiveCell, type UnitWidths,
+  CELLS,
+  cellWidths,
+  parasiticCapacitance,
+  pinCapacitance,
+  type CapacitancePerWidth,
+  type PrimitiveCell,
+  type UnitWidths,
 } from '../../src/cells/library.js';
 import { expectClose } from '../helpers.js';
 
@@ -115,7 +120,9 @@ describe('CELLS evaluate', () => {
   ] as const)('computes the truth table of %s', (kind, table) => {
     const cell = CELLS[kind];
     expect(table).toHaveLength(1 << cell.inputs);
-    table.forEach((out, bits) => { expect(cell.evaluate(bits)).toBe(out); });
+    table.forEach((out, bits) => {
+      expect(cell.evaluate(bits)).toBe(out);
+    });
   });
 
   it('describes the series depth of each pull network', () => {

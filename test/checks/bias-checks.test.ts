@@ -34,7 +34,12 @@ const ALLOWANCE_27C = 0.178669;
 
 describe('biasChecks: off-state', () => {
   it('fails a p charge switch with a 0..VDD gate in phase 2 and names the reverse conduction', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`,
+      ),
+    );
     const off = find(checks, 'off-state', 's_chg');
     expect(off.pass).toBe(false);
     expect(off.phase).toBe('phase p2');
@@ -46,7 +51,12 @@ describe('biasChecks: off-state', () => {
   });
 
   it('holds an n charge switch off in phase 2 with its gate at VDD and body at VDD: margin V_T - allowance', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`,
+      ),
+    );
     const off = find(checks, 'off-state', 's_chg');
     expect(off.pass).toBe(true);
     expectClose(off.margin!, 0.45 - ALLOWANCE_27C, 1e-5, 'abs');
@@ -61,9 +71,10 @@ describe('biasChecks: off-state', () => {
   });
 
   it('checks a tgate only where both devices are off, each against the terminal that would turn it on', () => {
-    const yaml = pump('  vin: { min: 0.3V, max: 1.3V }\n  cs: { min: 0.3V, max: 1.3V }',
-      '  - { name: s1, type: tgate, w: 12um, wp: 36um, l: 0.18um, gate: p1, gateBar: p1b, terminals: [vin, cs] }')
-      .replace('stageLoad: 20fF', 'stageLoad: 20fF, complementary: true');
+    const yaml = pump(
+      '  vin: { min: 0.3V, max: 1.3V }\n  cs: { min: 0.3V, max: 1.3V }',
+      '  - { name: s1, type: tgate, w: 12um, wp: 36um, l: 0.18um, gate: p1, gateBar: p1b, terminals: [vin, cs] }',
+    ).replace('stageLoad: 20fF', 'stageLoad: 20fF, complementary: true');
     const off = find(checksOf(yaml), 'off-state', 's1');
     // n device: gate 0 V, the 0.3 V terminal as source over a 0 V body: V_T(0.3 V) = 0.517692 V
     // (body-effect law), margin 0.517692 - 0.178669 + 0.3 = 0.639023 V. The p device (gate 1.8 V,
@@ -75,7 +86,12 @@ describe('biasChecks: off-state', () => {
 
 describe('biasChecks: on-state', () => {
   it('fails a p switch whose VDD..2VDD gate cannot turn it on from a VDD terminal', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd, invert: true }, terminals: [vdd, top] }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd, invert: true }, terminals: [vdd, top] }`,
+      ),
+    );
     const on = find(checks, 'on-state', 's_chg');
     expect(on.pass).toBe(false);
     expect(on.phase).toBe('phase p1');
@@ -83,7 +99,12 @@ describe('biasChecks: on-state', () => {
   });
 
   it('measures the overdrive at the worst terminal level: the highest for an n switch', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`,
+      ),
+    );
     // Phase 1: gate 3.6 V, both terminals 1.8 V, body 1.8 V: 3.6 - 1.8 - 0.45 = 1.35 V.
     expectClose(find(checks, 'on-state', 's_chg').margin!, 1.35, 1e-9, 'abs');
   });
@@ -91,7 +112,12 @@ describe('biasChecks: on-state', () => {
 
 describe('biasChecks: stress', () => {
   it('fails a forward-biased junction: a p switch whose top terminal rises above its VDD body', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`,
+      ),
+    );
     const stress = find(checks, 'stress', 's_chg');
     expect(stress.pass).toBe(false);
     expectClose(stress.margin!, 1.8 - 3.6, 1e-9, 'abs');
@@ -99,10 +125,18 @@ describe('biasChecks: stress', () => {
   });
 
   it('fails |V_GB| = 2 x 1.98 V = 3.96 V on a device rated 2.2 V (body at 2 VDD, gate at 0 V) at the high supply corner', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top] }`),
+    const checks = checksOf(
+      pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top] }`),
     );
-    const high = evaluateAll(resolveYaml(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top] }`,
-      '{ process: tt, vdd: 1.98V, temperature: 27 }')))[0]!.checks.find((c) => c.kind === 'stress')!;
+    const high = evaluateAll(
+      resolveYaml(
+        pump(
+          PLATES,
+          `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top] }`,
+          '{ process: tt, vdd: 1.98V, temperature: 27 }',
+        ),
+      ),
+    )[0]!.checks.find((c) => c.kind === 'stress')!;
     // Undeclared body of a p switch: the highest level it sees, 2 VDD. In phase 1 its gate is at 0 V.
     expect(high.pass).toBe(false);
     expectClose(high.margin!, 2.2 - 3.96, 1e-9, 'abs');
@@ -111,14 +145,21 @@ describe('biasChecks: stress', () => {
   });
 
   it('passes the boosted n charge switch: no pair of its terminals sees more than VDD (margin 2.2 - 1.8 V)', () => {
-    const checks = checksOf(pump(PLATES, `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`));
+    const checks = checksOf(
+      pump(
+        PLATES,
+        `  - { name: s_chg, type: nmos, w: 10um, l: 0.18um, gate: p1, levelShifter: { delay: 300ps, low: vdd, high: 2vdd }, terminals: [vdd, top], bulk: vdd }`,
+      ),
+    );
     expectClose(find(checks, 'stress', 's_chg').margin!, 0.4, 1e-9, 'abs');
   });
 });
 
 describe('biasChecks: older signal form', () => {
   it('keeps reading it, names the checks as limited and warns', () => {
-    const resolved = resolveYaml(pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], signal: vdd }`));
+    const resolved = resolveYaml(
+      pump(PLATES, `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], signal: vdd }`),
+    );
     expect(resolved.warnings).toHaveLength(1);
     expect(resolved.warnings[0]).toMatch(/s_chg: terminals undeclared/);
     const off = evaluateAll(resolved)[0]!.checks.find((c) => c.kind === 'off-state')!;
@@ -129,8 +170,16 @@ describe('biasChecks: older signal form', () => {
 
 describe('switchFaults', () => {
   it('names each failing switch once with its failing kinds, and advice that no delay chain fixes it', () => {
-    const faults = switchFaults(evaluateAll(resolveYaml(pump(PLATES,
-      `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`))).map((r) => ({ name: r.corner.name, checks: r.checks })));
+    const faults = switchFaults(
+      evaluateAll(
+        resolveYaml(
+          pump(
+            PLATES,
+            `  - { name: s_chg, type: pmos, w: 30um, l: 0.18um, gate: p1, driver: [{ cell: INV }], terminals: [vdd, top], bulk: vdd }`,
+          ),
+        ),
+      ).map((r) => ({ name: r.corner.name, checks: r.checks })),
+    );
     expect(faults.map((f) => [f.switch, f.kinds])).toEqual([['s_chg', ['off-state', 'stress']]]);
     expect(switchFaultAdvice(faults)).toMatch(/^no delay chain can fix s_chg \(off-state, stress\)/);
     expect(switchFaultAdvice([])).toBeNull();
@@ -139,7 +188,12 @@ describe('switchFaults', () => {
 
 describe('terminal input errors', () => {
   const bad = (nodes: string, sw: string) => {
-    try { resolveYaml(pump(nodes, sw)); } catch (e) { if (e instanceof InputError) return e.issues[0]!; throw e; }
+    try {
+      resolveYaml(pump(nodes, sw));
+    } catch (e) {
+      if (e instanceof InputError) return e.issues[0]!;
+      throw e;
+    }
     throw new Error('no error');
   };
   it('names an unknown terminal, the nodes declared and the allowed levels', () => {
@@ -151,9 +205,13 @@ describe('terminal input errors', () => {
     expect(bad('  vdd: 1V', `  - { name: s, type: nmos, w: 1um, l: 0.18um, gate: p1, terminals: [vdd, 0V] }`).path).toBe('nodes.vdd');
   });
   it('rejects terminals together with signal', () => {
-    expect(bad(PLATES, `  - { name: s, type: nmos, w: 1um, l: 0.18um, gate: p1, terminals: [bottom, 0V], signal: 0V }`).path).toBe('switches[0].signal');
+    expect(bad(PLATES, `  - { name: s, type: nmos, w: 1um, l: 0.18um, gate: p1, terminals: [bottom, 0V], signal: 0V }`).path).toBe(
+      'switches[0].signal',
+    );
   });
   it('rejects a switch connecting a node to itself', () => {
-    expect(bad(PLATES, `  - { name: s, type: nmos, w: 1um, l: 0.18um, gate: p1, terminals: [top, top] }`).path).toBe('switches[0].terminals');
+    expect(bad(PLATES, `  - { name: s, type: nmos, w: 1um, l: 0.18um, gate: p1, terminals: [top, top] }`).path).toBe(
+      'switches[0].terminals',
+    );
   });
 });

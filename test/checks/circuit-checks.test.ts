@@ -4,10 +4,19 @@ import type { CornerCircuit } from '../../src/circuit/corner-circuit.js';
 import type { Check } from '../../src/checks/check.js';
 import { formatMargin } from '../../src/report/margin-format.js';
 
-const figures = { method: 'direct', output: 3.3, lightOutput: 3.5, ripple: 0.02, efficiency: 0.55, lostCharge: 2e-12 } as unknown as CornerCircuit;
+const figures = {
+  method: 'direct',
+  output: 3.3,
+  lightOutput: 3.5,
+  ripple: 0.02,
+  efficiency: 0.55,
+  lostCharge: 2e-12,
+} as unknown as CornerCircuit;
 const req = {
   output: { min: { scale: 1.8, offset: 0 }, max: { scale: 2, offset: 0 } },
-  ripple: { max: 0.05 }, efficiency: { min: 0.6 }, lostCharge: { max: 1e-12 },
+  ripple: { max: 0.05 },
+  efficiency: { min: 0.6 },
+  lostCharge: { max: 1e-12 },
 };
 
 describe('circuitChecks', () => {

@@ -21,7 +21,7 @@ function run(requirements: string) {
 }
 
 describe('requirementChecks: overlap at the gap level', () => {
-  it('names the level and takes its margin from the clean gap less the model\'s band, not the 50 % dead time', () => {
+  it("names the level and takes its margin from the clean gap less the model's band, not the 50 % dead time", () => {
     const { checks, m } = run('{}');
     const overlap = checks.find((c) => c.kind === 'non-overlap')!;
     expect(overlap.name).toBe('phases never both above 10 % of swing');
@@ -49,7 +49,7 @@ describe('requirementChecks: overlap at the gap level', () => {
 });
 
 describe('requirementChecks: subjects', () => {
-  it('gives non-overlap both dead times with each one\'s gap margin, and each limit check its one dead time', () => {
+  it("gives non-overlap both dead times with each one's gap margin, and each limit check its one dead time", () => {
     const { checks, m } = run('{ deadTime: { min: 300ps, max: 5ns } }');
     const overlap = checks.find((c) => c.kind === 'non-overlap')!;
     expect(overlap.subject).toEqual({ type: 'dead-time', deadTimes: [0, 1], level: 'gap', limit: null });

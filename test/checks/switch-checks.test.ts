@@ -24,7 +24,7 @@ function run(text: string) {
 }
 
 describe('break-before-make', () => {
-  it('equals the 50 % dead time minus both switches\' crossing offsets (hand case)', () => {
+  it("equals the 50 % dead time minus both switches' crossing offsets (hand case)", () => {
     const r = run(design('  breakBeforeMake: [{ between: [a, b] }]', '25ps'));
     const m = r.measurement;
     if (!m.ok) throw new Error(m.reason);
@@ -50,8 +50,17 @@ describe('break-before-make', () => {
 });
 
 describe('handoverGap', () => {
-  const sw = (on: number, off: number): SwitchConduction =>
-    ({ name: 's', type: 'nmos', status: 'switching', detail: '', on, off, onLatest: on, offEarliest: off, ron: 1 });
+  const sw = (on: number, off: number): SwitchConduction => ({
+    name: 's',
+    type: 'nmos',
+    status: 'switching',
+    detail: '',
+    on,
+    off,
+    onLatest: on,
+    offEarliest: off,
+    ron: 1,
+  });
   it('is the wait when the second starts while the first is off, across the period boundary too', () => {
     expectClose(handoverGap(sw(0, 20e-9), sw(21e-9, 45e-9), 50e-9), 1e-9, 1e-12);
     expectClose(handoverGap(sw(21e-9, 45e-9), sw(50.5e-9, 70e-9), 50e-9), 5.5e-9, 1e-12);
@@ -90,8 +99,21 @@ describe('settle', () => {
 describe('settle with an on-window longer than half a period', () => {
   it('follows the phase width one for one as the duty grows past 0.5', () => {
     const at = (duty: number) => {
-      const r = JSON.parse(cli('check', demoDesign('doubler'), '--json', '--set', `corners.duty=[${duty}]`, '--set', 'corners.process=[tt]',
-        '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]').stdout) as {
+      const r = JSON.parse(
+        cli(
+          'check',
+          demoDesign('doubler'),
+          '--json',
+          '--set',
+          `corners.duty=[${duty}]`,
+          '--set',
+          'corners.process=[tt]',
+          '--set',
+          'corners.vdd=[1.8V]',
+          '--set',
+          'corners.temperature=[27]',
+        ).stdout,
+      ) as {
         corners: Array<{ widths: Record<string, number>; checks: Array<{ kind: string; margin: number }> }>;
       };
       const c = r.corners[0]!;
@@ -113,8 +135,17 @@ describe('switchChecks: subjects and parts', () => {
     const [a, b] = ['a', 'b'].map((n) => r.switches.find((s) => s.name === n)!) as [SwitchConduction, SwitchConduction];
     const period = 1 / 20e6;
     expect(bbm.subject).toBe(resolved.switchCheckLabels.subjects[0]);
-    expect(bbm.subject).toMatchObject({ type: 'switch-events', constraint: 'break-before-make', min: 25e-12, label: 'a/b', named: false,
-      handovers: [{ first: { switch: 'a', event: 'off' }, then: { switch: 'b', event: 'on' } }, { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } }] });
+    expect(bbm.subject).toMatchObject({
+      type: 'switch-events',
+      constraint: 'break-before-make',
+      min: 25e-12,
+      label: 'a/b',
+      named: false,
+      handovers: [
+        { first: { switch: 'a', event: 'off' }, then: { switch: 'b', event: 'on' } },
+        { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } },
+      ],
+    });
     expect(bbm.parts).toEqual([
       { margin: handoverGap(a, b, period) - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 },
       { margin: handoverGap(b, a, period) - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 },

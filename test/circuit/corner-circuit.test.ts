@@ -1,10 +1,32 @@
 import { describe, expect, it } from 'vitest';
 import { cli, design } from '../helpers.js';
 
-interface Corner { name: string; circuit?: { output: number; ripple: number; lostCharge: number; reverseCharge: number; outputResistance: number; slowLimit: number; startupCycles: number | null }; checks: { kind: string; pass: boolean }[] }
+interface Corner {
+  name: string;
+  circuit?: {
+    output: number;
+    ripple: number;
+    lostCharge: number;
+    reverseCharge: number;
+    outputResistance: number;
+    slowLimit: number;
+    startupCycles: number | null;
+  };
+  checks: { kind: string; pass: boolean }[];
+}
 
 function corner(name: string, at: string): Corner {
-  const run = cli('check', design(name), '--json', '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]');
+  const run = cli(
+    'check',
+    design(name),
+    '--json',
+    '--set',
+    'corners.process=[tt]',
+    '--set',
+    'corners.vdd=[1.8V]',
+    '--set',
+    'corners.temperature=[27]',
+  );
   const report = JSON.parse(run.stdout) as { corners: Corner[] };
   return report.corners.find((c) => c.name === at)!;
 }
@@ -30,7 +52,9 @@ describe('CircuitEvaluator.evaluate', () => {
     expect(bad.circuit!.reverseCharge).toBeGreaterThan(5e-12);
     expect(bad.checks.find((k) => k.kind === 'output-min')!.pass).toBe(false);
     expect(bad.checks.find((k) => k.kind === 'lost-charge-max')!.pass).toBe(false);
-    expect(good.checks.filter((k) => k.kind.startsWith('output') || k.kind.endsWith('-max') || k.kind === 'efficiency-min').every((k) => k.pass)).toBe(true);
+    expect(
+      good.checks.filter((k) => k.kind.startsWith('output') || k.kind.endsWith('-max') || k.kind === 'efficiency-min').every((k) => k.pass),
+    ).toBe(true);
   });
 
   it('check of the unboosted pump collapses below its output minimum at every corner: s_out has no overdrive with the top plate clamped near VDD + |V_TP|', () => {
@@ -56,7 +80,16 @@ describe('CircuitEvaluator.evaluate', () => {
   });
 
   it('check prints the per-corner circuit figures table when the design has a circuit', () => {
-    const run = cli('check', design('doubler-pump'), '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]');
+    const run = cli(
+      'check',
+      design('doubler-pump'),
+      '--set',
+      'corners.process=[tt]',
+      '--set',
+      'corners.vdd=[1.8V]',
+      '--set',
+      'corners.temperature=[27]',
+    );
     expect(run.code).toBe(0);
     expect(run.stdout).toMatch(/circuit figures/);
     expect(run.stdout).toMatch(/tt\/1\.8V\/27C\s+3\.3\d V/);

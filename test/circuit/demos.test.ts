@@ -1,11 +1,32 @@
 import { describe, expect, it } from 'vitest';
 import { cli, design, expectClose } from '../helpers.js';
 
-interface Circuit { output: number; ripple: number; slowLimit: number; efficiency: number; lostCharge: number; startupCycles: number }
-interface Corner { name: string; circuit: Circuit; checks: { kind: string; pass: boolean; margin: number | null }[] }
+interface Circuit {
+  output: number;
+  ripple: number;
+  slowLimit: number;
+  efficiency: number;
+  lostCharge: number;
+  startupCycles: number;
+}
+interface Corner {
+  name: string;
+  circuit: Circuit;
+  checks: { kind: string; pass: boolean; margin: number | null }[];
+}
 
 function tt(name: string): Corner {
-  const run = cli('check', design(name), '--json', '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]');
+  const run = cli(
+    'check',
+    design(name),
+    '--json',
+    '--set',
+    'corners.process=[tt]',
+    '--set',
+    'corners.vdd=[1.8V]',
+    '--set',
+    'corners.temperature=[27]',
+  );
   return (JSON.parse(run.stdout) as { corners: Corner[] }).corners[0]!;
 }
 
@@ -21,14 +42,14 @@ describe('the circuit demos at tt/1.8V/27C', () => {
     expectClose(c.slowLimit, 3 / (20e6 * 5e-12), 0.005);
     expect(c.startupCycles).toBe(145);
     // the ideal figure with 10 fF of node wiring against 5 pF: 4 (VDD - V_d) - 3 I/(f C) = 4.6 V; R_on and the diodes' 400 ohm take the rest
-    expect(4 * (1.8 - 0.5) - 3 * 20e-6 / (20e6 * 5e-12) - c.output).toBeGreaterThan(0);
-    expect(4 * (1.8 - 0.5) - 3 * 20e-6 / (20e6 * 5e-12) - c.output).toBeLessThan(0.02);
+    expect(4 * (1.8 - 0.5) - (3 * 20e-6) / (20e6 * 5e-12) - c.output).toBeGreaterThan(0);
+    expect(4 * (1.8 - 0.5) - (3 * 20e-6) / (20e6 * 5e-12) - c.output).toBeLessThan(0.02);
   });
 
-  it('check of negative-pump gives -1.569 V at 30 uA: -VDD C/(C + C_bp) + I R_out, the bottom plate\'s parasitic on the pumped plate', () => {
+  it("check of negative-pump gives -1.569 V at 30 uA: -VDD C/(C + C_bp) + I R_out, the bottom plate's parasitic on the pumped plate", () => {
     const c = tt('negative-pump').circuit;
     expectClose(c.output, -1.568551, PIN);
-    expectClose(c.ripple, 12.660e-3, 1e-3);
+    expectClose(c.ripple, 12.66e-3, 1e-3);
     expectClose(c.efficiency, 0.229049, PIN);
     // slow-switching limit 1/(f C) = 5 kohm, less the 5 % bottom-plate share
     expectClose(c.slowLimit, 4780.7, 1e-3);
@@ -39,12 +60,12 @@ describe('the circuit demos at tt/1.8V/27C', () => {
     const k = tt('negative-pump').checks;
     // -0.85 VDD = -1.53 V against -1.5686 V at 30 uA; -VDD = -1.8 V against -1.6646 V at 10 uA
     expectClose(k.find((x) => x.kind === 'output-max')!.margin!, -0.85 * 1.8 + 1.568551, 1e-3);
-    expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.66460 + 1.8, 1e-3);
+    expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.6646 + 1.8, 1e-3);
   });
 
   it('check of sc-integrator-path settles at Vin f Cs R / (1 + f Cs R) = 1.25 V and R_SSL = 1/(f Cs) = 40 kohm', () => {
     const c = tt('sc-integrator-path').circuit;
-    expectClose(c.output, 1.3 * 25 / 26, 2e-4);
+    expectClose(c.output, (1.3 * 25) / 26, 2e-4);
     expectClose(c.output, 1.249887, PIN);
     expectClose(c.ripple, 5.643e-3, 1e-3);
     expectClose(c.slowLimit, 1 / (50e6 * 0.5e-12), 0.002);

@@ -29,7 +29,12 @@ describe('circuitFigures', () => {
   });
 
   it('circuitFigures of an ideal negative pump meets -VDD + I/(f C) within 1 %', () => {
-    const f = circuitFigures(idealNegativePump({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1 }), { current: I, conductance: 0 }, 0, 20000);
+    const f = circuitFigures(
+      idealNegativePump({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1 }),
+      { current: I, conductance: 0 },
+      0,
+      20000,
+    );
     expect(f.output).toBeLessThan(0);
     expect(f.loadCurrent).toBeLessThan(0);
     expectClose(f.output, -VDD + I / (F * C), 0.01);
@@ -37,12 +42,22 @@ describe('circuitFigures', () => {
 
   it('circuitFigures of a 3-stage Dickson pump with ideal diodes meets VDD + N (VDD C/(C+Cs) - I/(f (C+Cs))) within 1 % (Dickson 1976, IEEE JSSC 11(3), eq. 7 with V_d = 0)', () => {
     const cs = 1e-12;
-    const f = circuitFigures(idealDickson({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1, cs }, 3, 0, 1), { current: I, conductance: 0 }, 0, 20000);
-    const expected = VDD + 3 * (VDD * C / (C + cs) - I / (F * (C + cs)));
+    const f = circuitFigures(
+      idealDickson({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1, cs }, 3, 0, 1),
+      { current: I, conductance: 0 },
+      0,
+      20000,
+    );
+    const expected = VDD + 3 * ((VDD * C) / (C + cs) - I / (F * (C + cs)));
     expectClose(f.output, expected, 0.01);
     // With Cs = 0 this is the (N + 1) VDD - N I/(f C) form.
-    const bare = circuitFigures(idealDickson({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1 }, 3, 0, 1), { current: I, conductance: 0 }, 0, 20000);
-    expectClose(bare.output, 4 * VDD - 3 * I / (F * C), 0.01);
+    const bare = circuitFigures(
+      idealDickson({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 1 }, 3, 0, 1),
+      { current: I, conductance: 0 },
+      0,
+      20000,
+    );
+    expectClose(bare.output, 4 * VDD - (3 * I) / (F * C), 0.01);
   });
 
   it('circuitFigures of a Dickson pump with 0.5 V diode drops loses one drop per diode (Dickson 1976, eq. 7)', () => {
@@ -51,7 +66,12 @@ describe('circuitFigures', () => {
   });
 
   it('circuitFigures counts shoot-through charge only when the phases overlap', () => {
-    const clean = circuitFigures(idealDoubler({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 20, dead: 1e-9 }), { current: I, conductance: 0 }, 0, 20000);
+    const clean = circuitFigures(
+      idealDoubler({ vdd: VDD, frequency: F, c: C, cout: 1e-9, ron: 20, dead: 1e-9 }),
+      { current: I, conductance: 0 },
+      0,
+      20000,
+    );
     expect(clean.shootThroughCharge).toBe(0);
     expect(clean.efficiency!).toBeGreaterThan(0.5);
     expect(clean.efficiency!).toBeLessThanOrEqual(1);

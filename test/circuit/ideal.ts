@@ -20,8 +20,16 @@ export interface IdealOptions {
 const NODE_C = 1e-15;
 const LEAK = 1e-12;
 
-function model(nodes: string[], rails: number[], caps: Capacitor[], switches: ModelSwitch[], diodes: ModelDiode[],
-  phases: [number[], number[]], o: IdealOptions, output: number): CircuitModel {
+function model(
+  nodes: string[],
+  rails: number[],
+  caps: Capacitor[],
+  switches: ModelSwitch[],
+  diodes: ModelDiode[],
+  phases: [number[], number[]],
+  o: IdealOptions,
+  output: number,
+): CircuitModel {
   const n = nodes.length;
   const all = [...caps, ...nodes.map((_, i) => ({ a: i, b: n, value: NODE_C }))];
   const period = 1 / o.frequency;
@@ -34,8 +42,18 @@ function model(nodes: string[], rails: number[], caps: Capacitor[], switches: Mo
     { duration: dead, on: state([]) },
   ].filter((i) => i.duration > 0);
   return {
-    nodes, rails: Float64Array.from(rails), inverseCapacitance: invertCapacitance(capacitanceMatrix(n, all), n)!,
-    intervals, start: 0, switches, channels: [], diodes, pairs: [], output, loadCurrent: 0, loadConductance: 0,
+    nodes,
+    rails: Float64Array.from(rails),
+    inverseCapacitance: invertCapacitance(capacitanceMatrix(n, all), n)!,
+    intervals,
+    start: 0,
+    switches,
+    channels: [],
+    diodes,
+    pairs: [],
+    output,
+    loadCurrent: 0,
+    loadConductance: 0,
   };
 }
 
@@ -44,15 +62,51 @@ const sw = (name: string, a: number, b: number, ron: number): ModelSwitch => ({ 
 /** Voltage doubler: top 0, bottom 1, out 2; ground 3, vdd 4. Phase 1 charges C to VDD, phase 2 stacks it on VDD. */
 export function idealDoubler(o: IdealOptions): CircuitModel {
   const switches = [sw('s_gnd', 1, 3, o.ron), sw('s_chg', 4, 0, o.ron), sw('s_vdd', 4, 1, o.ron), sw('s_out', 0, 2, o.ron)];
-  const caps = [{ a: 0, b: 1, value: o.c }, { a: 2, b: 3, value: o.cout }];
-  return { ...model(['top', 'bottom', 'out'], [0, o.vdd], caps, switches, [], [[0, 1], [2, 3]], o, 2), pairs: [[0, 2], [1, 3]] };
+  const caps = [
+    { a: 0, b: 1, value: o.c },
+    { a: 2, b: 3, value: o.cout },
+  ];
+  return {
+    ...model(
+      ['top', 'bottom', 'out'],
+      [0, o.vdd],
+      caps,
+      switches,
+      [],
+      [
+        [0, 1],
+        [2, 3],
+      ],
+      o,
+      2,
+    ),
+    pairs: [
+      [0, 2],
+      [1, 3],
+    ],
+  };
 }
 
 /** Negative pump: top 0, bottom 1, out 2. Phase 1 charges C to VDD, phase 2 grounds the top and hands the bottom (-VDD) to the output. */
 export function idealNegativePump(o: IdealOptions): CircuitModel {
   const switches = [sw('s_chg', 4, 0, o.ron), sw('s_gnd', 1, 3, o.ron), sw('s_top', 0, 3, o.ron), sw('s_out', 1, 2, o.ron)];
-  const caps = [{ a: 0, b: 1, value: o.c }, { a: 2, b: 3, value: o.cout }];
-  return model(['top', 'bottom', 'out'], [0, o.vdd], caps, switches, [], [[0, 1], [2, 3]], o, 2);
+  const caps = [
+    { a: 0, b: 1, value: o.c },
+    { a: 2, b: 3, value: o.cout },
+  ];
+  return model(
+    ['top', 'bottom', 'out'],
+    [0, o.vdd],
+    caps,
+    switches,
+    [],
+    [
+      [0, 1],
+      [2, 3],
+    ],
+    o,
+    2,
+  );
 }
 
 /**
@@ -75,6 +129,23 @@ export function idealDickson(o: IdealOptions, stages: number, drop: number, rdio
   for (let i = 0; i <= stages; i++) {
     diodes.push({ name: `d${i + 1}`, a: i === 0 ? vdd : i - 1, b: i === stages ? out : i, drop, gOn: 1 / rdiode, gOff: LEAK });
   }
-  const switches = [sw('a_low', pa, ground, o.ron), sw('a_high', vdd, pa, o.ron), sw('b_high', vdd, pb, o.ron), sw('b_low', pb, ground, o.ron)];
-  return model(nodes, [0, o.vdd], caps, switches, diodes, [[0, 2], [1, 3]], o, out);
+  const switches = [
+    sw('a_low', pa, ground, o.ron),
+    sw('a_high', vdd, pa, o.ron),
+    sw('b_high', vdd, pb, o.ron),
+    sw('b_low', pb, ground, o.ron),
+  ];
+  return model(
+    nodes,
+    [0, o.vdd],
+    caps,
+    switches,
+    diodes,
+    [
+      [0, 2],
+      [1, 3],
+    ],
+    o,
+    out,
+  );
 }

@@ -22,11 +22,22 @@ function tied(rail: number): CircuitModel {
   const inverseCapacitance = invertCapacitance(capacitanceMatrix(1, [{ a: 0, b: 1, value: 1e-12 }]), 1)!;
   const onConductance = onConductanceOf(plan, { devices }, undefined);
   return {
-    nodes: ['x'], rails: Float64Array.from([0, rail]), inverseCapacitance,
-    intervals: [{ duration: 25e-9, on: Uint8Array.of(1) }, { duration: 25e-9, on: Uint8Array.of(1) }], start: 0,
+    nodes: ['x'],
+    rails: Float64Array.from([0, rail]),
+    inverseCapacitance,
+    intervals: [
+      { duration: 25e-9, on: Uint8Array.of(1) },
+      { duration: 25e-9, on: Uint8Array.of(1) },
+    ],
+    start: 0,
     // gOn, the first guess, says it conducts (100 ohm)
     switches: [{ name: 's_gnd', a: 2, b: 0, gOn: 1e-2, gOff: LEAK, onConductance }],
-    channels: [], diodes: [], pairs: [], output: 0, loadCurrent: 0, loadConductance: 0,
+    channels: [],
+    diodes: [],
+    pairs: [],
+    output: 0,
+    loadCurrent: 0,
+    loadConductance: 0,
   };
 }
 
@@ -40,7 +51,7 @@ describe('solveDriven', () => {
     expectClose(s.trace.outputMean, 2 * VDD, 1e-9);
   });
 
-  it('solveDriven gives the same nmos on a node at 0 V the switch physics\' R_on at a 0 V source', () => {
+  it("solveDriven gives the same nmos on a node at 0 V the switch physics' R_on at a 0 V source", () => {
     const s = solveDriven(tied(0));
     expect(s.state.method).toBe('direct');
     const ron = onResistanceAt(plan, devices, 0);

@@ -4,9 +4,18 @@ import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { cli, design, processCard, ROOT, tempDir, withoutStamp } from '../helpers.js';
 
-interface JsonCheck { kind: string; name: string; margin: number | null; pass: boolean }
+interface JsonCheck {
+  kind: string;
+  name: string;
+  margin: number | null;
+  pass: boolean;
+}
 interface JsonCorner {
-  name: string; process: string; vdd: number; temperature: number; duty: number;
+  name: string;
+  process: string;
+  vdd: number;
+  temperature: number;
+  duty: number;
   deadTimes: Array<{ from: string; to: string; t50: number; gap: number }>;
   widths: Record<string, number>;
   checks: JsonCheck[];
@@ -37,7 +46,8 @@ describe('phasegap check --json', () => {
   it('lists every corner of the product with its process, supply (V), temperature (C) and duty', () => {
     expect(json.corners).toHaveLength(45);
     const expected: string[] = [];
-    for (const p of ['tt', 'ss', 'ff', 'fs', 'sf']) for (const v of ['1.62V', '1.8V', '1.98V']) for (const t of ['-40C', '27C', '125C']) expected.push(`${p}/${v}/${t}`);
+    for (const p of ['tt', 'ss', 'ff', 'fs', 'sf'])
+      for (const v of ['1.62V', '1.8V', '1.98V']) for (const t of ['-40C', '27C', '125C']) expected.push(`${p}/${v}/${t}`);
     expect(json.corners.map((c) => c.name)).toEqual(expected);
     const c = json.corners.find((x) => x.name === 'ss/1.62V/125C')!;
     expect([c.process, c.vdd, c.temperature, c.duty]).toEqual(['ss', 1.62, 125, 0.5]);
@@ -45,7 +55,10 @@ describe('phasegap check --json', () => {
 
   it('gives both dead times per corner in seconds, the clean gap below the 50 % dead time', () => {
     for (const c of json.corners) {
-      expect(c.deadTimes.map((d) => [d.from, d.to])).toEqual([['p1', 'p2'], ['p2', 'p1']]);
+      expect(c.deadTimes.map((d) => [d.from, d.to])).toEqual([
+        ['p1', 'p2'],
+        ['p2', 'p1'],
+      ]);
       for (const d of c.deadTimes) {
         // SI seconds: a dead time of this generator is between 100 ps and 10 ns, never ps-valued numbers.
         expect(d.t50).toBeGreaterThan(100e-12);
@@ -102,7 +115,7 @@ describe('phasegap check --json', () => {
 });
 
 describe('phasegap check exit codes', () => {
-  it('passes sc-integrator (exit 0) and reports its early phases\' widths', () => {
+  it("passes sc-integrator (exit 0) and reports its early phases' widths", () => {
     const { code, json } = report('sc-integrator');
     expect(code).toBe(0);
     expect(json.verdict).toBe('pass');
@@ -128,10 +141,20 @@ describe('phasegap check exit codes', () => {
 describe('phasegap check on a generator that never settles', () => {
   function netlistDesign(name: string, phases: string, gates: string[]): string {
     const path = join(tempDir(), `${name}.yaml`);
-    writeFileSync(path, [
-      `name: ${name}`, `process: ${JSON.stringify(processCard('generic180'))}`, 'clock: { frequency: 1MHz }',
-      'generator:', '  template: netlist', `  phases: ${phases}`, '  gates:', ...gates.map((g) => `    - ${g}`), '',
-    ].join('\n'));
+    writeFileSync(
+      path,
+      [
+        `name: ${name}`,
+        `process: ${JSON.stringify(processCard('generic180'))}`,
+        'clock: { frequency: 1MHz }',
+        'generator:',
+        '  template: netlist',
+        `  phases: ${phases}`,
+        '  gates:',
+        ...gates.map((g) => `    - ${g}`),
+        '',
+      ].join('\n'),
+    );
     return path;
   }
 
@@ -223,7 +246,11 @@ describe('the compiled binary', () => {
 });
 
 describe('phasegap check: switch terminals', () => {
-  interface BiasCheck extends JsonCheck { switch?: string; phase?: string; detail?: string }
+  interface BiasCheck extends JsonCheck {
+    switch?: string;
+    phase?: string;
+    detail?: string;
+  }
 
   it('exits 1 on doubler-unboosted.yaml with an off-state failure on s_chg in phase 2 that names reverse conduction', () => {
     const run = cli('check', design('doubler-unboosted'), '--json');
@@ -261,8 +288,10 @@ describe('phasegap check: switch terminals', () => {
   it('warns in the text and the JSON when a switch uses the older signal form', () => {
     const dir = tempDir();
     const file = join(dir, 'old.yaml');
-    const text = readFileSync(design('too-tight'), 'utf8').replace(/nodes:[\s\S]*?switches:/, 'switches:')
-      .replace('terminals: [lv, 0V]', 'signal: 0V').replace('terminals: [2vdd, hv]', 'signal: 2vdd')
+    const text = readFileSync(design('too-tight'), 'utf8')
+      .replace(/nodes:[\s\S]*?switches:/, 'switches:')
+      .replace('terminals: [lv, 0V]', 'signal: 0V')
+      .replace('terminals: [2vdd, hv]', 'signal: 2vdd')
       .replace('../processes/', `${processCard('generic180').replace(/generic180\.yaml$/, '')}`);
     writeFileSync(file, text);
     const run = cli('check', file);

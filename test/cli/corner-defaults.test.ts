@@ -9,9 +9,12 @@ describe('namesCorner', () => {
     expect(namesCorner(text, corner)).toBe(true);
   });
 
-  it.each(['ss/1.8V/27C', 'tt/1.62V/27C', 'tt/1.8V/-40C', 'tt/1.8V', 'tt/1.8V/27C/duty0.5', 'tt/fast/27C', 'tt/1.8V/27C/x/y'])('does not read %j as tt/1.8V/27C', (text) => {
-    expect(namesCorner(text, corner)).toBe(false);
-  });
+  it.each(['ss/1.8V/27C', 'tt/1.62V/27C', 'tt/1.8V/-40C', 'tt/1.8V', 'tt/1.8V/27C/duty0.5', 'tt/fast/27C', 'tt/1.8V/27C/x/y'])(
+    'does not read %j as tt/1.8V/27C',
+    (text) => {
+      expect(namesCorner(text, corner)).toBe(false);
+    },
+  );
 
   it('needs the duty of a corner whose name carries one', () => {
     const withDuty = { ...corner, name: 'tt/1.8V/27C/duty0.47', duty: 0.47 };
@@ -27,7 +30,9 @@ describe('--corner spellings and defaults', () => {
     expect(draw.code).toBe(0);
     expect(draw.stdout).toContain('tt/1.8V/27C');
     const waves = cli('waves', design('doubler'), '--corner', 'TT/1.80V/27C', '-o', '-');
-    expect(withoutRunRecord(waves.stdout)).toBe(withoutRunRecord(cli('waves', design('doubler'), '--corner', 'tt/1.8V/27C', '-o', '-').stdout));
+    expect(withoutRunRecord(waves.stdout)).toBe(
+      withoutRunRecord(cli('waves', design('doubler'), '--corner', 'tt/1.8V/27C', '-o', '-').stdout),
+    );
     const spice = cli('spice', design('doubler'), '--corner', 'TT/1.80V/27C');
     expect(withoutRunRecord(spice.stdout)).toBe(withoutRunRecord(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C').stdout));
   });

@@ -40,7 +40,20 @@ describe('runDecksWithProgress through confirm and characterize', () => {
 
   it('characterize counts the corners it has characterized on a terminal', () => {
     const out = join(tempDir(), 't.json');
-    const run = onTerminal('characterize', processCard('generic180'), '--corners', corners, '--cells', 'INV', '--grid', 'coarse', '--jobs', '2', '-o', out);
+    const run = onTerminal(
+      'characterize',
+      processCard('generic180'),
+      '--corners',
+      corners,
+      '--cells',
+      'INV',
+      '--grid',
+      'coarse',
+      '--jobs',
+      '2',
+      '-o',
+      out,
+    );
     expect(run.code).toBe(0);
     expect(run.text).toMatch(/characterize .* 50% \| 1\/2 \|/);
     expect(run.text).toContain('characterized 2 corners with ngspice');

@@ -42,11 +42,15 @@ describe('every shipped demo design', () => {
     ['dickson-pump', 0, null],
     ['negative-pump', 0, null],
     ['sc-integrator-path', 0, null],
-  ] as const)('%s exits %i', (name, code, kind) => {
-    const run = cli('check', design(name), '--json');
-    expect(run.code).toBe(code);
-    const report = JSON.parse(run.stdout) as { verdict: string; limiting?: { kind: string } | null };
-    expect(report.verdict).toBe(code === 0 ? 'pass' : 'fail');
-    if (kind !== null) expect(report.limiting?.kind).toBe(kind);
-  }, 600_000); // dickson-pump solves four diodes at 45 corners: about 25 s of CPU, minutes on a loaded machine
+  ] as const)(
+    '%s exits %i',
+    (name, code, kind) => {
+      const run = cli('check', design(name), '--json');
+      expect(run.code).toBe(code);
+      const report = JSON.parse(run.stdout) as { verdict: string; limiting?: { kind: string } | null };
+      expect(report.verdict).toBe(code === 0 ? 'pass' : 'fail');
+      if (kind !== null) expect(report.limiting?.kind).toBe(kind);
+    },
+    600_000,
+  ); // dickson-pump solves four diodes at 45 corners: about 25 s of CPU, minutes on a loaded machine
 });

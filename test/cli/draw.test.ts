@@ -17,7 +17,16 @@ describe('phasegap draw', () => {
   });
 
   it('draws a named corner, applies --set, and exits 1 when that corner fails', async () => {
-    const run = await cliAsync('draw', design('doubler'), '--corner', 'ff/1.98V/-40C', '--set', 'requirements.deadTime.min=1100ps', '-o', '-');
+    const run = await cliAsync(
+      'draw',
+      design('doubler'),
+      '--corner',
+      'ff/1.98V/-40C',
+      '--set',
+      'requirements.deadTime.min=1100ps',
+      '-o',
+      '-',
+    );
     expect(run.code).toBe(1);
     const svg = parseSvg(run.stdout);
     expect(all(svg, 'text.verdict')[0]!.textContent).toBe('\u2715 FAIL');
@@ -63,8 +72,20 @@ describe('phasegap draw', () => {
   it('stays bounded when the clock transition is far longer than the period (1 s at 20 MHz), within a 512 MB heap', () => {
     const dir = tempDir();
     const file = join(dir, 'slow.svg');
-    const r = spawnSync(process.execPath, ['--max-old-space-size=512', join(ROOT, 'dist/src/cli/main.js'), 'draw', design('doubler'),
-      '--set', 'clock.transition=1s', '-o', file], { encoding: 'utf8', timeout: 30_000 });
+    const r = spawnSync(
+      process.execPath,
+      [
+        '--max-old-space-size=512',
+        join(ROOT, 'dist/src/cli/main.js'),
+        'draw',
+        design('doubler'),
+        '--set',
+        'clock.transition=1s',
+        '-o',
+        file,
+      ],
+      { encoding: 'utf8', timeout: 30_000 },
+    );
     expect(r.signal).toBeNull();
     if (r.status === 2) {
       expect(r.stderr).toContain('clock.transition');
@@ -74,4 +95,3 @@ describe('phasegap draw', () => {
     }
   }, 40_000);
 });
-

@@ -24,7 +24,8 @@ describe('findFmax margins', () => {
   it('gives the margins check finds at those two frequencies', () => {
     type Report = { corners: Array<{ name: string; checks: Array<{ name: string; margin: number | null }> }> };
     const at = (f: number) => JSON.parse(cli('check', design('doubler'), '--json', '--set', `clock.frequency=${f}Hz`).stdout) as Report;
-    const marginOf = (rep: Report, corner: string, check: string) => rep.corners.find((c) => c.name === corner)!.checks.find((c) => c.name === check)!.margin;
+    const marginOf = (rep: Report, corner: string, check: string) =>
+      rep.corners.find((c) => c.name === corner)!.checks.find((c) => c.name === check)!.margin;
     expect(marginOf(at(r.fmax!), r.atFmax!.corner, r.atFmax!.check)).toBeCloseTo(r.atFmax!.margin!, 15);
     expect(marginOf(at(r.probeFrequency!), r.limiting!.corner, r.limiting!.check)).toBeCloseTo(r.limiting!.margin!, 15);
   });

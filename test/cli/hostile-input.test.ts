@@ -41,7 +41,9 @@ function refused(run: CliRun): string {
 describe('YAML aliases', () => {
   it('refuses an alias with no anchor, naming the file, line and column', () => {
     const path = write('alias.yaml', 'name: x\nclock: *nope\n');
-    expect(refused(cli('check', path))).toBe(`phasegap: error: ${path}: is not valid YAML or JSON at line 2, column 8: alias *nope has no anchor of that name before it\n`);
+    expect(refused(cli('check', path))).toBe(
+      `phasegap: error: ${path}: is not valid YAML or JSON at line 2, column 8: alias *nope has no anchor of that name before it\n`,
+    );
   });
 
   it('refuses an alias bomb (nine levels of ten aliases: 10^9 nodes) before expanding it', () => {
@@ -60,7 +62,9 @@ describe('YAML aliases', () => {
 describe('duplicate keys', () => {
   it('names the line and column of a repeated YAML key', () => {
     const path = write('dup.yaml', 'name: a\nclock:\n  duty: 0.5\n  duty: 0.4\n');
-    expect(refused(cli('check', path))).toContain(`${path}: is not valid YAML or JSON at line 4, column 3: duplicate key "duty" in one mapping`);
+    expect(refused(cli('check', path))).toContain(
+      `${path}: is not valid YAML or JSON at line 4, column 3: duplicate key "duty" in one mapping`,
+    );
   });
 
   it('names the line and column of a repeated JSON key', () => {
@@ -72,7 +76,9 @@ describe('duplicate keys', () => {
 describe('size and shape limits', () => {
   it('refuses a YAML design larger than 1 MiB before parsing it', () => {
     const path = write('big.yaml', `name: x\n${'# padding\n'.repeat(110_000)}`);
-    expect(refused(cli('check', path))).toContain(`DESIGN: "${path}" is larger than 1 MiB, the limit for a YAML design or process card (a JSON one may have 16 MiB)`);
+    expect(refused(cli('check', path))).toContain(
+      `DESIGN: "${path}" is larger than 1 MiB, the limit for a YAML design or process card (a JSON one may have 16 MiB)`,
+    );
   });
 
   it('refuses a mapping of 20000 keys, naming the field and the limit of 10000', () => {
@@ -89,14 +95,26 @@ describe('size and shape limits', () => {
 
   it.each([
     ['corners.vdd', { corners: { vdd: Array.from({ length: 1001 }, () => '1.8V') } }, 'corners.vdd: has 1001 items; at most 1000 allowed'],
-    ['switches', { switches: Array.from({ length: 1001 }, (_, i) => ({ name: `s${i}`, type: 'nmos', w: '1um', l: '1um', gate: 'p1' })), constraints: {} }, 'switches: has 1001 items; at most 1000 allowed'],
+    [
+      'switches',
+      {
+        switches: Array.from({ length: 1001 }, (_, i) => ({ name: `s${i}`, type: 'nmos', w: '1um', l: '1um', gate: 'p1' })),
+        constraints: {},
+      },
+      'switches: has 1001 items; at most 1000 allowed',
+    ],
   ])('refuses %s beyond its schema bound', (_field, edit, expected) => {
     const path = write('long.json', JSON.stringify({ ...demo(), ...edit }));
     expect(refused(cli('check', path))).toContain(expected);
   });
 
   it('refuses a netlist of 6000 gates, naming the limit of 5000', () => {
-    const gates = Array.from({ length: 6000 }, (_, i) => ({ name: `u${i}`, cell: 'INV', inputs: [i === 0 ? 'clk' : `n${i - 1}`], output: `n${i}` }));
+    const gates = Array.from({ length: 6000 }, (_, i) => ({
+      name: `u${i}`,
+      cell: 'INV',
+      inputs: [i === 0 ? 'clk' : `n${i - 1}`],
+      output: `n${i}`,
+    }));
     const path = write('gates.json', JSON.stringify({ ...demo(), generator: { template: 'netlist', phases: ['n1', 'n2'], gates } }));
     expect(refused(cli('check', path))).toContain('generator.gates: has 6000 items; at most 5000 allowed');
   });
@@ -109,7 +127,10 @@ describe('size and shape limits', () => {
   });
 
   it('refuses nesting deeper than 32 levels', () => {
-    const path = write('deep.json', JSON.stringify({ ...demo(), description: JSON.parse(`${'['.repeat(40)}${']'.repeat(40)}`) as unknown }));
+    const path = write(
+      'deep.json',
+      JSON.stringify({ ...demo(), description: JSON.parse(`${'['.repeat(40)}${']'.repeat(40)}`) as unknown }),
+    );
     const stderr = refused(cli('check', path));
     expect(stderr).toMatch(/is not valid JSON at line 1, column \d+: nests deeper than 32 levels/);
   });
@@ -123,7 +144,9 @@ describe('size and shape limits', () => {
 describe('files that are not regular files', () => {
   it('refuses /dev/zero as a process card without reading it', () => {
     const path = designWithCard('/dev/zero');
-    expect(refused(cli('check', path))).toBe('phasegap: error: process: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n');
+    expect(refused(cli('check', path))).toBe(
+      'phasegap: error: process: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n',
+    );
   });
 
   it('refuses a named pipe as a design without waiting for a writer', () => {
@@ -148,13 +171,19 @@ describe('a foreign file named as a process card or table file', () => {
 
   it.each([
     ['shadow lines', SHADOW.join('\n'), ['Qw8r1xTz', 'Zk3p0lYHnq9', 'Mn2v8cQe', 'Yt7uR4wE1qP0', 'root', 'daemon', 'alice']],
-    ['a configuration mapping', 'user: alice\npassword: Zk3p0lYHnq9Tn0V1\nhost: db.internal\nname: prod\n', ['alice', 'password', 'Zk3p0lYHnq9', 'db.internal', 'prod']],
+    [
+      'a configuration mapping',
+      'user: alice\npassword: Zk3p0lYHnq9Tn0V1\nhost: db.internal\nname: prod\n',
+      ['alice', 'password', 'Zk3p0lYHnq9', 'db.internal', 'prod'],
+    ],
     ['a list', '- Zk3p0lYHnq9Tn0V1\n- Yt7uR4wE1qP0oI9u\n', ['Zk3p0lYHnq9', 'Yt7uR4wE1qP0']],
   ])('says %s is not a process card and repeats none of it', (_what, text, secrets) => {
     const card = write('card.yaml', `${text}\n`);
     const path = designWithCard(card);
     const stderr = refused(cli('check', path));
-    expect(stderr).toBe(`phasegap: error: ${card}: is not a process card (expected a mapping with keys name, description, t0, lmin, vddNominal, unit, n, p, avtConvention, corners, spice, tables); its content is not shown\n`);
+    expect(stderr).toBe(
+      `phasegap: error: ${card}: is not a process card (expected a mapping with keys name, description, t0, lmin, vddNominal, unit, n, p, avtConvention, corners, spice, tables); its content is not shown\n`,
+    );
     for (const secret of secrets) expect(stderr).not.toContain(secret);
   });
 
@@ -162,7 +191,9 @@ describe('a foreign file named as a process card or table file', () => {
     const card = write('card.yaml', `${SHADOW.map((l) => l.replace(':', ': ')).join('\n')}\n`);
     const path = designWithCard(card);
     const stderr = refused(cli('check', path));
-    expect(stderr).toBe(`phasegap: error: ${card}: is not valid YAML or JSON at line 1, column 7: block as implicit key (the file's text is not shown)\n`);
+    expect(stderr).toBe(
+      `phasegap: error: ${card}: is not valid YAML or JSON at line 1, column 7: block as implicit key (the file's text is not shown)\n`,
+    );
     for (const secret of ['Qw8r1xTz', 'Zk3p0lYHnq9', 'root', 'daemon', '19700']) expect(stderr).not.toContain(secret);
   });
 
@@ -185,32 +216,51 @@ describe('a foreign file named as a process card or table file', () => {
     const extra = ['aaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaa', 'b', 'c', 'd', 'e'].map((k) => `${k}: 1`).join('\n');
     const card = write('card.yaml', `${readFileSync(CARD, 'utf8')}\n${extra}\n`);
     const path = designWithCard(card);
-    expect(refused(cli('check', path))).toContain(`${card}: unknown keys "aaaaaaaaaaaaaaaaaaaaa...", "b", "c" and 2 more; allowed keys here are name,`);
+    expect(refused(cli('check', path))).toContain(
+      `${card}: unknown keys "aaaaaaaaaaaaaaaaaaaaa...", "b", "c" and 2 more; allowed keys here are name,`,
+    );
   });
 });
 
 describe('a foreign file named as the SPICE model file', () => {
   it('refuses a card whose spice.models is not a model file before ngspice can echo its lines, and names no line of it', () => {
     const shadow = write('shadow', 'root:$6$Qw8r1xTz$Zk3p0lYHnq9Tn0V1:19700:0:99999:7:::\nerror: Yt7uR4wE1qP0oI9u\n');
-    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^ {2}models: .*$/m, `  models: ${shadow}`).replace(/^tables: .*$/m, ''));
+    const card = write(
+      'card.yaml',
+      readFileSync(CARD, 'utf8')
+        .replace(/^ {2}models: .*$/m, `  models: ${shadow}`)
+        .replace(/^tables: .*$/m, ''),
+    );
     const path = designWithCard(card);
-    for (const command of [['spice', path, '--corner', 'tt/1.8V/27C', '--model', 'analytic'], ['confirm', path, '--corners', 'tt/1.8V/27C', '--model', 'analytic']]) {
+    for (const command of [
+      ['spice', path, '--corner', 'tt/1.8V/27C', '--model', 'analytic'],
+      ['confirm', path, '--corners', 'tt/1.8V/27C', '--model', 'analytic'],
+    ]) {
       const stderr = refused(cli(...command));
-      expect(stderr).toBe(`phasegap: error: process.spice.models: ${JSON.stringify(shadow)} is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown\n`);
+      expect(stderr).toBe(
+        `phasegap: error: process.spice.models: ${JSON.stringify(shadow)} is not a SPICE model file (it has no .model, .subckt or .lib line); its content is not shown\n`,
+      );
       for (const secret of ['Qw8r1xTz', 'Zk3p0lYHnq9', 'Yt7uR4wE1qP0']) expect(stderr).not.toContain(secret);
     }
   });
 
   it('refuses a card whose device model is not defined in its model file (ngspice would stop on the deck)', () => {
     const models = write('models.lib', '* two models\n.model nch nmos level=1\n.model pch pmos level=1\n');
-    const card = write('card.yaml', readFileSync(CARD, 'utf8').replace(/^ {2}models: .*$/m, `  models: ${models}`).replace(/^ {2}p: pch$/m, '  p: Clk'));
-    expect(refused(cli('spice', designWithCard(card), '--corner', 'tt/1.8V/27C', '--model', 'analytic', '-o', join(tempDir(), 'x.cir'))))
-      .toBe(`phasegap: error: process.spice.p: "Clk" is not a model or subcircuit of ${models} (it defines nch, pch)\n`);
+    const card = write(
+      'card.yaml',
+      readFileSync(CARD, 'utf8')
+        .replace(/^ {2}models: .*$/m, `  models: ${models}`)
+        .replace(/^ {2}p: pch$/m, '  p: Clk'),
+    );
+    expect(
+      refused(cli('spice', designWithCard(card), '--corner', 'tt/1.8V/27C', '--model', 'analytic', '-o', join(tempDir(), 'x.cir'))),
+    ).toBe(`phasegap: error: process.spice.p: "Clk" is not a model or subcircuit of ${models} (it defines nch, pch)\n`);
   });
 
   it('refuses --models on a device', () => {
-    expect(refused(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--models', '/dev/zero')))
-      .toBe('phasegap: error: --models: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n');
+    expect(refused(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--models', '/dev/zero'))).toBe(
+      'phasegap: error: --models: "/dev/zero" is not a regular file (it is a device, pipe or socket); phasegap reads only regular files\n',
+    );
   });
 });
 
@@ -219,17 +269,30 @@ describe('names that are built-in object members', () => {
 
   it.each(NAMES)('refuses %s as a process corner of the design', (name) => {
     const path = write('design.json', JSON.stringify({ ...demo(), corners: { process: [name] } }));
-    expect(refused(cli('check', path))).toBe(`phasegap: error: corners.process[0]: "${name}" is a reserved name (a built-in object member: constructor, prototype, __proto__, toString, ...); choose another name\n`);
+    expect(refused(cli('check', path))).toBe(
+      `phasegap: error: corners.process[0]: "${name}" is a reserved name (a built-in object member: constructor, prototype, __proto__, toString, ...); choose another name\n`,
+    );
   });
 
   it.each(NAMES)('refuses %s as a phase, a switch or a constraint name given with --set', (name) => {
-    for (const [set, at] of [[`generator.phases=[${name}, p2]`, 'generator.phases[0]'], [`switches[0].name=${name}`, 'switches[0].name'], [`constraints.breakBeforeMake[0].name=${name}`, 'constraints.breakBeforeMake[0].name']] as const) {
+    for (const [set, at] of [
+      [`generator.phases=[${name}, p2]`, 'generator.phases[0]'],
+      [`switches[0].name=${name}`, 'switches[0].name'],
+      [`constraints.breakBeforeMake[0].name=${name}`, 'constraints.breakBeforeMake[0].name'],
+    ] as const) {
       expect(refused(cli('check', design('doubler'), '--set', set))).toContain(`is refused at ${at}: it is a reserved name`);
     }
   });
 
   it.each(NAMES)('refuses a card that defines a corner named %s', (name) => {
-    const card = write('card.json', JSON.stringify({ ...(parseYaml(readFileSync(CARD, 'utf8')) as object), spice: undefined, corners: JSON.parse(`{"tt": {}, "${name}": {}}`) as unknown }));
+    const card = write(
+      'card.json',
+      JSON.stringify({
+        ...(parseYaml(readFileSync(CARD, 'utf8')) as object),
+        spice: undefined,
+        corners: JSON.parse(`{"tt": {}, "${name}": {}}`) as unknown,
+      }),
+    );
     expect(refused(cli('check', designWithCard(card)))).toContain(`corners.${name}: uses the reserved key "${name}"`);
   });
 
@@ -242,30 +305,40 @@ describe('names that are built-in object members', () => {
 });
 
 describe('--set', () => {
-  it.each(['__proto__.x=1', 'constructor.prototype.x=1', 'loads.__proto__.x=1', 'corners.prototype=1'])('refuses %s and pollutes no prototype', (set) => {
-    expect(refused(cli('check', design('doubler'), '--set', set))).toContain('names the reserved key');
-    expect(({} as Record<string, unknown>).x).toBeUndefined();
-  });
+  it.each(['__proto__.x=1', 'constructor.prototype.x=1', 'loads.__proto__.x=1', 'corners.prototype=1'])(
+    'refuses %s and pollutes no prototype',
+    (set) => {
+      expect(refused(cli('check', design('doubler'), '--set', set))).toContain('names the reserved key');
+      expect(({} as Record<string, unknown>).x).toBeUndefined();
+    },
+  );
 
   it('refuses a list index of 100000000 before it reaches the list', () => {
     const stderr = refused(cli('check', design('doubler'), '--set', 'corners.vdd[100000000]=1V'));
-    expect(stderr).toBe('phasegap: error: --set: "corners.vdd[100000000]=1V" has list index 100000000; a list holds at most 100000 items\n');
+    expect(stderr).toBe(
+      'phasegap: error: --set: "corners.vdd[100000000]=1V" has list index 100000000; a list holds at most 100000 items\n',
+    );
   });
 
   it('refuses an index more than one past the end of the list', () => {
-    expect(refused(cli('check', design('doubler'), '--set', 'corners.vdd[7]=1V')))
-      .toContain('sets item [7] of corners.vdd, which has 3 items; give an index from 0 to 3 (the last appends)');
+    expect(refused(cli('check', design('doubler'), '--set', 'corners.vdd[7]=1V'))).toContain(
+      'sets item [7] of corners.vdd, which has 3 items; give an index from 0 to 3 (the last appends)',
+    );
   });
 
   it('refuses a value with an alias bomb', () => {
     const bomb = `[${Array.from({ length: 8 }, (_, i) => `&a${i} [${i === 0 ? 'x, x, x, x, x, x, x, x, x, x' : Array.from({ length: 10 }, () => `*a${i - 1}`).join(', ')}]`).join(', ')}]`;
-    expect(refused(cli('check', design('doubler'), '--set', `description=${bomb}`))).toContain('has a value that is not a YAML scalar, list or mapping');
+    expect(refused(cli('check', design('doubler'), '--set', `description=${bomb}`))).toContain(
+      'has a value that is not a YAML scalar, list or mapping',
+    );
   });
 });
 
 describe('error output', () => {
   it('prints the first 20 problems and counts the rest', () => {
-    const stderr = refused(cli('check', design('doubler'), '--set', `corners.vdd=[${Array.from({ length: 30 }, () => 'fast').join(', ')}]`));
+    const stderr = refused(
+      cli('check', design('doubler'), '--set', `corners.vdd=[${Array.from({ length: 30 }, () => 'fast').join(', ')}]`),
+    );
     const lines = stderr.trimEnd().split('\n');
     expect(lines).toHaveLength(21);
     expect(lines[0]).toMatch(/^phasegap: error: corners\.vdd\[0\]: "fast"/);

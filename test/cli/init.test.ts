@@ -24,25 +24,28 @@ describe('phasegap init', () => {
     expect(readdirSync(dir)).toEqual(['design.yaml']);
   });
 
-  it.each(['nand', 'nor'] as const)('%s starter shows switches, break-before-make and settle checks, and its commented order example passes too', (template) => {
-    const out = join(tempDir(), 'design.yaml');
-    expect(cli('init', '--template', template, '-o', out).code).toBe(0);
-    type Report = { verdict: string; corners: Array<{ checks: Array<{ kind: string; name: string; pass: boolean }> }> };
-    const kinds = (file: string) => {
-      const report = JSON.parse(cli('check', file, '--json').stdout) as Report;
-      expect(report.verdict).toBe('pass');
-      return new Set(report.corners[0]!.checks.map((c) => c.kind));
-    };
-    const shown = kinds(out);
-    for (const kind of ['break-before-make', 'settle', 'off-state', 'on-state']) expect(shown).toContain(kind);
-    expect(shown).not.toContain('order');
-    const text = readFileSync(out, 'utf8');
-    expect(text).toMatch(/^ {2}settle: +# optional/m);
-    const uncommented = text.replace(/^ {2}# order:/m, '  order:').replace(/^ {2}# {3}- \{ first/m, '    - { first');
-    expect(uncommented).not.toBe(text);
-    writeFileSync(out, uncommented);
-    expect(kinds(out)).toContain('order');
-  });
+  it.each(['nand', 'nor'] as const)(
+    '%s starter shows switches, break-before-make and settle checks, and its commented order example passes too',
+    (template) => {
+      const out = join(tempDir(), 'design.yaml');
+      expect(cli('init', '--template', template, '-o', out).code).toBe(0);
+      type Report = { verdict: string; corners: Array<{ checks: Array<{ kind: string; name: string; pass: boolean }> }> };
+      const kinds = (file: string) => {
+        const report = JSON.parse(cli('check', file, '--json').stdout) as Report;
+        expect(report.verdict).toBe('pass');
+        return new Set(report.corners[0]!.checks.map((c) => c.kind));
+      };
+      const shown = kinds(out);
+      for (const kind of ['break-before-make', 'settle', 'off-state', 'on-state']) expect(shown).toContain(kind);
+      expect(shown).not.toContain('order');
+      const text = readFileSync(out, 'utf8');
+      expect(text).toMatch(/^ {2}settle: +# optional/m);
+      const uncommented = text.replace(/^ {2}# order:/m, '  order:').replace(/^ {2}# {3}- \{ first/m, '    - { first');
+      expect(uncommented).not.toBe(text);
+      writeFileSync(out, uncommented);
+      expect(kinds(out)).toContain('order');
+    },
+  );
 
   it('defaults to the nand template', () => {
     const out = join(tempDir(), 'd.yaml');
@@ -89,14 +92,20 @@ describe('phasegap init: nodes', () => {
   it('writes a starter that declares its nodes, wires every switch to two of them and gets no warning', () => {
     const out = join(tempDir(), 'design.yaml');
     expect(cli('init', '-o', out).code).toBe(0);
-    const parsed = parseYaml(readFileSync(out, 'utf8')) as { nodes: Record<string, unknown>; switches: Array<{ terminals?: unknown[]; signal?: unknown }> };
+    const parsed = parseYaml(readFileSync(out, 'utf8')) as {
+      nodes: Record<string, unknown>;
+      switches: Array<{ terminals?: unknown[]; signal?: unknown }>;
+    };
     expect(Object.keys(parsed.nodes)).toEqual(['vin', 'cs']);
     expect(parsed.switches.length).toBeGreaterThan(0);
     for (const s of parsed.switches) {
       expect(s.terminals).toHaveLength(2);
       expect(s.signal).toBeUndefined();
     }
-    const report = JSON.parse(cli('check', out, '--json').stdout) as { warnings: string[]; corners: Array<{ checks: Array<{ kind: string }> }> };
+    const report = JSON.parse(cli('check', out, '--json').stdout) as {
+      warnings: string[];
+      corners: Array<{ checks: Array<{ kind: string }> }>;
+    };
     expect(report.warnings).toEqual([]);
     expect(report.corners[0]!.checks.filter((c) => c.kind === 'off-state')).toHaveLength(parsed.switches.length);
   });

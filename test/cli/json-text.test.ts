@@ -41,6 +41,8 @@ describe('parseJsonText', () => {
   });
 
   it('does not repeat a duplicate key of a file it may not quote', () => {
-    expect(message('{"secret": 1, "secret": 2}', false)).toBe('f.json: is not valid JSON at line 1, column 15: duplicate key in one object; each key may appear once');
+    expect(message('{"secret": 1, "secret": 2}', false)).toBe(
+      'f.json: is not valid JSON at line 1, column 15: duplicate key in one object; each key may appear once',
+    );
   });
 });

@@ -18,7 +18,12 @@ describe('DESIGN - reads standard input', () => {
   });
 
   it.each([
-    ['fmax', []], ['draw', ['-o', '-']], ['waves', ['-o', '-']], ['spice', ['--corner', 'worst']], ['verilog', ['--corner', 'worst']], ['report', ['--no-fmax', '--no-tune', '-o', '-']],
+    ['fmax', []],
+    ['draw', ['-o', '-']],
+    ['waves', ['-o', '-']],
+    ['spice', ['--corner', 'worst']],
+    ['verilog', ['--corner', 'worst']],
+    ['report', ['--no-fmax', '--no-tune', '-o', '-']],
   ])('%s - reads it', async (command, args) => {
     const run = await cliWith({ readStdin: stdin(text) }, command, '-', ...args);
     expect(run.stderr).toBe('');
@@ -45,12 +50,22 @@ describe('DESIGN - reads standard input', () => {
     const big = `# ${'x'.repeat(MAX_DESIGN_BYTES.yaml)}\n${text}`;
     const over = await cliWith({ readStdin: stdin(big) }, 'check', '-');
     expect(over.code).toBe(2);
-    expect(over.stderr).toBe('phasegap: error: DESIGN: "-" (standard input) is larger than 1 MiB, the limit for a YAML design or process card (a JSON one may have 16 MiB)\n');
+    expect(over.stderr).toBe(
+      'phasegap: error: DESIGN: "-" (standard input) is larger than 1 MiB, the limit for a YAML design or process card (a JSON one may have 16 MiB)\n',
+    );
     const none = await cliWith({ readStdin: undefined }, 'check', '-');
     expect(none.code).toBe(2);
     expect(none.stderr).toMatch(/^phasegap: error: DESIGN: "-" means standard input, which this run does not have/);
     const { StdinError } = await import('../../src/cli/io.js');
-    const tty = await cliWith({ readStdin: () => { throw new StdinError('standard input is a terminal; pipe or redirect a design into it'); } }, 'check', '-');
+    const tty = await cliWith(
+      {
+        readStdin: () => {
+          throw new StdinError('standard input is a terminal; pipe or redirect a design into it');
+        },
+      },
+      'check',
+      '-',
+    );
     expect(tty.stderr).toBe('phasegap: error: DESIGN: "-" standard input is a terminal; pipe or redirect a design into it\n');
     const typo = await cliWith({ readStdin: stdin(text.replace('frequency:', 'frequncy:')) }, 'check', '-');
     expect(typo.code).toBe(2);

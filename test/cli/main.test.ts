@@ -21,7 +21,9 @@ describe('phasegap main', () => {
   it('ends quietly when the reader closes the pipe early, as head does', async () => {
     const child = spawn(process.execPath, [MAIN, 'check', design('doubler'), '--json'], { stdio: ['ignore', 'pipe', 'pipe'] });
     let stderr = '';
-    child.stderr.on('data', (d) => { stderr += String(d); });
+    child.stderr.on('data', (d) => {
+      stderr += String(d);
+    });
     child.stdout.once('data', () => child.stdout.destroy());
     const code = await new Promise<number | null>((resolve) => child.on('exit', resolve));
     expect(stderr).toBe('');

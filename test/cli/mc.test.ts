@@ -34,7 +34,9 @@ describe('phasegap mc verdict and JUnit', () => {
     expect(xml).toContain('<testcase classname="phasegap.mc.yield" name="yield at every corner">');
     expect(xml).toContain('<failure message="yield 77.5 % over 40 dies; every die must pass (no requirements.minYield)"/>');
     // 5 of the 40 dies break dead p1->p2 >= 964 ps at ff/1.98V/-40C (measured, seed 1).
-    expect(xml).toMatch(/<testcase classname="phasegap.mc.dead-time-min" name="dead p1->p2 >= 964 ps">\s*<failure message="8 of 40 dies fail it at ff\/1\.98V\/-40C"\/>/);
+    expect(xml).toMatch(
+      /<testcase classname="phasegap.mc.dead-time-min" name="dead p1->p2 >= 964 ps">\s*<failure message="8 of 40 dies fail it at ff\/1\.98V\/-40C"\/>/,
+    );
     expect(xml).toMatch(/<testcase classname="phasegap.mc.dead-time-max" name="dead p1->p2 &lt;= 4.00 ns">\s*<system-out>/);
   });
 });

@@ -11,7 +11,10 @@ import { InputError } from '../../src/errors.js';
 function designCopy(): { dir: string; file: string; text: string } {
   const dir = tempDir();
   const file = join(dir, 'd.yaml');
-  const text = readFileSync(design('doubler'), 'utf8').replace('process: ../processes/generic180.yaml', `process: ${processCard('generic180')}`);
+  const text = readFileSync(design('doubler'), 'utf8').replace(
+    'process: ../processes/generic180.yaml',
+    `process: ${processCard('generic180')}`,
+  );
   writeFileSync(file, text);
   return { dir, file, text };
 }
@@ -23,10 +26,16 @@ describe('-o onto something that is not a plain file', () => {
     writeFileSync(target, 'keep me\n');
     const link = join(dir, 'out.svg');
     symlinkSync(target, link);
-    for (const args of [['check', design('doubler')], ['draw', design('doubler')], ['sweep', design('doubler'), '--vary', 'vdd=1.8']]) {
+    for (const args of [
+      ['check', design('doubler')],
+      ['draw', design('doubler')],
+      ['sweep', design('doubler'), '--vary', 'vdd=1.8'],
+    ]) {
       const r = await cliAsync(...args, '-o', link);
       expect(r.code).toBe(2);
-      expect(r.stderr).toBe(`phasegap: error: --out: "${link}" is a symbolic link; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)\n`);
+      expect(r.stderr).toBe(
+        `phasegap: error: --out: "${link}" is a symbolic link; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)\n`,
+      );
     }
     expect(lstatSync(link).isSymbolicLink()).toBe(true);
     expect(readFileSync(target, 'utf8')).toBe('keep me\n');
@@ -56,7 +65,12 @@ describe('-o onto an input', () => {
   it('refuses the design file under another spelling of its path, and the design stays as it was', async () => {
     const { dir, file, text } = designCopy();
     const other = join(dir, '..', dir.split('/').pop()!, 'd.yaml');
-    for (const args of [['check', file], ['tune', file], ['sweep', file, '--vary', 'vdd=1.8'], ['report', file, '--no-fmax', '--no-tune']]) {
+    for (const args of [
+      ['check', file],
+      ['tune', file],
+      ['sweep', file, '--vary', 'vdd=1.8'],
+      ['report', file, '--no-fmax', '--no-tune'],
+    ]) {
       const r = await cliAsync(...args, '-o', other);
       expect(r.code).toBe(2);
       expect(r.stderr).toContain(`is an input of this command (${file})`);

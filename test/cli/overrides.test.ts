@@ -13,7 +13,13 @@ describe('applyOverrides', () => {
 
   it('sets nested keys and list items, reading values as YAML, without touching the input', () => {
     const before = structuredClone(raw);
-    const out = applyOverrides(raw, ['clock.frequency=40MHz', 'corners.vdd[1]=1.9V', 'generator.stages=4', 'loads={p1: 1pF}', 'corners.process=[tt, ss]']);
+    const out = applyOverrides(raw, [
+      'clock.frequency=40MHz',
+      'corners.vdd[1]=1.9V',
+      'generator.stages=4',
+      'loads={p1: 1pF}',
+      'corners.process=[tt, ss]',
+    ]);
     expect(out).toEqual({
       clock: { frequency: '40MHz' },
       corners: { vdd: ['1.62V', '1.9V'], process: ['tt', 'ss'] },
@@ -49,12 +55,18 @@ describe('applyOverrides', () => {
     ['corners.vdd[100001]=1V', '--set: "corners.vdd[100001]=1V" has list index 100001; a list holds at most 100000 items'],
     ['corners.vdd[3]=1V', 'sets item [3] of corners.vdd, which has 2 items; give an index from 0 to 2 (the last appends)'],
     ['corners.list[1]=1', 'sets item [1] of corners.list, which has 0 items; give an index from 0 to 0'],
-    ['corners.list[0].x=1', 'sets a field of item [0] of corners.list, which has 0 items; to add an item, set it whole, e.g. corners.list[0]={...}'],
+    [
+      'corners.list[0].x=1',
+      'sets a field of item [0] of corners.list, which has 0 items; to add an item, set it whole, e.g. corners.list[0]={...}',
+    ],
     ['corners.vdd.x=1', 'cannot set key "x" in corners.vdd, which is a list; write corners.vdd[N]'],
     ['clock[0]=1', 'cannot set item [0] in clock, which is a mapping; write clock.KEY'],
     ['name=__proto__', '--set: "name=__proto__" is refused at name: it is a reserved name'],
     ['switches[0]={name: constructor}', '--set: "switches[0]={name: constructor}" is refused at switches[0].name: it is a reserved name'],
-    ['loads={constructor: 1pF}', '--set: "loads={constructor: 1pF}" is refused at loads.constructor: it uses the reserved key "constructor"'],
+    [
+      'loads={constructor: 1pF}',
+      '--set: "loads={constructor: 1pF}" is refused at loads.constructor: it uses the reserved key "constructor"',
+    ],
     [`${'a.'.repeat(40)}b=1`, 'has a path 41 levels deep; design fields nest at most 32 deep'],
   ])('refuses %s', (text, expected) => {
     expect(message(() => applyOverrides(raw, [text]))).toContain(expected);
@@ -79,7 +91,10 @@ describe('check --set', () => {
   const json = (...set: string[]) => {
     const run = cli('check', design('doubler'), '--json', ...set.flatMap((s) => ['--set', s]));
     expect(run.stderr).toBe('');
-    return JSON.parse(run.stdout) as { clock: { frequency: number }; corners: Array<{ name: string; deadTimes: Array<{ t50: number }>; widths: Record<string, number> }> };
+    return JSON.parse(run.stdout) as {
+      clock: { frequency: number };
+      corners: Array<{ name: string; deadTimes: Array<{ t50: number }>; widths: Record<string, number> }>;
+    };
   };
 
   it('changes the clock frequency without editing the file', () => {

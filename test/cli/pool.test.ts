@@ -54,12 +54,16 @@ describe('worker pool stop', () => {
     const seen: number[] = [];
     let handle: PoolHandle | undefined;
     const finished = fakePool<{ start: number; count: number }, SweepRow[]>({
-      setup: { kind: 'sweep', ...setup }, tasks, threads: 2,
+      setup: { kind: 'sweep', ...setup },
+      tasks,
+      threads: 2,
       onResult: (index) => {
         seen.push(index);
         handle!.stop();
       },
-      onStart: (h) => { handle = h; },
+      onStart: (h) => {
+        handle = h;
+      },
     });
     const [a, b] = FakeWorker.made;
     expect(FakeWorker.made).toHaveLength(2);
@@ -79,7 +83,9 @@ describe('worker pool stop', () => {
     const tasks = Array.from({ length: 10 }, (_, i) => ({ start: i % 5, count: 1 }));
     const seen: number[] = [];
     await runPool<{ start: number; count: number }, SweepRow[]>({
-      setup: { kind: 'sweep', ...setup }, tasks, threads: 2,
+      setup: { kind: 'sweep', ...setup },
+      tasks,
+      threads: 2,
       onResult: (index, rows) => {
         expect(rows).toHaveLength(1);
         seen.push(index);

@@ -29,8 +29,18 @@ describe('provenance in every output', () => {
     const data = JSON.parse(run.stdout);
     expect(Object.keys(data).slice(0, 2)).toEqual(['tool', 'run']);
     expect(data.run.verdict).toBe('pass');
-    expect(data.run.parts.map((p: { key: string; verdict: string }) => `${p.key}:${p.verdict}`)).toEqual(['corners:pass', 'montecarlo:not-run', 'simulator:not-run']);
-    expect(data.provenance).toMatchObject({ tool: 'phasegap', version, date: DATE, command: ['check', design('doubler'), '--json'], simulator: null });
+    expect(data.run.parts.map((p: { key: string; verdict: string }) => `${p.key}:${p.verdict}`)).toEqual([
+      'corners:pass',
+      'montecarlo:not-run',
+      'simulator:not-run',
+    ]);
+    expect(data.provenance).toMatchObject({
+      tool: 'phasegap',
+      version,
+      date: DATE,
+      command: ['check', design('doubler'), '--json'],
+      simulator: null,
+    });
     expect(data.provenance.inputs[0]).toEqual({ role: 'design', path: design('doubler'), sha256: sha(design('doubler')) });
   });
 
@@ -59,7 +69,7 @@ describe('provenance in every output', () => {
     expect(readdirSync(dir).sort()).toEqual(['r-all.svg', 'r-margins.svg', 'r-worst.svg', 'r.md']);
   });
 
-  it('the version has one source: phasegap --version prints package.json\'s', async () => {
+  it("the version has one source: phasegap --version prints package.json's", async () => {
     const run = await cliWith({}, '--version');
     expect(run.stdout.trim()).toBe(version);
   });

@@ -36,22 +36,32 @@ describe('phasegap report', () => {
     const section = run.stdout.slice(run.stdout.indexOf('<section id="nodes">')).split('</section>')[0]!;
     expect(section).toContain('<th>node</th><th>phase p1</th><th>phase p2</th><th>dead time</th><th>switches</th>');
     // top plate: VDD in p1, 1.6..2 VDD in p2 (2.88..3.60 V at 1.8 V), either in the dead time.
-    expect(section).toContain('<tr><td>top</td><td>vdd (1.80 V)</td><td>1.6vdd .. 2vdd (2.88 .. 3.60 V)</td><td>vdd .. 2vdd (1.80 .. 3.60 V)</td><td class="verdict-cell">s_chg, s_out</td></tr>');
-    expect(section).toContain('<tr><td>bottom</td><td>0 V</td><td>vdd (1.80 V)</td><td>0 V .. vdd (0.00 .. 1.80 V)</td><td class="verdict-cell">s_gnd, s_vdd</td></tr>');
+    expect(section).toContain(
+      '<tr><td>top</td><td>vdd (1.80 V)</td><td>1.6vdd .. 2vdd (2.88 .. 3.60 V)</td><td>vdd .. 2vdd (1.80 .. 3.60 V)</td><td class="verdict-cell">s_chg, s_out</td></tr>',
+    );
+    expect(section).toContain(
+      '<tr><td>bottom</td><td>0 V</td><td>vdd (1.80 V)</td><td>0 V .. vdd (0.00 .. 1.80 V)</td><td class="verdict-cell">s_gnd, s_vdd</td></tr>',
+    );
     expect(run.stdout).not.toContain('id="warnings"');
   });
 
   it('shows the off-state failure of the unboosted doubler in volts among the worst cases', async () => {
     const run = await cliAsync('report', design('doubler-unboosted'), '-o', '-', '--no-tune');
     expect(run.code).toBe(1);
-    expect(run.stdout).toMatch(/<tr class="fail"><td>off-state<\/td><td>s_chg holds off<\/td><td class="num">-1\.93 V<\/td><td>ff\/1\.98V\/125C<\/td>/);
+    expect(run.stdout).toMatch(
+      /<tr class="fail"><td>off-state<\/td><td>s_chg holds off<\/td><td class="num">-1\.93 V<\/td><td>ff\/1\.98V\/125C<\/td>/,
+    );
   });
 
   it('lists every corner in the corner table and exits 1 when the design fails', async () => {
     const run = await cliAsync('report', design('too-tight'), '--no-fmax', '-o', '-');
     expect(run.code).toBe(1);
     expect(run.stdout).toContain('fmax not computed (skipped with --no-fmax)');
-    const rows = run.stdout.slice(run.stdout.indexOf('id="corners"')).split('</table>')[0]!.match(/<tr( class="fail")?><td>/g) ?? [];
+    const rows =
+      run.stdout
+        .slice(run.stdout.indexOf('id="corners"'))
+        .split('</table>')[0]!
+        .match(/<tr( class="fail")?><td>/g) ?? [];
     expect(rows.length).toBe(45);
     expect(rows.filter((r) => r.includes('fail')).length).toBeGreaterThan(0);
   });
@@ -79,14 +89,26 @@ describe('phasegap report', () => {
     expect(run.code).toBe(0);
     const section = run.stdout.slice(run.stdout.indexOf('<section id="confirm">')).split('</section>')[0]!;
     expect(section).toMatch(/<h2>Transistor-level confirmation \(ngspice-\S+\)<\/h2>/);
-    expect(section).toMatch(/The analytic model against ngspice-\S+ at 2 corners: dead times, gaps and widths within 10\.0 % at 2 of 2, break-before-make verdicts alike for 4 of 4 pairs; largest difference/);
+    expect(section).toMatch(
+      /The analytic model against ngspice-\S+ at 2 corners: dead times, gaps and widths within 10\.0 % at 2 of 2, break-before-make verdicts alike for 4 of 4 pairs; largest difference/,
+    );
     // The two extreme corners: two dead times, two gaps and two widths each, then the two
     // break-before-make pairs of the demo at each.
     const rows = section.match(/<tr( class="fail")?><td>/g) ?? [];
     expect(rows.length).toBe(2 * 6 + 2 * 2);
     const dir = tempDir();
     const out = join(dir, 'r.html');
-    const missing = await cliAsync('report', design('doubler'), '--no-fmax', '--confirm', 'worst', '--ngspice', '/nonexistent/ngspice', '-o', out);
+    const missing = await cliAsync(
+      'report',
+      design('doubler'),
+      '--no-fmax',
+      '--confirm',
+      'worst',
+      '--ngspice',
+      '/nonexistent/ngspice',
+      '-o',
+      out,
+    );
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/apt-get install ngspice/);
     const unknown = await cliAsync('report', design('doubler'), '--no-fmax', '--confirm', 'xx/1V/0C', '-o', out);
@@ -103,16 +125,46 @@ describe('phasegap report', () => {
     const run = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', ...missesYield, '-o', '-');
     expect(run.code).toBe(1);
     const head = run.stdout.slice(run.stdout.indexOf('<header>'), run.stdout.indexOf('</header>'));
-    expect(head).toContain('<div class="verdict fail" data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield; 45 of 45 corners pass;');
+    expect(head).toContain(
+      '<div class="verdict fail" data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield; 45 of 45 corners pass;',
+    );
     expect(head).toMatch(/<li data-part="corner checks" data-verdict="pass">corner checks: ✓ pass: 45 of 45 corners pass; /);
-    expect(head).toContain('<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 77.5 % over 40 dies at every corner, below the 99.0 % required</strong></li>');
-    expect(head).toContain('<li data-part="simulator agreement" data-verdict="not-run">simulator agreement: not run (add --confirm worst to run it)</li>');
+    expect(head).toContain(
+      '<li data-part="Monte Carlo yield" data-verdict="fail"><strong>Monte Carlo yield: ✕ FAIL: yield 77.5 % over 40 dies at every corner, below the 99.0 % required</strong></li>',
+    );
+    expect(head).toContain(
+      '<li data-part="simulator agreement" data-verdict="not-run">simulator agreement: not run (add --confirm worst to run it)</li>',
+    );
     // Without a yield requirement every die must pass, as in phasegap mc: 9 of the 40 fail, so the run fails.
-    const free = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--mc', '40', '--seed', '1', '--set', 'requirements.deadTime.min=964ps', '-o', '-');
+    const free = await cliAsync(
+      'report',
+      design('doubler'),
+      '--no-fmax',
+      '--no-tune',
+      '--mc',
+      '40',
+      '--seed',
+      '1',
+      '--set',
+      'requirements.deadTime.min=964ps',
+      '-o',
+      '-',
+    );
     expect(free.code).toBe(1);
     expect(free.stdout).toContain('data-verdict="fail"><strong>✕ FAIL</strong><span>fails: Monte Carlo yield;');
     expect(free.stdout).toContain('no requirements.minYield, so every die must pass (9 fail)');
-    const mc = await cliAsync('mc', design('doubler'), '--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=964ps');
+    const mc = await cliAsync(
+      'mc',
+      design('doubler'),
+      '--samples',
+      '40',
+      '--seed',
+      '1',
+      '--workers',
+      '1',
+      '--set',
+      'requirements.deadTime.min=964ps',
+    );
     expect(mc.code).toBe(free.code);
   });
 
@@ -130,11 +182,24 @@ describe('phasegap report', () => {
   });
 
   it('exits 1 with the simulator part failing when ngspice (Debian package ngspice) differs beyond --tolerance while every corner passes', async () => {
-    const run = await cliAsync('report', design('doubler'), '--no-fmax', '--no-tune', '--confirm', 'tt/1.8V/27C', '--tolerance', '0.5%', '-o', '-');
+    const run = await cliAsync(
+      'report',
+      design('doubler'),
+      '--no-fmax',
+      '--no-tune',
+      '--confirm',
+      'tt/1.8V/27C',
+      '--tolerance',
+      '0.5%',
+      '-o',
+      '-',
+    );
     expect(run.code).toBe(1);
     const head = run.stdout.slice(run.stdout.indexOf('<header>'), run.stdout.indexOf('</header>'));
     expect(head).toContain('<strong>✕ FAIL</strong><span>fails: simulator agreement; 45 of 45 corners pass;');
-    expect(head).toMatch(/<li data-part="simulator agreement" data-verdict="fail"><strong>simulator agreement: ✕ FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)<\/strong><\/li>/);
+    expect(head).toMatch(
+      /<li data-part="simulator agreement" data-verdict="fail"><strong>simulator agreement: ✕ FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)<\/strong><\/li>/,
+    );
   });
 
   it('writes Markdown with the SVGs beside it with --format md', async () => {

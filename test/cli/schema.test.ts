@@ -26,7 +26,8 @@ function violations(schema: Schema, value: unknown, path = '$'): string[] {
   if ('const' in schema && schema.const !== value) fail(`${JSON.stringify(value)} is not ${JSON.stringify(schema.const)}`);
   if (typeof value === 'string') {
     if (typeof schema.minLength === 'number' && value.length < schema.minLength) fail('too short');
-    if (typeof schema.pattern === 'string' && !new RegExp(schema.pattern, 'u').test(value)) fail(`${value} does not match ${schema.pattern}`);
+    if (typeof schema.pattern === 'string' && !new RegExp(schema.pattern, 'u').test(value))
+      fail(`${value} does not match ${schema.pattern}`);
   }
   if (typeof value === 'number') {
     if (typeof schema.minimum === 'number' && value < schema.minimum) fail('below minimum');
@@ -39,7 +40,7 @@ function violations(schema: Schema, value: unknown, path = '$'): string[] {
     if (typeof schema.maxItems === 'number' && value.length > schema.maxItems) fail('too many items');
     const prefix = (schema.prefixItems as Schema[] | undefined) ?? [];
     value.forEach((item, i) => {
-      const sub = i < prefix.length ? prefix[i] : schema.items as Schema | undefined;
+      const sub = i < prefix.length ? prefix[i] : (schema.items as Schema | undefined);
       if (sub && typeof sub === 'object') errors.push(...violations(sub, item, `${path}[${i}]`));
     });
   }

@@ -22,7 +22,10 @@ function readWithSigrok(file: string): { unitSeconds: number; changes: Map<strin
   const changes = new Map<string, Array<[number, number]>>();
   let time = 0;
   for (const token of out.slice(out.indexOf('$enddefinitions')).split(/\s+/).slice(2)) {
-    if (token.startsWith('#')) { time = Number(token.slice(1)); continue; }
+    if (token.startsWith('#')) {
+      time = Number(token.slice(1));
+      continue;
+    }
     const m = /^([01])(.+)$/.exec(token);
     if (!m) continue;
     const name = names.get(m[2]!)!;
@@ -34,7 +37,7 @@ function readWithSigrok(file: string): { unitSeconds: number; changes: Map<strin
 }
 
 describe('phasegap waves', () => {
-  it('writes a VCD that sigrok-cli reads, with every 50 % crossing at the simulator\'s time in 1 fs units', () => {
+  it("writes a VCD that sigrok-cli reads, with every 50 % crossing at the simulator's time in 1 fs units", () => {
     const dir = tempDir();
     const file = join(dir, 'w.vcd');
     const corner = 'ss/1.62V/125C';
@@ -79,11 +82,16 @@ describe('phasegap waves', () => {
     const T = result.simulation.period;
     const rel = (t: number) => Math.round(((((t - result.simulation.windowStart) % T) + T) % T) / 1e-14);
     const got = changes.get('s_gnd')!.filter(([t]) => t > 0 && t < T / 1e-14);
-    expect(got).toEqual([[rel(s.on), 1], [rel(s.off), 0]].sort((a, b) => a[0]! - b[0]!));
+    expect(got).toEqual(
+      [
+        [rel(s.on), 1],
+        [rel(s.off), 0],
+      ].sort((a, b) => a[0]! - b[0]!),
+    );
     expect(changes.has('x1')).toBe(true);
   });
 
-  it('repeats every net\'s crossings in every period, the clock\'s rise at each period start included', () => {
+  it("repeats every net's crossings in every period, the clock's rise at each period start included", () => {
     const dir = tempDir();
     const file = join(dir, 'w.vcd');
     const run = cli('waves', design('doubler'), '--corner', 'tt/1.8V/27C', '--periods', '3', '-o', file);
@@ -93,12 +101,22 @@ describe('phasegap waves', () => {
     const result = evaluateAll(resolveDesign(d, card)).find((r) => r.corner.name === 'tt/1.8V/27C')!;
     const T = Math.round(result.simulation.period / unitSeconds);
     for (const net of ['clk', 'clkb', 'p1', 'p2']) {
-      const inPeriod = (k: number) => changes.get(net)!.filter(([t]) => t >= k * T && t < (k + 1) * T && t > 0).map(([t, v]) => [t - k * T, v]);
+      const inPeriod = (k: number) =>
+        changes
+          .get(net)!
+          .filter(([t]) => t >= k * T && t < (k + 1) * T && t > 0)
+          .map(([t, v]) => [t - k * T, v]);
       expect(inPeriod(1).length).toBeGreaterThanOrEqual(2);
       expect(inPeriod(2)).toEqual(inPeriod(1));
     }
     // The clock rises at the start of periods 2 and 3 and falls at mid-period in each: 5 edges after time 0.
-    expect(changes.get('clk')!.filter(([t]) => t > 0)).toEqual([[T / 2, 0], [T, 1], [1.5 * T, 0], [2 * T, 1], [2.5 * T, 0]]);
+    expect(changes.get('clk')!.filter(([t]) => t > 0)).toEqual([
+      [T / 2, 0],
+      [T, 1],
+      [1.5 * T, 0],
+      [2 * T, 1],
+      [2.5 * T, 0],
+    ]);
   });
 
   it('writes to stdout with -o -', () => {

@@ -41,7 +41,9 @@ describe('parseYamlText', () => {
   it('refuses an alias bomb before expanding it', () => {
     const lines = ['a0: &a0 [x, x, x, x, x, x, x, x, x, x]'];
     for (let i = 1; i < 6; i++) lines.push(`a${i}: &a${i} [${Array.from({ length: 10 }, () => `*a${i - 1}`).join(', ')}]`);
-    expect(message(lines.join('\n'))).toBe('f.yaml: uses YAML aliases that expand beyond 1000 nodes; write the values out or use fewer aliases');
+    expect(message(lines.join('\n'))).toBe(
+      'f.yaml: uses YAML aliases that expand beyond 1000 nodes; write the values out or use fewer aliases',
+    );
   });
 
   it('refuses more than 1000 aliases', () => {
@@ -54,8 +56,12 @@ describe('parseYamlText', () => {
   });
 
   it('names neither the key, the alias nor the parser excerpt of a file it may not quote', () => {
-    expect(message('secret: 1\nsecret: 2\n', false)).toBe('f.yaml: is not valid YAML or JSON at line 2, column 1: duplicate key in one mapping; each key may appear once');
-    expect(message('a: *hunter2\n', false)).toBe('f.yaml: is not valid YAML or JSON at line 1, column 4: alias has no anchor of that name before it');
+    expect(message('secret: 1\nsecret: 2\n', false)).toBe(
+      'f.yaml: is not valid YAML or JSON at line 2, column 1: duplicate key in one mapping; each key may appear once',
+    );
+    expect(message('a: *hunter2\n', false)).toBe(
+      'f.yaml: is not valid YAML or JSON at line 1, column 4: alias has no anchor of that name before it',
+    );
     expect(message('a: "hunter2\\q"\n', false)).not.toContain('hunter2');
   });
 });

@@ -1,7 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import {
-  alphaPowerDelay, analyticModel, rampCoefficient,
-} from '../../src/delay/analytic.js';
+import { alphaPowerDelay, analyticModel, rampCoefficient } from '../../src/delay/analytic.js';
 import { saturationCurrent, devicesAtCorner } from '../../src/process/device.js';
 import { compileNetlist, type GateSpec } from '../../src/netlist/netlist.js';
 import { CELLS, type PrimitiveCell } from '../../src/cells/library.js';
@@ -19,25 +17,45 @@ import { expectClose, processCard } from '../helpers.js';
  */
 function effortCard(): ProcessCard {
   const device = (drive: number) => ({
-    vth0: 0.4, alpha: 1.3, drive, vthTempco: 0.001, mobilityExponent: 1.5, gamma: 0.4, phi2f: 0.85,
-    cgate: 1.5e-9, cdrain: 1.5e-9, avt: 5e-9, kprime: 100e-6,
+    vth0: 0.4,
+    alpha: 1.3,
+    drive,
+    vthTempco: 0.001,
+    mobilityExponent: 1.5,
+    gamma: 0.4,
+    phi2f: 0.85,
+    cgate: 1.5e-9,
+    cdrain: 1.5e-9,
+    avt: 5e-9,
+    kprime: 100e-6,
   });
   return parseWith(processSchema, {
-    name: 'effort-probe', lmin: 0.18e-6, vddNominal: 1.8,
+    name: 'effort-probe',
+    lmin: 0.18e-6,
+    vddNominal: 1.8,
     unit: { wn: 0.5e-6, wp: 1.0e-6 },
-    n: device(340), p: device(150),
+    n: device(340),
+    p: device(150),
     corners: { tt: {} },
   });
 }
 
-const at = (process: string, vdd: number, temperature: number): Corner =>
-  ({ name: `${process}/${vdd}V/${temperature}C`, process, vdd, temperature, duty: 0.5 });
+const at = (process: string, vdd: number, temperature: number): Corner => ({
+  name: `${process}/${vdd}V/${temperature}C`,
+  process,
+  vdd,
+  temperature,
+  duty: 0.5,
+});
 
 /** `driver` (a cell on net y fed by the clock) with `fanout` copies of a cell on y, each driving its own net. */
 function fanoutNetlist(driver: GateSpec['cell'], fanout: number, load: GateSpec['cell'] = driver) {
   const gates: GateSpec[] = [];
   // Only the first pin of each load listens to y; the others are tied to the clock.
-  const inputsOf = (cell: GateSpec['cell'], net: string) => [net, ...Array.from({ length: CELLS[cell as PrimitiveCell].inputs - 1 }, () => 'clk')];
+  const inputsOf = (cell: GateSpec['cell'], net: string) => [
+    net,
+    ...Array.from({ length: CELLS[cell as PrimitiveCell].inputs - 1 }, () => 'clk'),
+  ];
   gates.push({ name: 'drv', cell: driver, size: 1, inputs: inputsOf(driver, 'clk'), output: 'y' });
   for (let k = 1; k <= fanout; k++) gates.push({ name: `ld${k}`, cell: load, size: 1, inputs: inputsOf(load, 'y'), output: `z${k}` });
   const phases: [string, string] = fanout >= 1 ? ['y', 'z1'] : ['y', 'y'];
@@ -255,17 +273,30 @@ describe('temperature dependence of the gate drive', () => {
 
 describe('analyticModel input position', () => {
   const base = loadProcess(processCard('generic180'));
-  const netlist = compileNetlist({ clock: 'a', phases: ['y', 'y'], complements: {}, early: {}, loads: {},
-    gates: [{ name: 'g', cell: 'NOR2', size: 1, inputs: ['a', 'b'], output: 'y' }, { name: 'i', cell: 'INV', size: 1, inputs: ['a'], output: 'b' }] } as never);
+  const netlist = compileNetlist({
+    clock: 'a',
+    phases: ['y', 'y'],
+    complements: {},
+    early: {},
+    loads: {},
+    gates: [
+      { name: 'g', cell: 'NOR2', size: 1, inputs: ['a', 'b'], output: 'y' },
+      { name: 'i', cell: 'INV', size: 1, inputs: ['a'], output: 'b' },
+    ],
+  } as never);
   const corner: Corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
   const loads = new Float64Array(netlist.netNames.length).fill(10e-15);
 
-  it('gives the inner input of a stack one internal junction more when the card\'s stacks carry junctions', () => {
+  it("gives the inner input of a stack one internal junction more when the card's stacks carry junctions", () => {
     const card = { ...base, spice: { ...base.spice!, stackJunctions: true } };
     const t = analyticModel.bind(netlist, loads, devicesAtCorner(card, corner));
     // NOR2 p stack: each device 2 x the unit p width; the node adds W_p * cdrain_p to the rising edge of pin 1
     const extra = 2 * card.unit.wp * card.p.cdrain;
-    const plain = analyticModel.bind(netlist, loads.map((v, i) => (i === netlist.gateOutput[0] ? v + extra : v)), devicesAtCorner(card, corner));
+    const plain = analyticModel.bind(
+      netlist,
+      loads.map((v, i) => (i === netlist.gateOutput[0] ? v + extra : v)),
+      devicesAtCorner(card, corner),
+    );
     expectClose(t.delay(0, 1, true, 1e-10), plain.delay(0, 0, true, 1e-10), 1e-12);
     expect(t.delay(0, 1, true, 1e-10)).toBeGreaterThan(t.delay(0, 0, true, 1e-10));
     // the parallel n devices: no stack, no difference

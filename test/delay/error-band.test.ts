@@ -24,7 +24,9 @@ describe('errorBand', () => {
 
 describe('errorBandText', () => {
   it('prints the band with its source, or says none was measured', () => {
-    expect(errorBandText('analytic', 'generic180')).toBe('model error: dead time -8.8 % to -0.2 % of ngspice (median |error| 3.9 %, 42 dead times on the shipped designs); read small margins against it');
+    expect(errorBandText('analytic', 'generic180')).toBe(
+      'model error: dead time -8.8 % to -0.2 % of ngspice (median |error| 3.9 %, 42 dead times on the shipped designs); read small margins against it',
+    );
     expect(errorBandText('table', 'ref18')).toMatch(/not measured for the table model on card ref18/);
   });
 });

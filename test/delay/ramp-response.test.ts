@@ -65,7 +65,12 @@ describe('RampResponse', () => {
   const grid = RampResponse.of(2);
 
   it('interpolates the solved grid within 1 % of a direct solution between grid points', () => {
-    for (const [vT, s] of [[0.27, 0.4], [0.33, 2.2], [0.51, 7.3], [0.12, 30]] as const) {
+    for (const [vT, s] of [
+      [0.27, 0.4],
+      [0.33, 2.2],
+      [0.51, 7.3],
+      [0.12, 30],
+    ] as const) {
       const direct = solveEdge(2, vT, s);
       const pos = RampResponse.vtPosition(vT);
       expectClose(grid.delay(pos, s), direct.delay, 0.01);

@@ -20,7 +20,13 @@ describe('bilinear', () => {
     const xs = [0, 1, 4];
     const ys = [0, 2, 3];
     const grid = xs.map((x) => ys.map((y) => f(x, y)));
-    for (const [x, y] of [[0.5, 0.5], [2, 2.5], [4, 3], [0, 0], [3.9, 1]] as const) {
+    for (const [x, y] of [
+      [0.5, 0.5],
+      [2, 2.5],
+      [4, 3],
+      [0, 0],
+      [3.9, 1],
+    ] as const) {
       expectClose(bilinear(grid, bracket(xs, x), bracket(ys, y)), f(x, y), 1e-12, 'abs');
     }
     const outside = bracket(xs, 5);
@@ -32,16 +38,25 @@ describe('bilinear', () => {
 });
 
 function fakeCorner(name: string, process: string, vdd: number, temperature: number, delay: number): CornerTables {
-  const g = [[delay, 2 * delay], [3 * delay, 4 * delay]];
+  const g = [
+    [delay, 2 * delay],
+    [3 * delay, 4 * delay],
+  ];
   const pin = { capacitance: 1e-15 * vdd, rise: { delay: g, transition: g }, fall: { delay: g, transition: g } };
   return { name, process, vdd, temperature, cells: { INV: { pins: [pin] } } };
 }
 
 const FAKE: DelayTables = {
-  format: 'phasegap-tables/1', process: 'x', size: 1, transitions: [1e-10, 1e-9], loads: [1e-15, 1e-14],
+  format: 'phasegap-tables/1',
+  process: 'x',
+  size: 1,
+  transitions: [1e-10, 1e-9],
+  loads: [1e-15, 1e-14],
   corners: [
-    fakeCorner('tt/1.6V/0C', 'tt', 1.6, 0, 1e-10), fakeCorner('tt/2V/0C', 'tt', 2, 0, 2e-10),
-    fakeCorner('tt/1.6V/100C', 'tt', 1.6, 100, 3e-10), fakeCorner('tt/2V/100C', 'tt', 2, 100, 5e-10),
+    fakeCorner('tt/1.6V/0C', 'tt', 1.6, 0, 1e-10),
+    fakeCorner('tt/2V/0C', 'tt', 2, 0, 2e-10),
+    fakeCorner('tt/1.6V/100C', 'tt', 1.6, 100, 3e-10),
+    fakeCorner('tt/2V/100C', 'tt', 2, 100, 5e-10),
   ],
 };
 
@@ -65,8 +80,9 @@ describe('cornerTables', () => {
     const warnings: string[] = [];
     cornerTables(FAKE, corner(2.2, 50), (m) => warnings.push(m));
     expect(warnings[0]).toMatch(/tt\/2.2V\/50C lies outside the characterized supplies/);
-    expect(() => cornerTables(FAKE, { ...corner(1.8, 27), process: 'ss', name: 'ss/1.8V/27C' }, () => undefined))
-      .toThrow(/no tables for process corner "ss"/);
+    expect(() => cornerTables(FAKE, { ...corner(1.8, 27), process: 'ss', name: 'ss/1.8V/27C' }, () => undefined)).toThrow(
+      /no tables for process corner "ss"/,
+    );
   });
 });
 
@@ -97,12 +113,14 @@ describe('tableModel.bind', () => {
     }
   });
 
-  it('scales each delay by the analytic ratio with and without the die\'s mismatch', () => {
+  it("scales each delay by the analytic ratio with and without the die's mismatch", () => {
     const g = 1;
     const plain = model.bind(netlist, loads, devices).delay(g, 0, true, 1e-10);
     const die = mismatch(5);
     const shifted = model.bind(netlist, loads, devices, die).delay(g, 0, true, 1e-10);
-    const ratio = analyticModel.bind(netlist, loads, devices, die).delay(g, 0, true, 0) / analyticModel.bind(netlist, loads, devices).delay(g, 0, true, 0);
+    const ratio =
+      analyticModel.bind(netlist, loads, devices, die).delay(g, 0, true, 0) /
+      analyticModel.bind(netlist, loads, devices).delay(g, 0, true, 0);
     expectClose(shifted / plain, ratio, 1e-12);
     expect(ratio).not.toBe(1);
   });
@@ -153,13 +171,18 @@ describe('characterized tables (ngspice, Debian package ngspice)', () => {
         for (const edge of ['rise', 'fall'] as const) {
           for (const kind of ['delay', 'transition'] as const) {
             const grid = pin[edge][kind];
-            grid.forEach((row, i) => { expect(monotonic(row), `${cell} pin ${p} ${edge} ${kind} row ${i} in load`).toBe(1); });
+            grid.forEach((row, i) => {
+              expect(monotonic(row), `${cell} pin ${p} ${edge} ${kind} row ${i} in load`).toBe(1);
+            });
             // In input transition: wherever the simulator's column is monotonic, so is the model between the points.
             tables.loads.forEach((_, j) => {
               const column = grid.map((row) => row[j]!);
               const sense = monotonic(column);
               if (sense === 0) return;
-              const xs = Array.from({ length: 31 }, (_, k) => tables.transitions[0]! * (tables.transitions.at(-1)! / tables.transitions[0]!) ** (k / 30));
+              const xs = Array.from(
+                { length: 31 },
+                (_, k) => tables.transitions[0]! * (tables.transitions.at(-1)! / tables.transitions[0]!) ** (k / 30),
+              );
               const ys = xs.map((x) => bilinear(grid, bracket(tables.transitions, x), bracket(tables.loads, tables.loads[j]!)));
               expect(monotonic(ys), `${cell} pin ${p} ${edge} ${kind} load ${j} in input transition`).toBe(sense);
               checkedSlew++;
@@ -176,9 +199,23 @@ describe('characterized tables (ngspice, Debian package ngspice)', () => {
     expect(timing.delay(1, 1, false, 2e-10)).toBeGreaterThan(0);
     expect(warnings).toEqual([]);
     // A load beyond the grid is extrapolated with one clear warning on stderr.
-    const r = cli('check', design('doubler'), '--tables', file, '--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]',
-      '--set', 'corners.temperature=[27]', '--set', 'loads.p1=5pF');
-    expect(r.stderr.match(/warning: table model: u_buf1_3 \(INV\) drives [\d.]+ fF per characterized size, outside the table's/g)?.length).toBe(1);
+    const r = cli(
+      'check',
+      design('doubler'),
+      '--tables',
+      file,
+      '--set',
+      'corners.process=[tt]',
+      '--set',
+      'corners.vdd=[1.8V]',
+      '--set',
+      'corners.temperature=[27]',
+      '--set',
+      'loads.p1=5pF',
+    );
+    expect(
+      r.stderr.match(/warning: table model: u_buf1_3 \(INV\) drives [\d.]+ fF per characterized size, outside the table's/g)?.length,
+    ).toBe(1);
     expect(r.stdout).toMatch(/table model/);
   }, 120_000);
 });

@@ -50,10 +50,18 @@ export interface Summary {
 /** The design name the case ends up with (after --set name=...), if the file reads as YAML. */
 function designName(c: Case, bytes: Buffer): string | undefined {
   let name: unknown;
-  try { name = (parse(bytes.toString('utf8'), { logLevel: 'silent' }) as { name?: unknown } | null)?.name; } catch { name = undefined; }
+  try {
+    name = (parse(bytes.toString('utf8'), { logLevel: 'silent' }) as { name?: unknown } | null)?.name;
+  } catch {
+    name = undefined;
+  }
   for (const s of c.sets) {
     if (!s.startsWith('name=')) continue;
-    try { name = parse(s.slice(5), { logLevel: 'silent' }); } catch { /* the run rejects it */ }
+    try {
+      name = parse(s.slice(5), { logLevel: 'silent' });
+    } catch {
+      /* the run rejects it */
+    }
   }
   return typeof name === 'string' ? name : undefined;
 }
@@ -82,17 +90,27 @@ export async function runCampaign(options: CampaignOptions): Promise<{ outcomes:
         const c = drawCase(options.seed, index, confirm);
         const ws = layOut(c);
         const r = await runCase(c, ws, runner, options.timeoutMs);
-        const violations = [...runProperties(r), ...await outputProperties(c, ws, r, designName(c, ws.designBytes))];
+        const violations = [...runProperties(r), ...(await outputProperties(c, ws, r, designName(c, ws.designBytes)))];
         let kept: string | undefined;
         if (violations.length > 0 && options.keepDir) {
           kept = join(options.keepDir, `case-${index}`);
           mkdirSync(kept, { recursive: true });
           cpSync(ws.dir, kept, { recursive: true, verbatimSymlinks: true });
-          writeFileSync(join(kept, 'command.txt'), `${['phasegap', ...argv(c, ws.designPath, ws.outPath)].map((a) => JSON.stringify(a)).join(' ')}\n`
-            + `# seed ${options.seed}, case ${index}\n# ${violations.map((v) => `${v.property}: ${v.detail}`).join('\n# ')}\n`);
+          writeFileSync(
+            join(kept, 'command.txt'),
+            `${['phasegap', ...argv(c, ws.designPath, ws.outPath)].map((a) => JSON.stringify(a)).join(' ')}\n` +
+              `# seed ${options.seed}, case ${index}\n# ${violations.map((v) => `${v.property}: ${v.detail}`).join('\n# ')}\n`,
+          );
         }
         rmSync(ws.dir, { recursive: true, force: true });
-        outcomes.push({ index, case: { command: c.command, child: c.child }, code: r.code, ms: r.ms, violations, ...(kept ? { kept } : {}) });
+        outcomes.push({
+          index,
+          case: { command: c.command, child: c.child },
+          code: r.code,
+          ms: r.ms,
+          violations,
+          ...(kept ? { kept } : {}),
+        });
         options.onCase?.(index, c, violations, r);
       }
     } finally {
@@ -134,9 +152,16 @@ export function summarize(outcomes: readonly CaseOutcome[], options: Pick<Campai
 export function renderSummary(summary: Summary, outcomes: readonly CaseOutcome[]): string {
   const lines = [
     `fuzz: seed ${summary.seed}, ${summary.runs} cases, ${summary.failing} failing (crashes ${summary.crashes}, hangs ${summary.hangs}, malformed outputs ${summary.malformed})`,
-    `by property: ${Object.entries(summary.byProperty).map(([p, n]) => `${p} ${n}`).join(', ') || 'none'}`,
+    `by property: ${
+      Object.entries(summary.byProperty)
+        .map(([p, n]) => `${p} ${n}`)
+        .join(', ') || 'none'
+    }`,
     'by command:',
-    ...Object.entries(summary.byCommand).map(([cmd, s]) => `  ${cmd.padEnd(8)} ${String(s.cases).padStart(5)} cases, ${String(s.failing).padStart(4)} failing, exits ${JSON.stringify(s.exit)}`),
+    ...Object.entries(summary.byCommand).map(
+      ([cmd, s]) =>
+        `  ${cmd.padEnd(8)} ${String(s.cases).padStart(5)} cases, ${String(s.failing).padStart(4)} failing, exits ${JSON.stringify(s.exit)}`,
+    ),
   ];
   const seen = new Set<string>();
   for (const o of outcomes) {
@@ -144,7 +169,9 @@ export function renderSummary(summary: Summary, outcomes: readonly CaseOutcome[]
       const shape = `${v.property}|${o.case.command}|${v.detail.replace(/\d+/g, 'N').slice(0, 60)}`;
       if (seen.has(shape)) continue;
       seen.add(shape);
-      lines.push(`  [${v.property}] case ${o.index} (${o.case.command}${o.case.child ? ', child process' : ''}): ${v.detail.slice(0, 300)}${o.kept ? `\n      kept in ${o.kept}` : ''}`);
+      lines.push(
+        `  [${v.property}] case ${o.index} (${o.case.command}${o.case.child ? ', child process' : ''}): ${v.detail.slice(0, 300)}${o.kept ? `\n      kept in ${o.kept}` : ''}`,
+      );
     }
   }
   return `${lines.join('\n')}\n`;

@@ -9,7 +9,10 @@ import { existsSync } from 'node:fs';
 import { run } from '../../src/cli/program.js';
 import { openFileStream, writeFileAtomic, type Io } from '../../src/cli/io.js';
 
-export interface WorkerRequest { readonly id: number; readonly argv: readonly string[] }
+export interface WorkerRequest {
+  readonly id: number;
+  readonly argv: readonly string[];
+}
 export interface WorkerReply {
   readonly id: number;
   readonly code: number | undefined;
@@ -28,8 +31,12 @@ process.on('message', async (request: WorkerRequest) => {
   let stdout = '';
   let stderr = '';
   const io: Io = {
-    stdout: (t) => { if (stdout.length < MAX_CAPTURE) stdout += t; },
-    stderr: (t) => { if (stderr.length < MAX_CAPTURE) stderr += t; },
+    stdout: (t) => {
+      if (stdout.length < MAX_CAPTURE) stdout += t;
+    },
+    stderr: (t) => {
+      if (stderr.length < MAX_CAPTURE) stderr += t;
+    },
     writeFile: writeFileAtomic,
     openFileStream,
     exists: existsSync,
@@ -40,7 +47,7 @@ process.on('message', async (request: WorkerRequest) => {
   try {
     code = await run(request.argv, io);
   } catch (error) {
-    thrown = error instanceof Error ? error.stack ?? error.message : String(error);
+    thrown = error instanceof Error ? (error.stack ?? error.message) : String(error);
   }
   const polluted = Object.getOwnPropertyNames(Object.prototype).filter((k) => !baseline.has(k));
   const reply: WorkerReply = { id: request.id, code, stdout, stderr, thrown, polluted };

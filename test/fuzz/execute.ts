@@ -76,10 +76,14 @@ export class WorkerRunner {
 
   private spawn(): ChildProcess {
     const worker = fork(join(DIST, 'test', 'fuzz', 'case-worker.js'), [], {
-      execArgv: [`--max-old-space-size=${MEMORY_MB}`], stdio: ['ignore', 'ignore', 'pipe', 'ipc'], env: { ...process.env, CI: '1' },
+      execArgv: [`--max-old-space-size=${MEMORY_MB}`],
+      stdio: ['ignore', 'ignore', 'pipe', 'ipc'],
+      env: { ...process.env, CI: '1' },
     });
     this.stderr = '';
-    worker.stderr!.setEncoding('utf8').on('data', (d: string) => { this.stderr = (this.stderr + d).slice(-20_000); });
+    worker.stderr!.setEncoding('utf8').on('data', (d: string) => {
+      this.stderr = (this.stderr + d).slice(-20_000);
+    });
     return worker;
   }
 
@@ -93,7 +97,10 @@ export class WorkerRunner {
         clearTimeout(timer);
         worker.off('message', onMessage);
         worker.off('exit', onExit);
-        if (!keep) { worker.kill('SIGKILL'); this.worker = undefined; }
+        if (!keep) {
+          worker.kill('SIGKILL');
+          this.worker = undefined;
+        }
         resolve({ ...r, ms: Date.now() - start });
       };
       const blank = { code: undefined, stdout: '', stderr: '', thrown: undefined, polluted: [] as string[] };
@@ -106,7 +113,16 @@ export class WorkerRunner {
         // Let the last of its stderr arrive before judging why it died.
         setTimeout(() => {
           const oom = /heap out of memory|Allocation failed/i.test(this.stderr);
-          finish({ ...blank, stderr: this.stderr, timedOut: false, outOfMemory: oom, died: oom ? undefined : `case process exited (${signal ?? code}): ${this.stderr.slice(-300)}` }, false);
+          finish(
+            {
+              ...blank,
+              stderr: this.stderr,
+              timedOut: false,
+              outOfMemory: oom,
+              died: oom ? undefined : `case process exited (${signal ?? code}): ${this.stderr.slice(-300)}`,
+            },
+            false,
+          );
         }, 50);
       };
       worker.on('message', onMessage);
@@ -130,24 +146,50 @@ export function runChild(args: readonly string[], cwd: string, timeoutMs: number
   const argv = args.map((a) => a.replaceAll('\u0000', ''));
   return new Promise((resolve) => {
     const child = spawn(process.execPath, [`--max-old-space-size=${MEMORY_MB}`, join(DIST, 'src', 'cli', 'main.js'), ...argv], {
-      cwd, env: { ...process.env, TMPDIR: join(cwd, 'tmp'), CI: '1' }, stdio: ['ignore', 'pipe', 'pipe'],
+      cwd,
+      env: { ...process.env, TMPDIR: join(cwd, 'tmp'), CI: '1' },
+      stdio: ['ignore', 'pipe', 'pipe'],
     });
     let stdout = '';
     let stderr = '';
-    child.stdout.setEncoding('utf8').on('data', (d: string) => { if (stdout.length < 4_000_000) stdout += d; });
-    child.stderr.setEncoding('utf8').on('data', (d: string) => { if (stderr.length < 4_000_000) stderr += d; });
+    child.stdout.setEncoding('utf8').on('data', (d: string) => {
+      if (stdout.length < 4_000_000) stdout += d;
+    });
+    child.stderr.setEncoding('utf8').on('data', (d: string) => {
+      if (stderr.length < 4_000_000) stderr += d;
+    });
     let timedOut = false;
-    const timer = setTimeout(() => { timedOut = true; child.kill('SIGKILL'); }, timeoutMs);
+    const timer = setTimeout(() => {
+      timedOut = true;
+      child.kill('SIGKILL');
+    }, timeoutMs);
     child.on('error', (error) => {
       clearTimeout(timer);
-      resolve({ code: undefined, stdout, stderr, thrown: undefined, timedOut: false, outOfMemory: false, died: `could not start: ${error.message}`, polluted: [], ms: Date.now() - start });
+      resolve({
+        code: undefined,
+        stdout,
+        stderr,
+        thrown: undefined,
+        timedOut: false,
+        outOfMemory: false,
+        died: `could not start: ${error.message}`,
+        polluted: [],
+        ms: Date.now() - start,
+      });
     });
     child.on('close', (code, signal) => {
       clearTimeout(timer);
       const outOfMemory = /heap out of memory|Allocation failed/i.test(stderr);
       resolve({
-        code: code ?? undefined, stdout, stderr, thrown: undefined, timedOut, outOfMemory,
-        died: signal !== null && !timedOut && !outOfMemory ? `killed by ${signal}` : undefined, polluted: [], ms: Date.now() - start,
+        code: code ?? undefined,
+        stdout,
+        stderr,
+        thrown: undefined,
+        timedOut,
+        outOfMemory,
+        died: signal !== null && !timedOut && !outOfMemory ? `killed by ${signal}` : undefined,
+        polluted: [],
+        ms: Date.now() - start,
       });
     });
   });

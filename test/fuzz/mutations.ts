@@ -7,7 +7,18 @@ import fc from 'fast-check';
 import { parse, stringify } from 'yaml';
 import { hostileString, hostileValue, KEYS } from './hostile.js';
 import {
-  clone, deleteSlot, emit, fromValue, getSlot, raw, renameEverywhere, scalar, setSlot, slots, strings, type Node,
+  clone,
+  deleteSlot,
+  emit,
+  fromValue,
+  getSlot,
+  raw,
+  renameEverywhere,
+  scalar,
+  setSlot,
+  slots,
+  strings,
+  type Node,
 } from './yaml-tree.js';
 
 export type TreeOp =
@@ -45,23 +56,70 @@ export const treeOp: fc.Arbitrary<TreeOp> = fc.oneof(
   { weight: 5, arbitrary: fc.record({ op: fc.constant('renameEverywhere' as const), at, value: hostileString }) },
   { weight: 2, arbitrary: fc.record({ op: fc.constant('delete' as const), at }) },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('duplicateKey' as const), at, value: hostileValue }) },
-  { weight: 2, arbitrary: fc.record({ op: fc.constant('renameKey' as const), at, key: fc.oneof(fc.constantFrom(...KEYS), hostileString) }) },
-  { weight: 2, arbitrary: fc.record({ op: fc.constant('addKey' as const), at, key: fc.constantFrom(...KEYS), value: fc.oneof(hostileValue, fc.constant(raw('{polluted: true, isAdmin: 1}'))) }) },
-  { weight: 2, arbitrary: fc.record({ op: fc.constant('swapType' as const), at, to: fc.constantFrom('string' as const, 'number' as const, 'list' as const, 'map' as const, 'bool' as const) }) },
-  { weight: 1, arbitrary: fc.record({ op: fc.constant('longList' as const), at, length: fc.constantFrom(0, 1, 2, 17, 1000, 10_000, 100_000) }) },
-  { weight: 1, arbitrary: fc.record({ op: fc.constant('deepNest' as const), at, depth: fc.constantFrom(2, 64, 1000, 10_000), shape: fc.constantFrom('seq' as const, 'map' as const) }) },
+  {
+    weight: 2,
+    arbitrary: fc.record({ op: fc.constant('renameKey' as const), at, key: fc.oneof(fc.constantFrom(...KEYS), hostileString) }),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.record({
+      op: fc.constant('addKey' as const),
+      at,
+      key: fc.constantFrom(...KEYS),
+      value: fc.oneof(hostileValue, fc.constant(raw('{polluted: true, isAdmin: 1}'))),
+    }),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.record({
+      op: fc.constant('swapType' as const),
+      at,
+      to: fc.constantFrom('string' as const, 'number' as const, 'list' as const, 'map' as const, 'bool' as const),
+    }),
+  },
+  {
+    weight: 1,
+    arbitrary: fc.record({ op: fc.constant('longList' as const), at, length: fc.constantFrom(0, 1, 2, 17, 1000, 10_000, 100_000) }),
+  },
+  {
+    weight: 1,
+    arbitrary: fc.record({
+      op: fc.constant('deepNest' as const),
+      at,
+      depth: fc.constantFrom(2, 64, 1000, 10_000),
+      shape: fc.constantFrom('seq' as const, 'map' as const),
+    }),
+  },
   { weight: 1, arbitrary: fc.record({ op: fc.constant('alias' as const), from: at, to: at }) },
-  { weight: 1, arbitrary: fc.record({ op: fc.constant('aliasBomb' as const), at, levels: fc.integer({ min: 1, max: 12 }), width: fc.integer({ min: 2, max: 10 }) }) },
+  {
+    weight: 1,
+    arbitrary: fc.record({
+      op: fc.constant('aliasBomb' as const),
+      at,
+      levels: fc.integer({ min: 1, max: 12 }),
+      width: fc.integer({ min: 2, max: 10 }),
+    }),
+  },
 );
 
 export const textOp: fc.Arbitrary<TextOp> = fc.oneof(
   fc.record({ op: fc.constant('flip' as const), at, byte: fc.integer({ min: 0, max: 255 }) }),
   fc.record({ op: fc.constant('truncate' as const), at }),
-  fc.record({ op: fc.constant('insert' as const), at, text: fc.oneof(hostileString, fc.constantFrom(': ', '- ', '&a ', '*a', '!!', '%YAML 1.1\n', '---\n', '...\n', '{', '[', '"', "'", '\t', '? ', '<<: *a\n')) }),
+  fc.record({
+    op: fc.constant('insert' as const),
+    at,
+    text: fc.oneof(
+      hostileString,
+      fc.constantFrom(': ', '- ', '&a ', '*a', '!!', '%YAML 1.1\n', '---\n', '...\n', '{', '[', '"', "'", '\t', '? ', '<<: *a\n'),
+    ),
+  }),
   fc.record({ op: fc.constant('cut' as const), at, length: fc.integer({ min: 1, max: 200 }) }),
 );
 
-const renames = fc.array(fc.record({ op: fc.constant('renameEverywhere' as const), at, value: hostileString }), { minLength: 1, maxLength: 3 });
+const renames = fc.array(fc.record({ op: fc.constant('renameEverywhere' as const), at, value: hostileString }), {
+  minLength: 1,
+  maxLength: 3,
+});
 
 /** Half the plans only rename (names stay consistent, so the file still validates and the name reaches every output). */
 export const plan: fc.Arbitrary<Plan> = fc.oneof(
@@ -76,11 +134,16 @@ export const plan: fc.Arbitrary<Plan> = fc.oneof(
 function swapType(node: Node, to: 'string' | 'number' | 'list' | 'map' | 'bool'): Node {
   const text = node.kind === 'scalar' ? String(node.value) : emit(node);
   switch (to) {
-    case 'string': return scalar(text);
-    case 'number': return node.kind === 'scalar' && typeof node.value === 'string' ? raw(String(parseFloat(node.value))) : raw('42');
-    case 'list': return { kind: 'seq', items: [node] };
-    case 'map': return { kind: 'map', entries: [['value', node]] };
-    case 'bool': return scalar(true);
+    case 'string':
+      return scalar(text);
+    case 'number':
+      return node.kind === 'scalar' && typeof node.value === 'string' ? raw(String(parseFloat(node.value))) : raw('42');
+    case 'list':
+      return { kind: 'seq', items: [node] };
+    case 'map':
+      return { kind: 'map', entries: [['value', node]] };
+    case 'bool':
+      return scalar(true);
   }
 }
 
@@ -91,7 +154,12 @@ function nest(depth: number, shape: 'seq' | 'map'): Node {
 
 function bomb(levels: number, width: number, tag: number): Node {
   const parts = [`&b${tag}_0 [pgx, pgx]`];
-  for (let l = 1; l <= levels; l++) parts.push(`&b${tag}_${l} [${Array(width).fill(`*b${tag}_${l - 1}`).join(', ')}]`);
+  for (let l = 1; l <= levels; l++)
+    parts.push(
+      `&b${tag}_${l} [${Array(width)
+        .fill(`*b${tag}_${l - 1}`)
+        .join(', ')}]`,
+    );
   return raw(`[${parts.join(', ')}]`);
 }
 
@@ -99,16 +167,35 @@ function applyTreeOp(root: Node, op: TreeOp, index: number): void {
   const all = slots(root);
   if (op.op === 'renameEverywhere' || op.op === 'replaceString') {
     // Renaming targets name-like values (nets, gates, switches, the design name) so the new name stays consistent.
-    const names = op.op === 'renameEverywhere' ? strings(root).filter((s) => /^[\w.-]{1,40}$/.test(s) && slots(root).some((sl) => { const n = getSlot(sl); return n.kind === 'scalar' && n.value === s; })) : ['-'];
+    const names =
+      op.op === 'renameEverywhere'
+        ? strings(root).filter(
+            (s) =>
+              /^[\w.-]{1,40}$/.test(s) &&
+              slots(root).some((sl) => {
+                const n = getSlot(sl);
+                return n.kind === 'scalar' && n.value === s;
+              }),
+          )
+        : ['-'];
     if (names.length === 0) return;
-    if (op.op === 'renameEverywhere') { renameEverywhere(root, names[op.at % names.length]!, op.value); return; }
-    const stringSlots = all.filter((s) => { const n = getSlot(s); return n.kind === 'scalar' && typeof n.value === 'string'; });
+    if (op.op === 'renameEverywhere') {
+      renameEverywhere(root, names[op.at % names.length]!, op.value);
+      return;
+    }
+    const stringSlots = all.filter((s) => {
+      const n = getSlot(s);
+      return n.kind === 'scalar' && typeof n.value === 'string';
+    });
     if (stringSlots.length > 0) setSlot(stringSlots[op.at % stringSlots.length]!, scalar(op.value));
     return;
   }
   if (op.op === 'alias') {
     if (all.length < 2) return;
-    const [a, b] = [all[op.from % all.length]!, all[op.to % all.length]!].sort((x, y) => x.order - y.order) as [typeof all[0], typeof all[0]];
+    const [a, b] = [all[op.from % all.length]!, all[op.to % all.length]!].sort((x, y) => x.order - y.order) as [
+      (typeof all)[0],
+      (typeof all)[0],
+    ];
     const name = `a${index}`;
     const target = getSlot(a);
     setSlot(a, { kind: 'anchor', name, node: target });
@@ -119,9 +206,15 @@ function applyTreeOp(root: Node, op: TreeOp, index: number): void {
   const slot = all[op.at % all.length]!;
   const node = getSlot(slot);
   switch (op.op) {
-    case 'replace': setSlot(slot, op.value); break;
-    case 'delete': deleteSlot(slot); break;
-    case 'swapType': setSlot(slot, swapType(node, op.to)); break;
+    case 'replace':
+      setSlot(slot, op.value);
+      break;
+    case 'delete':
+      deleteSlot(slot);
+      break;
+    case 'swapType':
+      setSlot(slot, swapType(node, op.to));
+      break;
     case 'longList': {
       // At most about 5 MB of text: long enough to hurt a quadratic loop, short enough to write.
       const length = Math.min(op.length, Math.floor(5e6 / Math.max(1, emit(node).length)));
@@ -130,8 +223,12 @@ function applyTreeOp(root: Node, op: TreeOp, index: number): void {
       setSlot(slot, { kind: 'seq', items: Array.from({ length }, () => clone(node)) });
       break;
     }
-    case 'deepNest': setSlot(slot, nest(op.depth, op.shape)); break;
-    case 'aliasBomb': setSlot(slot, bomb(op.levels, op.width, index)); break;
+    case 'deepNest':
+      setSlot(slot, nest(op.depth, op.shape));
+      break;
+    case 'aliasBomb':
+      setSlot(slot, bomb(op.levels, op.width, index));
+      break;
     case 'duplicateKey':
       if (slot.parent.kind === 'map') slot.parent.entries.splice(slot.index + 1, 0, [slot.parent.entries[slot.index]![0], op.value]);
       else slot.parent.items.splice(slot.index + 1, 0, op.value);
@@ -148,7 +245,8 @@ function applyTreeOp(root: Node, op: TreeOp, index: number): void {
 }
 
 function onlyPlain(node: Node): boolean {
-  if (node.kind === 'map') return node.entries.every(([, v]) => onlyPlain(v)) && new Set(node.entries.map(([k]) => k)).size === node.entries.length;
+  if (node.kind === 'map')
+    return node.entries.every(([, v]) => onlyPlain(v)) && new Set(node.entries.map(([k]) => k)).size === node.entries.length;
   if (node.kind === 'seq') return node.items.every(onlyPlain);
   return node.kind === 'scalar';
 }
@@ -156,7 +254,8 @@ function onlyPlain(node: Node): boolean {
 function toPlain(node: Node): unknown {
   if (node.kind === 'map') {
     const out: Record<string, unknown> = {};
-    for (const [k, v] of node.entries) Object.defineProperty(out, k, { value: toPlain(v), enumerable: true, writable: true, configurable: true });
+    for (const [k, v] of node.entries)
+      Object.defineProperty(out, k, { value: toPlain(v), enumerable: true, writable: true, configurable: true });
     return out;
   }
   if (node.kind === 'seq') return node.items.map(toPlain);
@@ -166,10 +265,17 @@ function toPlain(node: Node): unknown {
 function applyTextOp(bytes: Buffer, op: TextOp): Buffer {
   const pos = bytes.length === 0 ? 0 : op.at % bytes.length;
   switch (op.op) {
-    case 'flip': { const copy = Buffer.from(bytes); if (copy.length > 0) copy[pos] = op.byte; return copy; }
-    case 'truncate': return bytes.subarray(0, pos);
-    case 'insert': return Buffer.concat([bytes.subarray(0, pos), Buffer.from(op.text, 'utf8'), bytes.subarray(pos)]);
-    case 'cut': return Buffer.concat([bytes.subarray(0, pos), bytes.subarray(pos + op.length)]);
+    case 'flip': {
+      const copy = Buffer.from(bytes);
+      if (copy.length > 0) copy[pos] = op.byte;
+      return copy;
+    }
+    case 'truncate':
+      return bytes.subarray(0, pos);
+    case 'insert':
+      return Buffer.concat([bytes.subarray(0, pos), Buffer.from(op.text, 'utf8'), bytes.subarray(pos)]);
+    case 'cut':
+      return Buffer.concat([bytes.subarray(0, pos), bytes.subarray(pos + op.length)]);
   }
 }
 
@@ -191,7 +297,9 @@ export function oneCorner(root: Node): void {
 export function applyPlan(baseText: string, p: Plan, prepare?: (root: Node) => void): Buffer {
   const root = clone(fromValue(parse(baseText)));
   prepare?.(root);
-  p.tree.forEach((op, i) => { applyTreeOp(root, op, i); });
+  p.tree.forEach((op, i) => {
+    applyTreeOp(root, op, i);
+  });
   const text = p.block && onlyPlain(root) ? stringify(toPlain(root)) : `${emit(root)}\n`;
   let bytes: Buffer = Buffer.from(text, 'utf8');
   for (const op of p.text) bytes = applyTextOp(bytes, op);

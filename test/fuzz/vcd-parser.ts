@@ -14,7 +14,26 @@ export interface VcdReading {
 const DECLARATIONS = new Set(['$comment', '$date', '$version', '$timescale', '$scope', '$upscope', '$var', '$enddefinitions']);
 const COMMANDS = new Set([...DECLARATIONS, '$dumpvars', '$dumpall', '$dumpon', '$dumpoff']);
 const SCOPE_TYPES = new Set(['module', 'task', 'function', 'begin', 'fork']);
-const VAR_TYPES = new Set(['event', 'integer', 'parameter', 'real', 'realtime', 'reg', 'supply0', 'supply1', 'time', 'tri', 'triand', 'trior', 'trireg', 'tri0', 'tri1', 'wand', 'wire', 'wor']);
+const VAR_TYPES = new Set([
+  'event',
+  'integer',
+  'parameter',
+  'real',
+  'realtime',
+  'reg',
+  'supply0',
+  'supply1',
+  'time',
+  'tri',
+  'triand',
+  'trior',
+  'trireg',
+  'tri0',
+  'tri1',
+  'wand',
+  'wire',
+  'wor',
+]);
 const PRINTABLE = /^[\x21-\x7e]+$/;
 const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_$]*$/;
 
@@ -23,7 +42,8 @@ export function readVcdStrict(text: string): VcdReading {
   const vars: string[] = [];
   // Comment text may carry any printable character; the rest of the file is ASCII (18.2).
   if (/[\x00-\x08\x0b\x0c\x0e-\x1f\x7f]/.test(text)) problems.push('control characters');
-  if (/[^\x09\x0a\x0d\x20-\x7e]/.test(text.replace(/\$(comment|date|version)\s[\s\S]*?\s\$end/g, ''))) problems.push('characters outside ASCII outside $comment');
+  if (/[^\x09\x0a\x0d\x20-\x7e]/.test(text.replace(/\$(comment|date|version)\s[\s\S]*?\s\$end/g, '')))
+    problems.push('characters outside ASCII outside $comment');
   const tokens = text.split(/\s+/).filter((t) => t !== '');
   let i = 0;
   const scope: string[] = [];
@@ -38,15 +58,20 @@ export function readVcdStrict(text: string): VcdReading {
   let definitionsEnded = false;
   while (i < tokens.length && !definitionsEnded && problems.length === 0) {
     const t = tokens[i++]!;
-    if (!DECLARATIONS.has(t)) { problems.push(`unexpected token in the header: ${JSON.stringify(t.slice(0, 40))}`); break; }
+    if (!DECLARATIONS.has(t)) {
+      problems.push(`unexpected token in the header: ${JSON.stringify(t.slice(0, 40))}`);
+      break;
+    }
     const body = until();
     // Identifier codes may start with $, so only whole command words are out of place here.
     const free = t === '$comment' || t === '$date' || t === '$version';
     const command = body.find((b) => COMMANDS.has(b));
     if (!free && command !== undefined) problems.push(`${t} holds the command ${command}`);
-    if (t === '$timescale' && !/^(1|10|100)\s*(s|ms|us|ns|ps|fs)$/.test(body.join(' ').replace(/^(\d+) /, '$1'))) problems.push(`bad $timescale ${JSON.stringify(body.join(' '))}`);
+    if (t === '$timescale' && !/^(1|10|100)\s*(s|ms|us|ns|ps|fs)$/.test(body.join(' ').replace(/^(\d+) /, '$1')))
+      problems.push(`bad $timescale ${JSON.stringify(body.join(' '))}`);
     if (t === '$scope') {
-      if (body.length !== 2 || !SCOPE_TYPES.has(body[0]!) || !IDENTIFIER.test(body[1]!)) problems.push(`bad $scope ${JSON.stringify(body.join(' ').slice(0, 60))}`);
+      if (body.length !== 2 || !SCOPE_TYPES.has(body[0]!) || !IDENTIFIER.test(body[1]!))
+        problems.push(`bad $scope ${JSON.stringify(body.join(' ').slice(0, 60))}`);
       scope.push(body[1] ?? '');
     }
     if (t === '$upscope') {
@@ -55,8 +80,17 @@ export function readVcdStrict(text: string): VcdReading {
     }
     if (t === '$var') {
       const [type, size, code, ref, ...rest] = body;
-      if (!type || !VAR_TYPES.has(type) || !/^[1-9]\d*$/.test(size ?? '') || !code || !PRINTABLE.test(code) || !ref || !IDENTIFIER.test(ref)
-        || rest.length > 1 || (rest.length === 1 && !/^\[\d+(:\d+)?\]$/.test(rest[0]!))) {
+      if (
+        !type ||
+        !VAR_TYPES.has(type) ||
+        !/^[1-9]\d*$/.test(size ?? '') ||
+        !code ||
+        !PRINTABLE.test(code) ||
+        !ref ||
+        !IDENTIFIER.test(ref) ||
+        rest.length > 1 ||
+        (rest.length === 1 && !/^\[\d+(:\d+)?\]$/.test(rest[0]!))
+      ) {
         problems.push(`bad $var ${JSON.stringify(body.join(' ').slice(0, 80))}`);
       } else {
         if (scope.length === 0) problems.push(`$var ${ref} outside any scope`);
@@ -80,7 +114,10 @@ export function readVcdStrict(text: string): VcdReading {
     const t = tokens[i++]!;
     if (t === '$dumpvars' || t === '$end' || t === '$dumpall' || t === '$dumpon' || t === '$dumpoff') continue;
     if (t.startsWith('#')) {
-      if (!/^#\d+$/.test(t)) { problems.push(`bad time ${t}`); break; }
+      if (!/^#\d+$/.test(t)) {
+        problems.push(`bad time ${t}`);
+        break;
+      }
       const now = Number(t.slice(1));
       if (now <= time) problems.push(`time ${now} does not increase (after ${time})`);
       time = now;

@@ -27,10 +27,14 @@ export function fromValue(value: unknown): Node {
 
 export function clone(node: Node): Node {
   switch (node.kind) {
-    case 'map': return { kind: 'map', entries: node.entries.map(([k, v]) => [k, clone(v)]) };
-    case 'seq': return { kind: 'seq', items: node.items.map(clone) };
-    case 'anchor': return { kind: 'anchor', name: node.name, node: clone(node.node) };
-    default: return node;
+    case 'map':
+      return { kind: 'map', entries: node.entries.map(([k, v]) => [k, clone(v)]) };
+    case 'seq':
+      return { kind: 'seq', items: node.items.map(clone) };
+    case 'anchor':
+      return { kind: 'anchor', name: node.name, node: clone(node.node) };
+    default:
+      return node;
   }
 }
 
@@ -45,11 +49,16 @@ function emitNumber(n: number): string {
 /** Flow YAML; strings are JSON-quoted, which YAML's double-quoted style reads back exactly. */
 export function emit(node: Node): string {
   switch (node.kind) {
-    case 'map': return `{${node.entries.map(([k, v]) => `${JSON.stringify(k)}: ${emit(v)}`).join(', ')}}`;
-    case 'seq': return `[${node.items.map(emit).join(', ')}]`;
-    case 'raw': return node.text;
-    case 'anchor': return `&${node.name} ${emit(node.node)}`;
-    case 'alias': return `*${node.name}`;
+    case 'map':
+      return `{${node.entries.map(([k, v]) => `${JSON.stringify(k)}: ${emit(v)}`).join(', ')}}`;
+    case 'seq':
+      return `[${node.items.map(emit).join(', ')}]`;
+    case 'raw':
+      return node.text;
+    case 'anchor':
+      return `&${node.name} ${emit(node.node)}`;
+    case 'alias':
+      return `*${node.name}`;
     case 'scalar': {
       const v = node.value;
       if (typeof v === 'number') return emitNumber(v);
@@ -73,9 +82,15 @@ export function slots(root: Node): Slot[] {
   const walk = (node: Node): void => {
     const inner = node.kind === 'anchor' ? node.node : node;
     if (inner.kind === 'map') {
-      inner.entries.forEach(([, v], index) => { out.push({ parent: inner, index, order: out.length }); walk(v); });
+      inner.entries.forEach(([, v], index) => {
+        out.push({ parent: inner, index, order: out.length });
+        walk(v);
+      });
     } else if (inner.kind === 'seq') {
-      inner.items.forEach((v, index) => { out.push({ parent: inner, index, order: out.length }); walk(v); });
+      inner.items.forEach((v, index) => {
+        out.push({ parent: inner, index, order: out.length });
+        walk(v);
+      });
     }
   };
   walk(root);
@@ -117,8 +132,14 @@ export function renameEverywhere(node: Node, from: string, to: string): void {
 
 /** Every distinct string value and key in the tree, in document order. */
 export function strings(node: Node, out: string[] = []): string[] {
-  const add = (s: string) => { if (!out.includes(s)) out.push(s); };
-  if (node.kind === 'map') for (const [k, v] of node.entries) { add(k); strings(v, out); }
+  const add = (s: string) => {
+    if (!out.includes(s)) out.push(s);
+  };
+  if (node.kind === 'map')
+    for (const [k, v] of node.entries) {
+      add(k);
+      strings(v, out);
+    }
   else if (node.kind === 'seq') for (const v of node.items) strings(v, out);
   else if (node.kind === 'anchor') strings(node.node, out);
   else if (node.kind === 'scalar' && typeof node.value === 'string') add(node.value);

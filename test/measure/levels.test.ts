@@ -7,7 +7,11 @@ import { expectClose } from '../helpers.js';
 
 const ps = 1e-12;
 const net = compileNetlist({
-  clock: 'clk', phases: ['a', 'b'], complements: {}, early: {}, loads: {},
+  clock: 'clk',
+  phases: ['a', 'b'],
+  complements: {},
+  early: {},
+  loads: {},
   gates: [
     { name: 'u1', cell: 'INV', size: 1, inputs: ['clk'], output: 'a' },
     { name: 'u2', cell: 'INV', size: 1, inputs: ['a'], output: 'b' },
@@ -16,7 +20,10 @@ const net = compileNetlist({
 
 function settled(list: Array<[string, number, 0 | 1, number]>): SimulationResult {
   return {
-    status: 'settled', reason: '', period: 10e-9, windowStart: 0,
+    status: 'settled',
+    reason: '',
+    period: 10e-9,
+    windowStart: 0,
     edges: {
       count: list.length,
       net: Int32Array.from(list, (e) => netId(net, e[0])),
@@ -24,7 +31,9 @@ function settled(list: Array<[string, number, 0 | 1, number]>): SimulationResult
       rising: Uint8Array.from(list, (e) => e[2]),
       transition: Float64Array.from(list, (e) => e[3]),
     },
-    startValues: new Uint8Array(net.netNames.length), glitches: [], periodsSimulated: 2,
+    startValues: new Uint8Array(net.netNames.length),
+    glitches: [],
+    periodsSimulated: 2,
   };
 }
 
@@ -45,14 +54,20 @@ describe('linearCrossings', () => {
 });
 
 describe('modelCrossings', () => {
-  const result = settled([['clk', 0, 1, 100 * ps], ['a', 0.2e-9, 0, 100 * ps], ['clk', 5e-9, 0, 100 * ps], ['a', 5.1e-9, 1, 200 * ps]]);
+  const result = settled([
+    ['clk', 0, 1, 100 * ps],
+    ['a', 0.2e-9, 0, 100 * ps],
+    ['clk', 5e-9, 0, 100 * ps],
+    ['a', 5.1e-9, 1, 200 * ps],
+  ]);
   const index = new CycleIndex(result, net);
   const a: NetCycle = { net: 'a', rise: 5.1e-9, fall: 0.2e-9, riseTransition: 200 * ps, fallTransition: 100 * ps };
 
-  it('asks the model with the edge\'s own input transition and direction', () => {
+  it("asks the model with the edge's own input transition and direction", () => {
     const calls: string[] = [];
     const timing = {
-      delay: () => 0, transition: () => 0,
+      delay: () => 0,
+      transition: () => 0,
       crossing: (g: number, pin: number, rising: boolean, tin: number, level: number) => {
         calls.push(`${g} ${pin} ${rising} ${Math.round(tin / ps)} ${level}`);
         return rising ? -7 * ps : 9 * ps;

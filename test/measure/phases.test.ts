@@ -10,7 +10,10 @@ const T = 10 * ns;
 
 /** Nets to hang hand-made edges on: two phases and an early phase (the gates are never simulated). */
 const net: CompiledNetlist = compileNetlist({
-  clock: 'clk', phases: ['p1', 'p2'], complements: {}, early: { p1: 'p1e' },
+  clock: 'clk',
+  phases: ['p1', 'p2'],
+  complements: {},
+  early: { p1: 'p1e' },
   gates: [
     { name: 'a', cell: 'INV', size: 1, inputs: ['clk'], output: 'p1' },
     { name: 'b', cell: 'INV', size: 1, inputs: ['p1'], output: 'p2' },
@@ -27,7 +30,10 @@ function result(list: Edge[], start = 0, startValues: Record<string, 0 | 1> = {}
   const values = new Uint8Array(net.netNames.length);
   for (const [name, v] of Object.entries(startValues)) values[netId(net, name)] = v;
   return {
-    status: 'settled', reason: '', period: T, windowStart: start,
+    status: 'settled',
+    reason: '',
+    period: T,
+    windowStart: start,
     edges: {
       count: sorted.length,
       net: Int32Array.from(sorted, (e) => netId(net, e[0])),
@@ -35,12 +41,19 @@ function result(list: Edge[], start = 0, startValues: Record<string, 0 | 1> = {}
       rising: Uint8Array.from(sorted, (e) => e[2]),
       transition: Float64Array.from(sorted, (e) => e[3]),
     },
-    startValues: values, glitches: [], periodsSimulated: 2,
+    startValues: values,
+    glitches: [],
+    periodsSimulated: 2,
   };
 }
 
-const cycle = (name: string, rise: number, fall: number, riseTransition = 100 * ps, fallTransition = 100 * ps): NetCycle =>
-  ({ net: name, rise, fall, riseTransition, fallTransition });
+const cycle = (name: string, rise: number, fall: number, riseTransition = 100 * ps, fallTransition = 100 * ps): NetCycle => ({
+  net: name,
+  rise,
+  fall,
+  riseTransition,
+  fallTransition,
+});
 
 describe('deadTime', () => {
   it('measures from the falling 50 % point of one phase to the rising 50 % point of the other', () => {
@@ -82,7 +95,13 @@ const netCycle = (r: SimulationResult, n: CompiledNetlist, name: string) => new 
 
 describe('CycleIndex.cycle', () => {
   it('finds the one rise and one fall of a net with their transitions', () => {
-    const r = result([['p1', 1 * ns, 1, 120 * ps], ['p1', 5 * ns, 0, 90 * ps]], 20 * ns);
+    const r = result(
+      [
+        ['p1', 1 * ns, 1, 120 * ps],
+        ['p1', 5 * ns, 0, 90 * ps],
+      ],
+      20 * ns,
+    );
     const c = netCycle(r, net, 'p1');
     if (typeof c === 'string') throw new Error(c);
     expectClose(c.rise, 21 * ns, 1e-12);
@@ -93,15 +112,34 @@ describe('CycleIndex.cycle', () => {
   it.each([
     [[], { p1: 0 }, 'p1 never switches: it stays low (the generator is stuck)'],
     [[], { p1: 1 }, 'p1 never switches: it stays high (the generator is stuck)'],
-    [[['p1', 1 * ns, 1, 0], ['p1', 2 * ns, 0, 0], ['p1', 3 * ns, 1, 0], ['p1', 4 * ns, 0, 0]], {},
-      'p1 switches 2 times up and 2 times down per period; a phase must switch once each way (glitching)'],
+    [
+      [
+        ['p1', 1 * ns, 1, 0],
+        ['p1', 2 * ns, 0, 0],
+        ['p1', 3 * ns, 1, 0],
+        ['p1', 4 * ns, 0, 0],
+      ],
+      {},
+      'p1 switches 2 times up and 2 times down per period; a phase must switch once each way (glitching)',
+    ],
   ] as const)('explains a net that does not switch once each way (%#)', (list, start, reason) => {
     expect(netCycle(result(list as unknown as Edge[], 0, start), net, 'p1')).toBe(reason);
   });
 
   it('re-indexes a new result on reset, forgetting the old edges', () => {
-    const index = new CycleIndex(result([['p1', 1 * ns, 1, 0], ['p1', 2 * ns, 0, 0]]), net);
-    index.reset(result([['p1', 3 * ns, 1, 0], ['p1', 7 * ns, 0, 0]]));
+    const index = new CycleIndex(
+      result([
+        ['p1', 1 * ns, 1, 0],
+        ['p1', 2 * ns, 0, 0],
+      ]),
+      net,
+    );
+    index.reset(
+      result([
+        ['p1', 3 * ns, 1, 0],
+        ['p1', 7 * ns, 0, 0],
+      ]),
+    );
     expect(index.cycle('p1')).toEqual({ net: 'p1', rise: 3 * ns, fall: 7 * ns, riseTransition: 0, fallTransition: 0 });
     index.reset(result([], 0, { p1: 1 }));
     expect(index.cycle('p1')).toBe('p1 never switches: it stays high (the generator is stuck)');
@@ -113,11 +151,18 @@ describe('CycleIndex.cycle', () => {
 });
 
 describe('measurePhases', () => {
-  const handmade = (p2Rise: number): SimulationResult => result([
-    ['p1', 1 * ns, 1, 100 * ps], ['p1', 5 * ns, 0, 150 * ps],
-    ['p2', p2Rise, 1, 250 * ps], ['p2', 9.5 * ns, 0, 50 * ps],
-    ['p1e', 0.9 * ns, 1, 100 * ps], ['p1e', 4.6 * ns, 0, 100 * ps],
-  ], 30 * ns);
+  const handmade = (p2Rise: number): SimulationResult =>
+    result(
+      [
+        ['p1', 1 * ns, 1, 100 * ps],
+        ['p1', 5 * ns, 0, 150 * ps],
+        ['p2', p2Rise, 1, 250 * ps],
+        ['p2', 9.5 * ns, 0, 50 * ps],
+        ['p1e', 0.9 * ns, 1, 100 * ps],
+        ['p1e', 4.6 * ns, 0, 100 * ps],
+      ],
+      30 * ns,
+    );
 
   it('reports both dead times, gaps, widths, duty and no overlap', () => {
     const m = measurePhases(handmade(6 * ns), net);
@@ -154,25 +199,33 @@ describe('measurePhases', () => {
     expect(m.level).toBe(0.3);
   });
 
-  it('takes the delay model\'s error band off the gap the checks read, in proportion to the dead time', () => {
+  it("takes the delay model's error band off the gap the checks read, in proportion to the dead time", () => {
     const m = measurePhases(handmade(6 * ns), net, undefined, { band: 0.05 });
     if (!m.ok) throw new Error(m.reason);
     const d = m.deadTimes[0];
     expectClose(d.gapBound, d.gap - 0.05 * 1 * ns, 1e-12);
   });
 
-  it('places each phase edge\'s level crossing where the delay model shapes it', () => {
+  it("places each phase edge's level crossing where the delay model shapes it", () => {
     // A model whose edges reach any level 30 ps (rising: before, falling: after) from the 50 % point.
     const shaped = {
-      delay: () => 0, transition: () => 0,
+      delay: () => 0,
+      transition: () => 0,
       crossing: (_g: number, _p: number, rising: boolean) => (rising ? -30 * ps : 30 * ps),
     };
-    const r = result([
-      ['clk', 0, 1, 100 * ps], ['clk', 5 * ns, 0, 100 * ps],
-      ['p1', 1 * ns, 1, 100 * ps], ['p1', 5 * ns, 0, 150 * ps],
-      ['p2', 6 * ns, 1, 250 * ps], ['p2', 9.5 * ns, 0, 50 * ps],
-      ['p1e', 0.9 * ns, 1, 100 * ps], ['p1e', 4.6 * ns, 0, 100 * ps],
-    ], 30 * ns);
+    const r = result(
+      [
+        ['clk', 0, 1, 100 * ps],
+        ['clk', 5 * ns, 0, 100 * ps],
+        ['p1', 1 * ns, 1, 100 * ps],
+        ['p1', 5 * ns, 0, 150 * ps],
+        ['p2', 6 * ns, 1, 250 * ps],
+        ['p2', 9.5 * ns, 0, 50 * ps],
+        ['p1e', 0.9 * ns, 1, 100 * ps],
+        ['p1e', 4.6 * ns, 0, 100 * ps],
+      ],
+      30 * ns,
+    );
     const m = measurePhases(r, net, undefined, { timing: shaped });
     if (!m.ok) throw new Error(m.reason);
     expectClose(m.deadTimes[0].gap, 1 * ns - 60 * ps, 1e-12);
@@ -184,7 +237,12 @@ describe('measurePhases', () => {
   });
 
   it('fails when an early phase does not switch', () => {
-    const r = result([['p1', 1 * ns, 1, 0], ['p1', 5 * ns, 0, 0], ['p2', 6 * ns, 1, 0], ['p2', 9 * ns, 0, 0]]);
+    const r = result([
+      ['p1', 1 * ns, 1, 0],
+      ['p1', 5 * ns, 0, 0],
+      ['p2', 6 * ns, 1, 0],
+      ['p2', 9 * ns, 0, 0],
+    ]);
     expect(measurePhases(r, net)).toEqual({ ok: false, reason: 'p1e never switches: it stays low (the generator is stuck)' });
   });
 });

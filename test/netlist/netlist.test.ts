@@ -29,9 +29,15 @@ describe('compileNetlist', () => {
     expect(Array.from(c.driver)).toEqual([-1, 0, 2, 1]);
     const fanout = (name: string) => {
       const n = netId(c, name);
-      return Array.from({ length: c.fanoutStart[n + 1]! - c.fanoutStart[n]! }, (_, k) => [c.fanoutGate[c.fanoutStart[n]! + k], c.fanoutPin[c.fanoutStart[n]! + k]]);
+      return Array.from({ length: c.fanoutStart[n + 1]! - c.fanoutStart[n]! }, (_, k) => [
+        c.fanoutGate[c.fanoutStart[n]! + k],
+        c.fanoutPin[c.fanoutStart[n]! + k],
+      ]);
     };
-    expect(fanout('clk')).toEqual([[0, 0], [1, 0]]);
+    expect(fanout('clk')).toEqual([
+      [0, 0],
+      [1, 0],
+    ]);
     expect(fanout('a')).toEqual([[2, 1]]);
     expect(fanout('b')).toEqual([[1, 1]]);
     expect(Array.from(c.gateSize)).toEqual([1, 1, 1]);
@@ -42,18 +48,28 @@ describe('compileNetlist', () => {
   });
 
   it.each([
-    ['a wrong pin count', [{ name: 'g', cell: 'NAND2', size: 1, inputs: ['clk'], output: 'a' }, inv('i', 'a', 'b')],
-      'generator.gates[0].inputs: ["clk"] has 1 nets; cell NAND2 takes exactly 2'],
-    ['two gates with one name', [inv('u', 'clk', 'a'), inv('u', 'a', 'b')],
-      'generator.gates[1].name: "u" is used by two gates'],
-    ['two drivers on a net', [inv('u1', 'clk', 'a'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
-      'generator.gates[1].output: "a" is already driven by gate "u1"'],
-    ['a gate driving the clock', [inv('u1', 'a', 'clk'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
-      'generator.gates[0].output: "clk" is the input clock net'],
-    ['an undriven net', [inv('u1', 'clk', 'a'), { name: 'g', cell: 'NAND2', size: 1, inputs: ['a', 'floating'], output: 'b' }],
-      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"'],
-    ['a phase that no gate drives', [inv('u1', 'clk', 'a')],
-      'generator.phases[1]: "b" is not the output of any gate in the netlist'],
+    [
+      'a wrong pin count',
+      [{ name: 'g', cell: 'NAND2', size: 1, inputs: ['clk'], output: 'a' }, inv('i', 'a', 'b')],
+      'generator.gates[0].inputs: ["clk"] has 1 nets; cell NAND2 takes exactly 2',
+    ],
+    ['two gates with one name', [inv('u', 'clk', 'a'), inv('u', 'a', 'b')], 'generator.gates[1].name: "u" is used by two gates'],
+    [
+      'two drivers on a net',
+      [inv('u1', 'clk', 'a'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
+      'generator.gates[1].output: "a" is already driven by gate "u1"',
+    ],
+    [
+      'a gate driving the clock',
+      [inv('u1', 'a', 'clk'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
+      'generator.gates[0].output: "clk" is the input clock net',
+    ],
+    [
+      'an undriven net',
+      [inv('u1', 'clk', 'a'), { name: 'g', cell: 'NAND2', size: 1, inputs: ['a', 'floating'], output: 'b' }],
+      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"',
+    ],
+    ['a phase that no gate drives', [inv('u1', 'clk', 'a')], 'generator.phases[1]: "b" is not the output of any gate in the netlist'],
   ] as const)('refuses %s, naming the gate or net', (_what, gates, text) => {
     expect(message(() => compileNetlist(netlist(gates as unknown as GateSpec[])))).toContain(text);
   });
@@ -82,12 +98,15 @@ describe('compileNetlist', () => {
 
   it('refuses a complement or early net keyed by something that is not a phase', () => {
     const gates = [...latch(), inv('cb', 'a', 'ab')];
-    expect(message(() => compileNetlist(netlist(gates, ['a', 'b'], { complements: { x: 'ab' } }))))
-      .toBe('generator: "x" is not one of the phases a, b');
+    expect(message(() => compileNetlist(netlist(gates, ['a', 'b'], { complements: { x: 'ab' } })))).toBe(
+      'generator: "x" is not one of the phases a, b',
+    );
   });
 
   it('uses the given path prefix in its messages', () => {
-    expect(message(() => compileNetlist(netlist([inv('u', 'nowhere', 'a'), inv('v', 'a', 'b')]), 'switches'))).toMatch(/^switches\[0\]\.inputs\[0\]/);
+    expect(message(() => compileNetlist(netlist([inv('u', 'nowhere', 'a'), inv('v', 'a', 'b')]), 'switches'))).toMatch(
+      /^switches\[0\]\.inputs\[0\]/,
+    );
   });
 });
 
@@ -97,11 +116,19 @@ describe('netLoads', () => {
   const caps = { cgateN: card.n.cgate, cgateP: card.p.cgate, cdrainN: card.n.cdrain, cdrainP: card.p.cdrain };
 
   it('sums fanout pins, the driver parasitic, the generator capacitors and the declared loads', () => {
-    const gates = [inv('d', 'clk', 'a', 2), { name: 'g', cell: 'NAND2', size: 3, inputs: ['a', 'clk'], output: 'b' } as GateSpec, inv('h', 'a', 'c', 4)];
+    const gates = [
+      inv('d', 'clk', 'a', 2),
+      { name: 'g', cell: 'NAND2', size: 3, inputs: ['a', 'clk'], output: 'b' } as GateSpec,
+      inv('h', 'a', 'c', 4),
+    ];
     const c = compileNetlist(netlist(gates, ['a', 'b'], { loads: { a: 10e-15 } }));
     const loads = netLoads(c, card, { path: 'loads', caps: { a: 100e-15 } });
-    const expected = pinCapacitance('NAND2', 3, unit, caps) + pinCapacitance('INV', 4, unit, caps)
-      + parasiticCapacitance('INV', 2, unit, caps) + 10e-15 + 100e-15;
+    const expected =
+      pinCapacitance('NAND2', 3, unit, caps) +
+      pinCapacitance('INV', 4, unit, caps) +
+      parasiticCapacitance('INV', 2, unit, caps) +
+      10e-15 +
+      100e-15;
     expectClose(loads[netId(c, 'a')]!, expected, 1e-12);
     // b has no fanout: only its driver's parasitic.
     expectClose(loads[netId(c, 'b')]!, parasiticCapacitance('NAND2', 3, unit, caps), 1e-12);
@@ -112,7 +139,8 @@ describe('netLoads', () => {
 
   it('names the declaring path and the nets when a load names no net', () => {
     const c = compileNetlist(netlist(latch()));
-    expect(message(() => netLoads(c, card, { path: 'loads', caps: { p9: 1e-12 } })))
-      .toBe('loads.p9: "p9" is not a net of the generator; nets are clk, clkb, b, a');
+    expect(message(() => netLoads(c, card, { path: 'loads', caps: { p9: 1e-12 } }))).toBe(
+      'loads.p9: "p9" is not a net of the generator; nets are clk, clkb, b, a',
+    );
   });
 });

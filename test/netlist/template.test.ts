@@ -101,7 +101,14 @@ describe('expandTemplate options', () => {
   });
 
   it('names the phases from the design', () => {
-    const n = template({ template: 'nand', stages: 2, phases: ['phi1', 'phi2'], complementary: true, buffer: [2, 6, 18], complementSize: 6 });
+    const n = template({
+      template: 'nand',
+      stages: 2,
+      phases: ['phi1', 'phi2'],
+      complementary: true,
+      buffer: [2, 6, 18],
+      complementSize: 6,
+    });
     expect(n.phases).toEqual(['phi1', 'phi2']);
     expect(n.complements).toEqual({ phi1: 'phi1b', phi2: 'phi2b' });
     expect(gate(n, 'u_comp1')).toMatchObject({ cell: 'INV', inputs: ['phi1'], output: 'phi1b', size: 6 });
@@ -130,20 +137,28 @@ describe('expandTemplate options', () => {
 });
 
 describe('bufferStages', () => {
-  it.each([[8, [2, 8]], [2, [1, 2]], [0.5, [0.5, 0.5]], [16, [4, 16]]] as const)('splits a BUF of size %d into %j', (size, stages) => {
+  it.each([
+    [8, [2, 8]],
+    [2, [1, 2]],
+    [0.5, [0.5, 0.5]],
+    [16, [4, 16]],
+  ] as const)('splits a BUF of size %d into %j', (size, stages) => {
     expect(bufferStages(size)).toEqual(stages);
   });
 });
 
 describe('expandNetlist', () => {
   it('expands a BUF into two inverters through <name>.mid and keeps other cells', () => {
-    const n = expandNetlist(parseWith(netlistSchema, {
-      template: 'netlist', phases: ['a', 'b'],
-      gates: [
-        { name: 'u1', cell: 'BUF', size: 8, inputs: ['clk'], output: 'a' },
-        { name: 'u2', cell: 'INV', inputs: ['clk'], output: 'b' },
-      ],
-    }));
+    const n = expandNetlist(
+      parseWith(netlistSchema, {
+        template: 'netlist',
+        phases: ['a', 'b'],
+        gates: [
+          { name: 'u1', cell: 'BUF', size: 8, inputs: ['clk'], output: 'a' },
+          { name: 'u2', cell: 'INV', inputs: ['clk'], output: 'b' },
+        ],
+      }),
+    );
     expect(n.gates).toEqual([
       { name: 'u1.1', cell: 'INV', size: 2, inputs: ['clk'], output: 'u1.mid' },
       { name: 'u1.2', cell: 'INV', size: 8, inputs: ['u1.mid'], output: 'a' },
@@ -154,24 +169,29 @@ describe('expandNetlist', () => {
   });
 
   it('names the gate the user wrote when a gate after a BUF is wrong', () => {
-    const spec = (third: object) => parseWith(netlistSchema, {
-      template: 'netlist', phases: ['a', 'b'],
-      gates: [
-        { name: 'u1', cell: 'BUF', inputs: ['clk'], output: 'a' },
-        { name: 'u2', cell: 'BUF', inputs: ['a'], output: 'b' },
-        { name: 'u3', cell: 'INV', ...third },
-      ],
-    });
+    const spec = (third: object) =>
+      parseWith(netlistSchema, {
+        template: 'netlist',
+        phases: ['a', 'b'],
+        gates: [
+          { name: 'u1', cell: 'BUF', inputs: ['clk'], output: 'a' },
+          { name: 'u2', cell: 'BUF', inputs: ['a'], output: 'b' },
+          { name: 'u3', cell: 'INV', ...third },
+        ],
+      });
     // Expanded, u3 is gate 4; the user wrote it third.
-    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['nowhere'], output: 'c' })))))
-      .toBe('generator.gates[2].inputs[0]: "nowhere" is not driven by any gate and is not the clock "clk"; every input net needs a driver');
-    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['clk'], output: 'a' })))))
-      .toBe('generator.gates[2].output: "a" is already driven by gate "u1.2"; a net has one driver');
+    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['nowhere'], output: 'c' }))))).toBe(
+      'generator.gates[2].inputs[0]: "nowhere" is not driven by any gate and is not the clock "clk"; every input net needs a driver',
+    );
+    expect(message(() => compileNetlist(expandNetlist(spec({ inputs: ['clk'], output: 'a' }))))).toBe(
+      'generator.gates[2].output: "a" is already driven by gate "u1.2"; a net has one driver',
+    );
   });
 
   it('refuses a BUF with more than one input', () => {
     const spec = parseWith(netlistSchema, {
-      template: 'netlist', phases: ['a', 'b'],
+      template: 'netlist',
+      phases: ['a', 'b'],
       gates: [{ name: 'u1', cell: 'BUF', inputs: ['clk', 'clk'], output: 'a' }],
     });
     expect(message(() => expandNetlist(spec))).toBe('generator.gates[0].inputs: ["clk","clk"] has 2 nets; cell BUF takes exactly 1');

@@ -23,9 +23,15 @@ describe('cornerName', () => {
 
 describe('expandCorners', () => {
   it('takes the cartesian product in process, vdd, temperature order', () => {
-    const corners = expandCorners(spec({
-      process: ['tt', 'ss', 'ff', 'fs', 'sf'], vdd: ['1.62V', '1.8V', '1.98V'], temperature: [-40, 27, 125],
-    }), card, 0.5);
+    const corners = expandCorners(
+      spec({
+        process: ['tt', 'ss', 'ff', 'fs', 'sf'],
+        vdd: ['1.62V', '1.8V', '1.98V'],
+        temperature: [-40, 27, 125],
+      }),
+      card,
+      0.5,
+    );
     expect(corners).toHaveLength(45);
     expect(corners.slice(0, 4).map((c) => c.corner.name)).toEqual(['tt/1.62V/-40C', 'tt/1.62V/27C', 'tt/1.62V/125C', 'tt/1.8V/-40C']);
     expect(corners[44]!.corner).toEqual({ name: 'sf/1.98V/125C', process: 'sf', vdd: 1.98, temperature: 125, duty: 0.5 });
@@ -45,35 +51,63 @@ describe('expandCorners', () => {
   });
 
   it('accepts an explicit list with the nominal duty by default', () => {
-    const corners = expandCorners(spec({ list: [{ process: 'ss', vdd: '1.62V', temperature: '125C' }, { process: 'ff', vdd: 1.98, temperature: -40 }] }), card, 0.5);
+    const corners = expandCorners(
+      spec({
+        list: [
+          { process: 'ss', vdd: '1.62V', temperature: '125C' },
+          { process: 'ff', vdd: 1.98, temperature: -40 },
+        ],
+      }),
+      card,
+      0.5,
+    );
     expect(corners.map((c) => c.corner.name)).toEqual(['ss/1.62V/125C', 'ff/1.98V/-40C']);
     expect(corners[1]!.paths.vdd).toBe('corners.list[1].vdd');
   });
 
   it('refuses a list mixed with axes', () => {
-    expect(message(() => expandCorners(spec({ vdd: [1.8], list: [{ process: 'tt', vdd: 1.8, temperature: 27 }] }), card, 0.5)))
-      .toMatch(/^corners: .*either `list` or the axes/);
+    expect(message(() => expandCorners(spec({ vdd: [1.8], list: [{ process: 'tt', vdd: 1.8, temperature: 27 }] }), card, 0.5))).toMatch(
+      /^corners: .*either `list` or the axes/,
+    );
   });
 
   it('names the axis entry of an unknown process corner and lists the known ones', () => {
-    expect(message(() => expandCorners(spec({ process: ['tt', 'xx'] }), card, 0.5)))
-      .toBe('corners.process[1]: "xx" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf');
+    expect(message(() => expandCorners(spec({ process: ['tt', 'xx'] }), card, 0.5))).toBe(
+      'corners.process[1]: "xx" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf',
+    );
   });
 
-  it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])('finds no process corner %s among the card\'s inherited members', (name) => {
-    expect(message(() => expandCorners(spec({ list: [{ process: name, vdd: 1.8, temperature: 27 }] }), card, 0.5)))
-      .toBe(`corners.list[0].process: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf`);
-  });
+  it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])(
+    "finds no process corner %s among the card's inherited members",
+    (name) => {
+      expect(message(() => expandCorners(spec({ list: [{ process: name, vdd: 1.8, temperature: 27 }] }), card, 0.5))).toBe(
+        `corners.list[0].process: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf`,
+      );
+    },
+  );
 
   it('refuses more than 10000 corners before expanding them', () => {
     const axis = (n: number) => Array.from({ length: n }, (_, i) => 1.6 + i / 10_000);
-    expect(message(() => expandCorners(spec({ process: ['tt', 'ss'], vdd: axis(1000), temperature: [0, 27, 85, 125, 150, 175] }), card, 0.5)))
-      .toBe('corners: "2 x 1000 x 6 x 1 = 12000 corners" is more than 10000 corners; list fewer values per axis');
+    expect(
+      message(() => expandCorners(spec({ process: ['tt', 'ss'], vdd: axis(1000), temperature: [0, 27, 85, 125, 150, 175] }), card, 0.5)),
+    ).toBe('corners: "2 x 1000 x 6 x 1 = 12000 corners" is more than 10000 corners; list fewer values per axis');
   });
 
   it('refuses a corner listed twice', () => {
-    expect(message(() => expandCorners(spec({ list: [{ process: 'tt', vdd: 1.8, temperature: 27 }, { process: 'tt', vdd: '1.8V', temperature: '27C' }] }), card, 0.5)))
-      .toContain('"tt/1.8V/27C" appears twice');
+    expect(
+      message(() =>
+        expandCorners(
+          spec({
+            list: [
+              { process: 'tt', vdd: 1.8, temperature: 27 },
+              { process: 'tt', vdd: '1.8V', temperature: '27C' },
+            ],
+          }),
+          card,
+          0.5,
+        ),
+      ),
+    ).toContain('"tt/1.8V/27C" appears twice');
   });
 
   it('names corners.vdd[i] and the corner where a supply cannot turn a device on', () => {

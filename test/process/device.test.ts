@@ -1,6 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import {
-  deviceAtCorner, derivedTheta, devicesAtCorner, mobilityScale, saturationCurrent, shiftFactor, thresholdAt,
+  deviceAtCorner,
+  derivedTheta,
+  devicesAtCorner,
+  mobilityScale,
+  saturationCurrent,
+  shiftFactor,
+  thresholdAt,
 } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { InputError } from '../../src/errors.js';
@@ -8,8 +14,13 @@ import type { Corner } from '../../src/process/corner.js';
 import { expectClose, processCard } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));
-const at = (process: string, vdd: number, temperature: number): Corner =>
-  ({ name: `${process}/${vdd}V/${temperature}C`, process, vdd, temperature, duty: 0.5 });
+const at = (process: string, vdd: number, temperature: number): Corner => ({
+  name: `${process}/${vdd}V/${temperature}C`,
+  process,
+  vdd,
+  temperature,
+  duty: 0.5,
+});
 
 function thrown(fn: () => unknown): InputError {
   try {
@@ -56,7 +67,7 @@ describe('deviceAtCorner', () => {
     // 287 * 1.35^1.3 = 287 * 1.477182 = 423.951 A/m; 128 * 1.35^1.4 = 128 * 1.522184 = 194.840 A/m (by hand).
     const tt = devicesAtCorner(card, at('tt', 1.8, 27));
     expectClose(tt.n.idsatPerWidth, 423.951, 1e-5);
-    expectClose(tt.p.idsatPerWidth, 194.840, 1e-5);
+    expectClose(tt.p.idsatPerWidth, 194.84, 1e-5);
     expect(tt.n.vth).toBe(0.45);
     expect(tt.vdd).toBe(1.8);
   });
@@ -78,13 +89,13 @@ describe('deviceAtCorner', () => {
     expectClose(fs.p.vth, 0.51, 1e-12);
   });
 
-  it('scales the triode k\' with the corner drive and temperature', () => {
+  it("scales the triode k' with the corner drive and temperature", () => {
     // (398.15 / 300.15)^-1.5 = 0.6545418829 (generic180 n mobilityExponent 1.5).
     const n = deviceAtCorner(card, 'n', at('ff', 1.8, 125));
     expectClose(n.kprime, 194.6e-6 * 1.15 * 0.6545418829, 1e-8);
   });
 
-  it('offsets the R_on threshold by the card\'s triode threshold drift: (1.00 - 1.36) mV/K * 98 K = -35.3 mV at 125 C', () => {
+  it("offsets the R_on threshold by the card's triode threshold drift: (1.00 - 1.36) mV/K * 98 K = -35.3 mV at 125 C", () => {
     expectClose(deviceAtCorner(card, 'n', at('ff', 1.8, 125)).ronVthShift, -0.03528, 1e-6);
     expect(Math.abs(deviceAtCorner(card, 'n', at('ff', 1.8, 27)).ronVthShift)).toBe(0);
   });
@@ -123,12 +134,12 @@ describe('derivedTheta', () => {
   // By hand for generic180's n device without its theta: V_ov = 1.8 - 0.45 = 1.35 V; square law
   // (194.6e-6 / 2 / 0.18e-6) * 1.35^2 = 985.2 A/m; alpha-power 287 * 1.35^1.3 = 423.9 A/m;
   // theta = (985.2 / 423.9 - 1) / 1.35 = 0.981 /V, above the model file's 0.55 (it folds in velocity saturation).
-  it('gives 0.98 /V for generic180 n, more than its transistor model\'s THETA of 0.55 (so R_on errs high)', () => {
+  it("gives 0.98 /V for generic180 n, more than its transistor model's THETA of 0.55 (so R_on errs high)", () => {
     const { theta: _omit, ...n } = card.n;
     expectClose(derivedTheta({ ...card, n }, 'n'), 0.981, 2e-3);
   });
 
-  it('is what deviceAtCorner uses when the card gives no theta, and the card\'s value otherwise', () => {
+  it("is what deviceAtCorner uses when the card gives no theta, and the card's value otherwise", () => {
     const { theta: _omit, ...n } = card.n;
     const corner = { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
     expect(deviceAtCorner({ ...card, n }, 'n', corner).theta).toBe(derivedTheta({ ...card, n }, 'n'));

@@ -177,7 +177,10 @@ export async function compareGenerator(design: string, deck: string): Promise<Ge
     }
     for (let k = 0; k < 4; k++) edgeErrors.push((m.edges[k]! - s.edges[k]!) / s.edges[k]!);
   });
-  const rank = sampleRankCorrelation(model.map((m) => m.dead[0]), spice.map((s) => s.dead[0]));
+  const rank = sampleRankCorrelation(
+    model.map((m) => m.dead[0]),
+    spice.map((s) => s.dead[0]),
+  );
   return { model, spice, deadErrors, gapErrors, boundErrors, edgeErrors, rank };
 }
 

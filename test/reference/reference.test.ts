@@ -7,7 +7,17 @@
  * temperature slope of delay within 3 points of ngspice's, temperature inversion at 0.9 V included.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { compareGenerator, deckAt, maxAbs, median, modelChain, resolveReference, simulate, spiceChain, type GeneratorComparison } from './harness.js';
+import {
+  compareGenerator,
+  deckAt,
+  maxAbs,
+  median,
+  modelChain,
+  resolveReference,
+  simulate,
+  spiceChain,
+  type GeneratorComparison,
+} from './harness.js';
 import { requireTool } from '../tools.js';
 
 requireTool('ngspice', 'ngspice');
@@ -15,7 +25,10 @@ requireTool('ngspice', 'ngspice');
 const ps = 1e-12;
 const SLOW = 600_000;
 
-for (const [design, deck] of [['nand-gen.yaml', 'nand-gen.cir'], ['nor-gen.yaml', 'nor-gen.cir']] as const) {
+for (const [design, deck] of [
+  ['nand-gen.yaml', 'nand-gen.cir'],
+  ['nor-gen.yaml', 'nor-gen.cir'],
+] as const) {
   describe(`${deck} in ngspice vs the analytic model, 45 corners`, () => {
     let c: GeneratorComparison;
     beforeAll(async () => {
@@ -69,7 +82,8 @@ describe('inv-chain.cir in ngspice vs the analytic model, tt/ss/ff at 0.9 V and 
       return d.rise + d.fall;
     };
     for (const process of ['tt', 'ss', 'ff']) {
-      for (const vdd of [0.9, 1.8]) out.set(`${process}/${vdd}V`, (100 * (at(process, vdd, 125) - at(process, vdd, -40))) / at(process, vdd, 27));
+      for (const vdd of [0.9, 1.8])
+        out.set(`${process}/${vdd}V`, (100 * (at(process, vdd, 125) - at(process, vdd, -40))) / at(process, vdd, 27));
     }
     return out;
   };

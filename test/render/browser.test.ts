@@ -28,7 +28,14 @@ beforeAll(async () => {
   browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+    ],
   });
 });
 
@@ -50,7 +57,9 @@ async function openReport(name: string, extra: string[] = []) {
   const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
   const problems: string[] = [];
   const requests: string[] = [];
-  page.on('console', (m) => { if (m.type() === 'error') problems.push(`console: ${m.text()}`); });
+  page.on('console', (m) => {
+    if (m.type() === 'error') problems.push(`console: ${m.text()}`);
+  });
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
   page.on('requestfailed', (r) => problems.push(`failed request: ${r.url()}`));
   page.on('request', (r) => requests.push(r.url()));
@@ -68,10 +77,12 @@ describe('report in headless Chromium', () => {
       try {
         expect(problems).toEqual([]);
         expect(requests).toEqual([url]);
-        const sizes = await page.$$eval('figure svg', (svgs) => svgs.map((s) => {
-          const r = s.getBoundingClientRect();
-          return { w: r.width, h: r.height };
-        }));
+        const sizes = await page.$$eval('figure svg', (svgs) =>
+          svgs.map((s) => {
+            const r = s.getBoundingClientRect();
+            return { w: r.width, h: r.height };
+          }),
+        );
         // Worst corner, all corners, margins, and the chart of the searched delay chains.
         expect(sizes.length).toBe(4);
         for (const s of sizes) {
@@ -100,15 +111,19 @@ describe('report in headless Chromium', () => {
         });
         expect(overlaps).toEqual([]);
         // Every table is laid out at a size and fits the page width.
-        const tables = await page.$$eval('section table', (ts) => ts.map((t) => {
-          const r = t.getBoundingClientRect();
-          return { id: t.closest('section')!.id, w: r.width, h: r.height, fits: r.right <= document.documentElement.clientWidth + 0.5 };
-        }));
+        const tables = await page.$$eval('section table', (ts) =>
+          ts.map((t) => {
+            const r = t.getBoundingClientRect();
+            return { id: t.closest('section')!.id, w: r.width, h: r.height, fits: r.right <= document.documentElement.clientWidth + 0.5 };
+          }),
+        );
         expect(tables.map((t) => t.id)).toContain('tune');
         if (confirm) expect(tables.filter((t) => t.id === 'confirm').length).toBe(2);
         if (confirm) {
           // ngspice differs from the model beyond 10 % at both corners of too-tight (measured), so the page says so at the top.
-          const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => `${li.getAttribute('data-part')}: ${li.getAttribute('data-verdict')}`));
+          const parts = await page.$$eval('header #verdict-parts li', (lis) =>
+            lis.map((li) => `${li.getAttribute('data-part')}: ${li.getAttribute('data-verdict')}`),
+          );
           expect(parts).toEqual(['corner checks: fail', 'Monte Carlo yield: not-run', 'simulator agreement: fail']);
           expect(await page.$eval('header .verdict', (v) => v.getAttribute('data-verdict'))).toBe('fail');
         }
@@ -127,26 +142,53 @@ describe('report in headless Chromium', () => {
 
   it('heads a page where Monte Carlo fails with FAIL and shows each part beneath it', async () => {
     // A 964 ps minimum holds at every corner of the demo (least dead time 967 ps) but 9 of 40 dies miss it (seed 1, measured).
-    const { page, problems } = await openReport('doubler', ['--no-fmax', '--no-tune', '--mc', '40', '--seed', '1',
-      '--set', 'requirements.deadTime.min=964ps', '--set', 'requirements.minYield=0.99']);
+    const { page, problems } = await openReport('doubler', [
+      '--no-fmax',
+      '--no-tune',
+      '--mc',
+      '40',
+      '--seed',
+      '1',
+      '--set',
+      'requirements.deadTime.min=964ps',
+      '--set',
+      'requirements.minYield=0.99',
+    ]);
     try {
       expect(problems).toEqual([]);
-      const verdict = await page.$eval('header .verdict', (v) => ({ verdict: v.getAttribute('data-verdict'), text: (v as HTMLElement).innerText, w: v.getBoundingClientRect().width }));
+      const verdict = await page.$eval('header .verdict', (v) => ({
+        verdict: v.getAttribute('data-verdict'),
+        text: (v as HTMLElement).innerText,
+        w: v.getBoundingClientRect().width,
+      }));
       expect(verdict.verdict).toBe('fail');
       expect(verdict.text).toMatch(/^✕ FAIL\s+fails: Monte Carlo yield; 45 of 45 corners pass/);
       expect(verdict.w).toBeGreaterThan(0);
-      const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => {
-        const r = li.getBoundingClientRect();
-        return { part: li.getAttribute('data-part'), verdict: li.getAttribute('data-verdict'), text: (li as HTMLElement).innerText, shown: r.width > 0 && r.height > 0 };
-      }));
+      const parts = await page.$$eval('header #verdict-parts li', (lis) =>
+        lis.map((li) => {
+          const r = li.getBoundingClientRect();
+          return {
+            part: li.getAttribute('data-part'),
+            verdict: li.getAttribute('data-verdict'),
+            text: (li as HTMLElement).innerText,
+            shown: r.width > 0 && r.height > 0,
+          };
+        }),
+      );
       expect(parts.map((p) => [p.part, p.verdict, p.shown])).toEqual([
-        ['corner checks', 'pass', true], ['Monte Carlo yield', 'fail', true], ['simulator agreement', 'not-run', true],
+        ['corner checks', 'pass', true],
+        ['Monte Carlo yield', 'fail', true],
+        ['simulator agreement', 'not-run', true],
       ]);
       expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 77.5 % over 40 dies at every corner, below the 99.0 % required');
       // Every drawing's title box heads with the run's verdict, not only its own checks'.
-      const boxes = await page.$$eval('figure svg .title-block', (gs) => gs.map((g) => [g.querySelector('.verdict')?.textContent, g.querySelector('.verdict-detail')?.textContent]));
+      const boxes = await page.$$eval('figure svg .title-block', (gs) =>
+        gs.map((g) => [g.querySelector('.verdict')?.textContent, g.querySelector('.verdict-detail')?.textContent]),
+      );
       expect(boxes).toEqual([
-        ['✕ FAIL', 'Monte Carlo yield fails'], ['✕ FAIL', 'Monte Carlo yield fails'], ['✕ FAIL', 'Monte Carlo yield fails'],
+        ['✕ FAIL', 'Monte Carlo yield fails'],
+        ['✕ FAIL', 'Monte Carlo yield fails'],
+        ['✕ FAIL', 'Monte Carlo yield fails'],
       ]);
     } finally {
       await page.close();
@@ -159,30 +201,75 @@ describe('report in headless Chromium', () => {
     const resolved = resolveYaml(readFileSync(design('doubler'), 'utf8'));
     const results = evaluateAll(resolved);
     const confirm = {
-      simulator: 'ngspice-test', tolerance: 0.1,
-      comparisons: [{
-        corner: 'ff/1.98V/-40C', errors: [], pass: false, ron: [],
-        quantities: [{ quantity: 'dead p1->p2', kind: 'dead' as const, model: 968e-12, simulator: 440e-12, relativeError: (968 - 440) / 440, pass: false }],
-        breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 4.7e-10, simulator: -2e-11, agrees: false }],
-      }],
+      simulator: 'ngspice-test',
+      tolerance: 0.1,
+      comparisons: [
+        {
+          corner: 'ff/1.98V/-40C',
+          errors: [],
+          pass: false,
+          ron: [],
+          quantities: [
+            {
+              quantity: 'dead p1->p2',
+              kind: 'dead' as const,
+              model: 968e-12,
+              simulator: 440e-12,
+              relativeError: (968 - 440) / 440,
+              pass: false,
+            },
+          ],
+          breakBeforeMake: [{ check: 's_gnd/s_vdd break-before-make + 100 ps', model: 4.7e-10, simulator: -2e-11, agrees: false }],
+        },
+      ],
     };
-    const record = provenance({ version: '0.0.0-test', now: new Date(Date.UTC(2026, 0, 1)), command: ['report', 'doubler.yaml', '--confirm', 'worst'], inputs: [], model: 'analytic', simulator: 'ngspice-test' });
-    const model = buildReportModel(resolved, results, { processSource: 'fixtures', fmax: null, fmaxNote: 'skipped', confirm, provenance: record });
+    const record = provenance({
+      version: '0.0.0-test',
+      now: new Date(Date.UTC(2026, 0, 1)),
+      command: ['report', 'doubler.yaml', '--confirm', 'worst'],
+      inputs: [],
+      model: 'analytic',
+      simulator: 'ngspice-test',
+    });
+    const model = buildReportModel(resolved, results, {
+      processSource: 'fixtures',
+      fmax: null,
+      fmaxNote: 'skipped',
+      confirm,
+      provenance: record,
+    });
     const file = join(tempDir(), 'disagree.html');
     writeFileSync(file, renderHtmlReport(model));
     const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
     try {
       await page.goto(pathToFileURL(file).href, { waitUntil: 'load' });
-      expect(await page.$eval('header .verdict', (v) => [v.getAttribute('data-verdict'), (v as HTMLElement).innerText])).toEqual(['fail', expect.stringMatching(/^✕ FAIL\s+fails: simulator agreement; 45 of 45 corners pass/)]);
-      const parts = await page.$$eval('header #verdict-parts li', (lis) => lis.map((li) => [li.getAttribute('data-part'), li.getAttribute('data-verdict'), (li as HTMLElement).innerText]));
+      expect(await page.$eval('header .verdict', (v) => [v.getAttribute('data-verdict'), (v as HTMLElement).innerText])).toEqual([
+        'fail',
+        expect.stringMatching(/^✕ FAIL\s+fails: simulator agreement; 45 of 45 corners pass/),
+      ]);
+      const parts = await page.$$eval('header #verdict-parts li', (lis) =>
+        lis.map((li) => [li.getAttribute('data-part'), li.getAttribute('data-verdict'), (li as HTMLElement).innerText]),
+      );
       expect(parts[0]!.slice(0, 2)).toEqual(['corner checks', 'pass']);
-      expect(parts[2]).toEqual(['simulator agreement', 'fail',
-        'simulator agreement: ✕ FAIL: 1 quantity beyond 10.0 % (first: dead p1->p2 at ff/1.98V/-40C); 1 break-before-make pair disagrees (first: s_gnd/s_vdd break-before-make + 100 ps at ff/1.98V/-40C); ngspice-test gives dead p1->p2 440 ps at ff/1.98V/-40C, below the 500 ps minimum']);
+      expect(parts[2]).toEqual([
+        'simulator agreement',
+        'fail',
+        'simulator agreement: ✕ FAIL: 1 quantity beyond 10.0 % (first: dead p1->p2 at ff/1.98V/-40C); 1 break-before-make pair disagrees (first: s_gnd/s_vdd break-before-make + 100 ps at ff/1.98V/-40C); ngspice-test gives dead p1->p2 440 ps at ff/1.98V/-40C, below the 500 ps minimum',
+      ]);
       const boxes = await page.$$eval('figure svg .title-block .verdict-detail', (ts) => ts.map((t) => t.textContent));
       expect(boxes.slice(0, 3)).toEqual(['simulator agreement fails', 'simulator agreement fails', 'simulator agreement fails']);
       const footer = await page.$$eval('#provenance li', (lis) => lis.map((li) => (li as HTMLElement).innerText));
-      expect(footer).toEqual(['phasegap 0.0.0-test, 2026-01-01T00:00:00.000Z', 'command: phasegap report doubler.yaml --confirm worst', 'delay model: analytic, error band not measured', 'simulator: ngspice-test']);
-      expect(await page.$$eval('figure svg metadata', (ms) => ms.map((m) => m.getAttribute('data-verdict')))).toEqual(['fail', 'fail', 'fail']);
+      expect(footer).toEqual([
+        'phasegap 0.0.0-test, 2026-01-01T00:00:00.000Z',
+        'command: phasegap report doubler.yaml --confirm worst',
+        'delay model: analytic, error band not measured',
+        'simulator: ngspice-test',
+      ]);
+      expect(await page.$$eval('figure svg metadata', (ms) => ms.map((m) => m.getAttribute('data-verdict')))).toEqual([
+        'fail',
+        'fail',
+        'fail',
+      ]);
     } finally {
       await page.close();
     }
@@ -192,27 +279,41 @@ describe('report in headless Chromium', () => {
     const { page, problems } = await openReport('doubler-pump', ['--no-fmax', '--no-tune']);
     try {
       expect(problems).toEqual([]);
-      const figures = await page.$$eval('figure', (fs) => fs.map((f) => {
-        const r = f.querySelector('svg')!.getBoundingClientRect();
-        return { id: f.id, w: r.width, h: r.height };
-      }));
+      const figures = await page.$$eval('figure', (fs) =>
+        fs.map((f) => {
+          const r = f.querySelector('svg')!.getBoundingClientRect();
+          return { id: f.id, w: r.width, h: r.height };
+        }),
+      );
       expect(figures.map((f) => f.id)).toEqual(['figure-worst', 'figure-all', 'figure-margins', 'figure-circuit-sweep']);
       for (const f of figures) expect(f.w > 0 && f.h > 0, f.id).toBe(true);
       // Three circuit rows (out, top, bottom) in each timing diagram.
-      expect(await page.$$eval('#figure-worst .circuit-row', (rs) => rs.map((r) => r.getAttribute('data-node')))).toEqual(['out', 'top', 'bottom']);
-      const overlaps = await page.$$eval('figure svg', (svgs) => svgs.flatMap((svg) => {
-        const boxes = [...svg.querySelectorAll('text')].filter((t) => (t.textContent ?? '').trim() !== '')
-          .map((t) => ({ text: t.textContent ?? '', r: t.getBoundingClientRect() })).filter((b) => b.r.width > 0 && b.r.height > 0);
-        const found: string[] = [];
-        for (let i = 0; i < boxes.length; i++) {
-          for (let j = i + 1; j < boxes.length; j++) {
-            const a = boxes[i]!.r;
-            const b = boxes[j]!.r;
-            if (Math.min(a.right, b.right) - Math.max(a.left, b.left) > 0.5 && Math.min(a.bottom, b.bottom) - Math.max(a.top, b.top) > 0.5) found.push(`${boxes[i]!.text} / ${boxes[j]!.text}`);
+      expect(await page.$$eval('#figure-worst .circuit-row', (rs) => rs.map((r) => r.getAttribute('data-node')))).toEqual([
+        'out',
+        'top',
+        'bottom',
+      ]);
+      const overlaps = await page.$$eval('figure svg', (svgs) =>
+        svgs.flatMap((svg) => {
+          const boxes = [...svg.querySelectorAll('text')]
+            .filter((t) => (t.textContent ?? '').trim() !== '')
+            .map((t) => ({ text: t.textContent ?? '', r: t.getBoundingClientRect() }))
+            .filter((b) => b.r.width > 0 && b.r.height > 0);
+          const found: string[] = [];
+          for (let i = 0; i < boxes.length; i++) {
+            for (let j = i + 1; j < boxes.length; j++) {
+              const a = boxes[i]!.r;
+              const b = boxes[j]!.r;
+              if (
+                Math.min(a.right, b.right) - Math.max(a.left, b.left) > 0.5 &&
+                Math.min(a.bottom, b.bottom) - Math.max(a.top, b.top) > 0.5
+              )
+                found.push(`${boxes[i]!.text} / ${boxes[j]!.text}`);
+            }
           }
-        }
-        return found;
-      }));
+          return found;
+        }),
+      );
       expect(overlaps).toEqual([]);
       const table = await page.$eval('#circuit table', (t) => {
         const r = t.getBoundingClientRect();
@@ -223,7 +324,8 @@ describe('report in headless Chromium', () => {
       await page.emulateMedia({ media: 'print' });
       expect(await page.$eval('#circuit', (s) => getComputedStyle(s).breakBefore)).toBe('page');
       const printed = await page.$eval('#circuit', (s) => ({
-        table: s.querySelector('table')!.getBoundingClientRect().width, chart: s.querySelector('svg')!.getBoundingClientRect().width,
+        table: s.querySelector('table')!.getBoundingClientRect().width,
+        chart: s.querySelector('svg')!.getBoundingClientRect().width,
       }));
       expect(printed.table).toBeGreaterThan(0);
       expect(printed.chart).toBeGreaterThan(0);
@@ -246,8 +348,18 @@ describe('report in headless Chromium', () => {
       const background = await page.$eval('body', (b) => getComputedStyle(b).backgroundColor);
       expect(background).toBe('rgb(255, 255, 255)');
       const breaks = await page.$$eval('main > section', (ss) => ss.map((s) => [s.id, getComputedStyle(s).breakBefore]));
-      expect(breaks).toEqual([['cautions', 'auto'], ['summary', 'auto'], ['worst-corner', 'page'], ['all-corners', 'page'], ['margins', 'page'],
-        ['tune', 'page'], ['corners', 'page'], ['switches', 'page'], ['nodes', 'page'], ['process', 'page']]);
+      expect(breaks).toEqual([
+        ['cautions', 'auto'],
+        ['summary', 'auto'],
+        ['worst-corner', 'page'],
+        ['all-corners', 'page'],
+        ['margins', 'page'],
+        ['tune', 'page'],
+        ['corners', 'page'],
+        ['switches', 'page'],
+        ['nodes', 'page'],
+        ['process', 'page'],
+      ]);
       const widths = await page.$$eval('figure svg', (svgs) => svgs.map((s) => s.getBoundingClientRect().width));
       expect(widths.every((w) => w > 0)).toBe(true);
       const pdf = await page.pdf({ preferCSSPageSize: true, printBackground: true });

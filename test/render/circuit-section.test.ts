@@ -13,12 +13,21 @@ const results = evaluateAll(unboosted);
 const section = circuitSection(unboosted, results)!;
 
 describe('circuitSection', () => {
-  it('has a row per corner whose numbers are the corner\'s figures', () => {
+  it("has a row per corner whose numbers are the corner's figures", () => {
     expect(section.rows.length).toBe(45);
     section.rows.forEach((row, i) => {
       const c = results[i]!.circuit!;
       expect(row.corner).toBe(results[i]!.corner.name);
-      expect(row.cells.map((x) => x.value)).toEqual([c.output, c.ripple, c.outputResistance, c.slowLimit, c.fastLimit, c.efficiency, c.lostCharge, c.startupTime]);
+      expect(row.cells.map((x) => x.value)).toEqual([
+        c.output,
+        c.ripple,
+        c.outputResistance,
+        c.slowLimit,
+        c.fastLimit,
+        c.efficiency,
+        c.lostCharge,
+        c.startupTime,
+      ]);
       expect(row.cells[0]!.text).toBe(formatEngineering(c.output, 'V'));
       expect(row.cells[1]!.text).toBe(formatEngineering(c.ripple, 'V'));
       expect(row.cells[5]!.text).toBe(`${(c.efficiency! * 100).toFixed(1)} %`);

@@ -14,11 +14,13 @@ describe('circuitWaves', () => {
   it('draws the output, then each capacitor plate that is a circuit node, named as in the design file', () => {
     expect(waves.corner).toBe('tt/1.8V/27C');
     expect(waves.nodes.map((n) => [n.node, n.role, n.note])).toEqual([
-      ['out', 'output', 'output'], ['top', 'plate', 'c_fly top plate'], ['bottom', 'plate', 'c_fly bottom plate'],
+      ['out', 'output', 'output'],
+      ['top', 'plate', 'c_fly top plate'],
+      ['bottom', 'plate', 'c_fly bottom plate'],
     ]);
   });
 
-  it('keeps the solver\'s output extremes, mean and ripple', () => {
+  it("keeps the solver's output extremes, mean and ripple", () => {
     const c = result.circuit!;
     const out = waves.nodes[0]!;
     expect(out.min).toBeCloseTo(c.trace.outputMin, 12);
@@ -39,7 +41,7 @@ describe('circuitWaves', () => {
     }
   });
 
-  it('puts the bottom plate at ground while p1 conducts and at VDD while p2 does (the doubler\'s two states)', () => {
+  it("puts the bottom plate at ground while p1 conducts and at VDD while p2 does (the doubler's two states)", () => {
     const bottom = waves.nodes[2]!;
     const at = (t: number) => bottom.points.reduce((best, p) => (Math.abs(p[0] - t) < Math.abs(best[0] - t) ? p : best))[1];
     // p1 is high from about 2 ns to 25 ns and p2 from about 27 ns to 50 ns at this corner (timing diagram).
@@ -64,10 +66,51 @@ describe('circuitWaves', () => {
 
 describe('chargePackets', () => {
   it.each([
-    ['a sawtooth: one rise', [[0, 1], [1, 0.9], [2, 0.8], [3, 1], [4, 0.95]], 1, [{ start: 2, end: 3, rise: 0.2 }]],
-    ['a flat line: none', [[0, 1], [1, 1], [2, 1]], 1, []],
-    ['a rise across the period end: one packet', [[0, 1.1], [1, 1.2], [2, 1.1], [3, 1.0], [4, 1.05]], 1, [{ start: 3, end: 5, rise: 0.15 }]],
-    ['a negative output: the packet is the fall', [[0, -1], [1, -0.9], [2, -1.2], [3, -1.1]], -1, [{ start: 1, end: 2, rise: -0.3 }]],
+    [
+      'a sawtooth: one rise',
+      [
+        [0, 1],
+        [1, 0.9],
+        [2, 0.8],
+        [3, 1],
+        [4, 0.95],
+      ],
+      1,
+      [{ start: 2, end: 3, rise: 0.2 }],
+    ],
+    [
+      'a flat line: none',
+      [
+        [0, 1],
+        [1, 1],
+        [2, 1],
+      ],
+      1,
+      [],
+    ],
+    [
+      'a rise across the period end: one packet',
+      [
+        [0, 1.1],
+        [1, 1.2],
+        [2, 1.1],
+        [3, 1.0],
+        [4, 1.05],
+      ],
+      1,
+      [{ start: 3, end: 5, rise: 0.15 }],
+    ],
+    [
+      'a negative output: the packet is the fall',
+      [
+        [0, -1],
+        [1, -0.9],
+        [2, -1.2],
+        [3, -1.1],
+      ],
+      -1,
+      [{ start: 1, end: 2, rise: -0.3 }],
+    ],
   ] as const)('%s', (_, pts, sign, expected) => {
     const values = pts.map((p) => p[1]);
     const ripple = Math.max(...values) - Math.min(...values);

@@ -19,7 +19,7 @@ function drawCorner(name: string, corner: string, overrides: string[] = []) {
 const drawn = (overrides: string[] = []) => drawCorner('sc-integrator', 'ff/1.98V/-40C', overrides);
 
 describe('order marks on the timing diagram', () => {
-  it('label the bottom-plate order with the time between the two events, its margin equal to the check\'s', () => {
+  it("label the bottom-plate order with the time between the two events, its margin equal to the check's", () => {
     const { result, svg } = drawn();
     const check = result.checks.find((c) => c.kind === 'order')!;
     const label = all(svg, 'text.bbm-label').find((l) => l.getAttribute('data-from') === 's1e' && l.getAttribute('data-to') === 's1')!;
@@ -40,14 +40,16 @@ describe('order marks on the timing diagram', () => {
 describe('settle marks on the whole-period panel', () => {
   const doubler = (overrides: string[] = []) => drawCorner('doubler', 'ss/1.62V/125C', overrides);
 
-  it('carry the check\'s margin and name the path, the common on-time and the time needed', () => {
+  it("carry the check's margin and name the path, the common on-time and the time needed", () => {
     const { result, svg } = doubler();
     const check = result.checks.find((c) => c.kind === 'settle')!;
     const mark = all(svg, 'g.settle-mark')[0]!;
     expect(mark.getAttribute('data-path')).toBe('flying-cap charge');
     expect(Number(mark.getAttribute('data-margin'))).toBeCloseTo(check.margin!, 18);
     const label = all(svg, 'text.settle-label')[0]!.textContent!;
-    expect(label).toMatch(/^flying-cap charge: on together [\d.]+ ns \([\d.]+ ns at the worst duty\), needs [\d.]+ ns, margin \+[\d.]+ ns$/);
+    expect(label).toMatch(
+      /^flying-cap charge: on together [\d.]+ ns \([\d.]+ ns at the worst duty\), needs [\d.]+ ns, margin \+[\d.]+ ns$/,
+    );
   });
 
   it('hatch and flag a path that cannot settle', () => {

@@ -32,7 +32,12 @@ describe('the review page of a design with hostile names (validation bypassed)',
     expect(md.replace(/(`+) .*? \1/g, '')).not.toMatch(/<\/?[a-z!]/i);
     expect(md).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
     expect(md).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069\u2028\u2029]/);
-    expect(md.split('\n').filter((l) => /^#/.test(l)).map((l) => l.replace(/ .*/, ''))).toEqual(['#', '##', '##', '##', '##', '##', '##']);
+    expect(
+      md
+        .split('\n')
+        .filter((l) => /^#/.test(l))
+        .map((l) => l.replace(/ .*/, '')),
+    ).toEqual(['#', '##', '##', '##', '##', '##', '##']);
     expect(md).toContain('![All corners overlaid](r-all.svg)');
     expect(md).toMatch(/^# design \.control shell touch /m);
   });
@@ -47,8 +52,10 @@ describe('the review page of a design with hostile names (validation bypassed)',
 
 describe('phasegap draw and report with names that are valid but full of markup', () => {
   requireTool('xmllint', 'libxml2-utils');
-  const yaml = PLAIN_YAML
-    .replace('name: plain', `name: ${JSON.stringify('<script>alert(1)</script> & ]]> "q" \'s\' `x` *y* [z](javascript:1)')}`)
+  const yaml = PLAIN_YAML.replace(
+    'name: plain',
+    `name: ${JSON.stringify('<script>alert(1)</script> & ]]> "q" \'s\' `x` *y* [z](javascript:1)')}`,
+  )
     .replace('name: g_inv,', 'name: "<b>inv</b>",')
     .replace('name: handover,', 'name: "a|b <i>c</i>",');
 
@@ -73,7 +80,9 @@ describe('phasegap draw and report with names that are valid but full of markup'
     expect(written.stderr).toBe('');
     expect([0, 1]).toContain(written.code);
     const md = readFileSync(out, 'utf8');
-    expect(md.split('\n')[0]).toBe('# &lt;script&gt;alert(1)&lt;/script&gt; &amp; \\]\\]&gt; "q" \'s\' \\`x\\` \\*y\\* \\[z\\](javascript:1)');
+    expect(md.split('\n')[0]).toBe(
+      '# &lt;script&gt;alert(1)&lt;/script&gt; &amp; \\]\\]&gt; "q" \'s\' \\`x\\` \\*y\\* \\[z\\](javascript:1)',
+    );
     expect(md).toContain('| a\\|b &lt;i&gt;c&lt;/i&gt; |');
     expect(md).toContain('![All corners overlaid](my%20review%20%281%29-all.svg)');
     expect(md).not.toMatch(/<\/?[a-z]/i);
@@ -86,11 +95,14 @@ describe('phasegap draw and report with names that are valid but full of markup'
 describe('xmlText and xmlDocument', () => {
   const NOT_XML = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\ufffe\uffff]|[\ud800-\udfff]/;
 
-  it.each(['a\u0000b', 'a\u000bb\u000c', '\ufffe\uffff', 'x\ud800', '\udc00x', hostileName('/tmp/x', 'all')])('leaves no character XML 1.0 forbids in %j', (text) => {
-    expect(xmlDocument(text)).not.toMatch(NOT_XML);
-    expect(xmlText(text)).not.toMatch(NOT_XML);
-    expect(xmlText(text)).not.toMatch(/[\n\r\t\u2028\u2029\u0085\u202e\u2066]/);
-  });
+  it.each(['a\u0000b', 'a\u000bb\u000c', '\ufffe\uffff', 'x\ud800', '\udc00x', hostileName('/tmp/x', 'all')])(
+    'leaves no character XML 1.0 forbids in %j',
+    (text) => {
+      expect(xmlDocument(text)).not.toMatch(NOT_XML);
+      expect(xmlText(text)).not.toMatch(NOT_XML);
+      expect(xmlText(text)).not.toMatch(/[\n\r\t\u2028\u2029\u0085\u202e\u2066]/);
+    },
+  );
 
   it('keeps characters outside the BMP and ordinary text', () => {
     expect(xmlDocument('φ1 \ud83d\ude00 <a>')).toBe('φ1 \ud83d\ude00 <a>');

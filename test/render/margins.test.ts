@@ -4,7 +4,14 @@ import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { marginRows, processOrder } from '../../src/render/margins.js';
 import { marginChartInput } from '../../src/render/report-model.js';
-import { chargeTickLabel, decadeTicks, fractionTickLabel, marginTickLabel, renderMarginSvg, voltTickLabel } from '../../src/render/svg/margins.js';
+import {
+  chargeTickLabel,
+  decadeTicks,
+  fractionTickLabel,
+  marginTickLabel,
+  renderMarginSvg,
+  voltTickLabel,
+} from '../../src/render/svg/margins.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
@@ -76,13 +83,15 @@ describe('renderMarginSvg: switch bias block', () => {
     expect(blocks.map((b) => b.getAttribute('data-unit'))).toEqual(['s', 'V']);
     const kinds = all(blocks[1]!, 'g.margin-row').map((g) => g.getAttribute('data-kind'));
     expect(new Set(kinds)).toEqual(new Set(['off-state', 'on-state', 'stress']));
-    expect(all(blocks[0]!, 'g.margin-row').some((g) => ['off-state', 'on-state', 'stress'].includes(g.getAttribute('data-kind') ?? ''))).toBe(false);
+    expect(
+      all(blocks[0]!, 'g.margin-row').some((g) => ['off-state', 'on-state', 'stress'].includes(g.getAttribute('data-kind') ?? '')),
+    ).toBe(false);
     const ticks = all(blocks[1]!, 'text.tick-label').map((t) => t.textContent);
     expect(ticks).toContain('+100 mV');
     expect(ticks).toContain('+1 V');
   });
 
-  it('writes each bias row\'s worst margin in volts', () => {
+  it("writes each bias row's worst margin in volts", () => {
     const rows = marginRows(results).filter((r) => r.kind === 'off-state');
     const labels = all(svg, 'g.margin-row[data-kind="off-state"] text.worst-label').map((t) => t.textContent);
     // 55 mV: V_T 0.292 V at ff/125C less two decades at n = 1.5 (see test/checks/bias-checks.test.ts for the rule).
@@ -107,7 +116,11 @@ describe('renderMarginSvg: circuit checks', () => {
   it('draws every check of the design, each in the block of its margin unit', () => {
     expect(blocks.map((b) => b.getAttribute('data-unit'))).toEqual(['s', 'V', 'C', '']);
     const names = [...new Set(pumpResults.flatMap((r) => r.checks.map((c) => c.name)))];
-    expect(all(svg, 'g.margin-row').map((g) => g.getAttribute('data-check')).sort()).toEqual(names.sort());
+    expect(
+      all(svg, 'g.margin-row')
+        .map((g) => g.getAttribute('data-check'))
+        .sort(),
+    ).toEqual(names.sort());
     expect(kindsIn(blocks[1]!)).toEqual(expect.arrayContaining(['output-min', 'output-max', 'ripple-max', 'off-state']));
     expect(kindsIn(blocks[2]!)).toEqual(['lost-charge-max']);
     expect(kindsIn(blocks[3]!)).toEqual(['efficiency-min']);
@@ -128,7 +141,16 @@ describe('renderMarginSvg: circuit checks', () => {
 
 describe('chargeTickLabel and fractionTickLabel', () => {
   it('label decades in fC, pC and nC, and fractions in percent', () => {
-    expect(decadeTicks(-20e-15, 2e-9, [-14, -9]).map(chargeTickLabel)).toEqual(['-10 fC', '0', '+10 fC', '+100 fC', '+1 pC', '+10 pC', '+100 pC', '+1 nC']);
+    expect(decadeTicks(-20e-15, 2e-9, [-14, -9]).map(chargeTickLabel)).toEqual([
+      '-10 fC',
+      '0',
+      '+10 fC',
+      '+100 fC',
+      '+1 pC',
+      '+10 pC',
+      '+100 pC',
+      '+1 nC',
+    ]);
     expect(decadeTicks(-0.05, 0.5, [-2, 0]).map(fractionTickLabel)).toEqual(['-1 %', '0', '+1 %', '+10 %']);
   });
 });
@@ -144,7 +166,10 @@ describe('renderMarginSvg marks for unmeasured checks and named constraints', ()
     // s_chg's gate swing stops at 1.1 VDD: it never turns on, so its pairs cannot be measured anywhere.
     const doc = chart('doubler', ['switches[1].levelShifter.high=1.1vdd']);
     const rows = all(doc, 'g.margin-row').filter((g) => all(g, 'g.unmeasured-mark').length > 0);
-    expect(rows.map((g) => g.getAttribute('data-check'))).toEqual(['s_chg/s_out break-before-make + 100 ps', 'flying-cap charge settles to 0.001']);
+    expect(rows.map((g) => g.getAttribute('data-check'))).toEqual([
+      's_chg/s_out break-before-make + 100 ps',
+      'flying-cap charge settles to 0.001',
+    ]);
     for (const row of rows) {
       const mark = all(row, 'g.unmeasured-mark')[0]!;
       expect(mark.getAttribute('data-count')).toBe('45');
@@ -162,7 +187,7 @@ describe('renderMarginSvg marks for unmeasured checks and named constraints', ()
     expect(all(doc, 'g.legend text').map((t) => t.textContent)).not.toContain('not measured at that corner (counts as failing)');
   });
 
-  it('writes a named order constraint\'s requirement under its name and no longer claims every name states one', () => {
+  it("writes a named order constraint's requirement under its name and no longer claims every name states one", () => {
     const doc = chart('sc-integrator');
     const row = all(doc, 'g.margin-row').find((g) => g.getAttribute('data-check') === 'bottom plate opens first')!;
     expect(all(row, 'text.check-requirement')[0]!.textContent).toBe('s1e off before s1 off by 50.0 ps');

@@ -4,23 +4,38 @@ import { hostileName } from '../schema/hostile.js';
 
 describe('markdownText', () => {
   it('writes HTML as entities', () => {
-    expect(markdownText('<script>alert(1)</script> & <img src=x onerror=y>')).toBe('&lt;script&gt;alert(1)&lt;/script&gt; &amp; &lt;img src=x onerror=y&gt;');
+    expect(markdownText('<script>alert(1)</script> & <img src=x onerror=y>')).toBe(
+      '&lt;script&gt;alert(1)&lt;/script&gt; &amp; &lt;img src=x onerror=y&gt;',
+    );
   });
 
   it('escapes emphasis, code, links, images, strike-through and table pipes', () => {
-    expect(markdownText('*a* _b_ `c` [d](e) ![f](g) ~~h~~ | \\')).toBe('\\*a\\* \\_b\\_ \\`c\\` \\[d\\](e) \\!\\[f\\](g) \\~\\~h\\~\\~ \\| \\\\');
+    expect(markdownText('*a* _b_ `c` [d](e) ![f](g) ~~h~~ | \\')).toBe(
+      '\\*a\\* \\_b\\_ \\`c\\` \\[d\\](e) \\!\\[f\\](g) \\~\\~h\\~\\~ \\| \\\\',
+    );
   });
 
-  it.each(['a\nb', 'a\r\n# b', 'a\u2028b', 'a\u0085b', 'a\u202eb\u0000', hostileName('/tmp/x', 'all')])('keeps %j on one line without control or format characters', (text) => {
-    const out = markdownText(text);
-    expect(out).not.toMatch(/[\p{Cc}\p{Cf}\u2028\u2029]/u);
-    expect(out).not.toMatch(/<[a-z/!]/i);
-  });
+  it.each(['a\nb', 'a\r\n# b', 'a\u2028b', 'a\u0085b', 'a\u202eb\u0000', hostileName('/tmp/x', 'all')])(
+    'keeps %j on one line without control or format characters',
+    (text) => {
+      const out = markdownText(text);
+      expect(out).not.toMatch(/[\p{Cc}\p{Cf}\u2028\u2029]/u);
+      expect(out).not.toMatch(/<[a-z/!]/i);
+    },
+  );
 });
 
 describe('markdownLine', () => {
-  it.each([['# not a heading', '\\# not a heading'], ['- not a list', '\\- not a list'], ['+ no', '\\+ no'], ['1. no', '1\\. no'],
-    ['2) no', '2\\) no'], ['=== no', '\\=== no'], ['    not code', 'not code'], ['> no quote', '&gt; no quote']])('writes %j as %j', (text, expected) => {
+  it.each([
+    ['# not a heading', '\\# not a heading'],
+    ['- not a list', '\\- not a list'],
+    ['+ no', '\\+ no'],
+    ['1. no', '1\\. no'],
+    ['2) no', '2\\) no'],
+    ['=== no', '\\=== no'],
+    ['    not code', 'not code'],
+    ['> no quote', '&gt; no quote'],
+  ])('writes %j as %j', (text, expected) => {
     expect(markdownLine(text)).toBe(expected);
   });
 });

@@ -13,7 +13,9 @@ describe('mcShownNote', () => {
 
   it('says the table shows 8 of the 45 corners, as many rows as the table has', () => {
     expect(mcRows(report)).toHaveLength(8);
-    expect(mcShownNote(report)).toBe('The table shows the 8 of 45 corners with the lowest yield (then the least sigma margin); phasegap mc lists every corner.');
+    expect(mcShownNote(report)).toBe(
+      'The table shows the 8 of 45 corners with the lowest yield (then the least sigma margin); phasegap mc lists every corner.',
+    );
   });
 
   it('says nothing when the table shows every corner', () => {
@@ -26,7 +28,7 @@ describe('mcHeadline and mcRows', () => {
   const { design: d, card } = loadDesign(design('doubler'), ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]']);
   const report = mcReport(d.name, card.name, runMonteCarlo(resolveDesign(d, card), 20, 1), undefined);
 
-  it('print percentages with the precision of phasegap mc\'s text', () => {
+  it("print percentages with the precision of phasegap mc's text", () => {
     // 20 of 20 dies pass: yield 100 %, Wilson 95 % interval 83.9 % .. 100 % (z = 1.96, common practice).
     expect(report.yield.value).toBe(1);
     expect(mcHeadline(report)).toContain('yield at every corner 100.0 % (95 % Wilson interval 83.9 % .. 100.0 %)');

@@ -19,8 +19,11 @@ export function all(root: Element, selector: string): Element[] {
 
 /** [x, y] pairs of a polygon or polyline's points attribute. */
 export function pointList(element: Element): Array<[number, number]> {
-  return (element.getAttribute('points') ?? '').trim().split(/\s+/).map((p) => {
-    const [x, y] = p.split(',').map(Number);
-    return [x!, y!];
-  });
+  return (element.getAttribute('points') ?? '')
+    .trim()
+    .split(/\s+/)
+    .map((p) => {
+      const [x, y] = p.split(',').map(Number);
+      return [x!, y!];
+    });
 }

@@ -20,7 +20,11 @@ import { requireTool } from '../tools.js';
 
 requireTool('xmllint', 'libxml2-utils');
 
-function drawn(name: string, kind: 'corner' | 'all', set: string[] = []): { svg: string; doc: Element; results: CornerResult[]; resolved: ResolvedDesign } {
+function drawn(
+  name: string,
+  kind: 'corner' | 'all',
+  set: string[] = [],
+): { svg: string; doc: Element; results: CornerResult[]; resolved: ResolvedDesign } {
   const { design: d, card } = loadDesign(design(name), set);
   const resolved = resolveDesign(d, card);
   const results = evaluateAll(resolved);
@@ -49,7 +53,9 @@ describe('renderTimingSvg labels', () => {
         const ground = t.previousElementSibling!;
         expect(ground.getAttribute('class')).toBe('label-ground');
         expect(ground.getAttribute('fill')).toBe('#ffffff');
-        expect(num(ground, 'width')).toBeGreaterThanOrEqual(textWidth(t.textContent!, num(t, 'font-size'), t.getAttribute('font-weight') === 'bold'));
+        expect(num(ground, 'width')).toBeGreaterThanOrEqual(
+          textWidth(t.textContent!, num(t, 'font-size'), t.getAttribute('font-weight') === 'bold'),
+        );
       }
     }
   });
@@ -59,7 +65,9 @@ describe('renderTimingSvg labels', () => {
     const axes = order.flatMap((c, i) => (c === 'axis' ? [i] : []));
     const panels = order.flatMap((c, i) => (c?.startsWith('panel ') ? [i] : []));
     expect(axes).toHaveLength(3);
-    axes.forEach((a, k) => { expect(a).toBeLessThan(panels[k]!); });
+    axes.forEach((a, k) => {
+      expect(a).toBeLessThan(panels[k]!);
+    });
   });
 });
 
@@ -89,13 +97,16 @@ describe('renderTimingSvg failures and corner spread', () => {
   it('keeps every legend entry inside the drawing', () => {
     const { doc } = drawn('doubler', 'all');
     const width = num(doc, 'width');
-    for (const t of all(doc, 'g.legend text')) expect(num(t, 'x') + textWidth(t.textContent!, num(t, 'font-size'))).toBeLessThanOrEqual(width);
+    for (const t of all(doc, 'g.legend text'))
+      expect(num(t, 'x') + textWidth(t.textContent!, num(t, 'font-size'))).toBeLessThanOrEqual(width);
   });
 
   it('keeps a "does not switch" note inside the first panel and the whole text in data-full', () => {
     const { doc } = drawn('doubler', 'corner', STUCK);
     const note = all(doc, 'text.switch-problem')[0]!;
-    expect(note.getAttribute('data-full')).toMatch(/^\u2715 does not switch at .*: s_chg never conducts at a signal of .* V: its gate swing does not reach the turn-on level$/);
+    expect(note.getAttribute('data-full')).toMatch(
+      /^\u2715 does not switch at .*: s_chg never conducts at a signal of .* V: its gate swing does not reach the turn-on level$/,
+    );
     const shown = note.firstChild!.nodeValue!;
     expect(shown.endsWith('\u2026')).toBe(true);
     expect(all(note, 'title')[0]!.textContent).toBe(note.getAttribute('data-full'));
@@ -114,7 +125,7 @@ describe('renderTimingSvg failures and corner spread', () => {
     expect(all(mark, 'rect.settle-unmeasured')[0]!.getAttribute('fill')).toBe('url(#pg-fail-hatch)');
   });
 
-  it('writes the stuck design\'s drawing as XML that xmllint (libxml2-utils) accepts', () => {
+  it("writes the stuck design's drawing as XML that xmllint (libxml2-utils) accepts", () => {
     const file = join(tempDir(), 'stuck.svg');
     writeFileSync(file, drawn('doubler', 'corner', STUCK).svg);
     const lint = spawnSync('xmllint', ['--noout', '--nonet', file], { encoding: 'utf8' });
@@ -145,7 +156,18 @@ describe('off-state labels', () => {
   });
 
   it('withoutBusy cuts busy intervals out of spans', () => {
-    expect(withoutBusy([{ xa: 0, xb: 100 }], [{ xa: 20, xb: 30 }, { xa: 90, xb: 120 }])).toEqual([{ xa: 0, xb: 20 }, { xa: 30, xb: 90 }]);
+    expect(
+      withoutBusy(
+        [{ xa: 0, xb: 100 }],
+        [
+          { xa: 20, xb: 30 },
+          { xa: 90, xb: 120 },
+        ],
+      ),
+    ).toEqual([
+      { xa: 0, xb: 20 },
+      { xa: 30, xb: 90 },
+    ]);
     expect(withoutBusy([{ xa: 0, xb: 10 }], [{ xa: -5, xb: 15 }])).toEqual([]);
     expect(withoutBusy([{ xa: 0, xb: 10 }], [])).toEqual([{ xa: 0, xb: 10 }]);
   });

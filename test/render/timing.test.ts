@@ -25,8 +25,13 @@ const tight = evaluate('too-tight');
 /** The same generator held to a least dead time it cannot meet at the fast corners. */
 const tightDead = evaluate('too-tight', ['requirements.deadTime.min=400ps']);
 
-function draw(e: { resolved: ResolvedDesign; results: CornerResult[] }, kind: 'corner' | 'all', index: number, nets: 'phases' | 'all' = 'phases'): string {
-  const choice = kind === 'corner' ? { kind, index } as const : { kind, reference: index } as const;
+function draw(
+  e: { resolved: ResolvedDesign; results: CornerResult[] },
+  kind: 'corner' | 'all',
+  index: number,
+  nets: 'phases' | 'all' = 'phases',
+): string {
+  const choice = kind === 'corner' ? ({ kind, index } as const) : ({ kind, reference: index } as const);
   return renderTimingSvg(buildDiagram(e.resolved, e.results, choice, nets));
 }
 
@@ -61,7 +66,11 @@ describe('renderTimingSvg', () => {
   });
 
   it('labels each handover with the dead time the engine measured, in whole picoseconds', () => {
-    for (const [e, index] of [[doubler, 0], [integrator, 7], [tight, worstCornerIndex(tight.results)]] as const) {
+    for (const [e, index] of [
+      [doubler, 0],
+      [integrator, 7],
+      [tight, worstCornerIndex(tight.results)],
+    ] as const) {
       const result = e.results[index]!;
       if (!result.measurement.ok) throw new Error('fixture corner did not settle');
       const svg = parseSvg(draw(e, 'corner', index));
@@ -128,8 +137,9 @@ describe('renderTimingSvg', () => {
     });
     const lo = Math.min(...rises);
     const hi = Math.max(...rises);
-    const bands = all(svg, 'g.panel-detail-a .signal-row[data-signal="p1"] polygon.edge-band')
-      .filter((b) => Math.abs(Number(b.getAttribute('data-t50-min')) - lo) < 1e-15);
+    const bands = all(svg, 'g.panel-detail-a .signal-row[data-signal="p1"] polygon.edge-band').filter(
+      (b) => Math.abs(Number(b.getAttribute('data-t50-min')) - lo) < 1e-15,
+    );
     expect(bands.length).toBe(1);
     const band = bands[0]!;
     expect(Number(band.getAttribute('data-t50-max'))).toBeCloseTo(hi, 18);
@@ -140,10 +150,15 @@ describe('renderTimingSvg', () => {
     expect(Number(panel.getAttribute('data-from'))).toBe(w.from);
     const axisLine = all(svg, 'g.panel-detail-a .signal-row[data-signal="p1"] polyline.wave')[0]!;
     const xs = pointList(axisLine).map(([x]) => x);
-    const scale = scaleLinear().domain([w.from, w.to]).range([Math.min(...xs), Math.max(...xs)]);
+    const scale = scaleLinear()
+      .domain([w.from, w.to])
+      .range([Math.min(...xs), Math.max(...xs)]);
     const ys = pointList(band).map(([, y]) => y);
     const midY = (Math.min(...ys) + Math.max(...ys)) / 2;
-    const mids = pointList(band).filter(([, y]) => Math.abs(y - midY) < 0.011).map(([x]) => x).sort((a, b) => a - b);
+    const mids = pointList(band)
+      .filter(([, y]) => Math.abs(y - midY) < 0.011)
+      .map(([x]) => x)
+      .sort((a, b) => a - b);
     expect(mids.length).toBe(2);
     expect(Math.abs(mids[0]! - scale(lo))).toBeLessThanOrEqual(0.005);
     expect(Math.abs(mids[1]! - scale(hi))).toBeLessThanOrEqual(0.005);
@@ -167,7 +182,11 @@ describe('renderTimingSvg', () => {
 
   it('never writes NaN, undefined or Infinity', () => {
     for (const e of [doubler, integrator, tight, tightDead]) {
-      for (const text of [draw(e, 'corner', 0), draw(e, 'all', worstCornerIndex(e.results)), draw(e, 'corner', worstCornerIndex(e.results), 'all')]) {
+      for (const text of [
+        draw(e, 'corner', 0),
+        draw(e, 'all', worstCornerIndex(e.results)),
+        draw(e, 'corner', worstCornerIndex(e.results), 'all'),
+      ]) {
         expect(text).not.toMatch(/NaN|undefined|Infinity/);
       }
     }
@@ -200,7 +219,7 @@ describe('renderTimingSvg: off-state strips', () => {
     expect(d.switches.find((s) => s.name === 's_gnd')!.offState!.pass).toBe(true);
   });
 
-  it('hatches the failing switch\'s off intervals, names the reverse conduction in its lane and keeps the others grey', () => {
+  it("hatches the failing switch's off intervals, names the reverse conduction in its lane and keeps the others grey", () => {
     const svg = parseSvg(draw(unboosted, 'corner', tt));
     const lanes = all(svg, 'g.panel-overview g.switch-lane');
     const chg = lanes.find((l) => l.getAttribute('data-switch') === 's_chg')!;

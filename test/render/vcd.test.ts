@@ -38,36 +38,78 @@ describe('ticks', () => {
 
 describe('renderVcd', () => {
   const text = renderVcd({
-    top: 'gen-1', comment: 'c', version: 'v', timescale: '1fs', end: 10e-12,
+    top: 'gen-1',
+    comment: 'c',
+    version: 'v',
+    timescale: '1fs',
+    end: 10e-12,
     signals: [
       { scope: [], name: 'clk', initial: 1, changes: [{ time: 5e-12, value: 0 }] },
-      { scope: ['internal'], name: 'a.b', initial: 0, changes: [{ time: 2e-12, value: 1 }, { time: 5e-12, value: 0 }, { time: 5e-12, value: 0 }] },
+      {
+        scope: ['internal'],
+        name: 'a.b',
+        initial: 0,
+        changes: [
+          { time: 2e-12, value: 1 },
+          { time: 5e-12, value: 0 },
+          { time: 5e-12, value: 0 },
+        ],
+      },
       { scope: [], name: 'late', initial: 0, changes: [{ time: 10e-12, value: 1 }] },
     ],
   });
 
   it('writes the header, one scope per generator with nested scopes, and $dumpvars at #0', () => {
-    expect(text).toBe([
-      '$comment', '  c', '$end', '$version v $end', '$timescale 1 fs $end',
-      '$scope module gen_1 $end', '$var wire 1 ! clk $end', '$var wire 1 # late $end',
-      '$scope module internal $end', '$var wire 1 " a_b $end', '$upscope $end', '$upscope $end',
-      '$enddefinitions $end', '#0', '$dumpvars', '1!', '0"', '0#', '$end',
-      '#2000', '1"', '#5000', '0!', '0"', '#10000', '',
-    ].join('\n'));
+    expect(text).toBe(
+      [
+        '$comment',
+        '  c',
+        '$end',
+        '$version v $end',
+        '$timescale 1 fs $end',
+        '$scope module gen_1 $end',
+        '$var wire 1 ! clk $end',
+        '$var wire 1 # late $end',
+        '$scope module internal $end',
+        '$var wire 1 " a_b $end',
+        '$upscope $end',
+        '$upscope $end',
+        '$enddefinitions $end',
+        '#0',
+        '$dumpvars',
+        '1!',
+        '0"',
+        '0#',
+        '$end',
+        '#2000',
+        '1"',
+        '#5000',
+        '0!',
+        '0"',
+        '#10000',
+        '',
+      ].join('\n'),
+    );
   });
 
   it('drops repeated values and changes at or after the end marker, so times strictly increase', () => {
-    const times = text.split('\n').filter((l) => l.startsWith('#')).map((l) => Number(l.slice(1)));
+    const times = text
+      .split('\n')
+      .filter((l) => l.startsWith('#'))
+      .map((l) => Number(l.slice(1)));
     expect(times).toEqual([0, 2000, 5000, 10000]);
   });
 });
 
 describe('vcdText', () => {
-  it.each(['x $$end', '$$$end$end', 'a\n$end', 'a\r\n$var wire 1 % evil $end', hostileName('/tmp/x', 'all')])('writes %j as one line of printable ASCII without a $', (text) => {
-    const clean = vcdText(text);
-    expect(clean).toMatch(/^[\x20-\x7e]*$/);
-    expect(clean).not.toContain('$');
-  });
+  it.each(['x $$end', '$$$end$end', 'a\n$end', 'a\r\n$var wire 1 % evil $end', hostileName('/tmp/x', 'all')])(
+    'writes %j as one line of printable ASCII without a $',
+    (text) => {
+      const clean = vcdText(text);
+      expect(clean).toMatch(/^[\x20-\x7e]*$/);
+      expect(clean).not.toContain('$');
+    },
+  );
 });
 
 describe('renderVcd with hostile text', () => {
@@ -75,7 +117,11 @@ describe('renderVcd with hostile text', () => {
   it('declares exactly the intended variables, as sigrok-cli (Debian package sigrok-cli) reads the file', () => {
     const evil = (tag: string) => `${tag} $$end $$var wire 1 % evil $$end $end\n$var wire 1 & evil2 $end\n${hostileName('/tmp/x', tag)}`;
     const text = renderVcd({
-      top: evil('top'), comment: evil('comment'), version: evil('version'), timescale: '1fs', end: 10e-12,
+      top: evil('top'),
+      comment: evil('comment'),
+      version: evil('version'),
+      timescale: '1fs',
+      end: 10e-12,
       signals: [
         { scope: [], name: 'clk', initial: 1, changes: [{ time: 5e-12, value: 0 }] },
         { scope: [evil('scope')], name: evil('net'), initial: 0, changes: [{ time: 3e-12, value: 1 }] },

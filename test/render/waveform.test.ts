@@ -4,14 +4,28 @@ import { expectClose } from '../helpers.js';
 
 const T = 10e-9;
 const square: NetWave = {
-  net: 'p1', period: T, initial: 0,
-  ramps: [{ t50: 2e-9, transition: 200e-12, rising: true }, { t50: 6e-9, transition: 400e-12, rising: false }],
+  net: 'p1',
+  period: T,
+  initial: 0,
+  ramps: [
+    { t50: 2e-9, transition: 200e-12, rising: true },
+    { t50: 6e-9, transition: 400e-12, rising: false },
+  ],
 };
 
 describe('wavePoints', () => {
   it('draws each edge as a ramp from rail to rail centred on its 50 % time', () => {
     const pts = wavePoints(square, 0, T);
-    expect(pts).toEqual([[0, 0], [1.9e-9, 0], [2.1e-9, 1], [5.8e-9, 1], [6.2e-9, 0], [T, 0]].map(([t, v]) => [expect.closeTo(t!, 20), v]));
+    expect(pts).toEqual(
+      [
+        [0, 0],
+        [1.9e-9, 0],
+        [2.1e-9, 1],
+        [5.8e-9, 1],
+        [6.2e-9, 0],
+        [T, 0],
+      ].map(([t, v]) => [expect.closeTo(t!, 20), v]),
+    );
   });
 
   it('repeats the period on both sides of the reported one', () => {
@@ -31,8 +45,13 @@ describe('wavePoints', () => {
 
   it('meets two ramps that overlap (a pulse shorter than its edges) where their lines cross', () => {
     const pulse: NetWave = {
-      net: 'x', period: T, initial: 0,
-      ramps: [{ t50: 1e-9, transition: 400e-12, rising: true }, { t50: 1.2e-9, transition: 400e-12, rising: false }],
+      net: 'x',
+      period: T,
+      initial: 0,
+      ramps: [
+        { t50: 1e-9, transition: 400e-12, rising: true },
+        { t50: 1.2e-9, transition: 400e-12, rising: false },
+      ],
     };
     const pts = wavePoints(pulse, 0, 3e-9);
     // Rising line 0.5 + (t - 1 ns)/0.4 ns and falling line 0.5 - (t - 1.2 ns)/0.4 ns cross at 1.1 ns, level 0.75.
@@ -44,7 +63,10 @@ describe('wavePoints', () => {
   });
 
   it('draws a net that never switches as a flat line at its level', () => {
-    expect(wavePoints({ net: 'q', period: T, initial: 1, ramps: [] }, 0, T)).toEqual([[0, 1], [T, 1]]);
+    expect(wavePoints({ net: 'q', period: T, initial: 1, ramps: [] }, 0, T)).toEqual([
+      [0, 1],
+      [T, 1],
+    ]);
   });
 });
 
@@ -56,7 +78,15 @@ describe('rampsBetween', () => {
   });
 
   it('repeats over at most MAX_REPEATED_PERIODS + 1 periods around the window when an edge is far longer than the period', () => {
-    const slow: NetWave = { net: 'clk', period: T, initial: 0, ramps: [{ t50: 2e-9, transition: 1, rising: true }, { t50: 7e-9, transition: 1, rising: false }] };
+    const slow: NetWave = {
+      net: 'clk',
+      period: T,
+      initial: 0,
+      ramps: [
+        { t50: 2e-9, transition: 1, rising: true },
+        { t50: 7e-9, transition: 1, rising: false },
+      ],
+    };
     const ramps = rampsBetween(slow, 0, T);
     expect(ramps.length).toBe(2 * (MAX_REPEATED_PERIODS + 1));
     expect(ramps.some((r) => r.t50 === 2e-9)).toBe(true);

@@ -3,27 +3,49 @@ import { renderConfirmText } from '../../src/report/confirm-text.js';
 import type { CornerComparison } from '../../src/report/confirm-report.js';
 
 const dead = (model: number, simulator: number) => ({
-  quantity: 'dead p1->p2', kind: 'dead' as const, model, simulator, relativeError: (model - simulator) / simulator,
+  quantity: 'dead p1->p2',
+  kind: 'dead' as const,
+  model,
+  simulator,
+  relativeError: (model - simulator) / simulator,
   pass: Math.abs((model - simulator) / simulator) <= 0.1,
 });
 
 const ronRow = (model: number, simulator: number) => ({
-  label: 'R_on s_gnd @ 0 V', switch: 's_gnd', model, simulator, relativeError: (model - simulator) / simulator,
+  label: 'R_on s_gnd @ 0 V',
+  switch: 's_gnd',
+  model,
+  simulator,
+  relativeError: (model - simulator) / simulator,
   pass: Math.abs((model - simulator) / simulator) <= 0.1,
 });
 
 function corner(name: string, pairs: Array<[number, number]>, rons: Array<[number, number]> = []): CornerComparison {
   const ron = rons.map(([m, s]) => ronRow(m, s));
-  const breakBeforeMake = pairs.map(([model, simulator], i) => ({ check: `s${i}/t${i} break-before-make`, model, simulator, agrees: model >= 0 === simulator >= 0 }));
+  const breakBeforeMake = pairs.map(([model, simulator], i) => ({
+    check: `s${i}/t${i} break-before-make`,
+    model,
+    simulator,
+    agrees: model >= 0 === simulator >= 0,
+  }));
   const quantities = [dead(1.0e-9, 0.98e-9)];
-  return { corner: name, quantities, breakBeforeMake, ron, errors: [], pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) && ron.every((r) => r.pass) };
+  return {
+    corner: name,
+    quantities,
+    breakBeforeMake,
+    ron,
+    errors: [],
+    pass: quantities.every((q) => q.pass) && breakBeforeMake.every((b) => b.agrees) && ron.every((r) => r.pass),
+  };
 }
 
 const summary = (corners: CornerComparison[]) => ({ design: 'pump', model: 'analytic', simulator: 'ngspice-42', tolerance: 0.1, corners });
 
 describe('renderConfirmText', () => {
   it('lists switch R_on, model vs simulator with the error, and flags one over 10 % (model 44 ohm vs 120 ohm: -63.3 %)', () => {
-    const text = renderConfirmText(summary([corner('tt/1.8V/27C', [[300e-12, 290e-12]], [[44, 120]]), corner('ss/1.62V/125C', [[300e-12, 290e-12]], [[229, 225.7]])]));
+    const text = renderConfirmText(
+      summary([corner('tt/1.8V/27C', [[300e-12, 290e-12]], [[44, 120]]), corner('ss/1.62V/125C', [[300e-12, 290e-12]], [[229, 225.7]])]),
+    );
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+R_on s_gnd @ 0 V\s+44\.0 ohm\s+120 ohm\s+-63\.3 %\s+OVER$/m);
     expect(text).toMatch(/^ss\/1\.62V\/125C\s+R_on s_gnd @ 0 V\s+229 ohm\s+226 ohm\s+\+1\.5 %\s+within$/m);
     expect(text).toContain('switch R_on: 1 of 2 over 10 %');
@@ -32,7 +54,14 @@ describe('renderConfirmText', () => {
 
   it('closes with "disagree" and the count when a break-before-make pair disagrees', () => {
     // One pair holds in the model (+20 ps) and fails in the simulator (-15 ps).
-    const text = renderConfirmText(summary([corner('ff/1.98V/-40C', [[20e-12, -15e-12], [300e-12, 290e-12]])]));
+    const text = renderConfirmText(
+      summary([
+        corner('ff/1.98V/-40C', [
+          [20e-12, -15e-12],
+          [300e-12, 290e-12],
+        ]),
+      ]),
+    );
     expect(text).toMatch(/^ff\/1\.98V\/-40C\s+s0\/t0 break-before-make\s+\+20\.0 ps\s+-15\.0 ps\s+DISAGREES$/m);
     expect(text).toMatch(/^verdict: DISAGREE \(1\/1 corners within tolerance, break-before-make verdicts disagree for 1 of 2 pairs\)$/m);
     expect(text).not.toContain('verdicts alike');
@@ -61,16 +90,31 @@ describe('renderConfirmText', () => {
     expect(text).toMatch(/^verdict: AGREE \(1\/1 corners within tolerance\)$/m);
   });
 
-  it('adds the circuit table, each run\'s settling and powers, and counts the corners whose circuit agrees', () => {
-    const fig = (figure: 'output' | 'ripple' | 'efficiency' | 'lost charge', unit: 'V' | 'C' | '', model: number, simulator: number, difference: number | null, tolerance: number | null, pass: boolean) =>
-      ({ figure, unit, model, simulator, difference, tolerance, pass });
+  it("adds the circuit table, each run's settling and powers, and counts the corners whose circuit agrees", () => {
+    const fig = (
+      figure: 'output' | 'ripple' | 'efficiency' | 'lost charge',
+      unit: 'V' | 'C' | '',
+      model: number,
+      simulator: number,
+      difference: number | null,
+      tolerance: number | null,
+      pass: boolean,
+    ) => ({ figure, unit, model, simulator, difference, tolerance, pass });
     const power = { input: 214e-6, generator: 134e-6, output: 167e-6 };
     const c = {
       ...corner('tt/1.8V/27C', []),
       circuit: {
-        periods: 75, drift: -1.5e-5, settled: true, pass: false, power: { model: power, simulator: null },
-        figures: [fig('output', 'V', 3.345, 3.334, 0.0063, 0.02, true), fig('ripple', 'V', 0.0199, 0.0228, -0.127, 0.1, false),
-          fig('efficiency', '', 0.481, 0.444, 0.082, 0.1, true), fig('lost charge', 'C', 0, 271e-15, null, null, true)],
+        periods: 75,
+        drift: -1.5e-5,
+        settled: true,
+        pass: false,
+        power: { model: power, simulator: null },
+        figures: [
+          fig('output', 'V', 3.345, 3.334, 0.0063, 0.02, true),
+          fig('ripple', 'V', 0.0199, 0.0228, -0.127, 0.1, false),
+          fig('efficiency', '', 0.481, 0.444, 0.082, 0.1, true),
+          fig('lost charge', 'C', 0, 271e-15, null, null, true),
+        ],
       },
     };
     const text = renderConfirmText(summary([c]));
@@ -78,7 +122,9 @@ describe('renderConfirmText', () => {
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+ripple\s+19\.9 mV\s+22\.8 mV\s+-12\.7 %\s+OVER$/m);
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+efficiency\s+48\.1 %\s+44\.4 %\s+\+8\.2 %\s+within$/m);
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+lost charge\s+0 C\s+271 fC\s+-\s+shown$/m);
-    expect(text).toContain('tt/1.8V/27C: 75 periods from the solver\'s steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured');
+    expect(text).toContain(
+      "tt/1.8V/27C: 75 periods from the solver's steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured",
+    );
     expect(text).toMatch(/circuit figures within tolerance at 0\/1 corners\)$/m);
   });
 });

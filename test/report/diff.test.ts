@@ -5,9 +5,11 @@ const tolerance = { time: 5e-12, voltage: 1e-3 };
 
 function report(corners: Array<{ name: string; dead: number; checks: Array<[string, string, number | null, boolean]> }>): DiffInput {
   return {
-    tool: 'phasegap', design: 'd',
+    tool: 'phasegap',
+    design: 'd',
     corners: corners.map((c) => ({
-      name: c.name, verdict: c.checks.every((k) => k[3]) ? 'pass' : 'fail',
+      name: c.name,
+      verdict: c.checks.every((k) => k[3]) ? 'pass' : 'fail',
       deadTimes: [{ from: 'p1', to: 'p2', t50: c.dead, gap: c.dead - 1e-10 }],
       checks: c.checks.map(([kind, name, margin, pass]) => ({ kind, name, margin, pass })),
     })),
@@ -15,8 +17,24 @@ function report(corners: Array<{ name: string; dead: number; checks: Array<[stri
 }
 
 const before = report([
-  { name: 'tt', dead: 1e-9, checks: [['dead-time', 'dead >= 500 ps', 500e-12, true], ['width', 'width', 2e-9, true], ['off-state', 's holds off', 0.05, true]] },
-  { name: 'ss', dead: 2e-9, checks: [['dead-time', 'dead >= 500 ps', -10e-12, false], ['width', 'width', 1e-9, true], ['off-state', 's holds off', 0.05, true]] },
+  {
+    name: 'tt',
+    dead: 1e-9,
+    checks: [
+      ['dead-time', 'dead >= 500 ps', 500e-12, true],
+      ['width', 'width', 2e-9, true],
+      ['off-state', 's holds off', 0.05, true],
+    ],
+  },
+  {
+    name: 'ss',
+    dead: 2e-9,
+    checks: [
+      ['dead-time', 'dead >= 500 ps', -10e-12, false],
+      ['width', 'width', 1e-9, true],
+      ['off-state', 's holds off', 0.05, true],
+    ],
+  },
 ]);
 
 describe('diffReports', () => {
@@ -30,8 +48,24 @@ describe('diffReports', () => {
 
   it('finds a new failure, a fixed one, margin moves beyond the tolerance only, and dead-time shifts', () => {
     const after = report([
-      { name: 'tt', dead: 1.004e-9, checks: [['dead-time', 'dead >= 500 ps', 504e-12, true], ['width', 'width', -1e-12, false], ['off-state', 's holds off', 0.047, true]] },
-      { name: 'ss', dead: 2.1e-9, checks: [['dead-time', 'dead >= 500 ps', 90e-12, true], ['width', 'width', 0.9e-9, true], ['off-state', 's holds off', 0.0505, true]] },
+      {
+        name: 'tt',
+        dead: 1.004e-9,
+        checks: [
+          ['dead-time', 'dead >= 500 ps', 504e-12, true],
+          ['width', 'width', -1e-12, false],
+          ['off-state', 's holds off', 0.047, true],
+        ],
+      },
+      {
+        name: 'ss',
+        dead: 2.1e-9,
+        checks: [
+          ['dead-time', 'dead >= 500 ps', 90e-12, true],
+          ['width', 'width', 0.9e-9, true],
+          ['off-state', 's holds off', 0.0505, true],
+        ],
+      },
     ]);
     const d = diffReports(before, after, { old: 'a.json', new: 'b.json' }, tolerance);
     expect(d.verdict).toBe('fail');
@@ -48,7 +82,14 @@ describe('diffReports', () => {
 
   it('lists corners and checks present on one side only, and counts a failing check new to the report as a new failure', () => {
     const after = report([
-      { name: 'tt', dead: 1e-9, checks: [['dead-time', 'dead >= 500 ps', 500e-12, true], ['settle', 'settles', -1e-9, false]] },
+      {
+        name: 'tt',
+        dead: 1e-9,
+        checks: [
+          ['dead-time', 'dead >= 500 ps', 500e-12, true],
+          ['settle', 'settles', -1e-9, false],
+        ],
+      },
       { name: 'ff', dead: 0.8e-9, checks: [['dead-time', 'dead >= 500 ps', 300e-12, true]] },
     ]);
     const d = diffReports(before, after, { old: 'a.json', new: 'b.json' }, tolerance);

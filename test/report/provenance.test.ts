@@ -16,8 +16,13 @@ describe('provenance', () => {
   it('records the date from the given clock in ISO 8601 UTC, and no simulator or error band unless given', () => {
     const p = provenance(facts);
     expect(p).toEqual({
-      tool: 'phasegap', version: '9.9.9', date: '2026-01-02T03:04:05.000Z', command: facts.command, inputs: facts.inputs,
-      model: { name: 'table', errorBand: null }, simulator: null,
+      tool: 'phasegap',
+      version: '9.9.9',
+      date: '2026-01-02T03:04:05.000Z',
+      command: facts.command,
+      inputs: facts.inputs,
+      model: { name: 'table', errorBand: null },
+      simulator: null,
     });
   });
 

@@ -8,11 +8,23 @@ describe('shellQuote', () => {
     expect(shellQuote('generator.stageLoad=40fF')).toBe('generator.stageLoad=40fF');
   });
 
-  it.each(["my design's copy.yaml", 'a b', '$(touch x)', '`id`', 'generator.stageSize=[1,2]', 'x;rm -rf y', '*', '~/d.yaml', "'", 'a"b\\c', '-', ''])(
-    'quotes %j so that /bin/sh reads it back as one word', (word) => {
-      const run = spawnSync('/bin/sh', ['-c', `printf '%s|' ${shellQuote(word)}`], { encoding: 'utf8' });
-      expect(run.stdout).toBe(`${word}|`);
-    });
+  it.each([
+    "my design's copy.yaml",
+    'a b',
+    '$(touch x)',
+    '`id`',
+    'generator.stageSize=[1,2]',
+    'x;rm -rf y',
+    '*',
+    '~/d.yaml',
+    "'",
+    'a"b\\c',
+    '-',
+    '',
+  ])('quotes %j so that /bin/sh reads it back as one word', (word) => {
+    const run = spawnSync('/bin/sh', ['-c', `printf '%s|' ${shellQuote(word)}`], { encoding: 'utf8' });
+    expect(run.stdout).toBe(`${word}|`);
+  });
 
   it('shows control characters as \\xNN inside the quotes', () => {
     expect(shellQuote('a\nb\u001b[2J')).toBe("'a\\x0ab\\x1b[2J'");
@@ -21,7 +33,8 @@ describe('shellQuote', () => {
 
 describe('shellCommand', () => {
   it('quotes each word', () => {
-    expect(shellCommand(['phasegap', 'check', 'my file.yaml', '--set', 'generator.stageSize=[1,2]']))
-      .toBe("phasegap check 'my file.yaml' --set 'generator.stageSize=[1,2]'");
+    expect(shellCommand(['phasegap', 'check', 'my file.yaml', '--set', 'generator.stageSize=[1,2]'])).toBe(
+      "phasegap check 'my file.yaml' --set 'generator.stageSize=[1,2]'",
+    );
   });
 });

@@ -69,7 +69,12 @@ describe('csvHeader and csvRow with a circuit', () => {
   });
 
   it('put a failing efficiency limit under limiting_margin_frac and nowhere else', () => {
-    const { design: d, card } = loadDesign(design('doubler-pump'), ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]', 'circuit.requirements.efficiency.min=0.99']);
+    const { design: d, card } = loadDesign(design('doubler-pump'), [
+      'corners.process=[tt]',
+      'corners.vdd=[1.8V]',
+      'corners.temperature=[27]',
+      'circuit.requirements.efficiency.min=0.99',
+    ]);
     const resolved = resolveDesign(d, card);
     const r = summarizePoint(0, [20e6], evaluateAll(resolved));
     const columns = sweepColumns(resolved);
@@ -93,11 +98,18 @@ describe('csvRow with names a spreadsheet would run', () => {
   it('puts an apostrophe before a text cell that starts with =, +, - or @, and leaves negative numbers alone', () => {
     const columns = { deadTimes: [], widths: [], checks: ['=HYPERLINK("x")'], voltChecks: [], chargeChecks: [], fractionChecks: [] };
     const row = {
-      index: 0, point: ['@SUM(A1)'], corners: 1, verdict: 'fail' as const,
+      index: 0,
+      point: ['@SUM(A1)'],
+      corners: 1,
+      verdict: 'fail' as const,
       limiting: { corner: '+tt', check: '=HYPERLINK("x")', kind: 'order' as const, margin: -2e-12 },
-      deadTimes: [], widths: [], checks: [{ name: '=HYPERLINK("x")', kind: 'order', margin: -2e-12 }],
+      deadTimes: [],
+      widths: [],
+      checks: [{ name: '=HYPERLINK("x")', kind: 'order', margin: -2e-12 }],
     };
-    expect(csvHeader([{ path: '-x', values: [1] }], columns)).toBe(`'-x,corners,verdict,limiting_corner,limiting_check,limiting_margin_s,limiting_margin_V,margin_s.hyperlink_x\n`);
+    expect(csvHeader([{ path: '-x', values: [1] }], columns)).toBe(
+      `'-x,corners,verdict,limiting_corner,limiting_check,limiting_margin_s,limiting_margin_V,margin_s.hyperlink_x\n`,
+    );
     expect(csvRow(row as never, columns)).toBe(`'@SUM(A1),1,fail,'+tt,"'=HYPERLINK(""x"")",-2e-12,,-2e-12\n`);
   });
 });
@@ -106,7 +118,10 @@ describe('csvColumnsJson', () => {
   it('lists every header key in order with its label and unit', () => {
     const { columns } = row('doubler');
     const axes = [parseAxis('clock.frequency=20MHz')];
-    const sidecar = JSON.parse(csvColumnsJson(axes, columns)) as { format: string; columns: Array<{ key: string; label: string; unit: string | null }> };
+    const sidecar = JSON.parse(csvColumnsJson(axes, columns)) as {
+      format: string;
+      columns: Array<{ key: string; label: string; unit: string | null }>;
+    };
     expect(sidecar.format).toBe('phasegap-sweep-columns/1');
     expect(sidecar.columns.map((c) => c.key)).toEqual(csvHeader(axes, columns).trim().split(','));
     const dead = sidecar.columns.find((c) => c.key === 'margin_s.dead_p1_p2_min')!;

@@ -10,7 +10,12 @@ import { design } from '../helpers.js';
 const base = () => parse(readFileSync(design('doubler-pump'), 'utf8')) as Record<string, any>;
 
 function issues(raw: unknown): { path: string; value?: string; allowed: string }[] {
-  try { parseWith(designSchema, raw); } catch (e) { if (e instanceof InputError) return [...e.issues]; throw e; }
+  try {
+    parseWith(designSchema, raw);
+  } catch (e) {
+    if (e instanceof InputError) return [...e.issues];
+    throw e;
+  }
   return [];
 }
 

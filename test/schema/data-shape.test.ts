@@ -9,13 +9,23 @@ describe('checkDataShape', () => {
     const keys = Object.fromEntries(Array.from({ length: 10_000 }, (_, i) => [`k${i}`, i]));
     let deep: unknown = 1;
     for (let i = 0; i < 32; i++) deep = [deep];
-    expect(() => checkDataShape({ keys, items: new Array(100_000).fill(0), deep: (deep as unknown[])[0], none: null, ok: true, s: 'x' })).not.toThrow();
+    expect(() =>
+      checkDataShape({ keys, items: new Array(100_000).fill(0), deep: (deep as unknown[])[0], none: null, ok: true, s: 'x' }),
+    ).not.toThrow();
   });
 
   it.each([
-    ['10001 keys', { a: Object.fromEntries(Array.from({ length: 10_001 }, (_, i) => [`k${i}`, i])) }, 'a: has 10001 keys; a mapping may hold at most 10000'],
+    [
+      '10001 keys',
+      { a: Object.fromEntries(Array.from({ length: 10_001 }, (_, i) => [`k${i}`, i])) },
+      'a: has 10001 keys; a mapping may hold at most 10000',
+    ],
     ['100001 items', { a: [0, new Array(100_001).fill(0)] }, 'a[1]: has 100001 items; a list may hold at most 100000'],
-    ['33 levels', { a: JSON.parse(`${'['.repeat(32)}${']'.repeat(32)}`) as unknown }, 'a[0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0]: nests deeper than 32 levels'],
+    [
+      '33 levels',
+      { a: JSON.parse(`${'['.repeat(32)}${']'.repeat(32)}`) as unknown },
+      'a[0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0][0]: nests deeper than 32 levels',
+    ],
     ['a Set', { a: { b: new Set([1]) } }, 'a.b: is not plain data'],
     ['a Date', { a: [new Date(0)] }, 'a[0]: is not plain data'],
     ['a Map', { a: new Map() }, 'a: is not plain data'],

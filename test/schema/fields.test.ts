@@ -31,7 +31,7 @@ describe('quantity', () => {
     expect(messages(f, Infinity)[0]).toContain('is not a finite number');
   });
 
-  it('adds the unit\'s plausible ceiling where the field sets none, and a floor to signed fields', () => {
+  it("adds the unit's plausible ceiling where the field sets none, and a floor to signed fields", () => {
     const c = quantity('F', 'c', { atLeast: 0 });
     expect(c.parse('1mF')).toBeCloseTo(1e-3, 15);
     expect(messages(c, '2mF')).toEqual(['is out of range; it must be at least 0 F and at most 0.001 F']);
@@ -41,7 +41,7 @@ describe('quantity', () => {
     expect(PLAUSIBLE.m).toBe(1);
   });
 
-  it('keeps a field\'s own upper bound and writes large bounds with an SI prefix', () => {
+  it("keeps a field's own upper bound and writes large bounds with an SI prefix", () => {
     const f = quantity('Hz', 'f', { atLeast: 1, atMost: 100e9 });
     expect(messages(f, '101GHz')).toEqual(['is out of range; it must be at least 1 Hz and at most 100 GHz']);
     expect(f.parse('100GHz')).toBe(100e9);

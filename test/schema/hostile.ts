@@ -11,9 +11,11 @@ import { designFromYaml, processCard } from '../helpers.js';
 
 /** Text that would run `touch MARKER` if a deck took it for lines of its own (ngspice .control, *# lines). */
 export function hostileName(marker: string, tag: string): string {
-  return `${tag}\n.control\nshell touch ${marker}\n.endc\r\n*# shell touch ${marker}\u2028.end\u0085`
-    + `$$end $end endmodule\nmodule evil; initial $display("EVIL"); endmodule\n// <script>alert(1)</script>`
-    + `]]>&\u0001\u000b\u007f\u009b\u202e\u2066\ufffe\ud800`;
+  return (
+    `${tag}\n.control\nshell touch ${marker}\n.endc\r\n*# shell touch ${marker}\u2028.end\u0085` +
+    `$$end $end endmodule\nmodule evil; initial $display("EVIL"); endmodule\n// <script>alert(1)</script>` +
+    `]]>&\u0001\u000b\u007f\u009b\u202e\u2066\ufffe\ud800`
+  );
 }
 
 /** A small netlist design on the generic180 card, valid as it stands. */

@@ -11,15 +11,39 @@ import { PLAIN_YAML } from './hostile.js';
 const ok = (schema: z.ZodType, value: string) => schema.safeParse(value).success;
 
 describe('identifier', () => {
-  it.each(['u_inv', 'flying-cap charge', 'bottom plate opens first', 'Ø-Schalter', '開關1', 's1 (φ1)', 'switch \ud83d\ude00', 'a'.repeat(IDENTIFIER_MAX)])('accepts %j', (name) => {
+  it.each([
+    'u_inv',
+    'flying-cap charge',
+    'bottom plate opens first',
+    'Ø-Schalter',
+    '開關1',
+    's1 (φ1)',
+    'switch \ud83d\ude00',
+    'a'.repeat(IDENTIFIER_MAX),
+  ])('accepts %j', (name) => {
     expect(ok(identifier(), name)).toBe(true);
   });
 
   it.each([
-    ['a newline', 'x\n.control'], ['a carriage return', 'x\r'], ['a tab', 'x\ty'], ['NUL', 'x\u0000'], ['ESC', '\u001b[31mred'],
-    ['DEL', 'x\u007f'], ['a C1 control', 'x\u009b'], ['a line separator', 'x\u2028y'], ['a paragraph separator', 'x\u2029y'],
-    ['a right-to-left override', 'abc\u202edef'], ['a left-to-right isolate', '\u2066x'], ['a pop directional isolate', 'x\u2069'],
-    ['a zero-width space', 'x\u200by'], ['a byte-order mark', '\ufeffx'], ['a soft hyphen', 'x\u00ady'], ['a lone surrogate', 'x\ud800'], ['a lone low surrogate', '\udc00x'], ['nothing', ''], ['too many characters', 'a'.repeat(IDENTIFIER_MAX + 1)],
+    ['a newline', 'x\n.control'],
+    ['a carriage return', 'x\r'],
+    ['a tab', 'x\ty'],
+    ['NUL', 'x\u0000'],
+    ['ESC', '\u001b[31mred'],
+    ['DEL', 'x\u007f'],
+    ['a C1 control', 'x\u009b'],
+    ['a line separator', 'x\u2028y'],
+    ['a paragraph separator', 'x\u2029y'],
+    ['a right-to-left override', 'abc\u202edef'],
+    ['a left-to-right isolate', '\u2066x'],
+    ['a pop directional isolate', 'x\u2069'],
+    ['a zero-width space', 'x\u200by'],
+    ['a byte-order mark', '\ufeffx'],
+    ['a soft hyphen', 'x\u00ady'],
+    ['a lone surrogate', 'x\ud800'],
+    ['a lone low surrogate', '\udc00x'],
+    ['nothing', ''],
+    ['too many characters', 'a'.repeat(IDENTIFIER_MAX + 1)],
   ])('refuses %s', (_, name) => {
     expect(ok(identifier(), name)).toBe(false);
   });
@@ -51,14 +75,26 @@ describe('the design schema', () => {
   const PRINTABLE = /is not allowed; it must be printable characters only/;
   const variants: Array<[string, (text: string) => string, RegExp]> = [
     ['name', (t) => t.replace('name: plain', `name: ${JSON.stringify(hostile)}`), PRINTABLE],
-    ['description', (t) => t.replace('name: plain', `name: plain\ndescription: "ok\\u202e"`), /it must be printable characters and line feeds only/],
+    [
+      'description',
+      (t) => t.replace('name: plain', `name: plain\ndescription: "ok\\u202e"`),
+      /it must be printable characters and line feeds only/,
+    ],
     ['generator.gates[0].name', (t) => t.replace('name: g_inv,', `name: ${JSON.stringify(hostile)},`), PRINTABLE],
-    ['switches[0].name', (t) => t.replace('name: sa,', `name: ${JSON.stringify(hostile)},`), /must start with a letter or _ and use letters, digits, _ \. -/],
+    [
+      'switches[0].name',
+      (t) => t.replace('name: sa,', `name: ${JSON.stringify(hostile)},`),
+      /must start with a letter or _ and use letters, digits, _ \. -/,
+    ],
     ['switches[0].gate', (t) => t.replace('gate: p1,', `gate: ${JSON.stringify(hostile)},`), PRINTABLE],
     ['constraints.breakBeforeMake[0].name', (t) => t.replace('name: handover,', `name: ${JSON.stringify(hostile)},`), PRINTABLE],
     ['constraints.settle[0].name', (t) => t.replace('name: sampling,', `name: ${JSON.stringify(hostile)},`), PRINTABLE],
     ['corners.process[0]', (t) => t.replace('process: [tt]', `process: [${JSON.stringify(hostile)}]`), PRINTABLE],
-    ['loads', (t) => t.replace('loads: { p1: 100fF', `loads: { ${JSON.stringify(hostile)}: 100fF`), /is not allowed as a key here: must start with a letter/],
+    [
+      'loads',
+      (t) => t.replace('loads: { p1: 100fF', `loads: { ${JSON.stringify(hostile)}: 100fF`),
+      /is not allowed as a key here: must start with a letter/,
+    ],
   ];
 
   it.each(variants)('refuses a hostile %s, naming the field, the escaped value and the allowed pattern', (path, edit, allowed) => {
@@ -77,7 +113,8 @@ describe('the design schema', () => {
     const file = join(dir, 'd.yaml');
     writeFileSync(file, PLAIN_YAML.replace('name: g_inv,', 'name: "a\\nb\\u202ec\\u0085",'));
     expect(inputErrorMessage(() => loadDesign(file))).toBe(
-      'generator.gates[0].name: "a\\nb\\u202ec\\u0085" is not allowed; it must be printable characters only (no control character, line break, tab, separator or invisible format character such as a bidirectional override or zero-width space), 1 to 64 characters');
+      'generator.gates[0].name: "a\\nb\\u202ec\\u0085" is not allowed; it must be printable characters only (no control character, line break, tab, separator or invisible format character such as a bidirectional override or zero-width space), 1 to 64 characters',
+    );
   });
 
   it('phasegap check exits 2 on a design named with an ngspice control block, writing nothing and running nothing', () => {
@@ -88,7 +125,9 @@ describe('the design schema', () => {
     const out = join(dir, 'out.json');
     const run = cli('check', file, '--json', '-o', out);
     expect(run.code).toBe(2);
-    expect(run.stderr).toMatch(/^phasegap: error: name: "x\\n\.control\\nshell touch .*\\n\.endc" is not allowed; it must be printable characters only/m);
+    expect(run.stderr).toMatch(
+      /^phasegap: error: name: "x\\n\.control\\nshell touch .*\\n\.endc" is not allowed; it must be printable characters only/m,
+    );
     expect(existsSync(out)).toBe(false);
     expect(existsSync(marker)).toBe(false);
   });
@@ -98,9 +137,13 @@ describe('the design schema', () => {
     const card = join(dir, 'card.yaml');
     const text = readCard().replace(/^name: .*$/m, 'name: "card\\n.control"');
     writeFileSync(card, text);
-    expect(inputErrorMessage(() => loadProcess(card))).toMatch(/name: "card\\n\.control" is not allowed; it must be printable characters only/);
+    expect(inputErrorMessage(() => loadProcess(card))).toMatch(
+      /name: "card\\n\.control" is not allowed; it must be printable characters only/,
+    );
     writeFileSync(card, readCard().replace(/^ {2}tt:/m, '  "t\\u2028t":'));
-    expect(inputErrorMessage(() => loadProcess(card))).toBe(`${card}: corners: "t\\u2028t" is not allowed as a key here: must use letters, digits, _ and -`);
+    expect(inputErrorMessage(() => loadProcess(card))).toBe(
+      `${card}: corners: "t\\u2028t" is not allowed as a key here: must use letters, digits, _ and -`,
+    );
   });
 });
 

@@ -39,7 +39,12 @@ function fixedTiming(per: readonly Fixed[]): GateTiming {
 /** Transitions of the reported period as [net, offset from the window start (s), rising, transition]. */
 function edges(result: SimulationResult, net: CompiledNetlist): Array<[string, number, number, number]> {
   const e = result.edges;
-  return Array.from({ length: e.count }, (_, i) => [net.netNames[e.net[i]!]!, e.time[i]! - result.windowStart, e.rising[i]!, e.transition[i]!]);
+  return Array.from({ length: e.count }, (_, i) => [
+    net.netNames[e.net[i]!]!,
+    e.time[i]! - result.windowStart,
+    e.rising[i]!,
+    e.transition[i]!,
+  ]);
 }
 
 function expectEdges(actual: Array<[string, number, number, number]>, expected: Array<[string, number, number, number]>): void {
@@ -92,7 +97,10 @@ describe('Simulator.run inertial delay', () => {
   const clock = { period: T, duty: 0.5, transition: 20 * ps };
 
   it('swallows a pulse shorter than the gate delay and reports it as a glitch', () => {
-    const timing = fixedTiming([{ rise: 100 * ps, fall: 100 * ps }, { rise: 150 * ps, fall: 150 * ps }]);
+    const timing = fixedTiming([
+      { rise: 100 * ps, fall: 100 * ps },
+      { rise: 150 * ps, fall: 150 * ps },
+    ]);
     const result = new Simulator(net).run(timing, clock);
     expect(result.status).toBe('settled');
     const out = netId(net, 'out');
@@ -106,7 +114,10 @@ describe('Simulator.run inertial delay', () => {
   });
 
   it('passes a pulse longer than the gate delay', () => {
-    const timing = fixedTiming([{ rise: 100 * ps, fall: 100 * ps }, { rise: 50 * ps, fall: 50 * ps }]);
+    const timing = fixedTiming([
+      { rise: 100 * ps, fall: 100 * ps },
+      { rise: 50 * ps, fall: 50 * ps },
+    ]);
     const result = new Simulator(net).run(timing, clock);
     expect(result.glitches).toEqual([]);
     const out = edges(result, net).filter((e) => e[0] === 'out');
@@ -122,7 +133,11 @@ describe('Simulator.run failures', () => {
   const clock = { period: T, duty: 0.5, transition: 20 * ps };
 
   it('returns an oscillating result with the reason instead of hanging', () => {
-    const timing = fixedTiming([{ rise: 1 * ps, fall: 1 * ps }, { rise: 1 * ps, fall: 1 * ps }, { rise: 1 * ps, fall: 1 * ps }]);
+    const timing = fixedTiming([
+      { rise: 1 * ps, fall: 1 * ps },
+      { rise: 1 * ps, fall: 1 * ps },
+      { rise: 1 * ps, fall: 1 * ps },
+    ]);
     const result = new Simulator(ring).run(timing, clock);
     expect(result.status).toBe('oscillating');
     expect(result.reason).toMatch(/^the generator oscillates: .*busiest net r\d/);
@@ -131,7 +146,11 @@ describe('Simulator.run failures', () => {
   });
 
   it('reports a slower gated ring that repeats every period as settled but glitching', () => {
-    const timing = fixedTiming([{ rise: 300 * ps, fall: 300 * ps }, { rise: 300 * ps, fall: 300 * ps }, { rise: 300 * ps, fall: 300 * ps }]);
+    const timing = fixedTiming([
+      { rise: 300 * ps, fall: 300 * ps },
+      { rise: 300 * ps, fall: 300 * ps },
+      { rise: 300 * ps, fall: 300 * ps },
+    ]);
     const result = new Simulator(ring).run(timing, clock);
     expect(result.status).toBe('settled');
     const m = measurePhases(result, ring);
@@ -145,10 +164,14 @@ describe('Simulator.run failures', () => {
     const gates: GateSpec[] = [
       inv('ci', 'clk', 'clkb'),
       inv('di', 'sqb', 'dn'),
-      nand('ma', 'sqb', 'clk', 'a'), nand('mb', 'dn', 'clk', 'b'),
-      nand('mq', 'a', 'mqb', 'mq'), nand('mqbg', 'b', 'mq', 'mqb'),
-      nand('sa', 'mq', 'clkb', 'c'), nand('sb', 'mqb', 'clkb', 'd'),
-      nand('sq', 'c', 'sqb', 'sq'), nand('sqbg', 'd', 'sq', 'sqb'),
+      nand('ma', 'sqb', 'clk', 'a'),
+      nand('mb', 'dn', 'clk', 'b'),
+      nand('mq', 'a', 'mqb', 'mq'),
+      nand('mqbg', 'b', 'mq', 'mqb'),
+      nand('sa', 'mq', 'clkb', 'c'),
+      nand('sb', 'mqb', 'clkb', 'd'),
+      nand('sq', 'c', 'sqb', 'sq'),
+      nand('sqbg', 'd', 'sq', 'sqb'),
     ];
     const net = compile(gates, ['sq', 'sqb']);
     const timing = fixedTiming(gates.map((_, g) => ({ rise: (60 + 7 * g) * ps, fall: (50 + 5 * g) * ps })));
@@ -203,7 +226,10 @@ describe('Simulator.run steady state', () => {
   it('settles a fixed timing with a transition in flight after three recorded periods', () => {
     // The first period has no carried-over fall of n2 (the clock was low before it), so it differs
     // from the second; the second and third agree.
-    const fixed = fixedTiming([{ rise: long, fall: long }, { rise: long, fall: long }]);
+    const fixed = fixedTiming([
+      { rise: long, fall: long },
+      { rise: long, fall: long },
+    ]);
     const result = new Simulator(net).run(fixed, clock);
     expect(result.status).toBe('settled');
     expect(result.periodsSimulated).toBe(3);
@@ -215,12 +241,17 @@ describe('Simulator.run steady state', () => {
     expect(result.status).toBe('unsettled');
     expect(result.periodsSimulated).toBe(4);
     // n2 comes first in the period (its carried-over fall), so it is named among equals.
-    expect(result.reason).toBe('no periodic steady state after 4 clock periods (the last two differ: 6 vs 6 transitions; busiest net n2 (2 transitions))');
+    expect(result.reason).toBe(
+      'no periodic steady state after 4 clock periods (the last two differ: 6 vs 6 transitions; busiest net n2 (2 transitions))',
+    );
   });
 
   it('reuses a simulator cleanly after a failed run', () => {
     const sim = new Simulator(net);
-    const fixed = fixedTiming([{ rise: long, fall: long }, { rise: long, fall: long }]);
+    const fixed = fixedTiming([
+      { rise: long, fall: long },
+      { rise: long, fall: long },
+    ]);
     const fresh = new Simulator(net).run(fixed, clock);
     expect(sim.run(slowingTiming(), clock, { maxPeriods: 3 }).status).toBe('unsettled');
     expect(sim.run(fixed, clock)).toEqual(fresh);

@@ -22,7 +22,14 @@ function lcg(seed: number): () => number {
 describe('EventQueue', () => {
   it('pops in time order', () => {
     const q = new EventQueue(4);
-    [[3e-9, 1, 30], [1e-9, 2, 10], [2e-9, 3, 20], [0.5e-9, 4, 5]].forEach(([t, s, n]) => { q.push(t!, s!, n!); });
+    [
+      [3e-9, 1, 30],
+      [1e-9, 2, 10],
+      [2e-9, 3, 20],
+      [0.5e-9, 4, 5],
+    ].forEach(([t, s, n]) => {
+      q.push(t!, s!, n!);
+    });
     expect(drain(q).map((e) => e[2])).toEqual([5, 10, 20, 30]);
   });
 

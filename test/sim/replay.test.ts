@@ -23,8 +23,12 @@ function perNet(result: SimulationResult): string[] {
 
 function summary(result: SimulationResult) {
   return {
-    status: result.status, windowStart: result.windowStart, periods: result.periodsSimulated,
-    glitches: result.glitches.length, start: Array.from(result.startValues), edges: perNet(result),
+    status: result.status,
+    windowStart: result.windowStart,
+    periods: result.periodsSimulated,
+    glitches: result.glitches.length,
+    start: Array.from(result.startValues),
+    edges: perNet(result),
   };
 }
 
@@ -46,7 +50,8 @@ function compareDies(resolved: ResolvedDesign, dies: number): { replayed: number
       const die = drawMismatch(sigmas, 11, i, buffers);
       const timing = model.bind(netlist, loads, devices, die);
       const a = fast.run(timing, clock, { warm: true, replay: true });
-      if (fast.replayed) counts.replayed++; else counts.simulated++;
+      if (fast.replayed) counts.replayed++;
+      else counts.simulated++;
       const b = plain.run(timing, clock, { warm: true });
       expect(plain.replayed).toBe(false);
       expect(summary(a)).toEqual(summary(b));
@@ -58,7 +63,11 @@ function compareDies(resolved: ResolvedDesign, dies: number): { replayed: number
 // Two equal inverters race from the clock into one NAND: which input falls first decides which
 // pin (and which input ramp) times the NAND's output, so the order matters.
 const racing = compileNetlist({
-  clock: 'clk', phases: ['p1', 'p2'], complements: {}, early: {}, loads: {},
+  clock: 'clk',
+  phases: ['p1', 'p2'],
+  complements: {},
+  early: {},
+  loads: {},
   gates: [
     { name: 'a', cell: 'INV', size: 1, inputs: ['clk'], output: 'n1' },
     { name: 'b', cell: 'INV', size: 1, inputs: ['clk'], output: 'n2' },
@@ -97,7 +106,8 @@ describe('replay of the steady period', () => {
       base[2] = 80e-12;
       base[3] = 60e-12;
       const a = fast.run(timing, clock, { warm: true, replay: true });
-      if (fast.replayed) replayed++; else simulated++;
+      if (fast.replayed) replayed++;
+      else simulated++;
       expect(summary(a)).toEqual(summary(plain.run(timing, clock, { warm: true })));
     }
     // A die keeps the last simulated order about half the time.

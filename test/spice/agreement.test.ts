@@ -14,7 +14,10 @@ requireTool('ngspice', 'ngspice');
 interface ConfirmJson {
   verdict: string;
   model: string;
-  corners: Array<{ corner: string; quantities: Array<{ quantity: string; kind: string; model: number; simulator: number | null; relativeError: number | null }> }>;
+  corners: Array<{
+    corner: string;
+    quantities: Array<{ quantity: string; kind: string; model: number; simulator: number | null; relativeError: number | null }>;
+  }>;
 }
 
 const CORNERS = ['ss/1.62V/125C', 'tt/1.8V/27C', 'ff/1.98V/-40C'];
@@ -40,7 +43,18 @@ function deadTimes(report: ConfirmJson, label: string): { model: number[]; simul
 describe('table model vs ngspice', () => {
   it('dead times of doubler.yaml agree within 10 % at ss/1.62V/125C, tt/1.8V/27C, ff/1.98V/-40C (coarse grid)', () => {
     const tables = join(tempDir(), 'tables.json');
-    const made = cli('characterize', processCard('generic180'), '--corners', CORNERS.join(','), '--grid', 'coarse', '--jobs', '2', '-o', tables);
+    const made = cli(
+      'characterize',
+      processCard('generic180'),
+      '--corners',
+      CORNERS.join(','),
+      '--grid',
+      'coarse',
+      '--jobs',
+      '2',
+      '-o',
+      tables,
+    );
     expect(made.code).toBe(0);
     const { code, report } = confirmJson('--tables', tables, '--corners', CORNERS.join(','), '--tolerance', '10%');
     expect(report.model).toBe('table');
@@ -57,10 +71,18 @@ describe('table model vs ngspice', () => {
 
 describe('shipped tables vs ngspice', () => {
   it('fixtures/tables/generic180.json (fine grid) keeps every dead time of doubler.yaml within 10 % at all 45 corners', () => {
-    const { code, report } = confirmJson('--tables', join(ROOT, 'fixtures', 'tables', 'generic180.json'), '--corners', 'all', '--tolerance', '10%');
+    const { code, report } = confirmJson(
+      '--tables',
+      join(ROOT, 'fixtures', 'tables', 'generic180.json'),
+      '--corners',
+      'all',
+      '--tolerance',
+      '10%',
+    );
     expect(report.corners.length).toBe(45);
     for (const c of report.corners) {
-      for (const q of c.quantities.filter((x) => x.kind === 'dead')) expect(Math.abs(q.relativeError!), `${c.corner} ${q.quantity}`).toBeLessThanOrEqual(0.1);
+      for (const q of c.quantities.filter((x) => x.kind === 'dead'))
+        expect(Math.abs(q.relativeError!), `${c.corner} ${q.quantity}`).toBeLessThanOrEqual(0.1);
     }
     expect(code).toBe(0);
   }, 180_000);

@@ -32,6 +32,14 @@ describe('ronCharacterizationDeck', () => {
 
   it('says which measurement is missing when ngspice gave none', () => {
     const deck = ronCharacterizationDeck(card, { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27 }, 'x.lib');
-    expect(cornerRonFrom(deck, new Map([['ron_in', null], ['ron_ip', 1e-4]]))).toBe('ron_in was not measured');
+    expect(
+      cornerRonFrom(
+        deck,
+        new Map([
+          ['ron_in', null],
+          ['ron_ip', 1e-4],
+        ]),
+      ),
+    ).toBe('ron_in was not measured');
   });
 });

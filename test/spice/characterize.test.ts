@@ -3,7 +3,15 @@ import { readFileSync, writeFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { cli, processCard, tempDir } from '../helpers.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { characterizationDecks, cornerTablesFrom, driverFor, gridAxes, GRIDS, processScale, resampleColumn } from '../../src/spice/characterize.js';
+import {
+  characterizationDecks,
+  cornerTablesFrom,
+  driverFor,
+  gridAxes,
+  GRIDS,
+  processScale,
+  resampleColumn,
+} from '../../src/spice/characterize.js';
 import { pinCapacitance } from '../../src/cells/library.js';
 import { capacitancePerWidth, unitWidths } from '../../src/cells/card-widths.js';
 import { expectClose } from '../helpers.js';
@@ -62,7 +70,9 @@ describe('resampleColumn', () => {
     const f = (x: number) => 3e-11 + 0.4 * x;
     const measured = [4e-11, 2e-10, 9e-10];
     const out = resampleColumn(measured, measured.map(f), [2e-11, 1e-10, 1e-9]);
-    out.forEach((v, i) => { expectClose(v, f([2e-11, 1e-10, 1e-9][i]!), 1e-12); });
+    out.forEach((v, i) => {
+      expectClose(v, f([2e-11, 1e-10, 1e-9][i]!), 1e-12);
+    });
   });
 
   it('sorts the points first when a slow row measured faster than its neighbour', () => {
@@ -79,17 +89,23 @@ describe('cornerTablesFrom', () => {
       const values = new Map<string, number>();
       for (const { id, column } of arcs) {
         const slew = axes.transitions[row]! * 0.8;
-        values.set(`sr${id}`, slew); values.set(`sf${id}`, slew);
+        values.set(`sr${id}`, slew);
+        values.set(`sf${id}`, slew);
         for (const m of ['df', 'dr', 'tf', 'tr']) values.set(`${m}${id}`, (row + 1) * (column + 1) * 1e-11);
         // 2 fF rising and 3 fF falling over half of 1.8 V, in units of the 1 fF integrator
-        values.set(`qr${id}`, 2 * 0.9); values.set(`qh${id}`, 10); values.set(`qf${id}`, 10 - 3 * 0.9);
+        values.set(`qr${id}`, 2 * 0.9);
+        values.set(`qh${id}`, 10);
+        values.set(`qf${id}`, 10 - 3 * 0.9);
       }
       return { deck: { text: '', corner, arcs, row, axes, names: [] }, values };
     });
     const t = cornerTablesFrom(parts);
     if (typeof t === 'string') throw new Error(t);
     expectClose(t.cells.INV!.pins[0]!.capacitance, 2.5e-15, 1e-9);
-    expect(t.cells.INV!.pins[0]!.fall.delay).toEqual([[1e-11, 2e-11], [2e-11, 4e-11]]);
+    expect(t.cells.INV!.pins[0]!.fall.delay).toEqual([
+      [1e-11, 2e-11],
+      [2e-11, 4e-11],
+    ]);
   });
 });
 

@@ -28,7 +28,9 @@ const DESIGNS = fixture('designs');
 const NOMINAL = 'tt/1.8V/27C';
 
 /** Every shipped design with a circuit section, so a demo added later is covered. */
-const circuitDesigns = readdirSync(DESIGNS).filter((f) => f.endsWith('.yaml') && /^circuit:/m.test(readFileSync(join(DESIGNS, f), 'utf8'))).sort();
+const circuitDesigns = readdirSync(DESIGNS)
+  .filter((f) => f.endsWith('.yaml') && /^circuit:/m.test(readFileSync(join(DESIGNS, f), 'utf8')))
+  .sort();
 
 interface ConfirmJson {
   verdict: string;
@@ -56,8 +58,8 @@ describe('confirm simulates each shipped circuit to periodic steady state in ngs
           expect(circuit.settled, `${file} ${c.corner} settled`).toBe(true);
           // The stated tolerances: output within 2 % of VDD, ripple and efficiency within 10 % of ngspice's.
           expect(Math.abs(figure('output').difference!), `${file} ${c.corner} output`).toBeLessThanOrEqual(0.02);
-          expect(Math.abs(figure('ripple').difference!), `${file} ${c.corner} ripple`).toBeLessThanOrEqual(0.10);
-          expect(Math.abs(figure('efficiency').difference!), `${file} ${c.corner} efficiency`).toBeLessThanOrEqual(0.10);
+          expect(Math.abs(figure('ripple').difference!), `${file} ${c.corner} ripple`).toBeLessThanOrEqual(0.1);
+          expect(Math.abs(figure('efficiency').difference!), `${file} ${c.corner} efficiency`).toBeLessThanOrEqual(0.1);
           expect(circuit.pass).toBe(true);
         } else {
           // A switch that fails its bias checks cannot pass the charge: ngspice's output keeps falling (measured:
@@ -102,8 +104,8 @@ describe('hand-written ideal doubler deck (test/spice/decks/ideal-doubler.cir) a
     const figures = circuitFigures(model, { current: LOAD, conductance: 0 }, 0, 1000);
     const simEfficiency = (LOAD * m.vout_avg!) / (VDD * -m.q_vdd! * F);
     expect(Math.abs(figures.output - m.vout_avg!) / VDD).toBeLessThanOrEqual(0.02);
-    expect(Math.abs(figures.ripple - m.vout_pp!) / m.vout_pp!).toBeLessThanOrEqual(0.10);
-    expect(Math.abs(figures.efficiency! - simEfficiency) / simEfficiency).toBeLessThanOrEqual(0.10);
+    expect(Math.abs(figures.ripple - m.vout_pp!) / m.vout_pp!).toBeLessThanOrEqual(0.1);
+    expect(Math.abs(figures.efficiency! - simEfficiency) / simEfficiency).toBeLessThanOrEqual(0.1);
     // Both near the slow-switching limit 2 VDD - I/(f C) = 3.1 V (charge balance, common practice).
     expect(Math.abs(m.vout_avg! - (2 * VDD - LOAD / (F * 10e-12)))).toBeLessThan(0.02);
   }, 120_000);

@@ -14,10 +14,18 @@ const at = (name: string, corner: string) => {
 
 describe('deckSupplies', () => {
   it('lists DC sources to ground with a nonzero level, not sense sources or pulses', () => {
-    const text = ['vsupply vdd 0 DC 1.8', 'vbias1 bias1 0 DC 3.6', 'vqs0 top qs0 DC 0', 'vzero z 0 DC 0',
-      'vclock clk 0 PULSE(0 1.8 1n 1n 1n 10n 20n)', 'vcr1 cr1 0 DC -1.8 $ negative rail'].join('\n');
+    const text = [
+      'vsupply vdd 0 DC 1.8',
+      'vbias1 bias1 0 DC 3.6',
+      'vqs0 top qs0 DC 0',
+      'vzero z 0 DC 0',
+      'vclock clk 0 PULSE(0 1.8 1n 1n 1n 10n 20n)',
+      'vcr1 cr1 0 DC -1.8 $ negative rail',
+    ].join('\n');
     expect(deckSupplies(text)).toEqual([
-      { source: 'vsupply', node: 'vdd', volts: 1.8 }, { source: 'vbias1', node: 'bias1', volts: 3.6 }, { source: 'vcr1', node: 'cr1', volts: -1.8 },
+      { source: 'vsupply', node: 'vdd', volts: 1.8 },
+      { source: 'vbias1', node: 'bias1', volts: 3.6 },
+      { source: 'vcr1', node: 'cr1', volts: -1.8 },
     ]);
   });
 });
@@ -58,12 +66,16 @@ describe('circuitDeck', () => {
     expect(lines).toContain('iload cn_out 0 DC 5e-5');
     expectClose(deck.load.current, 50e-6, 1e-12);
     expect(deck.load.resistance).toBeNull();
-    expect(deck.supplies.map((s) => [s.source, s.feeds])).toEqual([['vsupply', 'generator'], ['vbias1', 'generator'], ['vcr1', 'circuit']]);
+    expect(deck.supplies.map((s) => [s.source, s.feeds])).toEqual([
+      ['vsupply', 'generator'],
+      ['vbias1', 'generator'],
+      ['vcr1', 'circuit'],
+    ]);
     // No timing measurements or R_on benches: the generator's own deck confirms those.
     expect(deck.text).not.toMatch(/\.meas tran (dead|gap|width|sw|i_ron)/);
   });
 
-  it('starts every circuit node at the solver\'s steady state and measures the last three periods of 3x the start-up', () => {
+  it("starts every circuit node at the solver's steady state and measures the last three periods of 3x the start-up", () => {
     const { resolved, corner, deck } = at('doubler-pump', 'tt/1.8V/27C');
     const circuit = evaluateCorner(resolved, corner).circuit!;
     expect(deck.periods).toBe(3 * circuit.startupCycles!);
@@ -76,12 +88,14 @@ describe('circuitDeck', () => {
     expect(Math.abs(ic.get('cn_out')! - circuit.output)).toBeLessThan(circuit.ripple);
     expect([0, 1.8].some((v) => Math.abs(ic.get('cn_bottom')! - v) < 0.01)).toBe(true);
     expect(deck.measures.slice(0, 4)).toEqual(['vout_1', 'vout_2', 'vout_3', 'vout_pp']);
-    expect(deck.text).toContain(`.meas tran vout_3 AVG v(cn_out) FROM=${Number(deck.from.toPrecision(6)).toExponential().replace('e+', 'e')}`);
+    expect(deck.text).toContain(
+      `.meas tran vout_3 AVG v(cn_out) FROM=${Number(deck.from.toPrecision(6)).toExponential().replace('e+', 'e')}`,
+    );
     expect(deck.model.output).toBe(circuit.output);
     expect(deck.model.efficiency).toBe(circuit.efficiency);
   });
 
-  it('writes diodes as the solver\'s piecewise-linear law behind a sense source and measures their reverse charge', () => {
+  it("writes diodes as the solver's piecewise-linear law behind a sense source and measures their reverse charge", () => {
     const { deck } = at('doubler-diode-pump', 'tt/1.8V/27C');
     expect(deck.text).toContain('vqd0 cr1 qd0 DC 0 $ d_chg: current sense');
     expect(deck.text).toContain('bd0 qd0 cn_top I=1e-12*v(qd0,cn_top)+0.005*max(v(qd0,cn_top)-0.6,0) $ d_chg: piecewise linear');

@@ -74,10 +74,14 @@ describe('phasegap spice', () => {
     expect(shifted.map((q) => q.label)).toEqual(['s_out on @ 2.88 V', 's_out off @ 2.88 V', 's_out on @ 3.6 V', 's_out off @ 3.6 V']);
     // The shifter's own delay, p2 at 50 % to its output at mid-swing (2.7 V), both edges.
     const window = 'TD=5.625e-8';
-    const text = written.replace(/^\.end$/m, [
-      `.meas tran ls_rise TRIG v(p2) VAL=0.9 FALL=1 ${window} TARG v(ls3_0) VAL=2.7 RISE=1 ${window}`,
-      `.meas tran ls_fall TRIG v(p2) VAL=0.9 RISE=1 ${window} TARG v(ls3_0) VAL=2.7 FALL=1 ${window}`,
-      '.end'].join('\n'));
+    const text = written.replace(
+      /^\.end$/m,
+      [
+        `.meas tran ls_rise TRIG v(p2) VAL=0.9 FALL=1 ${window} TARG v(ls3_0) VAL=2.7 RISE=1 ${window}`,
+        `.meas tran ls_fall TRIG v(p2) VAL=0.9 RISE=1 ${window} TARG v(ls3_0) VAL=2.7 FALL=1 ${window}`,
+        '.end',
+      ].join('\n'),
+    );
     writeFileSync(out, text);
     const run = spawnSync('ngspice', ['-b', out], { encoding: 'utf8', cwd: dir });
     const parsed = parseSimulatorOutput(`${run.stdout}${run.stderr}`, [...shifted.map((q) => q.name), 'ls_rise', 'ls_fall']);
@@ -95,7 +99,9 @@ describe('phasegap spice', () => {
   it('says when the declared shifter delay is faster than the transistor-level shifter can be sized', () => {
     const dir = tempDir();
     const out = join(dir, 'fast.cir');
-    expect(cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--set', 'switches[3].levelShifter.delay=100ps', '-o', out).code).toBe(0);
+    expect(
+      cli('spice', design('doubler'), '--corner', 'tt/1.8V/27C', '--set', 'switches[3].levelShifter.delay=100ps', '-o', out).code,
+    ).toBe(0);
     const text = readFileSync(out, 'utf8');
     expect(text).toMatch(/^\* s_out: sized for .*; the declared 100 ps is faster than it can be sized$/m);
     expect(text.match(/^msw/gm)?.length).toBe(4);
@@ -105,12 +111,17 @@ describe('phasegap spice', () => {
     const text = cellSubckt('NAND2', 2, { wn: 0.5e-6, wp: 1e-6 }, { l: 0.18e-6, diffusion: 0.5e-6, nModel: 'nch', pModel: 'pch' });
     const widths = [...text.matchAll(/^(m[np]\d) .* W=(\S+)/gm)].map((m) => [m[1], Number(m[2])]);
     // logical effort (Sutherland, Sproull & Harris 1999): n devices 2 x 2 x 0.5 um, p devices 2 x 1 um
-    expect(widths).toEqual([['mn0', 2e-6], ['mn1', 2e-6], ['mp0', 2e-6], ['mp1', 2e-6]]);
+    expect(widths).toEqual([
+      ['mn0', 2e-6],
+      ['mn1', 2e-6],
+      ['mp0', 2e-6],
+      ['mp1', 2e-6],
+    ]);
     expect(text).toMatch(/^mn0 y a0 sn1 0 nch/m);
     expect(text).toMatch(/^mn1 sn1 a1 0 0 nch/m);
   });
 
-  it('writes diffusions as AD = W * Ldiff and PD = 2 * (W + Ldiff), none on a stack\'s internal node (common practice)', () => {
+  it("writes diffusions as AD = W * Ldiff and PD = 2 * (W + Ldiff), none on a stack's internal node (common practice)", () => {
     const geo = { l: 0.18e-6, diffusion: 0.5e-6, nModel: 'nch', pModel: 'pch' };
     const text = cellSubckt('NAND2', 1, { wn: 0.5e-6, wp: 1e-6 }, geo);
     // n stack: 1 um devices; the output side 0.5 pm^2 and 3 um, the shared node sn1 nothing
@@ -152,7 +163,9 @@ describe('break-before-make from the deck instants', () => {
         const margins = breakBeforeMakeMargins(deck.quantities, () => null, deck.breakBeforeMake, deck.window.period);
         const checks = evaluateCorner(resolved, corner).checks.filter((c) => c.kind === 'break-before-make');
         expect(margins.map((m) => m.check)).toEqual(checks.map((c) => c.name));
-        margins.forEach((m, i) => { expect(m.model).toBeCloseTo(checks[i]!.margin!, 15); });
+        margins.forEach((m, i) => {
+          expect(m.model).toBeCloseTo(checks[i]!.margin!, 15);
+        });
       }
     }
   });
@@ -186,21 +199,51 @@ describe('phasegap confirm', () => {
   requireTool('ngspice', 'ngspice');
   it('prints model and ngspice side by side and exits 1 when a difference exceeds the tolerance', () => {
     const junit = join(tempDir(), 'confirm.xml');
-    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--tolerance', '0.5%', '--jobs', '1', '--junit', junit);
+    const r = cli(
+      'confirm',
+      design('doubler'),
+      '--model',
+      'analytic',
+      '--corners',
+      'tt/1.8V/27C',
+      '--tolerance',
+      '0.5%',
+      '--jobs',
+      '1',
+      '--junit',
+      junit,
+    );
     expect(r.code).toBe(1);
     expect(r.stdout.split('\n')[0]).toBe('verdict: FAIL (fails: simulator agreement)');
     expect(r.stdout).toMatch(/^ {2}simulator agreement: FAIL: \d+ quantities beyond 0\.5 % \(first: [^)]+ at tt\/1\.8V\/27C\)$/m);
     expect(r.stdout).toMatch(/^provenance: simulator: ngspice-\S+$/m);
-    expect(readFileSync(junit, 'utf8')).toMatch(/<testcase classname="phasegap.confirm.dead" name="dead p1->p2 at tt\/1.8V\/27C">\s*<failure/);
+    expect(readFileSync(junit, 'utf8')).toMatch(
+      /<testcase classname="phasegap.confirm.dead" name="dead p1->p2 at tt\/1.8V\/27C">\s*<failure/,
+    );
     expect(r.stdout).toMatch(/^doubler-clock: analytic model vs ngspice-\S+, tolerance 0\.5 %, 1 corner$/m);
     expect(r.stdout).toMatch(/^tt\/1\.8V\/27C\s+dead p1->p2\s+[\d.]+ ns\s+[\d.]+ ns\s+[-+][\d.]+ %\s+over$/m);
     expect(r.stdout).toMatch(/^verdict: DISAGREE \(0\/1 corners within tolerance, break-before-make verdicts alike for all 2 pairs\)$/m);
   });
 
   it('lists per corner and quantity the model, the simulator and the relative error in --json', () => {
-    const r = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'ff/1.98V/-40C', '--tolerance', '0.5', '--json', '--jobs', '1');
+    const r = cli(
+      'confirm',
+      design('doubler'),
+      '--model',
+      'analytic',
+      '--corners',
+      'ff/1.98V/-40C',
+      '--tolerance',
+      '0.5',
+      '--json',
+      '--jobs',
+      '1',
+    );
     expect(r.code).toBe(0);
-    const report = JSON.parse(r.stdout) as { verdict: string; corners: Array<{ corner: string; quantities: Array<{ quantity: string; model: number; simulator: number; relativeError: number }> }> };
+    const report = JSON.parse(r.stdout) as {
+      verdict: string;
+      corners: Array<{ corner: string; quantities: Array<{ quantity: string; model: number; simulator: number; relativeError: number }> }>;
+    };
     expect(report.verdict).toBe('agree');
     const labels = report.corners[0]!.quantities.map((q) => q.quantity);
     expect(labels).toEqual(['dead p1->p2', 'gap p1->p2', 'dead p2->p1', 'gap p2->p1', 'width p1', 'width p2']);
@@ -211,16 +254,44 @@ describe('phasegap confirm', () => {
   });
 
   it('takes the tolerance from requirements.confirmTolerance when the flag is absent, the flag winning over it', () => {
-    const tight = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--set', 'requirements.confirmTolerance=0.001', '--jobs', '1', '--json');
+    const tight = cli(
+      'confirm',
+      design('doubler'),
+      '--model',
+      'analytic',
+      '--corners',
+      'tt/1.8V/27C',
+      '--set',
+      'requirements.confirmTolerance=0.001',
+      '--jobs',
+      '1',
+      '--json',
+    );
     expect(tight.code).toBe(1);
     expect(JSON.parse(tight.stdout).tolerance).toBe(0.001);
-    const flag = cli('confirm', design('doubler'), '--model', 'analytic', '--corners', 'tt/1.8V/27C', '--set', 'requirements.confirmTolerance=0.001', '--tolerance', '50%', '--jobs', '1', '--json');
+    const flag = cli(
+      'confirm',
+      design('doubler'),
+      '--model',
+      'analytic',
+      '--corners',
+      'tt/1.8V/27C',
+      '--set',
+      'requirements.confirmTolerance=0.001',
+      '--tolerance',
+      '50%',
+      '--jobs',
+      '1',
+      '--json',
+    );
     expect(flag.code).toBe(0);
     expect(JSON.parse(flag.stdout).tolerance).toBe(0.5);
   });
 
   it('rejects a bad tolerance and an unknown corner with exit 2', () => {
-    expect(cli('confirm', design('doubler'), '--tolerance', '-3').stderr).toMatch(/--tolerance: "-3" must be a relative difference above 0/);
+    expect(cli('confirm', design('doubler'), '--tolerance', '-3').stderr).toMatch(
+      /--tolerance: "-3" must be a relative difference above 0/,
+    );
     expect(cli('confirm', design('doubler'), '--corners', 'tt/9V/27C').code).toBe(2);
   });
 });

@@ -34,7 +34,10 @@ describe('generatorDeck with hostile names', () => {
 
   it('runs in ngspice with every measurement and without running the names (Debian package ngspice)', () => {
     const [out] = runDecks([{ name: 'hostile', text: deck.text }], { parallel: 1 });
-    const parsed = parseSimulatorOutput(out!.output, deck.quantities.map((q) => q.name));
+    const parsed = parseSimulatorOutput(
+      out!.output,
+      deck.quantities.map((q) => q.name),
+    );
     expect(parsed.errors).toEqual([]);
     for (const q of deck.quantities) expect(parsed.values.get(q.name), q.name).not.toBeNull();
     expect(existsSync(marker)).toBe(false);

@@ -26,7 +26,8 @@ describe('runDecks', () => {
   const tmp = process.env.TMPDIR;
   afterEach(() => {
     process.chdir(home);
-    if (tmp === undefined) delete process.env.TMPDIR; else process.env.TMPDIR = tmp;
+    if (tmp === undefined) delete process.env.TMPDIR;
+    else process.env.TMPDIR = tmp;
   });
 
   it('runs ngspice in a fresh folder, so a .spiceinit in the working directory is not read (ngspice reads ./.spiceinit)', () => {
@@ -43,7 +44,10 @@ describe('runDecks', () => {
     const odd = join(tempDir(), `it's a "tmp" dir`);
     mkdirSync(odd);
     process.env.TMPDIR = odd;
-    const [out] = runDecks([{ name: 'r', text: ['* r', 'v1 a 0 1', 'r1 a 0 2k', '.tran 1n 10n', '.meas tran ia AVG i(v1)', '.end', ''].join('\n') }], { parallel: 1 });
+    const [out] = runDecks(
+      [{ name: 'r', text: ['* r', 'v1 a 0 1', 'r1 a 0 2k', '.tran 1n 10n', '.meas tran ia AVG i(v1)', '.end', ''].join('\n') }],
+      { parallel: 1 },
+    );
     // 1 V across 2 kohm: -0.5 mA through the source (ngspice's sign: current into its + node).
     expectClose(current(out!.output), -0.5e-3, 1e-6);
   });
@@ -67,6 +71,8 @@ describe('runDecks', () => {
     copyFileSync(fixture('models', 'generic180.lib'), lib);
     const card = loadProcess(fixture('processes', 'generic180.yaml'));
     expect(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib)).toThrow(InputError);
-    expect(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib)).toThrow(/process\.spice\.models \(or --models\): ".*say \\"cheese\\".*" cannot be written in a deck's \.include line/);
+    expect(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib)).toThrow(
+      /process\.spice\.models \(or --models\): ".*say \\"cheese\\".*" cannot be written in a deck's \.include line/,
+    );
   });
 });

@@ -51,7 +51,7 @@ describe('sizeShifter', () => {
 });
 
 describe('nominalTransitions', () => {
-  it('gives the gate nets\' transitions at tt, the nominal supply and t0, whatever corners the design lists', () => {
+  it("gives the gate nets' transitions at tt, the nominal supply and t0, whatever corners the design lists", () => {
     expect(nominalCorner(card, 0.5)).toEqual({ name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
     const { design: d, card: c } = loadDesign(design('doubler'));
     const transition = nominalTransitions(resolveDesign(d, c), 0.5)!;

@@ -5,8 +5,14 @@ import { hostileName } from '../schema/hostile.js';
 
 const HOSTILE = [
   'a\n.control\nshell touch /tmp/x\n.endc',
-  'a\r.control', 'a\u2028.control', 'a\u0085.control', 'a\u000b\u000c.end', '\n*# shell touch /tmp/x',
-  'ends in a backslash \\', 'µ-é-\u202e-\ud800', hostileName('/tmp/x', 'all'),
+  'a\r.control',
+  'a\u2028.control',
+  'a\u0085.control',
+  'a\u000b\u000c.end',
+  '\n*# shell touch /tmp/x',
+  'ends in a backslash \\',
+  'µ-é-\u202e-\ud800',
+  hostileName('/tmp/x', 'all'),
 ];
 
 describe('spiceComment', () => {
@@ -40,16 +46,23 @@ describe('spiceIdentifier', () => {
 
 describe('spiceInclude', () => {
   it('quotes a path with spaces and single quotes', () => {
-    expect(spiceInclude("/tmp/my models/o'brien.lib")).toBe(".include \"/tmp/my models/o'brien.lib\"");
+    expect(spiceInclude("/tmp/my models/o'brien.lib")).toBe('.include "/tmp/my models/o\'brien.lib"');
   });
 
-  it.each(['/tmp/a"b.lib', '/tmp/a\nb.lib', '/tmp/a\rb.lib', '/tmp/a\u0000b.lib', '/tmp/a\u2028b.lib'])('refuses %j with an input error naming the field and the path', (path) => {
-    let error: unknown;
-    try { spiceInclude(path); } catch (e) { error = e; }
-    expect(error).toBeInstanceOf(InputError);
-    const issue = (error as InputError).issues[0]!;
-    expect(issue.path).toBe('process.spice.models (or --models)');
-    expect(issue.value).toBe(JSON.stringify(path).replace(/\u2028/, '\\u2028'));
-    expect(issue.allowed).toMatch(/may not contain a double quote, a line break or another control character/);
-  });
+  it.each(['/tmp/a"b.lib', '/tmp/a\nb.lib', '/tmp/a\rb.lib', '/tmp/a\u0000b.lib', '/tmp/a\u2028b.lib'])(
+    'refuses %j with an input error naming the field and the path',
+    (path) => {
+      let error: unknown;
+      try {
+        spiceInclude(path);
+      } catch (e) {
+        error = e;
+      }
+      expect(error).toBeInstanceOf(InputError);
+      const issue = (error as InputError).issues[0]!;
+      expect(issue.path).toBe('process.spice.models (or --models)');
+      expect(issue.value).toBe(JSON.stringify(path).replace(/\u2028/, '\\u2028'));
+      expect(issue.allowed).toMatch(/may not contain a double quote, a line break or another control character/);
+    },
+  );
 });

@@ -69,20 +69,26 @@ describe('switchConduction', () => {
     expect(range.ron).toBeCloseTo(byName.get('hi')!.ron, 6);
   });
 
-  it('lengthens a tgate\'s conduction when its complement lags the phase (same slews)', () => {
+  it("lengthens a tgate's conduction when its complement lags the phase (same slews)", () => {
     // Hand-made period: phase a rises at 1 ns and falls at 20 ns, its complement ab mirrors it
     // `skew` later; every ramp 200 ps. Only the skew changes between the two runs.
     const netlist = compileNetlist({
-      clock: 'clk', phases: ['a', 'b'], complements: {}, early: {}, loads: {},
+      clock: 'clk',
+      phases: ['a', 'b'],
+      complements: {},
+      early: {},
+      loads: {},
       gates: [
         { name: 'u1', cell: 'INV', size: 1, inputs: ['clk'], output: 'b' },
         { name: 'u2', cell: 'INV', size: 1, inputs: ['b'], output: 'a' },
         { name: 'u3', cell: 'INV', size: 1, inputs: ['a'], output: 'ab' },
       ],
     });
-    const plan = expandSwitches({ ...netlist.source }, [designFromYaml(base(
-      '  - { name: tg, type: tgate, w: 4um, wp: 8um, l: 0.18um, gate: a, gateBar: ab, signal: 0.9V }')).switches[0]!],
-    loadProcess(processCard('generic180'))).plans[0]!;
+    const plan = expandSwitches(
+      { ...netlist.source },
+      [designFromYaml(base('  - { name: tg, type: tgate, w: 4um, wp: 8um, l: 0.18um, gate: a, gateBar: ab, signal: 0.9V }')).switches[0]!],
+      loadProcess(processCard('generic180')),
+    ).plans[0]!;
     const card = loadProcess(processCard('generic180'));
     const devices = devicesAtCorner(card, { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
     const length = (skew: number) => {
@@ -95,8 +101,16 @@ describe('switchConduction', () => {
         rising: Uint8Array.from([1, 0, 0, 1]),
         transition: Float64Array.from([200e-12, 200e-12, 200e-12, 200e-12]),
       };
-      const result = { status: 'settled' as const, reason: '', period: 50e-9, windowStart: 0, edges,
-        startValues: new Uint8Array(netlist.netNames.length), glitches: [], periodsSimulated: 2 };
+      const result = {
+        status: 'settled' as const,
+        reason: '',
+        period: 50e-9,
+        windowStart: 0,
+        edges,
+        startValues: new Uint8Array(netlist.netNames.length),
+        glitches: [],
+        periodsSimulated: 2,
+      };
       const c = switchConduction(plan, new CycleIndex(result, netlist), devices);
       return c.off - c.on;
     };
@@ -107,8 +121,10 @@ describe('switchConduction', () => {
   });
 
   it('reports a switch whose gate swing cannot reach the turn-on level, never a NaN', () => {
-    const { byName, result } = conduction(`  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 1.6V }`,
-      'constraints: { settle: [{ name: path, switches: [s], capacitance: 1pF, bits: 8 }] }');
+    const { byName, result } = conduction(
+      `  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 1.6V }`,
+      'constraints: { settle: [{ name: path, switches: [s], capacitance: 1pF, bits: 8 }] }',
+    );
     expect(byName.get('s')!.status).toBe('never');
     const settle = result.checks.find((c) => c.kind === 'settle')!;
     expect(settle.pass).toBe(false);

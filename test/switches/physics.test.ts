@@ -1,5 +1,14 @@
 import { describe, it, expect } from 'vitest';
-import { bitsToError, bodyThreshold, offStateAllowance, rampCrossing, settlingTimeConstants, subthresholdSwing, thermalVoltage, triodeResistance } from '../../src/switches/physics.js';
+import {
+  bitsToError,
+  bodyThreshold,
+  offStateAllowance,
+  rampCrossing,
+  settlingTimeConstants,
+  subthresholdSwing,
+  thermalVoltage,
+  triodeResistance,
+} from '../../src/switches/physics.js';
 import { expectClose } from '../helpers.js';
 
 describe('rampCrossing', () => {
@@ -42,7 +51,7 @@ describe('bodyThreshold', () => {
 
 describe('triodeResistance', () => {
   // Derived by hand (docs/physics.md, "Switches and constraints"): mu*Cox = 200 uA/V^2, W/L = 10, V_ov = 1 V -> 500 ohm (common-practice formula).
-  it('gives 500 ohm for k\' = 200 uA/V^2, W/L = 10, 1 V overdrive', () => {
+  it("gives 500 ohm for k' = 200 uA/V^2, W/L = 10, 1 V overdrive", () => {
     expectClose(triodeResistance(200e-6, 10e-6, 1e-6, 1), 500, 1e-12);
   });
   it('is infinite when the device is not on', () => {
@@ -53,7 +62,10 @@ describe('triodeResistance', () => {
 
 describe('settling time constants', () => {
   // Derived by hand (docs/physics.md, "Switches and constraints"): ln(2^(N+1)) half-LSB: 10 b -> 7.6246 tau, 12 b -> 9.0109 tau; one LSB at 12 b 8.3178 tau.
-  it.each([[10, 7.6246], [12, 9.0109]])('needs ln(2^(N+1)) tau for %i bits at half an LSB', (bits, taus) => {
+  it.each([
+    [10, 7.6246],
+    [12, 9.0109],
+  ])('needs ln(2^(N+1)) tau for %i bits at half an LSB', (bits, taus) => {
     expectClose(settlingTimeConstants(bitsToError(bits)), taus, 1e-4);
   });
   it('needs 8.3178 tau for one LSB at 12 bits', () => {
@@ -68,7 +80,7 @@ describe('settling time constants', () => {
 describe('thermalVoltage', () => {
   // kT/q at 300 K = 1.380649e-23 * 300 / 1.602176634e-19 = 25.852 mV (CODATA 2018 exact constants).
   it('is 25.852 mV at 300 K (26.85 °C)', () => {
-    expectClose(thermalVoltage(26.85), 0.0258520, 1e-6);
+    expectClose(thermalVoltage(26.85), 0.025852, 1e-6);
   });
 });
 

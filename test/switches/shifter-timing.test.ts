@@ -26,19 +26,27 @@ function deck(process: string, vdd: number, temperature: number): string {
   return [
     '* cross-coupled level shifter, 0..VDD in, 0..2 VDD out',
     `.include ${fixture('models', 'generic180.lib')}`,
-    `.param ${Object.entries(params).map(([k, v]) => `${k}=${v}`).join(' ')}`,
+    `.param ${Object.entries(params)
+      .map(([k, v]) => `${k}=${v}`)
+      .join(' ')}`,
     `.temp ${temperature}`,
-    `vdd vdd 0 ${vdd}`, `vh vh 0 ${vh}`,
+    `vdd vdd 0 ${vdd}`,
+    `vh vh 0 ${vh}`,
     `vin in 0 PULSE(0 ${vdd} 1n 100p 100p 5n 10n)`,
-    'mi1 inb in 0 0 nch w=1u l=0.18u', 'mi2 inb in vdd vdd pch w=2u l=0.18u',
-    'mn1 x in 0 0 nch w=4u l=0.18u', 'mn2 y inb 0 0 nch w=4u l=0.18u',
-    'mp1 x y vh vh pch w=1u l=0.18u', 'mp2 y x vh vh pch w=1u l=0.18u',
-    'mo1 out y 0 0 nch w=2u l=0.18u', 'mo2 out y vh vh pch w=4u l=0.18u',
+    'mi1 inb in 0 0 nch w=1u l=0.18u',
+    'mi2 inb in vdd vdd pch w=2u l=0.18u',
+    'mn1 x in 0 0 nch w=4u l=0.18u',
+    'mn2 y inb 0 0 nch w=4u l=0.18u',
+    'mp1 x y vh vh pch w=1u l=0.18u',
+    'mp2 y x vh vh pch w=1u l=0.18u',
+    'mo1 out y 0 0 nch w=2u l=0.18u',
+    'mo2 out y vh vh pch w=4u l=0.18u',
     'cl out 0 100f',
     '.tran 2p 12n',
     `.meas tran tr TRIG v(in) VAL=${vdd / 2} RISE=1 TARG v(out) VAL=${vh / 2} FALL=1`,
     `.meas tran tf TRIG v(in) VAL=${vdd / 2} FALL=1 TARG v(out) VAL=${vh / 2} RISE=1`,
-    '.end', '',
+    '.end',
+    '',
   ].join('\n');
 }
 
@@ -55,8 +63,8 @@ const scale = (process: string, vdd: number, temperature: number) =>
 
 // Delays ngspice gave when this test was written (ngspice-42, Debian), s, and the model's scale.
 const CASES = [
-  { process: 'ss', vdd: 1.62, temperature: 125, ngspice: 243.55e-12, model: 1.870 },
-  { process: 'ff', vdd: 1.98, temperature: -40, ngspice: 85.25e-12, model: 0.560 },
+  { process: 'ss', vdd: 1.62, temperature: 125, ngspice: 243.55e-12, model: 1.87 },
+  { process: 'ff', vdd: 1.98, temperature: -40, ngspice: 85.25e-12, model: 0.56 },
   { process: 'ss', vdd: 1.62, temperature: -40, ngspice: 146.8e-12, model: 1.014 },
   { process: 'tt', vdd: 1.62, temperature: 27, ngspice: 153.2e-12, model: 1.084 },
 ];
@@ -76,7 +84,7 @@ describe('shifterScale against a transistor-level shifter', () => {
     });
   }
 
-  it('errs slow where the n device is weak beside the p device (sf/1.62V/27C: 1.37 against ngspice\'s 1.14)', () => {
+  it("errs slow where the n device is weak beside the p device (sf/1.62V/27C: 1.37 against ngspice's 1.14)", () => {
     const sim = simulate('sf', 1.62, 27);
     expect(scale('sf', 1.62, 27)).toBeGreaterThan(sim / nominal);
   });

@@ -10,7 +10,7 @@ const tt = devicesAtCorner(card, { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8,
 const sheet = (d: typeof tt.n) => triodeResistance(d.kprime, 1, 1, 1.8 - d.vth - d.ronVthShift, d.theta);
 
 describe('ronCalibration', () => {
-  it('scales k\' so the triode law meets the tabulated R_on * W/L at the characterized corner', () => {
+  it("scales k' so the triode law meets the tabulated R_on * W/L at the characterized corner", () => {
     const calibrated = ronCalibration([{ process: 'tt', vdd: 1.8, temperature: 27, ron: { n: 2 * sheet(tt.n), p: sheet(tt.p) } }])(tt);
     expectClose(calibrated.n.kprime, tt.n.kprime / 2, 1e-12);
     expectClose(calibrated.p.kprime, tt.p.kprime, 1e-12);
@@ -31,7 +31,7 @@ describe('ronCalibration', () => {
 });
 
 describe('table model with characterized R_on', () => {
-  it('doubles the doubler\'s s_gnd R_on at tt/1.8V/27C when the tables say R_on * W/L is twice the card\'s law', async () => {
+  it("doubles the doubler's s_gnd R_on at tt/1.8V/27C when the tables say R_on * W/L is twice the card's law", async () => {
     const { loadDesign, loadTables } = await import('../../src/cli/load.js');
     const { tableModel } = await import('../../src/delay/table.js');
     const { resolveDesign } = await import('../../src/analysis/resolve.js');
@@ -39,7 +39,12 @@ describe('table model with characterized R_on', () => {
     const { design, fixture } = await import('../helpers.js');
     const tables = loadTables(fixture('tables', 'generic180.json'));
     const corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
-    const withRon = { ...tables, corners: tables.corners.map((c) => (c.process === 'tt' && c.vdd === 1.8 && c.temperature === 27 ? { ...c, ron: { n: 2 * sheet(tt.n), p: sheet(tt.p) } } : c)) };
+    const withRon = {
+      ...tables,
+      corners: tables.corners.map((c) =>
+        c.process === 'tt' && c.vdd === 1.8 && c.temperature === 27 ? { ...c, ron: { n: 2 * sheet(tt.n), p: sheet(tt.p) } } : c,
+      ),
+    };
     expect(withRon.corners.some((c) => c.ron)).toBe(true);
     const d = loadDesign(design('doubler')).design;
     const plain = evaluateCorner(resolveDesign(d, card, tableModel(tables)), corner);

@@ -31,7 +31,10 @@ describe('bareNumberProblem', () => {
 
 describe('phasegap check --set with a unit-less number', () => {
   it.each([
-    ['clock.transition=200', 'clock.transition: 200 is out of range; it must be greater than 0 s and at most 1 s; it has no unit, so it reads as 200 s'],
+    [
+      'clock.transition=200',
+      'clock.transition: 200 is out of range; it must be greater than 0 s and at most 1 s; it has no unit, so it reads as 200 s',
+    ],
     ['clock.frequency=20', 'clock.frequency: 20 has no unit, so it reads as 20 Hz'],
   ])('refuses %s with exit 2 and the likely unit', (set, message) => {
     const run = cli('check', design('doubler'), '--set', set);

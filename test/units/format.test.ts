@@ -2,7 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { formatPercent, formatSignedTime, percentDecimals } from '../../src/units/format.js';
 import { formatMargin } from '../../src/report/margin-format.js';
 import {
-  formatPs, formatPsShort, formatPsTenths, formatSignedPs, formatSignedTimeShort, formatTime, psNumber, psTenthsNumber,
+  formatPs,
+  formatPsShort,
+  formatPsTenths,
+  formatSignedPs,
+  formatSignedTimeShort,
+  formatTime,
+  psNumber,
+  psTenthsNumber,
 } from '../../src/units/format.js';
 
 describe('picosecond formats', () => {
@@ -58,7 +65,12 @@ describe('formatSignedTime', () => {
 });
 
 describe('formatPs from 10 ns', () => {
-  it.each([[972e-12, '972 ps'], [9.9994e-9, '9999 ps'], [14.099e-9, '14.10 ns'], [25e-9, '25.00 ns']])('%d s -> %s', (s, text) => {
+  it.each([
+    [972e-12, '972 ps'],
+    [9.9994e-9, '9999 ps'],
+    [14.099e-9, '14.10 ns'],
+    [25e-9, '25.00 ns'],
+  ])('%d s -> %s', (s, text) => {
     expect(formatPs(s)).toBe(text);
   });
 });

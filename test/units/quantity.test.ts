@@ -36,7 +36,12 @@ describe('parseQuantity', () => {
 });
 
 describe('parseTemperature', () => {
-  it.each([[125, 125], ['-40C', -40], ['27 °C', 27], ['85degC', 85]] as const)('reads %s', (input, celsius) => {
+  it.each([
+    [125, 125],
+    ['-40C', -40],
+    ['27 °C', 27],
+    ['85degC', 85],
+  ] as const)('reads %s', (input, celsius) => {
     expect(parseTemperature(input)).toEqual({ ok: true, value: celsius });
   });
   it('rejects a kelvin value', () => expect(parseTemperature('300K').ok).toBe(false));

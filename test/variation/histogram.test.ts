@@ -18,7 +18,10 @@ describe('histogramQuantile', () => {
   it.each([0.00135, 0.02, 0.5, 0.9, 0.99865])('lies within one bin of the exact quantile (d3 quantileSorted) at p = %s', (p) => {
     const values = normal(20000, 800e-12, 20e-12, 7);
     const h = histogramOf(values);
-    const exact = quantileSorted(Array.from(values).sort((a, b) => a - b), p)!;
+    const exact = quantileSorted(
+      Array.from(values).sort((a, b) => a - b),
+      p,
+    )!;
     expectClose(histogramQuantile(h, p), exact, binWidth(h), 'abs');
   });
 

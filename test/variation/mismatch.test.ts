@@ -15,7 +15,7 @@ describe('pelgromSigma', () => {
   // 1x1 um, 5/sqrt(8) = 1.7678 mV at 4x1 um (derived by hand).
   it('gives 3.536 mV for one 1x1 um device and 1.768 mV for 4x1 um at A_VT = 5 mV*um per pair (Pelgrom 1989)', () => {
     expectClose(pelgromSigma(5e-9, 1e-6, 1e-6), 3.5355339e-3, 1e-7);
-    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6), 1.7677670e-3, 1e-7);
+    expectClose(pelgromSigma(5e-9, 4e-6, 1e-6), 1.767767e-3, 1e-7);
     expectClose(pelgromSigma(5e-9, 1e-6, 1e-6, 'pair'), pelgromSigma(5e-9, 1e-6, 1e-6), 1e-15);
   });
 
@@ -32,7 +32,11 @@ describe('pelgromSigma', () => {
 
 const card = loadProcess(processCard('generic180'));
 const inverter = compileNetlist({
-  clock: 'clk', phases: ['a', 'b'], complements: {}, early: {}, loads: {},
+  clock: 'clk',
+  phases: ['a', 'b'],
+  complements: {},
+  early: {},
+  loads: {},
   gates: [
     { name: 'u1', cell: 'INV', size: 1, inputs: ['clk'], output: 'a' },
     { name: 'u2', cell: 'NAND2', size: 2, inputs: ['clk', 'a'], output: 'b' },
@@ -40,7 +44,7 @@ const inverter = compileNetlist({
 });
 
 describe('mismatchSigmas', () => {
-  it('uses each device\'s area and divides a series stack by sqrt(depth)', () => {
+  it("uses each device's area and divides a series stack by sqrt(depth)", () => {
     expect(card.avtConvention).toBe('pair');
     const s = mismatchSigmas(inverter, card, []);
     const lmin = card.lmin;
@@ -73,7 +77,7 @@ describe('drawMismatch', () => {
     expect(sampleSeed(7, 3)).toBeLessThan(1);
   });
 
-  it('draws shifts whose sigma is Pelgrom\'s within 2 % over 20,000 dies', () => {
+  it("draws shifts whose sigma is Pelgrom's within 2 % over 20,000 dies", () => {
     const buf = mismatchBuffers(sigmas);
     const xs = Array.from({ length: 20000 }, (_, i) => drawMismatch(sigmas, 1, i, buf).dvthN[0]!);
     expectClose(sampleStandardDeviation(xs), sigmas.gateN[0]!, 0.02);
@@ -109,7 +113,7 @@ describe('gate delay under mismatch', () => {
 describe('mismatchSigmas of level shifters', () => {
   // By hand: generic180 n avt 5 mV*um per pair, pull-down 4 x 0.5 um at 0.18 um:
   // 5e-9 / sqrt(2 * 2e-6 * 0.18e-6) = 5.893 mV. s_gnd and s_vdd have no shifter.
-  it('gives the doubler\'s shifted switches 5.89 mV on the pull-down, the others 0, drawn after all other shifts', async () => {
+  it("gives the doubler's shifted switches 5.89 mV on the pull-down, the others 0, drawn after all other shifts", async () => {
     const { resolveYaml } = await import('../helpers.js');
     const { readFileSync } = await import('node:fs');
     const { design } = await import('../helpers.js');

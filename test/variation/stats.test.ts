@@ -74,7 +74,12 @@ describe('wilsonInterval', () => {
   });
 
   it('stays inside [0, 1] and brackets the observed proportion', () => {
-    for (const [k, n] of [[0, 5], [5, 5], [3, 7], [999, 1000]] as const) {
+    for (const [k, n] of [
+      [0, 5],
+      [5, 5],
+      [3, 7],
+      [999, 1000],
+    ] as const) {
       const ci = wilsonInterval(k, n);
       expect(ci.low).toBeGreaterThanOrEqual(0);
       expect(ci.high).toBeLessThanOrEqual(1);

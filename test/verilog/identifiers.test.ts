@@ -18,8 +18,11 @@ const HOSTILE = ['a b', 'x\n`define y', 'endmodule', 'a\u0000b\u007f\u0085\u202e
 
 /** The module scopes of a compiled design, from the vvp file: [instance, module type, parent or null]. */
 function scopes(vvp: string): Array<[string, string, boolean]> {
-  return [...vvp.matchAll(/^S_\S+ \.scope module, "((?:[^"\\]|\\.)*)" "((?:[^"\\]|\\.)*)" [^;]*?(, S_\S+)?;$/gm)]
-    .map((m) => [m[1]!, m[2]!, m[3] !== undefined]);
+  return [...vvp.matchAll(/^S_\S+ \.scope module, "((?:[^"\\]|\\.)*)" "((?:[^"\\]|\\.)*)" [^;]*?(, S_\S+)?;$/gm)].map((m) => [
+    m[1]!,
+    m[2]!,
+    m[3] !== undefined,
+  ]);
 }
 
 describe('verilogIdentifier', () => {
@@ -67,7 +70,10 @@ describe('verilogModule with hostile names', () => {
     expect(compile.status).toBe(0);
     const found = scopes(readFileSync(join(dir, 'gen.vvp'), 'utf8'));
     const type = verilogIdentifier(name).slice(1, -1).replace(/"/g, '\\"');
-    expect(found).toEqual([[`${type}_tb`, `${type}_tb`, false], ['dut', type, true]]);
+    expect(found).toEqual([
+      [`${type}_tb`, `${type}_tb`, false],
+      ['dut', type, true],
+    ]);
     const run = spawnSync('vvp', ['-n', 'gen.vvp'], { cwd: dir, encoding: 'utf8' });
     expect(run.status).toBe(0);
     expect(run.stdout).not.toContain('EVIL');

@@ -57,8 +57,11 @@ function compareWithIcarus(designName: string): void {
   const fall = Float64Array.from({ length: n }, (_, g) => (70 + 11 * (n - g)) * 1e-12);
   const model = fixedDelayModel({ rise, fall });
   const period = 1 / d.clock.frequency;
-  const result = new Simulator(resolved.netlist).run(model.bind(resolved.netlist, resolved.loads, devicesAtCorner(card, corner)),
-    { period, duty: corner.duty, transition: d.clock.transition });
+  const result = new Simulator(resolved.netlist).run(model.bind(resolved.netlist, resolved.loads, devicesAtCorner(card, corner)), {
+    period,
+    duty: corner.duty,
+    transition: d.clock.transition,
+  });
   expect(result.status).toBe('settled');
   const dir = tempDir();
   const module = verilogModule(resolved.netlist, { rise, fall }, 'gen', ['test export']);
@@ -111,12 +114,17 @@ describe('verilog export', () => {
     for (const { corner } of [resolved.corners[0]!, resolved.corners[44]!]) {
       const delays = steadyStateDelays(resolved, corner);
       const model = fixedDelayModel(delays);
-      const sim = new Simulator(resolved.netlist).run(model.bind(resolved.netlist, resolved.loads, devicesAtCorner(card, corner)),
-        { period: 1 / d.clock.frequency, duty: corner.duty, transition: d.clock.transition });
+      const sim = new Simulator(resolved.netlist).run(model.bind(resolved.netlist, resolved.loads, devicesAtCorner(card, corner)), {
+        period: 1 / d.clock.frequency,
+        duty: corner.duty,
+        transition: d.clock.transition,
+      });
       const fixed = measurePhases(sim, resolved.netlist);
       const reference = evaluateCorner(resolved, corner).measurement;
       if (!fixed.ok || !reference.ok) throw new Error('expected both runs to settle');
-      fixed.deadTimes.forEach((dt, i) => { expect(Math.abs(dt.t50 - reference.deadTimes[i]!.t50)).toBeLessThan(1e-15); });
+      fixed.deadTimes.forEach((dt, i) => {
+        expect(Math.abs(dt.t50 - reference.deadTimes[i]!.t50)).toBeLessThan(1e-15);
+      });
     }
   });
 

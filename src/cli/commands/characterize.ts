@@ -40,23 +40,42 @@ export function defaultCorners(card: ProcessCard): CornerPoint[] {
 }
 
 export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] {
-  return text.split(',').map((s) => s.trim()).filter((s) => s !== '').map((name) => {
-    const [process, v, t, extra] = name.split('/');
-    const vdd = v === undefined ? undefined : parseQuantity(v, 'V');
-    const temperature = t === undefined ? undefined : parseTemperature(t);
-    if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
-      throw inputError('reference.unknown', '--corners', name, 'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas');
-    }
-    if (processCornerOf(card, process) === undefined) throw inputError('reference.unknown', '--corners', name, `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`);
-    return { name: cornerName(process, vdd.value, temperature.value), process, vdd: vdd.value, temperature: temperature.value };
-  });
+  return text
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s !== '')
+    .map((name) => {
+      const [process, v, t, extra] = name.split('/');
+      const vdd = v === undefined ? undefined : parseQuantity(v, 'V');
+      const temperature = t === undefined ? undefined : parseTemperature(t);
+      if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
+        throw inputError(
+          'reference.unknown',
+          '--corners',
+          name,
+          'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas',
+        );
+      }
+      if (processCornerOf(card, process) === undefined)
+        throw inputError(
+          'reference.unknown',
+          '--corners',
+          name,
+          `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`,
+        );
+      return { name: cornerName(process, vdd.value, temperature.value), process, vdd: vdd.value, temperature: temperature.value };
+    });
 }
 
 function parseCells(text: string): PrimitiveCell[] {
-  return text.split(',').map((s) => s.trim().toUpperCase()).map((cell) => {
-    if (!Object.hasOwn(CELLS, cell)) throw inputError('reference.unknown', '--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
-    return cell as PrimitiveCell;
-  });
+  return text
+    .split(',')
+    .map((s) => s.trim().toUpperCase())
+    .map((cell) => {
+      if (!Object.hasOwn(CELLS, cell))
+        throw inputError('reference.unknown', '--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
+      return cell as PrimitiveCell;
+    });
 }
 
 function parseSize(text: string, flag: string): number {
@@ -66,10 +85,15 @@ function parseSize(text: string, flag: string): number {
 }
 
 const OPTIONS = {
-  corners: textOption('--corners <LIST>', 'corner names like ss/1.62V/125C, separated by commas (default: every process corner at 90/100/110 % supply and -40/27/125 C)'),
+  corners: textOption(
+    '--corners <LIST>',
+    'corner names like ss/1.62V/125C, separated by commas (default: every process corner at 90/100/110 % supply and -40/27/125 C)',
+  ),
   design: textOption('--design <FILE>', 'characterize the corners of this design instead'),
   grid: textOption('--grid <GRID>', 'table grid: coarse (4 x 4) or fine (7 x 7)', { default: 'fine', choices: Object.keys(GRIDS) }),
-  cells: parsedOption('--cells <LIST>', 'cells to characterize (default: INV,NAND2,NAND3,NOR2,NOR3)', parseCells, { fallback: [...TABLE_CELLS] }),
+  cells: parsedOption('--cells <LIST>', 'cells to characterize (default: INV,NAND2,NAND3,NOR2,NOR3)', parseCells, {
+    fallback: [...TABLE_CELLS],
+  }),
   size: parsedOption('--size <S>', 'cell size to characterize at (default 1; other sizes scale from it)', parseSize, { fallback: 1 }),
   models: MODELS_OPTION,
   ngspice: NGSPICE_OPTION,
@@ -90,7 +114,8 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
   const cardDir = dirname(resolve(processPath));
   // commander's choices have refused any other grid.
   const grid = options.grid as keyof typeof GRIDS;
-  if (options.corners !== undefined && options.design !== undefined) throw inputError('option.invalid', '--corners', options.corners, 'cannot be combined with --design; give one of them');
+  if (options.corners !== undefined && options.design !== undefined)
+    throw inputError('option.invalid', '--corners', options.corners, 'cannot be combined with --design; give one of them');
   const { size, cells, jobs } = options;
   let corners: CornerPoint[];
   const inputs = [processPath];
@@ -99,7 +124,12 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
     const { design } = loaded;
     // Not the card's tables: writing them anew is what characterize is for.
     inputs.push(...designFiles(loaded));
-    corners = expandCorners(design.corners, card, design.clock.duty).map(({ corner }) => ({ name: cornerName(corner.process, corner.vdd, corner.temperature), process: corner.process, vdd: corner.vdd, temperature: corner.temperature }));
+    corners = expandCorners(design.corners, card, design.clock.duty).map(({ corner }) => ({
+      name: cornerName(corner.process, corner.vdd, corner.temperature),
+      process: corner.process,
+      vdd: corner.vdd,
+      temperature: corner.temperature,
+    }));
     corners = corners.filter((c, i) => corners.findIndex((d) => d.name === c.name) === i);
   } else {
     corners = options.corners === undefined ? defaultCorners(card) : parseCornerList(options.corners, card);
@@ -117,7 +147,10 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
     for (const corner of corners) {
       const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
       const ronDeck = ronCharacterizationDeck(card, corner, modelPath);
-      const outputs = runDecks([...decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { name: `${corner.name} R_on`, text: ronDeck.text }], { program: options.ngspice, parallel: jobs });
+      const outputs = runDecks(
+        [...decks.map((d) => ({ name: `${corner.name} row ${d.row}`, text: d.text })), { name: `${corner.name} R_on`, text: ronDeck.text }],
+        { program: options.ngspice, parallel: jobs },
+      );
       const ron = cornerRonFrom(ronDeck, parseSimulatorOutput(outputs[decks.length]!.output, ronDeck.names).values);
       if (typeof ron === 'string') throw inputError('tool.failed', 'ngspice', corner.name, `on-resistance characterization failed: ${ron}`);
       const parts = decks.map((deck, i) => {
@@ -146,6 +179,7 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
     corners: tables,
   };
   emit(io, tablesJson(file), options.out, inputs);
-  if (options.out !== undefined && options.out !== '-') noteTo(io, `wrote ${options.out}: ${cells.length} cells at ${tables.length} corners`);
+  if (options.out !== undefined && options.out !== '-')
+    noteTo(io, `wrote ${options.out}: ${cells.length} cells at ${tables.length} corners`);
   return 0;
 }

@@ -42,8 +42,16 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   const report = checkReport(resolved, evaluateAll(resolved));
   const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: CHECK_HINTS });
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
-  const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: design.name, verdict, checks: report, provenance: record });
-  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record), options.out, inputs);
+  const junit =
+    options.junit === undefined
+      ? null
+      : writeJunit(io, options.junit, inputs, { name: design.name, verdict, checks: report, provenance: record });
+  emit(
+    io,
+    options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record),
+    options.out,
+    inputs,
+  );
   junit?.();
   const hint = options.json ? null : checkHint(report, designPath, design.generator.template !== 'netlist');
   if (hint) io.stderr(`phasegap: hint: ${hint}\n`);

@@ -13,7 +13,17 @@ import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
 import { defineCommand, textOption, type CommandOptions } from '../command.js';
-import { DESIGN_ARGUMENT, JOBS_OPTION, JUNIT_OPTION, MODELS_OPTION, NGSPICE_OPTION, SET_OPTION, jsonOption, outOption, toleranceOption } from '../common-options.js';
+import {
+  DESIGN_ARGUMENT,
+  JOBS_OPTION,
+  JUNIT_OPTION,
+  MODELS_OPTION,
+  NGSPICE_OPTION,
+  SET_OPTION,
+  jsonOption,
+  outOption,
+  toleranceOption,
+} from '../common-options.js';
 
 export const CONFIRM_HINTS = { corners: 'run phasegap check', montecarlo: 'run phasegap mc' } as const;
 
@@ -47,17 +57,58 @@ export function runConfirm(io: Io, designPath: string, options: CommandOptions<t
   const resolved = resolveDesign(design, card, model);
   const { simulator, tolerance, comparisons } = confirmCorners(io, resolved, cardDir, { ...options, quiet: options.json, circuit: true });
   const pass = comparisons.every((c) => c.pass);
-  const verdict = verdictOf({ corners: null, mc: null, confirm: { simulator, tolerance, comparisons }, deadTime: design.requirements.deadTime, hints: CONFIRM_HINTS });
+  const verdict = verdictOf({
+    corners: null,
+    mc: null,
+    confirm: { simulator, tolerance, comparisons },
+    deadTime: design.requirements.deadTime,
+    hints: CONFIRM_HINTS,
+  });
   const record = gatherProvenance(io, loaded, { model: model.name, options, simulator, spice: true });
-  const junit = options.junit === undefined ? null
-    : writeJunit(io, options.junit, inputs, { name: design.name, verdict, confirm: { simulator, tolerance, comparisons }, provenance: record });
+  const junit =
+    options.junit === undefined
+      ? null
+      : writeJunit(io, options.junit, inputs, {
+          name: design.name,
+          verdict,
+          confirm: { simulator, tolerance, comparisons },
+          provenance: record,
+        });
   if (options.json) {
-    emit(io, toJson(withRunJson({
-      tool: 'phasegap', design: design.name, process: card.name, model: model.name, simulator, tolerance,
-      verdict: pass ? 'agree' : 'disagree', worst: worstDifference(comparisons), corners: comparisons, cautions: CAUTIONS,
-    }, verdict, record)), options.out, inputs);
+    emit(
+      io,
+      toJson(
+        withRunJson(
+          {
+            tool: 'phasegap',
+            design: design.name,
+            process: card.name,
+            model: model.name,
+            simulator,
+            tolerance,
+            verdict: pass ? 'agree' : 'disagree',
+            worst: worstDifference(comparisons),
+            corners: comparisons,
+            cautions: CAUTIONS,
+          },
+          verdict,
+          record,
+        ),
+      ),
+      options.out,
+      inputs,
+    );
   } else {
-    emit(io, withRunText(renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }), verdict, record), options.out, inputs);
+    emit(
+      io,
+      withRunText(
+        renderConfirmText({ design: design.name, model: model.name, simulator, tolerance, corners: comparisons }),
+        verdict,
+        record,
+      ),
+      options.out,
+      inputs,
+    );
   }
   junit?.();
   return verdict.verdict === 'pass' ? 0 : 1;

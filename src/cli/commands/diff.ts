@@ -23,8 +23,15 @@ function quantity(unit: 's' | 'V'): (text: string, flag: string) => number {
 }
 
 const OPTIONS = {
-  tolerance: parsedOption('--tolerance <T>', 'margin loss and dead-time shift to ignore, e.g. 5ps (default 1ps)', quantity('s'), { fallback: DEFAULT_DIFF_TOLERANCE.time }),
-  voltageTolerance: parsedOption('--voltage-tolerance <V>', 'margin loss to ignore on the switch bias checks (default 1mV)', quantity('V'), { fallback: DEFAULT_DIFF_TOLERANCE.voltage }),
+  tolerance: parsedOption('--tolerance <T>', 'margin loss and dead-time shift to ignore, e.g. 5ps (default 1ps)', quantity('s'), {
+    fallback: DEFAULT_DIFF_TOLERANCE.time,
+  }),
+  voltageTolerance: parsedOption(
+    '--voltage-tolerance <V>',
+    'margin loss to ignore on the switch bias checks (default 1mV)',
+    quantity('V'),
+    { fallback: DEFAULT_DIFF_TOLERANCE.voltage },
+  ),
   json: jsonOption('print the comparison as JSON (SI units)'),
   out: outOption('the comparison'),
 } as const;
@@ -32,7 +39,10 @@ const OPTIONS = {
 export const diffCommand = defineCommand({
   name: 'diff',
   description: 'compare two check reports (check --json): margin changes, new and fixed failures, dead-time shifts',
-  arguments: [{ name: '<OLD.json>', help: 'the baseline report' }, { name: '<NEW.json>', help: 'the report to compare with it' }],
+  arguments: [
+    { name: '<OLD.json>', help: 'the baseline report' },
+    { name: '<NEW.json>', help: 'the report to compare with it' },
+  ],
   options: OPTIONS,
   run: (io, [before, after], options) => runDiff(io, before, after, options),
 });
@@ -44,7 +54,13 @@ export function loadCheckReport(path: string, label: string): DiffInput {
     return parseWith(checkReportShape, data);
   } catch (error) {
     if (error instanceof InputError) {
-      throw new InputError(error.issues.map((i) => ({ ...i, path: `${path}: ${i.path}`, allowed: `${i.allowed} (not a phasegap check report; write one with phasegap check DESIGN --json -o FILE)` })));
+      throw new InputError(
+        error.issues.map((i) => ({
+          ...i,
+          path: `${path}: ${i.path}`,
+          allowed: `${i.allowed} (not a phasegap check report; write one with phasegap check DESIGN --json -o FILE)`,
+        })),
+      );
     }
     throw error;
   }

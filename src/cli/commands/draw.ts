@@ -16,15 +16,22 @@ import { DESIGN_ARGUMENT, SET_OPTION, outOption } from '../common-options.js';
 export const CHARTS = ['timing', 'margins'] as const;
 
 function parseChart(text: string, flag: string): (typeof CHARTS)[number] {
-  if (!(CHARTS as readonly string[]).includes(text)) throw inputError('option.invalid', flag, text, `is not a chart; allowed: ${CHARTS.join(', ')}`);
+  if (!(CHARTS as readonly string[]).includes(text))
+    throw inputError('option.invalid', flag, text, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   return text as (typeof CHARTS)[number];
 }
 
 const OPTIONS = {
   set: SET_OPTION,
-  corner: textOption('--corner <NAME>', "a corner name like ss/1.62V/125C, 'worst' (the corner of the limiting check) or 'all'", { default: 'worst' }),
-  nets: parsedOption('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", parseNets, { default: 'phases' }),
-  chart: parsedOption('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", parseChart, { default: 'timing' }),
+  corner: textOption('--corner <NAME>', "a corner name like ss/1.62V/125C, 'worst' (the corner of the limiting check) or 'all'", {
+    default: 'worst',
+  }),
+  nets: parsedOption('--nets <WHICH>', "'phases' (clock, phases, complements, early phases) or 'all' (every internal net too)", parseNets, {
+    default: 'phases',
+  }),
+  chart: parsedOption('--chart <KIND>', "'timing' (waveforms) or 'margins' (every check's margin at every corner)", parseChart, {
+    default: 'timing',
+  }),
   out: outOption('the SVG'),
 } as const;
 
@@ -50,7 +57,12 @@ export async function runDraw(io: Io, designPath: string, options: CommandOption
   const inputs = inputFiles(loaded, options);
   checkOutput(out, inputs);
   const results = evaluateAll(resolved);
-  const verdict = verdictOf({ corners: checkReport(resolved, results), mc: null, confirm: null, hints: { montecarlo: 'run phasegap mc', simulator: 'run phasegap confirm' } });
+  const verdict = verdictOf({
+    corners: checkReport(resolved, results),
+    mc: null,
+    confirm: null,
+    hints: { montecarlo: 'run phasegap mc', simulator: 'run phasegap confirm' },
+  });
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
   if (options.chart === 'margins') {
     emit(io, withRunMetadata(renderMarginSvg(marginChartInput(resolved, results)), verdict, record), out, inputs);

@@ -15,7 +15,12 @@ import { DESIGN_ARGUMENT, SET_OPTION, jsonOption, outOption } from '../common-op
 function parseResolution(text: string, flag: string): number {
   const value = relativeNumber(text);
   if (!(value >= MIN_FMAX_RESOLUTION && value < MAX_FMAX_RESOLUTION)) {
-    throw inputError('option.invalid', flag, text, `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`);
+    throw inputError(
+      'option.invalid',
+      flag,
+      text,
+      `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`,
+    );
   }
   return value;
 }
@@ -43,7 +48,12 @@ export function runFmax(io: Io, designPath: string, options: CommandOptions<type
   const result = findFmax(resolved, { resolution: options.resolution });
   const ok = fmaxPasses(result);
   if (options.json) {
-    emit(io, toJson({ tool: 'phasegap', design: design.name, ...result, verdict: ok ? 'pass' : 'fail', cautions: CAUTIONS }), options.out, inputs);
+    emit(
+      io,
+      toJson({ tool: 'phasegap', design: design.name, ...result, verdict: ok ? 'pass' : 'fail', cautions: CAUTIONS }),
+      options.out,
+      inputs,
+    );
     return ok ? 0 : 1;
   }
   emit(io, renderFmaxText(design.name, result), options.out, inputs);

@@ -23,13 +23,30 @@ import { DESIGN_ARGUMENT, JUNIT_OPTION, SET_OPTION, jsonOption, outOption, seedO
 
 const OPTIONS = {
   set: SET_OPTION,
-  samples: parsedOption('--samples <N>', 'dies to draw (default: montecarlo.samples, else 1000)', wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' })),
+  samples: parsedOption(
+    '--samples <N>',
+    'dies to draw (default: montecarlo.samples, else 1000)',
+    wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' }),
+  ),
   seed: seedOption('random seed, a whole number (default: montecarlo.seed, else 1)'),
   workers: workersOption('threads (default: the number of cores); results do not depend on it'),
-  replay: parsedOption('--replay <INDEX>', 'evaluate one die at every corner and print its check table', wholeNumberIn({ min: 0, max: MAX_SAMPLES - 1, noun: 'die indices' })),
-  histogram: textOption('--histogram <FILE.svg>', 'also draw a histogram over the dies: by default the margin of the check that limits yield at the worst corner'),
-  histogramCorner: textOption('--histogram-corner <NAME>', "corner the histogram shows (default: 'worst', the corner with the lowest yield)"),
-  histogramCheck: textOption('--histogram-check <NAME>', "check the histogram shows: a check name or a unique part of one, or 'dead-times' for both dead times"),
+  replay: parsedOption(
+    '--replay <INDEX>',
+    'evaluate one die at every corner and print its check table',
+    wholeNumberIn({ min: 0, max: MAX_SAMPLES - 1, noun: 'die indices' }),
+  ),
+  histogram: textOption(
+    '--histogram <FILE.svg>',
+    'also draw a histogram over the dies: by default the margin of the check that limits yield at the worst corner',
+  ),
+  histogramCorner: textOption(
+    '--histogram-corner <NAME>',
+    "corner the histogram shows (default: 'worst', the corner with the lowest yield)",
+  ),
+  histogramCheck: textOption(
+    '--histogram-check <NAME>',
+    "check the histogram shows: a check name or a unique part of one, or 'dead-times' for both dead times",
+  ),
   timings: flagOption('--timings', 'print on stderr how long setup, evaluation and the report took', false),
   json: jsonOption('print the machine report (SI units)'),
   out: outOption('the report'),
@@ -69,13 +86,25 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
     const report = { ...checkReport(resolved, results), design: `${design.name} (die ${die}, seed ${seed})` };
     const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: MC_HINTS });
     const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
-    const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: report.design, verdict, checks: report, provenance: record });
-    emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record), options.out, inputs);
+    const junit =
+      options.junit === undefined
+        ? null
+        : writeJunit(io, options.junit, inputs, { name: report.design, verdict, checks: report, provenance: record });
+    emit(
+      io,
+      options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record),
+      options.out,
+      inputs,
+    );
     junit?.();
     return verdict.verdict === 'pass' ? 0 : 1;
   }
-  for (const [flag, value] of [['--histogram-corner', options.histogramCorner], ['--histogram-check', options.histogramCheck]] as const) {
-    if (value !== undefined && options.histogram === undefined) throw inputError('option.invalid', flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
+  for (const [flag, value] of [
+    ['--histogram-corner', options.histogramCorner],
+    ['--histogram-check', options.histogramCheck],
+  ] as const) {
+    if (value !== undefined && options.histogram === undefined)
+      throw inputError('option.invalid', flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
   }
   if (options.histogram !== undefined && (options.histogramCorner !== undefined || options.histogramCheck !== undefined)) {
     // Names are checked before the run, so a typo costs no waiting (a design's check names are alike at every corner).
@@ -83,7 +112,11 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
     const names = resolved.corners.map(({ corner }) => corner.name);
     const at = pickCorner(names, names[0]!, options.histogramCorner === 'worst' ? undefined : options.histogramCorner);
     if (options.histogramCheck !== undefined && options.histogramCheck !== DEAD_TIMES) {
-      matchCheck(new CornerEvaluator(resolved).evaluate(resolved.corners[at]!.corner).checks.map((c) => c.name), options.histogramCheck, options.histogramCorner === undefined ? 'of this design' : `at ${names[at]!}`);
+      matchCheck(
+        new CornerEvaluator(resolved).evaluate(resolved.corners[at]!.corner).checks.map((c) => c.name),
+        options.histogramCheck,
+        options.histogramCorner === undefined ? 'of this design' : `at ${names[at]!}`,
+      );
     }
   }
   const evaluating = performance.now();
@@ -100,8 +133,17 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   let end: RunEnd;
   try {
     end = await runParallel<{ start: number; count: number }, ChunkResult>({
-      setup: { kind: 'mc', design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, seed, model: { model: options.model, tables: options.tables } },
-      tasks: plan, threads, local: (task) => runChunk(resolved, seed, task.start, task.count), onResult: take,
+      setup: {
+        kind: 'mc',
+        design: { path: loaded.designPath, text: loaded.designText },
+        overrides: options.set,
+        seed,
+        model: { model: options.model, tables: options.tables },
+      },
+      tasks: plan,
+      threads,
+      local: (task) => runChunk(resolved, seed, task.start, task.count),
+      onResult: take,
     });
   } finally {
     bar.stop();
@@ -115,7 +157,10 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
   const verdict = verdictOf({ corners: null, mc: report, confirm: null, hints: MC_HINTS });
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
-  const junit = options.junit === undefined ? null : writeJunit(io, options.junit, inputs, { name: design.name, verdict, mc: report, provenance: record });
+  const junit =
+    options.junit === undefined
+      ? null
+      : writeJunit(io, options.junit, inputs, { name: design.name, verdict, mc: report, provenance: record });
   if (options.histogram !== undefined) {
     // The SVG stack loads only when a histogram is asked for.
     const { renderHistogram } = await import('../../render/svg/histogram.js');
@@ -125,35 +170,85 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
     const corner = report.corners[subject.corner]!.name;
     const subtitle = `${samples} dies, seed ${seed}, local mismatch (Pelgrom)`;
     if (subject.kind === 'dead-times') {
-      emit(io, withRunMetadata(renderHistogram({
-        title: `${design.name}: dead times at ${corner}`, subtitle, axis: '50 % dead time',
-        series: mc.deadTimes[subject.corner]!.map((histogram, k) => ({ label: subject.deadTimes[k]?.name ?? `dead ${k}`, histogram, mean: subject.deadTimes[k]?.mean, sigma: subject.deadTimes[k]?.sigma })),
-        requirement: design.requirements.deadTime?.min,
-        maximum: design.requirements.deadTime?.max,
-      }), verdict, record), options.histogram, inputs, '--histogram');
+      emit(
+        io,
+        withRunMetadata(
+          renderHistogram({
+            title: `${design.name}: dead times at ${corner}`,
+            subtitle,
+            axis: '50 % dead time',
+            series: mc.deadTimes[subject.corner]!.map((histogram, k) => ({
+              label: subject.deadTimes[k]?.name ?? `dead ${k}`,
+              histogram,
+              mean: subject.deadTimes[k]?.mean,
+              sigma: subject.deadTimes[k]?.sigma,
+            })),
+            requirement: design.requirements.deadTime?.min,
+            maximum: design.requirements.deadTime?.max,
+          }),
+          verdict,
+          record,
+        ),
+        options.histogram,
+        inputs,
+        '--histogram',
+      );
     } else {
       const { checkMarginHistogram } = await import('../../analysis/check-histogram.js');
       const { marginUnit } = await import('../../checks/check.js');
       const q = subject.check;
-      emit(io, withRunMetadata(renderHistogram({
-        title: `${design.name}: check margin at ${corner}`,
-        subtitle: `${subtitle}; ${q.failures ?? 0} of ${samples} dies fail this check here`,
-        // Monte Carlo dies skip the circuit solve, so a drawn check is a time or a voltage.
-        axis: 'margin (below 0 fails)', unit: marginUnit(q.kind) === 'V' ? 'V' : 's', requirement: 0,
-        series: [{ label: q.name, histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name), mean: q.mean, sigma: q.sigma }],
-      }), verdict, record), options.histogram, inputs, '--histogram');
+      emit(
+        io,
+        withRunMetadata(
+          renderHistogram({
+            title: `${design.name}: check margin at ${corner}`,
+            subtitle: `${subtitle}; ${q.failures ?? 0} of ${samples} dies fail this check here`,
+            // Monte Carlo dies skip the circuit solve, so a drawn check is a time or a voltage.
+            axis: 'margin (below 0 fails)',
+            unit: marginUnit(q.kind) === 'V' ? 'V' : 's',
+            requirement: 0,
+            series: [
+              {
+                label: q.name,
+                histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name),
+                mean: q.mean,
+                sigma: q.sigma,
+              },
+            ],
+          }),
+          verdict,
+          record,
+        ),
+        options.histogram,
+        inputs,
+        '--histogram',
+      );
     }
   }
-  const invocation = ['phasegap', 'mc', designPath, ...options.set.flatMap((s) => ['--set', s]), ...(options.model === undefined ? [] : ['--model', options.model]), ...(options.tables === undefined ? [] : ['--tables', options.tables])];
-  emit(io, options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report, invocation), verdict, record), options.out, inputs);
+  const invocation = [
+    'phasegap',
+    'mc',
+    designPath,
+    ...options.set.flatMap((s) => ['--set', s]),
+    ...(options.model === undefined ? [] : ['--model', options.model]),
+    ...(options.tables === undefined ? [] : ['--tables', options.tables]),
+  ];
+  emit(
+    io,
+    options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderMcText(report, invocation), verdict, record),
+    options.out,
+    inputs,
+  );
   junit?.();
   if (options.timings) {
     const evaluations = samples * resolved.corners.length;
     const used = Math.min(threads, plan.length);
     const seconds = (from: number, to: number) => ((to - from) / 1000).toFixed(3);
-    io.stderr(`phasegap: timings: setup ${seconds(started, evaluating)} s, evaluation ${seconds(evaluating, reporting)} s `
-      + `(${evaluations} evaluations on ${used} thread${used === 1 ? '' : 's'}, ${Math.round(evaluations / ((reporting - evaluating) / 1000))}/s), `
-      + `report ${seconds(reporting, performance.now())} s\n`);
+    io.stderr(
+      `phasegap: timings: setup ${seconds(started, evaluating)} s, evaluation ${seconds(evaluating, reporting)} s ` +
+        `(${evaluations} evaluations on ${used} thread${used === 1 ? '' : 's'}, ${Math.round(evaluations / ((reporting - evaluating) / 1000))}/s), ` +
+        `report ${seconds(reporting, performance.now())} s\n`,
+    );
   }
   return verdict.verdict === 'pass' ? 0 : 1;
 }

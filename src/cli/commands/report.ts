@@ -24,21 +24,28 @@ import { DESIGN_ARGUMENT, SET_OPTION, outOption, seedOption, toleranceOption } f
 export const REPORT_FORMATS = ['html', 'md'] as const;
 
 function parseFormat(text: string, flag: string): (typeof REPORT_FORMATS)[number] {
-  if (!(REPORT_FORMATS as readonly string[]).includes(text)) throw inputError('option.invalid', flag, text, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
+  if (!(REPORT_FORMATS as readonly string[]).includes(text))
+    throw inputError('option.invalid', flag, text, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
   return text as (typeof REPORT_FORMATS)[number];
 }
 
 const OPTIONS = {
   set: SET_OPTION,
-  format: parsedOption('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", parseFormat, { default: 'html' }),
+  format: parsedOption('--format <FORMAT>', "'html' (one self-contained file) or 'md' (Markdown with the SVGs beside it)", parseFormat, {
+    default: 'html',
+  }),
   fmax: flagOption('--no-fmax', 'skip the maximum-frequency search'),
   tune: flagOption('--no-tune', 'skip the delay-chain proposals (nand/nor templates)'),
   confirm: textOption('--confirm <WHICH>', 'add ngspice against the model at these corners: worst, all, or names separated by commas'),
   tolerance: toleranceOption('with --confirm: largest allowed relative difference (default: requirements.confirmTolerance, else 10 %)'),
-  models: textOption('--models <FILE>', 'with --confirm: SPICE model file instead of the card\'s spice.models'),
+  models: textOption('--models <FILE>', "with --confirm: SPICE model file instead of the card's spice.models"),
   ngspice: textOption('--ngspice <PATH>', 'with --confirm: the ngspice executable (default: ngspice on the PATH)'),
-  mc: parsedOption('--mc <N>', 'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)',
-    wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' }), { fallback: 0 }),
+  mc: parsedOption(
+    '--mc <N>',
+    'add a Monte Carlo section with N dies per corner (yield, sigma margins, dead-time histogram)',
+    wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' }),
+    { fallback: 0 },
+  ),
   seed: seedOption('Monte Carlo seed (default: montecarlo.seed, else 1)'),
   out: outOption('the report'),
 } as const;
@@ -82,7 +89,12 @@ export async function runReport(io: Io, designPath: string, options: CommandOpti
   const { buildReportModel } = await import('../../render/report-model.js');
   const { withRunMetadata } = await import('../../render/svg/metadata.js');
   if (options.format === 'md' && out === '-') {
-    throw inputError('option.invalid', '--out', out, 'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file');
+    throw inputError(
+      'option.invalid',
+      '--out',
+      out,
+      'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file',
+    );
   }
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const resolved = loaded.resolved;
@@ -96,19 +108,43 @@ export async function runReport(io: Io, designPath: string, options: CommandOpti
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);
-  const confirm = options.confirm === undefined ? null
-    : confirmCorners(io, resolved, loaded.cardDir, { corners: options.confirm, cornersFlag: '--confirm', tolerance: options.tolerance, models: options.models, ngspice: options.ngspice });
-  const provenance = gatherProvenance(io, loaded, { model: resolved.model.name, options, simulator: confirm?.simulator ?? null, spice: confirm !== null });
+  const confirm =
+    options.confirm === undefined
+      ? null
+      : confirmCorners(io, resolved, loaded.cardDir, {
+          corners: options.confirm,
+          cornersFlag: '--confirm',
+          tolerance: options.tolerance,
+          models: options.models,
+          ngspice: options.ngspice,
+        });
+  const provenance = gatherProvenance(io, loaded, {
+    model: resolved.model.name,
+    options,
+    simulator: confirm?.simulator ?? null,
+    spice: confirm !== null,
+  });
   const built = buildReportModel(resolved, results, {
-    processSource: loaded.processSource, fmax, fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
+    processSource: loaded.processSource,
+    fmax,
+    fmaxNote: options.fmax ? '' : 'skipped with --no-fmax',
     mc: dies > 0 ? await monteCarloSection(resolved, dies, seed) : null,
-    tune: options.tune && loaded.design.generator.template !== 'netlist'
-      ? tuneReport(loaded.design.name, loaded.design.clock.frequency, resolved.corners.length, tuneChains(loaded.design, loaded.card, resolved.model), 3)
-      : null,
+    tune:
+      options.tune && loaded.design.generator.template !== 'netlist'
+        ? tuneReport(
+            loaded.design.name,
+            loaded.design.clock.frequency,
+            resolved.corners.length,
+            tuneChains(loaded.design, loaded.card, resolved.model),
+            3,
+          )
+        : null,
     confirm,
     provenance,
   });
-  const model = built.mc ? { ...built, mc: { ...built.mc, histogram: withRunMetadata(built.mc.histogram, built.verdict, provenance) } } : built;
+  const model = built.mc
+    ? { ...built, mc: { ...built.mc, histogram: withRunMetadata(built.mc.histogram, built.verdict, provenance) } }
+    : built;
   const code = model.verdict.verdict === 'pass' ? 0 : 1;
   if (options.format === 'html') {
     emit(io, renderHtmlReport(model), out, inputs);

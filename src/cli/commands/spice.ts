@@ -39,7 +39,12 @@ export function runSpice(io: Io, designPath: string, options: CommandOptions<typ
   const cornerSpec = options.corner ?? 'worst';
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   if (cornerSpec === 'all' || cornerSpec.includes(',')) {
-    throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several');
+    throw inputError(
+      'option.invalid',
+      '--corner',
+      cornerSpec,
+      'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several',
+    );
   }
   const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;
   const absolute = modelFile(card, cardDir, options.models);
@@ -50,6 +55,10 @@ export function runSpice(io: Io, designPath: string, options: CommandOptions<typ
   // The first line of a deck is its title; the record follows it as comment lines.
   const [title, ...rest] = deck.text.split('\n');
   emit(io, [title, ...record.map(spiceComment), ...rest].join('\n'), options.out, inputs);
-  if (toFile) noteTo(io, `wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}`);
+  if (toFile)
+    noteTo(
+      io,
+      `wrote ${options.out} (${corner.name}, ${deck.quantities.length} measurements); run: ${shellCommand(['ngspice', '-b', options.out!])}`,
+    );
   return 0;
 }

@@ -18,7 +18,10 @@ import { DESIGN_ARGUMENT, SET_OPTION, jsonOption, outOption, workersOption } fro
 
 const OPTIONS = {
   set: SET_OPTION,
-  vary: listOption('--vary <AXIS=VALUES>', 'an axis: process|vdd|temperature|duty or a design path (clock.frequency, generator.stages, loads.p1, switches[0].w), with a list a,b,c or a range START:STOP:N (repeatable: a grid)'),
+  vary: listOption(
+    '--vary <AXIS=VALUES>',
+    'an axis: process|vdd|temperature|duty or a design path (clock.frequency, generator.stages, loads.p1, switches[0].w), with a list a,b,c or a range START:STOP:N (repeatable: a grid)',
+  ),
   workers: workersOption('threads (default: the number of cores); rows do not depend on it'),
   json: jsonOption('write a JSON array instead of CSV'),
   out: outOption('the rows'),
@@ -54,7 +57,13 @@ function checkAxes(setup: SweepSetup): SweepColumns {
 }
 
 export async function runSweep(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): Promise<number> {
-  if (options.vary.length === 0) throw inputError('option.invalid', '--vary', undefined, 'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5');
+  if (options.vary.length === 0)
+    throw inputError(
+      'option.invalid',
+      '--vary',
+      undefined,
+      'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5',
+    );
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design } = loaded;
   const inputs = inputFiles(loaded, options);
@@ -64,10 +73,20 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
   const threads = options.workers;
   for (const axis of axes) {
     if ((CORNER_AXES as readonly string[]).includes(axis.path) && design.corners.list) {
-      throw inputError('option.invalid', `--vary ${axis.path}`, axis.path, 'cannot vary a corner axis when the design lists its corners explicitly (corners.list)');
+      throw inputError(
+        'option.invalid',
+        `--vary ${axis.path}`,
+        axis.path,
+        'cannot vary a corner axis when the design lists its corners explicitly (corners.list)',
+      );
     }
   }
-  const setup: SweepSetup = { design: { path: loaded.designPath, text: loaded.designText }, overrides: options.set, axes, model: { model: options.model, tables: options.tables } };
+  const setup: SweepSetup = {
+    design: { path: loaded.designPath, text: loaded.designText },
+    overrides: options.set,
+    axes,
+    model: { model: options.model, tables: options.tables },
+  };
   const columns = checkAxes(setup);
   const out = streamOutput(io, options.out, inputs);
   const bar = progressBar(io, total, 'sweep', !options.json);
@@ -78,8 +97,12 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
     const unlisted = options.json ? [] : unlistedNames(row, columns);
     if (unlisted.length > 0) {
       // Only two or more design axes acting together can give a check that no single axis value gives.
-      throw inputError('option.invalid', '--vary', axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
-        `gives checks no single axis value gives (${unlisted.join('; ')}), so the CSV has no column for them; sweep these axes one at a time, or use --json`);
+      throw inputError(
+        'option.invalid',
+        '--vary',
+        axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
+        `gives checks no single axis value gives (${unlisted.join('; ')}), so the CSV has no column for them; sweep these axes one at a time, or use --json`,
+      );
     }
     out.write(options.json ? jsonRow(row, axes, written === 0) : csvRow(row, columns));
     if (row.verdict === 'fail') failures++;
@@ -89,13 +112,19 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
   // One point per task on the calling thread, so Ctrl-C keeps every row finished before it.
   const parallel = threads > 1 && total > POINTS_PER_TASK;
   const tasks: Array<{ start: number; count: number }> = [];
-  for (let start = 0; start < total; start += parallel ? POINTS_PER_TASK : 1) tasks.push({ start, count: parallel ? Math.min(POINTS_PER_TASK, total - start) : 1 });
+  for (let start = 0; start < total; start += parallel ? POINTS_PER_TASK : 1)
+    tasks.push({ start, count: parallel ? Math.min(POINTS_PER_TASK, total - start) : 1 });
   let end: RunEnd;
   try {
     end = await runParallel<{ start: number; count: number }, SweepRow[]>({
-      setup: { kind: 'sweep', ...setup }, tasks, threads: parallel ? threads : 1, ordered: true,
+      setup: { kind: 'sweep', ...setup },
+      tasks,
+      threads: parallel ? threads : 1,
+      ordered: true,
       local: (task) => sweepRows(setup, task.start, task.count),
-      onResult: (rows) => { for (const row of rows) emitRow(row); },
+      onResult: (rows) => {
+        for (const row of rows) emitRow(row);
+      },
     });
   } catch (error) {
     bar.stop();
@@ -106,7 +135,8 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
   if (options.json) out.write(written === 0 ? '[]\n' : '\n]\n');
   out.finish();
   // Column labels and units beside a CSV file: the header itself holds only notebook keys.
-  if (!options.json && options.out !== undefined && options.out !== '-') io.writeFile(`${options.out}.columns.json`, csvColumnsJson(axes, columns));
+  if (!options.json && options.out !== undefined && options.out !== '-')
+    io.writeFile(`${options.out}.columns.json`, csvColumnsJson(axes, columns));
   if (end === 'interrupted') {
     io.stderr(`phasegap: interrupted after ${written} of ${total} points; the rows written are complete\n`);
     return 130;

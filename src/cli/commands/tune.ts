@@ -41,11 +41,19 @@ const OPTIONS = {
   sizes: textOption('--sizes <LIST>', "stage sizes to try, e.g. 1,2 (default: the design's own, 1 and 2)"),
   maxLoad: textOption('--max-load <C>', 'largest delay capacitor per chain node (default 500fF)'),
   step: textOption('--step <C>', 'resolution of the delay capacitor (default 0.5fF)'),
-  margin: parsedOption('--margin <T>', "headroom every check must keep beyond its requirement, e.g. 50ps (default: the model's band + z sigma of mismatch; 0: just pass)",
-    (text, flag) => quantityOption(flag, text, 's', false, 'must be a time of at least 0, e.g. 50ps')),
+  margin: parsedOption(
+    '--margin <T>',
+    "headroom every check must keep beyond its requirement, e.g. 50ps (default: the model's band + z sigma of mismatch; 0: just pass)",
+    (text, flag) => quantityOption(flag, text, 's', false, 'must be a time of at least 0, e.g. 50ps'),
+  ),
   top: parsedOption('--top <N>', 'proposals to list (default 5)', wholeNumberIn({ min: 1, max: MAX_TOP }), { fallback: 5 }),
   confirm: flagOption('--no-confirm', 'do not simulate the first proposals in ngspice'),
-  confirmTop: parsedOption('--confirm-top <N>', 'proposals to confirm in ngspice at their worst corners (default 3)', wholeNumberIn({ min: 1, max: 20 }), { fallback: 3 }),
+  confirmTop: parsedOption(
+    '--confirm-top <N>',
+    'proposals to confirm in ngspice at their worst corners (default 3)',
+    wholeNumberIn({ min: 1, max: 20 }),
+    { fallback: 3 },
+  ),
   models: textOption('--models <FILE>', "SPICE model file for the confirmation instead of the card's spice.models"),
   ngspice: textOption('--ngspice <PATH>', 'the ngspice executable (default: ngspice on the PATH)'),
   json: jsonOption('print the machine report (SI units)'),
@@ -67,7 +75,12 @@ export const tuneCommand = defineCommand({
  * ngspice on the PATH, or a card without SPICE models. A deck ngspice cannot run leaves that
  * proposal unconfirmed.
  */
-export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, options: { readonly confirm?: boolean; readonly models?: string; readonly ngspice?: string }): { simulate: Simulate | null; note: string } {
+export function tuneSimulator(
+  io: Io,
+  card: ProcessCard,
+  cardDir: string,
+  options: { readonly confirm?: boolean; readonly models?: string; readonly ngspice?: string },
+): { simulate: Simulate | null; note: string } {
   if (options.confirm === false) return { simulate: null, note: 'skipped with --no-confirm' };
   try {
     modelFile(card, cardDir, options.models);
@@ -78,7 +91,12 @@ export function tuneSimulator(io: Io, card: ProcessCard, cardDir: string, option
   }
   const simulate: Simulate = (resolved) => {
     try {
-      const run = confirmCorners(io, resolved, cardDir, { corners: 'worst', models: options.models, ngspice: options.ngspice, quiet: true });
+      const run = confirmCorners(io, resolved, cardDir, {
+        corners: 'worst',
+        models: options.models,
+        ngspice: options.ngspice,
+        quiet: true,
+      });
       return { simulator: run.simulator, corners: run.comparisons };
     } catch (e) {
       if (e instanceof InputError) return null;
@@ -98,21 +116,45 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   const earlyTap = gen.template === 'netlist' ? 0 : gen.earlyTap;
   const space: TuneSpace = {
     ...base,
-    stages: options.stages === undefined ? base.stages
-      : numberList('--stages', options.stages, (n) => Number.isInteger(n) && n >= earlyTap && n <= 64 && n % 2 === 0,
-        `must be even whole numbers from the early tap (${earlyTap}) to 64, separated by commas, e.g. 2,4,6`),
-    stageSizes: options.sizes === undefined ? base.stageSizes
-      : numberList('--sizes', options.sizes, (n) => n > 0 && n <= 1000, 'must be stage sizes above 0 and at most 1000, separated by commas, e.g. 1,2'),
+    stages:
+      options.stages === undefined
+        ? base.stages
+        : numberList(
+            '--stages',
+            options.stages,
+            (n) => Number.isInteger(n) && n >= earlyTap && n <= 64 && n % 2 === 0,
+            `must be even whole numbers from the early tap (${earlyTap}) to 64, separated by commas, e.g. 2,4,6`,
+          ),
+    stageSizes:
+      options.sizes === undefined
+        ? base.stageSizes
+        : numberList(
+            '--sizes',
+            options.sizes,
+            (n) => n > 0 && n <= 1000,
+            'must be stage sizes above 0 and at most 1000, separated by commas, e.g. 1,2',
+          ),
     maxLoad: options.maxLoad === undefined ? base.maxLoad : capacitance('--max-load', options.maxLoad),
     loadStep: options.step === undefined ? base.loadStep : capacitance('--step', options.step),
     headroom: options.margin ?? base.headroom,
   };
-  if (space.loadStep > space.maxLoad) throw inputError('option.invalid', '--step', options.step, `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`);
+  if (space.loadStep > space.maxLoad)
+    throw inputError(
+      'option.invalid',
+      '--step',
+      options.step,
+      `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`,
+    );
   const { top, confirmTop } = options;
   const { simulate, note } = tuneSimulator(io, card, loaded.cardDir, options);
   if (simulate && io.stderrIsTTY && !options.json) noteTo(io, `confirming the first ${confirmTop} proposals in ngspice...`);
   const result = tuneChains(design, card, resolved.model, space, { simulate, confirmTop, top });
   const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top, note);
-  emit(io, options.json ? toJson(report) : renderTuneText(report, designPath, errorBandText(resolved.model.name, card.name)), options.out, inputs);
+  emit(
+    io,
+    options.json ? toJson(report) : renderTuneText(report, designPath, errorBandText(resolved.model.name, card.name)),
+    options.out,
+    inputs,
+  );
   return report.verdict === 'pass' ? 0 : 1;
 }

@@ -19,15 +19,19 @@ const OPTIONS = {
   set: SET_OPTION,
   corner: textOption('--corner <NAME>', 'the corner, e.g. tt/1.8V/27C, or worst (the limiting corner)', { default: 'worst' }),
   testbench: flagOption('--testbench', 'append a testbench that drives the clock and dumps a VCD file', false),
-  periods: parsedOption('--periods <N>', 'clock periods the testbench runs (default 6)',
-    wholeNumberIn({ min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }), { fallback: 6 }),
+  periods: parsedOption(
+    '--periods <N>',
+    'clock periods the testbench runs (default 6)',
+    wholeNumberIn({ min: 3, max: MAX_TESTBENCH_PERIODS, noun: 'clock periods' }),
+    { fallback: 6 },
+  ),
   vcd: textOption('--vcd <FILE>', 'VCD file the testbench writes (default <module>.vcd)'),
   out: outOption('the Verilog'),
 } as const;
 
 export const verilogCommand = defineCommand({
   name: 'verilog',
-  description: 'write a structural Verilog model of the generator with the corner\'s rise/fall gate delays',
+  description: "write a structural Verilog model of the generator with the corner's rise/fall gate delays",
   arguments: [DESIGN_ARGUMENT],
   options: OPTIONS,
   run: (io, [design], options) => runVerilog(io, design, options),
@@ -44,7 +48,8 @@ export function runVerilog(io: Io, designPath: string, options: CommandOptions<t
   const inputs = inputFiles(loaded, options);
   checkOutput(options.out, inputs);
   const cornerSpec = options.corner ?? 'worst';
-  if (cornerSpec === 'all' || cornerSpec.includes(',')) throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner or worst');
+  if (cornerSpec === 'all' || cornerSpec.includes(','))
+    throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner or worst');
   const periods = options.periods;
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;
@@ -60,6 +65,7 @@ export function runVerilog(io: Io, designPath: string, options: CommandOptions<t
     text += verilogTestbench(module, 1 / design.clock.frequency, corner.duty, periods, options.vcd ?? `${module.name}.vcd`);
   }
   emit(io, text, options.out, inputs);
-  if (options.out !== undefined && options.out !== '-') noteTo(io, `wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)`);
+  if (options.out !== undefined && options.out !== '-')
+    noteTo(io, `wrote ${options.out} (${corner.name}, ${resolved.netlist.gateCount} gates)`);
   return 0;
 }

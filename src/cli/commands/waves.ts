@@ -28,7 +28,9 @@ const OPTIONS = {
   corner: textOption('--corner <NAME>', "a corner name like ss/1.62V/125C or 'worst'", { default: 'worst' }),
   nets: parsedOption('--nets <WHICH>', "'phases' or 'all' (internal nets in scope internal)", parseNets, { default: 'phases' }),
   timescale: parsedOption('--timescale <UNIT>', "'1fs' or '10fs'", parseTimescale, { default: '1fs' }),
-  periods: parsedOption('--periods <N>', 'clock periods to dump', wholeNumberIn({ min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' }), { default: '2' }),
+  periods: parsedOption('--periods <N>', 'clock periods to dump', wholeNumberIn({ min: 1, max: MAX_VCD_PERIODS, noun: 'clock periods' }), {
+    default: '2',
+  }),
   out: outOption('the VCD'),
 } as const;
 
@@ -52,15 +54,21 @@ export function runWaves(io: Io, designPath: string, options: CommandOptions<typ
   const index = selection.kind === 'corner' ? selection.index : selection.reference;
   const result = results[index]!;
   if (!result.measurement.ok) {
-    throw inputError('option.invalid', '--corner', result.corner.name, `has no steady state to dump (${result.measurement.reason}); pick another corner`);
+    throw inputError(
+      'option.invalid',
+      '--corner',
+      result.corner.name,
+      `has no steady state to dump (${result.measurement.reason}); pick another corner`,
+    );
   }
   const period = result.simulation.period;
   const text = renderVcd({
     top: design.name,
-    comment: `phasegap waveforms of ${design.name} at corner ${result.corner.name} (${resolved.model.name} model, card ${card.name}): `
-      + `50 % crossings of the steady-state period, repeated ${periods} times; time 0 is the clock's rising 50 % point; `
-      + 'scope switches: 1 while each switch conducts. Model estimate, not a sign-off. '
-      + provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options })).join('; '),
+    comment:
+      `phasegap waveforms of ${design.name} at corner ${result.corner.name} (${resolved.model.name} model, card ${card.name}): ` +
+      `50 % crossings of the steady-state period, repeated ${periods} times; time 0 is the clock's rising 50 % point; ` +
+      'scope switches: 1 while each switch conducts. Model estimate, not a sign-off. ' +
+      provenanceLines(gatherProvenance(io, loaded, { model: resolved.model.name, options })).join('; '),
     version: `phasegap ${VERSION}`,
     timescale,
     end: periods * period,

@@ -11,10 +11,12 @@ function cell(c: CircuitSection['rows'][number]['cells'][number]): string {
 
 export function circuitSectionHtml(s: CircuitSection, output: string): string {
   const head = `<tr>${s.head.map((x) => `<th>${h(x)}</th>`).join('')}</tr>\n<tr class="required">${s.required.map((x) => `<th>${h(x)}</th>`).join('')}</tr>`;
-  const rows = s.rows.map((r) => {
-    const cells = r.cells.length > 0 ? r.cells.map(cell).join('') : `<td colspan="${s.head.length - 2}">-</td>`;
-    return `<tr${r.pass ? '' : ' class="fail"'} data-corner="${h(r.corner)}"><td>${h(r.corner)}</td>${cells}<td class="verdict-cell">${h(r.verdict)}</td></tr>`;
-  }).join('\n');
+  const rows = s.rows
+    .map((r) => {
+      const cells = r.cells.length > 0 ? r.cells.map(cell).join('') : `<td colspan="${s.head.length - 2}">-</td>`;
+      return `<tr${r.pass ? '' : ' class="fail"'} data-corner="${h(r.corner)}"><td>${h(r.corner)}</td>${cells}<td class="verdict-cell">${h(r.verdict)}</td></tr>`;
+    })
+    .join('\n');
   return `<section id="circuit">
 <h2>Circuit: ${h(output)} at every corner</h2>
 <p class="table-note">${h(s.note)}</p>

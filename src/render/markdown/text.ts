@@ -13,18 +13,26 @@ export function markdownText(text: string): string {
   return text
     .replace(LINE_BREAKS, ' ')
     .replace(UNPRINTABLE, '?')
-    .replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;')
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
     .replace(/[\\`*_[\]|~!]/g, (c) => `\\${c}`);
 }
 
 /** Text that starts a line of its own: also no heading, list, quote, rule or indented-code marker. */
 export function markdownLine(text: string): string {
-  return markdownText(text).trimStart().replace(/^([#+\-=])/, '\\$1').replace(/^(\d+)([.)])/, '$1\\$2');
+  return markdownText(text)
+    .trimStart()
+    .replace(/^([#+\-=])/, '\\$1')
+    .replace(/^(\d+)([.)])/, '$1\\$2');
 }
 
 /** A paragraph that may span lines: every line escaped as a line of its own. */
 export function markdownParagraph(text: string): string {
-  return text.split(/\r\n|\n/).map(markdownLine).join('\n');
+  return text
+    .split(/\r\n|\n/)
+    .map(markdownLine)
+    .join('\n');
 }
 
 /** A code span holding the text verbatim (on one line), fenced by more backticks than it contains. */
@@ -37,7 +45,9 @@ export function markdownCode(text: string): string {
 
 /** A relative file name as a link destination: every segment percent-encoded (spaces, brackets, # and ? included). */
 export function markdownUrl(path: string): string {
-  return path.replace(/\p{Cs}/gu, '?').split('/')
+  return path
+    .replace(/\p{Cs}/gu, '?')
+    .split('/')
     .map((segment) => encodeURIComponent(segment).replace(/[()'*!]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`))
     .join('/');
 }

@@ -11,7 +11,12 @@ export interface Tick {
   readonly label: string;
 }
 
-const UNITS: ReadonlyArray<readonly [number, string]> = [[1e-6, 'us'], [1e-9, 'ns'], [1e-12, 'ps'], [1e-15, 'fs']];
+const UNITS: ReadonlyArray<readonly [number, string]> = [
+  [1e-6, 'us'],
+  [1e-9, 'ns'],
+  [1e-12, 'ps'],
+  [1e-15, 'fs'],
+];
 
 /** Ticks of a time scale labelled in one unit chosen for the domain, with the decimals the step needs. */
 export function timeTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {

@@ -41,7 +41,11 @@ export function drawCircuitWaves(root: Svg, w: CircuitWaves, scale: ScaleLinear<
   drawText(g, `Circuit at ${w.corner}`, x0, place.top + 20, { size: SIZE.label, bold: true, className: 'circuit-heading' });
   const noteX = x0 + textWidth(`Circuit at ${w.corner}`, SIZE.label, true) + 12;
   const note = `${place.overlay ? 'the corner drawn as the line; ' : ''}one steady-state period on the time scale above; each row on its own volt axis`;
-  drawText(g, fitText(note, SIZE.small, x1 - noteX, false), noteX, place.top + 20, { size: SIZE.small, fill: MUTED, className: 'circuit-note' });
+  drawText(g, fitText(note, SIZE.small, x1 - noteX, false), noteX, place.top + 20, {
+    size: SIZE.small,
+    fill: MUTED,
+    className: 'circuit-note',
+  });
   w.nodes.forEach((node, i) => {
     const top = place.top + HEADER + i * ROW;
     drawRow(g, w, node, scale, top, place, `${place.prefix}-circuit-${i}`);
@@ -62,11 +66,22 @@ function caption(w: CircuitWaves, node: NodeTrace): string {
   // A plate that swings volts and rests a few nanovolts off ground reads as 0 V.
   const rest = (x: number) => (Math.abs(x) < 1e-4 * (node.max - node.min) ? 0 : x);
   if (node.role !== 'output') return `${node.note} · ${v(rest(node.min))} to ${v(rest(node.max))}`;
-  const packets = w.packets.length === 0 ? '' : ` · charge packet${w.packets.length > 1 ? 's' : ''} ${w.packets.map((p) => `${p.rise >= 0 ? '+' : '-'}${v(Math.abs(p.rise))}`).join(', ')}`;
+  const packets =
+    w.packets.length === 0
+      ? ''
+      : ` · charge packet${w.packets.length > 1 ? 's' : ''} ${w.packets.map((p) => `${p.rise >= 0 ? '+' : '-'}${v(Math.abs(p.rise))}`).join(', ')}`;
   return `output · mean ${v(w.output)} · ripple ${v(w.ripple)} peak to peak${packets}`;
 }
 
-function drawRow(g: G, w: CircuitWaves, node: NodeTrace, scale: ScaleLinear<number, number>, top: number, place: CircuitWavesPlace, clipId: string): void {
+function drawRow(
+  g: G,
+  w: CircuitWaves,
+  node: NodeTrace,
+  scale: ScaleLinear<number, number>,
+  top: number,
+  place: CircuitWavesPlace,
+  clipId: string,
+): void {
   const [x0, x1] = scale.range() as [number, number];
   const plotTop = top + PLOT_TOP;
   const plotBottom = top + ROW - PLOT_BOTTOM;
@@ -74,10 +89,19 @@ function drawRow(g: G, w: CircuitWaves, node: NodeTrace, scale: ScaleLinear<numb
   const y = scaleLinear().domain([lo, hi]).range([plotBottom, plotTop]);
   const output = node.role === 'output';
   const rg = g.group().attr({
-    class: `circuit-row ${node.role}`, 'data-node': xmlText(node.node), 'data-domain': `${lo} ${hi}`, 'data-plot': `${round(plotBottom)} ${round(plotTop)}`,
-    'data-min': String(node.min), 'data-max': String(node.max), 'data-mean': String(node.mean),
+    class: `circuit-row ${node.role}`,
+    'data-node': xmlText(node.node),
+    'data-domain': `${lo} ${hi}`,
+    'data-plot': `${round(plotBottom)} ${round(plotTop)}`,
+    'data-min': String(node.min),
+    'data-max': String(node.max),
+    'data-mean': String(node.mean),
   });
-  g.root().defs().element('clipPath').attr({ id: clipId }).element('rect')
+  g.root()
+    .defs()
+    .element('clipPath')
+    .attr({ id: clipId })
+    .element('rect')
     .attr({ x: round(x0), y: round(plotTop - 2), width: round(x1 - x0), height: round(plotBottom - plotTop + 4) });
   const ticks = voltTicks(y, 4);
   const axis = rg.group().attr({ class: 'volt-axis' });
@@ -90,17 +114,32 @@ function drawRow(g: G, w: CircuitWaves, node: NodeTrace, scale: ScaleLinear<numb
   axis.line(round(x0), round(plotTop), round(x0), round(plotBottom)).stroke({ color: MUTED, width: 1 });
   const shown = fitText(node.node, SIZE.label, place.labelWidth, output);
   drawText(rg, shown, place.labelRight - 6, top + CAPTION, {
-    size: SIZE.label, anchor: 'end', bold: output, fill: output ? INK : CLOCK, className: 'circuit-label', data: { node: node.node },
+    size: SIZE.label,
+    anchor: 'end',
+    bold: output,
+    fill: output ? INK : CLOCK,
+    className: 'circuit-label',
+    data: { node: node.node },
   });
   if (shown !== node.node) rg.last().element('title').words(xmlText(node.node));
-  drawText(rg, fitText(caption(w, node), SIZE.small, x1 - x0 - 8, false), x0 + 4, top + CAPTION, { size: SIZE.small, fill: MUTED, className: 'circuit-caption' });
+  drawText(rg, fitText(caption(w, node), SIZE.small, x1 - x0 - 8, false), x0 + 4, top + CAPTION, {
+    size: SIZE.small,
+    fill: MUTED,
+    className: 'circuit-caption',
+  });
   const body = rg.group().attr({ 'clip-path': `url(#${clipId})` });
   if (output) drawPackets(body, w, scale, plotTop, plotBottom);
   if (output) {
-    body.line(round(x0), round(y(node.mean)), round(x1), round(y(node.mean))).stroke({ color: MUTED, width: 1, dasharray: '6 4' }).attr({ class: 'mean-line' });
+    body
+      .line(round(x0), round(y(node.mean)), round(x1), round(y(node.mean)))
+      .stroke({ color: MUTED, width: 1, dasharray: '6 4' })
+      .attr({ class: 'mean-line' });
   }
-  body.polyline(points(node.points.map(([t, v]) => [scale(t), y(v)] as [number, number]))).fill('none')
-    .stroke({ color: output ? INK : CLOCK, width: output ? 2 : 1.5, linejoin: 'round' }).attr({ class: 'node-wave', 'data-node': xmlText(node.node) });
+  body
+    .polyline(points(node.points.map(([t, v]) => [scale(t), y(v)] as [number, number])))
+    .fill('none')
+    .stroke({ color: output ? INK : CLOCK, width: output ? 2 : 1.5, linejoin: 'round' })
+    .attr({ class: 'node-wave', 'data-node': xmlText(node.node) });
   if (output && w.ripple > 0) rippleMark(rg, x1 - 8, y(node.max), y(node.min), w.ripple);
 }
 
@@ -110,8 +149,10 @@ function drawPackets(g: G, w: CircuitWaves, scale: ScaleLinear<number, number>, 
       const a = Math.max(0, p.start + k * w.period);
       const b = Math.min(w.period, p.end + k * w.period);
       if (b <= a) continue;
-      g.rect(round(Math.max(1, scale(b) - scale(a))), round(plotBottom - plotTop)).move(round(scale(a)), round(plotTop))
-        .fill(PHASE_TINT[1]).attr({ class: 'charge-packet', 'fill-opacity': 0.8, 'data-rise': String(p.rise) });
+      g.rect(round(Math.max(1, scale(b) - scale(a))), round(plotBottom - plotTop))
+        .move(round(scale(a)), round(plotTop))
+        .fill(PHASE_TINT[1])
+        .attr({ class: 'charge-packet', 'fill-opacity': 0.8, 'data-rise': String(p.rise) });
     }
   }
 }
@@ -124,8 +165,20 @@ function rippleMark(g: G, x: number, yTop: number, yBottom: number, ripple: numb
   m.line(round(x - 5), round(yBottom), round(x + 5), round(yBottom)).stroke(stroke);
   m.line(round(x), round(yTop), round(x), round(yBottom)).stroke(stroke);
   if (yBottom - yTop >= 12) {
-    m.polygon(points([[x, yTop], [x - 2.7, yTop + 6], [x + 2.7, yTop + 6]])).fill(INK);
-    m.polygon(points([[x, yBottom], [x - 2.7, yBottom - 6], [x + 2.7, yBottom - 6]])).fill(INK);
+    m.polygon(
+      points([
+        [x, yTop],
+        [x - 2.7, yTop + 6],
+        [x + 2.7, yTop + 6],
+      ]),
+    ).fill(INK);
+    m.polygon(
+      points([
+        [x, yBottom],
+        [x - 2.7, yBottom - 6],
+        [x + 2.7, yBottom - 6],
+      ]),
+    ).fill(INK);
   }
 }
 
@@ -138,11 +191,29 @@ export interface CircuitLegendEntry {
 export function circuitLegendEntries(w: CircuitWaves | null): CircuitLegendEntry[] {
   if (w === null) return [];
   const out: CircuitLegendEntry[] = [
-    { text: 'node voltage (circuit)', draw: (g, gx, y) => { g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: INK, width: 2 }); } },
-    { text: 'mean output', draw: (g, gx, y) => { g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: MUTED, width: 1, dasharray: '6 4' }); } },
+    {
+      text: 'node voltage (circuit)',
+      draw: (g, gx, y) => {
+        g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: INK, width: 2 });
+      },
+    },
+    {
+      text: 'mean output',
+      draw: (g, gx, y) => {
+        g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: MUTED, width: 1, dasharray: '6 4' });
+      },
+    },
   ];
   if (w.packets.length > 0) {
-    out.push({ text: 'charge packet into the output', draw: (g, gx, y) => { g.rect(24, 12).move(round(gx), round(y + 2)).fill(PHASE_TINT[1]).stroke({ color: PHASE[1], width: 0.5 }); } });
+    out.push({
+      text: 'charge packet into the output',
+      draw: (g, gx, y) => {
+        g.rect(24, 12)
+          .move(round(gx), round(y + 2))
+          .fill(PHASE_TINT[1])
+          .stroke({ color: PHASE[1], width: 0.5 });
+      },
+    });
   }
   return out;
 }

@@ -42,7 +42,10 @@ export function edgeGroups(row: DiagramRow): EdgeGroup[] {
         const t50 = alignNear(r.t50, ref.t50, T);
         if (best === null || Math.abs(t50 - ref.t50) < Math.abs(best.t50 - ref.t50)) best = { ...r, t50 };
       }
-      if (best) { ramps.push(best); corners.push(corner); }
+      if (best) {
+        ramps.push(best);
+        corners.push(corner);
+      }
     }
     const t50s = ramps.map((r) => r.t50);
     return { rising: ref.rising, ramps, corners, t50Min: Math.min(...t50s), t50Max: Math.max(...t50s) };

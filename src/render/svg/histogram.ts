@@ -44,7 +44,11 @@ const PLOT_TOP = 66;
 /** Width kept at a side for a requirement drawn beyond an axis break, px. */
 const EDGE = 52;
 
-interface Bar { readonly x0: number; readonly x1: number; readonly length: number }
+interface Bar {
+  readonly x0: number;
+  readonly x1: number;
+  readonly length: number;
+}
 
 /**
  * The drawn bars: about BINS bins at round thresholds over the domain (as d3's bin would choose),
@@ -110,29 +114,44 @@ export function renderHistogram(input: HistogramInput): string {
       { value: input.maximum, label: 'required <=', lower: false },
     ].filter((l): l is { value: number; label: string; lower: boolean } => l.value !== undefined);
     const near = limits.filter((l) => l.value > lo - NEAR * spread && l.value < hi + NEAR * spread);
-    for (const l of near) { lo = Math.min(lo, l.value); hi = Math.max(hi, l.value); }
+    for (const l of near) {
+      lo = Math.min(lo, l.value);
+      hi = Math.max(hi, l.value);
+    }
     const far = limits.filter((l) => !near.includes(l));
     const farBelow = far.some((l) => l.value < lo);
     const farAbove = far.some((l) => l.value > hi);
     const pad = Math.max(hi - lo, 1e-12) * 0.08;
     const left = MARGIN.left + (farBelow ? EDGE : 0);
     const right = WIDTH - MARGIN.right - (farAbove ? EDGE : 0);
-    const x = scaleLinear().domain([lo - pad, hi + pad]).range([left, right]);
+    const x = scaleLinear()
+      .domain([lo - pad, hi + pad])
+      .range([left, right]);
     const bins = bars(h, x.domain() as [number, number]);
     const most = Math.max(1, ...bins.map((b) => b.length));
-    const y = scaleLinear().domain([0, most]).range([top + PANEL, top + PLOT_TOP]);
+    const y = scaleLinear()
+      .domain([0, most])
+      .range([top + PANEL, top + PLOT_TOP]);
     for (const t of y.ticks(4)) {
       g.line(MARGIN.left, round(y(t)), WIDTH - MARGIN.right, round(y(t))).stroke({ color: GRID, width: 1 });
       drawText(g, String(t), MARGIN.left - 8, y(t) + 4, { size: SIZE.tick, anchor: 'end', fill: MUTED });
     }
-    drawText(g, 'dies per bin', 24, (top + PLOT_TOP + top + PANEL) / 2, { size: SIZE.tick, anchor: 'middle', fill: MUTED, rotate: -90, className: 'y-label' });
+    drawText(g, 'dies per bin', 24, (top + PLOT_TOP + top + PANEL) / 2, {
+      size: SIZE.tick,
+      anchor: 'middle',
+      fill: MUTED,
+      rotate: -90,
+      className: 'y-label',
+    });
     for (const b of bins) {
       if (b.length === 0) continue;
       const x0 = x(b.x0);
       const x1 = x(b.x1);
       const below = limits.some((l) => (l.lower ? b.x1 <= l.value : b.x0 >= l.value));
-      g.rect(round(Math.max(1, x1 - x0 - 1)), round(y(0) - y(b.length))).move(round(x0), round(y(b.length)))
-        .fill(below ? hatch : PHASE_TINT[k % 2]!).stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 })
+      g.rect(round(Math.max(1, x1 - x0 - 1)), round(y(0) - y(b.length)))
+        .move(round(x0), round(y(b.length)))
+        .fill(below ? hatch : PHASE_TINT[k % 2]!)
+        .stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 })
         .attr({ class: 'bar', 'data-count': b.length, 'data-fails': below ? 1 : 0 });
     }
     for (const t of x.ticks(6)) {
@@ -140,9 +159,15 @@ export function renderHistogram(input: HistogramInput): string {
       drawText(g, label(t), x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
     }
     g.line(MARGIN.left, top + PANEL, WIDTH - MARGIN.right, top + PANEL).stroke({ color: INK, width: 1 });
-    drawText(g, input.axis ?? (unit === 's' ? '50 % dead time' : 'volts'), (left + right) / 2, top + PANEL + 40, { size: SIZE.tick, anchor: 'middle', fill: MUTED, className: 'x-label' });
+    drawText(g, input.axis ?? (unit === 's' ? '50 % dead time' : 'volts'), (left + right) / 2, top + PANEL + 40, {
+      size: SIZE.tick,
+      anchor: 'middle',
+      fill: MUTED,
+      className: 'x-label',
+    });
     drawText(g, `${series.label}  (${h.count} dies)`, MARGIN.left, top + 10, { size: SIZE.label, bold: true, fill: PHASE[k % 2]! });
-    const moments = series.mean !== undefined && series.sigma !== undefined ? { mean: series.mean, sigma: series.sigma } : histogramMoments(h);
+    const moments =
+      series.mean !== undefined && series.sigma !== undefined ? { mean: series.mean, sigma: series.sigma } : histogramMoments(h);
     if (Number.isFinite(moments.mean)) {
       const [d0, d1] = x.domain() as [number, number];
       const marks = [{ at: moments.mean, name: 'mean', cls: 'mean-marker', dash: undefined as string | undefined }];
@@ -151,29 +176,58 @@ export function renderHistogram(input: HistogramInput): string {
         marks.push({ at: moments.mean + moments.sigma, name: '+\u03c3', cls: 'sigma-marker', dash: '2 3' });
       }
       for (const m of marks.filter((m) => m.at >= d0 && m.at <= d1)) {
-        g.line(round(x(m.at)), top + PLOT_TOP - 4, round(x(m.at)), top + PANEL).stroke({ color: INK, width: m.dash ? 1 : 1.5, dasharray: m.dash })
+        g.line(round(x(m.at)), top + PLOT_TOP - 4, round(x(m.at)), top + PANEL)
+          .stroke({ color: INK, width: m.dash ? 1 : 1.5, dasharray: m.dash })
           .attr({ class: m.cls, 'data-value': m.at });
         drawText(g, m.name, x(m.at), top + PLOT_TOP - 8, { size: SIZE.tick, anchor: 'middle', fill: INK, halo: true });
       }
-      drawText(g, `mean ${label(moments.mean)} \u00b7 \u03c3 ${label(moments.sigma)}`, WIDTH - MARGIN.right, top + 10, { size: SIZE.annotation, anchor: 'end', fill: INK, className: 'moments' });
+      drawText(g, `mean ${label(moments.mean)} \u00b7 \u03c3 ${label(moments.sigma)}`, WIDTH - MARGIN.right, top + 10, {
+        size: SIZE.annotation,
+        anchor: 'end',
+        fill: INK,
+        className: 'moments',
+      });
     }
     for (const l of near) {
-      g.line(round(x(l.value)), top + PLOT_TOP, round(x(l.value)), top + PANEL).stroke({ color: FAIL, width: 2, dasharray: '6 4' }).attr({ class: 'requirement' });
+      g.line(round(x(l.value)), top + PLOT_TOP, round(x(l.value)), top + PANEL)
+        .stroke({ color: FAIL, width: 2, dasharray: '6 4' })
+        .attr({ class: 'requirement' });
       const toRight = x(l.value) < (MARGIN.left + WIDTH) / 2;
-      drawText(g, `${l.label} ${label(l.value)}`, x(l.value) + (toRight ? 6 : -6), top + PLOT_TOP + 14, { size: SIZE.annotation, fill: FAIL, halo: true, anchor: toRight ? 'start' : 'end' });
+      drawText(g, `${l.label} ${label(l.value)}`, x(l.value) + (toRight ? 6 : -6), top + PLOT_TOP + 14, {
+        size: SIZE.annotation,
+        fill: FAIL,
+        halo: true,
+        anchor: toRight ? 'start' : 'end',
+      });
     }
     far.forEach((l, j) => {
       const below = l.value < lo;
       const at = below ? MARGIN.left + 12 : WIDTH - MARGIN.right - 12;
-      g.line(at, top + PLOT_TOP, at, top + PANEL).stroke({ color: FAIL, width: 2, dasharray: '6 4' }).attr({ class: 'requirement', 'data-off-scale': 1 });
-      drawText(g, `${l.label} ${label(l.value)}`, at + (below ? 14 : -6), top + PANEL - 6, { size: SIZE.annotation, fill: FAIL, halo: true, anchor: 'start', rotate: -90 });
+      g.line(at, top + PLOT_TOP, at, top + PANEL)
+        .stroke({ color: FAIL, width: 2, dasharray: '6 4' })
+        .attr({ class: 'requirement', 'data-off-scale': 1 });
+      drawText(g, `${l.label} ${label(l.value)}`, at + (below ? 14 : -6), top + PANEL - 6, {
+        size: SIZE.annotation,
+        fill: FAIL,
+        halo: true,
+        anchor: 'start',
+        rotate: -90,
+      });
       const cut = below ? MARGIN.left + EDGE / 2 + 6 : WIDTH - MARGIN.right - EDGE / 2 - 6;
       const brk = g.group().attr({ class: 'axis-break' });
-      brk.rect(8, 12).move(cut - 4, top + PANEL - 6).fill('#ffffff');
+      brk
+        .rect(8, 12)
+        .move(cut - 4, top + PANEL - 6)
+        .fill('#ffffff');
       for (const dx of [-4, 4]) brk.line(cut + dx - 3, top + PANEL + 6, cut + dx + 3, top + PANEL - 6).stroke({ color: INK, width: 1 });
       const distance = below ? (lo0 ?? 0) - l.value : l.value - (hi0 ?? 0);
       const text = `${below ? '\u25c2 ' : ''}${l.label} ${label(l.value)}: off scale, ${label(distance)} ${below ? 'below the least' : 'above the most'} die${below ? '' : ' \u25b8'}`;
-      drawText(g, text, below ? MARGIN.left : WIDTH - MARGIN.right, top + 28 + 16 * j, { size: SIZE.annotation, fill: FAIL, halo: true, anchor: below ? 'start' : 'end' });
+      drawText(g, text, below ? MARGIN.left : WIDTH - MARGIN.right, top + 28 + 16 * j, {
+        size: SIZE.annotation,
+        fill: FAIL,
+        halo: true,
+        anchor: below ? 'start' : 'end',
+      });
     });
   });
   return canvas.finish();

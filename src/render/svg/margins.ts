@@ -8,9 +8,7 @@ import type { G } from '@svgdotjs/svg.js';
 import { scaleSymlog, type ScaleSymLog } from 'd3-scale';
 import type { MarginRow } from '../margins.js';
 import { CIRCUIT_KINDS, marginUnit } from '../../checks/check.js';
-import {
-  CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape,
-} from '../palette.js';
+import { CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape } from '../palette.js';
 import { xmlText } from './xml-text.js';
 import { createCanvas, points, round } from './canvas.js';
 import { defineFailHatch } from './patterns.js';
@@ -70,13 +68,47 @@ function marker(g: G, shape: MarkerShape, x: number, y: number, colour: string, 
   const stroke = { color: colour, width: 1.4 };
   const poly = (pts: Array<[number, number]>) => g.polygon(points(pts)).fill(fill).stroke(stroke).attr({ class: 'marker' });
   switch (shape) {
-    case 'circle': g.circle(2 * r).center(round(x), round(y)).fill(fill).stroke(stroke).attr({ class: 'marker' }); return;
-    case 'square': poly([[x - r * 0.85, y - r * 0.85], [x + r * 0.85, y - r * 0.85], [x + r * 0.85, y + r * 0.85], [x - r * 0.85, y + r * 0.85]]); return;
-    case 'triangle': poly([[x, y - r], [x + r, y + r * 0.8], [x - r, y + r * 0.8]]); return;
-    case 'diamond': poly([[x, y - r * 1.1], [x + r, y], [x, y + r * 1.1], [x - r, y]]); return;
-    case 'nabla': poly([[x - r, y - r * 0.8], [x + r, y - r * 0.8], [x, y + r]]); return;
+    case 'circle':
+      g.circle(2 * r)
+        .center(round(x), round(y))
+        .fill(fill)
+        .stroke(stroke)
+        .attr({ class: 'marker' });
+      return;
+    case 'square':
+      poly([
+        [x - r * 0.85, y - r * 0.85],
+        [x + r * 0.85, y - r * 0.85],
+        [x + r * 0.85, y + r * 0.85],
+        [x - r * 0.85, y + r * 0.85],
+      ]);
+      return;
+    case 'triangle':
+      poly([
+        [x, y - r],
+        [x + r, y + r * 0.8],
+        [x - r, y + r * 0.8],
+      ]);
+      return;
+    case 'diamond':
+      poly([
+        [x, y - r * 1.1],
+        [x + r, y],
+        [x, y + r * 1.1],
+        [x - r, y],
+      ]);
+      return;
+    case 'nabla':
+      poly([
+        [x - r, y - r * 0.8],
+        [x + r, y - r * 0.8],
+        [x, y + r],
+      ]);
+      return;
     case 'cross':
-      g.line(round(x - r), round(y - r), round(x + r), round(y + r)).stroke({ color: colour, width: 1.8 }).attr({ class: 'marker' });
+      g.line(round(x - r), round(y - r), round(x + r), round(y + r))
+        .stroke({ color: colour, width: 1.8 })
+        .attr({ class: 'marker' });
       g.line(round(x - r), round(y + r), round(x + r), round(y - r)).stroke({ color: colour, width: 1.8 });
   }
 }
@@ -109,29 +141,54 @@ interface AxisUnit {
 }
 
 const TIME_AXIS: AxisUnit = {
-  unit: 's', linear: LINEAR_PART, span: 100e-12, decades: [-11, 0], tick: marginTickLabel, signed: signedTime,
-  title: 'margin (symmetric log scale: linear within 10 ps of zero)', label: 'timing checks',
+  unit: 's',
+  linear: LINEAR_PART,
+  span: 100e-12,
+  decades: [-11, 0],
+  tick: marginTickLabel,
+  signed: signedTime,
+  title: 'margin (symmetric log scale: linear within 10 ps of zero)',
+  label: 'timing checks',
 };
 
 const VOLT_AXIS: AxisUnit = {
-  unit: 'V', linear: 10e-3, span: 100e-3, decades: [-2, 1], tick: voltTickLabel, signed: signedVolts,
-  title: 'switch bias margin in volts (off-state, on-state, stress; symmetric log: linear within 10 mV of zero)', label: 'switch bias checks',
+  unit: 'V',
+  linear: 10e-3,
+  span: 100e-3,
+  decades: [-2, 1],
+  tick: voltTickLabel,
+  signed: signedVolts,
+  title: 'switch bias margin in volts (off-state, on-state, stress; symmetric log: linear within 10 mV of zero)',
+  label: 'switch bias checks',
 };
 
 /** The volt block when it also holds the circuit's output and ripple checks. */
 const CIRCUIT_VOLT_AXIS: AxisUnit = {
   ...VOLT_AXIS,
-  title: 'margin in volts (switch bias, circuit output and ripple; symmetric log: linear within 10 mV of zero)', label: 'voltage checks',
+  title: 'margin in volts (switch bias, circuit output and ripple; symmetric log: linear within 10 mV of zero)',
+  label: 'voltage checks',
 };
 
 const CHARGE_AXIS: AxisUnit = {
-  unit: 'C', linear: 10e-15, span: 100e-15, decades: [-14, -9], tick: chargeTickLabel, signed: signedCharge,
-  title: 'lost charge margin per period in coulombs (symmetric log: linear within 10 fC of zero)', label: 'circuit charge checks',
+  unit: 'C',
+  linear: 10e-15,
+  span: 100e-15,
+  decades: [-14, -9],
+  tick: chargeTickLabel,
+  signed: signedCharge,
+  title: 'lost charge margin per period in coulombs (symmetric log: linear within 10 fC of zero)',
+  label: 'circuit charge checks',
 };
 
 const FRACTION_AXIS: AxisUnit = {
-  unit: '', linear: 0.01, span: 0.1, decades: [-2, 0], tick: fractionTickLabel, signed: signedFraction,
-  title: 'efficiency margin in percentage points (symmetric log: linear within 1 % of zero)', label: 'circuit efficiency checks',
+  unit: '',
+  linear: 0.01,
+  span: 0.1,
+  decades: [-2, 0],
+  tick: fractionTickLabel,
+  signed: signedFraction,
+  title: 'efficiency margin in percentage points (symmetric log: linear within 1 % of zero)',
+  label: 'circuit efficiency checks',
 };
 
 /** Signed charge for axis ticks: +100 fC, -1 pC, 0. */
@@ -157,7 +214,6 @@ export function fractionTickLabel(fraction: number): string {
 function signedFraction(fraction: number): string {
   return `${fraction < 0 ? '-' : '+'}${(Math.abs(fraction) * 100).toFixed(1)} %`;
 }
-
 
 /** Signed voltage for axis ticks: +100 mV, -1 V, 0. */
 export function voltTickLabel(volts: number): string {
@@ -205,7 +261,13 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
     drawBlock(root, block.rows, block.axis, { top, bottom, rowHeight, x0, x1, hatch, first: k === 0 }, input.processes);
     top = bottom + AXIS_ROOM;
   }
-  drawLegend(root.group(), input.processes, MARGIN, plotEnd + 2, input.rows.some((r) => r.unmeasured.length > 0));
+  drawLegend(
+    root.group(),
+    input.processes,
+    MARGIN,
+    plotEnd + 2,
+    input.rows.some((r) => r.unmeasured.length > 0),
+  );
   return canvas.finish();
 }
 
@@ -228,13 +290,33 @@ function drawBlock(root: G, rows: readonly MarginRow[], axis: AxisUnit, f: Block
   const scale = scaleSymlog().constant(axis.linear).domain([lo, hi]).range([f.x0, f.x1]);
   const zero = scale(0);
   const bg = block.group().attr({ class: 'chart-background' });
-  bg.rect(round(zero - f.x0), round(Math.max(1, f.bottom - f.top))).move(round(f.x0), f.top).fill(f.hatch).attr({ 'fill-opacity': 0.35, class: 'fail-side' });
-  drawText(bg, `${GLYPH.fail} fails`, zero - 8, f.top - 12, { size: SIZE.small, anchor: 'end', fill: FAIL, bold: true, className: 'side-label' });
+  bg.rect(round(zero - f.x0), round(Math.max(1, f.bottom - f.top)))
+    .move(round(f.x0), f.top)
+    .fill(f.hatch)
+    .attr({ 'fill-opacity': 0.35, class: 'fail-side' });
+  drawText(bg, `${GLYPH.fail} fails`, zero - 8, f.top - 12, {
+    size: SIZE.small,
+    anchor: 'end',
+    fill: FAIL,
+    bold: true,
+    className: 'side-label',
+  });
   drawText(bg, `holds ${GLYPH.pass}`, zero + 8, f.top - 12, { size: SIZE.small, fill: INK, bold: true, className: 'side-label' });
   if (f.first) {
     drawText(bg, 'requirement (margin 0)', zero, f.top - 30, { size: SIZE.small, anchor: 'middle', fill: INK, className: 'zero-label' });
-    drawText(bg, 'check (requirement)', f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
-    drawText(bg, 'worst corner and verdict', f.x1 + 14, f.top - 12, { size: SIZE.small, fill: MUTED, bold: true, className: 'column-head' });
+    drawText(bg, 'check (requirement)', f.x0 - 10, f.top - 12, {
+      size: SIZE.small,
+      anchor: 'end',
+      fill: MUTED,
+      bold: true,
+      className: 'column-head',
+    });
+    drawText(bg, 'worst corner and verdict', f.x1 + 14, f.top - 12, {
+      size: SIZE.small,
+      fill: MUTED,
+      bold: true,
+      className: 'column-head',
+    });
   } else {
     drawText(bg, axis.label, f.x0 - 10, f.top - 12, { size: SIZE.small, anchor: 'end', fill: MUTED, bold: true, className: 'column-head' });
   }
@@ -242,7 +324,10 @@ function drawBlock(root: G, rows: readonly MarginRow[], axis: AxisUnit, f: Block
   rows.forEach((row, i) => {
     drawRow(block.group(), row, i, { top: f.top + i * f.rowHeight, height: f.rowHeight }, scale, processes, f.x0, f.x1, axis);
   });
-  block.line(round(zero), f.top - (f.first ? 22 : 4), round(zero), round(f.bottom)).stroke({ color: INK, width: 2 }).attr({ class: 'zero-line' });
+  block
+    .line(round(zero), f.top - (f.first ? 22 : 4), round(zero), round(f.bottom))
+    .stroke({ color: INK, width: 2 })
+    .attr({ class: 'zero-line' });
 }
 
 function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly number[], y: number, top: number, axis: AxisUnit): void {
@@ -262,17 +347,40 @@ function drawAxis(g: G, scale: ScaleSymLog<number, number>, ticks: readonly numb
   drawText(g, axis.title, (x0 + x1) / 2, y + 38, { size: SIZE.small, anchor: 'middle', fill: MUTED, className: 'axis-title' });
 }
 
-function drawRow(g: G, row: MarginRow, index: number, band: { top: number; height: number }, scale: ScaleSymLog<number, number>,
-  processes: readonly string[], x0: number, x1: number, axis: AxisUnit): void {
+function drawRow(
+  g: G,
+  row: MarginRow,
+  index: number,
+  band: { top: number; height: number },
+  scale: ScaleSymLog<number, number>,
+  processes: readonly string[],
+  x0: number,
+  x1: number,
+  axis: AxisUnit,
+): void {
   g.attr({ class: 'margin-row', 'data-check': row.name, 'data-kind': row.kind });
-  if (index % 2 === 1) g.rect(round(x1 - x0), round(band.height)).move(round(x0), round(band.top)).fill('#f3f4f6').attr({ 'fill-opacity': 0.6 });
+  if (index % 2 === 1)
+    g.rect(round(x1 - x0), round(band.height))
+      .move(round(x0), round(band.top))
+      .fill('#f3f4f6')
+      .attr({ 'fill-opacity': 0.6 });
   const mid = band.top + band.height / 2;
   const fail = row.failing > 0;
   drawText(g, truncate(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, row.requirement ? mid - 1 : mid + 5, {
-    size: SIZE.annotation, anchor: 'end', fill: fail ? FAIL : INK, bold: fail, className: 'check-label', data: { check: row.name },
+    size: SIZE.annotation,
+    anchor: 'end',
+    fill: fail ? FAIL : INK,
+    bold: fail,
+    className: 'check-label',
+    data: { check: row.name },
   });
   if (row.requirement) {
-    drawText(g, truncate(row.requirement, SIZE.small, LABEL_COLUMN - 24), x0 - 10, mid + 12, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'check-requirement' });
+    drawText(g, truncate(row.requirement, SIZE.small, LABEL_COLUMN - 24), x0 - 10, mid + 12, {
+      size: SIZE.small,
+      anchor: 'end',
+      fill: MUTED,
+      className: 'check-requirement',
+    });
   }
   const lanes = Math.max(1, processes.length);
   const laneGap = (band.height - 10) / lanes;
@@ -289,20 +397,36 @@ function drawRow(g: G, row: MarginRow, index: number, band: { top: number; heigh
   }
   if (row.worst) {
     const lane = Math.max(0, processes.indexOf(row.worst.process));
-    g.circle(17).center(round(scale(row.worst.margin)), round(band.top + 5 + laneGap * (lane + 0.5))).fill('none')
-      .stroke({ color: INK, width: 1.5 }).attr({ class: 'worst-ring' });
+    g.circle(17)
+      .center(round(scale(row.worst.margin)), round(band.top + 5 + laneGap * (lane + 0.5)))
+      .fill('none')
+      .stroke({ color: INK, width: 1.5 })
+      .attr({ class: 'worst-ring' });
   }
   const verdict = fail ? `${GLYPH.fail} FAIL at ${row.failing}/${row.corners}` : `${GLYPH.pass} holds at all ${row.corners}`;
   const worst = row.worst ? `${axis.signed(row.worst.margin)} at ${row.worst.corner}` : 'no margin measured';
-  drawText(g, worst, x1 + 14, mid - 2, { size: SIZE.small, fill: INK, className: 'worst-label', data: { margin: row.worst ? String(row.worst.margin) : '' } });
+  drawText(g, worst, x1 + 14, mid - 2, {
+    size: SIZE.small,
+    fill: INK,
+    className: 'worst-label',
+    data: { margin: row.worst ? String(row.worst.margin) : '' },
+  });
   const tail = row.unmeasured.length > 0 ? ` · ${GLYPH.unknown} ${row.unmeasured.length} unmeasured` : '';
-  drawText(g, `${verdict}${tail}`, x1 + 14, mid + 12, { size: SIZE.small, fill: fail ? FAIL : MUTED, bold: fail, className: 'verdict-label' });
+  drawText(g, `${verdict}${tail}`, x1 + 14, mid + 12, {
+    size: SIZE.small,
+    fill: fail ? FAIL : MUTED,
+    bold: fail,
+    className: 'verdict-label',
+  });
 }
 
 /** A boxed question mark: the check has no margin at that corner (and counts as failing there). */
 function unmeasuredMark(g: G, x: number, y: number): G {
   const m = g.group().attr({ class: 'unmeasured-mark' });
-  m.rect(14, 14).move(round(x - 7), round(y - 7)).fill(PAPER).stroke({ color: FAIL, width: 1.2 });
+  m.rect(14, 14)
+    .move(round(x - 7), round(y - 7))
+    .fill(PAPER)
+    .stroke({ color: FAIL, width: 1.2 });
   drawText(m, GLYPH.unknown, x, y + 4.5, { size: SIZE.small, anchor: 'middle', bold: true, fill: FAIL });
   return m;
 }
@@ -319,8 +443,17 @@ function drawLegend(g: G, processes: readonly string[], x: number, y: number, un
   }
   if (unmeasured) {
     unmeasuredMark(g, x + 6, y + 18);
-    drawText(g, 'not measured at that corner (counts as failing)', x + 18, y + 22, { size: SIZE.small, fill: INK, className: 'legend-label' });
+    drawText(g, 'not measured at that corner (counts as failing)', x + 18, y + 22, {
+      size: SIZE.small,
+      fill: INK,
+      className: 'legend-label',
+    });
   }
-  drawText(g, 'filled marker = that corner fails the check; ring = worst corner; a named constraint shows its requirement under its name',
-    x, y + (unmeasured ? 40 : 22), { size: SIZE.small, fill: MUTED, className: 'legend-label legend-note' });
+  drawText(
+    g,
+    'filled marker = that corner fails the check; ring = worst corner; a named constraint shows its requirement under its name',
+    x,
+    y + (unmeasured ? 40 : 22),
+    { size: SIZE.small, fill: MUTED, className: 'legend-label legend-note' },
+  );
 }

@@ -19,10 +19,20 @@ export function dimensionLine(g: G, x0: number, x1: number, y: number, fail: boo
   const lo = Math.min(x0, x1);
   const hi = Math.max(x0, x1);
   const inward = hi - lo >= 2.5 * ARROW;
-  g.line(round(inward ? lo : lo - 3 * ARROW), round(y), round(inward ? hi : hi + 3 * ARROW), round(y))
-    .stroke({ color: colour, width: fail ? 1.8 : 1.2 });
+  g.line(round(inward ? lo : lo - 3 * ARROW), round(y), round(inward ? hi : hi + 3 * ARROW), round(y)).stroke({
+    color: colour,
+    width: fail ? 1.8 : 1.2,
+  });
   const head = (x: number, dir: 1 | -1) =>
-    g.polygon(points([[x, y], [x + dir * ARROW, y - ARROW / 2.2], [x + dir * ARROW, y + ARROW / 2.2]])).fill(colour);
+    g
+      .polygon(
+        points([
+          [x, y],
+          [x + dir * ARROW, y - ARROW / 2.2],
+          [x + dir * ARROW, y + ARROW / 2.2],
+        ]),
+      )
+      .fill(colour);
   head(lo, inward ? 1 : -1);
   head(hi, inward ? -1 : 1);
   g.line(round(lo), round(y - 5), round(lo), round(y + 5)).stroke({ color: colour, width: 1 });

@@ -51,11 +51,18 @@ export function textBox(text: string, x: number, y: number, style: TextStyle): B
 export function drawText(g: G, text: string, x: number, y: number, style: TextStyle): void {
   if (style.ground) {
     const b = textBox(text, x, y, style);
-    g.rect(round(b.x1 - b.x0 + 4), round(b.y1 - b.y0 + 2)).move(round(b.x0 - 2), round(b.y0 - 1)).fill(PAPER).attr({ class: 'label-ground' });
+    g.rect(round(b.x1 - b.x0 + 4), round(b.y1 - b.y0 + 2))
+      .move(round(b.x0 - 2), round(b.y0 - 1))
+      .fill(PAPER)
+      .attr({ class: 'label-ground' });
   }
   const t = g.plain(xmlText(text)).attr({
-    x: round(x), y: round(y), 'font-size': style.size, 'font-family': style.family ?? FONT,
-    fill: style.fill ?? INK, 'text-anchor': style.anchor ?? 'start',
+    x: round(x),
+    y: round(y),
+    'font-size': style.size,
+    'font-family': style.family ?? FONT,
+    fill: style.fill ?? INK,
+    'text-anchor': style.anchor ?? 'start',
   });
   if (style.bold) t.attr('font-weight', 'bold');
   if (style.halo) t.attr({ stroke: '#ffffff', 'stroke-width': 4, 'stroke-linejoin': 'round', 'paint-order': 'stroke' });
@@ -100,7 +107,10 @@ export function wrapLines(text: string, size: number, width: number): string[] {
     } else line = next;
   };
   for (const part of parts) {
-    if (textWidth(part, size) <= width) { push(part, ' · '); continue; }
+    if (textWidth(part, size) <= width) {
+      push(part, ' · ');
+      continue;
+    }
     part.split(' ').forEach((word, i) => {
       push(word, i === 0 ? ' · ' : ' ');
     });

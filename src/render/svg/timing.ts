@@ -11,9 +11,7 @@ import type { TimeWindow } from '../windows.js';
 import { wavePoints } from '../waveform.js';
 import { wrapTime } from '../../measure/wrap-time.js';
 import { formatEngineering, formatPs, formatSignedPs, formatSignedTime, formatTime } from '../../units/format.js';
-import {
-  CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE,
-} from '../palette.js';
+import { CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL, PAPER, PHASE, PHASE_TINT, SIZE } from '../palette.js';
 import { createCanvas, points, round } from './canvas.js';
 import { drawTimeAxis } from './axis.js';
 import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
@@ -95,14 +93,22 @@ function levelY(band: Band, v: number): number {
 
 function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number }, detail: boolean): Layout {
   let y = top;
-  const signal = d.rows.map(() => { const b = { top: y, height: sizes.row }; y += sizes.row; return b; });
+  const signal = d.rows.map(() => {
+    const b = { top: y, height: sizes.row };
+    y += sizes.row;
+    return b;
+  });
   let dead: Band | null = null;
   if (detail && d.deadTimes.length > 0) {
     const marks = Math.max(...d.deadTimes.map((m) => m.marks.length));
     dead = { top: y, height: DETAIL.dead * marks };
     y += dead.height;
   }
-  const switches = d.switches.map(() => { const b = { top: y, height: sizes.lane }; y += sizes.lane; return b; });
+  const switches = d.switches.map(() => {
+    const b = { top: y, height: sizes.lane };
+    y += sizes.lane;
+    return b;
+  });
   const bbm = new Map<string, Band>();
   if (detail) {
     for (const m of d.breakBeforeMake) {
@@ -111,7 +117,13 @@ function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number 
       y += DETAIL.bbm;
     }
   }
-  const settle = detail ? [] : d.settle.map(() => { const b = { top: y, height: SETTLE_LANE }; y += SETTLE_LANE; return b; });
+  const settle = detail
+    ? []
+    : d.settle.map(() => {
+        const b = { top: y, height: SETTLE_LANE };
+        y += SETTLE_LANE;
+        return b;
+      });
   return { signal, switches, dead, bbm, settle, bottom: y };
 }
 
@@ -132,7 +144,14 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const canvas = createCanvas(width, height, title);
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
-  const ctx: Context = { d, root, hatch: defineFailHatch(root, prefix), openHatch: defineOpenFailHatch(root, prefix), prefix, groups: new Map() };
+  const ctx: Context = {
+    d,
+    root,
+    hatch: defineFailHatch(root, prefix),
+    openHatch: defineOpenFailHatch(root, prefix),
+    prefix,
+    groups: new Map(),
+  };
   if (d.mode === 'all') for (const row of d.rows) ctx.groups.set(row.net, edgeGroups(row));
 
   drawTitleBlock(root, runTitle(diagramTitle(d), options.run), width, MARGIN);
@@ -143,16 +162,35 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
   drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
-  if (d.circuit) drawCircuitWaves(root, d.circuit, overviewScale, { top: rows.bottom, labelRight: x0, labelWidth: LABEL_COLUMN - 14, prefix, overlay: d.mode === 'all' });
+  if (d.circuit)
+    drawCircuitWaves(root, d.circuit, overviewScale, {
+      top: rows.bottom,
+      labelRight: x0,
+      labelWidth: LABEL_COLUMN - 14,
+      prefix,
+      overlay: d.mode === 'all',
+    });
   drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
   drawRowLabels(ctx, overview, x0 - 10, false);
 
-  sectionHeading(root, 'Handovers, enlarged', 'same time scale in both panels; ramps drawn with their simulated transition times', MARGIN, detailTop - 36);
+  sectionHeading(
+    root,
+    'Handovers, enlarged',
+    'same time scale in both panels; ramps drawn with their simulated transition times',
+    MARGIN,
+    detailTop - 36,
+  );
   const panelWidth = (x1 - x0 - PANEL_GAP) / 2;
   d.windows.forEach((w, i) => {
     const px0 = x0 + i * (panelWidth + PANEL_GAP);
-    const scale = scaleLinear().domain([w.from, w.to]).range([px0, px0 + panelWidth]);
-    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, { size: SIZE.label, bold: true, className: 'panel-title' });
+    const scale = scaleLinear()
+      .domain([w.from, w.to])
+      .range([px0, px0 + panelWidth]);
+    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, {
+      size: SIZE.label,
+      bold: true,
+      className: 'panel-title',
+    });
     const axis = root.group();
     drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, detail, true);
     drawTimeAxis(axis, scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
@@ -201,18 +239,36 @@ function drawWindowBrackets(ctx: Context, scale: ScaleLinear<number, number>, la
       const a = Math.max(0, w.from + k * T);
       const b = Math.min(T, w.to + k * T);
       if (b <= a) continue;
-      g.rect(round(scale(b) - scale(a)), round(layout.bottom - y)).move(round(scale(a)), round(y)).fill(PANEL).stroke({ color: GRID, width: 1 });
+      g.rect(round(scale(b) - scale(a)), round(layout.bottom - y))
+        .move(round(scale(a)), round(y))
+        .fill(PANEL)
+        .stroke({ color: GRID, width: 1 });
     }
     const centre = scale(Math.min(T, Math.max(0, (w.from + w.to) / 2)));
-    drawText(g, i === 0 ? 'A' : 'B', centre, y - 3, { size: SIZE.small, bold: true, fill: MUTED, anchor: 'middle', className: 'bracket-label' });
+    drawText(g, i === 0 ? 'A' : 'B', centre, y - 3, {
+      size: SIZE.small,
+      bold: true,
+      fill: MUTED,
+      anchor: 'middle',
+      className: 'bracket-label',
+    });
   });
 }
 
 function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, detail: boolean): void {
   const [px0, px1] = scale.range() as [number, number];
   const clipId = `${ctx.prefix}-clip-${name}`;
-  ctx.root.defs().element('clipPath').attr({ id: clipId })
-    .element('rect').attr({ x: round(px0), y: round(layout.signal[0]?.top ?? 0), width: round(px1 - px0), height: round(layout.bottom - (layout.signal[0]?.top ?? 0)) });
+  ctx.root
+    .defs()
+    .element('clipPath')
+    .attr({ id: clipId })
+    .element('rect')
+    .attr({
+      x: round(px0),
+      y: round(layout.signal[0]?.top ?? 0),
+      width: round(px1 - px0),
+      height: round(layout.bottom - (layout.signal[0]?.top ?? 0)),
+    });
   const panel = ctx.root.group().attr({ class: `panel panel-${name}`, 'data-from': String(w.from), 'data-to': String(w.to) });
   const clipped = panel.group().attr({ 'clip-path': `url(#${clipId})` });
   for (const band of layout.signal) {
@@ -247,37 +303,79 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
     const barY = band.top + 24;
     if ('reason' in mark) {
       const ug = g.group().attr({ class: 'settle-mark unmeasured', 'data-path': mark.name, 'data-corner': mark.corner });
-      ug.rect(24, 10).move(round(px0 + 4), round(barY)).fill(ctx.hatch).stroke({ color: FAIL, width: 1 }).attr({ class: 'settle-unmeasured' });
+      ug.rect(24, 10)
+        .move(round(px0 + 4), round(barY))
+        .fill(ctx.hatch)
+        .stroke({ color: FAIL, width: 1 })
+        .attr({ class: 'settle-unmeasured' });
       const [, px1] = scale.range() as [number, number];
-      drawText(ug, truncate(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true), px0 + 4, band.top + 16,
-        { size: SIZE.annotation, fill: FAIL, bold: true, className: 'settle-label', halo: true });
-      drawText(ug, truncate(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, { size: SIZE.small, fill: FAIL, className: 'settle-reason', halo: true });
+      drawText(
+        ug,
+        truncate(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true),
+        px0 + 4,
+        band.top + 16,
+        { size: SIZE.annotation, fill: FAIL, bold: true, className: 'settle-label', halo: true },
+      );
+      drawText(ug, truncate(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, {
+        size: SIZE.small,
+        fill: FAIL,
+        className: 'settle-reason',
+        halo: true,
+      });
       return;
     }
-    const sg = g.group().attr({ class: 'settle-mark', 'data-path': mark.name, 'data-corner': mark.corner, 'data-margin': String(mark.margin) });
+    const sg = g
+      .group()
+      .attr({ class: 'settle-mark', 'data-path': mark.name, 'data-corner': mark.corner, 'data-margin': String(mark.margin) });
     // A window may run past the period's end: draw it in two pieces.
     const pieces = (from: number, to: number): Array<[number, number]> => {
       const a = wrapTime(from, T);
       const b = a + (to - from);
-      return b <= T ? [[a, b]] : [[a, T], [0, b - T]];
+      return b <= T
+        ? [[a, b]]
+        : [
+            [a, T],
+            [0, b - T],
+          ];
     };
     for (const [a, b] of pieces(mark.start, mark.end)) {
-      sg.rect(round(Math.max(1, scale(b) - scale(a))), 10).move(round(scale(a)), round(barY)).fill(PAPER).stroke({ color: INK, width: 1 }).attr({ class: 'settle-window' });
+      sg.rect(round(Math.max(1, scale(b) - scale(a))), 10)
+        .move(round(scale(a)), round(barY))
+        .fill(PAPER)
+        .stroke({ color: INK, width: 1 })
+        .attr({ class: 'settle-window' });
     }
     for (const [a, b] of pieces(mark.start, mark.start + Math.min(mark.needed, T))) {
-      sg.rect(round(Math.max(1, scale(b) - scale(a))), 4).move(round(scale(a)), round(barY + 3))
-        .fill(mark.pass ? INK : ctx.hatch).attr({ class: 'settle-needed' });
+      sg.rect(round(Math.max(1, scale(b) - scale(a))), 4)
+        .move(round(scale(a)), round(barY + 3))
+        .fill(mark.pass ? INK : ctx.hatch)
+        .attr({ class: 'settle-needed' });
     }
     const raw = mark.end - mark.start;
     const usable = mark.margin + mark.needed;
     const worstDuty = Math.abs(raw - usable) > 1e-15 ? ` (${formatTime(usable)} at the worst duty)` : '';
-    const text = `${mark.name}: on together ${formatTime(raw)}${worstDuty}, needs ${formatTime(mark.needed)}, margin ${formatSignedTime(mark.margin)}`
-      + `${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
-    drawText(sg, text, px0 + 4, band.top + 16, { size: SIZE.annotation, fill: mark.pass ? INK : FAIL, bold: !mark.pass, className: 'settle-label', halo: true });
+    const text =
+      `${mark.name}: on together ${formatTime(raw)}${worstDuty}, needs ${formatTime(mark.needed)}, margin ${formatSignedTime(mark.margin)}` +
+      `${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
+    drawText(sg, text, px0 + 4, band.top + 16, {
+      size: SIZE.annotation,
+      fill: mark.pass ? INK : FAIL,
+      bold: !mark.pass,
+      className: 'settle-label',
+      halo: true,
+    });
   });
 }
 
-function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, detail: boolean): void {
+function drawSignalRow(
+  ctx: Context,
+  g: G,
+  row: DiagramRow,
+  band: Band,
+  w: TimeWindow,
+  scale: ScaleLinear<number, number>,
+  detail: boolean,
+): void {
   const colour = rowColour(row);
   const rg = g.group().attr({ class: 'signal-row', 'data-signal': row.net, 'data-role': row.role });
   const toXY = (p: readonly [number, number]): [number, number] => [scale(p[0]), levelY(band, p[1])];
@@ -288,27 +386,48 @@ function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, w: TimeW
         const shift = k * ctx.d.period;
         if (group.t50Max + shift < w.from - ctx.d.period * 0.01 || group.t50Min + shift > w.to + ctx.d.period * 0.01) continue;
         const outline = bandOutline(group).outline.map(([t, v]) => toXY([t + shift, v]));
-        rg.polygon(points(outline)).fill(row.phase !== null ? PHASE_TINT[row.phase] : GRID).stroke({ color: colour, width: 0.8 })
-          .attr({ class: 'edge-band', 'data-t50-min': String(group.t50Min + shift), 'data-t50-max': String(group.t50Max + shift), 'data-corners': String(group.ramps.length) });
+        rg.polygon(points(outline))
+          .fill(row.phase !== null ? PHASE_TINT[row.phase] : GRID)
+          .stroke({ color: colour, width: 0.8 })
+          .attr({
+            class: 'edge-band',
+            'data-t50-min': String(group.t50Min + shift),
+            'data-t50-max': String(group.t50Max + shift),
+            'data-corners': String(group.ramps.length),
+          });
       }
     }
   } else if (row.role === 'phase' || row.role === 'early') {
     const area: Array<[number, number]> = [[scale(w.from), levelY(band, 0)], ...line, [scale(w.to), levelY(band, 0)]];
-    rg.polygon(points(area)).fill(PHASE_TINT[row.phase ?? 0]).attr({ 'fill-opacity': 0.7 });
+    rg.polygon(points(area))
+      .fill(PHASE_TINT[row.phase ?? 0])
+      .attr({ 'fill-opacity': 0.7 });
   }
   const stroke = { color: colour, width: row.role === 'phase' ? 2 : 1.5, linejoin: 'round' as const };
   const poly = rg.polyline(points(line)).fill('none').stroke(stroke).attr({ class: 'wave' });
   const pattern = dash(row.role);
   if (pattern) poly.attr('stroke-dasharray', pattern);
-  if (detail && (row.role === 'phase')) {
+  if (detail && row.role === 'phase') {
     for (const r of row.reference.ramps) {
       const t = inWindow(r.t50, w, row.reference.period);
-      if (t !== null) rg.circle(5).center(round(scale(t)), round(levelY(band, 0.5))).fill(PAPER).stroke({ color: colour, width: 1.5 });
+      if (t !== null)
+        rg.circle(5)
+          .center(round(scale(t)), round(levelY(band, 0.5)))
+          .fill(PAPER)
+          .stroke({ color: colour, width: 1.5 });
     }
   }
 }
 
-function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, detail = false): void {
+function drawSwitchLane(
+  ctx: Context,
+  g: G,
+  s: SwitchRow,
+  band: Band,
+  w: TimeWindow,
+  scale: ScaleLinear<number, number>,
+  detail = false,
+): void {
   const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
   const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
   const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
@@ -331,7 +450,11 @@ function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWin
       const xa = Math.max(scale(w.from) - 2, scale(a + shift));
       const xb = Math.min(scale(w.to) + 2, scale(b + shift));
       if (xb <= xa) return;
-      lg.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(fill).stroke({ color: colour, width: 1, dasharray }).attr({ class: cls });
+      lg.rect(round(xb - xa), round(h))
+        .move(round(xa), round(y))
+        .fill(fill)
+        .stroke({ color: colour, width: 1, dasharray })
+        .attr({ class: cls });
     };
     // Over all corners: a dashed outline where only some corners conduct, then what every corner shares.
     if (spread.on < wide.on || spread.off > wide.off) bar(spread.on, spread.off, PAPER, 'conduction-spread', '3 2');
@@ -345,12 +468,23 @@ function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWin
  * gate holds it off against both terminals, a full-height hatched bar where it does not (the
  * off-state check), with the verdict and margin written in the widest interval that has room.
  */
-function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeWindow, scale: ScaleLinear<number, number>, label: boolean,
-  busy: ReadonlyArray<{ xa: number; xb: number }>): void {
+function drawOffIntervals(
+  ctx: Context,
+  g: G,
+  s: SwitchRow,
+  band: Band,
+  w: TimeWindow,
+  scale: ScaleLinear<number, number>,
+  label: boolean,
+  busy: ReadonlyArray<{ xa: number; xb: number }>,
+): void {
   const off = s.offState;
   if (!off) return;
   const og = g.group().attr({
-    class: off.pass ? 'off-state' : 'off-state fail', 'data-margin': String(off.margin), 'data-corner': off.corner, 'data-phase': off.phase,
+    class: off.pass ? 'off-state' : 'off-state fail',
+    'data-margin': String(off.margin),
+    'data-corner': off.corner,
+    'data-phase': off.phase,
   });
   const h = off.pass ? 3 : Math.min(12, band.height * 0.55);
   const y = band.top + (band.height - h) / 2;
@@ -361,8 +495,11 @@ function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeW
       const xa = Math.max(scale(w.from) - 2, scale(i.start + shift));
       const xb = Math.min(scale(w.to) + 2, scale(i.end + shift));
       if (xb <= xa) continue;
-      og.rect(round(xb - xa), round(h)).move(round(xa), round(y)).fill(off.pass ? FAINT : ctx.hatch)
-        .stroke({ color: off.pass ? MUTED : FAIL, width: 0.5 }).attr({ class: 'off-interval', 'data-state': i.state });
+      og.rect(round(xb - xa), round(h))
+        .move(round(xa), round(y))
+        .fill(off.pass ? FAINT : ctx.hatch)
+        .stroke({ color: off.pass ? MUTED : FAIL, width: 0.5 })
+        .attr({ class: 'off-interval', 'data-state': i.state });
       spans.push({ xa, xb });
     }
   }
@@ -378,19 +515,32 @@ function drawOffIntervals(ctx: Context, g: G, s: SwitchRow, band: Band, w: TimeW
   const width = textWidth(text, SIZE.small, !off.pass);
   // Clear of the conduction bars at both ends of the run.
   if (label && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
-    og.rect(round(width + 8), 13).move(round(widest.xa + OFF_LABEL_GAP), round(band.top + band.height / 2 - 6.5)).fill(PAPER).attr({ class: 'off-state-label-ground' });
-    drawText(og, text, widest.xa + OFF_LABEL_GAP + 4, band.top + band.height / 2 + 4,
-      { size: SIZE.small, fill: off.pass ? MUTED : FAIL, bold: !off.pass, className: 'off-state-label' });
+    og.rect(round(width + 8), 13)
+      .move(round(widest.xa + OFF_LABEL_GAP), round(band.top + band.height / 2 - 6.5))
+      .fill(PAPER)
+      .attr({ class: 'off-state-label-ground' });
+    drawText(og, text, widest.xa + OFF_LABEL_GAP + 4, band.top + band.height / 2 + 4, {
+      size: SIZE.small,
+      fill: off.pass ? MUTED : FAIL,
+      bold: !off.pass,
+      className: 'off-state-label',
+    });
   }
 }
 
 /** The parts of `spans` outside every `busy` interval (where the lane draws a conduction bar). */
-export function withoutBusy(spans: ReadonlyArray<{ xa: number; xb: number }>, busy: ReadonlyArray<{ xa: number; xb: number }>): Array<{ xa: number; xb: number }> {
+export function withoutBusy(
+  spans: ReadonlyArray<{ xa: number; xb: number }>,
+  busy: ReadonlyArray<{ xa: number; xb: number }>,
+): Array<{ xa: number; xb: number }> {
   let out = spans.map((x) => ({ ...x }));
   for (const b of busy) {
     out = out.flatMap((x) => {
       if (b.xb <= x.xa || b.xa >= x.xb) return [x];
-      return [{ xa: x.xa, xb: b.xa }, { xa: b.xb, xb: x.xb }].filter((p) => p.xb > p.xa);
+      return [
+        { xa: x.xa, xb: b.xa },
+        { xa: b.xb, xb: x.xb },
+      ].filter((p) => p.xb > p.xa);
     });
   }
   return out.sort((a, b) => a.xa - b.xa);
@@ -401,7 +551,9 @@ export function offStateText(s: SwitchRow): string {
   const off = s.offState;
   if (!off) return '';
   const volts = off.margin === null ? 'n/a' : `${off.margin < 0 ? '-' : '+'}${formatEngineering(Math.abs(off.margin), 'V')}`;
-  return off.pass ? `off: holds ${volts}` : `${GLYPH.fail} off: FAILS ${volts} in ${off.phase.replace(/^phase /, '')}${/reverse conduction/.test(off.detail) ? ', reverse conduction' : ''}`;
+  return off.pass
+    ? `off: holds ${volts}`
+    : `${GLYPH.fail} off: FAILS ${volts} in ${off.phase.replace(/^phase /, '')}${/reverse conduction/.test(off.detail) ? ', reverse conduction' : ''}`;
 }
 
 function markX(mark: SpanMark, w: TimeWindow, period: number, scale: ScaleLinear<number, number>): { xs: number; xe: number } | null {
@@ -427,8 +579,10 @@ function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
     const bottom = Math.max(a.top + a.height, b.top + b.height);
     const lo = Math.min(x.xs, x.xe);
     const fail = dt.marks.some((m) => !m.pass);
-    g.rect(round(Math.max(1, Math.abs(x.xe - x.xs))), round(bottom - top)).move(round(lo), round(top))
-      .fill(fail ? ctx.hatch : DEAD_ZONE).attr({ class: fail ? 'dead-zone fail' : 'dead-zone' });
+    g.rect(round(Math.max(1, Math.abs(x.xe - x.xs))), round(bottom - top))
+      .move(round(lo), round(top))
+      .fill(fail ? ctx.hatch : DEAD_ZONE)
+      .attr({ class: fail ? 'dead-zone fail' : 'dead-zone' });
   }
 }
 
@@ -441,11 +595,17 @@ function clampCentre(text: string, centre: number, size: number, scale: ScaleLin
 /** A small note under a dimension, wrapped to the panel width (two lines at most fit a lane). */
 function drawNote(g: G, note: string, centre: number, y: number, scale: ScaleLinear<number, number>, pass: boolean): void {
   const [px0, px1] = scale.range() as [number, number];
-  wrapLines(note, SIZE.small, px1 - px0 - 4).slice(0, 2).forEach((line, i) => {
-    drawText(g, line, clampCentre(line, centre, SIZE.small, scale), y + i * 14, {
-      size: SIZE.small, anchor: 'middle', fill: pass ? MUTED : FAIL, className: 'mark-note', ground: true,
+  wrapLines(note, SIZE.small, px1 - px0 - 4)
+    .slice(0, 2)
+    .forEach((line, i) => {
+      drawText(g, line, clampCentre(line, centre, SIZE.small, scale), y + i * 14, {
+        size: SIZE.small,
+        anchor: 'middle',
+        fill: pass ? MUTED : FAIL,
+        className: 'mark-note',
+        ground: true,
+      });
     });
-  });
 }
 
 function roleWord(mark: SpanMark): string {
@@ -463,7 +623,9 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
       if (!x) return;
       const laneTop = layout.dead!.top + k * DETAIL.dead;
       const lineY = laneTop + 24;
-      const mg = g.group().attr({ class: 'dead-time-mark', 'data-from': dt.from, 'data-to': dt.to, 'data-corner': mark.corner, 'data-role': mark.role });
+      const mg = g
+        .group()
+        .attr({ class: 'dead-time-mark', 'data-from': dt.from, 'data-to': dt.to, 'data-corner': mark.corner, 'data-role': mark.role });
       extensionLine(mg, x.xs, levelY(fromBand, 0.5), lineY + 5, !mark.pass);
       extensionLine(mg, x.xe, levelY(toBand, 0.5), lineY + 5, !mark.pass);
       dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
@@ -471,10 +633,14 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
       const centre = (x.xs + x.xe) / 2;
       const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, ground: true };
       drawText(labels, value, clampCentre(value, centre, SIZE.annotation, scale, true), lineY - 6, {
-        ...style, className: 'dead-time-label', data: { from: dt.from, to: dt.to, corner: mark.corner, value: String(mark.value) },
+        ...style,
+        className: 'dead-time-label',
+        data: { from: dt.from, to: dt.to, corner: mark.corner, value: String(mark.value) },
       });
       const second = mark.pass
-        ? mark.role === 'most' ? mark.corner : `${mark.role === 'least' ? `${mark.corner} · ` : ''}clean gap ${psText(dt.gap)}`
+        ? mark.role === 'most'
+          ? mark.corner
+          : `${mark.role === 'least' ? `${mark.corner} · ` : ''}clean gap ${psText(dt.gap)}`
         : `${mark.role === 'single' ? '' : `${mark.corner}: `}${mark.reason}`;
       drawNote(labels, second, centre, lineY + 18, scale, mark.pass);
     });
@@ -497,15 +663,22 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       // The guard (or an order's minimum) may reach past the panel: clip the zones to it.
       const [panelLeft, panelRight] = scale.range() as [number, number];
       const gx = Math.min(scale(mark.start + bbm.guard), panelRight) - x.xs;
-      if (gx > 0) mg.rect(round(gx), 8).move(round(x.xs), round(lineY - 4)).fill(FAINT).attr({ 'fill-opacity': 0.55, class: 'guard' });
+      if (gx > 0)
+        mg.rect(round(gx), 8)
+          .move(round(x.xs), round(lineY - 4))
+          .fill(FAINT)
+          .attr({ 'fill-opacity': 0.55, class: 'guard' });
       if (!mark.pass) {
         const lo = Math.max(panelLeft, Math.min(x.xs, x.xe, x.xs + gx));
         const hi = Math.min(panelRight, Math.max(x.xs, x.xe, x.xs + gx));
         const top = Math.min(fromBand.top, toBand.top);
         const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
         // Stripes without a ground, so the overlapping bars it marks stay visible beneath.
-        mg.rect(round(Math.max(2, hi - lo)), round(bottom - top)).move(round(lo), round(top)).fill(ctx.openHatch)
-          .stroke({ color: FAIL, width: 1.5 }).attr({ class: 'bbm-fail' });
+        mg.rect(round(Math.max(2, hi - lo)), round(bottom - top))
+          .move(round(lo), round(top))
+          .fill(ctx.openHatch)
+          .stroke({ color: FAIL, width: 1.5 })
+          .attr({ class: 'bbm-fail' });
       }
       extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
       extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
@@ -513,10 +686,20 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       const centre = (x.xs + x.xe) / 2;
       const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       drawText(labels, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
-        size: SIZE.annotation, anchor: 'middle', bold: true, fill: mark.pass ? INK : FAIL, className: 'bbm-label', ground: true,
+        size: SIZE.annotation,
+        anchor: 'middle',
+        bold: true,
+        fill: mark.pass ? INK : FAIL,
+        className: 'bbm-label',
+        ground: true,
         data: { from: bbm.from, to: bbm.to, corner: mark.corner, value: String(mark.value), margin: String(mark.margin) },
       });
-      const overlap = mark.value >= 0 ? '' : bbm.kind === 'order' ? `reversed by ${psText(-mark.value)} · ` : `both conduct for ${psText(-mark.value)} · `;
+      const overlap =
+        mark.value >= 0
+          ? ''
+          : bbm.kind === 'order'
+            ? `reversed by ${psText(-mark.value)} · `
+            : `both conduct for ${psText(-mark.value)} · `;
       const required = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
       const note = `${overlap}margin ${signedPs(mark.margin)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
       drawNote(labels, note, centre, lineY + 18, scale, mark.pass);
@@ -538,33 +721,60 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean,
     const band = layout.signal[i]!;
     const text = truncate(row.net, SIZE.label, room, row.role === 'phase');
     drawText(g, text, x, band.top + band.height / 2 + 5, {
-      size: SIZE.label, anchor: 'end', bold: row.role === 'phase', fill: row.phase !== null ? PHASE[row.phase] : INK,
-      className: 'row-label', data: { signal: row.net },
+      size: SIZE.label,
+      anchor: 'end',
+      bold: row.role === 'phase',
+      fill: row.phase !== null ? PHASE[row.phase] : INK,
+      className: 'row-label',
+      data: { signal: row.net },
     });
   });
   ctx.d.switches.forEach((s, i) => {
     const band = layout.switches[i]!;
     const text = truncate(`${s.name} (${s.type})`, SIZE.small, room, false);
-    drawText(g, text, x, band.top + band.height / 2 + 4, { size: SIZE.small, anchor: 'end', fill: INK, className: 'switch-label', data: { switch: s.name } });
+    drawText(g, text, x, band.top + band.height / 2 + 4, {
+      size: SIZE.small,
+      anchor: 'end',
+      fill: INK,
+      className: 'switch-label',
+      data: { switch: s.name },
+    });
 
     if (detail && s.problems.length > 0) {
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
       // Kept inside the first panel; the whole text is the element's tooltip and data.
       const shown = truncate(msg, SIZE.small, panelWidth - 24, false);
-      drawText(g, shown, x + 20, band.top + band.height / 2 + 4, { size: SIZE.small, fill: FAIL, className: 'switch-problem', ground: true, data: { full: msg } });
+      drawText(g, shown, x + 20, band.top + band.height / 2 + 4, {
+        size: SIZE.small,
+        fill: FAIL,
+        className: 'switch-problem',
+        ground: true,
+        data: { full: msg },
+      });
       if (shown !== msg) g.last().element('title').words(xmlText(msg));
     }
   });
   for (const [name, band] of layout.bbm) {
     const kind = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
     drawText(g, kind, x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
-    drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, { size: SIZE.small, anchor: 'end', fill: INK, className: 'bbm-lane-label' });
+    drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, {
+      size: SIZE.small,
+      anchor: 'end',
+      fill: INK,
+      className: 'bbm-lane-label',
+    });
   }
-  if (layout.dead) drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
+  if (layout.dead)
+    drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
   layout.settle.forEach((band, i) => {
     drawText(g, 'settle', x, band.top + 16, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'settle-lane-label' });
-    drawText(g, truncate(ctx.d.settle[i]!.name, SIZE.small, room, false), x, band.top + 31, { size: SIZE.small, anchor: 'end', fill: INK, className: 'settle-lane-label' });
+    drawText(g, truncate(ctx.d.settle[i]!.name, SIZE.small, room, false), x, band.top + 31, {
+      size: SIZE.small,
+      anchor: 'end',
+      fill: INK,
+      className: 'settle-lane-label',
+    });
   });
 }
 
@@ -580,26 +790,89 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
     const l = g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: colour, width: 2 });
     if (dasharray) l.attr('stroke-dasharray', dasharray);
   };
-  for (const p of d.rows.filter((r) => r.role === 'phase')) out.push({ text: `${p.net}, phase ${(p.phase ?? 0) + 1}`, draw: sample(PHASE[p.phase ?? 0]) });
-  if (d.rows.some((r) => r.role === 'complement' || r.role === 'clock-complement')) out.push({ text: 'complement', draw: sample(MUTED, '7 4') });
+  for (const p of d.rows.filter((r) => r.role === 'phase'))
+    out.push({ text: `${p.net}, phase ${(p.phase ?? 0) + 1}`, draw: sample(PHASE[p.phase ?? 0]) });
+  if (d.rows.some((r) => r.role === 'complement' || r.role === 'clock-complement'))
+    out.push({ text: 'complement', draw: sample(MUTED, '7 4') });
   if (d.rows.some((r) => r.role === 'early')) out.push({ text: 'early phase', draw: sample(MUTED, '2 3') });
-  out.push({ text: `${GLYPH.fail} FAIL (hatched)`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(hatch).stroke({ color: FAIL, width: 1 }); } });
+  out.push({
+    text: `${GLYPH.fail} FAIL (hatched)`,
+    draw: (g, gx, y) => {
+      g.rect(24, 10)
+        .move(round(gx), round(y + 3))
+        .fill(hatch)
+        .stroke({ color: FAIL, width: 1 });
+    },
+  });
   if (d.switches.length > 0) {
     const all = d.mode === 'all';
     if (all) {
-      out.push({ text: 'switch conducts at some corners only', draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PAPER).stroke({ color: PHASE[0], width: 1, dasharray: '3 2' }).attr({ class: 'legend-spread' }); } });
+      out.push({
+        text: 'switch conducts at some corners only',
+        draw: (g, gx, y) => {
+          g.rect(24, 10)
+            .move(round(gx), round(y + 3))
+            .fill(PAPER)
+            .stroke({ color: PHASE[0], width: 1, dasharray: '3 2' })
+            .attr({ class: 'legend-spread' });
+        },
+      });
     }
-    out.push({ text: `${all ? 'at every corner, ' : 'switch conducts '}at some signal level`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 }); } });
-    out.push({ text: `${all ? 'at every corner and ' : 'at every '}signal level`, draw: (g, gx, y) => { g.rect(24, 10).move(round(gx), round(y + 3)).fill(PHASE[0]); } });
-    out.push({ text: 'guard time', draw: (g, gx, y) => { g.rect(24, 8).move(round(gx), round(y + 4)).fill(FAINT).attr({ 'fill-opacity': 0.55 }); } });
+    out.push({
+      text: `${all ? 'at every corner, ' : 'switch conducts '}at some signal level`,
+      draw: (g, gx, y) => {
+        g.rect(24, 10)
+          .move(round(gx), round(y + 3))
+          .fill(PHASE_TINT[0])
+          .stroke({ color: PHASE[0], width: 1 });
+      },
+    });
+    out.push({
+      text: `${all ? 'at every corner and ' : 'at every '}signal level`,
+      draw: (g, gx, y) => {
+        g.rect(24, 10)
+          .move(round(gx), round(y + 3))
+          .fill(PHASE[0]);
+      },
+    });
+    out.push({
+      text: 'guard time',
+      draw: (g, gx, y) => {
+        g.rect(24, 8)
+          .move(round(gx), round(y + 4))
+          .fill(FAINT)
+          .attr({ 'fill-opacity': 0.55 });
+      },
+    });
     if (d.switches.some((s) => s.offState)) {
-      out.push({ text: 'must be off: the gate holds it off against both terminals', draw: (g, gx, y) => { g.rect(24, 3).move(round(gx), round(y + 7)).fill(FAINT).stroke({ color: MUTED, width: 0.5 }); } });
+      out.push({
+        text: 'must be off: the gate holds it off against both terminals',
+        draw: (g, gx, y) => {
+          g.rect(24, 3)
+            .move(round(gx), round(y + 7))
+            .fill(FAINT)
+            .stroke({ color: MUTED, width: 0.5 });
+        },
+      });
     }
   }
   out.push(...circuitLegendEntries(d.circuit));
   if (d.mode === 'all') {
-    out.push({ text: `edge band: earliest to latest corner; line: ${d.referenceCorner}`,
-      draw: (g, gx, y) => { g.polygon(points([[gx, y + 14], [gx + 10, y + 2], [gx + 24, y + 2], [gx + 14, y + 14]])).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 0.8 }); } });
+    out.push({
+      text: `edge band: earliest to latest corner; line: ${d.referenceCorner}`,
+      draw: (g, gx, y) => {
+        g.polygon(
+          points([
+            [gx, y + 14],
+            [gx + 10, y + 2],
+            [gx + 24, y + 2],
+            [gx + 14, y + 14],
+          ]),
+        )
+          .fill(PHASE_TINT[0])
+          .stroke({ color: PHASE[0], width: 0.8 });
+      },
+    });
   }
   return out;
 }
@@ -612,7 +885,10 @@ function legendLayout(entries: readonly LegendEntry[], width: number): Array<{ d
   let row = 0;
   return entries.map((e) => {
     const w = 30 + textWidth(e.text, SIZE.small);
-    if (dx > 0 && dx + w > width) { dx = 0; row++; }
+    if (dx > 0 && dx + w > width) {
+      dx = 0;
+      row++;
+    }
     const at = { dx, row };
     dx += w + 22;
     return at;
@@ -649,4 +925,3 @@ function drawLegend(ctx: Context, x: number, y: number, width: number): void {
     drawText(g, n, x, y + rows * LEGEND_ROW + 6 + i * 16, { size: SIZE.small, fill: MUTED, className: 'legend-note' });
   });
 }
-

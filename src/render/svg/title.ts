@@ -40,9 +40,17 @@ export function drawTitleBlock(root: Svg, info: TitleInfo, width: number, margin
   const bx = width - margin - boxW;
   const by = 14;
   const pass = info.pass;
-  g.rect(boxW, boxH).move(round(bx), by).fill(pass ? PAPER : FAIL_TINT).stroke({ color: pass ? INK : FAIL, width: pass ? 1.5 : 2.5 }).attr({ rx: 4 });
+  g.rect(boxW, boxH)
+    .move(round(bx), by)
+    .fill(pass ? PAPER : FAIL_TINT)
+    .stroke({ color: pass ? INK : FAIL, width: pass ? 1.5 : 2.5 })
+    .attr({ rx: 4 });
   drawText(g, `${pass ? GLYPH.pass : GLYPH.fail} ${pass ? 'PASS' : 'FAIL'}`, bx + 14, by + 26, {
-    size: 18, bold: true, fill: pass ? INK : FAIL, className: 'verdict', data: { verdict: pass ? 'pass' : 'fail' },
+    size: 18,
+    bold: true,
+    fill: pass ? INK : FAIL,
+    className: 'verdict',
+    data: { verdict: pass ? 'pass' : 'fail' },
   });
   drawText(g, info.detail, bx + 14, by + 46, { size: SIZE.small, fill: pass ? MUTED : FAIL, className: 'verdict-detail' });
   g.line(margin, 90, width - margin, 90).stroke({ color: '#c9ced6', width: 1 });

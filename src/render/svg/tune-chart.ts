@@ -23,19 +23,61 @@ function marker(g: G, shape: Shape, x: number, y: number, colour: string): void 
   const stroke = { color: colour, width: 1.6 };
   const poly = (pts: Array<[number, number]>) => g.polygon(points(pts)).fill(PAPER).stroke(stroke).attr({ class: 'marker' });
   switch (shape) {
-    case 'dot': g.circle(2 * r).center(round(x), round(y)).fill(FAINT).attr({ class: 'marker' }); return;
-    case 'circle': g.circle(2 * r).center(round(x), round(y)).fill(PAPER).stroke(stroke).attr({ class: 'marker' }); return;
-    case 'square': poly([[x - r * 0.85, y - r * 0.85], [x + r * 0.85, y - r * 0.85], [x + r * 0.85, y + r * 0.85], [x - r * 0.85, y + r * 0.85]]); return;
-    case 'triangle': poly([[x, y - r], [x + r, y + r * 0.8], [x - r, y + r * 0.8]]); return;
-    case 'diamond': poly([[x, y - r * 1.1], [x + r, y], [x, y + r * 1.1], [x - r, y]]); return;
-    case 'nabla': poly([[x - r, y - r * 0.8], [x + r, y - r * 0.8], [x, y + r]]); return;
+    case 'dot':
+      g.circle(2 * r)
+        .center(round(x), round(y))
+        .fill(FAINT)
+        .attr({ class: 'marker' });
+      return;
+    case 'circle':
+      g.circle(2 * r)
+        .center(round(x), round(y))
+        .fill(PAPER)
+        .stroke(stroke)
+        .attr({ class: 'marker' });
+      return;
+    case 'square':
+      poly([
+        [x - r * 0.85, y - r * 0.85],
+        [x + r * 0.85, y - r * 0.85],
+        [x + r * 0.85, y + r * 0.85],
+        [x - r * 0.85, y + r * 0.85],
+      ]);
+      return;
+    case 'triangle':
+      poly([
+        [x, y - r],
+        [x + r, y + r * 0.8],
+        [x - r, y + r * 0.8],
+      ]);
+      return;
+    case 'diamond':
+      poly([
+        [x, y - r * 1.1],
+        [x + r, y],
+        [x, y + r * 1.1],
+        [x - r, y],
+      ]);
+      return;
+    case 'nabla':
+      poly([
+        [x - r, y - r * 0.8],
+        [x + r, y - r * 0.8],
+        [x, y + r],
+      ]);
+      return;
     case 'cross':
-      g.line(round(x - r), round(y - r), round(x + r), round(y + r)).stroke({ color: colour, width: 2 }).attr({ class: 'marker' });
+      g.line(round(x - r), round(y - r), round(x + r), round(y + r))
+        .stroke({ color: colour, width: 2 })
+        .attr({ class: 'marker' });
       g.line(round(x - r), round(y + r), round(x + r), round(y - r)).stroke({ color: colour, width: 2 });
   }
 }
 
-interface Point { readonly x: number; readonly y: number }
+interface Point {
+  readonly x: number;
+  readonly y: number;
+}
 
 function plotted(c: TuneCandidateReport): Point | null {
   const x = c.limiting?.margin;
@@ -60,18 +102,32 @@ export function renderTuneChart(t: TuneReport, idPrefix = 'tune'): string | null
     const pad = Math.max((hi - lo) * 0.08, Math.abs(hi) * 0.02, 1e-12);
     return [lo - pad, hi + pad] as const;
   };
-  const x = scaleLinear().domain(span(all.map((p) => p.x))).range([PLOT.left, PLOT.right]);
-  const y = scaleLinear().domain(span(all.map((p) => p.y))).range([PLOT.bottom, PLOT.top]);
+  const x = scaleLinear()
+    .domain(span(all.map((p) => p.x)))
+    .range([PLOT.left, PLOT.right]);
+  const y = scaleLinear()
+    .domain(span(all.map((p) => p.y)))
+    .range([PLOT.bottom, PLOT.top]);
   const title = `${t.design}: searched delay chains`;
   const canvas = createCanvas(WIDTH, HEIGHT, title);
   const root = canvas.root;
   root.attr({ id: `${idPrefix}-chart` });
   root.rect(WIDTH, HEIGHT).fill(PAPER);
   drawText(root.group(), title, PLOT.left, 30, { size: SIZE.title, bold: true });
-  drawText(root.group(), `${all.length} passing chains: fast-corner margin against slow-corner waste (largest dead time beyond the requirement)`, PLOT.left, 52, { size: SIZE.subtitle, fill: MUTED });
+  drawText(
+    root.group(),
+    `${all.length} passing chains: fast-corner margin against slow-corner waste (largest dead time beyond the requirement)`,
+    PLOT.left,
+    52,
+    { size: SIZE.subtitle, fill: MUTED },
+  );
   const axes = root.group().attr({ class: 'axes' });
   drawTimeAxis(axes, x, PLOT.bottom, PLOT.top, 6);
-  drawText(axes, 'least margin over the corners (fast corner)', (PLOT.left + PLOT.right) / 2, PLOT.bottom + 42, { size: SIZE.label, anchor: 'middle', fill: INK });
+  drawText(axes, 'least margin over the corners (fast corner)', (PLOT.left + PLOT.right) / 2, PLOT.bottom + 42, {
+    size: SIZE.label,
+    anchor: 'middle',
+    fill: INK,
+  });
   for (const tick of timeTicks(y, 5)) {
     const py = y(tick.value);
     axes.line(PLOT.left, round(py), PLOT.right, round(py)).stroke({ color: GRID, width: 1 });

@@ -47,7 +47,10 @@ export function vcdSignals(result: CornerResult, netlist: CompiledNetlist, nets:
     const on = inPeriod(s.on - result.simulation.windowStart, T);
     const off = inPeriod(s.off - result.simulation.windowStart, T);
     const conducting = on < off ? on === 0 : true;
-    const instants = [{ t: on, value: 1 as const }, { t: off, value: 0 as const }];
+    const instants = [
+      { t: on, value: 1 as const },
+      { t: off, value: 0 as const },
+    ];
     signals.push({ scope: ['switches'], name: s.name, initial: conducting && off !== 0 ? 1 : 0, changes: repeat(instants, T, periods) });
   }
   return signals;

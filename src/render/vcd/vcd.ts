@@ -58,7 +58,10 @@ export function vcdName(name: string): string {
  * one line with no `$` at all (removing one `$end` from `$$end` would leave another).
  */
 export function vcdText(text: string): string {
-  return text.replace(/[\t\n\r\v\f\u2028\u2029]/g, ' ').replace(/[^\x20-\x7e]/gu, '?').replace(/\$/g, '_');
+  return text
+    .replace(/[\t\n\r\v\f\u2028\u2029]/g, ' ')
+    .replace(/[^\x20-\x7e]/gu, '?')
+    .replace(/\$/g, '_');
 }
 
 /** Time in timescale units, rounded to the nearest unit. */
@@ -96,7 +99,9 @@ export function renderVcd(doc: VcdDocument): string {
 function declarations(doc: VcdDocument, ids: readonly string[]): string[] {
   const out: string[] = [`$scope module ${vcdName(doc.top)} $end`];
   let open: string[] = [];
-  const order = doc.signals.map((s, i) => ({ s, i })).sort((a, b) => a.s.scope.join('\u0000').localeCompare(b.s.scope.join('\u0000')) || a.i - b.i);
+  const order = doc.signals
+    .map((s, i) => ({ s, i }))
+    .sort((a, b) => a.s.scope.join('\u0000').localeCompare(b.s.scope.join('\u0000')) || a.i - b.i);
   const used = new Set<string>();
   for (const { s, i } of order) {
     let common = 0;

@@ -17,11 +17,34 @@ const sweep: CircuitSweep = {
   designFrequency: f0,
   efficiencyMin: 0.4,
   series: [
-    { corner: 'tt/1.8V/27C', role: 'typical', outputMin: 3.15, outputMax: 3.6,
-      points: factors.map((k, i) => ({ frequency: f0 * k, output: 2.6 + 0.25 * i, efficiency: 0.6 - 0.08 * i, pass: i === 2, outputPass: i >= 2, efficiencyPass: i < 3 })) },
-    { corner: 'ff/<b>&', role: 'worst', outputMin: 3.465, outputMax: 3.96,
-      points: factors.map((k, i) => ({ frequency: f0 * k, output: i === 1 ? null : 3 + 0.2 * i, efficiency: i === 1 ? null : 0.58 - 0.08 * i, pass: i === 1 ? null : true,
-        outputPass: i === 1 ? null : true, efficiencyPass: i === 1 ? null : true })) },
+    {
+      corner: 'tt/1.8V/27C',
+      role: 'typical',
+      outputMin: 3.15,
+      outputMax: 3.6,
+      points: factors.map((k, i) => ({
+        frequency: f0 * k,
+        output: 2.6 + 0.25 * i,
+        efficiency: 0.6 - 0.08 * i,
+        pass: i === 2,
+        outputPass: i >= 2,
+        efficiencyPass: i < 3,
+      })),
+    },
+    {
+      corner: 'ff/<b>&',
+      role: 'worst',
+      outputMin: 3.465,
+      outputMax: 3.96,
+      points: factors.map((k, i) => ({
+        frequency: f0 * k,
+        output: i === 1 ? null : 3 + 0.2 * i,
+        efficiency: i === 1 ? null : 0.58 - 0.08 * i,
+        pass: i === 1 ? null : true,
+        outputPass: i === 1 ? null : true,
+        efficiencyPass: i === 1 ? null : true,
+      })),
+    },
   ],
 };
 const svg = renderCircuitSweepChart({ design: 'pump', output: 'out', sweep });
@@ -30,7 +53,10 @@ const root = parseSvg(svg);
 const centre = (g: Element): [number, number] => {
   const m = g.querySelector('.marker')!;
   if (m.nodeName === 'circle') return [Number(m.getAttribute('cx')), Number(m.getAttribute('cy'))];
-  return [Number(m.getAttribute('x')) + Number(m.getAttribute('width')) / 2, Number(m.getAttribute('y')) + Number(m.getAttribute('height')) / 2];
+  return [
+    Number(m.getAttribute('x')) + Number(m.getAttribute('width')) / 2,
+    Number(m.getAttribute('y')) + Number(m.getAttribute('height')) / 2,
+  ];
 };
 
 describe('renderCircuitSweepChart', () => {
@@ -44,7 +70,9 @@ describe('renderCircuitSweepChart', () => {
   it('plots every computed point with its value, and leaves out the one without a steady state', () => {
     const out = all(root, '.series-output .point');
     expect(out.map((p) => Number(p.getAttribute('data-output')))).toEqual([2.6, 2.85, 3.1, 3.35, 3, 3.4, 3.6]);
-    expect(all(root, '.series-efficiency .point').map((p) => Number(p.getAttribute('data-efficiency')))).toEqual([60, 52, 44, 36, 58, 42, 34].map((v) => expect.closeTo(v, 9)) as unknown as number[]);
+    expect(all(root, '.series-efficiency .point').map((p) => Number(p.getAttribute('data-efficiency')))).toEqual(
+      [60, 52, 44, 36, 58, 42, 34].map((v) => expect.closeTo(v, 9)) as unknown as number[],
+    );
     expect(root.querySelector('.missing-note')!.textContent).toBe('no steady state (not drawn): 10.0 MHz at ff/<b>&');
   });
 
@@ -68,13 +96,24 @@ describe('renderCircuitSweepChart', () => {
 
   it('crosses out the points that miss their own requirement in each panel', () => {
     expect(all(root, '.series-output')[0]!.querySelectorAll('.point').length).toBe(4);
-    expect([...all(root, '.series-output')[0]!.querySelectorAll('.point')].map((p) => p.querySelector('.fail-cross') !== null)).toEqual([true, true, false, false]);
-    expect([...all(root, '.series-efficiency')[0]!.querySelectorAll('.point')].map((p) => p.querySelector('.fail-cross') !== null)).toEqual([false, false, false, true]);
+    expect([...all(root, '.series-output')[0]!.querySelectorAll('.point')].map((p) => p.querySelector('.fail-cross') !== null)).toEqual([
+      true,
+      true,
+      false,
+      false,
+    ]);
+    expect([...all(root, '.series-efficiency')[0]!.querySelectorAll('.point')].map((p) => p.querySelector('.fail-cross') !== null)).toEqual(
+      [false, false, false, true],
+    );
   });
 
   it('draws the requirements at their values', () => {
     expect(all(root, '.requirements line').map((l) => [l.getAttribute('class'), Number(l.getAttribute('data-value'))])).toEqual([
-      ['output-min', 3.15], ['output-max', 3.6], ['output-min', 3.465], ['output-max', 3.96], ['efficiency-min', 0.4],
+      ['output-min', 3.15],
+      ['output-max', 3.6],
+      ['output-min', 3.465],
+      ['output-max', 3.96],
+      ['efficiency-min', 0.4],
     ]);
   });
 });

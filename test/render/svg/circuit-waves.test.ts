@@ -45,7 +45,7 @@ describe('renderTimingSvg with a circuit', () => {
     expect(all(root, '.circuit-label').map((t) => t.textContent)).toEqual(['out', 'top', 'bottom']);
   });
 
-  it('draws the output trace so its lowest and highest points are the solver\'s ripple apart, within a pixel', () => {
+  it("draws the output trace so its lowest and highest points are the solver's ripple apart, within a pixel", () => {
     const row = root.querySelector('.circuit-row.output')!;
     const [lo, hi] = row.getAttribute('data-domain')!.split(' ').map(Number) as [number, number];
     const [bottom, top] = row.getAttribute('data-plot')!.split(' ').map(Number) as [number, number];
@@ -110,8 +110,18 @@ describe('renderTimingSvg with a hostile node name (validation bypassed)', () =>
   const renamed: Design = {
     ...base,
     nodes: { ...others, [hostile]: level! },
-    switches: base.switches.map((s) => ({ ...s, terminals: s.terminals && [rename(s.terminals[0]), rename(s.terminals[1])] as [string, string] })),
-    circuit: { ...base.circuit!, output: hostile, capacitors: base.circuit!.capacitors.map((c) => ({ ...c, between: [rename(c.between[0]), rename(c.between[1])] as [string, string] })) },
+    switches: base.switches.map((s) => ({
+      ...s,
+      terminals: s.terminals && ([rename(s.terminals[0]), rename(s.terminals[1])] as [string, string]),
+    })),
+    circuit: {
+      ...base.circuit!,
+      output: hostile,
+      capacitors: base.circuit!.capacitors.map((c) => ({
+        ...c,
+        between: [rename(c.between[0]), rename(c.between[1])] as [string, string],
+      })),
+    },
   };
   const resolved = resolveDesign(renamed, loadProcess(processCard('generic180')));
   const { svg, root } = drawn(resolved);
