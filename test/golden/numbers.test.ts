@@ -2,19 +2,21 @@ import { describe, expect, it } from 'vitest';
 import { agrees, differences, flatten, goldenNumbers, goldenText, TOLERANCE, type GoldenNumbers } from './numbers.js';
 
 const check = JSON.stringify({
-  corners: [{
-    name: 'tt/1.8V/27C',
-    verdict: 'pass',
-    checks: [
-      { kind: 'dead-time-min', name: 'dead p1->p2 >= 500 ps', margin: 4e-10 },
-      { kind: 'off-state', name: 's1 holds off', margin: 0.3, phase: 'phase p2' },
-      { kind: 'off-state', name: 's1 holds off', margin: 0.2, phase: 'phase p2' },
-    ],
-    deadTimes: [{ from: 'p1', to: 'p2', t50: 9e-10, gap: null }],
-    widths: { p1: 2.4e-8 },
-    overlap: 0,
-    circuit: { method: 'direct', output: 2.98, startupCycles: 25, nested: { a: 1 } },
-  }],
+  corners: [
+    {
+      name: 'tt/1.8V/27C',
+      verdict: 'pass',
+      checks: [
+        { kind: 'dead-time-min', name: 'dead p1->p2 >= 500 ps', margin: 4e-10 },
+        { kind: 'off-state', name: 's1 holds off', margin: 0.3, phase: 'phase p2' },
+        { kind: 'off-state', name: 's1 holds off', margin: 0.2, phase: 'phase p2' },
+      ],
+      deadTimes: [{ from: 'p1', to: 'p2', t50: 9e-10, gap: null }],
+      widths: { p1: 2.4e-8 },
+      overlap: 0,
+      circuit: { method: 'direct', output: 2.98, startupCycles: 25, nested: { a: 1 } },
+    },
+  ],
 });
 
 describe('goldenNumbers', () => {

@@ -25,7 +25,12 @@ export interface GoldenNumbers {
  */
 export const TOLERANCE = { relative: 1e-9, absolute: 1e-18 } as const;
 
-interface CheckJson { kind: string; name: string; margin: number; phase?: string }
+interface CheckJson {
+  kind: string;
+  name: string;
+  margin: number;
+  phase?: string;
+}
 interface CornerJson {
   name: string;
   verdict: string;
@@ -92,9 +97,10 @@ export function differences(actual: GoldenNumbers, golden: GoldenNumbers): strin
 
 function differenceLine(key: string, golden: Pinned | undefined, actual: Pinned | undefined): string {
   const show = (v: Pinned | undefined): string => (v === undefined ? '(none)' : String(v));
-  const change = typeof golden === 'number' && typeof actual === 'number' && golden !== 0
-    ? ` (${((actual - golden) / Math.abs(golden) * 100).toPrecision(3)} %)`
-    : '';
+  const change =
+    typeof golden === 'number' && typeof actual === 'number' && golden !== 0
+      ? ` (${(((actual - golden) / Math.abs(golden)) * 100).toPrecision(3)} %)`
+      : '';
   return `${key}: ${show(golden)} -> ${show(actual)}${change}`;
 }
 

@@ -23,7 +23,11 @@ function report(...argv: string[]): string {
 }
 
 const only = process.env.GOLDEN_ONLY?.split(',');
-const names = readdirSync(DESIGNS).filter((f) => f.endsWith('.yaml')).map((f) => basename(f, '.yaml')).filter((n) => !only || only.includes(n)).sort();
+const names = readdirSync(DESIGNS)
+  .filter((f) => f.endsWith('.yaml'))
+  .map((f) => basename(f, '.yaml'))
+  .filter((n) => !only || only.includes(n))
+  .sort();
 let changed = 0;
 for (const name of names) {
   const path = join('fixtures', 'designs', `${name}.yaml`);
@@ -31,7 +35,9 @@ for (const name of names) {
   const file = join(GOLDEN, `${name}.json`);
   const lines = existsSync(file) ? differences(now, JSON.parse(readFileSync(file, 'utf8')) as GoldenNumbers) : ['(new golden file)'];
   if (lines.length > 0) changed++;
-  process.stdout.write(lines.length === 0 ? `${name}: unchanged\n` : `${name}: ${lines.length} changed\n${lines.map((l) => `  ${l}\n`).join('')}`);
+  process.stdout.write(
+    lines.length === 0 ? `${name}: unchanged\n` : `${name}: ${lines.length} changed\n${lines.map((l) => `  ${l}\n`).join('')}`,
+  );
   writeFileSync(file, goldenText(now));
 }
 process.stdout.write(`${names.length} designs, ${changed} with changed numbers\n`);
