@@ -88,7 +88,7 @@ describe('integrationFiles', () => {
 describe('missingToolsReport', () => {
   it('names each missing program, what happens to their tests and the packages to install', () => {
     expect(missingToolsReport(['xmllint', 'rsvg-convert'], false)).toBe(
-      'integration: missing xmllint, rsvg-convert: 5 test files that need them are skipped; install with `sudo apt-get install libxml2-utils librsvg2-bin` (or `sudo bash .ci/run`)',
+      'integration: missing xmllint, rsvg-convert: 7 test files that need them are skipped; install with `sudo apt-get install libxml2-utils librsvg2-bin` (or `sudo bash .ci/run`)',
     );
     expect(missingToolsReport(['chromium'], true)).toBe(
       'integration: missing chromium: CI is set, so the run fails; install with `sudo apt-get install chromium` (or `sudo bash .ci/run`)',
