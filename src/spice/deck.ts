@@ -188,6 +188,15 @@ function switchLines(
         gates.push(node(device.net));
         continue;
       }
+      // The deck's shifter (level-shifter.ts) shifts up from the core: its latch sits on a high rail above 0 V.
+      if (levelAt(ls.low, vdd) < 0 || levelAt(ls.high, vdd) <= 0) {
+        throw inputError(
+          'value.not-allowed',
+          `switches.${plan.name}.levelShifter`,
+          `${levelAt(ls.low, vdd)} V .. ${levelAt(ls.high, vdd)} V`,
+          'cannot be written at transistor level yet: the deck builds shifters up from the core supply (a high level above 0 V, a low level at or above 0 V); a shifter to a negative rail is not written',
+        );
+      }
       const rails = { vdd: 'vdd', low: bias(levelAt(ls.low, vdd)), high: bias(levelAt(ls.high, vdd)) };
       const size = sizeShifter(
         ls,
