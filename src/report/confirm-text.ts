@@ -1,6 +1,6 @@
 /** The side-by-side table of `phasegap confirm`. */
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
-import { renderTable } from './text-table.js';
+import { renderTable, type Column } from './text-table.js';
 import type { CircuitFigureComparison, CornerComparison } from './confirm-report.js';
 import { RON_TOLERANCE, worstDifference } from './confirm-report.js';
 
@@ -90,20 +90,7 @@ export function renderConfirmText(s: ConfirmSummary): string {
   );
   if (rons.length > 0) {
     out.push(`switch on-resistance (deep triode, gate fully on; tolerance ${(RON_TOLERANCE * 100).toFixed(0)} %):`, '');
-    out.push(
-      renderTable(
-        [
-          { header: 'corner', align: 'left' },
-          { header: 'switch', align: 'left' },
-          { header: 'model', align: 'right' },
-          { header: s.simulator, align: 'right' },
-          { header: 'difference', align: 'right' },
-          { header: 'tolerance', align: 'left' },
-        ],
-        rons,
-      ),
-      '',
-    );
+    out.push(renderTable(comparisonColumns('switch', s.simulator), rons), '');
   }
   out.push(...circuitLines(s));
   for (const c of s.corners) for (const e of c.errors.slice(0, 3)) out.push(`${c.corner}: simulator: ${e}`);
@@ -160,20 +147,7 @@ function circuitLines(s: ConfirmSummary): string[] {
     'circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):',
     '',
   ];
-  out.push(
-    renderTable(
-      [
-        { header: 'corner', align: 'left' },
-        { header: 'figure', align: 'left' },
-        { header: 'model', align: 'right' },
-        { header: s.simulator, align: 'right' },
-        { header: 'difference', align: 'right' },
-        { header: 'tolerance', align: 'left' },
-      ],
-      rows,
-    ),
-    '',
-  );
+  out.push(renderTable(comparisonColumns('figure', s.simulator), rows), '');
   for (const c of corners) {
     const k = c.circuit!;
     const drift = k.drift === null ? 'not measured' : `${formatEngineering(k.drift, 'V')} per period`;
@@ -186,4 +160,16 @@ function circuitLines(s: ConfirmSummary): string[] {
   }
   out.push('');
   return out;
+}
+
+/** Columns of a model-against-simulator table whose rows carry a difference judged against a tolerance. */
+function comparisonColumns(subject: string, simulator: string): Column[] {
+  return [
+    { header: 'corner', align: 'left' },
+    { header: subject, align: 'left' },
+    { header: 'model', align: 'right' },
+    { header: simulator, align: 'right' },
+    { header: 'difference', align: 'right' },
+    { header: 'tolerance', align: 'left' },
+  ];
 }
