@@ -2,15 +2,11 @@
 import { evaluateAll } from '../../analysis/evaluate.js';
 import { resolveDesign } from '../../analysis/resolve.js';
 import { checkReport } from '../../report/check-report.js';
-import { renderCheckText } from '../../report/check-text.js';
 import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
-import { verdictOf } from '../../report/verdict.js';
-import { withRunJson, withRunText } from '../../report/run-record.js';
-import { gatherProvenance } from '../provenance.js';
-import { writeJunit } from '../junit-option.js';
+import { checkOutput, inputFiles } from '../output.js';
+import { emitCornerReport } from '../corner-report-output.js';
 import { warnTo } from '../warn.js';
 import { defineCommand, type CommandOptions } from '../command.js';
 import { DESIGN_ARGUMENT, JUNIT_OPTION, SET_OPTION, jsonOption, outOption } from '../common-options.js';
@@ -40,19 +36,7 @@ export function runCheck(io: Io, designPath: string, options: CheckOptions): num
   checkOutput(options.junit, inputs, '--junit');
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const report = checkReport(resolved, evaluateAll(resolved));
-  const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: CHECK_HINTS });
-  const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
-  const junit =
-    options.junit === undefined
-      ? null
-      : writeJunit(io, options.junit, inputs, { name: design.name, verdict, checks: report, provenance: record });
-  emit(
-    io,
-    options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record),
-    options.out,
-    inputs,
-  );
-  junit?.();
+  const verdict = emitCornerReport(io, loaded, inputs, report, { model: resolved.model.name, hints: CHECK_HINTS, options });
   const hint = options.json ? null : checkHint(report, designPath, design.generator.template !== 'netlist');
   if (hint) io.stderr(`phasegap: hint: ${hint}\n`);
   return verdict.verdict === 'pass' ? 0 : 1;

@@ -2,7 +2,7 @@
 import { chunkPlan, McMerger, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
 import { CornerEvaluator } from '../../analysis/evaluate.js';
 import { checkReport } from '../../report/check-report.js';
-import { renderCheckText } from '../../report/check-text.js';
+import { emitCornerReport } from '../corner-report-output.js';
 import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
 import type { Io } from '../io.js';
@@ -84,19 +84,7 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
     const evaluator = new CornerEvaluator(resolved);
     const results = resolved.corners.map(({ corner }) => evaluator.evaluate(corner, mismatch));
     const report = { ...checkReport(resolved, results), design: `${design.name} (die ${die}, seed ${seed})` };
-    const verdict = verdictOf({ corners: report, mc: null, confirm: null, hints: MC_HINTS });
-    const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
-    const junit =
-      options.junit === undefined
-        ? null
-        : writeJunit(io, options.junit, inputs, { name: report.design, verdict, checks: report, provenance: record });
-    emit(
-      io,
-      options.json ? toJson(withRunJson(report, verdict, record)) : withRunText(renderCheckText(report), verdict, record),
-      options.out,
-      inputs,
-    );
-    junit?.();
+    const verdict = emitCornerReport(io, loaded, inputs, report, { model: resolved.model.name, hints: MC_HINTS, options });
     return verdict.verdict === 'pass' ? 0 : 1;
   }
   for (const [flag, value] of [
