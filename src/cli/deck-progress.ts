@@ -15,7 +15,7 @@ export function runDecksWithProgress(
 ): RunOutput[] {
   const shown = enabled && io.stderrIsTTY;
   const batch = Math.max(1, shown ? options.parallel : decks.length);
-  const bar = progressBar(io, decks.length, label, shown);
+  const bar = progressBar(io, decks.length, label, shown, { everyStep: true });
   const outputs: RunOutput[] = [];
   try {
     for (let at = 0; at < decks.length; at += batch) {

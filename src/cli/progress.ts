@@ -7,7 +7,17 @@ export interface Progress {
   stop(): void;
 }
 
-export function progressBar(io: Io, total: number, label: string, enabled: boolean): Progress {
+/**
+ * `everyStep` draws every update at once: for a few slow steps (ngspice batches) that may each end
+ * sooner than the bar's own redraw interval; without it, updates are drawn at most ten times a second.
+ */
+export function progressBar(
+  io: Io,
+  total: number,
+  label: string,
+  enabled: boolean,
+  options: { readonly everyStep?: boolean } = {},
+): Progress {
   if (!enabled || !io.stderrIsTTY) return { update: () => undefined, stop: () => undefined };
   const bar = new cliProgress.SingleBar(
     {
@@ -22,7 +32,10 @@ export function progressBar(io: Io, total: number, label: string, enabled: boole
   const started = Date.now();
   bar.start(total, 0, { rate: '0' });
   return {
-    update: (done) => bar.update(done, { rate: Math.round(done / Math.max(1e-3, (Date.now() - started) / 1000)).toString() }),
+    update: (done) => {
+      bar.update(done, { rate: Math.round(done / Math.max(1e-3, (Date.now() - started) / 1000)).toString() });
+      if (options.everyStep === true) bar.render();
+    },
     stop: () => bar.stop(),
   };
 }

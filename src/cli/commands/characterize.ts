@@ -142,7 +142,7 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
   const simulator = checkSimulator(options.ngspice);
   const axes = gridAxes(card, GRIDS[grid], size);
   const tables: CornerTables[] = [];
-  const bar = progressBar(io, corners.length, 'characterize', true);
+  const bar = progressBar(io, corners.length, 'characterize', true, { everyStep: true });
   try {
     for (const corner of corners) {
       const decks: CharacterizationDeck[] = characterizationDecks(card, corner, axes, modelPath, cells);
