@@ -37,8 +37,9 @@ const MARGIN = 16;
 const LABEL_COLUMN = 150;
 const PANEL_GAP = 36;
 const TITLE_HEIGHT = 92;
-const OVERVIEW = { row: 26, lane: 16 } as const;
-const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
+/** Height of one dead-time mark's lane and of a break-before-make lane under the handovers, px. */
+const DEAD_LANE = 60;
+const BBM_LANE = 62;
 /** Room between an off-state label and the conduction bars either side of it, px. */
 export const OFF_LABEL_GAP = 10;
 /** Height of a settle-path lane in the whole-period panel, px. */
@@ -74,6 +75,25 @@ interface Layout {
   readonly bottom: number;
 }
 
+/**
+ * What one kind of panel shows. The whole period carries the settle paths and writes each switch's
+ * off-state verdict in its lane; the enlarged handovers carry the dimension marks (dead-time and
+ * break-before-make lanes, dead zones, the phases' 50 % points) and name switches that do not switch.
+ */
+interface PanelKind {
+  /** Class of the panel's row labels. */
+  readonly name: 'overview' | 'detail';
+  /** Height of a signal row and of a switch lane, px. */
+  readonly row: number;
+  readonly lane: number;
+  readonly dimensionMarks: boolean;
+  readonly settleLanes: boolean;
+  readonly offStateLabels: boolean;
+}
+
+const WHOLE_PERIOD: PanelKind = { name: 'overview', row: 26, lane: 16, dimensionMarks: false, settleLanes: true, offStateLabels: true };
+const HANDOVER: PanelKind = { name: 'detail', row: 34, lane: 22, dimensionMarks: true, settleLanes: false, offStateLabels: false };
+
 function rowColour(row: { role: string; phase: 0 | 1 | null }): string {
   if (row.phase !== null) return PHASE[row.phase];
   return row.role === 'internal' ? INTERNAL : CLOCK;
@@ -91,39 +111,39 @@ function levelY(band: Band, v: number): number {
   return lo - v * (lo - hi);
 }
 
-function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number }, detail: boolean): Layout {
+function layoutRows(d: Diagram, top: number, kind: PanelKind): Layout {
   let y = top;
   const signal = d.rows.map(() => {
-    const b = { top: y, height: sizes.row };
-    y += sizes.row;
+    const b = { top: y, height: kind.row };
+    y += kind.row;
     return b;
   });
   let dead: Band | null = null;
-  if (detail && d.deadTimes.length > 0) {
+  if (kind.dimensionMarks && d.deadTimes.length > 0) {
     const marks = Math.max(...d.deadTimes.map((m) => m.marks.length));
-    dead = { top: y, height: DETAIL.dead * marks };
+    dead = { top: y, height: DEAD_LANE * marks };
     y += dead.height;
   }
   const switches = d.switches.map(() => {
-    const b = { top: y, height: sizes.lane };
-    y += sizes.lane;
+    const b = { top: y, height: kind.lane };
+    y += kind.lane;
     return b;
   });
   const bbm = new Map<string, Band>();
-  if (detail) {
+  if (kind.dimensionMarks) {
     for (const m of d.breakBeforeMake) {
       if (bbm.has(m.name)) continue;
-      bbm.set(m.name, { top: y, height: DETAIL.bbm });
-      y += DETAIL.bbm;
+      bbm.set(m.name, { top: y, height: BBM_LANE });
+      y += BBM_LANE;
     }
   }
-  const settle = detail
-    ? []
-    : d.settle.map(() => {
+  const settle = kind.settleLanes
+    ? d.settle.map(() => {
         const b = { top: y, height: SETTLE_LANE };
         y += SETTLE_LANE;
         return b;
-      });
+      })
+    : [];
   return { signal, switches, dead, bbm, settle, bottom: y };
 }
 
@@ -133,12 +153,12 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const x0 = MARGIN + LABEL_COLUMN;
   const x1 = width - MARGIN;
   const overviewTop = TITLE_HEIGHT + 44;
-  const rows = layoutRows(d, overviewTop, OVERVIEW, false);
+  const rows = layoutRows(d, overviewTop, WHOLE_PERIOD);
   // The circuit's node voltages sit under the whole period's lanes, above its time axis.
   const overview = { ...rows, bottom: rows.bottom + circuitWavesHeight(d.circuit) };
-  const detailTop = overview.bottom + AXIS_HEIGHT + 62;
-  const detail = layoutRows(d, detailTop, DETAIL, true);
-  const legendTop = detail.bottom + AXIS_HEIGHT + 16;
+  const handoverTop = overview.bottom + AXIS_HEIGHT + 62;
+  const handovers = layoutRows(d, handoverTop, HANDOVER);
+  const legendTop = handovers.bottom + AXIS_HEIGHT + 16;
   const height = legendTop + legendHeight(d, width - 2 * MARGIN, failHatchId(prefix)) + 8;
   const title = `${d.design}: timing diagram, ${d.cornerLabel}`;
   const canvas = createCanvas(width, height, title);
@@ -161,7 +181,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   // Axes and their grid lines go beneath the panels: no grid line crosses a label.
   const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
-  drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
+  drawPanel(ctx, 'overview', whole, overviewScale, overview, WHOLE_PERIOD);
   if (d.circuit)
     drawCircuitWaves(root, d.circuit, overviewScale, {
       top: rows.bottom,
@@ -171,14 +191,14 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
       overlay: d.mode === 'all',
     });
   drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
-  drawRowLabels(ctx, overview, x0 - 10, false);
+  drawRowLabels(ctx, overview, x0 - 10, WHOLE_PERIOD);
 
   sectionHeading(
     root,
     'Handovers, enlarged',
     'same time scale in both panels; ramps drawn with their simulated transition times',
     MARGIN,
-    detailTop - 36,
+    handoverTop - 36,
   );
   const panelWidth = (x1 - x0 - PANEL_GAP) / 2;
   d.windows.forEach((w, i) => {
@@ -186,16 +206,16 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
     const scale = scaleLinear()
       .domain([w.from, w.to])
       .range([px0, px0 + panelWidth]);
-    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, {
+    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, handoverTop - 10, {
       size: SIZE.label,
       bold: true,
       className: 'panel-title',
     });
     const axis = root.group();
-    drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, detail, true);
-    drawTimeAxis(axis, scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
+    drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, handovers, HANDOVER);
+    drawTimeAxis(axis, scale, handovers.bottom + 4, handoverTop, Math.max(3, Math.floor(panelWidth / 95)));
   });
-  drawRowLabels(ctx, detail, x0 - 10, true, panelWidth);
+  drawRowLabels(ctx, handovers, x0 - 10, HANDOVER, panelWidth);
   drawLegend(ctx, MARGIN, legendTop, width - 2 * MARGIN);
   return canvas.finish();
 }
@@ -255,7 +275,7 @@ function drawWindowBrackets(ctx: Context, scale: ScaleLinear<number, number>, la
   });
 }
 
-function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, detail: boolean): void {
+function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, kind: PanelKind): void {
   const [px0, px1] = scale.range() as [number, number];
   const clipId = `${ctx.prefix}-clip-${name}`;
   ctx.root
@@ -274,20 +294,21 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   for (const band of layout.signal) {
     clipped.line(round(px0), round(band.top + band.height), round(px1), round(band.top + band.height)).stroke({ color: GRID, width: 1 });
   }
-  if (detail) drawDeadZones(ctx, clipped, w, scale, layout);
+  if (kind.dimensionMarks) drawDeadZones(ctx, clipped, w, scale, layout);
   ctx.d.rows.forEach((row, i) => {
-    drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail);
+    drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, kind);
   });
   ctx.d.switches.forEach((s, i) => {
-    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail);
+    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, kind);
   });
-  if (detail) {
+  if (kind.dimensionMarks) {
     // Labels go on a layer above every mark's lines, so no later mark's extension line crosses them.
     const labels = panel.group().attr({ class: 'mark-labels' });
     drawDeadMarks(ctx, panel, w, scale, layout, labels);
     drawBbmMarks(ctx, panel, w, scale, layout, labels);
     labels.front();
-  } else drawSettleMarks(ctx, panel, scale, layout);
+  }
+  if (kind.settleLanes) drawSettleMarks(ctx, panel, scale, layout);
 }
 
 /**
@@ -374,7 +395,7 @@ function drawSignalRow(
   band: Band,
   w: TimeWindow,
   scale: ScaleLinear<number, number>,
-  detail: boolean,
+  kind: PanelKind,
 ): void {
   const colour = rowColour(row);
   const rg = g.group().attr({ class: 'signal-row', 'data-signal': row.net, 'data-role': row.role });
@@ -407,7 +428,7 @@ function drawSignalRow(
   const poly = rg.polyline(points(line)).fill('none').stroke(stroke).attr({ class: 'wave' });
   const pattern = dash(row.role);
   if (pattern) poly.attr('stroke-dasharray', pattern);
-  if (detail && row.role === 'phase') {
+  if (kind.dimensionMarks && row.role === 'phase') {
     for (const r of row.reference.ramps) {
       const t = inWindow(r.t50, w, row.reference.period);
       if (t !== null)
@@ -426,7 +447,7 @@ function drawSwitchLane(
   band: Band,
   w: TimeWindow,
   scale: ScaleLinear<number, number>,
-  detail = false,
+  kind: PanelKind,
 ): void {
   const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
   const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
@@ -439,7 +460,7 @@ function drawSwitchLane(
     const off = Math.max(...s.windows.map((x) => x.off));
     for (const k of [-2, -1, 0, 1, 2]) busy.push({ xa: scale(on + k * ctx.d.period), xb: scale(off + k * ctx.d.period) });
   }
-  drawOffIntervals(ctx, lg, s, band, w, scale, !detail, busy);
+  drawOffIntervals(ctx, lg, s, band, w, scale, kind, busy);
   if (s.windows.length === 0) return;
   const spread = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
   const wide = { on: Math.max(...s.windows.map((x) => x.on)), off: Math.min(...s.windows.map((x) => x.off)) };
@@ -475,7 +496,7 @@ function drawOffIntervals(
   band: Band,
   w: TimeWindow,
   scale: ScaleLinear<number, number>,
-  label: boolean,
+  kind: PanelKind,
   busy: ReadonlyArray<{ xa: number; xb: number }>,
 ): void {
   const off = s.offState;
@@ -514,7 +535,7 @@ function drawOffIntervals(
   const text = offStateText(s);
   const width = textWidth(text, SIZE.small, !off.pass);
   // Clear of the conduction bars at both ends of the run.
-  if (label && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
+  if (kind.offStateLabels && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
     og.rect(round(width + 8), 13)
       .move(round(widest.xa + OFF_LABEL_GAP), round(band.top + band.height / 2 - 6.5))
       .fill(PAPER)
@@ -621,7 +642,7 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
     dt.marks.forEach((mark, k) => {
       const x = markX(mark, w, ctx.d.period, scale);
       if (!x) return;
-      const laneTop = layout.dead!.top + k * DETAIL.dead;
+      const laneTop = layout.dead!.top + k * DEAD_LANE;
       const lineY = laneTop + 24;
       const mg = g
         .group()
@@ -714,8 +735,8 @@ function truncate(text: string, size: number, widthPx: number, bold: boolean): s
   return `${t}\u2026`;
 }
 
-function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean, panelWidth = Infinity): void {
-  const g = ctx.root.group().attr({ class: detail ? 'row-labels detail' : 'row-labels overview' });
+function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind, panelWidth = Infinity): void {
+  const g = ctx.root.group().attr({ class: `row-labels ${kind.name}` });
   const room = LABEL_COLUMN - 14;
   ctx.d.rows.forEach((row, i) => {
     const band = layout.signal[i]!;
@@ -740,7 +761,7 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean,
       data: { switch: s.name },
     });
 
-    if (detail && s.problems.length > 0) {
+    if (kind.dimensionMarks && s.problems.length > 0) {
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
       // Kept inside the first panel; the whole text is the element's tooltip and data.
