@@ -15,23 +15,15 @@ import { CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL
 import { createCanvas, points, round } from './canvas.js';
 import { drawTimeAxis } from './axis.js';
 import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
-import { dimensionLine, extensionLine } from './marks.js';
+import { dimensionMark } from './marks.js';
 import { defineFailHatch, defineOpenFailHatch, failHatchId } from './patterns.js';
-import { drawText, textWidth, wrapLines } from './text.js';
+import { drawText, fitText, textWidth, wrapLines } from './text.js';
 import { xmlText } from './xml-text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
-import { runTitle } from './metadata.js';
-import type { RunVerdict } from '../../report/verdict.js';
+import { runTitle, type RunDrawingOptions } from './metadata.js';
 import { circuitLegendEntries, circuitWavesHeight, drawCircuitWaves } from './circuit-waves.js';
 
-export interface TimingSvgOptions {
-  /** Prefix of element ids, unique per drawing when several share one page. */
-  readonly idPrefix?: string;
-  /** Width of the drawing, px. */
-  readonly width?: number;
-  /** The run's combined verdict, for the title box (the drawing's own checks otherwise). */
-  readonly run?: RunVerdict;
-}
+export type TimingSvgOptions = RunDrawingOptions;
 
 const MARGIN = 16;
 const LABEL_COLUMN = 150;
@@ -45,6 +37,8 @@ export const OFF_LABEL_GAP = 10;
 /** Height of a settle-path lane in the whole-period panel, px. */
 const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
+/** Shifts, in periods, that bring every copy of a periodic event into a window up to two periods away. */
+const PERIOD_COPIES = [-2, -1, 0, 1, 2] as const;
 
 /** Dead-time and break-before-make values as shown: whole picoseconds, ns from 10 ns. */
 export const psText = formatPs;
@@ -275,7 +269,16 @@ function drawWindowBrackets(ctx: Context, scale: ScaleLinear<number, number>, la
   });
 }
 
+/** One panel as its marks see it: the time window, its scale to pixels, the row layout and the panel's kind. */
+interface Frame {
+  readonly w: TimeWindow;
+  readonly scale: ScaleLinear<number, number>;
+  readonly layout: Layout;
+  readonly kind: PanelKind;
+}
+
 function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, kind: PanelKind): void {
+  const frame: Frame = { w, scale, layout, kind };
   const [px0, px1] = scale.range() as [number, number];
   const clipId = `${ctx.prefix}-clip-${name}`;
   ctx.root
@@ -294,28 +297,28 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   for (const band of layout.signal) {
     clipped.line(round(px0), round(band.top + band.height), round(px1), round(band.top + band.height)).stroke({ color: GRID, width: 1 });
   }
-  if (kind.dimensionMarks) drawDeadZones(ctx, clipped, w, scale, layout);
+  if (kind.dimensionMarks) drawDeadZones(ctx, clipped, frame);
   ctx.d.rows.forEach((row, i) => {
-    drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, kind);
+    drawSignalRow(ctx, clipped, row, layout.signal[i]!, frame);
   });
   ctx.d.switches.forEach((s, i) => {
-    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, kind);
+    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, frame);
   });
   if (kind.dimensionMarks) {
     // Labels go on a layer above every mark's lines, so no later mark's extension line crosses them.
     const labels = panel.group().attr({ class: 'mark-labels' });
-    drawDeadMarks(ctx, panel, w, scale, layout, labels);
-    drawBbmMarks(ctx, panel, w, scale, layout, labels);
+    drawDeadMarks(ctx, panel, frame, labels);
+    drawBbmMarks(ctx, panel, frame, labels);
     labels.front();
   }
-  if (kind.settleLanes) drawSettleMarks(ctx, panel, scale, layout);
+  if (kind.settleLanes) drawSettleMarks(ctx, panel, frame);
 }
 
 /**
  * Each settle path in the whole period: its common on-window as an outlined bar, the on-time it
  * needs as a solid bar from the same start, and a line with the numbers; a shortfall is hatched.
  */
-function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawSettleMarks(ctx: Context, g: G, { scale, layout }: Frame): void {
   const T = ctx.d.period;
   ctx.d.settle.forEach((mark, i) => {
     const band = layout.settle[i];
@@ -332,12 +335,12 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
       const [, px1] = scale.range() as [number, number];
       drawText(
         ug,
-        truncate(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true),
+        fitText(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true),
         px0 + 4,
         band.top + 16,
         { size: SIZE.annotation, fill: FAIL, bold: true, className: 'settle-label', halo: true },
       );
-      drawText(ug, truncate(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, {
+      drawText(ug, fitText(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, {
         size: SIZE.small,
         fill: FAIL,
         className: 'settle-reason',
@@ -388,22 +391,14 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
   });
 }
 
-function drawSignalRow(
-  ctx: Context,
-  g: G,
-  row: DiagramRow,
-  band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  kind: PanelKind,
-): void {
+function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, { w, scale, kind }: Frame): void {
   const colour = rowColour(row);
   const rg = g.group().attr({ class: 'signal-row', 'data-signal': row.net, 'data-role': row.role });
   const toXY = (p: readonly [number, number]): [number, number] => [scale(p[0]), levelY(band, p[1])];
   const line = wavePoints(row.reference, w.from, w.to).map(toXY);
   if (ctx.d.mode === 'all') {
     for (const group of ctx.groups.get(row.net) ?? []) {
-      for (const k of [-2, -1, 0, 1, 2]) {
+      for (const k of PERIOD_COPIES) {
         const shift = k * ctx.d.period;
         if (group.t50Max + shift < w.from - ctx.d.period * 0.01 || group.t50Min + shift > w.to + ctx.d.period * 0.01) continue;
         const outline = bandOutline(group).outline.map(([t, v]) => toXY([t + shift, v]));
@@ -440,37 +435,29 @@ function drawSignalRow(
   }
 }
 
-function drawSwitchLane(
-  ctx: Context,
-  g: G,
-  s: SwitchRow,
-  band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  kind: PanelKind,
-): void {
+function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, frame: Frame): void {
+  const { w, scale } = frame;
   const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
   const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
   const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
-  const h = Math.min(12, band.height * 0.55);
+  const h = barHeight(band);
   const y = band.top + (band.height - h) / 2;
-  const busy: Array<{ xa: number; xb: number }> = [];
-  if (s.windows.length > 0) {
-    const on = Math.min(...s.windows.map((x) => x.on));
-    const off = Math.max(...s.windows.map((x) => x.off));
-    for (const k of [-2, -1, 0, 1, 2]) busy.push({ xa: scale(on + k * ctx.d.period), xb: scale(off + k * ctx.d.period) });
-  }
-  drawOffIntervals(ctx, lg, s, band, w, scale, kind, busy);
-  if (s.windows.length === 0) return;
-  const spread = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
+  // Over all corners: the earliest turn-on to the latest turn-off.
+  const spread =
+    s.windows.length > 0 ? { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) } : null;
+  const busy = spread
+    ? PERIOD_COPIES.map((k) => ({ xa: scale(spread.on + k * ctx.d.period), xb: scale(spread.off + k * ctx.d.period) }))
+    : [];
+  drawOffIntervals(ctx, lg, s, band, frame, busy);
+  if (!spread) return;
   const wide = { on: Math.max(...s.windows.map((x) => x.on)), off: Math.min(...s.windows.map((x) => x.off)) };
   const narrow = { on: Math.max(...s.windows.map((x) => x.onLatest)), off: Math.min(...s.windows.map((x) => x.offEarliest)) };
-  for (const k of [-2, -1, 0, 1, 2]) {
+  for (const k of PERIOD_COPIES) {
     const shift = k * ctx.d.period;
     const bar = (a: number, b: number, fill: string, cls: string, dasharray?: string) => {
-      const xa = Math.max(scale(w.from) - 2, scale(a + shift));
-      const xb = Math.min(scale(w.to) + 2, scale(b + shift));
-      if (xb <= xa) return;
+      const span = clipToWindow(scale, w, a + shift, b + shift);
+      if (!span) return;
+      const { xa, xb } = span;
       lg.rect(round(xb - xa), round(h))
         .move(round(xa), round(y))
         .fill(fill)
@@ -484,6 +471,18 @@ function drawSwitchLane(
   }
 }
 
+/** Height of a conduction (or failing off-state) bar in a switch lane, px. */
+function barHeight(band: Band): number {
+  return Math.min(12, band.height * 0.55);
+}
+
+/** The pixels from time a to time b, cut to the window with 2 px to spare either side; null when nothing is left. */
+function clipToWindow(scale: ScaleLinear<number, number>, w: TimeWindow, a: number, b: number): { xa: number; xb: number } | null {
+  const xa = Math.max(scale(w.from) - 2, scale(a));
+  const xb = Math.min(scale(w.to) + 2, scale(b));
+  return xb <= xa ? null : { xa, xb };
+}
+
 /**
  * Along a switch's lane, a thin strip over every interval in which it must be off: grey where its
  * gate holds it off against both terminals, a full-height hatched bar where it does not (the
@@ -494,9 +493,7 @@ function drawOffIntervals(
   g: G,
   s: SwitchRow,
   band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  kind: PanelKind,
+  { w, scale, kind }: Frame,
   busy: ReadonlyArray<{ xa: number; xb: number }>,
 ): void {
   const off = s.offState;
@@ -507,15 +504,15 @@ function drawOffIntervals(
     'data-corner': off.corner,
     'data-phase': off.phase,
   });
-  const h = off.pass ? 3 : Math.min(12, band.height * 0.55);
+  const h = off.pass ? 3 : barHeight(band);
   const y = band.top + (band.height - h) / 2;
   const spans: Array<{ xa: number; xb: number }> = [];
-  for (const k of [-2, -1, 0, 1, 2]) {
+  for (const k of PERIOD_COPIES) {
     const shift = k * ctx.d.period;
     for (const i of off.intervals) {
-      const xa = Math.max(scale(w.from) - 2, scale(i.start + shift));
-      const xb = Math.min(scale(w.to) + 2, scale(i.end + shift));
-      if (xb <= xa) continue;
+      const span = clipToWindow(scale, w, i.start + shift, i.end + shift);
+      if (!span) continue;
+      const { xa, xb } = span;
       og.rect(round(xb - xa), round(h))
         .move(round(xa), round(y))
         .fill(off.pass ? FAINT : ctx.hatch)
@@ -583,11 +580,16 @@ function markX(mark: SpanMark, w: TimeWindow, period: number, scale: ScaleLinear
   return { xs: scale(start), xe: scale(start + mark.end - mark.start) };
 }
 
+/** From the top of the higher band to the bottom of the lower, px. */
+function spanOf(a: Band, b: Band): { top: number; bottom: number } {
+  return { top: Math.min(a.top, b.top), bottom: Math.max(a.top + a.height, b.top + b.height) };
+}
+
 function rowIndex(d: Diagram, net: string): number {
   return d.rows.findIndex((r) => r.net === net);
 }
 
-function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawDeadZones(ctx: Context, g: G, { w, scale, layout }: Frame): void {
   for (const dt of ctx.d.deadTimes) {
     const mark = dt.marks[0];
     if (!mark) continue;
@@ -596,8 +598,7 @@ function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
     const a = layout.signal[rowIndex(ctx.d, dt.from)];
     const b = layout.signal[rowIndex(ctx.d, dt.to)];
     if (!a || !b) continue;
-    const top = Math.min(a.top, b.top);
-    const bottom = Math.max(a.top + a.height, b.top + b.height);
+    const { top, bottom } = spanOf(a, b);
     const lo = Math.min(x.xs, x.xe);
     const fail = dt.marks.some((m) => !m.pass);
     g.rect(round(Math.max(1, Math.abs(x.xe - x.xs))), round(bottom - top))
@@ -633,7 +634,7 @@ function roleWord(mark: SpanMark): string {
   return mark.role === 'least' ? 'least ' : mark.role === 'most' ? 'most ' : '';
 }
 
-function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
+function drawDeadMarks(ctx: Context, g: G, { w, scale, layout }: Frame, labels: G): void {
   if (!layout.dead) return;
   for (const dt of ctx.d.deadTimes) {
     const fromBand = layout.signal[rowIndex(ctx.d, dt.from)];
@@ -647,9 +648,7 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
       const mg = g
         .group()
         .attr({ class: 'dead-time-mark', 'data-from': dt.from, 'data-to': dt.to, 'data-corner': mark.corner, 'data-role': mark.role });
-      extensionLine(mg, x.xs, levelY(fromBand, 0.5), lineY + 5, !mark.pass);
-      extensionLine(mg, x.xe, levelY(toBand, 0.5), lineY + 5, !mark.pass);
-      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      dimensionMark(mg, { x: x.xs, y: levelY(fromBand, 0.5) }, { x: x.xe, y: levelY(toBand, 0.5) }, lineY, !mark.pass);
       const value = `${roleWord(mark)}dead time ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       const centre = (x.xs + x.xe) / 2;
       const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, ground: true };
@@ -668,7 +667,7 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
   }
 }
 
-function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
+function drawBbmMarks(ctx: Context, g: G, { w, scale, layout }: Frame, labels: G): void {
   for (const bbm of ctx.d.breakBeforeMake) {
     const lane = layout.bbm.get(bbm.name);
     const fromIndex = ctx.d.switches.findIndex((s) => s.name === bbm.from);
@@ -692,8 +691,7 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       if (!mark.pass) {
         const lo = Math.max(panelLeft, Math.min(x.xs, x.xe, x.xs + gx));
         const hi = Math.min(panelRight, Math.max(x.xs, x.xe, x.xs + gx));
-        const top = Math.min(fromBand.top, toBand.top);
-        const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
+        const { top, bottom } = spanOf(fromBand, toBand);
         // Stripes without a ground, so the overlapping bars it marks stay visible beneath.
         mg.rect(round(Math.max(2, hi - lo)), round(bottom - top))
           .move(round(lo), round(top))
@@ -701,9 +699,8 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
           .stroke({ color: FAIL, width: 1.5 })
           .attr({ class: 'bbm-fail' });
       }
-      extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
-      extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
-      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      const from = { x: x.xs, y: fromBand.top + fromBand.height / 2 };
+      dimensionMark(mg, from, { x: x.xe, y: toBand.top + toBand.height / 2 }, lineY, !mark.pass);
       const centre = (x.xs + x.xe) / 2;
       const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       drawText(labels, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
@@ -728,19 +725,12 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
   }
 }
 
-function truncate(text: string, size: number, widthPx: number, bold: boolean): string {
-  if (textWidth(text, size, bold) <= widthPx) return text;
-  let t = text;
-  while (t.length > 1 && textWidth(`${t}\u2026`, size, bold) > widthPx) t = t.slice(0, -1);
-  return `${t}\u2026`;
-}
-
 function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind, panelWidth = Infinity): void {
   const g = ctx.root.group().attr({ class: `row-labels ${kind.name}` });
   const room = LABEL_COLUMN - 14;
   ctx.d.rows.forEach((row, i) => {
     const band = layout.signal[i]!;
-    const text = truncate(row.net, SIZE.label, room, row.role === 'phase');
+    const text = fitText(row.net, SIZE.label, room, row.role === 'phase');
     drawText(g, text, x, band.top + band.height / 2 + 5, {
       size: SIZE.label,
       anchor: 'end',
@@ -752,7 +742,7 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind,
   });
   ctx.d.switches.forEach((s, i) => {
     const band = layout.switches[i]!;
-    const text = truncate(`${s.name} (${s.type})`, SIZE.small, room, false);
+    const text = fitText(`${s.name} (${s.type})`, SIZE.small, room, false);
     drawText(g, text, x, band.top + band.height / 2 + 4, {
       size: SIZE.small,
       anchor: 'end',
@@ -765,7 +755,7 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind,
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
       // Kept inside the first panel; the whole text is the element's tooltip and data.
-      const shown = truncate(msg, SIZE.small, panelWidth - 24, false);
+      const shown = fitText(msg, SIZE.small, panelWidth - 24, false);
       drawText(g, shown, x + 20, band.top + band.height / 2 + 4, {
         size: SIZE.small,
         fill: FAIL,
@@ -776,26 +766,19 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind,
       if (shown !== msg) g.last().element('title').words(xmlText(msg));
     }
   });
+  // A lane of marks: what it measures (muted), and under it the name of what it measures.
+  const laneLabel = (heading: string, name: string, top: number, offset: number, className: string) => {
+    drawText(g, heading, x, top + offset, { size: SIZE.small, anchor: 'end', fill: MUTED, className });
+    drawText(g, fitText(name, SIZE.small, room), x, top + (offset + 15), { size: SIZE.small, anchor: 'end', fill: INK, className });
+  };
   for (const [name, band] of layout.bbm) {
-    const kind = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
-    drawText(g, kind, x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
-    drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, {
-      size: SIZE.small,
-      anchor: 'end',
-      fill: INK,
-      className: 'bbm-lane-label',
-    });
+    const check = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
+    laneLabel(check, name, band.top, 20, 'bbm-lane-label');
   }
   if (layout.dead)
     drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
   layout.settle.forEach((band, i) => {
-    drawText(g, 'settle', x, band.top + 16, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'settle-lane-label' });
-    drawText(g, truncate(ctx.d.settle[i]!.name, SIZE.small, room, false), x, band.top + 31, {
-      size: SIZE.small,
-      anchor: 'end',
-      fill: INK,
-      className: 'settle-lane-label',
-    });
+    laneLabel('settle', ctx.d.settle[i]!.name, band.top, 16, 'settle-lane-label');
   });
 }
 
@@ -807,6 +790,7 @@ interface LegendEntry {
 /** The legend's swatches, in reading order; only what the drawing shows. */
 function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
   const out: LegendEntry[] = [];
+  const swatch = (g: G, gx: number, y: number, height = 10, dy = 3) => g.rect(24, height).move(round(gx), round(y + dy));
   const sample = (colour: string, dasharray?: string) => (g: G, gx: number, y: number) => {
     const l = g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: colour, width: 2 });
     if (dasharray) l.attr('stroke-dasharray', dasharray);
@@ -819,10 +803,7 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
   out.push({
     text: `${GLYPH.fail} FAIL (hatched)`,
     draw: (g, gx, y) => {
-      g.rect(24, 10)
-        .move(round(gx), round(y + 3))
-        .fill(hatch)
-        .stroke({ color: FAIL, width: 1 });
+      swatch(g, gx, y).fill(hatch).stroke({ color: FAIL, width: 1 });
     },
   });
   if (d.switches.length > 0) {
@@ -831,48 +812,33 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
       out.push({
         text: 'switch conducts at some corners only',
         draw: (g, gx, y) => {
-          g.rect(24, 10)
-            .move(round(gx), round(y + 3))
-            .fill(PAPER)
-            .stroke({ color: PHASE[0], width: 1, dasharray: '3 2' })
-            .attr({ class: 'legend-spread' });
+          swatch(g, gx, y).fill(PAPER).stroke({ color: PHASE[0], width: 1, dasharray: '3 2' }).attr({ class: 'legend-spread' });
         },
       });
     }
     out.push({
       text: `${all ? 'at every corner, ' : 'switch conducts '}at some signal level`,
       draw: (g, gx, y) => {
-        g.rect(24, 10)
-          .move(round(gx), round(y + 3))
-          .fill(PHASE_TINT[0])
-          .stroke({ color: PHASE[0], width: 1 });
+        swatch(g, gx, y).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 });
       },
     });
     out.push({
       text: `${all ? 'at every corner and ' : 'at every '}signal level`,
       draw: (g, gx, y) => {
-        g.rect(24, 10)
-          .move(round(gx), round(y + 3))
-          .fill(PHASE[0]);
+        swatch(g, gx, y).fill(PHASE[0]);
       },
     });
     out.push({
       text: 'guard time',
       draw: (g, gx, y) => {
-        g.rect(24, 8)
-          .move(round(gx), round(y + 4))
-          .fill(FAINT)
-          .attr({ 'fill-opacity': 0.55 });
+        swatch(g, gx, y, 8, 4).fill(FAINT).attr({ 'fill-opacity': 0.55 });
       },
     });
     if (d.switches.some((s) => s.offState)) {
       out.push({
         text: 'must be off: the gate holds it off against both terminals',
         draw: (g, gx, y) => {
-          g.rect(24, 3)
-            .move(round(gx), round(y + 7))
-            .fill(FAINT)
-            .stroke({ color: MUTED, width: 0.5 });
+          swatch(g, gx, y, 3, 7).fill(FAINT).stroke({ color: MUTED, width: 0.5 });
         },
       });
     }
