@@ -4,7 +4,12 @@
 #   scripts/outputs-snapshot.sh /tmp/before        # on one commit (after npm run build)
 #   scripts/outputs-snapshot.sh /tmp/after         # on another
 #   diff -r /tmp/before /tmp/after
-# Outside tools are not needed (no confirm, no ngspice). Monte Carlo and sweep run one thread.
+# Run both from the same checkout folder: paths appear in the outputs. Monte Carlo and sweep run one
+# thread. Outside tools are not needed unless SNAPSHOT_CONFIRM=1 (confirm runs ngspice).
+# A subset for a quick comparison (the whole run takes over an hour):
+#   SNAPSHOT_DESIGNS="doubler doubler-pump"   only these demo designs (file names without .yaml)
+#   SNAPSHOT_ONLY='\.(draw|report|confirm)'    only the outputs whose name matches the regex
+#   SNAPSHOT_CONFIRM=1                        also confirm on the worst corners (ngspice, seconds a design)
 set -u
 out=${1:?usage: outputs-snapshot.sh OUTPUT_FOLDER}
 root=$(cd "$(dirname "$0")/.." && pwd)
@@ -19,9 +24,10 @@ rm -rf "$scratch" && mkdir -p "$scratch"
 
 # run NAME ARGS...: stdout to NAME.out, stderr to NAME.err, exit code to NAME.code
 # SNAPSHOT_ONLY=REGEX runs only the outputs whose name matches.
+wanted() { [[ -z "${SNAPSHOT_ONLY:-}" || "$1" =~ $SNAPSHOT_ONLY ]]; }
 run() {
   local name=$1; shift
-  [[ -n "${SNAPSHOT_ONLY:-}" && ! "$name" =~ $SNAPSHOT_ONLY ]] && return
+  wanted "$name" || return 0
   (cd "$root" && node "$bin" "$@" >"$out/$name.out" 2>"$out/$name.err"; echo $? >"$out/$name.code")
 }
 
@@ -29,6 +35,7 @@ run schema schema
 run init init -o -
 for design in "$root"/fixtures/designs/*.yaml; do
   d=$(basename "$design" .yaml)
+  [[ -n "${SNAPSHOT_DESIGNS:-}" && " $SNAPSHOT_DESIGNS " != *" $d "* ]] && continue
   f=fixtures/designs/$d.yaml
   run "$d.check" check "$f"
   run "$d.check-json" check --json "$f"
@@ -48,11 +55,23 @@ for design in "$root"/fixtures/designs/*.yaml; do
   run "$d.mc-replay" mc --samples 200 --workers 1 --replay 7 "$f"
   run "$d.sweep" sweep --workers 1 --vary vdd=1.6,1.8 --vary clock.frequency=10MHz:40MHz:3 "$f" -o -
   run "$d.sweep-json" sweep --workers 1 --json --vary temperature=-40,125 "$f" -o -
-  run "$d.report" report --mc 100 "$f" -o "$scratch/report.html"
-  mv "$scratch/report.html" "$out/$d.report.html" 2>/dev/null
-  mkdir -p "$scratch/md"
-  run "$d.report-md" report --format md --no-fmax "$f" -o "$scratch/md/report.md"
-  rm -rf "$out/$d.md" && mv "$scratch/md" "$out/$d.md"
+  if wanted "$d.check-json" && wanted "$d.check-analytic"; then
+    cp "$out/$d.check-json.out" "$scratch/old.json" && cp "$out/$d.check-analytic.out" "$scratch/new.json"
+    run "$d.diff" diff "$scratch/old.json" "$scratch/new.json"
+  fi
+  if [[ "${SNAPSHOT_CONFIRM:-}" == 1 ]]; then
+    run "$d.confirm" confirm --corners worst "$f"
+    run "$d.confirm-json" confirm --corners worst --json "$f"
+  fi
+  if wanted "$d.report"; then
+    run "$d.report" report --mc 100 "$f" -o "$scratch/report.html"
+    mv "$scratch/report.html" "$out/$d.report.html" 2>/dev/null
+  fi
+  if wanted "$d.report-md"; then
+    mkdir -p "$scratch/md"
+    run "$d.report-md" report --format md --no-fmax "$f" -o "$scratch/md/report.md"
+    rm -rf "$out/$d.md" && mv "$scratch/md" "$out/$d.md"
+  fi
 done
 # bad input: message and exit code
 for design in "$root"/fixtures/designs/bad/*.yaml; do

@@ -5,7 +5,7 @@ import type { ProcessCard } from '../schema/process.js';
 import { formatEngineering, formatPs, formatSignedTime, formatTime } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../report/confirm-report.js';
-import { percent } from '../report/confirm-text.js';
+import { breakBeforeMakeCells, percent, quantityCells } from '../report/confirm-text.js';
 import type { VerdictPart } from '../report/verdict.js';
 import { GLYPH } from './palette.js';
 import { candidateCells, loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
@@ -17,27 +17,11 @@ export function signedTime(seconds: number): string {
 /** The ngspice comparison as two tables (quantities, then break-before-make) and one sentence. */
 export function confirmTables(c: ConfirmSection, model: string) {
   const quantities = c.comparisons.flatMap((corner) =>
-    corner.quantities.map((q) => ({
-      cells: [
-        corner.corner,
-        q.quantity,
-        formatTime(q.model),
-        q.simulator === null ? 'not measured' : formatTime(q.simulator),
-        q.relativeError === null ? '-' : percent(q.relativeError),
-        q.pass ? 'within' : 'OVER',
-      ],
-      fail: !q.pass,
-    })),
+    corner.quantities.map((q) => ({ cells: [...quantityCells(corner.corner, q), q.pass ? 'within' : 'OVER'], fail: !q.pass })),
   );
   const pairs = c.comparisons.flatMap((corner) =>
     corner.breakBeforeMake.map((b) => ({
-      cells: [
-        corner.corner,
-        b.check,
-        formatSignedTime(b.model),
-        formatSignedTime(b.simulator, 'not measured'),
-        b.agrees ? 'alike' : 'DISAGREE',
-      ],
+      cells: [...breakBeforeMakeCells(corner.corner, b), b.agrees ? 'alike' : 'DISAGREE'],
       fail: !b.agrees,
     })),
   );

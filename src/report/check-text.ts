@@ -2,7 +2,7 @@
 import { errorBandText } from '../delay/error-band.js';
 import { formatEngineering, formatSignedTime, formatTime, psNumber } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
-import { renderTable, type Column } from './text-table.js';
+import { left, right, renderTable, type Column } from './text-table.js';
 import { formatMargin } from './margin-format.js';
 import { CIRCUIT_KINDS, compareChecks, type CheckKind } from '../checks/check.js';
 import { renderCircuitTable } from './circuit-report.js';
@@ -50,12 +50,7 @@ export function renderCheckText(report: CheckReport): string {
       return s.format(v) + mark;
     });
   });
-  const columns: Column[] = [
-    { header: 'corner', align: 'left' },
-    ...series.map((s): Column => ({ header: s.header, align: 'right' })),
-    { header: 'least margin', align: 'right' },
-    { header: 'verdict', align: 'left' },
-  ];
+  const columns: Column[] = [left('corner'), ...series.map((s): Column => right(s.header)), right('least margin'), left('verdict')];
   const rows = corners.map((c, i) => [
     c.name,
     ...cells.map((col) => col[i]!),
@@ -108,16 +103,7 @@ function worstPerCheck(report: CheckReport): string[] {
     ]);
   return [
     'worst case of each check:',
-    renderTable(
-      [
-        { header: 'kind', align: 'left' },
-        { header: 'check', align: 'left' },
-        { header: 'margin', align: 'right' },
-        { header: 'at corner', align: 'left' },
-        { header: 'verdict', align: 'left' },
-      ],
-      rows,
-    ),
+    renderTable([left('kind'), left('check'), right('margin'), left('at corner'), left('verdict')], rows),
   ];
 }
 

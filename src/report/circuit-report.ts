@@ -1,7 +1,7 @@
 /** The circuit figures of one corner as report data (SI units), and their text table. */
 import type { CircuitFigures } from '../circuit/figures.js';
 import { formatEngineering } from '../units/format.js';
-import { renderTable, type Column } from './text-table.js';
+import { left, renderTable, right, type Column } from './text-table.js';
 
 /** The figures a report carries, in the order its JSON writes them (units as in `CircuitFigures`). */
 const REPORT_KEYS = [
@@ -40,7 +40,7 @@ export function renderCircuitTable(rows: readonly { readonly name: string; reado
   const ohm = eng('ohm');
   const q = eng('C');
   const columns: Column[] = ['corner', 'V out', 'ripple', 'R out', 'R ssl', 'R fsl', 'efficiency', 'lost/period', 'start-up'].map(
-    (header, i) => ({ header, align: i === 0 ? 'left' : 'right' }),
+    (header, i) => (i === 0 ? left(header) : right(header)),
   );
   const table = withCircuit.map((r) => {
     const c = r.circuit!;

@@ -1,7 +1,7 @@
 /** The side-by-side table of `phasegap confirm`. */
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
-import { renderTable, type Column } from './text-table.js';
-import type { CircuitFigureComparison, CornerComparison } from './confirm-report.js';
+import { left, right, renderTable, type Column } from './text-table.js';
+import type { BreakBeforeMakeComparison, CircuitFigureComparison, CornerComparison, QuantityComparison } from './confirm-report.js';
 import { RON_TOLERANCE, worstDifference } from './confirm-report.js';
 
 /** Ohms with three significant figures: 119 ohm, 1.23 kohm. */
@@ -22,61 +22,36 @@ export function percent(x: number): string {
   return `${x >= 0 ? '+' : ''}${(x * 100).toFixed(1)} %`;
 }
 
+/** A timing quantity's cells before its verdict: corner, quantity, model, simulator, relative difference. */
+export function quantityCells(corner: string, q: QuantityComparison): string[] {
+  return [
+    corner,
+    q.quantity,
+    formatTime(q.model),
+    q.simulator === null ? 'not measured' : formatTime(q.simulator),
+    q.relativeError === null ? '-' : percent(q.relativeError),
+  ];
+}
+
+/** A break-before-make pair's cells before its verdict: corner, check, model margin, simulator margin. */
+export function breakBeforeMakeCells(corner: string, b: BreakBeforeMakeComparison): string[] {
+  return [corner, b.check, formatSignedTime(b.model), formatSignedTime(b.simulator, 'not measured')];
+}
+
 export function renderConfirmText(s: ConfirmSummary): string {
-  const rows: string[][] = [['corner', 'quantity', 'model', s.simulator, 'difference', 'tolerance']];
-  for (const c of s.corners) {
-    for (const q of c.quantities) {
-      rows.push([
-        c.corner,
-        q.quantity,
-        formatTime(q.model),
-        q.simulator === null ? 'not measured' : formatTime(q.simulator),
-        q.relativeError === null ? '-' : percent(q.relativeError),
-        q.pass ? 'within' : 'over',
-      ]);
-    }
-  }
-  const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => r[i]!.length)));
-  const line = (r: string[]) =>
-    r
-      .map((cell, i) => (i >= 2 && i <= 4 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!)))
-      .join('  ')
-      .trimEnd();
+  const rows = s.corners.flatMap((c) => c.quantities.map((q) => [...quantityCells(c.corner, q), q.pass ? 'within' : 'over']));
   const out = [
     `${s.design}: ${s.model} model vs ${s.simulator}, tolerance ${(s.tolerance * 100).toFixed(1)} %, ${s.corners.length} corner${s.corners.length === 1 ? '' : 's'}`,
     '',
-    line(rows[0]!),
-    widths
-      .map((w) => '-'.repeat(w))
-      .join('  ')
-      .trimEnd(),
-    ...rows.slice(1).map(line),
+    renderTable(comparisonColumns('quantity', s.simulator), rows),
     '',
   ];
   const pairs = s.corners.flatMap((c) =>
-    c.breakBeforeMake.map((b) => [
-      c.corner,
-      b.check,
-      formatSignedTime(b.model),
-      formatSignedTime(b.simulator, 'not measured'),
-      b.agrees ? 'alike' : 'DISAGREES',
-    ]),
+    c.breakBeforeMake.map((b) => [...breakBeforeMakeCells(c.corner, b), b.agrees ? 'alike' : 'DISAGREES']),
   );
   if (pairs.length > 0) {
     out.push('break-before-make at the switches (margin, model vs simulator; they must agree on pass or fail):', '');
-    out.push(
-      renderTable(
-        [
-          { header: 'corner', align: 'left' },
-          { header: 'check', align: 'left' },
-          { header: 'model', align: 'right' },
-          { header: s.simulator, align: 'right' },
-          { header: 'verdicts', align: 'left' },
-        ],
-        pairs,
-      ),
-      '',
-    );
+    out.push(renderTable([left('corner'), left('check'), right('model'), right(s.simulator), left('verdicts')], pairs), '');
   }
   const rons = s.corners.flatMap((c) =>
     c.ron.map((r) => [
@@ -164,12 +139,5 @@ function circuitLines(s: ConfirmSummary): string[] {
 
 /** Columns of a model-against-simulator table whose rows carry a difference judged against a tolerance. */
 function comparisonColumns(subject: string, simulator: string): Column[] {
-  return [
-    { header: 'corner', align: 'left' },
-    { header: subject, align: 'left' },
-    { header: 'model', align: 'right' },
-    { header: simulator, align: 'right' },
-    { header: 'difference', align: 'right' },
-    { header: 'tolerance', align: 'left' },
-  ];
+  return [left('corner'), left(subject), right('model'), right(simulator), right('difference'), left('tolerance')];
 }

@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { marginUnit } from '../checks/check.js';
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import { formatMargin } from './margin-format.js';
-import { renderTable } from './text-table.js';
+import { left, right, renderTable } from './text-table.js';
 
 const finite = z.number().refine(Number.isFinite, 'must be a finite number');
 
@@ -164,13 +164,7 @@ const row = (c: CheckChange) => [
   formatMargin(c.new, c.kind, c.newPass === null ? 'absent' : 'n/a'),
   delta(c),
 ];
-const HEAD = [
-  { header: 'check', align: 'left' },
-  { header: 'corner', align: 'left' },
-  { header: 'old margin', align: 'right' },
-  { header: 'new margin', align: 'right' },
-  { header: 'change', align: 'right' },
-] as const;
+const HEAD = [left('check'), left('corner'), right('old margin'), right('new margin'), right('change')] as const;
 
 /** At most `n` rows, then a count of the rest. */
 function listed(title: string, items: readonly CheckChange[], n = 20): string[] {
@@ -221,15 +215,7 @@ export function renderDiffText(d: ReportDiff): string {
     `${shown(d.old.design)} (${shown(d.old.file)}) -> ${shown(d.new.design)} (${shown(d.new.file)}), tolerance ${t}`,
     '',
     'least margin of each check over the corners, old -> new, and its largest change:',
-    renderTable(
-      [
-        { header: 'check', align: 'left' },
-        { header: 'old', align: 'right' },
-        { header: 'new', align: 'right' },
-        { header: 'largest change', align: 'left' },
-      ],
-      perCheck(d),
-    ),
+    renderTable([left('check'), right('old'), right('new'), left('largest change')], perCheck(d)),
     '',
     ...listed('new failures', d.newFailures),
     ...listed('fixed failures', d.fixedFailures),
@@ -240,13 +226,7 @@ export function renderDiffText(d: ReportDiff): string {
     out.push(`dead times moved beyond ${formatTime(d.tolerance.time)} (${d.deadTimeShifts.length}):`);
     out.push(
       renderTable(
-        [
-          { header: 'corner', align: 'left' },
-          { header: 'dead time', align: 'left' },
-          { header: 'old', align: 'right' },
-          { header: 'new', align: 'right' },
-          { header: 'shift', align: 'right' },
-        ],
+        [left('corner'), left('dead time'), right('old'), right('new'), right('shift')],
         d.deadTimeShifts
           .slice(0, 20)
           .map((s) => [shown(s.corner), shown(s.edge), formatTime(s.old), formatTime(s.new), formatSignedTime(s.shift)]),

@@ -4,7 +4,7 @@ import type { McResult, McCornerReport } from '../analysis/montecarlo.js';
 import { histogramQuantile, type StreamingHistogram } from '../variation/histogram.js';
 import { CAUTIONS } from './cautions.js';
 import { formatMargin, formatSpread } from './margin-format.js';
-import { renderTable } from './text-table.js';
+import { left, right, renderTable } from './text-table.js';
 import { psTenthsNumber } from '../units/format.js';
 import { shellCommand } from './shell-quote.js';
 import { formatPercent, percentDecimals } from '../units/format.js';
@@ -125,15 +125,15 @@ export function renderMcText(r: McReport, invocation: readonly string[] = ['phas
   lines.push(
     renderTable(
       [
-        { header: 'corner', align: 'left' },
-        { header: 'yield', align: 'right' },
-        { header: '95 % interval', align: 'right' },
-        { header: `${deadNames[0] ?? 'dead'} mean/sigma ps`, align: 'right' },
-        { header: 'min ps', align: 'right' },
-        { header: `${deadNames[1] ?? 'dead'} mean/sigma ps`, align: 'right' },
-        { header: 'min ps', align: 'right' },
-        { header: 'least sigma margin', align: 'right' },
-        { header: 'worst die', align: 'right' },
+        left('corner'),
+        right('yield'),
+        right('95 % interval'),
+        right(`${deadNames[0] ?? 'dead'} mean/sigma ps`),
+        right('min ps'),
+        right(`${deadNames[1] ?? 'dead'} mean/sigma ps`),
+        right('min ps'),
+        right('least sigma margin'),
+        right('worst die'),
       ],
       rows,
     ),
@@ -154,15 +154,7 @@ export function renderMcText(r: McReport, invocation: readonly string[] = ['phas
     ]);
   lines.push(
     renderTable(
-      [
-        { header: 'kind', align: 'left' },
-        { header: 'check', align: 'left' },
-        { header: 'mean margin', align: 'right' },
-        { header: 'sigma', align: 'right' },
-        { header: 'worst', align: 'right' },
-        { header: 'sigma margin', align: 'right' },
-        { header: 'failing dies', align: 'right' },
-      ],
+      [left('kind'), left('check'), right('mean margin'), right('sigma'), right('worst'), right('sigma margin'), right('failing dies')],
       checkRows,
     ),
   );

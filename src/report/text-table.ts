@@ -4,6 +4,16 @@ export interface Column {
   readonly align: 'left' | 'right';
 }
 
+/** A column whose cells line up on their left edge (words, names). */
+export function left(header: string): Column {
+  return { header, align: 'left' };
+}
+
+/** A column whose cells line up on their right edge (numbers). */
+export function right(header: string): Column {
+  return { header, align: 'right' };
+}
+
 export function renderTable(columns: readonly Column[], rows: readonly (readonly string[])[]): string {
   const widths = columns.map((c, i) => Math.max(c.header.length, ...rows.map((r) => (r[i] ?? '').length)));
   const line = (cells: readonly string[]) =>

@@ -17,7 +17,7 @@ import { formatEngineering, formatTime } from '../units/format.js';
 import { formatMargin } from './margin-format.js';
 import { CAUTIONS } from './cautions.js';
 import { shellCommand } from './shell-quote.js';
-import { renderTable } from './text-table.js';
+import { left, right, renderTable } from './text-table.js';
 import { CIRCUIT_KINDS, type CheckKind } from '../checks/check.js';
 
 /**
@@ -326,21 +326,21 @@ export function renderTuneText(r: TuneReport, designPath: string, errorBand?: st
   out.push(
     renderTable(
       [
-        { header: '', align: 'left' },
-        { header: 'stages', align: 'right' },
-        { header: 'stage size', align: 'right' },
-        { header: 'stage load', align: 'right' },
-        { header: 'buffer', align: 'right' },
-        { header: 'tap', align: 'right' },
-        { header: 'dead min', align: 'right' },
-        { header: 'dead max', align: 'right' },
-        { header: 'conduction', align: 'right' },
-        { header: 'verdict', align: 'left' },
-        { header: 'least margin', align: 'right' },
-        { header: 'headroom', align: 'right' },
-        { header: 'MC yield [95 %]', align: 'right' },
-        { header: 'ngspice', align: 'left' },
-        { header: 'limited by', align: 'left' },
+        left(''),
+        right('stages'),
+        right('stage size'),
+        right('stage load'),
+        right('buffer'),
+        right('tap'),
+        right('dead min'),
+        right('dead max'),
+        right('conduction'),
+        left('verdict'),
+        right('least margin'),
+        right('headroom'),
+        right('MC yield [95 %]'),
+        left('ngspice'),
+        left('limited by'),
       ],
       rows,
     ),
@@ -357,7 +357,7 @@ export function renderTuneText(r: TuneReport, designPath: string, errorBand?: st
     );
     out.push(
       renderTable(
-        TRADE_OFF_HEAD.map((header, i) => ({ header, align: i === 0 ? ('left' as const) : ('right' as const) })),
+        TRADE_OFF_HEAD.map((header, i) => (i === 0 ? left(header) : right(header))),
         tradeOffRows([
           ['current design', r.current],
           ...r.proposals.map((p, i): [string, TuneCandidateReport] => [`proposal ${i + 1}`, p]),

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { renderConfirmText } from '../../src/report/confirm-text.js';
+import { breakBeforeMakeCells, quantityCells, renderConfirmText } from '../../src/report/confirm-text.js';
 import type { CornerComparison } from '../../src/report/confirm-report.js';
 
 const dead = (model: number, simulator: number) => ({
@@ -126,5 +126,38 @@ describe('renderConfirmText', () => {
       "tt/1.8V/27C: 75 periods from the solver's steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured",
     );
     expect(text).toMatch(/circuit figures within tolerance at 0\/1 corners\)$/m);
+  });
+});
+
+describe('quantityCells', () => {
+  it('gives corner, quantity, model, simulator and the signed difference (1.00 ns against 980 ps: +2.0 %)', () => {
+    expect(quantityCells('tt/1.8V/27C', dead(1.0e-9, 0.98e-9))).toEqual(['tt/1.8V/27C', 'dead p1->p2', '1.00 ns', '980 ps', '+2.0 %']);
+  });
+
+  it('says "not measured" and "-" when the simulator has no value', () => {
+    const q = { ...dead(1.0e-9, 0.98e-9), simulator: null, relativeError: null };
+    expect(quantityCells('ss', q).slice(3)).toEqual(['not measured', '-']);
+  });
+});
+
+describe('breakBeforeMakeCells', () => {
+  it('gives corner, check and both signed margins', () => {
+    expect(breakBeforeMakeCells('ff', { check: 's0/t0 break-before-make', model: 20e-12, simulator: -15e-12, agrees: false })).toEqual([
+      'ff',
+      's0/t0 break-before-make',
+      '+20.0 ps',
+      '-15.0 ps',
+    ]);
+  });
+});
+
+describe('renderConfirmText quantity table', () => {
+  it('lines the numbers up on the right and the words on the left, under a rule as wide as each column', () => {
+    const lines = renderConfirmText(summary([corner('tt/1.8V/27C', [])])).split('\n');
+    expect(lines.slice(2, 5)).toEqual([
+      'corner       quantity       model  ngspice-42  difference  tolerance',
+      '-----------  -----------  -------  ----------  ----------  ---------',
+      'tt/1.8V/27C  dead p1->p2  1.00 ns      980 ps      +2.0 %  within',
+    ]);
   });
 });

@@ -50,3 +50,23 @@ export function drawTimeAxis(g: G, scale: ScaleLinear<number, number>, y: number
   }
   axis.line(round(x0), round(y), round(x1), round(y)).stroke({ color: MUTED, width: 1 });
 }
+
+/**
+ * A value axis up the left edge at x0: a light grid line across to x1 and a label left of the axis
+ * for each tick, then the axis line over the scale's range.
+ */
+export function drawValueAxis(
+  g: G,
+  scale: ScaleLinear<number, number>,
+  ticks: ReadonlyArray<{ readonly value: number; readonly label: string }>,
+  x0: number,
+  x1: number,
+): void {
+  const [bottom, top] = scale.range() as [number, number];
+  for (const t of ticks) {
+    const y = scale(t.value);
+    g.line(x0, round(y), x1, round(y)).stroke({ color: GRID, width: 1 });
+    drawText(g, t.label, x0 - 8, y + 4, { size: SIZE.tick, anchor: 'end', fill: MUTED, className: 'tick-label' });
+  }
+  g.line(x0, round(top), x0, round(bottom)).stroke({ color: MUTED, width: 1 });
+}

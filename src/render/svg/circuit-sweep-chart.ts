@@ -10,6 +10,7 @@ import type { CircuitSweep, SweepPoint } from '../../analysis/circuit-sweep.js';
 import { formatEngineering } from '../../units/format.js';
 import { CORNER_COLOURS, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE } from '../palette.js';
 import { createCanvas, points, round } from './canvas.js';
+import { drawValueAxis } from './axis.js';
 import { drawText, textWidth } from './text.js';
 import { paddedDomain, voltTicks } from './volt-axis.js';
 import { xmlText } from './xml-text.js';
@@ -132,16 +133,6 @@ function requirementLine(g: G, x0: number, x1: number, y: number, dash: string, 
     .attr({ class: cls, 'data-value': String(value) });
 }
 
-function yAxis(g: G, y: ScaleLinear<number, number>, ticks: ReadonlyArray<{ value: number; label: string }>): void {
-  const [bottom, top] = y.range() as [number, number];
-  for (const t of ticks) {
-    const ty = y(t.value);
-    g.line(LEFT, round(ty), RIGHT, round(ty)).stroke({ color: GRID, width: 1 });
-    drawText(g, t.label, LEFT - 8, ty + 4, { size: SIZE.tick, anchor: 'end', fill: MUTED, className: 'tick-label' });
-  }
-  g.line(LEFT, round(top), LEFT, round(bottom)).stroke({ color: MUTED, width: 1 });
-}
-
 export function renderCircuitSweepChart(input: SweepChartInput, idPrefix = 'sweep'): string {
   const { sweep } = input;
   const all = sweep.series.flatMap((s) => s.points);
@@ -193,11 +184,13 @@ export function renderCircuitSweepChart(input: SweepChartInput, idPrefix = 'swee
   for (const band of [OUT, EFF]) {
     for (const t of ticks) axes.line(round(x(t.value)), band.top, round(x(t.value)), band.bottom).stroke({ color: GRID, width: 1 });
   }
-  yAxis(axes.group().attr({ class: 'volt-axis' }), yOut, voltTicks(yOut, 5));
-  yAxis(
+  drawValueAxis(axes.group().attr({ class: 'volt-axis' }), yOut, voltTicks(yOut, 5), LEFT, RIGHT);
+  drawValueAxis(
     axes.group().attr({ class: 'percent-axis' }),
     yEff,
     yEff.ticks(5).map((v) => ({ value: v, label: `${v} %` })),
+    LEFT,
+    RIGHT,
   );
   for (const t of ticks) {
     axes.line(round(x(t.value)), EFF.bottom, round(x(t.value)), EFF.bottom + 5).stroke({ color: MUTED, width: 1 });

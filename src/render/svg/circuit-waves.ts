@@ -9,7 +9,7 @@ import type { CircuitWaves, NodeTrace } from '../circuit-waves.js';
 import { formatEngineering } from '../../units/format.js';
 import { CLOCK, GRID, INK, MUTED, PHASE, PHASE_TINT, SIZE } from '../palette.js';
 import { points, round } from './canvas.js';
-import { drawText, textWidth } from './text.js';
+import { drawText, fitText, textWidth } from './text.js';
 import { paddedDomain, voltTicks } from './volt-axis.js';
 import { xmlText } from './xml-text.js';
 
@@ -51,14 +51,6 @@ export function drawCircuitWaves(root: Svg, w: CircuitWaves, scale: ScaleLinear<
     drawRow(g, w, node, scale, top, place, `${place.prefix}-circuit-${i}`);
     g.line(round(x0), round(top + ROW - 2), round(x1), round(top + ROW - 2)).stroke({ color: GRID, width: 1 });
   });
-}
-
-/** The text cut to `width` with an ellipsis. */
-function fitText(text: string, size: number, width: number, bold: boolean): string {
-  if (textWidth(text, size, bold) <= width) return text;
-  let t = text;
-  while (t.length > 1 && textWidth(`${t}\u2026`, size, bold) > width) t = t.slice(0, -1);
-  return `${t}\u2026`;
 }
 
 function caption(w: CircuitWaves, node: NodeTrace): string {

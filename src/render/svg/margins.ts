@@ -10,13 +10,13 @@ import type { MarginRow } from '../margins.js';
 import { CIRCUIT_KINDS, marginUnit } from '../../checks/check.js';
 import { CORNER_COLOURS, CORNER_SHAPES, FAIL, GLYPH, GRID, INK, MUTED, PAPER, SIZE, type MarkerShape } from '../palette.js';
 import { xmlText } from './xml-text.js';
-import { createCanvas, points, round } from './canvas.js';
+import { createCanvas, round } from './canvas.js';
+import { drawMarker } from './markers.js';
 import { defineFailHatch } from './patterns.js';
-import { drawText, textWidth } from './text.js';
+import { drawText, fitText, textWidth } from './text.js';
 import { drawTitleBlock, type TitleInfo } from './title.js';
 import { formatSignedTimeShort } from '../../units/format.js';
-import { runTitle } from './metadata.js';
-import type { RunVerdict } from '../../report/verdict.js';
+import { runTitle, type RunDrawingOptions } from './metadata.js';
 
 export interface MarginChartInput {
   readonly title: TitleInfo;
@@ -25,12 +25,7 @@ export interface MarginChartInput {
   readonly processes: readonly string[];
 }
 
-export interface MarginSvgOptions {
-  readonly idPrefix?: string;
-  readonly width?: number;
-  /** The run's combined verdict, for the title box (the chart's own checks otherwise). */
-  readonly run?: RunVerdict;
-}
+export type MarginSvgOptions = RunDrawingOptions;
 
 const MARGIN = 16;
 const LABEL_COLUMN = 350;
@@ -62,67 +57,14 @@ export function decadeTicks(lo: number, hi: number, [from, to]: readonly [number
   return ticks;
 }
 
+/** A corner's marker: filled where that corner fails the check. */
 function marker(g: G, shape: MarkerShape, x: number, y: number, colour: string, filled: boolean): void {
-  const r = 4.5;
-  const fill = filled ? colour : PAPER;
-  const stroke = { color: colour, width: 1.4 };
-  const poly = (pts: Array<[number, number]>) => g.polygon(points(pts)).fill(fill).stroke(stroke).attr({ class: 'marker' });
-  switch (shape) {
-    case 'circle':
-      g.circle(2 * r)
-        .center(round(x), round(y))
-        .fill(fill)
-        .stroke(stroke)
-        .attr({ class: 'marker' });
-      return;
-    case 'square':
-      poly([
-        [x - r * 0.85, y - r * 0.85],
-        [x + r * 0.85, y - r * 0.85],
-        [x + r * 0.85, y + r * 0.85],
-        [x - r * 0.85, y + r * 0.85],
-      ]);
-      return;
-    case 'triangle':
-      poly([
-        [x, y - r],
-        [x + r, y + r * 0.8],
-        [x - r, y + r * 0.8],
-      ]);
-      return;
-    case 'diamond':
-      poly([
-        [x, y - r * 1.1],
-        [x + r, y],
-        [x, y + r * 1.1],
-        [x - r, y],
-      ]);
-      return;
-    case 'nabla':
-      poly([
-        [x - r, y - r * 0.8],
-        [x + r, y - r * 0.8],
-        [x, y + r],
-      ]);
-      return;
-    case 'cross':
-      g.line(round(x - r), round(y - r), round(x + r), round(y + r))
-        .stroke({ color: colour, width: 1.8 })
-        .attr({ class: 'marker' });
-      g.line(round(x - r), round(y + r), round(x + r), round(y - r)).stroke({ color: colour, width: 1.8 });
-  }
+  drawMarker(g, shape, x, y, { radius: 4.5, colour, fill: filled ? colour : PAPER, width: 1.4, crossWidth: 1.8 });
 }
 
 function style(processes: readonly string[], process: string): { shape: MarkerShape; colour: string } {
   const i = Math.max(0, processes.indexOf(process)) % CORNER_SHAPES.length;
   return { shape: CORNER_SHAPES[i]!, colour: CORNER_COLOURS[i]! };
-}
-
-function truncate(text: string, size: number, widthPx: number): string {
-  if (textWidth(text, size) <= widthPx) return text;
-  let t = text;
-  while (t.length > 1 && textWidth(`${t}\u2026`, size) > widthPx) t = t.slice(0, -1);
-  return `${t}\u2026`;
 }
 
 /** The kinds of margin on the chart, each on its own axis: timing (s), voltage (V), charge (C) and fraction (''). */
@@ -366,7 +308,7 @@ function drawRow(
       .attr({ 'fill-opacity': 0.6 });
   const mid = band.top + band.height / 2;
   const fail = row.failing > 0;
-  drawText(g, truncate(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, row.requirement ? mid - 1 : mid + 5, {
+  drawText(g, fitText(row.name, SIZE.annotation, LABEL_COLUMN - 24), x0 - 10, row.requirement ? mid - 1 : mid + 5, {
     size: SIZE.annotation,
     anchor: 'end',
     fill: fail ? FAIL : INK,
@@ -375,7 +317,7 @@ function drawRow(
     data: { check: row.name },
   });
   if (row.requirement) {
-    drawText(g, truncate(row.requirement, SIZE.small, LABEL_COLUMN - 24), x0 - 10, mid + 12, {
+    drawText(g, fitText(row.requirement, SIZE.small, LABEL_COLUMN - 24), x0 - 10, mid + 12, {
       size: SIZE.small,
       anchor: 'end',
       fill: MUTED,

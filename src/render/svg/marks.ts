@@ -39,6 +39,19 @@ export function dimensionLine(g: G, x0: number, x1: number, y: number, fail: boo
   g.line(round(hi), round(y - 5), round(hi), round(y + 5)).stroke({ color: colour, width: 1 });
 }
 
+/** A dimension between two features: an extension line from each down to just past the dimension line at y, then the line. */
+export function dimensionMark(
+  g: G,
+  from: { readonly x: number; readonly y: number },
+  to: { readonly x: number; readonly y: number },
+  y: number,
+  fail: boolean,
+): void {
+  extensionLine(g, from.x, from.y, y + 5, fail);
+  extensionLine(g, to.x, to.y, y + 5, fail);
+  dimensionLine(g, from.x, to.x, y, fail);
+}
+
 /** A small marker that reads without colour: a filled circle (pass) or a cross in a box (fail). */
 export function verdictGlyph(g: G, x: number, y: number, pass: boolean): void {
   if (pass) {

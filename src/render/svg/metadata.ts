@@ -11,6 +11,16 @@ import { xmlText } from './xml-text.js';
 
 const escapeXml = (text: string) => xmlText(text).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 
+/** How a drawing of the run is placed in its page and headed. */
+export interface RunDrawingOptions {
+  /** Prefix of element ids, unique per drawing when several share one page. */
+  readonly idPrefix?: string;
+  /** Width of the drawing, px. */
+  readonly width?: number;
+  /** The run's combined verdict, for the title box (the drawing's own checks otherwise). */
+  readonly run?: RunVerdict;
+}
+
 /** Inserts the metadata element as the first child of the root `<svg>`. */
 export function withRunMetadata(svg: string, verdict: RunVerdict, p: Provenance): string {
   const lines = [...verdictBlock(verdict), ...provenanceLines(p)].map(escapeXml);

@@ -12,6 +12,14 @@ export function textWidth(text: string, size: number, bold = false): number {
   return [...text].length * size * (bold ? 0.7 : 0.64);
 }
 
+/** The text cut to `width` px with an ellipsis, or whole when it fits. */
+export function fitText(text: string, size: number, width: number, bold = false): string {
+  if (textWidth(text, size, bold) <= width) return text;
+  let t = text;
+  while (t.length > 1 && textWidth(`${t}\u2026`, size, bold) > width) t = t.slice(0, -1);
+  return `${t}\u2026`;
+}
+
 export interface Box {
   readonly x0: number;
   readonly y0: number;

@@ -15,35 +15,30 @@ import { CLOCK, DEAD_ZONE, FAIL, FAINT, GLYPH, GRID, INK, INTERNAL, MUTED, PANEL
 import { createCanvas, points, round } from './canvas.js';
 import { drawTimeAxis } from './axis.js';
 import { bandOutline, edgeGroups, type EdgeGroup } from './envelope.js';
-import { dimensionLine, extensionLine } from './marks.js';
+import { dimensionMark } from './marks.js';
 import { defineFailHatch, defineOpenFailHatch, failHatchId } from './patterns.js';
-import { drawText, textWidth, wrapLines } from './text.js';
+import { drawText, fitText, textWidth, wrapLines } from './text.js';
 import { xmlText } from './xml-text.js';
 import { diagramTitle, drawTitleBlock } from './title.js';
-import { runTitle } from './metadata.js';
-import type { RunVerdict } from '../../report/verdict.js';
+import { runTitle, type RunDrawingOptions } from './metadata.js';
 import { circuitLegendEntries, circuitWavesHeight, drawCircuitWaves } from './circuit-waves.js';
 
-export interface TimingSvgOptions {
-  /** Prefix of element ids, unique per drawing when several share one page. */
-  readonly idPrefix?: string;
-  /** Width of the drawing, px. */
-  readonly width?: number;
-  /** The run's combined verdict, for the title box (the drawing's own checks otherwise). */
-  readonly run?: RunVerdict;
-}
+export type TimingSvgOptions = RunDrawingOptions;
 
 const MARGIN = 16;
 const LABEL_COLUMN = 150;
 const PANEL_GAP = 36;
 const TITLE_HEIGHT = 92;
-const OVERVIEW = { row: 26, lane: 16 } as const;
-const DETAIL = { row: 34, lane: 22, dead: 60, bbm: 62 } as const;
+/** Height of one dead-time mark's lane and of a break-before-make lane under the handovers, px. */
+const DEAD_LANE = 60;
+const BBM_LANE = 62;
 /** Room between an off-state label and the conduction bars either side of it, px. */
 export const OFF_LABEL_GAP = 10;
 /** Height of a settle-path lane in the whole-period panel, px. */
 const SETTLE_LANE = 40;
 const AXIS_HEIGHT = 34;
+/** Shifts, in periods, that bring every copy of a periodic event into a window up to two periods away. */
+const PERIOD_COPIES = [-2, -1, 0, 1, 2] as const;
 
 /** Dead-time and break-before-make values as shown: whole picoseconds, ns from 10 ns. */
 export const psText = formatPs;
@@ -74,6 +69,25 @@ interface Layout {
   readonly bottom: number;
 }
 
+/**
+ * What one kind of panel shows. The whole period carries the settle paths and writes each switch's
+ * off-state verdict in its lane; the enlarged handovers carry the dimension marks (dead-time and
+ * break-before-make lanes, dead zones, the phases' 50 % points) and name switches that do not switch.
+ */
+interface PanelKind {
+  /** Class of the panel's row labels. */
+  readonly name: 'overview' | 'detail';
+  /** Height of a signal row and of a switch lane, px. */
+  readonly row: number;
+  readonly lane: number;
+  readonly dimensionMarks: boolean;
+  readonly settleLanes: boolean;
+  readonly offStateLabels: boolean;
+}
+
+const WHOLE_PERIOD: PanelKind = { name: 'overview', row: 26, lane: 16, dimensionMarks: false, settleLanes: true, offStateLabels: true };
+const HANDOVER: PanelKind = { name: 'detail', row: 34, lane: 22, dimensionMarks: true, settleLanes: false, offStateLabels: false };
+
 function rowColour(row: { role: string; phase: 0 | 1 | null }): string {
   if (row.phase !== null) return PHASE[row.phase];
   return row.role === 'internal' ? INTERNAL : CLOCK;
@@ -91,39 +105,39 @@ function levelY(band: Band, v: number): number {
   return lo - v * (lo - hi);
 }
 
-function layoutRows(d: Diagram, top: number, sizes: { row: number; lane: number }, detail: boolean): Layout {
+function layoutRows(d: Diagram, top: number, kind: PanelKind): Layout {
   let y = top;
   const signal = d.rows.map(() => {
-    const b = { top: y, height: sizes.row };
-    y += sizes.row;
+    const b = { top: y, height: kind.row };
+    y += kind.row;
     return b;
   });
   let dead: Band | null = null;
-  if (detail && d.deadTimes.length > 0) {
+  if (kind.dimensionMarks && d.deadTimes.length > 0) {
     const marks = Math.max(...d.deadTimes.map((m) => m.marks.length));
-    dead = { top: y, height: DETAIL.dead * marks };
+    dead = { top: y, height: DEAD_LANE * marks };
     y += dead.height;
   }
   const switches = d.switches.map(() => {
-    const b = { top: y, height: sizes.lane };
-    y += sizes.lane;
+    const b = { top: y, height: kind.lane };
+    y += kind.lane;
     return b;
   });
   const bbm = new Map<string, Band>();
-  if (detail) {
+  if (kind.dimensionMarks) {
     for (const m of d.breakBeforeMake) {
       if (bbm.has(m.name)) continue;
-      bbm.set(m.name, { top: y, height: DETAIL.bbm });
-      y += DETAIL.bbm;
+      bbm.set(m.name, { top: y, height: BBM_LANE });
+      y += BBM_LANE;
     }
   }
-  const settle = detail
-    ? []
-    : d.settle.map(() => {
+  const settle = kind.settleLanes
+    ? d.settle.map(() => {
         const b = { top: y, height: SETTLE_LANE };
         y += SETTLE_LANE;
         return b;
-      });
+      })
+    : [];
   return { signal, switches, dead, bbm, settle, bottom: y };
 }
 
@@ -133,12 +147,12 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   const x0 = MARGIN + LABEL_COLUMN;
   const x1 = width - MARGIN;
   const overviewTop = TITLE_HEIGHT + 44;
-  const rows = layoutRows(d, overviewTop, OVERVIEW, false);
+  const rows = layoutRows(d, overviewTop, WHOLE_PERIOD);
   // The circuit's node voltages sit under the whole period's lanes, above its time axis.
   const overview = { ...rows, bottom: rows.bottom + circuitWavesHeight(d.circuit) };
-  const detailTop = overview.bottom + AXIS_HEIGHT + 62;
-  const detail = layoutRows(d, detailTop, DETAIL, true);
-  const legendTop = detail.bottom + AXIS_HEIGHT + 16;
+  const handoverTop = overview.bottom + AXIS_HEIGHT + 62;
+  const handovers = layoutRows(d, handoverTop, HANDOVER);
+  const legendTop = handovers.bottom + AXIS_HEIGHT + 16;
   const height = legendTop + legendHeight(d, width - 2 * MARGIN, failHatchId(prefix)) + 8;
   const title = `${d.design}: timing diagram, ${d.cornerLabel}`;
   const canvas = createCanvas(width, height, title);
@@ -161,7 +175,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   // Axes and their grid lines go beneath the panels: no grid line crosses a label.
   const overviewAxis = root.group();
   drawWindowBrackets(ctx, overviewScale, overview, overviewTop - 2);
-  drawPanel(ctx, 'overview', whole, overviewScale, overview, false);
+  drawPanel(ctx, 'overview', whole, overviewScale, overview, WHOLE_PERIOD);
   if (d.circuit)
     drawCircuitWaves(root, d.circuit, overviewScale, {
       top: rows.bottom,
@@ -171,14 +185,14 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
       overlay: d.mode === 'all',
     });
   drawTimeAxis(overviewAxis, overviewScale, overview.bottom + 4, overviewTop, Math.floor((x1 - x0) / 90));
-  drawRowLabels(ctx, overview, x0 - 10, false);
+  drawRowLabels(ctx, overview, x0 - 10, WHOLE_PERIOD);
 
   sectionHeading(
     root,
     'Handovers, enlarged',
     'same time scale in both panels; ramps drawn with their simulated transition times',
     MARGIN,
-    detailTop - 36,
+    handoverTop - 36,
   );
   const panelWidth = (x1 - x0 - PANEL_GAP) / 2;
   d.windows.forEach((w, i) => {
@@ -186,16 +200,16 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
     const scale = scaleLinear()
       .domain([w.from, w.to])
       .range([px0, px0 + panelWidth]);
-    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, detailTop - 10, {
+    drawText(root.group(), `${i === 0 ? 'A' : 'B'}  ${panelTitle(d, w)}`, px0, handoverTop - 10, {
       size: SIZE.label,
       bold: true,
       className: 'panel-title',
     });
     const axis = root.group();
-    drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, detail, true);
-    drawTimeAxis(axis, scale, detail.bottom + 4, detailTop, Math.max(3, Math.floor(panelWidth / 95)));
+    drawPanel(ctx, i === 0 ? 'detail-a' : 'detail-b', w, scale, handovers, HANDOVER);
+    drawTimeAxis(axis, scale, handovers.bottom + 4, handoverTop, Math.max(3, Math.floor(panelWidth / 95)));
   });
-  drawRowLabels(ctx, detail, x0 - 10, true, panelWidth);
+  drawRowLabels(ctx, handovers, x0 - 10, HANDOVER, panelWidth);
   drawLegend(ctx, MARGIN, legendTop, width - 2 * MARGIN);
   return canvas.finish();
 }
@@ -255,7 +269,16 @@ function drawWindowBrackets(ctx: Context, scale: ScaleLinear<number, number>, la
   });
 }
 
-function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, detail: boolean): void {
+/** One panel as its marks see it: the time window, its scale to pixels, the row layout and the panel's kind. */
+interface Frame {
+  readonly w: TimeWindow;
+  readonly scale: ScaleLinear<number, number>;
+  readonly layout: Layout;
+  readonly kind: PanelKind;
+}
+
+function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, kind: PanelKind): void {
+  const frame: Frame = { w, scale, layout, kind };
   const [px0, px1] = scale.range() as [number, number];
   const clipId = `${ctx.prefix}-clip-${name}`;
   ctx.root
@@ -274,27 +297,28 @@ function drawPanel(ctx: Context, name: string, w: TimeWindow, scale: ScaleLinear
   for (const band of layout.signal) {
     clipped.line(round(px0), round(band.top + band.height), round(px1), round(band.top + band.height)).stroke({ color: GRID, width: 1 });
   }
-  if (detail) drawDeadZones(ctx, clipped, w, scale, layout);
+  if (kind.dimensionMarks) drawDeadZones(ctx, clipped, frame);
   ctx.d.rows.forEach((row, i) => {
-    drawSignalRow(ctx, clipped, row, layout.signal[i]!, w, scale, detail);
+    drawSignalRow(ctx, clipped, row, layout.signal[i]!, frame);
   });
   ctx.d.switches.forEach((s, i) => {
-    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, w, scale, detail);
+    drawSwitchLane(ctx, clipped, s, layout.switches[i]!, frame);
   });
-  if (detail) {
+  if (kind.dimensionMarks) {
     // Labels go on a layer above every mark's lines, so no later mark's extension line crosses them.
     const labels = panel.group().attr({ class: 'mark-labels' });
-    drawDeadMarks(ctx, panel, w, scale, layout, labels);
-    drawBbmMarks(ctx, panel, w, scale, layout, labels);
+    drawDeadMarks(ctx, panel, frame, labels);
+    drawBbmMarks(ctx, panel, frame, labels);
     labels.front();
-  } else drawSettleMarks(ctx, panel, scale, layout);
+  }
+  if (kind.settleLanes) drawSettleMarks(ctx, panel, frame);
 }
 
 /**
  * Each settle path in the whole period: its common on-window as an outlined bar, the on-time it
  * needs as a solid bar from the same start, and a line with the numbers; a shortfall is hatched.
  */
-function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawSettleMarks(ctx: Context, g: G, { scale, layout }: Frame): void {
   const T = ctx.d.period;
   ctx.d.settle.forEach((mark, i) => {
     const band = layout.settle[i];
@@ -311,12 +335,12 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
       const [, px1] = scale.range() as [number, number];
       drawText(
         ug,
-        truncate(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true),
+        fitText(`${mark.name}: not measurable at ${mark.corner} ${GLYPH.fail} FAIL`, SIZE.annotation, px1 - px0 - 8, true),
         px0 + 4,
         band.top + 16,
         { size: SIZE.annotation, fill: FAIL, bold: true, className: 'settle-label', halo: true },
       );
-      drawText(ug, truncate(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, {
+      drawText(ug, fitText(mark.reason, SIZE.small, px1 - px0 - 40, false), px0 + 34, barY + 9, {
         size: SIZE.small,
         fill: FAIL,
         className: 'settle-reason',
@@ -367,22 +391,14 @@ function drawSettleMarks(ctx: Context, g: G, scale: ScaleLinear<number, number>,
   });
 }
 
-function drawSignalRow(
-  ctx: Context,
-  g: G,
-  row: DiagramRow,
-  band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  detail: boolean,
-): void {
+function drawSignalRow(ctx: Context, g: G, row: DiagramRow, band: Band, { w, scale, kind }: Frame): void {
   const colour = rowColour(row);
   const rg = g.group().attr({ class: 'signal-row', 'data-signal': row.net, 'data-role': row.role });
   const toXY = (p: readonly [number, number]): [number, number] => [scale(p[0]), levelY(band, p[1])];
   const line = wavePoints(row.reference, w.from, w.to).map(toXY);
   if (ctx.d.mode === 'all') {
     for (const group of ctx.groups.get(row.net) ?? []) {
-      for (const k of [-2, -1, 0, 1, 2]) {
+      for (const k of PERIOD_COPIES) {
         const shift = k * ctx.d.period;
         if (group.t50Max + shift < w.from - ctx.d.period * 0.01 || group.t50Min + shift > w.to + ctx.d.period * 0.01) continue;
         const outline = bandOutline(group).outline.map(([t, v]) => toXY([t + shift, v]));
@@ -407,7 +423,7 @@ function drawSignalRow(
   const poly = rg.polyline(points(line)).fill('none').stroke(stroke).attr({ class: 'wave' });
   const pattern = dash(row.role);
   if (pattern) poly.attr('stroke-dasharray', pattern);
-  if (detail && row.role === 'phase') {
+  if (kind.dimensionMarks && row.role === 'phase') {
     for (const r of row.reference.ramps) {
       const t = inWindow(r.t50, w, row.reference.period);
       if (t !== null)
@@ -419,37 +435,29 @@ function drawSignalRow(
   }
 }
 
-function drawSwitchLane(
-  ctx: Context,
-  g: G,
-  s: SwitchRow,
-  band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  detail = false,
-): void {
+function drawSwitchLane(ctx: Context, g: G, s: SwitchRow, band: Band, frame: Frame): void {
+  const { w, scale } = frame;
   const lg = g.group().attr({ class: 'switch-lane', 'data-switch': s.name });
   const colour = s.phase === null ? INTERNAL : PHASE[s.phase];
   const tint = s.phase === null ? GRID : PHASE_TINT[s.phase];
-  const h = Math.min(12, band.height * 0.55);
+  const h = barHeight(band);
   const y = band.top + (band.height - h) / 2;
-  const busy: Array<{ xa: number; xb: number }> = [];
-  if (s.windows.length > 0) {
-    const on = Math.min(...s.windows.map((x) => x.on));
-    const off = Math.max(...s.windows.map((x) => x.off));
-    for (const k of [-2, -1, 0, 1, 2]) busy.push({ xa: scale(on + k * ctx.d.period), xb: scale(off + k * ctx.d.period) });
-  }
-  drawOffIntervals(ctx, lg, s, band, w, scale, !detail, busy);
-  if (s.windows.length === 0) return;
-  const spread = { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) };
+  // Over all corners: the earliest turn-on to the latest turn-off.
+  const spread =
+    s.windows.length > 0 ? { on: Math.min(...s.windows.map((x) => x.on)), off: Math.max(...s.windows.map((x) => x.off)) } : null;
+  const busy = spread
+    ? PERIOD_COPIES.map((k) => ({ xa: scale(spread.on + k * ctx.d.period), xb: scale(spread.off + k * ctx.d.period) }))
+    : [];
+  drawOffIntervals(ctx, lg, s, band, frame, busy);
+  if (!spread) return;
   const wide = { on: Math.max(...s.windows.map((x) => x.on)), off: Math.min(...s.windows.map((x) => x.off)) };
   const narrow = { on: Math.max(...s.windows.map((x) => x.onLatest)), off: Math.min(...s.windows.map((x) => x.offEarliest)) };
-  for (const k of [-2, -1, 0, 1, 2]) {
+  for (const k of PERIOD_COPIES) {
     const shift = k * ctx.d.period;
     const bar = (a: number, b: number, fill: string, cls: string, dasharray?: string) => {
-      const xa = Math.max(scale(w.from) - 2, scale(a + shift));
-      const xb = Math.min(scale(w.to) + 2, scale(b + shift));
-      if (xb <= xa) return;
+      const span = clipToWindow(scale, w, a + shift, b + shift);
+      if (!span) return;
+      const { xa, xb } = span;
       lg.rect(round(xb - xa), round(h))
         .move(round(xa), round(y))
         .fill(fill)
@@ -463,6 +471,18 @@ function drawSwitchLane(
   }
 }
 
+/** Height of a conduction (or failing off-state) bar in a switch lane, px. */
+function barHeight(band: Band): number {
+  return Math.min(12, band.height * 0.55);
+}
+
+/** The pixels from time a to time b, cut to the window with 2 px to spare either side; null when nothing is left. */
+function clipToWindow(scale: ScaleLinear<number, number>, w: TimeWindow, a: number, b: number): { xa: number; xb: number } | null {
+  const xa = Math.max(scale(w.from) - 2, scale(a));
+  const xb = Math.min(scale(w.to) + 2, scale(b));
+  return xb <= xa ? null : { xa, xb };
+}
+
 /**
  * Along a switch's lane, a thin strip over every interval in which it must be off: grey where its
  * gate holds it off against both terminals, a full-height hatched bar where it does not (the
@@ -473,9 +493,7 @@ function drawOffIntervals(
   g: G,
   s: SwitchRow,
   band: Band,
-  w: TimeWindow,
-  scale: ScaleLinear<number, number>,
-  label: boolean,
+  { w, scale, kind }: Frame,
   busy: ReadonlyArray<{ xa: number; xb: number }>,
 ): void {
   const off = s.offState;
@@ -486,15 +504,15 @@ function drawOffIntervals(
     'data-corner': off.corner,
     'data-phase': off.phase,
   });
-  const h = off.pass ? 3 : Math.min(12, band.height * 0.55);
+  const h = off.pass ? 3 : barHeight(band);
   const y = band.top + (band.height - h) / 2;
   const spans: Array<{ xa: number; xb: number }> = [];
-  for (const k of [-2, -1, 0, 1, 2]) {
+  for (const k of PERIOD_COPIES) {
     const shift = k * ctx.d.period;
     for (const i of off.intervals) {
-      const xa = Math.max(scale(w.from) - 2, scale(i.start + shift));
-      const xb = Math.min(scale(w.to) + 2, scale(i.end + shift));
-      if (xb <= xa) continue;
+      const span = clipToWindow(scale, w, i.start + shift, i.end + shift);
+      if (!span) continue;
+      const { xa, xb } = span;
       og.rect(round(xb - xa), round(h))
         .move(round(xa), round(y))
         .fill(off.pass ? FAINT : ctx.hatch)
@@ -514,7 +532,7 @@ function drawOffIntervals(
   const text = offStateText(s);
   const width = textWidth(text, SIZE.small, !off.pass);
   // Clear of the conduction bars at both ends of the run.
-  if (label && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
+  if (kind.offStateLabels && widest && width + 2 * OFF_LABEL_GAP + 8 <= widest.xb - widest.xa) {
     og.rect(round(width + 8), 13)
       .move(round(widest.xa + OFF_LABEL_GAP), round(band.top + band.height / 2 - 6.5))
       .fill(PAPER)
@@ -562,11 +580,16 @@ function markX(mark: SpanMark, w: TimeWindow, period: number, scale: ScaleLinear
   return { xs: scale(start), xe: scale(start + mark.end - mark.start) };
 }
 
+/** From the top of the higher band to the bottom of the lower, px. */
+function spanOf(a: Band, b: Band): { top: number; bottom: number } {
+  return { top: Math.min(a.top, b.top), bottom: Math.max(a.top + a.height, b.top + b.height) };
+}
+
 function rowIndex(d: Diagram, net: string): number {
   return d.rows.findIndex((r) => r.net === net);
 }
 
-function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout): void {
+function drawDeadZones(ctx: Context, g: G, { w, scale, layout }: Frame): void {
   for (const dt of ctx.d.deadTimes) {
     const mark = dt.marks[0];
     if (!mark) continue;
@@ -575,8 +598,7 @@ function drawDeadZones(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
     const a = layout.signal[rowIndex(ctx.d, dt.from)];
     const b = layout.signal[rowIndex(ctx.d, dt.to)];
     if (!a || !b) continue;
-    const top = Math.min(a.top, b.top);
-    const bottom = Math.max(a.top + a.height, b.top + b.height);
+    const { top, bottom } = spanOf(a, b);
     const lo = Math.min(x.xs, x.xe);
     const fail = dt.marks.some((m) => !m.pass);
     g.rect(round(Math.max(1, Math.abs(x.xe - x.xs))), round(bottom - top))
@@ -612,7 +634,7 @@ function roleWord(mark: SpanMark): string {
   return mark.role === 'least' ? 'least ' : mark.role === 'most' ? 'most ' : '';
 }
 
-function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
+function drawDeadMarks(ctx: Context, g: G, { w, scale, layout }: Frame, labels: G): void {
   if (!layout.dead) return;
   for (const dt of ctx.d.deadTimes) {
     const fromBand = layout.signal[rowIndex(ctx.d, dt.from)];
@@ -621,14 +643,12 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
     dt.marks.forEach((mark, k) => {
       const x = markX(mark, w, ctx.d.period, scale);
       if (!x) return;
-      const laneTop = layout.dead!.top + k * DETAIL.dead;
+      const laneTop = layout.dead!.top + k * DEAD_LANE;
       const lineY = laneTop + 24;
       const mg = g
         .group()
         .attr({ class: 'dead-time-mark', 'data-from': dt.from, 'data-to': dt.to, 'data-corner': mark.corner, 'data-role': mark.role });
-      extensionLine(mg, x.xs, levelY(fromBand, 0.5), lineY + 5, !mark.pass);
-      extensionLine(mg, x.xe, levelY(toBand, 0.5), lineY + 5, !mark.pass);
-      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      dimensionMark(mg, { x: x.xs, y: levelY(fromBand, 0.5) }, { x: x.xe, y: levelY(toBand, 0.5) }, lineY, !mark.pass);
       const value = `${roleWord(mark)}dead time ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       const centre = (x.xs + x.xe) / 2;
       const style = { size: SIZE.annotation, anchor: 'middle' as const, bold: true, fill: mark.pass ? INK : FAIL, ground: true };
@@ -647,7 +667,7 @@ function drawDeadMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<num
   }
 }
 
-function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<number, number>, layout: Layout, labels: G): void {
+function drawBbmMarks(ctx: Context, g: G, { w, scale, layout }: Frame, labels: G): void {
   for (const bbm of ctx.d.breakBeforeMake) {
     const lane = layout.bbm.get(bbm.name);
     const fromIndex = ctx.d.switches.findIndex((s) => s.name === bbm.from);
@@ -671,8 +691,7 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
       if (!mark.pass) {
         const lo = Math.max(panelLeft, Math.min(x.xs, x.xe, x.xs + gx));
         const hi = Math.min(panelRight, Math.max(x.xs, x.xe, x.xs + gx));
-        const top = Math.min(fromBand.top, toBand.top);
-        const bottom = Math.max(fromBand.top + fromBand.height, toBand.top + toBand.height);
+        const { top, bottom } = spanOf(fromBand, toBand);
         // Stripes without a ground, so the overlapping bars it marks stay visible beneath.
         mg.rect(round(Math.max(2, hi - lo)), round(bottom - top))
           .move(round(lo), round(top))
@@ -680,9 +699,8 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
           .stroke({ color: FAIL, width: 1.5 })
           .attr({ class: 'bbm-fail' });
       }
-      extensionLine(mg, x.xs, fromBand.top + fromBand.height / 2, lineY + 5, !mark.pass);
-      extensionLine(mg, x.xe, toBand.top + toBand.height / 2, lineY + 5, !mark.pass);
-      dimensionLine(mg, x.xs, x.xe, lineY, !mark.pass);
+      const from = { x: x.xs, y: fromBand.top + fromBand.height / 2 };
+      dimensionMark(mg, from, { x: x.xe, y: toBand.top + toBand.height / 2 }, lineY, !mark.pass);
       const centre = (x.xs + x.xe) / 2;
       const label = `${bbm.from} ${bbm.fromEvent} to ${bbm.to} ${bbm.toEvent} ${psText(mark.value)}${mark.pass ? '' : ` ${GLYPH.fail} FAIL`}`;
       drawText(labels, label, clampCentre(label, centre, SIZE.annotation, scale, true), lineY - 7, {
@@ -707,19 +725,12 @@ function drawBbmMarks(ctx: Context, g: G, w: TimeWindow, scale: ScaleLinear<numb
   }
 }
 
-function truncate(text: string, size: number, widthPx: number, bold: boolean): string {
-  if (textWidth(text, size, bold) <= widthPx) return text;
-  let t = text;
-  while (t.length > 1 && textWidth(`${t}\u2026`, size, bold) > widthPx) t = t.slice(0, -1);
-  return `${t}\u2026`;
-}
-
-function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean, panelWidth = Infinity): void {
-  const g = ctx.root.group().attr({ class: detail ? 'row-labels detail' : 'row-labels overview' });
+function drawRowLabels(ctx: Context, layout: Layout, x: number, kind: PanelKind, panelWidth = Infinity): void {
+  const g = ctx.root.group().attr({ class: `row-labels ${kind.name}` });
   const room = LABEL_COLUMN - 14;
   ctx.d.rows.forEach((row, i) => {
     const band = layout.signal[i]!;
-    const text = truncate(row.net, SIZE.label, room, row.role === 'phase');
+    const text = fitText(row.net, SIZE.label, room, row.role === 'phase');
     drawText(g, text, x, band.top + band.height / 2 + 5, {
       size: SIZE.label,
       anchor: 'end',
@@ -731,7 +742,7 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean,
   });
   ctx.d.switches.forEach((s, i) => {
     const band = layout.switches[i]!;
-    const text = truncate(`${s.name} (${s.type})`, SIZE.small, room, false);
+    const text = fitText(`${s.name} (${s.type})`, SIZE.small, room, false);
     drawText(g, text, x, band.top + band.height / 2 + 4, {
       size: SIZE.small,
       anchor: 'end',
@@ -740,11 +751,11 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean,
       data: { switch: s.name },
     });
 
-    if (detail && s.problems.length > 0) {
+    if (kind.dimensionMarks && s.problems.length > 0) {
       const first = s.problems[0]!;
       const msg = `${GLYPH.fail} does not switch at ${s.problems.length === 1 ? first.corner : `${s.problems.length} corners`}: ${first.detail}`;
       // Kept inside the first panel; the whole text is the element's tooltip and data.
-      const shown = truncate(msg, SIZE.small, panelWidth - 24, false);
+      const shown = fitText(msg, SIZE.small, panelWidth - 24, false);
       drawText(g, shown, x + 20, band.top + band.height / 2 + 4, {
         size: SIZE.small,
         fill: FAIL,
@@ -755,26 +766,19 @@ function drawRowLabels(ctx: Context, layout: Layout, x: number, detail: boolean,
       if (shown !== msg) g.last().element('title').words(xmlText(msg));
     }
   });
+  // A lane of marks: what it measures (muted), and under it the name of what it measures.
+  const laneLabel = (heading: string, name: string, top: number, offset: number, className: string) => {
+    drawText(g, heading, x, top + offset, { size: SIZE.small, anchor: 'end', fill: MUTED, className });
+    drawText(g, fitText(name, SIZE.small, room), x, top + (offset + 15), { size: SIZE.small, anchor: 'end', fill: INK, className });
+  };
   for (const [name, band] of layout.bbm) {
-    const kind = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
-    drawText(g, kind, x, band.top + 20, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'bbm-lane-label' });
-    drawText(g, truncate(name, SIZE.small, room, false), x, band.top + 35, {
-      size: SIZE.small,
-      anchor: 'end',
-      fill: INK,
-      className: 'bbm-lane-label',
-    });
+    const check = ctx.d.breakBeforeMake.find((m) => m.name === name)?.kind ?? 'break-before-make';
+    laneLabel(check, name, band.top, 20, 'bbm-lane-label');
   }
   if (layout.dead)
     drawText(g, 'dead time', x, layout.dead.top + 22, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'dead-lane-label' });
   layout.settle.forEach((band, i) => {
-    drawText(g, 'settle', x, band.top + 16, { size: SIZE.small, anchor: 'end', fill: MUTED, className: 'settle-lane-label' });
-    drawText(g, truncate(ctx.d.settle[i]!.name, SIZE.small, room, false), x, band.top + 31, {
-      size: SIZE.small,
-      anchor: 'end',
-      fill: INK,
-      className: 'settle-lane-label',
-    });
+    laneLabel('settle', ctx.d.settle[i]!.name, band.top, 16, 'settle-lane-label');
   });
 }
 
@@ -786,6 +790,7 @@ interface LegendEntry {
 /** The legend's swatches, in reading order; only what the drawing shows. */
 function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
   const out: LegendEntry[] = [];
+  const swatch = (g: G, gx: number, y: number, height = 10, dy = 3) => g.rect(24, height).move(round(gx), round(y + dy));
   const sample = (colour: string, dasharray?: string) => (g: G, gx: number, y: number) => {
     const l = g.line(round(gx), round(y + 8), round(gx + 24), round(y + 8)).stroke({ color: colour, width: 2 });
     if (dasharray) l.attr('stroke-dasharray', dasharray);
@@ -798,10 +803,7 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
   out.push({
     text: `${GLYPH.fail} FAIL (hatched)`,
     draw: (g, gx, y) => {
-      g.rect(24, 10)
-        .move(round(gx), round(y + 3))
-        .fill(hatch)
-        .stroke({ color: FAIL, width: 1 });
+      swatch(g, gx, y).fill(hatch).stroke({ color: FAIL, width: 1 });
     },
   });
   if (d.switches.length > 0) {
@@ -810,48 +812,33 @@ function legendEntries(d: Diagram, hatch: string): LegendEntry[] {
       out.push({
         text: 'switch conducts at some corners only',
         draw: (g, gx, y) => {
-          g.rect(24, 10)
-            .move(round(gx), round(y + 3))
-            .fill(PAPER)
-            .stroke({ color: PHASE[0], width: 1, dasharray: '3 2' })
-            .attr({ class: 'legend-spread' });
+          swatch(g, gx, y).fill(PAPER).stroke({ color: PHASE[0], width: 1, dasharray: '3 2' }).attr({ class: 'legend-spread' });
         },
       });
     }
     out.push({
       text: `${all ? 'at every corner, ' : 'switch conducts '}at some signal level`,
       draw: (g, gx, y) => {
-        g.rect(24, 10)
-          .move(round(gx), round(y + 3))
-          .fill(PHASE_TINT[0])
-          .stroke({ color: PHASE[0], width: 1 });
+        swatch(g, gx, y).fill(PHASE_TINT[0]).stroke({ color: PHASE[0], width: 1 });
       },
     });
     out.push({
       text: `${all ? 'at every corner and ' : 'at every '}signal level`,
       draw: (g, gx, y) => {
-        g.rect(24, 10)
-          .move(round(gx), round(y + 3))
-          .fill(PHASE[0]);
+        swatch(g, gx, y).fill(PHASE[0]);
       },
     });
     out.push({
       text: 'guard time',
       draw: (g, gx, y) => {
-        g.rect(24, 8)
-          .move(round(gx), round(y + 4))
-          .fill(FAINT)
-          .attr({ 'fill-opacity': 0.55 });
+        swatch(g, gx, y, 8, 4).fill(FAINT).attr({ 'fill-opacity': 0.55 });
       },
     });
     if (d.switches.some((s) => s.offState)) {
       out.push({
         text: 'must be off: the gate holds it off against both terminals',
         draw: (g, gx, y) => {
-          g.rect(24, 3)
-            .move(round(gx), round(y + 7))
-            .fill(FAINT)
-            .stroke({ color: MUTED, width: 0.5 });
+          swatch(g, gx, y, 3, 7).fill(FAINT).stroke({ color: MUTED, width: 0.5 });
         },
       });
     }

@@ -6,10 +6,11 @@
  */
 import type { G } from '@svgdotjs/svg.js';
 import { scaleLinear } from 'd3-scale';
-import { createCanvas, points, round } from './canvas.js';
+import { createCanvas, round } from './canvas.js';
+import { drawMarker } from './markers.js';
 import { drawText } from './text.js';
-import { drawTimeAxis, timeTicks } from './axis.js';
-import { CORNER_COLOURS, FAINT, GRID, INK, MUTED, PAPER, SIZE } from '../palette.js';
+import { drawTimeAxis, drawValueAxis, timeTicks } from './axis.js';
+import { CORNER_COLOURS, FAINT, INK, MUTED, PAPER, SIZE } from '../palette.js';
 import type { TuneCandidateReport, TuneReport } from '../../report/tune-report.js';
 
 const WIDTH = 900;
@@ -19,59 +20,11 @@ const SHAPES = ['circle', 'square', 'triangle', 'diamond', 'nabla'] as const;
 type Shape = (typeof SHAPES)[number] | 'cross' | 'dot';
 
 function marker(g: G, shape: Shape, x: number, y: number, colour: string): void {
-  const r = shape === 'dot' ? 2.5 : 5.5;
-  const stroke = { color: colour, width: 1.6 };
-  const poly = (pts: Array<[number, number]>) => g.polygon(points(pts)).fill(PAPER).stroke(stroke).attr({ class: 'marker' });
-  switch (shape) {
-    case 'dot':
-      g.circle(2 * r)
-        .center(round(x), round(y))
-        .fill(FAINT)
-        .attr({ class: 'marker' });
-      return;
-    case 'circle':
-      g.circle(2 * r)
-        .center(round(x), round(y))
-        .fill(PAPER)
-        .stroke(stroke)
-        .attr({ class: 'marker' });
-      return;
-    case 'square':
-      poly([
-        [x - r * 0.85, y - r * 0.85],
-        [x + r * 0.85, y - r * 0.85],
-        [x + r * 0.85, y + r * 0.85],
-        [x - r * 0.85, y + r * 0.85],
-      ]);
-      return;
-    case 'triangle':
-      poly([
-        [x, y - r],
-        [x + r, y + r * 0.8],
-        [x - r, y + r * 0.8],
-      ]);
-      return;
-    case 'diamond':
-      poly([
-        [x, y - r * 1.1],
-        [x + r, y],
-        [x, y + r * 1.1],
-        [x - r, y],
-      ]);
-      return;
-    case 'nabla':
-      poly([
-        [x - r, y - r * 0.8],
-        [x + r, y - r * 0.8],
-        [x, y + r],
-      ]);
-      return;
-    case 'cross':
-      g.line(round(x - r), round(y - r), round(x + r), round(y + r))
-        .stroke({ color: colour, width: 2 })
-        .attr({ class: 'marker' });
-      g.line(round(x - r), round(y + r), round(x + r), round(y - r)).stroke({ color: colour, width: 2 });
+  if (shape === 'dot') {
+    g.circle(5).center(round(x), round(y)).fill(FAINT).attr({ class: 'marker' });
+    return;
   }
+  drawMarker(g, shape, x, y, { radius: 5.5, colour, fill: PAPER, width: 1.6, crossWidth: 2 });
 }
 
 interface Point {
@@ -128,12 +81,7 @@ export function renderTuneChart(t: TuneReport, idPrefix = 'tune'): string | null
     anchor: 'middle',
     fill: INK,
   });
-  for (const tick of timeTicks(y, 5)) {
-    const py = y(tick.value);
-    axes.line(PLOT.left, round(py), PLOT.right, round(py)).stroke({ color: GRID, width: 1 });
-    drawText(axes, tick.label, PLOT.left - 8, py + 4, { size: SIZE.tick, anchor: 'end', fill: MUTED, className: 'tick-label' });
-  }
-  axes.line(PLOT.left, PLOT.top, PLOT.left, PLOT.bottom).stroke({ color: MUTED, width: 1 });
+  drawValueAxis(axes, y, timeTicks(y, 5), PLOT.left, PLOT.right);
   drawText(axes, 'slow-corner waste', PLOT.left, PLOT.top - 8, { size: SIZE.label, fill: INK });
   const dots = root.group().attr({ class: 'candidates' });
   for (const p of others) marker(dots, 'dot', x(p.x), y(p.y), FAINT);
