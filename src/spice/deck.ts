@@ -2,7 +2,8 @@
  * A complete ngspice testbench of a generator at one corner: every cell as a transistor-level
  * subcircuit sized as the model sizes it, the generator's and the design's extra capacitance, the
  * switches as devices on their gate nets (a level-shifted switch on its shifter's output, the shifter
- * a transistor-level cross-coupled shifter sized for the declared delay: see level-shifter.ts), the input clock as a PULSE source, the
+ * a transistor-level cross-coupled shifter sized for the declared delay: up from the core in level-shifter.ts,
+ * down to a level below ground in down-shifter.ts), the input clock as a PULSE source, the
  * corner's supply, temperature and device models, and a .meas for every dead time, clean gap,
  * phase width and switch crossing over one steady-state period.
  */
@@ -24,6 +25,8 @@ import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel } from '../switches/conduction.js';
 import { switchGateCapacitance } from '../switches/plan.js';
 import { nominalTransitions, sizeShifter } from './shifter-sizing.js';
+import { downShifterLines } from './down-shifter.js';
+import { sizeDownShifter } from './down-shifter-sizing.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
@@ -188,28 +191,31 @@ function switchLines(
         gates.push(node(device.net));
         continue;
       }
-      // The deck's shifter (level-shifter.ts) shifts up from the core: its latch sits on a high rail above 0 V.
-      if (levelAt(ls.low, vdd) < 0 || levelAt(ls.high, vdd) <= 0) {
+      const low = levelAt(ls.low, vdd);
+      const high = levelAt(ls.high, vdd);
+      // Up from the core (level-shifter.ts) when the low level is at or above ground, else down (down-shifter.ts),
+      // whose latch swings from the low level to VDD: a high level above VDD would need both.
+      if (low < 0 && high > vdd) {
         throw inputError(
           'value.not-allowed',
           `switches.${plan.name}.levelShifter`,
-          `${levelAt(ls.low, vdd)} V .. ${levelAt(ls.high, vdd)} V`,
-          'cannot be written at transistor level yet: the deck builds shifters up from the core supply (a high level above 0 V, a low level at or above 0 V); a shifter to a negative rail is not written',
+          `${low} V .. ${high} V`,
+          `cannot be written at transistor level: the deck builds a shifter up from the core supply (low level at or above 0 V) or down to a low level below ground with its high level at most VDD (${vdd} V), not both at once`,
         );
       }
-      const rails = { vdd: 'vdd', low: bias(levelAt(ls.low, vdd)), high: bias(levelAt(ls.high, vdd)) };
-      const size = sizeShifter(
-        ls,
-        corner.card,
-        switchGateCapacitance(corner.card, device.kind, device.w, device.l),
-        nominalInput(device.net),
-      );
-      devices.push(
-        ...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, {
-          ...geometry,
-          l: corner.card.lmin,
-        }),
-      );
+      const gate = switchGateCapacitance(corner.card, device.kind, device.w, device.l);
+      const deviceGeometry = { ...geometry, l: corner.card.lmin };
+      if (low < 0) {
+        const rails = { vdd: 'vdd', low: bias(low), high: bias(high), outputWell: bias(Math.max(0, high)) };
+        const size = sizeDownShifter(ls, corner.card, gate, nominalInput(device.net));
+        devices.push(
+          ...downShifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, deviceGeometry),
+        );
+      } else {
+        const rails = { vdd: 'vdd', low: bias(low), high: bias(high) };
+        const size = sizeShifter(ls, corner.card, gate, nominalInput(device.net));
+        devices.push(...shifterLines(shifterNode(i, j), plan.name, node(device.net), shifterNode(i, j), ls, rails, size, deviceGeometry));
+      }
       gates.push(shifterNode(i, j));
     }
     const signal = levelAt(plan.signal.min, vdd);
