@@ -71,7 +71,7 @@ describe('a shifter below ground alone in ngspice', () => {
   const INPUT = 200e-12;
   const LOAD = 40e-15;
 
-  function simulate(low: number, high: number, delay: number): Map<string, number | null> {
+  function simulate(low: number, high: number, delay: number): ReadonlyMap<string, number | null> {
     const level = (v: number) => ({ scale: v / VDD, offset: 0 });
     const ls = { delay, transition: 250e-12, low: level(low), high: level(high), invert: false };
     const size = sizeDownShifter(ls, card, LOAD, INPUT);
