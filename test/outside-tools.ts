@@ -45,6 +45,7 @@ export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
   'test/spice/circuit-confirm.test.ts': ['ngspice'],
   'test/spice/characterize-ron.test.ts': ['ngspice'],
   'test/spice/deck.test.ts': ['ngspice'],
+  'test/spice/down-shifter.test.ts': ['ngspice'],
   'test/spice/hostile-deck.test.ts': ['ngspice'],
   'test/spice/pump.test.ts': ['ngspice'],
   'test/spice/runner.test.ts': ['ngspice'],
