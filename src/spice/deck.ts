@@ -68,7 +68,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   if (!result.measurement.ok) {
     throw inputError(
       'physics.no-steady-state',
-      `corners (${corner.name})`,
+      ['corners'],
       corner.name,
       `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`,
     );
@@ -192,7 +192,7 @@ function switchLines(
       if (levelAt(ls.low, vdd) < 0 || levelAt(ls.high, vdd) <= 0) {
         throw inputError(
           'value.not-allowed',
-          `switches.${plan.name}.levelShifter`,
+          ['switches', plan.name, 'levelShifter'],
           `${levelAt(ls.low, vdd)} V .. ${levelAt(ls.high, vdd)} V`,
           'cannot be written at transistor level yet: the deck builds shifters up from the core supply (a high level above 0 V, a low level at or above 0 V); a shifter to a negative rail is not written',
         );
