@@ -1,6 +1,6 @@
 /** Validation at the boundary: zod issues become our InputIssues with path, value and expected. */
 import type * as z from 'zod';
-import { InputError, issuePath, showValue, type InputIssue, type IssuePath } from '../errors.js';
+import { InputError, issuePath, showValue, type InputIssue, type IssueCode, type IssuePath } from '../errors.js';
 import { closestName } from './closest-name.js';
 
 export function parseWith<S extends z.ZodType>(schema: S, raw: unknown, prefix: IssuePath = []): z.output<S> {
@@ -149,8 +149,12 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: IssuePath,
         };
       }
       return { code: 'value.out-of-range', path, value: showValue(received), expected: `is out of range: ${lowerFirst(issue.message)}` };
-    default:
-      return { code: 'value.invalid', path, value: received === undefined ? undefined : showValue(received), expected: issue.message };
+    default: {
+      // A refinement may name its kind in params.code (a range check written as a refinement).
+      const named = issue.code === 'custom' ? (issue.params as { code?: IssueCode } | undefined)?.code : undefined;
+      const value = received === undefined ? undefined : showValue(received);
+      return { code: named ?? 'value.invalid', path, value, expected: issue.message };
+    }
   }
 }
 

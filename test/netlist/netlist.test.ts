@@ -83,7 +83,7 @@ describe('compileNetlist', () => {
   it('says which net is undriven and what would drive it, in words', () => {
     const gates = [inv('u1', 'clk', 'a'), { name: 'g', cell: 'NAND2', size: 1, inputs: ['a', 'floating'], output: 'b' } as GateSpec];
     expect(message(() => compileNetlist(netlist(gates)))).toBe(
-      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"',
+      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"; every input net needs a driver',
     );
   });
 

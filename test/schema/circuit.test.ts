@@ -33,6 +33,7 @@ describe('circuitSchema', () => {
     const raw = base();
     raw.circuit.capacitors[0].between[1] = 'botom';
     const [issue] = issues(raw);
+    expect(issue!.code).toBe('reference.unknown');
     expect(issue!.path).toEqual(['circuit', 'capacitors', 0, 'between', 1]);
     expect(issue!.value).toBe('"botom"');
     expect(issue!.expected).toMatch(/bottom, top, out/);
@@ -55,6 +56,14 @@ describe('circuitSchema', () => {
   it('parseWith requires terminals on every switch when there is a circuit', () => {
     const raw = base();
     delete raw.switches[0].terminals;
-    expect(issues(raw).map((i) => i.path)).toContainEqual(['switches', 0, 'terminals']);
+    expect(issues(raw).map((i) => [i.code, i.path])).toContainEqual(['field.required', ['switches', 0, 'terminals']]);
+  });
+
+  it('parseWith refuses a capacitor name used twice as value.duplicate at the second', () => {
+    const raw = base();
+    raw.circuit.capacitors[1].name = 'c_fly';
+    expect(issues(raw).map((i) => [i.code, i.path, i.value])).toEqual([
+      ['value.duplicate', ['circuit', 'capacitors', 1, 'name'], '"c_fly"'],
+    ]);
   });
 });
