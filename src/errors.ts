@@ -35,16 +35,24 @@ export type IssueCode =
   | 'output.refused'
   | 'tool.failed';
 
+/** A place in the input: keys and list indices from the top, e.g. `['switches', 2, 'nodes', 'a']`. */
+export type IssuePath = readonly (string | number)[];
+
 /** One problem found in the user's input. */
 export interface InputIssue {
   /** The kind of problem, for programs and tests; the words below are for people. */
   readonly code: IssueCode;
-  /** Dotted field path, e.g. `corners.vdd[1]`, or a file name for file-level problems. */
-  readonly path: string;
+  /**
+   * Where: the keys from the top of the input, rendered by `formatPath` as `switches[2].nodes.a`.
+   * Its first key may name a whole input instead (`DESIGN`, `--corners`, an outside tool).
+   */
+  readonly path: IssuePath;
+  /** The input file the path is inside, when that is not the design (a process card, tables, a report). */
+  readonly file?: string;
   /** The offending value as the user wrote it (stringified), if there is one. */
   readonly value?: string;
-  /** What is allowed, in words. */
-  readonly allowed: string;
+  /** What is expected instead, in words. */
+  readonly expected: string;
 }
 
 /** Thrown by the core for bad input or impossible physics; the CLI maps it to exit code 2. */
@@ -57,13 +65,20 @@ export class InputError extends Error {
   }
 }
 
-export function inputError(code: IssueCode, path: string, value: unknown, allowed: string): InputError {
-  return new InputError([{ code, path, value: value === undefined ? undefined : showValue(value), allowed }]);
+/** One issue: `path` is the keys from the top (`['corners', 'vdd', 1]`, `['--model']`), never dotted text. */
+export function inputError(code: IssueCode, path: IssuePath, value: unknown, expected: string): InputError {
+  return new InputError([{ code, path, value: value === undefined ? undefined : showValue(value), expected }]);
+}
+
+/** The issues of `error` placed inside `file` (a process card, tables): their paths stay as they are. */
+export function inFile(error: InputError, file: string): InputError {
+  return new InputError(error.issues.map((issue) => (issue.file === undefined ? { ...issue, file } : issue)));
 }
 
 export function renderIssue(issue: InputIssue): string {
-  const where = issue.path === '' ? '(top level)' : issue.path;
-  const text = issue.value === undefined ? `${where}: ${issue.allowed}` : `${where}: ${issue.value} ${issue.allowed}`;
+  const path = formatPath(issue.path);
+  const where = issue.file === undefined ? (path === '' ? '(top level)' : path) : path === '' ? issue.file : `${issue.file}: ${path}`;
+  const text = issue.value === undefined ? `${where}: ${issue.expected}` : `${where}: ${issue.value} ${issue.expected}`;
   // Messages from the schema library may quote a key as written: nothing a terminal acts on gets through.
   return text.replace(TERMINAL_UNSAFE, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
 }
@@ -100,13 +115,24 @@ export function showValue(value: unknown): string {
   return text === undefined ? String(value) : text.length > MAX_SHOWN_CHARS ? `${text.slice(0, MAX_SHOWN_CHARS - 3)}...` : text;
 }
 
-/** Formats a path array (from zod or our own walkers) as `a.b[2].c`. */
+/**
+ * Formats a path array (from zod or our own walkers) as `a.b[2].c`. After a command-line option
+ * comes its argument, spaced: `['--vary', 'clock.frequency']` is `--vary clock.frequency`.
+ */
 export function formatPath(path: readonly PropertyKey[]): string {
   let out = '';
-  for (const key of path) {
+  path.forEach((key, i) => {
     if (typeof key === 'number') out += `[${key}]`;
     else if (typeof key === 'string' && key.match(UNPRINTABLE)) out += `[${showValue(key)}]`;
+    else if (i === 1 && isOption(path[0])) out += ` ${String(key)}`;
     else out += out === '' ? String(key) : `.${String(key)}`;
-  }
+  });
   return out;
+}
+
+const isOption = (key: PropertyKey | undefined): boolean => typeof key === 'string' && key.startsWith('-');
+
+/** A zod or walker path as an issue path (a symbol key, which data never has, as its description). */
+export function issuePath(path: readonly PropertyKey[]): (string | number)[] {
+  return path.map((key) => (typeof key === 'symbol' ? String(key) : key));
 }

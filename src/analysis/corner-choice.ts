@@ -28,7 +28,7 @@ export function selectCorner(results: readonly CornerResult[], value: string, al
   const names = results.map((r) => r.corner.name).join(', ');
   throw inputError(
     'reference.unknown',
-    flag,
+    [flag],
     value,
     `is not a corner of this design; allowed: worst, ${allowAll ? 'all, ' : ''}or one of ${names}`,
   );
@@ -72,13 +72,13 @@ export function chooseCorners(resolved: ResolvedDesign, spec: string, flag = '--
     .map((s) => s.trim())
     .filter((s) => s !== '');
   if (names.length === 0)
-    throw inputError('option.invalid', flag, spec, 'names no corner; give worst, all, or corner names separated by commas');
+    throw inputError('option.invalid', [flag], spec, 'names no corner; give worst, all, or corner names separated by commas');
   return names.map((name) => {
     const corner = all.find((c) => namesCorner(name, c));
     if (!corner)
       throw inputError(
         'reference.unknown',
-        flag,
+        [flag],
         name,
         `is not a corner of the design; its corners are ${all.map((c) => c.name).join(', ')}`,
       );

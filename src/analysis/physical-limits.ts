@@ -32,25 +32,25 @@ export function checkPhysicalLimits(design: Design, card: ProcessCard, corners: 
   if (half.time <= 0) {
     issues.push({
       code: 'physics.limit',
-      path: 'clock.dutyTolerance',
+      path: ['clock', 'dutyTolerance'],
       value: showValue(design.clock.dutyTolerance),
-      allowed: `leaves the clock no high or low time at duty ${showValue(half.duty)}; the duty plus or minus the tolerance must stay inside (0, 1)`,
+      expected: `leaves the clock no high or low time at duty ${showValue(half.duty)}; the duty plus or minus the tolerance must stay inside (0, 1)`,
     });
   } else if (!(transition < half.time)) {
     issues.push({
       code: 'physics.limit',
-      path: 'clock.transition',
+      path: ['clock', 'transition'],
       value: formatPs(transition),
-      allowed: `must be shorter than the clock's shortest half period, ${formatPs(half.time)} (duty ${half.duty.toFixed(3)} within tolerance at ${formatEngineering(design.clock.frequency, 'Hz')})`,
+      expected: `must be shorter than the clock's shortest half period, ${formatPs(half.time)} (duty ${half.duty.toFixed(3)} within tolerance at ${formatEngineering(design.clock.frequency, 'Hz')})`,
     });
   }
   design.switches.forEach((s, i) => {
     if (s.l < card.lmin) {
       issues.push({
         code: 'physics.limit',
-        path: `switches[${i}].l`,
+        path: ['switches', i, 'l'],
         value: `${Number(s.l.toPrecision(4))} m`,
-        allowed: `is shorter than the process card's minimum length lmin = ${formatEngineering(card.lmin, 'm')} (${card.name})`,
+        expected: `is shorter than the process card's minimum length lmin = ${formatEngineering(card.lmin, 'm')} (${card.name})`,
       });
     }
   });

@@ -45,7 +45,7 @@ export function resolveDesign(design: Design, card: ProcessCard, model: DelayMod
   const base = gen.template === 'netlist' ? expandNetlist(gen) : expandTemplate(gen);
   const expansion = expandSwitches(base, design.switches, card, resolveNodes(design.nodes));
   const netlist = compileNetlist(expansion.netlist);
-  const loads = netLoads(netlist, card, { path: 'loads', caps: design.loads }, { path: 'switches', caps: expansion.loads });
+  const loads = netLoads(netlist, card, { path: ['loads'], caps: design.loads }, { path: ['switches'], caps: expansion.loads });
   const corners = expandCorners(design.corners, card, design.clock.duty);
   checkPhysicalLimits(design, card, corners);
   checkLevelShifters(expansion.plans, [...new Set(corners.map((c) => c.corner.vdd))]);

@@ -38,7 +38,7 @@ export function parseRangeNumber(text: string): number | null {
 export function parseAxis(spec: string, maxPoints = Infinity): SweepAxis {
   const eq = spec.indexOf('=');
   if (eq <= 0)
-    throw inputError('option.invalid', '--vary', spec, 'must read AXIS=VALUES, with VALUES a list (1.6,1.7,1.8) or a range START:STOP:N');
+    throw inputError('option.invalid', ['--vary'], spec, 'must read AXIS=VALUES, with VALUES a list (1.6,1.7,1.8) or a range START:STOP:N');
   const path = spec.slice(0, eq).trim();
   const text = spec.slice(eq + 1).trim();
   const range = /^([^:,]+):([^:,]+):([^:,]+)$/.exec(text);
@@ -49,34 +49,34 @@ export function parseAxis(spec: string, maxPoints = Infinity): SweepAxis {
     if (start === null || stop === null)
       throw inputError(
         'option.invalid',
-        `--vary ${path}`,
+        ['--vary', path],
         text,
         'has a range end that is not a number (an SI prefix and unit may follow, e.g. 1.6V:2.0V:5)',
       );
     if (!Number.isInteger(n) || n < 1)
       throw inputError(
         'option.invalid',
-        `--vary ${path}`,
+        ['--vary', path],
         text,
         `asks for ${range[3]} points; N must be a whole number of at least 1 (the range is empty otherwise)`,
       );
     if (n > maxPoints)
       throw inputError(
         'option.invalid',
-        `--vary ${path}`,
+        ['--vary', path],
         text,
         `asks for ${range[3]} points; a sweep has at most ${maxPoints} points (N from 1 to ${maxPoints})`,
       );
     if (n === 1 && start !== stop)
-      throw inputError('option.invalid', `--vary ${path}`, text, 'has one point but two different ends; use N >= 2 or equal ends');
+      throw inputError('option.invalid', ['--vary', path], text, 'has one point but two different ends; use N >= 2 or equal ends');
     const values = Array.from({ length: n }, (_, i) => (n === 1 ? start : start + ((stop - start) * i) / (n - 1)));
     return { path, values: values.map((v) => Number(v.toPrecision(12))) };
   }
   const values = text.split(',').map((v) => v.trim());
   if (values.length > maxPoints)
-    throw inputError('option.invalid', `--vary ${path}`, `${values.length} values`, `is too long; a sweep has at most ${maxPoints} points`);
+    throw inputError('option.invalid', ['--vary', path], `${values.length} values`, `is too long; a sweep has at most ${maxPoints} points`);
   if (text === '' || values.some((v) => v === ''))
-    throw inputError('option.invalid', `--vary ${path}`, text, 'is an empty list or has an empty item; give values separated by commas');
+    throw inputError('option.invalid', ['--vary', path], text, 'is an empty list or has an empty item; give values separated by commas');
   return { path, values };
 }
 
@@ -90,7 +90,7 @@ export function checkGridSize(axes: readonly SweepAxis[], maxPoints: number): nu
   if (size > maxPoints) {
     throw inputError(
       'option.invalid',
-      '--vary',
+      ['--vary'],
       axes.map((a) => `${a.path} (${a.values.length})`).join(' x '),
       `makes ${size} points; a sweep has at most ${maxPoints} points`,
     );

@@ -28,7 +28,7 @@ export function templateOf(design: Design): TemplateGenerator {
   if (gen.template === 'netlist') {
     throw inputError(
       'value.invalid',
-      'generator.template',
+      ['generator', 'template'],
       'netlist',
       'is a free-form netlist; tune adjusts the delay chains of the nand or nor template',
     );

@@ -66,6 +66,7 @@ export function toleranceOption(help: string) {
 
 function parseTolerance(text: string, flag: string): number {
   const value = relativeNumber(text);
-  if (!(value > 0 && value < 10)) throw inputError('option.invalid', flag, text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
+  if (!(value > 0 && value < 10))
+    throw inputError('option.invalid', [flag], text, 'must be a relative difference above 0, e.g. 0.1 or 10%');
   return value;
 }

@@ -65,7 +65,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
     if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
       throw inputError(
         'tool.failed',
-        'ngspice',
+        ['ngspice'],
         deck.corner.name,
         `failed on the deck of this corner: ${parsed.errors[0]}; write it with ${shellCommand(['phasegap', 'spice', '--corner', deck.corner.name])} and run ngspice -b on it to see why`,
       );
@@ -75,7 +75,7 @@ export function confirmCorners(io: Io, resolved: ResolvedDesign, cardDir: string
     if (!circuit) return timing;
     const measured = parseSimulatorOutput(outputs[decks.length + i]!.output, circuit.measures);
     if (measured.errors.length > 0 && [...measured.values.values()].every((v) => v === null)) {
-      throw inputError('tool.failed', 'ngspice', circuit.corner.name, `failed on the circuit deck of this corner: ${measured.errors[0]}`);
+      throw inputError('tool.failed', ['ngspice'], circuit.corner.name, `failed on the circuit deck of this corner: ${measured.errors[0]}`);
     }
     const compared = compareCircuit(circuit, measured);
     return { ...timing, circuit: compared, errors: [...timing.errors, ...measured.errors], pass: timing.pass && compared.pass };

@@ -25,13 +25,13 @@ export function parseJsonText(raw: string, source: TextSource): unknown {
     if (!(error instanceof Stop)) throw error;
     const { line, col } = linePos(text, error.offset);
     throw new InputError([
-      { code: 'file.syntax', path: source.name, allowed: `is not valid JSON at line ${line}, column ${col}: ${error.message}` },
+      { code: 'file.syntax', path: [], file: source.name, expected: `is not valid JSON at line ${line}, column ${col}: ${error.message}` },
     ]);
   }
   try {
     return JSON.parse(text) as unknown;
   } catch {
-    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: 'could not be read as JSON' }]);
+    throw new InputError([{ code: 'file.syntax', path: [], file: source.name, expected: 'could not be read as JSON' }]);
   }
 }
 

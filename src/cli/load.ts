@@ -2,7 +2,7 @@
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { dirname, extname, resolve } from 'node:path';
-import { InputError, inputError } from '../errors.js';
+import { InputError, inFile, inputError, type IssuePath } from '../errors.js';
 import { designSchema, type Design } from '../schema/design.js';
 import { processSchema, type ProcessCard } from '../schema/process.js';
 import { parseWith } from '../schema/validate.js';
@@ -70,7 +70,7 @@ function looksLike(data: object, keys: readonly string[]): boolean {
  * Reads a YAML or JSON file (JSON when the name ends in .json) into plain data of bounded size
  * and shape; `label` names the file's role in errors (DESIGN, process, --tables).
  */
-export function readDataFile(path: string, label: string, kind: DataKind = 'design'): unknown {
+export function readDataFile(path: string, label: IssuePath, kind: DataKind = 'design'): unknown {
   return readDataFileText(path, label, kind).data;
 }
 
@@ -85,7 +85,7 @@ function limitText(kind: DataKind, format: 'json' | 'yaml'): string {
 }
 
 /** Like readDataFile, with the text read (for its hash). */
-export function readDataFileText(path: string, label: string, kind: DataKind = 'design'): { data: unknown; text: string } {
+export function readDataFileText(path: string, label: IssuePath, kind: DataKind = 'design'): { data: unknown; text: string } {
   const format = formatOf(path);
   const text = readBoundedText(path, label, KINDS[kind].bytes[format], limitText(kind, format));
   return { data: parseDataText(text, path, format, kind), text };
@@ -103,22 +103,22 @@ export interface DesignSource {
  */
 export function readDesignSource(path: string, stdin?: Io['readStdin']): DesignSource {
   if (path !== STDIN)
-    return { path, text: readBoundedText(path, 'DESIGN', KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
+    return { path, text: readBoundedText(path, ['DESIGN'], KINDS.design.bytes[formatOf(path)], limitText('design', formatOf(path))) };
   if (stdin === undefined)
-    throw inputError('file.no-stdin', 'DESIGN', path, 'means standard input, which this run does not have; name a design file');
+    throw inputError('file.no-stdin', ['DESIGN'], path, 'means standard input, which this run does not have; name a design file');
   const limit = Math.max(KINDS.design.bytes.json, KINDS.design.bytes.yaml);
   let text: string;
   try {
     text = stdin(limit);
   } catch (error) {
-    if (error instanceof StdinError) throw inputError('file.unreadable', 'DESIGN', path, `${error.reason}`);
+    if (error instanceof StdinError) throw inputError('file.unreadable', ['DESIGN'], path, `${error.reason}`);
     throw error;
   }
   const format = stdinFormat(text);
   if (Buffer.byteLength(text, 'utf8') > KINDS.design.bytes[format]) {
     throw inputError(
       'file.too-large',
-      'DESIGN',
+      ['DESIGN'],
       path,
       `(standard input) is larger than ${mebibytes(KINDS.design.bytes[format])}, the limit for a ${limitText('design', format)}`,
     );
@@ -142,14 +142,18 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
   const expected = KINDS[kind].expect;
   const mapping = data !== null && typeof data === 'object' && !Array.isArray(data);
   if (expected && !(mapping && looksLike(data, expected.keys))) {
-    throw inputError(
-      'file.wrong-kind',
+    throw inFile(
+      inputError(
+        'file.wrong-kind',
+        [],
+        undefined,
+        `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`,
+      ),
       path,
-      undefined,
-      `is not ${expected.what} (expected a mapping with keys ${expected.keys.join(', ')}); its content is not shown`,
     );
   }
-  if (!mapping) throw inputError('file.wrong-kind', path, undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level');
+  if (!mapping)
+    throw inFile(inputError('file.wrong-kind', [], undefined, 'must hold a mapping of keys (a YAML/JSON object) at its top level'), path);
   checkDataShape(data);
   return data;
 }
@@ -161,7 +165,7 @@ function parseDataText(text: string, path: string, format: 'json' | 'yaml', kind
  * Returns the model and subcircuit names it defines (lower case, as SPICE reads them), or null
  * when it pulls in other files (.lib or .include), whose names cannot be known here.
  */
-export function checkModelFile(path: string, label: string): ReadonlySet<string> | null {
+export function checkModelFile(path: string, label: IssuePath): ReadonlySet<string> | null {
   const text = readBoundedText(path, label, MAX_MODEL_BYTES, 'SPICE model file');
   if (!/^[ \t]*\.(model|subckt|lib)\b/im.test(text)) {
     throw inputError(
@@ -176,7 +180,7 @@ export function checkModelFile(path: string, label: string): ReadonlySet<string>
 }
 
 /** The file's text, from a regular file only, refused before reading when it is larger than `limit` bytes. */
-function readBoundedText(path: string, label: string, limit: number, what: string): string {
+function readBoundedText(path: string, label: IssuePath, limit: number, what: string): string {
   let fd: number;
   try {
     // Non-blocking, so that opening a FIFO does not wait for a writer; fstat then refuses it.
@@ -254,7 +258,7 @@ export function loadDesign(from: string | DesignSource, overrides: readonly stri
   const base = { design, designPath: path, designText: source.text };
   if (typeof design.process === 'string') {
     const cardPath = resolve(dirname(path), design.process);
-    const { card, text } = loadProcessText(cardPath, 'process');
+    const { card, text } = loadProcessText(cardPath, ['process']);
     return {
       ...base,
       card,
@@ -272,32 +276,31 @@ export function loadDesign(from: string | DesignSource, overrides: readonly stri
   };
 }
 
-export function loadProcess(path: string, label = 'PROCESS'): ProcessCard {
+export function loadProcess(path: string, label: IssuePath = ['PROCESS']): ProcessCard {
   return loadProcessText(path, label).card;
 }
 
-function loadProcessText(path: string, label: string): { card: ProcessCard; text: string } {
+function loadProcessText(path: string, label: IssuePath): { card: ProcessCard; text: string } {
   const { data: raw, text } = readDataFileText(path, label, 'card');
   try {
     return { card: parseWith(processSchema, raw), text };
   } catch (error) {
     if (error instanceof InputError) {
-      throw new InputError(error.issues.map((i) => ({ ...i, path: i.path === '' ? path : `${path}: ${i.path}` })));
+      throw inFile(error, path);
     }
     throw error;
   }
 }
 
 /** Reads and checks a delay-table file (phasegap characterize output). */
-export function loadTables(path: string, label = 'tables'): DelayTables {
+export function loadTables(path: string, label: IssuePath = ['tables']): DelayTables {
   const raw = readDataFile(path, label, 'tables');
   try {
     const tables = parseWith(tablesSchema, raw);
-    checkTables(tables, path);
+    checkTables(tables);
     return tables;
   } catch (error) {
-    if (error instanceof InputError)
-      throw new InputError(error.issues.map((i) => ({ ...i, path: i.path.startsWith(path) ? i.path : `${path}: ${i.path}` })));
+    if (error instanceof InputError) throw inFile(error, path);
     throw error;
   }
 }
@@ -314,7 +317,11 @@ export function loadModel(card: ProcessCard, cardDir: string, options: ModelOpti
   const choice = parseModelChoice(options.model);
   if (choice === 'analytic') return selectModel(choice, undefined, warn);
   const path = options.tables ?? (card.tables === undefined ? undefined : resolve(cardDir, card.tables));
-  return selectModel(choice, path === undefined ? undefined : loadTables(path, options.tables ? '--tables' : 'process.tables'), warn);
+  return selectModel(
+    choice,
+    path === undefined ? undefined : loadTables(path, options.tables ? ['--tables'] : ['process', 'tables']),
+    warn,
+  );
 }
 
 /** A design loaded, its delay model chosen from the global options, and resolved once. */

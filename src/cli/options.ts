@@ -19,7 +19,7 @@ export function wholeNumber(option: string, text: string, range: WholeRange): nu
   if (!(Number.isSafeInteger(value) && value >= range.min && value <= range.max)) {
     const what =
       range.noun === undefined ? `of at least ${range.min} and at most ${range.max}` : `of ${range.noun} from ${range.min} to ${range.max}`;
-    throw inputError('option.invalid', option, text, `must be a whole number ${what}`);
+    throw inputError('option.invalid', [option], text, `must be a whole number ${what}`);
   }
   return value;
 }

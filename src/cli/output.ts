@@ -19,7 +19,7 @@ export function checkOutput(out: string | undefined, inputs: readonly string[], 
   if (kind !== 'absent' && kind !== 'regular file') {
     throw inputError(
       'output.refused',
-      option,
+      [option],
       out,
       `is a ${kind}; phasegap writes only regular files (use -o - and a shell redirection to write elsewhere)`,
     );
@@ -28,7 +28,7 @@ export function checkOutput(out: string | undefined, inputs: readonly string[], 
   if (input !== undefined)
     throw inputError(
       'output.refused',
-      option,
+      [option],
       out,
       `is an input of this command (${input}); writing it would replace the input, pick another name`,
     );
@@ -44,7 +44,7 @@ export function emit(io: Io, text: string, out: string | undefined, inputs: read
     io.writeFile(out, text);
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code ?? 'error';
-    throw inputError('output.refused', option, out, `cannot be written (${code}); check that the folder exists and is writable`);
+    throw inputError('output.refused', [option], out, `cannot be written (${code}); check that the folder exists and is writable`);
   }
 }
 
@@ -69,7 +69,7 @@ export function streamOutput(io: Io, out: string | undefined, inputs: readonly s
   } catch (error) {
     throw inputError(
       'option.invalid',
-      '--out',
+      ['--out'],
       out,
       `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the folder exists and is writable`,
     );
@@ -79,7 +79,7 @@ export function streamOutput(io: Io, out: string | undefined, inputs: readonly s
     if (error instanceof InputError) return error;
     return inputError(
       'option.invalid',
-      '--out',
+      ['--out'],
       out,
       `cannot be written (${(error as NodeJS.ErrnoException).code ?? 'error'}); check that the disk has room`,
     );

@@ -1,5 +1,5 @@
 /** `--set PATH=VALUE` overrides: edit the raw design before it is validated. */
-import { InputError, inputError } from '../errors.js';
+import { InputError, formatPath, inputError } from '../errors.js';
 import { checkDataShape } from '../schema/data-shape.js';
 import { MAX_DEPTH, MAX_SET_INDEX, RESERVED_KEYS } from '../schema/limits.js';
 import { parseYamlText } from './yaml-text.js';
@@ -10,7 +10,7 @@ export function applyOverrides(raw: unknown, overrides: readonly string[]): unkn
   const root = structuredClone(raw) as Record<string, unknown>;
   for (const text of overrides) {
     const eq = text.indexOf('=');
-    if (eq <= 0) throw inputError('option.invalid', '--set', text, 'must read PATH=VALUE, e.g. clock.frequency=40MHz');
+    if (eq <= 0) throw inputError('option.invalid', ['--set'], text, 'must read PATH=VALUE, e.g. clock.frequency=40MHz');
     const path = splitPath(text.slice(0, eq), text);
     const value = readValue(text.slice(eq + 1), text, path);
     setAt(root, path, value, text);
@@ -24,14 +24,19 @@ function readValue(source: string, text: string, path: ReadonlyArray<string | nu
     value = parseYamlText(source, { name: '--set', quote: false });
   } catch (error) {
     if (error instanceof InputError)
-      throw inputError('option.invalid', '--set', text, 'has a value that is not a YAML scalar, list or mapping');
+      throw inputError('option.invalid', ['--set'], text, 'has a value that is not a YAML scalar, list or mapping');
     throw error;
   }
   try {
     checkDataShape(value, path);
   } catch (error) {
     if (error instanceof InputError)
-      throw inputError('option.invalid', '--set', text, `is refused at ${error.issues[0]!.path}: it ${error.issues[0]!.allowed}`);
+      throw inputError(
+        'option.invalid',
+        ['--set'],
+        text,
+        `is refused at ${formatPath(error.issues[0]!.path)}: it ${error.issues[0]!.expected}`,
+      );
     throw error;
   }
   return value;
@@ -44,7 +49,7 @@ function splitPath(path: string, text: string): Array<string | number> {
     if (!match)
       throw inputError(
         'option.invalid',
-        '--set',
+        ['--set'],
         text,
         'has a malformed path; write keys separated by dots, list items as [N], e.g. corners.vdd[0]=1.6V',
       );
@@ -52,7 +57,7 @@ function splitPath(path: string, text: string): Array<string | number> {
     if (RESERVED_KEYS.has(key))
       throw inputError(
         'option.invalid',
-        '--set',
+        ['--set'],
         text,
         `names the reserved key ${JSON.stringify(key)} (a built-in object member name), which no field, net, corner or switch may use`,
       );
@@ -60,14 +65,14 @@ function splitPath(path: string, text: string): Array<string | number> {
     for (const index of match[2]!.matchAll(/\[(\d+)\]/g)) {
       const n = Number(index[1]);
       if (n > MAX_SET_INDEX)
-        throw inputError('option.invalid', '--set', text, `has list index ${index[1]}; a list holds at most ${MAX_SET_INDEX} items`);
+        throw inputError('option.invalid', ['--set'], text, `has list index ${index[1]}; a list holds at most ${MAX_SET_INDEX} items`);
       parts.push(n);
     }
   }
   if (parts.length > MAX_DEPTH)
     throw inputError(
       'option.invalid',
-      '--set',
+      ['--set'],
       text,
       `has a path ${parts.length} levels deep; design fields nest at most ${MAX_DEPTH} deep`,
     );
@@ -81,12 +86,12 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
     const key = path[i]!;
     const where = describe(path, i);
     if (node === null || typeof node !== 'object') {
-      throw inputError('option.invalid', '--set', text, `cannot set inside ${where}, which holds a plain value`);
+      throw inputError('option.invalid', ['--set'], text, `cannot set inside ${where}, which holds a plain value`);
     }
     if (Array.isArray(node) !== (typeof key === 'number')) {
       throw inputError(
         'option.invalid',
-        '--set',
+        ['--set'],
         text,
         Array.isArray(node)
           ? `cannot set key ${JSON.stringify(key)} in ${where}, which is a list; write ${where}[N]`
@@ -96,7 +101,7 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
     if (typeof key === 'number' && key > (node as unknown[]).length) {
       throw inputError(
         'option.invalid',
-        '--set',
+        ['--set'],
         text,
         `sets item [${key}] of ${where}, which has ${(node as unknown[]).length} items; give an index from 0 to ${(node as unknown[]).length} (the last appends)`,
       );
@@ -106,7 +111,7 @@ function setAt(root: Record<string, unknown>, path: ReadonlyArray<string | numbe
       const items = (node as unknown[]).length;
       throw inputError(
         'option.invalid',
-        '--set',
+        ['--set'],
         text,
         `sets a field of item [${key}] of ${where}, which has ${items} items${items > 0 ? ` (0 to ${items - 1})` : ''}; to add an item, set it whole, e.g. ${where}[${key}]={...}`,
       );

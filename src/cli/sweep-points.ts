@@ -59,7 +59,7 @@ function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): Re
   let cardDir = dirname(resolve(setup.design.path));
   if (typeof design.process === 'string') {
     const path = resolve(dirname(setup.design.path), design.process);
-    card = p.cards.get(path) ?? loadProcess(path, 'process');
+    card = p.cards.get(path) ?? loadProcess(path, ['process']);
     p.cards.set(path, card);
     cardDir = dirname(path);
   } else card = design.process;
@@ -87,12 +87,12 @@ export function sweepPoint(setup: SweepSetup, index: number): SweepRow {
     const cornerAxes = setup.axes.map((a, i) => ({ a, v: values[i]! })).filter(({ a }) => isCornerAxis(a.path));
     if (cornerAxes.length === 0) return summarizePoint(index, values, evaluateAll(base));
     const spec = { ...rawCorners(p.raw), ...Object.fromEntries(cornerAxes.map(({ a, v }) => [a.path, [v]])) };
-    const corners = expandCorners(parseWith(cornersSchema, spec, 'corners'), base.card, base.design.clock.duty);
+    const corners = expandCorners(parseWith(cornersSchema, spec, ['corners']), base.card, base.design.clock.duty);
     return summarizePoint(index, values, evaluateAll({ ...base, corners }));
   } catch (error) {
     if (!(error instanceof InputError)) throw error;
     const where = setup.axes.map((a, i) => `${a.path}=${values[i]}`).join(', ');
-    throw new InputError(error.issues.map((issue) => ({ ...issue, allowed: `${issue.allowed} (at sweep point ${where})` })));
+    throw new InputError(error.issues.map((issue) => ({ ...issue, expected: `${issue.expected} (at sweep point ${where})` })));
   }
 }
 

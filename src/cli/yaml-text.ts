@@ -33,11 +33,11 @@ export function parseYamlText(text: string, source: TextSource): unknown {
   const fail = (offset: number, what: string): never => {
     const { line, col } = lines.linePos(offset);
     throw new InputError([
-      { code: 'file.syntax', path: source.name, allowed: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` },
+      { code: 'file.syntax', path: [], file: source.name, expected: `is not valid YAML or JSON at line ${line}, column ${col}: ${what}` },
     ]);
   };
   const unreadable = (): never => {
-    throw new InputError([{ code: 'file.syntax', path: source.name, allowed: 'could not be read as YAML or JSON' }]);
+    throw new InputError([{ code: 'file.syntax', path: [], file: source.name, expected: 'could not be read as YAML or JSON' }]);
   };
   let doc: ReturnType<typeof parseDocument>;
   try {
@@ -60,8 +60,9 @@ export function parseYamlText(text: string, source: TextSource): unknown {
     throw new InputError([
       {
         code: 'file.data-limit',
-        path: source.name,
-        allowed: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases`,
+        path: [],
+        file: source.name,
+        expected: `uses YAML aliases that expand beyond ${MAX_ALIAS_COUNT} nodes; write the values out or use fewer aliases`,
       },
     ]);
   }

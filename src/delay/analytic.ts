@@ -209,7 +209,7 @@ export const analyticModel: DelayModel = {
 function cannotTurnOn(device: DeviceAtCorner, vth: number, vdd: number, corner: string): Error {
   return inputError(
     'physics.device-off',
-    `corners (${corner})`,
+    ['corners'],
     `${vdd} V`,
     `leaves the ${device.type}-device below threshold (${vth.toFixed(3)} V) at ${corner}: it cannot turn on`,
   );

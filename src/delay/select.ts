@@ -14,7 +14,7 @@ export type ModelChoice = (typeof MODEL_CHOICES)[number];
 export function parseModelChoice(text: string | undefined): ModelChoice | undefined {
   if (text === undefined) return undefined;
   if ((MODEL_CHOICES as readonly string[]).includes(text)) return text as ModelChoice;
-  throw inputError('option.invalid', '--model', text, `is not a delay model; allowed: ${MODEL_CHOICES.join(', ')}`);
+  throw inputError('option.invalid', ['--model'], text, `is not a delay model; allowed: ${MODEL_CHOICES.join(', ')}`);
 }
 
 export function selectModel(choice: ModelChoice | undefined, tables: DelayTables | undefined, warn: (message: string) => void): DelayModel {
@@ -23,7 +23,7 @@ export function selectModel(choice: ModelChoice | undefined, tables: DelayTables
   if (choice === 'table') {
     throw inputError(
       'option.invalid',
-      '--model',
+      ['--model'],
       'table',
       'needs delay tables: name them in the process card (tables: FILE.json, from phasegap characterize) or pass --tables FILE',
     );

@@ -55,7 +55,7 @@ export function cornerTables(tables: DelayTables, corner: Corner, warn: (message
   if (same.length === 0) {
     throw inputError(
       'reference.unknown',
-      'tables',
+      ['tables'],
       corner.name,
       `has no tables for process corner "${corner.process}"; the file holds ${listed}`,
     );
@@ -66,7 +66,7 @@ export function cornerTables(tables: DelayTables, corner: Corner, warn: (message
   if (vdds.some((v) => temps.some((t) => !at(v, t)))) {
     throw inputError(
       'tables.invalid',
-      'tables',
+      ['tables'],
       corner.name,
       `is not characterized and the ${corner.process} corners do not form a supply x temperature grid to interpolate in; the file holds ${listed}`,
     );
@@ -77,7 +77,7 @@ export function cornerTables(tables: DelayTables, corner: Corner, warn: (message
     if ((vdds.length === 1 && corner.vdd !== vdds[0]) || (temps.length === 1 && corner.temperature !== temps[0])) {
       throw inputError(
         'tables.invalid',
-        'tables',
+        ['tables'],
         corner.name,
         `is not characterized and cannot be interpolated (one supply or temperature only); the file holds ${listed}`,
       );

@@ -27,17 +27,17 @@ export interface TableModelOptions {
 }
 
 /** Checks that every table has the axes' shape and every cell its pin count. */
-export function checkTables(tables: DelayTables, where: string): void {
+export function checkTables(tables: DelayTables): void {
   const rows = tables.transitions.length;
   const cols = tables.loads.length;
   tables.corners.forEach((corner, c) => {
     for (const [cell, entry] of Object.entries(corner.cells)) {
       const pins = CELLS[cell as PrimitiveCell].inputs;
-      const path = `${where}: corners[${c}].cells.${cell}`;
+      const path = ['corners', c, 'cells', cell];
       if (entry.pins.length !== pins)
         throw inputError(
           'tables.invalid',
-          `${path}.pins`,
+          [...path, 'pins'],
           entry.pins.length,
           `tables for ${pins} pins are needed (one per input of ${cell})`,
         );
@@ -48,7 +48,7 @@ export function checkTables(tables: DelayTables, where: string): void {
             if (grid.length !== rows || grid.some((r) => r.length !== cols)) {
               throw inputError(
                 'tables.invalid',
-                `${path}.pins[${p}].${edge}.${kind}`,
+                [...path, 'pins', p, edge, kind],
                 `${grid.length} rows`,
                 `must have ${rows} rows (input transitions) of ${cols} values (loads)`,
               );
@@ -200,7 +200,7 @@ function buildFrame(
     if (!entry)
       throw inputError(
         'reference.unknown',
-        'tables',
+        ['tables'],
         cell,
         `has no tables at ${corner.name}; characterize this cell (phasegap characterize)`,
       );

@@ -1,5 +1,5 @@
 /** Net loads: fanout pin capacitance + declared extra capacitance + the driver's own parasitic (docs/physics.md, "Gate delay"). */
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 import { parasiticCapacitance } from '../cells/library.js';
 import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../cells/card-widths.js';
 import type { ProcessCard } from '../schema/process.js';
@@ -7,7 +7,7 @@ import type { CompiledNetlist } from './netlist.js';
 
 /** Extra capacitance on named nets, F, and the design-file path that declared it. */
 export interface ExtraLoads {
-  readonly path: string;
+  readonly path: IssuePath;
   readonly caps: Readonly<Record<string, number>>;
 }
 
@@ -25,16 +25,11 @@ export function netLoads(net: CompiledNetlist, card: ProcessCard, ...extras: rea
     const d = net.driver[n]!;
     if (d >= 0) load[n]! += parasiticCapacitance(net.gateCell[d]!, net.gateSize[d]!, unit, c);
   }
-  for (const { path, caps } of [{ path: 'generator', caps: net.source.loads }, ...extras]) {
+  for (const { path, caps } of [{ path: ['generator'], caps: net.source.loads }, ...extras]) {
     for (const [name, cap] of Object.entries(caps)) {
       const id = net.netIndex.get(name);
       if (id === undefined)
-        throw inputError(
-          'reference.unknown',
-          `${path}.${name}`,
-          name,
-          `is not a net of the generator; nets are ${net.netNames.join(', ')}`,
-        );
+        throw inputError('reference.unknown', [...path, name], name, `is not a net of the generator; nets are ${net.netNames.join(', ')}`);
       load[id]! += cap;
     }
   }

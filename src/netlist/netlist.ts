@@ -1,5 +1,5 @@
 /** The gate netlist of a generator, as plain data, and its compiled (indexed) form. */
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 import { CELLS, type PrimitiveCell } from '../cells/library.js';
 
 export interface GateSpec {
@@ -57,7 +57,7 @@ export function netId(netlist: CompiledNetlist, name: string): number {
  * Indexes a netlist. Structural problems (pin counts, two drivers, undriven nets, loops that no
  * clock breaks) are input errors naming the gate or net.
  */
-export function compileNetlist(netlist: Netlist, where = 'generator.gates'): CompiledNetlist {
+export function compileNetlist(netlist: Netlist, where: IssuePath = ['generator', 'gates']): CompiledNetlist {
   const netIndex = new Map<string, number>();
   const netNames: string[] = [];
   const intern = (name: string): number => {
@@ -78,13 +78,13 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
     if (gate.inputs.length !== expected) {
       throw inputError(
         'netlist.invalid',
-        `${at(g)}.inputs`,
+        [...at(g), 'inputs'],
         gate.inputs,
         `has ${gate.inputs.length} nets; cell ${gate.cell} takes exactly ${expected}`,
       );
     }
     if (names.has(gate.name))
-      throw inputError('value.duplicate', `${at(g)}.name`, gate.name, 'is used by two gates; instance names must be unique');
+      throw inputError('value.duplicate', [...at(g), 'name'], gate.name, 'is used by two gates; instance names must be unique');
     names.add(gate.name);
   });
   const gateInputStart = new Int32Array(gateCount + 1);
@@ -103,7 +103,7 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
     if (out === clock)
       throw inputError(
         'netlist.invalid',
-        `${at(g)}.output`,
+        [...at(g), 'output'],
         gate.output,
         'is the input clock net; the clock is driven by the ideal source only',
       );
@@ -111,7 +111,7 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
     if (other >= 0) {
       throw inputError(
         'value.duplicate',
-        `${at(g)}.output`,
+        [...at(g), 'output'],
         gate.output,
         `is already driven by gate "${netlist.gates[other]!.name}"; a net has one driver`,
       );
@@ -157,18 +157,18 @@ export function compileNetlist(netlist: Netlist, where = 'generator.gates'): Com
 }
 
 /** The design-file path of gate g, e.g. `generator.gates[3]`. */
-function gatePaths(netlist: Netlist, where: string): (g: number) => string {
-  return (g) => `${where}[${netlist.origins?.[g] ?? g}]`;
+function gatePaths(netlist: Netlist, where: IssuePath): (g: number) => IssuePath {
+  return (g) => [...where, netlist.origins?.[g] ?? g];
 }
 
-function checkDriven(net: CompiledNetlist, at: (g: number) => string): void {
+function checkDriven(net: CompiledNetlist, at: (g: number) => IssuePath): void {
   for (let g = 0; g < net.gateCount; g++) {
     for (let i = net.gateInputStart[g]!; i < net.gateInputStart[g + 1]!; i++) {
       const n = net.gateInputs[i]!;
       if (n !== net.clock && net.driver[n]! < 0) {
         throw inputError(
           'netlist.invalid',
-          `${at(g)}.inputs[${i - net.gateInputStart[g]!}]`,
+          [...at(g), 'inputs', i - net.gateInputStart[g]!],
           net.netNames[n],
           `is not driven by any gate and is not the clock "${net.netNames[net.clock]}"; every input net needs a driver`,
         );
@@ -179,10 +179,10 @@ function checkDriven(net: CompiledNetlist, at: (g: number) => string): void {
 
 function checkRoles(net: CompiledNetlist): void {
   const src = net.source;
-  const named: Array<[string, string]> = [
-    ...src.phases.map((p, i): [string, string] => [`generator.phases[${i}]`, p]),
-    ...Object.entries(src.complements).map(([p, c]): [string, string] => [`generator.complements.${p}`, c]),
-    ...Object.entries(src.early).map(([p, e]): [string, string] => [`generator.early.${p}`, e]),
+  const named: Array<[IssuePath, string]> = [
+    ...src.phases.map((p, i): [IssuePath, string] => [['generator', 'phases', i], p]),
+    ...Object.entries(src.complements).map(([p, c]): [IssuePath, string] => [['generator', 'complements', p], c]),
+    ...Object.entries(src.early).map(([p, e]): [IssuePath, string] => [['generator', 'early', p], e]),
   ];
   for (const [path, name] of named) {
     const id = net.netIndex.get(name);
@@ -191,7 +191,7 @@ function checkRoles(net: CompiledNetlist): void {
   }
   for (const key of [...Object.keys(src.complements), ...Object.keys(src.early)]) {
     if (!src.phases.includes(key))
-      throw inputError('reference.unknown', 'generator', key, `is not one of the phases ${src.phases.join(', ')}`);
+      throw inputError('reference.unknown', ['generator'], key, `is not one of the phases ${src.phases.join(', ')}`);
   }
 }
 
@@ -200,7 +200,7 @@ function checkRoles(net: CompiledNetlist): void {
  * clock from outside the loop: that is what the cross-coupled pair is. A loop with no such input
  * is a free-running or stuck combinational loop.
  */
-function checkLoops(net: CompiledNetlist, where: string): void {
+function checkLoops(net: CompiledNetlist, where: IssuePath): void {
   const components = stronglyConnected(net);
   const clocked = clockDependence(net);
   const componentOf = new Int32Array(net.gateCount);

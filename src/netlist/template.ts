@@ -12,7 +12,7 @@
  * puts those buffer inverters inside the dead time. The clock takes pin 0 of each gate (the device
  * next to the output) unless clockInput is inner.
  */
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 import type { TemplateSpec, NetlistSpec } from '../schema/design.js';
 import type { GateSpec, Netlist } from './netlist.js';
 
@@ -25,7 +25,7 @@ export function expandTemplate(input: TemplateSpec): Netlist {
   if (stages % 2 !== 0) {
     throw inputError(
       'netlist.invalid',
-      'generator.stages',
+      ['generator', 'stages'],
       stages,
       `is odd; the ${spec.template} template needs an even number of inverters per chain (0, 2, 4, ...) so the feedback keeps its sense`,
     );
@@ -34,37 +34,42 @@ export function expandTemplate(input: TemplateSpec): Netlist {
   if (stageSizes.length !== stages) {
     throw inputError(
       'netlist.invalid',
-      'generator.stageSize',
+      ['generator', 'stageSize'],
       spec.stageSize,
       `lists ${stageSizes.length} sizes; give one per stage (${stages}) or a single number`,
     );
   }
   const bufferParity = spec.template === 'nand' ? 1 : 0;
-  checkBuffer('generator.buffer', spec.buffer, bufferParity, spec.template);
+  checkBuffer(['generator', 'buffer'], spec.buffer, bufferParity, spec.template);
   const earlyBuffer = spec.earlyBuffer ?? spec.buffer;
   if (spec.earlyTap > 0) {
     if (spec.earlyTap % 2 !== 0 || spec.earlyTap > stages) {
       throw inputError(
         'netlist.invalid',
-        'generator.earlyTap',
+        ['generator', 'earlyTap'],
         spec.earlyTap,
         `must be even and at most the chain length (${stages}); it counts stages back from the chain end`,
       );
     }
-    checkBuffer('generator.earlyBuffer', earlyBuffer, bufferParity, spec.template);
+    checkBuffer(['generator', 'earlyBuffer'], earlyBuffer, bufferParity, spec.template);
   }
   const feedbackTap = spec.feedbackTap ?? 0;
   if (feedbackTap % 2 !== 0 || feedbackTap > spec.buffer.length) {
     throw inputError(
       'netlist.invalid',
-      'generator.feedbackTap',
+      ['generator', 'feedbackTap'],
       feedbackTap,
       `must be even and at most the buffer length (${spec.buffer.length}); the feedback keeps its sense only after an even number of buffer inverters`,
     );
   }
   const [phase1, phase2] = spec.phases;
   if (phase1 === phase2)
-    throw inputError('value.duplicate', 'generator.phases', spec.phases, 'names the same net twice; the two phases need distinct names');
+    throw inputError(
+      'value.duplicate',
+      ['generator', 'phases'],
+      spec.phases,
+      'names the same net twice; the two phases need distinct names',
+    );
   const gates: GateSpec[] = [];
   gates.push({ name: 'u_clkinv', cell: 'INV', size: spec.inputSize, inputs: ['clk'], output: 'clkb' });
   const cell = spec.template === 'nand' ? 'NAND2' : 'NOR2';
@@ -133,7 +138,7 @@ function pushBuffer(gates: GateSpec[], prefix: string, netPrefix: string, from: 
   });
 }
 
-function checkBuffer(path: string, sizes: readonly number[], parity: number, style: string): void {
+function checkBuffer(path: IssuePath, sizes: readonly number[], parity: number, style: string): void {
   if (sizes.length % 2 !== parity) {
     throw inputError(
       'netlist.invalid',
@@ -161,7 +166,7 @@ export function expandNetlist(spec: NetlistSpec): Netlist {
       if (gate.inputs.length !== 1)
         throw inputError(
           'netlist.invalid',
-          `generator.gates[${g}].inputs`,
+          ['generator', 'gates', g, 'inputs'],
           gate.inputs,
           `has ${gate.inputs.length} nets; cell BUF takes exactly 1`,
         );

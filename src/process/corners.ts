@@ -1,5 +1,5 @@
 /** Corner sets (docs/physics.md, "Variation"): the cartesian product of the design's axes, or an explicit list. */
-import { InputError, inputError } from '../errors.js';
+import { InputError, inputError, type IssuePath } from '../errors.js';
 import type { CornersSpec } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
 import { cornerName, type Corner } from './corner.js';
@@ -10,14 +10,14 @@ import { parseQuantity, parseTemperature } from '../units/quantity.js';
 /** A corner with the design-file paths of the values that made it, for error messages. */
 export interface SourcedCorner {
   readonly corner: Corner;
-  readonly paths: { readonly process: string; readonly vdd: string; readonly temperature: string };
+  readonly paths: { readonly process: IssuePath; readonly vdd: IssuePath; readonly temperature: IssuePath };
 }
 
 export function expandCorners(spec: CornersSpec, card: ProcessCard, nominalDuty: number): SourcedCorner[] {
   if (spec.list && (spec.process || spec.vdd || spec.temperature || spec.duty)) {
     throw inputError(
       'value.invalid',
-      'corners',
+      ['corners'],
       Object.keys(spec).join(', '),
       'mixes an explicit list with axes; give either `list` or the axes process/vdd/temperature/duty',
     );
@@ -40,7 +40,7 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
   if (count > MAX_CORNERS) {
     throw inputError(
       'value.too-many',
-      'corners',
+      ['corners'],
       `${processes.length} x ${vdds.length} x ${temperatures.length} x ${duties.length} = ${count} corners`,
       `is more than ${MAX_CORNERS} corners; list fewer values per axis`,
     );
@@ -54,9 +54,9 @@ function fromAxes(spec: CornersSpec, card: ProcessCard, nominalDuty: number): So
           out.push({
             corner: { name: cornerName(process, vdd, temperature, showDuty ? duty : undefined), process, vdd, temperature, duty },
             paths: {
-              process: spec.process ? `corners.process[${pi}]` : 'corners.process',
-              vdd: spec.vdd ? `corners.vdd[${vi}]` : 'process.vddNominal',
-              temperature: spec.temperature ? `corners.temperature[${ti}]` : 'process.t0',
+              process: spec.process ? ['corners', 'process', pi] : ['corners', 'process'],
+              vdd: spec.vdd ? ['corners', 'vdd', vi] : ['process', 'vddNominal'],
+              temperature: spec.temperature ? ['corners', 'temperature', ti] : ['process', 't0'],
             },
           });
         }
@@ -76,7 +76,11 @@ function fromList(spec: CornersSpec, nominalDuty: number): SourcedCorner[] {
         temperature: c.temperature,
         duty,
       },
-      paths: { process: `corners.list[${i}].process`, vdd: `corners.list[${i}].vdd`, temperature: `corners.list[${i}].temperature` },
+      paths: {
+        process: ['corners', 'list', i, 'process'],
+        vdd: ['corners', 'list', i, 'vdd'],
+        temperature: ['corners', 'list', i, 'temperature'],
+      },
     };
   });
 }
@@ -94,7 +98,8 @@ function checkCorners(corners: readonly SourcedCorner[], card: ProcessCard): voi
         `is not a process corner of card "${card.name}"; it defines ${known.join(', ')}`,
       );
     }
-    if (seen.has(corner.name)) throw inputError('value.duplicate', 'corners', corner.name, 'appears twice; every corner must be distinct');
+    if (seen.has(corner.name))
+      throw inputError('value.duplicate', ['corners'], corner.name, 'appears twice; every corner must be distinct');
     seen.add(corner.name);
     try {
       devicesAtCorner(card, corner);

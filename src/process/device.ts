@@ -112,7 +112,7 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
   if (!shift) {
     throw inputError(
       'reference.unknown',
-      'corners.process',
+      ['corners', 'process'],
       corner.process,
       `is not a process corner of card "${card.name}"; it defines ${Object.keys(card.corners).join(', ')}`,
     );
@@ -123,7 +123,7 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
   if (!(corner.vdd > vth)) {
     throw inputError(
       'physics.device-off',
-      `corners (${corner.name})`,
+      ['corners'],
       `${corner.vdd} V`,
       `is not above the ${type}-device threshold at ${corner.name} (${vth.toFixed(3)} V): the device cannot turn on; raise the supply or drop this corner`,
     );

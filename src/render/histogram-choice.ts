@@ -36,7 +36,7 @@ export function matchCheck(names: readonly string[], value: string, where: strin
   const quote = (list: readonly string[]) => list.map((n) => `'${n}'`).join(', ');
   throw inputError(
     'reference.unknown',
-    '--histogram-check',
+    ['--histogram-check'],
     value,
     found.length > 1
       ? `names ${found.length} checks ${where}; write more of one: ${quote(found)}`
@@ -54,7 +54,7 @@ export function pickCorner(names: readonly string[], worst: string, corner: stri
   if (folded >= 0) return folded;
   throw inputError(
     'reference.unknown',
-    '--histogram-corner',
+    ['--histogram-corner'],
     want,
     `is not a corner of this run; allowed: worst or one of ${names.join(', ')}`,
   );

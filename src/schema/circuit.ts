@@ -170,7 +170,13 @@ export function checkCircuitReferences(design: DesignView, ctx: z.RefinementCtx)
   const at = (path: (string | number)[], value: unknown, where: string[] = ['circuit']) => {
     if (typeof value !== 'string' && typeof value !== 'number') return;
     if (classifyTerminal(value, design.nodes, circuit.rails).kind === 'unknown') {
-      ctx.addIssue({ code: 'custom', path: [...where, ...path], input: value, message: `is not ${known}` });
+      ctx.addIssue({
+        code: 'custom',
+        path: [...where, ...path],
+        input: value,
+        message: `is not ${known}`,
+        params: { code: 'reference.unknown' },
+      });
     }
   };
   const out = classifyTerminal(circuit.output, design.nodes, circuit.rails);
@@ -190,6 +196,7 @@ export function checkCircuitReferences(design: DesignView, ctx: z.RefinementCtx)
         path: ['circuit', ...path],
         input: part,
         message: 'is used twice; every capacitor and diode needs its own name',
+        params: { code: 'value.duplicate' },
       });
     seen.add(part);
   };
@@ -210,6 +217,7 @@ export function checkCircuitReferences(design: DesignView, ctx: z.RefinementCtx)
         code: 'custom',
         path: ['switches', i, 'terminals'],
         message: 'is required when the design has a `circuit` section: the solver needs the two nodes each switch connects',
+        params: { code: 'field.required' },
       });
       return;
     }

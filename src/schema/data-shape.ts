@@ -5,7 +5,7 @@
  * objects further in, where such a name would find or replace the built-in member.
  * Checked once, before any expensive work, so the schema and the core can trust the size.
  */
-import { InputError, formatPath, showValue, type InputIssue } from '../errors.js';
+import { InputError, issuePath, showValue, type InputIssue } from '../errors.js';
 import { MAX_DEPTH, MAX_LIST_ITEMS, MAX_MAPPING_KEYS, MAX_VALUES, RESERVED_KEYS } from './limits.js';
 
 export const shapeMessages = {
@@ -26,9 +26,9 @@ export function checkDataShape(data: unknown, prefix: readonly PropertyKey[] = [
   const fail = (allowed: string, value?: string): never => {
     const issue: InputIssue = {
       code: 'file.data-limit',
-      path: formatPath(path),
+      path: issuePath(path),
       value: value === undefined ? undefined : showValue(value),
-      allowed,
+      expected: allowed,
     };
     throw new InputError([issue]);
   };

@@ -88,6 +88,7 @@ export function quantity(unit: Unit, description: string, given: Bounds = {}) {
           code: 'custom',
           message: `is out of range; it must be ${words}${bare === undefined ? '' : `; it ${bare}`}`,
           input: raw,
+          params: { code: 'value.out-of-range' },
         });
         return z.NEVER;
       }
@@ -142,7 +143,12 @@ export function ratio(description: string, bounds: Bounds) {
   return number()
     .superRefine((value, ctx) => {
       if (!Number.isFinite(value) || outside(value, bounds)) {
-        ctx.addIssue({ code: 'custom', message: `is out of range; it must be ${words}`, input: value });
+        ctx.addIssue({
+          code: 'custom',
+          message: `is out of range; it must be ${words}`,
+          input: value,
+          params: { code: 'value.out-of-range' },
+        });
       }
     })
     .describe(`${description}; ${words}`);

@@ -1,9 +1,9 @@
-/** Validation at the boundary: zod issues become our InputIssues with path, value and allowed. */
+/** Validation at the boundary: zod issues become our InputIssues with path, value and expected. */
 import type * as z from 'zod';
-import { formatPath, InputError, showValue, type InputIssue } from '../errors.js';
+import { InputError, issuePath, showValue, type InputIssue, type IssueCode, type IssuePath } from '../errors.js';
 import { closestName } from './closest-name.js';
 
-export function parseWith<S extends z.ZodType>(schema: S, raw: unknown, prefix = ''): z.output<S> {
+export function parseWith<S extends z.ZodType>(schema: S, raw: unknown, prefix: IssuePath = []): z.output<S> {
   const result = schema.safeParse(raw);
   if (result.success) return result.data;
   throw new InputError(result.error.issues.map((issue) => toInputIssue(issue, raw, prefix, schema)));
@@ -82,15 +82,15 @@ function knownKeys(schema: z.ZodType, path: readonly PropertyKey[], root: unknow
   return [...keys];
 }
 
-function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, schema: z.ZodType): InputIssue {
-  const path = joinPath(prefix, formatPath(issue.path));
+function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: IssuePath, schema: z.ZodType): InputIssue {
+  const path = [...prefix, ...issuePath(issue.path)];
   const received = valueAt(root, issue.path);
   switch (issue.code) {
     case 'unrecognized_keys':
       return {
         code: 'field.unknown',
-        path: joinPath(path, ''),
-        allowed: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}${didYouMean(issue.keys, knownKeys(schema, issue.path, root))}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
+        path,
+        expected: `unknown key${issue.keys.length > 1 ? 's' : ''} ${listKeys(issue.keys)}${didYouMean(issue.keys, knownKeys(schema, issue.path, root))}; allowed keys here are ${allowedKeys(schema, issue.path, root)}`,
       };
     case 'invalid_key': {
       const inner = issue.issues
@@ -99,23 +99,27 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
         .join('; ');
       return {
         code: 'field.not-allowed',
-        path: joinPath(prefix, formatPath(issue.path.slice(0, -1))),
+        path: [...prefix, ...issuePath(issue.path.slice(0, -1))],
         value: showValue(issue.path[issue.path.length - 1]),
-        allowed: `is not allowed as a key here: ${inner}`,
+        expected: `is not allowed as a key here: ${inner}`,
       };
     }
     case 'invalid_type':
       return received === undefined
-        ? { code: 'field.required', path, allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
-        : { code: 'value.wrong-type', path, value: showValue(received), allowed: `has the wrong type; expected ${issue.expected}` };
+        ? { code: 'field.required', path, expected: `is required: ${fieldDescription(schema, issue.path, root) ?? issue.expected}` }
+        : { code: 'value.wrong-type', path, value: showValue(received), expected: `has the wrong type; expected ${issue.expected}` };
     case 'invalid_value':
       if (received === undefined)
-        return { code: 'field.required', path, allowed: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}` };
+        return {
+          code: 'field.required',
+          path,
+          expected: `is required; allowed: ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`,
+        };
       return {
         code: 'value.not-allowed',
         path,
         value: showValue(received),
-        allowed: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`,
+        expected: `is not allowed; expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`,
       };
     case 'invalid_union':
       if ('discriminator' in issue && issue.discriminator) {
@@ -124,16 +128,16 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
           code: 'value.not-allowed',
           path,
           value: showValue(received),
-          allowed: `is not a known ${issue.discriminator}; ${issue.message}`,
+          expected: `is not a known ${issue.discriminator}; ${issue.message}`,
         };
       }
       if (received === undefined)
         return {
           code: 'field.required',
           path,
-          allowed: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}`,
+          expected: `is required: ${fieldDescription(schema, issue.path, root) ?? 'see `phasegap schema`'}`,
         };
-      return { code: 'value.wrong-type', path, value: showValue(received), allowed: describeUnion(issue) };
+      return { code: 'value.wrong-type', path, value: showValue(received), expected: describeUnion(issue) };
     case 'too_small':
     case 'too_big':
       if (issue.origin === 'array' && Array.isArray(received)) {
@@ -141,12 +145,16 @@ function toInputIssue(issue: z.core.$ZodIssue, root: unknown, prefix: string, sc
         return {
           code: 'value.too-many',
           path,
-          allowed: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed`,
+          expected: `has ${received.length} item${received.length === 1 ? '' : 's'}; ${bound} allowed`,
         };
       }
-      return { code: 'value.out-of-range', path, value: showValue(received), allowed: `is out of range: ${lowerFirst(issue.message)}` };
-    default:
-      return { code: 'value.invalid', path, value: received === undefined ? undefined : showValue(received), allowed: issue.message };
+      return { code: 'value.out-of-range', path, value: showValue(received), expected: `is out of range: ${lowerFirst(issue.message)}` };
+    default: {
+      // A refinement may name its kind in params.code (a range check written as a refinement).
+      const named = issue.code === 'custom' ? (issue.params as { code?: IssueCode } | undefined)?.code : undefined;
+      const value = received === undefined ? undefined : showValue(received);
+      return { code: named ?? 'value.invalid', path, value, expected: issue.message };
+    }
   }
 }
 
@@ -199,12 +207,6 @@ function allowedKeys(schema: z.ZodType, path: readonly PropertyKey[], root: unkn
 
 function lowerFirst(text: string): string {
   return text.charAt(0).toLowerCase() + text.slice(1);
-}
-
-function joinPath(prefix: string, path: string): string {
-  if (prefix === '') return path;
-  if (path === '') return prefix;
-  return path.startsWith('[') ? `${prefix}${path}` : `${prefix}.${path}`;
 }
 
 function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {

@@ -116,13 +116,13 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const { design } = resolved;
   const spec = design.circuit;
   if (!spec)
-    throw inputError('field.required', 'circuit', undefined, 'is missing: only a design with a circuit section has a circuit deck');
+    throw inputError('field.required', ['circuit'], undefined, 'is missing: only a design with a circuit section has a circuit deck');
   const result = evaluateCorner(resolved, corner);
   const circuit = result.circuit;
   if (!result.measurement.ok || !circuit) {
     throw inputError(
       'physics.no-steady-state',
-      `corners (${corner.name})`,
+      ['corners'],
       corner.name,
       'cannot be written as a circuit deck: the model finds no steady state there',
     );

@@ -71,7 +71,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   if (!result.measurement.ok) {
     throw inputError(
       'physics.no-steady-state',
-      `corners (${corner.name})`,
+      ['corners'],
       corner.name,
       `cannot be written as a deck: the model finds no steady state there to place the measurements (${result.measurement.reason})`,
     );
@@ -198,7 +198,7 @@ function switchLines(
       if (low < 0 && high > vdd) {
         throw inputError(
           'value.not-allowed',
-          `switches.${plan.name}.levelShifter`,
+          ['switches', plan.name, 'levelShifter'],
           `${low} V .. ${high} V`,
           `cannot be written at transistor level: the deck builds a shifter up from the core supply (low level at or above 0 V) or down to a low level below ground with its high level at most VDD (${vdd} V), not both at once`,
         );

@@ -20,7 +20,7 @@ export function spiceSection(card: ProcessCard): SpiceSection {
   if (!card.spice) {
     throw inputError(
       'value.invalid',
-      'process.spice',
+      ['process', 'spice'],
       undefined,
       `is missing from card "${card.name}"; add a spice section with models (the model file), n and p (model names) to write transistor-level decks`,
     );

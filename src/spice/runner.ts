@@ -29,7 +29,7 @@ export function checkSimulator(program = 'ngspice'): string {
     const code = (probe.error as NodeJS.ErrnoException).code;
     throw inputError(
       'tool.failed',
-      'ngspice',
+      ['ngspice'],
       program,
       code === 'ENOENT'
         ? 'is not installed (or not on the PATH); install it with: sudo apt-get install ngspice (Debian/Ubuntu), or pass --ngspice PATH'
@@ -62,7 +62,7 @@ export function runDecks(decks: ReadonlyArray<{ readonly name: string; readonly 
       cwd: folder,
       shell: false,
     });
-    if (run.error) throw inputError('tool.failed', 'ngspice', program, `could not be run through xargs (${run.error.message})`);
+    if (run.error) throw inputError('tool.failed', ['ngspice'], program, `could not be run through xargs (${run.error.message})`);
     return decks.map((deck, i) => {
       const log = join(folder, `${files[i]!}.log`);
       const output = existsSync(log) ? readFileSync(log, 'utf8') : `error: ngspice wrote no output for ${deck.name}`;

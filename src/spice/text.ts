@@ -5,7 +5,7 @@
  * `* `; identifiers keep only the characters SPICE names use; an .include path is quoted and may
  * not hold a quote or a line break.
  */
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 
 /** Text for a comment: printable ASCII only (anything else is `?`, a line break a space), no trailing backslash. */
 export function spiceCommentText(text: string): string {
@@ -32,13 +32,13 @@ export function spiceIdentifier(name: string): string {
 }
 
 /** `.include "PATH"`; a path that cannot be quoted (a double quote, a control character) is refused. */
-export function spiceInclude(path: string, field = 'process.spice.models (or --models)'): string {
+export function spiceInclude(path: string, field: IssuePath = ['process', 'spice', 'models']): string {
   if (/["\p{Cc}\u2028\u2029]/u.test(path)) {
     throw inputError(
       'value.invalid',
       field,
       path,
-      "cannot be written in a deck's .include line: a model file path may not contain a double quote, a line break or another control character; rename the file or its folder",
+      "cannot be written in a deck's .include line (it comes from the process card or --models): a model file path may not contain a double quote, a line break or another control character; rename the file or its folder",
     );
   }
   return `.include "${path}"`;

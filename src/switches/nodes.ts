@@ -6,7 +6,7 @@
  * stays exact at every supply.
  */
 import { max, min } from 'd3-array';
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 import { levelAt, parseLevel, type Level } from '../schema/level.js';
 import type { LevelRangeSpec, NodesSpec } from '../schema/nodes.js';
 
@@ -56,7 +56,7 @@ export function resolveNodes(spec: NodesSpec): ReadonlyMap<string, NodeLevels> {
     if (parseLevel(name) !== null) {
       throw inputError(
         'value.invalid',
-        `nodes.${name}`,
+        ['nodes', name],
         name,
         'reads as a voltage level; name nodes so they cannot be taken for a rail (e.g. "top", "v_out")',
       );
@@ -75,7 +75,7 @@ export function resolveNodes(spec: NodesSpec): ReadonlyMap<string, NodeLevels> {
 }
 
 /** A terminal or bulk as written: a declared node's name or a fixed level. */
-export function resolveTerminal(raw: string | number, nodes: ReadonlyMap<string, NodeLevels>, path: string): NodeLevels {
+export function resolveTerminal(raw: string | number, nodes: ReadonlyMap<string, NodeLevels>, path: IssuePath): NodeLevels {
   if (typeof raw === 'string') {
     const node = nodes.get(raw.trim());
     if (node) return node;

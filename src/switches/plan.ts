@@ -2,7 +2,7 @@
  * Switches resolved against the generator: the driver cells each adds to the netlist, the net
  * each device gate hangs on, and the gate capacitance it loads that net with.
  */
-import { inputError } from '../errors.js';
+import { inputError, type IssuePath } from '../errors.js';
 import type { SwitchSpec } from '../schema/switches.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { GateSpec, Netlist } from '../netlist/netlist.js';
@@ -104,26 +104,26 @@ export function expandSwitches(
   const loads: Record<string, number> = {};
   const names = new Set<string>();
   const plans = switches.map((spec, i): SwitchPlan => {
-    const path = `switches[${i}]`;
+    const path: IssuePath = ['switches', i];
     if (names.has(spec.name))
-      throw inputError('value.duplicate', `${path}.name`, spec.name, 'is used by two switches; switch names must be unique');
+      throw inputError('value.duplicate', [...path, 'name'], spec.name, 'is used by two switches; switch names must be unique');
     names.add(spec.name);
     const known = () => [...nets].filter((n) => !n.includes('.')).join(', ');
     if (!nets.has(spec.gate))
-      throw inputError('reference.unknown', `${path}.gate`, spec.gate, `is not a net of the generator; nets are ${known()}`);
+      throw inputError('reference.unknown', [...path, 'gate'], spec.gate, `is not a net of the generator; nets are ${known()}`);
     if (spec.type === 'tgate' && spec.gateBar === undefined) {
       throw inputError(
         'field.required',
-        `${path}.gateBar`,
+        [...path, 'gateBar'],
         undefined,
         'is required for a tgate: name the net that drives its p gate (usually the phase complement)',
       );
     }
     if (spec.type !== 'tgate' && spec.gateBar !== undefined) {
-      throw inputError('field.not-allowed', `${path}.gateBar`, spec.gateBar, `is only for a tgate; a ${spec.type} switch has one gate`);
+      throw inputError('field.not-allowed', [...path, 'gateBar'], spec.gateBar, `is only for a tgate; a ${spec.type} switch has one gate`);
     }
     if (spec.gateBar !== undefined && !nets.has(spec.gateBar)) {
-      throw inputError('reference.unknown', `${path}.gateBar`, spec.gateBar, `is not a net of the generator; nets are ${known()}`);
+      throw inputError('reference.unknown', [...path, 'gateBar'], spec.gateBar, `is not a net of the generator; nets are ${known()}`);
     }
     const ls = spec.levelShifter;
     const devices: SwitchDevicePlan[] = [];
@@ -147,7 +147,7 @@ export function expandSwitches(
           : `${spec.name}: terminals undeclared (older \`signal\` form); its off-state and stress checks assume both terminals at the signal level and cannot see a boosted node: declare \`nodes\` and \`terminals\``,
       );
     }
-    const bulkNode = spec.bulk === undefined ? undefined : resolveTerminal(spec.bulk, nodes, `${path}.bulk`);
+    const bulkNode = spec.bulk === undefined ? undefined : resolveTerminal(spec.bulk, nodes, [...path, 'bulk']);
     const bulk = bulkNode?.rail ? parseLevel(spec.bulk!)! : undefined;
     return { name: spec.name, type: spec.type, devices, levelShifter: ls, bulk, bulkNode, ...wiring };
   });
@@ -156,7 +156,7 @@ export function expandSwitches(
 
 function terminalsOf(
   spec: SwitchSpec,
-  path: string,
+  path: IssuePath,
   devices: readonly SwitchDevicePlan[],
   nodes: ReadonlyMap<string, NodeLevels>,
   vddNominal: number,
@@ -170,16 +170,16 @@ function terminalsOf(
   if (spec.signal !== undefined) {
     throw inputError(
       'field.not-allowed',
-      `${path}.signal`,
+      [...path, 'signal'],
       'given',
       "cannot be given with `terminals`: the terminals' node voltages say what the switch passes",
     );
   }
-  const terminals = spec.terminals.map((raw, j) => resolveTerminal(raw, nodes, `${path}.terminals[${j}]`)) as [NodeLevels, NodeLevels];
+  const terminals = spec.terminals.map((raw, j) => resolveTerminal(raw, nodes, [...path, 'terminals', j])) as [NodeLevels, NodeLevels];
   if (terminals[0] === terminals[1] || (terminals[0].rail && terminals[1].rail && terminals[0].name === terminals[1].name)) {
     throw inputError(
       'value.invalid',
-      `${path}.terminals`,
+      [...path, 'terminals'],
       spec.terminals,
       'connects a node to itself; name the two different nodes the switch connects',
     );
@@ -188,7 +188,7 @@ function terminalsOf(
   if (unknown) {
     throw inputError(
       'value.invalid',
-      `${path}.gate`,
+      [...path, 'gate'],
       unknown.net,
       'must be a phase, a phase complement or an early phase when terminals are declared, so the phase each terminal voltage belongs to is known',
     );
@@ -209,7 +209,7 @@ export function checkLevelShifters(plans: readonly SwitchPlan[], vdds: readonly 
       if (!(levelAt(ls.high, vdd) > levelAt(ls.low, vdd))) {
         throw inputError(
           'physics.limit',
-          `switches[${i}].levelShifter.high`,
+          ['switches', i, 'levelShifter', 'high'],
           describeLevel(ls.high),
           `must be above the low level (${describeLevel(ls.low)}); at vdd = ${vdd} V it is ${levelAt(ls.high, vdd).toFixed(3)} V against ${levelAt(ls.low, vdd).toFixed(3)} V`,
         );

@@ -35,7 +35,7 @@ export function steadyStateDelays(resolved: ResolvedDesign, corner: Corner): Fix
   if (result.status !== 'settled') {
     throw inputError(
       'physics.no-steady-state',
-      `corners (${corner.name})`,
+      ['corners'],
       corner.name,
       `has no periodic steady state in the model (${result.reason}); its delays cannot be exported`,
     );
@@ -44,8 +44,8 @@ export function steadyStateDelays(resolved: ResolvedDesign, corner: Corner): Fix
     if (Number.isNaN(rise[g]!)) rise[g] = timing.delay(g, 0, true, design.clock.transition);
     if (Number.isNaN(fall[g]!)) fall[g] = timing.delay(g, 0, false, design.clock.transition);
     const why = `the model gives gate ${netlist.source.gates[g]?.name ?? g} no finite delay at ${corner.name}`;
-    finite(rise[g]!, `corners (${corner.name})`, why);
-    finite(fall[g]!, `corners (${corner.name})`, why);
+    finite(rise[g]!, ['corners'], why);
+    finite(fall[g]!, ['corners'], why);
   }
   return { rise, fall };
 }

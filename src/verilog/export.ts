@@ -41,7 +41,7 @@ export function timescaleText(t: Timescale): string {
 
 /** A delay in timescale units, rounded to the precision, as text. */
 export function delayText(seconds: number, t: Timescale): string {
-  const steps = Math.round(finite(seconds, 'Verilog delay') / t.precision);
+  const steps = Math.round(finite(seconds, ['Verilog delay']) / t.precision);
   const digits = Math.max(0, Math.round(Math.log10(t.unit / t.precision)));
   return ((steps * t.precision) / t.unit).toFixed(digits);
 }

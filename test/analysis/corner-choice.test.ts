@@ -58,7 +58,7 @@ describe('chooseCorners', () => {
       expect.unreachable();
     } catch (error) {
       expect(error).toBeInstanceOf(InputError);
-      expect((error as InputError).issues[0]).toMatchObject({ path: '--corner', value: '"xx/1V/0C"' });
+      expect((error as InputError).issues[0]).toMatchObject({ code: 'reference.unknown', path: ['--corner'], value: '"xx/1V/0C"' });
     }
   });
 });

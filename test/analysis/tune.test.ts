@@ -11,7 +11,7 @@ import { resolveDesign } from '../../src/analysis/resolve.js';
 import { evaluateAll } from '../../src/analysis/evaluate.js';
 import type { Design } from '../../src/schema/design.js';
 import { ownKnobs, templateOf, withKnobs } from '../../src/analysis/tune-knobs.js';
-import { cli, design, inputErrorMessage, tempDir } from '../helpers.js';
+import { cli, design, inputErrorMessage, inputIssues, tempDir } from '../helpers.js';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { requireTool } from '../tools.js';
@@ -163,6 +163,9 @@ describe('tuneChains', () => {
 
   it('refuses a free-form netlist, naming the field', () => {
     const { d, card } = load('lp-netlist');
+    expect(inputIssues(() => tuneChains(d, card))).toEqual([
+      expect.objectContaining({ code: 'value.invalid', path: ['generator', 'template'], value: '"netlist"' }),
+    ]);
     expect(inputErrorMessage(() => tuneChains(d, card))).toBe(
       'generator.template: "netlist" is a free-form netlist; tune adjusts the delay chains of the nand or nor template',
     );

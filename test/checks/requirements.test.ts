@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { analyticModel } from '../../src/delay/analytic.js';
-import { expectClose, inputErrorMessage, resolveYaml } from '../helpers.js';
+import { expectClose, inputIssues, resolveYaml } from '../helpers.js';
 
 const design = (requirements: string) => `
 name: t
@@ -43,8 +43,9 @@ describe('requirementChecks: overlap at the gap level', () => {
   });
 
   it('refuses a gap level outside (0, 0.5), naming the field', () => {
-    const message = inputErrorMessage(() => resolveYaml(design('{ gap: { level: 0.6 } }')));
-    expect(message).toContain('requirements.gap.level');
+    expect(inputIssues(() => resolveYaml(design('{ gap: { level: 0.6 } }')))).toEqual([
+      expect.objectContaining({ code: 'value.out-of-range', path: ['requirements', 'gap', 'level'], value: '0.6' }),
+    ]);
   });
 });
 

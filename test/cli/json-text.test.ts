@@ -1,11 +1,17 @@
 import { describe, it, expect } from 'vitest';
 import { parseJsonText } from '../../src/cli/json-text.js';
-import { inputErrorMessage } from '../helpers.js';
+import { inputErrorMessage, inputIssues } from '../helpers.js';
 
 const read = (text: string, quote = true) => parseJsonText(text, { name: 'f.json', quote });
 const message = (text: string, quote = true) => inputErrorMessage(() => read(text, quote));
 
 describe('parseJsonText', () => {
+  it('gives text that does not parse code file.syntax in the named file, with no field path', () => {
+    expect(inputIssues(() => read('{"a": [1,', true))).toEqual([
+      expect.objectContaining({ code: 'file.syntax', path: [], file: 'f.json' }),
+    ]);
+  });
+
   it('reads what JSON.parse reads, with escapes, numbers and a byte-order mark', () => {
     const text = '{"a": [1, -2.5e-3, true, false, null], "b\\u0041": "x\\ny\\"", "c": {}}';
     expect(read(text)).toEqual(JSON.parse(text));

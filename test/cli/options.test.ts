@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { optionalWholeNumber, wholeNumber } from '../../src/cli/options.js';
-import { inputErrorMessage } from '../helpers.js';
+import { inputErrorMessage, inputIssues } from '../helpers.js';
 
 describe('wholeNumber', () => {
   const range = { min: 1, max: 1000 };
@@ -12,13 +12,18 @@ describe('wholeNumber', () => {
     expect(wholeNumber('--top', text, range)).toBe(value);
   });
   it.each(['0', '1001', '1e3', '1e12', '2.5', '2.0', '-3', '+3', '0x10', ' 4', '', 'ten', '99999999999999999999'])(
-    'refuses %j, naming the option, the value and the range',
+    'refuses %j as option.invalid at the option, with the value',
     (text) => {
-      expect(inputErrorMessage(() => wholeNumber('--top', text, range))).toBe(
-        `--top: ${JSON.stringify(text)} must be a whole number of at least 1 and at most 1000`,
-      );
+      expect(inputIssues(() => wholeNumber('--top', text, range))).toEqual([
+        expect.objectContaining({ code: 'option.invalid', path: ['--top'], value: JSON.stringify(text) }),
+      ]);
     },
   );
+  it('names the option, the value and the range in words', () => {
+    expect(inputErrorMessage(() => wholeNumber('--top', '1001', range))).toBe(
+      '--top: "1001" must be a whole number of at least 1 and at most 1000',
+    );
+  });
   it('names what is counted when told', () => {
     expect(inputErrorMessage(() => wholeNumber('--periods', '0', { min: 1, max: 1000, noun: 'clock periods' }))).toBe(
       '--periods: "0" must be a whole number of clock periods from 1 to 1000',

@@ -1,11 +1,17 @@
 import { describe, it, expect } from 'vitest';
 import { parseYamlText } from '../../src/cli/yaml-text.js';
-import { inputErrorMessage } from '../helpers.js';
+import { inputErrorMessage, inputIssues } from '../helpers.js';
 
 const read = (text: string, quote = true) => parseYamlText(text, { name: 'f.yaml', quote });
 const message = (text: string, quote = true) => inputErrorMessage(() => read(text, quote));
 
 describe('parseYamlText', () => {
+  it('gives text that does not parse code file.syntax in the named file, with no field path', () => {
+    expect(inputIssues(() => read('{"a": [1,', true))).toEqual([
+      expect.objectContaining({ code: 'file.syntax', path: [], file: 'f.yaml' }),
+    ]);
+  });
+
   it('reads mappings, lists, anchors and aliases', () => {
     expect(read('a: &x [1, 2]\nb: *x\nc: { d: null }\n')).toEqual({ a: [1, 2], b: [1, 2], c: { d: null } });
   });

@@ -229,6 +229,7 @@ describe('analyticModel.bind at corners', () => {
       error = e;
     }
     expect(error).toBeInstanceOf(InputError);
+    expect((error as InputError).issues).toEqual([expect.objectContaining({ code: 'physics.device-off', path: ['corners'] })]);
     expect((error as InputError).message).toContain(corner.name);
     expect((error as InputError).message).toContain('p-device');
   });

@@ -4,7 +4,7 @@ import { netLoads } from '../../src/netlist/loads.js';
 import { gatePinCapacitance } from '../../src/cells/card-widths.js';
 import { parasiticCapacitance, pinCapacitance } from '../../src/cells/library.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { expectClose, processCard, inputErrorMessage } from '../helpers.js';
+import { expectClose, processCard, inputErrorMessage, inputIssues } from '../helpers.js';
 
 const inv = (name: string, input: string, output: string, size = 1): GateSpec => ({ name, cell: 'INV', size, inputs: [input], output });
 
@@ -13,6 +13,12 @@ function netlist(gates: GateSpec[], phases: [string, string] = ['a', 'b'], extra
 }
 
 const message = inputErrorMessage;
+/** The one issue `fn` throws, as code, path and shown value. */
+const issue = (fn: () => unknown) => {
+  const [only, ...rest] = inputIssues(fn);
+  expect(rest).toEqual([]);
+  return [only!.code, only!.path, only!.value];
+};
 
 /** A cross-coupled NAND latch fed by the clock and its complement. */
 const latch = (): GateSpec[] => [
@@ -51,38 +57,47 @@ describe('compileNetlist', () => {
     [
       'a wrong pin count',
       [{ name: 'g', cell: 'NAND2', size: 1, inputs: ['clk'], output: 'a' }, inv('i', 'a', 'b')],
-      'generator.gates[0].inputs: ["clk"] has 1 nets; cell NAND2 takes exactly 2',
+      ['netlist.invalid', ['generator', 'gates', 0, 'inputs'], '["clk"]'],
     ],
-    ['two gates with one name', [inv('u', 'clk', 'a'), inv('u', 'a', 'b')], 'generator.gates[1].name: "u" is used by two gates'],
+    ['two gates with one name', [inv('u', 'clk', 'a'), inv('u', 'a', 'b')], ['value.duplicate', ['generator', 'gates', 1, 'name'], '"u"']],
     [
       'two drivers on a net',
       [inv('u1', 'clk', 'a'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
-      'generator.gates[1].output: "a" is already driven by gate "u1"',
+      ['value.duplicate', ['generator', 'gates', 1, 'output'], '"a"'],
     ],
     [
       'a gate driving the clock',
       [inv('u1', 'a', 'clk'), inv('u2', 'clk', 'a'), inv('u3', 'a', 'b')],
-      'generator.gates[0].output: "clk" is the input clock net',
+      ['netlist.invalid', ['generator', 'gates', 0, 'output'], '"clk"'],
     ],
     [
       'an undriven net',
       [inv('u1', 'clk', 'a'), { name: 'g', cell: 'NAND2', size: 1, inputs: ['a', 'floating'], output: 'b' }],
-      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"',
+      ['netlist.invalid', ['generator', 'gates', 1, 'inputs', 1], '"floating"'],
     ],
-    ['a phase that no gate drives', [inv('u1', 'clk', 'a')], 'generator.phases[1]: "b" is not the output of any gate in the netlist'],
-  ] as const)('refuses %s, naming the gate or net', (_what, gates, text) => {
-    expect(message(() => compileNetlist(netlist(gates as unknown as GateSpec[])))).toContain(text);
+    ['a phase that no gate drives', [inv('u1', 'clk', 'a')], ['reference.unknown', ['generator', 'phases', 1], '"b"']],
+  ] as const)('refuses %s, naming the gate or net', (_what, gates, expected) => {
+    expect(issue(() => compileNetlist(netlist(gates as unknown as GateSpec[])))).toEqual(expected);
+  });
+
+  it('says which net is undriven and what would drive it, in words', () => {
+    const gates = [inv('u1', 'clk', 'a'), { name: 'g', cell: 'NAND2', size: 1, inputs: ['a', 'floating'], output: 'b' } as GateSpec];
+    expect(message(() => compileNetlist(netlist(gates)))).toBe(
+      'generator.gates[1].inputs[1]: "floating" is not driven by any gate and is not the clock "clk"; every input net needs a driver',
+    );
   });
 
   it('refuses a ring of inverters that no clock input reaches (combinational loop)', () => {
     const gates = [inv('r1', 'r3', 'r1o'), inv('r2', 'r1o', 'r2o'), inv('r3', 'r2o', 'r3'), inv('a', 'clk', 'a'), inv('b', 'r3', 'b')];
-    const text = message(() => compileNetlist(netlist(gates)));
-    expect(text).toMatch(/^generator\.gates: "r1, r2, r3" form a combinational loop that no input from the clock controls/);
+    expect(issue(() => compileNetlist(netlist(gates)))).toEqual(['netlist.invalid', ['generator', 'gates'], '"r1, r2, r3"']);
+    expect(message(() => compileNetlist(netlist(gates)))).toMatch(
+      /^generator\.gates: "r1, r2, r3" form a combinational loop that no input from the clock controls/,
+    );
   });
 
   it('refuses a gate that feeds itself with no clock input', () => {
     const gates = [{ name: 'self', cell: 'NAND2', size: 1, inputs: ['a', 'a'], output: 'a' } as GateSpec, inv('b', 'clk', 'b')];
-    expect(message(() => compileNetlist(netlist(gates)))).toContain('"self" form a combinational loop');
+    expect(issue(() => compileNetlist(netlist(gates)))).toEqual(['netlist.invalid', ['generator', 'gates'], '"self"']);
   });
 
   it('refuses a loop whose only clock input comes from inside the loop', () => {
@@ -93,20 +108,24 @@ describe('compileNetlist', () => {
       { name: 'a', cell: 'NAND2', size: 1, inputs: ['clk', 'q1'], output: 'a' },
       inv('b', 'a', 'b'),
     ];
-    expect(message(() => compileNetlist(netlist(gates)))).toContain('"l1, l2" form a combinational loop');
+    expect(issue(() => compileNetlist(netlist(gates)))).toEqual(['netlist.invalid', ['generator', 'gates'], '"l1, l2"']);
   });
 
   it('refuses a complement or early net keyed by something that is not a phase', () => {
     const gates = [...latch(), inv('cb', 'a', 'ab')];
-    expect(message(() => compileNetlist(netlist(gates, ['a', 'b'], { complements: { x: 'ab' } })))).toBe(
-      'generator: "x" is not one of the phases a, b',
-    );
+    expect(issue(() => compileNetlist(netlist(gates, ['a', 'b'], { complements: { x: 'ab' } })))).toEqual([
+      'reference.unknown',
+      ['generator'],
+      '"x"',
+    ]);
   });
 
   it('uses the given path prefix in its messages', () => {
-    expect(message(() => compileNetlist(netlist([inv('u', 'nowhere', 'a'), inv('v', 'a', 'b')]), 'switches'))).toMatch(
-      /^switches\[0\]\.inputs\[0\]/,
-    );
+    expect(issue(() => compileNetlist(netlist([inv('u', 'nowhere', 'a'), inv('v', 'a', 'b')]), ['switches']))).toEqual([
+      'netlist.invalid',
+      ['switches', 0, 'inputs', 0],
+      '"nowhere"',
+    ]);
   });
 });
 
@@ -122,7 +141,7 @@ describe('netLoads', () => {
       inv('h', 'a', 'c', 4),
     ];
     const c = compileNetlist(netlist(gates, ['a', 'b'], { loads: { a: 10e-15 } }));
-    const loads = netLoads(c, card, { path: 'loads', caps: { a: 100e-15 } });
+    const loads = netLoads(c, card, { path: ['loads'], caps: { a: 100e-15 } });
     const expected =
       pinCapacitance('NAND2', 3, unit, caps) +
       pinCapacitance('INV', 4, unit, caps) +
@@ -139,7 +158,12 @@ describe('netLoads', () => {
 
   it('names the declaring path and the nets when a load names no net', () => {
     const c = compileNetlist(netlist(latch()));
-    expect(message(() => netLoads(c, card, { path: 'loads', caps: { p9: 1e-12 } }))).toBe(
+    expect(issue(() => netLoads(c, card, { path: ['loads'], caps: { p9: 1e-12 } }))).toEqual([
+      'reference.unknown',
+      ['loads', 'p9'],
+      '"p9"',
+    ]);
+    expect(message(() => netLoads(c, card, { path: ['loads'], caps: { p9: 1e-12 } }))).toBe(
       'loads.p9: "p9" is not a net of the generator; nets are clk, clkb, b, a',
     );
   });

@@ -4,7 +4,7 @@ import { cornerName } from '../../src/process/corner.js';
 import { cornersSchema, type CornersSpec } from '../../src/schema/design.js';
 import { parseWith } from '../../src/schema/validate.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { processCard, inputErrorMessage } from '../helpers.js';
+import { processCard, inputErrorMessage, inputIssues } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));
 const spec = (raw: unknown): CornersSpec => parseWith(cornersSchema, raw);
@@ -41,7 +41,7 @@ describe('expandCorners', () => {
   it('fills missing axes with the card nominal, t0 and the clock duty', () => {
     const corners = expandCorners(spec({}), card, 0.45);
     expect(corners.map((c) => c.corner)).toEqual([{ name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.45 }]);
-    expect(corners[0]!.paths.vdd).toBe('process.vddNominal');
+    expect(corners[0]!.paths.vdd).toEqual(['process', 'vddNominal']);
   });
 
   it('adds the duty to the name only when the duty axis varies', () => {
@@ -62,12 +62,12 @@ describe('expandCorners', () => {
       0.5,
     );
     expect(corners.map((c) => c.corner.name)).toEqual(['ss/1.62V/125C', 'ff/1.98V/-40C']);
-    expect(corners[1]!.paths.vdd).toBe('corners.list[1].vdd');
+    expect(corners[1]!.paths.vdd).toEqual(['corners', 'list', 1, 'vdd']);
   });
 
   it('refuses a list mixed with axes', () => {
-    expect(message(() => expandCorners(spec({ vdd: [1.8], list: [{ process: 'tt', vdd: 1.8, temperature: 27 }] }), card, 0.5))).toMatch(
-      /^corners: .*either `list` or the axes/,
+    expect(inputIssues(() => expandCorners(spec({ vdd: [1.8], list: [{ process: 'tt', vdd: 1.8, temperature: 27 }] }), card, 0.5))).toEqual(
+      [expect.objectContaining({ code: 'value.invalid', path: ['corners'] })],
     );
   });
 
@@ -80,22 +80,24 @@ describe('expandCorners', () => {
   it.each(['constructor', 'toString', '__proto__', 'hasOwnProperty'])(
     "finds no process corner %s among the card's inherited members",
     (name) => {
-      expect(message(() => expandCorners(spec({ list: [{ process: name, vdd: 1.8, temperature: 27 }] }), card, 0.5))).toBe(
-        `corners.list[0].process: "${name}" is not a process corner of card "generic180"; it defines tt, ss, ff, fs, sf`,
-      );
+      expect(inputIssues(() => expandCorners(spec({ list: [{ process: name, vdd: 1.8, temperature: 27 }] }), card, 0.5))).toEqual([
+        expect.objectContaining({ code: 'reference.unknown', path: ['corners', 'list', 0, 'process'], value: `"${name}"` }),
+      ]);
     },
   );
 
   it('refuses more than 10000 corners before expanding them', () => {
     const axis = (n: number) => Array.from({ length: n }, (_, i) => 1.6 + i / 10_000);
     expect(
-      message(() => expandCorners(spec({ process: ['tt', 'ss'], vdd: axis(1000), temperature: [0, 27, 85, 125, 150, 175] }), card, 0.5)),
-    ).toBe('corners: "2 x 1000 x 6 x 1 = 12000 corners" is more than 10000 corners; list fewer values per axis');
+      inputIssues(() =>
+        expandCorners(spec({ process: ['tt', 'ss'], vdd: axis(1000), temperature: [0, 27, 85, 125, 150, 175] }), card, 0.5),
+      ),
+    ).toEqual([expect.objectContaining({ code: 'value.too-many', path: ['corners'], value: '"2 x 1000 x 6 x 1 = 12000 corners"' })]);
   });
 
   it('refuses a corner listed twice', () => {
     expect(
-      message(() =>
+      inputIssues(() =>
         expandCorners(
           spec({
             list: [
@@ -107,13 +109,15 @@ describe('expandCorners', () => {
           0.5,
         ),
       ),
-    ).toContain('"tt/1.8V/27C" appears twice');
+    ).toEqual([expect.objectContaining({ code: 'value.duplicate', path: ['corners'], value: '"tt/1.8V/27C"' })]);
   });
 
   it('names corners.vdd[i] and the corner where a supply cannot turn a device on', () => {
     // 0.5 V clears the tt threshold at 27 C (0.45 V) but not at -40 C (0.517 V): only that corner fails.
+    const issues = inputIssues(() => expandCorners(spec({ vdd: [1.8, 0.5], temperature: [27, -40] }), card, 0.5));
+    expect(issues).toEqual([expect.objectContaining({ code: 'physics.device-off', path: ['corners', 'vdd', 1] })]);
     const text = message(() => expandCorners(spec({ vdd: [1.8, 0.5], temperature: [27, -40] }), card, 0.5));
-    expect(text).toContain('corners.vdd[1]');
+    expect(text).toMatch(/^corners\.vdd\[1\]: /);
     expect(text).toContain('tt/0.5V/-40C');
     expect(text).toContain('0.517 V');
     expect(text).not.toContain('tt/0.5V/27C');

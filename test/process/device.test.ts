@@ -103,6 +103,7 @@ describe('deviceAtCorner', () => {
   it('refuses a supply at or below threshold with the corner and the threshold named', () => {
     const corner = at('ss', 0.5, -40); // Vth = 0.45 + 0.06 + 0.067 = 0.577 V
     const error = thrown(() => deviceAtCorner(card, 'n', corner));
+    expect(error.issues).toEqual([expect.objectContaining({ code: 'physics.device-off', path: ['corners'] })]);
     expect(error.message).toContain(corner.name);
     expect(error.message).toContain('0.577 V');
     expect(error.message).toContain('n-device');
@@ -111,6 +112,7 @@ describe('deviceAtCorner', () => {
 
   it('refuses a process corner the card does not define, listing the ones it does', () => {
     const error = thrown(() => deviceAtCorner(card, 'p', at('snff', 1.8, 27)));
+    expect(error.issues).toEqual([expect.objectContaining({ code: 'reference.unknown', path: ['corners', 'process'], value: '"snff"' })]);
     expect(error.message).toContain('"snff"');
     expect(error.message).toContain('tt, ss, ff, fs, sf');
   });

@@ -3,7 +3,8 @@ import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import * as z from 'zod';
 import { description, identifier, IDENTIFIER_MAX, title } from '../../src/schema/names.js';
-import { cli, fixture, inputErrorMessage, tempDir } from '../helpers.js';
+import { cli, fixture, inputErrorMessage, inputIssues, tempDir } from '../helpers.js';
+import { formatPath } from '../../src/errors.js';
 import { loadDesign, loadProcess } from '../../src/cli/load.js';
 import { parseWith } from '../../src/schema/validate.js';
 import { PLAIN_YAML } from './hostile.js';
@@ -101,6 +102,7 @@ describe('the design schema', () => {
     const dir = tempDir();
     const file = join(dir, 'd.yaml');
     writeFileSync(file, edit(PLAIN_YAML));
+    expect(inputIssues(() => loadDesign(file)).map((i) => formatPath(i.path))).toEqual([path]);
     const message = inputErrorMessage(() => loadDesign(file));
     expect(message).toContain(`${path}: `);
     expect(message).not.toMatch(/[\n\u202e]/);
@@ -141,6 +143,9 @@ describe('the design schema', () => {
       /name: "card\\n\.control" is not allowed; it must be printable characters only/,
     );
     writeFileSync(card, readCard().replace(/^ {2}tt:/m, '  "t\\u2028t":'));
+    expect(inputIssues(() => loadProcess(card))).toEqual([
+      expect.objectContaining({ code: 'field.not-allowed', file: card, path: ['corners'], value: '"t\\u2028t"' }),
+    ]);
     expect(inputErrorMessage(() => loadProcess(card))).toBe(
       `${card}: corners: "t\\u2028t" is not allowed as a key here: must use letters, digits, _ and -`,
     );

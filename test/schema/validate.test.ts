@@ -35,15 +35,15 @@ describe('parseWith issue codes', () => {
   const schema = z
     .object({ a: z.number().min(0), kind: z.enum(['x', 'y']).optional(), list: z.array(z.number()).max(2).optional() })
     .strict();
-  const codes = (raw: unknown) => inputIssues(() => parseWith(schema, raw, 'top')).map((i) => [i.code, i.path]);
+  const codes = (raw: unknown) => inputIssues(() => parseWith(schema, raw, ['top'])).map((i) => [i.code, i.path]);
 
   it('gives each kind of schema problem its code and the field path', () => {
-    expect(codes({ a: -1 })).toEqual([['value.out-of-range', 'top.a']]);
-    expect(codes({ a: 'one' })).toEqual([['value.wrong-type', 'top.a']]);
-    expect(codes({})).toEqual([['field.required', 'top.a']]);
-    expect(codes({ a: 1, b: 2 })).toEqual([['field.unknown', 'top']]);
-    expect(codes({ a: 1, kind: 'z' })).toEqual([['value.not-allowed', 'top.kind']]);
-    expect(codes({ a: 1, list: [1, 2, 3] })).toEqual([['value.too-many', 'top.list']]);
+    expect(codes({ a: -1 })).toEqual([['value.out-of-range', ['top', 'a']]]);
+    expect(codes({ a: 'one' })).toEqual([['value.wrong-type', ['top', 'a']]]);
+    expect(codes({})).toEqual([['field.required', ['top', 'a']]]);
+    expect(codes({ a: 1, b: 2 })).toEqual([['field.unknown', ['top']]]);
+    expect(codes({ a: 1, kind: 'z' })).toEqual([['value.not-allowed', ['top', 'kind']]]);
+    expect(codes({ a: 1, list: [1, 2, 3] })).toEqual([['value.too-many', ['top', 'list']]]);
   });
 });
 
@@ -58,6 +58,6 @@ generator: { template: nand, stages: 4, stageLoad: 30fF, buffer: [2, 6, 18] }
 corners: { process: [tt], vdd: [1.8V, 0.3V], temperature: [27] }
 `),
     );
-    expect(issues.map((i) => [i.code, i.path])).toEqual([['physics.device-off', 'corners.vdd[1]']]);
+    expect(issues.map((i) => [i.code, i.path])).toEqual([['physics.device-off', ['corners', 'vdd', 1]]]);
   });
 });

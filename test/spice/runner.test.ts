@@ -1,12 +1,11 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { copyFileSync, existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { expectClose, fixture, tempDir } from '../helpers.js';
+import { expectClose, fixture, inputIssues, tempDir } from '../helpers.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
 import { runDecks } from '../../src/spice/runner.js';
 import { cornerModels } from '../../src/spice/models.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { InputError } from '../../src/errors.js';
 import { requireTool } from '../tools.js';
 
 requireTool('ngspice', 'ngspice');
@@ -70,9 +69,11 @@ describe('runDecks', () => {
     const lib = join(folder, 'generic180.lib');
     copyFileSync(fixture('models', 'generic180.lib'), lib);
     const card = loadProcess(fixture('processes', 'generic180.yaml'));
-    expect(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib)).toThrow(InputError);
+    expect(inputIssues(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib))).toEqual([
+      expect.objectContaining({ code: 'value.invalid', path: ['process', 'spice', 'models'] }),
+    ]);
     expect(() => cornerModels(card, { process: 'tt', temperature: 27 }, lib)).toThrow(
-      /process\.spice\.models \(or --models\): ".*say \\"cheese\\".*" cannot be written in a deck's \.include line/,
+      /process\.spice\.models: ".*say \\"cheese\\".*" cannot be written in a deck's \.include line \(it comes from the process card or --models\)/,
     );
   });
 });

@@ -60,9 +60,10 @@ describe('spiceInclude', () => {
       }
       expect(error).toBeInstanceOf(InputError);
       const issue = (error as InputError).issues[0]!;
-      expect(issue.path).toBe('process.spice.models (or --models)');
+      expect(issue.code).toBe('value.invalid');
+      expect(issue.path).toEqual(['process', 'spice', 'models']);
       expect(issue.value).toBe(JSON.stringify(path).replace(/\u2028/, '\\u2028'));
-      expect(issue.allowed).toMatch(/may not contain a double quote, a line break or another control character/);
+      expect(issue.expected).toMatch(/may not contain a double quote, a line break or another control character/);
     },
   );
 });

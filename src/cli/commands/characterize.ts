@@ -51,7 +51,7 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
       if (process === undefined || !vdd?.ok || !temperature?.ok || extra !== undefined) {
         throw inputError(
           'reference.unknown',
-          '--corners',
+          ['--corners'],
           name,
           'is not a corner name; write PROCESS/SUPPLY/TEMPERATURE, e.g. ss/1.62V/125C, separated by commas',
         );
@@ -59,7 +59,7 @@ export function parseCornerList(text: string, card: ProcessCard): CornerPoint[] 
       if (processCornerOf(card, process) === undefined)
         throw inputError(
           'reference.unknown',
-          '--corners',
+          ['--corners'],
           name,
           `names process corner "${process}", which card "${card.name}" does not define (${Object.keys(card.corners).join(', ')})`,
         );
@@ -73,14 +73,14 @@ function parseCells(text: string): PrimitiveCell[] {
     .map((s) => s.trim().toUpperCase())
     .map((cell) => {
       if (!Object.hasOwn(CELLS, cell))
-        throw inputError('reference.unknown', '--cells', cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
+        throw inputError('reference.unknown', ['--cells'], cell, `is not a library cell; allowed: ${TABLE_CELLS.join(', ')}`);
       return cell as PrimitiveCell;
     });
 }
 
 function parseSize(text: string, flag: string): number {
   const size = Number(text);
-  if (!(size > 0 && size <= 1000)) throw inputError('option.invalid', flag, text, 'must be a cell size above 0 and at most 1000');
+  if (!(size > 0 && size <= 1000)) throw inputError('option.invalid', [flag], text, 'must be a cell size above 0 and at most 1000');
   return size;
 }
 
@@ -115,7 +115,7 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
   // commander's choices have refused any other grid.
   const grid = options.grid as keyof typeof GRIDS;
   if (options.corners !== undefined && options.design !== undefined)
-    throw inputError('option.invalid', '--corners', options.corners, 'cannot be combined with --design; give one of them');
+    throw inputError('option.invalid', ['--corners'], options.corners, 'cannot be combined with --design; give one of them');
   const { size, cells, jobs } = options;
   let corners: CornerPoint[];
   const inputs = [processPath];
@@ -152,16 +152,17 @@ export function runCharacterize(io: Io, processPath: string, options: CommandOpt
         { program: options.ngspice, parallel: jobs },
       );
       const ron = cornerRonFrom(ronDeck, parseSimulatorOutput(outputs[decks.length]!.output, ronDeck.names).values);
-      if (typeof ron === 'string') throw inputError('tool.failed', 'ngspice', corner.name, `on-resistance characterization failed: ${ron}`);
+      if (typeof ron === 'string')
+        throw inputError('tool.failed', ['ngspice'], corner.name, `on-resistance characterization failed: ${ron}`);
       const parts = decks.map((deck, i) => {
         const parsed = parseSimulatorOutput(outputs[i]!.output, deck.names);
         if (parsed.errors.length > 0 && [...parsed.values.values()].every((v) => v === null)) {
-          throw inputError('tool.failed', 'ngspice', corner.name, `characterization failed: ${parsed.errors[0]}`);
+          throw inputError('tool.failed', ['ngspice'], corner.name, `characterization failed: ${parsed.errors[0]}`);
         }
         return { deck, values: parsed.values };
       });
       const result = cornerTablesFrom(parts);
-      if (typeof result === 'string') throw inputError('tool.failed', 'ngspice', corner.name, `characterization failed: ${result}`);
+      if (typeof result === 'string') throw inputError('tool.failed', ['ngspice'], corner.name, `characterization failed: ${result}`);
       tables.push({ ...result, ron });
       bar.update(tables.length);
     }

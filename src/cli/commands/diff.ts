@@ -1,5 +1,5 @@
 /** `phasegap diff OLD.json NEW.json`: two check reports compared; exit 1 on a new failure or a margin lost beyond --tolerance. */
-import { InputError, inputError } from '../../errors.js';
+import { InputError, inputError, type IssuePath } from '../../errors.js';
 import { checkReportShape, diffReports, renderDiffText, type DiffInput } from '../../report/diff.js';
 import { parseQuantity } from '../../units/quantity.js';
 import { parseWith } from '../../schema/validate.js';
@@ -16,8 +16,8 @@ export const DEFAULT_DIFF_TOLERANCE = { time: 1e-12, voltage: 1e-3 } as const;
 function quantity(unit: 's' | 'V'): (text: string, flag: string) => number {
   return (text, flag) => {
     const q = parseQuantity(text, unit);
-    if (!q.ok) throw inputError('option.invalid', flag, text, q.allowed);
-    if (!(q.value >= 0)) throw inputError('option.invalid', flag, text, `must not be negative, e.g. ${unit === 's' ? '5ps' : '10mV'}`);
+    if (!q.ok) throw inputError('option.invalid', [flag], text, q.allowed);
+    if (!(q.value >= 0)) throw inputError('option.invalid', [flag], text, `must not be negative, e.g. ${unit === 's' ? '5ps' : '10mV'}`);
     return q.value;
   };
 }
@@ -48,7 +48,7 @@ export const diffCommand = defineCommand({
 });
 
 /** A report file read within the loader's limits and checked against the shape diff needs. */
-export function loadCheckReport(path: string, label: string): DiffInput {
+export function loadCheckReport(path: string, label: IssuePath): DiffInput {
   const data = readDataFile(path, label, 'report');
   try {
     return parseWith(checkReportShape, data);
@@ -57,8 +57,8 @@ export function loadCheckReport(path: string, label: string): DiffInput {
       throw new InputError(
         error.issues.map((i) => ({
           ...i,
-          path: `${path}: ${i.path}`,
-          allowed: `${i.allowed} (not a phasegap check report; write one with phasegap check DESIGN --json -o FILE)`,
+          file: path,
+          expected: `${i.expected} (not a phasegap check report; write one with phasegap check DESIGN --json -o FILE)`,
         })),
       );
     }
@@ -68,7 +68,7 @@ export function loadCheckReport(path: string, label: string): DiffInput {
 
 export function runDiff(io: Io, before: string, after: string, options: CommandOptions<typeof OPTIONS>): number {
   const tolerance = { time: options.tolerance, voltage: options.voltageTolerance };
-  const d = diffReports(loadCheckReport(before, 'OLD'), loadCheckReport(after, 'NEW'), { old: before, new: after }, tolerance);
+  const d = diffReports(loadCheckReport(before, ['OLD']), loadCheckReport(after, ['NEW']), { old: before, new: after }, tolerance);
   emit(io, options.json ? toJson(d) : renderDiffText(d), options.out, [before, after]);
   return d.verdict === 'pass' ? 0 : 1;
 }

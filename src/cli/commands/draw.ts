@@ -17,7 +17,7 @@ export const CHARTS = ['timing', 'margins'] as const;
 
 function parseChart(text: string, flag: string): (typeof CHARTS)[number] {
   if (!(CHARTS as readonly string[]).includes(text))
-    throw inputError('option.invalid', flag, text, `is not a chart; allowed: ${CHARTS.join(', ')}`);
+    throw inputError('option.invalid', [flag], text, `is not a chart; allowed: ${CHARTS.join(', ')}`);
   return text as (typeof CHARTS)[number];
 }
 

@@ -17,7 +17,7 @@ function parseResolution(text: string, flag: string): number {
   if (!(value >= MIN_FMAX_RESOLUTION && value < MAX_FMAX_RESOLUTION)) {
     throw inputError(
       'option.invalid',
-      flag,
+      [flag],
       text,
       `must be a relative step from ${MIN_FMAX_RESOLUTION} up to (not including) ${MAX_FMAX_RESOLUTION}, e.g. 0.001 or 0.1%`,
     );

@@ -24,7 +24,7 @@ export const initCommand = defineCommand({
 export function runInit(io: Io, options: CommandOptions<typeof OPTIONS>): number {
   // commander's choices have refused any other template.
   if (options.out !== '-' && io.exists(options.out) && !options.force) {
-    throw inputError('option.invalid', '--out', options.out, 'already exists; pick another name or pass --force to overwrite');
+    throw inputError('option.invalid', ['--out'], options.out, 'already exists; pick another name or pass --force to overwrite');
   }
   emit(io, starterDesign(options.template as StarterTemplate), options.out, []);
   if (options.out !== '-') noteTo(io, `wrote ${options.out}; next: ${shellCommand(['phasegap', 'check', options.out])}`);

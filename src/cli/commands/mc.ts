@@ -77,7 +77,7 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   checkOutput(options.histogram, inputs, '--histogram');
   checkOutput(options.junit, inputs, '--junit');
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
-    throw inputError('option.invalid', '--histogram', options.histogram, 'is also the --out file; give the histogram its own file');
+    throw inputError('option.invalid', ['--histogram'], options.histogram, 'is also the --out file; give the histogram its own file');
   }
   const samples = options.samples ?? design.montecarlo?.samples ?? 1000;
   const seed = options.seed ?? design.montecarlo?.seed ?? 1;
@@ -97,7 +97,7 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
     ['--histogram-check', options.histogramCheck],
   ] as const) {
     if (value !== undefined && options.histogram === undefined)
-      throw inputError('option.invalid', flag, value, 'chooses what --histogram draws; give --histogram FILE.svg too');
+      throw inputError('option.invalid', [flag], value, 'chooses what --histogram draws; give --histogram FILE.svg too');
   }
   if (options.histogram !== undefined && (options.histogramCorner !== undefined || options.histogramCheck !== undefined)) {
     // Names are checked before the run, so a typo costs no waiting (a design's check names are alike at every corner).

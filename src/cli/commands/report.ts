@@ -25,7 +25,7 @@ export const REPORT_FORMATS = ['html', 'md'] as const;
 
 function parseFormat(text: string, flag: string): (typeof REPORT_FORMATS)[number] {
   if (!(REPORT_FORMATS as readonly string[]).includes(text))
-    throw inputError('option.invalid', flag, text, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
+    throw inputError('option.invalid', [flag], text, `is not a report format; allowed: ${REPORT_FORMATS.join(', ')}`);
   return text as (typeof REPORT_FORMATS)[number];
 }
 
@@ -91,7 +91,7 @@ export async function runReport(io: Io, designPath: string, options: CommandOpti
   if (options.format === 'md' && out === '-') {
     throw inputError(
       'option.invalid',
-      '--out',
+      ['--out'],
       out,
       'cannot be stdout for --format md: the report needs its SVG files beside it; name a .md file',
     );

@@ -41,7 +41,7 @@ export function runSpice(io: Io, designPath: string, options: CommandOptions<typ
   if (cornerSpec === 'all' || cornerSpec.includes(',')) {
     throw inputError(
       'option.invalid',
-      '--corner',
+      ['--corner'],
       cornerSpec,
       'must name one corner (a deck simulates one corner) or worst; use phasegap confirm for several',
     );

@@ -46,7 +46,7 @@ function checkAxes(setup: SweepSetup): SweepColumns {
   const found: SweepColumns[] = [];
   setup.axes.forEach((axis, a) => {
     const names = setup.axes.map((x) => x.path);
-    if (names.indexOf(axis.path) !== a) throw inputError('option.invalid', '--vary', axis.path, 'is given twice; vary each axis once');
+    if (names.indexOf(axis.path) !== a) throw inputError('option.invalid', ['--vary'], axis.path, 'is given twice; vary each axis once');
     const stride = setup.axes.slice(a + 1).reduce((n, x) => n * x.values.length, 1);
     axis.values.forEach((_, k) => {
       sweepPoint(setup, k * stride);
@@ -60,7 +60,7 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
   if (options.vary.length === 0)
     throw inputError(
       'option.invalid',
-      '--vary',
+      ['--vary'],
       undefined,
       'is required at least once: AXIS=LIST or AXIS=START:STOP:N, e.g. --vary vdd=1.6:2.0:5',
     );
@@ -75,7 +75,7 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
     if ((CORNER_AXES as readonly string[]).includes(axis.path) && design.corners.list) {
       throw inputError(
         'option.invalid',
-        `--vary ${axis.path}`,
+        ['--vary', axis.path],
         axis.path,
         'cannot vary a corner axis when the design lists its corners explicitly (corners.list)',
       );
@@ -99,7 +99,7 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
       // Only two or more design axes acting together can give a check that no single axis value gives.
       throw inputError(
         'option.invalid',
-        '--vary',
+        ['--vary'],
         axes.map((a, i) => `${a.path}=${row.point[i]}`).join(', '),
         `gives checks no single axis value gives (${unlisted.join('; ')}), so the CSV has no column for them; sweep these axes one at a time, or use --json`,
       );

@@ -21,15 +21,15 @@ function numberList(flag: string, text: string, check: (n: number) => boolean, a
   const items = text.split(',').map((s) => s.trim());
   const values = items.map(Number);
   const bad = items.findIndex((s, i) => s === '' || !check(values[i]!));
-  if (bad >= 0) throw inputError('option.invalid', flag, items[bad], allowed);
+  if (bad >= 0) throw inputError('option.invalid', [flag], items[bad], allowed);
   return [...new Set(values)].sort((a, b) => a - b);
 }
 
 /** A quantity option in `unit`, at least 0 (or above 0 with `positive`); `allowed` words the bound. */
 function quantityOption(flag: string, text: string, unit: Unit, positive: boolean, allowed: string): number {
   const q = parseQuantity(text, unit);
-  if (!q.ok) throw inputError('option.invalid', flag, text, q.allowed);
-  if (!(positive ? q.value > 0 : q.value >= 0)) throw inputError('option.invalid', flag, text, allowed);
+  if (!q.ok) throw inputError('option.invalid', [flag], text, q.allowed);
+  if (!(positive ? q.value > 0 : q.value >= 0)) throw inputError('option.invalid', [flag], text, allowed);
   return q.value;
 }
 
@@ -141,7 +141,7 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   if (space.loadStep > space.maxLoad)
     throw inputError(
       'option.invalid',
-      '--step',
+      ['--step'],
       options.step,
       `is larger than the largest stage load (${options.maxLoad ?? 'the default'}); pick a finer step`,
     );

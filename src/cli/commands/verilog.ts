@@ -49,7 +49,7 @@ export function runVerilog(io: Io, designPath: string, options: CommandOptions<t
   checkOutput(options.out, inputs);
   const cornerSpec = options.corner ?? 'worst';
   if (cornerSpec === 'all' || cornerSpec.includes(','))
-    throw inputError('option.invalid', '--corner', cornerSpec, 'must name one corner or worst');
+    throw inputError('option.invalid', ['--corner'], cornerSpec, 'must name one corner or worst');
   const periods = options.periods;
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const corner = chooseCorners(resolved, oneCornerName(resolved, cornerSpec), '--corner')[0]!;

@@ -19,7 +19,7 @@ import { DESIGN_ARGUMENT, SET_OPTION, outOption } from '../common-options.js';
 
 function parseTimescale(text: string, flag: string): Timescale {
   const allowed = Object.keys(TIMESCALES);
-  if (!allowed.includes(text)) throw inputError('option.invalid', flag, text, `is not offered; allowed: ${allowed.join(', ')}`);
+  if (!allowed.includes(text)) throw inputError('option.invalid', [flag], text, `is not offered; allowed: ${allowed.join(', ')}`);
   return text as Timescale;
 }
 
@@ -56,7 +56,7 @@ export function runWaves(io: Io, designPath: string, options: CommandOptions<typ
   if (!result.measurement.ok) {
     throw inputError(
       'option.invalid',
-      '--corner',
+      ['--corner'],
       result.corner.name,
       `has no steady state to dump (${result.measurement.reason}); pick another corner`,
     );
