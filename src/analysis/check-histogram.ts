@@ -3,7 +3,7 @@
  * dies are drawn and evaluated exactly as `runChunk` does (same chunks, a warm evaluator per
  * chunk), so the histogram matches the run's statistics for that check.
  */
-import { CornerEvaluator } from './evaluate.js';
+import { CornerEvaluator, type DieChecks } from './evaluate.js';
 import { chunkPlan } from './montecarlo.js';
 import type { ResolvedDesign } from './resolve.js';
 import { devicesAtCorner } from '../process/device.js';
@@ -17,13 +17,14 @@ export function checkMarginHistogram(
   samples: number,
   cornerIndex: number,
   check: string,
+  checks: DieChecks,
 ): StreamingHistogram {
   const { corner } = resolved.corners[cornerIndex]!;
   const devices = devicesAtCorner(resolved.card, corner);
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
   const h = emptyHistogram();
   for (const { start, count } of chunkPlan(samples)) {
-    const evaluator = CornerEvaluator.forDies(resolved);
+    const evaluator = CornerEvaluator.forDies(resolved, checks);
     const margins = new Float64Array(count);
     for (let i = 0; i < count; i++) {
       const r = evaluator.evaluate(corner, drawMismatch(sigmas, seed, start + i, mismatchBuffers(sigmas)), devices);

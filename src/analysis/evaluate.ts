@@ -13,6 +13,7 @@ import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
 import { CircuitEvaluator, type CornerCircuit } from '../circuit/corner-circuit.js';
+import type { FigureScope } from '../circuit/figures.js';
 import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
 export interface CornerResult {
@@ -37,9 +38,21 @@ export interface EvaluatorReuse {
   /**
    * Start each simulation from the previous one's steady state: for many runs of one corner with
    * small changes (Monte Carlo dies), never across corners. A warm evaluator also replays the
-   * previous steady period where that provably gives the simulation's answer, and skips the circuit.
+   * previous steady period where that provably gives the simulation's answer.
    */
   readonly warmStart: boolean;
+  /**
+   * How much of the circuit the switches serve (when the design has one) to solve: every figure
+   * (the default), only the figures its requirements are checked on, or none (timing and switch
+   * checks only). A solve costs milliseconds per corner.
+   */
+  readonly circuit?: 'all-figures' | 'checked-figures' | 'none';
+}
+
+/** What a Monte Carlo die is checked against. */
+export interface DieChecks {
+  /** The circuit's requirements too (output, ripple, efficiency, lost charge), not only timing and switches. */
+  readonly circuit: boolean;
 }
 
 /**
@@ -54,8 +67,8 @@ export class CornerEvaluator {
   }
 
   /** Borrowed scratch and warm starts: for the dies of one corner (Monte Carlo). */
-  static forDies(resolved: ResolvedDesign): CornerEvaluator {
-    return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: true });
+  static forDies(resolved: ResolvedDesign, checks: DieChecks): CornerEvaluator {
+    return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: true, circuit: checks.circuit ? 'checked-figures' : 'none' });
   }
 
   private readonly simulator: Simulator;
@@ -87,8 +100,8 @@ export class CornerEvaluator {
     };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
-    // Monte Carlo dies (warm runs) skip the circuit: its figures cost milliseconds per corner.
-    const spec = warm ? undefined : resolved.design.circuit;
+    const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
+    this.circuitScope = reuse.circuit === 'checked-figures' ? 'checked' : 'all';
     this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
     this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
@@ -96,6 +109,7 @@ export class CornerEvaluator {
   /** The circuit the switches serve, prepared once; null without a circuit section. */
   private readonly circuit: CircuitEvaluator | null;
   private readonly circuitNames: CircuitCheckNames | null;
+  private readonly circuitScope: FigureScope;
 
   /** The switch bias checks, prepared once per corner. */
   private readonly bias: BiasChecker;
@@ -131,7 +145,7 @@ export class CornerEvaluator {
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {
-        circuit = this.circuit.evaluate(switches, cycles, devices, { devices: switchDevices, dvth: mismatch?.switches });
+        circuit = this.circuit.evaluate(switches, cycles, devices, { devices: switchDevices, dvth: mismatch?.switches }, this.circuitScope);
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
       }
     }

@@ -3,14 +3,14 @@
  * Work is cut into chunks of consecutive dies whose size does not depend on the number of threads,
  * and chunk results are merged in chunk order, so any thread count gives identical numbers.
  */
-import { CornerEvaluator } from './evaluate.js';
+import { CornerEvaluator, type DieChecks } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
 import { addValue, emptyStats, mergeStats, summarize, wilsonInterval, type RunningState, type StatsSummary } from '../variation/stats.js';
 import { addToHistogram, emptyHistogram, hasEdges, setEdges, type StreamingHistogram } from '../variation/histogram.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas, type SampleMismatch } from '../variation/mismatch.js';
 import { devicesAtCorner, type CornerDevices } from '../process/device.js';
 import type { Corner } from '../process/corner.js';
-import { VOLTAGE_KINDS, type CheckKind } from '../checks/check.js';
+import { marginUnit, type CheckKind } from '../checks/check.js';
 
 /** Dies per chunk: the unit of work handed to a thread. */
 export const CHUNK_SIZE = 250;
@@ -140,8 +140,8 @@ function evaluateDies(
       const check = checks[k]!;
       if (check.margin === null) leastMargin = -Infinity;
       else {
-        // A passing voltage margin (V) is not compared with timing margins (s).
-        if (check.margin < leastMargin && !(check.pass && VOLTAGE_KINDS.has(check.kind))) leastMargin = check.margin;
+        // A passing margin in volts, coulombs or a fraction is not compared with timing margins (s).
+        if (check.margin < leastMargin && !(check.pass && marginUnit(check.kind) !== 's')) leastMargin = check.margin;
         a.add(slot, check.name, check.kind, check.margin);
       }
       slot++;
@@ -169,7 +169,7 @@ function evaluateDies(
 }
 
 /** Evaluates dies [start, start + count) at every corner. Pure: same inputs, same result. */
-export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number): ChunkResult {
+export function runChunk(resolved: ResolvedDesign, seed: number, start: number, count: number, checks: DieChecks): ChunkResult {
   const sigmas = mismatchSigmas(resolved.netlist, resolved.card, resolved.switches);
   // Each die is drawn once and used at every corner.
   const dies = Array.from({ length: count }, (_, i) => drawMismatch(sigmas, seed, start + i, mismatchBuffers(sigmas)));
@@ -183,7 +183,7 @@ export function runChunk(resolved: ResolvedDesign, seed: number, start: number, 
   // Corner by corner, so each simulation starts warm from the previous die at the same corner.
   for (let c = 0; c < corners.length; c++) {
     const out: CornerOutputs = { acc: acc[c]!, least: least[c]!, dead0: dead0[c]!, dead1: dead1[c]!, failedSomewhere };
-    evaluateDies(CornerEvaluator.forDies(resolved), corners[c]!.corner, corners[c]!.devices, dies, names, out);
+    evaluateDies(CornerEvaluator.forDies(resolved, checks), corners[c]!.corner, corners[c]!.devices, dies, names, out);
   }
   const passesEverywhere = failedSomewhere.reduce((n, f) => n + (f === 0 ? 1 : 0), 0);
   return { start, count, corners: acc.map((a, c) => a.toChunk(least[c]!, dead0[c]!, dead1[c]!)), passesEverywhere };
@@ -358,8 +358,8 @@ export function mergeChunks(resolved: ResolvedDesign, seed: number, samples: num
 }
 
 /** Single-threaded run of every chunk. */
-export function runMonteCarlo(resolved: ResolvedDesign, samples: number, seed: number): McResult {
+export function runMonteCarlo(resolved: ResolvedDesign, samples: number, seed: number, checks: DieChecks = { circuit: true }): McResult {
   const merger = new McMerger(resolved, seed, samples);
-  for (const { start, count } of chunkPlan(samples)) merger.add(runChunk(resolved, seed, start, count));
+  for (const { start, count } of chunkPlan(samples)) merger.add(runChunk(resolved, seed, start, count, checks));
   return merger.finish();
 }

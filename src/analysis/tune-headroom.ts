@@ -104,7 +104,7 @@ export function mismatchAtLimits(
     .sort((a, b) => a.least - b.least || a.i - b.i)
     .slice(0, count);
   const sub: ResolvedDesign = { ...resolved, corners: limiting.map(({ i }) => resolved.corners[i]!) };
-  const chunks = chunkPlan(dies).map(({ start, count: n }) => runChunk(sub, seed, start, n));
+  const chunks = chunkPlan(dies).map(({ start, count: n }) => runChunk(sub, seed, start, n, { circuit: true }));
   let sigma = 0;
   const yields: CornerYield[] = [];
   for (let c = 0; c < sub.corners.length; c++) {

@@ -116,17 +116,43 @@ export function outputSign(model: CircuitModel): 1 | -1 {
 }
 
 /**
+ * Which figures to compute: 'all', or only those a requirement can be checked on ('checked': the
+ * output, ripple, efficiency and lost charge; the impedance and its asymptotes, which take five
+ * more solves, and the start-up run are left null). Monte Carlo dies need only the checked ones.
+ */
+export type FigureScope = 'all' | 'checked';
+
+export interface FigureOptions {
+  readonly scope: FigureScope;
+  /** The output's sign when already known (`loadSign` of a model of the same circuit at the same corner). */
+  readonly sign?: 1 | -1;
+}
+
+/** The sign the load's current takes: that of the output, found without the current (1 without a load). */
+export function loadSign(model: CircuitModel, load: CircuitLoad): 1 | -1 {
+  const hasLoad = load.current !== 0 || load.conductance !== 0;
+  return hasLoad ? outputSign(withLoad(model, { current: 0, conductance: load.conductance }, 1)) : 1;
+}
+
+/**
  * `model` carries no load; `generatorEnergy` is what the clock generator and the switch gates
  * draw per period, J.
  */
-export function circuitFigures(model: CircuitModel, load: CircuitLoad, generatorEnergy: number, startupLimit: number): CircuitFigures {
+export function circuitFigures(
+  model: CircuitModel,
+  load: CircuitLoad,
+  generatorEnergy: number,
+  startupLimit: number,
+  options: FigureOptions = { scope: 'all' },
+): CircuitFigures {
   const period = periodOf(model);
   const hasLoad = load.current !== 0 || load.conductance !== 0;
-  const sign = hasLoad ? outputSign(withLoad(model, { current: 0, conductance: load.conductance }, 1)) : 1;
+  const sign = options.sign ?? loadSign(model, load);
   const loaded = solve(withLoad(model, load, sign));
   const t = loaded.trace;
   const loadCurrent = t.loadCharge / period;
-  const own = hasLoad ? impedance(model, load, sign, t) : { r: null, open: t.outputMean };
+  const all = options.scope === 'all';
+  const own = hasLoad && all ? impedance(model, load, sign, t) : { r: null, open: t.outputMean };
   let inputEnergy = 0;
   for (let k = 0; k < model.rails.length; k++) inputEnergy += model.rails[k]! * t.railCharge[k]!;
   const inputPower = inputEnergy / period;
@@ -135,7 +161,9 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
   const drawn = inputPower + generatorPower;
   // Without a steady state there is nothing to start up to.
   const up =
-    loaded.state.method === 'none' ? { cycles: null } : startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
+    loaded.state.method === 'none' || !all
+      ? { cycles: null }
+      : startup(loaded.solver, loaded.state.x0, startupLimit, loaded.state.segments);
   return {
     method: loaded.state.method,
     output: t.outputMean,
@@ -143,11 +171,11 @@ export function circuitFigures(model: CircuitModel, load: CircuitLoad, generator
     noLoadOutput: own.open,
     loadCurrent,
     outputResistance: own.r,
-    slowLimit: hasLoad ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
+    slowLimit: hasLoad && all ? impedance(scaleConductance(model, ASYMPTOTE), load, sign).r : null,
     // The fast-switching limit keeps the switches' resistance of the real steady state (none
     // without one): grown capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
     fastLimit:
-      hasLoad && loaded.state.method !== 'none'
+      hasLoad && all && loaded.state.method !== 'none'
         ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r
         : null,
     inputPower,

@@ -2,6 +2,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadResolved, type DesignSource, type ModelOptions } from './load.js';
 import { runChunk, type ChunkResult } from '../analysis/montecarlo.js';
+import type { DieChecks } from '../analysis/evaluate.js';
 import { sweepRows, type SweepSetup } from './sweep-points.js';
 import { InputError } from '../errors.js';
 import { warningLine } from './warn.js';
@@ -13,6 +14,7 @@ export type WorkerSetup =
       readonly overrides: readonly string[];
       readonly seed: number;
       readonly model: ModelOptions;
+      readonly checks: DieChecks;
     }
   | ({ readonly kind: 'sweep' } & SweepSetup);
 
@@ -23,7 +25,7 @@ if (setup.kind === 'mc') {
   const { resolved } = loadResolved(setup.design, setup.overrides, setup.model, (m) => process.stderr.write(warningLine(m)));
   port.on('message', ({ index, task }: { index: number; task: { start: number; count: number } }) => {
     try {
-      const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count);
+      const result: ChunkResult = runChunk(resolved, setup.seed, task.start, task.count, setup.checks);
       const transfer = result.corners.flatMap((c) => [c.leastMargin.buffer, c.dead0.buffer, c.dead1.buffer]) as ArrayBuffer[];
       port.postMessage({ index, result }, transfer);
     } catch (error) {

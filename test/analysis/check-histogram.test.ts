@@ -16,7 +16,7 @@ describe('checkMarginHistogram', () => {
   it("counts every die once and agrees with the run's own statistics of that check", () => {
     const corner = 4;
     const q = mc.corners[corner]!.quantities.find((x) => x.kind === 'break-before-make')!;
-    const h = checkMarginHistogram(resolved, 3, 260, corner, q.name);
+    const h = checkMarginHistogram(resolved, 3, 260, corner, q.name, { circuit: true });
     expect(h.count).toBe(260);
     expect(h.min).toBe(q.min);
     expect(h.max).toBe(q.max);
@@ -29,6 +29,6 @@ describe('checkMarginHistogram', () => {
   });
 
   it('adds nothing for a check no die has', () => {
-    expect(checkMarginHistogram(resolved, 3, 10, 0, 'no such check').count).toBe(0);
+    expect(checkMarginHistogram(resolved, 3, 10, 0, 'no such check', { circuit: true }).count).toBe(0);
   });
 });

@@ -50,7 +50,7 @@ describe('runMonteCarlo', () => {
   it('computes dead-time quantiles within one histogram bin of simple-statistics on the same dies', () => {
     const report = mcReport('d', 'c', mc, undefined);
     const values = chunkPlan(400)
-      .flatMap(({ start, count }) => Array.from(runChunk(resolved, 5, start, count).corners[1]!.dead0))
+      .flatMap(({ start, count }) => Array.from(runChunk(resolved, 5, start, count, { circuit: true }).corners[1]!.dead0))
       .sort((a, b) => a - b);
     const width = binWidth(mc.deadTimes[1]![0]);
     // The histogram is fine: a bin is far narrower than the dies' spread.
@@ -65,7 +65,7 @@ describe('runMonteCarlo', () => {
   });
 
   it('merges chunks arriving in any order into the same result as in order', () => {
-    const chunks = chunkPlan(3 * CHUNK_SIZE + 11).map(({ start, count }) => runChunk(resolved, 2, start, count));
+    const chunks = chunkPlan(3 * CHUNK_SIZE + 11).map(({ start, count }) => runChunk(resolved, 2, start, count, { circuit: true }));
     const inOrder = mergeChunks(resolved, 2, 3 * CHUNK_SIZE + 11, chunks);
     const shuffled = mergeChunks(resolved, 2, 3 * CHUNK_SIZE + 11, [chunks[2]!, chunks[0]!, chunks[3]!, chunks[1]!]);
     expect(shuffled).toEqual(inOrder);

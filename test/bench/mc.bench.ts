@@ -20,10 +20,16 @@ interface Timed {
   readonly evaluation: number;
 }
 
-function timed(samples: number, workers: number, model: readonly string[] = []): Timed {
+/** `model`: options before the command; `run`: the design and options after it. */
+function timed(
+  samples: number,
+  workers: number,
+  model: readonly string[] = [],
+  run: { design: string; extra: readonly string[] } = { design: demo, extra: [] },
+): Timed {
   const script = `
     const t = process.hrtime.bigint();
-    process.argv = [process.argv[0], ${JSON.stringify(cli)}, ...${JSON.stringify(model)}, 'mc', ${JSON.stringify(demo)}, '--samples', '${samples}', '--workers', '${workers}', '--timings', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
+    process.argv = [process.argv[0], ${JSON.stringify(cli)}, ...${JSON.stringify(model)}, 'mc', ${JSON.stringify(run.design)}, ...${JSON.stringify(run.extra)}, '--samples', '${samples}', '--workers', '${workers}', '--timings', '--json', '-o', ${JSON.stringify(join(tmpdir(), 'phasegap-bench-mc.json'))}];
     await import(${JSON.stringify(cli)});
     process.on('exit', () => {
       const s = Number(process.hrtime.bigint() - t) / 1e9;
@@ -64,4 +70,14 @@ const byModel = (['analytic', 'table'] as const).map((m) => timed(modelDies, 1, 
 const rate = (t: Timed) => Math.round((modelDies * CORNERS) / t.evaluation);
 console.log(
   `delay models, ${modelDies * CORNERS} evaluations on one thread (evaluation phase): analytic ${rate(byModel[0]!)} evaluations/s, table ${rate(byModel[1]!)} evaluations/s (${((100 * rate(byModel[1]!)) / rate(byModel[0]!)).toFixed(0)} % of analytic)`,
+);
+
+// A design with a circuit: every die also solves the pump's steady state for its requirements.
+const pump = fileURLToPath(new URL('../../../fixtures/designs/doubler-pump.yaml', import.meta.url));
+const pumpDies = 200;
+const withCircuit = timed(pumpDies, 1, [], { design: pump, extra: [] });
+const timingOnly = timed(pumpDies, 1, [], { design: pump, extra: ['--skip-circuit'] });
+const pumpRate = (t: Timed) => Math.round((pumpDies * CORNERS) / t.evaluation);
+console.log(
+  `doubler-pump, ${pumpDies * CORNERS} evaluations on one thread (evaluation phase): with the circuit's requirements ${pumpRate(withCircuit)} evaluations/s, timing and switch checks only (--skip-circuit) ${pumpRate(timingOnly)} evaluations/s`,
 );

@@ -13,7 +13,7 @@ import { progressBar } from '../progress.js';
 import { wholeNumberIn } from '../options.js';
 import { inputError } from '../../errors.js';
 import { MAX_SAMPLES } from '../run-limits.js';
-import { verdictOf } from '../../report/verdict.js';
+import { notRun, verdictOf } from '../../report/verdict.js';
 import { withRunJson, withRunText } from '../../report/run-record.js';
 import { gatherProvenance } from '../provenance.js';
 import { writeJunit } from '../junit-option.js';
@@ -46,6 +46,11 @@ const OPTIONS = {
   histogramCheck: textOption(
     '--histogram-check <NAME>',
     "check the histogram shows: a check name or a unique part of one, or 'dead-times' for both dead times",
+  ),
+  skipCircuit: flagOption(
+    '--skip-circuit',
+    'leave the circuit solve out of the dies (faster); the yield then counts timing and switch checks only, and the verdict says so',
+    false,
   ),
   timings: flagOption('--timings', 'print on stderr how long setup, evaluation and the report took', false),
   json: jsonOption('print the machine report (SI units)'),
@@ -109,6 +114,7 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   }
   const evaluating = performance.now();
   const plan = chunkPlan(samples);
+  const checks = { circuit: !options.skipCircuit };
   // Each chunk is folded into the totals as it arrives: memory does not grow with the dies.
   const merger = new McMerger(resolved, seed, samples);
   const bar = progressBar(io, samples * resolved.corners.length, 'mc', !options.json);
@@ -127,10 +133,11 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
         overrides: options.set,
         seed,
         model: { model: options.model, tables: options.tables },
+        checks,
       },
       tasks: plan,
       threads,
-      local: (task) => runChunk(resolved, seed, task.start, task.count),
+      local: (task) => runChunk(resolved, seed, task.start, task.count, checks),
       onResult: take,
     });
   } finally {
@@ -143,7 +150,17 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   const reporting = performance.now();
   const mc = merger.finish();
   const report = mcReport(design.name, card.name, mc, design.requirements.minYield, resolved.model.name);
-  const verdict = verdictOf({ corners: null, mc: report, confirm: null, hints: MC_HINTS });
+  const skipped =
+    design.circuit !== undefined && options.skipCircuit
+      ? [
+          notRun(
+            'circuit',
+            'circuit requirements on the dies',
+            'left out with --skip-circuit: the yield counts timing and switch checks only',
+          ),
+        ]
+      : [];
+  const verdict = verdictOf({ corners: null, mc: report, confirm: null, hints: MC_HINTS, extra: skipped });
   const record = gatherProvenance(io, loaded, { model: resolved.model.name, options });
   const junit =
     options.junit === undefined
@@ -191,14 +208,13 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
           renderHistogram({
             title: `${design.name}: check margin at ${corner}`,
             subtitle: `${subtitle}; ${q.failures ?? 0} of ${samples} dies fail this check here`,
-            // Monte Carlo dies skip the circuit solve, so a drawn check is a time or a voltage.
             axis: 'margin (below 0 fails)',
-            unit: marginUnit(q.kind) === 'V' ? 'V' : 's',
+            unit: marginUnit(q.kind),
             requirement: 0,
             series: [
               {
                 label: q.name,
-                histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name),
+                histogram: checkMarginHistogram(resolved, seed, samples, subject.corner, q.name, checks),
                 mean: q.mean,
                 sigma: q.sigma,
               },

@@ -10,6 +10,10 @@ import { drawText } from './text.js';
 import { defineFailHatch } from './patterns.js';
 import { FAIL, GRID, INK, MUTED, PHASE, PHASE_TINT, SIZE } from '../palette.js';
 import { binEdges, type StreamingHistogram } from '../../variation/histogram.js';
+import { formatEngineering } from '../../units/format.js';
+
+/** The unit of the values a histogram counts: seconds, volts, coulombs or a plain fraction. */
+export type HistogramUnit = 's' | 'V' | 'C' | '';
 
 export interface HistogramSeries {
   readonly label: string;
@@ -29,7 +33,7 @@ export interface HistogramInput {
   /** What the horizontal axis measures, e.g. `50 % dead time`. */
   readonly axis?: string;
   /** Unit of the values: seconds (drawn in ps) or volts (drawn in mV). */
-  readonly unit?: 's' | 'V';
+  readonly unit?: HistogramUnit;
 }
 
 /** How far outside the data a requirement may be and still be drawn to scale, in data ranges. */
@@ -68,9 +72,25 @@ function bars(h: StreamingHistogram, domain: readonly [number, number]): Bar[] {
   return counts.map((length, i) => ({ x0: edges[i]!, x1: edges[i + 1]!, length }));
 }
 
-function valueLabel(value: number, unit: 's' | 'V'): string {
-  return unit === 's' ? `${Math.round(value * 1e13) / 10} ps` : `${Math.round(value * 1e4) / 10} mV`;
+/**
+ * A value label: times in ps and volts in mV to a tenth; charge with an engineering prefix and a
+ * fraction in percent, each with enough digits to tell ticks `step` apart (a die-to-die spread of
+ * an efficiency can be a millionth).
+ */
+function valueLabel(value: number, unit: HistogramUnit, step: number): string {
+  if (unit === 's') return `${Math.round(value * 1e13) / 10} ps`;
+  if (unit === 'V') return `${Math.round(value * 1e4) / 10} mV`;
+  if (value === 0) return unit === 'C' ? '0 C' : '0 %';
+  const fine = step > 0 ? Math.ceil(-Math.log10(step)) : 0;
+  if (unit === 'C') {
+    const digits = Math.min(9, Math.max(3, fine + Math.floor(Math.log10(Math.max(Math.abs(value), step))) + 1));
+    return formatEngineering(value, 'C', digits);
+  }
+  return `${(value * 100).toFixed(Math.min(6, Math.max(1, fine - 2)))} %`;
 }
+
+/** Default axis title per unit. */
+const AXIS_TITLE: Record<HistogramUnit, string> = { s: '50 % dead time', V: 'volts', C: 'charge', '': 'fraction' };
 
 /** Mean and sample sigma from the bin centres (each within half a bin of its value). */
 export function histogramMoments(h: StreamingHistogram): { mean: number; sigma: number } {
@@ -92,7 +112,6 @@ export function histogramMoments(h: StreamingHistogram): { mean: number; sigma: 
 
 export function renderHistogram(input: HistogramInput): string {
   const unit = input.unit ?? 's';
-  const label = (v: number) => valueLabel(v, unit);
   const height = MARGIN.top + input.series.length * (PANEL + MARGIN.bottom);
   const canvas = createCanvas(WIDTH, height, input.title);
   const root = canvas.root;
@@ -127,6 +146,8 @@ export function renderHistogram(input: HistogramInput): string {
     const x = scaleLinear()
       .domain([lo - pad, hi + pad])
       .range([left, right]);
+    const xTicks = x.ticks(6);
+    const label = (v: number) => valueLabel(v, unit, xTicks.length > 1 ? xTicks[1]! - xTicks[0]! : spread);
     const bins = bars(h, x.domain() as [number, number]);
     const most = Math.max(1, ...bins.map((b) => b.length));
     const y = scaleLinear()
@@ -154,12 +175,12 @@ export function renderHistogram(input: HistogramInput): string {
         .stroke({ color: below ? FAIL : PHASE[k % 2]!, width: 1 })
         .attr({ class: 'bar', 'data-count': b.length, 'data-fails': below ? 1 : 0 });
     }
-    for (const t of x.ticks(6)) {
+    for (const t of xTicks) {
       g.line(round(x(t)), top + PANEL, round(x(t)), top + PANEL + 5).stroke({ color: INK, width: 1 });
       drawText(g, label(t), x(t), top + PANEL + 19, { size: SIZE.tick, anchor: 'middle', fill: MUTED });
     }
     g.line(MARGIN.left, top + PANEL, WIDTH - MARGIN.right, top + PANEL).stroke({ color: INK, width: 1 });
-    drawText(g, input.axis ?? (unit === 's' ? '50 % dead time' : 'volts'), (left + right) / 2, top + PANEL + 40, {
+    drawText(g, input.axis ?? AXIS_TITLE[unit], (left + right) / 2, top + PANEL + 40, {
       size: SIZE.tick,
       anchor: 'middle',
       fill: MUTED,
