@@ -21,10 +21,10 @@ export type Tool = keyof typeof TOOLS;
 
 /**
  * The `integration` project: test files (from the repository root) that need outside programs, with
- * the programs each needs, and the whole-demo golden numbers (no program, but minutes of CPU).
+ * the programs each needs.
  */
 export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
-  'test/golden/golden.test.ts': [],
+  'test/fuzz/fuzz.test.ts': ['iverilog', 'ngspice', 'sigrok-cli', 'xmllint'],
   'test/analysis/tune-ngspice.test.ts': ['ngspice'],
   'test/analysis/tune.test.ts': ['ngspice'],
   'test/cli/deck-progress.test.ts': ['ngspice'],

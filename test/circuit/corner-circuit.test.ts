@@ -57,20 +57,6 @@ describe('CircuitEvaluator.evaluate', () => {
     ).toBe(true);
   });
 
-  it('check of the unboosted pump collapses below its output minimum at every corner: s_out has no overdrive with the top plate clamped near VDD + |V_TP|', () => {
-    const run = cli('check', design('doubler-unboosted-pump'), '--json');
-    const report = JSON.parse(run.stdout) as { corners: (Corner & { circuit: { method: string } })[] };
-    expect(report.corners).toHaveLength(45);
-    for (const c of report.corners) {
-      const vdd = Number(/\/([\d.]+)V\//.exec(c.name)![1]);
-      // output minimum 1.75 VDD; with the ideal 50 uA load the output keeps falling, 25 mV a period (2.5 pC on 100 pF): no periodic steady state
-      expect(c.circuit.method, c.name).toBe('none');
-      expect(c.circuit.output, c.name).toBeLessThan(0);
-      expect(c.circuit.output, c.name).toBeLessThan(1.75 * vdd);
-      expect(c.checks.find((k) => k.kind === 'output-min')!.pass, c.name).toBe(false);
-    }
-  }, 120_000);
-
   it('check of the diode pump gives the switch pump less two diode drops (Dickson 1976, eq. 7 with N = 1)', () => {
     const sw = corner('doubler-pump', 'tt/1.8V/27C').circuit!;
     const diode = corner('doubler-diode-pump', 'tt/1.8V/27C').circuit!;

@@ -4,7 +4,7 @@ import { resolveDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { fmaxMarginLines } from '../../src/report/fmax-text.js';
 import { formatMargin } from '../../src/report/margin-format.js';
-import { cli, design } from '../helpers.js';
+import { cli, design, expectClose } from '../helpers.js';
 
 const fmaxOf = (name: string) => {
   const { design: d, card } = loadDesign(design(name));
@@ -49,5 +49,50 @@ describe('phasegap fmax text', () => {
     const run = cli('fmax', design('too-tight'));
     expect(run.code).toBe(1);
     expect(run.stdout).toMatch(/ {2}margin at 20\.00 MHz \(the design clock\): -\d/);
+  });
+});
+
+describe('phasegap fmax', () => {
+  it('prints the frequency, the limiting check and corner; --json has fmax in Hz and limiting', () => {
+    const text = cli('fmax', design('doubler'));
+    expect(text.code).toBe(0);
+    expect(text.stdout).toMatch(/fmax \d+\.\d+ MHz/);
+    expect(text.stdout).toContain('limited by: flying-cap charge');
+    const json = JSON.parse(cli('fmax', design('doubler'), '--json').stdout);
+    expect(json.fmax).toBeGreaterThan(20e6);
+    expect(json.limiting.corner).toMatch(/^[a-z]+\/[\d.]+V\/-?\d+C$/);
+    expect(json.resolution).toBe(0.001);
+  });
+
+  it('exits 1 when the design clock is above fmax', () => {
+    expect(cli('fmax', design('doubler'), '--set', 'clock.frequency=60MHz').code).toBe(1);
+  });
+
+  it('rejects a bad resolution with exit 2 naming the flag', () => {
+    const r = cli('fmax', design('doubler'), '--resolution', '2');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('--resolution');
+  });
+});
+
+describe('findFmax: circuit requirements', () => {
+  it('findFmax on doubler-pump without its settle constraint is set by the efficiency requirement: check passes at fmax and fails efficiency-min at 1.05 fmax', () => {
+    const settleless = ['constraints.settle=[]'];
+    const { design: d, card } = loadDesign(design('doubler-pump'), settleless);
+    const result = findFmax(resolveDesign(d, card), { resolution: 0.01 });
+    // measured: 26.79 MHz at 1 % resolution; the clock generator's C V^2 f grows with f while the load's power does not
+    expectClose(result.fmax!, 26.79e6, 0.005);
+    expect(result.limiting).toMatchObject({ kind: 'efficiency-min', check: 'efficiency >= 40.0 %', corner: 'ss/1.98V/125C' });
+    expect(result.note).toBe("the circuit's output requirement efficiency >= 40.0 % sets fmax (the design has no settle constraint)");
+    const at = (f: number) =>
+      JSON.parse(cli('check', design('doubler-pump'), '--json', '--set', settleless[0]!, '--set', `clock.frequency=${f}`).stdout);
+    const pass = at(result.fmax!);
+    expect(pass.verdict).toBe('pass');
+    const fail = at(1.05 * result.fmax!);
+    expect(fail.verdict).toBe('fail');
+    const failing = fail.corners.flatMap((c: { checks: { kind: string; pass: boolean }[] }) =>
+      c.checks.filter((k) => !k.pass).map((k) => k.kind),
+    );
+    expect(new Set(failing)).toEqual(new Set(['efficiency-min']));
   });
 });

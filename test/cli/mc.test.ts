@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cliAsync, design, tempDir } from '../helpers.js';
+import { cliAsync, design, expectClose, tempDir, withoutRunRecord } from '../helpers.js';
 
 describe('phasegap mc', () => {
   // The demo's least dead time is 966 ps (ff/1.98V/-40C); with a 964 ps minimum 31 of 40 dies pass (seed 1, measured).
@@ -38,5 +38,55 @@ describe('phasegap mc verdict and JUnit', () => {
       /<testcase classname="phasegap.mc.dead-time-min" name="dead p1->p2 >= 964 ps">\s*<failure message="8 of 40 dies fail it at ff\/1\.98V\/-40C"\/>/,
     );
     expect(xml).toMatch(/<testcase classname="phasegap.mc.dead-time-max" name="dead p1->p2 &lt;= 4.00 ns">\s*<system-out>/);
+  });
+});
+
+describe('phasegap mc seeds, threads, timings and replay', () => {
+  it('writes byte-identical JSON for the same seed, on one thread and on two', async () => {
+    const one = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '1', '--json');
+    const two = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '2', '--json');
+    const again = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '3', '--workers', '2', '--json');
+    expect(one.code).toBe(0);
+    // Identical but for the run record (its date, and the command line naming --workers).
+    expect(withoutRunRecord(two.stdout)).toBe(withoutRunRecord(one.stdout));
+    expect(withoutRunRecord(again.stdout)).toBe(withoutRunRecord(one.stdout));
+    const other = await cliAsync('mc', design('doubler'), '--samples', '600', '--seed', '4', '--workers', '1', '--json');
+    expect(withoutRunRecord(other.stdout)).not.toBe(withoutRunRecord(one.stdout));
+  });
+
+  it('prints its setup, evaluation and report times on stderr with --timings, and leaves the report alone', async () => {
+    const plain = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json');
+    const timed = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json', '--timings');
+    expect(withoutRunRecord(timed.stdout)).toBe(withoutRunRecord(plain.stdout));
+    expect(plain.stderr).toBe('');
+    const m =
+      /^phasegap: timings: setup ([\d.]+) s, evaluation ([\d.]+) s \((\d+) evaluations on 1 thread, (\d+)\/s\), report ([\d.]+) s\n$/.exec(
+        timed.stderr,
+      );
+    expect(m).not.toBeNull();
+    // 300 dies at each of the demo's 45 corners.
+    expect(Number(m![3])).toBe(300 * 45);
+    // The rate is computed from the unrounded time; the printed time is rounded to 1 ms.
+    expectClose(Number(m![4]), (300 * 45) / Number(m![2]), 0.05);
+  });
+
+  it('replays the worst die: its least margin at that corner equals the one Monte Carlo found', async () => {
+    const mc = JSON.parse((await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '9', '--json')).stdout);
+    const corner = mc.corners.find((c: { name: string }) => c.name === mc.worstCorner);
+    const replay = JSON.parse(
+      (await cliAsync('mc', design('doubler'), '--seed', '9', '--replay', String(corner.worstSample.index), '--json')).stdout,
+    );
+    const same = replay.corners.find((c: { name: string }) => c.name === mc.worstCorner);
+    const least = Math.min(...same.checks.map((k: { margin: number }) => k.margin));
+    expectClose(least, corner.worstSample.leastMargin, 1e-15, 'abs');
+  });
+
+  it('fails the yield requirement when a die fails, and rejects a bad sample count with exit 2', async () => {
+    const tight = await cliAsync('mc', design('too-tight'), '--samples', '50', '--workers', '1', '--json');
+    expect(tight.code).toBe(1);
+    expect(JSON.parse(tight.stdout).yield.value).toBeLessThan(1);
+    const bad = await cliAsync('mc', design('doubler'), '--samples', '0');
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain('--samples');
   });
 });

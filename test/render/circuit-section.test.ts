@@ -8,13 +8,26 @@ import { formatEngineering } from '../../src/units/format.js';
 import { buildReportModel } from '../../src/render/report-model.js';
 import { renderMarkdownReport } from '../../src/render/markdown/report.js';
 
-const unboosted = resolveYaml(readFileSync(design('doubler-unboosted-pump'), 'utf8'));
+// Six of the demo's 45 corners (both supply ends, three processes): the section is per corner, and
+// six show it at a seventh of the cost.
+const sixCorners = readFileSync(design('doubler-unboosted-pump'), 'utf8')
+  .replace('process: [tt, ss, ff, fs, sf]', 'process: [tt, ss, ff]')
+  .replace('vdd: [1.62V, 1.8V, 1.98V]', 'vdd: [1.62V, 1.98V]')
+  .replace('temperature: [-40, 27, 125]', 'temperature: [27]');
+const unboosted = resolveYaml(sixCorners);
 const results = evaluateAll(unboosted);
 const section = circuitSection(unboosted, results)!;
 
 describe('circuitSection', () => {
   it("has a row per corner whose numbers are the corner's figures", () => {
-    expect(section.rows.length).toBe(45);
+    expect(section.rows.map((row) => row.corner.replace(' (unsettled)', ''))).toEqual([
+      'tt/1.62V/27C',
+      'tt/1.98V/27C',
+      'ss/1.62V/27C',
+      'ss/1.98V/27C',
+      'ff/1.62V/27C',
+      'ff/1.98V/27C',
+    ]);
     section.rows.forEach((row, i) => {
       const c = results[i]!.circuit!;
       // The unboosted pump's switches cannot pass the charge: no corner settles, and the row says so.
