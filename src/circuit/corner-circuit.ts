@@ -51,7 +51,7 @@ export class CircuitEvaluator {
     private readonly netLoads: ArrayLike<number>,
     private readonly period: number,
   ) {
-    this.network = buildNetwork(design, plans);
+    this.network = buildNetwork(design, plans, card);
   }
 
   /** `drive` sets the switches' on-resistance (the devices R_on is calibrated on, mismatch); by default `devices`. */
