@@ -9,7 +9,9 @@ export const SWITCH = 0;
 export const CHANNEL = 1;
 export const DIODE = 2;
 export const LOAD = 3;
-export type BranchTag = typeof SWITCH | typeof CHANNEL | typeof DIODE | typeof LOAD;
+/** A switch's gate charge drawn at its turn-on (injection.ts), from ground. */
+export const INJECTION = 4;
+export type BranchTag = typeof SWITCH | typeof CHANNEL | typeof DIODE | typeof LOAD | typeof INJECTION;
 
 export interface Branch {
   readonly f: number;
@@ -63,8 +65,8 @@ export function chooseSegments(model: CircuitModel, interval: number, v: ArrayLi
   return out;
 }
 
-export function branchesFor(model: CircuitModel, interval: number, segments: Uint8Array): Branch[] {
-  const branches: Branch[] = [];
+export function branchesFor(model: CircuitModel, interval: number, segments: Uint8Array, extra: readonly Branch[] = []): Branch[] {
+  const branches: Branch[] = [...extra];
   const { on, g: drive } = model.intervals[interval]!;
   model.switches.forEach((s, i) => {
     const gOn = drive ? drive[i]! : s.gOn;

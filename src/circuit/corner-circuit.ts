@@ -57,7 +57,7 @@ export class CircuitEvaluator {
     private readonly netLoads: ArrayLike<number>,
     private readonly period: number,
   ) {
-    this.network = buildNetwork(design, plans);
+    this.network = buildNetwork(design, plans, card);
   }
 
   /**

@@ -11,10 +11,12 @@
 import type { CycleIndex } from '../measure/phases.js';
 import type { CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
-import { bulkLevel, deviceOnResistance, gateWave, type SwitchConduction } from '../switches/conduction.js';
+import { bulkLevel, conductingState, deviceOnResistance, gateWave, switchThreshold, type GateWave, type SwitchConduction } from '../switches/conduction.js';
 import { bodyThreshold, triodeResistance } from '../switches/physics.js';
+import { rangeHigh, rangeLow } from '../switches/nodes.js';
 import type { SwitchPlan } from '../switches/plan.js';
-import type { CircuitModel, ModelChannel, ModelInterval, ModelSwitch } from './model.js';
+import { overlapPerWidth, oxidePerArea } from './injection.js';
+import type { CircuitModel, ModelChannel, ModelEdgeDevice, ModelGateCharge, ModelInterval, ModelSwitch } from './model.js';
 import type { CircuitNetwork } from './network.js';
 
 interface Window {
@@ -64,6 +66,39 @@ export function onConductanceOf(
   };
 }
 
+/** Mean of the switch's two terminals' declared ranges in the phase state it conducts in, V. */
+function conductingLevel(plan: SwitchPlan, vdd: number): number {
+  const state = conductingState(plan);
+  let sum = 0;
+  for (const t of plan.terminals) {
+    const range = t.states[state];
+    const lo = rangeLow(range, vdd);
+    const hi = rangeHigh(range, vdd);
+    sum += Number.isFinite(lo) && Number.isFinite(hi) ? (lo + hi) / 2 : (levelAt(plan.signal.min, vdd) + levelAt(plan.signal.max, vdd)) / 2;
+  }
+  return sum / plan.terminals.length;
+}
+
+/** A switch device's channel and overlap capacitance and gate levels, for its charge at the edges. */
+function edgeDevice(plan: SwitchPlan, i: number, devices: CornerDevices, wave: GateWave, dvth: number): ModelEdgeDevice {
+  const device = plan.devices[i]!;
+  const n = device.kind === 'n';
+  const d = n ? devices.n : devices.p;
+  const vdd = devices.vdd;
+  const { low, high } = wave.rise;
+  return {
+    polarity: device.kind,
+    channel: oxidePerArea(d.params, devices.card.lmin) * device.w * device.l,
+    overlap: overlapPerWidth(d.params) * device.w,
+    gateOn: n ? high : low,
+    gateOff: n ? low : high,
+    onTransition: n ? wave.rise.transition : wave.fall.transition,
+    offTransition: n ? wave.fall.transition : wave.rise.transition,
+    beta: (d.kprime * device.w) / device.l,
+    threshold: (source) => switchThreshold(plan, device, d, source, vdd, dvth) + d.ronVthShift,
+  };
+}
+
 export function cornerModel(
   network: CircuitNetwork,
   plans: readonly SwitchPlan[],
@@ -77,6 +112,7 @@ export function cornerModel(
   const windows: (Window | null)[] = [];
   const switches: ModelSwitch[] = [];
   const channels: ModelChannel[] = [];
+  const gateCharges: ModelGateCharge[] = [];
   plans.forEach((plan, k) => {
     const c = conduction[k];
     const [a, b] = network.switchTerminals[k]!;
@@ -86,9 +122,11 @@ export function cornerModel(
       window = { on: c.on, off: c.off };
       gOn = 1 / c.ron;
     }
-    plan.devices.forEach((device) => {
+    const edgeDevices: ModelEdgeDevice[] = [];
+    plan.devices.forEach((device, i) => {
       const wave = gateWave(plan, device, cycles, vdd);
       if (typeof wave === 'string') return;
+      edgeDevices.push(edgeDevice(plan, i, devices, wave, drive.dvth?.[k]?.[i] ?? 0));
       const n = device.kind === 'n';
       const d = n ? devices.n : devices.p;
       const swing = wave.rise.high - wave.rise.low;
@@ -103,6 +141,9 @@ export function cornerModel(
       if (Number.isFinite(full)) channels.push({ switchIndex: k, a, b, polarity: n ? 'n' : 'p', gate, vt, g: 1 / full });
     });
     windows.push(window);
+    if (window && edgeDevices.length > 0) {
+      gateCharges.push({ switchIndex: k, devices: edgeDevices, sourceGuess: conductingLevel(plan, vdd) });
+    }
     const onConductance = c?.status === 'switching' ? onConductanceOf(plan, drive, drive.dvth?.[k]) : undefined;
     switches.push(
       onConductance
@@ -132,6 +173,7 @@ export function cornerModel(
     switches,
     channels,
     diodes: network.diodes,
+    gateCharges,
     pairs: network.pairs,
     output: network.output,
     loadCurrent: 0,

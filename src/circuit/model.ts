@@ -52,6 +52,33 @@ export interface ModelDiode {
   readonly gOff: number;
 }
 
+/** One device of a switch as the charge its gate edges put on the switch's terminals (injection.ts). */
+export interface ModelEdgeDevice {
+  readonly polarity: 'n' | 'p';
+  /** Channel capacitance W L C_ox, F. */
+  readonly channel: number;
+  /** Gate-overlap capacitance to each terminal, W C_ov, F. */
+  readonly overlap: number;
+  /** Gate level while the device conducts and while it is off, V. */
+  readonly gateOn: number;
+  readonly gateOff: number;
+  /** Full-swing transition of the gate edge that turns it on and of the one that turns it off, s. */
+  readonly onTransition: number;
+  readonly offTransition: number;
+  /** Triode conductance per volt of overdrive, k' W / L, S/V. */
+  readonly beta: number;
+  /** Threshold magnitude with its source at a voltage, V. */
+  readonly threshold: (source: number) => number;
+}
+
+/** A switching switch's devices, whose charge steps the nodes at its turn-on and turn-off. */
+export interface ModelGateCharge {
+  readonly switchIndex: number;
+  readonly devices: readonly ModelEdgeDevice[];
+  /** Source voltage to take the thresholds at before a traced steady state gives one, V. */
+  readonly sourceGuess: number;
+}
+
 /** A stretch of the period in which every switch gate keeps its state. */
 export interface ModelInterval {
   /** Duration, s. */
@@ -76,6 +103,13 @@ export interface CircuitModel {
   readonly switches: readonly ModelSwitch[];
   readonly channels: readonly ModelChannel[];
   readonly diodes: readonly ModelDiode[];
+  /** Channel charge and gate coupling of the switches at their edges; absent: none. */
+  readonly gateCharges?: readonly ModelGateCharge[];
+  /**
+   * Source voltage of each gate charge at its turn-off, where its thresholds are taken at both
+   * edges, V; absent: each entry's sourceGuess.
+   */
+  readonly chargeSources?: Float64Array;
   /** Switch index pairs that must not conduct together (their overlap is shoot-through). */
   readonly pairs: readonly (readonly [number, number])[];
   readonly output: number;

@@ -1,14 +1,18 @@
 /**
  * The design's circuit section resolved once: circuit nodes and rails by index, the inverse
  * capacitance matrix (it does not change with the corner), diodes, loads and the
- * break-before-make pairs whose overlap is shoot-through.
+ * break-before-make pairs whose overlap is shoot-through. Given the process card, each switch
+ * device also loads its circuit-node terminals with its diffusion (cdrain W) and gate-overlap
+ * (C_ov W, to a gate its driver holds) capacitance.
  */
 import type { Design } from '../schema/design.js';
 import { classifyTerminal, type CircuitSpec } from '../schema/circuit.js';
 import { parseLevel, type Level } from '../schema/level.js';
+import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { capacitanceMatrix, invertCapacitance, type Capacitor } from './capacitance.js';
 import type { CircuitLoad } from './figures.js';
+import { overlapPerWidth } from './injection.js';
 import type { ModelDiode } from './model.js';
 
 /** A diode of the network is the solver's piecewise-linear diode, on network node indices. */
@@ -48,7 +52,7 @@ function loadEnds(spec: CircuitSpec['load']): { heavy: CircuitLoad; light: Circu
 }
 
 /** The network of a design that has a circuit section (its references were checked by the schema). */
-export function buildNetwork(design: Design, plans: readonly SwitchPlan[]): CircuitNetwork {
+export function buildNetwork(design: Design, plans: readonly SwitchPlan[], card?: ProcessCard): CircuitNetwork {
   const spec = design.circuit!;
   const nodes: string[] = [];
   const railNames: string[] = ['0V'];
@@ -96,9 +100,16 @@ export function buildNetwork(design: Design, plans: readonly SwitchPlan[]): Circ
     caps.push({ a, b, value: c.value });
     if (c.bottomPlate > 0) caps.push({ a: b, b: n, value: c.value * c.bottomPlate });
   }
+  const switchTerminals = design.switches.map((s) => [index(s.terminals![0]), index(s.terminals![1])] as const);
+  if (card)
+    plans.forEach((plan, k) => {
+      for (const device of plan.devices) {
+        const value = (card[device.kind].cdrain + overlapPerWidth(card[device.kind])) * device.w;
+        for (const t of switchTerminals[k] ?? []) if (t < n) caps.push({ a: t, b: n, value });
+      }
+    });
   // Every circuit node has its own capacitance to ground, so the matrix is positive definite.
   const inverseCapacitance = invertCapacitance(capacitanceMatrix(n, caps), n)!;
-  const switchTerminals = design.switches.map((s) => [index(s.terminals![0]), index(s.terminals![1])] as const);
   const diodes = spec.diodes.map((d) => ({
     name: d.name,
     a: index(d.anode),

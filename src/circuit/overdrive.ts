@@ -4,9 +4,11 @@
  * interval with its device sources at their worse end over the interval (an n device's source is
  * its lower terminal, taken at its highest; a p device's the higher, taken at its lowest), a
  * switch without overdrive there conducting only its leak, and solve again until the
- * conductances agree. A steady state that is not found or does not converge is 'none': its
+ * conductances agree. Switches with gate charge (injection.ts) have their thresholds taken
+ * at the source voltages of the traced steady state in the same rounds. A steady state that is not found or does not converge is 'none': its
  * figures are not trusted.
  */
+import { edgeSources, hasGateCharge, sourcesAgree } from './injection.js';
 import type { CircuitModel } from './model.js';
 import { PeriodSolver, type SteadyState } from './period-solver.js';
 import { tracePeriod, type PeriodTrace } from './trace.js';
@@ -41,6 +43,7 @@ export function intervalConductances(solver: PeriodSolver, trace: PeriodTrace): 
   const pSource = model.intervals.map(() => new Float64Array(count).fill(Infinity));
   const voltage = (row: number, j: number) => (j < n ? trace.voltages[row * n + j]! : model.rails[j - n]!);
   for (let k = 0; k < solver.substeps; k++) {
+    if (solver.edges[k]) continue;
     const i = solver.substepInterval[k]!;
     const on = model.intervals[i]!.on;
     for (let s = 0; s < count; s++) {
@@ -86,16 +89,20 @@ function withConductances(model: CircuitModel, g: readonly Float64Array[]): Circ
 
 export function solveDriven(model: CircuitModel): Solved {
   const driven = hasDrive(model);
+  const charged = hasGateCharge(model);
   const options = driven ? { maxPeriods: DRIVEN_PERIODS } : {};
   let current = model;
   for (let round = 1; ; round++) {
     const solver = new PeriodSolver(current);
     const state = solver.steadyState(options);
     const trace = tracePeriod(solver, state.x0, state.segments);
-    if (!driven || state.method === 'none') return { state, trace, solver, rounds: round };
-    const g = intervalConductances(solver, trace);
-    if (agree(current, g)) return { state, trace, solver, rounds: round };
+    if ((!driven && !charged) || state.method === 'none') return { state, trace, solver, rounds: round };
+    const g = driven ? intervalConductances(solver, trace) : null;
+    const sources = charged ? edgeSources(solver, trace.voltages) : null;
+    const settled = (!g || agree(current, g)) && (!sources || sourcesAgree(current, sources));
+    if (settled) return { state, trace, solver, rounds: round };
     if (round === DRIVE_ROUNDS) return { state: { ...state, method: 'none' }, trace, solver, rounds: round };
-    current = withConductances(current, g);
+    if (g) current = withConductances(current, g);
+    if (sources) current = { ...current, chargeSources: sources };
   }
 }

@@ -4,11 +4,15 @@
  * (I - P) x = p. Piecewise-linear parts take one segment per substep; the segments are chosen
  * from the steady state's own voltages at each substep start and the fixed point solved again
  * until they agree. Each interval between switch events is cut into SUBSTEPS equal substeps, so
- * a diode or channel may change segment at an eighth of an interval.
+ * a diode or channel may change segment at an eighth of an interval. Where switches with gate
+ * charge turn off, a substep of no length steps the nodes by their charge; where they turn on,
+ * the interval's first substep draws it (injection.ts).
  */
 import { LuDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { branchCharge, CHANNEL, chooseSegments, DIODE, pwlCount } from './branches.js';
 import type { CircuitModel } from './model.js';
+import type { Branch } from './branches.js';
+import { drawBranches, edgeMap } from './injection.js';
 import { SubstepBuilder, type SubstepMap } from './substep.js';
 
 export const SUBSTEPS = 8;
@@ -43,6 +47,10 @@ export class PeriodSolver {
   /** Interval of each substep. */
   readonly substepInterval: Int32Array;
   readonly substepLength: Float64Array;
+  /** The step of each substep that is a switch edge's charge, else null. */
+  readonly edges: readonly (SubstepMap | null)[];
+  /** Charge drawn by switches turning on, in the first substep of their interval, else null. */
+  private readonly draws: readonly (readonly Branch[] | null)[];
   private readonly builder: SubstepBuilder;
   private readonly cache = new Map<number | string, SubstepMap>();
   /** Segment codes fit a number below 2^53 (base 3 per part, times the interval count). */
@@ -60,13 +68,27 @@ export class PeriodSolver {
     this.builder = new SubstepBuilder(model);
     const intervals: number[] = [];
     const lengths: number[] = [];
+    const edges: (SubstepMap | null)[] = [];
+    const draws: (readonly Branch[] | null)[] = [];
     model.intervals.forEach((iv, i) => {
       if (!(iv.duration > 0)) return;
+      const edge = edgeMap(model, i);
+      if (edge) {
+        intervals.push(i);
+        lengths.push(0);
+        edges.push(edge);
+        draws.push(null);
+      }
+      const draw = drawBranches(model, i, iv.duration / SUBSTEPS);
       for (let k = 0; k < SUBSTEPS; k++) {
         intervals.push(i);
         lengths.push(iv.duration / SUBSTEPS);
+        edges.push(null);
+        draws.push(k === 0 && draw.length > 0 ? draw : null);
       }
     });
+    this.edges = edges;
+    this.draws = draws;
     this.substepInterval = Int32Array.from(intervals);
     this.substepLength = Float64Array.from(lengths);
     this.voltages = new Float64Array(this.n + model.rails.length);
@@ -75,7 +97,7 @@ export class PeriodSolver {
     this.integrals = new Float64Array(this.n);
     this.end = new Float64Array(this.n);
     this.endSegments = new Uint8Array(this.pwl);
-    this.numericKeys = 3 ** this.pwl * model.intervals.length < Number.MAX_SAFE_INTEGER;
+    this.numericKeys = 3 ** this.pwl * 2 * model.intervals.length < Number.MAX_SAFE_INTEGER;
   }
 
   get substeps(): number {
@@ -84,14 +106,19 @@ export class PeriodSolver {
 
   /** The exact map of substep k with the given segments (cached). */
   map(k: number, segments: Uint8Array): SubstepMap {
+    const edge = this.edges[k];
+    if (edge) return edge;
     const interval = this.substepInterval[k]!;
-    let key: number | string = interval;
+    const draw = this.draws[k];
+    // The first substep after a turn-on has its own maps.
+    const slot = draw ? interval + this.model.intervals.length : interval;
+    let key: number | string = slot;
     if (this.numericKeys) {
       for (let i = 0; i < this.pwl; i++) key = key * 3 + segments[i]!;
-    } else key = `${interval}:${segments.join('')}`;
+    } else key = `${slot}:${segments.join('')}`;
     let m = this.cache.get(key);
     if (!m) {
-      m = this.builder.build(interval, segments, this.substepLength[k]!);
+      m = this.builder.build(interval, segments, this.substepLength[k]!, draw ?? undefined);
       this.cache.set(key, m);
     }
     return m;
@@ -156,6 +183,7 @@ export class PeriodSolver {
    * the substep start would otherwise leave a diode clamping a node it should let go).
    */
   refine(k: number, x: Float64Array, out: Uint8Array): Uint8Array {
+    if (this.edges[k]) return out.fill(0);
     this.decide(k, x, out);
     if (this.pwl === 0) return out;
     const n = this.n;

@@ -35,11 +35,12 @@ export class SubstepBuilder {
     this.exp = new Float64Array(this.m * this.m);
   }
 
-  build(interval: number, segments: Uint8Array, h: number): SubstepMap {
+  /** `extra` branches join the interval's own (a switch's charge drawn at turn-on). */
+  build(interval: number, segments: Uint8Array, h: number, extra: readonly Branch[] = []): SubstepMap {
     const model = this.model;
     const n = model.nodes.length;
     const m = this.m;
-    const branches = branchesFor(model, interval, segments);
+    const branches = branchesFor(model, interval, segments, extra);
     stamp(model, branches, this.g, this.s);
     const cinv = model.inverseCapacitance;
     const aug = this.aug.fill(0);

@@ -16,6 +16,16 @@ export const deviceSchema = z.strictObject({
   phi2f: quantity('V', 'Surface potential 2*phiF', { above: 0 }),
   cgate: z.number().positive().describe('Gate capacitance per metre of width at minimum length, F/m'),
   cdrain: z.number().nonnegative().describe('Drain diffusion capacitance per metre of width, F/m'),
+  cox: z
+    .number()
+    .positive()
+    .optional()
+    .describe('Gate-oxide capacitance per area eps_ox/t_ox, F/m^2, for a switch channel charge (default: cgate / lmin, erring high)'),
+  cov: z
+    .number()
+    .nonnegative()
+    .optional()
+    .describe('Gate-overlap capacitance per metre of width on each side (SPICE CGSO/CGDO), F/m, for clock feedthrough (default: cgate / 8)'),
   avt: z.number().nonnegative().describe('Pelgrom mismatch coefficient A_VT, V*m (5 mV*um = 5e-9)'),
   kprime: z.number().positive().describe('Triode transconductance parameter mu*Cox, A/V^2, for switch on-resistance'),
   theta: z

@@ -18,7 +18,7 @@ import type { CircuitModel } from '../../src/circuit/model.js';
 
 const demo = fileURLToPath(new URL('../../../fixtures/designs/doubler-pump.yaml', import.meta.url));
 const { resolved } = loadResolved(demo, [], {}, () => {});
-const network = buildNetwork(resolved.design, resolved.switches);
+const network = buildNetwork(resolved.design, resolved.switches, resolved.card);
 const evaluator = new CornerEvaluator(resolved);
 const models: CircuitModel[] = [];
 let figuresMs = 0;
