@@ -89,7 +89,7 @@ export class CornerEvaluator {
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     // Monte Carlo dies (warm runs) skip the circuit: its figures cost milliseconds per corner.
     const spec = warm ? undefined : resolved.design.circuit;
-    this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
+    this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.loads, this.period) : null;
     this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
 

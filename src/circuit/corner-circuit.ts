@@ -6,10 +6,11 @@
 import type { CycleIndex } from '../measure/phases.js';
 import type { CornerDevices } from '../process/device.js';
 import type { Design } from '../schema/design.js';
-import { levelAt } from '../schema/level.js';
-import type { ProcessCard } from '../schema/process.js';
 import type { SwitchConduction } from '../switches/conduction.js';
 import { switchGateCapacitance, type SwitchPlan } from '../switches/plan.js';
+import { shifterEnergy } from '../switches/shifter-energy.js';
+import { latchShifter, sizeShifter } from '../switches/shifter-sizing.js';
+import { levelAt } from '../schema/level.js';
 import { cornerModel, type SwitchDrive } from './corner-model.js';
 import { circuitFigures, solve, withLoad, type CircuitFigures } from './figures.js';
 import { buildNetwork, type CircuitNetwork } from './network.js';
@@ -24,19 +25,37 @@ export interface CornerCircuit extends CircuitFigures {
 }
 
 /**
- * Energy the clock generator's nets and the switch gates behind level shifters draw per period,
- * J: C V^2 per net that swings the supply (each charged once from it), C (high - low) high per
- * shifted gate (charged from the shifter's high level).
+ * Energy the clock generator's nets and the level shifters with the switch gates they drive draw
+ * per period, J: C V^2 per net that swings the supply (each charged once from it), and per
+ * shifted gate its shifter's energy (shifter-energy.ts: internal nodes, latch crowbar, the gate
+ * over the shifter's swing), the shifter sized as the deck sizes it for its net's ramp here; a
+ * shifter the cross-coupled model does not cover (down to a negative rail) counts its gate's charge
+ * from its high level, C (high - low) high.
  */
-export function generatorEnergy(netLoads: ArrayLike<number>, plans: readonly SwitchPlan[], card: ProcessCard, vdd: number): number {
+export function generatorEnergy(
+  netLoads: ArrayLike<number>,
+  plans: readonly SwitchPlan[],
+  devices: CornerDevices,
+  cycles: CycleIndex,
+): number {
+  const vdd = devices.vdd;
   let energy = 0;
   for (let i = 0; i < netLoads.length; i++) energy += netLoads[i]! * vdd * vdd;
   for (const plan of plans) {
     const ls = plan.levelShifter;
     if (!ls) continue;
-    const high = levelAt(ls.high, vdd);
-    const low = levelAt(ls.low, vdd);
-    for (const d of plan.devices) energy += switchGateCapacitance(card, d.kind, d.w, d.l) * Math.abs(high - low) * Math.abs(high);
+    for (const d of plan.devices) {
+      if (!latchShifter(ls, vdd)) {
+        // Not the cross-coupled up-shifter: its gate's charge from the high level only.
+        const swing = Math.abs(levelAt(ls.high, vdd) - levelAt(ls.low, vdd));
+        energy += switchGateCapacitance(devices.card, d.kind, d.w, d.l) * swing * Math.abs(levelAt(ls.high, vdd));
+        continue;
+      }
+      const load = switchGateCapacitance(devices.card, d.kind, d.w, d.l);
+      const cycle = cycles.cycle(d.net);
+      const input = typeof cycle === 'string' ? ls.delay : (cycle.riseTransition + cycle.fallTransition) / 2;
+      energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices).total;
+    }
   }
   return energy;
 }
@@ -47,7 +66,6 @@ export class CircuitEvaluator {
   constructor(
     design: Design,
     private readonly plans: readonly SwitchPlan[],
-    private readonly card: ProcessCard,
     private readonly netLoads: ArrayLike<number>,
     private readonly period: number,
   ) {
@@ -63,12 +81,7 @@ export class CircuitEvaluator {
   ): CornerCircuit {
     const net = this.network;
     const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period, drive);
-    const figures = circuitFigures(
-      model,
-      net.load,
-      generatorEnergy(this.netLoads, this.plans, this.card, devices.vdd),
-      net.spec.startupCycles,
-    );
+    const figures = circuitFigures(model, net.load, generatorEnergy(this.netLoads, this.plans, devices, cycles), net.spec.startupCycles);
     const sameLoad = net.lightLoad.current === net.load.current && net.lightLoad.conductance === net.load.conductance;
     const sign = figures.output < 0 ? -1 : 1;
     const bound = sign > 0 ? net.spec.requirements.output?.max : net.spec.requirements.output?.min;

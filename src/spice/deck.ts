@@ -23,7 +23,8 @@ import { spiceComment, spiceInlineComment } from './text.js';
 import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel } from '../switches/conduction.js';
 import { switchGateCapacitance } from '../switches/plan.js';
-import { nominalTransitions, sizeShifter } from './shifter-sizing.js';
+import { nominalTransitions } from './shifter-sizing.js';
+import { sizeShifter } from '../switches/shifter-sizing.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {
