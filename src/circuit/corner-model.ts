@@ -11,7 +11,15 @@
 import type { CycleIndex } from '../measure/phases.js';
 import type { CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
-import { bulkLevel, conductingState, deviceOnResistance, gateWave, switchThreshold, type GateWave, type SwitchConduction } from '../switches/conduction.js';
+import {
+  bulkLevel,
+  conductingState,
+  deviceOnResistance,
+  gateWave,
+  switchThreshold,
+  type GateWave,
+  type SwitchConduction,
+} from '../switches/conduction.js';
 import { bodyThreshold, triodeResistance } from '../switches/physics.js';
 import { rangeHigh, rangeLow } from '../switches/nodes.js';
 import type { SwitchPlan } from '../switches/plan.js';

@@ -25,7 +25,9 @@ export const deviceSchema = z.strictObject({
     .number()
     .nonnegative()
     .optional()
-    .describe('Gate-overlap capacitance per metre of width on each side (SPICE CGSO/CGDO), F/m, for clock feedthrough (default: cgate / 8)'),
+    .describe(
+      'Gate-overlap capacitance per metre of width on each side (SPICE CGSO/CGDO), F/m, for clock feedthrough (default: cgate / 8)',
+    ),
   avt: z.number().nonnegative().describe('Pelgrom mismatch coefficient A_VT, V*m (5 mV*um = 5e-9)'),
   kprime: z.number().positive().describe('Triode transconductance parameter mu*Cox, A/V^2, for switch on-resistance'),
   theta: z

@@ -17,7 +17,7 @@ import { devicesAtCorner, saturationCurrent, type DeviceAtCorner } from '../proc
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold } from '../switches/physics.js';
 import type { SwitchPlan } from '../switches/plan.js';
-import { nominalCorner } from './shifter-sizing.js';
+import { nominalCorner } from '../switches/shifter-sizing.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 

@@ -13,13 +13,13 @@
  * inverter, between the low and the high level, drives the switch's gate from the set-side latch
  * node. Without the skewed buffer the output would rise on one pull-down edge and fall on the
  * slower p-device edge; the buffer evens the two out, since the model has one delay for both.
- * Sizes come from shifter-sizing.ts. The deck checks timing only: the latch swings 0 to the high
+ * Sizes come from src/switches/shifter-sizing.ts. The deck checks timing only: the latch swings 0 to the high
  * level, more than a core device may stand, and no device rating is checked here.
  */
 import type { DeviceGeometry } from './cells.js';
 import { mosfet } from './cells.js';
 import { spiceNumber } from './names.js';
-import type { ShifterSizing } from './shifter-sizing.js';
+import type { ShifterSizing } from '../switches/shifter-sizing.js';
 import { spiceComment } from './text.js';
 
 /** Deck node of the shifted gate of device `device` of switch `plan` (indices in the design). */

@@ -65,7 +65,7 @@ describe('the circuit demos at tt/1.8V/27C', () => {
     expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.653301 + 1.8, 1e-3);
   });
 
-  it('check of sc-integrator-path settles near Vin f Cs R / (1 + f Cs R) = 1.25 V, lifted by its switches\' charge (ngspice 1.2646 V)', () => {
+  it("check of sc-integrator-path settles near Vin f Cs R / (1 + f Cs R) = 1.25 V, lifted by its switches' charge (ngspice 1.2646 V)", () => {
     const c = tt('sc-integrator-path').circuit;
     // The p devices' channel charge released on the integrating node at each transfer lifts the level by 12.6 mV
     // (ngspice 39 through confirm: 1.2646 V, ripple 9.64 mV).

@@ -43,9 +43,13 @@ const KNOWN_LIMITS: Readonly<Record<string, string>> = {
 };
 
 /**
- * Designs whose level-shifted switches make the model's efficiency optimistic: the deck's transistor
- * shifters draw their own switching and latch-fight energy (doubler-pump at tt: generator 172 uW in
- * ngspice against 134 uW in the model, which counts only the switch gates' charge behind a shifter).
+ * Designs whose level-shifted switches leave the model's efficiency optimistic at the edge of the
+ * tolerance: the model counts each cross-coupled shifter's node, output and latch-fight energy
+ * (shifter-energy.ts) but with the card's capacitances per width, 16 to 30 % below the deck's
+ * junctions and overlaps, and no short-circuit energy in the generator's own gates (doubler-pump:
+ * generator 150 uW in the model against 172 uW in ngspice at tt, where it counted 134 uW with the
+ * switch gates' charge alone; efficiency +9.9 % at tt/1.8V/27C, +10.1 % at ss/1.62V/125C, +11.2 %
+ * at ff/1.98V/-40C, ngspice-39).
  */
 const EFFICIENCY_OPTIMISTIC: readonly string[] = ['doubler-pump.yaml'];
 
@@ -101,9 +105,11 @@ describe('confirm simulates each shipped circuit to periodic steady state in ngs
           expect(Math.abs(figure('output').difference!), `${file} ${c.corner} output`).toBeLessThanOrEqual(0.02);
           expect(Math.abs(figure('ripple').difference!), `${file} ${c.corner} ripple`).toBeLessThanOrEqual(0.1);
           if (EFFICIENCY_OPTIMISTIC.includes(file)) {
-            // Measured +14.7 % at tt (model 48.1 %, ngspice 41.9 %): confirm must flag it.
-            expect(figure('efficiency').difference!, `${file} ${c.corner} efficiency`).toBeGreaterThan(0.1);
-            expect(circuit.pass).toBe(false);
+            // Measured +9.9 .. +11.2 %: optimistic everywhere, over the tolerance somewhere, and confirm flags each corner over it.
+            const difference = figure('efficiency').difference!;
+            expect(difference, `${file} ${c.corner} efficiency`).toBeGreaterThan(0);
+            expect(difference, `${file} ${c.corner} efficiency`).toBeLessThanOrEqual(0.12);
+            expect(circuit.pass).toBe(difference <= 0.1);
           } else {
             expect(Math.abs(figure('efficiency').difference!), `${file} ${c.corner} efficiency`).toBeLessThanOrEqual(0.1);
             expect(circuit.pass).toBe(true);

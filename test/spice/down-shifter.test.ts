@@ -15,7 +15,7 @@ import { generatorDeck } from '../../src/spice/deck.js';
 import { downShifterLines } from '../../src/spice/down-shifter.js';
 import { sizeDownShifter } from '../../src/spice/down-shifter-sizing.js';
 import { cornerModels } from '../../src/spice/models.js';
-import { nominalCorner } from '../../src/spice/shifter-sizing.js';
+import { nominalCorner } from '../../src/switches/shifter-sizing.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
 
 const card = loadProcess(processCard('generic180'));

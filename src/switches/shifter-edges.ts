@@ -1,0 +1,136 @@
+/**
+ * A sized cross-coupled level shifter's delays and output transitions at any corner, one per
+ * output edge, from its stage times at that corner. The circuit is the deck's (see
+ * src/spice/level-shifter.ts); its sizes come from shifter-sizing.ts and the fits that turn stage
+ * times into delays are that module's (ngspice fits at the nominal corner). Each stage time is
+ * C dV / (2 I) with the corner's alpha-power currents (common practice), and the stage that
+ * flips the latch is the fight: the n pull-down at the core supply less the cross-coupled p device
+ * fully on at the high level, I_n(V_DD) W_pd - I_p(V_high) W_p (the ratioed-latch condition, e.g.
+ * J. M. Rabaey et al., Digital Integrated Circuits, 2nd ed., on level conversion, from memory).
+ *
+ * Output rising (input rising, after any inversion): the skewed buffer, the set-side fight on the
+ * latch node, the output inverter's p device. Output falling: the complement inverter, the
+ * reset-side fight, the latch p device lifting the set-side node, the output inverter's n device.
+ * The fits' constants stand for the core-supply inverters and scale with a core inverter's
+ * C V / I (n and p together).
+ *
+ * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts): each
+ * edge's ratio to the nominal corner within 4.7 % median, 20.6 % worst (the declared delay's
+ * swing / n-drive scale of shifter-timing.ts: 8.7 %, 25.6 %). Not yet what `gateWave` uses: on
+ * too-tight.yaml it moves the break-before-make margins optimistic at the hot corners, where the
+ * generator's own phase edges are already 70 to 110 ps optimistic at the gap level.
+ */
+import { saturationCurrent, shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
+import { levelAt } from '../schema/level.js';
+import type { SwitchPlan } from './plan.js';
+import { shifterFits, type ShifterSizing } from './shifter-sizing.js';
+
+type Shifter = NonNullable<SwitchPlan['levelShifter']>;
+
+/** Per output edge, s. */
+export interface ShifterEdges {
+  readonly rise: number;
+  readonly fall: number;
+  readonly riseTransition: number;
+  readonly fallTransition: number;
+}
+
+/**
+ * Full-swing transition of the shifter's input (after any inversion), s: `rise` is the input edge
+ * that makes the output rise, `fall` the one that makes it fall.
+ */
+export interface ShifterInput {
+  readonly rise: number;
+  readonly fall: number;
+}
+
+/** The corner's view of the shifter: currents per width, A/m, and levels, V. */
+interface Drives {
+  readonly vdd: number;
+  readonly high: number;
+  readonly low: number;
+  /** Pull-down n at the core supply (with any mismatch), latch p fully on at the high level. */
+  readonly pull: number;
+  readonly latch: number;
+  /** Output inverter: n with high - low on its gate, p with the high level across its gate. */
+  readonly outN: number;
+  readonly outP: number;
+  /** A core inverter's C V / I per farad-metre: V_DD (1 / I_n + 1 / I_p). */
+  readonly core: number;
+}
+
+const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
+
+function drives(ls: Shifter, n: DeviceAtCorner, p: DeviceAtCorner, vdd: number, pullFactor: number): Drives {
+  const high = levelAt(ls.high, vdd);
+  const low = levelAt(ls.low, vdd);
+  return {
+    vdd,
+    high,
+    low,
+    pull: current(n, vdd) * pullFactor,
+    latch: current(p, high),
+    outN: current(n, high - low),
+    outP: current(p, high),
+    core: vdd * (1 / current(n, vdd) + 1 / current(p, vdd)),
+  };
+}
+
+/** Capacitance of the latch node and of the skewed buffer's middle node, F. */
+function nodes(size: ShifterSizing, n: DeviceAtCorner, p: DeviceAtCorner): { latch: number; mid: number } {
+  const latch =
+    n.cdrain * size.pullDown + (p.cdrain + p.cgate) * size.latchP + n.cgate * size.outputN + p.cgate * size.outputP + size.latchCap;
+  const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
+  return { latch, mid };
+}
+
+function edgesWith(
+  size: ShifterSizing,
+  d: Drives,
+  nominal: Drives,
+  n: DeviceAtCorner,
+  p: DeviceAtCorner,
+  input: ShifterInput,
+): ShifterEdges {
+  const fits = shifterFits(nominal.low);
+  const { latch, mid } = nodes(size, n, p);
+  const fightCurrent = d.pull * size.pullDown - d.latch * size.latchP;
+  // The pull-down no longer wins the fight: the latch never flips.
+  if (!(fightCurrent > 0)) return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity };
+  const fight = (latch * d.high) / (2 * fightCurrent);
+  const latchRise = (latch * d.high) / (2 * d.latch * size.latchP);
+  const buffer = (mid * d.vdd) / (2 * d.pull * size.bufferN);
+  const core = d.core / nominal.core;
+  const outRise = (size.outputStage * nominal.outP) / d.outP;
+  const outFall = (size.outputStage * nominal.outN) / d.outN;
+  const [f0, f1, f2, f3, f4] = fits.fall;
+  const [r0, r1, r2, r3, r4] = fits.rise;
+  const [tr0, tr1] = fits.transitionRise;
+  const [tf0, tf1] = fits.transitionFall;
+  return {
+    rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + r4 * input.rise,
+    fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + f4 * input.fall,
+    riseTransition: tr0 * core + tr1 * outRise,
+    fallTransition: tf0 * core + tf1 * outFall,
+  };
+}
+
+/**
+ * The shifter's edges at `devices`' corner for the input ramps `input`; `nominal`
+ * are the devices at the card's nominal corner, `dvth` shifts the pull-downs' threshold (local
+ * mismatch, V): their drive falls by the alpha-power factor (1 - dvth / V_ov)^alpha.
+ */
+export function shifterEdges(
+  ls: Shifter,
+  size: ShifterSizing,
+  devices: CornerDevices,
+  nominal: CornerDevices,
+  input: ShifterInput,
+  dvth = 0,
+): ShifterEdges {
+  const { n, p, vdd } = devices;
+  const factor = dvth === 0 ? 1 : shiftFactor(dvth / (vdd - n.vth), n.alpha);
+  const here = drives(ls, n, p, vdd, factor);
+  const base = drives(ls, nominal.n, nominal.p, nominal.vdd, 1);
+  return edgesWith(size, here, base, n, p, input);
+}
