@@ -37,6 +37,8 @@ export default defineConfig({
           // A worker per core: vitest's default leaves one core to its main process, which these
           // files keep nearly idle, so a 2-core machine would run them on one worker.
           maxWorkers: '100%',
+          // Projects with different worker counts run as separate groups, one after another.
+          sequence: { groupOrder: 0 },
         },
       },
       {
@@ -45,6 +47,7 @@ export default defineConfig({
           name: 'system',
           include: systemInclude(),
           exclude: [...runnable, ...blocked],
+          sequence: { groupOrder: 1 },
         },
       },
       {
@@ -53,6 +56,7 @@ export default defineConfig({
           name: 'integration',
           include: runnable,
           globalSetup: ['test/integration-setup.ts'],
+          sequence: { groupOrder: 2 },
         },
       },
     ],
