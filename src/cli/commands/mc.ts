@@ -7,7 +7,7 @@ import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
 import type { Io } from '../io.js';
 import { loadResolved } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { checkOutput, emit, toJson, checkedInputs } from '../output.js';
 import { runParallel, type RunEnd } from '../parallel-run.js';
 import { progressBar } from '../progress.js';
 import { wholeNumberIn } from '../options.js';
@@ -72,8 +72,7 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   const started = performance.now();
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   checkOutput(options.histogram, inputs, '--histogram');
   checkOutput(options.junit, inputs, '--junit');
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
