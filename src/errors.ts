@@ -7,33 +7,36 @@
  * What kind of problem an issue is: `<area>.<problem>`, stable across releases (tests and scripts
  * match on it, not on the words). The table in DEVELOPERS.md ("Errors") says what each means.
  */
-export type IssueCode =
-  | 'field.unknown'
-  | 'field.required'
-  | 'field.not-allowed'
-  | 'value.wrong-type'
-  | 'value.not-allowed'
-  | 'value.out-of-range'
-  | 'value.too-many'
-  | 'value.not-finite'
-  | 'value.duplicate'
-  | 'value.invalid'
-  | 'reference.unknown'
-  | 'file.not-found'
-  | 'file.unreadable'
-  | 'file.too-large'
-  | 'file.syntax'
-  | 'file.wrong-kind'
-  | 'file.no-stdin'
-  | 'file.data-limit'
-  | 'netlist.invalid'
-  | 'tables.invalid'
-  | 'physics.device-off'
-  | 'physics.limit'
-  | 'physics.no-steady-state'
-  | 'option.invalid'
-  | 'output.refused'
-  | 'tool.failed';
+export const ISSUE_CODES = [
+  'field.unknown',
+  'field.required',
+  'field.not-allowed',
+  'value.wrong-type',
+  'value.not-allowed',
+  'value.out-of-range',
+  'value.too-many',
+  'value.not-finite',
+  'value.duplicate',
+  'value.invalid',
+  'reference.unknown',
+  'file.not-found',
+  'file.unreadable',
+  'file.too-large',
+  'file.syntax',
+  'file.wrong-kind',
+  'file.no-stdin',
+  'file.data-limit',
+  'netlist.invalid',
+  'tables.invalid',
+  'physics.device-off',
+  'physics.limit',
+  'physics.no-steady-state',
+  'option.invalid',
+  'output.refused',
+  'tool.failed',
+] as const;
+
+export type IssueCode = (typeof ISSUE_CODES)[number];
 
 /** A place in the input: keys and list indices from the top, e.g. `['switches', 2, 'nodes', 'a']`. */
 export type IssuePath = readonly (string | number)[];

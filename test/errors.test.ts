@@ -1,5 +1,8 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { formatPath, inFile, inputError, issuePath, renderIssue } from '../src/errors.js';
+import { ISSUE_CODES, formatPath, inFile, inputError, issuePath, renderIssue } from '../src/errors.js';
+import { ROOT } from './helpers.js';
 
 describe('renderIssue', () => {
   it('escapes control and format characters a schema message quotes from the file, keeping its own line breaks', () => {
@@ -76,5 +79,20 @@ describe('inFile', () => {
 describe('issuePath', () => {
   it('keeps string and number keys and turns a symbol into its description', () => {
     expect(issuePath(['a', 1, Symbol('s')])).toEqual(['a', 1, 'Symbol(s)']);
+  });
+});
+
+describe('ISSUE_CODES', () => {
+  it('lists exactly the codes of the table in DEVELOPERS.md ("Errors"), in its order', () => {
+    const guide = readFileSync(join(ROOT, 'DEVELOPERS.md'), 'utf8');
+    const table = guide.slice(guide.indexOf('| code | meaning |'));
+    const rows = table.slice(0, table.indexOf('\n\n')).split('\n').slice(2);
+    const documented = rows.map((row) => /^\| `([^`]+)` \|/.exec(row)?.[1] ?? `unparsed row: ${row}`);
+    expect(documented).toEqual([...ISSUE_CODES]);
+  });
+
+  it('names each kind <area>.<problem> in lower case, once', () => {
+    for (const code of ISSUE_CODES) expect(code).toMatch(/^[a-z]+\.[a-z]+(-[a-z]+)*$/);
+    expect(new Set(ISSUE_CODES).size).toBe(ISSUE_CODES.length);
   });
 });

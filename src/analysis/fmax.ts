@@ -60,17 +60,19 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     return { pass, limiting: worst };
   };
   const first = trial(f0);
+  /** No frequency passes: the design frequency's limiting check says why. */
+  const noFmax = (note: string): FmaxResult => ({
+    fmax: null,
+    resolution,
+    designFrequency: f0,
+    limiting: first.limiting,
+    atFmax: null,
+    probeFrequency: f0,
+    note,
+    evaluations,
+  });
   if (!first.pass && first.limiting && VOLTAGE_KINDS.has(first.limiting.kind as CheckKind)) {
-    return {
-      fmax: null,
-      resolution,
-      designFrequency: f0,
-      limiting: first.limiting,
-      atFmax: null,
-      probeFrequency: f0,
-      note: `a switch fails its ${first.limiting.kind} check, which no clock frequency changes`,
-      evaluations,
-    };
+    return noFmax(`a switch fails its ${first.limiting.kind} check, which no clock frequency changes`);
   }
   let lo: number;
   let hi: number;
@@ -108,16 +110,7 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
     lo = f0 / 2;
     for (;;) {
       if (lo < floor) {
-        return {
-          fmax: null,
-          resolution,
-          designFrequency: f0,
-          limiting: first.limiting,
-          atFmax: null,
-          probeFrequency: f0,
-          note: `no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`,
-          evaluations,
-        };
+        return noFmax(`no frequency down to ${floor} Hz passes; the limiting check does not depend on the clock frequency`);
       }
       const t = trial(lo);
       if (t.pass) {

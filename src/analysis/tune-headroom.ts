@@ -5,7 +5,7 @@
  * die in a short seeded Monte Carlo at the candidate's limiting corners and z = Φ⁻¹(minYield)
  * (3 without one), plus whatever the simulator found missing when the proposal was confirmed.
  */
-import type { Design } from '../schema/design.js';
+import { montecarloSettings, type Design } from '../schema/design.js';
 import type { CornerResult } from './evaluate.js';
 import type { ResolvedDesign } from './resolve.js';
 import { VOLTAGE_KINDS, type Check } from '../checks/check.js';
@@ -63,7 +63,7 @@ export function autoHeadroom(design: Design): AutoHeadroom {
     z: y === undefined ? DEFAULT_Z : normalQuantile(y),
     dies: HEADROOM_DIES,
     corners: HEADROOM_CORNERS,
-    seed: design.montecarlo?.seed ?? 1,
+    seed: montecarloSettings(design).seed,
   };
 }
 

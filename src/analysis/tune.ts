@@ -21,7 +21,7 @@
  * is searched again with the shortfall added to its headroom, and proposals are ranked with those
  * the simulator confirms first.
  */
-import type { Design } from '../schema/design.js';
+import { montecarloSettings, type Design } from '../schema/design.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel } from '../delay/model.js';
 import { analyticModel } from '../delay/analytic.js';
@@ -365,7 +365,7 @@ export function tuneChains(
         results,
         typeof auto === 'number' ? HEADROOM_CORNERS : auto.corners,
         dies,
-        typeof auto === 'number' ? (design.montecarlo?.seed ?? 1) : auto.seed,
+        typeof auto === 'number' ? montecarloSettings(design).seed : auto.seed,
       );
       evaluations += results.length + run.corners.length * dies;
       if (typeof auto === 'number') return { ...c, meets: meetsAt(c, auto), headroom: fixedHeadroom(auto, run, dies), yields: run.yields };

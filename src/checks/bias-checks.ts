@@ -16,7 +16,7 @@ import { VOLTAGE_KINDS, type Check, type CheckData, type CheckSubject } from './
 const SPAN_POINTS = 9;
 /** Rounding slack for levels that are equal by construction (e.g. a body tied to the node it guards), V. */
 const EPS = 1e-9;
-const STATES: readonly StateIndex[] = [0, 1, 2];
+export const STATES: readonly StateIndex[] = [0, 1, 2];
 
 export interface BiasSettings {
   /** Decades of sub-threshold current an off switch must keep below its threshold current. */
@@ -95,6 +95,59 @@ interface OffWorst {
   allowance: number;
 }
 
+/** An off device's source: the terminal that would turn it on, the lower one for n, the higher one for p. */
+export function offSource(plan: SwitchPlan, n: boolean, state: StateIndex, vdd: number): { source: number; terminal: 0 | 1 } {
+  const [a, b] = plan.terminals;
+  const va = n ? rangeLow(a.states[state], vdd) : rangeHigh(a.states[state], vdd);
+  const vb = n ? rangeLow(b.states[state], vdd) : rangeHigh(b.states[state], vdd);
+  return (n ? vb < va : vb > va) ? { source: vb, terminal: 1 } : { source: va, terminal: 0 };
+}
+
+/**
+ * How many points of a conducting state's terminal span the on-state is evaluated at: one device
+ * is worst at an end of the span (its overdrive is monotonic in the voltage); a tgate's best device
+ * changes across it, so it is sampled.
+ */
+export function spanPointCount(plan: SwitchPlan, span: { readonly low: number; readonly high: number }): number {
+  return span.high - span.low <= EPS ? 1 : plan.devices.length === 1 ? 1 : SPAN_POINTS;
+}
+
+/** The k-th of `points` on-state points of the span (see spanPointCount), V. */
+export function spanPoint(plan: SwitchPlan, span: { readonly low: number; readonly high: number }, k: number, points: number): number {
+  return plan.devices.length === 1
+    ? plan.devices[0]!.kind === 'n'
+      ? span.high
+      : span.low
+    : points === 1
+      ? span.low
+      : span.low + ((span.high - span.low) * k) / (points - 1);
+}
+
+type BiasKind = 'off-state' | 'on-state' | 'stress';
+const NAME_OF: Readonly<Record<BiasKind, 'off' | 'on' | 'stress'>> = { 'off-state': 'off', 'on-state': 'on', stress: 'stress' };
+
+/** A bias check with a margin, V, in the phase state it is least in; a failing one gets its words from the caller (`{ ...check, detail }`). */
+export function biasCheck(kind: BiasKind, names: BiasCheckNames, plan: SwitchPlan, margin: number, phase: string): Check {
+  return { kind, subject: names.subject, name: names[NAME_OF[kind]], margin, pass: margin >= 0, switch: plan.name, phase };
+}
+
+/** The off-state check of a switch whose gate never opens it, or the on-state check of one whose gate never turns it on. */
+export function neverCheck(kind: 'off-state' | 'on-state', names: BiasCheckNames, plan: SwitchPlan): Check {
+  const never =
+    kind === 'off-state'
+      ? 'is on in every phase and the dead time: its gate never opens it'
+      : 'is off in every phase: its gate never turns it on';
+  return {
+    kind,
+    subject: names.subject,
+    name: names[NAME_OF[kind]],
+    margin: null,
+    pass: false,
+    switch: plan.name,
+    detail: `${plan.name} (${plan.type}) ${never}`,
+  };
+}
+
 /** The least off-state margin over the devices and the states in which the switch must be off; null when it is never off. */
 export function offStateWorst(
   plan: SwitchPlan,
@@ -106,16 +159,11 @@ export function offStateWorst(
   let worst: OffWorst | null = null;
   for (const state of STATES) {
     if (!switchOffIn(plan, state)) continue;
-    const [a, b] = plan.terminals;
     for (let i = 0; i < plan.devices.length; i++) {
       const device = plan.devices[i]!;
       const n = device.kind === 'n';
       const d = n ? devices.n : devices.p;
-      // The terminal that would turn it on: the lower one for n, the higher one for p.
-      const va = n ? rangeLow(a.states[state], vdd) : rangeHigh(a.states[state], vdd);
-      const vb = n ? rangeLow(b.states[state], vdd) : rangeHigh(b.states[state], vdd);
-      const sourceTerminal = (n ? vb < va : vb > va) ? 1 : 0;
-      const source = sourceTerminal === 1 ? vb : va;
+      const { source, terminal: sourceTerminal } = offSource(plan, n, state, vdd);
       const gate = gateLevel(plan, device, state, vdd);
       const bulk = bulkAt(plan, device.kind, state, vdd);
       const shift = dvth ? dvth[i]! : 0;
@@ -180,18 +228,9 @@ export function onStateWorst(plan: SwitchPlan, devices: CornerDevices, dvth: Arr
   for (const state of STATES) {
     if (switchOffIn(plan, state)) continue;
     const span = terminalSpan(plan, state, vdd);
-    // One device is worst at an end of the span (its overdrive is monotonic in the voltage); a
-    // tgate's best device changes across it, so it is sampled.
-    const single = plan.devices.length === 1;
-    const points = span.high - span.low <= EPS ? 1 : single ? 1 : SPAN_POINTS;
+    const points = spanPointCount(plan, span);
     for (let k = 0; k < points; k++) {
-      const v = single
-        ? plan.devices[0]!.kind === 'n'
-          ? span.high
-          : span.low
-        : points === 1
-          ? span.low
-          : span.low + ((span.high - span.low) * k) / (points - 1);
+      const v = spanPoint(plan, span, k, points);
       let best = -Infinity;
       let gateOfBest = NaN;
       for (let i = 0; i < plan.devices.length; i++) {
@@ -306,6 +345,13 @@ export function stressDetail(plan: SwitchPlan, w: StressWorst, devices: CornerDe
   return `${who}: ${what} ${volts(value)} exceeds the ${device.kind}-device rating ${volts(limit)} (${where})`;
 }
 
+/** A switch's stress check at a corner (no threshold in it: a Monte Carlo die does not move it). */
+export function stressCheck(plan: SwitchPlan, names: BiasCheckNames, devices: CornerDevices, settings: BiasSettings): Check {
+  const stress = stressWorst(plan, devices);
+  const check = biasCheck('stress', names, plan, stress.margin, settings.stateLabels[stress.state]);
+  return check.pass ? check : { ...check, detail: stressDetail(plan, stress, devices, settings) };
+}
+
 /**
  * All bias checks of every switch at one corner, appended to `checks` (which is returned): the
  * reference the per-corner BiasChecker (bias-frame.ts) must equal bit for bit.
@@ -325,80 +371,18 @@ export function biasChecks(
     const plan = plans[k]!;
     const dvth = mismatch?.[k];
     const off = offStateWorst(plan, devices, dvth, settings);
-    if (off === null) {
-      checks.push({
-        kind: 'off-state',
-        subject: name.subject,
-        name: name.off,
-        margin: null,
-        pass: false,
-        switch: plan.name,
-        detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it`,
-      });
-    } else {
-      const pass = off.margin >= 0;
-      const phase = settings.stateLabels[off.state];
-      checks.push(
-        pass
-          ? { kind: 'off-state', subject: name.subject, name: name.off, margin: off.margin, pass, switch: plan.name, phase }
-          : {
-              kind: 'off-state',
-              subject: name.subject,
-              name: name.off,
-              margin: off.margin,
-              pass,
-              switch: plan.name,
-              phase,
-              detail: offDetail(plan, off, vdd, settings),
-            },
-      );
+    if (off === null) checks.push(neverCheck('off-state', name, plan));
+    else {
+      const check = biasCheck('off-state', name, plan, off.margin, settings.stateLabels[off.state]);
+      checks.push(check.pass ? check : { ...check, detail: offDetail(plan, off, vdd, settings) });
     }
     const on = onStateWorst(plan, devices, dvth);
-    if (on === null) {
-      checks.push({
-        kind: 'on-state',
-        subject: name.subject,
-        name: name.on,
-        margin: null,
-        pass: false,
-        switch: plan.name,
-        detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on`,
-      });
-    } else {
-      const pass = on.margin >= 0;
-      const phase = settings.stateLabels[on.state];
-      checks.push(
-        pass
-          ? { kind: 'on-state', subject: name.subject, name: name.on, margin: on.margin, pass, switch: plan.name, phase }
-          : {
-              kind: 'on-state',
-              subject: name.subject,
-              name: name.on,
-              margin: on.margin,
-              pass,
-              switch: plan.name,
-              phase,
-              detail: onDetail(plan, on, vdd, settings),
-            },
-      );
+    if (on === null) checks.push(neverCheck('on-state', name, plan));
+    else {
+      const check = biasCheck('on-state', name, plan, on.margin, settings.stateLabels[on.state]);
+      checks.push(check.pass ? check : { ...check, detail: onDetail(plan, on, vdd, settings) });
     }
-    const stress = stressWorst(plan, devices);
-    const pass = stress.margin >= 0;
-    const phase = settings.stateLabels[stress.state];
-    checks.push(
-      pass
-        ? { kind: 'stress', subject: name.subject, name: name.stress, margin: stress.margin, pass, switch: plan.name, phase }
-        : {
-            kind: 'stress',
-            subject: name.subject,
-            name: name.stress,
-            margin: stress.margin,
-            pass,
-            switch: plan.name,
-            phase,
-            detail: stressDetail(plan, stress, devices, settings),
-          },
-    );
+    checks.push(stressCheck(plan, name, devices, settings));
   }
   return checks;
 }

@@ -5,26 +5,27 @@
  */
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
 import { bulkAt, deviceOn, gateLevel, terminalSpan } from '../switches/bias.js';
-import { rangeHigh, rangeLow, type StateIndex } from '../switches/nodes.js';
+import type { StateIndex } from '../switches/nodes.js';
 import { bodyThreshold } from '../switches/physics.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import {
+  STATES,
+  allowanceFor,
+  biasCheck,
+  neverCheck,
   offDetail,
+  offSource,
   offStateWorst,
   onDetail,
   onStateWorst,
-  stressDetail,
-  stressWorst,
+  spanPoint,
+  spanPointCount,
+  stressCheck,
   switchOffIn,
-  allowanceFor,
   type BiasCheckNames,
   type BiasSettings,
 } from './bias-checks.js';
 import type { Check } from './check.js';
-
-const STATES: readonly StateIndex[] = [0, 1, 2];
-const SPAN_POINTS = 9;
-const EPS = 1e-9;
 
 /** One way a device could fail: margin = sign * (V_T(vsb) + dvth-shifted) + offset. */
 interface Case {
@@ -67,10 +68,7 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
       plan.devices.forEach((device, i) => {
         const n = device.kind === 'n';
         const d = n ? devices.n : devices.p;
-        const [a, b] = plan.terminals;
-        const va = n ? rangeLow(a.states[state], vdd) : rangeHigh(a.states[state], vdd);
-        const vb = n ? rangeLow(b.states[state], vdd) : rangeHigh(b.states[state], vdd);
-        const source = n ? Math.min(va, vb) : Math.max(va, vb);
+        const { source } = offSource(plan, n, state, vdd);
         const gate = gateLevel(plan, device, state, vdd);
         const bulk = bulkAt(plan, device.kind, state, vdd);
         off.push({
@@ -85,16 +83,9 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
       continue;
     }
     const span = terminalSpan(plan, state, vdd);
-    const single = plan.devices.length === 1;
-    const points = span.high - span.low <= EPS || single ? 1 : SPAN_POINTS;
+    const points = spanPointCount(plan, span);
     for (let p = 0; p < points; p++) {
-      const v = single
-        ? plan.devices[0]!.kind === 'n'
-          ? span.high
-          : span.low
-        : points === 1
-          ? span.low
-          : span.low + ((span.high - span.low) * p) / (points - 1);
+      const v = spanPoint(plan, span, p, points);
       const cases: Case[] = [];
       plan.devices.forEach((device, i) => {
         if (!deviceOn(device, state)) return;
@@ -113,22 +104,7 @@ function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: Co
       on.push({ state, cases });
     }
   }
-  const stress = stressWorst(plan, devices);
-  const stressPass = stress.margin >= 0;
-  const phase = settings.stateLabels[stress.state];
-  const stressCheck: Check = stressPass
-    ? { kind: 'stress', subject: names.subject, name: names.stress, margin: stress.margin, pass: true, switch: plan.name, phase }
-    : {
-        kind: 'stress',
-        subject: names.subject,
-        name: names.stress,
-        margin: stress.margin,
-        pass: false,
-        switch: plan.name,
-        phase,
-        detail: stressDetail(plan, stress, devices, settings),
-      };
-  return { plan, k, names, off, on, stress: stressCheck };
+  return { plan, k, names, off, on, stress: stressCheck(plan, names, devices, settings) };
 }
 
 /**
@@ -159,17 +135,8 @@ export class BiasChecker {
     for (const f of this.frames) {
       const dvth = mismatch?.[f.k];
       const { plan, names } = f;
-      if (f.off.length === 0) {
-        checks.push({
-          kind: 'off-state',
-          subject: names.subject,
-          name: names.off,
-          margin: null,
-          pass: false,
-          switch: plan.name,
-          detail: `${plan.name} (${plan.type}) is on in every phase and the dead time: its gate never opens it`,
-        });
-      } else {
+      if (f.off.length === 0) checks.push(neverCheck('off-state', names, plan));
+      else {
         let least = Infinity;
         let state: StateIndex = 0;
         for (const c of f.off) {
@@ -180,40 +147,15 @@ export class BiasChecker {
             state = c.state;
           }
         }
+        const check = biasCheck('off-state', names, plan, least, labels[state]);
         checks.push(
-          least >= 0
-            ? {
-                kind: 'off-state',
-                subject: names.subject,
-                name: names.off,
-                margin: least,
-                pass: true,
-                switch: plan.name,
-                phase: labels[state],
-              }
-            : {
-                kind: 'off-state',
-                subject: names.subject,
-                name: names.off,
-                margin: least,
-                pass: false,
-                switch: plan.name,
-                phase: labels[state],
-                detail: offDetail(plan, offStateWorst(plan, devices, dvth, this.settings)!, devices.vdd, this.settings),
-              },
+          check.pass
+            ? check
+            : { ...check, detail: offDetail(plan, offStateWorst(plan, devices, dvth, this.settings)!, devices.vdd, this.settings) },
         );
       }
-      if (f.on.length === 0) {
-        checks.push({
-          kind: 'on-state',
-          subject: names.subject,
-          name: names.on,
-          margin: null,
-          pass: false,
-          switch: plan.name,
-          detail: `${plan.name} (${plan.type}) is off in every phase: its gate never turns it on`,
-        });
-      } else {
+      if (f.on.length === 0) checks.push(neverCheck('on-state', names, plan));
+      else {
         let least = Infinity;
         let state: StateIndex = 0;
         for (const p of f.on) {
@@ -227,27 +169,9 @@ export class BiasChecker {
             state = p.state;
           }
         }
+        const check = biasCheck('on-state', names, plan, least, labels[state]);
         checks.push(
-          least >= 0
-            ? {
-                kind: 'on-state',
-                subject: names.subject,
-                name: names.on,
-                margin: least,
-                pass: true,
-                switch: plan.name,
-                phase: labels[state],
-              }
-            : {
-                kind: 'on-state',
-                subject: names.subject,
-                name: names.on,
-                margin: least,
-                pass: false,
-                switch: plan.name,
-                phase: labels[state],
-                detail: onDetail(plan, onStateWorst(plan, devices, dvth)!, devices.vdd, this.settings),
-              },
+          check.pass ? check : { ...check, detail: onDetail(plan, onStateWorst(plan, devices, dvth)!, devices.vdd, this.settings) },
         );
       }
       checks.push(f.stress);

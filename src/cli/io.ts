@@ -154,17 +154,22 @@ export function writeFileAtomic(path: string, content: string): void {
     closeSync(fd);
     renameSync(temp, path);
   } catch (error) {
-    try {
-      closeSync(fd);
-    } catch {
-      /* already closed */
-    }
-    try {
-      unlinkSync(temp);
-    } catch {
-      /* already renamed or removed */
-    }
+    discardTemp(fd, temp);
     throw error;
+  }
+}
+
+/** Closes and removes a temp file, whatever state it was left in (already closed, renamed or removed). */
+function discardTemp(fd: number, temp: string): void {
+  try {
+    closeSync(fd);
+  } catch {
+    /* already closed */
+  }
+  try {
+    unlinkSync(temp);
+  } catch {
+    /* already renamed or removed */
   }
 }
 
@@ -177,18 +182,7 @@ export function openFileStream(path: string): FileStream {
       beforeRename?.();
       renameSync(temp, path);
     },
-    abandon: () => {
-      try {
-        closeSync(fd);
-      } catch {
-        /* already closed */
-      }
-      try {
-        unlinkSync(temp);
-      } catch {
-        /* already gone */
-      }
-    },
+    abandon: () => discardTemp(fd, temp),
   };
 }
 

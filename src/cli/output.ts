@@ -111,6 +111,16 @@ export function inputFiles(loaded: LoadedDesign, options: { readonly tables?: st
   return [...designFiles(loaded), ...cardFiles(loaded.card, loaded.cardDir, options)];
 }
 
+/** `inputFiles` after refusing an `--out` that is one of them or cannot be written: call it right after loading. */
+export function checkedInputs(
+  loaded: LoadedDesign,
+  options: { readonly out?: string; readonly tables?: string; readonly models?: string },
+): string[] {
+  const inputs = inputFiles(loaded, options);
+  checkOutput(options.out, inputs);
+  return inputs;
+}
+
 /** The design file and its process card file (when the card is not inline). */
 export function designFiles(loaded: LoadedDesign): string[] {
   const design = loaded.designPath === '-' ? [] : [loaded.designPath];

@@ -4,6 +4,7 @@
  * and the two handover windows worth a close look. Times are relative to the start of the
  * reported period (the clock's rising 50 % point), s. The SVG renderer only draws this.
  */
+import { greatest, least as d3least } from 'd3-array';
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import type { SwitchConduction } from '../switches/conduction.js';
@@ -350,12 +351,8 @@ function deadTimeMarks(measured: readonly CornerResult[], single: boolean): Dead
       ];
     });
     if (all.length === 0) continue;
-    let least = all[0]!;
-    let most = all[0]!;
-    for (const m of all) {
-      if (m.d.t50 < least.d.t50) least = m;
-      if (m.d.t50 > most.d.t50) most = m;
-    }
+    const least = d3least(all, (m) => m.d.t50) ?? all[0]!;
+    const most = greatest(all, (m) => m.d.t50) ?? all[0]!;
     const marks: SpanMark[] =
       single || least === most
         ? [{ ...least.mark, role: single ? 'single' : 'least' }]

@@ -3,6 +3,7 @@
  * text, the per-check worst cases, the dead-time ranges and (when computed) fmax. The HTML and
  * Markdown renderers only lay this out.
  */
+import { greatest, least as d3least } from 'd3-array';
 import { errorBandText } from '../delay/error-band.js';
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { FmaxResult } from '../analysis/fmax.js';
@@ -89,12 +90,8 @@ function deadTimeRanges(results: readonly CornerResult[]): DeadTimeRange[] {
     const measured = results.flatMap((r) => (r.measurement.ok ? [{ corner: r.corner.name, d: r.measurement.deadTimes[index] }] : []));
     const first = measured[0];
     if (!first) continue;
-    let least = first;
-    let most = first;
-    for (const m of measured) {
-      if (m.d.t50 < least.d.t50) least = m;
-      if (m.d.t50 > most.d.t50) most = m;
-    }
+    const least = d3least(measured, (m) => m.d.t50) ?? first;
+    const most = greatest(measured, (m) => m.d.t50) ?? first;
     out.push({
       from: first.d.from,
       to: first.d.to,

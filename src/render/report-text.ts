@@ -2,7 +2,7 @@
 import { leastMargin } from '../report/check-report.js';
 import { formatMargin } from '../report/margin-format.js';
 import type { ProcessCard } from '../schema/process.js';
-import { formatEngineering, formatPs, formatSignedTime, formatTime } from '../units/format.js';
+import { formatEngineering, formatNs, formatPs, formatSignedTime, formatTime } from '../units/format.js';
 import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../report/confirm-report.js';
 import { breakBeforeMakeCells, percent, quantityCells } from '../report/confirm-text.js';
@@ -150,7 +150,7 @@ function ps(seconds: number | undefined): string {
 }
 
 function ns(seconds: number | undefined): string {
-  return seconds === undefined ? '-' : `${(seconds * 1e9).toFixed(2)} ns`;
+  return seconds === undefined ? '-' : formatNs(seconds);
 }
 
 export function cornerRows(m: ReportModel): string[][] {

@@ -1,6 +1,6 @@
 /** The human rendering of a check report: one row per corner, extremes marked, a summary. */
 import { errorBandText } from '../delay/error-band.js';
-import { formatEngineering, formatSignedTime, formatTime, psNumber } from '../units/format.js';
+import { formatEngineering, formatSignedTime, formatTime, nsNumber, psNumber } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
 import { left, right, renderTable, type Column } from './text-table.js';
 import { formatMargin } from './margin-format.js';
@@ -12,9 +12,7 @@ const MAX_MARK = ' ^';
 
 const ps = psNumber;
 
-function ns(seconds: number): string {
-  return (seconds * 1e9).toFixed(2);
-}
+const ns = nsNumber;
 
 const signed = (seconds: number | null) => formatSignedTime(seconds);
 

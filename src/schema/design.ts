@@ -160,6 +160,9 @@ export const requirementsSchema = z.strictObject({
   }).optional(),
 });
 
+/** Monte Carlo dies per corner and seed when neither the design's montecarlo section nor an option sets them. */
+export const MONTECARLO_DEFAULTS = { samples: 1000, seed: 1 } as const;
+
 export const designSchema = z
   .strictObject({
     name: title().describe('Design name, shown in every report'),
@@ -184,8 +187,8 @@ export const designSchema = z
     corners: cornersSchema.default({}),
     montecarlo: z
       .strictObject({
-        samples: z.number().int().positive().max(10_000_000).default(1000),
-        seed: z.number().int().nonnegative().default(1),
+        samples: z.number().int().positive().max(10_000_000).default(MONTECARLO_DEFAULTS.samples),
+        seed: z.number().int().nonnegative().default(MONTECARLO_DEFAULTS.seed),
       })
       .optional(),
     requirements: requirementsSchema.prefault({}),
@@ -217,6 +220,11 @@ export const designSchema = z
   .superRefine(checkCircuitReferences);
 
 export type Design = z.output<typeof designSchema>;
+
+/** The design's Monte Carlo settings, the defaults when it has no montecarlo section. */
+export function montecarloSettings(design: Design): { readonly samples: number; readonly seed: number } {
+  return design.montecarlo ?? MONTECARLO_DEFAULTS;
+}
 export type GeneratorSpec = z.output<typeof generatorSchema>;
 export type TemplateSpec = z.output<typeof templateSchema>;
 export type NetlistSpec = z.output<typeof netlistSchema>;

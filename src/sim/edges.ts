@@ -39,18 +39,10 @@ export class EdgeBuffer {
 
   private grow(): void {
     const cap = this.net.length * 2;
-    const net = new Int32Array(cap);
-    net.set(this.net);
-    this.net = net;
-    const time = new Float64Array(cap);
-    time.set(this.time);
-    this.time = time;
-    const rising = new Uint8Array(cap);
-    rising.set(this.rising);
-    this.rising = rising;
-    const transition = new Float64Array(cap);
-    transition.set(this.transition);
-    this.transition = transition;
+    this.net = grown(this.net, cap);
+    this.time = grown(this.time, cap);
+    this.rising = grown(this.rising, cap);
+    this.transition = grown(this.transition, cap);
   }
 }
 
@@ -65,4 +57,11 @@ export interface Edges {
   readonly rising: Uint8Array;
   /** Full-swing transition time, s. */
   readonly transition: Float64Array;
+}
+
+/** A copy of `old` in a new array of the same type and `length` elements. */
+function grown<T extends Int32Array | Float64Array | Uint8Array>(old: T, length: number): T {
+  const next = new (old.constructor as new (length: number) => T)(length);
+  next.set(old);
+  return next;
 }

@@ -23,9 +23,8 @@
  * latch and the output n device see more than a core device may stand, and no rating is checked.
  */
 import type { DeviceGeometry } from './cells.js';
-import { mosfet } from './cells.js';
 import type { DownShifterSizing } from './down-shifter-sizing.js';
-import type { ShifterRails } from './level-shifter.js';
+import { inputCopy, shifterMosfet, shifterNodes, sizingComment, type ShifterRails } from './level-shifter.js';
 import { spiceNumber } from './names.js';
 import { spiceComment } from './text.js';
 
@@ -42,24 +41,17 @@ export function downShifterLines(
 ): string[] {
   const { invert, delay: declared } = shifter;
   const { nModel: n, pModel: p } = geometry;
-  const node = (suffix: string) => `${id}_${suffix}`;
-  const [a, b, mid, set, x, y] = ['in', 'inb', 'mid', 'set', 'x', 'y'].map(node) as [string, string, string, string, string, string];
-  const ps = (value: number) => `${spiceNumber(value * 1e12)} ps`;
-  const m = (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) =>
-    mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
+  const [a, b, mid, set, x, y] = shifterNodes(id);
+  const m = shifterMosfet(id, geometry);
   const { vdd, low, high } = rails;
-  const slowest = Math.max(size.estimate.rise, size.estimate.fall);
   return [
     spiceComment(
       `${label}: cross-coupled level shifter down to a low level below ground${invert ? ', inverting' : ''} (input copied by an ideal source,` +
         ' complement inverter, skewed buffer on the set side, p pull-ups against a cross-coupled n latch on the low level,' +
         ' output inverter from the low to the high level; n devices on the low level in a deep-n-well p-well at the low level)',
     ),
-    spiceComment(
-      `${label}: sized for ${ps(size.estimate.rise)} rising, ${ps(size.estimate.fall)} falling, ${ps(size.estimate.transition)} transition at the card's nominal corner` +
-        (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : ''),
-    ),
-    invert ? `e${id} ${a} ${vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`,
+    sizingComment(label, size.estimate, declared),
+    inputCopy(id, a, vdd, input, invert),
     m('i1', b, a, '0', '0', n, size.inverterN),
     m('i2', b, a, vdd, vdd, p, 2 * size.inverterN),
     m('b1', mid, a, '0', '0', n, size.bufferN),

@@ -34,6 +34,36 @@ export interface ShifterRails {
   readonly high: string;
 }
 
+/** The internal nodes of shifter `id`: input copy, its complement, buffer middle, set drive, the two latch nodes. */
+export function shifterNodes(id: string): [string, string, string, string, string, string] {
+  return ['in', 'inb', 'mid', 'set', 'x', 'y'].map((suffix) => `${id}_${suffix}`) as [string, string, string, string, string, string];
+}
+
+/** A device writer for shifter `id`: `m${id}_${name}` with the card's geometry. */
+export function shifterMosfet(id: string, geometry: DeviceGeometry) {
+  return (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) =>
+    mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
+}
+
+/** The comment with what a shifter was sized for, and whether its declared delay (s) is faster than that. */
+export function sizingComment(
+  label: string,
+  estimate: { readonly rise: number; readonly fall: number; readonly transition: number },
+  declared: number,
+): string {
+  const ps = (value: number) => `${spiceNumber(value * 1e12)} ps`;
+  const slowest = Math.max(estimate.rise, estimate.fall);
+  return spiceComment(
+    `${label}: sized for ${ps(estimate.rise)} rising, ${ps(estimate.fall)} falling, ${ps(estimate.transition)} transition at the card's nominal corner` +
+      (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : ''),
+  );
+}
+
+/** The ideal source copying the gate net `input` (or its complement vdd - v) onto the shifter's input node `a`. */
+export function inputCopy(id: string, a: string, vdd: string, input: string, invert: boolean): string {
+  return invert ? `e${id} ${a} ${vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`;
+}
+
 /**
  * The lines of one shifter named `id` from deck node `input` to `output`: `shifter` is the design's
  * (inverting or not, its declared delay at the nominal corner, s), `label` names it in the comments.
@@ -50,22 +80,15 @@ export function shifterLines(
 ): string[] {
   const { invert, delay: declared } = shifter;
   const { nModel: n, pModel: p } = geometry;
-  const node = (suffix: string) => `${id}_${suffix}`;
-  const [a, b, mid, set, x, y] = ['in', 'inb', 'mid', 'set', 'x', 'y'].map(node) as [string, string, string, string, string, string];
-  const ps = (value: number) => `${spiceNumber(value * 1e12)} ps`;
-  const m = (name: string, d: string, g: string, s: string, bulk: string, model: string, w: number) =>
-    mosfet(`m${id}_${name}`, d, g, s, bulk, model, w, geometry);
-  const slowest = Math.max(size.estimate.rise, size.estimate.fall);
+  const [a, b, mid, set, x, y] = shifterNodes(id);
+  const m = shifterMosfet(id, geometry);
   return [
     spiceComment(
       `${label}: cross-coupled level shifter${invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,` +
         ' skewed buffer on the set side, n pull-downs against a cross-coupled p latch on the high level, output inverter from the low to the high level)',
     ),
-    spiceComment(
-      `${label}: sized for ${ps(size.estimate.rise)} rising, ${ps(size.estimate.fall)} falling, ${ps(size.estimate.transition)} transition at the card's nominal corner` +
-        (slowest > 1.05 * declared ? `; the declared ${ps(declared)} is faster than it can be sized` : ''),
-    ),
-    invert ? `e${id} ${a} ${rails.vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`,
+    sizingComment(label, size.estimate, declared),
+    inputCopy(id, a, rails.vdd, input, invert),
     m('i1', b, a, '0', '0', n, size.inverterN),
     m('i2', b, a, rails.vdd, rails.vdd, p, 2 * size.inverterN),
     m('b1', mid, a, '0', '0', n, size.bufferN),

@@ -1,5 +1,30 @@
 /** Formatting of SI numbers for people; only the output edge calls these. */
 
+/** The SI prefixes from giga to femto, largest first (micro written u): the one table every unit label is chosen from. */
+export const SI_PREFIXES: ReadonlyArray<readonly [number, string]> = [
+  [1e9, 'G'],
+  [1e6, 'M'],
+  [1e3, 'k'],
+  [1, ''],
+  [1e-3, 'm'],
+  [1e-6, 'u'],
+  [1e-9, 'n'],
+  [1e-12, 'p'],
+  [1e-15, 'f'],
+];
+
+/** `unit` with each prefix from `largest` down to `smallest` (scales of SI_PREFIXES): [[1e-9, 'ns'], [1e-12, 'ps']]. */
+export function prefixedUnits(unit: string, largest: number, smallest: number): ReadonlyArray<readonly [number, string]> {
+  return SI_PREFIXES.filter(([scale]) => scale <= largest && scale >= smallest).map(
+    ([scale, prefix]) => [scale, `${prefix}${unit}`] as const,
+  );
+}
+
+/** The prefixed unit for a magnitude: the largest of `units` (largest first) it reaches, else the smallest. */
+export function unitFor(magnitude: number, units: ReadonlyArray<readonly [number, string]>): readonly [number, string] {
+  return units.find(([scale]) => magnitude >= scale) ?? units[units.length - 1]!;
+}
+
 /** Formats a time with an engineering prefix chosen for the magnitude: 812 ps, 1.23 ns, 25.0 ns. */
 export function formatTime(seconds: number, digits = 3): string {
   return formatEngineering(seconds, 's', digits);
@@ -8,19 +33,8 @@ export function formatTime(seconds: number, digits = 3): string {
 export function formatEngineering(value: number, unit: string, digits = 3): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0) return `0 ${unit}`;
-  const steps: ReadonlyArray<[number, string]> = [
-    [1e9, 'G'],
-    [1e6, 'M'],
-    [1e3, 'k'],
-    [1, ''],
-    [1e-3, 'm'],
-    [1e-6, 'u'],
-    [1e-9, 'n'],
-    [1e-12, 'p'],
-    [1e-15, 'f'],
-  ];
   const magnitude = Math.abs(value);
-  for (const [scale, prefix] of steps) {
+  for (const [scale, prefix] of SI_PREFIXES) {
     if (magnitude >= scale * 0.9995) return `${trimNumber(value / scale, digits)} ${prefix}${unit}`;
   }
   return `${trimNumber(value / 1e-15, digits)} f${unit}`;
@@ -46,8 +60,18 @@ export function formatSignedTime(seconds: number | null, fallback = 'n/a'): stri
 
 /** A time for labels: whole ps below 10 ns (972 ps, 9999 ps), else ns with two decimals (14.10 ns). */
 export function formatPs(seconds: number): string {
-  if (Number.isFinite(seconds) && Math.abs(seconds) >= 9.9995e-9) return `${(seconds * 1e9).toFixed(2)} ns`;
+  if (Number.isFinite(seconds) && Math.abs(seconds) >= 9.9995e-9) return formatNs(seconds);
   return `${Math.round(seconds * 1e12)} ps`;
+}
+
+/** Nanoseconds with two decimals, bare for a table column: 14.10. */
+export function nsNumber(seconds: number): string {
+  return (seconds * 1e9).toFixed(2);
+}
+
+/** Nanoseconds with two decimals and the unit: 14.10 ns. */
+export function formatNs(seconds: number): string {
+  return `${nsNumber(seconds)} ns`;
 }
 
 /** A fraction as a percentage with `decimals` digits: 0.958 -> "95.8 %". */

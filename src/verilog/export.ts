@@ -9,6 +9,7 @@ import type { PrimitiveCell } from '../cells/library.js';
 import type { FixedDelays } from './fixed.js';
 import { verilogComment, verilogIdentifier, verilogString } from './identifiers.js';
 import { finite } from '../units/finite.js';
+import { prefixedUnits } from '../units/format.js';
 
 export interface Timescale {
   /** Unit of delay numbers, s (1e-9 for 1ns). */
@@ -23,14 +24,7 @@ const PRIMITIVE: Readonly<Record<PrimitiveCell, string>> = { INV: 'not', NAND2: 
 
 export function timescaleText(t: Timescale): string {
   const show = (s: number) => {
-    for (const [scale, unit] of [
-      [1, 's'],
-      [1e-3, 'ms'],
-      [1e-6, 'us'],
-      [1e-9, 'ns'],
-      [1e-12, 'ps'],
-      [1e-15, 'fs'],
-    ] as const) {
+    for (const [scale, unit] of prefixedUnits('s', 1, 1e-15)) {
       const n = Math.round(s / scale);
       if ([1, 10, 100].includes(n) && Math.abs(n * scale - s) < 1e-3 * s) return `${n}${unit}`;
     }

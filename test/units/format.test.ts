@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { formatPercent, formatSignedTime, percentDecimals } from '../../src/units/format.js';
+import {
+  SI_PREFIXES,
+  formatNs,
+  formatPercent,
+  formatSignedTime,
+  nsNumber,
+  percentDecimals,
+  prefixedUnits,
+  unitFor,
+} from '../../src/units/format.js';
 import { formatMargin } from '../../src/report/margin-format.js';
 import {
   formatPs,
@@ -83,5 +92,45 @@ describe('percentDecimals and formatPercent', () => {
     expect(percentDecimals([0.999999])).toBe(4);
     const d = percentDecimals([1, 0.9996]);
     expect([1, 0.9996].map((x) => formatPercent(x, d))).toEqual(['100.00 %', '99.96 %']);
+  });
+});
+
+describe('SI_PREFIXES and prefixedUnits', () => {
+  it('holds giga to femto, largest first, micro written u', () => {
+    expect(SI_PREFIXES.map(([, p]) => p).join('')).toBe('GMkmunpf');
+    expect(SI_PREFIXES.map(([s]) => s)).toEqual([1e9, 1e6, 1e3, 1, 1e-3, 1e-6, 1e-9, 1e-12, 1e-15]);
+  });
+
+  it('prefixedUnits gives the unit at each prefix in the range, both ends included', () => {
+    expect(prefixedUnits('s', 1, 1e-15)).toEqual([
+      [1, 's'],
+      [1e-3, 'ms'],
+      [1e-6, 'us'],
+      [1e-9, 'ns'],
+      [1e-12, 'ps'],
+      [1e-15, 'fs'],
+    ]);
+    expect(prefixedUnits('C', 1e-9, 1e-15)).toEqual([
+      [1e-9, 'nC'],
+      [1e-12, 'pC'],
+      [1e-15, 'fC'],
+    ]);
+  });
+
+  it('unitFor picks the largest unit the magnitude reaches, else the smallest (also for 0 and NaN)', () => {
+    const units = prefixedUnits('s', 1e-6, 1e-12);
+    expect(unitFor(2e-6, units)).toEqual([1e-6, 'us']);
+    expect(unitFor(1e-9, units)).toEqual([1e-9, 'ns']);
+    expect(unitFor(999e-12, units)).toEqual([1e-12, 'ps']);
+    expect(unitFor(0, units)).toEqual([1e-12, 'ps']);
+    expect(unitFor(Number.NaN, units)).toEqual([1e-12, 'ps']);
+  });
+});
+
+describe('formatNs and nsNumber', () => {
+  it('write nanoseconds with two decimals, with and without the unit', () => {
+    expect(nsNumber(14.104e-9)).toBe('14.10');
+    expect(formatNs(14.104e-9)).toBe('14.10 ns');
+    expect(formatNs(-2.5e-9)).toBe('-2.50 ns');
   });
 });

@@ -5,7 +5,7 @@ import { checkReport } from '../../report/check-report.js';
 import { checkHint } from '../../report/check-hint.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel } from '../load.js';
-import { checkOutput, inputFiles } from '../output.js';
+import { checkOutput, checkedInputs } from '../output.js';
 import { emitCornerReport } from '../corner-report-output.js';
 import { warnTo } from '../warn.js';
 import { defineCommand, type CommandOptions } from '../command.js';
@@ -31,8 +31,7 @@ export const checkCommand = defineCommand({
 export function runCheck(io: Io, designPath: string, options: CheckOptions): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   checkOutput(options.junit, inputs, '--junit');
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   const report = checkReport(resolved, evaluateAll(resolved));

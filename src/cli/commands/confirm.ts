@@ -5,7 +5,7 @@ import { renderConfirmText } from '../../report/confirm-text.js';
 import { CAUTIONS } from '../../report/cautions.js';
 import type { Io } from '../io.js';
 import { loadDesign, loadModel } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { checkOutput, emit, toJson, checkedInputs } from '../output.js';
 import { confirmCorners } from '../confirm-run.js';
 import { warnTo } from '../warn.js';
 import { verdictOf } from '../../report/verdict.js';
@@ -50,8 +50,7 @@ export const confirmCommand = defineCommand({
 export function runConfirm(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   checkOutput(options.junit, inputs, '--junit');
   const model = loadModel(card, cardDir, options, warnTo(io));
   const resolved = resolveDesign(design, card, model);

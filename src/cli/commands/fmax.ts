@@ -5,7 +5,7 @@ import { fmaxPasses, renderFmaxText } from '../../report/fmax-text.js';
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadResolved } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { emit, toJson, checkedInputs } from '../output.js';
 import { relativeNumber } from '../options.js';
 import { MAX_FMAX_RESOLUTION, MIN_FMAX_RESOLUTION } from '../run-limits.js';
 import { warnTo } from '../warn.js';
@@ -43,8 +43,7 @@ export const fmaxCommand = defineCommand({
 export function runFmax(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, resolved } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   const result = findFmax(resolved, { resolution: options.resolution });
   const ok = fmaxPasses(result);
   if (options.json) {

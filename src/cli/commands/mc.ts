@@ -1,4 +1,5 @@
 /** `phasegap mc DESIGN`: Monte Carlo mismatch on every corner, yield and sigma margins, in parallel threads. */
+import { MONTECARLO_DEFAULTS, montecarloSettings } from '../../schema/design.js';
 import { chunkPlan, McMerger, runChunk, type ChunkResult } from '../../analysis/montecarlo.js';
 import { CornerEvaluator } from '../../analysis/evaluate.js';
 import { checkReport } from '../../report/check-report.js';
@@ -7,7 +8,7 @@ import { mcReport, renderMcText } from '../../report/mc-report.js';
 import { drawMismatch, mismatchBuffers, mismatchSigmas } from '../../variation/mismatch.js';
 import type { Io } from '../io.js';
 import { loadResolved } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { checkOutput, emit, toJson, checkedInputs } from '../output.js';
 import { runParallel, type RunEnd } from '../parallel-run.js';
 import { progressBar } from '../progress.js';
 import { wholeNumberIn } from '../options.js';
@@ -25,10 +26,10 @@ const OPTIONS = {
   set: SET_OPTION,
   samples: parsedOption(
     '--samples <N>',
-    'dies to draw (default: montecarlo.samples, else 1000)',
+    `dies to draw (default: montecarlo.samples, else ${MONTECARLO_DEFAULTS.samples})`,
     wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' }),
   ),
-  seed: seedOption('random seed, a whole number (default: montecarlo.seed, else 1)'),
+  seed: seedOption(`random seed, a whole number (default: montecarlo.seed, else ${MONTECARLO_DEFAULTS.seed})`),
   workers: workersOption('threads (default: the number of cores); results do not depend on it'),
   replay: parsedOption(
     '--replay <INDEX>',
@@ -72,15 +73,14 @@ export async function runMc(io: Io, designPath: string, options: CommandOptions<
   const started = performance.now();
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   checkOutput(options.histogram, inputs, '--histogram');
   checkOutput(options.junit, inputs, '--junit');
   if (options.histogram !== undefined && options.out !== undefined && options.histogram === options.out) {
     throw inputError('option.invalid', ['--histogram'], options.histogram, 'is also the --out file; give the histogram its own file');
   }
-  const samples = options.samples ?? design.montecarlo?.samples ?? 1000;
-  const seed = options.seed ?? design.montecarlo?.seed ?? 1;
+  const samples = options.samples ?? montecarloSettings(design).samples;
+  const seed = options.seed ?? montecarloSettings(design).seed;
   const threads = options.workers;
   if (options.replay !== undefined) {
     const die = options.replay;

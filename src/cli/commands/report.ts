@@ -1,4 +1,5 @@
 /** `phasegap report DESIGN -o FILE.html`: the self-contained review page (or Markdown with SVGs beside it). */
+import { MONTECARLO_DEFAULTS, montecarloSettings } from '../../schema/design.js';
 import { basename, dirname, extname, join } from 'node:path';
 import { evaluateAll } from '../../analysis/evaluate.js';
 import { findFmax, type FmaxResult } from '../../analysis/fmax.js';
@@ -46,7 +47,7 @@ const OPTIONS = {
     wholeNumberIn({ min: 1, max: MAX_SAMPLES, noun: 'dies' }),
     { fallback: 0 },
   ),
-  seed: seedOption('Monte Carlo seed (default: montecarlo.seed, else 1)'),
+  seed: seedOption(`Monte Carlo seed (default: montecarlo.seed, else ${MONTECARLO_DEFAULTS.seed})`),
   out: outOption('the report'),
 } as const;
 
@@ -104,7 +105,7 @@ export async function runReport(io: Io, designPath: string, options: CommandOpti
   const targets = options.format === 'md' ? [out, ...Object.values(images).map((name) => join(folder, name))] : [out];
   for (const target of targets) checkOutput(target, inputs);
   const dies = options.mc;
-  const seed = options.seed ?? loaded.design.montecarlo?.seed ?? 1;
+  const seed = options.seed ?? montecarloSettings(loaded.design).seed;
   const results = evaluateAll(resolved);
   let fmax: FmaxResult | null = null;
   if (options.fmax) fmax = findFmax(resolved);

@@ -11,7 +11,7 @@ import { noteTo, warnTo } from '../warn.js';
 import { gatherProvenance } from '../provenance.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { spiceComment } from '../../spice/text.js';
-import { checkOutput, emit, inputFiles } from '../output.js';
+import { emit, checkedInputs } from '../output.js';
 import { shellCommand } from '../../report/shell-quote.js';
 import { defineCommand, textOption, type CommandOptions } from '../command.js';
 import { DESIGN_ARGUMENT, MODELS_OPTION, SET_OPTION, outOption } from '../common-options.js';
@@ -34,8 +34,7 @@ export const spiceCommand = defineCommand({
 export function runSpice(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   const cornerSpec = options.corner ?? 'worst';
   const resolved = resolveDesign(design, card, loadModel(card, cardDir, options, warnTo(io)));
   if (cornerSpec === 'all' || cornerSpec.includes(',')) {

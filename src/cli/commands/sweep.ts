@@ -8,7 +8,7 @@ import { csvColumnsJson, csvHeader, csvRow, jsonRow, unlistedNames } from '../..
 import { inputError } from '../../errors.js';
 import type { Io } from '../io.js';
 import { loadDesign } from '../load.js';
-import { checkOutput, inputFiles, streamOutput } from '../output.js';
+import { streamOutput, checkedInputs } from '../output.js';
 import { runParallel, type RunEnd } from '../parallel-run.js';
 import { progressBar } from '../progress.js';
 import { MAX_SWEEP_POINTS } from '../run-limits.js';
@@ -66,8 +66,7 @@ export async function runSweep(io: Io, designPath: string, options: CommandOptio
     );
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   const axes = options.vary.map((spec) => parseAxis(spec, MAX_SWEEP_POINTS));
   const total = checkGridSize(axes, MAX_SWEEP_POINTS);
   const threads = options.workers;

@@ -7,7 +7,7 @@ import type { ProcessCard } from '../../schema/process.js';
 import { checkSimulator } from '../../spice/runner.js';
 import type { Io } from '../io.js';
 import { loadResolved } from '../load.js';
-import { checkOutput, emit, inputFiles, toJson } from '../output.js';
+import { emit, toJson, checkedInputs } from '../output.js';
 import { wholeNumberIn } from '../options.js';
 import { MAX_TOP } from '../run-limits.js';
 import { confirmCorners } from '../confirm-run.js';
@@ -109,8 +109,7 @@ export function tuneSimulator(
 export function runTune(io: Io, designPath: string, options: TuneOptions): number {
   const loaded = loadResolved(designPath, options.set, options, warnTo(io), io.readStdin);
   const { design, card, resolved } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   const base = defaultSpace(design);
   const gen = design.generator;
   const earlyTap = gen.template === 'netlist' ? 0 : gen.earlyTap;

@@ -8,7 +8,7 @@ import type { Io } from '../io.js';
 import { gatherProvenance } from '../provenance.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { loadDesign, loadModel } from '../load.js';
-import { checkOutput, emit, inputFiles } from '../output.js';
+import { emit, checkedInputs } from '../output.js';
 import { wholeNumberIn } from '../options.js';
 import { MAX_TESTBENCH_PERIODS } from '../run-limits.js';
 import { noteTo, warnTo } from '../warn.js';
@@ -45,8 +45,7 @@ export function moduleName(designName: string): string {
 export function runVerilog(io: Io, designPath: string, options: CommandOptions<typeof OPTIONS>): number {
   const loaded = loadDesign(designPath, options.set, io.readStdin);
   const { design, card, cardDir } = loaded;
-  const inputs = inputFiles(loaded, options);
-  checkOutput(options.out, inputs);
+  const inputs = checkedInputs(loaded, options);
   const cornerSpec = options.corner ?? 'worst';
   if (cornerSpec === 'all' || cornerSpec.includes(','))
     throw inputError('option.invalid', ['--corner'], cornerSpec, 'must name one corner or worst');

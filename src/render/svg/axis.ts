@@ -4,6 +4,7 @@ import type { ScaleLinear } from 'd3-scale';
 import { GRID, MUTED, SIZE } from '../palette.js';
 import { round } from './canvas.js';
 import { drawText, textWidth } from './text.js';
+import { prefixedUnits } from '../../units/format.js';
 
 export interface Tick {
   /** Time, s. */
@@ -11,12 +12,7 @@ export interface Tick {
   readonly label: string;
 }
 
-const UNITS: ReadonlyArray<readonly [number, string]> = [
-  [1e-6, 'us'],
-  [1e-9, 'ns'],
-  [1e-12, 'ps'],
-  [1e-15, 'fs'],
-];
+const UNITS = prefixedUnits('s', 1e-6, 1e-15);
 
 /** Ticks of a time scale labelled in one unit chosen for the domain, with the decimals the step needs. */
 export function timeTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {

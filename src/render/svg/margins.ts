@@ -15,7 +15,7 @@ import { drawMarker } from './markers.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, fitText, textWidth } from './text.js';
 import { drawTitleBlock, type TitleInfo } from './title.js';
-import { formatSignedTimeShort } from '../../units/format.js';
+import { formatSignedTimeShort, prefixedUnits, unitFor } from '../../units/format.js';
 import { runTitle, type RunDrawingOptions } from './metadata.js';
 
 export interface MarginChartInput {
@@ -34,12 +34,15 @@ const TOP = 140;
 /** Width of the linear part of the axis around zero, s. */
 const LINEAR_PART = 10e-12;
 
+const TICK_TIME_UNITS = prefixedUnits('s', 1e-6, 1e-12);
+const CHARGE_UNITS = prefixedUnits('C', 1e-9, 1e-15);
+
 /** Signed time with a unit for axis ticks: +100 ps, -1 ns, 0. */
 export function marginTickLabel(seconds: number): string {
   if (seconds === 0) return '0';
   const sign = seconds > 0 ? '+' : '-';
   const a = Math.abs(seconds);
-  const [unit, name] = a >= 1e-6 ? [1e-6, 'us'] : a >= 1e-9 ? [1e-9, 'ns'] : [1e-12, 'ps'];
+  const [unit, name] = unitFor(a, TICK_TIME_UNITS);
   return `${sign}${Number((a / unit).toPrecision(3))} ${name}`;
 }
 
@@ -137,13 +140,13 @@ const FRACTION_AXIS: AxisUnit = {
 export function chargeTickLabel(coulombs: number): string {
   if (coulombs === 0) return '0';
   const a = Math.abs(coulombs);
-  const [unit, name] = a >= 1e-9 ? [1e-9, 'nC'] : a >= 1e-12 ? [1e-12, 'pC'] : [1e-15, 'fC'];
+  const [unit, name] = unitFor(a, CHARGE_UNITS);
   return `${coulombs > 0 ? '+' : '-'}${Number((a / unit).toPrecision(3))} ${name}`;
 }
 
 function signedCharge(coulombs: number): string {
   const a = Math.abs(coulombs);
-  const [unit, name] = a >= 1e-9 ? [1e-9, 'nC'] : a >= 1e-12 ? [1e-12, 'pC'] : [1e-15, 'fC'];
+  const [unit, name] = unitFor(a, CHARGE_UNITS);
   return `${coulombs < 0 ? '-' : '+'}${(a / unit).toFixed(2)} ${name}`;
 }
 
