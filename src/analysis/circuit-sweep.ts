@@ -144,7 +144,12 @@ export function circuitSweep(
   const points = picked.map(() => [] as SweepPoint[]);
   for (const factor of factors) {
     const frequency = f0 * factor;
-    const evaluator = new CornerEvaluator(atFrequency(resolved, frequency));
+    // A point reads the output, the efficiency and the checks: the other figures are left out.
+    const evaluator = new CornerEvaluator(atFrequency(resolved, frequency), {
+      borrowScratch: false,
+      warmStart: false,
+      circuit: 'checked-figures',
+    });
     picked.forEach((p, s) => {
       points[s]!.push(point(evaluator.evaluate(resolved.corners[p.index]!.corner), frequency));
     });

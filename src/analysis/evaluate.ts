@@ -12,8 +12,7 @@ import { appendSwitchChecks, type SwitchCheckSetup } from '../checks/switch-chec
 import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
-import { CircuitEvaluator, type CornerCircuit } from '../circuit/corner-circuit.js';
-import type { FigureScope } from '../circuit/figures.js';
+import { CircuitEvaluator, type CornerCircuit, type FigureChoice } from '../circuit/corner-circuit.js';
 import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
 export interface CornerResult {
@@ -38,7 +37,8 @@ export interface EvaluatorReuse {
   /**
    * Start each simulation from the previous one's steady state: for many runs of one corner with
    * small changes (Monte Carlo dies), never across corners. A warm evaluator also replays the
-   * previous steady period where that provably gives the simulation's answer.
+   * previous steady period where that provably gives the simulation's answer, and with checked
+   * circuit figures keeps the output's sign found for its first call.
    */
   readonly warmStart: boolean;
   /**
@@ -64,6 +64,14 @@ export class CornerEvaluator {
   /** Results valid until the next call: for loops that read each result at once (fmax probes). */
   static borrowingScratch(resolved: ResolvedDesign): CornerEvaluator {
     return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: false });
+  }
+
+  /**
+   * Borrowed scratch and only the circuit figures a requirement is checked on: for searches that
+   * read each result's checks at once, corner after corner (fmax probes).
+   */
+  static forProbes(resolved: ResolvedDesign): CornerEvaluator {
+    return new CornerEvaluator(resolved, { borrowScratch: true, warmStart: false, circuit: 'checked-figures' });
   }
 
   /** Borrowed scratch and warm starts: for the dies of one corner (Monte Carlo). */
@@ -101,7 +109,7 @@ export class CornerEvaluator {
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
-    this.circuitScope = reuse.circuit === 'checked-figures' ? 'checked' : 'all';
+    this.circuitFigures = { scope: reuse.circuit === 'checked-figures' ? 'checked' : 'all', sameCorner: warm };
     this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
     this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
@@ -109,7 +117,7 @@ export class CornerEvaluator {
   /** The circuit the switches serve, prepared once; null without a circuit section. */
   private readonly circuit: CircuitEvaluator | null;
   private readonly circuitNames: CircuitCheckNames | null;
-  private readonly circuitScope: FigureScope;
+  private readonly circuitFigures: FigureChoice;
 
   /** The switch bias checks, prepared once per corner. */
   private readonly bias: BiasChecker;
@@ -145,7 +153,13 @@ export class CornerEvaluator {
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {
-        circuit = this.circuit.evaluate(switches, cycles, devices, { devices: switchDevices, dvth: mismatch?.switches }, this.circuitScope);
+        circuit = this.circuit.evaluate(
+          switches,
+          cycles,
+          devices,
+          { devices: switchDevices, dvth: mismatch?.switches },
+          this.circuitFigures,
+        );
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
       }
     }
@@ -168,8 +182,9 @@ export function evaluateCorner(resolved: ResolvedDesign, corner: Corner, mismatc
   return new CornerEvaluator(resolved).evaluate(corner, mismatch);
 }
 
-export function evaluateAll(resolved: ResolvedDesign): CornerResult[] {
-  const evaluator = new CornerEvaluator(resolved);
+/** Every corner of the design; `reuse` as for `CornerEvaluator` (by default nothing a result holds is reused). */
+export function evaluateAll(resolved: ResolvedDesign, reuse?: EvaluatorReuse): CornerResult[] {
+  const evaluator = new CornerEvaluator(resolved, reuse);
   return resolved.corners.map(({ corner }) => evaluator.evaluate(corner));
 }
 

@@ -48,7 +48,7 @@ export function findFmax(resolved: ResolvedDesign, options: FmaxOptions = {}): F
   let evaluations = 0;
   const trial = (f: number) => {
     const at = atFrequency(resolved, f);
-    const evaluator = CornerEvaluator.borrowingScratch(at);
+    const evaluator = CornerEvaluator.forProbes(at);
     let pass = true;
     let worst: ReturnType<typeof limitingCheck> = null;
     for (const { corner } of at.corners) {

@@ -63,12 +63,18 @@ export function generatorEnergy(
   return energy;
 }
 
+/** Which figures a call computes, and whether every call of the evaluator is the same corner (Monte Carlo dies). */
+export interface FigureChoice {
+  readonly scope: FigureScope;
+  readonly sameCorner: boolean;
+}
+
 export class CircuitEvaluator {
   readonly network: CircuitNetwork;
   /**
-   * The output's sign found for the first call in scope 'checked' and kept for the rest: an
-   * evaluator in that scope serves the Monte Carlo dies of one corner, whose mismatch cannot turn
-   * a pump's output around; it saves a 20-period run per die.
+   * The output's sign found for the first call in scope 'checked' with `sameCorner` and kept for
+   * the rest: such an evaluator serves the Monte Carlo dies of one corner, whose mismatch cannot
+   * turn a pump's output around; it saves a 20-period run per die.
    */
   private checkedSign: 1 | -1 | undefined;
 
@@ -84,30 +90,32 @@ export class CircuitEvaluator {
 
   /**
    * `drive` sets the switches' on-resistance (the devices R_on is calibrated on, mismatch); by
-   * default `devices`. `scope` 'checked' leaves out the figures no requirement is checked on.
+   * default `devices`. `figures.scope` 'checked' leaves out the figures no requirement is checked on.
    */
   evaluate(
     conduction: readonly SwitchConduction[],
     cycles: CycleIndex,
     devices: CornerDevices,
     drive: SwitchDrive = { devices },
-    scope: FigureScope = 'all',
+    figures: FigureChoice = { scope: 'all', sameCorner: false },
   ): CornerCircuit {
     const net = this.network;
     const model = cornerModel(net, this.plans, conduction, cycles, devices, this.period, drive);
-    if (scope === 'checked' && this.checkedSign === undefined) this.checkedSign = loadSign(model, net.load);
-    const figures = circuitFigures(
+    const { scope } = figures;
+    const keepSign = scope === 'checked' && figures.sameCorner;
+    if (keepSign && this.checkedSign === undefined) this.checkedSign = loadSign(model, net.load);
+    const computed = circuitFigures(
       model,
       net.load,
       generatorEnergy(this.netLoads, this.plans, devices, cycles),
       net.spec.startupCycles,
-      scope === 'checked' ? { scope, sign: this.checkedSign } : { scope },
+      keepSign ? { scope, sign: this.checkedSign } : { scope },
     );
     const sameLoad = net.lightLoad.current === net.load.current && net.lightLoad.conductance === net.load.conductance;
-    const sign = figures.output < 0 ? -1 : 1;
+    const sign = computed.output < 0 ? -1 : 1;
     const bound = sign > 0 ? net.spec.requirements.output?.max : net.spec.requirements.output?.min;
     const needLight = !sameLoad && bound !== undefined;
-    const lightOutput = needLight ? solve(withLoad(model, net.lightLoad, sign)).trace.outputMean : figures.output;
-    return { ...figures, lightOutput, nodes: net.nodes, start: model.start };
+    const lightOutput = needLight ? solve(withLoad(model, net.lightLoad, sign)).trace.outputMean : computed.output;
+    return { ...computed, lightOutput, nodes: net.nodes, start: model.start };
   }
 }

@@ -79,8 +79,8 @@ export function scaleCapacitance(model: CircuitModel, k: number): CircuitModel {
 export type { Solved };
 
 /** The steady state, each switch's on-resistance following its overdrive where the model gives it (overdrive.ts). */
-export function solve(model: CircuitModel): Solved {
-  return solveDriven(model);
+export function solve(model: CircuitModel, near?: SteadyState): Solved {
+  return solveDriven(model, near);
 }
 
 /**
@@ -88,10 +88,16 @@ export function solve(model: CircuitModel): Solved {
  * over the change of load current (a no-load solve of a diode pump has no unique steady state:
  * its diodes rest exactly at their drop). Also the output extrapolated to no load, V.
  */
-function impedance(model: CircuitModel, load: CircuitLoad, sign: number, full?: PeriodTrace): { r: number | null; open: number } {
+function impedance(
+  model: CircuitModel,
+  load: CircuitLoad,
+  sign: number,
+  full?: PeriodTrace,
+  near?: SteadyState,
+): { r: number | null; open: number } {
   const period = periodOf(model);
-  const heavy = full ?? solve(withLoad(model, load, sign)).trace;
-  const light = solve(withLoad(model, { current: load.current / 2, conductance: load.conductance / 2 }, sign)).trace;
+  const heavy = full ?? solve(withLoad(model, load, sign), near).trace;
+  const light = solve(withLoad(model, { current: load.current / 2, conductance: load.conductance / 2 }, sign), near).trace;
   const di = (heavy.loadCharge - light.loadCharge) / period;
   if (di === 0) return { r: null, open: heavy.outputMean };
   const r = (light.outputMean - heavy.outputMean) / di;
@@ -176,7 +182,7 @@ export function circuitFigures(
     // without one): grown capacitors (bottom plates too) move the node voltages the overdrive would be evaluated at.
     fastLimit:
       hasLoad && all && loaded.state.method !== 'none'
-        ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign).r
+        ? impedance(scaleCapacitance(fixedConductances(loaded.solver.model), ASYMPTOTE), load, sign, undefined, loaded.state).r
         : null,
     inputPower,
     outputPower,

@@ -87,10 +87,11 @@ function withConductances(model: CircuitModel, g: readonly Float64Array[]): Circ
   return { ...model, intervals: model.intervals.map((iv, i) => ({ duration: iv.duration, on: iv.on, g: g[i]! })) };
 }
 
-export function solveDriven(model: CircuitModel): Solved {
+/** `near`: a steady state of the same network with other element values, tried first (period-solver.ts). */
+export function solveDriven(model: CircuitModel, near?: Pick<SteadyState, 'x0' | 'segments'>): Solved {
   const driven = hasDrive(model);
   const charged = hasGateCharge(model);
-  const options = driven ? { maxPeriods: DRIVEN_PERIODS } : {};
+  const options = { ...(driven ? { maxPeriods: DRIVEN_PERIODS } : {}), near };
   let current = model;
   for (let round = 1; ; round++) {
     const solver = new PeriodSolver(current);

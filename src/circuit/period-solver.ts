@@ -236,8 +236,20 @@ export class PeriodSolver {
     for (let k = 0; k < this.substeps; k++) this.step(this.map(k, this.refine(k, x, segments[k]!)), x);
   }
 
-  /** Where the direct solve fails, periods are run until they settle, at most `maxPeriods`. */
-  steadyState(options: { maxPeriods?: number } = {}): SteadyState {
+  /**
+   * Where the direct solve fails, periods are run until they settle, at most `maxPeriods`. `near`,
+   * a steady state of the same network with other element values (the same substeps), is tried
+   * first: its segments and voltages.
+   */
+  steadyState(options: { maxPeriods?: number; near?: Pick<SteadyState, 'x0' | 'segments'> } = {}): SteadyState {
+    const near = options.near;
+    if (near && this.pwl > 0 && near.segments.length === this.substeps) {
+      const seeded = this.iterate(
+        near.segments.map((s) => Uint8Array.from(s)),
+        Float64Array.from(near.x0),
+      );
+      if (seeded.method === 'direct') return seeded;
+    }
     const off = (): Uint8Array[] => Array.from({ length: this.substeps }, () => new Uint8Array(this.pwl));
     const first = this.iterate(off(), new Float64Array(this.n));
     if (first.method === 'direct' || this.pwl === 0) return first;

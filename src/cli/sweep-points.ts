@@ -49,6 +49,9 @@ function prepare(setup: SweepSetup): Prepared {
   return p;
 }
 
+/** A grid point reports checks only: the circuit figures no requirement is checked on are left out. */
+const POINT_REUSE = { borrowScratch: false, warmStart: false, circuit: 'checked-figures' } as const;
+
 const isCornerAxis = (path: string) => (CORNER_AXES as readonly string[]).includes(path);
 
 function resolveFor(setup: SweepSetup, p: Prepared, sets: readonly string[]): ResolvedDesign {
@@ -85,10 +88,10 @@ export function sweepPoint(setup: SweepSetup, index: number): SweepRow {
     const designSets = sets.filter((_, i) => !isCornerAxis(setup.axes[i]!.path));
     const base = resolveFor(setup, p, designSets);
     const cornerAxes = setup.axes.map((a, i) => ({ a, v: values[i]! })).filter(({ a }) => isCornerAxis(a.path));
-    if (cornerAxes.length === 0) return summarizePoint(index, values, evaluateAll(base));
+    if (cornerAxes.length === 0) return summarizePoint(index, values, evaluateAll(base, POINT_REUSE));
     const spec = { ...rawCorners(p.raw), ...Object.fromEntries(cornerAxes.map(({ a, v }) => [a.path, [v]])) };
     const corners = expandCorners(parseWith(cornersSchema, spec, ['corners']), base.card, base.design.clock.duty);
-    return summarizePoint(index, values, evaluateAll({ ...base, corners }));
+    return summarizePoint(index, values, evaluateAll({ ...base, corners }, POINT_REUSE));
   } catch (error) {
     if (!(error instanceof InputError)) throw error;
     const where = setup.axes.map((a, i) => `${a.path}=${values[i]}`).join(', ');

@@ -82,6 +82,10 @@ describe('confirmation', () => {
 });
 
 describe('tuneChains with a simulator', () => {
+  // The demo's extreme corners only (fast-cold has its least dead time, slow-hot its most): the
+  // search and its confirmation do not need the 37 corners between them.
+  const extremes = ['corners.process=[ff, ss]', 'corners.vdd=[1.62V, 1.98V]', 'corners.temperature=[-40, 125]'];
+
   /**
    * A simulator that measures every dead time `short` below the model (the direction ngspice
    * differs in on the shipped cards); pairs as the model has them.
@@ -107,7 +111,7 @@ describe('tuneChains with a simulator', () => {
     });
 
   it("searches a proposal again with the simulator's shortfall added to its headroom, so the simulator then finds it met", () => {
-    const { design: d, card } = loadDesign(design('doubler'));
+    const { design: d, card } = loadDesign(design('doubler'), extremes);
     const space = { ...defaultSpace(d), stages: [2], stageSizes: [1], tapers: [], feedbackTaps: [] };
     const plain = tuneChains(d, card, undefined, space).proposals[0]!;
     const result = tuneChains(d, card, undefined, space, { simulate: slower(100 * ps), confirmTop: 1 });
@@ -122,7 +126,7 @@ describe('tuneChains with a simulator', () => {
   });
 
   it('leaves the proposals unconfirmed when the simulator cannot run, and confirms none without one', () => {
-    const { design: d, card } = loadDesign(design('doubler'));
+    const { design: d, card } = loadDesign(design('doubler'), extremes);
     const space = { ...defaultSpace(d), stages: [2], stageSizes: [1], tapers: [], feedbackTaps: [] };
     const none = tuneChains(d, card, undefined, space, { simulate: () => null });
     expect(none.proposals[0]!.confirmation).toBeNull();

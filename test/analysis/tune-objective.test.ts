@@ -8,10 +8,13 @@ import { loadDesign } from '../../src/cli/load.js';
 import { design } from '../helpers.js';
 
 describe('usefulConduction', () => {
+  // The demo's 45 corners, evaluated once for both tests.
+  const { design: d, card } = loadDesign(design('doubler'));
+  const results = evaluateAll(resolveDesign(d, card));
+
   it('is the narrowest switch on-window at the corner, shorter than either phase width', () => {
-    const { design: d, card } = loadDesign(design('doubler'));
     const period = 1 / d.clock.frequency;
-    for (const r of evaluateAll(resolveDesign(d, card))) {
+    for (const r of results) {
       if (!r.measurement.ok) throw new Error('settles');
       const windows = r.switches.map((s) => wrapTime(s.offEarliest - s.onLatest, period));
       const t = usefulConduction(r, period);
@@ -23,8 +26,7 @@ describe('usefulConduction', () => {
   });
 
   it('takes its least over the corners at the slow corner, where the dead time is largest', () => {
-    const { design: d, card } = loadDesign(design('doubler'));
-    expect(leastConduction(evaluateAll(resolveDesign(d, card)), 1 / d.clock.frequency).corner).toBe('ss/1.62V/125C');
+    expect(leastConduction(results, 1 / d.clock.frequency).corner).toBe('ss/1.62V/125C');
   });
 });
 
@@ -46,10 +48,14 @@ describe('objectiveOf and score', () => {
   });
 
   it('a weighted objective that values margin ranks a chain with more margin first', () => {
+    // The demo's extreme corners only (fast-cold, slow-hot and the supply ends): the ranking needs no more.
     const { design: d, card } = loadDesign(design('doubler'), [
       'tune.objective=weighted',
       'tune.weights.conduction=0',
       'tune.weights.margin=1',
+      'corners.process=[ff, ss]',
+      'corners.vdd=[1.62V, 1.98V]',
+      'corners.temperature=[-40, 125]',
     ]);
     const space = { ...defaultSpace(d), stages: [2, 4, 6], stageSizes: [1], headroom: 0, tapers: [], feedbackTaps: [] };
     const r = tuneChains(d, card, undefined, space, { top: 3 });

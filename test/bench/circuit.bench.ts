@@ -3,10 +3,11 @@
  * steady-state solve at tt/1.8V/27C and of the 45 corners' solves (the corner models built from
  * each corner's conduction instants beforehand; each solve re-evaluates the switches' R_on at the
  * node voltages until it agrees), and of the full figures per corner. Prints its figures; run
- * with `npm run bench`.
+ * with `npm run bench`. Then the check of every corner of the diode pump (dickson-pump.yaml) and its fmax.
  */
 import { fileURLToPath } from 'node:url';
 import { CornerEvaluator } from '../../src/analysis/evaluate.js';
+import { findFmax } from '../../src/analysis/fmax.js';
 import { loadResolved } from '../../src/cli/load.js';
 import { CycleIndex } from '../../src/measure/phases.js';
 import { devicesAtCorner } from '../../src/process/device.js';
@@ -64,4 +65,24 @@ console.log(
 );
 console.log(
   `circuit: check of all ${models.length} corners with every figure (timing, steady states, impedance asymptotes, start-up): ${figuresMs.toFixed(0)} ms (first run, JIT cold)`,
+);
+
+// The diode pump: its fast-switching limit (capacitors x1000) starts from the loaded steady state,
+// and fmax probes solve only the figures a requirement checks.
+const dickson = fileURLToPath(new URL('../../../fixtures/designs/dickson-pump.yaml', import.meta.url));
+const pump = loadResolved(dickson, [], {}, () => {}).resolved;
+const dicksonEvaluator = new CornerEvaluator(pump);
+let dicksonMs = performance.now();
+for (const { corner } of pump.corners) dicksonEvaluator.evaluate(corner);
+dicksonMs = performance.now() - dicksonMs;
+console.log(
+  `circuit: check of all ${pump.corners.length} corners of ${dickson.split('/').pop()} with every figure: ${dicksonMs.toFixed(0)} ms (first run, JIT cold)`,
+);
+const fmaxCpu = process.cpuUsage();
+const fmaxStart = performance.now();
+const found = findFmax(pump);
+const fmaxMs = performance.now() - fmaxStart;
+const fmaxUsed = process.cpuUsage(fmaxCpu);
+console.log(
+  `circuit: fmax of ${dickson.split('/').pop()}: ${fmaxMs.toFixed(0)} ms for ${found.evaluations} corner evaluations (${((fmaxUsed.user + fmaxUsed.system) / 1000).toFixed(0)} ms of CPU)`,
 );

@@ -90,3 +90,24 @@ describe('phasegap mc seeds, threads, timings and replay', () => {
     expect(bad.stderr).toContain('--samples');
   });
 });
+
+describe('phasegap mc on a design with a circuit', () => {
+  const oneCorner = ['--set', 'corners.process=[tt]', '--set', 'corners.vdd=[1.8V]', '--set', 'corners.temperature=[27]'];
+  const args = ['mc', design('doubler-pump'), '--samples', '12', '--workers', '1', ...oneCorner];
+
+  it('checks the circuit requirements on every die and picks the worst die by timing margin, not by a passing charge or efficiency margin', async () => {
+    const full = JSON.parse((await cliAsync(...args, '--json')).stdout);
+    const timingOnly = JSON.parse((await cliAsync(...args, '--json', '--skip-circuit')).stdout);
+    const names = full.corners[0].quantities.map((q: { kind: string }) => q.kind);
+    expect(names).toEqual(expect.arrayContaining(['output-min', 'ripple-max', 'efficiency-min', 'lost-charge-max']));
+    expect(full.run.parts.map((p: { key: string }) => p.key)).not.toContain('circuit');
+    expect(timingOnly.run.parts.map((p: { key: string }) => p.key)).toContain('circuit');
+    expect(full.corners[0].worstSample.index).toBe(timingOnly.corners[0].worstSample.index);
+  });
+
+  it('says in the verdict that --skip-circuit left the circuit requirements out of the yield', async () => {
+    const run = await cliAsync(...args, '--skip-circuit');
+    expect(run.code).toBe(0);
+    expect(run.stdout).toContain('not run here: corner checks, simulator agreement, circuit requirements on the dies');
+  });
+});

@@ -7,9 +7,11 @@ import { renderTimingSvg } from '../../src/render/svg/timing.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
-/** One corner of a demo design drawn, with that corner's results. */
+/** One corner of a demo design drawn, with that corner's results (the design narrowed to that corner). */
 function drawCorner(name: string, corner: string, overrides: string[] = []) {
-  const { design: d, card } = loadDesign(design(name), overrides);
+  const [process, vdd, temperature] = corner.split('/') as [string, string, string];
+  const only = [`corners.process=[${process}]`, `corners.vdd=[${vdd}]`, `corners.temperature=[${temperature.replace('C', '')}]`];
+  const { design: d, card } = loadDesign(design(name), [...only, ...overrides]);
   const resolved = resolveDesign(d, card);
   const results = evaluateAll(resolved);
   const index = results.findIndex((r) => r.corner.name === corner);

@@ -6,10 +6,13 @@ import { loadDesign } from '../../src/cli/load.js';
 import { csvColumnsJson, csvHeader, csvRow } from '../../src/report/sweep-format.js';
 import { design } from '../helpers.js';
 
+/** As a sweep grid point is evaluated (src/cli/sweep-points.ts): only the circuit figures a requirement checks. */
+const POINT = { borrowScratch: false, warmStart: false, circuit: 'checked-figures' } as const;
+
 function row(name: string) {
   const { design: d, card } = loadDesign(design(name), ['corners.process=[tt]', 'corners.vdd=[1.8V]', 'corners.temperature=[27]']);
   const resolved = resolveDesign(d, card);
-  return { r: summarizePoint(0, [20e6], evaluateAll(resolved)), columns: sweepColumns(resolved) };
+  return { r: summarizePoint(0, [20e6], evaluateAll(resolved, POINT)), columns: sweepColumns(resolved) };
 }
 
 describe('csvHeader and csvRow', () => {
@@ -76,7 +79,7 @@ describe('csvHeader and csvRow with a circuit', () => {
       'circuit.requirements.efficiency.min=0.99',
     ]);
     const resolved = resolveDesign(d, card);
-    const r = summarizePoint(0, [20e6], evaluateAll(resolved));
+    const r = summarizePoint(0, [20e6], evaluateAll(resolved, POINT));
     const columns = sweepColumns(resolved);
     const header = csvHeader(axes, columns).trim().split(',');
     const cells = csvRow(r, columns).trim().split(',');
