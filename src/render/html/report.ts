@@ -27,6 +27,7 @@ import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { circuitSectionHtml } from './circuit-section.js';
+import { circuitConfirmHtml } from './circuit-confirm.js';
 
 function table(
   head: readonly string[],
@@ -179,6 +180,7 @@ ${
 <p>${h(c.text)}</p>
 ${table(c.quantities.head, c.quantities.rows, new Set([2, 3, 4]))}
 ${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}
+${c.circuit.map(circuitConfirmHtml).join('\n')}
 </section>`
       )(confirmTables(m.confirm, r.model))
     : ''
