@@ -179,8 +179,7 @@ ${
 <h2>Transistor-level confirmation (${h(m.confirm!.simulator)})</h2>
 <p>${h(c.text)}</p>
 ${table(c.quantities.head, c.quantities.rows, new Set([2, 3, 4]))}
-${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}
-${c.circuit.map(circuitConfirmHtml).join('\n')}
+${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}${c.circuit.map((t) => `\n${circuitConfirmHtml(t)}`).join('')}
 </section>`
       )(confirmTables(m.confirm, r.model))
     : ''
