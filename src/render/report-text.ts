@@ -7,6 +7,7 @@ import type { ConfirmSection, ReportModel } from './report-model.js';
 import { worstDifference } from '../report/confirm-report.js';
 import { breakBeforeMakeCells, percent, quantityCells } from '../report/confirm-text.js';
 import type { VerdictPart } from '../report/verdict.js';
+import { circuitConfirmTables } from './circuit-confirm.js';
 import { GLYPH } from './palette.js';
 import { candidateCells, loadText, type TuneCandidateReport, type TuneReport } from '../report/tune-report.js';
 
@@ -14,7 +15,7 @@ export function signedTime(seconds: number): string {
   return formatSignedTime(seconds);
 }
 
-/** The ngspice comparison as two tables (quantities, then break-before-make) and one sentence. */
+/** The ngspice comparison as tables (quantities, break-before-make, the circuit per corner) and one sentence. */
 export function confirmTables(c: ConfirmSection, model: string) {
   const quantities = c.comparisons.flatMap((corner) =>
     corner.quantities.map((q) => ({ cells: [...quantityCells(corner.corner, q), q.pass ? 'within' : 'OVER'], fail: !q.pass })),
@@ -29,16 +30,19 @@ export function confirmTables(c: ConfirmSection, model: string) {
   const alike = pairs.filter((p) => !p.fail).length;
   const worst = worstDifference(c.comparisons);
   const n = c.comparisons.length;
+  const circuit = circuitConfirmTables(c.comparisons, c.simulator);
   const text =
     `The ${model} model against ${c.simulator} at ${n} corner${n === 1 ? '' : 's'}: ` +
     `dead times, gaps and widths within ${(c.tolerance * 100).toFixed(1)} % at ${within} of ${n}` +
     `${pairs.length > 0 ? `, break-before-make verdicts alike for ${alike} of ${pairs.length} pairs` : ''}` +
+    `${circuit.length > 0 ? `, circuit figures within tolerance at ${circuit.filter((t) => t.pass).length} of ${circuit.length}` : ''}` +
     `${worst ? `; largest difference ${percent(worst.relativeError)} (${worst.quantity} at ${worst.corner})` : ''}. ` +
     "The decks use the invented device models of the process card; sign-off needs the foundry's.";
   return {
     text,
     quantities: { head: ['corner', 'quantity', 'model', c.simulator, 'difference', 'verdict'], rows: quantities },
     pairs: { head: ['corner', 'break-before-make', 'model margin', `${c.simulator} margin`, 'verdict'], rows: pairs },
+    circuit,
   };
 }
 

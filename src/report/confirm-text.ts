@@ -1,7 +1,14 @@
 /** The side-by-side table of `phasegap confirm`. */
 import { formatEngineering, formatSignedTime, formatTime } from '../units/format.js';
 import { left, right, renderTable, type Column } from './text-table.js';
-import type { BreakBeforeMakeComparison, CircuitFigureComparison, CornerComparison, QuantityComparison } from './confirm-report.js';
+import type {
+  BreakBeforeMakeComparison,
+  CircuitComparison,
+  CircuitFigureComparison,
+  CircuitPowers,
+  CornerComparison,
+  QuantityComparison,
+} from './confirm-report.js';
 import { RON_TOLERANCE, worstDifference } from './confirm-report.js';
 
 /** Ohms with three significant figures: 119 ohm, 1.23 kohm. */
@@ -108,33 +115,46 @@ export function formatCircuitFigure(f: Pick<CircuitFigureComparison, 'unit'>, v:
 function circuitLines(s: ConfirmSummary): string[] {
   const corners = s.corners.filter((c) => c.circuit);
   if (corners.length === 0) return [];
-  const rows = corners.flatMap((c) =>
-    c.circuit!.figures.map((f) => [
-      c.corner,
-      f.figure,
-      formatCircuitFigure(f, f.model),
-      formatCircuitFigure(f, f.simulator),
-      f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`,
-      f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER',
-    ]),
-  );
+  const rows = corners.flatMap((c) => c.circuit!.figures.map((f) => [...circuitFigureCells(c.corner, f), circuitFigureVerdict(f)]));
   const out = [
     'circuit at periodic steady state (output within 2 % of VDD, ripple and efficiency within 10 %; lost charge shown, not judged):',
     '',
   ];
   out.push(renderTable(comparisonColumns('figure', s.simulator), rows), '');
-  for (const c of corners) {
-    const k = c.circuit!;
-    const drift = k.drift === null ? 'not measured' : `${formatEngineering(k.drift, 'V')} per period`;
-    const power = (p: { input: number; generator: number; output: number }) =>
-      `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
-    out.push(
-      `${c.corner}: ${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});` +
-        ` model ${power(k.power.model)}; ${s.simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`,
-    );
-  }
+  for (const c of corners) out.push(`${c.corner}: ${circuitRunText(c.circuit!, s.simulator)}`);
   out.push('');
   return out;
+}
+
+/** A circuit figure's difference: "+0.1 % of VDD" for the output, "-0.4 %" for the others, "-" when not judged. */
+function circuitDifference(f: CircuitFigureComparison): string {
+  return f.difference === null ? '-' : `${percent(f.difference)}${f.figure === 'output' ? ' of VDD' : ''}`;
+}
+
+/** A circuit figure's cells before its verdict: corner, figure, model, simulator, difference. */
+export function circuitFigureCells(corner: string, f: CircuitFigureComparison): string[] {
+  return [corner, f.figure, formatCircuitFigure(f, f.model), formatCircuitFigure(f, f.simulator), circuitDifference(f)];
+}
+
+/** A circuit figure's verdict: within or OVER its tolerance, or shown when it is not judged. */
+export function circuitFigureVerdict(f: CircuitFigureComparison): string {
+  return f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER';
+}
+
+/** The largest allowed difference in words: "±2.0 % of VDD", "±10.0 %", or "not judged". */
+export function circuitFigureTolerance(f: CircuitFigureComparison): string {
+  return f.tolerance === null ? 'not judged' : `±${(f.tolerance * 100).toFixed(1)} %${f.figure === 'output' ? ' of VDD' : ''}`;
+}
+
+/** How the circuit's simulation ran: periods, whether it settled, and the powers of the model and the simulator. */
+export function circuitRunText(k: CircuitComparison, simulator: string): string {
+  const drift = k.drift === null ? 'not measured' : `${formatEngineering(k.drift, 'V')} per period`;
+  const power = (p: CircuitPowers) =>
+    `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
+  return (
+    `${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});` +
+    ` model ${power(k.power.model)}; ${simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`
+  );
 }
 
 /** Columns of a model-against-simulator table whose rows carry a difference judged against a tolerance. */

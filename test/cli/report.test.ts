@@ -202,6 +202,55 @@ describe('phasegap report', () => {
     );
   });
 
+  it("shows doubler-pump's circuit against ngspice (Debian package ngspice) with confirm --json's numbers for the same corner", async () => {
+    const corner = 'tt/1.8V/27C';
+    const run = await cliAsync('report', design('doubler-pump'), '--no-fmax', '--no-tune', '--confirm', corner, '-o', '-');
+    const confirm = cli('confirm', design('doubler-pump'), '--corners', corner, '--json');
+    const json = JSON.parse(confirm.stdout);
+    const figures: Array<{
+      figure: string;
+      model: number;
+      simulator: number | null;
+      difference: number | null;
+      tolerance: number | null;
+      pass: boolean;
+    }> = json.corners[0].circuit.figures;
+    expect(figures.map((f) => f.figure)).toEqual(['output', 'ripple', 'efficiency', 'lost charge']);
+    const section = run.stdout.slice(run.stdout.indexOf('<section id="confirm">')).split('</section>')[0]!;
+    expect(section).toContain(`<h3>Circuit against ${json.simulator} at ${corner}</h3>`);
+    const table = section.slice(section.indexOf(`<table class="circuit-confirm" data-corner="${corner}"`)).split('</table>')[0]!;
+    const si = (v: string) => (v === '' ? null : Number(v));
+    const rows = [
+      ...table.matchAll(
+        /<tr[^>]* data-figure="([^"]+)" data-model="([^"]*)" data-simulator="([^"]*)" data-difference="([^"]*)" data-tolerance="([^"]*)">(.*?)<\/tr>/g,
+      ),
+    ].map((m) => ({
+      figure: m[1],
+      model: si(m[2]!),
+      simulator: si(m[3]!),
+      difference: si(m[4]!),
+      tolerance: si(m[5]!),
+      verdict: /verdict-cell">([^<]+)</.exec(m[6]!)![1],
+    }));
+    // Both runs write the same decks, and ngspice gives the same numbers for the same deck.
+    expect(rows).toEqual(
+      figures.map((f) => ({
+        figure: f.figure,
+        model: f.model,
+        simulator: f.simulator,
+        difference: f.difference,
+        tolerance: f.tolerance,
+        verdict: f.tolerance === null ? 'shown' : f.pass ? 'within' : 'OVER',
+      })),
+    );
+    // The page's simulator part is confirm's own.
+    const part = json.run.parts.find((p: { key: string }) => p.key === 'simulator');
+    expect(run.stdout).toContain(
+      `<li data-part="simulator agreement" data-verdict="${part.verdict}">simulator agreement: ✓ pass: ${part.reason}</li>`,
+    );
+    expect(run.code).toBe(confirm.code);
+  }, 120_000);
+
   it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();
     const file = join(dir, 'review.md');

@@ -275,6 +275,95 @@ describe('report in headless Chromium', () => {
     }
   });
 
+  it("lays out the circuit against the simulator, marks the figure over its tolerance and fails the page's verdict on it", async () => {
+    // Made-up comparison (ngspice is not run): doubler-pump's figures at tt with the simulator's ripple 12.7 % above the model's.
+    const resolved = resolveYaml(readFileSync(design('doubler-pump'), 'utf8'));
+    const fig = (
+      figure: 'output' | 'ripple' | 'efficiency' | 'lost charge',
+      unit: 'V' | 'C' | '',
+      model: number,
+      simulator: number,
+      difference: number | null,
+      tolerance: number | null,
+    ) => ({
+      figure,
+      unit,
+      model,
+      simulator,
+      difference,
+      tolerance,
+      pass: tolerance === null || Math.abs(difference!) <= tolerance,
+    });
+    const figures = [
+      fig('output', 'V', 3.335, 3.333, 0.001, 0.02),
+      fig('ripple', 'V', 0.0199, 0.0228, -0.127, 0.1),
+      fig('efficiency', '', 0.447, 0.419, 0.067, 0.1),
+      fig('lost charge', 'C', 0, 269e-15, null, null),
+    ];
+    const power = { input: 223e-6, generator: 150e-6, output: 167e-6 };
+    const confirm = {
+      simulator: 'ngspice-test',
+      tolerance: 0.1,
+      comparisons: [
+        {
+          corner: 'tt/1.8V/27C',
+          errors: [],
+          pass: false,
+          ron: [],
+          breakBeforeMake: [],
+          quantities: [
+            { quantity: 'dead p1->p2', kind: 'dead' as const, model: 1.72e-9, simulator: 1.81e-9, relativeError: -0.049, pass: true },
+          ],
+          circuit: { periods: 75, drift: 1e-6, settled: true, pass: false, figures, power: { model: power, simulator: power } },
+        },
+      ],
+    };
+    const model = buildReportModel(resolved, evaluateAll(resolved), {
+      processSource: 'fixtures',
+      fmax: null,
+      fmaxNote: 'skipped',
+      confirm,
+    });
+    const file = join(tempDir(), 'circuit-confirm.html');
+    writeFileSync(file, renderHtmlReport(model));
+    const page = await browser.newPage({ viewport: { width: 1320, height: 1000 } });
+    try {
+      await page.goto(pathToFileURL(file).href, { waitUntil: 'load' });
+      expect(await page.$eval('header .verdict', (v) => [v.getAttribute('data-verdict'), (v as HTMLElement).innerText])).toEqual([
+        'fail',
+        expect.stringMatching(/^✕ FAIL\s+fails: simulator agreement;/),
+      ]);
+      expect(await page.$eval('header li[data-part="simulator agreement"]', (li) => (li as HTMLElement).innerText)).toBe(
+        'simulator agreement: ✕ FAIL: 1 circuit figure beyond tolerance (first: ripple at tt/1.8V/27C)',
+      );
+      const table = await page.$eval('#confirm table.circuit-confirm', (t) => {
+        const r = t.getBoundingClientRect();
+        const heading = t.closest('.table-wrap')!.previousElementSibling!.previousElementSibling as HTMLElement;
+        return {
+          heading: heading.innerText,
+          head: [...t.querySelectorAll('th')].map((x) => (x as HTMLElement).innerText),
+          failing: [...t.querySelectorAll('tr.fail')].map((x) => x.getAttribute('data-figure')),
+          verdictColour: getComputedStyle(t.querySelector('tr.fail td.verdict-cell')!).color,
+          passColour: getComputedStyle(t.querySelector('tr:not(.fail) td.verdict-cell')!).color,
+          w: r.width,
+          h: r.height,
+          fits: r.right <= document.documentElement.clientWidth + 0.5,
+        };
+      });
+      expect(table.heading).toBe('Circuit against ngspice-test at tt/1.8V/27C');
+      expect(table.head).toEqual(['figure', 'model', 'ngspice-test', 'difference', 'tolerance', 'verdict']);
+      expect(table.failing).toEqual(['ripple']);
+      expect(table.verdictColour).not.toBe(table.passColour);
+      expect(table.w > 0 && table.h > 0 && table.fits).toBe(true);
+      if (SCREENSHOTS) {
+        mkdirSync(SCREENSHOTS, { recursive: true });
+        writeFileSync(join(SCREENSHOTS, 'report-circuit-confirm.png'), await page.locator('#confirm').screenshot());
+      }
+    } finally {
+      await page.close();
+    }
+  }, 120_000);
+
   it('doubler-pump: lays out the circuit rows, the circuit table and the frequency chart with no label overlap, and prints them', async () => {
     const { page, problems } = await openReport('doubler-pump', ['--no-fmax', '--no-tune']);
     try {

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { breakBeforeMakeCells, quantityCells, renderConfirmText } from '../../src/report/confirm-text.js';
+import {
+  breakBeforeMakeCells,
+  circuitFigureCells,
+  circuitFigureTolerance,
+  circuitFigureVerdict,
+  quantityCells,
+  renderConfirmText,
+} from '../../src/report/confirm-text.js';
 import type { CornerComparison } from '../../src/report/confirm-report.js';
 
 const dead = (model: number, simulator: number) => ({
@@ -159,5 +166,39 @@ describe('renderConfirmText quantity table', () => {
       '-----------  -----------  -------  ----------  ----------  ---------',
       'tt/1.8V/27C  dead p1->p2  1.00 ns      980 ps      +2.0 %  within',
     ]);
+  });
+});
+
+describe('circuitFigureCells, circuitFigureVerdict and circuitFigureTolerance', () => {
+  const output = {
+    figure: 'output' as const,
+    unit: 'V' as const,
+    model: 3.345,
+    simulator: 3.2,
+    difference: 0.0806,
+    tolerance: 0.02,
+    pass: false,
+  };
+  const lost = {
+    figure: 'lost charge' as const,
+    unit: 'C' as const,
+    model: 0,
+    simulator: null,
+    difference: null,
+    tolerance: null,
+    pass: true,
+  };
+
+  it('gives the output difference as a share of VDD, and OVER past its 2 % (3.345 V against 3.20 V at 1.8 V: +8.1 %)', () => {
+    expect(circuitFigureCells('tt', output)).toEqual(['tt', 'output', '3.35 V', '3.20 V', '+8.1 % of VDD']);
+    expect(circuitFigureVerdict(output)).toBe('OVER');
+    expect(circuitFigureTolerance(output)).toBe('±2.0 % of VDD');
+  });
+
+  it('shows a figure without a tolerance as shown, not judged', () => {
+    expect(circuitFigureCells('tt', lost)).toEqual(['tt', 'lost charge', '0 C', 'not measured', '-']);
+    expect(circuitFigureVerdict(lost)).toBe('shown');
+    expect(circuitFigureTolerance(lost)).toBe('not judged');
+    expect(circuitFigureTolerance({ ...output, figure: 'efficiency', unit: '', tolerance: 0.1 })).toBe('±10.0 %');
   });
 });

@@ -37,7 +37,10 @@ const OPTIONS = {
   }),
   fmax: flagOption('--no-fmax', 'skip the maximum-frequency search'),
   tune: flagOption('--no-tune', 'skip the delay-chain proposals (nand/nor templates)'),
-  confirm: textOption('--confirm <WHICH>', 'add ngspice against the model at these corners: worst, all, or names separated by commas'),
+  confirm: textOption(
+    '--confirm <WHICH>',
+    'add ngspice against the model at these corners (timing, and the circuit when the design has one): worst, all, or names separated by commas',
+  ),
   tolerance: toleranceOption('with --confirm: largest allowed relative difference (default: requirements.confirmTolerance, else 10 %)'),
   models: textOption('--models <FILE>', "with --confirm: SPICE model file instead of the card's spice.models"),
   ngspice: textOption('--ngspice <PATH>', 'with --confirm: the ngspice executable (default: ngspice on the PATH)'),
@@ -118,6 +121,7 @@ export async function runReport(io: Io, designPath: string, options: CommandOpti
           tolerance: options.tolerance,
           models: options.models,
           ngspice: options.ngspice,
+          circuit: true,
         });
   const provenance = gatherProvenance(io, loaded, {
     model: resolved.model.name,

@@ -27,6 +27,7 @@ import { formatMargin } from '../../report/margin-format.js';
 import { levelText, nodeTable } from '../node-table.js';
 import { provenanceLines } from '../../report/provenance.js';
 import { circuitSectionHtml } from './circuit-section.js';
+import { circuitConfirmHtml } from './circuit-confirm.js';
 
 function table(
   head: readonly string[],
@@ -178,7 +179,7 @@ ${
 <h2>Transistor-level confirmation (${h(m.confirm!.simulator)})</h2>
 <p>${h(c.text)}</p>
 ${table(c.quantities.head, c.quantities.rows, new Set([2, 3, 4]))}
-${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}
+${c.pairs.rows.length > 0 ? table(c.pairs.head, c.pairs.rows, new Set([2, 3])) : ''}${c.circuit.map((t) => `\n${circuitConfirmHtml(t)}`).join('')}
 </section>`
       )(confirmTables(m.confirm, r.model))
     : ''

@@ -132,6 +132,17 @@ export function renderMarkdownReport(m: ReportModel, images: MarkdownImages): st
         ),
         '',
       );
+    for (const t of c.circuit) {
+      out.push(`### ${markdownText(t.title)}`, '', markdownLine(t.note), '');
+      out.push(
+        table(
+          t.head,
+          t.rows.map((row) => row.cells),
+          new Set([1, 2, 3]),
+        ),
+        '',
+      );
+    }
   }
   if (m.mc) {
     out.push('## Monte Carlo mismatch', '', markdownLine(mcHeadline(m.mc.report)), '');
