@@ -24,7 +24,7 @@
  */
 import type { DeviceGeometry } from './cells.js';
 import { mosfet } from './cells.js';
-import type { DownShifterSizing } from './down-shifter-sizing.js';
+import type { DownShifterSizing } from '../switches/down-shifter-sizing.js';
 import type { ShifterRails } from './level-shifter.js';
 import { spiceNumber } from './names.js';
 import { spiceComment } from './text.js';
