@@ -1,4 +1,4 @@
-// Regenerates the fits of src/spice/down-shifter-sizing.ts: random sizings of the shifter to a
+// Regenerates the fits of src/switches/down-shifter-sizing.ts: random sizings of the shifter to a
 // level below ground (src/spice/down-shifter.ts) alone, simulated in ngspice at the card's nominal
 // corner, and least-squares fits of the measured delays and transitions to the stage estimates.
 // Run after `npm run build`: node scripts/down-shifter-fit.mjs [runs] [seed]
@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { loadProcess } from '../dist/src/cli/load.js';
 import { cornerModels } from '../dist/src/spice/models.js';
 import { downShifterLines } from '../dist/src/spice/down-shifter.js';
-import { downLatchRatio, downShifterTerms } from '../dist/src/spice/down-shifter-sizing.js';
+import { downLatchRatio, downShifterTerms } from '../dist/src/switches/down-shifter-sizing.js';
 import { nominalCorner } from '../dist/src/spice/shifter-sizing.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));

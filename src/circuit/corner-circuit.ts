@@ -8,13 +8,16 @@ import type { CornerDevices } from '../process/device.js';
 import type { Design } from '../schema/design.js';
 import type { SwitchConduction } from '../switches/conduction.js';
 import { switchGateCapacitance, type SwitchPlan } from '../switches/plan.js';
-import { shifterEnergy } from '../switches/shifter-energy.js';
+import { downShifterEnergy, shifterEnergy } from '../switches/shifter-energy.js';
+import { sizeDownShifter, type DownShifterSizing } from '../switches/down-shifter-sizing.js';
 import { latchShifter, sizeShifter } from '../switches/shifter-sizing.js';
 import { levelAt } from '../schema/level.js';
 import type { ProcessCard } from '../schema/process.js';
 import { cornerModel, type SwitchDrive } from './corner-model.js';
 import { circuitFigures, loadSign, solve, withLoad, type CircuitFigures, type FigureScope } from './figures.js';
 import { buildNetwork, type CircuitNetwork } from './network.js';
+
+type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
 export interface CornerCircuit extends CircuitFigures {
   /** Mean output at the lighter end of the load range, V (a positive output's maximum and a negative one's minimum are checked there). */
@@ -29,10 +32,40 @@ export interface CornerCircuit extends CircuitFigures {
  * Energy the clock generator's nets and the level shifters with the switch gates they drive draw
  * per period, J: C V^2 per net that swings the supply (each charged once from it), and per
  * shifted gate its shifter's energy (shifter-energy.ts: internal nodes, latch crowbar, the gate
- * over the shifter's swing), the shifter sized as the deck sizes it for its net's ramp here; a
- * shifter the cross-coupled model does not cover (down to a negative rail) counts its gate's charge
- * between its two levels, C (high - low)^2.
+ * over the shifter's swing), the shifter sized as the deck sizes it (up from the core, or its
+ * mirror down to a low level below ground) for its net's ramp here; a shifter the deck cannot
+ * build (a low level below ground with a high level above VDD) counts its gate's charge between
+ * its two levels, C (high - low)^2.
  */
+/** Down-shifter sizings by card, shifter, gate load and input ramp: each takes about 0.3 ms, and every corner and die asks again. */
+const downSizings = new WeakMap<ProcessCard, WeakMap<Shifter, Map<string, DownShifterSizing>>>();
+
+/**
+ * The down-shifter's sizing for a ramp rounded to the picosecond (its fits take the ramp with a
+ * weight of 0.3 at most: a picosecond moves the sized delay by under 0.3 ps), so the dies of a
+ * Monte Carlo run share a handful of sizings.
+ */
+function downSizing(ls: Shifter, card: ProcessCard, load: number, input: number): DownShifterSizing {
+  let byShifter = downSizings.get(card);
+  if (!byShifter) {
+    byShifter = new WeakMap();
+    downSizings.set(card, byShifter);
+  }
+  let sizes = byShifter.get(ls);
+  if (!sizes) {
+    sizes = new Map();
+    byShifter.set(ls, sizes);
+  }
+  const ramp = Math.round(input * 1e12) * 1e-12;
+  const key = `${load}|${ramp}`;
+  let size = sizes.get(key);
+  if (!size) {
+    size = sizeDownShifter(ls, card, load, ramp);
+    sizes.set(key, size);
+  }
+  return size;
+}
+
 export function generatorEnergy(
   netLoads: ArrayLike<number>,
   plans: readonly SwitchPlan[],
@@ -45,19 +78,15 @@ export function generatorEnergy(
   for (const plan of plans) {
     const ls = plan.levelShifter;
     if (!ls) continue;
+    const low = levelAt(ls.low, vdd);
+    const high = levelAt(ls.high, vdd);
     for (const d of plan.devices) {
-      if (!latchShifter(ls, vdd)) {
-        // Not the cross-coupled up-shifter: the gate's charge C (high - low) is drawn from the high level
-        // and returned into the low one each period, C (high - low)^2 from the two rails together (the
-        // shifter's own draw is left out: this undercounts, see KNOWN_LIMITS in the circuit confirm test).
-        const swing = levelAt(ls.high, vdd) - levelAt(ls.low, vdd);
-        energy += switchGateCapacitance(devices.card, d.kind, d.w, d.l) * swing * swing;
-        continue;
-      }
       const load = switchGateCapacitance(devices.card, d.kind, d.w, d.l);
       const cycle = cycles.cycle(d.net);
       const input = typeof cycle === 'string' ? ls.delay : (cycle.riseTransition + cycle.fallTransition) / 2;
-      energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices).total;
+      if (latchShifter(ls, vdd)) energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices).total;
+      else if (low < 0 && high <= vdd) energy += downShifterEnergy(ls, downSizing(ls, devices.card, load, input), load, devices).total;
+      else energy += load * (high - low) * (high - low);
     }
   }
   return energy;

@@ -27,7 +27,7 @@ import { switchGateCapacitance } from '../switches/plan.js';
 import { nominalTransitions } from './shifter-sizing.js';
 import { sizeShifter } from '../switches/shifter-sizing.js';
 import { downShifterLines } from './down-shifter.js';
-import { sizeDownShifter } from './down-shifter-sizing.js';
+import { sizeDownShifter } from '../switches/down-shifter-sizing.js';
 import { ronBench, type RonQuantity } from './ron-bench.js';
 
 export interface Deck {

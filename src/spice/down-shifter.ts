@@ -23,7 +23,7 @@
  * latch and the output n device see more than a core device may stand, and no rating is checked.
  */
 import type { DeviceGeometry } from './cells.js';
-import type { DownShifterSizing } from './down-shifter-sizing.js';
+import type { DownShifterSizing } from '../switches/down-shifter-sizing.js';
 import { inputCopy, shifterMosfet, shifterNodes, sizingComment, type ShifterRails } from './level-shifter.js';
 import { spiceNumber } from './names.js';
 import { spiceComment } from './text.js';

@@ -1,17 +1,21 @@
 /**
- * Energy a cross-coupled level shifter (the deck's circuit, see src/spice/level-shifter.ts) and the
- * switch gate it drives draw from their supplies per period, at a corner: every internal node
- * charged once and discharged once, C V^2 (the complement inverter's and the skewed buffer's
- * nodes over the core supply, both latch nodes over the high level, the output with the gate over
- * high - low, whose charge returns to the low level's supply), plus the crowbar charge of the two
- * latch flips: while a pull-down fights the cross-coupled p device, that device, fully on, conducts
- * from the high level to ground while the latch node falls and the other side rises (C V^2 per node
- * and the crowbar charge: common practice, e.g. J. M. Rabaey et al., Digital Integrated Circuits,
- * 2nd ed., on dynamic and short-circuit power, from memory). The input is copied by an ideal
- * source in the deck and draws nothing here.
+ * Energy a cross-coupled level shifter and the switch gate it drives draw from their supplies per
+ * period, at a corner, for both of the deck's shifters: up from the core (src/spice/level-shifter.ts:
+ * n pull-downs against a p latch on the high level) and its mirror down to a level below ground
+ * (src/spice/down-shifter.ts: p pull-ups from the core supply against an n latch on the low level).
+ * Every internal node is charged once and discharged once, C V^2: the complement inverter's and the
+ * skewed buffer's nodes over the core supply, both latch nodes over the latch's span (0 to the high
+ * level up, the low level to VDD down), the output with the gate over high - low, whose charge
+ * returns to the low level's supply. On top comes the crowbar charge of the two latch flips: while a
+ * pull device fights the cross-coupled latch device, that device, fully on, conducts across the
+ * span while the latch node moves and the other side follows (C V^2 per node and the crowbar
+ * charge: common practice, e.g. J. M. Rabaey et al., Digital Integrated Circuits, 2nd ed., on
+ * dynamic and short-circuit power, from memory). The input is copied by an ideal source in the deck
+ * and draws nothing here.
  */
 import { saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
+import type { DownShifterSizing } from './down-shifter-sizing.js';
 import type { SwitchPlan } from './plan.js';
 import type { ShifterSizing } from './shifter-sizing.js';
 
@@ -23,36 +27,89 @@ const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveCon
 export interface ShifterEnergy {
   /** Core-supply nodes: the complement, the skewed buffer's middle node and its output. */
   readonly core: number;
-  /** Both latch nodes, 0 to the high level. */
+  /** Both latch nodes over the latch's span. */
   readonly latch: number;
   /** The output node with the switch gate (`load`), low to high level. */
   readonly output: number;
-  /** Latch p devices conducting while their pull-downs fight them. */
+  /** Latch devices conducting while the pull devices fight them. */
   readonly crowbar: number;
   readonly total: number;
 }
 
-/** Energy per period of a shifter sized `size` driving a gate of `load` farads at `devices`' corner. */
+/** One shifter in the terms both topologies share: node capacitances (F), fight currents (A), levels (V). */
+interface LatchShifter {
+  /** Complement, skewed-buffer middle and set-drive nodes, each over the core supply. */
+  readonly coreNodes: number;
+  /** A latch node without, and with, the output inverter's gates. */
+  readonly side: number;
+  readonly setNode: number;
+  readonly output: number;
+  /** A pull device's current at its full gate drive, and the latch device's it fights. */
+  readonly pull: number;
+  readonly latch: number;
+  /** Swing of the latch nodes and of the output, V. */
+  readonly span: number;
+  readonly swing: number;
+  readonly vdd: number;
+}
+
+function latchShifterEnergy(s: LatchShifter): ShifterEnergy {
+  const { span } = s;
+  const fall = (node: number) => (s.pull > s.latch ? (node * span) / (s.pull - s.latch) : 0);
+  // Each flip: the fought latch device at full current while its node moves, then on average at
+  // half while the other side's latch device moves the other node and turns it off (that half
+  // charge is half the other node's C V, whatever the currents).
+  const crowbar = (s.latch * (fall(s.setNode) + fall(s.side)) + 0.5 * (s.side + s.setNode) * span) * span;
+  const core = s.coreNodes * s.vdd * s.vdd;
+  const latch = (s.side + s.setNode) * span * span;
+  const output = s.output * s.swing * s.swing;
+  return { core, latch, output, crowbar, total: core + latch + output + crowbar };
+}
+
+/** Complement and set-drive nodes (each an inverter's drains and the gate of a pull device of `pullGate` F) and the buffer's middle node, F. */
+function coreNodes(devices: CornerDevices, size: Pick<ShifterSizing, 'inverterN' | 'bufferN' | 'bufferP' | 'bufferCap'>, pullGate: number) {
+  const { n, p } = devices;
+  const inverterDrains = n.cdrain * size.inverterN + p.cdrain * 2 * size.inverterN;
+  const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
+  return 2 * (inverterDrains + pullGate) + mid;
+}
+
+/** Energy per period of a shifter up from the core sized `size` driving a gate of `load` farads at `devices`' corner. */
 export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
   const { n, p, vdd } = devices;
   const high = levelAt(ls.high, vdd);
-  const swing = Math.abs(high - levelAt(ls.low, vdd));
-  const inverterDrains = n.cdrain * size.inverterN + p.cdrain * 2 * size.inverterN;
-  const complement = inverterDrains + n.cgate * size.pullDown;
-  const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
-  const set = inverterDrains + n.cgate * size.pullDown;
   const side = n.cdrain * size.pullDown + (p.cdrain + p.cgate) * size.latchP + size.latchCap;
-  const setNode = side + n.cgate * size.outputN + p.cgate * size.outputP;
-  const output = load + n.cdrain * size.outputN + p.cdrain * size.outputP;
-  const pull = current(n, vdd) * size.pullDown;
-  const latchP = current(p, high) * size.latchP;
-  const fall = (node: number) => (pull > latchP ? (node * high) / (pull - latchP) : 0);
-  // Each flip: the fought p device at full current while its node falls, then on average at half
-  // while the other side's p device lifts the other node and turns it off (that half charge is
-  // half the other node's C V, whatever the currents).
-  const crowbar = (latchP * (fall(setNode) + fall(side)) + 0.5 * (side + setNode) * high) * high;
-  const core = (complement + mid + set) * vdd * vdd;
-  const latch = (side + setNode) * high * high;
-  const out = output * swing * swing;
-  return { core, latch, output: out, crowbar, total: core + latch + out + crowbar };
+  return latchShifterEnergy({
+    coreNodes: coreNodes(devices, size, n.cgate * size.pullDown),
+    side,
+    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
+    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
+    pull: current(n, vdd) * size.pullDown,
+    latch: current(p, high) * size.latchP,
+    span: high,
+    swing: Math.abs(high - levelAt(ls.low, vdd)),
+    vdd,
+  });
+}
+
+/**
+ * Energy per period of a shifter down to a level below ground, the mirror: p pull-ups at the core
+ * supply against n latch devices whose gates swing to VDD over their sources at the low level, the
+ * latch nodes from the low level to VDD.
+ */
+export function downShifterEnergy(ls: Shifter, size: DownShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
+  const { n, p, vdd } = devices;
+  const low = levelAt(ls.low, vdd);
+  const side = p.cdrain * size.pullUp + (n.cdrain + n.cgate) * size.latchN + size.latchCap;
+  return latchShifterEnergy({
+    coreNodes: coreNodes(devices, size, p.cgate * size.pullUp),
+    side,
+    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
+    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
+    pull: current(p, vdd) * size.pullUp,
+    latch: current(n, vdd - low) * size.latchN,
+    span: vdd - low,
+    swing: Math.abs(levelAt(ls.high, vdd) - low),
+    vdd,
+  });
 }

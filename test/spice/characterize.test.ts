@@ -22,9 +22,9 @@ describe('characterization decks', () => {
 
   it('set the grid in the process scale: loads in unit-inverter input capacitances', () => {
     const axes = gridAxes(card, GRIDS.coarse);
-    // unit inverter of the card: (0.5 + 1.0) um x 1.6 fF/um = 2.4 fF
-    expect(processScale(card).capacitance).toBeCloseTo(2.4e-15, 20);
-    expect(axes.loads).toEqual([1.2e-15, 9.6e-15, 3.84e-14, 9.6e-14]);
+    // unit inverter of the card: (0.5 + 1.0) um x 1.92 fF/um = 2.88 fF
+    expect(processScale(card).capacitance).toBeCloseTo(2.88e-15, 20);
+    expect(axes.loads).toEqual([1.44e-15, 1.152e-14, 4.608e-14, 1.152e-13]);
   });
 
   it('hold one input transition each, with every cell pin at every load', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { loadProcess } from '../../src/cli/load.js';
-import { downLatchRatio, sizeDownShifter } from '../../src/spice/down-shifter-sizing.js';
+import { downLatchRatio, sizeDownShifter } from '../../src/switches/down-shifter-sizing.js';
 import { expectClose, processCard } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));

@@ -13,7 +13,7 @@ import { loadDesign, loadProcess } from '../../src/cli/load.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
 import { generatorDeck } from '../../src/spice/deck.js';
 import { downShifterLines } from '../../src/spice/down-shifter.js';
-import { sizeDownShifter } from '../../src/spice/down-shifter-sizing.js';
+import { sizeDownShifter } from '../../src/switches/down-shifter-sizing.js';
 import { cornerModels } from '../../src/spice/models.js';
 import { nominalCorner } from '../../src/switches/shifter-sizing.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';

@@ -2,7 +2,7 @@
  * The sized shifter's edges per corner against the deck's own transistor-level shifter
  * (src/spice/level-shifter.ts) in ngspice-39 (Debian) on fixtures/models/generic180.lib, sized as
  * the deck sizes too-tight.yaml's s_high (inverting, VDD..2 VDD, 250 ps declared, a 40 um p switch
- * gate of 64 fF, pull-down 4 um against 1 um latch p devices), input ramp 422.4 ps at every corner.
+ * gate of 76.8 fF, pull-down 4 um against 1 um latch p devices), input ramp 422.4 ps (0 to 100 %) at every corner.
  * Delay: input 50 % to output 50 %. The recorded values are ngspice's; the model's ratio to the
  * nominal corner is compared with ngspice's ratio.
  */
@@ -25,25 +25,26 @@ const at = (process: string, v: number, temperature: number, dvth = 0) =>
   shifterEdges(shifter, size, devicesAtCorner(card, { name: '', process, vdd: v, temperature, duty: 0.5 }), nominal, input, dvth);
 
 // ngspice-39, s: output rising and falling delay at the nominal corner, then per corner with the
-// model's relative error on the ratio to nominal as measured when this test was written. Over all
-// 45 corners of too-tight.yaml: median 4.7 %, worst 20.6 % (the swing / n-drive scale it
-// replaces in the measurement: median 8.7 %, worst 25.6 %).
-const NOMINAL = { rise: 276.7e-12, fall: 338.5e-12 };
+// model's relative error on the ratio to nominal as measured when this test was written (5 ps step,
+// delays to 1 ps; re-measured with the card's capacitances from its model file, which widen the
+// output inverter). Over all 45 corners of too-tight.yaml, with the earlier card: median 4.7 %,
+// worst 20.6 % (the swing / n-drive scale it replaces in the measurement: median 8.7 %, worst 25.6 %).
+const NOMINAL = { rise: 274e-12, fall: 333e-12 };
 const CASES = [
-  { process: 'ss', vdd: 1.62, temperature: 125, rise: 469.4e-12, fall: 596.5e-12, errRise: -0.061, errFall: -0.01 },
-  { process: 'ff', vdd: 1.98, temperature: -40, rise: 172.0e-12, fall: 200.2e-12, errRise: 0.144, errFall: 0.081 },
-  { process: 'fs', vdd: 1.98, temperature: -40, rise: 186.6e-12, fall: 252.8e-12, errRise: 0.206, errFall: -0.033 },
-  { process: 'sf', vdd: 1.62, temperature: 27, rise: 332.4e-12, fall: 407.1e-12, errRise: -0.093, errFall: 0.018 },
-  { process: 'tt', vdd: 1.8, temperature: 125, rise: 362.7e-12, fall: 424.7e-12, errRise: -0.046, errFall: 0.043 },
+  { process: 'ss', vdd: 1.62, temperature: 125, rise: 463e-12, fall: 581e-12, errRise: -0.052, errFall: 0.004 },
+  { process: 'ff', vdd: 1.98, temperature: -40, rise: 170e-12, fall: 199e-12, errRise: 0.138, errFall: 0.061 },
+  { process: 'fs', vdd: 1.98, temperature: -40, rise: 186e-12, fall: 251e-12, errRise: 0.185, errFall: -0.042 },
+  { process: 'sf', vdd: 1.62, temperature: 27, rise: 330e-12, fall: 399e-12, errRise: -0.08, errFall: 0.02 },
+  { process: 'tt', vdd: 1.8, temperature: 125, rise: 352e-12, fall: 418e-12, errRise: -0.023, errFall: 0.049 },
 ];
 
 describe('shifterEdges', () => {
-  it("gives the sizing's own estimates at the nominal corner (309 / 333 ps: 250 ps cannot be reached; ngspice 277 / 339 ps)", () => {
+  it("gives the sizing's own estimates at the nominal corner (320 / 358 ps: 250 ps cannot be reached; ngspice 274 / 333 ps)", () => {
     const e = at('tt', 1.8, 27);
     expectClose(e.rise, size.estimate.rise, 1e-12);
     expectClose(e.fall, size.estimate.fall, 1e-12);
     expectClose((e.riseTransition + e.fallTransition) / 2, size.estimate.transition, 1e-12);
-    expectClose(e.rise, 309.5e-12, 0.002);
+    expectClose(e.rise, 319.6e-12, 0.002);
   });
 
   for (const c of CASES) {

@@ -6,13 +6,15 @@ import { expectClose, processCard } from '../helpers.js';
 const card = loadProcess(processCard('generic180'));
 const vdd = { scale: 1, offset: 0 };
 const twoVdd = { scale: 2, offset: 0 };
-const shifter = { delay: 300e-12, transition: 250e-12, low: vdd, high: twoVdd, invert: false };
+// 350 ps: with the card's 1.92 fF/um gates and 1.2 fF/um drains a 300 ps fall needs a latch node
+// below its own devices' capacitance at the default 4 um pull-downs (the estimate stops at 307 ps).
+const shifter = { delay: 350e-12, transition: 250e-12, low: vdd, high: twoVdd, invert: false };
 
 describe('sizeShifter', () => {
   it('meets the declared delay on both edges and the declared transition by its own estimate (32 fF load, 300 ps input ramp)', () => {
     const size = sizeShifter(shifter, card, 32e-15, 300e-12);
-    expectClose(size.estimate.rise, 300e-12, 1e-9);
-    expectClose(size.estimate.fall, 300e-12, 1e-9);
+    expectClose(size.estimate.rise, 350e-12, 1e-9);
+    expectClose(size.estimate.fall, 350e-12, 1e-9);
     expectClose(size.estimate.transition, 250e-12, 1e-9);
     // The latch p devices a quarter of the pull-downs, the output stage's edges matched by drive.
     expectClose(size.latchP / size.pullDown, 0.25, 1e-12);

@@ -13,11 +13,11 @@
  * Other cards get the same fits: `confirm` measures what the shifter really does at every corner.
  */
 import type { ProcessCard } from '../schema/process.js';
-import { devicesAtCorner, saturationCurrent, type DeviceAtCorner } from '../process/device.js';
+import { saturationCurrent, type DeviceAtCorner } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
-import { bodyThreshold } from '../switches/physics.js';
-import type { SwitchPlan } from '../switches/plan.js';
-import { nominalCorner } from '../switches/shifter-sizing.js';
+import { bodyThreshold } from './physics.js';
+import type { SwitchPlan } from './plan.js';
+import { nominalDevices } from './shifter-sizing.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -93,7 +93,7 @@ interface Currents {
 }
 
 function currents(card: ProcessCard, lowLevel: Shifter['low'], highLevel: Shifter['high']): Currents {
-  const { n, p } = devicesAtCorner(card, nominalCorner(card, 0.5));
+  const { n, p } = nominalDevices(card);
   const vdd = card.vddNominal;
   const low = levelAt(lowLevel, vdd);
   const high = levelAt(highLevel, vdd);
