@@ -84,8 +84,7 @@ describe('csvHeader and csvRow with a circuit', () => {
     expect(cells[header.indexOf('limiting_margin_s')]).toBe('');
     expect(cells[header.indexOf('limiting_margin_V')]).toBe('');
     expect(cells[header.indexOf('limiting_margin_C')]).toBe('');
-    // check at tt/1.8V/27C prints efficiency +4.7 % over 40 %, so 44.7 % - 99 % = -54.3 % (the level
-    // shifters' gate edges from their per-edge model).
+    // check at tt/1.8V/27C prints efficiency +4.7 % over 40 %, so 44.7 % - 99 % = -54.3 % (measured).
     expect(Number(cells[header.indexOf('limiting_margin_frac')])).toBeCloseTo(-0.543, 3);
   });
 
