@@ -37,6 +37,7 @@ export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
   'test/render/svg/circuit-sweep-chart.test.ts': ['xmllint'],
   'test/render/svg/circuit-waves.test.ts': ['xmllint'],
   'test/render/hostile-names.test.ts': ['xmllint'],
+  'test/checks/switch-band.test.ts': ['ngspice'],
   'test/render/timing-legibility.test.ts': ['xmllint'],
   'test/render/timing.test.ts': ['rsvg-convert'],
   'test/render/vcd.test.ts': ['sigrok-cli'],

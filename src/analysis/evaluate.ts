@@ -12,6 +12,8 @@ import { appendSwitchChecks, type SwitchCheckSetup } from '../checks/switch-chec
 import { BiasChecker } from '../checks/bias-frame.js';
 import { switchConduction, type SwitchConduction } from '../switches/conduction.js';
 import type { ResolvedDesign } from './resolve.js';
+import { shifterSizes, type ShifterSizes } from './shifter-sizes.js';
+import { instantBand } from '../switches/instant-band.js';
 import { CircuitEvaluator, type CornerCircuit, type FigureChoice } from '../circuit/corner-circuit.js';
 import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
@@ -105,8 +107,10 @@ export class CornerEvaluator {
       windowDerating: clock.dutyTolerance * this.period,
       names: resolved.switchCheckNames,
       subjects: resolved.switchCheckLabels.subjects,
+      instantBand: instantBand(resolved.model.name, resolved.card.name),
     };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
+    this.shifters = resolved.switches.some((plan) => plan.levelShifter) ? shifterSizes(resolved) : null;
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
     this.circuitFigures = { scope: reuse.circuit === 'checked-figures' ? 'checked' : 'all', sameCorner: warm };
@@ -130,6 +134,8 @@ export class CornerEvaluator {
   private current: readonly SwitchConduction[] = [];
   private readonly switchByName: (name: string) => SwitchConduction;
   private readonly switchSetup: SwitchCheckSetup;
+  /** Sizes of the switches' level shifters (null: the design has none). */
+  private readonly shifters: ShifterSizes | null;
   /** Switch devices with k' calibrated by the model's characterized R_on, when it has any. */
   private readonly ronCalibration: ((devices: CornerDevices) => CornerDevices) | undefined;
 
@@ -149,7 +155,9 @@ export class CornerEvaluator {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
       for (let k = 0; k < plans.length; k++)
-        switches.push(switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k]));
+        switches.push(
+          switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k], this.shifters?.[k]),
+        );
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);
       if (this.circuit) {

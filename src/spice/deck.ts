@@ -25,6 +25,7 @@ import type { BreakBeforeMakePair } from './switch-margins.js';
 import { bulkLevel } from '../switches/conduction.js';
 import { switchGateCapacitance } from '../switches/plan.js';
 import { nominalTransitions } from './shifter-sizing.js';
+import { shifterSizes } from '../analysis/shifter-sizes.js';
 import { sizeShifter } from '../switches/shifter-sizing.js';
 import { downShifterLines } from './down-shifter.js';
 import { sizeDownShifter } from '../switches/down-shifter-sizing.js';
@@ -94,6 +95,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
     switches: resolved.switches,
     node,
     window,
+    shifterSizes: shifterSizes(resolved),
   });
   const lines: string[] = [
     spiceComment(`phasegap testbench: ${design.name} at ${corner.name}`),
@@ -126,7 +128,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   }
   let c = 0;
   for (const [net, cap] of extra) if (cap > 0) lines.push(`c${++c} ${node(net)} 0 ${spiceNumber(cap)}${spiceInlineComment(net)}`);
-  const inputs = resolved.switches.some((plan) => plan.levelShifter) ? nominalTransitions(resolved, corner.duty) : null;
+  const inputs = resolved.switches.some((plan) => plan.levelShifter) ? nominalTransitions(resolved) : null;
   lines.push(...switchLines(resolved, vdd, node, models.geometry, devices, (net) => inputs?.(net) ?? tr, options.circuit));
   if (options.circuit) lines.push(...options.circuit.lines);
   // The model's logic state while the clock is low helps the operating point of the latch.

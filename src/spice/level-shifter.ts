@@ -1,6 +1,6 @@
 /**
  * A switch's level shifter in a deck, at transistor level, so the deck shows how the shifter
- * really moves with the corner (the model scales its declared delay: shifter-timing.ts).
+ * really moves with the corner (the model times the same sized circuit per edge: shifter-edges.ts).
  *
  * Topology: the cross-coupled (ratioed latch) shifter, common practice for a low-to-high level
  * converter. An ideal voltage-controlled source copies the gate net (or its complement VDD - v for

@@ -13,8 +13,8 @@ import type { SimulationResult } from '../sim/engine.js';
 import type { CornerDevices } from '../process/device.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { rampCrossing } from '../switches/physics.js';
-import { gateWave, turnOnLevel } from '../switches/conduction.js';
-import { shifterScale } from '../switches/shifter-timing.js';
+import { deviceShifter, gateWave, turnOnLevel } from '../switches/conduction.js';
+import type { ShifterSizes } from '../analysis/shifter-sizes.js';
 import { shifterNode } from './level-shifter.js';
 import { levelAt } from '../schema/level.js';
 import { spiceNumber } from './names.js';
@@ -73,6 +73,8 @@ export interface QuantityContext {
   readonly switches: readonly SwitchPlan[];
   readonly node: (net: string) => string;
   readonly window: DeckWindow;
+  /** Sizes of the switches' level shifters (shifter-sizes.ts), so the model's gate edges are the evaluator's. */
+  readonly shifterSizes?: ShifterSizes;
 }
 
 export function deckQuantities(ctx: QuantityContext): Quantity[] {
@@ -123,8 +125,7 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
     const sigMax = levelAt(plan.signal.max, vdd);
     const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
     plan.devices.forEach((device, j) => {
-      const scale = plan.levelShifter ? shifterScale(plan.levelShifter, devices) : 1;
-      const wave = gateWave(plan, device, cycles, vdd, scale);
+      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i]));
       if (typeof wave === 'string') return;
       // A level-shifted gate is the shifter's output.
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);

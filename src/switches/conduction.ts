@@ -4,13 +4,14 @@
  * effect, at every point of the signal range it passes. A tgate conducts while either device does.
  */
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
-import type { CycleIndex } from '../measure/phases.js';
+import type { CycleIndex, NetCycle } from '../measure/phases.js';
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
-import { shifterScaleWithMismatch } from './shifter-timing.js';
+import { shifterGateTiming, type ShifterGateTiming } from './shifter-timing.js';
+import type { ShifterSizing } from './shifter-sizing.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -30,6 +31,12 @@ export interface SwitchConduction {
   readonly offEarliest: number;
   /** Worst (largest) triode on-resistance over the signal range with the gate fully driven, ohm. */
   readonly ron: number;
+  /**
+   * 50 % times of the gate net's edges that turn the switch on and off (its first device's net,
+   * before any level shifter), s (absolute): where the model's own part of each instant starts.
+   */
+  readonly onEdge?: number;
+  readonly offEdge?: number;
 }
 
 /** x - ref wrapped into (-T/2, T/2], added back to ref: the copy of x nearest ref. */
@@ -52,23 +59,42 @@ export interface GateWave {
   readonly fall: GateRamp;
 }
 
-/** The gate ramps of one device of a switch, or why its net has none. */
-export function gateWave(plan: SwitchPlan, device: SwitchDevicePlan, cycles: CycleIndex, vdd: number, shifterScale = 1): GateWave | string {
+/**
+ * The gate ramps of one device of a switch, or why its net has none. `shifter` is its level
+ * shifter's timing at this corner (shifter-timing.ts), or a scale of the declared delay and
+ * transition (1: as declared, the nominal corner's).
+ */
+export function gateWave(
+  plan: SwitchPlan,
+  device: SwitchDevicePlan,
+  cycles: CycleIndex,
+  vdd: number,
+  shifter: number | ShifterGateTiming = 1,
+): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
   const low = ls ? levelAt(ls.low, vdd) : 0;
   const high = ls ? levelAt(ls.high, vdd) : vdd;
-  // A shifter's declared delay and transition hold at the nominal corner; `shifterScale` (see
-  // shifter-timing.ts) carries them to this one.
-  const delay = ls ? ls.delay * shifterScale : 0;
-  const riseT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.riseTransition;
-  const fallT = ls?.transition !== undefined ? ls.transition * shifterScale : cycle.fallTransition;
   // An inverting level shifter turns the net's fall into the gate's rise and the other way round.
   const invert = ls?.invert === true;
+  const inRise = invert ? cycle.fall : cycle.rise;
+  const inFall = invert ? cycle.rise : cycle.fall;
+  if (ls && typeof shifter !== 'number') {
+    return {
+      rise: { t50: inRise + shifter.riseDelay, transition: shifter.riseTransition, low, high, rising: true },
+      fall: { t50: inFall + shifter.fallDelay, transition: shifter.fallTransition, low, high, rising: false },
+    };
+  }
+  // A shifter's declared delay and transition hold at the nominal corner; `shifter` (see
+  // shifter-timing.ts) carries them to this one.
+  const scale = typeof shifter === 'number' ? shifter : 1;
+  const delay = ls ? ls.delay * scale : 0;
+  const riseT = ls?.transition !== undefined ? ls.transition * scale : cycle.riseTransition;
+  const fallT = ls?.transition !== undefined ? ls.transition * scale : cycle.fallTransition;
   return {
-    rise: { t50: (invert ? cycle.fall : cycle.rise) + delay, transition: invert ? fallT : riseT, low, high, rising: true },
-    fall: { t50: (invert ? cycle.rise : cycle.fall) + delay, transition: invert ? riseT : fallT, low, high, rising: false },
+    rise: { t50: inRise + delay, transition: invert ? fallT : riseT, low, high, rising: true },
+    fall: { t50: inFall + delay, transition: invert ? riseT : fallT, low, high, rising: false },
   };
 }
 
@@ -110,26 +136,44 @@ export function conductingState(plan: SwitchPlan): StateIndex {
   return 0;
 }
 
-/** `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth` the level shifter's pull-down. */
+/**
+ * The level shifter's timing for device `i` of a switch at this corner (1 without a shifter, or
+ * when its net does not switch: gateWave then says why); `sizes[i]` its transistor sizes, when the
+ * deck builds it as the sized latch.
+ */
+export function deviceShifter(
+  plan: SwitchPlan,
+  i: number,
+  cycles: CycleIndex,
+  devices: CornerDevices,
+  sizes?: ReadonlyArray<ShifterSizing | null>,
+  shifterDvth = 0,
+): number | ShifterGateTiming {
+  const ls = plan.levelShifter;
+  if (!ls) return 1;
+  const cycle = cycles.cycle(plan.devices[i]!.net);
+  if (typeof cycle === 'string') return 1;
+  return shifterGateTiming(ls, devices, cycle, sizes?.[i] ?? null, shifterDvth);
+}
+
+/**
+ * `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth`
+ * the level shifter's pull-down; `shifterSizes[i]` the sizes of device i's shifter (shifter-sizes.ts).
+ */
 export function switchConduction(
   plan: SwitchPlan,
   cycles: CycleIndex,
   devices: CornerDevices,
   dvth?: ArrayLike<number>,
   shifterDvth = 0,
+  shifterSizes?: ReadonlyArray<ShifterSizing | null>,
 ): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(
-      plan,
-      plan.devices[i]!,
-      cycles,
-      vdd,
-      plan.levelShifter ? shifterScaleWithMismatch(plan.levelShifter, devices, shifterDvth) : 1,
-    );
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth));
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }
@@ -218,7 +262,15 @@ export function switchConduction(
     const r = conductance > 0 ? 1 / conductance : Infinity;
     if (r > ron) ron = r;
   }
-  return { name: plan.name, type: plan.type, status: 'switching', detail: '', on, off, onLatest, offEarliest, ron };
+  const first = plan.devices[0]!;
+  const cycle = cycles.cycle(first.net) as NetCycle;
+  // The gate rises with the net, or with its fall through an inverting shifter; an n device turns on as its gate rises.
+  const gateRise = plan.levelShifter?.invert === true ? cycle.fall : cycle.rise;
+  const gateFall = plan.levelShifter?.invert === true ? cycle.rise : cycle.fall;
+  const n = first.kind === 'n';
+  const onEdge = n ? gateRise : gateFall;
+  const offEdge = n ? gateFall : gateRise;
+  return { name: plan.name, type: plan.type, status: 'switching', detail: '', on, off, onLatest, offEarliest, ron, onEdge, offEdge };
 }
 
 function failed(plan: SwitchPlan, status: SwitchConduction['status'], detail: string): SwitchConduction {

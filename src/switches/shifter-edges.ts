@@ -16,9 +16,10 @@
  *
  * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts): each
  * edge's ratio to the nominal corner within 4.7 % median, 20.6 % worst (the declared delay's
- * swing / n-drive scale of shifter-timing.ts: 8.7 %, 25.6 %). Not yet what `gateWave` uses: on
- * too-tight.yaml it moves the break-before-make margins optimistic at the hot corners, where the
- * generator's own phase edges are already 70 to 110 ps optimistic at the gap level.
+ * swing / n-drive scale of shifter-timing.ts: 8.7 %, 25.6 %). What the switches' gate ramps use
+ * (shifter-timing.ts, `shifterGateTiming`); the break-before-make check reads them against the
+ * measured switch-instant band (instant-band.ts), since the generator's own edges are optimistic
+ * at the hot corners.
  */
 import { saturationCurrent, shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { levelAt } from '../schema/level.js';

@@ -6,12 +6,16 @@
  * cross-coupled shifter; e.g. J. M. Rabaey et al., Digital Integrated Circuits, on level
  * conversion, from memory). Checked against a transistor-level shifter in ngspice
  * (test/switches/shifter-timing.test.ts). The fight with the cross-coupled p device is not
- * modelled; it makes the shifter slower where the n device is weak beside the p device.
+ * modelled here; `shifterGateTiming` uses shifter-edges.ts, which has it, for every shifter the
+ * deck builds as the sized latch, and this scale only for the others (down to a negative rail).
  */
 import { deviceAtCorner, shiftFactor, type CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from './plan.js';
+import type { NetCycle } from '../measure/phases.js';
+import { shifterEdges } from './shifter-edges.js';
+import { latchShifter, nominalDevices, type ShifterSizing } from './shifter-sizing.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -46,4 +50,48 @@ export function shifterScaleWithMismatch(ls: Shifter, devices: CornerDevices, dv
   if (dvth === 0) return base;
   const factor = shiftFactor(dvth / (devices.vdd - devices.n.vth), devices.n.alpha);
   return factor > 0 ? base / factor : Infinity;
+}
+
+/** A shifter's timing at one corner, per output edge (the gate's), s. */
+export interface ShifterGateTiming {
+  /** Input 50 % to output 50 %, for the output's rising and falling edge. */
+  readonly riseDelay: number;
+  readonly fallDelay: number;
+  /** Full-swing transition of the output's rising and falling edge. */
+  readonly riseTransition: number;
+  readonly fallTransition: number;
+}
+
+/**
+ * The shifter's timing at `devices`' corner with its pull-downs' threshold shifted by `dvth` (V).
+ * A shifter the deck builds as the sized cross-coupled latch (`size` given) gets the per-edge
+ * model of shifter-edges.ts, driven by its net's own edges `cycle`; any other keeps the declared
+ * delay and transition carried by `shifterScaleWithMismatch` (the transition, when none is
+ * declared, is the net's).
+ */
+export function shifterGateTiming(
+  ls: Shifter,
+  devices: CornerDevices,
+  cycle: NetCycle,
+  size: ShifterSizing | null,
+  dvth: number,
+): ShifterGateTiming {
+  if (size && latchShifter(ls, devices.vdd)) {
+    const invert = ls.invert === true;
+    const input = invert
+      ? { rise: cycle.fallTransition, fall: cycle.riseTransition }
+      : { rise: cycle.riseTransition, fall: cycle.fallTransition };
+    const e = shifterEdges(ls, size, devices, nominalDevices(devices.card), input, dvth);
+    return { riseDelay: e.rise, fallDelay: e.fall, riseTransition: e.riseTransition, fallTransition: e.fallTransition };
+  }
+  const scale = shifterScaleWithMismatch(ls, devices, dvth);
+  const delay = ls.delay * scale;
+  const netRise = ls.invert === true ? cycle.fallTransition : cycle.riseTransition;
+  const netFall = ls.invert === true ? cycle.riseTransition : cycle.fallTransition;
+  return {
+    riseDelay: delay,
+    fallDelay: delay,
+    riseTransition: ls.transition !== undefined ? ls.transition * scale : netRise,
+    fallTransition: ls.transition !== undefined ? ls.transition * scale : netFall,
+  };
 }

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
-import { handoverGap } from '../../src/checks/switch-checks.js';
+import { handoverGap, handoverPath } from '../../src/checks/switch-checks.js';
 import type { SwitchConduction } from '../../src/switches/conduction.js';
 import { cli, design as demoDesign, expectClose, resolveYaml } from '../helpers.js';
 
@@ -36,9 +36,29 @@ describe('break-before-make', () => {
     const [d12, d21] = m.deadTimes;
     const expected12 = d12.t50 - offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition) - 25e-12;
     const expected21 = d21.t50 - offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition) - 25e-12;
+    // The model's switch-instant error (8.6 % of each handover's path on generic180) comes off each
+    // handover; the path is the dead time plus both crossing offsets.
+    const path12 = d12.t50 + offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition);
+    const path21 = d21.t50 + offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition);
+    const [a, b] = r.switches;
+    expectClose(handoverPath(a!, b!, 50e-9), path12, 1e-15, 'abs');
+    expectClose(handoverPath(b!, a!, 50e-9), path21, 1e-15, 'abs');
     const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
-    expectClose(bbm.margin!, Math.min(expected12, expected21), 1e-15, 'abs');
+    expectClose(bbm.margin!, Math.min(expected12 - 0.086 * path12, expected21 - 0.086 * path21), 1e-15, 'abs');
     expect(bbm.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
+  });
+
+  it("is not a pass when the handover clears its guard by less than the model's measured error, and says so", () => {
+    const clear = run(design('  breakBeforeMake: [{ between: [a, b] }]'));
+    const bbm0 = clear.checks.find((c) => c.kind === 'break-before-make')!;
+    const raw = Math.min(...bbm0.parts!.map((p) => p.span!));
+    // A guard 10 ps below the model's handover: the model alone would pass by 10 ps.
+    const guard = `${((raw - 10e-12) * 1e12).toFixed(3)}ps`;
+    const r = run(design(`  breakBeforeMake: [{ between: [a, b], guard: ${guard} }]`));
+    const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
+    expect(bbm.pass).toBe(false);
+    expect(bbm.margin!).toBeLessThan(0);
+    expect(bbm.detail).toContain("less than the model's measured switch-instant error");
   });
 
   it('fails when the guard exceeds the handover gap', () => {
@@ -146,9 +166,12 @@ describe('switchChecks: subjects and parts', () => {
         { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } },
       ],
     });
+    // Each part needs the guard plus the model's switch-instant error on its path (8.6 % on generic180).
+    const errAb = 0.086 * handoverPath(a, b, period);
+    const errBa = 0.086 * handoverPath(b, a, period);
     expect(bbm.parts).toEqual([
-      { margin: handoverGap(a, b, period) - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 },
-      { margin: handoverGap(b, a, period) - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 },
+      { margin: handoverGap(a, b, period) - errAb - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 + errAb },
+      { margin: handoverGap(b, a, period) - errBa - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 + errBa },
     ]);
     expect(bbm.margin).toBe(Math.min(bbm.parts![0]!.margin, bbm.parts![1]!.margin));
   });

@@ -80,8 +80,8 @@ describe('findFmax: circuit requirements', () => {
     const settleless = ['constraints.settle=[]'];
     const { design: d, card } = loadDesign(design('doubler-pump'), settleless);
     const result = findFmax(resolveDesign(d, card), { resolution: 0.01 });
-    // measured: 23.53 MHz at 1 % resolution; the clock generator's and level shifters' energy per period times f grows with f while the load's power does not
-    expectClose(result.fmax!, 23.53e6, 0.005);
+    // measured: 22.05 MHz at 1 % resolution; the clock generator's and level shifters' energy per period times f grows with f while the load's power does not
+    expectClose(result.fmax!, 22.05e6, 0.005);
     expect(result.limiting).toMatchObject({ kind: 'efficiency-min', check: 'efficiency >= 40.0 %', corner: 'sf/1.98V/125C' });
     expect(result.note).toBe("the circuit's output requirement efficiency >= 40.0 % sets fmax (the design has no settle constraint)");
     const at = (f: number) =>

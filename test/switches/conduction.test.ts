@@ -7,6 +7,9 @@ import { switchConduction } from '../../src/switches/conduction.js';
 import { CycleIndex } from '../../src/measure/phases.js';
 import { devicesAtCorner } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
+import { shifterEdges } from '../../src/switches/shifter-edges.js';
+import { nominalDevices, sizeShifter } from '../../src/switches/shifter-sizing.js';
+import { switchGateCapacitance } from '../../src/switches/plan.js';
 import { designFromYaml, expectClose, processCard, resolveYaml } from '../helpers.js';
 
 function base(switches: string, extra = ''): string {
@@ -132,8 +135,8 @@ describe('switchConduction', () => {
     expect(settle.detail).toContain('never conducts');
   });
 
-  it('follows a level shifter: its delay shifts both instants and its swing sets the levels', () => {
-    const { byName } = conduction(`
+  it('follows a level shifter: its swing sets the levels, its per-edge delays and ramps (the sized latch at tt/1.8V/27C) place the instants', () => {
+    const { result, byName } = conduction(`
   - { name: plain, type: pmos, w: 10um, l: 0.18um, gate: p2, signal: vdd }
   - name: shifted
     type: pmos
@@ -143,10 +146,27 @@ describe('switchConduction', () => {
     levelShifter: { delay: 300ps, low: vdd, high: 2vdd }
     signal: 2vdd
     bulk: 2vdd`);
-    const plain = byName.get('plain')!;
+    const m = result.measurement;
+    if (!m.ok) throw new Error(m.reason);
+    const p2 = m.cycles.p2!;
+    const card = loadProcess(processCard('generic180'));
+    const ls = { delay: 300e-12, low: { scale: 1, offset: 0 }, high: { scale: 2, offset: 0 }, invert: false };
+    // Sized as the deck sizes it: for the p gate's load and p2's mean transition at the nominal corner (this one).
+    const size = sizeShifter(ls, card, switchGateCapacitance(card, 'p', 10e-6, 0.18e-6), (p2.riseTransition + p2.fallTransition) / 2);
+    const edges = shifterEdges(ls, size, devicesAtCorner(card, result.corner), nominalDevices(card), {
+      rise: p2.riseTransition,
+      fall: p2.fallTransition,
+    });
+    // At the nominal corner the sizing comes near the declared 300 ps (its falling edge 310 ps); the
+    // edges differ from its estimates only by p2's unequal ramps.
+    expectClose(size.estimate.fall, 310.1e-12, 0.001);
+    expectClose(edges.rise, size.estimate.rise, 0.03);
+    expectClose(edges.fall, size.estimate.fall, 0.03);
+    // Source and body at 2 VDD: no body effect, the p device turns on where the gate falls below 3.6 V - |V_TP|.
+    const level = 3.6 - devicesAtCorner(card, result.corner).p.vth;
+    const swing = 1.8;
     const shifted = byName.get('shifted')!;
-    // Same device, same gate ramp shape relative to its swing: the level shifter only adds 300 ps.
-    expectClose(shifted.on - plain.on, 300e-12, 1e-6, 'rel');
-    expectClose(shifted.off - plain.off, 300e-12, 1e-6, 'rel');
+    expectClose(shifted.on, p2.fall + edges.fall + edges.fallTransition * ((3.6 - level) / swing - 0.5), 1e-15, 'abs');
+    expectClose(shifted.off, p2.rise + edges.rise + edges.riseTransition * ((level - 1.8) / swing - 0.5), 1e-15, 'abs');
   });
 });
