@@ -7,14 +7,18 @@
  * edge as functions of the input transition and tau = C_L V_DD / I_D0 (so of the load). For a fast
  * input with the output still saturated at 50 % the delay is the 1990 paper's closed form
  *   t_d = (1/2 - (1 - v_T)/(1 + alpha)) * t_T + C_L * V_DD / (2 * I_D0),  v_T = Vth / V_DD;
- * a slower input, and the triode tail of the output edge, are where the two part.
+ * a slower input, and the triode tail of the output edge, are where the two part. Three things the
+ * closed form leaves out are solved with the edge: an input that is another gate's edge, with its
+ * triode tail, rather than a ramp (drivenEdge; a clock source still drives a ramp); the pulling
+ * device's channel charge on the output once it leaves saturation (Meyer's C_gd, solveEdge); and
+ * the opposing network's own strength (the ratio of the two networks' currents).
  *
  * A series stack's switching device is k times wider than the network's equivalent and sees the
  * rest of the stack as on-devices (ramp-response.ts, stackFactor). Pin position counts: input 0
  * sits next to the output; when input p of a series stack switches last, the p internal nodes
  * above it are charged with the output and are discharged with it, so its edge sees p internal
- * node capacitances more: the shared junction each carries when the card's stacks have junctions
- * (spice.stackJunctions; see NODE_GATE for the channel charge).
+ * node capacitances more: half the near device's channel (NODE_GATE) and the shared junction
+ * each carries when the card's stacks have junctions (spice.stackJunctions).
  */
 import { inputError } from '../errors.js';
 import { CELLS, cellWidths } from '../cells/library.js';
@@ -23,7 +27,7 @@ import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
-import { RampResponse } from './ramp-response.js';
+import { CHANNEL, OPPOSING_POINTS, opposingPosition, RampResponse } from './ramp-response.js';
 
 /** Slope of the delay on the input transition for a fast input: 1/2 - (1 - v_T)/(1 + alpha). */
 export function rampCoefficient(vth: number, vdd: number, alpha: number): number {
@@ -36,16 +40,23 @@ export function alphaPowerDelay(load: number, vdd: number, current: number, vth:
 }
 
 /**
- * Per gate, six numbers in one array: tau and v_T position of the rising edge, then of the falling
- * edge, then the tau each internal stack node adds per position of the rising and falling edge.
+ * Per gate, ten numbers in one array: tau and v_T position of the rising edge, then of the
+ * falling edge; the tau each internal stack node adds per position of the rising and falling
+ * edge; the channel share m (ramp-response.ts, solveEdge) of the rising and falling edge; the
+ * position of the opposing network's current ratio (opposingPosition) of the rising and falling edge.
  */
-const STRIDE = 6;
+const STRIDE = 10;
 
 class AnalyticTiming implements GateTiming {
-  /** responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge. */
+  /**
+   * responses[4 * g] answers gate g's rising edge, responses[4 * g + 1] its falling edge, both
+   * driven by another gate; + 2 the same driven by a clock source's ramp; each at every opposing
+   * ratio of the grid. Bit p of ramps[g] is set when input p is a clock source.
+   */
   constructor(
     readonly table: Float64Array,
-    readonly responses: RampResponse[],
+    readonly responses: RampResponse[][],
+    readonly ramps: Uint32Array,
   ) {}
 
   /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
@@ -76,38 +87,98 @@ class AnalyticTiming implements GateTiming {
     return pin === 0 ? base : base + pin * this.table[i + 4 + falling]!;
   }
 
+  /** The responses answering gate g's edge from input `pin`. */
+  private edge(gate: number, falling: number, pin: number): number {
+    return 4 * gate + falling + ((this.ramps[gate]! >>> pin) & 1) * 2;
+  }
+
+  /** Field `field` plus m times its channel term, blended between the two opposing ratios around the gate's, tau. */
+  private field(gate: number, falling: number, edge: number, sPos: number, field: number): number {
+    const i = gate * STRIDE;
+    const vt = this.table[i + 2 * falling + 1]!;
+    const m = this.table[i + 6 + falling]!;
+    const o = this.table[i + 8 + falling]!;
+    const r = o | 0;
+    const w = o - r;
+    const set = this.responses[edge]!;
+    const lo = set[r]!;
+    const hi = set[r + 1]!;
+    const a = lo.at(vt, sPos, field) + m * lo.at(vt, sPos, CHANNEL + field);
+    return w === 0 ? a : a + w * (hi.at(vt, sPos, field) + m * hi.at(vt, sPos, CHANNEL + field) - a);
+  }
+
   delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
+    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 0);
+    return tau * this.field(gate, falling, edge, this.position(edge, tau, inputTransition), 0);
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
+    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 1);
+    return tau * this.field(gate, falling, edge, this.position(edge, tau, inputTransition), 1);
   }
 
   crossing(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
+    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    return (
-      tau *
-      this.responses[edge]!.crossing(this.table[gate * STRIDE + 2 * falling + 1]!, inputTransition / tau, outputRising ? 1 - level : level)
-    );
+    const i = gate * STRIDE;
+    const vt = this.table[i + 2 * falling + 1]!;
+    const m = this.table[i + 6 + falling]!;
+    const o = this.table[i + 8 + falling]!;
+    const r = o | 0;
+    const set = this.responses[edge]!;
+    const remaining = outputRising ? 1 - level : level;
+    const a = set[r]!.crossing(vt, inputTransition / tau, remaining, m);
+    return tau * (a + (o - r) * (set[r + 1]!.crossing(vt, inputTransition / tau, remaining, m) - a));
+  }
+
+  /** Solves the grid rows every edge of the bound table needs. */
+  prepare(): void {
+    for (let g = 0; 4 * g < this.responses.length; g++) {
+      for (let falling = 0; falling < 2; falling++) {
+        const i = g * STRIDE;
+        const vt = this.table[i + 2 * falling + 1]!;
+        const r = this.table[i + 8 + falling]! | 0;
+        for (const kind of [0, 2]) {
+          const set = this.responses[4 * g + falling + kind]!;
+          set[r]!.prepare(vt);
+          set[r + 1]!.prepare(vt);
+        }
+      }
+    }
   }
 }
 
-/** Each gate's rising and falling response for the corner's alphas, by the depth of its pull networks. */
-function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, reuse: RampResponse[] | null): RampResponse[] {
-  const out = reuse ?? new Array<RampResponse>(2 * netlist.gateCount);
+/** The responses of one alpha, depth and kind of input edge at every opposing ratio of the grid. */
+function responseSet(alpha: number, depth: number, driven: boolean): RampResponse[] {
+  return Array.from({ length: OPPOSING_POINTS }, (_, r) => RampResponse.of(alpha, depth, driven, r));
+}
+
+/** Each gate's rising and falling responses for the corner's alphas, by the depth of its pull networks and the kind of input edge. */
+function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number): RampResponse[][] {
+  const out = new Array<RampResponse[]>(4 * netlist.gateCount);
   for (let g = 0; g < netlist.gateCount; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
-    out[2 * g] = RampResponse.of(alphaP, shape.pSeries);
-    out[2 * g + 1] = RampResponse.of(alphaN, shape.nSeries);
+    for (const driven of [true, false]) {
+      const at = 4 * g + (driven ? 0 : 2);
+      out[at] = responseSet(alphaP, shape.pSeries, driven);
+      out[at + 1] = responseSet(alphaN, shape.nSeries, driven);
+    }
+  }
+  return out;
+}
+
+/** Per gate, bit p set when input p is not driven by a gate (a clock source's linear ramp). */
+function rampInputs(netlist: CompiledNetlist): Uint32Array {
+  const out = new Uint32Array(netlist.gateCount);
+  for (let g = 0; g < netlist.gateCount; g++) {
+    const start = netlist.gateInputStart[g]!;
+    for (let k = start; k < netlist.gateInputStart[g + 1]!; k++)
+      if (netlist.driver[netlist.gateInputs[k]!]! < 0) out[g]! |= 1 << (k - start);
   }
   return out;
 }
@@ -119,16 +190,24 @@ interface PullWidths {
   /** Capacitance of one internal node of the pull-up and pull-down stacks, F (0 without a stack). */
   nodeUp: Float64Array;
   nodeDown: Float64Array;
+  /** Channel capacitance C_ox W L of the switching device of the pull-up and pull-down, F. */
+  channelUp: Float64Array;
+  channelDown: Float64Array;
 }
 
 /**
- * Share of one device's gate capacitance an internal stack node adds per position. The stack
- * factor of ramp-response.ts already carries the channel charge of the on-devices (it was fitted
- * to the hand-written references), and a share of 0.5 on top of it moved the NOR reference's
- * clean gap from 28 ps to 76 ps off ngspice (test/reference/nor-gen.cir, 45 corners), so only the
- * junctions a card puts on stack nodes (spice.stackJunctions) count here.
+ * Share of the card's gate capacitance per width that is channel (C_ox L) rather than overlap:
+ * on the reference card (test/reference/ref18.yaml) C_ox L is 1.73 of 2.14 fF/um, the rest the
+ * two overlaps.
  */
-const NODE_GATE = 0;
+const CHANNEL_SHARE = 0.8;
+
+/**
+ * An internal stack node that must swing with the output (the far input switching last) carries
+ * the source half of the on near device's channel, Meyer's split at V_DS = 0 (J. E. Meyer, RCA
+ * Review 32, 1971): half the channel capacitance, per device width.
+ */
+const NODE_GATE = 0.5 * CHANNEL_SHARE;
 
 const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>>();
 
@@ -148,12 +227,16 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
     down: new Float64Array(n),
     nodeUp: new Float64Array(n),
     nodeDown: new Float64Array(n),
+    channelUp: new Float64Array(n),
+    channelDown: new Float64Array(n),
   };
   for (let g = 0; g < n; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
     const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
     entry.up[g] = widths.pullUp;
     entry.down[g] = widths.pullDown;
+    entry.channelUp[g] = CHANNEL_SHARE * widths.wp * card.p.cgate;
+    entry.channelDown[g] = CHANNEL_SHARE * widths.wn * card.n.cgate;
     if (shape.pSeries > 1) entry.nodeUp[g] = widths.wp * (NODE_GATE * card.p.cgate + (junctions ? card.p.cdrain : 0));
     if (shape.nSeries > 1) entry.nodeDown[g] = widths.wn * (NODE_GATE * card.n.cgate + (junctions ? card.n.cdrain : 0));
   }
@@ -164,17 +247,18 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 export const analyticModel: DelayModel = {
   name: 'analytic',
   // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 8 ps pessimistic to 28 ps optimistic on a NAND generator and 17 ps to 26 ps on a
-  // NOR one: 3 % of the dead time keeps it within 10 ps of never optimistic.
-  gapBand: 0.03,
+  // at 10 % is 9.1 ps pessimistic to 0.5 ps pessimistic on a NAND generator and 6.0 ps
+  // pessimistic to 9.6 ps optimistic on a NOR one (dead times 0.5-1.3 ns): 1 % of the dead time
+  // keeps it never optimistic there.
+  gapBand: 0.01,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
     const { n, p } = devices;
     const recycled =
       reuse instanceof AnalyticTiming &&
       reuse.table.length === count * STRIDE &&
-      reuse.responses[0]!.alpha === p.alpha &&
-      reuse.responses[1]!.alpha === n.alpha
+      reuse.responses[0]![0]!.alpha === p.alpha &&
+      reuse.responses[1]![0]!.alpha === n.alpha
         ? reuse
         : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
@@ -197,12 +281,15 @@ export const analyticModel: DelayModel = {
       table[i + 3] = RampResponse.vtPosition(vthN / vdd);
       table[i + 4] = (widths.nodeUp[g]! * vdd) / upCurrent;
       table[i + 5] = (widths.nodeDown[g]! * vdd) / downCurrent;
+      table[i + 6] = widths.channelUp[g]! / load;
+      table[i + 7] = widths.channelDown[g]! / load;
+      table[i + 8] = opposingPosition(downCurrent / upCurrent);
+      table[i + 9] = opposingPosition(upCurrent / downCurrent);
     }
-    if (recycled) {
-      recycled.forget();
-      return recycled;
-    }
-    return new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, null));
+    const timing = recycled ?? new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha), rampInputs(netlist));
+    timing.forget();
+    timing.prepare();
+    return timing;
   },
 };
 
