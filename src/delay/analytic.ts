@@ -9,7 +9,9 @@
  *   t_d = (1/2 - (1 - v_T)/(1 + alpha)) * t_T + C_L * V_DD / (2 * I_D0),  v_T = Vth / V_DD;
  * a slower input, and the triode tail of the output edge, are where the two part. Three things the
  * closed form leaves out are solved with the edge: an input that is another gate's edge, with its
- * triode tail, rather than a ramp (drivenEdge; a clock source still drives a ramp); the pulling
+ * triode tail, rather than a ramp (drivenEdge; a clock source still drives a ramp), its shape
+ * set by the driving gate itself: the alpha of its pulling device and its own input transition over
+ * its tau, read back from its output transition (driverPosition), no fitted constant; the pulling
  * device's channel charge on the output once it leaves saturation (Meyer's C_gd, solveEdge); and
  * the opposing network's own strength (the ratio of the two networks' currents).
  *
@@ -27,7 +29,7 @@ import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
-import { CHANNEL, OPPOSING_POINTS, opposingPosition, RampResponse } from './ramp-response.js';
+import { CHANNEL, DRIVER_INPUTS, driverPosition, OPPOSING_POINTS, opposingPosition, RampResponse } from './ramp-response.js';
 
 /** Slope of the delay on the input transition for a fast input: 1/2 - (1 - v_T)/(1 + alpha). */
 export function rampCoefficient(vth: number, vdd: number, alpha: number): number {
@@ -49,35 +51,56 @@ const STRIDE = 10;
 
 class AnalyticTiming implements GateTiming {
   /**
-   * responses[4 * g] answers gate g's rising edge, responses[4 * g + 1] its falling edge, both
-   * driven by another gate; + 2 the same driven by a clock source's ramp; each at every opposing
-   * ratio of the grid. Bit p of ramps[g] is set when input p is a clock source.
+   * responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge, each per
+   * pin: [shape][opposing], the shapes of DRIVER_INPUTS for a pin driven by a gate, one (the
+   * linear ramp) for a clock source, each at every opposing ratio of the grid. inputDriver[k] is
+   * the gate driving flat input k (netlist.gateInputStart), -1 for a clock source.
    */
   constructor(
     readonly table: Float64Array,
-    readonly responses: RampResponse[][],
-    readonly ramps: Uint32Array,
+    readonly responses: RampResponse[][][][],
+    readonly inputStart: Int32Array,
+    readonly inputDriver: Int32Array,
+    /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
+    readonly driverAlpha: readonly [number, number],
   ) {}
 
-  /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
-  private lastEdge = -1;
+  /** The engine asks for an edge's delay and then its transition: the grid positions are found once. */
+  private lastKey = -1;
   private lastInput = NaN;
   private lastTau = NaN;
+  private lastDriverTau = NaN;
   private lastPosition = 0;
+  private lastShape = 0;
 
   /** Called when the table is rebound: the remembered position belonged to the old taus. */
   forget(): void {
-    this.lastEdge = -1;
+    this.lastKey = -1;
   }
 
-  private position(edge: number, tau: number, inputTransition: number): number {
-    if (edge !== this.lastEdge || inputTransition !== this.lastInput || tau !== this.lastTau) {
-      this.lastEdge = edge;
-      this.lastInput = inputTransition;
-      this.lastTau = tau;
-      this.lastPosition = RampResponse.sPosition(inputTransition / tau);
-    }
-    return this.lastPosition;
+  /** Grid positions of input transition (sPosition) and, for a driven pin, of the driving edge's shape (driverPosition). */
+  private position(gate: number, falling: number, pin: number, tau: number, inputTransition: number): void {
+    const k = this.inputStart[gate]! + pin;
+    const driver = this.inputDriver[k]!;
+    // The driver's edge behind this one: its falling edge for a rising output, its rising edge for a falling one.
+    const driverTau = driver < 0 ? 0 : this.table[driver * STRIDE + 2 * (1 - falling)]!;
+    const key = 2 * k + falling;
+    if (key === this.lastKey && inputTransition === this.lastInput && tau === this.lastTau && driverTau === this.lastDriverTau) return;
+    this.lastKey = key;
+    this.lastInput = inputTransition;
+    this.lastTau = tau;
+    this.lastDriverTau = driverTau;
+    this.lastPosition = RampResponse.sPosition(inputTransition / tau);
+    this.lastShape =
+      driver < 0
+        ? 0
+        : driverPosition(
+            this.driverAlpha[falling]!,
+            this.table[gate * STRIDE + 2 * falling + 1]!,
+            inputTransition / driverTau,
+            this.table[driver * STRIDE + 6 + (1 - falling)]!,
+            this.table[driver * STRIDE + 8 + (1 - falling)]!,
+          );
   }
 
   /** Gate g's tau for an edge (0 rising, 1 falling) caused by input `pin`, s. */
@@ -87,99 +110,92 @@ class AnalyticTiming implements GateTiming {
     return pin === 0 ? base : base + pin * this.table[i + 4 + falling]!;
   }
 
-  /** The responses answering gate g's edge from input `pin`. */
-  private edge(gate: number, falling: number, pin: number): number {
-    return 4 * gate + falling + ((this.ramps[gate]! >>> pin) & 1) * 2;
-  }
-
-  /** Field `field` plus m times its channel term, blended between the two opposing ratios around the gate's, tau. */
-  private field(gate: number, falling: number, edge: number, sPos: number, field: number): number {
+  /**
+   * `read` of the response at the gate's v_T and channel share, blended between the two driving
+   * shapes and the two opposing ratios around the gate's, tau.
+   */
+  private blend(gate: number, falling: number, pin: number, read: (r: RampResponse, vt: number, m: number) => number): number {
     const i = gate * STRIDE;
     const vt = this.table[i + 2 * falling + 1]!;
     const m = this.table[i + 6 + falling]!;
     const o = this.table[i + 8 + falling]!;
     const r = o | 0;
-    const w = o - r;
-    const set = this.responses[edge]!;
-    const lo = set[r]!;
-    const hi = set[r + 1]!;
-    const a = lo.at(vt, sPos, field) + m * lo.at(vt, sPos, CHANNEL + field);
-    return w === 0 ? a : a + w * (hi.at(vt, sPos, field) + m * hi.at(vt, sPos, CHANNEL + field) - a);
+    const wo = o - r;
+    const shapes = this.responses[2 * gate + falling]![pin]!;
+    const q = shapes.length === 1 ? 0 : this.lastShape;
+    const j = q | 0;
+    const wq = q - j;
+    const one = (set: RampResponse[]): number => {
+      const lo = set[r]!;
+      lo.prepare(vt);
+      const a = read(lo, vt, m);
+      if (wo === 0) return a;
+      const hi = set[r + 1]!;
+      hi.prepare(vt);
+      return a + wo * (read(hi, vt, m) - a);
+    };
+    const a = one(shapes[j]!);
+    return wq === 0 ? a : a + wq * (one(shapes[j + 1]!) - a);
   }
 
   delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    return tau * this.field(gate, falling, edge, this.position(edge, tau, inputTransition), 0);
+    this.position(gate, falling, pin, tau, inputTransition);
+    const s = this.lastPosition;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL));
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    return tau * this.field(gate, falling, edge, this.position(edge, tau, inputTransition), 1);
+    this.position(gate, falling, pin, tau, inputTransition);
+    const s = this.lastPosition;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1));
   }
 
   crossing(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = this.edge(gate, falling, pin);
     const tau = this.tau(gate, falling, pin);
-    const i = gate * STRIDE;
-    const vt = this.table[i + 2 * falling + 1]!;
-    const m = this.table[i + 6 + falling]!;
-    const o = this.table[i + 8 + falling]!;
-    const r = o | 0;
-    const set = this.responses[edge]!;
+    this.position(gate, falling, pin, tau, inputTransition);
     const remaining = outputRising ? 1 - level : level;
-    const a = set[r]!.crossing(vt, inputTransition / tau, remaining, m);
-    return tau * (a + (o - r) * (set[r + 1]!.crossing(vt, inputTransition / tau, remaining, m) - a));
-  }
-
-  /** Solves the grid rows every edge of the bound table needs. */
-  prepare(): void {
-    for (let g = 0; 4 * g < this.responses.length; g++) {
-      for (let falling = 0; falling < 2; falling++) {
-        const i = g * STRIDE;
-        const vt = this.table[i + 2 * falling + 1]!;
-        const r = this.table[i + 8 + falling]! | 0;
-        for (const kind of [0, 2]) {
-          const set = this.responses[4 * g + falling + kind]!;
-          set[r]!.prepare(vt);
-          set[r + 1]!.prepare(vt);
-        }
-      }
-    }
+    const s = inputTransition / tau;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.crossing(vt, s, remaining, m));
   }
 }
 
-/** The responses of one alpha, depth and kind of input edge at every opposing ratio of the grid. */
-function responseSet(alpha: number, depth: number, driven: boolean): RampResponse[] {
-  return Array.from({ length: OPPOSING_POINTS }, (_, r) => RampResponse.of(alpha, depth, driven, r));
+/** The responses of one alpha, depth and input edge at every opposing ratio of the grid. */
+function responseSet(alpha: number, depth: number, driver: number | null, shape: number): RampResponse[] {
+  return Array.from({ length: OPPOSING_POINTS }, (_, r) => RampResponse.of(alpha, depth, driver, shape, r));
 }
 
-/** Each gate's rising and falling responses for the corner's alphas, by the depth of its pull networks and the kind of input edge. */
-function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number): RampResponse[][] {
-  const out = new Array<RampResponse[]>(4 * netlist.gateCount);
+/**
+ * Each gate's rising and falling responses for the corner's alphas, per pin: the shapes of a
+ * driving gate's edge (whose pulling device is the other type), or the ramp of a clock source.
+ */
+function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, inputDriver: Int32Array): RampResponse[][][][] {
+  const out = new Array<RampResponse[][][]>(2 * netlist.gateCount);
   for (let g = 0; g < netlist.gateCount; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
-    for (const driven of [true, false]) {
-      const at = 4 * g + (driven ? 0 : 2);
-      out[at] = responseSet(alphaP, shape.pSeries, driven);
-      out[at + 1] = responseSet(alphaN, shape.nSeries, driven);
-    }
+    const start = netlist.gateInputStart[g]!;
+    const pins = netlist.gateInputStart[g + 1]! - start;
+    const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][] =>
+      Array.from({ length: pins }, (_, pin) =>
+        inputDriver[start + pin]! < 0
+          ? [responseSet(alpha, depth, null, 0)]
+          : DRIVER_INPUTS.map((_, j) => responseSet(alpha, depth, driverAlpha, j)),
+      );
+    // The driver's edge behind a rising output is its falling one (its n network), and the other way round.
+    out[2 * g] = edges(alphaP, shape.pSeries, alphaN);
+    out[2 * g + 1] = edges(alphaN, shape.nSeries, alphaP);
   }
   return out;
 }
 
-/** Per gate, bit p set when input p is not driven by a gate (a clock source's linear ramp). */
-function rampInputs(netlist: CompiledNetlist): Uint32Array {
-  const out = new Uint32Array(netlist.gateCount);
-  for (let g = 0; g < netlist.gateCount; g++) {
-    const start = netlist.gateInputStart[g]!;
-    for (let k = start; k < netlist.gateInputStart[g + 1]!; k++)
-      if (netlist.driver[netlist.gateInputs[k]!]! < 0) out[g]! |= 1 << (k - start);
-  }
+/** Per flat input (netlist.gateInputStart), the gate driving it, -1 for a clock source. */
+function inputDrivers(netlist: CompiledNetlist): Int32Array {
+  const out = new Int32Array(netlist.gateInputs.length);
+  for (let k = 0; k < out.length; k++) out[k] = netlist.driver[netlist.gateInputs[k]!]!;
   return out;
 }
 
@@ -247,18 +263,19 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 export const analyticModel: DelayModel = {
   name: 'analytic',
   // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 9.1 ps pessimistic to 0.5 ps pessimistic on a NAND generator and 6.0 ps
-  // pessimistic to 9.6 ps optimistic on a NOR one (dead times 0.5-1.3 ns): 1 % of the dead time
-  // keeps it never optimistic there.
-  gapBand: 0.01,
+  // at 10 % is 3.9 ps pessimistic to 18.2 ps optimistic on a NAND generator and 3.8 to 26.6 ps
+  // optimistic on the NOR ones (dead times 0.4-1.2 ns, 0.4-4.7 % long): 3 % of the dead time
+  // leaves it at most 6.9 ps optimistic there.
+  gapBand: 0.03,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
     const { n, p } = devices;
     const recycled =
       reuse instanceof AnalyticTiming &&
       reuse.table.length === count * STRIDE &&
-      reuse.responses[0]![0]!.alpha === p.alpha &&
-      reuse.responses[1]![0]!.alpha === n.alpha
+      reuse.inputStart === netlist.gateInputStart &&
+      reuse.driverAlpha[0] === n.alpha &&
+      reuse.driverAlpha[1] === p.alpha
         ? reuse
         : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
@@ -286,9 +303,15 @@ export const analyticModel: DelayModel = {
       table[i + 8] = opposingPosition(downCurrent / upCurrent);
       table[i + 9] = opposingPosition(upCurrent / downCurrent);
     }
-    const timing = recycled ?? new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha), rampInputs(netlist));
+    let timing = recycled;
+    if (!timing) {
+      const drivers = inputDrivers(netlist);
+      timing = new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, drivers), netlist.gateInputStart, drivers, [
+        n.alpha,
+        p.alpha,
+      ]);
+    }
     timing.forget();
-    timing.prepare();
     return timing;
   },
 };

@@ -197,12 +197,12 @@ function inputStart(edge: InputEdge | null, vT: number): number {
 }
 
 /**
- * Input transition, in the driving gate's own tau, of the ramp behind the standard driven edge
- * (drivenEdge): fitted to the hand-written ngspice references (test/reference/, NAND and NOR
- * generators at 45 corners each), where it brings the 50 % dead time within 2 % and the clean gap
- * within 10 ps; 1 gives a step-like edge with a long triode tail, 4 nearly a ramp.
+ * Input transitions of the driving gate, in its own tau, at which its edge is solved (drivenEdge):
+ * from a step (the edge all triode tail past its saturated start) to a slow input (nearly a ramp).
+ * A driven edge's shape is placed between them by the driving gate's own output transition over
+ * its tau (driverPosition), so the shape follows the driver's alpha and load rather than a constant.
  */
-export const DRIVER_TRANSITION = 2.35;
+export const DRIVER_INPUTS: readonly number[] = [0, 1, 2.5, 5, 10];
 
 /** Samples per transition of a recorded input edge. */
 const EDGE_STEP = 0.005;
@@ -212,10 +212,10 @@ const EDGE_STEP = 0.005;
  * solved output, inverted to rise), as an input edge: what the next gate sees in place of a ramp.
  * It carries the output's triode tail, which a ramp of the same 10-90 % time does not.
  */
-export function drivenEdge(alpha: number, vT: number, s: number): InputEdge {
+export function drivenEdge(alpha: number, vT: number, s: number, input: InputEdge | null = null): InputEdge {
   const ts: number[] = [];
   const vs: number[] = [];
-  const { crossings } = solveEdge(alpha, vT, s, 1, null, 1, (t, v) => {
+  const { crossings } = solveEdge(alpha, vT, s, 1, input, 1, (t, v) => {
     ts.push(t);
     vs.push(v);
   });
@@ -236,6 +236,15 @@ export function drivenEdge(alpha: number, vT: number, s: number): InputEdge {
   return { start, step: EDGE_STEP, u };
 }
 
+/**
+ * The driver's own input: in a chain of gates it too is another gate's edge, taken as that of a
+ * like gate under a ramp of the same transition (one stage back; a second stage back moves the
+ * references' dead times by under 0.1 %).
+ */
+function driverInput(alpha: number, vT: number, s: number): InputEdge {
+  return drivenEdge(alpha, vT, s);
+}
+
 /** Ratios of the opposing network's full-drive current to the pulling one's on the grid: 2^(r - 2). */
 export const OPPOSING_POINTS = 5;
 
@@ -245,12 +254,73 @@ export function opposingPosition(ratio: number): number {
   return Math.min(Math.max(p, 0), OPPOSING_POINTS - 1 - 1e-9);
 }
 
-/** The solved grid of one alpha, depth, kind of input edge and opposing ratio; v_T rows are solved when first asked for. */
+/**
+ * Full-swing output transitions, in tau, of a driver by alpha and opposing grid point: per v_T
+ * row, one per DRIVER_INPUTS and then their channel-share terms.
+ */
+const driverTransitions = new Map<string, Float64Array>();
+
+/** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel terms. */
+function driverRow(alpha: number, o: number, row: number): Float64Array {
+  const n = DRIVER_INPUTS.length;
+  const key = `${alpha}/${o}`;
+  let rows = driverTransitions.get(key);
+  if (!rows) {
+    rows = new Float64Array(2 * VT_POINTS * n).fill(NaN);
+    driverTransitions.set(key, rows);
+  }
+  if (Number.isNaN(rows[2 * row * n]!)) {
+    for (let j = 0; j < n; j++) {
+      const sd = DRIVER_INPUTS[j]!;
+      const { crossings, channel } = solveEdge(alpha, row * VT_STEP, sd, 1, driverInput(alpha, row * VT_STEP, sd), 2 ** (o - 2));
+      rows[2 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
+      rows[(2 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
+    }
+  }
+  return rows.subarray(2 * row * n, 2 * (row + 1) * n);
+}
+
+/**
+ * Position of a driving edge on DRIVER_INPUTS (0 ... DRIVER_INPUTS.length - 1, clamped) from the
+ * driver's full-swing output transition `ratio` in its own tau: the driver's input transition
+ * that gives that output transition, for a driver of index `alpha` at v_T position `vtPos`, with
+ * channel share `share` and opposing position `opposing` (opposingPosition), as the driver's own
+ * edge was computed.
+ */
+export function driverPosition(alpha: number, vtPos: number, ratio: number, share = 0, opposing = 2): number {
+  const n = DRIVER_INPUTS.length;
+  const a = vtPos | 0;
+  const wa = vtPos - a;
+  const o = opposing | 0;
+  const wo = opposing - o;
+  const corners = [driverRow(alpha, o, a), driverRow(alpha, o, a + 1)];
+  const far = wo === 0 ? corners : [driverRow(alpha, o + 1, a), driverRow(alpha, o + 1, a + 1)];
+  const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]!;
+  const at = (j: number): number => {
+    const near = value(corners[0]!, j) + wa * (value(corners[1]!, j) - value(corners[0]!, j));
+    const other = value(far[0]!, j) + wa * (value(far[1]!, j) - value(far[0]!, j));
+    return near + wo * (other - near);
+  };
+  let lo = at(0);
+  if (!(ratio > lo)) return 0;
+  for (let j = 1; j < n; j++) {
+    const hi = at(j);
+    if (ratio < hi) return j - 1 + (ratio - lo) / (hi - lo);
+    lo = hi;
+  }
+  return n - 1 - 1e-9;
+}
+
+/**
+ * The solved grid of one alpha, depth, input edge (a ramp, or a driver of alpha `driver` at input
+ * transition DRIVER_INPUTS[shape]) and opposing ratio; v_T rows are solved when first asked for.
+ */
 export class RampResponse {
   private constructor(
     readonly alpha: number,
     readonly depth: number,
-    readonly driven: boolean,
+    readonly driver: number | null,
+    readonly shape: number,
     readonly opposing: number,
     private readonly grid: Float64Array,
   ) {}
@@ -260,14 +330,15 @@ export class RampResponse {
 
   /**
    * The grid of devices of index alpha switching in a series stack of `depth` (1 = a single
-   * device), driven by a linear ramp or, `driven`, by another gate's edge (drivenEdge), against an
-   * opposing network of grid point `opposing` (2^(opposing - 2) times the pulling one's current).
+   * device), driven by a linear ramp (`driver` null) or by the edge of a gate of index `driver`
+   * whose own input transition is DRIVER_INPUTS[shape] (drivenEdge), against an opposing network
+   * of grid point `opposing` (2^(opposing - 2) times the pulling one's current).
    */
-  static of(alpha: number, depth = 1, driven = false, opposing = 2): RampResponse {
-    const key = `${alpha}/${depth}/${driven}/${opposing}`;
+  static of(alpha: number, depth = 1, driver: number | null = null, shape = 0, opposing = 2): RampResponse {
+    const key = `${alpha}/${depth}/${driver}/${driver === null ? 0 : shape}/${opposing}`;
     let table = RampResponse.cache.get(key);
     if (!table) {
-      table = new RampResponse(alpha, depth, driven, opposing, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
+      table = new RampResponse(alpha, depth, driver, shape, opposing, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
       RampResponse.cache.set(key, table);
     }
     return table;
@@ -282,7 +353,8 @@ export class RampResponse {
   }
 
   private solveRow(a: number): void {
-    const input = this.driven ? drivenEdge(this.alpha, a * VT_STEP, DRIVER_TRANSITION) : null;
+    const sd = DRIVER_INPUTS[this.shape]!;
+    const input = this.driver === null ? null : drivenEdge(this.driver, a * VT_STEP, sd, driverInput(this.driver, a * VT_STEP, sd));
     const ratio = 2 ** (this.opposing - 2);
     const grid = this.grid;
     for (let k = 0; k < S_POINTS; k++) {

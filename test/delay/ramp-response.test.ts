@@ -1,5 +1,13 @@
 import { describe, it, expect } from 'vitest';
-import { drivenEdge, meyerDrain, RampResponse, solveEdge, stackFactor } from '../../src/delay/ramp-response.js';
+import {
+  DRIVER_INPUTS,
+  driverPosition,
+  drivenEdge,
+  meyerDrain,
+  RampResponse,
+  solveEdge,
+  stackFactor,
+} from '../../src/delay/ramp-response.js';
 import { expectClose } from '../helpers.js';
 
 /** Sakurai & Newton, IEEE JSSC 25(2), 1990: fast-input delay in units of C V_DD / I_D0. */
@@ -79,10 +87,14 @@ describe('RampResponse', () => {
     }
   });
 
-  it('is built once per alpha and depth', () => {
+  it('is built once per alpha, depth, input edge and opposing ratio', () => {
     expect(RampResponse.of(2)).toBe(grid);
     expect(RampResponse.of(2, 2)).not.toBe(grid);
     expect(RampResponse.of(2, 2).depth).toBe(2);
+    // a ramp has no driver shape: the shape index is ignored
+    expect(RampResponse.of(2, 1, null, 3)).toBe(grid);
+    expect(RampResponse.of(2, 1, 1.3, 1)).not.toBe(RampResponse.of(2, 1, 1.3, 2));
+    expect(RampResponse.of(2, 1, 1.3, 1).driver).toBe(1.3);
   });
 
   it('clamps v_T to its grid (0 ... 0.95)', () => {
@@ -138,5 +150,29 @@ describe('solveEdge against an opposing network', () => {
     expect(channelDelay).toBeGreaterThan(0);
     expect(channel[18]!).toBeGreaterThan(channel[9]!);
     expectClose(channel[9]!, 0, 1e-9, 'abs');
+  });
+});
+
+describe('driverPosition', () => {
+  const vT = 0.25;
+  const pos = RampResponse.vtPosition(vT);
+  /** Output transition, in tau, of a driver at input transition sd whose own input is a like gate's edge (as the model builds it). */
+  const transition = (alpha: number, sd: number) => {
+    const { crossings } = solveEdge(alpha, vT, sd, 1, drivenEdge(alpha, vT, sd), 1);
+    return (crossings[17]! - crossings[1]!) / 0.8;
+  };
+
+  it("maps a driver's own output transition back to the input transition it was solved at", () => {
+    for (let j = 0; j < DRIVER_INPUTS.length - 1; j++)
+      expectClose(driverPosition(2, pos, transition(2, DRIVER_INPUTS[j]!), 0, 2), j, 1e-6, 'abs');
+  });
+
+  it('clamps to the step below its step response and to the slowest input above the last grid point', () => {
+    expect(driverPosition(2, pos, 0.5)).toBe(0);
+    expect(driverPosition(2, pos, 100)).toBeCloseTo(DRIVER_INPUTS.length - 1, 6);
+  });
+
+  it('follows the driver alpha: the same output transition means a slower input at alpha 1.3 than at 2', () => {
+    expect(driverPosition(1.3, pos, 1.5)).toBeGreaterThan(driverPosition(2, pos, 1.5) + 0.5);
   });
 });
