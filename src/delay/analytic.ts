@@ -13,7 +13,8 @@
  * set by the driving gate itself: the alpha of its pulling device and its own input transition over
  * its tau, read back from its output transition (driverPosition), no fitted constant; the pulling
  * device's channel charge on the output once it leaves saturation (Meyer's C_gd, solveEdge); and
- * the opposing network's own strength (the ratio of the two networks' currents).
+ * the opposing network's own strength (the ratio of the two networks' currents) and its own
+ * threshold, which a skewed corner or a mismatch sample moves away from the pulling device's.
  *
  * A series stack's switching device is k times wider than the network's equivalent and sees the
  * rest of the stack as on-devices (ramp-response.ts, stackFactor). Pin position counts: input 0
@@ -29,7 +30,16 @@ import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
-import { CHANNEL, DRIVER_INPUTS, driverPosition, OPPOSING_POINTS, opposingPosition, RampResponse } from './ramp-response.js';
+import {
+  CHANNEL,
+  DRIVER_INPUTS,
+  driverPosition,
+  OPPOSING_POINTS,
+  opposingPosition,
+  RampResponse,
+  SHIFT_POINTS,
+  shiftPosition,
+} from './ramp-response.js';
 
 /** Slope of the delay on the input transition for a fast input: 1/2 - (1 - v_T)/(1 + alpha). */
 export function rampCoefficient(vth: number, vdd: number, alpha: number): number {
@@ -45,20 +55,22 @@ export function alphaPowerDelay(load: number, vdd: number, current: number, vth:
  * Per gate, ten numbers in one array: tau and v_T position of the rising edge, then of the
  * falling edge; the tau each internal stack node adds per position of the rising and falling
  * edge; the channel share m (ramp-response.ts, solveEdge) of the rising and falling edge; the
- * position of the opposing network's current ratio (opposingPosition) of the rising and falling edge.
+ * position of the opposing network's current ratio (opposingPosition) of the rising and falling edge;
+ * the position of the opposing device's threshold from the pulling one's (shiftPosition) of the
+ * rising and falling edge.
  */
-const STRIDE = 10;
+const STRIDE = 12;
 
 class AnalyticTiming implements GateTiming {
   /**
    * responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge, each per
-   * pin: [shape][opposing], the shapes of DRIVER_INPUTS for a pin driven by a gate, one (the
-   * linear ramp) for a clock source, each at every opposing ratio of the grid. inputDriver[k] is
+   * pin: [shape][opposing][shift], the shapes of DRIVER_INPUTS for a pin driven by a gate, one (the
+   * linear ramp) for a clock source, each at every opposing ratio and threshold of the grid. inputDriver[k] is
    * the gate driving flat input k (netlist.gateInputStart), -1 for a clock source.
    */
   constructor(
     readonly table: Float64Array,
-    readonly responses: RampResponse[][][][],
+    readonly responses: RampResponse[][][][][],
     readonly inputStart: Int32Array,
     readonly inputDriver: Int32Array,
     /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
@@ -125,14 +137,21 @@ class AnalyticTiming implements GateTiming {
     const q = shapes.length === 1 ? 0 : this.lastShape;
     const j = q | 0;
     const wq = q - j;
-    const one = (set: RampResponse[]): number => {
-      const lo = set[r]!;
+    const d = this.table[i + 10 + falling]!;
+    const b = d | 0;
+    const wd = d - b;
+    const point = (row: RampResponse[]): number => {
+      const lo = row[b]!;
       lo.prepare(vt);
       const a = read(lo, vt, m);
-      if (wo === 0) return a;
-      const hi = set[r + 1]!;
+      if (wd === 0) return a;
+      const hi = row[b + 1]!;
       hi.prepare(vt);
-      return a + wo * (read(hi, vt, m) - a);
+      return a + wd * (read(hi, vt, m) - a);
+    };
+    const one = (set: RampResponse[][]): number => {
+      const a = point(set[r]!);
+      return wo === 0 ? a : a + wo * (point(set[r + 1]!) - a);
     };
     const a = one(shapes[j]!);
     return wq === 0 ? a : a + wq * (one(shapes[j + 1]!) - a);
@@ -164,22 +183,24 @@ class AnalyticTiming implements GateTiming {
   }
 }
 
-/** The responses of one alpha, depth and input edge at every opposing ratio of the grid. */
-function responseSet(alpha: number, depth: number, driver: number | null, shape: number): RampResponse[] {
-  return Array.from({ length: OPPOSING_POINTS }, (_, r) => RampResponse.of(alpha, depth, driver, shape, r));
+/** The responses of one alpha, depth and input edge at every opposing ratio and threshold of the grid. */
+function responseSet(alpha: number, depth: number, driver: number | null, shape: number): RampResponse[][] {
+  return Array.from({ length: OPPOSING_POINTS }, (_, r) =>
+    Array.from({ length: SHIFT_POINTS }, (_, d) => RampResponse.of(alpha, depth, driver, shape, r, d)),
+  );
 }
 
 /**
  * Each gate's rising and falling responses for the corner's alphas, per pin: the shapes of a
  * driving gate's edge (whose pulling device is the other type), or the ramp of a clock source.
  */
-function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, inputDriver: Int32Array): RampResponse[][][][] {
-  const out = new Array<RampResponse[][][]>(2 * netlist.gateCount);
+function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, inputDriver: Int32Array): RampResponse[][][][][] {
+  const out = new Array<RampResponse[][][][]>(2 * netlist.gateCount);
   for (let g = 0; g < netlist.gateCount; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
     const start = netlist.gateInputStart[g]!;
     const pins = netlist.gateInputStart[g + 1]! - start;
-    const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][] =>
+    const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][][] =>
       Array.from({ length: pins }, (_, pin) =>
         inputDriver[start + pin]! < 0
           ? [responseSet(alpha, depth, null, 0)]
@@ -263,9 +284,9 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 export const analyticModel: DelayModel = {
   name: 'analytic',
   // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 3.9 ps pessimistic to 18.2 ps optimistic on a NAND generator and 3.8 to 26.6 ps
-  // optimistic on the NOR ones (dead times 0.4-1.2 ns, 0.4-4.7 % long): 3 % of the dead time
-  // leaves it at most 6.9 ps optimistic there.
+  // at 10 % is 3.4 ps pessimistic to 18.2 ps optimistic on a NAND generator and 3.0 to 26.6 ps
+  // optimistic on the NOR ones (dead times 0.3-1.1 ns, -0.3..+4.6 % off): 3 % of the dead time
+  // leaves it at most 6.5 ps optimistic there.
   gapBand: 0.03,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
@@ -302,6 +323,8 @@ export const analyticModel: DelayModel = {
       table[i + 7] = widths.channelDown[g]! / load;
       table[i + 8] = opposingPosition(downCurrent / upCurrent);
       table[i + 9] = opposingPosition(upCurrent / downCurrent);
+      table[i + 10] = shiftPosition((vthN - vthP) / vdd);
+      table[i + 11] = shiftPosition((vthP - vthN) / vdd);
     }
     let timing = recycled;
     if (!timing) {

@@ -10,7 +10,8 @@
  * I_sat(V_ov) matched to alpha, V_D0 = (alpha - 1)(V_DD - Vth), the square law's V_ov at alpha = 2
  * and 0 at alpha = 1.
  *
- * The opposing network, still on while the input ramps, is taken as the pulling one's mirror image.
+ * The opposing network, still on while the input ramps, is taken as the pulling one's mirror image
+ * scaled by the ratio of the two networks' full-drive currents, with its own threshold.
  *
  * In units of tau = C V_DD / I_D0 the edge depends only on alpha, v_T = Vth/V_DD and the input
  * transition s = t_in / tau. The paper's closed forms are the limits of this one equation: a step
@@ -109,23 +110,26 @@ export function solveEdge(
   input: InputEdge | null = null,
   opposing = 1,
   record?: (t: number, v: number) => void,
+  opposingShift = 0,
 ): { delay: number; crossings: Float64Array; channel: Float64Array; channelDelay: number } {
   const d0 = (alpha - 1) * (1 - vT);
-  const pull = (gate: number, v: number, series: number): number => {
-    if (gate <= vT) return 0;
-    const x = (gate - vT) / (1 - vT);
+  const vTo = Math.min(Math.max(vT + opposingShift, 0), 0.99);
+  const pull = (gate: number, v: number, series: number, th = vT): number => {
+    if (gate <= th) return 0;
+    const x = (gate - th) / (1 - th);
     const sat = stackFactor(alpha === 2 ? x * x : x ** alpha, series);
-    const vdsat = d0 * Math.sqrt(sat);
+    const vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
     if (v >= vdsat) return sat;
     const r = v / vdsat;
     return sat * (2 - r) * r;
   };
   // The opposing network is the pulling one's mirror image scaled by `opposing`, the ratio of the
-  // two networks' full-drive currents: it holds the output while a slow input is still near its start.
+  // two networks' full-drive currents, with its own v_T (`opposingShift` above the pulling one's):
+  // it holds the output while a slow input is still near its start.
   const vinAt = (t: number): number => (s > 0 ? inputAt(input, t / s) : 1);
   const current = (t: number, v: number): number => {
     const vin = vinAt(t);
-    return pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1);
+    return pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1, vTo);
   };
   /** The pulling device's drain share at output v and input vin (0 while saturated or off). */
   const share = (vin: number, v: number): number => {
@@ -312,8 +316,24 @@ export function driverPosition(alpha: number, vtPos: number, ratio: number, shar
 }
 
 /**
+ * The opposing device's own v_T less the pulling one's on the grid: (j - SHIFT_CENTRE) * SHIFT_STEP.
+ * A skewed corner moves the two thresholds apart (fs: the p-device's up, the n-device's down), and
+ * the opposing device's threshold sets how long it holds the output against a slow input.
+ */
+export const SHIFT_POINTS = 7;
+const SHIFT_CENTRE = 3;
+const SHIFT_STEP = 0.05;
+
+/** Position of a v_T difference (opposing less pulling) on its grid points (0 ... SHIFT_POINTS - 1), clamped. */
+export function shiftPosition(shift: number): number {
+  const p = shift / SHIFT_STEP + SHIFT_CENTRE;
+  return Math.min(Math.max(p, 0), SHIFT_POINTS - 1 - 1e-9);
+}
+
+/**
  * The solved grid of one alpha, depth, input edge (a ramp, or a driver of alpha `driver` at input
- * transition DRIVER_INPUTS[shape]) and opposing ratio; v_T rows are solved when first asked for.
+ * transition DRIVER_INPUTS[shape]), opposing ratio and opposing threshold; v_T rows are solved
+ * when first asked for.
  */
 export class RampResponse {
   private constructor(
@@ -322,6 +342,7 @@ export class RampResponse {
     readonly driver: number | null,
     readonly shape: number,
     readonly opposing: number,
+    readonly shift: number,
     private readonly grid: Float64Array,
   ) {}
 
@@ -332,13 +353,14 @@ export class RampResponse {
    * The grid of devices of index alpha switching in a series stack of `depth` (1 = a single
    * device), driven by a linear ramp (`driver` null) or by the edge of a gate of index `driver`
    * whose own input transition is DRIVER_INPUTS[shape] (drivenEdge), against an opposing network
-   * of grid point `opposing` (2^(opposing - 2) times the pulling one's current).
+   * of grid point `opposing` (2^(opposing - 2) times the pulling one's current) whose threshold
+   * sits at grid point `shift` (shiftPosition) from the pulling one's.
    */
-  static of(alpha: number, depth = 1, driver: number | null = null, shape = 0, opposing = 2): RampResponse {
-    const key = `${alpha}/${depth}/${driver}/${driver === null ? 0 : shape}/${opposing}`;
+  static of(alpha: number, depth = 1, driver: number | null = null, shape = 0, opposing = 2, shift = SHIFT_CENTRE): RampResponse {
+    const key = `${alpha}/${depth}/${driver}/${driver === null ? 0 : shape}/${opposing}/${shift}`;
     let table = RampResponse.cache.get(key);
     if (!table) {
-      table = new RampResponse(alpha, depth, driver, shape, opposing, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
+      table = new RampResponse(alpha, depth, driver, shape, opposing, shift, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
       RampResponse.cache.set(key, table);
     }
     return table;
@@ -358,7 +380,16 @@ export class RampResponse {
     const ratio = 2 ** (this.opposing - 2);
     const grid = this.grid;
     for (let k = 0; k < S_POINTS; k++) {
-      const { delay, crossings, channel, channelDelay } = solveEdge(this.alpha, a * VT_STEP, gridTransition(k), this.depth, input, ratio);
+      const { delay, crossings, channel, channelDelay } = solveEdge(
+        this.alpha,
+        a * VT_STEP,
+        gridTransition(k),
+        this.depth,
+        input,
+        ratio,
+        undefined,
+        (this.shift - SHIFT_CENTRE) * SHIFT_STEP,
+      );
       const i = (a * S_POINTS + k) * STRIDE;
       grid[i] = delay;
       grid[i + 1] = (crossings[17]! - crossings[1]!) / 0.8;

@@ -263,6 +263,27 @@ describe('analyticModel.bind at corners', () => {
   });
 });
 
+describe('analyticModel.bind against the opposing device threshold', () => {
+  // Two cards whose p-devices give the same full-drive current at tt/1.8V/27C, one with a threshold
+  // 0.1 V higher (its drive scaled by (1.4 / 1.3)^1.3 to match): the falling edge's opposing current
+  // is the same at full drive but lets go sooner as a slow input rises.
+  const card = effortCard();
+  const higher = parseWith(processSchema, {
+    ...card,
+    p: { ...card.p, vth0: card.p.vth0 + 0.1, drive: card.p.drive * (1.4 / 1.3) ** 1.3 },
+  });
+  const net = fanoutNetlist('INV', 4);
+  const corner = at('tt', 1.8, 27);
+  const bind = (c: ProcessCard) => analyticModel.bind(net, netLoads(net, c), devicesAtCorner(c, corner));
+
+  it('gives a slow-input falling edge less delay against a p-device of higher threshold, and a step the same', () => {
+    expectClose(devicesAtCorner(higher, corner).p.idsatPerWidth, devicesAtCorner(card, corner).p.idsatPerWidth, 1e-9);
+    const slow = 400e-12;
+    expect(bind(higher).delay(0, 0, false, slow)).toBeLessThan(bind(card).delay(0, 0, false, slow));
+    expectClose(bind(higher).delay(0, 0, false, 0), bind(card).delay(0, 0, false, 0), 1e-9);
+  });
+});
+
 describe('temperature dependence of the gate drive', () => {
   // A step input isolates the drive current (C_L V_DD / 2 I_D0); the slope term is checked above.
   const fo4 = (cardName: string, vdd: number, temperature: number): number => {

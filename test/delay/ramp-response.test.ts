@@ -5,6 +5,8 @@ import {
   drivenEdge,
   meyerDrain,
   RampResponse,
+  SHIFT_POINTS,
+  shiftPosition,
   solveEdge,
   stackFactor,
 } from '../../src/delay/ramp-response.js';
@@ -87,7 +89,7 @@ describe('RampResponse', () => {
     }
   });
 
-  it('is built once per alpha, depth, input edge and opposing ratio', () => {
+  it('is built once per alpha, depth, input edge, opposing ratio and opposing threshold', () => {
     expect(RampResponse.of(2)).toBe(grid);
     expect(RampResponse.of(2, 2)).not.toBe(grid);
     expect(RampResponse.of(2, 2).depth).toBe(2);
@@ -95,6 +97,9 @@ describe('RampResponse', () => {
     expect(RampResponse.of(2, 1, null, 3)).toBe(grid);
     expect(RampResponse.of(2, 1, 1.3, 1)).not.toBe(RampResponse.of(2, 1, 1.3, 2));
     expect(RampResponse.of(2, 1, 1.3, 1).driver).toBe(1.3);
+    expect(RampResponse.of(2, 1, null, 0, 2, shiftPosition(0))).toBe(grid);
+    expect(RampResponse.of(2, 1, null, 0, 2, 4)).not.toBe(grid);
+    expect(RampResponse.of(2, 1, null, 0, 2, 4).shift).toBe(4);
   });
 
   it('clamps v_T to its grid (0 ... 0.95)', () => {
@@ -144,6 +149,14 @@ describe('solveEdge against an opposing network', () => {
     expectClose(solveEdge(2, 0.25, 0, 1, null, 2).delay, solveEdge(2, 0.25, 0).delay, 1e-12);
   });
 
+  it('is faster against an opposing device of higher threshold for a slow input and unchanged for a step', () => {
+    const mirror = solveEdge(2, 0.25, 4, 1, null, 1).delay;
+    expect(solveEdge(2, 0.25, 4, 1, null, 1, undefined, 0.05).delay).toBeLessThan(mirror);
+    expect(solveEdge(2, 0.25, 4, 1, null, 1, undefined, -0.05).delay).toBeGreaterThan(mirror);
+    expectClose(solveEdge(2, 0.25, 4, 1, null, 1, undefined, 0).delay, mirror, 1e-12);
+    expectClose(solveEdge(2, 0.25, 0, 1, null, 1, undefined, 0.1).delay, solveEdge(2, 0.25, 0).delay, 1e-12);
+  });
+
   it('gives every crossing its channel term in order: none while saturated, growing through the triode tail', () => {
     const { channel, channelDelay } = solveEdge(2, 0.25, 0);
     // d0 = 0.75: the 50 % point is in the triode region already, the 95 % point (0.05 to go) far into it
@@ -174,5 +187,17 @@ describe('driverPosition', () => {
 
   it('follows the driver alpha: the same output transition means a slower input at alpha 1.3 than at 2', () => {
     expect(driverPosition(1.3, pos, 1.5)).toBeGreaterThan(driverPosition(2, pos, 1.5) + 0.5);
+  });
+});
+
+describe('shiftPosition', () => {
+  it('puts equal thresholds on the middle grid point, 0.05 of the supply one point apart, clamped at both ends', () => {
+    const middle = (SHIFT_POINTS - 1) / 2;
+    expect(shiftPosition(0)).toBe(middle);
+    expectClose(shiftPosition(0.05) - shiftPosition(0), 1, 1e-12);
+    expectClose(shiftPosition(-0.025), middle - 0.5, 1e-12);
+    expect(shiftPosition(1)).toBeCloseTo(SHIFT_POINTS - 1, 6);
+    expect(shiftPosition(1)).toBeLessThan(SHIFT_POINTS - 1);
+    expect(shiftPosition(-1)).toBe(0);
   });
 });
