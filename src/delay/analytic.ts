@@ -7,14 +7,21 @@
  * edge as functions of the input transition and tau = C_L V_DD / I_D0 (so of the load). For a fast
  * input with the output still saturated at 50 % the delay is the 1990 paper's closed form
  *   t_d = (1/2 - (1 - v_T)/(1 + alpha)) * t_T + C_L * V_DD / (2 * I_D0),  v_T = Vth / V_DD;
- * a slower input, and the triode tail of the output edge, are where the two part.
+ * a slower input, and the triode tail of the output edge, are where the two part. Three things the
+ * closed form leaves out are solved with the edge: an input that is another gate's edge, with its
+ * triode tail, rather than a ramp (drivenEdge; a clock source still drives a ramp), its shape
+ * set by the driving gate itself: the alpha of its pulling device and its own input transition over
+ * its tau, read back from its output transition (driverPosition), no fitted constant; the pulling
+ * device's channel charge on the output once it leaves saturation (Meyer's C_gd, solveEdge); and
+ * the opposing network's own strength (the ratio of the two networks' currents) and its own
+ * threshold, which a skewed corner or a mismatch sample moves away from the pulling device's.
  *
  * A series stack's switching device is k times wider than the network's equivalent and sees the
  * rest of the stack as on-devices (ramp-response.ts, stackFactor). Pin position counts: input 0
  * sits next to the output; when input p of a series stack switches last, the p internal nodes
  * above it are charged with the output and are discharged with it, so its edge sees p internal
- * node capacitances more: the shared junction each carries when the card's stacks have junctions
- * (spice.stackJunctions; see NODE_GATE for the channel charge).
+ * node capacitances more: half the near device's channel (NODE_GATE) and the shared junction
+ * each carries when the card's stacks have junctions (spice.stackJunctions).
  */
 import { inputError } from '../errors.js';
 import { CELLS, cellWidths } from '../cells/library.js';
@@ -23,7 +30,16 @@ import { unitWidths } from '../cells/card-widths.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { DelayModel, GateTiming, Mismatch } from './model.js';
-import { RampResponse } from './ramp-response.js';
+import {
+  CHANNEL,
+  DRIVER_INPUTS,
+  driverPosition,
+  OPPOSING_POINTS,
+  opposingPosition,
+  RampResponse,
+  SHIFT_POINTS,
+  shiftPosition,
+} from './ramp-response.js';
 
 /** Slope of the delay on the input transition for a fast input: 1/2 - (1 - v_T)/(1 + alpha). */
 export function rampCoefficient(vth: number, vdd: number, alpha: number): number {
@@ -36,37 +52,67 @@ export function alphaPowerDelay(load: number, vdd: number, current: number, vth:
 }
 
 /**
- * Per gate, six numbers in one array: tau and v_T position of the rising edge, then of the falling
- * edge, then the tau each internal stack node adds per position of the rising and falling edge.
+ * Per gate, ten numbers in one array: tau and v_T position of the rising edge, then of the
+ * falling edge; the tau each internal stack node adds per position of the rising and falling
+ * edge; the channel share m (ramp-response.ts, solveEdge) of the rising and falling edge; the
+ * position of the opposing network's current ratio (opposingPosition) of the rising and falling edge;
+ * the position of the opposing device's threshold from the pulling one's (shiftPosition) of the
+ * rising and falling edge.
  */
-const STRIDE = 6;
+const STRIDE = 12;
 
 class AnalyticTiming implements GateTiming {
-  /** responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge. */
+  /**
+   * responses[2 * g] answers gate g's rising edge, responses[2 * g + 1] its falling edge, each per
+   * pin: [shape][opposing][shift], the shapes of DRIVER_INPUTS for a pin driven by a gate, one (the
+   * linear ramp) for a clock source, each at every opposing ratio and threshold of the grid. inputDriver[k] is
+   * the gate driving flat input k (netlist.gateInputStart), -1 for a clock source.
+   */
   constructor(
     readonly table: Float64Array,
-    readonly responses: RampResponse[],
+    readonly responses: RampResponse[][][][][],
+    readonly inputStart: Int32Array,
+    readonly inputDriver: Int32Array,
+    /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
+    readonly driverAlpha: readonly [number, number],
   ) {}
 
-  /** The engine asks for an edge's delay and then its transition: the grid position is found once. */
-  private lastEdge = -1;
+  /** The engine asks for an edge's delay and then its transition: the grid positions are found once. */
+  private lastKey = -1;
   private lastInput = NaN;
   private lastTau = NaN;
+  private lastDriverTau = NaN;
   private lastPosition = 0;
+  private lastShape = 0;
 
   /** Called when the table is rebound: the remembered position belonged to the old taus. */
   forget(): void {
-    this.lastEdge = -1;
+    this.lastKey = -1;
   }
 
-  private position(edge: number, tau: number, inputTransition: number): number {
-    if (edge !== this.lastEdge || inputTransition !== this.lastInput || tau !== this.lastTau) {
-      this.lastEdge = edge;
-      this.lastInput = inputTransition;
-      this.lastTau = tau;
-      this.lastPosition = RampResponse.sPosition(inputTransition / tau);
-    }
-    return this.lastPosition;
+  /** Grid positions of input transition (sPosition) and, for a driven pin, of the driving edge's shape (driverPosition). */
+  private position(gate: number, falling: number, pin: number, tau: number, inputTransition: number): void {
+    const k = this.inputStart[gate]! + pin;
+    const driver = this.inputDriver[k]!;
+    // The driver's edge behind this one: its falling edge for a rising output, its rising edge for a falling one.
+    const driverTau = driver < 0 ? 0 : this.table[driver * STRIDE + 2 * (1 - falling)]!;
+    const key = 2 * k + falling;
+    if (key === this.lastKey && inputTransition === this.lastInput && tau === this.lastTau && driverTau === this.lastDriverTau) return;
+    this.lastKey = key;
+    this.lastInput = inputTransition;
+    this.lastTau = tau;
+    this.lastDriverTau = driverTau;
+    this.lastPosition = RampResponse.sPosition(inputTransition / tau);
+    this.lastShape =
+      driver < 0
+        ? 0
+        : driverPosition(
+            this.driverAlpha[falling]!,
+            this.table[gate * STRIDE + 2 * falling + 1]!,
+            inputTransition / driverTau,
+            this.table[driver * STRIDE + 6 + (1 - falling)]!,
+            this.table[driver * STRIDE + 8 + (1 - falling)]!,
+          );
   }
 
   /** Gate g's tau for an edge (0 rising, 1 falling) caused by input `pin`, s. */
@@ -76,39 +122,101 @@ class AnalyticTiming implements GateTiming {
     return pin === 0 ? base : base + pin * this.table[i + 4 + falling]!;
   }
 
+  /**
+   * `read` of the response at the gate's v_T and channel share, blended between the two driving
+   * shapes and the two opposing ratios around the gate's, tau.
+   */
+  private blend(gate: number, falling: number, pin: number, read: (r: RampResponse, vt: number, m: number) => number): number {
+    const i = gate * STRIDE;
+    const vt = this.table[i + 2 * falling + 1]!;
+    const m = this.table[i + 6 + falling]!;
+    const o = this.table[i + 8 + falling]!;
+    const r = o | 0;
+    const wo = o - r;
+    const shapes = this.responses[2 * gate + falling]![pin]!;
+    const q = shapes.length === 1 ? 0 : this.lastShape;
+    const j = q | 0;
+    const wq = q - j;
+    const d = this.table[i + 10 + falling]!;
+    const b = d | 0;
+    const wd = d - b;
+    const point = (row: RampResponse[]): number => {
+      const lo = row[b]!;
+      lo.prepare(vt);
+      const a = read(lo, vt, m);
+      if (wd === 0) return a;
+      const hi = row[b + 1]!;
+      hi.prepare(vt);
+      return a + wd * (read(hi, vt, m) - a);
+    };
+    const one = (set: RampResponse[][]): number => {
+      const a = point(set[r]!);
+      return wo === 0 ? a : a + wo * (point(set[r + 1]!) - a);
+    };
+    const a = one(shapes[j]!);
+    return wq === 0 ? a : a + wq * (one(shapes[j + 1]!) - a);
+  }
+
   delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
     const tau = this.tau(gate, falling, pin);
-    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 0);
+    this.position(gate, falling, pin, tau, inputTransition);
+    const s = this.lastPosition;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL));
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
     const tau = this.tau(gate, falling, pin);
-    return tau * this.responses[edge]!.at(this.table[gate * STRIDE + 2 * falling + 1]!, this.position(edge, tau, inputTransition), 1);
+    this.position(gate, falling, pin, tau, inputTransition);
+    const s = this.lastPosition;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1));
   }
 
   crossing(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number {
     const falling = outputRising ? 0 : 1;
-    const edge = 2 * gate + falling;
     const tau = this.tau(gate, falling, pin);
-    return (
-      tau *
-      this.responses[edge]!.crossing(this.table[gate * STRIDE + 2 * falling + 1]!, inputTransition / tau, outputRising ? 1 - level : level)
-    );
+    this.position(gate, falling, pin, tau, inputTransition);
+    const remaining = outputRising ? 1 - level : level;
+    const s = inputTransition / tau;
+    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.crossing(vt, s, remaining, m));
   }
 }
 
-/** Each gate's rising and falling response for the corner's alphas, by the depth of its pull networks. */
-function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, reuse: RampResponse[] | null): RampResponse[] {
-  const out = reuse ?? new Array<RampResponse>(2 * netlist.gateCount);
+/** The responses of one alpha, depth and input edge at every opposing ratio and threshold of the grid. */
+function responseSet(alpha: number, depth: number, driver: number | null, shape: number): RampResponse[][] {
+  return Array.from({ length: OPPOSING_POINTS }, (_, r) =>
+    Array.from({ length: SHIFT_POINTS }, (_, d) => RampResponse.of(alpha, depth, driver, shape, r, d)),
+  );
+}
+
+/**
+ * Each gate's rising and falling responses for the corner's alphas, per pin: the shapes of a
+ * driving gate's edge (whose pulling device is the other type), or the ramp of a clock source.
+ */
+function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, inputDriver: Int32Array): RampResponse[][][][][] {
+  const out = new Array<RampResponse[][][][]>(2 * netlist.gateCount);
   for (let g = 0; g < netlist.gateCount; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
-    out[2 * g] = RampResponse.of(alphaP, shape.pSeries);
-    out[2 * g + 1] = RampResponse.of(alphaN, shape.nSeries);
+    const start = netlist.gateInputStart[g]!;
+    const pins = netlist.gateInputStart[g + 1]! - start;
+    const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][][] =>
+      Array.from({ length: pins }, (_, pin) =>
+        inputDriver[start + pin]! < 0
+          ? [responseSet(alpha, depth, null, 0)]
+          : DRIVER_INPUTS.map((_, j) => responseSet(alpha, depth, driverAlpha, j)),
+      );
+    // The driver's edge behind a rising output is its falling one (its n network), and the other way round.
+    out[2 * g] = edges(alphaP, shape.pSeries, alphaN);
+    out[2 * g + 1] = edges(alphaN, shape.nSeries, alphaP);
   }
+  return out;
+}
+
+/** Per flat input (netlist.gateInputStart), the gate driving it, -1 for a clock source. */
+function inputDrivers(netlist: CompiledNetlist): Int32Array {
+  const out = new Int32Array(netlist.gateInputs.length);
+  for (let k = 0; k < out.length; k++) out[k] = netlist.driver[netlist.gateInputs[k]!]!;
   return out;
 }
 
@@ -119,16 +227,24 @@ interface PullWidths {
   /** Capacitance of one internal node of the pull-up and pull-down stacks, F (0 without a stack). */
   nodeUp: Float64Array;
   nodeDown: Float64Array;
+  /** Channel capacitance C_ox W L of the switching device of the pull-up and pull-down, F. */
+  channelUp: Float64Array;
+  channelDown: Float64Array;
 }
 
 /**
- * Share of one device's gate capacitance an internal stack node adds per position. The stack
- * factor of ramp-response.ts already carries the channel charge of the on-devices (it was fitted
- * to the hand-written references), and a share of 0.5 on top of it moved the NOR reference's
- * clean gap from 28 ps to 76 ps off ngspice (test/reference/nor-gen.cir, 45 corners), so only the
- * junctions a card puts on stack nodes (spice.stackJunctions) count here.
+ * Share of the card's gate capacitance per width that is channel (C_ox L) rather than overlap:
+ * on the reference card (test/reference/ref18.yaml) C_ox L is 1.73 of 2.14 fF/um, the rest the
+ * two overlaps.
  */
-const NODE_GATE = 0;
+const CHANNEL_SHARE = 0.8;
+
+/**
+ * An internal stack node that must swing with the output (the far input switching last) carries
+ * the source half of the on near device's channel, Meyer's split at V_DS = 0 (J. E. Meyer, RCA
+ * Review 32, 1971): half the channel capacitance, per device width.
+ */
+const NODE_GATE = 0.5 * CHANNEL_SHARE;
 
 const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>>();
 
@@ -148,12 +264,16 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
     down: new Float64Array(n),
     nodeUp: new Float64Array(n),
     nodeDown: new Float64Array(n),
+    channelUp: new Float64Array(n),
+    channelDown: new Float64Array(n),
   };
   for (let g = 0; g < n; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
     const widths = cellWidths(netlist.gateCell[g]!, netlist.gateSize[g]!, unit);
     entry.up[g] = widths.pullUp;
     entry.down[g] = widths.pullDown;
+    entry.channelUp[g] = CHANNEL_SHARE * widths.wp * card.p.cgate;
+    entry.channelDown[g] = CHANNEL_SHARE * widths.wn * card.n.cgate;
     if (shape.pSeries > 1) entry.nodeUp[g] = widths.wp * (NODE_GATE * card.p.cgate + (junctions ? card.p.cdrain : 0));
     if (shape.nSeries > 1) entry.nodeDown[g] = widths.wn * (NODE_GATE * card.n.cgate + (junctions ? card.n.cdrain : 0));
   }
@@ -164,8 +284,9 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 export const analyticModel: DelayModel = {
   name: 'analytic',
   // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 8 ps pessimistic to 28 ps optimistic on a NAND generator and 17 ps to 26 ps on a
-  // NOR one: 3 % of the dead time keeps it within 10 ps of never optimistic.
+  // at 10 % is 3.4 ps pessimistic to 18.2 ps optimistic on a NAND generator and 3.0 to 26.6 ps
+  // optimistic on the NOR ones (dead times 0.3-1.1 ns, -0.3..+4.6 % off): 3 % of the dead time
+  // leaves it at most 6.5 ps optimistic there.
   gapBand: 0.03,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
@@ -173,8 +294,9 @@ export const analyticModel: DelayModel = {
     const recycled =
       reuse instanceof AnalyticTiming &&
       reuse.table.length === count * STRIDE &&
-      reuse.responses[0]!.alpha === p.alpha &&
-      reuse.responses[1]!.alpha === n.alpha
+      reuse.inputStart === netlist.gateInputStart &&
+      reuse.driverAlpha[0] === n.alpha &&
+      reuse.driverAlpha[1] === p.alpha
         ? reuse
         : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
@@ -197,12 +319,23 @@ export const analyticModel: DelayModel = {
       table[i + 3] = RampResponse.vtPosition(vthN / vdd);
       table[i + 4] = (widths.nodeUp[g]! * vdd) / upCurrent;
       table[i + 5] = (widths.nodeDown[g]! * vdd) / downCurrent;
+      table[i + 6] = widths.channelUp[g]! / load;
+      table[i + 7] = widths.channelDown[g]! / load;
+      table[i + 8] = opposingPosition(downCurrent / upCurrent);
+      table[i + 9] = opposingPosition(upCurrent / downCurrent);
+      table[i + 10] = shiftPosition((vthN - vthP) / vdd);
+      table[i + 11] = shiftPosition((vthP - vthN) / vdd);
     }
-    if (recycled) {
-      recycled.forget();
-      return recycled;
+    let timing = recycled;
+    if (!timing) {
+      const drivers = inputDrivers(netlist);
+      timing = new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, drivers), netlist.gateInputStart, drivers, [
+        n.alpha,
+        p.alpha,
+      ]);
     }
-    return new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, null));
+    timing.forget();
+    return timing;
   },
 };
 

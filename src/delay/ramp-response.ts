@@ -10,7 +10,8 @@
  * I_sat(V_ov) matched to alpha, V_D0 = (alpha - 1)(V_DD - Vth), the square law's V_ov at alpha = 2
  * and 0 at alpha = 1.
  *
- * The opposing network, still on while the input ramps, is taken as the pulling one's mirror image.
+ * The opposing network, still on while the input ramps, is taken as the pulling one's mirror image
+ * scaled by the ratio of the two networks' full-drive currents, with its own threshold.
  *
  * In units of tau = C V_DD / I_D0 the edge depends only on alpha, v_T = Vth/V_DD and the input
  * transition s = t_in / tau. The paper's closed forms are the limits of this one equation: a step
@@ -31,9 +32,15 @@ const VT_POINTS = 20;
 /** Grid in s: (k * Q_STEP)^2 for k = 0 .. S_POINTS - 1, up to s = 64. */
 const Q_STEP = 0.25;
 const S_POINTS = 33;
-/** Per grid point: delay, full-swing transition, then the time of each level from the 50 % point. */
-const STRIDE = 2 + LEVELS;
+/**
+ * Per grid point: delay, full-swing transition, the time of each level from the 50 % point; then
+ * the same three per unit of channel share (see solveEdge).
+ */
+const FIELDS = 2 + LEVELS;
+const STRIDE = 2 * FIELDS;
 const FIRST_LEVEL = 2;
+/** Offset of a field's channel-share term. */
+export const CHANNEL = FIELDS;
 
 /** Input transition on the grid, in tau. */
 export function gridTransition(k: number): number {
@@ -52,84 +59,346 @@ export function stackFactor(sat: number, depth: number): number {
   return 1 / (1 / (depth * sat) + (depth - 1) / depth);
 }
 
-/** Normalised falling output (from 1) under a ramp of s tau; crossing times of 0.95 ... 0.05, and of 0.5, in tau. */
-export function solveEdge(alpha: number, vT: number, s: number, depth = 1): { delay: number; crossings: Float64Array } {
+/**
+ * A gate's input edge, rising from 0 to 1, in units of its full-swing transition (the 10-90 %
+ * time over 0.8) from its start: u[i] at x = start + i * step, 50 % at x = 1/2. `null` stands for
+ * the linear ramp (a clock source's edge).
+ */
+export interface InputEdge {
+  readonly start: number;
+  readonly step: number;
+  readonly u: Float64Array;
+}
+
+/** The input's value at x transitions from the ramp's start. */
+function inputAt(edge: InputEdge | null, x: number): number {
+  if (!edge) return Math.min(Math.max(x, 0), 1);
+  const p = (x - edge.start) / edge.step;
+  if (p <= 0) return 0;
+  const i = p | 0;
+  if (i >= edge.u.length - 1) return 1;
+  const u = edge.u;
+  return u[i]! + (p - i) * (u[i + 1]! - u[i]!);
+}
+
+/**
+ * Meyer's gate-drain capacitance of a device in its linear region, in units of its channel
+ * capacitance C_ox W L, at r = V_DS / V_DSAT: (2/3)(1 - 1/(2 - r)^2), 1/2 at r = 0 and 0 from
+ * saturation on (J. E. Meyer, "MOS models and circuit simulation", RCA Review 32:42-63, 1971).
+ */
+export function meyerDrain(r: number): number {
+  if (r >= 1) return 0;
+  const q = 2 - r;
+  return (2 / 3) * (1 - 1 / (q * q));
+}
+
+/**
+ * Normalised falling output (from 1) under an input edge of s tau; crossing times of 0.95 ...
+ * 0.05, and of 0.5, in tau.
+ *
+ * Once the pulling device leaves saturation its channel charge hangs on the output through its
+ * gate-drain capacitance (meyerDrain): the output carries C_L (1 + m g) and the rising gate feeds
+ * m g C_L dV_in/dt back, m = C_ox W L / C_L. To first order in m each crossing comes later by m
+ * times the integral of g (1 + u'/I) over the edge so far (u' the input's slope, I the current),
+ * returned per level (`channel`) and for the delay (`channelDelay`), so one solution serves any m.
+ */
+export function solveEdge(
+  alpha: number,
+  vT: number,
+  s: number,
+  depth = 1,
+  input: InputEdge | null = null,
+  opposing = 1,
+  record?: (t: number, v: number) => void,
+  opposingShift = 0,
+): { delay: number; crossings: Float64Array; channel: Float64Array; channelDelay: number } {
   const d0 = (alpha - 1) * (1 - vT);
-  const pull = (gate: number, v: number, series: number): number => {
-    if (gate <= vT) return 0;
-    const x = (gate - vT) / (1 - vT);
+  const vTo = Math.min(Math.max(vT + opposingShift, 0), 0.99);
+  const pull = (gate: number, v: number, series: number, th = vT): number => {
+    if (gate <= th) return 0;
+    const x = (gate - th) / (1 - th);
     const sat = stackFactor(alpha === 2 ? x * x : x ** alpha, series);
-    const vdsat = d0 * Math.sqrt(sat);
+    const vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
     if (v >= vdsat) return sat;
     const r = v / vdsat;
     return sat * (2 - r) * r;
   };
-  // The opposing network is the mirror image of the pulling one (a balanced gate, as logical-effort
-  // sizing intends): it holds the output while a slow input is still near its start.
+  // The opposing network is the pulling one's mirror image scaled by `opposing`, the ratio of the
+  // two networks' full-drive currents, with its own v_T (`opposingShift` above the pulling one's):
+  // it holds the output while a slow input is still near its start.
+  const vinAt = (t: number): number => (s > 0 ? inputAt(input, t / s) : 1);
   const current = (t: number, v: number): number => {
-    const vin = s > 0 ? Math.min(t / s, 1) : 1;
-    return pull(vin, v, depth) - pull(1 - vin, 1 - v, 1);
+    const vin = vinAt(t);
+    return pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1, vTo);
+  };
+  /** The pulling device's drain share at output v and input vin (0 while saturated or off). */
+  const share = (vin: number, v: number): number => {
+    if (vin <= vT) return 0;
+    const vdsat = d0 * ((vin - vT) / (1 - vT));
+    return v >= vdsat ? 0 : meyerDrain(v / vdsat);
   };
   const crossings = new Float64Array(LEVELS);
+  const channel = new Float64Array(LEVELS);
+  let g = 0;
+  let g50 = NaN;
   // RK4 is stable for h * |dI/dV| < 2.78; below V_Dsat |dI/dV| <= 2 / d0, and below d0 = 0.03 the
   // edge is past its last recorded level.
   const h = Math.min(0.004 * (1 + s), 0.8 * Math.max(d0, 0.03));
-  const end = s + 1000;
   // The output cannot move before the input passes the threshold.
-  let t = s > 0 ? vT * s : 0;
+  let t = s > 0 ? s * inputStart(input, vT) : 0;
+  const end = t + s + 1000;
   let v = 1;
   let next = 0;
   let t50 = NaN;
-  while ((next < LEVELS || Number.isNaN(t50)) && t < end) {
+  while ((next < LEVELS || Number.isNaN(t50) || (record && v > 1e-3)) && t < end) {
     const k1 = current(t, v);
     const k2 = current(t + h / 2, v - (h / 2) * k1);
     const k3 = current(t + h / 2, v - (h / 2) * k2);
     const k4 = current(t + h, v - h * k3);
     const nv = v - (h / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
+    const vin = vinAt(t + h / 2);
+    const slope = s > 0 ? (vinAt(t + h) - vinAt(t)) / h : 0;
+    const i = (k2 + k3) / 2;
+    const ng = g + (i > 1e-9 ? h * share(vin, (v + nv) / 2) * (1 + slope / i) : 0);
     while (next < LEVELS && nv <= 1 - (next + 1) * LEVEL_STEP) {
       const level = 1 - (next + 1) * LEVEL_STEP;
-      crossings[next++] = t + (h * (v - level)) / (v - nv);
+      const w = (v - level) / (v - nv);
+      crossings[next] = t + h * w;
+      channel[next++] = g + w * (ng - g);
     }
-    if (Number.isNaN(t50) && nv <= 0.5) t50 = t + (h * (v - 0.5)) / (v - nv);
+    if (Number.isNaN(t50) && nv <= 0.5) {
+      const w = (v - 0.5) / (v - nv);
+      t50 = t + h * w;
+      g50 = g + w * (ng - g);
+    }
+    g = ng;
+    record?.(t, v);
     v = nv;
     t += h;
   }
   // Only reached if the output stalled (it cannot at a stable step): the levels not crossed count as now.
-  if (Number.isNaN(t50)) t50 = t;
-  for (; next < LEVELS; next++) crossings[next] = t;
-  for (let i = 0; i < LEVELS; i++) crossings[i]! -= t50;
-  return { delay: t50 - s / 2, crossings };
+  if (Number.isNaN(t50)) {
+    t50 = t;
+    g50 = g;
+  }
+  for (; next < LEVELS; next++) {
+    crossings[next] = t;
+    channel[next] = g;
+  }
+  for (let i = 0; i < LEVELS; i++) {
+    crossings[i]! -= t50;
+    channel[i]! -= g50;
+  }
+  return { delay: t50 - s / 2, crossings, channel, channelDelay: g50 };
 }
 
-/** The solved grid of one alpha. */
+/** Where the input first passes v_T, in transitions. */
+function inputStart(edge: InputEdge | null, vT: number): number {
+  if (!edge) return vT;
+  let i = 0;
+  while (i < edge.u.length - 1 && edge.u[i + 1]! <= vT) i++;
+  return edge.start + i * edge.step;
+}
+
+/**
+ * Input transitions of the driving gate, in its own tau, at which its edge is solved (drivenEdge):
+ * from a step (the edge all triode tail past its saturated start) to a slow input (nearly a ramp).
+ * A driven edge's shape is placed between them by the driving gate's own output transition over
+ * its tau (driverPosition), so the shape follows the driver's alpha and load rather than a constant.
+ */
+export const DRIVER_INPUTS: readonly number[] = [0, 1, 2.5, 5, 10];
+
+/** Samples per transition of a recorded input edge. */
+const EDGE_STEP = 0.005;
+
+/**
+ * The edge a gate of this alpha and v_T drives when its own input is a ramp of `s` tau (the
+ * solved output, inverted to rise), as an input edge: what the next gate sees in place of a ramp.
+ * It carries the output's triode tail, which a ramp of the same 10-90 % time does not.
+ */
+export function drivenEdge(alpha: number, vT: number, s: number, input: InputEdge | null = null): InputEdge {
+  const ts: number[] = [];
+  const vs: number[] = [];
+  const { crossings } = solveEdge(alpha, vT, s, 1, input, 1, (t, v) => {
+    ts.push(t);
+    vs.push(v);
+  });
+  const full = (crossings[17]! - crossings[1]!) / 0.8;
+  let k = 0;
+  while (vs[k + 1]! > 0.5) k++;
+  const t50 = ts[k]! + ((ts[k + 1]! - ts[k]!) * (vs[k]! - 0.5)) / (vs[k]! - vs[k + 1]!);
+  const start = (ts[0]! - t50) / full + 0.5;
+  const count = Math.ceil(((ts.at(-1)! - t50) / full + 0.5 - start) / EDGE_STEP) + 1;
+  const u = new Float64Array(count);
+  let j = 0;
+  for (let i = 0; i < count; i++) {
+    const t = t50 + (start + i * EDGE_STEP - 0.5) * full;
+    while (j < ts.length - 2 && ts[j + 1]! < t) j++;
+    const w = Math.min(Math.max((t - ts[j]!) / (ts[j + 1]! - ts[j]!), 0), 1);
+    u[i] = 1 - (vs[j]! + w * (vs[j + 1]! - vs[j]!));
+  }
+  return { start, step: EDGE_STEP, u };
+}
+
+/**
+ * The driver's own input: in a chain of gates it too is another gate's edge, taken as that of a
+ * like gate under a ramp of the same transition (one stage back; a second stage back moves the
+ * references' dead times by under 0.1 %).
+ */
+function driverInput(alpha: number, vT: number, s: number): InputEdge {
+  return drivenEdge(alpha, vT, s);
+}
+
+/** Ratios of the opposing network's full-drive current to the pulling one's on the grid: 2^(r - 2). */
+export const OPPOSING_POINTS = 5;
+
+/** Position of an opposing ratio on its grid points (0 ... OPPOSING_POINTS - 1), clamped. */
+export function opposingPosition(ratio: number): number {
+  const p = Math.log2(ratio) + 2;
+  return Math.min(Math.max(p, 0), OPPOSING_POINTS - 1 - 1e-9);
+}
+
+/**
+ * Full-swing output transitions, in tau, of a driver by alpha and opposing grid point: per v_T
+ * row, one per DRIVER_INPUTS and then their channel-share terms.
+ */
+const driverTransitions = new Map<string, Float64Array>();
+
+/** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel terms. */
+function driverRow(alpha: number, o: number, row: number): Float64Array {
+  const n = DRIVER_INPUTS.length;
+  const key = `${alpha}/${o}`;
+  let rows = driverTransitions.get(key);
+  if (!rows) {
+    rows = new Float64Array(2 * VT_POINTS * n).fill(NaN);
+    driverTransitions.set(key, rows);
+  }
+  if (Number.isNaN(rows[2 * row * n]!)) {
+    for (let j = 0; j < n; j++) {
+      const sd = DRIVER_INPUTS[j]!;
+      const { crossings, channel } = solveEdge(alpha, row * VT_STEP, sd, 1, driverInput(alpha, row * VT_STEP, sd), 2 ** (o - 2));
+      rows[2 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
+      rows[(2 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
+    }
+  }
+  return rows.subarray(2 * row * n, 2 * (row + 1) * n);
+}
+
+/**
+ * Position of a driving edge on DRIVER_INPUTS (0 ... DRIVER_INPUTS.length - 1, clamped) from the
+ * driver's full-swing output transition `ratio` in its own tau: the driver's input transition
+ * that gives that output transition, for a driver of index `alpha` at v_T position `vtPos`, with
+ * channel share `share` and opposing position `opposing` (opposingPosition), as the driver's own
+ * edge was computed.
+ */
+export function driverPosition(alpha: number, vtPos: number, ratio: number, share = 0, opposing = 2): number {
+  const n = DRIVER_INPUTS.length;
+  const a = vtPos | 0;
+  const wa = vtPos - a;
+  const o = opposing | 0;
+  const wo = opposing - o;
+  const corners = [driverRow(alpha, o, a), driverRow(alpha, o, a + 1)];
+  const far = wo === 0 ? corners : [driverRow(alpha, o + 1, a), driverRow(alpha, o + 1, a + 1)];
+  const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]!;
+  const at = (j: number): number => {
+    const near = value(corners[0]!, j) + wa * (value(corners[1]!, j) - value(corners[0]!, j));
+    const other = value(far[0]!, j) + wa * (value(far[1]!, j) - value(far[0]!, j));
+    return near + wo * (other - near);
+  };
+  let lo = at(0);
+  if (!(ratio > lo)) return 0;
+  for (let j = 1; j < n; j++) {
+    const hi = at(j);
+    if (ratio < hi) return j - 1 + (ratio - lo) / (hi - lo);
+    lo = hi;
+  }
+  return n - 1 - 1e-9;
+}
+
+/**
+ * The opposing device's own v_T less the pulling one's on the grid: (j - SHIFT_CENTRE) * SHIFT_STEP.
+ * A skewed corner moves the two thresholds apart (fs: the p-device's up, the n-device's down), and
+ * the opposing device's threshold sets how long it holds the output against a slow input.
+ */
+export const SHIFT_POINTS = 7;
+const SHIFT_CENTRE = 3;
+const SHIFT_STEP = 0.05;
+
+/** Position of a v_T difference (opposing less pulling) on its grid points (0 ... SHIFT_POINTS - 1), clamped. */
+export function shiftPosition(shift: number): number {
+  const p = shift / SHIFT_STEP + SHIFT_CENTRE;
+  return Math.min(Math.max(p, 0), SHIFT_POINTS - 1 - 1e-9);
+}
+
+/**
+ * The solved grid of one alpha, depth, input edge (a ramp, or a driver of alpha `driver` at input
+ * transition DRIVER_INPUTS[shape]), opposing ratio and opposing threshold; v_T rows are solved
+ * when first asked for.
+ */
 export class RampResponse {
   private constructor(
     readonly alpha: number,
     readonly depth: number,
+    readonly driver: number | null,
+    readonly shape: number,
+    readonly opposing: number,
+    readonly shift: number,
     private readonly grid: Float64Array,
   ) {}
 
   private static readonly cache = new Map<string, RampResponse>();
+  private readonly solved = new Uint8Array(VT_POINTS);
 
-  /** The grid of devices of index alpha switching in a series stack of `depth` (1 = a single device). */
-  static of(alpha: number, depth = 1): RampResponse {
-    const key = `${alpha}/${depth}`;
+  /**
+   * The grid of devices of index alpha switching in a series stack of `depth` (1 = a single
+   * device), driven by a linear ramp (`driver` null) or by the edge of a gate of index `driver`
+   * whose own input transition is DRIVER_INPUTS[shape] (drivenEdge), against an opposing network
+   * of grid point `opposing` (2^(opposing - 2) times the pulling one's current) whose threshold
+   * sits at grid point `shift` (shiftPosition) from the pulling one's.
+   */
+  static of(alpha: number, depth = 1, driver: number | null = null, shape = 0, opposing = 2, shift = SHIFT_CENTRE): RampResponse {
+    const key = `${alpha}/${depth}/${driver}/${driver === null ? 0 : shape}/${opposing}/${shift}`;
     let table = RampResponse.cache.get(key);
     if (!table) {
-      const grid = new Float64Array(VT_POINTS * S_POINTS * STRIDE);
-      for (let a = 0; a < VT_POINTS; a++) {
-        for (let k = 0; k < S_POINTS; k++) {
-          const { delay, crossings } = solveEdge(alpha, a * VT_STEP, gridTransition(k), depth);
-          const i = (a * S_POINTS + k) * STRIDE;
-          grid[i] = delay;
-          grid[i + 1] = (crossings[17]! - crossings[1]!) / 0.8;
-          grid.set(crossings, i + FIRST_LEVEL);
-        }
-      }
-      table = new RampResponse(alpha, depth, grid);
+      table = new RampResponse(alpha, depth, driver, shape, opposing, shift, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
       RampResponse.cache.set(key, table);
     }
     return table;
+  }
+
+  /** Solves the two v_T rows around `vtPos` if not yet done; returns vtPos. */
+  prepare(vtPos: number): number {
+    const a = vtPos | 0;
+    if (!this.solved[a]) this.solveRow(a);
+    if (!this.solved[a + 1]) this.solveRow(a + 1);
+    return vtPos;
+  }
+
+  private solveRow(a: number): void {
+    const sd = DRIVER_INPUTS[this.shape]!;
+    const input = this.driver === null ? null : drivenEdge(this.driver, a * VT_STEP, sd, driverInput(this.driver, a * VT_STEP, sd));
+    const ratio = 2 ** (this.opposing - 2);
+    const grid = this.grid;
+    for (let k = 0; k < S_POINTS; k++) {
+      const { delay, crossings, channel, channelDelay } = solveEdge(
+        this.alpha,
+        a * VT_STEP,
+        gridTransition(k),
+        this.depth,
+        input,
+        ratio,
+        undefined,
+        (this.shift - SHIFT_CENTRE) * SHIFT_STEP,
+      );
+      const i = (a * S_POINTS + k) * STRIDE;
+      grid[i] = delay;
+      grid[i + 1] = (crossings[17]! - crossings[1]!) / 0.8;
+      grid.set(crossings, i + FIRST_LEVEL);
+      grid[i + CHANNEL] = channelDelay;
+      grid[i + CHANNEL + 1] = (channel[17]! - channel[1]!) / 0.8;
+      grid.set(channel, i + CHANNEL + FIRST_LEVEL);
+    }
+    this.solved[a] = 1;
   }
 
   /** Row of v_T: the lower grid index in its integer part, the weight of the upper one in its fraction. */
@@ -165,13 +434,17 @@ export class RampResponse {
   }
 
   /** Delay from input 50 % to output 50 %, tau. */
-  delay(vtPos: number, s: number): number {
-    return this.at(vtPos, RampResponse.sPosition(s), 0);
+  delay(vtPos: number, s: number, share = 0): number {
+    this.prepare(vtPos);
+    const sPos = RampResponse.sPosition(s);
+    return this.at(vtPos, sPos, 0) + share * this.at(vtPos, sPos, CHANNEL);
   }
 
   /** Full-swing transition time extrapolated from the 10-90 % time, tau. */
-  transition(vtPos: number, s: number): number {
-    return this.at(vtPos, RampResponse.sPosition(s), 1);
+  transition(vtPos: number, s: number, share = 0): number {
+    this.prepare(vtPos);
+    const sPos = RampResponse.sPosition(s);
+    return this.at(vtPos, sPos, 1) + share * this.at(vtPos, sPos, CHANNEL + 1);
   }
 
   /**
@@ -179,12 +452,14 @@ export class RampResponse {
    * still to go (0.1 = 90 % of the way), tau; negative before the 50 % point. Linear between the
    * recorded 5 % levels, clamped to 0.05 ... 0.95.
    */
-  crossing(vtPos: number, s: number, remaining: number): number {
+  crossing(vtPos: number, s: number, remaining: number, share = 0): number {
+    this.prepare(vtPos);
     const sPos = RampResponse.sPosition(s);
     const p = Math.min(Math.max((1 - remaining) / LEVEL_STEP - 1, 0), LEVELS - 1);
     const i = Math.min(p | 0, LEVELS - 2);
     const w = p - i;
-    const lo = this.at(vtPos, sPos, FIRST_LEVEL + i);
-    return lo + w * (this.at(vtPos, sPos, FIRST_LEVEL + 1 + i) - lo);
+    const level = (field: number): number => this.at(vtPos, sPos, field) + share * this.at(vtPos, sPos, CHANNEL + field);
+    const lo = level(FIRST_LEVEL + i);
+    return lo + w * (level(FIRST_LEVEL + 1 + i) - lo);
   }
 }

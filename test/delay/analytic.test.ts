@@ -162,13 +162,23 @@ describe('analyticModel.bind: logical-effort units', () => {
   // form, see test/delay/ramp-response.test.ts): V_D0 = (alpha - 1)(V_DD - Vth) = 0.3 * 1.4 V,
   // d0 = 0.23333; saturated from 0.9 to d0, triode from d0 to 0.1:
   // t10-90 = (0.9 - d0) + (d0/2) ln((2 - x)/x), x = 0.1/d0; full swing = t10-90 / 0.8, in C V_DD / I_D0.
-  it('gives the step-input output transition of the saturated edge and its triode tail', () => {
+  it('gives the step-input output transition of the saturated edge and its triode tail, with the channel charge of the tail', () => {
     const net = fanoutNetlist('INV', 4);
-    const timing = analyticModel.bind(net, netLoads(net, card), devices);
+    const loads = netLoads(net, card);
+    const timing = analyticModel.bind(net, loads, devices);
     const d0 = 0.3 * (1 - 0.4 / 1.8);
     const x = 0.1 / d0;
     const tenNinety = 0.9 - d0 + (d0 / 2) * Math.log((2 - x) / x);
-    expectClose(timing.transition(0, 0, true, 0), (tenNinety / 0.8) * 2 * 5 * tauUp, 1e-3);
+    // Meyer's C_gd (2/3)(1 - 1/(2 - r)^2) C_ox W L over the triode part, r = V/V_DSAT from 1 down to
+    // x, with dt = d0 dr / ((2 - r) r) (derived by hand); C_ox W L = 0.8 of the card's gate capacitance.
+    const steps = 20000;
+    let channel = 0;
+    for (let i = 0; i < steps; i++) {
+      const r = x + ((i + 0.5) * (1 - x)) / steps;
+      channel += (((2 / 3) * (1 - 1 / ((2 - r) * (2 - r))) * d0) / ((2 - r) * r)) * ((1 - x) / steps);
+    }
+    const m = (0.8 * card.unit.wp * card.p.cgate) / loads[net.gateOutput[0]!]!;
+    expectClose(timing.transition(0, 0, true, 0), ((tenNinety + m * channel) / 0.8) * 2 * 5 * tauUp, 1e-3);
   });
 
   it('lengthens the output transition as the input transition grows, and moves the 10 % point with it', () => {
@@ -183,7 +193,7 @@ describe('analyticModel.bind: logical-effort units', () => {
     expect(timing.crossing!(0, 0, false, 1e-9, 0.1)).toBeGreaterThan(timing.crossing!(0, 0, false, 10e-12, 0.1));
   });
 
-  it('does not depend on which input pin switches (pin position is not modelled)', () => {
+  it("does not depend on which input pin switches a parallel network (a NAND's rising edge)", () => {
     const net = fanoutNetlist('NAND3', 2);
     const timing = analyticModel.bind(net, netLoads(net, card), devices);
     expect(timing.delay(0, 2, true, 1e-10)).toBe(timing.delay(0, 0, true, 1e-10));
@@ -234,15 +244,43 @@ describe('analyticModel.bind at corners', () => {
     expect((error as InputError).message).toContain('p-device');
   });
 
-  it('applies a mismatch threshold shift to one gate only', () => {
+  it('applies a mismatch threshold shift to one gate only, on its opposing network too', () => {
     const corner = at('tt', 1.8, 27);
     const dvthN = new Float64Array(net.gateCount);
     dvthN[0] = 0.05;
     const base = analyticModel.bind(net, loads, devicesAtCorner(card, corner));
     const shifted = analyticModel.bind(net, loads, devicesAtCorner(card, corner), { dvthN, dvthP: new Float64Array(net.gateCount) });
-    expect(shifted.delay(0, 0, false, 1e-10)).toBeGreaterThan(base.delay(0, 0, false, 1e-10));
-    expect(shifted.delay(0, 0, true, 1e-10)).toBe(base.delay(0, 0, true, 1e-10));
-    expect(shifted.delay(1, 0, false, 1e-10)).toBe(base.delay(1, 0, false, 1e-10));
+    const slower = shifted.delay(0, 0, false, 1e-10) - base.delay(0, 0, false, 1e-10);
+    expect(slower).toBeGreaterThan(0);
+    // The weaker n network holds the rising edge back less: a little faster, far less than the falling edge moves.
+    const faster = base.delay(0, 0, true, 1e-10) - shifted.delay(0, 0, true, 1e-10);
+    expect(faster).toBeGreaterThan(0);
+    expect(faster).toBeLessThan(0.5 * slower);
+    // Gate 1's own drive is untouched: under a step its delay stays. (Under a slower edge it moves a
+    // little, as the edge's shape is read from its driver, gate 0.)
+    expect(shifted.delay(1, 0, false, 0)).toBe(base.delay(1, 0, false, 0));
+    expect(shifted.delay(1, 0, true, 0)).toBe(base.delay(1, 0, true, 0));
+  });
+});
+
+describe('analyticModel.bind against the opposing device threshold', () => {
+  // Two cards whose p-devices give the same full-drive current at tt/1.8V/27C, one with a threshold
+  // 0.1 V higher (its drive scaled by (1.4 / 1.3)^1.3 to match): the falling edge's opposing current
+  // is the same at full drive but lets go sooner as a slow input rises.
+  const card = effortCard();
+  const higher = parseWith(processSchema, {
+    ...card,
+    p: { ...card.p, vth0: card.p.vth0 + 0.1, drive: card.p.drive * (1.4 / 1.3) ** 1.3 },
+  });
+  const net = fanoutNetlist('INV', 4);
+  const corner = at('tt', 1.8, 27);
+  const bind = (c: ProcessCard) => analyticModel.bind(net, netLoads(net, c), devicesAtCorner(c, corner));
+
+  it('gives a slow-input falling edge less delay against a p-device of higher threshold, and a step the same', () => {
+    expectClose(devicesAtCorner(higher, corner).p.idsatPerWidth, devicesAtCorner(card, corner).p.idsatPerWidth, 1e-9);
+    const slow = 400e-12;
+    expect(bind(higher).delay(0, 0, false, slow)).toBeLessThan(bind(card).delay(0, 0, false, slow));
+    expectClose(bind(higher).delay(0, 0, false, 0), bind(card).delay(0, 0, false, 0), 1e-9);
   });
 });
 
@@ -281,31 +319,65 @@ describe('analyticModel input position', () => {
     early: {},
     loads: {},
     gates: [
-      { name: 'g', cell: 'NOR2', size: 1, inputs: ['a', 'b'], output: 'y' },
+      { name: 'g', cell: 'NOR2', size: 1, inputs: ['c', 'b'], output: 'y' },
       { name: 'i', cell: 'INV', size: 1, inputs: ['a'], output: 'b' },
+      { name: 'j', cell: 'INV', size: 1, inputs: ['a'], output: 'c' },
     ],
   } as never);
   const corner: Corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
   const loads = new Float64Array(netlist.netNames.length).fill(10e-15);
 
-  it("gives the inner input of a stack one internal junction more when the card's stacks carry junctions", () => {
+  // With a step input the delay is tau times a constant, so the inner input's delay over the
+  // outer one's is (C_L + C_node) / C_L exactly.
+  const step = (t: ReturnType<typeof analyticModel.bind>, pin: number, rising: boolean) => t.delay(0, pin, rising, 0);
+
+  it("gives the inner input of a stack half the near device's channel and the internal junction more when the card's stacks carry junctions", () => {
     const card = { ...base, spice: { ...base.spice!, stackJunctions: true } };
     const t = analyticModel.bind(netlist, loads, devicesAtCorner(card, corner));
-    // NOR2 p stack: each device 2 x the unit p width; the node adds W_p * cdrain_p to the rising edge of pin 1
-    const extra = 2 * card.unit.wp * card.p.cdrain;
-    const plain = analyticModel.bind(
-      netlist,
-      loads.map((v, i) => (i === netlist.gateOutput[0] ? v + extra : v)),
-      devicesAtCorner(card, corner),
-    );
-    expectClose(t.delay(0, 1, true, 1e-10), plain.delay(0, 0, true, 1e-10), 1e-12);
-    expect(t.delay(0, 1, true, 1e-10)).toBeGreaterThan(t.delay(0, 0, true, 1e-10));
+    // NOR2 p stack: each device 2 x the unit p width; the node adds W_p (0.4 cgate_p + cdrain_p) to the rising edge of pin 1
+    const node = 2 * card.unit.wp * (0.4 * card.p.cgate + card.p.cdrain);
+    expectClose(step(t, 1, true) / step(t, 0, true), 1 + node / 10e-15, 1e-9);
     // the parallel n devices: no stack, no difference
     expect(t.delay(0, 1, false, 1e-10)).toBe(t.delay(0, 0, false, 1e-10));
   });
 
-  it('sees no position without stack junctions (the stack factor carries the channel charge)', () => {
+  it("gives the inner input half the near device's channel without stack junctions", () => {
     const t = analyticModel.bind(netlist, loads, devicesAtCorner(base, corner));
-    expect(t.delay(0, 1, true, 1e-10)).toBe(t.delay(0, 0, true, 1e-10));
+    expectClose(step(t, 1, true) / step(t, 0, true), 1 + (2 * base.unit.wp * 0.4 * base.p.cgate) / 10e-15, 1e-9);
+    expect(t.delay(0, 1, true, 1e-10)).toBeGreaterThan(t.delay(0, 0, true, 1e-10));
+  });
+});
+
+describe('analyticModel driven edges', () => {
+  const card = loadProcess(processCard('generic180'));
+  const corner: Corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
+  // a drives b drives c: gate 1 (b) is driven by gate 0 (a), whose load is set per case.
+  const netlist = compileNetlist({
+    clock: 'clk',
+    phases: ['c', 'c'],
+    complements: {},
+    early: {},
+    loads: {},
+    gates: [
+      { name: 'a', cell: 'INV', size: 1, inputs: ['clk'], output: 'b' },
+      { name: 'b', cell: 'INV', size: 1, inputs: ['b'], output: 'c' },
+    ],
+  } as never);
+  const bind = (driverLoad: number) => {
+    const loads = new Float64Array(netlist.netNames.length).fill(10e-15);
+    loads[netlist.gateOutput[0]!] = driverLoad;
+    return analyticModel.bind(netlist, loads, devicesAtCorner(card, corner));
+  };
+
+  it("reads the driving edge's shape from its driver: the same input transition from a driver with more tau gives another delay", () => {
+    const light = bind(10e-15);
+    const heavy = bind(40e-15);
+    // A 300 ps input edge is slow for the lightly loaded driver (tau about 80 ps: a ramp-like edge)
+    // and the step response of the heavy one (a saturated start and a long triode tail).
+    for (const rising of [true, false]) {
+      const a = light.delay(1, 0, rising, 300e-12);
+      const b = heavy.delay(1, 0, rising, 300e-12);
+      expect(Math.abs(a - b) / a).toBeGreaterThan(0.005);
+    }
   });
 });

@@ -1,5 +1,15 @@
 import { describe, it, expect } from 'vitest';
-import { RampResponse, solveEdge, stackFactor } from '../../src/delay/ramp-response.js';
+import {
+  DRIVER_INPUTS,
+  driverPosition,
+  drivenEdge,
+  meyerDrain,
+  RampResponse,
+  SHIFT_POINTS,
+  shiftPosition,
+  solveEdge,
+  stackFactor,
+} from '../../src/delay/ramp-response.js';
 import { expectClose } from '../helpers.js';
 
 /** Sakurai & Newton, IEEE JSSC 25(2), 1990: fast-input delay in units of C V_DD / I_D0. */
@@ -79,15 +89,115 @@ describe('RampResponse', () => {
     }
   });
 
-  it('is built once per alpha and depth', () => {
+  it('is built once per alpha, depth, input edge, opposing ratio and opposing threshold', () => {
     expect(RampResponse.of(2)).toBe(grid);
     expect(RampResponse.of(2, 2)).not.toBe(grid);
     expect(RampResponse.of(2, 2).depth).toBe(2);
+    // a ramp has no driver shape: the shape index is ignored
+    expect(RampResponse.of(2, 1, null, 3)).toBe(grid);
+    expect(RampResponse.of(2, 1, 1.3, 1)).not.toBe(RampResponse.of(2, 1, 1.3, 2));
+    expect(RampResponse.of(2, 1, 1.3, 1).driver).toBe(1.3);
+    expect(RampResponse.of(2, 1, null, 0, 2, shiftPosition(0))).toBe(grid);
+    expect(RampResponse.of(2, 1, null, 0, 2, 4)).not.toBe(grid);
+    expect(RampResponse.of(2, 1, null, 0, 2, 4).shift).toBe(4);
   });
 
   it('clamps v_T to its grid (0 ... 0.95)', () => {
     expect(RampResponse.vtPosition(-0.1)).toBe(0);
     expect(RampResponse.vtPosition(2)).toBeLessThan(19);
     expect(RampResponse.vtPosition(2)).toBeGreaterThan(18.99);
+  });
+});
+
+describe('meyerDrain', () => {
+  // J. E. Meyer, RCA Review 32, 1971: C_gd = (2/3) C_ox W L (1 - ((V_GS - V_T) / (2 (V_GS - V_T) - V_DS))^2).
+  it('is half the channel at V_DS = 0 and nothing from saturation on', () => {
+    expectClose(meyerDrain(0), 0.5, 1e-12);
+    expect(meyerDrain(1)).toBe(0);
+    expect(meyerDrain(1.5)).toBe(0);
+    expectClose(meyerDrain(0.5), (2 / 3) * (1 - 1 / 2.25), 1e-12);
+  });
+});
+
+describe('drivenEdge', () => {
+  const edge = drivenEdge(2, 0.25, 2.35);
+  const value = (x: number) => {
+    const p = (x - edge.start) / edge.step;
+    const i = Math.floor(p);
+    return edge.u[i]! + (p - i) * (edge.u[i + 1]! - edge.u[i]!);
+  };
+  it('rises through 50 % at half a transition and from 10 % to 90 % in 0.8 of one', () => {
+    expectClose(value(0.5), 0.5, 1e-3, 'abs');
+    let lo = 0;
+    while (edge.u[lo]! < 0.1) lo++;
+    let hi = lo;
+    while (edge.u[hi]! < 0.9) hi++;
+    expectClose((hi - lo) * edge.step, 0.8, 0.01);
+  });
+
+  it('approaches the rail more slowly than the ramp of the same 10-90 % time (the triode tail)', () => {
+    expect(value(1)).toBeLessThan(1);
+    expect(value(1)).toBeGreaterThan(0.9);
+    expect(edge.u.at(-1)!).toBeGreaterThan(0.99);
+  });
+});
+
+describe('solveEdge against an opposing network', () => {
+  it('is slower against a stronger opposing network for a slow input and unchanged for a step', () => {
+    expect(solveEdge(2, 0.25, 4, 1, null, 2).delay).toBeGreaterThan(solveEdge(2, 0.25, 4, 1, null, 1).delay);
+    expect(solveEdge(2, 0.25, 4, 1, null, 0.5).delay).toBeLessThan(solveEdge(2, 0.25, 4, 1, null, 1).delay);
+    expectClose(solveEdge(2, 0.25, 0, 1, null, 2).delay, solveEdge(2, 0.25, 0).delay, 1e-12);
+  });
+
+  it('is faster against an opposing device of higher threshold for a slow input and unchanged for a step', () => {
+    const mirror = solveEdge(2, 0.25, 4, 1, null, 1).delay;
+    expect(solveEdge(2, 0.25, 4, 1, null, 1, undefined, 0.05).delay).toBeLessThan(mirror);
+    expect(solveEdge(2, 0.25, 4, 1, null, 1, undefined, -0.05).delay).toBeGreaterThan(mirror);
+    expectClose(solveEdge(2, 0.25, 4, 1, null, 1, undefined, 0).delay, mirror, 1e-12);
+    expectClose(solveEdge(2, 0.25, 0, 1, null, 1, undefined, 0.1).delay, solveEdge(2, 0.25, 0).delay, 1e-12);
+  });
+
+  it('gives every crossing its channel term in order: none while saturated, growing through the triode tail', () => {
+    const { channel, channelDelay } = solveEdge(2, 0.25, 0);
+    // d0 = 0.75: the 50 % point is in the triode region already, the 95 % point (0.05 to go) far into it
+    expect(channelDelay).toBeGreaterThan(0);
+    expect(channel[18]!).toBeGreaterThan(channel[9]!);
+    expectClose(channel[9]!, 0, 1e-9, 'abs');
+  });
+});
+
+describe('driverPosition', () => {
+  const vT = 0.25;
+  const pos = RampResponse.vtPosition(vT);
+  /** Output transition, in tau, of a driver at input transition sd whose own input is a like gate's edge (as the model builds it). */
+  const transition = (alpha: number, sd: number) => {
+    const { crossings } = solveEdge(alpha, vT, sd, 1, drivenEdge(alpha, vT, sd), 1);
+    return (crossings[17]! - crossings[1]!) / 0.8;
+  };
+
+  it("maps a driver's own output transition back to the input transition it was solved at", () => {
+    for (let j = 0; j < DRIVER_INPUTS.length - 1; j++)
+      expectClose(driverPosition(2, pos, transition(2, DRIVER_INPUTS[j]!), 0, 2), j, 1e-6, 'abs');
+  });
+
+  it('clamps to the step below its step response and to the slowest input above the last grid point', () => {
+    expect(driverPosition(2, pos, 0.5)).toBe(0);
+    expect(driverPosition(2, pos, 100)).toBeCloseTo(DRIVER_INPUTS.length - 1, 6);
+  });
+
+  it('follows the driver alpha: the same output transition means a slower input at alpha 1.3 than at 2', () => {
+    expect(driverPosition(1.3, pos, 1.5)).toBeGreaterThan(driverPosition(2, pos, 1.5) + 0.5);
+  });
+});
+
+describe('shiftPosition', () => {
+  it('puts equal thresholds on the middle grid point, 0.05 of the supply one point apart, clamped at both ends', () => {
+    const middle = (SHIFT_POINTS - 1) / 2;
+    expect(shiftPosition(0)).toBe(middle);
+    expectClose(shiftPosition(0.05) - shiftPosition(0), 1, 1e-12);
+    expectClose(shiftPosition(-0.025), middle - 0.5, 1e-12);
+    expect(shiftPosition(1)).toBeCloseTo(SHIFT_POINTS - 1, 6);
+    expect(shiftPosition(1)).toBeLessThan(SHIFT_POINTS - 1);
+    expect(shiftPosition(-1)).toBe(0);
   });
 });
