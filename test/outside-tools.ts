@@ -48,6 +48,7 @@ export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
   'test/spice/deck.test.ts': ['ngspice'],
   'test/spice/down-shifter.test.ts': ['ngspice'],
   'test/spice/hostile-deck.test.ts': ['ngspice'],
+  'test/spice/injection-deck.test.ts': ['ngspice'],
   'test/spice/pump.test.ts': ['ngspice'],
   'test/spice/runner.test.ts': ['ngspice'],
   'test/switches/physics-ngspice.test.ts': ['ngspice'],
