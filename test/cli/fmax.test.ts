@@ -37,9 +37,9 @@ describe('phasegap fmax text', () => {
     expect(run.code).toBe(0);
     const r = fmaxOf('doubler');
     const lines = fmaxMarginLines(r);
-    // fmax of the demo is about 25 MHz, limited by settling through the switches' on-resistance (measured).
-    expect(lines[0]).toMatch(/^ {2}margin at fmax 25\.\d\d MHz: \+/);
-    expect(lines[1]).toMatch(/^ {2}margin at 25\.\d\d MHz \(the first failing probe, 0\.\d\d % above fmax\): -/);
+    // fmax of the demo is about 24.9 MHz, limited by settling through the switches' on-resistance (measured).
+    expect(lines[0]).toMatch(/^ {2}margin at fmax 24\.\d\d MHz: \+/);
+    expect(lines[1]).toMatch(/^ {2}margin at 2[45]\.\d\d MHz \(the first failing probe, 0\.\d\d % above fmax\): -/);
     expect(lines[1]).toContain(formatMargin(r.limiting!.margin!, r.limiting!.kind));
     for (const line of lines) expect(run.stdout).toContain(line);
     expect(run.stdout).not.toMatch(/limited by: .*margin/);
@@ -80,9 +80,9 @@ describe('findFmax: circuit requirements', () => {
     const settleless = ['constraints.settle=[]'];
     const { design: d, card } = loadDesign(design('doubler-pump'), settleless);
     const result = findFmax(resolveDesign(d, card), { resolution: 0.01 });
-    // measured: 22.05 MHz at 1 % resolution; the clock generator's and level shifters' energy per period times f grows with f while the load's power does not
-    expectClose(result.fmax!, 22.05e6, 0.005);
-    expect(result.limiting).toMatchObject({ kind: 'efficiency-min', check: 'efficiency >= 40.0 %', corner: 'sf/1.98V/125C' });
+    // measured: 20.22 MHz at 1 % resolution (gate and drain capacitance from the card's transistor models); the clock generator's and level shifters' energy per period times f grows with f while the load's power does not
+    expectClose(result.fmax!, 20.22e6, 0.005);
+    expect(result.limiting).toMatchObject({ kind: 'efficiency-min', check: 'efficiency >= 40.0 %', corner: 'sf/1.98V/27C' });
     expect(result.note).toBe("the circuit's output requirement efficiency >= 40.0 % sets fmax (the design has no settle constraint)");
     const at = (f: number) =>
       JSON.parse(cli('check', design('doubler-pump'), '--json', '--set', settleless[0]!, '--set', `clock.frequency=${f}`).stdout);

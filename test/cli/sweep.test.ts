@@ -42,8 +42,8 @@ describe('phasegap sweep', () => {
     expect(r.stdout).toBe('');
   });
 
-  it('keeps every value under its own header when a later point has more checks than the first (2 GHz does not settle, 20 MHz does)', async () => {
-    const mixed = await cliAsync('sweep', design('doubler'), '--vary', 'clock.frequency=2GHz,20MHz', '--workers', '1');
+  it('keeps every value under its own header when a later point has more checks than the first (2.2 GHz does not settle at any corner, 20 MHz does)', async () => {
+    const mixed = await cliAsync('sweep', design('doubler'), '--vary', 'clock.frequency=2.2GHz,20MHz', '--workers', '1');
     const alone = await cliAsync('sweep', design('doubler'), '--vary', 'clock.frequency=20MHz', '--workers', '1');
     expect(mixed.code).toBe(1);
     expect(alone.code).toBe(0);
