@@ -105,9 +105,9 @@ export interface CircuitPowers {
 export interface CircuitComparison {
   /** Periods simulated from the solver's steady state. */
   readonly periods: number;
-  /** Mean output of the last period less that of the one before, V. */
+  /** Drift of the output mean over the last periods the deck measures (least-squares slope), V per period. */
   readonly drift: number | null;
-  /** Whether the last three periods show the output settled (see circuit-measures.ts). */
+  /** Whether the last periods show the output settled (see circuit-measures.ts). */
   readonly settled: boolean;
   readonly figures: readonly CircuitFigureComparison[];
   readonly power: { readonly model: CircuitPowers; readonly simulator: CircuitPowers | null };

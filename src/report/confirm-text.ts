@@ -152,7 +152,7 @@ export function circuitRunText(k: CircuitComparison, simulator: string): string 
   const power = (p: CircuitPowers) =>
     `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
   return (
-    `${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (last change ${drift});` +
+    `${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (drift ${drift});` +
     ` model ${power(k.power.model)}; ${simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`
   );
 }

@@ -8,9 +8,9 @@
  * the deck's time 0, so a long output time constant need not be waited out from discharged
  * capacitors; the deck then runs SETTLE_STARTUPS times the model's start-up periods (within
  * MIN_PERIODS..MAX_PERIODS), which shrinks any difference between the solver's steady state and
- * the simulator's a thousandfold, and measures the output mean of each of the last three periods,
- * so the reader can check that the simulation has settled (circuit-measures.ts) rather than
- * trust the starting point.
+ * the simulator's a thousandfold, and measures the output mean of each of the last SETTLE_WINDOW
+ * periods, so the reader can check that the simulation has settled (circuit-measures.ts) rather
+ * than trust the starting point.
  */
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { evaluateCorner } from '../analysis/evaluate.js';
@@ -29,6 +29,8 @@ import { spiceComment, spiceInlineComment } from './text.js';
 export const SETTLE_STARTUPS = 3;
 export const MIN_PERIODS = 12;
 export const MAX_PERIODS = 300;
+/** Periods at the end of the run whose output means are measured, vout_1 (oldest) .. vout_SETTLE_WINDOW (last). */
+export const SETTLE_WINDOW = 8;
 /** Largest internal time step as a fraction of the period. */
 const MAX_STEP = 1 / 1000;
 
@@ -211,7 +213,7 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
     names.push(name);
     measures.push(`.meas tran ${name} ${what}`);
   };
-  for (const k of [3, 2, 1]) meas(`vout_${4 - k}`, `AVG v(${out}) ${window3(k)}`);
+  for (let k = SETTLE_WINDOW; k >= 1; k--) meas(`vout_${SETTLE_WINDOW + 1 - k}`, `AVG v(${out}) ${window3(k)}`);
   meas('vout_pp', `PP v(${out}) ${window3(1)}`);
   if (load.resistance !== null) meas('vout_rms', `RMS v(${out}) ${window3(1)}`);
   const clock = `vclock`;

@@ -6,26 +6,65 @@
  * gate (an ideal ramp in the deck, with no supply of its own) its high level times the charge
  * it puts on the gate, counted as the model counts it.
  *
- * Settling: the output means of the last three periods give the per-period change d2 and its
- * ratio r to the one before; the change still to come is d2 r / (1 - r) for a geometric approach
- * (Aitken's extrapolation). The run counts as settled when that and d2 together stay within a
- * tenth of the output tolerance, or d2 is below SETTLE_FLOOR of VDD (the simulator's own noise).
+ * Settling: the deck starts at the solver's steady state, so the simulator's output either sits at
+ * its own periodic steady state, wobbling by its time-step placement from period to period, or is
+ * still moving toward it. The least-squares slope of the last SETTLE_WINDOW period means (V per
+ * period) averages the wobble out. A run is settled when any of these holds:
+ * - the slope is below SETTLE_FLOOR of VDD per period (the simulator's own noise);
+ * - charge balance: the output capacitor gains per period C dV while the load draws about
+ *   C times the ripple, so a slope below SETTLE_RIPPLE_FRACTION of the ripple leaves the pump's
+ *   delivered charge within that fraction of the load's, and a first-order approach (time constant
+ *   R_out C_out) that fraction of the load's drop I R_out still to come; and the window's own
+ *   drift, slope times its periods, stays within a tenth of the output tolerance (the band);
+ * - a fast geometric approach: the last three means give the change d2 and its ratio r to the one
+ *   before, and the change still to come, d2 r / (1 - r) (Aitken's extrapolation), with d2 fits
+ *   the band.
+ * A waveform periodic within its own wobble passes the second; an output still rising by a
+ * percent of its ripple each period, or by a change that does not shrink, passes none.
  */
 import { CIRCUIT_TOLERANCE, type CircuitComparison, type CircuitFigureComparison, type CircuitPowers } from '../report/confirm-report.js';
-import type { CircuitDeck } from './circuit-deck.js';
+import { SETTLE_WINDOW, type CircuitDeck } from './circuit-deck.js';
 import type { SimulatorOutput } from './results.js';
 
 /** Per-period change of the output mean, as a fraction of VDD, below which the run is settled whatever its trend. */
 export const SETTLE_FLOOR = 1e-5;
+/** Largest per-period drift of the output mean, as a fraction of the ripple, in charge balance. */
+export const SETTLE_RIPPLE_FRACTION = 0.01;
 
-/** Whether three successive period means show a settled output; vdd and the tolerance in volts. */
-export function settledOutput(means: readonly [number, number, number], band: number, floor: number): boolean {
-  const d1 = means[1] - means[0];
-  const d2 = means[2] - means[1];
-  if (Math.abs(d2) <= floor) return true;
+/** Least-squares slope of equally spaced values, per step. */
+export function meanSlope(values: readonly number[]): number {
+  const n = values.length;
+  const centre = (n - 1) / 2;
+  let mean = 0;
+  for (const v of values) mean += v / n;
+  let sxy = 0;
+  let sxx = 0;
+  values.forEach((v, i) => {
+    sxy += (i - centre) * (v - mean);
+    sxx += (i - centre) * (i - centre);
+  });
+  return sxx === 0 ? 0 : sxy / sxx;
+}
+
+/** What the settle test reads, in volts: the band (a tenth of the output tolerance), the noise floor per period and the ripple. */
+export interface SettleLimits {
+  readonly band: number;
+  readonly floor: number;
+  readonly ripple: number;
+}
+
+/** Whether the output means of the last periods (oldest first, at least three) show a settled output. */
+export function settledOutput(means: readonly number[], limits: SettleLimits): boolean {
+  if (means.length < 3) return false;
+  const slope = Math.abs(meanSlope(means));
+  if (slope <= limits.floor) return true;
+  if (slope <= SETTLE_RIPPLE_FRACTION * limits.ripple && slope * (means.length - 1) <= limits.band) return true;
+  const [a, b, c] = means.slice(-3) as [number, number, number];
+  const d1 = b - a;
+  const d2 = c - b;
   const r = d1 === 0 ? Infinity : Math.abs(d2 / d1);
   if (!(r < 1)) return false;
-  return Math.abs(d2) * (1 + r / (1 - r)) <= band;
+  return Math.abs(d2) * (1 + r / (1 - r)) <= limits.band;
 }
 
 /** Powers the simulator measured over the last period, W, or null when a measurement is missing. */
@@ -44,7 +83,7 @@ export function simulatedPowers(deck: CircuitDeck, value: (name: string) => numb
   const clock = value('e_clock');
   if (clock === null) return null;
   generator += clock;
-  const mean = value('vout_3');
+  const mean = value(`vout_${SETTLE_WINDOW}`);
   // The load's power: a current source's is exact from the mean, a resistor's from the rms.
   let output: number;
   if (deck.load.resistance !== null) {
@@ -88,13 +127,13 @@ function judged(
 
 export function compareCircuit(deck: CircuitDeck, output: SimulatorOutput): CircuitComparison {
   const value = (name: string) => output.values.get(name) ?? null;
-  const means = [value('vout_1'), value('vout_2'), value('vout_3')];
+  const means = Array.from({ length: SETTLE_WINDOW }, (_, i) => value(`vout_${i + 1}`));
   const complete = means.every((m): m is number => m !== null);
-  const band = 0.1 * CIRCUIT_TOLERANCE.output * deck.vdd;
-  const settled = complete && settledOutput(means as [number, number, number], band, SETTLE_FLOOR * deck.vdd);
-  const drift = complete ? means[2]! - means[1]! : null;
-  const mean = means[2] ?? null;
   const ripple = value('vout_pp');
+  const limits = { band: 0.1 * CIRCUIT_TOLERANCE.output * deck.vdd, floor: SETTLE_FLOOR * deck.vdd, ripple: ripple ?? 0 };
+  const settled = complete && settledOutput(means as number[], limits);
+  const drift = complete ? meanSlope(means as number[]) : null;
+  const mean = means[SETTLE_WINDOW - 1] ?? null;
   const power = simulatedPowers(deck, value);
   const drawn = power === null ? 0 : power.input + power.generator;
   const efficiency = power === null || !(drawn > 0) ? null : power.output / drawn;

@@ -60,7 +60,7 @@ describe('circuitConfirmTable', () => {
     ]);
     expect(t.pass).toBe(false);
     expect(t.note).toBe(
-      "75 periods from the solver's steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 rails 225 uW, generator 172 uW, load 167 uW",
+      "75 periods from the solver's steady state, settled (drift -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 rails 225 uW, generator 172 uW, load 167 uW",
     );
   });
 
@@ -83,9 +83,7 @@ describe('circuitConfirmTable', () => {
     };
     const t = circuitConfirmTable('ff/1.98V/-40C', unsettled, 'ngspice-42');
     expect(t.rows.map((r) => r.cells)).toEqual([['output', '3.35 V', 'not measured', '-', '±2.0 % of VDD', 'OVER']]);
-    expect(t.note).toMatch(
-      /^75 periods from the solver's steady state, NOT SETTLED \(last change not measured\);.* ngspice-42 not measured$/,
-    );
+    expect(t.note).toMatch(/^75 periods from the solver's steady state, NOT SETTLED \(drift not measured\);.* ngspice-42 not measured$/);
   });
 });
 

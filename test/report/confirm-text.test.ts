@@ -130,7 +130,7 @@ describe('renderConfirmText', () => {
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+efficiency\s+48\.1 %\s+44\.4 %\s+\+8\.2 %\s+within$/m);
     expect(text).toMatch(/^tt\/1\.8V\/27C\s+lost charge\s+0 C\s+271 fC\s+-\s+shown$/m);
     expect(text).toContain(
-      "tt/1.8V/27C: 75 periods from the solver's steady state, settled (last change -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured",
+      "tt/1.8V/27C: 75 periods from the solver's steady state, settled (drift -15.0 uV per period); model rails 214 uW, generator 134 uW, load 167 uW; ngspice-42 not measured",
     );
     expect(text).toMatch(/circuit figures within tolerance at 0\/1 corners\)$/m);
   });

@@ -75,7 +75,7 @@ describe('circuitDeck', () => {
     expect(deck.text).not.toMatch(/\.meas tran (dead|gap|width|sw|i_ron)/);
   });
 
-  it("starts every circuit node at the solver's steady state and measures the last three periods of 3x the start-up", () => {
+  it("starts every circuit node at the solver's steady state and measures the last eight periods of 3x the start-up", () => {
     const { resolved, corner, deck } = at('doubler-pump', 'tt/1.8V/27C');
     const circuit = evaluateCorner(resolved, corner).circuit!;
     expect(deck.periods).toBe(3 * circuit.startupCycles!);
@@ -87,9 +87,10 @@ describe('circuitDeck', () => {
     // The output starts at the solver's level within its ripple; the bottom plate at a rail.
     expect(Math.abs(ic.get('cn_out')! - circuit.output)).toBeLessThan(circuit.ripple);
     expect([0, 1.8].some((v) => Math.abs(ic.get('cn_bottom')! - v) < 0.01)).toBe(true);
-    expect(deck.measures.slice(0, 4)).toEqual(['vout_1', 'vout_2', 'vout_3', 'vout_pp']);
+    // The output mean of each of the last eight periods, the last one from deck.from.
+    expect(deck.measures.slice(0, 9)).toEqual(['vout_1', 'vout_2', 'vout_3', 'vout_4', 'vout_5', 'vout_6', 'vout_7', 'vout_8', 'vout_pp']);
     expect(deck.text).toContain(
-      `.meas tran vout_3 AVG v(cn_out) FROM=${Number(deck.from.toPrecision(6)).toExponential().replace('e+', 'e')}`,
+      `.meas tran vout_8 AVG v(cn_out) FROM=${Number(deck.from.toPrecision(6)).toExponential().replace('e+', 'e')}`,
     );
     expect(deck.model.output).toBe(circuit.output);
     expect(deck.model.efficiency).toBe(circuit.efficiency);
