@@ -24,8 +24,7 @@
  */
 import type { DeviceGeometry } from './cells.js';
 import type { DownShifterSizing } from '../switches/down-shifter-sizing.js';
-import { inputCopy, shifterMosfet, shifterNodes, sizingComment, type ShifterRails } from './level-shifter.js';
-import { spiceNumber } from './names.js';
+import { latchCapLines, shifterFrontLines, shifterMosfet, shifterNodes, type ShifterRails } from './level-shifter.js';
 import { spiceComment } from './text.js';
 
 /** The lines of one shifter named `id` from deck node `input` to `output` (see shifterLines). */
@@ -39,31 +38,22 @@ export function downShifterLines(
   size: DownShifterSizing,
   geometry: DeviceGeometry,
 ): string[] {
-  const { invert, delay: declared } = shifter;
   const { nModel: n, pModel: p } = geometry;
-  const [a, b, mid, set, x, y] = shifterNodes(id);
+  const [, b, , set, x, y] = shifterNodes(id);
   const m = shifterMosfet(id, geometry);
   const { vdd, low, high } = rails;
   return [
     spiceComment(
-      `${label}: cross-coupled level shifter down to a low level below ground${invert ? ', inverting' : ''} (input copied by an ideal source,` +
+      `${label}: cross-coupled level shifter down to a low level below ground${shifter.invert ? ', inverting' : ''} (input copied by an ideal source,` +
         ' complement inverter, skewed buffer on the set side, p pull-ups against a cross-coupled n latch on the low level,' +
         ' output inverter from the low to the high level; n devices on the low level in a deep-n-well p-well at the low level)',
     ),
-    sizingComment(label, size.estimate, declared),
-    inputCopy(id, a, vdd, input, invert),
-    m('i1', b, a, '0', '0', n, size.inverterN),
-    m('i2', b, a, vdd, vdd, p, 2 * size.inverterN),
-    m('b1', mid, a, '0', '0', n, size.bufferN),
-    m('b2', mid, a, vdd, vdd, p, size.bufferP),
-    ...(size.bufferCap > 0 ? [`c${id}_mid ${mid} 0 ${spiceNumber(size.bufferCap)}`] : []),
-    m('b3', set, mid, '0', '0', n, size.inverterN),
-    m('b4', set, mid, vdd, vdd, p, 2 * size.inverterN),
+    ...shifterFrontLines(id, label, input, shifter, vdd, size, geometry),
     m('p1', x, set, vdd, vdd, p, size.pullUp),
     m('p2', y, b, vdd, vdd, p, size.pullUp),
     m('n1', x, y, low, low, n, size.latchN),
     m('n2', y, x, low, low, n, size.latchN),
-    ...(size.latchCap > 0 ? [`c${id}_x ${x} 0 ${spiceNumber(size.latchCap)}`, `c${id}_y ${y} 0 ${spiceNumber(size.latchCap)}`] : []),
+    ...latchCapLines(id, size.latchCap),
     m('o1', output, x, low, low, n, size.outputN),
     m('o2', output, x, high, rails.outputWell, p, size.outputP),
   ];

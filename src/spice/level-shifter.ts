@@ -46,7 +46,7 @@ export function shifterMosfet(id: string, geometry: DeviceGeometry) {
 }
 
 /** The comment with what a shifter was sized for, and whether its declared delay (s) is faster than that. */
-export function sizingComment(
+function sizingComment(
   label: string,
   estimate: { readonly rise: number; readonly fall: number; readonly transition: number },
   declared: number,
@@ -60,8 +60,43 @@ export function sizingComment(
 }
 
 /** The ideal source copying the gate net `input` (or its complement vdd - v) onto the shifter's input node `a`. */
-export function inputCopy(id: string, a: string, vdd: string, input: string, invert: boolean): string {
+function inputCopy(id: string, a: string, vdd: string, input: string, invert: boolean): string {
   return invert ? `e${id} ${a} ${vdd} 0 ${input} 1` : `e${id} ${a} 0 ${input} 0 1`;
+}
+
+/**
+ * The lines both shifters share, on the core supply node `vdd`: what the shifter was sized for, the
+ * input copy, its complement inverter and the skewed buffer driving the set side.
+ */
+export function shifterFrontLines(
+  id: string,
+  label: string,
+  input: string,
+  shifter: { invert: boolean; delay: number },
+  vdd: string,
+  size: Pick<ShifterSizing, 'inverterN' | 'bufferN' | 'bufferP' | 'bufferCap' | 'estimate'>,
+  geometry: DeviceGeometry,
+): string[] {
+  const { nModel: n, pModel: p } = geometry;
+  const [a, b, mid, set] = shifterNodes(id);
+  const m = shifterMosfet(id, geometry);
+  return [
+    sizingComment(label, size.estimate, shifter.delay),
+    inputCopy(id, a, vdd, input, shifter.invert),
+    m('i1', b, a, '0', '0', n, size.inverterN),
+    m('i2', b, a, vdd, vdd, p, 2 * size.inverterN),
+    m('b1', mid, a, '0', '0', n, size.bufferN),
+    m('b2', mid, a, vdd, vdd, p, size.bufferP),
+    ...(size.bufferCap > 0 ? [`c${id}_mid ${mid} 0 ${spiceNumber(size.bufferCap)}`] : []),
+    m('b3', set, mid, '0', '0', n, size.inverterN),
+    m('b4', set, mid, vdd, vdd, p, 2 * size.inverterN),
+  ];
+}
+
+/** The capacitors on shifter `id`'s two latch nodes, none when `latchCap` is 0. */
+export function latchCapLines(id: string, latchCap: number): string[] {
+  const [, , , , x, y] = shifterNodes(id);
+  return latchCap > 0 ? [`c${id}_x ${x} 0 ${spiceNumber(latchCap)}`, `c${id}_y ${y} 0 ${spiceNumber(latchCap)}`] : [];
 }
 
 /**
@@ -78,29 +113,20 @@ export function shifterLines(
   size: ShifterSizing,
   geometry: DeviceGeometry,
 ): string[] {
-  const { invert, delay: declared } = shifter;
   const { nModel: n, pModel: p } = geometry;
-  const [a, b, mid, set, x, y] = shifterNodes(id);
+  const [, b, , set, x, y] = shifterNodes(id);
   const m = shifterMosfet(id, geometry);
   return [
     spiceComment(
-      `${label}: cross-coupled level shifter${invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,` +
+      `${label}: cross-coupled level shifter${shifter.invert ? ', inverting' : ''} (input copied by an ideal source, complement inverter,` +
         ' skewed buffer on the set side, n pull-downs against a cross-coupled p latch on the high level, output inverter from the low to the high level)',
     ),
-    sizingComment(label, size.estimate, declared),
-    inputCopy(id, a, rails.vdd, input, invert),
-    m('i1', b, a, '0', '0', n, size.inverterN),
-    m('i2', b, a, rails.vdd, rails.vdd, p, 2 * size.inverterN),
-    m('b1', mid, a, '0', '0', n, size.bufferN),
-    m('b2', mid, a, rails.vdd, rails.vdd, p, size.bufferP),
-    ...(size.bufferCap > 0 ? [`c${id}_mid ${mid} 0 ${spiceNumber(size.bufferCap)}`] : []),
-    m('b3', set, mid, '0', '0', n, size.inverterN),
-    m('b4', set, mid, rails.vdd, rails.vdd, p, 2 * size.inverterN),
+    ...shifterFrontLines(id, label, input, shifter, rails.vdd, size, geometry),
     m('n1', x, set, '0', '0', n, size.pullDown),
     m('n2', y, b, '0', '0', n, size.pullDown),
     m('p1', x, y, rails.high, rails.high, p, size.latchP),
     m('p2', y, x, rails.high, rails.high, p, size.latchP),
-    ...(size.latchCap > 0 ? [`c${id}_x ${x} 0 ${spiceNumber(size.latchCap)}`, `c${id}_y ${y} 0 ${spiceNumber(size.latchCap)}`] : []),
+    ...latchCapLines(id, size.latchCap),
     m('o1', output, x, rails.low, '0', n, size.outputN),
     m('o2', output, x, rails.high, rails.high, p, size.outputP),
   ];

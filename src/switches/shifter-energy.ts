@@ -74,22 +74,51 @@ function coreNodes(devices: CornerDevices, size: Pick<ShifterSizing, 'inverterN'
   return 2 * (inverterDrains + pullGate) + mid;
 }
 
+/** Which devices pull and which latch, and the latch's levels: all that tells the two topologies apart. */
+interface Mirror {
+  readonly pull: DeviceAtCorner;
+  readonly latch: DeviceAtCorner;
+  /** Widths of a pull device and of a latch device, unit widths. */
+  readonly pullWidth: number;
+  readonly latchWidth: number;
+  /** A latch device's gate drive when fully on, V. */
+  readonly latchDrive: number;
+  readonly span: number;
+  readonly swing: number;
+}
+
+function mirrorEnergy(
+  m: Mirror,
+  size: Pick<ShifterSizing, 'inverterN' | 'bufferN' | 'bufferP' | 'bufferCap' | 'outputN' | 'outputP' | 'latchCap'>,
+  load: number,
+  devices: CornerDevices,
+): ShifterEnergy {
+  const { n, p, vdd } = devices;
+  const side = m.pull.cdrain * m.pullWidth + (m.latch.cdrain + m.latch.cgate) * m.latchWidth + size.latchCap;
+  return latchShifterEnergy({
+    coreNodes: coreNodes(devices, size, m.pull.cgate * m.pullWidth),
+    side,
+    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
+    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
+    pull: current(m.pull, vdd) * m.pullWidth,
+    latch: current(m.latch, m.latchDrive) * m.latchWidth,
+    span: m.span,
+    swing: m.swing,
+    vdd,
+  });
+}
+
 /** Energy per period of a shifter up from the core sized `size` driving a gate of `load` farads at `devices`' corner. */
 export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
   const { n, p, vdd } = devices;
   const high = levelAt(ls.high, vdd);
-  const side = n.cdrain * size.pullDown + (p.cdrain + p.cgate) * size.latchP + size.latchCap;
-  return latchShifterEnergy({
-    coreNodes: coreNodes(devices, size, n.cgate * size.pullDown),
-    side,
-    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
-    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
-    pull: current(n, vdd) * size.pullDown,
-    latch: current(p, high) * size.latchP,
-    span: high,
-    swing: Math.abs(high - levelAt(ls.low, vdd)),
-    vdd,
-  });
+  const swing = Math.abs(high - levelAt(ls.low, vdd));
+  return mirrorEnergy(
+    { pull: n, latch: p, pullWidth: size.pullDown, latchWidth: size.latchP, latchDrive: high, span: high, swing },
+    size,
+    load,
+    devices,
+  );
 }
 
 /**
@@ -100,16 +129,11 @@ export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, de
 export function downShifterEnergy(ls: Shifter, size: DownShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
   const { n, p, vdd } = devices;
   const low = levelAt(ls.low, vdd);
-  const side = p.cdrain * size.pullUp + (n.cdrain + n.cgate) * size.latchN + size.latchCap;
-  return latchShifterEnergy({
-    coreNodes: coreNodes(devices, size, p.cgate * size.pullUp),
-    side,
-    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
-    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
-    pull: current(p, vdd) * size.pullUp,
-    latch: current(n, vdd - low) * size.latchN,
-    span: vdd - low,
-    swing: Math.abs(levelAt(ls.high, vdd) - low),
-    vdd,
-  });
+  const swing = Math.abs(levelAt(ls.high, vdd) - low);
+  return mirrorEnergy(
+    { pull: p, latch: n, pullWidth: size.pullUp, latchWidth: size.latchN, latchDrive: vdd - low, span: vdd - low, swing },
+    size,
+    load,
+    devices,
+  );
 }
