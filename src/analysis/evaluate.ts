@@ -165,7 +165,7 @@ export class CornerEvaluator {
           switches,
           cycles,
           devices,
-          { devices: switchDevices, dvth: mismatch?.switches },
+          { devices: switchDevices, dvth: mismatch?.switches, shifterSizes: this.shifters ?? undefined, shifterDvth: mismatch?.shifters },
           this.circuitFigures,
         );
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);

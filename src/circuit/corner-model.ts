@@ -15,6 +15,7 @@ import {
   bulkLevel,
   conductingState,
   deviceOnResistance,
+  deviceShifter,
   gateWave,
   switchThreshold,
   type GateWave,
@@ -23,6 +24,7 @@ import {
 import { bodyThreshold, triodeResistance } from '../switches/physics.js';
 import { rangeHigh, rangeLow } from '../switches/nodes.js';
 import type { SwitchPlan } from '../switches/plan.js';
+import type { ShifterSizing } from '../switches/shifter-sizing.js';
 import { overlapPerWidth, oxidePerArea } from './injection.js';
 import type { CircuitModel, ModelChannel, ModelEdgeDevice, ModelGateCharge, ModelInterval, ModelSwitch } from './model.js';
 import type { CircuitNetwork } from './network.js';
@@ -52,10 +54,17 @@ function onsetThreshold(vth: number, gamma: number, phi2f: number, gate: number,
   return vt;
 }
 
-/** What sets a switch's on-resistance: the devices (calibrated, if the run calibrates R_on) and per-switch threshold shifts (mismatch), V. */
+/**
+ * What sets a switch's on-resistance and its gate's edges: the devices (calibrated, if the run
+ * calibrates R_on) and per-switch threshold shifts (mismatch), V; behind a level shifter, its
+ * sizes per switch and device (analysis/shifter-sizes.ts) and its pull-down's threshold shift per
+ * switch, V, so the gate ramps are the ones the switch instants come from (`switchConduction`).
+ */
 export interface SwitchDrive {
   readonly devices: CornerDevices;
   readonly dvth?: readonly (ArrayLike<number> | undefined)[];
+  readonly shifterSizes?: ReadonlyArray<ReadonlyArray<ShifterSizing | null>>;
+  readonly shifterDvth?: ArrayLike<number>;
 }
 
 /** Conductance of a switch's devices in parallel with n sources at nSource and p sources at pSource, S. */
@@ -132,7 +141,8 @@ export function cornerModel(
     }
     const edgeDevices: ModelEdgeDevice[] = [];
     plan.devices.forEach((device, i) => {
-      const wave = gateWave(plan, device, cycles, vdd);
+      const shifter = deviceShifter(plan, i, cycles, drive.devices, drive.shifterSizes?.[k], drive.shifterDvth?.[k] ?? 0);
+      const wave = gateWave(plan, device, cycles, vdd, shifter);
       if (typeof wave === 'string') return;
       edgeDevices.push(edgeDevice(plan, i, devices, wave, drive.dvth?.[k]?.[i] ?? 0));
       const n = device.kind === 'n';

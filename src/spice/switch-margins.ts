@@ -17,13 +17,13 @@ export interface BreakBeforeMakePair {
   readonly guard: number;
 }
 
-interface Conduction {
+export interface Conduction {
   readonly on: number;
   readonly off: number;
 }
 
 /** Earliest turn-on and latest turn-off, s (deck time), from instants `time(q)`; null if one is missing. */
-function conduction(events: readonly Quantity[], time: (q: Quantity) => number | null, period: number): Conduction | null {
+export function conduction(events: readonly Quantity[], time: (q: Quantity) => number | null, period: number): Conduction | null {
   let on = NaN;
   let off = NaN;
   for (const q of events) {

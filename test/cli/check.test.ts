@@ -122,36 +122,18 @@ describe('phasegap check exit codes', () => {
     expect(Object.keys(json.corners[0]!.widths).sort()).toEqual(['p1', 'p1e', 'p2', 'p2e']);
   });
 
-  it("fails too-tight (exit 1) wherever its handover is closer than the model's switch-instant error, ngspice's six failing corners among them", () => {
+  it("fails too-tight (exit 1) wherever its handover is closer than the model's switch-instant error, ngspice's three failing corners among them", () => {
     const { code, json } = report('too-tight');
     expect(code).toBe(1);
     expect(json.verdict).toBe('fail');
     expect(json.limiting!.margin).toBeLessThan(0);
     expect(json.limiting!.corner).toBe('sf/1.62V/125C');
     const passing = json.corners.filter((c) => c.verdict === 'pass').map((c) => c.name);
-    // Only the slow-n corners below 125 C, ss/1.62V/125C and tt up to 27 C at 1.62 V keep enough handover beside
-    // the error band (measured).
-    expect(passing).toEqual([
-      'tt/1.62V/-40C',
-      'tt/1.62V/27C',
-      'tt/1.8V/-40C',
-      'ss/1.62V/-40C',
-      'ss/1.62V/27C',
-      'ss/1.62V/125C',
-      'ss/1.8V/-40C',
-      'ss/1.8V/27C',
-      'ss/1.98V/-40C',
-      'ss/1.98V/27C',
-      'fs/1.62V/-40C',
-      'fs/1.62V/27C',
-      'fs/1.8V/-40C',
-      'fs/1.8V/27C',
-      'fs/1.98V/-40C',
-      'fs/1.98V/27C',
-    ]);
+    // Only slow-n corners at the low supply and cold keep enough handover beside the error band
+    // (13.1 % of the handover's path, src/switches/instant-band.ts; measured).
+    expect(passing).toEqual(['tt/1.62V/-40C', 'ss/1.62V/-40C', 'ss/1.62V/27C', 'ss/1.8V/-40C', 'fs/1.62V/-40C', 'fs/1.8V/-40C']);
     // ngspice 39 fails break-before-make at these (test/checks/switch-band.test.ts): none passes here.
-    for (const c of ['tt/1.98V/125C', 'ff/1.8V/125C', 'ff/1.98V/125C', 'sf/1.62V/125C', 'sf/1.8V/125C', 'sf/1.98V/125C'])
-      expect(passing).not.toContain(c);
+    for (const c of ['ff/1.98V/125C', 'sf/1.8V/125C', 'sf/1.98V/125C']) expect(passing).not.toContain(c);
   });
 
   it('exits 1 in table mode too', () => {
@@ -331,7 +313,7 @@ describe('phasegap check verdict headline and --junit', () => {
     expect(run.code).toBe(1);
     expect(run.stdout.split('\n').slice(0, 3)).toEqual([
       'verdict: FAIL (fails: corner checks)',
-      '  corner checks: FAIL: 16 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
+      '  corner checks: FAIL: 6 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
       '  not run here: Monte Carlo yield, simulator agreement',
     ]);
     const xml = readFileSync(file, 'utf8');
