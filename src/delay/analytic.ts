@@ -191,6 +191,24 @@ function responseSet(alpha: number, depth: number, driver: number | null, shape:
 }
 
 /**
+ * The response sets of a pin, one per shape of its input edge (a clock source's ramp: one), shared
+ * by every pin and every binding that asks for the same alpha, depth and driver: a timing model is
+ * bound per corner and per searched chain, and building the sets afresh each time cost more than
+ * the evaluation itself (read-only, so sharing them changes no number).
+ */
+const pinResponses = new Map<string, RampResponse[][][]>();
+
+function pinShapes(alpha: number, depth: number, driver: number | null): RampResponse[][][] {
+  const key = `${alpha}/${depth}/${driver}`;
+  let sets = pinResponses.get(key);
+  if (!sets) {
+    sets = driver === null ? [responseSet(alpha, depth, null, 0)] : DRIVER_INPUTS.map((_, j) => responseSet(alpha, depth, driver, j));
+    pinResponses.set(key, sets);
+  }
+  return sets;
+}
+
+/**
  * Each gate's rising and falling responses for the corner's alphas, per pin: the shapes of a
  * driving gate's edge (whose pulling device is the other type), or the ramp of a clock source.
  */
@@ -201,11 +219,7 @@ function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number,
     const start = netlist.gateInputStart[g]!;
     const pins = netlist.gateInputStart[g + 1]! - start;
     const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][][] =>
-      Array.from({ length: pins }, (_, pin) =>
-        inputDriver[start + pin]! < 0
-          ? [responseSet(alpha, depth, null, 0)]
-          : DRIVER_INPUTS.map((_, j) => responseSet(alpha, depth, driverAlpha, j)),
-      );
+      Array.from({ length: pins }, (_, pin) => pinShapes(alpha, depth, inputDriver[start + pin]! < 0 ? null : driverAlpha));
     // The driver's edge behind a rising output is its falling one (its n network), and the other way round.
     out[2 * g] = edges(alphaP, shape.pSeries, alphaN);
     out[2 * g + 1] = edges(alphaN, shape.nSeries, alphaP);
