@@ -32,7 +32,7 @@ export interface GridSpec {
 }
 
 export const GRIDS: Readonly<Record<'coarse' | 'fine', GridSpec>> = {
-  coarse: { transitions: [1, 10, 40, 100], loads: [0.5, 4, 16, 40] },
+  coarse: { transitions: [1, 10, 40, 100], loads: [0.25, 4, 16, 40] },
   fine: { transitions: [1, 3, 8, 20, 45, 100, 200], loads: [0.25, 1, 3, 8, 16, 30, 60] },
 };
 
