@@ -24,7 +24,7 @@ describe('characterization decks', () => {
     const axes = gridAxes(card, GRIDS.coarse);
     // unit inverter of the card: (0.5 + 1.0) um x 1.92 fF/um = 2.88 fF
     expect(processScale(card).capacitance).toBeCloseTo(2.88e-15, 20);
-    expect(axes.loads).toEqual([1.44e-15, 1.152e-14, 4.608e-14, 1.152e-13]);
+    expect(axes.loads).toEqual([7.2e-16, 1.152e-14, 4.608e-14, 1.152e-13]);
   });
 
   it('hold one input transition each, with every cell pin at every load', () => {
