@@ -5,8 +5,7 @@ import { ronCalibration } from '../switches/tabulated-ron.js';
 import type { GateTiming } from '../delay/model.js';
 import type { SampleMismatch } from '../variation/mismatch.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
-import { modelEdgeShape } from '../measure/levels.js';
-import { CycleIndex, measurePhases, type MeasurementFailure, type NetCycle, type PhaseMeasurement } from '../measure/phases.js';
+import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { requirementChecks } from '../checks/requirements.js';
 import { compareChecks, type Check } from '../checks/check.js';
 import { appendSwitchChecks, type SwitchCheckSetup } from '../checks/switch-checks.js';
@@ -155,10 +154,9 @@ export class CornerEvaluator {
     if (measurement.ok) {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
-      const shapes = (cycle: NetCycle, rising: boolean) => modelEdgeShape(cycle, rising, cycles, netlist, timing);
       for (let k = 0; k < plans.length; k++)
         switches.push(
-          switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k], this.shifters?.[k], shapes),
+          switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k], this.shifters?.[k]),
         );
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);

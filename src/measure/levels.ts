@@ -42,34 +42,15 @@ export function modelCrossings(
   return { rise: rise ?? linear.rise, fall: fall ?? linear.fall };
 }
 
-/**
- * The shape of one of a net's edges as the delay model solves it (time from its 50 % point to a
- * level, as a fraction of the supply), or null where `modelCrossings` would fall back to a
- * linear ramp.
- */
-export function modelEdgeShape(
-  cycle: NetCycle,
-  rising: boolean,
-  index: CycleIndex,
-  netlist: CompiledNetlist,
-  timing: GateTiming,
-): ((level: number) => number) | null {
-  const id = netlist.netIndex.get(cycle.net);
-  const g = id === undefined ? -1 : netlist.driver[id]!;
-  if (g < 0 || !timing.crossing) return null;
-  const cause = causingPin(g, rising, rising ? cycle.rise : cycle.fall, index, netlist);
-  if (!cause) return null;
-  return (level) => timing.crossing!(g, cause.pin, rising, cause.inputTransition, level);
-}
-
-/** The input pin whose opposite edge last preceded gate g's output edge at `time`, with its transition. */
-function causingPin(
+function edgeCrossing(
   g: number,
   rising: boolean,
   time: number,
   index: CycleIndex,
   netlist: CompiledNetlist,
-): { pin: number; inputTransition: number } | null {
+  timing: GateTiming,
+  level: number,
+): number | null {
   let best = Infinity;
   let pin = -1;
   let inputTransition = 0;
@@ -84,18 +65,5 @@ function causingPin(
       inputTransition = rising ? input.fallTransition : input.riseTransition;
     }
   }
-  return pin < 0 ? null : { pin, inputTransition };
-}
-
-function edgeCrossing(
-  g: number,
-  rising: boolean,
-  time: number,
-  index: CycleIndex,
-  netlist: CompiledNetlist,
-  timing: GateTiming,
-  level: number,
-): number | null {
-  const cause = causingPin(g, rising, time, index, netlist);
-  return cause ? timing.crossing!(g, cause.pin, rising, cause.inputTransition, level) : null;
+  return pin < 0 ? null : timing.crossing!(g, pin, rising, inputTransition, level);
 }

@@ -8,9 +8,7 @@
 import { wrapTime } from '../measure/wrap-time.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PhaseMeasurement } from '../measure/phases.js';
-import { CycleIndex, GAP_LEVEL, type NetCycle } from '../measure/phases.js';
-import { modelEdgeShape } from '../measure/levels.js';
-import type { GateTiming } from '../delay/model.js';
+import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
 import type { SimulationResult } from '../sim/engine.js';
 import type { CornerDevices } from '../process/device.js';
 import type { SwitchPlan } from '../switches/plan.js';
@@ -77,8 +75,6 @@ export interface QuantityContext {
   readonly window: DeckWindow;
   /** Sizes of the switches' level shifters (shifter-sizes.ts), so the model's gate edges are the evaluator's. */
   readonly shifterSizes?: ShifterSizes;
-  /** The delay model bound at this corner, whose edge shapes the evaluator's switch instants follow. */
-  readonly timing?: GateTiming;
 }
 
 export function deckQuantities(ctx: QuantityContext): Quantity[] {
@@ -124,14 +120,12 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   });
   let k = 0;
   const cycles = new CycleIndex(ctx.result, ctx.netlist);
-  const timing = ctx.timing;
-  const shapes = timing ? (cycle: NetCycle, rising: boolean) => modelEdgeShape(cycle, rising, cycles, ctx.netlist, timing) : undefined;
   ctx.switches.forEach((plan, i) => {
     const sigMin = levelAt(plan.signal.min, vdd);
     const sigMax = levelAt(plan.signal.max, vdd);
     const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
     plan.devices.forEach((device, j) => {
-      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i]), shapes);
+      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i]));
       if (typeof wave === 'string') return;
       // A level-shifted gate is the shifter's output.
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);

@@ -6,7 +6,7 @@
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
 import type { CycleIndex, NetCycle } from '../measure/phases.js';
 import { levelAt } from '../schema/level.js';
-import { bodyThreshold, rampCrossing, triodeResistance, type EdgeShape, type GateRamp } from './physics.js';
+import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
@@ -60,17 +60,9 @@ export interface GateWave {
 }
 
 /**
- * The delay model's shape of a net's rising or falling edge in the period (levels as fractions of
- * the supply), or null where the model has none (the edge is then the linear ramp of its
- * transition time).
- */
-export type NetEdgeShapes = (cycle: NetCycle, rising: boolean) => EdgeShape | null;
-
-/**
  * The gate ramps of one device of a switch, or why its net has none. `shifter` is its level
  * shifter's timing at this corner (shifter-timing.ts), or a scale of the declared delay and
- * transition (1: as declared, the nominal corner's). `shapes` gives a gate driven straight by its
- * net the delay model's edge shape; a level shifter's output stays a linear ramp.
+ * transition (1: as declared, the nominal corner's).
  */
 export function gateWave(
   plan: SwitchPlan,
@@ -78,17 +70,10 @@ export function gateWave(
   cycles: CycleIndex,
   vdd: number,
   shifter: number | ShifterGateTiming = 1,
-  shapes?: NetEdgeShapes,
 ): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
   const ls = plan.levelShifter;
-  if (!ls && shapes) {
-    return {
-      rise: { t50: cycle.rise, transition: cycle.riseTransition, low: 0, high: vdd, rising: true, shape: shapes(cycle, true) },
-      fall: { t50: cycle.fall, transition: cycle.fallTransition, low: 0, high: vdd, rising: false, shape: shapes(cycle, false) },
-    };
-  }
   const low = ls ? levelAt(ls.low, vdd) : 0;
   const high = ls ? levelAt(ls.high, vdd) : vdd;
   // An inverting level shifter turns the net's fall into the gate's rise and the other way round.
@@ -173,8 +158,7 @@ export function deviceShifter(
 
 /**
  * `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth`
- * the level shifter's pull-down; `shifterSizes[i]` the sizes of device i's shifter (shifter-sizes.ts);
- * `shapes` the delay model's edge shapes (gateWave).
+ * the level shifter's pull-down; `shifterSizes[i]` the sizes of device i's shifter (shifter-sizes.ts).
  */
 export function switchConduction(
   plan: SwitchPlan,
@@ -183,14 +167,13 @@ export function switchConduction(
   dvth?: ArrayLike<number>,
   shifterDvth = 0,
   shifterSizes?: ReadonlyArray<ShifterSizing | null>,
-  shapes?: NetEdgeShapes,
 ): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth), shapes);
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth));
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }

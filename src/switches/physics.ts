@@ -1,6 +1,6 @@
 /**
- * Switch physics at one operating point: threshold with body effect, the instant a gate edge
- * crosses a level, and the triode on-resistance.
+ * Switch physics at one operating point: threshold with body effect, the instant a linear gate
+ * ramp crosses a level, and the triode on-resistance.
  */
 
 /**
@@ -13,13 +13,7 @@ export function bodyThreshold(vt0: number, gamma: number, phi2f: number, vsb: nu
   return vt0 + gamma * (Math.sqrt(phi2f + Math.max(0, vsb)) - Math.sqrt(phi2f));
 }
 
-/**
- * Time from an edge's 50 % point to where it passes `level` (fraction of its swing above its low
- * level), s; negative before the 50 % point.
- */
-export type EdgeShape = (level: number) => number;
-
-/** A gate edge between two levels: a linear ramp, or the delay model's own shape when it has one. */
+/** A linear gate ramp between two levels. */
 export interface GateRamp {
   /** 50 % time, s. */
   readonly t50: number;
@@ -29,23 +23,16 @@ export interface GateRamp {
   readonly low: number;
   readonly high: number;
   readonly rising: boolean;
-  /**
-   * The edge's shape, when the delay model solved it: a switch turns on at a quarter to a third
-   * of the swing, where a curved edge (a fast start, a slow triode tail) is far from the linear
-   * ramp through its 50 % point.
-   */
-  readonly shape?: EdgeShape | null;
 }
 
 /**
- * When the edge passes `level`, s: from its shape when it has one; else on a rising ramp
- * t50 + tT * ((V - low)/(high - low) - 1/2), on a falling ramp t50 + tT * ((high - V)/(high - low) - 1/2) (derived from the linear ramp;
+ * When the ramp passes `level`, s. On a rising ramp that is t50 + tT * ((V - low)/(high - low) - 1/2);
+ * on a falling ramp t50 + tT * ((high - V)/(high - low) - 1/2) (derived from the linear ramp;
  * for an nmos opening on a V_DD -> 0 ramp this is (1/2 - (V_S + V_TN)/V_DD) * t_f after 50 %).
  * Only valid for low < level < high.
  */
 export function rampCrossing(ramp: GateRamp, level: number): number {
   const fraction = (level - ramp.low) / (ramp.high - ramp.low);
-  if (ramp.shape) return ramp.t50 + ramp.shape(fraction);
   return ramp.t50 + ramp.transition * ((ramp.rising ? fraction : 1 - fraction) - 0.5);
 }
 

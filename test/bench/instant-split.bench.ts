@@ -15,8 +15,7 @@ import { parseSimulatorOutput } from '../../src/spice/results.js';
 import { runDecks } from '../../src/spice/runner.js';
 import { measureLine, type Quantity } from '../../src/spice/measures.js';
 import { modelFile } from '../../src/cli/model-file.js';
-import { CycleIndex, type NetCycle } from '../../src/measure/phases.js';
-import { modelEdgeShape } from '../../src/measure/levels.js';
+import { CycleIndex } from '../../src/measure/phases.js';
 import { gateWave, deviceShifter } from '../../src/switches/conduction.js';
 import { rampCrossing } from '../../src/switches/physics.js';
 import { devicesAtCorner } from '../../src/process/device.js';
@@ -39,13 +38,11 @@ for (const name of names!) {
     const devices = devicesAtCorner(card, corner);
     const vdd = corner.vdd;
     const T = deck.window.period;
-    const timing = resolved.model.bind(resolved.netlist, resolved.loads, devices);
-    const shapes = (cycle: NetCycle, rising: boolean) => modelEdgeShape(cycle, rising, cycles, resolved.netlist, timing);
     const extra: Array<{ q: Quantity; m50: Quantity; mIn?: Quantity; model50: number; modelIn?: number; label: string }> = [];
     let k = 0;
     resolved.switches.forEach((plan, i) => {
       plan.devices.forEach((device, j) => {
-        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, sizes?.[i]), shapes);
+        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, sizes?.[i]));
         if (typeof wave === 'string') return;
         const prefix = `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} `;
         const qs = deck.quantities.filter((q) => q.event?.switch === plan.name && q.label.startsWith(prefix));

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { linearCrossings, modelCrossings, modelEdgeShape } from '../../src/measure/levels.js';
+import { linearCrossings, modelCrossings } from '../../src/measure/levels.js';
 import { CycleIndex, type NetCycle } from '../../src/measure/phases.js';
 import { compileNetlist, netId } from '../../src/netlist/netlist.js';
 import type { SimulationResult } from '../../src/sim/engine.js';
@@ -81,38 +81,5 @@ describe('modelCrossings', () => {
   it('keeps linear ramps for a model without edge shapes', () => {
     const c = modelCrossings(a, index, net, { delay: () => 0, transition: () => 0 }, 0.1);
     expect(c).toEqual(linearCrossings(a, 0.1));
-  });
-});
-
-describe('modelEdgeShape', () => {
-  const result = settled([
-    ['clk', 0, 1, 100 * ps],
-    ['a', 0.2e-9, 0, 100 * ps],
-    ['clk', 5e-9, 0, 100 * ps],
-    ['a', 5.1e-9, 1, 200 * ps],
-  ]);
-  const index = new CycleIndex(result, net);
-  const a: NetCycle = { net: 'a', rise: 5.1e-9, fall: 0.2e-9, riseTransition: 200 * ps, fallTransition: 100 * ps };
-
-  it("answers each level from the model with the edge's driver, input transition and direction", () => {
-    const calls: string[] = [];
-    const timing = {
-      delay: () => 0,
-      transition: () => 0,
-      crossing: (g: number, pin: number, rising: boolean, tin: number, level: number) => {
-        calls.push(`${g} ${pin} ${rising} ${Math.round(tin / ps)} ${level}`);
-        return level * ps;
-      },
-    };
-    const fall = modelEdgeShape(a, false, index, net, timing)!;
-    expect(fall(0.3)).toBe(0.3 * ps);
-    expect(fall(0.7)).toBe(0.7 * ps);
-    expect(calls).toEqual(['0 0 false 100 0.3', '0 0 false 100 0.7']);
-  });
-
-  it('is null for a model without edge shapes and for a net no gate drives', () => {
-    expect(modelEdgeShape(a, true, index, net, { delay: () => 0, transition: () => 0 })).toBeNull();
-    const clk: NetCycle = { net: 'clk', rise: 0, fall: 5e-9, riseTransition: 100 * ps, fallTransition: 100 * ps };
-    expect(modelEdgeShape(clk, true, index, net, { delay: () => 0, transition: () => 0, crossing: () => 1 })).toBeNull();
   });
 });

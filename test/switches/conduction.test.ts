@@ -5,7 +5,6 @@ import { compileNetlist } from '../../src/netlist/netlist.js';
 import { expandSwitches } from '../../src/switches/plan.js';
 import { switchConduction } from '../../src/switches/conduction.js';
 import { CycleIndex } from '../../src/measure/phases.js';
-import { modelCrossings } from '../../src/measure/levels.js';
 import { devicesAtCorner } from '../../src/process/device.js';
 import { loadProcess } from '../../src/cli/load.js';
 import { shifterEdges } from '../../src/switches/shifter-edges.js';
@@ -46,41 +45,18 @@ describe('switchConduction', () => {
     expect(hi.on).toBeGreaterThan(lo.on);
   });
 
-  // Hand formula (derived by hand; docs/physics.md, "Switches and constraints"): the gate passes
-  // V_x = V_S + V_T(V_SB) at the fraction V_x / V_DD of its swing.
-  const card = { vth: 0.45, gamma: 0.45, phi2f: 0.85 }; // generic180 n device at tt/27C
-  const vx = 0.3 + card.vth + card.gamma * (Math.sqrt(card.phi2f + 0.3) - Math.sqrt(card.phi2f));
-  const single = `  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.3V }`;
-
-  it('places the nmos crossing where the linear ramp reaches V_S + V_T (body effect included) without edge shapes', () => {
-    const resolved = resolveYaml(base(single));
-    const result = at(resolved);
+  it('places the nmos crossing where the linear ramp reaches V_S + V_T (body effect included)', () => {
+    const { result, byName } = conduction(`  - { name: s, type: nmos, w: 4um, l: 0.18um, gate: p1, signal: 0.3V }`);
     const m = result.measurement;
     if (!m.ok) throw new Error(m.reason);
     const cycle = m.cycles.p1!;
-    const c = switchConduction(
-      resolved.switches[0]!,
-      new CycleIndex(result.simulation, resolved.netlist),
-      devicesAtCorner(resolved.card, result.corner),
-    );
-    // off = t50 + t_f * ((V_DD - V_x)/V_DD - 1/2), on = t50 + t_r * (V_x/V_DD - 1/2).
-    expectClose(c.off, cycle.fall + cycle.fallTransition * ((1.8 - vx) / 1.8 - 0.5), 1e-12, 'abs');
-    expectClose(c.on, cycle.rise + cycle.riseTransition * (vx / 1.8 - 0.5), 1e-12, 'abs');
-  });
-
-  it("places the nmos crossing where the delay model's own edge reaches V_S + V_T", () => {
-    const resolved = resolveYaml(base(single));
-    const result = at(resolved);
-    const m = result.measurement;
-    if (!m.ok) throw new Error(m.reason);
-    const cycle = m.cycles.p1!;
-    const timing = resolved.model.bind(resolved.netlist, resolved.loads, devicesAtCorner(resolved.card, result.corner));
-    const shape = modelCrossings(cycle, new CycleIndex(result.simulation, resolved.netlist), resolved.netlist, timing, vx / 1.8);
-    const s = result.switches[0]!;
-    expectClose(s.off, cycle.fall + shape.fall, 1e-15, 'abs');
-    expectClose(s.on, cycle.rise + shape.rise, 1e-15, 'abs');
-    // The solved edge is not the linear ramp: its crossing differs by more than 0.1 ps.
-    expect(Math.abs(s.off - (cycle.fall + cycle.fallTransition * ((1.8 - vx) / 1.8 - 0.5)))).toBeGreaterThan(0.1e-12);
+    // Hand formula (derived by hand; docs/physics.md, "Switches and constraints"): off = t50 + t_f * ((V_DD - V_x)/V_DD - 1/2), V_x = V_S + V_T(V_SB).
+    const card = { vth: 0.45, gamma: 0.45, phi2f: 0.85 }; // generic180 n device at tt/27C
+    const vx = 0.3 + card.vth + card.gamma * (Math.sqrt(card.phi2f + 0.3) - Math.sqrt(card.phi2f));
+    const expectedOff = cycle.fall + cycle.fallTransition * ((1.8 - vx) / 1.8 - 0.5);
+    const expectedOn = cycle.rise + cycle.riseTransition * (vx / 1.8 - 0.5);
+    expectClose(byName.get('s')!.off, expectedOff, 1e-12, 'abs');
+    expectClose(byName.get('s')!.on, expectedOn, 1e-12, 'abs');
   });
 
   it('takes the worst point of a signal range: widest and narrowest conduction from its two ends', () => {

@@ -35,17 +35,6 @@ describe('rampCrossing', () => {
     expectClose(t, -100e-12, 1e-12);
   });
 
-  it("follows the edge's shape, when it has one, at the fraction of its swing", () => {
-    const levels: number[] = [];
-    const shape = (level: number) => {
-      levels.push(level);
-      return -42e-12;
-    };
-    const t = rampCrossing({ t50: 1e-9, transition: 400e-12, low: 1, high: 3, rising: true, shape }, 1.5);
-    expectClose(t, 1e-9 - 42e-12, 1e-12);
-    expect(levels).toEqual([0.25]);
-  });
-
   it('moves a crossing away from the 50 % point in proportion to the transition time', () => {
     const at = (transition: number) => rampCrossing({ t50: 0, transition, low: 0, high: 1.8, rising: false }, 0.45);
     expect(at(800e-12)).toBeGreaterThan(at(400e-12));
