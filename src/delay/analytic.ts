@@ -33,6 +33,7 @@ import type { DelayModel, GateTiming, Mismatch } from './model.js';
 import {
   CHANNEL,
   DRIVER_INPUTS,
+  KICK,
   OPPOSED,
   driverPosition,
   OPPOSING_POINTS,
@@ -76,6 +77,8 @@ class AnalyticTiming implements GateTiming {
     readonly inputDriver: Int32Array,
     /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
     readonly driverAlpha: readonly [number, number],
+    /** Per flat input and edge (2 k + falling): the pulling device's channel over the input net's capacitance (0 for a clock source). */
+    readonly kick: Float64Array,
   ) {}
 
   /** The engine asks for an edge's delay and then its transition: the grid positions are found once. */
@@ -85,6 +88,7 @@ class AnalyticTiming implements GateTiming {
   private lastDriverTau = NaN;
   private lastPosition = 0;
   private lastShape = 0;
+  private lastKick = 0;
 
   /** Called when the table is rebound: the remembered position belonged to the old taus. */
   forget(): void {
@@ -104,6 +108,7 @@ class AnalyticTiming implements GateTiming {
     this.lastTau = tau;
     this.lastDriverTau = driverTau;
     this.lastPosition = RampResponse.sPosition(inputTransition / tau);
+    this.lastKick = this.kick[key]!;
     this.lastShape =
       driver < 0
         ? 0
@@ -128,11 +133,17 @@ class AnalyticTiming implements GateTiming {
    * `read` of the response at the gate's v_T and channel share, blended between the two driving
    * shapes and the two opposing ratios around the gate's, tau.
    */
-  private blend(gate: number, falling: number, pin: number, read: (r: RampResponse, vt: number, m: number, mo: number) => number): number {
+  private blend(
+    gate: number,
+    falling: number,
+    pin: number,
+    read: (r: RampResponse, vt: number, m: number, mo: number, mk: number) => number,
+  ): number {
     const i = gate * STRIDE;
     const vt = this.table[i + 2 * falling + 1]!;
     const m = this.table[i + 6 + falling]!;
     const mo = this.table[i + 12 + falling]!;
+    const mk = this.lastKick;
     const o = this.table[i + 8 + falling]!;
     const r = o | 0;
     const wo = o - r;
@@ -146,11 +157,11 @@ class AnalyticTiming implements GateTiming {
     const point = (row: RampResponse[]): number => {
       const lo = row[b]!;
       lo.prepare(vt);
-      const a = read(lo, vt, m, mo);
+      const a = read(lo, vt, m, mo, mk);
       if (wd === 0) return a;
       const hi = row[b + 1]!;
       hi.prepare(vt);
-      return a + wd * (read(hi, vt, m, mo) - a);
+      return a + wd * (read(hi, vt, m, mo, mk) - a);
     };
     const one = (set: RampResponse[][]): number => {
       const a = point(set[r]!);
@@ -165,7 +176,15 @@ class AnalyticTiming implements GateTiming {
     const tau = this.tau(gate, falling, pin);
     this.position(gate, falling, pin, tau, inputTransition);
     const s = this.lastPosition;
-    return tau * this.blend(gate, falling, pin, (r, vt, m, mo) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL) + mo * r.at(vt, s, OPPOSED));
+    return (
+      tau *
+      this.blend(
+        gate,
+        falling,
+        pin,
+        (r, vt, m, mo, mk) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL) + mo * r.at(vt, s, OPPOSED) + mk * r.at(vt, s, KICK),
+      )
+    );
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
@@ -174,7 +193,13 @@ class AnalyticTiming implements GateTiming {
     this.position(gate, falling, pin, tau, inputTransition);
     const s = this.lastPosition;
     return (
-      tau * this.blend(gate, falling, pin, (r, vt, m, mo) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1) + mo * r.at(vt, s, OPPOSED + 1))
+      tau *
+      this.blend(
+        gate,
+        falling,
+        pin,
+        (r, vt, m, mo, mk) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1) + mo * r.at(vt, s, OPPOSED + 1) + mk * r.at(vt, s, KICK + 1),
+      )
     );
   }
 
@@ -184,7 +209,7 @@ class AnalyticTiming implements GateTiming {
     this.position(gate, falling, pin, tau, inputTransition);
     const remaining = outputRising ? 1 - level : level;
     const s = inputTransition / tau;
-    return tau * this.blend(gate, falling, pin, (r, vt, m, mo) => r.crossing(vt, s, remaining, m, mo));
+    return tau * this.blend(gate, falling, pin, (r, vt, m, mo, mk) => r.crossing(vt, s, remaining, m, mo, mk));
   }
 }
 
@@ -384,10 +409,23 @@ export const analyticModel: DelayModel = {
     let timing = recycled;
     if (!timing) {
       const drivers = inputDrivers(netlist);
-      timing = new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, drivers), netlist.gateInputStart, drivers, [
-        n.alpha,
-        p.alpha,
-      ]);
+      timing = new AnalyticTiming(
+        table,
+        gateResponses(netlist, p.alpha, n.alpha, drivers),
+        netlist.gateInputStart,
+        drivers,
+        [n.alpha, p.alpha],
+        new Float64Array(2 * drivers.length),
+      );
+    }
+    // The kickback of each pin's pulling device onto its input net (ramp-response.ts, solveEdge).
+    for (let g = 0; g < count; g++) {
+      for (let k = netlist.gateInputStart[g]!; k < netlist.gateInputStart[g + 1]!; k++) {
+        const driven = timing.inputDriver[k]! >= 0;
+        const input = loads[netlist.gateInputs[k]!]!;
+        timing.kick[2 * k] = driven ? widths.channelUp[g]! / input : 0;
+        timing.kick[2 * k + 1] = driven ? widths.channelDown[g]! / input : 0;
+      }
     }
     timing.forget();
     return timing;

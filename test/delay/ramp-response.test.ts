@@ -214,6 +214,62 @@ describe("solveEdge: the opposing device's Miller charge", () => {
   });
 });
 
+describe('solveEdge: the kickback onto a driven input', () => {
+  // A driver in its linear tail restores its output exponentially, u = 1 - exp(-t/T): the input edge
+  // here, its 50 % point at half its full-swing time T ln 9 / 0.8 (the InputEdge convention).
+  const T = 1;
+  const s = (T * Math.log(9)) / 0.8;
+  const start = 0.5 - (T * Math.log(2)) / s;
+  const step = 0.001;
+  const edge = { start, step, u: Float64Array.from({ length: Math.ceil(12 / step) }, (_, i) => 1 - Math.exp(-(i * step * s) / T)) };
+
+  /**
+   * The two nodes solved directly: the pulling device's Meyer C_gd (m_k of the input net's
+   * capacitance) loads the input, C_in du/dt = C_in (1 - u)/T - C_gd (du/dt - dv/dt); the output,
+   * square law, v_T 0.25 both ways, mirror opposing device, dv/dt = -I. Forward Euler; the time
+   * the output reaches `level`.
+   */
+  function direct(m: number, level: number): number {
+    const vT = 0.25;
+    const sat = (x: number) => (x <= vT ? 0 : ((x - vT) / (1 - vT)) ** 2);
+    const dev = (gate: number, vds: number) => {
+      const i = sat(gate);
+      if (i === 0 || vds >= gate - vT) return i;
+      const r = vds / (gate - vT);
+      return i * (2 - r) * r;
+    };
+    const meyer = (r: number) => (r >= 1 ? 0 : (2 / 3) * (1 - 1 / ((2 - r) * (2 - r))));
+    const h = 1e-5;
+    let u = 0;
+    let v = 1;
+    let t = 0;
+    while (v > level) {
+      const current = dev(u, v) - dev(1 - u, 1 - v);
+      const g = u <= vT ? 0 : meyer(v / (u - vT));
+      const du = t < s * start ? 0 : ((1 - u) / T - m * g * current) / (1 + m * g);
+      u += h * du;
+      v -= h * current;
+      t += h;
+    }
+    return t;
+  }
+
+  // It acts in the triode tail: little at the 50 % point, most by the 10 % point (level 17).
+  it("is what the pulling device's C_gd on the input net adds to the 10 % time, to first order", () => {
+    const { kick, kickDelay } = solveEdge(2, 0.25, s, 1, edge);
+    const tail = kickDelay + kick[17]!;
+    expect(tail).toBeGreaterThan(10 * kickDelay);
+    const m = 0.05;
+    expectClose((direct(m, 0.1) - direct(0, 0.1)) / m, tail, 0.05);
+  });
+
+  it('is nothing for a ramp, a clock source that no load slows', () => {
+    const { kick, kickDelay } = solveEdge(2, 0.25, 2);
+    expect(kickDelay).toBe(0);
+    for (const k of kick) expect(k).toBe(0);
+  });
+});
+
 describe('driverPosition', () => {
   const vT = 0.25;
   const pos = RampResponse.vtPosition(vT);
