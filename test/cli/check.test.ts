@@ -321,7 +321,7 @@ describe('phasegap check verdict headline and --junit', () => {
     expect(run.code).toBe(1);
     expect(run.stdout.split('\n').slice(0, 3)).toEqual([
       'verdict: FAIL (fails: corner checks)',
-      '  corner checks: FAIL: 6 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
+      '  corner checks: FAIL: 7 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
       '  not run here: Monte Carlo yield, simulator agreement',
     ]);
     const xml = readFileSync(file, 'utf8');
