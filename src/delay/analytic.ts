@@ -33,6 +33,8 @@ import type { DelayModel, GateTiming, Mismatch } from './model.js';
 import {
   CHANNEL,
   DRIVER_INPUTS,
+  KICK,
+  OPPOSED,
   driverPosition,
   OPPOSING_POINTS,
   opposingPosition,
@@ -59,7 +61,7 @@ export function alphaPowerDelay(load: number, vdd: number, current: number, vth:
  * the position of the opposing device's threshold from the pulling one's (shiftPosition) of the
  * rising and falling edge.
  */
-const STRIDE = 12;
+const STRIDE = 14;
 
 class AnalyticTiming implements GateTiming {
   /**
@@ -75,6 +77,8 @@ class AnalyticTiming implements GateTiming {
     readonly inputDriver: Int32Array,
     /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
     readonly driverAlpha: readonly [number, number],
+    /** Per flat input and edge (2 k + falling): the pulling device's channel over the input net's capacitance (0 for a clock source). */
+    readonly kick: Float64Array,
   ) {}
 
   /** The engine asks for an edge's delay and then its transition: the grid positions are found once. */
@@ -84,6 +88,7 @@ class AnalyticTiming implements GateTiming {
   private lastDriverTau = NaN;
   private lastPosition = 0;
   private lastShape = 0;
+  private lastKick = 0;
 
   /** Called when the table is rebound: the remembered position belonged to the old taus. */
   forget(): void {
@@ -103,6 +108,7 @@ class AnalyticTiming implements GateTiming {
     this.lastTau = tau;
     this.lastDriverTau = driverTau;
     this.lastPosition = RampResponse.sPosition(inputTransition / tau);
+    this.lastKick = this.kick[key]!;
     this.lastShape =
       driver < 0
         ? 0
@@ -112,6 +118,7 @@ class AnalyticTiming implements GateTiming {
             inputTransition / driverTau,
             this.table[driver * STRIDE + 6 + (1 - falling)]!,
             this.table[driver * STRIDE + 8 + (1 - falling)]!,
+            this.table[driver * STRIDE + 12 + (1 - falling)]!,
           );
   }
 
@@ -126,10 +133,17 @@ class AnalyticTiming implements GateTiming {
    * `read` of the response at the gate's v_T and channel share, blended between the two driving
    * shapes and the two opposing ratios around the gate's, tau.
    */
-  private blend(gate: number, falling: number, pin: number, read: (r: RampResponse, vt: number, m: number) => number): number {
+  private blend(
+    gate: number,
+    falling: number,
+    pin: number,
+    read: (r: RampResponse, vt: number, m: number, mo: number, mk: number) => number,
+  ): number {
     const i = gate * STRIDE;
     const vt = this.table[i + 2 * falling + 1]!;
     const m = this.table[i + 6 + falling]!;
+    const mo = this.table[i + 12 + falling]!;
+    const mk = this.lastKick;
     const o = this.table[i + 8 + falling]!;
     const r = o | 0;
     const wo = o - r;
@@ -143,11 +157,11 @@ class AnalyticTiming implements GateTiming {
     const point = (row: RampResponse[]): number => {
       const lo = row[b]!;
       lo.prepare(vt);
-      const a = read(lo, vt, m);
+      const a = read(lo, vt, m, mo, mk);
       if (wd === 0) return a;
       const hi = row[b + 1]!;
       hi.prepare(vt);
-      return a + wd * (read(hi, vt, m) - a);
+      return a + wd * (read(hi, vt, m, mo, mk) - a);
     };
     const one = (set: RampResponse[][]): number => {
       const a = point(set[r]!);
@@ -162,7 +176,15 @@ class AnalyticTiming implements GateTiming {
     const tau = this.tau(gate, falling, pin);
     this.position(gate, falling, pin, tau, inputTransition);
     const s = this.lastPosition;
-    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL));
+    return (
+      tau *
+      this.blend(
+        gate,
+        falling,
+        pin,
+        (r, vt, m, mo, mk) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL) + mo * r.at(vt, s, OPPOSED) + mk * r.at(vt, s, KICK),
+      )
+    );
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
@@ -170,7 +192,15 @@ class AnalyticTiming implements GateTiming {
     const tau = this.tau(gate, falling, pin);
     this.position(gate, falling, pin, tau, inputTransition);
     const s = this.lastPosition;
-    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1));
+    return (
+      tau *
+      this.blend(
+        gate,
+        falling,
+        pin,
+        (r, vt, m, mo, mk) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1) + mo * r.at(vt, s, OPPOSED + 1) + mk * r.at(vt, s, KICK + 1),
+      )
+    );
   }
 
   crossing(gate: number, pin: number, outputRising: boolean, inputTransition: number, level: number): number {
@@ -179,7 +209,7 @@ class AnalyticTiming implements GateTiming {
     this.position(gate, falling, pin, tau, inputTransition);
     const remaining = outputRising ? 1 - level : level;
     const s = inputTransition / tau;
-    return tau * this.blend(gate, falling, pin, (r, vt, m) => r.crossing(vt, s, remaining, m));
+    return tau * this.blend(gate, falling, pin, (r, vt, m, mo, mk) => r.crossing(vt, s, remaining, m, mo, mk));
   }
 }
 
@@ -244,6 +274,12 @@ interface PullWidths {
   /** Channel capacitance C_ox W L of the switching device of the pull-up and pull-down, F. */
   channelUp: Float64Array;
   channelDown: Float64Array;
+  /**
+   * Of the card's pin capacitance on each gate's output net, the part its fanout does not present
+   * until the net is past half its swing, behind a rising and a falling output, F (see TURNING_ON).
+   */
+  pinLagUp: Float64Array;
+  pinLagDown: Float64Array;
 }
 
 /**
@@ -259,6 +295,21 @@ const CHANNEL_SHARE = 0.8;
  * Review 32, 1971): half the channel capacitance, per device width.
  */
 const NODE_GATE = 0.5 * CHANNEL_SHARE;
+
+/**
+ * A fanout pin's charge up to the driving edge's 50 % point, which sets the delay, with the fanout's
+ * own output not yet moved (its edge starts only once its input is past threshold): in Meyer's
+ * model (J. E. Meyer, RCA Review 32, 1971) the device turning off is in its linear region at
+ * V_DS = 0, C_gs + C_gd = C_ox W L, both to still nodes, so it presents the card's gate
+ * capacitance; the device turning on, with the full supply across it, is saturated, C_gs =
+ * (2/3) C_ox W L and C_gd = 0 (below threshold only its smaller depletion charge). The card's
+ * gate capacitance is a full swing's charge with the fanout switching, so per pin the turning-on
+ * device's channel counts a third less over the first half: W C_ox L / 3. Measured in ngspice on
+ * test/reference's level-1 devices (s = 6 inverter, output held, 500 ps input edge): 15.2 fF
+ * (input falling) and 17.2 fF (rising) to the 50 % point against 19.3 fF on the card; this rule
+ * gives 15.8 fF and 17.5 fF.
+ */
+const TURNING_ON = CHANNEL_SHARE / 3;
 
 const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>>();
 
@@ -280,6 +331,8 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
     nodeDown: new Float64Array(n),
     channelUp: new Float64Array(n),
     channelDown: new Float64Array(n),
+    pinLagUp: new Float64Array(n),
+    pinLagDown: new Float64Array(n),
   };
   for (let g = 0; g < n; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
@@ -290,6 +343,14 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
     entry.channelDown[g] = CHANNEL_SHARE * widths.wn * card.n.cgate;
     if (shape.pSeries > 1) entry.nodeUp[g] = widths.wp * (NODE_GATE * card.p.cgate + (junctions ? card.p.cdrain : 0));
     if (shape.nSeries > 1) entry.nodeDown[g] = widths.wn * (NODE_GATE * card.n.cgate + (junctions ? card.n.cdrain : 0));
+    // A rising output turns its fanout's n devices on, a falling one their p devices.
+    const net = netlist.gateOutput[g]!;
+    for (let k = netlist.fanoutStart[net]!; k < netlist.fanoutStart[net + 1]!; k++) {
+      const f = netlist.fanoutGate[k]!;
+      const fan = cellWidths(netlist.gateCell[f]!, netlist.gateSize[f]!, unit);
+      entry.pinLagUp[g]! += TURNING_ON * fan.wn * card.n.cgate;
+      entry.pinLagDown[g]! += TURNING_ON * fan.wp * card.p.cgate;
+    }
   }
   byCard.set(card, entry);
   return entry;
@@ -298,9 +359,9 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 export const analyticModel: DelayModel = {
   name: 'analytic',
   // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 3.4 ps pessimistic to 18.2 ps optimistic on a NAND generator and 3.0 to 26.6 ps
-  // optimistic on the NOR ones (dead times 0.3-1.1 ns, -0.3..+4.6 % off): 3 % of the dead time
-  // leaves it at most 6.5 ps optimistic there.
+  // at 10 % is 6.7 ps pessimistic to 10.2 ps optimistic on a NAND generator and 10.8 ps
+  // pessimistic to 9.8 ps optimistic on the NOR ones (dead times 0.3-1.1 ns, -1.5..+1.4 % off): 3 %
+  // of the dead time leaves it at least 6.5 ps pessimistic there.
   gapBand: 0.03,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
@@ -318,6 +379,8 @@ export const analyticModel: DelayModel = {
     const vdd = devices.vdd;
     for (let g = 0; g < count; g++) {
       const load = loads[netlist.gateOutput[g]!]!;
+      const loadUp = load - widths.pinLagUp[g]!;
+      const loadDown = load - widths.pinLagDown[g]!;
       const vthP = mismatch ? p.vth + mismatch.dvthP[g]! : p.vth;
       const vthN = mismatch ? n.vth + mismatch.dvthN[g]! : n.vth;
       // Without mismatch every gate shares the corner's current per width; a shift dVth scales it
@@ -327,26 +390,42 @@ export const analyticModel: DelayModel = {
       if (!(upCurrent > 0 && downCurrent > 0))
         throw cannotTurnOn(upCurrent > 0 ? n : p, upCurrent > 0 ? vthN : vthP, vdd, devices.corner.name);
       const i = g * STRIDE;
-      table[i] = (load * vdd) / upCurrent;
+      table[i] = (loadUp * vdd) / upCurrent;
       table[i + 1] = RampResponse.vtPosition(vthP / vdd);
-      table[i + 2] = (load * vdd) / downCurrent;
+      table[i + 2] = (loadDown * vdd) / downCurrent;
       table[i + 3] = RampResponse.vtPosition(vthN / vdd);
       table[i + 4] = (widths.nodeUp[g]! * vdd) / upCurrent;
       table[i + 5] = (widths.nodeDown[g]! * vdd) / downCurrent;
-      table[i + 6] = widths.channelUp[g]! / load;
-      table[i + 7] = widths.channelDown[g]! / load;
+      table[i + 6] = widths.channelUp[g]! / loadUp;
+      table[i + 7] = widths.channelDown[g]! / loadDown;
       table[i + 8] = opposingPosition(downCurrent / upCurrent);
       table[i + 9] = opposingPosition(upCurrent / downCurrent);
       table[i + 10] = shiftPosition((vthN - vthP) / vdd);
       table[i + 11] = shiftPosition((vthP - vthN) / vdd);
+      // The opposing network's switching device: the n one behind a rising output, the p one behind a falling one.
+      table[i + 12] = widths.channelDown[g]! / loadUp;
+      table[i + 13] = widths.channelUp[g]! / loadDown;
     }
     let timing = recycled;
     if (!timing) {
       const drivers = inputDrivers(netlist);
-      timing = new AnalyticTiming(table, gateResponses(netlist, p.alpha, n.alpha, drivers), netlist.gateInputStart, drivers, [
-        n.alpha,
-        p.alpha,
-      ]);
+      timing = new AnalyticTiming(
+        table,
+        gateResponses(netlist, p.alpha, n.alpha, drivers),
+        netlist.gateInputStart,
+        drivers,
+        [n.alpha, p.alpha],
+        new Float64Array(2 * drivers.length),
+      );
+    }
+    // The kickback of each pin's pulling device onto its input net (ramp-response.ts, solveEdge).
+    for (let g = 0; g < count; g++) {
+      for (let k = netlist.gateInputStart[g]!; k < netlist.gateInputStart[g + 1]!; k++) {
+        const driven = timing.inputDriver[k]! >= 0;
+        const input = loads[netlist.gateInputs[k]!]!;
+        timing.kick[2 * k] = driven ? widths.channelUp[g]! / input : 0;
+        timing.kick[2 * k + 1] = driven ? widths.channelDown[g]! / input : 0;
+      }
     }
     timing.forget();
     return timing;

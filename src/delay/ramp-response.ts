@@ -34,13 +34,18 @@ const Q_STEP = 0.25;
 const S_POINTS = 33;
 /**
  * Per grid point: delay, full-swing transition, the time of each level from the 50 % point; then
- * the same three per unit of channel share (see solveEdge).
+ * the same three per unit of channel share, per unit of the opposing device's channel share and
+ * per unit of kickback share (see solveEdge).
  */
 const FIELDS = 2 + LEVELS;
-const STRIDE = 2 * FIELDS;
+const STRIDE = 4 * FIELDS;
 const FIRST_LEVEL = 2;
 /** Offset of a field's channel-share term. */
 export const CHANNEL = FIELDS;
+/** Offset of a field's opposing-channel term. */
+export const OPPOSED = 2 * FIELDS;
+/** Offset of a field's kickback term. */
+export const KICK = 3 * FIELDS;
 
 /** Input transition on the grid, in tau. */
 export function gridTransition(k: number): number {
@@ -101,6 +106,22 @@ export function meyerDrain(r: number): number {
  * m g C_L dV_in/dt back, m = C_ox W L / C_L. To first order in m each crossing comes later by m
  * times the integral of g (1 + u'/I) over the edge so far (u' the input's slope, I the current),
  * returned per level (`channel`) and for the delay (`channelDelay`), so one solution serves any m.
+ *
+ * The opposing device, turning off, starts in its linear region with its drain on the still
+ * output: Meyer's C_gd, up to half its channel, couples the moving input to the output (a Miller
+ * capacitance) until it saturates or turns off. With m_o its channel over C_L, the output obeys
+ * dV/dt = -I + m_o g_o (u' + I) to first order in m_o; the perturbation w of V per unit m_o follows
+ * dw/dt = -(dI/dV) w + g_o (u' + I), so the opposing device also drains what the input kicks onto
+ * the output while it is still on, and each crossing comes later by m_o w / I (`opposed`,
+ * `opposedDelay`).
+ *
+ * A driven input is another gate's output, not a source: once the pulling device is in its
+ * triode region its C_gd draws g (u' + I) C_L on the input net too (the kickback), which that
+ * net's driver makes up at the rate it restores its own output, k = u'/(1 - u) (exact in the
+ * driver's linear tail). Per unit m_k, the pulling device's channel over the input net's
+ * capacitance, the input lags by y, dy/dt = -k y - g (u' + I), and the output by z, dz/dt =
+ * -(dI/dV) z - (dI/du) y; each crossing comes later by m_k z / I (`kick`, `kickDelay`). A ramp
+ * (a clock source) has none.
  */
 export function solveEdge(
   alpha: number,
@@ -111,8 +132,18 @@ export function solveEdge(
   opposing = 1,
   record?: (t: number, v: number) => void,
   opposingShift = 0,
-): { delay: number; crossings: Float64Array; channel: Float64Array; channelDelay: number } {
+): {
+  delay: number;
+  crossings: Float64Array;
+  channel: Float64Array;
+  channelDelay: number;
+  opposed: Float64Array;
+  opposedDelay: number;
+  kick: Float64Array;
+  kickDelay: number;
+} {
   const d0 = (alpha - 1) * (1 - vT);
+  const d0o = (alpha - 1) * (1 - Math.min(Math.max(vT + opposingShift, 0), 0.99));
   const vTo = Math.min(Math.max(vT + opposingShift, 0), 0.99);
   const pull = (gate: number, v: number, series: number, th = vT): number => {
     if (gate <= th) return 0;
@@ -127,25 +158,87 @@ export function solveEdge(
   // two networks' full-drive currents, with its own v_T (`opposingShift` above the pulling one's):
   // it holds the output while a slow input is still near its start.
   const vinAt = (t: number): number => (s > 0 ? inputAt(input, t / s) : 1);
-  const current = (t: number, v: number): number => {
-    const vin = vinAt(t);
-    return pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1, vTo);
+  const currentOf = (vin: number, v: number): number => pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1, vTo);
+  // Derivatives of pull() in its drain voltage (slopeV) and its gate (slopeG), set by pullSlopes:
+  // I = sat (2 - r) r below V_Dsat = d sqrt(sat), so dI/dV = sat (2 - 2 r) / V_Dsat and, at fixed
+  // V, dI/dsat = r (1 in saturation); sat = stackFactor(x^alpha), x = (gate - th) / (1 - th).
+  let slopeV = 0;
+  let slopeG = 0;
+  const pullSlopes = (gate: number, v: number, series: number, th: number): void => {
+    slopeV = 0;
+    slopeG = 0;
+    if (gate <= th) return;
+    const x = (gate - th) / (1 - th);
+    const p = alpha === 2 ? x * x : x ** alpha;
+    const sat = stackFactor(p, series);
+    const dSat = (series === 1 ? 1 : (sat * sat) / (series * p * p)) * ((alpha * p) / x / (1 - th));
+    const vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
+    if (v >= vdsat) {
+      slopeG = dSat;
+      return;
+    }
+    slopeV = (sat * (2 - (2 * v) / vdsat)) / vdsat;
+    slopeG = (v / vdsat) * dSat;
   };
+  /** dI/dV of the output node (what drains a perturbation of it) and dI/du (how it follows the input). */
+  let conductance = 0;
+  let gain = 0;
+  const slopes = (vin: number, v: number): void => {
+    pullSlopes(vin, v, depth, vT);
+    conductance = slopeV;
+    gain = slopeG;
+    pullSlopes(1 - vin, 1 - v, 1, vTo);
+    conductance += opposing * slopeV;
+    gain += opposing * slopeG;
+  };
+  const current = (t: number, v: number): number => currentOf(vinAt(t), v);
   /** The pulling device's drain share at output v and input vin (0 while saturated or off). */
   const share = (vin: number, v: number): number => {
     if (vin <= vT) return 0;
     const vdsat = d0 * ((vin - vT) / (1 - vT));
     return v >= vdsat ? 0 : meyerDrain(v / vdsat);
   };
+  /** Perturbation of the output per unit of the opposing device's channel share (see above). */
+  let w = 0;
+  /** The opposing device's drain share at output v and input vin (0 while saturated or off). */
+  const opposedShare = (vin: number, v: number): number => {
+    const gate = 1 - vin;
+    if (gate <= vTo) return 0;
+    const vdsat = d0o * ((gate - vTo) / (1 - vTo));
+    return 1 - v >= vdsat ? 0 : meyerDrain((1 - v) / vdsat);
+  };
   const crossings = new Float64Array(LEVELS);
   const channel = new Float64Array(LEVELS);
+  const opposed = new Float64Array(LEVELS);
+  const kick = new Float64Array(LEVELS);
+  let y = 0;
+  let z = 0;
+  let z50 = NaN;
+  let restore = 0;
   let g = 0;
   let g50 = NaN;
+  let w50 = NaN;
   // RK4 is stable for h * |dI/dV| < 2.78; below V_Dsat |dI/dV| <= 2 / d0, and below d0 = 0.03 the
   // edge is past its last recorded level.
   const h = Math.min(0.004 * (1 + s), 0.8 * Math.max(d0, 0.03));
   // The output cannot move before the input passes the threshold.
   let t = s > 0 ? s * inputStart(input, vT) : 0;
+  // But the opposing device's C_gd already carries the input's rise onto the still output, which
+  // that device, fully on, drains again: w over the input's start, the output at 1.
+  if (s > 0) {
+    const from = s * Math.min(0, input ? input.start : 0);
+    const steps = 64;
+    const dt = (t - from) / steps;
+    for (let k = 0; k < steps && dt > 0; k++) {
+      const tm = from + (k + 0.5) * dt;
+      const slope = (vinAt(tm + dt / 2) - vinAt(tm - dt / 2)) / dt;
+      slopes(vinAt(tm), 1);
+      const decay = conductance;
+      const drive = opposedShare(vinAt(tm), 1) * (slope + current(tm, 1));
+      const e = Math.exp(-decay * dt);
+      w = w * e + drive * (decay * dt > 1e-9 ? (1 - e) / decay : dt);
+    }
+  }
   const end = t + s + 1000;
   let v = 1;
   let next = 0;
@@ -160,18 +253,43 @@ export function solveEdge(
     const slope = s > 0 ? (vinAt(t + h) - vinAt(t)) / h : 0;
     const i = (k2 + k3) / 2;
     const ng = g + (i > 1e-9 ? h * share(vin, (v + nv) / 2) * (1 + slope / i) : 0);
+    // The opposing term over the step, exactly for a constant decay rate dI/dV (always stable).
+    const vm = (v + nv) / 2;
+    slopes(vin, vm);
+    const decay = conductance;
+    const drive = opposedShare(vin, vm) * (slope + i);
+    const e = Math.exp(-decay * h);
+    const held = decay * h > 1e-9 ? (1 - e) / decay : h;
+    const nw = w * e + drive * held;
+    let nz = z;
+    if (input) {
+      if (slope > 0 && 1 - vin > 1e-6) restore = slope / (1 - vin);
+      const pushed = -share(vin, vm) * (slope + i);
+      if (pushed !== 0 || y !== 0) {
+        const ey = Math.exp(-restore * h);
+        const ny = y * ey + pushed * (restore * h > 1e-9 ? (1 - ey) / restore : h);
+        nz = z * e - gain * ((y + ny) / 2) * held;
+        y = ny;
+      } else nz = z * e;
+    }
     while (next < LEVELS && nv <= 1 - (next + 1) * LEVEL_STEP) {
       const level = 1 - (next + 1) * LEVEL_STEP;
-      const w = (v - level) / (v - nv);
-      crossings[next] = t + h * w;
-      channel[next++] = g + w * (ng - g);
+      const f = (v - level) / (v - nv);
+      crossings[next] = t + h * f;
+      channel[next] = g + f * (ng - g);
+      opposed[next] = (w + f * (nw - w)) / Math.max(i, 1e-9);
+      kick[next++] = (z + f * (nz - z)) / Math.max(i, 1e-9);
     }
     if (Number.isNaN(t50) && nv <= 0.5) {
-      const w = (v - 0.5) / (v - nv);
-      t50 = t + h * w;
-      g50 = g + w * (ng - g);
+      const f = (v - 0.5) / (v - nv);
+      t50 = t + h * f;
+      g50 = g + f * (ng - g);
+      w50 = (w + f * (nw - w)) / Math.max(i, 1e-9);
+      z50 = (z + f * (nz - z)) / Math.max(i, 1e-9);
     }
     g = ng;
+    w = nw;
+    z = nz;
     record?.(t, v);
     v = nv;
     t += h;
@@ -180,16 +298,22 @@ export function solveEdge(
   if (Number.isNaN(t50)) {
     t50 = t;
     g50 = g;
+    w50 = 0;
+    z50 = 0;
   }
   for (; next < LEVELS; next++) {
     crossings[next] = t;
     channel[next] = g;
+    opposed[next] = w50;
+    kick[next] = z50;
   }
   for (let i = 0; i < LEVELS; i++) {
     crossings[i]! -= t50;
     channel[i]! -= g50;
+    opposed[i]! -= w50;
+    kick[i]! -= z50;
   }
-  return { delay: t50 - s / 2, crossings, channel, channelDelay: g50 };
+  return { delay: t50 - s / 2, crossings, channel, channelDelay: g50, opposed, opposedDelay: w50, kick, kickDelay: z50 };
 }
 
 /** Where the input first passes v_T, in transitions. */
@@ -260,28 +384,29 @@ export function opposingPosition(ratio: number): number {
 
 /**
  * Full-swing output transitions, in tau, of a driver by alpha and opposing grid point: per v_T
- * row, one per DRIVER_INPUTS and then their channel-share terms.
+ * row, one per DRIVER_INPUTS, then their channel-share terms, then their opposing-channel terms.
  */
 const driverTransitions = new Map<string, Float64Array>();
 
-/** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel terms. */
+/** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel and opposing-channel terms. */
 function driverRow(alpha: number, o: number, row: number): Float64Array {
   const n = DRIVER_INPUTS.length;
   const key = `${alpha}/${o}`;
   let rows = driverTransitions.get(key);
   if (!rows) {
-    rows = new Float64Array(2 * VT_POINTS * n).fill(NaN);
+    rows = new Float64Array(3 * VT_POINTS * n).fill(NaN);
     driverTransitions.set(key, rows);
   }
-  if (Number.isNaN(rows[2 * row * n]!)) {
+  if (Number.isNaN(rows[3 * row * n]!)) {
     for (let j = 0; j < n; j++) {
       const sd = DRIVER_INPUTS[j]!;
-      const { crossings, channel } = solveEdge(alpha, row * VT_STEP, sd, 1, driverInput(alpha, row * VT_STEP, sd), 2 ** (o - 2));
-      rows[2 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
-      rows[(2 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
+      const { crossings, channel, opposed } = solveEdge(alpha, row * VT_STEP, sd, 1, driverInput(alpha, row * VT_STEP, sd), 2 ** (o - 2));
+      rows[3 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
+      rows[(3 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
+      rows[(3 * row + 2) * n + j] = (opposed[17]! - opposed[1]!) / 0.8;
     }
   }
-  return rows.subarray(2 * row * n, 2 * (row + 1) * n);
+  return rows.subarray(3 * row * n, 3 * (row + 1) * n);
 }
 
 /**
@@ -291,7 +416,7 @@ function driverRow(alpha: number, o: number, row: number): Float64Array {
  * channel share `share` and opposing position `opposing` (opposingPosition), as the driver's own
  * edge was computed.
  */
-export function driverPosition(alpha: number, vtPos: number, ratio: number, share = 0, opposing = 2): number {
+export function driverPosition(alpha: number, vtPos: number, ratio: number, share = 0, opposing = 2, opposedShare = 0): number {
   const n = DRIVER_INPUTS.length;
   const a = vtPos | 0;
   const wa = vtPos - a;
@@ -299,7 +424,7 @@ export function driverPosition(alpha: number, vtPos: number, ratio: number, shar
   const wo = opposing - o;
   const corners = [driverRow(alpha, o, a), driverRow(alpha, o, a + 1)];
   const far = wo === 0 ? corners : [driverRow(alpha, o + 1, a), driverRow(alpha, o + 1, a + 1)];
-  const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]!;
+  const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]! + opposedShare * r[2 * n + j]!;
   const at = (j: number): number => {
     const near = value(corners[0]!, j) + wa * (value(corners[1]!, j) - value(corners[0]!, j));
     const other = value(far[0]!, j) + wa * (value(far[1]!, j) - value(far[0]!, j));
@@ -380,7 +505,7 @@ export class RampResponse {
     const ratio = 2 ** (this.opposing - 2);
     const grid = this.grid;
     for (let k = 0; k < S_POINTS; k++) {
-      const { delay, crossings, channel, channelDelay } = solveEdge(
+      const { delay, crossings, channel, channelDelay, opposed, opposedDelay, kick, kickDelay } = solveEdge(
         this.alpha,
         a * VT_STEP,
         gridTransition(k),
@@ -397,6 +522,12 @@ export class RampResponse {
       grid[i + CHANNEL] = channelDelay;
       grid[i + CHANNEL + 1] = (channel[17]! - channel[1]!) / 0.8;
       grid.set(channel, i + CHANNEL + FIRST_LEVEL);
+      grid[i + OPPOSED] = opposedDelay;
+      grid[i + OPPOSED + 1] = (opposed[17]! - opposed[1]!) / 0.8;
+      grid.set(opposed, i + OPPOSED + FIRST_LEVEL);
+      grid[i + KICK] = kickDelay;
+      grid[i + KICK + 1] = (kick[17]! - kick[1]!) / 0.8;
+      grid.set(kick, i + KICK + FIRST_LEVEL);
     }
     this.solved[a] = 1;
   }
@@ -434,17 +565,17 @@ export class RampResponse {
   }
 
   /** Delay from input 50 % to output 50 %, tau. */
-  delay(vtPos: number, s: number, share = 0): number {
+  delay(vtPos: number, s: number, share = 0, opposedShare = 0): number {
     this.prepare(vtPos);
     const sPos = RampResponse.sPosition(s);
-    return this.at(vtPos, sPos, 0) + share * this.at(vtPos, sPos, CHANNEL);
+    return this.at(vtPos, sPos, 0) + share * this.at(vtPos, sPos, CHANNEL) + opposedShare * this.at(vtPos, sPos, OPPOSED);
   }
 
   /** Full-swing transition time extrapolated from the 10-90 % time, tau. */
-  transition(vtPos: number, s: number, share = 0): number {
+  transition(vtPos: number, s: number, share = 0, opposedShare = 0): number {
     this.prepare(vtPos);
     const sPos = RampResponse.sPosition(s);
-    return this.at(vtPos, sPos, 1) + share * this.at(vtPos, sPos, CHANNEL + 1);
+    return this.at(vtPos, sPos, 1) + share * this.at(vtPos, sPos, CHANNEL + 1) + opposedShare * this.at(vtPos, sPos, OPPOSED + 1);
   }
 
   /**
@@ -452,13 +583,17 @@ export class RampResponse {
    * still to go (0.1 = 90 % of the way), tau; negative before the 50 % point. Linear between the
    * recorded 5 % levels, clamped to 0.05 ... 0.95.
    */
-  crossing(vtPos: number, s: number, remaining: number, share = 0): number {
+  crossing(vtPos: number, s: number, remaining: number, share = 0, opposedShare = 0, kickShare = 0): number {
     this.prepare(vtPos);
     const sPos = RampResponse.sPosition(s);
     const p = Math.min(Math.max((1 - remaining) / LEVEL_STEP - 1, 0), LEVELS - 1);
     const i = Math.min(p | 0, LEVELS - 2);
     const w = p - i;
-    const level = (field: number): number => this.at(vtPos, sPos, field) + share * this.at(vtPos, sPos, CHANNEL + field);
+    const level = (field: number): number =>
+      this.at(vtPos, sPos, field) +
+      share * this.at(vtPos, sPos, CHANNEL + field) +
+      opposedShare * this.at(vtPos, sPos, OPPOSED + field) +
+      kickShare * this.at(vtPos, sPos, KICK + field);
     const lo = level(FIRST_LEVEL + i);
     return lo + w * (level(FIRST_LEVEL + 1 + i) - lo);
   }

@@ -130,32 +130,49 @@ describe('analyticModel.bind: logical-effort units', () => {
     expectClose(netLoads(net, card)[net.netIndex.get('y')!]!, cin, 1e-12);
   });
 
-  // Logical Effort (1999): an inverter driving four copies of itself, d = g h + p = 1 * 4 + 1 = 5 tau.
-  it('makes the FO4 inverter delay 5 tau for a step input, on both edges (Logical Effort, 1999)', () => {
+  // Logical Effort (1999): an inverter driving four copies of itself, d = g h + p = 1 * 4 + 1 = 5 tau,
+  // with every pin at its full capacitance. Up to the 50 % point a fanout pin holds back a third of
+  // the channel (0.8 of the gate capacitance) of its device turning on, which Meyer's model saturates
+  // (2/3 C_ox W L): the n one (1/3 of the pin) behind a rising edge, the p one (2/3) behind a falling
+  // one. By hand: h = 4 (1 - 0.8/9) = 3.6444 rising, 4 (1 - 1.6/9) = 3.2889 falling.
+  it('makes the FO4 inverter delay g h + p tau for a step input, h the pins as charged to the 50 % point (Logical Effort, 1999; Meyer, 1971)', () => {
     const d = stepDelays('INV', 4);
-    expectClose(d.rise / tauUp, 5, 1e-9);
-    expectClose(d.fall / tauDown, 5, 1e-9);
+    expectClose(d.rise / tauUp, 4.644444, 1e-6);
+    expectClose(d.fall / tauDown, 4.288889, 1e-6);
   });
 
-  // Derived from d = g h + p with g = 4/3, p = 2 (NAND2) and g = 5/3, p = 2 (NOR2) at gamma = 2:
-  // NAND2 at fanout 4 of NAND2s: 16/3 + 2 = 7.333 tau; NOR2: 20/3 + 2 = 8.667 tau.
-  it('gives NAND2 7.333 tau and NOR2 8.667 tau at fanout 4 of their own kind (derived)', () => {
+  // Derived from d = g h + p with g = 4/3, p = 2 (NAND2) and g = 5/3, p = 2 (NOR2) at gamma = 2, the
+  // pins as above: a NAND2 pin is half n, half p, so h = 4 (1 - 0.8/6) both ways, d = 16/3 * 13/15 + 2
+  // = 6.6222 tau; a NOR2 pin is 1/5 n, 4/5 p: rising 20/3 (1 - 0.8/15) + 2 = 8.3111 tau, falling
+  // 20/3 (1 - 3.2/15) + 2 = 7.2444 tau.
+  it('gives NAND2 and NOR2 at fanout 4 of their own kind g h + p with h as charged to the 50 % point (derived)', () => {
     const nand = stepDelays('NAND2', 4);
-    expectClose(nand.rise / tauUp, 22 / 3, 1e-9);
-    expectClose(nand.fall / tauDown, 22 / 3, 1e-9);
+    expectClose(nand.rise / tauUp, 6.622222, 1e-6);
+    expectClose(nand.fall / tauDown, 6.622222, 1e-6);
     const nor = stepDelays('NOR2', 4);
-    expectClose(nor.rise / tauUp, 26 / 3, 1e-9);
-    expectClose(nor.fall / tauDown, 26 / 3, 1e-9);
+    expectClose(nor.rise / tauUp, 8.311111, 1e-6);
+    expectClose(nor.fall / tauDown, 7.244444, 1e-6);
   });
 
   // Sakurai & Newton 1990: for a fast input (here a tenth of C_L V_DD / I_D0) the delay is their
-  // closed form; the opposing device, which the closed form leaves out, adds under 1 %.
-  it('adds the Sakurai-Newton slope term of the pulling device for a fast ramp input', () => {
+  // closed form plus what it leaves out of the opposing device: its current (under 1 %, see
+  // test/delay/ramp-response.test.ts) and Meyer's C_gd of its linear region coupling the input onto
+  // the output, at most half its channel (0.8 of its gate capacitance) across the whole swing, moved
+  // by the pulling device at full current.
+  it('adds the Sakurai-Newton slope term of the pulling device for a fast ramp input, and the opposing device its Miller charge', () => {
     const net = fanoutNetlist('INV', 4);
     const timing = analyticModel.bind(net, netLoads(net, card), devices);
     const tT = 0.2 * 5 * tauDown;
-    expectClose(timing.delay(0, 0, true, tT), 5 * tauUp + rampCoefficient(card.p.vth0, 1.8, card.p.alpha) * tT, 0.01);
-    expectClose(timing.delay(0, 0, false, tT), 5 * tauDown + rampCoefficient(card.n.vth0, 1.8, card.n.alpha) * tT, 0.01);
+    const rise = 4.644444 * tauUp + rampCoefficient(card.p.vth0, 1.8, card.p.alpha) * tT;
+    const fall = 4.288889 * tauDown + rampCoefficient(card.n.vth0, 1.8, card.n.alpha) * tT;
+    const millerRise = (0.5 * 0.8 * card.unit.wn * card.n.cgate * 1.8) / currentUp;
+    const millerFall = (0.5 * 0.8 * card.unit.wp * card.p.cgate * 1.8) / currentDown;
+    expect(timing.delay(0, 0, true, tT)).toBeGreaterThan(0.99 * rise);
+    expect(timing.delay(0, 0, true, tT)).toBeLessThan(1.01 * rise + millerRise);
+    expect(timing.delay(0, 0, false, tT)).toBeGreaterThan(0.99 * fall);
+    expect(timing.delay(0, 0, false, tT)).toBeLessThan(1.01 * fall + millerFall);
+    // The Miller charge is real: beyond the 1 % of the opposing current.
+    expect(timing.delay(0, 0, false, tT)).toBeGreaterThan(1.02 * fall);
   });
 
   // The step-input transition with the triode tail (derived from the Sakurai-Newton 1991 triode
@@ -177,8 +194,10 @@ describe('analyticModel.bind: logical-effort units', () => {
       const r = x + ((i + 0.5) * (1 - x)) / steps;
       channel += (((2 / 3) * (1 - 1 / ((2 - r) * (2 - r))) * d0) / ((2 - r) * r)) * ((1 - x) / steps);
     }
-    const m = (0.8 * card.unit.wp * card.p.cgate) / loads[net.gateOutput[0]!]!;
-    expectClose(timing.transition(0, 0, true, 0), ((tenNinety + m * channel) / 0.8) * 2 * 5 * tauUp, 1e-3);
+    // The load up to the 50 % point, as in the FO4 case above: 4.6444 tau's worth.
+    const load = loads[net.gateOutput[0]!]! - ((4 * 0.8) / 3) * card.unit.wn * card.n.cgate;
+    const m = (0.8 * card.unit.wp * card.p.cgate) / load;
+    expectClose(timing.transition(0, 0, true, 0), ((tenNinety + m * channel) / 0.8) * 2 * 4.644444 * tauUp, 1e-3);
   });
 
   it('lengthens the output transition as the input transition grows, and moves the 10 % point with it', () => {

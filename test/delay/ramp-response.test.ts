@@ -166,6 +166,110 @@ describe('solveEdge against an opposing network', () => {
   });
 });
 
+describe("solveEdge: the opposing device's Miller charge", () => {
+  /**
+   * The same output node solved directly, with the opposing device's Meyer C_gd on it as a real
+   * capacitance: (1 + m g_o) dv/dt = -I + m g_o du/dt, square law, v_T 0.25 both ways, mirror
+   * opposing device, ramp input of s tau; g_o = (2/3)(1 - 1/(2 - r)^2) below V_Dsat (Meyer, 1971).
+   * Forward Euler at a fine step; returns the 50 % time.
+   */
+  function direct(s: number, m: number): number {
+    const vT = 0.25;
+    const sat = (x: number) => (x <= vT ? 0 : ((x - vT) / (1 - vT)) ** 2);
+    const dev = (gate: number, vds: number) => {
+      const i = sat(gate);
+      const vdsat = gate - vT;
+      if (vds >= vdsat) return i;
+      const r = vds / vdsat;
+      return i * (2 - r) * r;
+    };
+    const meyer = (r: number) => (r >= 1 ? 0 : (2 / 3) * (1 - 1 / ((2 - r) * (2 - r))));
+    const h = 1e-5;
+    let v = 1;
+    let t = 0;
+    while (v > 0.5) {
+      const u = Math.min(t / s, 1);
+      const du = t < s ? 1 / s : 0;
+      const gate = 1 - u;
+      const g = gate <= vT ? 0 : meyer((1 - v) / (gate - vT));
+      const current = dev(u, v) - dev(gate, 1 - v);
+      v += (h * (-current + m * g * du)) / (1 + m * g);
+      t += h;
+    }
+    return t;
+  }
+
+  it('is what a real C_gd of the opposing device adds to the 50 % time, to first order', () => {
+    for (const s of [0.5, 2, 6]) {
+      const { opposedDelay } = solveEdge(2, 0.25, s);
+      const m = 0.02;
+      expectClose((direct(s, m) - direct(s, 0)) / m, opposedDelay, 0.05);
+    }
+  });
+
+  it('is nothing for a step input, which leaves the opposing device off from the start', () => {
+    const { opposed, opposedDelay } = solveEdge(2, 0.25, 0);
+    expect(opposedDelay).toBe(0);
+    for (const o of opposed) expect(o).toBe(0);
+  });
+});
+
+describe('solveEdge: the kickback onto a driven input', () => {
+  // A driver in its linear tail restores its output exponentially, u = 1 - exp(-t/T): the input edge
+  // here, its 50 % point at half its full-swing time T ln 9 / 0.8 (the InputEdge convention).
+  const T = 1;
+  const s = (T * Math.log(9)) / 0.8;
+  const start = 0.5 - (T * Math.log(2)) / s;
+  const step = 0.001;
+  const edge = { start, step, u: Float64Array.from({ length: Math.ceil(12 / step) }, (_, i) => 1 - Math.exp(-(i * step * s) / T)) };
+
+  /**
+   * The two nodes solved directly: the pulling device's Meyer C_gd (m_k of the input net's
+   * capacitance) loads the input, C_in du/dt = C_in (1 - u)/T - C_gd (du/dt - dv/dt); the output,
+   * square law, v_T 0.25 both ways, mirror opposing device, dv/dt = -I. Forward Euler; the time
+   * the output reaches `level`.
+   */
+  function direct(m: number, level: number): number {
+    const vT = 0.25;
+    const sat = (x: number) => (x <= vT ? 0 : ((x - vT) / (1 - vT)) ** 2);
+    const dev = (gate: number, vds: number) => {
+      const i = sat(gate);
+      if (i === 0 || vds >= gate - vT) return i;
+      const r = vds / (gate - vT);
+      return i * (2 - r) * r;
+    };
+    const meyer = (r: number) => (r >= 1 ? 0 : (2 / 3) * (1 - 1 / ((2 - r) * (2 - r))));
+    const h = 1e-5;
+    let u = 0;
+    let v = 1;
+    let t = 0;
+    while (v > level) {
+      const current = dev(u, v) - dev(1 - u, 1 - v);
+      const g = u <= vT ? 0 : meyer(v / (u - vT));
+      const du = t < s * start ? 0 : ((1 - u) / T - m * g * current) / (1 + m * g);
+      u += h * du;
+      v -= h * current;
+      t += h;
+    }
+    return t;
+  }
+
+  // It acts in the triode tail: little at the 50 % point, most by the 10 % point (level 17).
+  it("is what the pulling device's C_gd on the input net adds to the 10 % time, to first order", () => {
+    const { kick, kickDelay } = solveEdge(2, 0.25, s, 1, edge);
+    const tail = kickDelay + kick[17]!;
+    expect(tail).toBeGreaterThan(10 * kickDelay);
+    const m = 0.05;
+    expectClose((direct(m, 0.1) - direct(0, 0.1)) / m, tail, 0.05);
+  });
+
+  it('is nothing for a ramp, a clock source that no load slows', () => {
+    const { kick, kickDelay } = solveEdge(2, 0.25, 2);
+    expect(kickDelay).toBe(0);
+    for (const k of kick) expect(k).toBe(0);
+  });
+});
+
 describe('driverPosition', () => {
   const vT = 0.25;
   const pos = RampResponse.vtPosition(vT);
