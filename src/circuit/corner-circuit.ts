@@ -16,6 +16,8 @@ import type { ProcessCard } from '../schema/process.js';
 import { cornerModel, type SwitchDrive } from './corner-model.js';
 import { circuitFigures, loadSign, solve, withLoad, type CircuitFigures, type FigureScope } from './figures.js';
 import { buildNetwork, type CircuitNetwork } from './network.js';
+import { generatorGateEnergy } from './gate-energy.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -71,9 +73,10 @@ export function generatorEnergy(
   plans: readonly SwitchPlan[],
   devices: CornerDevices,
   cycles: CycleIndex,
+  netlist?: CompiledNetlist,
 ): number {
   const vdd = devices.vdd;
-  let energy = 0;
+  let energy = netlist ? generatorGateEnergy(netlist, netLoads, devices, cycles) : 0;
   for (let i = 0; i < netLoads.length; i++) energy += netLoads[i]! * vdd * vdd;
   for (const plan of plans) {
     const ls = plan.levelShifter;
@@ -84,8 +87,9 @@ export function generatorEnergy(
       const load = switchGateCapacitance(devices.card, d.kind, d.w, d.l);
       const cycle = cycles.cycle(d.net);
       const input = typeof cycle === 'string' ? ls.delay : (cycle.riseTransition + cycle.fallTransition) / 2;
-      if (latchShifter(ls, vdd)) energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices).total;
-      else if (low < 0 && high <= vdd) energy += downShifterEnergy(ls, downSizing(ls, devices.card, load, input), load, devices).total;
+      if (latchShifter(ls, vdd)) energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices, input).total;
+      else if (low < 0 && high <= vdd)
+        energy += downShifterEnergy(ls, downSizing(ls, devices.card, load, input), load, devices, input).total;
       else energy += load * (high - low) * (high - low);
     }
   }
@@ -113,6 +117,7 @@ export class CircuitEvaluator {
     card: ProcessCard,
     private readonly netLoads: ArrayLike<number>,
     private readonly period: number,
+    private readonly netlist?: CompiledNetlist,
   ) {
     this.network = buildNetwork(design, plans, card);
   }
@@ -136,7 +141,7 @@ export class CircuitEvaluator {
     const computed = circuitFigures(
       model,
       net.load,
-      generatorEnergy(this.netLoads, this.plans, devices, cycles),
+      generatorEnergy(this.netLoads, this.plans, devices, cycles, this.netlist),
       net.spec.startupCycles,
       keepSign ? { scope, sign: this.checkedSign } : { scope },
     );
