@@ -14,14 +14,14 @@ import { design, expectClose } from '../helpers.js';
 
 const { resolved } = loadResolved(design('doubler-pump'), [], {}, () => {});
 
-function energies(name: string): { nets: number; gates: number } {
+function energies(name: string, cache?: Map<string, number>): { nets: number; gates: number } {
   const corner = resolved.corners.find((c) => c.corner.name === name)!.corner;
   const result = evaluateCorner(resolved, corner);
   const devices = devicesAtCorner(resolved.card, corner);
   const cycles = new CycleIndex(result.simulation, resolved.netlist);
   let nets = 0;
   for (const c of resolved.loads) nets += c * corner.vdd * corner.vdd;
-  return { nets, gates: generatorGateEnergy(resolved.netlist, resolved.loads, devices, cycles) };
+  return { nets, gates: generatorGateEnergy(resolved.netlist, resolved.loads, devices, cycles, cache) };
 }
 
 // ngspice-39 (see the header), J per period, and the model's relative error when this test was
@@ -39,4 +39,12 @@ describe('generatorGateEnergy', () => {
       expectClose((e.nets + e.gates) / c.ngspice - 1, c.error, 0.005, 'abs');
     });
   }
+
+  it('gives the same energy from its cache, one entry per switching gate', () => {
+    const cache = new Map<string, number>();
+    const first = energies('tt/1.8V/27C', cache).gates;
+    expect(cache.size).toBe(resolved.netlist.gateCount);
+    expect(energies('tt/1.8V/27C', cache).gates).toBe(first);
+    expect(energies('tt/1.8V/27C').gates).toBe(first);
+  });
 });
