@@ -114,7 +114,9 @@ export class CornerEvaluator {
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
     this.circuitFigures = { scope: reuse.circuit === 'checked-figures' ? 'checked' : 'all', sameCorner: warm };
-    this.circuit = spec ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period) : null;
+    this.circuit = spec
+      ? new CircuitEvaluator(resolved.design, resolved.switches, resolved.card, resolved.loads, this.period, resolved.netlist)
+      : null;
     this.circuitNames = spec ? circuitCheckNames(spec.requirements, spec.output) : null;
   }
 

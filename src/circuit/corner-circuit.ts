@@ -16,6 +16,8 @@ import type { ProcessCard } from '../schema/process.js';
 import { cornerModel, type SwitchDrive } from './corner-model.js';
 import { circuitFigures, loadSign, solve, withLoad, type CircuitFigures, type FigureScope } from './figures.js';
 import { buildNetwork, type CircuitNetwork } from './network.js';
+import { generatorGateEnergy, type GateEnergyCache } from './gate-energy.js';
+import type { CompiledNetlist } from '../netlist/netlist.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -30,7 +32,8 @@ export interface CornerCircuit extends CircuitFigures {
 
 /**
  * Energy the clock generator's nets and the level shifters with the switch gates they drive draw
- * per period, J: C V^2 per net that swings the supply (each charged once from it), and per
+ * per period, J: C V^2 per net that swings the supply (each charged once from it), with the
+ * netlist each gate's short-circuit charge and input-to-output overlap (gate-energy.ts), and per
  * shifted gate its shifter's energy (shifter-energy.ts: internal nodes, latch crowbar, the gate
  * over the shifter's swing), the shifter sized as the deck sizes it (up from the core, or its
  * mirror down to a low level below ground) for its net's ramp here; a shifter the deck cannot
@@ -71,9 +74,11 @@ export function generatorEnergy(
   plans: readonly SwitchPlan[],
   devices: CornerDevices,
   cycles: CycleIndex,
+  netlist?: CompiledNetlist,
+  cache?: GateEnergyCache,
 ): number {
   const vdd = devices.vdd;
-  let energy = 0;
+  let energy = netlist ? generatorGateEnergy(netlist, netLoads, devices, cycles, cache) : 0;
   for (let i = 0; i < netLoads.length; i++) energy += netLoads[i]! * vdd * vdd;
   for (const plan of plans) {
     const ls = plan.levelShifter;
@@ -84,8 +89,9 @@ export function generatorEnergy(
       const load = switchGateCapacitance(devices.card, d.kind, d.w, d.l);
       const cycle = cycles.cycle(d.net);
       const input = typeof cycle === 'string' ? ls.delay : (cycle.riseTransition + cycle.fallTransition) / 2;
-      if (latchShifter(ls, vdd)) energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices).total;
-      else if (low < 0 && high <= vdd) energy += downShifterEnergy(ls, downSizing(ls, devices.card, load, input), load, devices).total;
+      if (latchShifter(ls, vdd)) energy += shifterEnergy(ls, sizeShifter(ls, devices.card, load, input), load, devices, input).total;
+      else if (low < 0 && high <= vdd)
+        energy += downShifterEnergy(ls, downSizing(ls, devices.card, load, input), load, devices, input).total;
       else energy += load * (high - low) * (high - low);
     }
   }
@@ -106,6 +112,8 @@ export class CircuitEvaluator {
    * turn a pump's output around; it saves a 20-period run per die.
    */
   private checkedSign: 1 | -1 | undefined;
+  /** The generator gates' energies, shared by the corners and dies this evaluator serves. */
+  private readonly gateEnergies: GateEnergyCache = new Map();
 
   constructor(
     design: Design,
@@ -113,6 +121,7 @@ export class CircuitEvaluator {
     card: ProcessCard,
     private readonly netLoads: ArrayLike<number>,
     private readonly period: number,
+    private readonly netlist?: CompiledNetlist,
   ) {
     this.network = buildNetwork(design, plans, card);
   }
@@ -136,7 +145,7 @@ export class CircuitEvaluator {
     const computed = circuitFigures(
       model,
       net.load,
-      generatorEnergy(this.netLoads, this.plans, devices, cycles),
+      generatorEnergy(this.netLoads, this.plans, devices, cycles, this.netlist, this.gateEnergies),
       net.spec.startupCycles,
       keepSign ? { scope, sign: this.checkedSign } : { scope },
     );

@@ -25,7 +25,8 @@ import { bodyThreshold, triodeResistance } from '../switches/physics.js';
 import { rangeHigh, rangeLow } from '../switches/nodes.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import type { ShifterSizing } from '../switches/shifter-sizing.js';
-import { overlapPerWidth, oxidePerArea } from './injection.js';
+import { oxidePerArea } from './injection.js';
+import { overlapPerWidth } from '../process/gate-edge.js';
 import type { CircuitModel, ModelChannel, ModelEdgeDevice, ModelGateCharge, ModelInterval, ModelSwitch } from './model.js';
 import type { CircuitNetwork } from './network.js';
 

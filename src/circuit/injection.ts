@@ -19,15 +19,6 @@ import type { PeriodSolver } from './period-solver.js';
 import type { SubstepMap } from './substep.js';
 
 /**
- * Gate-overlap capacitance per metre of width on each side, F/m: the card's `cov`, else an eighth
- * of its gate capacitance per width (value from memory: a 0.18 um-class overlap of about
- * 0.2 fF/um against 1.6 fF/um of gate).
- */
-export function overlapPerWidth(params: Pick<DeviceParams, 'cov' | 'cgate'>): number {
-  return params.cov ?? params.cgate / 8;
-}
-
-/**
  * Gate-oxide capacitance per area, F/m²: the card's `cox`, else the whole gate capacitance per
  * width at minimum length spread over that length (the overlap counted as channel too, erring high).
  */

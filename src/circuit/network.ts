@@ -12,7 +12,7 @@ import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from '../switches/plan.js';
 import { capacitanceMatrix, invertCapacitance, type Capacitor } from './capacitance.js';
 import type { CircuitLoad } from './figures.js';
-import { overlapPerWidth } from './injection.js';
+import { overlapPerWidth } from '../process/gate-edge.js';
 import type { ModelDiode } from './model.js';
 
 /** A diode of the network is the solver's piecewise-linear diode, on network node indices. */

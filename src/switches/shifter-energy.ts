@@ -10,18 +10,20 @@
  * pull device fights the cross-coupled latch device, that device, fully on, conducts across the
  * span while the latch node moves and the other side follows (C V^2 per node and the crowbar
  * charge: common practice, e.g. J. M. Rabaey et al., Digital Integrated Circuits, 2nd ed., on
- * dynamic and short-circuit power, from memory). The input is copied by an ideal source in the deck
- * and draws nothing here.
+ * dynamic and short-circuit power, from memory). The three inverters of the front (the complement,
+ * the skewed buffer's two stages) add their short-circuit charge and their input-to-output overlap
+ * while their inputs ramp (process/gate-edge.ts), the first two from the shifter's input ramp, the
+ * last from the buffer's middle node as the first stage drives it. The input is copied by an ideal
+ * source in the deck and draws nothing here.
  */
 import { saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
+import { gateEdge, overlapPerWidth, type GateEdges } from '../process/gate-edge.js';
 import { levelAt } from '../schema/level.js';
 import type { DownShifterSizing } from './down-shifter-sizing.js';
 import type { SwitchPlan } from './plan.js';
 import type { ShifterSizing } from './shifter-sizing.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
-
-const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
 
 /** The parts of a shifter's energy per period, J. */
 export interface ShifterEnergy {
@@ -33,8 +35,12 @@ export interface ShifterEnergy {
   readonly output: number;
   /** Latch devices conducting while the pull devices fight them. */
   readonly crowbar: number;
+  /** The front inverters' short-circuit charge and overlaps while their inputs ramp. */
+  readonly front: number;
   readonly total: number;
 }
+
+const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
 
 /** One shifter in the terms both topologies share: node capacitances (F), fight currents (A), levels (V). */
 interface LatchShifter {
@@ -53,7 +59,7 @@ interface LatchShifter {
   readonly vdd: number;
 }
 
-function latchShifterEnergy(s: LatchShifter): ShifterEnergy {
+function latchShifterEnergy(s: LatchShifter, front: number): ShifterEnergy {
   const { span } = s;
   const fall = (node: number) => (s.pull > s.latch ? (node * span) / (s.pull - s.latch) : 0);
   // Each flip: the fought latch device at full current while its node moves, then on average at
@@ -63,7 +69,7 @@ function latchShifterEnergy(s: LatchShifter): ShifterEnergy {
   const core = s.coreNodes * s.vdd * s.vdd;
   const latch = (s.side + s.setNode) * span * span;
   const output = s.output * s.swing * s.swing;
-  return { core, latch, output, crowbar, total: core + latch + output + crowbar };
+  return { core, latch, output, crowbar, front, total: core + latch + output + crowbar + front };
 }
 
 /** Complement and set-drive nodes (each an inverter's drains and the gate of a pull device of `pullGate` F) and the buffer's middle node, F. */
@@ -72,6 +78,44 @@ function coreNodes(devices: CornerDevices, size: Pick<ShifterSizing, 'inverterN'
   const inverterDrains = n.cdrain * size.inverterN + p.cdrain * 2 * size.inverterN;
   const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
   return 2 * (inverterDrains + pullGate) + mid;
+}
+
+/**
+ * Energy of the front's three inverters beyond C V^2 of their nodes, J: the complement and the
+ * buffer's first stage switched by the input ramp `input` (s), the buffer's second stage by the
+ * middle node's edges as the first stage makes them. The middle node's driver also pays the
+ * second stage's overlap once more (gate-energy.ts in the circuit layer: C_M V^2); the input's
+ * copy is ideal.
+ */
+function frontEnergy(
+  devices: CornerDevices,
+  size: Pick<ShifterSizing, 'inverterN' | 'bufferN' | 'bufferP' | 'bufferCap'>,
+  pullGate: number,
+  input: number,
+): number {
+  const { n, p, vdd, card } = devices;
+  const covN = overlapPerWidth(n.params);
+  const covP = overlapPerWidth(p.params);
+  const inverter = (wn: number, wp: number, load: number, inputRise: number, inputFall: number): GateEdges => ({
+    pullDown: { device: n, w: wn, l: card.lmin },
+    pullUp: { device: p, w: wp, l: card.lmin },
+    load,
+    miller: covN * wn + covP * wp,
+    inputRise,
+    inputFall,
+    vdd,
+  });
+  const beyond = (g: GateEdges, follow = false) => {
+    const fall = gateEdge(g, true, follow);
+    const rise = gateEdge(g, false, follow);
+    return { energy: vdd * (fall.charge + rise.charge - g.load * vdd), fall: fall.transition, rise: rise.transition };
+  };
+  const inverterLoad = n.cdrain * size.inverterN + p.cdrain * 2 * size.inverterN + pullGate;
+  const complement = beyond(inverter(size.inverterN, 2 * size.inverterN, inverterLoad, input, input));
+  const midLoad = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
+  const first = beyond(inverter(size.bufferN, size.bufferP, midLoad, input, input), true);
+  const second = inverter(size.inverterN, 2 * size.inverterN, inverterLoad, first.rise, first.fall);
+  return complement.energy + first.energy + beyond(second).energy + second.miller * vdd * vdd;
 }
 
 /** Which devices pull and which latch, and the latch's levels: all that tells the two topologies apart. */
@@ -92,24 +136,31 @@ function mirrorEnergy(
   size: Pick<ShifterSizing, 'inverterN' | 'bufferN' | 'bufferP' | 'bufferCap' | 'outputN' | 'outputP' | 'latchCap'>,
   load: number,
   devices: CornerDevices,
+  input: number,
 ): ShifterEnergy {
   const { n, p, vdd } = devices;
   const side = m.pull.cdrain * m.pullWidth + (m.latch.cdrain + m.latch.cgate) * m.latchWidth + size.latchCap;
-  return latchShifterEnergy({
-    coreNodes: coreNodes(devices, size, m.pull.cgate * m.pullWidth),
-    side,
-    setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
-    output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
-    pull: current(m.pull, vdd) * m.pullWidth,
-    latch: current(m.latch, m.latchDrive) * m.latchWidth,
-    span: m.span,
-    swing: m.swing,
-    vdd,
-  });
+  return latchShifterEnergy(
+    {
+      coreNodes: coreNodes(devices, size, m.pull.cgate * m.pullWidth),
+      side,
+      setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
+      output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
+      pull: current(m.pull, vdd) * m.pullWidth,
+      latch: current(m.latch, m.latchDrive) * m.latchWidth,
+      span: m.span,
+      swing: m.swing,
+      vdd,
+    },
+    frontEnergy(devices, size, m.pull.cgate * m.pullWidth, input),
+  );
 }
 
-/** Energy per period of a shifter up from the core sized `size` driving a gate of `load` farads at `devices`' corner. */
-export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
+/**
+ * Energy per period of a shifter up from the core sized `size` driving a gate of `load` farads at
+ * `devices`' corner, its input a ramp of `input` seconds (full swing).
+ */
+export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, devices: CornerDevices, input: number): ShifterEnergy {
   const { n, p, vdd } = devices;
   const high = levelAt(ls.high, vdd);
   const swing = Math.abs(high - levelAt(ls.low, vdd));
@@ -118,15 +169,22 @@ export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, de
     size,
     load,
     devices,
+    input,
   );
 }
 
 /**
  * Energy per period of a shifter down to a level below ground, the mirror: p pull-ups at the core
  * supply against n latch devices whose gates swing to VDD over their sources at the low level, the
- * latch nodes from the low level to VDD.
+ * latch nodes from the low level to VDD; `input` as for `shifterEnergy`.
  */
-export function downShifterEnergy(ls: Shifter, size: DownShifterSizing, load: number, devices: CornerDevices): ShifterEnergy {
+export function downShifterEnergy(
+  ls: Shifter,
+  size: DownShifterSizing,
+  load: number,
+  devices: CornerDevices,
+  input: number,
+): ShifterEnergy {
   const { n, p, vdd } = devices;
   const low = levelAt(ls.low, vdd);
   const swing = Math.abs(levelAt(ls.high, vdd) - low);
@@ -135,5 +193,6 @@ export function downShifterEnergy(ls: Shifter, size: DownShifterSizing, load: nu
     size,
     load,
     devices,
+    input,
   );
 }
