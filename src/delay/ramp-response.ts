@@ -145,11 +145,13 @@ export function solveEdge(
   const d0 = (alpha - 1) * (1 - vT);
   const d0o = (alpha - 1) * (1 - Math.min(Math.max(vT + opposingShift, 0), 0.99));
   const vTo = Math.min(Math.max(vT + opposingShift, 0), 0.99);
-  const pull = (gate: number, v: number, series: number, th = vT): number => {
-    if (gate <= th) return 0;
-    const x = (gate - th) / (1 - th);
-    const sat = stackFactor(alpha === 2 ? x * x : x ** alpha, series);
-    const vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
+  const pulling = new GateDrive(alpha, depth, vT);
+  const holding = new GateDrive(alpha, 1, vTo);
+  const pull = (net: GateDrive, gate: number, v: number): number => {
+    if (gate <= net.th) return 0;
+    net.set(gate);
+    const sat = net.sat;
+    const vdsat = net.vdsat;
     if (v >= vdsat) return sat;
     const r = v / vdsat;
     return sat * (2 - r) * r;
@@ -158,21 +160,21 @@ export function solveEdge(
   // two networks' full-drive currents, with its own v_T (`opposingShift` above the pulling one's):
   // it holds the output while a slow input is still near its start.
   const vinAt = (t: number): number => (s > 0 ? inputAt(input, t / s) : 1);
-  const currentOf = (vin: number, v: number): number => pull(vin, v, depth) - opposing * pull(1 - vin, 1 - v, 1, vTo);
+  const currentOf = (vin: number, v: number): number => pull(pulling, vin, v) - opposing * pull(holding, 1 - vin, 1 - v);
   // Derivatives of pull() in its drain voltage (slopeV) and its gate (slopeG), set by pullSlopes:
   // I = sat (2 - r) r below V_Dsat = d sqrt(sat), so dI/dV = sat (2 - 2 r) / V_Dsat and, at fixed
   // V, dI/dsat = r (1 in saturation); sat = stackFactor(x^alpha), x = (gate - th) / (1 - th).
   let slopeV = 0;
   let slopeG = 0;
-  const pullSlopes = (gate: number, v: number, series: number, th: number): void => {
+  const pullSlopes = (net: GateDrive, gate: number, v: number): void => {
     slopeV = 0;
     slopeG = 0;
+    const th = net.th;
     if (gate <= th) return;
-    const x = (gate - th) / (1 - th);
-    const p = alpha === 2 ? x * x : x ** alpha;
-    const sat = stackFactor(p, series);
+    net.set(gate);
+    const { x, p, sat, vdsat } = net;
+    const series = net.series;
     const dSat = (series === 1 ? 1 : (sat * sat) / (series * p * p)) * ((alpha * p) / x / (1 - th));
-    const vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
     if (v >= vdsat) {
       slopeG = dSat;
       return;
@@ -184,10 +186,10 @@ export function solveEdge(
   let conductance = 0;
   let gain = 0;
   const slopes = (vin: number, v: number): void => {
-    pullSlopes(vin, v, depth, vT);
+    pullSlopes(pulling, vin, v);
     conductance = slopeV;
     gain = slopeG;
-    pullSlopes(1 - vin, 1 - v, 1, vTo);
+    pullSlopes(holding, 1 - vin, 1 - v);
     conductance += opposing * slopeV;
     gain += opposing * slopeG;
   };
@@ -314,6 +316,64 @@ export function solveEdge(
     kick[i]! -= z50;
   }
   return { delay: t50 - s / 2, crossings, channel, channelDelay: g50, opposed, opposedDelay: w50, kick, kickDelay: z50 };
+}
+
+/**
+ * The drive of a pull network at one gate voltage, x = (gate - th)/(1 - th): x^alpha through the
+ * stack (sat) and V_Dsat. They depend on the gate alone, and an RK4 step asks for its midpoint's
+ * gate three times and ends on the next step's first: the last two gates are kept, so a step
+ * takes two powers instead of ten, with the same arithmetic.
+ */
+class GateDrive {
+  x = 0;
+  p = 0;
+  sat = 0;
+  vdsat = 0;
+  private lastGate = Number.NaN;
+  private lastX = 0;
+  private lastP = 0;
+  private lastSat = 0;
+  private lastVdsat = 0;
+  private gate = Number.NaN;
+
+  constructor(
+    private readonly alpha: number,
+    readonly series: number,
+    readonly th: number,
+  ) {}
+
+  /** Sets x, p, sat and vdsat for a gate above th. */
+  set(gate: number): void {
+    if (gate === this.gate) return;
+    const { alpha, th } = this;
+    if (gate === this.lastGate) {
+      this.lastGate = this.gate;
+      this.gate = gate;
+      const { x, p, sat, vdsat } = this;
+      this.x = this.lastX;
+      this.p = this.lastP;
+      this.sat = this.lastSat;
+      this.vdsat = this.lastVdsat;
+      this.lastX = x;
+      this.lastP = p;
+      this.lastSat = sat;
+      this.lastVdsat = vdsat;
+      return;
+    }
+    this.lastGate = this.gate;
+    this.lastX = this.x;
+    this.lastP = this.p;
+    this.lastSat = this.sat;
+    this.lastVdsat = this.vdsat;
+    this.gate = gate;
+    const x = (gate - th) / (1 - th);
+    const p = alpha === 2 ? x * x : x ** alpha;
+    const sat = stackFactor(p, this.series);
+    this.x = x;
+    this.p = p;
+    this.sat = sat;
+    this.vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
+  }
 }
 
 /** Where the input first passes v_T, in transitions. */
