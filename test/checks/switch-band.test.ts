@@ -8,16 +8,16 @@
  * Measured on the current model (ngspice 39, ps; model = handover before the error band, check =
  * the check's margin with it; test/bench/instant-band.bench.ts has all 45 corners):
  *   corner          model   ngspice   check
- *   tt/1.8V/27C      89.0    141.0    -58.3
- *   tt/1.98V/125C    43.3     39.6   -151.0   (the model alone is 3.7 ps above ngspice)
- *   ff/1.62V/125C     4.5     53.2   -182.9
- *   ff/1.8V/125C     -1.9      7.4   -176.3
- *   ff/1.98V/125C    -5.8    -22.1   -169.7
- *   sf/1.62V/125C    -5.8     24.9   -216.4
- *   sf/1.8V/125C    -14.3    -15.8   -209.8
- *   sf/1.98V/-40C    21.1     39.8    -72.9
- *   sf/1.98V/27C     15.1     26.6   -114.2
- *   sf/1.98V/125C   -19.9    -52.4   -203.2
+ *   tt/1.8V/27C      79.9    141.0    -57.2
+ *   tt/1.98V/125C    31.5     39.6   -149.3
+ *   ff/1.62V/125C    -6.3     53.2   -180.8
+ *   ff/1.8V/125C    -12.0      7.4   -174.4
+ *   ff/1.98V/125C   -15.3    -22.1   -167.9   (the model alone is 6.8 ps above ngspice)
+ *   sf/1.62V/125C   -27.8     24.9   -222.7
+ *   sf/1.8V/125C    -34.5    -15.8   -215.4
+ *   sf/1.98V/-40C    11.3     39.8    -75.7
+ *   sf/1.98V/27C      1.7     26.6   -118.1
+ *   sf/1.98V/125C   -38.7    -52.4   -208.4   (the model alone is 13.7 ps above ngspice)
  */
 import { describe, expect, it } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
@@ -74,15 +74,20 @@ describe('break-before-make with the switch-instant error band, against ngspice 
     expect(rows.filter((r) => r.simulated.simulator! < 0).map((r) => r.name)).toEqual(['ff/1.98V/125C', 'sf/1.8V/125C', 'sf/1.98V/125C']);
   });
 
-  it('needs the band: at tt/1.98V/125C the handover alone (43.3 ps) is above ngspice’s (39.6 ps), the check’s margin below it', () => {
-    const { simulated, check } = rows.find((r) => r.name === 'tt/1.98V/125C')!;
+  it('needs the band: at sf/1.98V/125C the handover alone (-38.7 ps) is above ngspice’s (-52.4 ps), the check’s margin below it', () => {
+    const { simulated, check } = rows.find((r) => r.name === 'sf/1.98V/125C')!;
     expect(simulated.model).toBeGreaterThan(simulated.simulator!);
     const raw = Math.min(...check.parts!.map((p) => p.span!)) - GUARD;
     // The check's handover before the band is confirm's model margin (the deck's instants are the evaluator's).
     expect(Math.abs(raw - simulated.model)).toBeLessThan(1e-13);
     expect(check.margin!).toBeLessThan(simulated.simulator!);
     expect(check.pass).toBe(false);
-    expect(check.detail).toContain("model's measured switch-instant error");
     expect(instantBand('analytic', 'generic180')).toBe(0.123);
+    // At tt/1.98V/125C the handover alone clears its guard (+31.5 ps, ngspice +39.6 ps) by less than the band:
+    // the check fails there and says why.
+    const near = rows.find((r) => r.name === 'tt/1.98V/125C')!;
+    expect(near.simulated.model).toBeGreaterThan(0);
+    expect(near.check.pass).toBe(false);
+    expect(near.check.detail).toContain("model's measured switch-instant error");
   });
 });

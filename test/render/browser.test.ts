@@ -181,7 +181,7 @@ describe('report in headless Chromium', () => {
         ['Monte Carlo yield', 'fail', true],
         ['simulator agreement', 'not-run', true],
       ]);
-      expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 70.0 % over 40 dies at every corner, below the 99.0 % required');
+      expect(parts[1]!.text).toBe('Monte Carlo yield: ✕ FAIL: yield 67.5 % over 40 dies at every corner, below the 99.0 % required');
       // Every drawing's title box heads with the run's verdict, not only its own checks'.
       const boxes = await page.$$eval('figure svg .title-block', (gs) =>
         gs.map((g) => [g.querySelector('.verdict')?.textContent, g.querySelector('.verdict-detail')?.textContent]),
