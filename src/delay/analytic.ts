@@ -172,22 +172,15 @@ class AnalyticTiming implements GateTiming {
   }
 
   delay(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
-    const falling = outputRising ? 0 : 1;
-    const tau = this.tau(gate, falling, pin);
-    this.position(gate, falling, pin, tau, inputTransition);
-    const s = this.lastPosition;
-    return (
-      tau *
-      this.blend(
-        gate,
-        falling,
-        pin,
-        (r, vt, m, mo, mk) => r.at(vt, s, 0) + m * r.at(vt, s, CHANNEL) + mo * r.at(vt, s, OPPOSED) + mk * r.at(vt, s, KICK),
-      )
-    );
+    return this.edgeField(gate, pin, outputRising, inputTransition, 0);
   }
 
   transition(gate: number, pin: number, outputRising: boolean, inputTransition: number): number {
+    return this.edgeField(gate, pin, outputRising, inputTransition, 1);
+  }
+
+  /** Field 0 (delay) or 1 (full-swing transition) of the responses, with every share's term, s. */
+  private edgeField(gate: number, pin: number, outputRising: boolean, inputTransition: number, f: number): number {
     const falling = outputRising ? 0 : 1;
     const tau = this.tau(gate, falling, pin);
     this.position(gate, falling, pin, tau, inputTransition);
@@ -198,7 +191,7 @@ class AnalyticTiming implements GateTiming {
         gate,
         falling,
         pin,
-        (r, vt, m, mo, mk) => r.at(vt, s, 1) + m * r.at(vt, s, CHANNEL + 1) + mo * r.at(vt, s, OPPOSED + 1) + mk * r.at(vt, s, KICK + 1),
+        (r, vt, m, mo, mk) => r.at(vt, s, f) + m * r.at(vt, s, CHANNEL + f) + mo * r.at(vt, s, OPPOSED + f) + mk * r.at(vt, s, KICK + f),
       )
     );
   }
