@@ -56,7 +56,7 @@ interface SwitchFrame {
 }
 
 function vt(c: Case, dvth: ArrayLike<number> | undefined): number {
-  return bodyThreshold(c.d.vth + (dvth ? dvth[c.device]! : 0), c.d.gamma, c.d.phi2f, c.vsb);
+  return bodyThreshold(c.d.switchVth + (dvth ? dvth[c.device]! : 0), c.d.gamma, c.d.phi2f, c.vsb);
 }
 
 function frameOf(plan: SwitchPlan, k: number, names: BiasCheckNames, devices: CornerDevices, settings: BiasSettings): SwitchFrame {

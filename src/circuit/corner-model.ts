@@ -113,7 +113,7 @@ function edgeDevice(plan: SwitchPlan, i: number, devices: CornerDevices, wave: G
     onTransition: n ? wave.rise.transition : wave.fall.transition,
     offTransition: n ? wave.fall.transition : wave.rise.transition,
     beta: (d.kprime * device.w) / device.l,
-    threshold: (source) => switchThreshold(plan, device, d, source, vdd, dvth) + d.ronVthShift,
+    threshold: (source) => switchThreshold(plan, device, d, source, vdd, dvth),
   };
 }
 
@@ -151,7 +151,7 @@ export function cornerModel(
       const swing = wave.rise.high - wave.rise.low;
       const bulk = bulkLevel(plan, device.kind, vdd);
       const gate = n ? wave.rise.low : wave.rise.high;
-      const vt = onsetThreshold(d.vth, d.gamma, d.phi2f, gate, bulk, n);
+      const vt = onsetThreshold(d.switchVth, d.gamma, d.phi2f, gate, bulk, n);
       const full = triodeResistance(d.kprime, device.w, device.l, swing - vt);
       if (!window && c?.status === 'always') {
         window = n ? { on: wave.rise.t50, off: wave.fall.t50 } : { on: wave.fall.t50, off: wave.rise.t50 };

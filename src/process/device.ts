@@ -26,10 +26,12 @@ export interface DeviceAtCorner {
   /** Triode mu*Cox scaled for temperature and the corner's drive, A/V^2. */
   readonly kprime: number;
   /**
-   * Threshold offset for the on-resistance only, V: the card's triode temperature law less its
-   * alpha-power one, (vthTempco - triode.vthTempco) * (T - t0); 0 without a `triode` section.
+   * Threshold magnitude of the device as a switch sees it (turn-on level, on-resistance, off- and
+   * on-state bias), V: the card's triode temperature law, vth0 + dvth - triode.vthTempco * (T - t0),
+   * which is the transistor's own threshold drift; `vth` is the alpha-power fit's, a parameter of
+   * the saturation current that may drift otherwise. Equal to `vth` without a `triode` section.
    */
-  readonly ronVthShift: number;
+  readonly switchVth: number;
   /** Mobility degradation theta, 1/V (the card's, or derived by `derivedTheta`). */
   readonly theta: number;
   /** Body-effect coefficient, V^0.5, and surface potential, V. */
@@ -138,7 +140,7 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
       params.kprime *
       shift.drive *
       mobilityScale({ mobilityExponent: params.triode?.mobilityExponent ?? params.mobilityExponent }, corner.temperature, card.t0),
-    ronVthShift: (params.vthTempco - (params.triode?.vthTempco ?? params.vthTempco)) * (corner.temperature - card.t0),
+    switchVth: vth + (params.vthTempco - (params.triode?.vthTempco ?? params.vthTempco)) * (corner.temperature - card.t0),
     theta: params.theta ?? derivedTheta(card, type),
     gamma: params.gamma,
     phi2f: params.phi2f,

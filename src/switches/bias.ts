@@ -51,7 +51,7 @@ export function bulkAt(plan: SwitchPlan, kind: DeviceKind, state: StateIndex, vd
 
 /** Threshold magnitude of a device with its source at vs and body at vb, V; dvth is a mismatch shift. */
 export function thresholdAt(kind: DeviceKind, d: DeviceAtCorner, vs: number, vb: number, dvth: number): number {
-  return bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, kind === 'n' ? vs - vb : vb - vs);
+  return bodyThreshold(d.switchVth + dvth, d.gamma, d.phi2f, kind === 'n' ? vs - vb : vb - vs);
 }
 
 /**

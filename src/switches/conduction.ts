@@ -112,7 +112,7 @@ export function switchThreshold(
   dvth: number,
 ): number {
   const bulk = bulkLevel(plan, device.kind, vdd);
-  return bodyThreshold(d.vth + dvth, d.gamma, d.phi2f, device.kind === 'n' ? vs - bulk : bulk - vs);
+  return bodyThreshold(d.switchVth + dvth, d.gamma, d.phi2f, device.kind === 'n' ? vs - bulk : bulk - vs);
 }
 
 /** Turn-on level of a device's gate at signal vs, V. */
@@ -206,7 +206,7 @@ export function switchConduction(
       const d = device.kind === 'n' ? devices.n : devices.p;
       const n = device.kind === 'n';
       const bulk = i === 0 ? bulk0 : bulk1;
-      const vt = bodyThreshold(d.vth + (dvth ? dvth[i]! : 0), d.gamma, d.phi2f, n ? vs - bulk : bulk - vs);
+      const vt = bodyThreshold(d.switchVth + (dvth ? dvth[i]! : 0), d.gamma, d.phi2f, n ? vs - bulk : bulk - vs);
       const level = n ? vs + vt : vs - vt;
       const overdrive = n ? high - vs - vt : vs - vt - low;
       const own: PointState = n
@@ -233,7 +233,7 @@ export function switchConduction(
           pointOff = Math.max(pointOff, alignNear(off, pointOff, T));
         }
       }
-      const r = triodeResistance(d.kprime, device.w, device.l, overdrive - d.ronVthShift, d.theta);
+      const r = triodeResistance(d.kprime, device.w, device.l, overdrive, d.theta);
       if (Number.isFinite(r)) conductance += 1 / r;
     }
     if (state === NEVER)
@@ -289,7 +289,7 @@ export function deviceOnResistance(plan: SwitchPlan, device: SwitchDevicePlan, d
   const gate = n ? (ls ? levelAt(ls.high, vdd) : vdd) : ls ? levelAt(ls.low, vdd) : 0;
   const d = n ? devices.n : devices.p;
   const vt = switchThreshold(plan, device, d, vs, vdd, dvth);
-  return triodeResistance(d.kprime, device.w, device.l, (n ? gate - vs : vs - gate) - vt - d.ronVthShift, d.theta);
+  return triodeResistance(d.kprime, device.w, device.l, (n ? gate - vs : vs - gate) - vt, d.theta);
 }
 
 /**

@@ -21,7 +21,7 @@ export interface RonEntry {
 
 /** Triode R_on * W/L of a device with its gate at vdd and V_SB = 0, ohm. */
 function sheetResistance(d: DeviceAtCorner, vdd: number): number {
-  return triodeResistance(d.kprime, 1, 1, vdd - d.vth - d.ronVthShift, d.theta);
+  return triodeResistance(d.kprime, 1, 1, vdd - d.switchVth, d.theta);
 }
 
 /** measured / model R_on at the entry's own bias for one device type. */

@@ -108,8 +108,8 @@ function simulate(c: Case): number {
 function model(c: Case): number {
   const card = loadProcess(processCard(c.card));
   const d = deviceAtCorner(card, c.type, { name: 'x', process: c.process, vdd: c.vdd, temperature: c.temperature, duty: 0.5 });
-  const vt = bodyThreshold(d.vth, d.gamma, d.phi2f, c.vsb);
-  return triodeResistance(d.kprime, W, card.lmin, c.vdd - vt - d.ronVthShift, d.theta);
+  const vt = bodyThreshold(d.switchVth, d.gamma, d.phi2f, c.vsb);
+  return triodeResistance(d.kprime, W, card.lmin, c.vdd - vt, d.theta);
 }
 
 describe('triodeResistance against ngspice on the shipped cards', () => {

@@ -7,7 +7,7 @@ import { expectClose, processCard } from '../helpers.js';
 
 const card = loadProcess(processCard('generic180'));
 const tt = devicesAtCorner(card, { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
-const sheet = (d: typeof tt.n) => triodeResistance(d.kprime, 1, 1, 1.8 - d.vth - d.ronVthShift, d.theta);
+const sheet = (d: typeof tt.n) => triodeResistance(d.kprime, 1, 1, 1.8 - d.switchVth, d.theta);
 
 describe('ronCalibration', () => {
   it("scales k' so the triode law meets the tabulated R_on * W/L at the characterized corner", () => {
