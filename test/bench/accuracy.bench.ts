@@ -27,7 +27,11 @@ const cornerArg = args.indexOf('--corners');
 const wanted = cornerArg >= 0 ? args[cornerArg + 1]!.split(',') : null;
 const extra = args.filter((a, i) => a.includes('=') && (cornerArg < 0 || i !== cornerArg + 1)).map((a) => a.split('=') as [string, string]);
 
-/** By default three corners per design: tt at the middle supply and temperature, ss at the lowest supply and hottest, ff at the highest and coldest. */
+/**
+ * By default five corners per design: tt at the middle supply and temperature, ss at the lowest
+ * supply hottest and coldest (the slowest corner, and the one where temperature inversion shows),
+ * ff at the highest supply coldest and hottest.
+ */
 function defaultPick(all: readonly Corner[]): Corner[] {
   const vdds = [...new Set(all.map((c) => c.vdd))].sort((a, b) => a - b);
   const temps = [...new Set(all.map((c) => c.temperature))].sort((a, b) => a - b);
@@ -35,7 +39,9 @@ function defaultPick(all: readonly Corner[]): Corner[] {
   const picks: Array<[string, number, number]> = [
     ['tt', mid(vdds), mid(temps)],
     ['ss', vdds[0]!, temps.at(-1)!],
+    ['ss', vdds[0]!, temps[0]!],
     ['ff', vdds.at(-1)!, temps[0]!],
+    ['ff', vdds.at(-1)!, temps.at(-1)!],
   ];
   return picks
     .map(([p, v, t]) => all.find((c) => c.process === p && c.vdd === v && c.temperature === t))

@@ -52,8 +52,10 @@ describe('circuitWaves', () => {
   it('finds one charge packet lifting the output by the ripple, while p2 hands the top plate to the output', () => {
     expect(waves.packets.length).toBe(1);
     const p = waves.packets[0]!;
+    // The transfer switch conducts from 29.26 ns and the packet ends at the solver's sample at 35.04 ns
+    // (29.10 and 34.89 ns with the card before its alpha-power refit: the whole packet 0.15 ns later).
     expect(p.start).toBeGreaterThan(25e-9);
-    expect(p.end).toBeLessThan(35e-9);
+    expect(p.end).toBeLessThan(35.5e-9);
     expect(p.rise).toBeGreaterThan(0.9 * waves.ripple);
     expect(p.rise).toBeLessThanOrEqual(waves.ripple + 1e-12);
   });

@@ -3,9 +3,12 @@ import { offStateMargin, onOverdrive, thresholdAt } from '../../src/switches/bia
 import type { DeviceAtCorner } from '../../src/process/device.js';
 import { expectClose } from '../helpers.js';
 
-/** A device at a corner with only what the bias rules read: threshold, gamma, 2phiF. */
+/**
+ * A device at a corner with only what the bias rules read: threshold, gamma, 2phiF. The switch
+ * threshold equals the fit's here (no triode shift: as at t0, or a card without a triode section).
+ */
 function device(vth: number, gamma: number, phi2f: number): DeviceAtCorner {
-  return { vth, gamma, phi2f } as DeviceAtCorner;
+  return { vth, switchVth: vth, gamma, phi2f } as DeviceAtCorner;
 }
 
 const n = device(0.45, 0.45, 0.85);
@@ -26,6 +29,13 @@ describe('thresholdAt', () => {
 
   it('adds a mismatch shift to the magnitude', () => {
     expectClose(thresholdAt('n', n, 0, 0, 0.01), 0.46, 1e-12);
+  });
+
+  // Away from t0 the switch threshold follows the card's triode law, not the alpha-power fit's:
+  // generic180 n at 125 C has vth 0.45 - 1.56 mV/K * 98 K = 0.29712 V, switchVth 0.45 - 1.36 mV/K * 98 K = 0.31672 V.
+  it("reads the triode law's threshold (switchVth), not the saturation fit's", () => {
+    const hot = { ...n, vth: 0.29712, switchVth: 0.31672 } as DeviceAtCorner;
+    expectClose(thresholdAt('n', hot, 0, 0, 0), 0.31672, 1e-12);
   });
 });
 

@@ -27,24 +27,27 @@ const at = (process: string, v: number, temperature: number, dvth = 0) =>
 // ngspice-39, s: output rising and falling delay at the nominal corner, then per corner with the
 // model's relative error on the ratio to nominal as measured when this test was written (5 ps step,
 // delays to 1 ps; re-measured with the card's capacitances from its model file, which widen the
-// output inverter). Over all 45 corners of too-tight.yaml, with the earlier card: median 4.7 %,
+// output inverter). The model's errors are re-pinned to the refitted alpha-power card (alpha 1.586 n,
+// 1.659 p), which moves them by up to 12.5 points (sf/1.62V/27C falling edge: 2.0 % before, 14.5 % now).
+// Over all 45 corners of too-tight.yaml, with an earlier card (not re-measured since): median 4.7 %,
 // worst 20.6 % (the swing / n-drive scale it replaces in the measurement: median 8.7 %, worst 25.6 %).
 const NOMINAL = { rise: 274e-12, fall: 333e-12 };
 const CASES = [
-  { process: 'ss', vdd: 1.62, temperature: 125, rise: 463e-12, fall: 581e-12, errRise: -0.052, errFall: 0.004 },
-  { process: 'ff', vdd: 1.98, temperature: -40, rise: 170e-12, fall: 199e-12, errRise: 0.138, errFall: 0.061 },
-  { process: 'fs', vdd: 1.98, temperature: -40, rise: 186e-12, fall: 251e-12, errRise: 0.185, errFall: -0.042 },
-  { process: 'sf', vdd: 1.62, temperature: 27, rise: 330e-12, fall: 399e-12, errRise: -0.08, errFall: 0.02 },
-  { process: 'tt', vdd: 1.8, temperature: 125, rise: 352e-12, fall: 418e-12, errRise: -0.023, errFall: 0.049 },
+  { process: 'ss', vdd: 1.62, temperature: 125, rise: 463e-12, fall: 581e-12, errRise: -0.042, errFall: 0.005 },
+  { process: 'ff', vdd: 1.98, temperature: -40, rise: 170e-12, fall: 199e-12, errRise: 0.116, errFall: 0.042 },
+  { process: 'fs', vdd: 1.98, temperature: -40, rise: 186e-12, fall: 251e-12, errRise: 0.161, errFall: -0.075 },
+  { process: 'sf', vdd: 1.62, temperature: 27, rise: 330e-12, fall: 399e-12, errRise: -0.008, errFall: 0.145 },
+  { process: 'tt', vdd: 1.8, temperature: 125, rise: 352e-12, fall: 418e-12, errRise: -0.039, errFall: 0.014 },
 ];
 
 describe('shifterEdges', () => {
-  it("gives the sizing's own estimates at the nominal corner (320 / 358 ps: 250 ps cannot be reached; ngspice 274 / 333 ps)", () => {
+  it("gives the sizing's own estimates at the nominal corner (320 / 338 ps: 250 ps cannot be reached; ngspice 274 / 333 ps)", () => {
     const e = at('tt', 1.8, 27);
     expectClose(e.rise, size.estimate.rise, 1e-12);
     expectClose(e.fall, size.estimate.fall, 1e-12);
     expectClose((e.riseTransition + e.fallTransition) / 2, size.estimate.transition, 1e-12);
     expectClose(e.rise, 319.6e-12, 0.002);
+    expectClose(e.fall, 338.2e-12, 0.002);
   });
 
   for (const c of CASES) {
