@@ -14,6 +14,7 @@ import { switchConduction, type SwitchConduction } from '../switches/conduction.
 import type { ResolvedDesign } from './resolve.js';
 import { shifterSizes, type ShifterSizes } from './shifter-sizes.js';
 import { instantBand } from '../switches/instant-band.js';
+import { gapBand } from '../delay/error-band.js';
 import { CircuitEvaluator, type CornerCircuit, type FigureChoice } from '../circuit/corner-circuit.js';
 import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
@@ -110,6 +111,7 @@ export class CornerEvaluator {
       instantBand: instantBand(resolved.model.name, resolved.card.name),
     };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
+    this.gapBand = gapBand(resolved.model.name, resolved.card.name);
     this.shifters = resolved.switches.some((plan) => plan.levelShifter) ? shifterSizes(resolved) : null;
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
@@ -127,6 +129,8 @@ export class CornerEvaluator {
 
   /** The switch bias checks, prepared once per corner. */
   private readonly bias: BiasChecker;
+  /** The model's measured clean-gap band on this card, fraction of the dead time. */
+  private readonly gapBand: number;
 
   /** Clock period, s, and the per-run settings, made once. */
   private readonly period: number;
@@ -149,7 +153,7 @@ export class CornerEvaluator {
     const simulation = this.simulator.run(timing, { period, duty: corner.duty, transition: design.clock.transition }, this.runOptions);
     const cycles = this.borrow && this.cycles ? this.cycles.reset(simulation) : new CycleIndex(simulation, netlist);
     if (this.borrow) this.cycles = cycles;
-    const measurement = measurePhases(simulation, netlist, cycles, { level: design.requirements.gap?.level, timing, band: model.gapBand });
+    const measurement = measurePhases(simulation, netlist, cycles, { level: design.requirements.gap?.level, timing, band: this.gapBand });
     const checks = requirementChecks(measurement, design.requirements, this.widthContext, this.resolved.labels);
     const switches: SwitchConduction[] = [];
     let circuit: CornerCircuit | undefined;

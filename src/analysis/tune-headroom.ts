@@ -1,7 +1,8 @@
 /**
  * The headroom a proposal must keep on every margin, and its Monte Carlo yield. By default: the
- * model's error band (its gapBand, a fraction of the dead time, taken of the candidate's largest
- * dead time so that it covers every corner) plus z sigma, sigma the spread of the least margin per
+ * model's measured dead-time error band on the card (its optimistic end, a fraction of the dead
+ * time, src/delay/error-band.ts, taken of the candidate's largest dead time so that it covers every
+ * corner; the gap checks carry their own band) plus z sigma, sigma the spread of the least margin per
  * die in a short seeded Monte Carlo at the candidate's limiting corners and z = Φ⁻¹(minYield)
  * (3 without one), plus whatever the simulator found missing when the proposal was confirmed.
  */
@@ -11,6 +12,7 @@ import type { ResolvedDesign } from './resolve.js';
 import { VOLTAGE_KINDS, type Check } from '../checks/check.js';
 import { chunkPlan, runChunk } from './montecarlo.js';
 import { normalQuantile } from '../variation/normal-quantile.js';
+import { deadTimeBand } from '../delay/error-band.js';
 import { wilsonInterval } from '../variation/stats.js';
 
 /** The automatic headroom: the model's error band plus z sigma of mismatch. */
@@ -141,7 +143,7 @@ export function candidateHeadroom(
   run: MismatchRun,
   simulator = 0,
 ): Headroom {
-  const band = (resolved.model.gapBand ?? 0) * deadMax;
+  const band = deadTimeBand(resolved.model.name, resolved.card.name) * deadMax;
   return {
     band,
     sigma: run.sigma,

@@ -351,11 +351,6 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
 
 export const analyticModel: DelayModel = {
   name: 'analytic',
-  // Against the hand-written ngspice references (test/reference/, 45 corners each) the clean gap
-  // at 10 % is 6.7 ps pessimistic to 10.2 ps optimistic on a NAND generator and 10.8 ps
-  // pessimistic to 9.8 ps optimistic on the NOR ones (dead times 0.3-1.1 ns, -1.5..+1.4 % off): 3 %
-  // of the dead time leaves it at least 6.5 ps pessimistic there.
-  gapBand: 0.03,
   bind(netlist: CompiledNetlist, loads: Float64Array, devices: CornerDevices, mismatch?: Mismatch, reuse?: GateTiming): GateTiming {
     const count = netlist.gateCount;
     const { n, p } = devices;

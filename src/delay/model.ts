@@ -27,11 +27,6 @@ export interface Mismatch {
 
 export interface DelayModel {
   readonly name: string;
-  /**
-   * How far the model's clean gap may be optimistic, as a fraction of the 50 % dead time,
-   * measured against transistor-level references; checks read the gap less this band.
-   */
-  readonly gapBand?: number;
   /** Characterized switch on-resistance per corner, when the model carries it (the table model). */
   readonly ron?: ReadonlyArray<{
     readonly process: string;

@@ -169,7 +169,7 @@ export interface GapOptions {
   /** Fraction of the swing, 0 < level < 0.5. */
   readonly level?: number;
   readonly timing?: GateTiming;
-  /** The delay model's gap error band, fraction of the dead time (DelayModel.gapBand). */
+  /** The delay model's gap error band on the card, fraction of the dead time (`gapBand`, src/delay/error-band.ts). */
   readonly band?: number;
 }
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ERROR_BANDS, errorBand, errorBandText } from '../../src/delay/error-band.js';
+import { ERROR_BANDS, GAP_BANDS, deadTimeBand, errorBand, errorBandText, gapBand } from '../../src/delay/error-band.js';
 
 // Measured with the decks of test/bench/accuracy.bench.ts (ngspice-39, Debian package) on generic180's
 // 10 shipped designs at tt/1.8V/27C, ss/1.62V/125C, ss/1.62V/-40C, ff/1.98V/-40C, ff/1.98V/125C, with
@@ -46,5 +46,24 @@ describe('errorBandText', () => {
       'model error: dead time -2.0 % to +3.5 % of ngspice (median |error| 1.4 %, 100 dead times on the shipped designs); read small margins against it',
     );
     expect(errorBandText('table', 'ref18')).toMatch(/not measured for the table model on card ref18/);
+  });
+});
+
+// Measured with `phasegap confirm` (ngspice-39): the model's clean gap less ngspice's, over the
+// model's dead time; generic180 -0.6..+9.4 % (the shipped designs at five corners, too-tight at all
+// 45; its long phase edges), lp-netlist at all 45 corners with four delay-chain loads -36.4..+53.1 %.
+describe('gapBand and deadTimeBand', () => {
+  it('give the measured optimistic ends for the model and card, and for a card never measured the largest measured on any', () => {
+    expect(gapBand('analytic', 'generic180')).toBe(0.094);
+    expect(gapBand('analytic', 'generic-lp')).toBe(0.531);
+    expect(gapBand('analytic', 'ref18')).toBe(0.531);
+    expect(gapBand('table', 'generic180')).toBe(Math.max(...GAP_BANDS.map((b) => b.high)));
+    expect(deadTimeBand('analytic', 'generic180')).toBe(0.035);
+    expect(deadTimeBand('analytic', 'ref18')).toBe(0.272);
+  });
+
+  it('never goes below zero: the generic180 tables, short at every dead time measured, get no dead-time band', () => {
+    expect(errorBand('table', 'generic180')!.high).toBeLessThan(0);
+    expect(deadTimeBand('table', 'generic180')).toBe(0);
   });
 });
