@@ -33,13 +33,14 @@ export const ERROR_BANDS: readonly ErrorBand[] = [
   // The shipped fixtures/tables/generic180.json on the same 100 dead times: every one short
   // (-6.8..-3.7 %, -185..-21 ps), median |error| 5.6 %. New tables (`npm run tables`) need measuring again.
   { model: 'table', card: 'generic180', count: 100, median: 0.056, worst: 0.068, low: -0.068, high: -0.037 },
-  // lp-netlist: 1 design x 5 corners x 2 dead times, -31.7..+15.8 % (-545..+27 ps), short at
-  // ss/0.9V/-40C and ss/0.9V/125C, long (optimistic) at ff/1.1V/125C and ff/1.1V/-40C, median |error| 8.8 %.
-  // This card's alpha-power law is still the hand-set one (generic180's refit is not yet done here).
-  { model: 'analytic', card: 'generic-lp', count: 10, median: 0.088, worst: 0.317, low: -0.317, high: 0.158 },
-  // The shipped fixtures/tables/generic-lp.json on the same 10: -8.5..+27.2 % (-147..+107 ps, long
-  // at ss/0.9V/125C), median |error| 7.5 %
-  { model: 'table', card: 'generic-lp', count: 10, median: 0.075, worst: 0.272, low: -0.085, high: 0.272 },
+  // lp-netlist (80 fF chain loads): 1 design x 5 corners x 2 dead times, -24.8..+19.3 % (-782..+81 ps),
+  // short at ss/0.9V/-40C, long (optimistic) at ff/1.1V/-40C, median |error| 15.3 %. This card's
+  // alpha-power law is still the hand-set one (generic180's refit is not yet done here).
+  { model: 'analytic', card: 'generic-lp', count: 10, median: 0.153, worst: 0.248, low: -0.248, high: 0.193 },
+  // The shipped fixtures/tables/generic-lp.json on the same 10: +0.2..+10.1 % (+6..+42 ps), median
+  // |error| 2.1 %, but extrapolated: lp-netlist's 80 fF chain nodes lie past the tables' 36 fF load
+  // axis, so the card names no tables until they are characterized that far.
+  { model: 'table', card: 'generic-lp', count: 10, median: 0.021, worst: 0.101, low: 0.002, high: 0.101 },
 ];
 
 /**

@@ -154,9 +154,9 @@ describe('tuneChains', () => {
     expect(result.closest!.limiting!.kind).toBe('dead-time-min');
     const r = cli('tune', design('doubler'), '--stages', '2', '--sizes', '1', '--max-load', '30fF');
     expect(r.code).toBe(1);
-    // Every corner where it fails is listed, worst first (measured: 10 corners for p1->p2, worst -144 ps).
+    // Every corner where it fails is listed, worst first (measured: 8 corners for p1->p2, worst -140 ps).
     expect(r.stdout).toMatch(
-      /dead p1->p2 >= 500 ps \(dead-time-min\) at 10 corners, worst -144 ps: ff\/1\.98V\/-40C, ff\/1\.8V\/-40C, (\S+, ){7}\S+\n/,
+      /dead p1->p2 >= 500 ps \(dead-time-min\) at 8 corners, worst -140 ps: ff\/1\.98V\/-40C, ff\/1\.8V\/-40C, (\S+, ){5}\S+\n/,
     );
     expect(r.stdout).toContain('it wants more delay than the search allows: widen it with --max-load or --stages');
   });
@@ -310,7 +310,7 @@ describe('tuneChains: headroom', () => {
     expect(h.sigma).toBeGreaterThan(0.5e-12);
     expectClose(h.total, h.band + 3 * sigma, 1e-9);
     expect(best.limiting!.margin!).toBeGreaterThanOrEqual(h.band + 3 * sigma);
-    // Every proposal keeps its own headroom, and far more than the zero-headroom search gave (+2.30 ps).
+    // Every proposal keeps its own headroom, and far more than the zero-headroom search gave (+2.58 ps).
     for (const p of result.proposals) expect(p.limiting!.margin!).toBeGreaterThanOrEqual(p.headroom!.total);
     expect(best.limiting!.margin!).toBeGreaterThan(40e-12);
   });
@@ -330,17 +330,17 @@ describe('tuneChains: headroom', () => {
     // Delay-model changes move the load by a few steps; the margin stays within one step's effect of the edge.
     expect(best.knobs.stages).toBe(2);
     expect(best.knobs.feedbackTap).toBe(2);
-    expectClose(best.knobs.stageLoad, 51.5 * fF, 5 * fF, 'abs');
+    expectClose(best.knobs.stageLoad, 50.5 * fF, 5 * fF, 'abs');
     expect(best.limiting!.margin!).toBeGreaterThanOrEqual(0);
     expect(best.limiting!.margin!).toBeLessThan(5e-12);
-    // At the edge, mismatch fails many dies at the fast corner (71 % of 200 measured): the yield is far below 99.73 %.
+    // At the edge, mismatch fails many dies at the fast corner (69 of 200 measured, a yield of 65.5 %): far below 99.73 %.
     const fast = best.yields!.find((y) => y.corner === 'ff/1.98V/-40C')!;
     expect(fast.passes / fast.dies).toBeLessThan(0.9);
     const r = cli('tune', design('doubler'), '--margin', '0', '--top', '1', '--no-confirm');
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('over 45 corners, with no headroom');
     expect(r.stdout).toMatch(
-      /proposal 1 +2 +1 +\d+(\.5)? fF +[\d.,]+ +2 +50\d ps +1\.\d\d ns +2\d\.\d ns +pass +\+\d\.\d\d ps +0 s +\d+ % \[/,
+      /proposal 1 +2 +1 +\d+(\.5)? fF +[\d.,]+ +2 +50\d ps +1\.\d\d ns +2\d\.\d ns +pass +\+\d\.\d\d ps +0 s +\d+(\.5)? % \[/,
     );
     expect(r.stdout).toContain('unconfirmed in ngspice (skipped with --no-confirm)');
   });

@@ -5,14 +5,14 @@ import { ERROR_BANDS, GAP_BANDS, deadTimeBand, errorBand, errorBandText, gapBand
 // 10 shipped designs at tt/1.8V/27C, ss/1.62V/125C, ss/1.62V/-40C, ff/1.98V/-40C, ff/1.98V/125C, with
 // the card's alpha-power law fitted to its transistor models: analytic 1.4 % median / 3.5 % worst
 // (-2.0..+3.5 %); the shipped tables 5.6 % / 6.8 % (every one short: -6.8..-3.7 %, -185..-21 ps).
-// lp-netlist at the same five corners of its card: analytic 8.8 % / 31.7 % (-31.7..+15.8 %), tables
-// 7.5 % / 27.2 % (-8.5..+27.2 %).
+// lp-netlist (80 fF chain loads) at the same five corners of its card: analytic 15.3 % / 24.8 %
+// (-24.8..+19.3 %), tables 2.1 % / 10.1 % (+0.2..+10.1 %, extrapolated past their 36 fF load axis).
 describe('errorBand', () => {
   it('holds the measured dead-time errors per model and card', () => {
     expect(errorBand('analytic', 'generic180')).toMatchObject({ count: 100, median: 0.014, worst: 0.035, low: -0.02, high: 0.035 });
     expect(errorBand('table', 'generic180')).toMatchObject({ count: 100, median: 0.056, worst: 0.068, low: -0.068, high: -0.037 });
-    expect(errorBand('analytic', 'generic-lp')).toMatchObject({ count: 10, median: 0.088, worst: 0.317, low: -0.317, high: 0.158 });
-    expect(errorBand('table', 'generic-lp')).toMatchObject({ count: 10, median: 0.075, worst: 0.272 });
+    expect(errorBand('analytic', 'generic-lp')).toMatchObject({ count: 10, median: 0.153, worst: 0.248, low: -0.248, high: 0.193 });
+    expect(errorBand('table', 'generic-lp')).toMatchObject({ count: 10, median: 0.021, worst: 0.101 });
     expect(errorBand('table', 'ref18')).toBeUndefined();
   });
 
@@ -23,13 +23,13 @@ describe('errorBand', () => {
     expect(a.worst).toBeLessThan(t.worst);
   });
 
-  it('keeps the analytic model less optimistic than the shipped tables on generic-lp, where the tables have the smaller median', () => {
-    // Why the cards name no tables: a dead time read long is what passes a design wrongly, and the
-    // analytic model's long end (+15.8 %) is below the tables' (+27.2 %) though its median is larger.
+  it('records that the shipped generic-lp tables, closer on lp-netlist, were measured past their load axis', () => {
+    // Why generic-lp names no tables yet: on lp-netlist (80 fF chain nodes against the tables' 36 fF
+    // axis) they measure closer than the analytic model, but by extrapolation.
     const a = errorBand('analytic', 'generic-lp')!;
     const t = errorBand('table', 'generic-lp')!;
-    expect(a.median).toBeGreaterThan(t.median);
-    expect(a.high).toBeLessThan(t.high);
+    expect(t.median).toBeLessThan(a.median);
+    expect(t.high).toBeLessThan(a.high);
   });
 
   it('never states a band narrower than its own worst error', () => {
@@ -59,7 +59,7 @@ describe('gapBand and deadTimeBand', () => {
     expect(gapBand('analytic', 'ref18')).toBe(0.531);
     expect(gapBand('table', 'generic180')).toBe(Math.max(...GAP_BANDS.map((b) => b.high)));
     expect(deadTimeBand('analytic', 'generic180')).toBe(0.035);
-    expect(deadTimeBand('analytic', 'ref18')).toBe(0.272);
+    expect(deadTimeBand('analytic', 'ref18')).toBe(0.193);
   });
 
   it('never goes below zero: the generic180 tables, short at every dead time measured, get no dead-time band', () => {
