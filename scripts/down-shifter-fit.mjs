@@ -11,7 +11,7 @@ import { loadProcess } from '../dist/src/cli/load.js';
 import { cornerModels } from '../dist/src/spice/models.js';
 import { downShifterLines } from '../dist/src/spice/down-shifter.js';
 import { downLatchRatio, downShifterTerms } from '../dist/src/switches/down-shifter-sizing.js';
-import { nominalCorner } from '../dist/src/spice/shifter-sizing.js';
+import { nominalCorner } from '../dist/src/switches/shifter-sizing.js';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const runs = Number(process.argv[2] ?? 60);

@@ -1,0 +1,182 @@
+// Regenerates the fits of src/switches/shifter-sizing.ts (the cross-coupled up-shifter of
+// src/spice/level-shifter.ts): random sizings of the shifter alone, simulated in ngspice at the
+// card's nominal corner, and least-squares fits of the measured delays and transitions to the stage
+// estimates shifter-edges.ts uses (latch fight, latch p rise, skewed buffer, output stage, input ramp).
+// Run after `npm run build`: node scripts/shifter-fit.mjs [runs] [seed]
+// With ROWS=1 it prints each run's estimates and measurements; with CHECK=1 it also prints how far
+// the fits now in the source are from each run.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadProcess } from '../dist/src/cli/load.js';
+import { cornerModels } from '../dist/src/spice/models.js';
+import { shifterLines } from '../dist/src/spice/level-shifter.js';
+import { nominalCorner, nominalDevices, shifterFits } from '../dist/src/switches/shifter-sizing.js';
+import { saturationCurrent } from '../dist/src/process/device.js';
+
+const ROOT = fileURLToPath(new URL('..', import.meta.url));
+const runs = Number(process.argv[2] ?? 60);
+let seed = Number(process.argv[3] ?? 11);
+const random = () => {
+  seed = (seed * 16807) % 2147483647;
+  return seed / 2147483647;
+};
+const between = (a, b) => a + (b - a) * random();
+
+const card = loadProcess(join(ROOT, 'fixtures', 'processes', 'generic180.yaml'));
+const corner = nominalCorner(card, 0.5);
+const vdd = corner.vdd;
+const { n, p } = nominalDevices(card);
+const models = cornerModels(card, corner, join(ROOT, 'fixtures', 'models', 'generic180.lib'));
+const current = (d, vgs) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
+// Output levels (low, high) in units of VDD: grounded 0..2 VDD, floating VDD..2 VDD.
+const LEVELS = [
+  [0, 2],
+  [1, 2],
+];
+const T = 20e-9;
+const rows = [];
+const dir = mkdtempSync(join(tmpdir(), 'ushift-'));
+for (let k = 0; k < runs; k++) {
+  const [lo, hi] = LEVELS[k % LEVELS.length];
+  const low = lo * vdd;
+  const high = hi * vdd;
+  const swing = high - low;
+  const unit = card.unit.wn;
+  const pullDown = Math.round(between(2, 8)) * unit;
+  const latchP = between(0.15, 0.3) * pullDown;
+  const outputN = between(2, 16) * unit;
+  const outputP = outputN * between(1.5, 3.5);
+  const size = {
+    inverterN: 2 * unit,
+    bufferN: 2 * unit,
+    bufferP: 8 * unit,
+    bufferCap: random() < 0.2 ? 0 : between(0, 40e-15),
+    pullDown,
+    latchP,
+    latchCap: random() < 0.2 ? 0 : between(0, 60e-15),
+    outputN,
+    outputP,
+    outputStage: 0,
+    estimate: { rise: 0, fall: 0, transition: 0 },
+  };
+  const load = between(10e-15, 160e-15);
+  const input = between(60e-12, 500e-12);
+  // Stage estimates at the nominal corner, as shifter-edges.ts forms them.
+  const pull = current(n, vdd);
+  const latchI = current(p, high);
+  const latch = n.cdrain * pullDown + (p.cdrain + p.cgate) * latchP + n.cgate * outputN + p.cgate * outputP + size.latchCap;
+  const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
+  const fightCurrent = pull * pullDown - latchI * latchP;
+  if (!(fightCurrent > 0)) continue;
+  const terms = {
+    fight: (latch * high) / (2 * fightCurrent),
+    latchRise: (latch * high) / (2 * latchI * latchP),
+    buffer: (mid * vdd) / (2 * pull * size.bufferN),
+    output: ((load + n.cdrain * (outputN + outputP)) * swing) / (outputN * current(n, swing)),
+  };
+  const bias = (v) => (v === 0 ? '0' : v === vdd ? 'vdd' : `r${String(v).replace('.', 'p')}`);
+  const rails = { vdd: 'vdd', low: bias(low), high: bias(high) };
+  const sources = [...new Set([low, high])].filter((v) => v !== 0 && v !== vdd);
+  const invert = k % 4 >= 2;
+  const midLevel = (low + high) / 2;
+  const w = `TD=${T}`;
+  const deck = [
+    'up shifter fit',
+    ...models.header,
+    `vsupply vdd 0 DC ${vdd}`,
+    ...sources.map((v) => `v${bias(v)} ${bias(v)} 0 DC ${v}`),
+    `vin in 0 PULSE(0 ${vdd} 1n ${input} ${input} ${T / 2 - input} ${T})`,
+    ...shifterLines('ls', 'fit', 'in', 'out', { invert, delay: 300e-12 }, rails, size, { ...models.geometry, l: card.lmin }),
+    `cload out ${bias(high)} ${load}`,
+    `.tran ${T / 4000} ${2.2 * T} 0 ${T / 4000}`,
+    // Output rising: the input rises (falls when inverting).
+    `.meas tran d_rise TRIG v(in) VAL=${vdd / 2} ${invert ? 'FALL' : 'RISE'}=1 ${w} TARG v(out) VAL=${midLevel} RISE=1 ${w}`,
+    `.meas tran d_fall TRIG v(in) VAL=${vdd / 2} ${invert ? 'RISE' : 'FALL'}=1 ${w} TARG v(out) VAL=${midLevel} FALL=1 ${w}`,
+    `.meas tran t_rise TRIG v(out) VAL=${low + 0.1 * swing} RISE=1 ${w} TARG v(out) VAL=${low + 0.9 * swing} RISE=1 ${w}`,
+    `.meas tran t_fall TRIG v(out) VAL=${low + 0.9 * swing} FALL=1 ${w} TARG v(out) VAL=${low + 0.1 * swing} FALL=1 ${w}`,
+    '.end',
+    '',
+  ].join('\n');
+  const file = join(dir, `u${k}.cir`);
+  writeFileSync(file, deck);
+  const run = spawnSync('ngspice', ['-b', file], { encoding: 'utf8' });
+  const value = (name) => {
+    const m = new RegExp(`^${name}\\s*=\\s*(\\S+)`, 'm').exec(run.stdout);
+    return m ? Number(m[1]) : Number.NaN;
+  };
+  const row = {
+    levels: [lo, hi],
+    input,
+    terms,
+    rise: value('d_rise'),
+    fall: value('d_fall'),
+    tRise: value('t_rise') / 0.8,
+    tFall: value('t_fall') / 0.8,
+  };
+  if ([row.rise, row.fall, row.tRise, row.tFall].some((v) => !Number.isFinite(v) || v <= 0)) {
+    console.error(`run ${k} (${lo}..${hi} VDD) gave no edges`);
+    continue;
+  }
+  rows.push(row);
+}
+rmSync(dir, { recursive: true, force: true });
+
+function solve(a, b) {
+  const n = b.length;
+  const m = a.map((r, i) => [...r, b[i]]);
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+    [m[c], m[piv]] = [m[piv], m[c]];
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = m[r][c] / m[c][c];
+      for (let j = c; j <= n; j++) m[r][j] -= f * m[c][j];
+    }
+  }
+  return m.map((r, i) => r[n] / r[i]);
+}
+function leastSquares(xs, ys) {
+  const p = xs[0].length;
+  const ata = Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, j) => xs.reduce((s, x) => s + x[i] * x[j], 0)));
+  const atb = Array.from({ length: p }, (_, i) => xs.reduce((s, x, k) => s + x[i] * ys[k], 0));
+  const coef = solve(ata, atb);
+  const errors = xs.map((x, k) => Math.abs(x.reduce((s, v, i) => s + v * coef[i], 0) - ys[k]) / ys[k]);
+  return { coef, worst: Math.max(...errors), median: errors.sort((a, b) => a - b)[Math.floor(errors.length / 2)] };
+}
+function fitFor(group) {
+  const rs = rows.filter((r) => r.levels[0] > 0 === group);
+  return {
+    runs: rs.length,
+    fall: leastSquares(
+      rs.map((r) => [1, r.terms.fight, r.terms.latchRise, r.terms.output, r.input]),
+      rs.map((r) => r.fall),
+    ),
+    rise: leastSquares(
+      rs.map((r) => [1, r.terms.buffer, r.terms.fight, r.terms.output, r.input]),
+      rs.map((r) => r.rise),
+    ),
+    transitionRise: leastSquares(
+      rs.map((r) => [1, r.terms.output]),
+      rs.map((r) => r.tRise),
+    ),
+    transitionFall: leastSquares(
+      rs.map((r) => [1, r.terms.output]),
+      rs.map((r) => r.tFall),
+    ),
+  };
+}
+if (process.env.CHECK)
+  for (const r of rows) {
+    const f = shifterFits(r.levels[0] * vdd);
+    const fall = f.fall[0] + f.fall[1] * r.terms.fight + f.fall[2] * r.terms.latchRise + f.fall[3] * r.terms.output + f.fall[4] * r.input;
+    const rise = f.rise[0] + f.rise[1] * r.terms.buffer + f.rise[2] * r.terms.fight + f.rise[3] * r.terms.output + f.rise[4] * r.input;
+    console.log(
+      `levels ${r.levels.join('..')} VDD: fits now in the source give fall ${(100 * (fall / r.fall - 1)).toFixed(1)} %, rise ${(100 * (rise / r.rise - 1)).toFixed(1)} % of ngspice`,
+    );
+  }
+if (process.env.ROWS) for (const r of rows) console.log(JSON.stringify(r));
+console.log(JSON.stringify({ grounded: fitFor(false), floating: fitFor(true) }, null, 1));
