@@ -24,6 +24,7 @@ export type Tool = keyof typeof TOOLS;
  * the programs each needs.
  */
 export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
+  'test/checks/gap-band.test.ts': ['ngspice'],
   'test/fuzz/fuzz.test.ts': ['iverilog', 'ngspice', 'sigrok-cli', 'xmllint'],
   'test/analysis/tune-ngspice.test.ts': ['ngspice'],
   'test/analysis/tune.test.ts': ['ngspice'],
@@ -31,6 +32,7 @@ export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
   'test/cli/report.test.ts': ['ngspice'],
   'test/cli/waves.test.ts': ['sigrok-cli'],
   'test/delay/table.test.ts': ['ngspice'],
+  'test/process/device-ngspice.test.ts': ['ngspice'],
   'test/reference/reference.test.ts': ['ngspice'],
   'test/render/browser.test.ts': ['chromium', 'ngspice'],
   'test/render/histogram.test.ts': ['xmllint'],
