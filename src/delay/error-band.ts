@@ -100,6 +100,12 @@ export function errorBand(model: string, card: string): ErrorBand | undefined {
 export function errorBandText(model: string, card: string): string {
   const band = errorBand(model, card);
   const pct = (v: number) => `${v > 0 ? '+' : ''}${(100 * v).toFixed(1)} %`;
-  if (!band) return `model error: not measured for the ${model} model on card ${card}; run phasegap confirm before trusting a small margin`;
-  return `model error: dead time ${pct(band.low)} to ${pct(band.high)} of ngspice (median |error| ${(100 * band.median).toFixed(1)} %, ${band.count} dead times on the shipped designs); read small margins against it`;
+  const measuredGap = GAP_BANDS.some((b) => b.model === model && b.card === card);
+  const gap = `${(100 * gapBand(model, card)).toFixed(1)} % of the dead time`;
+  const gapText = measuredGap
+    ? `the gap checks take its measured gap error, ${gap}, off the model's gap`
+    : `its gap error is not measured: the gap checks take the worst measured, ${gap}, off the model's gap`;
+  if (!band)
+    return `model error: not measured for the ${model} model on card ${card}; ${gapText}; run phasegap confirm before trusting a small margin`;
+  return `model error: dead time ${pct(band.low)} to ${pct(band.high)} of ngspice (median |error| ${(100 * band.median).toFixed(1)} %, ${band.count} dead times on the shipped designs); ${gapText}; read small margins against it`;
 }

@@ -200,7 +200,7 @@ describe('phasegap tune', () => {
     expect(r.stdout).toMatch(/^too-tight-clock: delay chains tuned at 20\.00 MHz over 45 corners/);
     // The analytic model's measured band on generic180 (src/delay/error-band.ts), read beside the margins.
     expect(r.stdout.split('\n')[1]).toBe(
-      'model error: dead time -2.0 % to +3.5 % of ngspice (median |error| 1.4 %, 100 dead times on the shipped designs); read small margins against it',
+      "model error: dead time -2.0 % to +3.5 % of ngspice (median |error| 1.4 %, 100 dead times on the shipped designs); the gap checks take its measured gap error, 9.4 % of the dead time, off the model's gap; read small margins against it",
     );
     expect(r.stdout).toMatch(/current design +2 +1 +40 fF .* FAIL/);
     expect(r.stdout).toMatch(/proposal 1 /);

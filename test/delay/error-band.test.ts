@@ -43,9 +43,13 @@ describe('errorBand', () => {
 describe('errorBandText', () => {
   it('prints the band with its source, or says none was measured', () => {
     expect(errorBandText('analytic', 'generic180')).toBe(
-      'model error: dead time -2.0 % to +3.5 % of ngspice (median |error| 1.4 %, 100 dead times on the shipped designs); read small margins against it',
+      "model error: dead time -2.0 % to +3.5 % of ngspice (median |error| 1.4 %, 100 dead times on the shipped designs); the gap checks take its measured gap error, 9.4 % of the dead time, off the model's gap; read small margins against it",
     );
     expect(errorBandText('table', 'ref18')).toMatch(/not measured for the table model on card ref18/);
+    // A model and card whose gap error was never measured are told the gap checks take the worst measured.
+    expect(errorBandText('table', 'generic180')).toContain(
+      "its gap error is not measured: the gap checks take the worst measured, 53.1 % of the dead time, off the model's gap",
+    );
   });
 });
 
