@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { design, resolveYaml } from '../helpers.js';
+import { design, expectClose, resolveYaml } from '../helpers.js';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { chargePackets, circuitWaves } from '../../src/render/circuit-waves.js';
 
@@ -52,10 +52,13 @@ describe('circuitWaves', () => {
   it('finds one charge packet lifting the output by the ripple, while p2 hands the top plate to the output', () => {
     expect(waves.packets.length).toBe(1);
     const p = waves.packets[0]!;
-    // The transfer switch conducts from 29.26 ns and the packet ends at the solver's sample at 35.04 ns
-    // (29.10 and 34.89 ns with the card before its alpha-power refit: the whole packet 0.15 ns later).
-    expect(p.start).toBeGreaterThan(25e-9);
-    expect(p.end).toBeLessThan(35.5e-9);
+    // After p1 has fallen (about 27 ns) and within the period: the transfer switch conducts from
+    // 29.26 ns and the packet ends at the solver's sample at 35.04 ns (29.10 and 34.89 ns with the
+    // card before its alpha-power refit), pinned to 10 ps.
+    expect(p.start).toBeGreaterThan(27e-9);
+    expect(p.end).toBeLessThan(50e-9);
+    expectClose(p.start, 29.265e-9, 0.01e-9, 'abs');
+    expectClose(p.end, 35.039e-9, 0.01e-9, 'abs');
     expect(p.rise).toBeGreaterThan(0.9 * waves.ripple);
     expect(p.rise).toBeLessThanOrEqual(waves.ripple + 1e-12);
   });
