@@ -1,7 +1,7 @@
 /**
  * The headroom a proposal must keep on every margin, and its Monte Carlo yield. By default: the
- * model's measured dead-time error band on the card (its optimistic end, a fraction of the dead
- * time, src/delay/error-band.ts, taken of the candidate's largest dead time so that it covers every
+ * model's measured dead-time error band on the card (its largest |error|, which covers minima and
+ * maxima alike, a fraction of the dead time, src/delay/error-band.ts, taken of the candidate's largest dead time so that it covers every
  * corner; the gap checks carry their own band) plus z sigma, sigma the spread of the least margin per
  * die in a short seeded Monte Carlo at the candidate's limiting corners and z = Φ⁻¹(minYield)
  * (3 without one), plus whatever the simulator found missing when the proposal was confirmed.

@@ -73,23 +73,33 @@ export const GAP_BANDS: readonly GapBand[] = [
   { model: 'analytic', card: 'generic-lp', count: 360, low: -0.364, high: 0.531 },
 ];
 
-/**
- * The optimistic end of the clean-gap band (>= 0), fraction of the dead time: the measured one for
- * the model and card, else the largest measured for any (a model or card never measured is held to
- * the worst seen).
- */
-export function gapBand(model: string, card: string): number {
-  const own = GAP_BANDS.find((b) => b.model === model && b.card === card);
-  return Math.max(0, own ? own.high : Math.max(...GAP_BANDS.map((b) => b.high)));
+/** `end` of the band measured for the model and card, else the largest `end` measured for any (never below 0). */
+function measuredOrWorst<B extends { readonly model: string; readonly card: string }>(
+  bands: readonly B[],
+  model: string,
+  card: string,
+  end: (band: B) => number,
+): number {
+  const own = bands.find((b) => b.model === model && b.card === card);
+  return Math.max(0, own ? end(own) : Math.max(...bands.map(end)));
 }
 
 /**
- * The optimistic end of the dead-time band (>= 0), fraction of the dead time: the measured one for
- * the model and card, else the largest measured for any.
+ * The optimistic end of the clean-gap band (>= 0), fraction of the dead time: the measured one for
+ * the model and card, else the largest measured for any (a model or card never measured is held to
+ * the worst seen). The gap checks are minima, so only a gap read long can pass one wrongly.
+ */
+export function gapBand(model: string, card: string): number {
+  return measuredOrWorst(GAP_BANDS, model, card, (b) => b.high);
+}
+
+/**
+ * The dead-time band as one figure (>= 0), fraction of the dead time: the largest |error| measured
+ * for the model and card, else the largest measured for any. A dead time read long passes a minimum
+ * wrongly and one read short a maximum, so a headroom on every margin takes both ends.
  */
 export function deadTimeBand(model: string, card: string): number {
-  const own = errorBand(model, card);
-  return Math.max(0, own ? own.high : Math.max(...ERROR_BANDS.map((b) => b.high)));
+  return measuredOrWorst(ERROR_BANDS, model, card, (b) => b.worst);
 }
 
 export function errorBand(model: string, card: string): ErrorBand | undefined {
