@@ -114,13 +114,14 @@ describe('tuneChains with a simulator', () => {
     const { design: d, card } = loadDesign(design('doubler'), extremes);
     const space = { ...defaultSpace(d), stages: [2], stageSizes: [1], tapers: [], feedbackTaps: [] };
     const plain = tuneChains(d, card, undefined, space).proposals[0]!;
-    const result = tuneChains(d, card, undefined, space, { simulate: slower(100 * ps), confirmTop: 1 });
+    const result = tuneChains(d, card, undefined, space, { simulate: slower(140 * ps), confirmTop: 1 });
     const best = result.proposals[0]!;
-    // The simulator's margin is the model's less 100 ps, so what it misses against the mismatch headroom
-    // (z sigma) is z sigma - (margin - 100 ps): about 29 ps here, the model band (3.5 % of the largest
-    // dead time, about 68 ps) covering the rest. The model margin must grow by that.
+    // The simulator's margin is the model's less 140 ps, so what it misses against the mismatch headroom
+    // (z sigma) is z sigma - (margin - 140 ps): about 30 ps here, the model band (5.1 % of the largest
+    // dead time, about 108 ps) covering the rest. The model margin must grow by that. (A simulator
+    // only 100 ps short would stay inside that band and add nothing.)
     const h = plain.headroom!;
-    expectClose(best.headroom!.simulator, h.z * h.sigma - (plain.limiting!.margin! - 100 * ps), 1e-13, 'abs');
+    expectClose(best.headroom!.simulator, h.z * h.sigma - (plain.limiting!.margin! - 140 * ps), 1e-13, 'abs');
     expect(best.headroom!.simulator).toBeGreaterThan(20 * ps);
     expect(best.knobs.stageLoad).toBeGreaterThan(plain.knobs.stageLoad);
     expect(best.limiting!.margin!).toBeGreaterThanOrEqual(best.headroom!.total);

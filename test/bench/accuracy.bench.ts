@@ -1,9 +1,11 @@
 /**
  * Dead-time error of each delay model against ngspice (Debian package ngspice) on the shipped
  * designs: one transistor-level deck per design and corner (the product's deck writer, as
- * `phasegap confirm` runs it), simulated once, and every model's 50 % dead times set beside the
- * simulator's. Prints, per model and card, the median and worst relative error and the worst
- * absolute error; src/delay/error-band.ts holds the figures. Run after `npm run build`:
+ * `phasegap confirm` runs it) at every corner unless --corners names some, simulated once, and
+ * every model's 50 % dead times and clean gaps set beside the simulator's. Prints, per model and
+ * card, the dead time's median and worst relative error and worst absolute error, and the clean
+ * gap's error range over the model's dead time; src/delay/error-band.ts holds the figures.
+ * Run after `npm run build`:
  *   node dist/test/bench/accuracy.bench.js [MODEL=TABLES.json ...] [--corners a,b,c]
  */
 import { readdirSync } from 'node:fs';
@@ -19,7 +21,7 @@ import { compareCorner } from '../../src/spice/confirm.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
 import { runDecks } from '../../src/spice/runner.js';
 import { modelFile } from '../../src/cli/model-file.js';
-import { cornerName, type Corner } from '../../src/process/corner.js';
+import { cornerName } from '../../src/process/corner.js';
 
 const designs = fileURLToPath(new URL('../../../fixtures/designs/', import.meta.url));
 const args = process.argv.slice(2);
@@ -27,32 +29,18 @@ const cornerArg = args.indexOf('--corners');
 const wanted = cornerArg >= 0 ? args[cornerArg + 1]!.split(',') : null;
 const extra = args.filter((a, i) => a.includes('=') && (cornerArg < 0 || i !== cornerArg + 1)).map((a) => a.split('=') as [string, string]);
 
-/**
- * By default five corners per design: tt at the middle supply and temperature, ss at the lowest
- * supply hottest and coldest (the slowest corner, and the one where temperature inversion shows),
- * ff at the highest supply coldest and hottest.
- */
-function defaultPick(all: readonly Corner[]): Corner[] {
-  const vdds = [...new Set(all.map((c) => c.vdd))].sort((a, b) => a - b);
-  const temps = [...new Set(all.map((c) => c.temperature))].sort((a, b) => a - b);
-  const mid = (v: number[]) => v[v.length >> 1]!;
-  const picks: Array<[string, number, number]> = [
-    ['tt', mid(vdds), mid(temps)],
-    ['ss', vdds[0]!, temps.at(-1)!],
-    ['ss', vdds[0]!, temps[0]!],
-    ['ff', vdds.at(-1)!, temps[0]!],
-    ['ff', vdds.at(-1)!, temps.at(-1)!],
-  ];
-  return picks
-    .map(([p, v, t]) => all.find((c) => c.process === p && c.vdd === v && c.temperature === t))
-    .filter((c): c is Corner => c !== undefined);
-}
-
 interface Errors {
   relative: number[];
   absolute: number[];
 }
 const byKey = new Map<string, Errors>();
+const gapByKey = new Map<string, Errors>();
+const noteGap = (key: string, fraction: number, abs: number) => {
+  const e = gapByKey.get(key) ?? { relative: [], absolute: [] };
+  e.relative.push(fraction);
+  e.absolute.push(abs);
+  gapByKey.set(key, e);
+};
 const note = (key: string, rel: number, abs: number) => {
   const e = byKey.get(key) ?? { relative: [], absolute: [] };
   e.relative.push(rel);
@@ -72,7 +60,8 @@ for (const file of readdirSync(designs)
   }
   const base = resolveDesign(design, card, analyticModel);
   const all = base.corners.map((c) => c.corner);
-  const corners = wanted ? all.filter((c) => wanted.includes(cornerName(c.process, c.vdd, c.temperature))) : defaultPick(all);
+  // Every corner of every design by default: the skewed corners (sf, fs) are where the edges drag most.
+  const corners = wanted === null ? all : all.filter((c) => wanted.includes(cornerName(c.process, c.vdd, c.temperature)));
   if (corners.length === 0) continue;
   const modelPath = modelFile(card, cardDir);
   const decks = corners.map((corner) => generatorDeck(base, corner, { modelPath }));
@@ -88,12 +77,24 @@ for (const file of readdirSync(designs)
         outputs[i]!.output,
         decks[i]!.quantities.map((q) => q.name),
       );
-      for (const q of compareCorner(deck, parsed, 0.1).quantities) {
-        if (q.kind !== 'dead' || q.relativeError === null || q.simulator === null) continue;
-        note(`${name} ${card.name}`, q.relativeError, q.model - q.simulator);
-        console.log(
-          `${file} ${name} ${corner.name} ${q.quantity}: model ${(q.model * 1e12).toFixed(1)} ps, ngspice ${(q.simulator * 1e12).toFixed(1)} ps, ${(100 * q.relativeError).toFixed(1)} %`,
-        );
+      const compared = compareCorner(deck, parsed, 0.1).quantities;
+      for (const q of compared) {
+        if (q.relativeError === null || q.simulator === null) continue;
+        if (q.kind === 'dead') {
+          note(`${name} ${card.name}`, q.relativeError, q.model - q.simulator);
+          console.log(
+            `${file} ${name} ${corner.name} ${q.quantity}: model ${(q.model * 1e12).toFixed(1)} ps, ngspice ${(q.simulator * 1e12).toFixed(1)} ps, ${(100 * q.relativeError).toFixed(1)} %`,
+          );
+        }
+        // The clean gap's error over the model's dead time of the same handover: what GAP_BANDS hold.
+        const dead = q.kind === 'gap' ? compared.find((d) => d.quantity === q.quantity.replace(/^gap /, 'dead ')) : undefined;
+        if (dead) {
+          const error = q.model - q.simulator;
+          noteGap(`${name} ${card.name}`, error / dead.model, error);
+          console.log(
+            `${file} ${name} ${corner.name} ${q.quantity}: model ${(q.model * 1e12).toFixed(1)} ps, ngspice ${(q.simulator * 1e12).toFixed(1)} ps, ${(100 * (error / dead.model)).toFixed(1)} % of the dead time`,
+          );
+        }
       }
     });
   }
@@ -108,5 +109,11 @@ for (const [key, e] of byKey) {
   console.log(
     `${key}: ${e.relative.length} dead times, |error| median ${(100 * median(abs)).toFixed(1)} %, worst ${(100 * Math.max(...abs)).toFixed(1)} %, ` +
       `signed ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, absolute ${(Math.min(...e.absolute) * 1e12).toFixed(0)}..${(Math.max(...e.absolute) * 1e12).toFixed(0)} ps`,
+  );
+}
+for (const [key, e] of gapByKey) {
+  console.log(
+    `${key}: ${e.relative.length} clean gaps, (model - ngspice) / model dead time ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, ` +
+      `absolute ${(Math.min(...e.absolute) * 1e12).toFixed(1)}..${(Math.max(...e.absolute) * 1e12).toFixed(1)} ps`,
   );
 }

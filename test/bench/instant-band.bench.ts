@@ -6,9 +6,8 @@
  * the simulator's, as a fraction of the model's path (`handoverPath`: gate nets' 50 % edges apart
  * plus both instants' lags). Prints per card the count, median and signed range;
  * src/switches/instant-band.ts holds the figures. Run after `npm run build`:
- *   node dist/test/bench/instant-band.bench.js [--all design,design] [--corners a,b,c]
- * Designs named after --all run at every corner; the others at tt (middle supply and temperature)
- * and the four fast/slow supply-temperature extremes.
+ *   node dist/test/bench/instant-band.bench.js [--corners a,b,c]
+ * Every design at every corner unless --corners names some.
  */
 import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
@@ -25,7 +24,6 @@ import type { Quantity } from '../../src/spice/measures.js';
 import { handoverPath } from '../../src/checks/switch-checks.js';
 import { handover } from '../../src/measure/phases.js';
 import { modelFile } from '../../src/cli/model-file.js';
-import type { Corner } from '../../src/process/corner.js';
 
 const designs = fileURLToPath(new URL('../../../fixtures/designs/', import.meta.url));
 const args = process.argv.slice(2);
@@ -33,23 +31,7 @@ const option = (name: string) => {
   const i = args.indexOf(name);
   return i >= 0 ? args[i + 1]!.split(',') : null;
 };
-const everyCorner = option('--all') ?? ['too-tight', 'lp-netlist'];
 const onlyCorners = option('--corners');
-
-function extremes(all: readonly Corner[]): Corner[] {
-  const vdds = [...new Set(all.map((c) => c.vdd))].sort((a, b) => a - b);
-  const temps = [...new Set(all.map((c) => c.temperature))].sort((a, b) => a - b);
-  const picks: Array<[string, number, number]> = [
-    ['tt', vdds[vdds.length >> 1]!, temps[temps.length >> 1]!],
-    ['ss', vdds[0]!, temps.at(-1)!],
-    ['ss', vdds[0]!, temps[0]!],
-    ['ff', vdds.at(-1)!, temps[0]!],
-    ['ff', vdds.at(-1)!, temps.at(-1)!],
-  ];
-  return picks
-    .map(([p, v, t]) => all.find((c) => c.process === p && c.vdd === v && c.temperature === t))
-    .filter((c): c is Corner => c !== undefined);
-}
 
 const byCard = new Map<string, number[]>();
 for (const file of readdirSync(designs)
@@ -60,7 +42,7 @@ for (const file of readdirSync(designs)
   if (design.constraints.breakBeforeMake.length === 0) continue;
   const resolved = resolveDesign(design, card, analyticModel);
   const all = resolved.corners.map((c) => c.corner);
-  const corners = onlyCorners ? all.filter((c) => onlyCorners.includes(c.name)) : everyCorner.includes(name) ? all : extremes(all);
+  const corners = onlyCorners ? all.filter((c) => onlyCorners.includes(c.name)) : all;
   if (corners.length === 0) continue;
   const modelPath = modelFile(card, cardDir);
   const decks = corners.map((corner) => generatorDeck(resolved, corner, { modelPath }));

@@ -4,8 +4,9 @@
  * overlapping below 10 % of the swing at sf/0.9V/125C while the model's clean gap is positive, and
  * `check` passed every corner while it took a fixed 3 % of the dead time off the gap. With the
  * card's measured gap band (src/delay/error-band.ts) the non-overlap check fails there.
- * Measured when written (ngspice-39): model gap +37.3 ps both ways, ngspice +3.1 ps (p1->p2) and
- * -43.0 ps (p2->p1); dead time 215.6 ps; check margin -77.2 ps.
+ * Measured (ngspice-39): model gap +8.1 ps both ways, ngspice +3.1 ps (p1->p2) and -43.0 ps
+ * (p2->p1); model dead time 247.3 ps; check margin -100.9 ps. (With the card's earlier hand-set
+ * law the model's gap was +37.3 ps, its dead time 215.6 ps.) The fixed 3 % leaves +0.7 ps.
  */
 import { describe, expect, it } from 'vitest';
 import { gapBand } from '../../src/delay/error-band.js';
@@ -33,7 +34,7 @@ describe('the non-overlap check with the measured gap band, against ngspice on l
   it('ngspice has the phases overlapping at sf/0.9V/125C where the model’s clean gap is positive', () => {
     const back = gaps.find((q) => q.quantity === 'gap p2->p1')!;
     expect(back.simulator!).toBeLessThan(-30e-12);
-    expect(back.model).toBeGreaterThan(30e-12);
+    expect(back.model).toBeGreaterThan(5e-12);
   });
 
   it('fails the non-overlap check there: the model gap less the card’s band, not the gap alone', () => {
