@@ -31,9 +31,13 @@ export interface GridSpec {
   readonly loads: readonly number[];
 }
 
-export const GRIDS: Readonly<Record<'coarse' | 'fine', GridSpec>> = {
+export const GRIDS: Readonly<Record<'coarse' | 'fine' | 'wide', GridSpec>> = {
   coarse: { transitions: [1, 10, 40, 100], loads: [0.25, 4, 16, 40] },
   fine: { transitions: [1, 3, 8, 20, 45, 100, 200], loads: [0.25, 1, 3, 8, 16, 30, 60] },
+  // fine, one step further each way: for delay chains loaded well past 60 unit loads, whose slow
+  // edges then drive the next stage (generic-lp's lp-netlist: 134 unit loads, and 463 unit
+  // transitions at ss/0.9V/-40C).
+  wide: { transitions: [1, 3, 8, 20, 45, 100, 200, 500], loads: [0.25, 1, 3, 8, 16, 30, 60, 150] },
 };
 
 export interface Axes {

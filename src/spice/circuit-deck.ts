@@ -31,7 +31,10 @@ export const MIN_PERIODS = 12;
 export const MAX_PERIODS = 300;
 /** Periods at the end of the run whose output means are measured, vout_1 (oldest) .. vout_SETTLE_WINDOW (last). */
 export const SETTLE_WINDOW = 8;
-/** Largest internal time step as a fraction of the period. */
+/**
+ * Largest internal time step as a fraction of the period: coarser than the generator deck's
+ * (deck.ts, generatorMaxStep), since a circuit runs up to MAX_PERIODS periods.
+ */
 const MAX_STEP = 1 / 1000;
 
 /** The model's figures the simulator is compared with (SI units). */
@@ -235,7 +238,7 @@ export function circuitDeck(resolved: ResolvedDesign, corner: Corner, options: P
   const write = () =>
     generatorDeck(resolved, corner, {
       modelPath: options.modelPath,
-      maxStepFraction: MAX_STEP,
+      maxStep: MAX_STEP * T,
       circuit: { switchNodes, lines, stop, measures },
     });
   const supplies = deckSupplies(write().text).map(

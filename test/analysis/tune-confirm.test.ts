@@ -117,9 +117,9 @@ describe('tuneChains with a simulator', () => {
     const result = tuneChains(d, card, undefined, space, { simulate: slower(140 * ps), confirmTop: 1 });
     const best = result.proposals[0]!;
     // The simulator's margin is the model's less 140 ps, so what it misses against the mismatch headroom
-    // (z sigma) is z sigma - (margin - 140 ps): about 30 ps here, the model band (5.1 % of the largest
-    // dead time, about 108 ps) covering the rest. The model margin must grow by that. (A simulator
-    // only 100 ps short would stay inside that band and add nothing.)
+    // (z sigma) is z sigma - (margin - 140 ps), the model band (4.6 % of the largest dead time, about
+    // 98 ps) covering the rest. The model margin must grow by that. (A simulator only 100 ps short
+    // would stay inside that band and add next to nothing.)
     const h = plain.headroom!;
     expectClose(best.headroom!.simulator, h.z * h.sigma - (plain.limiting!.margin! - 140 * ps), 1e-13, 'abs');
     expect(best.headroom!.simulator).toBeGreaterThan(20 * ps);

@@ -9,7 +9,7 @@
  *   node dist/test/bench/accuracy.bench.js [MODEL=TABLES.json ...] [--corners a,b,c]
  */
 import { readdirSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadDesign, loadTables } from '../../src/cli/load.js';
 import { resolveDesign } from '../../src/analysis/resolve.js';
@@ -53,7 +53,9 @@ for (const file of readdirSync(designs)
   .sort()) {
   const loaded = loadDesign(join(designs, file));
   const { design, card, cardDir } = loaded;
+  // The analytic model, the card's own tables where it names them, and any named on the command line.
   const models: Array<[string, DelayModel]> = [['analytic', analyticModel]];
+  if (card.tables !== undefined) models.push(['table', tableModel(loadTables(resolve(loaded.cardDir, card.tables)))]);
   for (const [name, path] of extra) {
     const tables = loadTables(path);
     if (tables.process === card.name) models.push([name, tableModel(tables)]);

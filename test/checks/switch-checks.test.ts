@@ -36,7 +36,7 @@ describe('break-before-make', () => {
     const [d12, d21] = m.deadTimes;
     const expected12 = d12.t50 - offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition) - 25e-12;
     const expected21 = d21.t50 - offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition) - 25e-12;
-    // The model's switch-instant error (7.6 % of each handover's path on generic180) comes off each
+    // The model's switch-instant error (7.4 % of each handover's path on generic180) comes off each
     // handover; the path is the dead time plus both crossing offsets.
     const path12 = d12.t50 + offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition);
     const path21 = d21.t50 + offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition);
@@ -44,7 +44,7 @@ describe('break-before-make', () => {
     expectClose(handoverPath(a!, b!, 50e-9), path12, 1e-15, 'abs');
     expectClose(handoverPath(b!, a!, 50e-9), path21, 1e-15, 'abs');
     const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
-    expectClose(bbm.margin!, Math.min(expected12 - 0.076 * path12, expected21 - 0.076 * path21), 1e-15, 'abs');
+    expectClose(bbm.margin!, Math.min(expected12 - 0.074 * path12, expected21 - 0.074 * path21), 1e-15, 'abs');
     expect(bbm.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
   });
 
@@ -166,9 +166,9 @@ describe('switchChecks: subjects and parts', () => {
         { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } },
       ],
     });
-    // Each part needs the guard plus the model's switch-instant error on its path (7.6 % on generic180).
-    const errAb = 0.076 * handoverPath(a, b, period);
-    const errBa = 0.076 * handoverPath(b, a, period);
+    // Each part needs the guard plus the model's switch-instant error on its path (7.4 % on generic180).
+    const errAb = 0.074 * handoverPath(a, b, period);
+    const errBa = 0.074 * handoverPath(b, a, period);
     expect(bbm.parts).toEqual([
       { margin: handoverGap(a, b, period) - errAb - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 + errAb },
       { margin: handoverGap(b, a, period) - errBa - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 + errBa },
