@@ -63,7 +63,7 @@ function sweep(type) {
   return rows;
 }
 
-function fit(rows, device) {
+function fitLaw(rows, device) {
   const t0 = card.t0 + 273.15;
   let best = null;
   for (let tc = 0; tc <= 3e-3 + 1e-12; tc += 0.02e-3) {
@@ -79,7 +79,7 @@ function fit(rows, device) {
 
 try {
   for (const type of ['n', 'p']) {
-    const best = fit(sweep(type), card[type]);
+    const best = fitLaw(sweep(type), card[type]);
     const [logK, alpha, m] = best.coef;
     const k = Math.exp(logK) / 1e-6; // A per metre of width per V^alpha
     console.log(

@@ -90,7 +90,11 @@ const OPTIONS = {
     'corner names like ss/1.62V/125C, separated by commas (default: every process corner at 90/100/110 % supply and -40/27/125 C)',
   ),
   design: textOption('--design <FILE>', 'characterize the corners of this design instead'),
-  grid: textOption('--grid <GRID>', 'table grid: coarse (4 x 4), fine (7 x 7) or wide (8 x 8: fine with longer transitions and larger loads)', { default: 'fine', choices: Object.keys(GRIDS) }),
+  grid: textOption(
+    '--grid <GRID>',
+    'table grid: coarse (4 x 4), fine (7 x 7) or wide (8 x 8: fine with longer transitions and larger loads)',
+    { default: 'fine', choices: Object.keys(GRIDS) },
+  ),
   cells: parsedOption('--cells <LIST>', 'cells to characterize (default: INV,NAND2,NAND3,NOR2,NOR3)', parseCells, {
     fallback: [...TABLE_CELLS],
   }),
