@@ -2,8 +2,7 @@
 // level below ground (src/spice/down-shifter.ts) alone, simulated in ngspice at the card's nominal
 // corner, and least-squares fits of the measured delays and transitions to the stage estimates.
 // Run after `npm run build`: node scripts/down-shifter-fit.mjs [runs] [seed]
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -13,6 +12,7 @@ import { downShifterLines } from '../dist/src/spice/down-shifter.js';
 import { downLatchRatio, downShifterTerms } from '../dist/src/switches/down-shifter-sizing.js';
 import { nominalCorner } from '../dist/src/switches/shifter-sizing.js';
 import { leastSquares } from './least-squares.mjs';
+import { edgeMeasures, edges, simulate } from './shifter-bench.mjs';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const runs = Number(process.argv[2] ?? 60);
@@ -67,9 +67,6 @@ for (let k = 0; k < runs; k++) {
   const sources = [...new Set([low, high, Math.max(0, high)])].filter((v) => v !== 0 && v !== vdd);
   const full = { ...size, estimate: { rise: 0, fall: 0, transition: 0 } };
   const invert = k % 2 === 1;
-  const mid = (low + high) / 2;
-  const sw = high - low;
-  const w = `TD=${T}`;
   const deck = [
     'down shifter fit',
     ...models.header,
@@ -79,31 +76,18 @@ for (let k = 0; k < runs; k++) {
     ...downShifterLines('ls', 'fit', 'in', 'out', { invert, delay: 300e-12 }, rails, full, { ...models.geometry, l: card.lmin }),
     `cload out ${bias(Math.max(0, high))} ${load}`,
     `.tran ${T / 4000} ${2.2 * T} 0 ${T / 4000}`,
-    // Output rising: the input rises (falls when inverting).
-    `.meas tran d_rise TRIG v(in) VAL=${vdd / 2} ${invert ? 'FALL' : 'RISE'}=1 ${w} TARG v(out) VAL=${mid} RISE=1 ${w}`,
-    `.meas tran d_fall TRIG v(in) VAL=${vdd / 2} ${invert ? 'RISE' : 'FALL'}=1 ${w} TARG v(out) VAL=${mid} FALL=1 ${w}`,
-    `.meas tran t_rise TRIG v(out) VAL=${low + 0.1 * sw} RISE=1 ${w} TARG v(out) VAL=${low + 0.9 * sw} RISE=1 ${w}`,
-    `.meas tran t_fall TRIG v(out) VAL=${low + 0.9 * sw} FALL=1 ${w} TARG v(out) VAL=${low + 0.1 * sw} FALL=1 ${w}`,
+    ...edgeMeasures({ vdd, low, high, invert, from: T }),
     `.meas tran v_lo MIN v(out) FROM=${T} TO=${2 * T}`,
     `.meas tran v_hi MAX v(out) FROM=${T} TO=${2 * T}`,
     '.end',
     '',
   ].join('\n');
-  const file = join(dir, `d${k}.cir`);
-  writeFileSync(file, deck);
-  const run = spawnSync('ngspice', ['-b', file], { encoding: 'utf8' });
-  const value = (name) => {
-    const m = new RegExp(`^${name}\\s*=\\s*(\\S+)`, 'm').exec(run.stdout);
-    return m ? Number(m[1]) : Number.NaN;
-  };
+  const value = simulate(join(dir, `d${k}.cir`), deck);
   const row = {
     levels: [lo, hi],
     input,
     terms,
-    rise: value('d_rise'),
-    fall: value('d_fall'),
-    tRise: value('t_rise') / 0.8,
-    tFall: value('t_fall') / 0.8,
+    ...edges(value),
     lo: value('v_lo'),
     hi: value('v_hi'),
   };

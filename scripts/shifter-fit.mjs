@@ -5,8 +5,7 @@
 // Run after `npm run build`: node scripts/shifter-fit.mjs [runs] [seed]
 // With ROWS=1 it prints each run's estimates and measurements; with CHECK=1 it also prints how far
 // the fits now in the source are from each run.
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -16,6 +15,7 @@ import { shifterLines } from '../dist/src/spice/level-shifter.js';
 import { nominalCorner, nominalDevices, shifterFits } from '../dist/src/switches/shifter-sizing.js';
 import { saturationCurrent } from '../dist/src/process/device.js';
 import { leastSquares } from './least-squares.mjs';
+import { edgeMeasures, edges, simulate } from './shifter-bench.mjs';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const runs = Number(process.argv[2] ?? 60);
@@ -82,8 +82,6 @@ for (let k = 0; k < runs; k++) {
   const rails = { vdd: 'vdd', low: bias(low), high: bias(high) };
   const sources = [...new Set([low, high])].filter((v) => v !== 0 && v !== vdd);
   const invert = k % 4 >= 2;
-  const midLevel = (low + high) / 2;
-  const w = `TD=${T}`;
   const deck = [
     'up shifter fit',
     ...models.header,
@@ -93,29 +91,16 @@ for (let k = 0; k < runs; k++) {
     ...shifterLines('ls', 'fit', 'in', 'out', { invert, delay: 300e-12 }, rails, size, { ...models.geometry, l: card.lmin }),
     `cload out ${bias(high)} ${load}`,
     `.tran ${T / 4000} ${2.2 * T} 0 ${T / 4000}`,
-    // Output rising: the input rises (falls when inverting).
-    `.meas tran d_rise TRIG v(in) VAL=${vdd / 2} ${invert ? 'FALL' : 'RISE'}=1 ${w} TARG v(out) VAL=${midLevel} RISE=1 ${w}`,
-    `.meas tran d_fall TRIG v(in) VAL=${vdd / 2} ${invert ? 'RISE' : 'FALL'}=1 ${w} TARG v(out) VAL=${midLevel} FALL=1 ${w}`,
-    `.meas tran t_rise TRIG v(out) VAL=${low + 0.1 * swing} RISE=1 ${w} TARG v(out) VAL=${low + 0.9 * swing} RISE=1 ${w}`,
-    `.meas tran t_fall TRIG v(out) VAL=${low + 0.9 * swing} FALL=1 ${w} TARG v(out) VAL=${low + 0.1 * swing} FALL=1 ${w}`,
+    ...edgeMeasures({ vdd, low, high, invert, from: T }),
     '.end',
     '',
   ].join('\n');
-  const file = join(dir, `u${k}.cir`);
-  writeFileSync(file, deck);
-  const run = spawnSync('ngspice', ['-b', file], { encoding: 'utf8' });
-  const value = (name) => {
-    const m = new RegExp(`^${name}\\s*=\\s*(\\S+)`, 'm').exec(run.stdout);
-    return m ? Number(m[1]) : Number.NaN;
-  };
+  const value = simulate(join(dir, `u${k}.cir`), deck);
   const row = {
     levels: [lo, hi],
     input,
     terms,
-    rise: value('d_rise'),
-    fall: value('d_fall'),
-    tRise: value('t_rise') / 0.8,
-    tFall: value('t_fall') / 0.8,
+    ...edges(value),
   };
   if ([row.rise, row.fall, row.tRise, row.tFall].some((v) => !Number.isFinite(v) || v <= 0)) {
     console.error(`run ${k} (${lo}..${hi} VDD) gave no edges`);
