@@ -6,6 +6,7 @@ import type { GateTiming } from '../delay/model.js';
 import type { SampleMismatch } from '../variation/mismatch.js';
 import { Simulator, type SimulationResult } from '../sim/engine.js';
 import { CycleIndex, measurePhases, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
+import { modelEdgeShape } from '../measure/levels.js';
 import { requirementChecks } from '../checks/requirements.js';
 import { compareChecks, type Check } from '../checks/check.js';
 import { appendSwitchChecks, type SwitchCheckSetup } from '../checks/switch-checks.js';
@@ -160,9 +161,10 @@ export class CornerEvaluator {
     if (measurement.ok) {
       const plans = this.resolved.switches;
       const switchDevices = this.ronCalibration ? this.ronCalibration(devices) : devices;
+      const shape = modelEdgeShape(cycles, netlist, timing);
       for (let k = 0; k < plans.length; k++)
         switches.push(
-          switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k], this.shifters?.[k]),
+          switchConduction(plans[k]!, cycles, switchDevices, mismatch?.switches[k], mismatch?.shifters?.[k], this.shifters?.[k], shape),
         );
       this.current = switches;
       appendSwitchChecks(this.switchSetup, this.switchByName, checks);

@@ -35,6 +35,8 @@ import {
   DRIVER_INPUTS,
   KICK,
   OPPOSED,
+  type DriveLaw,
+  driveLaw,
   driverPosition,
   OPPOSING_POINTS,
   opposingPosition,
@@ -75,8 +77,8 @@ class AnalyticTiming implements GateTiming {
     readonly responses: RampResponse[][][][][],
     readonly inputStart: Int32Array,
     readonly inputDriver: Int32Array,
-    /** Alpha of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
-    readonly driverAlpha: readonly [number, number],
+    /** Drive law of the device pulling the driver's edge behind a rising (0) and falling (1) output. */
+    readonly driverLaw: readonly [DriveLaw, DriveLaw],
     /** Per flat input and edge (2 k + falling): the pulling device's channel over the input net's capacitance (0 for a clock source). */
     readonly kick: Float64Array,
   ) {}
@@ -113,7 +115,7 @@ class AnalyticTiming implements GateTiming {
       driver < 0
         ? 0
         : driverPosition(
-            this.driverAlpha[falling]!,
+            this.driverLaw[falling]!,
             this.table[gate * STRIDE + 2 * falling + 1]!,
             inputTransition / driverTau,
             this.table[driver * STRIDE + 6 + (1 - falling)]!,
@@ -206,10 +208,10 @@ class AnalyticTiming implements GateTiming {
   }
 }
 
-/** The responses of one alpha, depth and input edge at every opposing ratio and threshold of the grid. */
-function responseSet(alpha: number, depth: number, driver: number | null, shape: number): RampResponse[][] {
+/** The responses of one drive law, depth and input edge at every opposing ratio and threshold of the grid. */
+function responseSet(law: DriveLaw, depth: number, driver: DriveLaw | null, shape: number): RampResponse[][] {
   return Array.from({ length: OPPOSING_POINTS }, (_, r) =>
-    Array.from({ length: SHIFT_POINTS }, (_, d) => RampResponse.of(alpha, depth, driver, shape, r, d)),
+    Array.from({ length: SHIFT_POINTS }, (_, d) => RampResponse.of(law, depth, driver, shape, r, d)),
   );
 }
 
@@ -221,11 +223,11 @@ function responseSet(alpha: number, depth: number, driver: number | null, shape:
  */
 const pinResponses = new Map<string, RampResponse[][][]>();
 
-function pinShapes(alpha: number, depth: number, driver: number | null): RampResponse[][][] {
-  const key = `${alpha}/${depth}/${driver}`;
+function pinShapes(law: DriveLaw, depth: number, driver: DriveLaw | null): RampResponse[][][] {
+  const key = `${law.alpha}:${law.saturation}/${depth}/${driver === null ? null : `${driver.alpha}:${driver.saturation}`}`;
   let sets = pinResponses.get(key);
   if (!sets) {
-    sets = driver === null ? [responseSet(alpha, depth, null, 0)] : DRIVER_INPUTS.map((_, j) => responseSet(alpha, depth, driver, j));
+    sets = driver === null ? [responseSet(law, depth, null, 0)] : DRIVER_INPUTS.map((_, j) => responseSet(law, depth, driver, j));
     pinResponses.set(key, sets);
   }
   return sets;
@@ -235,17 +237,17 @@ function pinShapes(alpha: number, depth: number, driver: number | null): RampRes
  * Each gate's rising and falling responses for the corner's alphas, per pin: the shapes of a
  * driving gate's edge (whose pulling device is the other type), or the ramp of a clock source.
  */
-function gateResponses(netlist: CompiledNetlist, alphaP: number, alphaN: number, inputDriver: Int32Array): RampResponse[][][][][] {
+function gateResponses(netlist: CompiledNetlist, lawP: DriveLaw, lawN: DriveLaw, inputDriver: Int32Array): RampResponse[][][][][] {
   const out = new Array<RampResponse[][][][]>(2 * netlist.gateCount);
   for (let g = 0; g < netlist.gateCount; g++) {
     const shape = CELLS[netlist.gateCell[g]!];
     const start = netlist.gateInputStart[g]!;
     const pins = netlist.gateInputStart[g + 1]! - start;
-    const edges = (alpha: number, depth: number, driverAlpha: number): RampResponse[][][][] =>
-      Array.from({ length: pins }, (_, pin) => pinShapes(alpha, depth, inputDriver[start + pin]! < 0 ? null : driverAlpha));
+    const edges = (law: DriveLaw, depth: number, driverLaw: DriveLaw): RampResponse[][][][] =>
+      Array.from({ length: pins }, (_, pin) => pinShapes(law, depth, inputDriver[start + pin]! < 0 ? null : driverLaw));
     // The driver's edge behind a rising output is its falling one (its n network), and the other way round.
-    out[2 * g] = edges(alphaP, shape.pSeries, alphaN);
-    out[2 * g + 1] = edges(alphaN, shape.nSeries, alphaP);
+    out[2 * g] = edges(lawP, shape.pSeries, lawN);
+    out[2 * g + 1] = edges(lawN, shape.nSeries, lawP);
   }
   return out;
 }
@@ -358,8 +360,10 @@ export const analyticModel: DelayModel = {
       reuse instanceof AnalyticTiming &&
       reuse.table.length === count * STRIDE &&
       reuse.inputStart === netlist.gateInputStart &&
-      reuse.driverAlpha[0] === n.alpha &&
-      reuse.driverAlpha[1] === p.alpha
+      reuse.driverLaw[0].alpha === n.alpha &&
+      reuse.driverLaw[0].saturation === n.saturation &&
+      reuse.driverLaw[1].alpha === p.alpha &&
+      reuse.driverLaw[1].saturation === p.saturation
         ? reuse
         : null;
     const table = recycled ? recycled.table : new Float64Array(count * STRIDE);
@@ -397,12 +401,14 @@ export const analyticModel: DelayModel = {
     let timing = recycled;
     if (!timing) {
       const drivers = inputDrivers(netlist);
+      const lawN = driveLaw(n.alpha, n.saturation);
+      const lawP = driveLaw(p.alpha, p.saturation);
       timing = new AnalyticTiming(
         table,
-        gateResponses(netlist, p.alpha, n.alpha, drivers),
+        gateResponses(netlist, lawP, lawN, drivers),
         netlist.gateInputStart,
         drivers,
-        [n.alpha, p.alpha],
+        [lawN, lawP],
         new Float64Array(2 * drivers.length),
       );
     }

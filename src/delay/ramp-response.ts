@@ -23,6 +23,36 @@
  * time of every 5 % level of the output edge from its 50 % point.
  */
 
+/**
+ * A device type's current law as the edge sees it: alpha, and the drain saturation voltage at full
+ * drive over the gate overdrive, V_D0 / (V_DD - Vth) (the n-th power law's V_D0; T. Sakurai,
+ * A. R. Newton, IEEE TED 38(4):887-894, 1991). Where velocity saturation is what bends the current
+ * below the square law, Toh, Ko and Meyer's V_D0 = (alpha - 1)(V_DD - Vth) holds (the default);
+ * where mobility degradation does (no velocity saturation), the device stays in triode up to
+ * nearly its full overdrive and the card states the measured ratio.
+ */
+export interface DriveLaw {
+  readonly alpha: number;
+  readonly saturation: number;
+}
+
+/** A law of this alpha, with Toh, Ko and Meyer's saturation voltage unless one is given. */
+export function driveLaw(alpha: number, saturation = alpha - 1): DriveLaw {
+  return { alpha, saturation };
+}
+
+/** A bare alpha stands for its law with the default saturation voltage. */
+export type LawLike = number | DriveLaw;
+
+function lawOf(law: LawLike): DriveLaw {
+  return typeof law === 'number' ? driveLaw(law) : law;
+}
+
+function lawKey(law: LawLike): string {
+  const { alpha, saturation } = lawOf(law);
+  return `${alpha}:${saturation}`;
+}
+
 /** Levels of the edge recorded, as the fraction of the swing still to go: 0.95, 0.90, ..., 0.05. */
 const LEVELS = 19;
 const LEVEL_STEP = 0.05;
@@ -124,7 +154,7 @@ export function meyerDrain(r: number): number {
  * (a clock source) has none.
  */
 export function solveEdge(
-  alpha: number,
+  law: LawLike,
   vT: number,
   s: number,
   depth = 1,
@@ -142,11 +172,12 @@ export function solveEdge(
   kick: Float64Array;
   kickDelay: number;
 } {
-  const d0 = (alpha - 1) * (1 - vT);
-  const d0o = (alpha - 1) * (1 - Math.min(Math.max(vT + opposingShift, 0), 0.99));
+  const { alpha, saturation } = lawOf(law);
+  const d0 = saturation * (1 - vT);
   const vTo = Math.min(Math.max(vT + opposingShift, 0), 0.99);
-  const pulling = new GateDrive(alpha, depth, vT);
-  const holding = new GateDrive(alpha, 1, vTo);
+  const d0o = saturation * (1 - vTo);
+  const pulling = new GateDrive(alpha, saturation, depth, vT);
+  const holding = new GateDrive(alpha, saturation, 1, vTo);
   const pull = (net: GateDrive, gate: number, v: number): number => {
     if (gate <= net.th) return 0;
     net.set(gate);
@@ -338,6 +369,7 @@ class GateDrive {
 
   constructor(
     private readonly alpha: number,
+    private readonly saturation: number,
     readonly series: number,
     readonly th: number,
   ) {}
@@ -372,7 +404,7 @@ class GateDrive {
     this.x = x;
     this.p = p;
     this.sat = sat;
-    this.vdsat = (alpha - 1) * (1 - th) * Math.sqrt(sat);
+    this.vdsat = this.saturation * (1 - th) * Math.sqrt(sat);
   }
 }
 
@@ -400,10 +432,10 @@ const EDGE_STEP = 0.005;
  * solved output, inverted to rise), as an input edge: what the next gate sees in place of a ramp.
  * It carries the output's triode tail, which a ramp of the same 10-90 % time does not.
  */
-export function drivenEdge(alpha: number, vT: number, s: number, input: InputEdge | null = null): InputEdge {
+export function drivenEdge(law: LawLike, vT: number, s: number, input: InputEdge | null = null): InputEdge {
   const ts: number[] = [];
   const vs: number[] = [];
-  const { crossings } = solveEdge(alpha, vT, s, 1, input, 1, (t, v) => {
+  const { crossings } = solveEdge(law, vT, s, 1, input, 1, (t, v) => {
     ts.push(t);
     vs.push(v);
   });
@@ -429,8 +461,8 @@ export function drivenEdge(alpha: number, vT: number, s: number, input: InputEdg
  * like gate under a ramp of the same transition (one stage back; a second stage back moves the
  * references' dead times by under 0.1 %).
  */
-function driverInput(alpha: number, vT: number, s: number): InputEdge {
-  return drivenEdge(alpha, vT, s);
+function driverInput(law: LawLike, vT: number, s: number): InputEdge {
+  return drivenEdge(law, vT, s);
 }
 
 /** Ratios of the opposing network's full-drive current to the pulling one's on the grid: 2^(r - 2). */
@@ -449,9 +481,9 @@ export function opposingPosition(ratio: number): number {
 const driverTransitions = new Map<string, Float64Array>();
 
 /** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel and opposing-channel terms. */
-function driverRow(alpha: number, o: number, row: number): Float64Array {
+function driverRow(law: LawLike, o: number, row: number): Float64Array {
   const n = DRIVER_INPUTS.length;
-  const key = `${alpha}/${o}`;
+  const key = `${lawKey(law)}/${o}`;
   let rows = driverTransitions.get(key);
   if (!rows) {
     rows = new Float64Array(3 * VT_POINTS * n).fill(NaN);
@@ -460,7 +492,7 @@ function driverRow(alpha: number, o: number, row: number): Float64Array {
   if (Number.isNaN(rows[3 * row * n]!)) {
     for (let j = 0; j < n; j++) {
       const sd = DRIVER_INPUTS[j]!;
-      const { crossings, channel, opposed } = solveEdge(alpha, row * VT_STEP, sd, 1, driverInput(alpha, row * VT_STEP, sd), 2 ** (o - 2));
+      const { crossings, channel, opposed } = solveEdge(law, row * VT_STEP, sd, 1, driverInput(law, row * VT_STEP, sd), 2 ** (o - 2));
       rows[3 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
       rows[(3 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
       rows[(3 * row + 2) * n + j] = (opposed[17]! - opposed[1]!) / 0.8;
@@ -476,14 +508,14 @@ function driverRow(alpha: number, o: number, row: number): Float64Array {
  * channel share `share` and opposing position `opposing` (opposingPosition), as the driver's own
  * edge was computed.
  */
-export function driverPosition(alpha: number, vtPos: number, ratio: number, share = 0, opposing = 2, opposedShare = 0): number {
+export function driverPosition(law: LawLike, vtPos: number, ratio: number, share = 0, opposing = 2, opposedShare = 0): number {
   const n = DRIVER_INPUTS.length;
   const a = vtPos | 0;
   const wa = vtPos - a;
   const o = opposing | 0;
   const wo = opposing - o;
-  const corners = [driverRow(alpha, o, a), driverRow(alpha, o, a + 1)];
-  const far = wo === 0 ? corners : [driverRow(alpha, o + 1, a), driverRow(alpha, o + 1, a + 1)];
+  const corners = [driverRow(law, o, a), driverRow(law, o, a + 1)];
+  const far = wo === 0 ? corners : [driverRow(law, o + 1, a), driverRow(law, o + 1, a + 1)];
   const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]! + opposedShare * r[2 * n + j]!;
   const at = (j: number): number => {
     const near = value(corners[0]!, j) + wa * (value(corners[1]!, j) - value(corners[0]!, j));
@@ -516,15 +548,15 @@ export function shiftPosition(shift: number): number {
 }
 
 /**
- * The solved grid of one alpha, depth, input edge (a ramp, or a driver of alpha `driver` at input
+ * The solved grid of one drive law, depth, input edge (a ramp, or a driver of law `driver` at input
  * transition DRIVER_INPUTS[shape]), opposing ratio and opposing threshold; v_T rows are solved
  * when first asked for.
  */
 export class RampResponse {
   private constructor(
-    readonly alpha: number,
+    readonly law: DriveLaw,
     readonly depth: number,
-    readonly driver: number | null,
+    readonly driver: LawLike | null,
     readonly shape: number,
     readonly opposing: number,
     readonly shift: number,
@@ -535,17 +567,17 @@ export class RampResponse {
   private readonly solved = new Uint8Array(VT_POINTS);
 
   /**
-   * The grid of devices of index alpha switching in a series stack of `depth` (1 = a single
-   * device), driven by a linear ramp (`driver` null) or by the edge of a gate of index `driver`
+   * The grid of devices of drive law `law` (or a bare alpha) switching in a series stack of `depth`
+   * (1 = a single device), driven by a linear ramp (`driver` null) or by the edge of a gate of law `driver`
    * whose own input transition is DRIVER_INPUTS[shape] (drivenEdge), against an opposing network
    * of grid point `opposing` (2^(opposing - 2) times the pulling one's current) whose threshold
    * sits at grid point `shift` (shiftPosition) from the pulling one's.
    */
-  static of(alpha: number, depth = 1, driver: number | null = null, shape = 0, opposing = 2, shift = SHIFT_CENTRE): RampResponse {
-    const key = `${alpha}/${depth}/${driver}/${driver === null ? 0 : shape}/${opposing}/${shift}`;
+  static of(law: LawLike, depth = 1, driver: LawLike | null = null, shape = 0, opposing = 2, shift = SHIFT_CENTRE): RampResponse {
+    const key = `${lawKey(law)}/${depth}/${driver === null ? null : lawKey(driver)}/${driver === null ? 0 : shape}/${opposing}/${shift}`;
     let table = RampResponse.cache.get(key);
     if (!table) {
-      table = new RampResponse(alpha, depth, driver, shape, opposing, shift, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
+      table = new RampResponse(lawOf(law), depth, driver, shape, opposing, shift, new Float64Array(VT_POINTS * S_POINTS * STRIDE));
       RampResponse.cache.set(key, table);
     }
     return table;
@@ -566,7 +598,7 @@ export class RampResponse {
     const grid = this.grid;
     for (let k = 0; k < S_POINTS; k++) {
       const { delay, crossings, channel, channelDelay, opposed, opposedDelay, kick, kickDelay } = solveEdge(
-        this.alpha,
+        this.law,
         a * VT_STEP,
         gridTransition(k),
         this.depth,

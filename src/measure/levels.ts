@@ -42,6 +42,35 @@ export function modelCrossings(
   return { rise: rise ?? linear.rise, fall: fall ?? linear.fall };
 }
 
+/**
+ * The time from a net's 50 % point to where its rising or falling edge crosses `fraction` of the
+ * swing, s, as the delay model shapes it; null where it cannot (no model shape, a clock source,
+ * an input that does not switch once each way, or a level outside the recorded 5 ... 95 %, which
+ * the caller then takes from the linear ramp).
+ */
+export type EdgeShape = (net: string, rising: boolean, fraction: number) => number | null;
+
+/**
+ * The delay model's edge shapes of a corner's nets. Read while the timing is bound to this
+ * corner: an evaluator that reuses its timing rebinds it for the next.
+ */
+export function modelEdgeShape(index: CycleIndex, netlist: CompiledNetlist, timing: GateTiming): EdgeShape | undefined {
+  if (!timing.crossing) return undefined;
+  return (net, rising, fraction) => {
+    if (!(fraction >= SHAPED_LOW && fraction <= SHAPED_HIGH)) return null;
+    const id = netlist.netIndex.get(net);
+    const g = id === undefined ? -1 : netlist.driver[id]!;
+    if (g < 0) return null;
+    const cycle = index.cycle(net);
+    if (typeof cycle === 'string') return null;
+    return edgeCrossing(g, rising, rising ? cycle.rise : cycle.fall, index, netlist, timing, fraction);
+  };
+}
+
+/** The levels the delay models record an edge's crossings at: 5 % to 95 % of the swing. */
+const SHAPED_LOW = 0.05;
+const SHAPED_HIGH = 0.95;
+
 function edgeCrossing(
   g: number,
   rising: boolean,

@@ -19,6 +19,11 @@ export interface DeviceAtCorner {
   readonly vth: number;
   /** Velocity-saturation index. */
   readonly alpha: number;
+  /**
+   * Drain saturation voltage at full drive over the overdrive (the card's vdsatRatio; alpha - 1,
+   * Toh, Ko and Meyer's velocity-saturation value, when the card gives none).
+   */
+  readonly saturation: number;
   /** Saturation current per metre of width at V_GS = V_DS = V_DD, A/m. */
   readonly idsatPerWidth: number;
   /** Drive constant at this corner and temperature, A/m/V^alpha (current = W * k * overdrive^alpha). */
@@ -134,6 +139,7 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
     type,
     vth,
     alpha: params.alpha,
+    saturation: params.vdsatRatio ?? params.alpha - 1,
     idsatPerWidth: saturationCurrent(driveConstant, params.alpha, corner.vdd - vth),
     driveConstant,
     kprime:

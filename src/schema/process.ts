@@ -12,6 +12,10 @@ export const deviceSchema = z.strictObject({
     .describe('Saturation current per metre of width at 1 V of gate overdrive, A/m/V^alpha (I_D0 = W * drive * (V_DD - Vth)^alpha)'),
   vthTempco: quantity('V', 'Threshold fall per kelvin (V/K), positive: Vth(T) = vth0 - vthTempco * (T - t0)', { atLeast: 0 }),
   mobilityExponent: ratio('Mobility temperature exponent m: drive scales as (T/T0)^-m', { atLeast: 0, atMost: 4 }),
+  vdsatRatio: ratio(
+    'Drain saturation voltage at full drive over the gate overdrive, V_D0/(V_DD - Vth), of the n-th power law (default alpha - 1: velocity saturation)',
+    { above: 0, atMost: 1.5 },
+  ).optional(),
   gamma: z.number().nonnegative().describe('Body-effect coefficient, V^0.5'),
   phi2f: quantity('V', 'Surface potential 2*phiF', { above: 0 }),
   cgate: z.number().positive().describe('Gate capacitance per metre of width at minimum length, F/m'),

@@ -108,6 +108,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
     node,
     window,
     shifterSizes: shifterSizes(resolved),
+    timing: resolved.model.bind(netlist, resolved.loads, devices),
   });
   const lines: string[] = [
     spiceComment(`phasegap testbench: ${design.name} at ${corner.name}`),

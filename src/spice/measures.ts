@@ -9,6 +9,8 @@ import { wrapTime } from '../measure/wrap-time.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 import type { PhaseMeasurement } from '../measure/phases.js';
 import { CycleIndex, GAP_LEVEL } from '../measure/phases.js';
+import { modelEdgeShape } from '../measure/levels.js';
+import type { GateTiming } from '../delay/model.js';
 import type { SimulationResult } from '../sim/engine.js';
 import type { CornerDevices } from '../process/device.js';
 import type { SwitchPlan } from '../switches/plan.js';
@@ -75,6 +77,8 @@ export interface QuantityContext {
   readonly window: DeckWindow;
   /** Sizes of the switches' level shifters (shifter-sizes.ts), so the model's gate edges are the evaluator's. */
   readonly shifterSizes?: ShifterSizes;
+  /** The delay model bound at this corner, so the model's gate edges have the evaluator's shape (modelEdgeShape). */
+  readonly timing?: GateTiming;
 }
 
 export function deckQuantities(ctx: QuantityContext): Quantity[] {
@@ -120,12 +124,13 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
   });
   let k = 0;
   const cycles = new CycleIndex(ctx.result, ctx.netlist);
+  const shape = ctx.timing ? modelEdgeShape(cycles, ctx.netlist, ctx.timing) : undefined;
   ctx.switches.forEach((plan, i) => {
     const sigMin = levelAt(plan.signal.min, vdd);
     const sigMax = levelAt(plan.signal.max, vdd);
     const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
     plan.devices.forEach((device, j) => {
-      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i]));
+      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i]), shape);
       if (typeof wave === 'string') return;
       // A level-shifted gate is the shifter's output.
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);

@@ -5,6 +5,7 @@
  */
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
 import type { CycleIndex, NetCycle } from '../measure/phases.js';
+import type { EdgeShape } from '../measure/levels.js';
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
@@ -62,7 +63,9 @@ export interface GateWave {
 /**
  * The gate ramps of one device of a switch, or why its net has none. `shifter` is its level
  * shifter's timing at this corner (shifter-timing.ts), or a scale of the declared delay and
- * transition (1: as declared, the nominal corner's).
+ * transition (1: as declared, the nominal corner's). A gate driven by its net itself takes the
+ * net's edges as the delay model shapes them (`shape`, modelEdgeShape), a shifter's output the
+ * linear ramp of its delay and transition.
  */
 export function gateWave(
   plan: SwitchPlan,
@@ -70,6 +73,7 @@ export function gateWave(
   cycles: CycleIndex,
   vdd: number,
   shifter: number | ShifterGateTiming = 1,
+  shape?: EdgeShape,
 ): GateWave | string {
   const cycle = cycles.cycle(device.net);
   if (typeof cycle === 'string') return `its gate net ${cycle}`;
@@ -92,6 +96,13 @@ export function gateWave(
   const delay = ls ? ls.delay * scale : 0;
   const riseT = ls?.transition !== undefined ? ls.transition * scale : cycle.riseTransition;
   const fallT = ls?.transition !== undefined ? ls.transition * scale : cycle.fallTransition;
+  if (!ls && shape) {
+    const net = device.net;
+    return {
+      rise: { t50: inRise, transition: riseT, low, high, rising: true, shape: (f) => shape(net, true, f) },
+      fall: { t50: inFall, transition: fallT, low, high, rising: false, shape: (f) => shape(net, false, f) },
+    };
+  }
   return {
     rise: { t50: inRise + delay, transition: invert ? fallT : riseT, low, high, rising: true },
     fall: { t50: inFall + delay, transition: invert ? riseT : fallT, low, high, rising: false },
@@ -158,7 +169,8 @@ export function deviceShifter(
 
 /**
  * `dvth[i]`, if given, shifts the threshold of plan.devices[i] (local mismatch), V; `shifterDvth`
- * the level shifter's pull-down; `shifterSizes[i]` the sizes of device i's shifter (shifter-sizes.ts).
+ * the level shifter's pull-down; `shifterSizes[i]` the sizes of device i's shifter (shifter-sizes.ts);
+ * `shape` the delay model's edge shapes at this corner (without: linear ramps).
  */
 export function switchConduction(
   plan: SwitchPlan,
@@ -167,13 +179,14 @@ export function switchConduction(
   dvth?: ArrayLike<number>,
   shifterDvth = 0,
   shifterSizes?: ReadonlyArray<ShifterSizing | null>,
+  shape?: EdgeShape,
 ): SwitchConduction {
   const vdd = devices.vdd;
   const T = cycles.period;
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth));
+    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth), shape);
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }

@@ -13,7 +13,7 @@ export function bodyThreshold(vt0: number, gamma: number, phi2f: number, vsb: nu
   return vt0 + gamma * (Math.sqrt(phi2f + Math.max(0, vsb)) - Math.sqrt(phi2f));
 }
 
-/** A linear gate ramp between two levels. */
+/** A gate ramp between two levels: linear, unless it carries the shape of its edge. */
 export interface GateRamp {
   /** 50 % time, s. */
   readonly t50: number;
@@ -23,16 +23,24 @@ export interface GateRamp {
   readonly low: number;
   readonly high: number;
   readonly rising: boolean;
+  /**
+   * Time from t50 to where the edge crosses a fraction of its swing, s, as the delay model shapes
+   * the edge (a phase edge's slow triode tail and quicker start); null, or no shape, for the
+   * linear ramp.
+   */
+  readonly shape?: (fraction: number) => number | null;
 }
 
 /**
  * When the ramp passes `level`, s. On a rising ramp that is t50 + tT * ((V - low)/(high - low) - 1/2);
  * on a falling ramp t50 + tT * ((high - V)/(high - low) - 1/2) (derived from the linear ramp;
  * for an nmos opening on a V_DD -> 0 ramp this is (1/2 - (V_S + V_TN)/V_DD) * t_f after 50 %).
- * Only valid for low < level < high.
+ * A ramp with a shape takes the shape's time where it gives one. Only valid for low < level < high.
  */
 export function rampCrossing(ramp: GateRamp, level: number): number {
   const fraction = (level - ramp.low) / (ramp.high - ramp.low);
+  const shaped = ramp.shape ? ramp.shape(fraction) : null;
+  if (shaped !== null) return ramp.t50 + shaped;
   return ramp.t50 + ramp.transition * ((ramp.rising ? fraction : 1 - fraction) - 0.5);
 }
 

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import {
   DRIVER_INPUTS,
+  driveLaw,
   driverPosition,
   drivenEdge,
   meyerDrain,
@@ -22,6 +23,27 @@ describe('solveEdge', () => {
   it('gives (1 - d0) + (d0/2) ln(4 d0 - 1) for a step input at the square law (derived)', () => {
     const d0 = 0.75;
     expectClose(solveEdge(2, 0.25, 0).delay, 1 - d0 + (d0 / 2) * Math.log(4 * d0 - 1), 1e-5); // the solver's step error
+  });
+
+  // The same integral with the saturation voltage as its own parameter (the n-th power law's V_D0,
+  // here 0.9 of the overdrive at alpha 1.6 instead of alpha - 1 = 0.6): saturated from 1 down to
+  // d0 = 0.9 (1 - v_T), then from d0 to level v the triode form gives (d0/2) ln(d0 (2 - v/d0) / v)
+  // (derived by hand), for the 50 % point and the 10 % point alike.
+  it("follows a card's own saturation voltage: a step's 50 % and 10 % times from the triode integral", () => {
+    const vT = 0.25;
+    const d0 = 0.9 * (1 - vT);
+    const at = (v: number) => 1 - d0 + (d0 / 2) * Math.log((2 - v / d0) / (v / d0));
+    const edge = solveEdge(driveLaw(1.6, 0.9), vT, 0);
+    expectClose(edge.delay, at(0.5), 1e-4);
+    expectClose(edge.delay + edge.crossings[17]!, at(0.1), 1e-4);
+    // Toh, Ko and Meyer's default, alpha - 1, leaves the triode tail shorter
+    const byDefault = solveEdge(1.6, vT, 0);
+    expectClose(
+      byDefault.delay + byDefault.crossings[17]!,
+      1 - 0.6 * (1 - vT) + ((0.6 * (1 - vT)) / 2) * Math.log((2 - 0.1 / (0.6 * (1 - vT))) / (0.1 / (0.6 * (1 - vT)))),
+      1e-4,
+    );
+    expect(byDefault.crossings[17]!).toBeLessThan(edge.crossings[17]!);
   });
 
   it('reduces to the 1990 closed form for a fast input with the output saturated at 50 %', () => {
@@ -97,6 +119,11 @@ describe('RampResponse', () => {
     expect(RampResponse.of(2, 1, null, 3)).toBe(grid);
     expect(RampResponse.of(2, 1, 1.3, 1)).not.toBe(RampResponse.of(2, 1, 1.3, 2));
     expect(RampResponse.of(2, 1, 1.3, 1).driver).toBe(1.3);
+    // a bare alpha is its law with the default saturation voltage; another saturation voltage is another grid
+    expect(RampResponse.of(driveLaw(2))).toBe(grid);
+    expect(RampResponse.of(driveLaw(2, 0.8))).not.toBe(grid);
+    expect(RampResponse.of(driveLaw(2, 0.8)).law.saturation).toBe(0.8);
+    expect(RampResponse.of(2, 1, driveLaw(1.3, 0.9), 1)).not.toBe(RampResponse.of(2, 1, 1.3, 1));
     expect(RampResponse.of(2, 1, null, 0, 2, shiftPosition(0))).toBe(grid);
     expect(RampResponse.of(2, 1, null, 0, 2, 4)).not.toBe(grid);
     expect(RampResponse.of(2, 1, null, 0, 2, 4).shift).toBe(4);
