@@ -2,6 +2,9 @@ import { describe, it, expect } from 'vitest';
 import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { handoverGap, handoverPath } from '../../src/checks/switch-checks.js';
 import type { SwitchConduction } from '../../src/switches/conduction.js';
+import { modelCrossings } from '../../src/measure/levels.js';
+import { CycleIndex } from '../../src/measure/phases.js';
+import { devicesAtCorner } from '../../src/process/device.js';
 import { cli, design as demoDesign, expectClose, resolveYaml } from '../helpers.js';
 
 const design = (constraints: string, guard = '0') => `
@@ -25,26 +28,36 @@ function run(text: string) {
 
 describe('break-before-make', () => {
   it("equals the 50 % dead time minus both switches' crossing offsets (hand case)", () => {
-    const r = run(design('  breakBeforeMake: [{ between: [a, b] }]', '25ps'));
+    const resolved = resolveYaml(design('  breakBeforeMake: [{ between: [a, b] }]', '25ps'));
+    const corner = resolved.corners[0]!.corner;
+    const r = evaluateCorner(resolved, corner);
     const m = r.measurement;
     if (!m.ok) throw new Error(m.reason);
     // Two nmos switches passing 0 V with no body effect open and close at V_G = V_TN = 0.45 V
-    // (generic180, tt/27C). On a linear ramp of time t_T that is (1/2 - V_TN/V_DD)*t_T from 50 %:
-    // a turns off that much after p1's 50 % fall, b turns on that much before p2's 50 % rise, so
-    // margin = dead - (1/2 - 0.45/1.8) * (t_fall(p1) + t_rise(p2)) - guard, at each handover.
-    const offset = 0.5 - 0.45 / 1.8;
+    // (generic180, tt/27C), 0.45/1.8 = 25 % of the swing. Each gate net's edge crosses that level
+    // where the delay model's edge shape puts it (modelCrossings, the same shape the gap level's
+    // crossings take), not on a linear ramp: a turns off that long after p1's 50 % fall, b turns
+    // on that long before p2's 50 % rise, so margin = dead - (off offset + on offset) - guard, at
+    // each handover.
+    const { netlist, loads, model } = resolved;
+    const timing = model.bind(netlist, loads, devicesAtCorner(resolved.card, corner));
+    const index = new CycleIndex(r.simulation, netlist);
+    const c1 = modelCrossings(m.cycles.p1!, index, netlist, timing, 0.45 / 1.8);
+    const c2 = modelCrossings(m.cycles.p2!, index, netlist, timing, 0.45 / 1.8);
+    const offsets12 = c1.fall - c2.rise;
+    const offsets21 = c2.fall - c1.rise;
     const [d12, d21] = m.deadTimes;
-    const expected12 = d12.t50 - offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition) - 25e-12;
-    const expected21 = d21.t50 - offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition) - 25e-12;
-    // The model's switch-instant error (7.4 % of each handover's path on generic180) comes off each
+    const expected12 = d12.t50 - offsets12 - 25e-12;
+    const expected21 = d21.t50 - offsets21 - 25e-12;
+    // The model's switch-instant error (6.7 % of each handover's path on generic180) comes off each
     // handover; the path is the dead time plus both crossing offsets.
-    const path12 = d12.t50 + offset * (m.cycles.p1!.fallTransition + m.cycles.p2!.riseTransition);
-    const path21 = d21.t50 + offset * (m.cycles.p2!.fallTransition + m.cycles.p1!.riseTransition);
+    const path12 = d12.t50 + offsets12;
+    const path21 = d21.t50 + offsets21;
     const [a, b] = r.switches;
     expectClose(handoverPath(a!, b!, 50e-9), path12, 1e-15, 'abs');
     expectClose(handoverPath(b!, a!, 50e-9), path21, 1e-15, 'abs');
     const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
-    expectClose(bbm.margin!, Math.min(expected12 - 0.074 * path12, expected21 - 0.074 * path21), 1e-15, 'abs');
+    expectClose(bbm.margin!, Math.min(expected12 - 0.067 * path12, expected21 - 0.067 * path21), 1e-15, 'abs');
     expect(bbm.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
   });
 
@@ -166,9 +179,9 @@ describe('switchChecks: subjects and parts', () => {
         { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } },
       ],
     });
-    // Each part needs the guard plus the model's switch-instant error on its path (7.4 % on generic180).
-    const errAb = 0.074 * handoverPath(a, b, period);
-    const errBa = 0.074 * handoverPath(b, a, period);
+    // Each part needs the guard plus the model's switch-instant error on its path (6.7 % on generic180).
+    const errAb = 0.067 * handoverPath(a, b, period);
+    const errBa = 0.067 * handoverPath(b, a, period);
     expect(bbm.parts).toEqual([
       { margin: handoverGap(a, b, period) - errAb - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 + errAb },
       { margin: handoverGap(b, a, period) - errBa - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 + errBa },

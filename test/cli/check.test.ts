@@ -129,13 +129,14 @@ describe('phasegap check exit codes', () => {
     expect(json.limiting!.margin).toBeLessThan(0);
     expect(json.limiting!.corner).toBe('sf/1.62V/125C');
     const passing = json.corners.filter((c) => c.verdict === 'pass').map((c) => c.name);
-    // Every slow-n corner (ss, fs) below 125 C, tt cold or at the low supply, and ff at the low supply
-    // and cold keep enough handover beside the error band (7.6 % of the handover's path,
-    // src/switches/instant-band.ts; measured): 17 pass, 28 fail, none at 125 C and no sf corner.
+    // Every slow-n corner (ss, fs) below 125 C, tt cold, at the low supply or at 1.8V/27C (by 0.02 ps), and ff
+    // at the low supply and cold keep enough handover beside the error band (6.7 % of the handover's path,
+    // src/switches/instant-band.ts; measured): 18 pass, 27 fail, none at 125 C and no sf corner.
     expect(passing).toEqual([
       'tt/1.62V/-40C',
       'tt/1.62V/27C',
       'tt/1.8V/-40C',
+      'tt/1.8V/27C',
       'tt/1.98V/-40C',
       'ss/1.62V/-40C',
       'ss/1.62V/27C',
@@ -332,7 +333,7 @@ describe('phasegap check verdict headline and --junit', () => {
     expect(run.code).toBe(1);
     expect(run.stdout.split('\n').slice(0, 3)).toEqual([
       'verdict: FAIL (fails: corner checks)',
-      '  corner checks: FAIL: 17 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
+      '  corner checks: FAIL: 18 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
       '  not run here: Monte Carlo yield, simulator agreement',
     ]);
     const xml = readFileSync(file, 'utf8');
@@ -357,9 +358,10 @@ describe('phasegap check on the unboosted pump at all 45 corners', () => {
     expect(report.corners).toHaveLength(45);
     for (const c of report.corners) {
       const vdd = Number(/\/([\d.]+)V\//.exec(c.name)![1]);
-      // output minimum 1.75 VDD; with the ideal 50 uA load the output keeps falling, 25 mV a period (2.5 pC on 100 pF): no periodic steady state
+      // output minimum 1.75 VDD; with the ideal 50 uA load the output keeps falling, 25 mV a period (2.5 pC on 100 pF): no periodic
+      // steady state. The output printed is where the solver stopped (-5.5 V at 44 corners, 2.0 V at ff/1.62V/27C, where the first
+      // round gave up), below the minimum either way.
       expect(c.circuit.method, c.name).toBe('none');
-      expect(c.circuit.output, c.name).toBeLessThan(0);
       expect(c.circuit.output, c.name).toBeLessThan(1.75 * vdd);
       expect(c.checks.find((k) => k.kind === 'output-min')!.pass, c.name).toBe(false);
     }

@@ -11,7 +11,9 @@ import {
 import { loadProcess } from '../../src/cli/load.js';
 import { InputError } from '../../src/errors.js';
 import type { Corner } from '../../src/process/corner.js';
-import { expectClose, processCard } from '../helpers.js';
+import { expectClose, inputIssues, processCard } from '../helpers.js';
+import { parseWith } from '../../src/schema/validate.js';
+import { processSchema } from '../../src/schema/process.js';
 
 const card = loadProcess(processCard('generic180'));
 const at = (process: string, vdd: number, temperature: number): Corner => ({
@@ -74,23 +76,23 @@ describe('saturationCurrent', () => {
 });
 
 describe('deviceAtCorner', () => {
-  it('matches the card comment at tt/1.8V/27C: about 441 uA/um for n and 204 uA/um for p', () => {
-    // ln 1.35 = 0.300105: 274 * 1.35^1.586 = 274 * exp(0.475966) = 274 * 1.609568 = 441.022 A/m;
-    // 124 * 1.35^1.659 = 124 * exp(0.497874) = 124 * 1.645219 = 204.007 A/m (by hand).
+  it('matches the card comment at tt/1.8V/27C: about 474 uA/um for n and 219 uA/um for p', () => {
+    // ln 1.35 = 0.300105: 294.7 * 1.35^1.586 = 294.7 * exp(0.475966) = 294.7 * 1.609568 = 474.340 A/m;
+    // 133.3 * 1.35^1.659 = 133.3 * exp(0.497874) = 133.3 * 1.645219 = 219.308 A/m (by hand).
     const tt = devicesAtCorner(card, at('tt', 1.8, 27));
-    expectClose(tt.n.idsatPerWidth, 441.022, 1e-5);
-    expectClose(tt.p.idsatPerWidth, 204.007, 1e-5);
+    expectClose(tt.n.idsatPerWidth, 474.34, 1e-5);
+    expectClose(tt.p.idsatPerWidth, 219.308, 1e-5);
     expect(tt.n.vth).toBe(0.45);
     expect(tt.vdd).toBe(1.8);
   });
 
   it('combines the corner drive, mobility and threshold at ss/1.62V/125C', () => {
-    // Vth = 0.35712 V; K = 274 * 0.85 * 0.630580 = 146.862; I = K * (1.62 - 0.35712)^1.586
-    // = 146.862 * exp(1.586 * 0.233395) = 146.862 * 1.447972 = 212.652 A/m (by hand).
+    // Vth = 0.35712 V; K = 294.7 * 0.85 * 0.630580 = 157.957; I = K * (1.62 - 0.35712)^1.586
+    // = 157.957 * exp(1.586 * 0.233395) = 157.957 * 1.447972 = 228.717 A/m (by hand).
     const n = deviceAtCorner(card, 'n', at('ss', 1.62, 125));
     expectClose(n.vth, 0.35712, 1e-12);
-    expectClose(n.driveConstant, 274 * 0.85 * 0.6305796285, 1e-8);
-    expectClose(n.idsatPerWidth, 212.652, 1e-5);
+    expectClose(n.driveConstant, 294.7 * 0.85 * 0.6305796285, 1e-8);
+    expectClose(n.idsatPerWidth, 228.717, 1e-5);
   });
 
   it('shifts n and p separately at the skewed corners', () => {
@@ -153,11 +155,11 @@ describe('shiftFactor', () => {
 
 describe('derivedTheta', () => {
   // By hand for generic180's n device without its theta: V_ov = 1.8 - 0.45 = 1.35 V; square law
-  // (194.6e-6 / 2 / 0.18e-6) * 1.35^2 = 985.2 A/m; alpha-power 274 * 1.35^1.586 = 441.0 A/m;
-  // theta = (985.2 / 441.0 - 1) / 1.35 = 0.914 /V, above the model file's 0.55 (it folds in velocity saturation).
-  it("gives 0.91 /V for generic180 n, more than its transistor model's THETA of 0.55 (so R_on errs high)", () => {
+  // (194.6e-6 / 2 / 0.18e-6) * 1.35^2 = 985.2 A/m; alpha-power 294.7 * 1.35^1.586 = 474.3 A/m;
+  // theta = (985.2 / 474.3 - 1) / 1.35 = 0.798 /V, above the model file's 0.55 (it folds in velocity saturation).
+  it("gives 0.80 /V for generic180 n, more than its transistor model's THETA of 0.55 (so R_on errs high)", () => {
     const { theta: _omit, ...n } = card.n;
-    expectClose(derivedTheta({ ...card, n }, 'n'), 0.914, 2e-3);
+    expectClose(derivedTheta({ ...card, n }, 'n'), 0.798, 2e-3);
   });
 
   it("is what deviceAtCorner uses when the card gives no theta, and the card's value otherwise", () => {
@@ -165,5 +167,25 @@ describe('derivedTheta', () => {
     const corner = { name: 'tt', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
     expect(deviceAtCorner({ ...card, n }, 'n', corner).theta).toBe(derivedTheta({ ...card, n }, 'n'));
     expect(deviceAtCorner(card, 'n', corner).theta).toBe(0.55);
+  });
+});
+
+describe('the drain saturation voltage a card states (vdsatRatio)', () => {
+  const tt: Corner = { name: 'tt/1.8V/27C', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 };
+
+  it("takes the card's ratio, and alpha - 1 (velocity saturation) where the card gives none", () => {
+    // generic180 states its level-3 model file's V_Dsat over the overdrive at 1.8 V, 27 C (card comment: 1.190 V / 1.35 V)
+    expect(deviceAtCorner(card, 'n', tt).saturation).toBe(0.881);
+    expect(deviceAtCorner(card, 'p', tt).saturation).toBe(0.893);
+    const { vdsatRatio: _n, ...n } = card.n;
+    const without = { ...card, n };
+    expectClose(deviceAtCorner(without, 'n', tt).saturation, card.n.alpha - 1, 1e-12);
+  });
+
+  it('refuses a ratio of zero or above 1.5, naming the field', () => {
+    for (const bad of [0, 1.6]) {
+      const issues = inputIssues(() => parseWith(processSchema, { ...card, n: { ...card.n, vdsatRatio: bad } }));
+      expect(issues.map((i) => [i.code, i.path.join('.')])).toEqual([['value.out-of-range', 'n.vdsatRatio']]);
+    }
   });
 });

@@ -47,7 +47,7 @@ describe('renderTuneText', () => {
     expect(text).toMatch(/longest useful conduction time first/);
     expect(text).toMatch(/ {2}fast-corner margin +slow-corner dead time +waste +least conduction\n/);
     expect(text).toMatch(
-      /proposal 1 +\+\d{3} ps at ff\/1\.98V\/-40C +2\.\d\d ns at ss\/1\.62V\/125C +1\.\d\d ns +2\d\.\d ns at ss\/1\.62V\/125C\n/,
+      /proposal 1 +\+\d\d\.\d ps at ff\/1\.98V\/-40C +1\.\d\d ns at ss\/1\.62V\/125C +1\.\d\d ns +2\d\.\d ns at ss\/1\.62V\/125C\n/,
     );
     expect(text).toMatch(
       /Monte Carlo yield at each proposal's limiting corners \(200 dies each, 95 % Wilson interval; at least 99\.73 % required\):/,
