@@ -38,6 +38,7 @@ import {
   type DriveLaw,
   driveLaw,
   driverPosition,
+  lawKey,
   OPPOSING_POINTS,
   opposingPosition,
   RampResponse,
@@ -224,7 +225,7 @@ function responseSet(law: DriveLaw, depth: number, driver: DriveLaw | null, shap
 const pinResponses = new Map<string, RampResponse[][][]>();
 
 function pinShapes(law: DriveLaw, depth: number, driver: DriveLaw | null): RampResponse[][][] {
-  const key = `${law.alpha}:${law.saturation}/${depth}/${driver === null ? null : `${driver.alpha}:${driver.saturation}`}`;
+  const key = `${lawKey(law)}/${depth}/${driver === null ? null : lawKey(driver)}`;
   let sets = pinResponses.get(key);
   if (!sets) {
     sets = driver === null ? [responseSet(law, depth, null, 0)] : DRIVER_INPUTS.map((_, j) => responseSet(law, depth, driver, j));

@@ -48,7 +48,8 @@ function lawOf(law: LawLike): DriveLaw {
   return typeof law === 'number' ? driveLaw(law) : law;
 }
 
-function lawKey(law: LawLike): string {
+/** A law's key in the caches of solved grids: its alpha and saturation voltage. */
+export function lawKey(law: LawLike): string {
   const { alpha, saturation } = lawOf(law);
   return `${alpha}:${saturation}`;
 }
