@@ -6,20 +6,21 @@
  * Every internal node is charged once and discharged once, C V^2: the complement inverter's and the
  * skewed buffer's nodes over the core supply, both latch nodes over the latch's span (0 to the high
  * level up, the low level to VDD down), the output with the gate over high - low, whose charge
- * returns to the low level's supply. On top comes the crowbar charge of the two latch flips: while a
- * pull device fights the cross-coupled latch device, that device, fully on, conducts across the
- * span while the latch node moves and the other side follows (C V^2 per node and the crowbar
- * charge: common practice, e.g. J. M. Rabaey et al., Digital Integrated Circuits, 2nd ed., on
- * dynamic and short-circuit power, from memory). The three inverters of the front (the complement,
+ * returns to the low level's supply. On top comes the crowbar charge of the two latch flips: what
+ * the fought latch device conducts across the span while the pull device raises its node and the
+ * other side follows, integrated in time (latch-flip.ts; C V^2 per node and the crowbar charge:
+ * common practice, e.g. J. M. Rabaey et al., Digital Integrated Circuits, 2nd ed., on dynamic and
+ * short-circuit power, from memory). The three inverters of the front (the complement,
  * the skewed buffer's two stages) add their short-circuit charge and their input-to-output overlap
  * while their inputs ramp (process/gate-edge.ts), the first two from the shifter's input ramp, the
  * last from the buffer's middle node as the first stage drives it. The input is copied by an ideal
  * source in the deck and draws nothing here.
  */
-import { saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
-import { gateEdge, overlapPerWidth, type GateEdges } from '../process/gate-edge.js';
+import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
+import { gateEdge, overlapPerWidth, type GateDevice, type GateEdges } from '../process/gate-edge.js';
 import { levelAt } from '../schema/level.js';
 import type { DownShifterSizing } from './down-shifter-sizing.js';
+import { flipCrowbarCharge } from './latch-flip.js';
 import type { SwitchPlan } from './plan.js';
 import type { ShifterSizing } from './shifter-sizing.js';
 
@@ -40,9 +41,7 @@ export interface ShifterEnergy {
   readonly total: number;
 }
 
-const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
-
-/** One shifter in the terms both topologies share: node capacitances (F), fight currents (A), levels (V). */
+/** One shifter in the terms both topologies share: node capacitances (F), the fighting devices, levels (V). */
 interface LatchShifter {
   /** Complement, skewed-buffer middle and set-drive nodes, each over the core supply. */
   readonly coreNodes: number;
@@ -50,9 +49,10 @@ interface LatchShifter {
   readonly side: number;
   readonly setNode: number;
   readonly output: number;
-  /** A pull device's current at its full gate drive, and the latch device's it fights. */
-  readonly pull: number;
-  readonly latch: number;
+  /** A pull device with its gate drive when on, and a latch device. */
+  readonly pull: GateDevice;
+  readonly pullDrive: number;
+  readonly latch: GateDevice;
   /** Swing of the latch nodes and of the output, V. */
   readonly span: number;
   readonly swing: number;
@@ -61,11 +61,10 @@ interface LatchShifter {
 
 function latchShifterEnergy(s: LatchShifter, front: number): ShifterEnergy {
   const { span } = s;
-  const fall = (node: number) => (s.pull > s.latch ? (node * span) / (s.pull - s.latch) : 0);
-  // Each flip: the fought latch device at full current while its node moves, then on average at
-  // half while the other side's latch device moves the other node and turns it off (that half
-  // charge is half the other node's C V, whatever the currents).
-  const crowbar = (s.latch * (fall(s.setNode) + fall(s.side)) + 0.5 * (s.side + s.setNode) * span) * span;
+  const injection = (s.pull.device.params.cgate / 2) * s.pull.w;
+  const flip = (node: number, other: number) =>
+    flipCrowbarCharge({ pull: s.pull, pullDrive: s.pullDrive, latch: s.latch, span, node, other, injection });
+  const crowbar = (flip(s.setNode, s.side) + flip(s.side, s.setNode)) * span;
   const core = s.coreNodes * s.vdd * s.vdd;
   const latch = (s.side + s.setNode) * span * span;
   const output = s.output * s.swing * s.swing;
@@ -122,11 +121,10 @@ function frontEnergy(
 interface Mirror {
   readonly pull: DeviceAtCorner;
   readonly latch: DeviceAtCorner;
-  /** Widths of a pull device and of a latch device, unit widths. */
+  /** Widths of a pull device and of a latch device, m. */
   readonly pullWidth: number;
   readonly latchWidth: number;
-  /** A latch device's gate drive when fully on, V. */
-  readonly latchDrive: number;
+  /** Latch swing, V, which is also a latch device's gate drive when fully on. */
   readonly span: number;
   readonly swing: number;
 }
@@ -139,20 +137,26 @@ function mirrorEnergy(
   input: number,
 ): ShifterEnergy {
   const { n, p, vdd } = devices;
-  const side = m.pull.cdrain * m.pullWidth + (m.latch.cdrain + m.latch.cgate) * m.latchWidth + size.latchCap;
+  // Drains carry their junction (cdrain) and their gate-drain overlap, whose gate holds still
+  // while the drain swings (the card's cdrain is the junction alone).
+  const drain = (d: DeviceAtCorner) => d.cdrain + overlapPerWidth(d.params);
+  const side = drain(m.pull) * m.pullWidth + (drain(m.latch) + m.latch.cgate) * m.latchWidth + size.latchCap;
   return latchShifterEnergy(
     {
       coreNodes: coreNodes(devices, size, m.pull.cgate * m.pullWidth),
       side,
       setNode: side + n.cgate * size.outputN + p.cgate * size.outputP,
-      output: load + n.cdrain * size.outputN + p.cdrain * size.outputP,
-      pull: current(m.pull, vdd) * m.pullWidth,
-      latch: current(m.latch, m.latchDrive) * m.latchWidth,
+      output: load + drain(n) * size.outputN + drain(p) * size.outputP,
+      pull: { device: m.pull, w: m.pullWidth, l: devices.card.lmin },
+      pullDrive: vdd,
+      latch: { device: m.latch, w: m.latchWidth, l: devices.card.lmin },
       span: m.span,
       swing: m.swing,
       vdd,
     },
-    frontEnergy(devices, size, m.pull.cgate * m.pullWidth, input),
+    // A pull device's gate-drain overlap sees its drain swing the span against its gate's VDD, so
+    // the front pays that charge from VDD on top of the gate's C V^2, once per pull device a period.
+    frontEnergy(devices, size, m.pull.cgate * m.pullWidth, input) + 2 * overlapPerWidth(m.pull.params) * m.pullWidth * m.span * vdd,
   );
 }
 
@@ -165,7 +169,7 @@ export function shifterEnergy(ls: Shifter, size: ShifterSizing, load: number, de
   const high = levelAt(ls.high, vdd);
   const swing = Math.abs(high - levelAt(ls.low, vdd));
   return mirrorEnergy(
-    { pull: n, latch: p, pullWidth: size.pullDown, latchWidth: size.latchP, latchDrive: high, span: high, swing },
+    { pull: n, latch: p, pullWidth: size.pullDown, latchWidth: size.latchP, span: high, swing },
     size,
     load,
     devices,
@@ -189,7 +193,7 @@ export function downShifterEnergy(
   const low = levelAt(ls.low, vdd);
   const swing = Math.abs(levelAt(ls.high, vdd) - low);
   return mirrorEnergy(
-    { pull: p, latch: n, pullWidth: size.pullUp, latchWidth: size.latchN, latchDrive: vdd - low, span: vdd - low, swing },
+    { pull: p, latch: n, pullWidth: size.pullUp, latchWidth: size.latchN, span: vdd - low, swing },
     size,
     load,
     devices,
