@@ -7,6 +7,7 @@
 import { greatest, least as d3least } from 'd3-array';
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
+import { resultEdgeShape } from '../analysis/edge-shape.js';
 import type { SwitchConduction } from '../switches/conduction.js';
 import { signalRows, type NetChoice, type SignalRow } from './rows.js';
 import { netWave, type NetWave } from './waveform.js';
@@ -169,10 +170,15 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
     .map((r) => ({ corner: r.corner.name, reason: r.measurement.ok ? '' : r.measurement.reason }));
   const refResult = results[refIndex]!;
   const reference = refResult.measurement.ok ? refResult : (measured[0] ?? refResult);
+  // Edges drawn as the delay model shapes them, where the switch instants are read.
+  const drawn = measured.length > 0 ? measured : [reference];
+  const shapes = new Map(drawn.map((r) => [r, resultEdgeShape(resolved, r)]));
+  const shapeOf = (r: CornerResult) => (shapes.has(r) ? shapes.get(r) : resultEdgeShape(resolved, r));
+  const referenceShape = shapeOf(reference);
   const rows: DiagramRow[] = signalRows(netlist, nets).map((row) => ({
     ...row,
-    waves: (measured.length > 0 ? measured : [reference]).map((r) => ({ corner: r.corner.name, wave: netWave(r, netlist, row.net) })),
-    reference: netWave(reference, netlist, row.net),
+    waves: drawn.map((r) => ({ corner: r.corner.name, wave: netWave(r, netlist, row.net, shapes.get(r)) })),
+    reference: netWave(reference, netlist, row.net, referenceShape),
   }));
   const switches = switchRows(resolved, measured, reference);
   const deadTimes = deadTimeMarks(measured, choice.kind === 'corner');

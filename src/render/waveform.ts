@@ -1,10 +1,13 @@
 /**
  * A corner's simulated edges as drawable ramps: per net, the level at the start of the reported
- * period and its transitions as linear ramps (50 % time, full-swing transition time). Times are
+ * period and its transitions as linear ramps (50 % time, full-swing transition time), or, where the
+ * delay model shapes the net's edges, as that shape: the times its edge crosses 5 %, 10 %, ...,
+ * 95 % of the swing, so a switch instant read off the shaped edge sits on the drawn line. Times are
  * relative to the start of the reported period (a clock rising edge). The period repeats, so a
  * waveform can be sampled over any time range.
  */
 import type { CornerResult } from '../analysis/evaluate.js';
+import type { EdgeShape } from '../measure/levels.js';
 import type { CompiledNetlist } from '../netlist/netlist.js';
 
 export interface Ramp {
@@ -13,6 +16,11 @@ export interface Ramp {
   /** Full-swing transition time, s. */
   readonly transition: number;
   readonly rising: boolean;
+  /**
+   * The edge as the delay model shapes it, in time order: (time from t50, s; level) from one rail
+   * to the other. Absent: the linear ramp.
+   */
+  readonly shape?: readonly WavePoint[];
 }
 
 export interface NetWave {
@@ -28,17 +36,44 @@ export interface NetWave {
 /** A vertex of a waveform: time, s, and level as a fraction of the swing (0 low, 1 high). */
 export type WavePoint = readonly [number, number];
 
-export function netWave(result: CornerResult, netlist: CompiledNetlist, net: string): NetWave {
+export function netWave(result: CornerResult, netlist: CompiledNetlist, net: string, edgeShape?: EdgeShape): NetWave {
   const id = netlist.netIndex.get(net);
   if (id === undefined) throw new Error(`internal: ${net} is not a net of the netlist`);
   const sim = result.simulation;
   const ramps: Ramp[] = [];
+  const rise = edgeShape ? shapeOf(edgeShape, net, true) : undefined;
+  const fall = edgeShape ? shapeOf(edgeShape, net, false) : undefined;
   for (let i = 0; i < sim.edges.count; i++) {
     if (sim.edges.net[i] !== id) continue;
-    ramps.push({ t50: sim.edges.time[i]! - sim.windowStart, transition: sim.edges.transition[i]!, rising: sim.edges.rising[i] === 1 });
+    const rising = sim.edges.rising[i] === 1;
+    const shape = rising ? rise : fall;
+    const ramp = { t50: sim.edges.time[i]! - sim.windowStart, transition: sim.edges.transition[i]!, rising };
+    ramps.push(shape ? { ...ramp, shape } : ramp);
   }
   ramps.sort((a, b) => a.t50 - b.t50);
   return { net, period: sim.period, initial: sim.startValues[id] === 1 ? 1 : 0, ramps };
+}
+
+/** Levels an edge shape is drawn through: 5 %, 10 %, ..., 95 % of the swing. */
+const SHAPE_LEVELS = Array.from({ length: 19 }, (_, k) => (k + 1) / 20);
+
+/**
+ * A net's shaped edge from rail to rail, times from its 50 % point, or undefined where the model
+ * gives no shape or a shape that does not move one way: the 5 % to 95 % crossings, and each rail
+ * reached where the line through the last two crossings meets it.
+ */
+function shapeOf(edgeShape: EdgeShape, net: string, rising: boolean): WavePoint[] | undefined {
+  const points: WavePoint[] = [];
+  for (const level of SHAPE_LEVELS) {
+    const t = edgeShape(net, rising, level);
+    if (t === null || !Number.isFinite(t)) return undefined;
+    points.push([t, level]);
+  }
+  if (!rising) points.reverse();
+  for (let k = 1; k < points.length; k++) if (!(points[k]![0] > points[k - 1]![0])) return undefined;
+  const extend = (a: WavePoint, b: WavePoint, level: number): WavePoint => [b[0] + ((level - b[1]) * (b[0] - a[0])) / (b[1] - a[1]), level];
+  const n = points.length;
+  return [extend(points[1]!, points[0]!, rising ? 0 : 1), ...points, extend(points[n - 2]!, points[n - 1]!, rising ? 1 : 0)];
 }
 
 /**
@@ -87,14 +122,27 @@ export function wavePoints(wave: NetWave, from: number, to: number): WavePoint[]
       [from, wave.initial],
       [to, wave.initial],
     ];
-  let start: WavePoint = [ramps[0]!.t50 - ramps[0]!.transition / 2, ramps[0]!.rising ? 0 : 1];
+  // A shaped edge is drawn as shaped where it keeps clear of its neighbours, else as its ramp.
+  const shaped = ramps.map((r, i) => {
+    if (!r.shape) return false;
+    const prev = ramps[i - 1];
+    const next = ramps[i + 1];
+    return (!prev || latestEnd(prev) <= startOf(r, true)) && (!next || endOf(r, true) <= earliestStart(next));
+  });
+  let start: WavePoint = [startOf(ramps[0]!, shaped[0]!), ramps[0]!.rising ? 0 : 1];
   raw.push([-Infinity, start[1]]);
   for (let i = 0; i < ramps.length; i++) {
     const r = ramps[i]!;
     const next = ramps[i + 1];
-    const end: WavePoint = [r.t50 + r.transition / 2, r.rising ? 1 : 0];
+    const level = r.rising ? 1 : 0;
+    if (shaped[i]) {
+      for (const [dt, v] of r.shape!) raw.push([r.t50 + dt, v]);
+      if (next) start = [startOf(next, shaped[i + 1]!), level];
+      continue;
+    }
+    const end: WavePoint = [endOf(r, false), level];
     raw.push(start);
-    if (next && next.t50 - next.transition / 2 < end[0]) {
+    if (next && !shaped[i + 1] && startOf(next, false) < end[0]) {
       // The lines of r and next cross; r stops there and next starts from there.
       const slope = (r.rising ? 1 : -1) / r.transition - (next.rising ? 1 : -1) / next.transition;
       const cross = slope === 0 ? end[0] : Math.max(start[0], r.t50 + (line(next, r.t50) - 0.5) / slope);
@@ -102,11 +150,29 @@ export function wavePoints(wave: NetWave, from: number, to: number): WavePoint[]
       start = meet;
     } else {
       raw.push(end);
-      if (next) start = [next.t50 - next.transition / 2, end[1]];
+      if (next) start = [startOf(next, shaped[i + 1]!), level];
     }
   }
   raw.push([Infinity, raw[raw.length - 1]![1]]);
   return clip(raw, from, to);
+}
+
+/** Where a ramp leaves its rail and where it reaches the other, drawn shaped or as its line, s. */
+function startOf(r: Ramp, shaped: boolean): number {
+  return shaped && r.shape ? r.t50 + r.shape[0]![0] : r.t50 - r.transition / 2;
+}
+
+function endOf(r: Ramp, shaped: boolean): number {
+  return shaped && r.shape ? r.t50 + r.shape[r.shape.length - 1]![0] : r.t50 + r.transition / 2;
+}
+
+/** The widest a neighbour may reach, either way it is drawn. */
+function earliestStart(r: Ramp): number {
+  return Math.min(startOf(r, false), startOf(r, true));
+}
+
+function latestEnd(r: Ramp): number {
+  return Math.max(endOf(r, false), endOf(r, true));
 }
 
 /** Cuts a polyline (increasing times, infinite ends) to [from, to], interpolating at the cuts. */

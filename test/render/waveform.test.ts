@@ -62,6 +62,43 @@ describe('wavePoints', () => {
     expect(pts[3]![1]).toBe(0);
   });
 
+  it("draws a shaped edge through its model crossings, rail to rail, and its neighbours' ramps as before", () => {
+    // A rising edge whose 10 % point comes 100 ps before its 50 % point and whose 90 % point 300 ps
+    // after it (a slow tail), as the delay model shapes it.
+    const shape: Array<[number, number]> = [
+      [-150e-12, 0],
+      [-100e-12, 0.1],
+      [0, 0.5],
+      [300e-12, 0.9],
+      [450e-12, 1],
+    ];
+    const shaped: NetWave = { ...square, ramps: [{ ...square.ramps[0]!, shape }, square.ramps[1]!] };
+    const pts = wavePoints(shaped, 0, T);
+    expect(pts).toEqual(
+      [
+        [0, 0],
+        [1.85e-9, 0],
+        [1.9e-9, 0.1],
+        [2e-9, 0.5],
+        [2.3e-9, 0.9],
+        [2.45e-9, 1],
+        [5.8e-9, 1],
+        [6.2e-9, 0],
+        [T, 0],
+      ].map(([t, v]) => [expect.closeTo(t!, 20), v]),
+    );
+  });
+
+  it('draws a shaped edge as its ramp where its shape would run into the next edge', () => {
+    const shape: Array<[number, number]> = [
+      [-100e-12, 0],
+      [0, 0.5],
+      [4.5e-9, 1],
+    ];
+    const shaped: NetWave = { ...square, ramps: [{ ...square.ramps[0]!, shape }, square.ramps[1]!] };
+    expect(wavePoints(shaped, 0, T)).toEqual(wavePoints(square, 0, T));
+  });
+
   it('draws a net that never switches as a flat line at its level', () => {
     expect(wavePoints({ net: 'q', period: T, initial: 1, ramps: [] }, 0, T)).toEqual([
       [0, 1],

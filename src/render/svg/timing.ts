@@ -190,7 +190,7 @@ export function renderTimingSvg(d: Diagram, options: TimingSvgOptions = {}): str
   sectionHeading(
     root,
     'Handovers, enlarged',
-    'same time scale in both panels; ramps drawn with their simulated transition times',
+    "same time scale in both panels; edges drawn with the delay model's shapes and transition times",
     MARGIN,
     handoverTop - 36,
   );
