@@ -26,6 +26,15 @@ export const ROOT = fileURLToPath(new URL('..', import.meta.url));
 export const fixture = (...parts: string[]): string => join(ROOT, 'fixtures', ...parts);
 export const design = (name: string): string => fixture('designs', `${name}.yaml`);
 export const processCard = (name: string): string => fixture('processes', `${name}.yaml`);
+/** `--set` arguments that keep only the typical corner, tt/1.8V/27C. */
+export const TYPICAL_ONLY: readonly string[] = [
+  '--set',
+  'corners.process=[tt]',
+  '--set',
+  'corners.vdd=[1.8V]',
+  '--set',
+  'corners.temperature=[27]',
+];
 
 export interface CliRun {
   readonly code: number;

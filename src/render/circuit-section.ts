@@ -83,25 +83,29 @@ function row(result: CornerResult): CircuitRow {
   if (!c) return { corner: result.corner.name, cells: [], pass: false, verdict };
   const v = eng('V');
   const ohm = eng('ohm');
+  // Without a steady state the solver's last state is no output: its figures are left blank.
+  const settled = c.method !== 'none';
   const cell = (text: string, value: number | null, kinds: readonly CheckKind[] = []): CircuitCell => ({
     text,
     value,
     pass: verdictOf(result, kinds),
   });
+  const steady = (text: string, value: number | null, kinds: readonly CheckKind[] = []): CircuitCell =>
+    settled ? cell(text, value, kinds) : cell('-', null, kinds);
   const startup =
     c.startupCycles === null
       ? `not reached in ${c.startupLimit} periods`
       : `${c.startupCycles} (${formatEngineering(c.startupTime!, 's')})`;
   return {
-    corner: result.corner.name + (c.method === 'none' ? ' (unsettled)' : ''),
+    corner: result.corner.name + (settled ? '' : ' (unsettled)'),
     cells: [
-      cell(v(c.output), c.output, ['output-min', 'output-max']),
-      cell(v(c.ripple), c.ripple, ['ripple-max']),
-      cell(ohm(c.outputResistance), c.outputResistance),
+      steady(v(c.output), c.output, ['output-min', 'output-max']),
+      steady(v(c.ripple), c.ripple, ['ripple-max']),
+      steady(ohm(c.outputResistance), c.outputResistance),
       cell(ohm(c.slowLimit), c.slowLimit),
       cell(ohm(c.fastLimit), c.fastLimit),
-      cell(c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`, c.efficiency, ['efficiency-min']),
-      cell(eng('C')(c.lostCharge), c.lostCharge, ['lost-charge-max']),
+      steady(c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`, c.efficiency, ['efficiency-min']),
+      steady(eng('C')(c.lostCharge), c.lostCharge, ['lost-charge-max']),
       cell(startup, c.startupTime),
     ],
     pass,

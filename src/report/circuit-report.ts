@@ -45,15 +45,18 @@ export function renderCircuitTable(rows: readonly { readonly name: string; reado
   const table = withCircuit.map((r) => {
     const c = r.circuit!;
     const startup = c.startupCycles === null ? 'not reached' : `${c.startupCycles} (${formatEngineering(c.startupTime!, 's')})`;
+    // Without a steady state the solver's last state is no output: its figures are left blank.
+    const settled = c.method !== 'none';
+    const steady = (text: string) => (settled ? text : '-');
     return [
-      r.name + (c.method === 'none' ? ' (unsettled)' : ''),
-      v(c.output),
-      v(c.ripple),
-      ohm(c.outputResistance),
+      r.name + (settled ? '' : ' (unsettled)'),
+      steady(v(c.output)),
+      steady(v(c.ripple)),
+      steady(ohm(c.outputResistance)),
       ohm(c.slowLimit),
       ohm(c.fastLimit),
-      c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`,
-      q(c.lostCharge),
+      steady(c.efficiency === null ? '-' : `${(c.efficiency * 100).toFixed(1)} %`),
+      steady(q(c.lostCharge)),
       startup,
     ];
   });

@@ -5,7 +5,7 @@ import type { SwitchConduction } from '../../src/switches/conduction.js';
 import { modelCrossings } from '../../src/measure/levels.js';
 import { CycleIndex } from '../../src/measure/phases.js';
 import { devicesAtCorner } from '../../src/process/device.js';
-import { cli, design as demoDesign, expectClose, resolveYaml } from '../helpers.js';
+import { cli, design as demoDesign, expectClose, resolveYaml, TYPICAL_ONLY } from '../helpers.js';
 
 const design = (constraints: string, guard = '0') => `
 name: t
@@ -132,21 +132,7 @@ describe('settle', () => {
 describe('settle with an on-window longer than half a period', () => {
   it('follows the phase width one for one as the duty grows past 0.5', () => {
     const at = (duty: number) => {
-      const r = JSON.parse(
-        cli(
-          'check',
-          demoDesign('doubler'),
-          '--json',
-          '--set',
-          `corners.duty=[${duty}]`,
-          '--set',
-          'corners.process=[tt]',
-          '--set',
-          'corners.vdd=[1.8V]',
-          '--set',
-          'corners.temperature=[27]',
-        ).stdout,
-      ) as {
+      const r = JSON.parse(cli('check', demoDesign('doubler'), '--json', '--set', `corners.duty=[${duty}]`, ...TYPICAL_ONLY).stdout) as {
         corners: Array<{ widths: Record<string, number>; checks: Array<{ kind: string; margin: number }> }>;
       };
       const c = r.corners[0]!;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cli, design } from '../helpers.js';
+import { cli, design, TYPICAL_ONLY } from '../helpers.js';
 
 interface Corner {
   name: string;
@@ -16,17 +16,7 @@ interface Corner {
 }
 
 function corner(name: string, at: string): Corner {
-  const run = cli(
-    'check',
-    design(name),
-    '--json',
-    '--set',
-    'corners.process=[tt]',
-    '--set',
-    'corners.vdd=[1.8V]',
-    '--set',
-    'corners.temperature=[27]',
-  );
+  const run = cli('check', design(name), '--json', ...TYPICAL_ONLY);
   const report = JSON.parse(run.stdout) as { corners: Corner[] };
   return report.corners.find((c) => c.name === at)!;
 }
@@ -67,16 +57,7 @@ describe('CircuitEvaluator.evaluate', () => {
   });
 
   it('check prints the per-corner circuit figures table when the design has a circuit', () => {
-    const run = cli(
-      'check',
-      design('doubler-pump'),
-      '--set',
-      'corners.process=[tt]',
-      '--set',
-      'corners.vdd=[1.8V]',
-      '--set',
-      'corners.temperature=[27]',
-    );
+    const run = cli('check', design('doubler-pump'), ...TYPICAL_ONLY);
     expect(run.code).toBe(0);
     expect(run.stdout).toMatch(/circuit figures/);
     expect(run.stdout).toMatch(/tt\/1\.8V\/27C\s+3\.3\d V/);

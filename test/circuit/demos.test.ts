@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cli, design, expectClose } from '../helpers.js';
+import { cli, design, expectClose, TYPICAL_ONLY } from '../helpers.js';
 
 interface Circuit {
   output: number;
@@ -21,17 +21,7 @@ const checked = new Map<string, Corner>();
 function tt(name: string): Corner {
   const known = checked.get(name);
   if (known) return known;
-  const run = cli(
-    'check',
-    design(name),
-    '--json',
-    '--set',
-    'corners.process=[tt]',
-    '--set',
-    'corners.vdd=[1.8V]',
-    '--set',
-    'corners.temperature=[27]',
-  );
+  const run = cli('check', design(name), '--json', ...TYPICAL_ONLY);
   const corner = (JSON.parse(run.stdout) as { corners: Corner[] }).corners[0]!;
   checked.set(name, corner);
   return corner;

@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { cli, design, processCard, ROOT, tempDir, withoutStamp } from '../helpers.js';
+import { cli, design, processCard, ROOT, TYPICAL_ONLY, tempDir, withoutStamp } from '../helpers.js';
 
 interface JsonCheck {
   kind: string;
@@ -366,4 +366,13 @@ describe('phasegap check on the unboosted pump at all 45 corners', () => {
       expect(c.checks.find((k) => k.kind === 'output-min')!.pass, c.name).toBe(false);
     }
   }, 120_000);
+});
+
+describe('phasegap check prints an unsettled circuit without its solver-stopped figures', () => {
+  it("leaves the unboosted pump's output, ripple, R out, efficiency and lost charge blank and keeps R ssl", () => {
+    const run = cli('check', design('doubler-unboosted-pump'), ...TYPICAL_ONLY);
+    const row = run.stdout.split('\n').find((l) => l.startsWith('tt/1.8V/27C (unsettled)'))!;
+    // corner, V out, ripple, R out, R ssl (two words), R fsl, efficiency, lost/period, start-up (two words)
+    expect(row.trim().split(/\s+/).slice(2)).toEqual(['-', '-', '-', '4.97', 'kohm', '-', '-', '-', 'not', 'reached']);
+  });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
-import { cli, expectClose, processCard, tempDir, design } from '../helpers.js';
+import { cli, expectClose, processCard, tempDir, design, TYPICAL_ONLY } from '../helpers.js';
 import { bilinear, bracket } from '../../src/delay/interpolate.js';
 import { cornerTables } from '../../src/delay/table-corner.js';
 import { tableModel } from '../../src/delay/table.js';
@@ -199,20 +199,7 @@ describe('characterized tables (ngspice, Debian package ngspice)', () => {
     expect(timing.delay(1, 1, false, 2e-10)).toBeGreaterThan(0);
     expect(warnings).toEqual([]);
     // A load beyond the grid is extrapolated with one clear warning on stderr.
-    const r = cli(
-      'check',
-      design('doubler'),
-      '--tables',
-      file,
-      '--set',
-      'corners.process=[tt]',
-      '--set',
-      'corners.vdd=[1.8V]',
-      '--set',
-      'corners.temperature=[27]',
-      '--set',
-      'loads.p1=5pF',
-    );
+    const r = cli('check', design('doubler'), '--tables', file, ...TYPICAL_ONLY, '--set', 'loads.p1=5pF');
     expect(
       r.stderr.match(/warning: table model: u_buf1_3 \(INV\) drives [\d.]+ fF per characterized size, outside the table's/g)?.length,
     ).toBe(1);
