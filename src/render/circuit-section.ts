@@ -4,6 +4,7 @@
  * the clock frequency. The HTML and Markdown pages only lay it out.
  */
 import type { CornerResult } from '../analysis/evaluate.js';
+import { figureErrorText } from '../circuit/figure-error.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { circuitSweep, type CircuitSweep } from '../analysis/circuit-sweep.js';
 import { CIRCUIT_KINDS, type CheckKind } from '../checks/check.js';
@@ -145,6 +146,7 @@ export function circuitSection(resolved: ResolvedDesign, results: readonly Corne
       `Mean output, ripple (peak to peak), output impedance with its slow- and fast-switching asymptotes, efficiency and start-up at ${load}; ` +
       'the output maximum is checked at the lighter load. Efficiency counts the clock generator and the switch gates as input. ' +
       'Lost charge is what flows back through off switches and reverse-biased diodes and through pairs that conduct together, per period. ' +
-      'Start-up counts periods from all capacitors discharged to 90 % of the final output. A failing figure is marked ✕ and shaded.',
+      'Start-up counts periods from all capacitors discharged to 90 % of the final output. A failing figure is marked ✕ and shaded. ' +
+      `${figureErrorText(resolved.card.name)}.`,
   };
 }

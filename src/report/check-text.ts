@@ -68,7 +68,7 @@ export function renderCheckText(report: CheckReport): string {
   out.push(renderTable(columns, rows));
   out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);
   out.push('');
-  const circuit = renderCircuitTable(corners);
+  const circuit = renderCircuitTable(corners, report.process);
   if (circuit.length > 0) out.push(...circuit, '');
   out.push(...worstPerCheck(report));
   out.push('');

@@ -1,5 +1,6 @@
 /** The circuit figures of one corner as report data (SI units), and their text table. */
 import type { CircuitFigures } from '../circuit/figures.js';
+import { figureErrorText } from '../circuit/figure-error.js';
 import { formatEngineering } from '../units/format.js';
 import { left, renderTable, right, type Column } from './text-table.js';
 
@@ -32,8 +33,8 @@ export function circuitReport(c: CircuitFigures): CircuitReport {
 
 const eng = (unit: string) => (x: number | null) => (x === null || !Number.isFinite(x) ? '-' : formatEngineering(x, unit));
 
-/** The per-corner figures table; empty when no corner has circuit figures. */
-export function renderCircuitTable(rows: readonly { readonly name: string; readonly circuit?: CircuitReport }[]): string[] {
+/** The per-corner figures table, with the measured error on `card`; empty when no corner has circuit figures. */
+export function renderCircuitTable(rows: readonly { readonly name: string; readonly circuit?: CircuitReport }[], card: string): string[] {
   const withCircuit = rows.filter((r) => r.circuit);
   if (withCircuit.length === 0) return [];
   const v = eng('V');
@@ -62,6 +63,7 @@ export function renderCircuitTable(rows: readonly { readonly name: string; reado
   });
   return [
     'circuit figures (mean output and ripple at the heavier load; start-up in periods from all capacitors discharged to 90 % of the output):',
+    figureErrorText(card),
     renderTable(columns, table),
   ];
 }
