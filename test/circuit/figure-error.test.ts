@@ -3,9 +3,9 @@ import { FIGURE_ERRORS, figureErrorText } from '../../src/circuit/figure-error.j
 import { cli, design, TYPICAL_ONLY } from '../helpers.js';
 
 describe('figureErrorText', () => {
-  it("states generic180's measured circuit error (confirm --corners all on four pumps, ngspice-39) and asks for confirm elsewhere", () => {
+  it("states generic180's measured circuit error (confirm --corners all on five circuits, ngspice-39) and asks for confirm elsewhere", () => {
     expect(figureErrorText('generic180')).toBe(
-      'circuit model error against ngspice (180 pump corners): output -0.2 % to +0.1 % of VDD, ripple -2.2 % to +1.0 %, efficiency -2.5 % to +2.9 %; read small margins against it',
+      'circuit model error against ngspice (225 corners of the shipped circuits): output -0.2 % to +0.2 % of VDD, ripple -5.1 % to +5.2 %, efficiency -2.5 % to +2.9 %; read small margins against it',
     );
     expect(figureErrorText('generic-lp')).toBe(
       'circuit model error: not measured on card generic-lp; run phasegap confirm before trusting a small circuit margin',
