@@ -147,6 +147,11 @@ export function circuitSection(resolved: ResolvedDesign, results: readonly Corne
       'the output maximum is checked at the lighter load. Efficiency counts the clock generator and the switch gates as input. ' +
       'Lost charge is what flows back through off switches and reverse-biased diodes and through pairs that conduct together, per period. ' +
       'Start-up counts periods from all capacitors discharged to 90 % of the final output. A failing figure is marked ✕ and shaded. ' +
-      `${figureErrorText(resolved.card.name)}.`,
+      `${sentence(figureErrorText(resolved.card.name))}.`,
   };
+}
+
+/** A line that opens lower-case, as a sentence. */
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }

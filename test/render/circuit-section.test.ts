@@ -5,6 +5,7 @@ import { evaluateAll } from '../../src/analysis/evaluate.js';
 import { circuitSection, CIRCUIT_HEAD } from '../../src/render/circuit-section.js';
 import { circuitSectionHtml } from '../../src/render/html/circuit-section.js';
 import { formatEngineering } from '../../src/units/format.js';
+import { figureErrorText } from '../../src/circuit/figure-error.js';
 import { buildReportModel } from '../../src/render/report-model.js';
 import { renderMarkdownReport } from '../../src/render/markdown/report.js';
 
@@ -48,6 +49,8 @@ describe('circuitSection', () => {
     }
     expect(section.required).toEqual(['required', '≥ 1.75vdd, ≤ 2vdd', '≤ 50.0 mV', '', '', '', '≥ 40.0 %', '≤ 1.00 pC', '', '']);
     expect(section.head).toEqual(CIRCUIT_HEAD);
+    // The note closes with the circuit figures' measured error on the card (src/circuit/figure-error.ts), as a sentence.
+    expect(section.note.endsWith(`${figureErrorText('generic180').replace(/^c/, 'C')}.`)).toBe(true);
   });
 
   it('lays the table out in HTML with each number and its SI value, failing cells marked without colour', () => {
