@@ -170,15 +170,14 @@ export function buildDiagram(resolved: ResolvedDesign, results: readonly CornerR
     .map((r) => ({ corner: r.corner.name, reason: r.measurement.ok ? '' : r.measurement.reason }));
   const refResult = results[refIndex]!;
   const reference = refResult.measurement.ok ? refResult : (measured[0] ?? refResult);
-  // Edges drawn as the delay model shapes them, where the switch instants are read.
+  // Edges drawn as the delay model shapes them, where the switch instants are read. The reference
+  // is always among the drawn results (the chosen one, the first measured, or alone).
   const drawn = measured.length > 0 ? measured : [reference];
   const shapes = new Map(drawn.map((r) => [r, resultEdgeShape(resolved, r)]));
-  const shapeOf = (r: CornerResult) => (shapes.has(r) ? shapes.get(r) : resultEdgeShape(resolved, r));
-  const referenceShape = shapeOf(reference);
   const rows: DiagramRow[] = signalRows(netlist, nets).map((row) => ({
     ...row,
     waves: drawn.map((r) => ({ corner: r.corner.name, wave: netWave(r, netlist, row.net, shapes.get(r)) })),
-    reference: netWave(reference, netlist, row.net, referenceShape),
+    reference: netWave(reference, netlist, row.net, shapes.get(reference)),
   }));
   const switches = switchRows(resolved, measured, reference);
   const deadTimes = deadTimeMarks(measured, choice.kind === 'corner');

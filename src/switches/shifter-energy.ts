@@ -61,7 +61,7 @@ interface LatchShifter {
 
 function latchShifterEnergy(s: LatchShifter, front: number): ShifterEnergy {
   const { span } = s;
-  const injection = (s.pull.device.params.cgate / 2) * s.pull.w;
+  const injection = (s.pull.device.cgate / 2) * s.pull.w;
   const flip = (node: number, other: number) =>
     flipCrowbarCharge({ pull: s.pull, pullDrive: s.pullDrive, latch: s.latch, span, node, other, injection });
   const crowbar = (flip(s.setNode, s.side) + flip(s.side, s.setNode)) * span;
