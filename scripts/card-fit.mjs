@@ -7,8 +7,8 @@
 // at V_DS = 0 is 2 I_Dsat / V_Dsat, so V_Dsat is where 2 I(V)/g_ds0 meets V; the card's
 // vdsatRatio is V_Dsat over the overdrive (vddNominal - vth0).
 // Prints each type's fit, its rms and worst error, and the drive the card should state for a given
-// prefactor (the factor that makes the delay chain's stage delay match ngspice at the nominal
-// corner: 0.955 on generic180 (with its vdsatRatio), 0.97 on generic-lp).
+// prefactor (1 on generic180, whose fit the delay model takes as it stands; 0.97 on generic-lp,
+// which matched its delay chain to ngspice at the nominal corner).
 // Run after `npm run build`: node scripts/card-fit.mjs CARD.yaml LOW HIGH [PREFACTOR]
 //   e.g. node scripts/card-fit.mjs fixtures/processes/generic-lp.yaml 0.85 1.2 0.97
 import { spawnSync } from 'node:child_process';

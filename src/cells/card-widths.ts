@@ -1,4 +1,5 @@
 /** A process card's unit widths and capacitance per width, as the cell library takes them. */
+import { overlapPerWidth } from '../process/gate-edge.js';
 import type { ProcessCard } from '../schema/process.js';
 import { pinCapacitance, type CapacitancePerWidth, type PrimitiveCell, type UnitWidths } from './library.js';
 
@@ -8,8 +9,18 @@ export interface GateCells {
   readonly gateSize: Float64Array;
 }
 
+/**
+ * Per width of each device type: the gate capacitance a pin presents, and what a drain puts on its
+ * own output node: the card's junction (cdrain) and the drain's gate overlap twice, since the gate
+ * and the drain of a switching gate move opposite ways (the Miller effect on C_gd).
+ */
 export function capacitancePerWidth(card: ProcessCard): CapacitancePerWidth {
-  return { cgateN: card.n.cgate, cgateP: card.p.cgate, cdrainN: card.n.cdrain, cdrainP: card.p.cdrain };
+  return {
+    cgateN: card.n.cgate,
+    cgateP: card.p.cgate,
+    cdrainN: card.n.cdrain + 2 * overlapPerWidth(card.n),
+    cdrainP: card.p.cdrain + 2 * overlapPerWidth(card.p),
+  };
 }
 
 export function unitWidths(card: ProcessCard): UnitWidths {

@@ -100,10 +100,12 @@ export function generatorGateEnergy(
       energy += known;
       continue;
     }
+    // The net's load counts these drains' overlaps twice (cells/card-widths.ts); the edge takes them apart.
+    const others = loads[out]! - 2 * overlaps;
     const edges = (pin: number, inputRise: number, inputFall: number): GateEdges => ({
       pullDown: { device: devices.n, w: w.pullDown, l: card.lmin },
       pullUp: { device: devices.p, w: w.pullUp, l: card.lmin },
-      load: loads[out]! + overlaps - overlap(pin),
+      load: others + overlaps - overlap(pin),
       miller: overlap(pin),
       inputRise,
       inputFall,

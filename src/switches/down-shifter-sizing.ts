@@ -11,9 +11,9 @@
  * -1.5VDD..0, loads of 10 to 160 fF, input ramps of 60 to 500 ps; rising delay within 8.6 % median
  * and 28 % worst, falling 2.5 % and 9.7 %, transitions 17 % and 13 % median, 108 % and 50 % worst).
  * Other cards get the same fits: `confirm` measures what the shifter really does at every corner.
- * The coefficients of the current-based estimates are multiplied by 1.0753 since generic180's drive
- * went up by that factor (its prefactor 0.888 -> 0.955 with vdsatRatio; the script's fit scales the
- * same way), so every shifter is sized as before.
+ * The coefficients of the current-based estimates are multiplied by 1.1261 since generic180's drive
+ * went up by that factor (its prefactor 0.888 -> 0.955 with vdsatRatio, then to the fit's own 1.0;
+ * the script's fit scales the same way), so every shifter is sized as before.
  */
 import type { ProcessCard } from '../schema/process.js';
 import { saturationCurrent, type DeviceAtCorner } from '../process/device.js';
@@ -71,10 +71,10 @@ const MIN_TRANSITION = 40e-12;
  * [constant, buffer, pull-up, output, input ramp], transitions [constant, output, the slower latch stage].
  */
 export const FITS = {
-  rise: [140.82e-12, -0.5626, 1.4822, 0.9941, 0.2395],
-  fall: [115.67e-12, 1.2281, 0.8753, 0.607, 0.2935],
-  transitionRise: [27.85e-12, 2.1198, 0.3255],
-  transitionFall: [49.51e-12, 1.3904, 0.2966],
+  rise: [140.82e-12, -0.5891, 1.552, 1.0409, 0.2395],
+  fall: [115.67e-12, 1.286, 0.9165, 0.6356, 0.2935],
+  transitionRise: [27.85e-12, 2.2197, 0.3408],
+  transitionFall: [49.51e-12, 1.4559, 0.3106],
 } as const;
 
 interface Currents {

@@ -10,8 +10,9 @@
  * input ramps of 60 to 500 ps, pull-downs of 2 and 4 um, output low level at 0 and at VDD, high
  * level 2 VDD; delays within 7 %, transitions within 26 % of ngspice). Other cards get the same
  * fits: `confirm` measures what the shifter really does at every corner. The coefficients of the
- * current-based estimates are multiplied by 1.0753 since generic180's drive went up by that factor
- * (its prefactor 0.888 -> 0.955 with vdsatRatio), so every shifter is sized as before.
+ * current-based estimates are multiplied by 1.1261 since generic180's drive went up by that factor
+ * (its prefactor 0.888 -> 0.955 with vdsatRatio, then to the fit's own 1.0), so every shifter is
+ * sized as before.
  */
 import { cornerName, type Corner } from '../process/corner.js';
 import { devicesAtCorner, saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
@@ -63,17 +64,17 @@ export interface ShifterFits {
 }
 /** Output low level at ground: the output n device sees the whole high level on its gate. */
 const GROUNDED: ShifterFits = {
-  fall: [89.34e-12, 0.7536, 1.2494, 0.4675, 0.1113],
-  rise: [104.23e-12, 1.4036, 0.9688, 0.4027, 0.1653],
-  transitionRise: [31.45e-12, 0.9659],
-  transitionFall: [68.06e-12, 0.865],
+  fall: [89.34e-12, 0.7891, 1.3083, 0.4895, 0.1113],
+  rise: [104.23e-12, 1.4697, 1.0145, 0.4217, 0.1653],
+  transitionRise: [31.45e-12, 1.0114],
+  transitionFall: [68.06e-12, 0.9058],
 };
 /** Output low level above ground (a floating output domain such as VDD .. 2 VDD). */
 const FLOATING: ShifterFits = {
-  fall: [72.24e-12, 1.1661, 1.9332, 0.8135, 0.1646],
-  rise: [77.3e-12, 1.3841, 0.7987, 0.5895, 0.2646],
-  transitionRise: [34.46e-12, 1.6328],
-  transitionFall: [64.59e-12, 1.3746],
+  fall: [72.24e-12, 1.221, 2.0243, 0.8518, 0.1646],
+  rise: [77.3e-12, 1.4493, 0.8363, 0.6173, 0.2646],
+  transitionRise: [34.46e-12, 1.7097],
+  transitionFall: [64.59e-12, 1.4394],
 };
 
 /** The fits for a shifter whose output low level is `low` volts. */

@@ -2,19 +2,18 @@ import { describe, expect, it } from 'vitest';
 import { capacitancePerWidth, gatePinCapacitance, unitWidths } from '../../src/cells/card-widths.js';
 import { pinCapacitance } from '../../src/cells/library.js';
 import { loadProcess } from '../../src/cli/load.js';
-import { processCard } from '../helpers.js';
+import { expectClose, processCard } from '../helpers.js';
 
 describe('card widths', () => {
   const card = loadProcess(processCard('generic180'));
 
-  it("unitWidths and capacitancePerWidth read the card's unit devices and capacitances", () => {
+  it("unitWidths and capacitancePerWidth read the card's unit devices and capacitances, a drain's overlap twice (Miller)", () => {
     expect(unitWidths(card)).toEqual({ wn: card.unit.wn, wp: card.unit.wp });
-    expect(capacitancePerWidth(card)).toEqual({
-      cgateN: card.n.cgate,
-      cgateP: card.p.cgate,
-      cdrainN: card.n.cdrain,
-      cdrainP: card.p.cdrain,
-    });
+    const c = capacitancePerWidth(card);
+    expect([c.cgateN, c.cgateP]).toEqual([1.92e-9, 1.92e-9]);
+    // generic180: junction 1.2 fF/um and CGDO 0.2 fF/um counted twice.
+    expectClose(c.cdrainN, 1.6e-9, 1e-12);
+    expectClose(c.cdrainP, 1.6e-9, 1e-12);
   });
 
   it("gatePinCapacitance gives each gate its cell's pin capacitance at its size", () => {

@@ -4,9 +4,9 @@ import { join } from 'node:path';
 import { cliAsync, design, expectClose, tempDir, withoutRunRecord } from '../helpers.js';
 
 describe('phasegap mc', () => {
-  // The demo's least dead time is 998.4 ps (ff/1.98V/-40C); a minimum a few ps below it, 995 ps, lets
+  // The demo's least dead time is 983.1 ps (ff/1.98V/-40C); a minimum a few ps below it, 979.5 ps, lets
   // mismatch push some dies under it: 30 of 40 dies pass (seed 1, measured).
-  const tight = ['--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=995ps'];
+  const tight = ['--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=979.5ps'];
 
   it('exits 1 when the yield misses requirements.minYield and 0 when it meets it', async () => {
     const missed = await cliAsync('mc', design('doubler'), ...tight, '--set', 'requirements.minYield=0.99');
@@ -20,8 +20,8 @@ describe('phasegap mc', () => {
 });
 
 describe('phasegap mc verdict and JUnit', () => {
-  // As above: 995 ps, a few ps below the demo's least dead time of 998.4 ps, so 30 of 40 dies pass.
-  const tight = ['--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=995ps'];
+  // As above: 979.5 ps, a few ps below the demo's least dead time of 983.1 ps, so 30 of 40 dies pass.
+  const tight = ['--samples', '40', '--seed', '1', '--workers', '1', '--set', 'requirements.deadTime.min=979.5ps'];
 
   it('heads the text with the combined verdict, fails without a minYield when a die fails, and writes JUnit that says why', async () => {
     const file = join(tempDir(), 'mc.xml');
@@ -35,10 +35,10 @@ describe('phasegap mc verdict and JUnit', () => {
     const xml = readFileSync(file, 'utf8');
     expect(xml).toContain('<testcase classname="phasegap.mc.yield" name="yield at every corner">');
     expect(xml).toContain('<failure message="yield 75.0 % over 40 dies; every die must pass (no requirements.minYield)"/>');
-    // 9 of the 40 dies break dead p1->p2 >= 995 ps at ff/1.98V/-40C (measured, seed 1; 2 break p2->p1 there,
+    // 9 of the 40 dies break dead p1->p2 >= 979.5 ps (named to three figures, 980 ps) at ff/1.98V/-40C (measured, seed 1; 2 break p2->p1 there,
     // one of them also p1->p2: 10 fail in all).
     expect(xml).toMatch(
-      /<testcase classname="phasegap.mc.dead-time-min" name="dead p1->p2 >= 995 ps">\s*<failure message="9 of 40 dies fail it at ff\/1\.98V\/-40C"\/>/,
+      /<testcase classname="phasegap.mc.dead-time-min" name="dead p1->p2 >= 980 ps">\s*<failure message="9 of 40 dies fail it at ff\/1\.98V\/-40C"\/>/,
     );
     expect(xml).toMatch(/<testcase classname="phasegap.mc.dead-time-max" name="dead p1->p2 &lt;= 4.00 ns">\s*<system-out>/);
   });

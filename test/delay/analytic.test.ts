@@ -13,7 +13,8 @@ import { expectClose, processCard } from '../helpers.js';
 
 /**
  * An invented card for logical-effort checks: P/N width ratio 2, equal gate and drain capacitance
- * per width, so the unit inverter's self-parasitic equals its input capacitance (p_inv = 1).
+ * per width and no overlap counted apart, so the unit inverter's self-parasitic equals its input
+ * capacitance (p_inv = 1).
  */
 function effortCard(): ProcessCard {
   const device = (drive: number) => ({
@@ -26,6 +27,7 @@ function effortCard(): ProcessCard {
     phi2f: 0.85,
     cgate: 1.5e-9,
     cdrain: 1.5e-9,
+    cov: 0,
     avt: 5e-9,
     kprime: 100e-6,
   });

@@ -120,11 +120,13 @@ describe('report in headless Chromium', () => {
         expect(tables.map((t) => t.id)).toContain('tune');
         if (confirm) expect(tables.filter((t) => t.id === 'confirm').length).toBe(2);
         if (confirm) {
-          // ngspice differs from the model beyond 10 % at both corners of too-tight (measured), so the page says so at the top.
+          // ngspice agrees with the model within 10 % at both corners of too-tight, break-before-make verdicts
+          // alike (measured; before the drive law's bend and the drains' Miller overlap its gaps there were
+          // 11-21 % short and this part failed), so the page fails on its corner checks alone.
           const parts = await page.$$eval('header #verdict-parts li', (lis) =>
             lis.map((li) => `${li.getAttribute('data-part')}: ${li.getAttribute('data-verdict')}`),
           );
-          expect(parts).toEqual(['corner checks: fail', 'Monte Carlo yield: not-run', 'simulator agreement: fail']);
+          expect(parts).toEqual(['corner checks: fail', 'Monte Carlo yield: not-run', 'simulator agreement: pass']);
           expect(await page.$eval('header .verdict', (v) => v.getAttribute('data-verdict'))).toBe('fail');
         }
         for (const t of tables) expect(t.w > 0 && t.h > 0 && t.fits, t.id).toBe(true);
@@ -141,9 +143,9 @@ describe('report in headless Chromium', () => {
   }
 
   it('heads a page where Monte Carlo fails with FAIL and shows each part beneath it', async () => {
-    // A 995 ps minimum holds at every corner of the demo (least dead time 998.4 ps, measured) but 10 of 40
-    // dies miss it (seed 1, measured): chosen 3.4 ps below the least dead time so the yield, 75 %, is strictly
-    // between 0 and 1 and below the 99 % required (997 ps gives 25 of 40 passing, 990 ps 36 of 40).
+    // A 979.5 ps minimum holds at every corner of the demo (least dead time 983.1 ps, measured) but 10 of 40
+    // dies miss it (seed 1, measured): chosen 3.6 ps below the least dead time so the yield, 75 %, is strictly
+    // between 0 and 1 and below the 99 % required (980 ps gives 29 of 40 passing, 979 ps 33 of 40).
     const { page, problems } = await openReport('doubler', [
       '--no-fmax',
       '--no-tune',
@@ -152,7 +154,7 @@ describe('report in headless Chromium', () => {
       '--seed',
       '1',
       '--set',
-      'requirements.deadTime.min=995ps',
+      'requirements.deadTime.min=979.5ps',
       '--set',
       'requirements.minYield=0.99',
     ]);
