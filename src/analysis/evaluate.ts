@@ -17,6 +17,7 @@ import { shifterSizes, type ShifterSizes } from './shifter-sizes.js';
 import { instantBand } from '../switches/instant-band.js';
 import { gapBand } from '../delay/error-band.js';
 import { CircuitEvaluator, type CornerCircuit, type FigureChoice } from '../circuit/corner-circuit.js';
+import { figureErrorFor, type FigureError } from '../circuit/figure-error.js';
 import { circuitCheckNames, circuitChecks, type CircuitCheckNames } from '../checks/circuit-checks.js';
 
 export interface CornerResult {
@@ -113,6 +114,7 @@ export class CornerEvaluator {
     };
     this.bias = new BiasChecker(resolved.switches, resolved.bias, resolved.biasNames);
     this.gapBand = gapBand(resolved.model.name, resolved.card.name);
+    this.figureError = figureErrorFor(resolved.card.name);
     this.shifters = resolved.switches.some((plan) => plan.levelShifter) ? shifterSizes(resolved) : null;
     this.ronCalibration = resolved.model.ron && resolved.model.ron.length > 0 ? ronCalibration(resolved.model.ron) : undefined;
     const spec = reuse.circuit === 'none' ? undefined : resolved.design.circuit;
@@ -132,6 +134,8 @@ export class CornerEvaluator {
   private readonly bias: BiasChecker;
   /** The model's measured clean-gap band on this card, fraction of the dead time. */
   private readonly gapBand: number;
+  /** The card's measured circuit-figure error, taken off the circuit checks' margins. */
+  private readonly figureError: FigureError;
 
   /** Clock period, s, and the per-run settings, made once. */
   private readonly period: number;
@@ -176,7 +180,7 @@ export class CornerEvaluator {
           { devices: switchDevices, dvth: mismatch?.switches, shifterSizes: this.shifters ?? undefined, shifterDvth: mismatch?.shifters },
           this.circuitFigures,
         );
-        circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, checks);
+        circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, this.figureError, checks);
       }
     }
     // The switch bias checks need no timing: they hold (or not) whether or not the run settled.

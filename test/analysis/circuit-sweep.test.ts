@@ -24,16 +24,17 @@ describe('typicalCornerIndex and circuitWorstIndex', () => {
   });
 
   it('take the corner whose circuit check is closest to failing relative to its requirement as worst', () => {
-    // doubler-pump: the output maximum (2 VDD at the lighter load) holds by 68.6 mV of 3.96 V at
-    // ff/1.98V/-40C, 1.7 %; the efficiency minimum (0.375), by 0.0130 at ff/1.98V/125C (check table),
-    // 3.5 %, comes after it.
+    // doubler-pump: the efficiency minimum (0.375), read at the model's efficiency over 1.027 (its
+    // measured error, figure-error.ts), holds by 0.0031 at ff/1.98V/125C (check table), 0.8 %; the
+    // output maximum (2 VDD at the lighter load, read 0.3 % of VDD higher) by 62.6 mV of 3.96 V at
+    // ff/1.98V/-40C, 1.6 %, comes after it.
     const worst = circuitWorstIndex(pump, results);
-    expect(results[worst]!.corner.name).toBe('ff/1.98V/-40C');
-    const outputMax = results[worst]!.checks.find((c) => c.kind === 'output-max')!;
-    const hot = results.find((r) => r.corner.name === 'ff/1.98V/125C')!;
-    const check = hot.checks.find((c) => c.kind === 'efficiency-min')!;
-    expect(check.margin! / 0.375).toBeGreaterThan(outputMax.margin! / (2 * 1.98));
-    expect(check.margin! / 0.375).toBeLessThan(0.04);
+    expect(results[worst]!.corner.name).toBe('ff/1.98V/125C');
+    const check = results[worst]!.checks.find((c) => c.kind === 'efficiency-min')!;
+    const cold = results.find((r) => r.corner.name === 'ff/1.98V/-40C')!;
+    const outputMax = cold.checks.find((c) => c.kind === 'output-max')!;
+    expect(check.margin! / 0.375).toBeLessThan(outputMax.margin! / (2 * 1.98));
+    expect(check.margin! / 0.375).toBeLessThan(0.01);
     expect(outputMax.margin! / (2 * 1.98)).toBeLessThan(0.02);
   });
 });
@@ -46,7 +47,7 @@ describe('circuitSweep', () => {
     expect(sweep.efficiencyMin).toBe(0.375);
     expect(sweep.series.map((s) => [s.corner, s.role])).toEqual([
       ['tt/1.8V/27C', 'typical'],
-      ['ff/1.98V/-40C', 'worst'],
+      ['ff/1.98V/125C', 'worst'],
     ]);
     expect(sweep.series[0]!.outputMin).toBeCloseTo(1.75 * 1.8, 12);
     expect(sweep.series[1]!.outputMax).toBeCloseTo(2 * 1.98, 12);

@@ -4,15 +4,21 @@ import { evaluateCorner } from '../../src/analysis/evaluate.js';
 import { resolveDesign, type ResolvedDesign } from '../../src/analysis/resolve.js';
 import { loadDesign } from '../../src/cli/load.js';
 import { design } from '../helpers.js';
+import { figureErrorFor } from '../../src/circuit/figure-error.js';
 
-/** The demo doubler pump at one corner, its ripple requirement set exactly at the corner's nominal ripple. */
+/**
+ * The demo doubler pump at one corner, its ripple requirement set exactly at the corner's nominal
+ * ripple as the check reads it: the model's ripple over 1 + the most negative ripple error measured
+ * against ngspice (circuit-checks.ts).
+ */
 function pumpAtItsRippleLimit(): { resolved: ResolvedDesign; nominalRipple: number } {
   const { design: d, card } = loadDesign(design('doubler-pump'));
   const whole = resolveDesign(d, card);
   const corners = whole.corners.filter(({ corner }) => corner.name === 'tt/1.8V/27C');
   const nominalRipple = evaluateCorner({ ...whole, corners }, corners[0]!.corner).circuit!.ripple;
+  const read = nominalRipple / (1 + Math.min(0, figureErrorFor(card.name).ripple[0]));
   const circuit = d.circuit!;
-  const tight = { ...d, circuit: { ...circuit, requirements: { ...circuit.requirements, ripple: { max: nominalRipple } } } };
+  const tight = { ...d, circuit: { ...circuit, requirements: { ...circuit.requirements, ripple: { max: read } } } };
   return { resolved: { ...resolveDesign(tight, card), corners }, nominalRipple };
 }
 

@@ -58,9 +58,10 @@ describe('the circuit demos at tt/1.8V/27C', () => {
 
   it('check of negative-pump checks its maximum (least magnitude) at the heavier load and its minimum at the lighter', () => {
     const k = tt('negative-pump').checks;
-    // -0.85 VDD = -1.53 V against -1.5558 V at 30 uA; -VDD = -1.8 V against -1.6511 V at 10 uA
-    expectClose(k.find((x) => x.kind === 'output-max')!.margin!, -0.85 * 1.8 + 1.555775, 1e-3);
-    expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.651117 + 1.8, 1e-3);
+    // -0.85 VDD = -1.53 V against -1.5558 V at 30 uA, read 0.3 % of VDD higher (the model's measured
+    // output error, figure-error.ts); -VDD = -1.8 V against -1.6511 V at 10 uA, read 0.2 % of VDD lower.
+    expectClose(k.find((x) => x.kind === 'output-max')!.margin!, -0.85 * 1.8 + 1.555775 - 0.003 * 1.8, 3e-5, 'abs');
+    expectClose(k.find((x) => x.kind === 'output-min')!.margin!, -1.651117 - 0.002 * 1.8 + 1.8, 3e-5, 'abs');
   });
 
   it("check of sc-integrator-path settles near Vin f Cs R / (1 + f Cs R) = 1.25 V, lifted by its switches' charge (ngspice 1.2646 V)", () => {
