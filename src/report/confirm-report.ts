@@ -82,6 +82,7 @@ export interface CircuitFigureComparison {
   readonly figure: CircuitFigureName;
   /** 'V', 'C' or '' (a fraction). */
   readonly unit: 'V' | 'C' | '';
+  /** null when the model reached no periodic steady state (or, for the efficiency, drew no power). */
   readonly model: number | null;
   /** null when the simulator could not measure it. */
   readonly simulator: number | null;
@@ -110,7 +111,8 @@ export interface CircuitComparison {
   /** Whether the last periods show the output settled (see circuit-measures.ts). */
   readonly settled: boolean;
   readonly figures: readonly CircuitFigureComparison[];
-  readonly power: { readonly model: CircuitPowers; readonly simulator: CircuitPowers | null };
+  /** The model's powers are null where it reached no periodic steady state. */
+  readonly power: { readonly model: CircuitPowers | null; readonly simulator: CircuitPowers | null };
   /** Settled, and every judged figure within its tolerance. */
   readonly pass: boolean;
 }

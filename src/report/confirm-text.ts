@@ -133,7 +133,13 @@ function circuitDifference(f: CircuitFigureComparison): string {
 
 /** A circuit figure's cells before its verdict: corner, figure, model, simulator, difference. */
 export function circuitFigureCells(corner: string, f: CircuitFigureComparison): string[] {
-  return [corner, f.figure, formatCircuitFigure(f, f.model), formatCircuitFigure(f, f.simulator), circuitDifference(f)];
+  return [
+    corner,
+    f.figure,
+    f.model === null ? '-' : formatCircuitFigure(f, f.model),
+    formatCircuitFigure(f, f.simulator),
+    circuitDifference(f),
+  ];
 }
 
 /** A circuit figure's verdict: within or OVER its tolerance, or shown when it is not judged. */
@@ -153,7 +159,7 @@ export function circuitRunText(k: CircuitComparison, simulator: string): string 
     `rails ${formatEngineering(p.input, 'W')}, generator ${formatEngineering(p.generator, 'W')}, load ${formatEngineering(p.output, 'W')}`;
   return (
     `${k.periods} periods from the solver's steady state, ${k.settled ? 'settled' : 'NOT SETTLED'} (drift ${drift});` +
-    ` model ${power(k.power.model)}; ${simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`
+    ` model ${k.power.model === null ? 'no periodic steady state' : power(k.power.model)}; ${simulator} ${k.power.simulator === null ? 'not measured' : power(k.power.simulator)}`
   );
 }
 

@@ -142,7 +142,7 @@ export function confirmSuite(design: string, simulator: string, tolerance: numbe
     for (const f of c.circuit?.figures ?? []) {
       if (f.tolerance === null) continue;
       const words =
-        `model ${formatCircuitFigure(f, f.model)}, ${simulator} ${formatCircuitFigure(f, f.simulator)}${f.difference === null ? '' : `, difference ${(f.difference * 100).toFixed(2)} %`}` +
+        `model ${f.model === null ? 'no periodic steady state' : formatCircuitFigure(f, f.model)}, ${simulator} ${formatCircuitFigure(f, f.simulator)}${f.difference === null ? '' : `, difference ${(f.difference * 100).toFixed(2)} %`}` +
         `, tolerance ${(f.tolerance * 100).toFixed(0)} %${f.figure === 'output' ? ` of VDD${c.circuit!.settled ? '' : '; not settled'}` : ''}`;
       cases.push({
         name: `circuit ${f.figure} at ${c.corner}`,

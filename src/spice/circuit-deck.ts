@@ -37,19 +37,20 @@ export const SETTLE_WINDOW = 8;
  */
 const MAX_STEP = 1 / 1000;
 
-/** The model's figures the simulator is compared with (SI units). */
+/**
+ * The model's figures the simulator is compared with (SI units); null where the solver reached no
+ * periodic steady state (method none): its figures are then where it stopped, not the circuit's.
+ */
 export interface ModelCircuitFigures {
   /** Mean output, V. */
-  readonly output: number;
+  readonly output: number | null;
   /** Peak-to-peak ripple, V. */
-  readonly ripple: number;
+  readonly ripple: number | null;
   readonly efficiency: number | null;
   /** Charge lost per period, C. */
-  readonly lostCharge: number;
-  /** W */
-  readonly inputPower: number;
-  readonly generatorPower: number;
-  readonly outputPower: number;
+  readonly lostCharge: number | null;
+  /** W; null when unsettled. */
+  readonly power: { readonly input: number; readonly generator: number; readonly output: number } | null;
 }
 
 /** A DC source whose charge per period is measured: its energy is volts times that charge. */
@@ -106,14 +107,13 @@ export function settlePeriods(startup: number | null): number {
 }
 
 function modelFigures(c: CornerCircuit): ModelCircuitFigures {
+  if (c.method === 'none') return { output: null, ripple: null, efficiency: null, lostCharge: null, power: null };
   return {
     output: c.output,
     ripple: c.ripple,
     efficiency: c.efficiency,
     lostCharge: c.lostCharge,
-    inputPower: c.inputPower,
-    generatorPower: c.generatorPower,
-    outputPower: c.outputPower,
+    power: { input: c.inputPower, generator: c.generatorPower, output: c.outputPower },
   };
 }
 

@@ -172,7 +172,7 @@ export function compareCircuit(deck: CircuitDeck, output: SimulatorOutput): Circ
     drift,
     settled,
     figures,
-    power: { model: { input: m.inputPower, generator: m.generatorPower, output: m.outputPower }, simulator: power },
+    power: { model: m.power, simulator: power },
     pass: settled && figures.every((f) => f.pass),
   };
 }

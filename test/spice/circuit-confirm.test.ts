@@ -84,7 +84,8 @@ describe('confirm simulates each shipped circuit to periodic steady state in ngs
           const min = resolved.design.circuit!.requirements.output?.min;
           const vdd = resolved.corners.find((r) => r.corner.name === c.corner)!.corner.vdd;
           expect(min, `${file} has an output minimum`).toBeDefined();
-          expect(figure('output').model!, `${file} ${c.corner} model output`).toBeLessThan(levelAt(min!, vdd));
+          // The model shows no figure where it found no steady state (its last state is not the circuit's).
+          expect(figure('output').model, `${file} ${c.corner} model output`).toBeNull();
           expect(figure('output').simulator!, `${file} ${c.corner} ngspice output`).toBeLessThan(levelAt(min!, vdd));
           if (collapsed !== undefined)
             expect(figure('output').simulator!, `${file} ${c.corner} collapsed output`).toBeCloseTo(collapsed, 2);

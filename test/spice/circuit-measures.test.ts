@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { compareCircuit, meanSlope, settledOutput, simulatedLostCharge, simulatedPowers } from '../../src/spice/circuit-measures.js';
 import type { CircuitDeck } from '../../src/spice/circuit-deck.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
+import { circuitFigureCells, circuitRunText } from '../../src/report/confirm-text.js';
 import { expectClose } from '../helpers.js';
 
 const T = 50e-9;
@@ -28,9 +29,7 @@ function deck(over: Partial<CircuitDeck> = {}): CircuitDeck {
       ripple: 0.0199,
       efficiency: 0.48,
       lostCharge: 0,
-      inputPower: 214e-6,
-      generatorPower: 134e-6,
-      outputPower: 167e-6,
+      power: { input: 214e-6, generator: 134e-6, output: 167e-6 },
     },
     supplies: [
       { source: 'vsupply', volts: 1.8, feeds: 'generator' },
@@ -187,5 +186,15 @@ describe('compareCircuit', () => {
     const ripple = c.figures.find((x) => x.figure === 'ripple')!;
     expect(ripple.simulator).toBeNull();
     expect(ripple.pass).toBe(false);
+  });
+  it('fails every judged figure of a model that reached no steady state, with no model figure or power to show', () => {
+    const unsettled = deck({ model: { output: null, ripple: null, efficiency: null, lostCharge: null, power: null } });
+    const c = compareCircuit(unsettled, output(settled));
+    for (const f of c.figures) expect(f.model).toBeNull();
+    expect(c.figures.filter((f) => f.tolerance !== null).every((f) => !f.pass && f.difference === null)).toBe(true);
+    expect(c.power.model).toBeNull();
+    expect(c.pass).toBe(false);
+    expect(circuitFigureCells('tt/1.8V/27C', c.figures[0]!)).toEqual(['tt/1.8V/27C', 'output', '-', '3.33 V', '-']);
+    expect(circuitRunText(c, 'ngspice-39')).toMatch(/; model no periodic steady state; ngspice-39 rails /);
   });
 });
