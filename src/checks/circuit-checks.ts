@@ -14,7 +14,7 @@ import type { CornerCircuit } from '../circuit/corner-circuit.js';
 import type { FigureError } from '../circuit/figure-error.js';
 import type { CircuitRequirements } from '../schema/circuit.js';
 import { levelAt, type Level } from '../schema/level.js';
-import { formatEngineering } from '../units/format.js';
+import { formatEngineering, formatStated } from '../units/format.js';
 import type { Check, CheckKind, CheckSubject } from './check.js';
 
 /** Check names, formatted once per design. */
@@ -27,18 +27,18 @@ export interface CircuitCheckNames {
 }
 
 function levelText(level: Level): string {
-  if (level.scale === 0) return formatEngineering(level.offset, 'V');
+  if (level.scale === 0) return formatStated(level.offset, 'V');
   const base = level.scale === 1 ? 'vdd' : `${level.scale} vdd`;
-  return level.offset === 0 ? base : `${base} ${level.offset > 0 ? '+' : '-'} ${formatEngineering(Math.abs(level.offset), 'V')}`;
+  return level.offset === 0 ? base : `${base} ${level.offset > 0 ? '+' : '-'} ${formatStated(Math.abs(level.offset), 'V')}`;
 }
 
 export function circuitCheckNames(req: CircuitRequirements, output: string): CircuitCheckNames {
   return {
     outputMin: req.output?.min ? `V(${output}) >= ${levelText(req.output.min)}` : undefined,
     outputMax: req.output?.max ? `V(${output}) <= ${levelText(req.output.max)}` : undefined,
-    ripple: req.ripple ? `ripple(${output}) <= ${formatEngineering(req.ripple.max, 'V')}` : undefined,
+    ripple: req.ripple ? `ripple(${output}) <= ${formatStated(req.ripple.max, 'V')}` : undefined,
     efficiency: req.efficiency ? `efficiency >= ${(req.efficiency.min * 100).toFixed(1)} %` : undefined,
-    lostCharge: req.lostCharge ? `lost charge <= ${formatEngineering(req.lostCharge.max, 'C')}` : undefined,
+    lostCharge: req.lostCharge ? `lost charge <= ${formatStated(req.lostCharge.max, 'C')}` : undefined,
   };
 }
 

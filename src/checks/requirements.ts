@@ -1,6 +1,6 @@
 /** Requirement checks on a corner's phase measurements (dead time, clean gap, width, overlap). */
 import type { Requirements } from '../schema/design.js';
-import { formatTime } from '../units/format.js';
+import { formatStated } from '../units/format.js';
 import { GAP_LEVEL, type MeasurementFailure, type PhaseMeasurement } from '../measure/phases.js';
 import { marginCheck, type Check, type CheckSubject, type DeadTimeIndex } from './check.js';
 
@@ -64,7 +64,7 @@ function requirementSubjects(req: Requirements, widthNets: readonly string[]): R
 }
 
 export function requirementLabels(req: Requirements, phases: readonly [string, string], widthNets: readonly string[]): RequirementLabels {
-  const show = (v: number | undefined) => (v === undefined ? '' : formatTime(v));
+  const show = (v: number | undefined) => (v === undefined ? '' : formatStated(v, 's'));
   const [a, b] = phases;
   const pair = (what: string, op: string, v: number | undefined): [string, string] => [
     `${what} ${a}->${b} ${op} ${show(v)}`,

@@ -3,7 +3,7 @@
  * RC settling of series paths. Margins are seconds, positive when met, worst over the signal range.
  */
 import type { ConstraintsSpec } from '../schema/switches.js';
-import { formatTime } from '../units/format.js';
+import { formatStated, formatTime } from '../units/format.js';
 import { alignNear, type SwitchConduction } from '../switches/conduction.js';
 import { bitsToError, settlingTimeConstants } from '../switches/physics.js';
 import type { Check, CheckSubject } from './check.js';
@@ -67,12 +67,12 @@ export function settleTime(path: ConstraintsSpec['settle'][number], resistance: 
 
 /** What a break-before-make pair requires, in words (its check's name unless the user named it). */
 function bbmRequirement(bbm: ConstraintsSpec['breakBeforeMake'][number], guard: number): string {
-  return `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatTime(guard)}` : ''}`;
+  return `${bbm.between[0]}/${bbm.between[1]} break-before-make${guard > 0 ? ` + ${formatStated(guard, 's')}` : ''}`;
 }
 
 /** What an order constraint requires, in words. */
 function orderRequirement(o: ConstraintsSpec['order'][number]): string {
-  return `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatTime(o.min)}` : ''}`;
+  return `${o.first.switch} ${o.first.event} before ${o.then.switch} ${o.then.event}${o.min > 0 ? ` by ${formatStated(o.min, 's')}` : ''}`;
 }
 
 /** Display names of every switch constraint, in the order appendSwitchChecks emits them; computed once per design. */

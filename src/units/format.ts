@@ -40,6 +40,26 @@ export function formatEngineering(value: number, unit: string, digits = 3): stri
   return `${trimNumber(value / 1e-15, digits)} f${unit}`;
 }
 
+/**
+ * A value a design states (a requirement, a guard), in as few significant digits from 3 to 6 as
+ * give it back: 500 ps, 979.5 ps, 12.25 ps, so a check's name never rounds its own limit.
+ */
+export function formatStated(value: number, unit: string): string {
+  const scale = scaleOf(value);
+  for (let digits = 3; digits < 6; digits++) {
+    const text = formatEngineering(value, unit, digits);
+    if (Math.abs(Number.parseFloat(text) * scale - value) <= 1e-9 * Math.abs(value)) return text;
+  }
+  return formatEngineering(value, unit, 6);
+}
+
+/** The SI prefix scale formatEngineering picks for a value. */
+function scaleOf(value: number): number {
+  const magnitude = Math.abs(value);
+  for (const [scale] of SI_PREFIXES) if (magnitude >= scale * 0.9995) return scale;
+  return 1e-15;
+}
+
 /** Fixed number of significant digits, but never exponent notation. */
 function trimNumber(value: number, digits: number): string {
   const magnitude = Math.abs(value);

@@ -97,7 +97,7 @@ describe('mcSuite and confirmSuite', () => {
     const mc = runMonteCarlo(resolved, 40, 1);
     const missed = mcSuite(mcReport('d', 'generic180', mc, 0.99));
     expect(missed.cases[0]).toMatchObject({ name: 'yield at every corner', failure: 'yield 75.0 % over 40 dies; required 99.0 %' });
-    expect(missed.cases.filter((c) => c.failure !== undefined).map((c) => c.name)).toContain('dead p1->p2 >= 980 ps');
+    expect(missed.cases.filter((c) => c.failure !== undefined).map((c) => c.name)).toContain('dead p1->p2 >= 979.5 ps');
     const accepted = mcSuite(mcReport('d', 'generic180', mc, 0.6));
     expect(accepted.cases.filter((c) => c.failure !== undefined)).toEqual([]);
     expect(validate(junitXml([missed], record, junitBuilder))).toBe('');

@@ -4,6 +4,7 @@ import {
   formatNs,
   formatPercent,
   formatSignedTime,
+  formatStated,
   nsNumber,
   percentDecimals,
   prefixedUnits,
@@ -132,5 +133,19 @@ describe('formatNs and nsNumber', () => {
     expect(nsNumber(14.104e-9)).toBe('14.10');
     expect(formatNs(14.104e-9)).toBe('14.10 ns');
     expect(formatNs(-2.5e-9)).toBe('-2.50 ns');
+  });
+});
+
+describe('formatStated', () => {
+  it('names a stated value in as few figures from 3 to 6 as give it back, never rounding it', () => {
+    expect(formatStated(500e-12, 's')).toBe('500 ps');
+    expect(formatStated(50e-12, 's')).toBe('50.0 ps');
+    expect(formatStated(979.5e-12, 's')).toBe('979.5 ps');
+    expect(formatStated(12.25e-12, 's')).toBe('12.25 ps');
+    expect(formatStated(1.05e-9, 's')).toBe('1.05 ns');
+    expect(formatStated(2.88, 'V')).toBe('2.88 V');
+    expect(formatStated(3.2425, 'V')).toBe('3.2425 V');
+    // More than six figures: six.
+    expect(formatStated(1.23456789e-9, 's')).toBe('1.23457 ns');
   });
 });
