@@ -357,9 +357,9 @@ export function solveEdge(
  *   p(x) = (1 + m) x^2 / (1 + m x),  m = (2 - alpha)/(alpha - 1),
  * the square law bent by a factor 1/(1 + theta V_ov): SPICE level 3's mobility degradation (the
  * ngspice manual's MOS3 THETA), and the same form as the common first-order velocity-saturation
- * current, V_ov^2/(1 + V_ov/(E_c L)) (common practice). m = theta (V_DD - Vth) is set so that the
- * log slope of p at full drive is alpha: the card's alpha-power fit (near full drive) and this law
- * give the same current and slope at V_DD. x^alpha itself holds that slope down to threshold, which
+ * current, V_ov^2/(1 + V_ov/(E_c L)) (common practice). m, which stands for theta (V_DD - Vth), is
+ * set from alpha so that the log slope of p at full drive is alpha: the card's alpha-power fit
+ * (near full drive) and this law give the same current and slope at V_DD. x^alpha itself holds that slope down to threshold, which
  * overstates the current below full drive: on generic180's level-3 models in ngspice-39 (27 C,
  * V_DS = 1.8 V) x^alpha is 6 % high at x = 0.47, 13 % at 0.33, 28 % at 0.2 and 85 % at 0.07, where
  * this law is 0.6, 1.1, 1.5 and 1.8 % low; a stage driven by another's edge ran about 1 % fast.
