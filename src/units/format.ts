@@ -33,11 +33,14 @@ export function formatTime(seconds: number, digits = 3): string {
 export function formatEngineering(value: number, unit: string, digits = 3): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0) return `0 ${unit}`;
+  const [scale, prefix] = prefixOf(value);
+  return `${trimNumber(value / scale, digits)} ${prefix}${unit}`;
+}
+
+/** The SI prefix formatEngineering writes a value with: the largest it reaches (to rounding), else femto. */
+function prefixOf(value: number): readonly [number, string] {
   const magnitude = Math.abs(value);
-  for (const [scale, prefix] of SI_PREFIXES) {
-    if (magnitude >= scale * 0.9995) return `${trimNumber(value / scale, digits)} ${prefix}${unit}`;
-  }
-  return `${trimNumber(value / 1e-15, digits)} f${unit}`;
+  return SI_PREFIXES.find(([scale]) => magnitude >= scale * 0.9995) ?? SI_PREFIXES[SI_PREFIXES.length - 1]!;
 }
 
 /**
@@ -45,19 +48,12 @@ export function formatEngineering(value: number, unit: string, digits = 3): stri
  * give it back: 500 ps, 979.5 ps, 12.25 ps, so a check's name never rounds its own limit.
  */
 export function formatStated(value: number, unit: string): string {
-  const scale = scaleOf(value);
+  const [scale] = prefixOf(value);
   for (let digits = 3; digits < 6; digits++) {
     const text = formatEngineering(value, unit, digits);
     if (Math.abs(Number.parseFloat(text) * scale - value) <= 1e-9 * Math.abs(value)) return text;
   }
   return formatEngineering(value, unit, 6);
-}
-
-/** The SI prefix scale formatEngineering picks for a value. */
-function scaleOf(value: number): number {
-  const magnitude = Math.abs(value);
-  for (const [scale] of SI_PREFIXES) if (magnitude >= scale * 0.9995) return scale;
-  return 1e-15;
 }
 
 /** Fixed number of significant digits, but never exponent notation. */
