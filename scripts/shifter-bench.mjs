@@ -39,3 +39,40 @@ export function edges(value) {
     tFall: value('t_fall') / 0.8,
   };
 }
+
+/** Levels of the output edge whose crossings shapeMeasures() asks for, as fractions of the swing. */
+export const SHAPE_LEVELS = [0.05, 0.1, 0.2, 0.3, 0.4, 0.6, 0.7, 0.8, 0.9, 0.95];
+
+/**
+ * .meas lines for the output's crossings of SHAPE_LEVELS and its 50 % point on both edges, and the
+ * 10-90 % transitions of the latch node `latch` (0 .. high) that drives the output inverter, all
+ * after `from` (s).
+ */
+export function shapeMeasures({ low, high, latch, from }) {
+  const swing = high - low;
+  const w = `TD=${from}`;
+  const lines = [];
+  for (const dir of ['RISE', 'FALL']) {
+    const d = dir[0].toLowerCase();
+    lines.push(`.meas tran s${d}_mid WHEN v(out)=${low + 0.5 * swing} ${dir}=1 ${w}`);
+    for (const [i, f] of SHAPE_LEVELS.entries()) lines.push(`.meas tran s${d}_${i} WHEN v(out)=${low + f * swing} ${dir}=1 ${w}`);
+  }
+  lines.push(`.meas tran x_fall TRIG v(${latch}) VAL=${0.9 * high} FALL=1 ${w} TARG v(${latch}) VAL=${0.1 * high} FALL=1 ${w}`);
+  lines.push(`.meas tran x_rise TRIG v(${latch}) VAL=${0.1 * high} RISE=1 ${w} TARG v(${latch}) VAL=${0.9 * high} RISE=1 ${w}`);
+  return lines;
+}
+
+/**
+ * What shapeMeasures() asked for: per output edge, each level's time from the 50 % point in units of
+ * that edge's full-swing transition (10-90 % over 0.8), and the latch node's full-swing transitions
+ * (its fall drives the output's rise), s.
+ */
+export function shape(value, { tRise, tFall }) {
+  const lags = (d, t) => SHAPE_LEVELS.map((_, i) => (value(`s${d}_${i}`) - value(`s${d}_mid`)) / t);
+  return {
+    riseLags: lags('r', tRise),
+    fallLags: lags('f', tFall),
+    latchFall: value('x_fall') / 0.8,
+    latchRise: value('x_rise') / 0.8,
+  };
+}

@@ -15,10 +15,10 @@ import { shifterLines } from '../dist/src/spice/level-shifter.js';
 import { nominalCorner, nominalDevices, shifterFits } from '../dist/src/switches/shifter-sizing.js';
 import { saturationCurrent } from '../dist/src/process/device.js';
 import { leastSquares } from './least-squares.mjs';
-import { edgeMeasures, edges, simulate } from './shifter-bench.mjs';
+import { edgeMeasures, edges, SHAPE_LEVELS, shape, shapeMeasures, simulate } from './shifter-bench.mjs';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
-const runs = Number(process.argv[2] ?? 60);
+const runs = Number(process.argv[2] ?? 120);
 let seed = Number(process.argv[3] ?? 11);
 const random = () => {
   seed = (seed * 16807) % 2147483647;
@@ -49,7 +49,8 @@ for (let k = 0; k < runs; k++) {
   const pullDown = Math.round(between(2, 8)) * unit;
   const latchP = between(0.15, 0.3) * pullDown;
   const outputN = between(2, 16) * unit;
-  const outputP = outputN * between(1.5, 3.5);
+  // The output p device as the sizing makes it, alike on both edges (n at the swing, p at the high level), give or take.
+  const outputP = outputN * (current(n, swing) / current(p, high)) * between(0.7, 1.4);
   const size = {
     inverterN: 2 * unit,
     bufferN: 2 * unit,
@@ -92,15 +93,18 @@ for (let k = 0; k < runs; k++) {
     `cload out ${bias(high)} ${load}`,
     `.tran ${T / 4000} ${2.2 * T} 0 ${T / 4000}`,
     ...edgeMeasures({ vdd, low, high, invert, from: T }),
+    ...shapeMeasures({ low, high, latch: 'ls_x', from: T }),
     '.end',
     '',
   ].join('\n');
   const value = simulate(join(dir, `u${k}.cir`), deck);
+  const measured = edges(value);
   const row = {
     levels: [lo, hi],
     input,
     terms,
-    ...edges(value),
+    ...measured,
+    ...shape(value, measured),
   };
   if ([row.rise, row.fall, row.tRise, row.tFall].some((v) => !Number.isFinite(v) || v <= 0)) {
     console.error(`run ${k} (${lo}..${hi} VDD) gave no edges`);
@@ -109,6 +113,30 @@ for (let k = 0; k < runs; k++) {
   rows.push(row);
 }
 rmSync(dir, { recursive: true, force: true });
+
+/** A fit of `ys` on `xs` with its residuals in absolute units (for quantities that pass through 0). */
+function absoluteFit(xs, ys) {
+  const { coef } = leastSquares(xs, ys);
+  const errors = xs.map((x, k) => Math.abs(x.reduce((s, v, i) => s + v * coef[i], 0) - ys[k])).sort((a, b) => a - b);
+  return { coef, worst: errors.at(-1), median: errors[Math.floor(errors.length / 2)] };
+}
+
+/**
+ * The output edge's shape: per level of SHAPE_LEVELS, its time from the 50 % point in transitions,
+ * fitted on [1, ln r, ln^2 r] with r the latch node's transition over the output's; and r's range.
+ */
+function shapeFit(rs, lags, ratio) {
+  const logs = rs.map((r) => Math.log(ratio(r)));
+  return {
+    ratio: [Math.min(...rs.map(ratio)), Math.max(...rs.map(ratio))],
+    levels: SHAPE_LEVELS.map((_, j) =>
+      absoluteFit(
+        logs.map((x) => [1, x, x * x]),
+        rs.map((r) => lags(r)[j]),
+      ),
+    ),
+  };
+}
 
 function fitFor(group) {
   const rs = rows.filter((r) => r.levels[0] > 0 === group);
@@ -122,6 +150,7 @@ function fitFor(group) {
       rs.map((r) => [1, r.terms.buffer, r.terms.fight, r.terms.output, r.input]),
       rs.map((r) => r.rise),
     ),
+    // The sizing's: the output stage alone, since it is chosen before the latch.
     transitionRise: leastSquares(
       rs.map((r) => [1, r.terms.output]),
       rs.map((r) => r.tRise),
@@ -129,6 +158,33 @@ function fitFor(group) {
     transitionFall: leastSquares(
       rs.map((r) => [1, r.terms.output]),
       rs.map((r) => r.tFall),
+    ),
+    // The edges': the output stage and the latch node edge that drives it.
+    edgeTransitionRise: leastSquares(
+      rs.map((r) => [1, r.terms.output, r.terms.fight]),
+      rs.map((r) => r.tRise),
+    ),
+    edgeTransitionFall: leastSquares(
+      rs.map((r) => [1, r.terms.output, r.terms.latchRise]),
+      rs.map((r) => r.tFall),
+    ),
+    latchFall: leastSquares(
+      rs.map((r) => [1, r.terms.fight, r.terms.latchRise]),
+      rs.map((r) => r.latchFall),
+    ),
+    latchRise: leastSquares(
+      rs.map((r) => [1, r.terms.latchRise]),
+      rs.map((r) => r.latchRise),
+    ),
+    riseShape: shapeFit(
+      rs,
+      (r) => r.riseLags,
+      (r) => r.latchFall / r.tRise,
+    ),
+    fallShape: shapeFit(
+      rs,
+      (r) => r.fallLags,
+      (r) => r.latchRise / r.tFall,
     ),
   };
 }

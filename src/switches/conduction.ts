@@ -64,8 +64,8 @@ export interface GateWave {
  * The gate ramps of one device of a switch, or why its net has none. `shifter` is its level
  * shifter's timing at this corner (shifter-timing.ts), or a scale of the declared delay and
  * transition (1: as declared, the nominal corner's). A gate driven by its net itself takes the
- * net's edges as the delay model shapes them (`shape`, modelEdgeShape), a shifter's output the
- * linear ramp of its delay and transition.
+ * net's edges as the delay model shapes them (`shape`, modelEdgeShape); a latch shifter's output
+ * its fitted edge (shifter-shape.ts), any other shifter's the linear ramp of its delay and transition.
  */
 export function gateWave(
   plan: SwitchPlan,
@@ -86,8 +86,8 @@ export function gateWave(
   const inFall = invert ? cycle.rise : cycle.fall;
   if (ls && typeof shifter !== 'number') {
     return {
-      rise: { t50: inRise + shifter.riseDelay, transition: shifter.riseTransition, low, high, rising: true },
-      fall: { t50: inFall + shifter.fallDelay, transition: shifter.fallTransition, low, high, rising: false },
+      rise: { t50: inRise + shifter.riseDelay, transition: shifter.riseTransition, low, high, rising: true, shape: shifter.riseShape },
+      fall: { t50: inFall + shifter.fallDelay, transition: shifter.fallTransition, low, high, rising: false, shape: shifter.fallShape },
     };
   }
   // A shifter's declared delay and transition hold at the nominal corner; `shifter` (see

@@ -14,9 +14,10 @@
  * The fits' constants stand for the core-supply inverters and scale with a core inverter's
  * C V / I (n and p together).
  *
- * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts): each
- * edge's ratio to the nominal corner within 4.7 % median, 20.6 % worst (the declared delay's
- * swing / n-drive scale of shifter-timing.ts: 8.7 %, 25.6 %). What the switches' gate ramps use
+ * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts, too-tight's
+ * s_high sizing): each edge's ratio to the nominal corner within 2.6 / 4.0 % median, 13.7 / 17.3 %
+ * worst (rise / fall); transitions 8.9 / 6.8 % median, -18.6..+24.3 % worst. The latch node's
+ * transition over the output's (riseRatio, fallRatio) sets the output edge's shape (shifter-shape.ts). What the switches' gate ramps use
  * (shifter-timing.ts, `shifterGateTiming`); the break-before-make check reads them against the
  * measured switch-instant band (instant-band.ts), since the generator's own edges are optimistic
  * at the hot corners.
@@ -34,6 +35,9 @@ export interface ShifterEdges {
   readonly fall: number;
   readonly riseTransition: number;
   readonly fallTransition: number;
+  /** The latch node's full-swing transition over the output's, on the output's rising and falling edge (what shapes it: shifter-shape.ts). */
+  readonly riseRatio: number;
+  readonly fallRatio: number;
 }
 
 /**
@@ -97,7 +101,8 @@ function edgesWith(
   const { latch, mid } = nodes(size, n, p);
   const fightCurrent = d.pull * size.pullDown - d.latch * size.latchP;
   // The pull-down no longer wins the fight: the latch never flips.
-  if (!(fightCurrent > 0)) return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity };
+  if (!(fightCurrent > 0))
+    return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity, riseRatio: 1, fallRatio: 1 };
   const fight = (latch * d.high) / (2 * fightCurrent);
   const latchRise = (latch * d.high) / (2 * d.latch * size.latchP);
   const buffer = (mid * d.vdd) / (2 * d.pull * size.bufferN);
@@ -106,13 +111,20 @@ function edgesWith(
   const outFall = (size.outputStage * nominal.outN) / d.outN;
   const [f0, f1, f2, f3, f4] = fits.fall;
   const [r0, r1, r2, r3, r4] = fits.rise;
-  const [tr0, tr1] = fits.transitionRise;
-  const [tf0, tf1] = fits.transitionFall;
+  const [tr0, tr1, tr2] = fits.edgeTransitionRise;
+  const [tf0, tf1, tf2] = fits.edgeTransitionFall;
+  const [xf0, xf1, xf2] = fits.latchFall;
+  const [xr0, xr1] = fits.latchRise;
+  const riseTransition = tr0 * core + tr1 * outRise + tr2 * fight;
+  const fallTransition = tf0 * core + tf1 * outFall + tf2 * latchRise;
   return {
     rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + r4 * input.rise,
     fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + f4 * input.fall,
-    riseTransition: tr0 * core + tr1 * outRise,
-    fallTransition: tf0 * core + tf1 * outFall,
+    riseTransition,
+    fallTransition,
+    // The latch node falls as the output rises, and rises as it falls.
+    riseRatio: (xf0 * core + xf1 * fight + xf2 * latchRise) / riseTransition,
+    fallRatio: (xr0 * core + xr1 * latchRise) / fallTransition,
   };
 }
 

@@ -4,21 +4,21 @@
  * the design's declared delay on both edges and its declared output transition.
  *
  * Each stage's time is estimated as C * dV / (2 I) from the card's alpha-power currents at the
- * nominal corner; the estimates are turned into the shifter's delays and transitions by linear
- * fits to ngspice runs of the same circuit (ngspice 42 on fixtures/models/generic180.lib at
- * tt/1.8V/27C, 60 random sizings with loads of 10 to 160 fF, output transitions of 80 to 400 ps,
- * input ramps of 60 to 500 ps, pull-downs of 2 and 4 um, output low level at 0 and at VDD, high
- * level 2 VDD; delays within 7 %, transitions within 26 % of ngspice). Other cards get the same
- * fits: `confirm` measures what the shifter really does at every corner. The coefficients of the
- * current-based estimates are multiplied by 1.1261 since generic180's drive went up by that factor
- * (its prefactor 0.888 -> 0.955 with vdsatRatio, then to the fit's own 1.0), so every shifter is
- * sized as before.
+ * nominal corner; the estimates are turned into the shifter's delays, transitions and output edge
+ * shape by fits to ngspice runs of the same circuit (scripts/shifter-fit.mjs: ngspice-39 on
+ * fixtures/models/generic180.lib at tt/1.8V/27C, 120 random sizings with loads of 10 to 160 fF,
+ * input ramps of 60 to 500 ps, pull-downs of 2 to 8 unit widths, output low level at 0 and at VDD,
+ * high level 2 VDD). Delays: median 2.1-4.5 %, worst 13-22 % of ngspice. Output transitions from
+ * the output stage and the latch node's stage time: median 1.9-7.2 %, worst 11-35 %; from the
+ * output stage alone (what the sizing can use, before the latch is sized) median 14-37 %.
+ * Other cards get the same fits: `confirm` measures what the shifter really does at every corner.
  */
 import { cornerName, type Corner } from '../process/corner.js';
 import { devicesAtCorner, saturationCurrent, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
 import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from './plan.js';
+import type { EdgeShapeFit } from './shifter-shape.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -56,25 +56,103 @@ const MIN_TRANSITION = 40e-12;
 
 /** ngspice fits (see the header), s and dimensionless: [constant, coefficients of the estimates]. */
 export interface ShifterFits {
-  /** Constant, then per estimate: latch node fall, latch node rise (or skewed buffer), output transition, input ramp. */
+  /** Delays. Constant, then per estimate: latch node fall, latch node rise (or skewed buffer), output stage, input ramp. */
   readonly fall: readonly [number, number, number, number, number];
   readonly rise: readonly [number, number, number, number, number];
+  /** The sizing's output transitions: constant, output stage (chosen before the latch, so on its own). */
   readonly transitionRise: readonly [number, number];
   readonly transitionFall: readonly [number, number];
+  /** The edges' output transitions: constant, output stage, the latch node's stage time (fight; latch p rise). */
+  readonly edgeTransitionRise: readonly [number, number, number];
+  readonly edgeTransitionFall: readonly [number, number, number];
+  /** Full-swing transitions of the latch node driving the output: its fall (constant, fight, latch p rise) and rise (constant, latch p rise). */
+  readonly latchFall: readonly [number, number, number];
+  readonly latchRise: readonly [number, number];
+  /** Shapes of the output's rising and falling edge (shifter-shape.ts). */
+  readonly riseShape: EdgeShapeFit;
+  readonly fallShape: EdgeShapeFit;
 }
 /** Output low level at ground: the output n device sees the whole high level on its gate. */
 const GROUNDED: ShifterFits = {
-  fall: [89.34e-12, 0.7891, 1.3083, 0.4895, 0.1113],
-  rise: [104.23e-12, 1.4697, 1.0145, 0.4217, 0.1653],
-  transitionRise: [31.45e-12, 1.0114],
-  transitionFall: [68.06e-12, 0.9058],
+  fall: [32.084e-12, 0.19635, 1.6926, 1.3055, 0.15124],
+  rise: [77.775e-12, 1.7335, 0.71361, 0.67501, 0.15823],
+  transitionRise: [113.94e-12, 0.94666],
+  transitionFall: [231.97e-12, 0.50475],
+  edgeTransitionRise: [10.15e-12, 1.3947, 0.44772],
+  edgeTransitionFall: [10.992e-12, 1.4327, 0.75441],
+  latchFall: [10.617e-12, 1.1865, 0.44198],
+  latchRise: [21.701e-12, 3.3714],
+  riseShape: {
+    ratio: [0.34, 3.47],
+    levels: [
+      [-0.447, -0.1651, -0.0584],
+      [-0.3463, -0.0986, -0.0369],
+      [-0.2278, -0.0246, -0.0041],
+      [-0.1459, -0.0003, 0.0086],
+      [-0.0724, 0.0048, 0.0064],
+      [0.0775, -0.0115, -0.0103],
+      [0.1675, -0.0289, -0.0246],
+      [0.2816, -0.0545, -0.0392],
+      [0.4537, -0.0985, -0.0369],
+      [0.6088, -0.1423, -0.0074],
+    ],
+  },
+  fallShape: {
+    ratio: [0.83, 4.12],
+    levels: [
+      [0.6308, -0.3138, 0.1437],
+      [0.4552, -0.1081, -0.017],
+      [0.2758, -0.0102, -0.0611],
+      [0.164, 0.0044, -0.0423],
+      [0.0764, 0.0049, -0.0198],
+      [-0.0719, -0.0156, 0.0207],
+      [-0.1462, -0.0418, 0.0408],
+      [-0.2299, -0.0662, 0.0319],
+      [-0.3449, -0.1079, -0.0171],
+      [-0.4349, -0.1238, -0.0769],
+    ],
+  },
 };
 /** Output low level above ground (a floating output domain such as VDD .. 2 VDD). */
 const FLOATING: ShifterFits = {
-  fall: [72.24e-12, 1.221, 2.0243, 0.8518, 0.1646],
-  rise: [77.3e-12, 1.4493, 0.8363, 0.6173, 0.2646],
-  transitionRise: [34.46e-12, 1.7097],
-  transitionFall: [64.59e-12, 1.4394],
+  fall: [68.872e-12, 0.74619, 2.4325, 1.2365, 0.10611],
+  rise: [79.853e-12, 1.6466, 0.61729, 0.73072, 0.18586],
+  transitionRise: [79.671e-12, 2.1202],
+  transitionFall: [96.986e-12, 1.7809],
+  edgeTransitionRise: [37.255e-12, 2.1678, 0.3108],
+  edgeTransitionFall: [9.3623e-12, 1.8633, 0.42279],
+  latchFall: [22.95e-12, 1.3705, 0.25054],
+  latchRise: [-8.7602e-12, 3.3778],
+  riseShape: {
+    ratio: [0.09, 3.1],
+    levels: [
+      [-0.3571, -0.07, -0.0118],
+      [-0.2994, -0.0509, -0.0098],
+      [-0.213, -0.0248, -0.0055],
+      [-0.1407, -0.0099, -0.0024],
+      [-0.0716, -0.0024, -0.0007],
+      [0.0794, -0.002, -0.0002],
+      [0.174, -0.009, -0.0014],
+      [0.2988, -0.023, -0.0042],
+      [0.5005, -0.051, -0.0098],
+      [0.6961, -0.0769, -0.0137],
+    ],
+  },
+  fallShape: {
+    ratio: [0.22, 7.83],
+    levels: [
+      [0.5673, -0.0712, -0.0114],
+      [0.4248, -0.0466, -0.0057],
+      [0.2694, -0.0223, -0.0004],
+      [0.1655, -0.0088, 0.0015],
+      [0.0802, -0.0014, 0.0011],
+      [-0.0821, -0.0026, -0.0008],
+      [-0.1692, -0.0094, -0.0015],
+      [-0.2642, -0.0224, -0.0024],
+      [-0.3752, -0.0467, -0.0057],
+      [-0.4439, -0.069, -0.012],
+    ],
+  },
 };
 
 /** The fits for a shifter whose output low level is `low` volts. */

@@ -15,7 +15,8 @@ import type { ProcessCard } from '../schema/process.js';
 import type { SwitchPlan } from './plan.js';
 import type { NetCycle } from '../measure/phases.js';
 import { shifterEdges } from './shifter-edges.js';
-import { latchShifter, nominalDevices, type ShifterSizing } from './shifter-sizing.js';
+import { latchShifter, nominalDevices, shifterFits, type ShifterSizing } from './shifter-sizing.js';
+import { shapeLag, type EdgeShapeFit } from './shifter-shape.js';
 
 type Shifter = NonNullable<SwitchPlan['levelShifter']>;
 
@@ -60,6 +61,12 @@ export interface ShifterGateTiming {
   /** Full-swing transition of the output's rising and falling edge. */
   readonly riseTransition: number;
   readonly fallTransition: number;
+  /**
+   * Time from the output's 50 % point to where it crosses a fraction of its swing, s (the latch
+   * shifter's fitted edge shape, shifter-shape.ts); null, or none, for the linear ramp.
+   */
+  readonly riseShape?: (fraction: number) => number | null;
+  readonly fallShape?: (fraction: number) => number | null;
 }
 
 /**
@@ -82,7 +89,19 @@ export function shifterGateTiming(
       ? { rise: cycle.fallTransition, fall: cycle.riseTransition }
       : { rise: cycle.riseTransition, fall: cycle.fallTransition };
     const e = shifterEdges(ls, size, devices, nominalDevices(devices.card), input, dvth);
-    return { riseDelay: e.rise, fallDelay: e.fall, riseTransition: e.riseTransition, fallTransition: e.fallTransition };
+    const fits = shifterFits(levelAt(ls.low, devices.vdd));
+    const lag = (fit: EdgeShapeFit, ratio: number, transition: number) => (fraction: number) => {
+      const t = shapeLag(fit, ratio, fraction);
+      return t === null ? null : t * transition;
+    };
+    return {
+      riseDelay: e.rise,
+      fallDelay: e.fall,
+      riseTransition: e.riseTransition,
+      fallTransition: e.fallTransition,
+      riseShape: lag(fits.riseShape, e.riseRatio, e.riseTransition),
+      fallShape: lag(fits.fallShape, e.fallRatio, e.fallTransition),
+    };
   }
   const scale = shifterScaleWithMismatch(ls, devices, dvth);
   const delay = ls.delay * scale;

@@ -16,6 +16,7 @@ import { runDecks } from '../../src/spice/runner.js';
 import { measureLine, type Quantity } from '../../src/spice/measures.js';
 import { modelFile } from '../../src/cli/model-file.js';
 import { CycleIndex } from '../../src/measure/phases.js';
+import { modelEdgeShape } from '../../src/measure/levels.js';
 import { gateWave, deviceShifter } from '../../src/switches/conduction.js';
 import { rampCrossing } from '../../src/switches/physics.js';
 import { devicesAtCorner } from '../../src/process/device.js';
@@ -36,13 +37,15 @@ for (const name of names!) {
     const ev = evaluateCorner(resolved, corner);
     const cycles = new CycleIndex(ev.simulation, resolved.netlist);
     const devices = devicesAtCorner(card, corner);
+    // The gate nets' edges as the model shapes them (the evaluator's own instants read them so).
+    const shape = modelEdgeShape(cycles, resolved.netlist, resolved.model.bind(resolved.netlist, resolved.loads, devices));
     const vdd = corner.vdd;
     const T = deck.window.period;
     const extra: Array<{ q: Quantity; m50: Quantity; mIn?: Quantity; model50: number; modelIn?: number; label: string }> = [];
     let k = 0;
     resolved.switches.forEach((plan, i) => {
       plan.devices.forEach((device, j) => {
-        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, sizes?.[i]));
+        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, sizes?.[i]), shape);
         if (typeof wave === 'string') return;
         const prefix = `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} `;
         const qs = deck.quantities.filter((q) => q.event?.switch === plan.name && q.label.startsWith(prefix));
