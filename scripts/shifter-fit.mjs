@@ -1,7 +1,10 @@
 // Regenerates the fits of src/switches/shifter-sizing.ts (the cross-coupled up-shifter of
 // src/spice/level-shifter.ts): random sizings of the shifter alone, simulated in ngspice at the
-// card's nominal corner, and least-squares fits of the measured delays and transitions to the stage
-// estimates shifter-edges.ts uses (latch fight, latch p rise, skewed buffer, output stage, input ramp).
+// card's nominal corner, and least-squares fits of the measured delays, output and latch-node
+// transitions to the stage estimates shifter-edges.ts uses (latch fight, latch p rise, skewed buffer,
+// output stage, input ramp), and of the output edge's shape (each level's time from 50 % in
+// transitions, on the log of the latch node's transition over the output's: shifter-shape.ts).
+// Its output is pasted into the GROUNDED and FLOATING fits of src/switches/shifter-sizing.ts.
 // Run after `npm run build`: node scripts/shifter-fit.mjs [runs] [seed]
 // With ROWS=1 it prints each run's estimates and measurements; with CHECK=1 it also prints how far
 // the fits now in the source are from each run.
