@@ -14,13 +14,13 @@
  * The fits' constants stand for the core-supply inverters and scale with a core inverter's
  * C V / I (n and p together).
  *
- * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts, too-tight's
- * s_high sizing): each edge's ratio to the nominal corner within 2.6 / 4.0 % median, 13.7 / 17.3 %
- * worst (rise / fall); transitions 8.9 / 6.8 % median, -18.6..+24.3 % worst. The latch node's
- * transition over the output's (riseRatio, fallRatio) sets the output edge's shape (shifter-shape.ts). What the switches' gate ramps use
- * (shifter-timing.ts, `shifterGateTiming`); the break-before-make check reads them against the
- * measured switch-instant band (instant-band.ts), since the generator's own edges are optimistic
- * at the hot corners.
+ * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts,
+ * too-tight's s_high sizing): each edge's ratio to the nominal corner within 2.6 / 4.0 % median,
+ * 13.7 / 17.3 % worst (rise / fall); transitions 8.9 / 6.8 % median, -18.6..+24.3 % worst. The
+ * latch node's transition over the output's (riseRatio, fallRatio) sets the output edge's shape
+ * (shifter-shape.ts). What the switches' gate ramps use (shifter-timing.ts, `shifterGateTiming`);
+ * the break-before-make check reads them against the measured switch-instant band
+ * (instant-band.ts), since the generator's own edges are optimistic at the hot corners.
  */
 import { saturationCurrent, shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { levelAt } from '../schema/level.js';

@@ -90,8 +90,9 @@ export function shifterGateTiming(
       : { rise: cycle.riseTransition, fall: cycle.fallTransition };
     const e = shifterEdges(ls, size, devices, nominalDevices(devices.card), input, dvth);
     const fits = shifterFits(levelAt(ls.low, devices.vdd));
+    // A latch that never flips has no edge to shape: its infinite times stay as the ramp gives them.
     const lag = (fit: EdgeShapeFit, ratio: number, transition: number) => (fraction: number) => {
-      const t = shapeLag(fit, ratio, fraction);
+      const t = Number.isFinite(transition) ? shapeLag(fit, ratio, fraction) : null;
       return t === null ? null : t * transition;
     };
     return {

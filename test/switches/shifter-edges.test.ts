@@ -114,5 +114,10 @@ describe('shifterEdges', () => {
     expect(slow.rise).toBeGreaterThan(base.rise);
     expect(slow.fall).toBeGreaterThan(base.fall);
     expect(at('tt', 1.8, 27, 1.2).rise).toBe(Infinity);
+    // Its gate then has no edge to shape: the shape gives way to the ramp, and no NaN comes of it.
+    const devices = devicesAtCorner(card, { name: '', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
+    const stuck = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall } as NetCycle, size, 1.2);
+    expect(stuck.riseShape!(0.5)).toBeNull();
+    expect(stuck.fallShape!(0.8)).toBeNull();
   });
 });
