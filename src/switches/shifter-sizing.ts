@@ -7,10 +7,12 @@
  * nominal corner; the estimates are turned into the shifter's delays, transitions and output edge
  * shape by fits to ngspice runs of the same circuit (scripts/shifter-fit.mjs: ngspice-39 on
  * fixtures/models/generic180.lib at tt/1.8V/27C, 120 random sizings with loads of 10 to 160 fF,
- * input ramps of 60 to 500 ps, pull-downs of 2 to 8 unit widths, output low level at 0 and at VDD,
- * high level 2 VDD). Delays: median 2.1-4.5 %, worst 13-22 % of ngspice. Output transitions from
- * the output stage and the latch node's stage time: median 1.9-7.2 %, worst 11-35 %; from the
- * output stage alone (what the sizing can use, before the latch is sized) median 14-37 %.
+ * input ramps of 60 to 500 ps, pull-downs of 2 to 8 unit widths, the output p device within 0.7 to
+ * 1.4 times the width that matches the n device's drive, output low level at 0 and at VDD, high
+ * level 2 VDD). Delays: median 3.1-5.1 %, worst 12-25 % of ngspice (40 other sizings: median
+ * 3.6-5.6 %, worst 27 %). Output transitions from the output stage and the latch node's stage
+ * time: median 1.7-11 %, worst 11-38 %; from the output stage alone (what the sizing can use,
+ * before the latch is sized) median 15-34 %.
  * Other cards get the same fits: `confirm` measures what the shifter really does at every corner.
  */
 import { cornerName, type Corner } from '../process/corner.js';
