@@ -15,11 +15,12 @@ function solve(a, b) {
   }
   return m.map((r, i) => r[n] / r[i]);
 }
-export function leastSquares(xs, ys) {
+/** With `absolute`, the errors are in the data's own units (for quantities that pass through 0). */
+export function leastSquares(xs, ys, absolute = false) {
   const p = xs[0].length;
   const ata = Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, j) => xs.reduce((s, x) => s + x[i] * x[j], 0)));
   const atb = Array.from({ length: p }, (_, i) => xs.reduce((s, x, k) => s + x[i] * ys[k], 0));
   const coef = solve(ata, atb);
-  const errors = xs.map((x, k) => Math.abs(x.reduce((s, v, i) => s + v * coef[i], 0) - ys[k]) / ys[k]);
+  const errors = xs.map((x, k) => Math.abs(x.reduce((s, v, i) => s + v * coef[i], 0) - ys[k]) / (absolute ? 1 : ys[k]));
   return { coef, worst: Math.max(...errors), median: errors.sort((a, b) => a - b)[Math.floor(errors.length / 2)] };
 }

@@ -2,6 +2,7 @@
 // measurements, and one ngspice run of a deck with its .meas results read back.
 import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
+import { SHAPE_LEVELS } from '../dist/src/switches/shifter-shape.js';
 
 /**
  * .meas lines for the output's rising and falling delays from the input's 50 % point to the
@@ -40,8 +41,8 @@ export function edges(value) {
   };
 }
 
-/** Levels of the output edge whose crossings shapeMeasures() asks for, as fractions of the swing. */
-export const SHAPE_LEVELS = [0.05, 0.1, 0.2, 0.3, 0.4, 0.6, 0.7, 0.8, 0.9, 0.95];
+/** Levels of the output edge whose crossings shapeMeasures() asks for: the ones the model's shape fits give. */
+export { SHAPE_LEVELS };
 
 /**
  * .meas lines for the output's crossings of SHAPE_LEVELS and its 50 % point on both edges, and the

@@ -117,13 +117,6 @@ for (let k = 0; k < runs; k++) {
 }
 rmSync(dir, { recursive: true, force: true });
 
-/** A fit of `ys` on `xs` with its residuals in absolute units (for quantities that pass through 0). */
-function absoluteFit(xs, ys) {
-  const { coef } = leastSquares(xs, ys);
-  const errors = xs.map((x, k) => Math.abs(x.reduce((s, v, i) => s + v * coef[i], 0) - ys[k])).sort((a, b) => a - b);
-  return { coef, worst: errors.at(-1), median: errors[Math.floor(errors.length / 2)] };
-}
-
 /**
  * The output edge's shape: per level of SHAPE_LEVELS, its time from the 50 % point in transitions,
  * fitted on [1, ln r, ln^2 r] with r the latch node's transition over the output's; and r's range.
@@ -133,9 +126,10 @@ function shapeFit(rs, lags, ratio) {
   return {
     ratio: [Math.min(...rs.map(ratio)), Math.max(...rs.map(ratio))],
     levels: SHAPE_LEVELS.map((_, j) =>
-      absoluteFit(
+      leastSquares(
         logs.map((x) => [1, x, x * x]),
         rs.map((r) => lags(r)[j]),
+        true,
       ),
     ),
   };

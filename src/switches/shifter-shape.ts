@@ -35,12 +35,14 @@ export function shapeLag(fit: EdgeShapeFit, ratio: number, fraction: number): nu
     const [a, b, c] = fit.levels[i]!;
     return a + x * (b + x * c);
   };
-  // The 50 % point is the origin: the knots are the fitted levels with (0.5, 0) between them.
+  // The segment of fitted levels that holds the fraction; the 50 % point (time 0) lies inside one.
   let i = 0;
-  while (i < SHAPE_LEVELS.length - 1 && SHAPE_LEVELS[i + 1]! < fraction) i++;
-  const f0 = SHAPE_LEVELS[i]!;
-  const f1 = SHAPE_LEVELS[i + 1] ?? f0;
-  const [lo, loLag] = f0 < 0.5 && fraction >= 0.5 ? [0.5, 0] : [f0, lagAt(i)];
-  const [hi, hiLag] = f0 < 0.5 && fraction < 0.5 && f1 > 0.5 ? [0.5, 0] : [f1, lagAt(Math.min(i + 1, SHAPE_LEVELS.length - 1))];
-  return hi > lo ? loLag + ((fraction - lo) / (hi - lo)) * (hiLag - loLag) : loLag;
+  while (i < SHAPE_LEVELS.length - 2 && SHAPE_LEVELS[i + 1]! < fraction) i++;
+  let [lo, loLag] = [SHAPE_LEVELS[i]!, lagAt(i)];
+  let [hi, hiLag] = [SHAPE_LEVELS[i + 1]!, lagAt(i + 1)];
+  if (lo < 0.5 && hi > 0.5) {
+    if (fraction < 0.5) [hi, hiLag] = [0.5, 0];
+    else [lo, loLag] = [0.5, 0];
+  }
+  return loLag + ((fraction - lo) / (hi - lo)) * (hiLag - loLag);
 }

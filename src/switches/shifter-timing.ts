@@ -79,7 +79,7 @@ export interface ShifterGateTiming {
 export function shifterGateTiming(
   ls: Shifter,
   devices: CornerDevices,
-  cycle: NetCycle,
+  cycle: Pick<NetCycle, 'riseTransition' | 'fallTransition'>,
   size: ShifterSizing | null,
   dvth: number,
 ): ShifterGateTiming {

@@ -11,7 +11,6 @@ import { loadProcess } from '../../src/cli/load.js';
 import { devicesAtCorner } from '../../src/process/device.js';
 import { shifterEdges } from '../../src/switches/shifter-edges.js';
 import { shifterGateTiming } from '../../src/switches/shifter-timing.js';
-import type { NetCycle } from '../../src/measure/phases.js';
 import { switchGateCapacitance } from '../../src/switches/plan.js';
 import { nominalDevices, sizeShifter } from '../../src/switches/shifter-sizing.js';
 import { expectClose, processCard } from '../helpers.js';
@@ -92,7 +91,7 @@ describe('shifterEdges', () => {
   for (const c of SHAPES) {
     it(`crosses 10, 20, 80 and 90 % of its swing where ngspice does at ${c.process}/${c.vdd}V/${c.temperature}C, within 40 ps`, () => {
       const devices = devicesAtCorner(card, { name: '', process: c.process, vdd: c.vdd, temperature: c.temperature, duty: 0.5 });
-      const timing = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall } as NetCycle, size, 0);
+      const timing = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall }, size, 0);
       LEVELS.forEach((f, i) => {
         expectClose(timing.riseShape!(f)!, c.rise[i]!, 40e-12, 'abs');
         expectClose(timing.fallShape!(f)!, c.fall[i]!, 40e-12, 'abs');
@@ -102,7 +101,7 @@ describe('shifterEdges', () => {
 
   it('crosses the top of its rising edge later than a linear ramp of its transition, as ngspice does (fs/1.98V/125C, 90 %: 216 ps)', () => {
     const devices = devicesAtCorner(card, { name: '', process: 'fs', vdd: 1.98, temperature: 125, duty: 0.5 });
-    const timing = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall } as NetCycle, size, 0);
+    const timing = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall }, size, 0);
     const linear = 0.4 * timing.riseTransition;
     expect(timing.riseShape!(0.9)!).toBeGreaterThan(linear + 40e-12);
     expect(timing.riseShape!(0.9)!).toBeLessThan(216.1e-12);
@@ -116,7 +115,7 @@ describe('shifterEdges', () => {
     expect(at('tt', 1.8, 27, 1.2).rise).toBe(Infinity);
     // Its gate then has no edge to shape: the shape gives way to the ramp, and no NaN comes of it.
     const devices = devicesAtCorner(card, { name: '', process: 'tt', vdd: 1.8, temperature: 27, duty: 0.5 });
-    const stuck = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall } as NetCycle, size, 1.2);
+    const stuck = shifterGateTiming(shifter, devices, { riseTransition: input.rise, fallTransition: input.fall }, size, 1.2);
     expect(stuck.riseShape!(0.5)).toBeNull();
     expect(stuck.fallShape!(0.8)).toBeNull();
   });
