@@ -54,6 +54,7 @@ export const INTEGRATION_FILES: Readonly<Record<string, readonly Tool[]>> = {
   'test/spice/pump.test.ts': ['ngspice'],
   'test/spice/runner.test.ts': ['ngspice'],
   'test/switches/physics-ngspice.test.ts': ['ngspice'],
+  'test/switches/shifter-hand-deck.test.ts': ['ngspice'],
   'test/switches/shifter-timing.test.ts': ['ngspice'],
   'test/verilog/identifiers.test.ts': ['iverilog'],
   'test/verilog/verilog.test.ts': ['iverilog'],
