@@ -10,6 +10,7 @@
 import { inputError } from '../errors.js';
 import type { DeviceParams, DeviceType, ProcessCard } from '../schema/process.js';
 import type { Corner } from './corner.js';
+import { spiceThresholdShift, surfacePotentialAt } from './spice-temperature.js';
 
 const KELVIN = 273.15;
 
@@ -32,14 +33,15 @@ export interface DeviceAtCorner {
   readonly kprime: number;
   /**
    * Threshold magnitude of the device as a switch sees it (turn-on level, on-resistance, off- and
-   * on-state bias), V: the card's triode temperature law, vth0 + dvth - triode.vthTempco * (T - t0),
-   * which is the transistor's own threshold drift; `vth` is the alpha-power fit's, a parameter of
-   * the saturation current that may drift otherwise. Equal to `vth` without a `triode` section.
+   * on-state bias), V: the card's triode temperature law, vth0 + dvth - triode.vthTempco * (T - t0)
+   * or SPICE's level 1-3 law (spice-temperature.ts), which is the transistor's own threshold drift;
+   * `vth` is the alpha-power fit's, a parameter of the saturation current that may drift otherwise.
+   * Equal to `vth` without a `triode` section.
    */
   readonly switchVth: number;
   /** Mobility degradation theta, 1/V (the card's, or derived by `derivedTheta`). */
   readonly theta: number;
-  /** Body-effect coefficient, V^0.5, and surface potential, V. */
+  /** Body-effect coefficient, V^0.5, and surface potential 2 phi_F at this temperature (surfacePotentialAt), V. */
   readonly gamma: number;
   readonly phi2f: number;
   /** Capacitances per metre of width, F/m. */
@@ -113,6 +115,16 @@ export function processCornerOf(card: ProcessCard, name: string): ProcessCard['c
   return Object.hasOwn(card.corners, name) ? card.corners[name] : undefined;
 }
 
+/**
+ * The threshold magnitude a switch sees at a temperature, V: vth0 + dvth moved by the card's triode
+ * law (a fall per kelvin, or SPICE's level 1-3 law), the alpha-power fit's own drift without one.
+ */
+function switchThreshold(params: DeviceParams, type: DeviceType, dvth: number, celsius: number, t0: number): number {
+  const law = params.triode?.vthTempco ?? params.vthTempco;
+  const shift = law === 'spice' ? spiceThresholdShift(type, params.gamma, params.phi2f, t0, celsius) : -law * (celsius - t0);
+  return params.vth0 + dvth + shift;
+}
+
 export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corner): DeviceAtCorner {
   const params = card[type];
   const shift = processCornerOf(card, corner.process)?.[type];
@@ -146,10 +158,10 @@ export function deviceAtCorner(card: ProcessCard, type: DeviceType, corner: Corn
       params.kprime *
       shift.drive *
       mobilityScale({ mobilityExponent: params.triode?.mobilityExponent ?? params.mobilityExponent }, corner.temperature, card.t0),
-    switchVth: vth + (params.vthTempco - (params.triode?.vthTempco ?? params.vthTempco)) * (corner.temperature - card.t0),
+    switchVth: switchThreshold(params, type, shift.dvth, corner.temperature, card.t0),
     theta: params.theta ?? derivedTheta(card, type),
     gamma: params.gamma,
-    phi2f: params.phi2f,
+    phi2f: surfacePotentialAt(params.phi2f, card.t0, corner.temperature),
     cgate: params.cgate,
     cdrain: params.cdrain,
     params,

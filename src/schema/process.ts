@@ -17,7 +17,7 @@ export const deviceSchema = z.strictObject({
     { above: 0, atMost: 1.5 },
   ).optional(),
   gamma: z.number().nonnegative().describe('Body-effect coefficient, V^0.5'),
-  phi2f: quantity('V', 'Surface potential 2*phiF', { above: 0 }),
+  phi2f: quantity('V', 'Surface potential 2*phiF at the card temperature t0 (it moves with temperature as SPICE moves PHI)', { above: 0 }),
   cgate: z.number().positive().describe('Gate capacitance per metre of width at minimum length, F/m'),
   cdrain: z.number().nonnegative().describe('Drain diffusion capacitance per metre of width, F/m'),
   cox: z
@@ -43,7 +43,17 @@ export const deviceSchema = z.strictObject({
     ),
   triode: z
     .strictObject({
-      vthTempco: quantity('V', 'Threshold fall per kelvin in deep triode, V/K (default: vthTempco)', { atLeast: 0 }).optional(),
+      vthTempco: z
+        .union([
+          z
+            .literal('spice')
+            .describe(
+              "SPICE level 1-3's own law: the threshold moves with 2 phi_F and the band gap (src/process/spice-temperature.ts), from gamma and phi2f",
+            ),
+          quantity('V', 'Threshold fall per kelvin in deep triode, V/K', { atLeast: 0 }),
+        ])
+        .optional()
+        .describe("Threshold temperature law in deep triode: a fall per kelvin, or 'spice' (default: vthTempco)"),
       mobilityExponent: ratio('Mobility temperature exponent in deep triode (default: mobilityExponent)', {
         atLeast: 0,
         atMost: 4,

@@ -1,7 +1,9 @@
 /**
  * Characterizing switch on-resistance at a corner: one n and one p device of the card's minimum
- * length, gate at the full supply, source and body at their rail, drain 10 mV away (deep triode);
- * R_on * W/L is written to the tables, where the table model calibrates the triode law with it.
+ * length, gate at the full supply, source and body at their rail, drain RON_VDS (1 mV) away (deep
+ * triode); R_on * W/L is written to the tables, where the table model calibrates the triode law with
+ * it. (fixtures/tables/ were characterized with the drain 10 mV away, which reads R_on up to 2.6 %
+ * high on generic-lp: conservative; re-characterize to drop it.)
  */
 import type { Corner } from '../process/corner.js';
 import type { ProcessCard } from '../schema/process.js';

@@ -152,7 +152,7 @@ export function generatorDeck(resolved: ResolvedDesign, corner: Corner, options:
   });
   const ron = options.circuit ? { lines: [], quantities: [] } : ronBench(resolved.switches, devices, models.geometry, window.start);
   if (ron.lines.length > 0)
-    lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 10 mV drain-source)', ...ron.lines);
+    lines.push('', '* switch on-resistance benches (devices off the circuit, gates fully on, 1 mV drain-source)', ...ron.lines);
   const maxStep = options.maxStep ?? generatorMaxStep(T);
   lines.push('', `.tran ${spiceNumber(maxStep)} ${spiceNumber(stop)} 0 ${spiceNumber(maxStep)}`, '', '* measurements (s)');
   if (options.circuit) lines.push(...options.circuit.measures);

@@ -69,7 +69,7 @@ describe('the circuit demos at tt/1.8V/27C', () => {
     // The p devices' channel charge released on the integrating node at each transfer lifts the level by about 13.7 mV
     // (ngspice 39 through confirm: 1.2646 V, ripple 9.64 mV).
     expectClose(c.output, 1.2637, PIN);
-    expectClose(c.ripple, 9.603e-3, 1e-3);
+    expectClose(c.ripple, 9.501e-3, 1e-3);
     // 1/(f Cs) = 40 kohm without the charge; the charge released grows as the level falls, a conductance in parallel.
     expectClose(c.slowLimit, 31887, 1e-3);
     expect(c.lostCharge).toBe(0);

@@ -129,9 +129,10 @@ describe('phasegap check exit codes', () => {
     expect(json.limiting!.margin).toBeLessThan(0);
     expect(json.limiting!.corner).toBe('sf/1.62V/125C');
     const passing = json.corners.filter((c) => c.verdict === 'pass').map((c) => c.name);
-    // Every ss corner, tt and ff below 125 C (but ff/1.98V/27C), fs but at the hot upper supplies, and
-    // sf cold below the high supply keep enough handover beside the error band (7.3 % of the
-    // handover's path, src/switches/instant-band.ts; measured): 29 pass, 16 fail.
+    // Every ss corner but ss/1.98V/125C, tt and ff below 125 C (but ff/1.98V/27C), fs but at the hot
+    // upper supplies, and sf cold below the high supply keep enough handover beside the error band
+    // (7.3 % of the handover's path, src/switches/instant-band.ts; measured): 28 pass, 17 fail.
+    // ss/1.98V/125C misses by 0.05 ps once the band is off (raw model +120 ps, ngspice +123 ps).
     expect(passing).toEqual([
       'tt/1.62V/-40C',
       'tt/1.62V/27C',
@@ -147,7 +148,6 @@ describe('phasegap check exit codes', () => {
       'ss/1.8V/125C',
       'ss/1.98V/-40C',
       'ss/1.98V/27C',
-      'ss/1.98V/125C',
       'ff/1.62V/-40C',
       'ff/1.62V/27C',
       'ff/1.8V/-40C',
@@ -307,7 +307,7 @@ describe('phasegap check: switch terminals', () => {
     const run = cli('check', design('doubler-unboosted'));
     expect(run.stderr).toMatch(/hint: no delay chain can fix s_chg \(off-state, stress\)/);
     expect(run.stderr).not.toMatch(/phasegap tune/);
-    expect(run.stdout).toMatch(/off-state\s+s_chg holds off\s+-1\.97 V\s+ff\/1\.98V\/125C\s+FAIL at 45 corners/);
+    expect(run.stdout).toMatch(/off-state\s+s_chg holds off\s+-1\.96 V\s+ff\/1\.98V\/125C\s+FAIL at 45 corners/);
   });
 
   it('passes the boosted doubler.yaml with every bias check met and no warning', () => {
@@ -344,7 +344,7 @@ describe('phasegap check verdict headline and --junit', () => {
     expect(run.code).toBe(1);
     expect(run.stdout.split('\n').slice(0, 3)).toEqual([
       'verdict: FAIL (fails: corner checks)',
-      '  corner checks: FAIL: 29 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
+      '  corner checks: FAIL: 28 of 45 corners pass; limiting: s_high/s_low break-before-make + 50.0 ps at sf/1.62V/125C',
       '  not run here: Monte Carlo yield, simulator agreement',
     ]);
     const xml = readFileSync(file, 'utf8');

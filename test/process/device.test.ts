@@ -14,6 +14,7 @@ import type { Corner } from '../../src/process/corner.js';
 import { expectClose, inputIssues, processCard } from '../helpers.js';
 import { parseWith } from '../../src/schema/validate.js';
 import { processSchema } from '../../src/schema/process.js';
+import { bodyThreshold } from '../../src/switches/physics.js';
 
 const card = loadProcess(processCard('generic180'));
 const at = (process: string, vdd: number, temperature: number): Corner => ({
@@ -111,14 +112,32 @@ describe('deviceAtCorner', () => {
   });
 
   it("gives switches the card's triode threshold drift: vth + (1.56 - 1.36) mV/K * 98 K = vth + 19.6 mV at 125 C", () => {
-    // vth = 0.45 - 0.06 - 1.56 mV/K * 98 K = 0.23712 V; switchVth = 0.23712 + 0.0196
-    // = 0.25672 V = 0.45 - 0.06 - 1.36 mV/K * 98 K (the triode law).
-    const hot = deviceAtCorner(card, 'n', at('ff', 1.8, 125));
+    // A card with a straight triode law: vth = 0.45 - 0.06 - 1.56 mV/K * 98 K = 0.23712 V;
+    // switchVth = 0.23712 + 0.0196 = 0.25672 V = 0.45 - 0.06 - 1.36 mV/K * 98 K.
+    const straight = { ...card, n: { ...card.n, triode: { vthTempco: 0.00136 } } };
+    const hot = deviceAtCorner(straight, 'n', at('ff', 1.8, 125));
     expectClose(hot.vth, 0.23712, 1e-12);
     expectClose(hot.switchVth, hot.vth + 0.0002 * 98, 1e-12);
     expectClose(hot.switchVth, 0.25672, 1e-12);
-    const room = deviceAtCorner(card, 'n', at('ff', 1.8, 27));
+    const room = deviceAtCorner(straight, 'n', at('ff', 1.8, 27));
     expect(room.switchVth).toBe(room.vth);
+  });
+
+  it("follows SPICE level 3's own threshold and 2 phi_F with temperature where the card says vthTempco: spice (ngspice-39, @m[von] of generic180's models)", () => {
+    // ngspice-39, fixtures/models/generic180.lib at tt, V_DS = 50 mV: n 0.5360 / 0.3114 V and
+    // p 0.5489 / 0.2887 V at -40 / 125 C; at V_SB = 0.8 V the n device's threshold rises by 0.1650 /
+    // 0.1746 / 0.1941 V at -40 / 27 / 125 C.
+    const expected = { n: [0.536, 0.3114], p: [0.5489, 0.2887] } as const;
+    for (const type of ['n', 'p'] as const) {
+      const [cold, warm] = [-40, 125].map((t) => deviceAtCorner(card, type, at('tt', 1.8, t)));
+      expectClose(cold!.switchVth, expected[type][0], 0.3e-3, 'abs');
+      expectClose(warm!.switchVth, expected[type][1], 0.3e-3, 'abs');
+    }
+    const body = [-40, 27, 125].map((t) => {
+      const d = deviceAtCorner(card, 'n', at('tt', 1.8, t));
+      return bodyThreshold(d.switchVth, d.gamma, d.phi2f, 0.8) - d.switchVth;
+    });
+    for (const [i, v] of [0.165, 0.1746, 0.1941].entries()) expectClose(body[i]!, v, 0.3e-3, 'abs');
   });
 
   it('refuses a supply at or below threshold with the corner and the threshold named', () => {
@@ -187,5 +206,20 @@ describe('the drain saturation voltage a card states (vdsatRatio)', () => {
       const issues = inputIssues(() => parseWith(processSchema, { ...card, n: { ...card.n, vdsatRatio: bad } }));
       expect(issues.map((i) => [i.code, i.path.join('.')])).toEqual([['value.out-of-range', 'n.vdsatRatio']]);
     }
+  });
+});
+
+describe('the triode threshold law on the card', () => {
+  const card = loadProcess(processCard('generic180'));
+
+  it("takes 'spice' or a fall per kelvin, and refuses anything else naming the field and both forms", () => {
+    expect(parseWith(processSchema, { ...card, n: { ...card.n, triode: { vthTempco: 'spice' } } }).n.triode?.vthTempco).toBe('spice');
+    expect(parseWith(processSchema, { ...card, n: { ...card.n, triode: { vthTempco: '1.4mV' } } }).n.triode?.vthTempco).toBeCloseTo(
+      0.0014,
+      12,
+    );
+    const issues = inputIssues(() => parseWith(processSchema, { ...card, n: { ...card.n, triode: { vthTempco: 'spicy' } } }));
+    expect(issues.map((i) => i.path.join('.'))).toEqual(['n.triode.vthTempco']);
+    expect(JSON.stringify(issues[0])).toMatch(/expected \\"spice\\".*is not a voltage/);
   });
 });

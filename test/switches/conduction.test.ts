@@ -53,7 +53,7 @@ describe('switchConduction', () => {
     const m = result.measurement;
     if (!m.ok) throw new Error(m.reason);
     const cycle = m.cycles.p1!;
-    const card = { vth: 0.45, gamma: 0.45, phi2f: 0.85 }; // generic180 n device at tt/27C
+    const card = { vth: 0.45, gamma: 0.45, phi2f: 0.7 }; // generic180 n device at tt/27C
     const vx = 0.3 + card.vth + card.gamma * (Math.sqrt(card.phi2f + 0.3) - Math.sqrt(card.phi2f));
     // The evaluator reads p1's edges as the delay model shapes them (modelCrossings at V_x/V_DD).
     const corner = result.corner;
