@@ -175,15 +175,23 @@ export function cornerRows(m: ReportModel): string[][] {
   });
 }
 
+/** How a switch's threshold moves with temperature on the card: SPICE level 1-3's law, a stated fall, or the fit's. */
+function switchThresholdLaw(d: ProcessCard['n']): string {
+  const law = d.triode?.vthTempco;
+  if (law === 'spice') return 'SPICE level 1-3 (2 phiF, band gap)';
+  return `${formatEngineering(law ?? d.vthTempco, 'V')}/K`;
+}
+
 export function cardRows(card: ProcessCard): { head: string[]; rows: string[][] } {
   const fields: Array<[string, (d: ProcessCard['n']) => string]> = [
     ['threshold vth0', (d) => formatEngineering(d.vth0, 'V')],
     ['alpha', (d) => String(d.alpha)],
     ['drive, A/m/V^alpha', (d) => String(d.drive)],
     ['threshold tempco', (d) => `${formatEngineering(d.vthTempco, 'V')}/K`],
+    ['switch threshold law', (d) => switchThresholdLaw(d)],
     ['mobility exponent', (d) => String(d.mobilityExponent)],
     ['body effect gamma', (d) => String(d.gamma)],
-    ['2 phiF', (d) => formatEngineering(d.phi2f, 'V')],
+    ['2 phiF at t0', (d) => formatEngineering(d.phi2f, 'V')],
     ['gate cap per width', (d) => `${formatEngineering(d.cgate * 1e-6, 'F')}/um`],
     ['drain cap per width', (d) => `${formatEngineering(d.cdrain * 1e-6, 'F')}/um`],
     ['A_VT', (d) => `${formatEngineering(d.avt * 1e6, 'V')}·um`],
