@@ -31,12 +31,16 @@ function gapTerm(kelvin: number): number {
   return -2 * vt * (1.5 * Math.log(kelvin / REFERENCE) - bandGap(kelvin) / (2 * vt) + bandGap(REFERENCE) / (2 * K_OVER_Q * REFERENCE));
 }
 
-/** 2 phi_F at `celsius`, given `phi2f` at the card's `t0` (both C), V. */
+/**
+ * 2 phi_F at `celsius`, given `phi2f` at the card's `t0` (both C), V. A small 2 phi_F (a lightly
+ * doped body) reaches zero and below when hot: the body is then near intrinsic, and 2 phi_F is held
+ * at four thermal voltages rather than let the threshold's square roots fail.
+ */
 export function surfacePotentialAt(phi2f: number, t0: number, celsius: number): number {
   const nominal = t0 + KELVIN;
   const kelvin = celsius + KELVIN;
   const atReference = (phi2f - gapTerm(nominal)) / (nominal / REFERENCE);
-  return (kelvin / REFERENCE) * atReference + gapTerm(kelvin);
+  return Math.max((kelvin / REFERENCE) * atReference + gapTerm(kelvin), 4 * K_OVER_Q * kelvin);
 }
 
 /** How far the threshold magnitude moves from `t0` to `celsius` under SPICE's level 1-3 law, V. */
