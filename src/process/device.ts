@@ -11,8 +11,7 @@ import { inputError } from '../errors.js';
 import type { DeviceParams, DeviceType, ProcessCard } from '../schema/process.js';
 import type { Corner } from './corner.js';
 import { spiceThresholdShift, surfacePotentialAt } from './spice-temperature.js';
-
-const KELVIN = 273.15;
+import { KELVIN } from './thermal.js';
 
 export interface DeviceAtCorner {
   readonly type: DeviceType;

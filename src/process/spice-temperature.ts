@@ -13,10 +13,8 @@
  * 0.1650 / 0.1941 V of body effect at V_SB = 0.8 V (n); this law gives the same to 0.2 mV.
  */
 import type { DeviceType } from '../schema/process.js';
+import { K_OVER_Q, KELVIN } from './thermal.js';
 
-const KELVIN = 273.15;
-/** Boltzmann's constant over the electron charge, V/K. */
-const K_OVER_Q = 8.617333e-5;
 /** SPICE's reference temperature, K. */
 const REFERENCE = 300.15;
 

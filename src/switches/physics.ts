@@ -2,6 +2,7 @@
  * Switch physics at one operating point: threshold with body effect, the instant a linear gate
  * ramp crosses a level, and the triode on-resistance.
  */
+import { thermalVoltage } from '../process/thermal.js';
 
 /**
  * Threshold magnitude with body effect, V_T = V_T0 + gamma * (sqrt(2phiF + V_SB) - sqrt(2phiF))
@@ -64,14 +65,6 @@ export function settlingTimeConstants(epsilon: number): number {
 /** Settling error for N bits at half an LSB, 2^-(N+1). */
 export function bitsToError(bits: number): number {
   return 2 ** -(bits + 1);
-}
-
-/** Boltzmann constant over the elementary charge, V/K (CODATA 2018: k = 1.380649e-23 J/K, q = 1.602176634e-19 C). */
-const K_OVER_Q = 1.380649e-23 / 1.602176634e-19;
-
-/** Thermal voltage kT/q at a temperature in °C, V (25.85 mV at 300 K). */
-export function thermalVoltage(celsius: number): number {
-  return K_OVER_Q * (celsius + 273.15);
 }
 
 /**

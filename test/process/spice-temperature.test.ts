@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { spiceThresholdShift, surfacePotentialAt } from '../../src/process/spice-temperature.js';
+import { thermalVoltage } from '../../src/process/thermal.js';
 import { expectClose } from '../helpers.js';
 
 describe('surfacePotentialAt', () => {
@@ -13,8 +14,7 @@ describe('surfacePotentialAt', () => {
 
   it('holds a lightly doped body at four thermal voltages when hot instead of going through zero, so the threshold stays finite', () => {
     // 0.3 V at 27 C would fall below zero by 150 C under SPICE's law.
-    const kelvin = 200 + 273.15;
-    expectClose(surfacePotentialAt(0.3, 27, 200), 4 * 8.617333e-5 * kelvin, 1e-9);
+    expectClose(surfacePotentialAt(0.3, 27, 200), 4 * thermalVoltage(200), 1e-9);
     for (const t of [-60, 27, 150, 200]) expect(Number.isFinite(spiceThresholdShift('n', 0.45, 0.3, 27, t))).toBe(true);
   });
 });

@@ -6,9 +6,9 @@ import {
   rampCrossing,
   settlingTimeConstants,
   subthresholdSwing,
-  thermalVoltage,
   triodeResistance,
 } from '../../src/switches/physics.js';
+import { thermalVoltage } from '../../src/process/thermal.js';
 import { expectClose } from '../helpers.js';
 
 describe('rampCrossing', () => {
