@@ -37,7 +37,8 @@ import {
   OPPOSED,
   type DriveLaw,
   driveLaw,
-  driverPosition,
+  curvePosition,
+  driverCurve,
   lawKey,
   OPPOSING_POINTS,
   opposingPosition,
@@ -82,7 +83,9 @@ class AnalyticTiming implements GateTiming {
     readonly driverLaw: readonly [DriveLaw, DriveLaw],
     /** Per flat input and edge (2 k + falling): the pulling device's channel over the input net's capacitance (0 for a clock source). */
     readonly kick: Float64Array,
-  ) {}
+  ) {
+    this.curves = new Float64Array(2 * (table.length / STRIDE) * DRIVER_INPUTS.length).fill(NaN);
+  }
 
   /** The engine asks for an edge's delay and then its transition: the grid positions are found once. */
   private lastKey = -1;
@@ -93,9 +96,35 @@ class AnalyticTiming implements GateTiming {
   private lastShape = 0;
   private lastKick = 0;
 
-  /** Called when the table is rebound: the remembered position belonged to the old taus. */
+  /**
+   * Per gate and edge (2 g + falling), the gate's output transitions as a driver at each of
+   * DRIVER_INPUTS (driverCurve), computed when first asked for after a bind; NaN until then.
+   */
+  private readonly curves: Float64Array;
+
+  /** Called when the table is rebound: the remembered position and curves belonged to the old taus. */
   forget(): void {
     this.lastKey = -1;
+    this.curves.fill(NaN);
+  }
+
+  /** Offset of gate `driver`'s curve for its edge `edge` (0 rising, 1 falling), computed if not yet. */
+  private curve(driver: number, edge: number): number {
+    const offset = (2 * driver + edge) * DRIVER_INPUTS.length;
+    if (Number.isNaN(this.curves[offset]!)) {
+      const i = driver * STRIDE;
+      driverCurve(
+        this.driverLaw[1 - edge]!,
+        this.table[i + 2 * edge + 1]!,
+        this.table[i + 6 + edge]!,
+        this.table[i + 8 + edge]!,
+        this.table[i + 12 + edge]!,
+        this.table[i + 10 + edge]!,
+        this.curves,
+        offset,
+      );
+    }
+    return offset;
   }
 
   /** Grid positions of input transition (sPosition) and, for a driven pin, of the driving edge's shape (driverPosition). */
@@ -112,17 +141,7 @@ class AnalyticTiming implements GateTiming {
     this.lastDriverTau = driverTau;
     this.lastPosition = RampResponse.sPosition(inputTransition / tau);
     this.lastKick = this.kick[key]!;
-    this.lastShape =
-      driver < 0
-        ? 0
-        : driverPosition(
-            this.driverLaw[falling]!,
-            this.table[gate * STRIDE + 2 * falling + 1]!,
-            inputTransition / driverTau,
-            this.table[driver * STRIDE + 6 + (1 - falling)]!,
-            this.table[driver * STRIDE + 8 + (1 - falling)]!,
-            this.table[driver * STRIDE + 12 + (1 - falling)]!,
-          );
+    this.lastShape = driver < 0 ? 0 : curvePosition(this.curves, this.curve(driver, 1 - falling), inputTransition / driverTau);
   }
 
   /** Gate g's tau for an edge (0 rising, 1 falling) caused by input `pin`, s. */

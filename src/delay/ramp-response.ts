@@ -470,13 +470,21 @@ const EDGE_STEP = 0.005;
  * solved output, inverted to rise), as an input edge: what the next gate sees in place of a ramp.
  * It carries the output's triode tail, which a ramp of the same 10-90 % time does not.
  */
-export function drivenEdge(law: LawLike, vT: number, s: number, input: InputEdge | null = null): InputEdge {
+export function drivenEdge(
+  law: LawLike,
+  vT: number,
+  s: number,
+  input: InputEdge | null = null,
+  opposing = 1,
+  opposingShift = 0,
+): InputEdge {
   const ts: number[] = [];
   const vs: number[] = [];
-  const { crossings } = solveEdge(law, vT, s, 1, input, 1, (t, v) => {
+  const record = (t: number, v: number): void => {
     ts.push(t);
     vs.push(v);
-  });
+  };
+  const { crossings } = solveEdge(law, vT, s, 1, input, opposing, record, opposingShift);
   const full = (crossings[17]! - crossings[1]!) / 0.8;
   let k = 0;
   while (vs[k + 1]! > 0.5) k++;
@@ -500,8 +508,17 @@ export function drivenEdge(law: LawLike, vT: number, s: number, input: InputEdge
  * references' dead times by under 0.1 %).
  */
 function driverInput(law: LawLike, vT: number, s: number): InputEdge {
-  return drivenEdge(law, vT, s);
+  const key = `${lawKey(law)}/${vT}/${s}`;
+  let edge = driverInputs.get(key);
+  if (!edge) {
+    edge = drivenEdge(law, vT, s);
+    driverInputs.set(key, edge);
+  }
+  return edge;
 }
+
+/** driverInput's edges, asked for on the grid's own thresholds and DRIVER_INPUTS only (read-only). */
+const driverInputs = new Map<string, InputEdge>();
 
 /** Ratios of the opposing network's full-drive current to the pulling one's on the grid: 2^(r - 2). */
 export const OPPOSING_POINTS = 5;
@@ -513,24 +530,47 @@ export function opposingPosition(ratio: number): number {
 }
 
 /**
- * Full-swing output transitions, in tau, of a driver by alpha and opposing grid point: per v_T
- * row, one per DRIVER_INPUTS, then their channel-share terms, then their opposing-channel terms.
+ * Full-swing output transitions, in tau, of a driver by alpha, opposing grid point and opposing
+ * threshold grid point: per v_T row, one per DRIVER_INPUTS, then their channel-share terms, then
+ * their opposing-channel terms.
  */
-const driverTransitions = new Map<string, Float64Array>();
+const driverTransitions = new Map<string, Array<Float64Array | undefined>>();
 
-/** The driver's transitions at v_T row `row` and opposing grid point `o`: DRIVER_INPUTS.length values, then their channel and opposing-channel terms. */
-function driverRow(law: LawLike, o: number, row: number): Float64Array {
+/** A law's driver transitions, one slot per opposing and threshold grid point (o * SHIFT_POINTS + d). */
+function driverSet(law: LawLike): Array<Float64Array | undefined> {
+  const key = lawKey(law);
+  let set = driverTransitions.get(key);
+  if (!set) {
+    set = new Array<Float64Array | undefined>(OPPOSING_POINTS * SHIFT_POINTS);
+    driverTransitions.set(key, set);
+  }
+  return set;
+}
+
+/**
+ * The driver's transitions at v_T row `row`, opposing grid point `o` and opposing threshold grid
+ * point `d`: DRIVER_INPUTS.length values, then their channel and opposing-channel terms.
+ */
+function driverRow(law: LawLike, set: Array<Float64Array | undefined>, o: number, d: number, row: number): Float64Array {
   const n = DRIVER_INPUTS.length;
-  const key = `${lawKey(law)}/${o}`;
-  let rows = driverTransitions.get(key);
+  let rows = set[o * SHIFT_POINTS + d];
   if (!rows) {
     rows = new Float64Array(3 * VT_POINTS * n).fill(NaN);
-    driverTransitions.set(key, rows);
+    set[o * SHIFT_POINTS + d] = rows;
   }
   if (Number.isNaN(rows[3 * row * n]!)) {
     for (let j = 0; j < n; j++) {
       const sd = DRIVER_INPUTS[j]!;
-      const { crossings, channel, opposed } = solveEdge(law, row * VT_STEP, sd, 1, driverInput(law, row * VT_STEP, sd), 2 ** (o - 2));
+      const { crossings, channel, opposed } = solveEdge(
+        law,
+        row * VT_STEP,
+        sd,
+        1,
+        driverInput(law, row * VT_STEP, sd),
+        2 ** (o - 2),
+        undefined,
+        (d - SHIFT_CENTRE) * SHIFT_STEP,
+      );
       rows[3 * row * n + j] = (crossings[17]! - crossings[1]!) / 0.8;
       rows[(3 * row + 1) * n + j] = (channel[17]! - channel[1]!) / 0.8;
       rows[(3 * row + 2) * n + j] = (opposed[17]! - opposed[1]!) / 0.8;
@@ -540,34 +580,82 @@ function driverRow(law: LawLike, o: number, row: number): Float64Array {
 }
 
 /**
- * Position of a driving edge on DRIVER_INPUTS (0 ... DRIVER_INPUTS.length - 1, clamped) from the
- * driver's full-swing output transition `ratio` in its own tau: the driver's input transition
- * that gives that output transition, for a driver of index `alpha` at v_T position `vtPos`, with
- * channel share `share` and opposing position `opposing` (opposingPosition), as the driver's own
- * edge was computed.
+ * The driver's full-swing output transition, in its own tau, at each of DRIVER_INPUTS, written to
+ * out[offset ... offset + DRIVER_INPUTS.length - 1]: for a driver of law `law` at its own v_T
+ * position `vtPos`, with channel share `share`, opposing position `opposing` (opposingPosition),
+ * opposing channel share `opposedShare` and opposing threshold position `shift` (shiftPosition),
+ * as the driver's own edge was computed. Interpolated in v_T, opposing ratio and threshold.
  */
-export function driverPosition(law: LawLike, vtPos: number, ratio: number, share = 0, opposing = 2, opposedShare = 0): number {
+export function driverCurve(
+  law: LawLike,
+  vtPos: number,
+  share: number,
+  opposing: number,
+  opposedShare: number,
+  shift: number,
+  out: Float64Array,
+  offset: number,
+): void {
   const n = DRIVER_INPUTS.length;
   const a = vtPos | 0;
   const wa = vtPos - a;
   const o = opposing | 0;
   const wo = opposing - o;
-  const corners = [driverRow(law, o, a), driverRow(law, o, a + 1)];
-  const far = wo === 0 ? corners : [driverRow(law, o + 1, a), driverRow(law, o + 1, a + 1)];
-  const value = (r: Float64Array, j: number): number => r[j]! + share * r[n + j]! + opposedShare * r[2 * n + j]!;
-  const at = (j: number): number => {
-    const near = value(corners[0]!, j) + wa * (value(corners[1]!, j) - value(corners[0]!, j));
-    const other = value(far[0]!, j) + wa * (value(far[1]!, j) - value(far[0]!, j));
-    return near + wo * (other - near);
+  const d = shift | 0;
+  const wd = shift - d;
+  const set = driverSet(law);
+  const o1 = wo === 0 ? o : o + 1;
+  const d1 = wd === 0 ? d : d + 1;
+  // The eight rows around the point: v_T a and a + 1, opposing o and o1, threshold d and d1.
+  const rows = [
+    driverRow(law, set, o, d, a),
+    driverRow(law, set, o, d, a + 1),
+    driverRow(law, set, o1, d, a),
+    driverRow(law, set, o1, d, a + 1),
+    driverRow(law, set, o, d1, a),
+    driverRow(law, set, o, d1, a + 1),
+    driverRow(law, set, o1, d1, a),
+    driverRow(law, set, o1, d1, a + 1),
+  ];
+  const value = (k: number, j: number): number => {
+    const r = rows[k]!;
+    return r[j]! + share * r[n + j]! + opposedShare * r[2 * n + j]!;
   };
-  let lo = at(0);
+  const pair = (k: number, j: number): number => value(k, j) + wa * (value(k + 1, j) - value(k, j));
+  const plane = (k: number, j: number): number => pair(k, j) + wo * (pair(k + 2, j) - pair(k, j));
+  for (let j = 0; j < n; j++) out[offset + j] = plane(0, j) + wd * (plane(4, j) - plane(0, j));
+}
+
+/**
+ * Position of a driving edge on DRIVER_INPUTS (0 ... DRIVER_INPUTS.length - 1, clamped) from the
+ * driver's full-swing output transition `ratio` in its own tau, on its curve (driverCurve) at
+ * curve[offset ...]: the driver's input transition that gives that output transition.
+ */
+export function curvePosition(curve: Float64Array, offset: number, ratio: number): number {
+  const n = DRIVER_INPUTS.length;
+  let lo = curve[offset]!;
   if (!(ratio > lo)) return 0;
   for (let j = 1; j < n; j++) {
-    const hi = at(j);
+    const hi = curve[offset + j]!;
     if (ratio < hi) return j - 1 + (ratio - lo) / (hi - lo);
     lo = hi;
   }
   return n - 1 - 1e-9;
+}
+
+/** driverCurve and curvePosition in one call. */
+export function driverPosition(
+  law: LawLike,
+  vtPos: number,
+  ratio: number,
+  share = 0,
+  opposing = 2,
+  opposedShare = 0,
+  shift = SHIFT_CENTRE,
+): number {
+  const curve = new Float64Array(DRIVER_INPUTS.length);
+  driverCurve(law, vtPos, share, opposing, opposedShare, shift, curve, 0);
+  return curvePosition(curve, 0, ratio);
 }
 
 /**
@@ -631,8 +719,15 @@ export class RampResponse {
 
   private solveRow(a: number): void {
     const sd = DRIVER_INPUTS[this.shape]!;
-    const input = this.driver === null ? null : drivenEdge(this.driver, a * VT_STEP, sd, driverInput(this.driver, a * VT_STEP, sd));
     const ratio = 2 ** (this.opposing - 2);
+    const shift = (this.shift - SHIFT_CENTRE) * SHIFT_STEP;
+    // The driving gate's pulling device is of this gate's opposing type: its threshold is this
+    // gate's opposing one, and its own opposing network is this gate's pulling one (1 / ratio,
+    // exact for cells sized as logical effort sizes them, whose networks all pull like the unit
+    // inverter's).
+    const driverVt = Math.min(Math.max(a * VT_STEP + shift, 0), (VT_POINTS - 1) * VT_STEP);
+    const input =
+      this.driver === null ? null : drivenEdge(this.driver, driverVt, sd, driverInput(this.driver, driverVt, sd), 1 / ratio, -shift);
     const grid = this.grid;
     for (let k = 0; k < S_POINTS; k++) {
       const { delay, crossings, channel, channelDelay, opposed, opposedDelay, kick, kickDelay } = solveEdge(
