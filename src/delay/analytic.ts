@@ -11,7 +11,7 @@
  * closed form leaves out are solved with the edge: an input that is another gate's edge, with its
  * triode tail, rather than a ramp (drivenEdge; a clock source still drives a ramp), its shape
  * set by the driving gate itself: the alpha of its pulling device and its own input transition over
- * its tau, read back from its output transition (driverPosition), no fitted constant; the pulling
+ * its tau, read back from its output transition (driverCurve, curvePosition), no fitted constant; the pulling
  * device's channel charge on the output once it leaves saturation (Meyer's C_gd, solveEdge); and
  * the opposing network's own strength (the ratio of the two networks' currents) and its own
  * threshold, which a skewed corner or a mismatch sample moves away from the pulling device's.
@@ -127,7 +127,7 @@ class AnalyticTiming implements GateTiming {
     return offset;
   }
 
-  /** Grid positions of input transition (sPosition) and, for a driven pin, of the driving edge's shape (driverPosition). */
+  /** Grid positions of input transition (sPosition) and, for a driven pin, of the driving edge's shape (curvePosition on the driver's curve). */
   private position(gate: number, falling: number, pin: number, tau: number, inputTransition: number): void {
     const k = this.inputStart[gate]! + pin;
     const driver = this.inputDriver[k]!;
