@@ -508,16 +508,18 @@ export function drivenEdge(
  * references' dead times by under 0.1 %).
  */
 function driverInput(law: LawLike, vT: number, s: number): InputEdge {
-  const key = `${lawKey(law)}/${vT}/${s}`;
+  // Keyed by grid row, not by the float: a*0.05 + shift lands on a row under more than one spelling.
+  const row = Math.round(vT / VT_STEP);
+  const key = `${lawKey(law)}/${row}/${s}`;
   let edge = driverInputs.get(key);
   if (!edge) {
-    edge = drivenEdge(law, vT, s);
+    edge = drivenEdge(law, row * VT_STEP, s);
     driverInputs.set(key, edge);
   }
   return edge;
 }
 
-/** driverInput's edges, asked for on the grid's own thresholds and DRIVER_INPUTS only (read-only). */
+/** driverInput's edges, by law, grid row of threshold and DRIVER_INPUTS transition (read-only). */
 const driverInputs = new Map<string, InputEdge>();
 
 /** Ratios of the opposing network's full-drive current to the pulling one's on the grid: 2^(r - 2). */

@@ -109,13 +109,13 @@ const median = (v: number[]) => {
 for (const [key, e] of byKey) {
   const abs = e.relative.map(Math.abs);
   console.log(
-    `${key}: ${e.relative.length} dead times, |error| median ${(100 * median(abs)).toFixed(1)} %, worst ${(100 * Math.max(...abs)).toFixed(1)} %, ` +
-      `signed ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, absolute ${(Math.min(...e.absolute) * 1e12).toFixed(0)}..${(Math.max(...e.absolute) * 1e12).toFixed(0)} ps`,
+    `${key}: ${e.relative.length} dead times, |error| median ${(100 * median(abs)).toFixed(2)} %, worst ${(100 * Math.max(...abs)).toFixed(2)} %, ` +
+      `signed ${(100 * Math.min(...e.relative)).toFixed(2)}..${(100 * Math.max(...e.relative)).toFixed(2)} %, absolute ${(Math.min(...e.absolute) * 1e12).toFixed(0)}..${(Math.max(...e.absolute) * 1e12).toFixed(0)} ps`,
   );
 }
 for (const [key, e] of gapByKey) {
   console.log(
-    `${key}: ${e.relative.length} clean gaps, (model - ngspice) / model dead time ${(100 * Math.min(...e.relative)).toFixed(1)}..${(100 * Math.max(...e.relative)).toFixed(1)} %, ` +
+    `${key}: ${e.relative.length} clean gaps, (model - ngspice) / model dead time ${(100 * Math.min(...e.relative)).toFixed(2)}..${(100 * Math.max(...e.relative)).toFixed(2)} %, ` +
       `absolute ${(Math.min(...e.absolute) * 1e12).toFixed(1)}..${(Math.max(...e.absolute) * 1e12).toFixed(1)} ps`,
   );
 }

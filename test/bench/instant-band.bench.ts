@@ -106,6 +106,6 @@ const median = (v: number[]) => {
 };
 for (const [key, rel] of byCard) {
   console.log(
-    `${key}: ${rel.length} handovers, (model - ngspice) / path ${(100 * Math.min(...rel)).toFixed(1)}..${(100 * Math.max(...rel)).toFixed(1)} %, median ${(100 * median(rel)).toFixed(1)} %`,
+    `${key}: ${rel.length} handovers, (model - ngspice) / path ${(100 * Math.min(...rel)).toFixed(2)}..${(100 * Math.max(...rel)).toFixed(2)} %, median ${(100 * median(rel)).toFixed(2)} %`,
   );
 }

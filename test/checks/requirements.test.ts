@@ -26,9 +26,9 @@ describe('requirementChecks: overlap at the gap level', () => {
     const overlap = checks.find((c) => c.kind === 'non-overlap')!;
     expect(overlap.name).toBe('phases never both above 10 % of swing');
     const [d12, d21] = m.deadTimes;
-    // The band is the analytic model's measured optimistic gap error on generic180: 2.2 % of the dead time.
-    expect(gapBand('analytic', 'generic180')).toBe(0.022);
-    expectClose(d12.gapBound, d12.gap - 0.022 * d12.t50, 1e-12);
+    // The band is the analytic model's measured optimistic gap error on generic180: 2.5 % of the dead time.
+    expect(gapBand('analytic', 'generic180')).toBe(0.025);
+    expectClose(d12.gapBound, d12.gap - 0.025 * d12.t50, 1e-12);
     expectClose(overlap.margin!, Math.min(d12.gapBound, d21.gapBound), 1e-12);
     expect(overlap.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
   });
