@@ -2,10 +2,16 @@
 // src/spice/level-shifter.ts): random sizings of the shifter alone, simulated in ngspice at the
 // card's nominal corner, and least-squares fits of the measured delays, output and latch-node
 // transitions to the stage estimates shifter-edges.ts uses (latch fight, latch p rise, skewed buffer,
-// output stage, input ramp), and of the output edge's shape (each level's time from 50 % in
-// transitions, on the log of the latch node's transition over the output's: shifter-shape.ts).
-// Its output is pasted into the GROUNDED and FLOATING fits of src/switches/shifter-sizing.ts.
+// output stage, input ramp), the sizing's fits. Its output is pasted into the GROUNDED and
+// FLOATING fits of src/switches/shifter-sizing.ts.
 // Run after `npm run build`: node scripts/shifter-fit.mjs [runs] [seed]
+// With CORNERS=1 each run is at a random corner of the card (process, supply 1.62/1.8/1.98 V,
+// temperature -40/27/125 C) and the script fits the per-corner edge model of shifter-edges.ts
+// instead (each set's first coefficient scales with a core inverter's C V / I against the nominal
+// corner's, the fight is fightTime's integral, the output stage scales with the output devices'
+// drive), and the output edge's shape with them (each level's time from 50 % in transitions, on the
+// log of the latch node's transition over the output's: shifter-shape.ts): its output is pasted
+// into the fits' `edges`.
 // With ROWS=1 it prints each run's estimates and measurements; with CHECK=1 it also prints how far
 // the fits now in the source are from each run.
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -16,7 +22,8 @@ import { loadProcess } from '../dist/src/cli/load.js';
 import { cornerModels } from '../dist/src/spice/models.js';
 import { shifterLines } from '../dist/src/spice/level-shifter.js';
 import { nominalCorner, nominalDevices, shifterFits } from '../dist/src/switches/shifter-sizing.js';
-import { saturationCurrent } from '../dist/src/process/device.js';
+import { devicesAtCorner, saturationCurrent } from '../dist/src/process/device.js';
+import { fightTime } from '../dist/src/switches/shifter-edges.js';
 import { leastSquares } from './least-squares.mjs';
 import { edgeMeasures, edges, SHAPE_LEVELS, shape, shapeMeasures, simulate } from './shifter-bench.mjs';
 
@@ -30,11 +37,13 @@ const random = () => {
 const between = (a, b) => a + (b - a) * random();
 
 const card = loadProcess(join(ROOT, 'fixtures', 'processes', 'generic180.yaml'));
-const corner = nominalCorner(card, 0.5);
-const vdd = corner.vdd;
-const { n, p } = nominalDevices(card);
-const models = cornerModels(card, corner, join(ROOT, 'fixtures', 'models', 'generic180.lib'));
+const nominal = nominalCorner(card, 0.5);
+const nominalVdd = nominal.vdd;
+const { n: nominalN, p: nominalP } = nominalDevices(card);
+const corners = process.env.CORNERS === '1';
+const pick = (list) => list[Math.min(list.length - 1, Math.floor(random() * list.length))];
 const current = (d, vgs) => saturationCurrent(d.driveConstant, d.alpha, vgs - d.vth);
+const coreTime = (n, p, vdd) => vdd * (1 / current(n, vdd) + 1 / current(p, vdd));
 // Output levels (low, high) in units of VDD: grounded 0..2 VDD, floating VDD..2 VDD.
 const LEVELS = [
   [0, 2],
@@ -45,6 +54,17 @@ const rows = [];
 const dir = mkdtempSync(join(tmpdir(), 'ushift-'));
 for (let k = 0; k < runs; k++) {
   const [lo, hi] = LEVELS[k % LEVELS.length];
+  const corner = corners
+    ? (() => {
+        const process = pick(Object.keys(card.corners));
+        const vdd = pick([0.9, 1, 1.1].map((f) => Math.round(f * card.vddNominal * 100) / 100));
+        const temperature = pick([-40, 27, 125]);
+        return { name: `${process}/${vdd}V/${temperature}C`, process, vdd, temperature, duty: 0.5 };
+      })()
+    : nominal;
+  const vdd = corner.vdd;
+  const { n, p } = corners ? devicesAtCorner(card, corner) : { n: nominalN, p: nominalP };
+  const models = cornerModels(card, corner, join(ROOT, 'fixtures', 'models', 'generic180.lib'));
   const low = lo * vdd;
   const high = hi * vdd;
   const swing = high - low;
@@ -53,7 +73,8 @@ for (let k = 0; k < runs; k++) {
   const latchP = between(0.15, 0.3) * pullDown;
   const outputN = between(2, 16) * unit;
   // The output p device as the sizing makes it, alike on both edges (n at the swing, p at the high level), give or take.
-  const outputP = outputN * (current(n, swing) / current(p, high)) * between(0.7, 1.4);
+  const [nominalSwing, nominalHigh] = [(hi - lo) * nominalVdd, hi * nominalVdd];
+  const outputP = outputN * (current(nominalN, nominalSwing) / current(nominalP, nominalHigh)) * between(0.7, 1.4);
   const size = {
     inverterN: 2 * unit,
     bufferN: 2 * unit,
@@ -76,12 +97,25 @@ for (let k = 0; k < runs; k++) {
   const mid = n.cdrain * size.bufferN + p.cdrain * size.bufferP + (n.cgate + 2 * p.cgate) * size.inverterN + size.bufferCap;
   const fightCurrent = pull * pullDown - latchI * latchP;
   if (!(fightCurrent > 0)) continue;
-  const terms = {
-    fight: (latch * high) / (2 * fightCurrent),
-    latchRise: (latch * high) / (2 * latchI * latchP),
-    buffer: (mid * vdd) / (2 * pull * size.bufferN),
-    output: ((load + n.cdrain * (outputN + outputP)) * swing) / (outputN * current(n, swing)),
-  };
+  // The output stage as the sizing states it, at the nominal corner.
+  const outputStage = ((load + nominalN.cdrain * (outputN + outputP)) * nominalSwing) / (outputN * current(nominalN, nominalSwing));
+  const terms = corners
+    ? {
+        core: coreTime(n, p, vdd) / coreTime(nominalN, nominalP, nominalVdd),
+        fight: fightTime(latch, high, vdd, n, p, pullDown, latchP),
+        latchRise: (latch * high) / (2 * latchI * latchP),
+        buffer: (mid * vdd) / (2 * pull * size.bufferN),
+        outputRise: (outputStage * current(nominalP, nominalHigh)) / current(p, high),
+        outputFall: (outputStage * current(nominalN, nominalSwing)) / current(n, swing),
+      }
+    : {
+        core: 1,
+        fight: (latch * high) / (2 * fightCurrent),
+        latchRise: (latch * high) / (2 * latchI * latchP),
+        buffer: (mid * vdd) / (2 * pull * size.bufferN),
+        output: outputStage,
+      };
+  if (!Number.isFinite(terms.fight)) continue;
   const bias = (v) => (v === 0 ? '0' : v === vdd ? 'vdd' : `r${String(v).replace('.', 'p')}`);
   const rails = { vdd: 'vdd', low: bias(low), high: bias(high) };
   const sources = [...new Set([low, high])].filter((v) => v !== 0 && v !== vdd);
@@ -103,6 +137,7 @@ for (let k = 0; k < runs; k++) {
   const value = simulate(join(dir, `u${k}.cir`), deck);
   const measured = edges(value);
   const row = {
+    corner: corner.name,
     levels: [lo, hi],
     input,
     terms,
@@ -173,6 +208,44 @@ function fitFor(group) {
       rs.map((r) => [1, r.terms.latchRise]),
       rs.map((r) => r.latchRise),
     ),
+  };
+}
+/** The per-corner edge model's fits (CORNERS=1): shifter-edges.ts's terms, the first on the core time ratio. */
+function edgesFor(group) {
+  const rs = rows.filter((r) => r.levels[0] > 0 === group);
+  const t = (r) => r.terms;
+  // Relative least squares: each run's row over its measured value.
+  const relativeFit = (xs, ys) =>
+    leastSquares(
+      xs.map((x, i) => x.map((v) => v / ys[i])),
+      ys.map(() => 1),
+    );
+  return {
+    runs: rs.length,
+    fall: relativeFit(
+      rs.map((r) => [t(r).core, t(r).fight, t(r).latchRise, t(r).outputFall, r.input]),
+      rs.map((r) => r.fall),
+    ),
+    rise: relativeFit(
+      rs.map((r) => [t(r).core, t(r).buffer, t(r).fight, t(r).outputRise, r.input]),
+      rs.map((r) => r.rise),
+    ),
+    edgeTransitionRise: relativeFit(
+      rs.map((r) => [t(r).core, t(r).outputRise, t(r).fight]),
+      rs.map((r) => r.tRise),
+    ),
+    edgeTransitionFall: relativeFit(
+      rs.map((r) => [t(r).core, t(r).outputFall, t(r).latchRise]),
+      rs.map((r) => r.tFall),
+    ),
+    latchFall: relativeFit(
+      rs.map((r) => [t(r).core, t(r).fight, t(r).latchRise]),
+      rs.map((r) => r.latchFall),
+    ),
+    latchRise: relativeFit(
+      rs.map((r) => [t(r).core, t(r).latchRise]),
+      rs.map((r) => r.latchRise),
+    ),
     riseShape: shapeFit(
       rs,
       (r) => r.riseLags,
@@ -185,9 +258,13 @@ function fitFor(group) {
     ),
   };
 }
+if (corners) {
+  console.log(JSON.stringify({ grounded: edgesFor(false), floating: edgesFor(true) }, null, 1));
+  process.exit(0);
+}
 if (process.env.CHECK)
   for (const r of rows) {
-    const f = shifterFits(r.levels[0] * vdd);
+    const f = shifterFits(r.levels[0] * nominalVdd);
     const fall = f.fall[0] + f.fall[1] * r.terms.fight + f.fall[2] * r.terms.latchRise + f.fall[3] * r.terms.output + f.fall[4] * r.input;
     const rise = f.rise[0] + f.rise[1] * r.terms.buffer + f.rise[2] * r.terms.fight + f.rise[3] * r.terms.output + f.rise[4] * r.input;
     console.log(

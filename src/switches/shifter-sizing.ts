@@ -70,6 +70,24 @@ export interface ShifterFits {
   /** Full-swing transitions of the latch node driving the output: its fall (constant, fight, latch p rise) and rise (constant, latch p rise). */
   readonly latchFall: readonly [number, number, number];
   readonly latchRise: readonly [number, number];
+  /** The per-corner edge model's fits (shifter-edges.ts), made at every corner: see EdgeFits. */
+  readonly edges: EdgeFits;
+}
+
+/**
+ * Fits of the shifter's edges at any corner (scripts/shifter-fit.mjs with CORNERS=1: random sizings
+ * at random corners of the card). Each set's first coefficient multiplies a core inverter's
+ * C V / I over the nominal corner's (s), the rest the stage times as shifter-edges.ts forms them
+ * at the corner (the fight by fightTime's integral); the order of the stage times is the sizing
+ * fits' above.
+ */
+export interface EdgeFits {
+  readonly fall: readonly [number, number, number, number, number];
+  readonly rise: readonly [number, number, number, number, number];
+  readonly edgeTransitionRise: readonly [number, number, number];
+  readonly edgeTransitionFall: readonly [number, number, number];
+  readonly latchFall: readonly [number, number, number];
+  readonly latchRise: readonly [number, number];
   /** Shapes of the output's rising and falling edge (shifter-shape.ts). */
   readonly riseShape: EdgeShapeFit;
   readonly fallShape: EdgeShapeFit;
@@ -84,35 +102,43 @@ const GROUNDED: ShifterFits = {
   edgeTransitionFall: [10.992e-12, 1.4327, 0.75441],
   latchFall: [10.617e-12, 1.1865, 0.44198],
   latchRise: [21.701e-12, 3.3714],
-  riseShape: {
-    ratio: [0.34, 3.47],
-    levels: [
-      [-0.447, -0.1651, -0.0584],
-      [-0.3463, -0.0986, -0.0369],
-      [-0.2278, -0.0246, -0.0041],
-      [-0.1459, -0.0003, 0.0086],
-      [-0.0724, 0.0048, 0.0064],
-      [0.0775, -0.0115, -0.0103],
-      [0.1675, -0.0289, -0.0246],
-      [0.2816, -0.0545, -0.0392],
-      [0.4537, -0.0985, -0.0369],
-      [0.6088, -0.1423, -0.0074],
-    ],
-  },
-  fallShape: {
-    ratio: [0.83, 4.12],
-    levels: [
-      [0.6308, -0.3138, 0.1437],
-      [0.4552, -0.1081, -0.017],
-      [0.2758, -0.0102, -0.0611],
-      [0.164, 0.0044, -0.0423],
-      [0.0764, 0.0049, -0.0198],
-      [-0.0719, -0.0156, 0.0207],
-      [-0.1462, -0.0418, 0.0408],
-      [-0.2299, -0.0662, 0.0319],
-      [-0.3449, -0.1079, -0.0171],
-      [-0.4349, -0.1238, -0.0769],
-    ],
+  edges: {
+    fall: [64.452e-12, 0.82134, 1.3144, 1.0117, 0.13121],
+    rise: [63.118e-12, 1.6982, 1.0637, 0.58768, 0.18529],
+    edgeTransitionRise: [4.5699e-12, 1.2788, 0.66701],
+    edgeTransitionFall: [0.11864e-12, 1.5334, 0.7629],
+    latchFall: [19.294e-12, 2.2574, 0.039931],
+    latchRise: [10.839e-12, 3.3985],
+    riseShape: {
+      ratio: [0.33, 3.97],
+      levels: [
+        [-0.4442, -0.1614, -0.0613],
+        [-0.3468, -0.0954, -0.0355],
+        [-0.2286, -0.0236, -0.0042],
+        [-0.1455, 0.0006, 0.0055],
+        [-0.0719, 0.0052, 0.0044],
+        [0.077, -0.0118, -0.008],
+        [0.1661, -0.0292, -0.0191],
+        [0.2795, -0.0544, -0.0313],
+        [0.4532, -0.0954, -0.0355],
+        [0.611, -0.134, -0.016],
+      ],
+    },
+    fallShape: {
+      ratio: [0.66, 5.55],
+      levels: [
+        [0.6275, -0.2949, 0.1285],
+        [0.4555, -0.1278, -0.0015],
+        [0.2798, -0.0515, -0.0291],
+        [0.1672, -0.0265, -0.0184],
+        [0.0779, -0.0097, -0.0083],
+        [-0.0733, -0.0029, 0.0104],
+        [-0.1484, -0.0198, 0.0221],
+        [-0.2316, -0.0557, 0.0216],
+        [-0.3446, -0.1277, -0.0016],
+        [-0.4335, -0.1703, -0.0368],
+      ],
+    },
   },
 };
 /** Output low level above ground (a floating output domain such as VDD .. 2 VDD). */
@@ -125,35 +151,43 @@ const FLOATING: ShifterFits = {
   edgeTransitionFall: [9.3623e-12, 1.8633, 0.42279],
   latchFall: [22.95e-12, 1.3705, 0.25054],
   latchRise: [-8.7602e-12, 3.3778],
-  riseShape: {
-    ratio: [0.09, 3.1],
-    levels: [
-      [-0.3571, -0.07, -0.0118],
-      [-0.2994, -0.0509, -0.0098],
-      [-0.213, -0.0248, -0.0055],
-      [-0.1407, -0.0099, -0.0024],
-      [-0.0716, -0.0024, -0.0007],
-      [0.0794, -0.002, -0.0002],
-      [0.174, -0.009, -0.0014],
-      [0.2988, -0.023, -0.0042],
-      [0.5005, -0.051, -0.0098],
-      [0.6961, -0.0769, -0.0137],
-    ],
-  },
-  fallShape: {
-    ratio: [0.22, 7.83],
-    levels: [
-      [0.5673, -0.0712, -0.0114],
-      [0.4248, -0.0466, -0.0057],
-      [0.2694, -0.0223, -0.0004],
-      [0.1655, -0.0088, 0.0015],
-      [0.0802, -0.0014, 0.0011],
-      [-0.0821, -0.0026, -0.0008],
-      [-0.1692, -0.0094, -0.0015],
-      [-0.2642, -0.0224, -0.0024],
-      [-0.3752, -0.0467, -0.0057],
-      [-0.4439, -0.069, -0.012],
-    ],
+  edges: {
+    fall: [67.527e-12, 1.0827, 2.5092, 0.91008, 0.13066],
+    rise: [66.192e-12, 1.5343, 0.88503, 0.87211, 0.18916],
+    edgeTransitionRise: [0.69341e-12, 2.4958, 0.5109],
+    edgeTransitionFall: [3.9845e-12, 1.8622, 0.46704],
+    latchFall: [27.389e-12, 2.1227, 0.051741],
+    latchRise: [-1.3093e-12, 3.3454],
+    riseShape: {
+      ratio: [0.05, 4.19],
+      levels: [
+        [-0.361, -0.076, -0.0145],
+        [-0.3024, -0.0555, -0.0118],
+        [-0.2146, -0.0276, -0.0066],
+        [-0.1413, -0.0113, -0.003],
+        [-0.0718, -0.0028, -0.0009],
+        [0.0793, -0.0021, -0.0002],
+        [0.1734, -0.0096, -0.0016],
+        [0.2973, -0.0248, -0.0049],
+        [0.4976, -0.0555, -0.0117],
+        [0.6915, -0.0863, -0.0183],
+      ],
+    },
+    fallShape: {
+      ratio: [0.14, 7.92],
+      levels: [
+        [0.5715, -0.0687, -0.0178],
+        [0.4276, -0.0449, -0.0105],
+        [0.2707, -0.0213, -0.0033],
+        [0.1661, -0.0085, 0.0001],
+        [0.0802, -0.0017, 0.0009],
+        [-0.0817, -0.0021, -0.0013],
+        [-0.168, -0.0082, -0.0029],
+        [-0.2621, -0.0205, -0.0054],
+        [-0.3724, -0.0449, -0.0105],
+        [-0.4421, -0.0678, -0.016],
+      ],
+    },
   },
 };
 

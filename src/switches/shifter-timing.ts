@@ -100,8 +100,8 @@ export function shifterGateTiming(
       fallDelay: e.fall,
       riseTransition: e.riseTransition,
       fallTransition: e.fallTransition,
-      riseShape: lag(fits.riseShape, e.riseRatio, e.riseTransition),
-      fallShape: lag(fits.fallShape, e.fallRatio, e.fallTransition),
+      riseShape: lag(fits.edges.riseShape, e.riseRatio, e.riseTransition),
+      fallShape: lag(fits.edges.fallShape, e.fallRatio, e.fallTransition),
     };
   }
   const scale = shifterScaleWithMismatch(ls, devices, dvth);

@@ -10,19 +10,21 @@
  * corners). The deck's level shifter is sized from the card and the shifter fits, so ngspice's
  * numbers move with them:
  *   corner          model   ngspice   check
- *   tt/1.8V/27C     134.5    159.0     57.7   (the check passes)
- *   tt/1.98V/125C    43.9     42.6    -54.7   (both pass; the band fails it)
- *   ff/1.62V/125C    -0.9     47.6   -100.5
- *   ff/1.8V/125C     -6.9      9.2    -97.7
- *   ff/1.98V/125C   -10.5    -20.4    -94.0   (the model alone is 10 ps above ngspice)
- *   fs/1.98V/125C    89.2    108.7    -19.6
- *   sf/1.62V/125C   -21.8     17.5   -135.0
- *   sf/1.8V/125C    -26.8    -20.7   -129.4
- *   sf/1.98V/125C   -29.2    -49.6   -123.5   (20 ps above)
- * Over all 45 corners ngspice fails 3 and the check 16, every one of ngspice's among them; the
- * model alone fails 3 where ngspice passes (ff/1.62V/125C, ff/1.8V/125C, sf/1.62V/125C: the phase
- * edge's foot at the hot corners, s_low turning on 50-65 ps early) and passes none where it fails.
- * (With the shifter output a linear ramp and the shifter fits from an older simulator, on the
+ *   tt/1.8V/27C     139.2    159.0    101.4   (the check passes)
+ *   tt/1.98V/125C    46.3     38.5     -2.2   (both pass; the band fails it)
+ *   ff/1.62V/125C    -6.8     42.8    -56.1
+ *   ff/1.8V/125C     -8.6      4.7    -53.4
+ *   ff/1.98V/125C    -9.0    -24.3    -50.2   (the model alone is 15 ps above ngspice)
+ *   fs/1.98V/125C    88.2    104.4     34.3   (the check passes)
+ *   sf/1.62V/125C    -1.4     12.7    -56.6
+ *   sf/1.8V/125C     -6.8    -25.1    -56.8
+ *   sf/1.98V/125C    -9.1    -53.7    -54.9   (45 ps above; the band takes it 1.2 ps below)
+ * Over all 45 corners ngspice fails 3 and the check 7, every one of ngspice's among them; the
+ * model alone fails 3 where ngspice passes (ff/1.62V/125C, ff/1.8V/125C, sf/1.62V/125C: the
+ * shifter's delay read 20-35 ps slow in the circuit, its standalone delay there within 3 %) and
+ * passes none where it fails. (With the shifter's edges on the nominal-corner sizing fits and the
+ * latch fight against the p device's saturation current, the band was 7.3 % and the check failed
+ * 16; with the shifter output a linear ramp and the shifter fits from an older simulator, on the
  * shifter those fits sized, ngspice failed 10 and the check 26; the model alone passed
  * fs/1.98V/125C at +29.5 ps where ngspice failed at -10.9 ps, the high-side switch's turn-off read
  * 71 ps early on the output's top tail.)
@@ -84,7 +86,7 @@ describe('break-before-make with the switch-instant error band, against ngspice 
     for (const { name, simulated } of rows) if (simulated.simulator! < 0) expect(simulated.model, name).toBeLessThan(0);
   });
 
-  it('needs the band: at sf/1.98V/125C the handover alone (-29.2 ps) is above ngspice’s (-49.6 ps), the check’s margin below it', () => {
+  it('needs the band: at sf/1.98V/125C the handover alone (-9.1 ps) is above ngspice’s (-53.7 ps), the check’s margin below it', () => {
     const { simulated, check } = rows.find((r) => r.name === 'sf/1.98V/125C')!;
     expect(simulated.model).toBeGreaterThan(simulated.simulator!);
     const raw = Math.min(...check.parts!.map((p) => p.span!)) - GUARD;
@@ -92,8 +94,8 @@ describe('break-before-make with the switch-instant error band, against ngspice 
     expect(Math.abs(raw - simulated.model)).toBeLessThan(1e-13);
     expect(check.margin!).toBeLessThan(simulated.simulator!);
     expect(check.pass).toBe(false);
-    expect(instantBand('analytic', 'generic180')).toBe(0.073);
-    // At tt/1.98V/125C the handover alone clears its guard (+43.9 ps, ngspice +42.6 ps) by less than the band:
+    expect(instantBand('analytic', 'generic180')).toBe(0.036);
+    // At tt/1.98V/125C the handover alone clears its guard (+46.3 ps, ngspice +38.5 ps) by less than the band:
     // the check fails there and says why.
     const near = rows.find((r) => r.name === 'tt/1.98V/125C')!;
     expect(near.simulated.model).toBeGreaterThan(0);

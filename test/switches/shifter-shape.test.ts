@@ -10,7 +10,7 @@ import { SHAPE_LEVELS, shapeLag } from '../../src/switches/shifter-shape.js';
 import { shifterFits } from '../../src/switches/shifter-sizing.js';
 import { expectClose } from '../helpers.js';
 
-const fit = shifterFits(1.8).riseShape;
+const fit = shifterFits(1.8).edges.riseShape;
 const poly = (i: number, ratio: number) => {
   const [a, b, c] = fit.levels[i]!;
   const x = Math.log(ratio);
