@@ -12,6 +12,8 @@ import {
   renderMarginSvg,
   voltTickLabel,
 } from '../../src/render/svg/margins.js';
+import { textWidth } from '../../src/render/svg/text.js';
+import { errorBandText } from '../../src/delay/error-band.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
@@ -66,6 +68,23 @@ describe('renderMarginSvg', () => {
     // One zero line per block: the timing checks and the switch bias checks.
     expect(all(svg, 'line.zero-line').length).toBe(2);
     expect(all(svg, 'text.zero-label')[0]!.textContent).toBe('requirement (margin 0)');
+  });
+
+  it('wraps the title note with the whole model-error statement inside the page, under the verdict box, and draws below it', () => {
+    const width = Number(svg.getAttribute('width'));
+    const lines = all(svg, '.title-block text.subtitle').slice(1);
+    // The note carries the band and its gap sentence in full (it ran off the page on one line).
+    expect(lines.length).toBe(2);
+    expect(lines.map((t) => t.textContent).join(' ')).toContain(errorBandText('analytic', 'generic180'));
+    for (const t of lines) expect(16 + textWidth(t.textContent ?? '', 11)).toBeLessThanOrEqual(width - 16);
+    // The verdict box ends above the first note line's cap height (11 px text at y 76).
+    const box = svg.querySelector('.title-block rect')!;
+    expect(Number(box.getAttribute('y')) + Number(box.getAttribute('height'))).toBeLessThan(76 - 0.75 * 11);
+    // The rule under the title sits below the last note line, and the chart's first row below the rule.
+    const rule = svg.querySelector('.title-block line')!;
+    expect(Number(rule.getAttribute('y1'))).toBeGreaterThan(Number(lines[1]!.getAttribute('y')));
+    const label = all(svg, 'text.zero-label')[0]!;
+    expect(Number(label.getAttribute('y'))).toBeGreaterThan(Number(rule.getAttribute('y1')) + 11);
   });
 
   it('places the zero line where the axis puts a zero margin', () => {

@@ -192,8 +192,10 @@ describe('break-before-make from the deck instants', () => {
     // (their sizing) and the shifter output a linear ramp: model -78.1 ps, ngspice -152.4 ps. The raw
     // model is 21 ps the less pessimistic of the two, which the check's switch-instant band covers
     // (it reports -127 ps). With each driving edge solved with its driver's own threshold and
-    // opposing network: model -30.7 ps, ngspice -53.7 ps.
-    expectClose(bbm.model, -30.7e-12, 1e-12, 'abs');
+    // opposing network: model -30.7 ps, ngspice -53.7 ps. With the shifter's edges fitted at every
+    // corner and its latch fight against the p device's triode current: model -9.1 ps (45 ps the less
+    // pessimistic; the check's band, 3.6 % of the path, still takes it to -54.9 ps).
+    expectClose(bbm.model, -9.1e-12, 1e-12, 'abs');
     expectClose(bbm.simulator, -53.7e-12, 10e-12, 'abs');
   });
 });

@@ -4,7 +4,7 @@ import type { Diagram } from '../diagram.js';
 import { formatEngineering, formatTime } from '../../units/format.js';
 import { FAIL, FAIL_TINT, GLYPH, INK, MUTED, PAPER, SIZE } from '../palette.js';
 import { round } from './canvas.js';
-import { drawText } from './text.js';
+import { drawText, wrapLines } from './text.js';
 
 export interface TitleInfo {
   readonly design: string;
@@ -30,15 +30,32 @@ export function diagramTitle(d: Diagram): TitleInfo {
   };
 }
 
+/** Line step of the note under the title, px. */
+const NOTE_STEP = 13;
+
+/** The title note's lines across the drawing's width (a long model-error note wraps rather than running off the page). */
+export function titleNoteLines(note: string, width: number, margin: number): string[] {
+  return wrapLines(note, SIZE.small, width - 2 * margin);
+}
+
+/** How much taller than one note line the title block is, px: what a drawing adds above its content. */
+export function titleExtraHeight(note: string, width: number, margin: number): number {
+  return (titleNoteLines(note, width, margin).length - 1) * NOTE_STEP;
+}
+
 export function drawTitleBlock(root: Svg, info: TitleInfo, width: number, margin: number): void {
   const g = root.group().attr({ class: 'title-block' });
   drawText(g, info.design, margin, 32, { size: SIZE.title, bold: true, className: 'title' });
   drawText(g, info.line, margin, 56, { size: SIZE.subtitle, className: 'subtitle', data: info.data ?? {} });
-  drawText(g, info.note, margin, 76, { size: SIZE.small, fill: MUTED, className: 'subtitle' });
+  const noteLines = titleNoteLines(info.note, width, margin);
+  noteLines.forEach((line, i) => {
+    drawText(g, line, margin, 76 + i * NOTE_STEP, { size: SIZE.small, fill: MUTED, className: 'subtitle' });
+  });
+  // The verdict box ends above the note's first line, which may run under it.
   const boxW = 208;
-  const boxH = 56;
+  const boxH = 52;
   const bx = width - margin - boxW;
-  const by = 14;
+  const by = 10;
   const pass = info.pass;
   g.rect(boxW, boxH)
     .move(round(bx), by)
@@ -53,5 +70,6 @@ export function drawTitleBlock(root: Svg, info: TitleInfo, width: number, margin
     data: { verdict: pass ? 'pass' : 'fail' },
   });
   drawText(g, info.detail, bx + 14, by + 46, { size: SIZE.small, fill: pass ? MUTED : FAIL, className: 'verdict-detail' });
-  g.line(margin, 90, width - margin, 90).stroke({ color: '#c9ced6', width: 1 });
+  const rule = 90 + (noteLines.length - 1) * NOTE_STEP;
+  g.line(margin, rule, width - margin, rule).stroke({ color: '#c9ced6', width: 1 });
 }
