@@ -177,7 +177,13 @@ export class CornerEvaluator {
           switches,
           cycles,
           devices,
-          { devices: switchDevices, dvth: mismatch?.switches, shifterSizes: this.shifters ?? undefined, shifterDvth: mismatch?.shifters },
+          {
+            devices: switchDevices,
+            dvth: mismatch?.switches,
+            shifterSizes: this.shifters ?? undefined,
+            shifterDvth: mismatch?.shifters,
+            shape,
+          },
           this.circuitFigures,
         );
         circuitChecks(circuit, design.circuit!.requirements, this.circuitNames!, devices.vdd, this.figureError, checks);

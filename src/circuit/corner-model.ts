@@ -9,6 +9,7 @@
  * worst R_on over the declared signal range, is only the first guess.
  */
 import type { CycleIndex } from '../measure/phases.js';
+import type { EdgeShape } from '../measure/levels.js';
 import type { CornerDevices } from '../process/device.js';
 import { levelAt } from '../schema/level.js';
 import {
@@ -66,6 +67,8 @@ export interface SwitchDrive {
   readonly dvth?: readonly (ArrayLike<number> | undefined)[];
   readonly shifterSizes?: ReadonlyArray<ReadonlyArray<ShifterSizing | null>>;
   readonly shifterDvth?: ArrayLike<number>;
+  /** The delay model's edge shapes at this corner: the latch shifters' input slope (deviceShifter). */
+  readonly shape?: EdgeShape;
 }
 
 /** Conductance of a switch's devices in parallel with n sources at nSource and p sources at pSource, S. */
@@ -142,7 +145,7 @@ export function cornerModel(
     }
     const edgeDevices: ModelEdgeDevice[] = [];
     plan.devices.forEach((device, i) => {
-      const shifter = deviceShifter(plan, i, cycles, drive.devices, drive.shifterSizes?.[k], drive.shifterDvth?.[k] ?? 0);
+      const shifter = deviceShifter(plan, i, cycles, drive.devices, drive.shifterSizes?.[k], drive.shifterDvth?.[k] ?? 0, drive.shape);
       const wave = gateWave(plan, device, cycles, vdd, shifter);
       if (typeof wave === 'string') return;
       edgeDevices.push(edgeDevice(plan, i, devices, wave, drive.dvth?.[k]?.[i] ?? 0));

@@ -67,6 +67,31 @@ export function modelEdgeShape(index: CycleIndex, netlist: CompiledNetlist, timi
   };
 }
 
+/**
+ * A net's edges as the full-swing transitions of ramps with their central slope, the 20-80 %
+ * crossing interval over 0.6 (each edge its own full-swing transition where `shape` cannot say).
+ * A cell that switches mid-swing sees the edge's middle: a tailed edge's 10-90 % time overstates
+ * how fast its input swings there.
+ */
+export function centralTransitions(
+  net: string,
+  cycle: Pick<NetCycle, 'riseTransition' | 'fallTransition'>,
+  shape?: EdgeShape,
+): Pick<NetCycle, 'riseTransition' | 'fallTransition'> {
+  if (!shape) return cycle;
+  const central = (rising: boolean, full: number) => {
+    const low = shape(net, rising, CENTRAL_LOW);
+    const high = shape(net, rising, 1 - CENTRAL_LOW);
+    if (low === null || high === null) return full;
+    const t = Math.abs(high - low) / (1 - 2 * CENTRAL_LOW);
+    return t > 0 && Number.isFinite(t) ? t : full;
+  };
+  return { riseTransition: central(true, cycle.riseTransition), fallTransition: central(false, cycle.fallTransition) };
+}
+
+/** Lower end of an edge's central part, fraction of the swing (the upper is 1 minus it). */
+const CENTRAL_LOW = 0.2;
+
 /** The levels the delay models record an edge's crossings at: 5 % to 95 % of the swing. */
 const SHAPED_LOW = 0.05;
 const SHAPED_HIGH = 0.95;

@@ -5,7 +5,7 @@
  */
 import type { CornerDevices, DeviceAtCorner } from '../process/device.js';
 import type { CycleIndex, NetCycle } from '../measure/phases.js';
-import type { EdgeShape } from '../measure/levels.js';
+import { centralTransitions, type EdgeShape } from '../measure/levels.js';
 import { levelAt } from '../schema/level.js';
 import { bodyThreshold, rampCrossing, triodeResistance, type GateRamp } from './physics.js';
 import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
@@ -150,7 +150,8 @@ export function conductingState(plan: SwitchPlan): StateIndex {
 /**
  * The level shifter's timing for device `i` of a switch at this corner (1 without a shifter, or
  * when its net does not switch: gateWave then says why); `sizes[i]` its transistor sizes, when the
- * deck builds it as the sized latch.
+ * deck builds it as the sized latch; `shape` the delay model's edge shapes, whose central slope
+ * drives the latch (centralTransitions).
  */
 export function deviceShifter(
   plan: SwitchPlan,
@@ -159,12 +160,14 @@ export function deviceShifter(
   devices: CornerDevices,
   sizes?: ReadonlyArray<ShifterSizing | null>,
   shifterDvth = 0,
+  shape?: EdgeShape,
 ): number | ShifterGateTiming {
   const ls = plan.levelShifter;
   if (!ls) return 1;
-  const cycle = cycles.cycle(plan.devices[i]!.net);
+  const net = plan.devices[i]!.net;
+  const cycle = cycles.cycle(net);
   if (typeof cycle === 'string') return 1;
-  return shifterGateTiming(ls, devices, cycle, sizes?.[i] ?? null, shifterDvth);
+  return shifterGateTiming(ls, devices, cycle, sizes?.[i] ?? null, shifterDvth, centralTransitions(net, cycle, shape));
 }
 
 /**
@@ -186,7 +189,14 @@ export function switchConduction(
   const count = plan.devices.length;
   const waves: GateWave[] = [];
   for (let i = 0; i < count; i++) {
-    const wave = gateWave(plan, plan.devices[i]!, cycles, vdd, deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth), shape);
+    const wave = gateWave(
+      plan,
+      plan.devices[i]!,
+      cycles,
+      vdd,
+      deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth, shape),
+      shape,
+    );
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);
     waves.push(wave);
   }

@@ -73,14 +73,16 @@ const current = (d: DeviceAtCorner, vgs: number) => saturationCurrent(d.driveCon
 
 /**
  * Drain current per width, A/m, by the n-th power law's two regions (T. Sakurai and A. R. Newton,
- * IEEE TED 38(4):887-894, 1991): saturated from V_DSAT (the card's saturation ratio of the
- * overdrive) on, (2 - v) v of it below, v = V_DS / V_DSAT.
+ * IEEE TED 38(4):887-894, 1991): the saturation current `saturated` from V_DSAT on, (2 - v) v of
+ * it below, v = V_DS / V_DSAT.
  */
-function drainCurrent(d: DeviceAtCorner, vgs: number, vds: number): number {
-  const saturated = current(d, vgs);
-  const v = vds / (d.saturation * (vgs - d.vth));
+function drainCurrent(saturated: number, vdsat: number, vds: number): number {
+  const v = vds / vdsat;
   return v >= 1 ? saturated : saturated * (2 - v) * v;
 }
+
+/** A device's V_DSAT at `vgs`, V: the card's saturation ratio of the overdrive. */
+const saturationVoltage = (d: DeviceAtCorner, vgs: number) => d.saturation * (vgs - d.vth);
 
 /** Steps of the fight's integral over the latch node's fall. */
 const FIGHT_STEPS = 16;
@@ -89,9 +91,10 @@ const FIGHT_STEPS = 16;
  * How long the set-side pull-down takes to bring its latch node `latch` (F) from the high level to
  * half of it against the cross-coupled p device, s: the integral of C dV / (I_n(V) - I_p(V)) by the
  * midpoint rule. The p device's drain starts at its source, so it opposes nothing at first and
- * only its saturation current by the time the node is far down; the n device stays saturated
- * over the half swing at any supply the card allows. Infinity when the pull-down does not win
- * somewhere on the way (the latch never flips). `pullFactor` scales the pull-down (mismatch).
+ * only its saturation current by the time the node is far down; the n device is saturated over
+ * the half swing on the shipped cards (its triode region is taken all the same). Infinity when
+ * the pull-down does not win somewhere on the way (the latch never flips). `pullFactor` scales
+ * the pull-down (mismatch).
  */
 export function fightTime(
   latch: number,
@@ -104,10 +107,15 @@ export function fightTime(
   pullFactor = 1,
 ): number {
   const step = high / 2 / FIGHT_STEPS;
+  // Both gates are fixed over the swing: only the drains move.
+  const nSat = current(n, vdd);
+  const nVdsat = saturationVoltage(n, vdd);
+  const pSat = current(p, high);
+  const pVdsat = saturationVoltage(p, high);
   let time = 0;
   for (let i = 0; i < FIGHT_STEPS; i++) {
     const v = high - (i + 0.5) * step;
-    const net = pullFactor * pullDown * drainCurrent(n, vdd, v) - latchP * drainCurrent(p, high, high - v);
+    const net = pullFactor * pullDown * drainCurrent(nSat, nVdsat, v) - latchP * drainCurrent(pSat, pVdsat, high - v);
     if (!(net > 0)) return Infinity;
     time += (latch * step) / net;
   }

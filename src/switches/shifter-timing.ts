@@ -72,9 +72,16 @@ export interface ShifterGateTiming {
 /**
  * The shifter's timing at `devices`' corner with its pull-downs' threshold shifted by `dvth` (V).
  * A shifter the deck builds as the sized cross-coupled latch (`size` given) gets the per-edge
- * model of shifter-edges.ts, driven by its net's own edges `cycle`; any other keeps the declared
- * delay and transition carried by `shifterScaleWithMismatch` (the transition, when none is
- * declared, is the net's).
+ * model of shifter-edges.ts, driven by its net's edges `slope`: ramps with their central slope
+ * (measure/levels.ts, centralTransitions), the form the fits' ramps take. Against the deck's shifter
+ * driven by too-tight's own phase net (ngspice-39, 45 corners, 90 edges), a ramp of the net's
+ * 20-80 % slope gives the shifter's delay within -5.9..+1.3 ps (median -0.3); one of its 10-90 %
+ * time made it +2.5..+14.8 ps slow (median +6.8), the net's tail counted as a slow input (the
+ * hand-written deck test/spice/decks/shifter-up-netedge.cir shows it with one such edge). The rule
+ * is for the smooth edges CMOS buffers make: an edge kinked at its 50 % point, fast below and slow
+ * above, reads about 13 ps fast, its slow upper half being where the skewed buffer switches. Any
+ * other shifter keeps the declared delay and transition carried by `shifterScaleWithMismatch`
+ * (the transition, when none is declared, is the net's full-swing `cycle` one).
  */
 export function shifterGateTiming(
   ls: Shifter,
@@ -82,12 +89,13 @@ export function shifterGateTiming(
   cycle: Pick<NetCycle, 'riseTransition' | 'fallTransition'>,
   size: ShifterSizing | null,
   dvth: number,
+  slope: Pick<NetCycle, 'riseTransition' | 'fallTransition'> = cycle,
 ): ShifterGateTiming {
   if (size && latchShifter(ls, devices.vdd)) {
     const invert = ls.invert === true;
     const input = invert
-      ? { rise: cycle.fallTransition, fall: cycle.riseTransition }
-      : { rise: cycle.riseTransition, fall: cycle.fallTransition };
+      ? { rise: slope.fallTransition, fall: slope.riseTransition }
+      : { rise: slope.riseTransition, fall: slope.fallTransition };
     const e = shifterEdges(ls, size, devices, nominalDevices(devices.card), input, dvth);
     const fits = shifterFits(levelAt(ls.low, devices.vdd));
     // A latch that never flips has no edge to shape: its infinite times stay as the ramp gives them.

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { linearCrossings, modelCrossings } from '../../src/measure/levels.js';
+import { centralTransitions, linearCrossings, modelCrossings, type EdgeShape } from '../../src/measure/levels.js';
 import { CycleIndex, type NetCycle } from '../../src/measure/phases.js';
 import { compileNetlist, netId } from '../../src/netlist/netlist.js';
 import type { SimulationResult } from '../../src/sim/engine.js';
@@ -81,5 +81,28 @@ describe('modelCrossings', () => {
   it('keeps linear ramps for a model without edge shapes', () => {
     const c = modelCrossings(a, index, net, { delay: () => 0, transition: () => 0 }, 0.1);
     expect(c).toEqual(linearCrossings(a, 0.1));
+  });
+});
+
+describe('centralTransitions', () => {
+  // An edge's crossings as (fraction, time from 50 %) pairs: a tailed rising edge, 20 % at -90 ps
+  // and 80 % at +150 ps; its falling edge unknown to the shape.
+  const shape: EdgeShape = (net, rising, fraction) => {
+    if (net !== 'p2' || !rising) return null;
+    if (fraction === 0.2) return -90e-12;
+    if (fraction === 0.8) return 150e-12;
+    return null;
+  };
+  const cycle = { riseTransition: 525e-12, fallTransition: 610e-12 };
+
+  it('takes the 20-80 % interval over 0.6, and the full-swing transition where the shape cannot say', () => {
+    const t = centralTransitions('p2', cycle, shape);
+    expectClose(t.riseTransition, 240e-12 / 0.6, 1e-9);
+    expect(t.fallTransition).toBe(610e-12);
+  });
+
+  it('is the cycle itself without a shape, and for a net the shape does not know', () => {
+    expect(centralTransitions('p2', cycle)).toBe(cycle);
+    expect(centralTransitions('p1', cycle, shape)).toEqual(cycle);
   });
 });
