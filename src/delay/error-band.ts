@@ -129,15 +129,19 @@ export function errorBand(model: string, card: string): ErrorBand | undefined {
   return ERROR_BANDS.find((b) => b.model === model && b.card === card);
 }
 
-/** One line for the reports: the band, or that none was measured. */
-export function errorBandText(model: string, card: string): string {
+/**
+ * One line for the reports: the band, or that none was measured; `also` (a clause) joins it before
+ * its closing words (the switch-instant band of a design with handovers, report/model-error.ts).
+ */
+export function errorBandText(model: string, card: string, also?: string): string {
   const band = errorBand(model, card);
   const pct = (v: number) => `${v > 0 ? '+' : ''}${(100 * v).toFixed(1)} %`;
   const measuredGap = GAP_BANDS.some((b) => b.model === model && b.card === card);
   const gap = `${(100 * gapBand(model, card)).toFixed(1)} % of the dead time`;
-  const gapText = measuredGap
-    ? `the gap checks take its measured gap error, ${gap}, off the model's gap`
-    : `its gap error is not measured: the gap checks take the worst measured, ${gap}, off the model's gap`;
+  const gapText =
+    (measuredGap
+      ? `the gap checks take its measured gap error, ${gap}, off the model's gap`
+      : `its gap error is not measured: the gap checks take the worst measured, ${gap}, off the model's gap`) + (also ? `; ${also}` : '');
   if (!band)
     return `model error: not measured for the ${model} model on card ${card}; ${gapText}; run phasegap confirm before trusting a small margin`;
   return `model error: dead time ${pct(band.low)} to ${pct(band.high)} of ngspice (median |error| ${(100 * band.median).toFixed(1)} %, ${band.count} dead times on the shipped designs); ${gapText}; read small margins against it`;

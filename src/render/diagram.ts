@@ -84,6 +84,8 @@ export interface SpanMark {
 /** A handover's span with its check's margin for it (value less the guard or the order's minimum), s. */
 export interface HandoverMark extends SpanMark {
   readonly margin: number;
+  /** What the check takes off the handover besides the guard (the model's measured switch-instant error), s. */
+  readonly modelError: number;
 }
 
 export interface DeadTimeMarks {
@@ -398,6 +400,7 @@ function bbmMarks(resolved: ResolvedDesign, measured: readonly CornerResult[], s
           pass,
           reason: pass ? '' : part.span < 0 ? words.reversed : words.short,
           margin: part.margin,
+          modelError: Math.max(0, (part.need ?? subject.min) - subject.min),
         };
         if (worst === null || mark.margin < worst.margin) worst = mark;
       }

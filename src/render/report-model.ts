@@ -4,11 +4,11 @@
  * Markdown renderers only lay this out.
  */
 import { greatest, least as d3least } from 'd3-array';
-import { errorBandText } from '../delay/error-band.js';
 import type { CornerResult } from '../analysis/evaluate.js';
 import type { FmaxResult } from '../analysis/fmax.js';
 import type { ResolvedDesign } from '../analysis/resolve.js';
 import { checkReport, type CheckReport } from '../report/check-report.js';
+import { hasHandovers, modelErrorText } from '../report/model-error.js';
 import { formatEngineering } from '../units/format.js';
 import { worstCornerIndex } from '../analysis/corner-choice.js';
 import { buildDiagram } from './diagram.js';
@@ -75,7 +75,7 @@ export function marginChartInput(resolved: ResolvedDesign, results: readonly Cor
     title: {
       design: resolved.design.name,
       line: `margin of every check at all ${results.length} corners · clock ${formatEngineering(resolved.design.clock.frequency, 'Hz')}`,
-      note: `${resolved.model.name} delay model · process card ${resolved.card.name} · margin = measured value minus its requirement · ${errorBandText(resolved.model.name, resolved.card.name)}`,
+      note: `${resolved.model.name} delay model · process card ${resolved.card.name} · margin = measured value minus its requirement · ${modelErrorText(resolved.model.name, resolved.card.name, hasHandovers(resolved))}`,
       pass: failing === 0,
       detail: failing === 0 ? `all ${rows.length} checks hold everywhere` : `${failing} of ${rows.length} checks fail somewhere`,
     },

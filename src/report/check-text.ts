@@ -1,5 +1,5 @@
 /** The human rendering of a check report: one row per corner, extremes marked, a summary. */
-import { errorBandText } from '../delay/error-band.js';
+import { modelErrorText } from './model-error.js';
 import { formatEngineering, formatSignedTime, formatTime, nsNumber, psNumber } from '../units/format.js';
 import { leastMargin, type CheckReport } from './check-report.js';
 import { left, right, renderTable, type Column } from './text-table.js';
@@ -63,7 +63,8 @@ export function renderCheckText(report: CheckReport): string {
   out.push(
     `${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`,
   );
-  out.push(errorBandText(report.model, report.process));
+  const handovers = corners.some((c) => c.checks.some((k) => k.kind === 'break-before-make' || k.kind === 'order'));
+  out.push(modelErrorText(report.model, report.process, handovers));
   out.push('');
   out.push(renderTable(columns, rows));
   out.push(`(v smallest, ^ largest in the column; gap = clean gap with neither phase above 10 % of its swing)`);

@@ -198,9 +198,10 @@ describe('phasegap tune', () => {
     const r = cli('tune', design('too-tight'), '--stages', '2,4', '--sizes', '1', '--no-confirm');
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^too-tight-clock: delay chains tuned at 20\.00 MHz over 45 corners/);
-    // The analytic model's measured band on generic180 (src/delay/error-band.ts), read beside the margins.
+    // The analytic model's measured bands on generic180 (src/delay/error-band.ts, and for its
+    // break-before-make pair src/switches/instant-band.ts), read beside the margins.
     expect(r.stdout.split('\n')[1]).toBe(
-      "model error: dead time -2.9 % to +2.4 % of ngspice (median |error| 0.7 %, 900 dead times on the shipped designs); the gap checks take its measured gap error, 2.5 % of the dead time, off the model's gap; read small margins against it",
+      "model error: dead time -2.9 % to +2.4 % of ngspice (median |error| 0.7 %, 900 dead times on the shipped designs); the gap checks take its measured gap error, 2.5 % of the dead time, off the model's gap; the handover checks take its measured switch-instant error, 5.0 % of each handover's path, off the model's handover; read small margins against it",
     );
     expect(r.stdout).toMatch(/current design +2 +1 +40 fF .* FAIL/);
     expect(r.stdout).toMatch(/proposal 1 /);

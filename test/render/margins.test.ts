@@ -13,7 +13,7 @@ import {
   voltTickLabel,
 } from '../../src/render/svg/margins.js';
 import { textWidth } from '../../src/render/svg/text.js';
-import { errorBandText } from '../../src/delay/error-band.js';
+import { modelErrorText } from '../../src/report/model-error.js';
 import { design } from '../helpers.js';
 import { all, parseSvg } from './svg-dom.js';
 
@@ -74,8 +74,8 @@ describe('renderMarginSvg', () => {
     const width = Number(svg.getAttribute('width'));
     const lines = all(svg, '.title-block text.subtitle').slice(1);
     // The note carries the band and its gap sentence in full (it ran off the page on one line).
-    expect(lines.length).toBe(2);
-    expect(lines.map((t) => t.textContent).join(' ')).toContain(errorBandText('analytic', 'generic180'));
+    expect(lines.length).toBe(3);
+    expect(lines.map((t) => t.textContent).join(' ')).toContain(modelErrorText('analytic', 'generic180', true));
     for (const t of lines) expect(16 + textWidth(t.textContent ?? '', 11)).toBeLessThanOrEqual(width - 16);
     // The verdict box ends above the first note line's cap height (11 px text at y 76).
     const box = svg.querySelector('.title-block rect')!;

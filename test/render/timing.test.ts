@@ -36,6 +36,7 @@ function draw(
 }
 
 const ps = (s: number) => `${Math.round(s * 1e12)} ps`;
+const expectCloseSum = (a: number, b: number) => expect(Math.abs(a - b)).toBeLessThan(1e-15);
 
 describe('renderTimingSvg', () => {
   requireTool('rsvg-convert', 'librsvg2-bin');
@@ -107,6 +108,14 @@ describe('renderTimingSvg', () => {
     // The worst handover's margin (gap minus guard) is the check's margin.
     const least = Math.min(...labels.map((l) => Number(l.getAttribute('data-margin'))));
     expect(least).toBeCloseTo(Math.min(...failing.map((c) => c.margin!)), 18);
+    // Its note adds up: the handover less the guard and the model's switch-instant error the check
+    // takes off (the part's need beyond the guard) is the margin shown.
+    const part = failing[0]!.parts!.find((q) => q.margin === failing[0]!.margin)!;
+    const error = part.need! - 50e-12;
+    expect(error).toBeGreaterThan(10e-12);
+    const notes = all(svg, 'text.mark-note').map((n) => n.textContent!);
+    expect(notes).toContain(`margin ${Math.round(part.margin * 1e12)} ps (guard 50 ps + model error ${ps(error)})`);
+    expectCloseSum(part.span! - 50e-12 - error, part.margin);
   });
 
   it('labels every break-before-make handover with the gap between the switches', () => {

@@ -13,7 +13,7 @@ import { MAX_TOP } from '../run-limits.js';
 import { confirmCorners } from '../confirm-run.js';
 import { modelFile } from '../model-file.js';
 import { noteTo, warnTo } from '../warn.js';
-import { errorBandText } from '../../delay/error-band.js';
+import { hasHandovers, modelErrorText } from '../../report/model-error.js';
 import { defineCommand, flagOption, parsedOption, textOption, type CommandOptions } from '../command.js';
 import { SET_OPTION, jsonOption, outOption } from '../common-options.js';
 
@@ -151,7 +151,9 @@ export function runTune(io: Io, designPath: string, options: TuneOptions): numbe
   const report = tuneReport(design.name, design.clock.frequency, resolved.corners.length, result, top, note);
   emit(
     io,
-    options.json ? toJson(report) : renderTuneText(report, designPath, errorBandText(resolved.model.name, card.name)),
+    options.json
+      ? toJson(report)
+      : renderTuneText(report, designPath, modelErrorText(resolved.model.name, card.name, hasHandovers(resolved))),
     options.out,
     inputs,
   );

@@ -718,7 +718,9 @@ function drawBbmMarks(ctx: Context, g: G, { w, scale, layout }: Frame, labels: G
           : bbm.kind === 'order'
             ? `reversed by ${psText(-mark.value)} · `
             : `both conduct for ${psText(-mark.value)} · `;
-      const required = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
+      const limit = bbm.kind === 'order' ? `at least ${psText(bbm.guard)}` : `guard ${psText(bbm.guard)}`;
+      // The band the check takes off too, so the margin adds up from the figures shown.
+      const required = mark.modelError >= 0.05e-12 ? `${limit} + model error ${psText(mark.modelError)}` : limit;
       const note = `${overlap}margin ${signedPs(mark.margin)} (${required})${ctx.d.mode === 'all' ? ` · worst at ${mark.corner}` : ''}`;
       drawNote(labels, note, centre, lineY + 18, scale, mark.pass);
     }
