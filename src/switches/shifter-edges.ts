@@ -15,12 +15,19 @@
  * latch node, the output inverter's p device. Output falling: the complement inverter, the
  * reset-side fight, the latch p device lifting the set-side node, the output inverter's n device.
  * The fits' constants stand for the core-supply inverters and scale with a core inverter's
- * C V / I (n and p together).
+ * C V / I (n and p together). The input ramp reaches the first stage's switching point, not its
+ * 50 % point: the skewed buffer's (weak n, strong p) sits above mid-supply and moves with the
+ * corner's n to p balance (0.475 VDD at fs, 0.627 at sf on generic180), so the ramp's term carries
+ * (point - 0.5) of the ramp as well (switchingPoint). The output stage moves its load across the
+ * output's swing, which grows with the supply.
  *
  * Measured against the deck's shifter at 45 corners (test/switches/shifter-edges.test.ts,
- * too-tight's s_high sizing): delays within 3.8 / 3.4 % median, 16.3 / 9.0 % worst (rise / fall);
- * transitions 9.5 / 4.7 % median, 20.7 / 14.5 % worst (the rising edge short at the hot corners at
- * 1.98 V, where the output p device sees twice the supply, beyond the drive law's fitted range). The
+ * too-tight's s_high sizing): delays within 3.2 / 2.3 % median, 12.3 / 11.5 % worst (rise / fall);
+ * transitions 4.4 / 5.4 % median, 11.3 / 8.4 % worst; the shaped edge's crossings of 5 to 95 %
+ * within -27.9..+7.7 ps (rise, the 95 % point at the 1.98 V hot corners) and -8.6..+9.0 ps (fall).
+ * Without the switching points, the swing and the fits' fast sizings: delays 3.8 / 3.4 % median,
+ * 16.3 / 9.0 % worst, transitions 9.5 / 4.7 % median, 20.7 / 14.5 % worst, crossings down to
+ * -58.6 ps; the rise 7 % fast and the fall 9 % slow at sf/1.98V/125C in too-tight's circuit. The
  * latch node's transition over the output's (riseRatio, fallRatio) sets the output edge's shape
  * (shifter-shape.ts). What the switches' gate ramps use (shifter-timing.ts, `shifterGateTiming`);
  * the break-before-make check reads them against the measured switch-instant band
@@ -138,6 +145,26 @@ function drives(ls: Shifter, n: DeviceAtCorner, p: DeviceAtCorner, vdd: number, 
   };
 }
 
+/** Bisection steps of `switchingPoint`: 2^-24 of the supply. */
+const SWITCHING_STEPS = 24;
+
+/**
+ * An inverter's switching point as a fraction of its supply `vdd`: the input at which its n device
+ * (width `wn`) and p device (`wp`), both saturated, carry the same alpha-power current (common
+ * practice). A ramp into the stage reaches it later than its 50 % point by (point - 0.5) of the
+ * ramp's time when rising, earlier when falling.
+ */
+export function switchingPoint(n: DeviceAtCorner, p: DeviceAtCorner, vdd: number, wn: number, wp: number): number {
+  let low = 0;
+  let high = vdd;
+  for (let i = 0; i < SWITCHING_STEPS; i++) {
+    const v = (low + high) / 2;
+    if (wn * current(n, v) > wp * current(p, vdd - v)) high = v;
+    else low = v;
+  }
+  return (low + high) / 2 / vdd;
+}
+
 /** Capacitance of the latch node and of the skewed buffer's middle node, F. */
 function nodes(size: ShifterSizing, n: DeviceAtCorner, p: DeviceAtCorner): { latch: number; mid: number } {
   const latch =
@@ -162,11 +189,17 @@ function edgesWith(
     return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity, riseRatio: 1, fallRatio: 1 };
   const latchRise = (latch * d.high) / (2 * d.latch * size.latchP);
   const buffer = (mid * d.vdd) / (2 * d.pull * size.bufferN);
+  // The first stages' switching points against the input ramps: the skewed buffer's (weak n,
+  // strong p) on the rising input, the complement inverter's on the falling one.
+  const bufferPoint = switchingPoint(n, p, d.vdd, size.bufferN, size.bufferP);
+  const inverterPoint = switchingPoint(n, p, d.vdd, size.inverterN, 2 * size.inverterN);
   const core = d.core / nominal.core;
-  const outRise = (size.outputStage * nominal.outP) / d.outP;
-  const outFall = (size.outputStage * nominal.outN) / d.outN;
-  const [f0, f1, f2, f3, f4] = fits.fall;
-  const [r0, r1, r2, r3, r4] = fits.rise;
+  // The output stage moves its load across the output's swing: C (high - low) / I, from the sizing's nominal one.
+  const stage = (size.outputStage * (d.high - d.low)) / (nominal.high - nominal.low);
+  const outRise = (stage * nominal.outP) / d.outP;
+  const outFall = (stage * nominal.outN) / d.outN;
+  const [f0, f1, f2, f3, f4, f5] = fits.fall;
+  const [r0, r1, r2, r3, r4, r5] = fits.rise;
   const [tr0, tr1, tr2] = fits.edgeTransitionRise;
   const [tf0, tf1, tf2] = fits.edgeTransitionFall;
   const [xf0, xf1, xf2] = fits.latchFall;
@@ -174,8 +207,8 @@ function edgesWith(
   const riseTransition = tr0 * core + tr1 * outRise + tr2 * fight;
   const fallTransition = tf0 * core + tf1 * outFall + tf2 * latchRise;
   return {
-    rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + r4 * input.rise,
-    fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + f4 * input.fall,
+    rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + (r4 + r5 * (bufferPoint - 0.5)) * input.rise,
+    fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + (f4 + f5 * (0.5 - inverterPoint)) * input.fall,
     riseTransition,
     fallTransition,
     // The latch node falls as the output rises, and rises as it falls.

@@ -201,7 +201,7 @@ describe('phasegap tune', () => {
     // The analytic model's measured bands on generic180 (src/delay/error-band.ts, and for its
     // break-before-make pair src/switches/instant-band.ts), read beside the margins.
     expect(r.stdout.split('\n')[1]).toBe(
-      "model error: dead time -2.9 % to +2.4 % of ngspice (median |error| 0.7 %, 900 dead times on the shipped designs); the gap checks take its measured gap error, 2.5 % of the dead time, off the model's gap; the handover checks take its measured switch-instant error, 5.0 % of each handover's path, off the model's handover; read small margins against it",
+      "model error: dead time -2.9 % to +2.4 % of ngspice (median |error| 0.7 %, 900 dead times on the shipped designs); the gap checks take its measured gap error, 2.5 % of the dead time, off the model's gap; the handover checks take its measured switch-instant error, 3.1 % of each handover's path, off the model's handover; read small margins against it",
     );
     expect(r.stdout).toMatch(/current design +2 +1 +40 fF .* FAIL/);
     expect(r.stdout).toMatch(/proposal 1 /);

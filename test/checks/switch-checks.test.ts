@@ -49,7 +49,7 @@ describe('break-before-make', () => {
     const [d12, d21] = m.deadTimes;
     const expected12 = d12.t50 - offsets12 - 25e-12;
     const expected21 = d21.t50 - offsets21 - 25e-12;
-    // The model's switch-instant error (5.0 % of each handover's path on generic180) comes off each
+    // The model's switch-instant error (3.1 % of each handover's path on generic180) comes off each
     // handover; the path is the dead time plus both crossing offsets.
     const path12 = d12.t50 + offsets12;
     const path21 = d21.t50 + offsets21;
@@ -57,7 +57,7 @@ describe('break-before-make', () => {
     expectClose(handoverPath(a!, b!, 50e-9), path12, 1e-15, 'abs');
     expectClose(handoverPath(b!, a!, 50e-9), path21, 1e-15, 'abs');
     const bbm = r.checks.find((c) => c.kind === 'break-before-make')!;
-    expectClose(bbm.margin!, Math.min(expected12 - 0.05 * path12, expected21 - 0.05 * path21), 1e-15, 'abs');
+    expectClose(bbm.margin!, Math.min(expected12 - 0.031 * path12, expected21 - 0.031 * path21), 1e-15, 'abs');
     expect(bbm.margin!).toBeLessThan(Math.min(d12.t50, d21.t50));
   });
 
@@ -165,9 +165,9 @@ describe('switchChecks: subjects and parts', () => {
         { first: { switch: 'b', event: 'off' }, then: { switch: 'a', event: 'on' } },
       ],
     });
-    // Each part needs the guard plus the model's switch-instant error on its path (5.0 % on generic180).
-    const errAb = 0.05 * handoverPath(a, b, period);
-    const errBa = 0.05 * handoverPath(b, a, period);
+    // Each part needs the guard plus the model's switch-instant error on its path (3.1 % on generic180).
+    const errAb = 0.031 * handoverPath(a, b, period);
+    const errBa = 0.031 * handoverPath(b, a, period);
     expect(bbm.parts).toEqual([
       { margin: handoverGap(a, b, period) - errAb - 25e-12, start: a.off, span: handoverGap(a, b, period), need: 25e-12 + errAb },
       { margin: handoverGap(b, a, period) - errBa - 25e-12, start: b.off, span: handoverGap(b, a, period), need: 25e-12 + errBa },

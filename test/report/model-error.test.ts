@@ -8,17 +8,17 @@ describe('modelErrorText', () => {
   });
 
   it("adds the switch-instant band the handover checks take off, before the line's closing words", () => {
-    // src/switches/instant-band.ts: analytic on generic180 measured to +4.91 %, stated +5.0 %.
+    // src/switches/instant-band.ts: analytic on generic180 measured to +3.03 %, stated +3.1 %.
     const text = modelErrorText('analytic', 'generic180', true);
     expect(text).toContain(
-      "; the handover checks take its measured switch-instant error, 5.0 % of each handover's path, off the model's handover; read small margins against it",
+      "; the handover checks take its measured switch-instant error, 3.1 % of each handover's path, off the model's handover; read small margins against it",
     );
     expect(text.startsWith(errorBandText('analytic', 'generic180').replace(/; read small margins against it$/, ''))).toBe(true);
   });
 
   it('says a model never measured on the card takes the worst measured', () => {
     expect(modelErrorText('table', 'generic180', true)).toContain(
-      "its switch-instant error is not measured: the handover checks take the worst measured, 5.0 % of each handover's path",
+      "its switch-instant error is not measured: the handover checks take the worst measured, 3.1 % of each handover's path",
     );
   });
 });

@@ -51,7 +51,7 @@ describe('cornerPart', () => {
     const bad = resolveYaml(readFileSync(design('too-tight'), 'utf8'));
     const part = cornerPart(checkReport(bad, evaluateAll(bad)));
     expect(part.verdict).toBe('fail');
-    expect(part.reason).toMatch(/^38 of 45 corners pass; limiting: s_high\/s_low break-before-make \+ 50\.0 ps at ff\/1\.62V\/125C$/);
+    expect(part.reason).toMatch(/^38 of 45 corners pass; limiting: s_high\/s_low break-before-make \+ 50\.0 ps at sf\/1\.98V\/125C$/);
   });
 });
 

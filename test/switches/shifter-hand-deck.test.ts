@@ -95,15 +95,15 @@ describe('up-shifter driven by a tailed phase-net edge, against a hand-written n
     expect(Math.abs(slope.riseTransition - 508.3e-12)).toBeLessThan(0.1e-12);
     expect(Math.abs(slope.fallTransition - 545.7e-12)).toBeLessThan(0.1e-12);
     // The model at that slope (the shifter inverts p2: its rise follows p2's fall) against the tailed
-    // drive: 342.3 / 397.9 ps against 330.8 / 374.7 (+3.4 / +6.2 %, the fits' error at this corner).
+    // drive: 330.0 / 383.6 ps against 330.8 / 374.7 (-0.2 / +2.4 %, the fits' error at this corner;
+    // +3.4 / +6.2 % before the first stages' switching points and the output stage's swing).
     const devices = devicesAtCorner(card, { name: '', process: 'ff', vdd: 1.62, temperature: 125, duty: 0.5 });
     const t = shifterGateTiming(shifter, devices, { riseTransition: 623.6e-12, fallTransition: 581.1e-12 }, size, 0, {
       riseTransition: slope.fallTransition,
       fallTransition: slope.riseTransition,
     });
-    expect(t.riseDelay / m.d_rise_t! - 1).toBeGreaterThan(0);
-    expect(t.riseDelay / m.d_rise_t! - 1).toBeLessThan(0.05);
+    expect(Math.abs(t.riseDelay / m.d_rise_t! - 1)).toBeLessThan(0.01);
     expect(t.fallDelay / m.d_fall_t! - 1).toBeGreaterThan(0);
-    expect(t.fallDelay / m.d_fall_t! - 1).toBeLessThan(0.08);
+    expect(t.fallDelay / m.d_fall_t! - 1).toBeLessThan(0.04);
   }, 60000);
 });
