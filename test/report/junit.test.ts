@@ -60,7 +60,7 @@ describe('junitXml', () => {
         .sort(),
     ).toEqual(failing.sort());
     const bbm = suite.cases.find((c) => c.name === 's_high/s_low break-before-make + 50.0 ps')!;
-    expect(bbm.failure).toMatch(/^fails at \d+ of 45 corners; worst margin -\S+ ps at ff\/1\.62V\/125C$/);
+    expect(bbm.failure).toMatch(/^fails at \d+ of 45 corners; worst margin -\S+ ps at sf\/1\.98V\/125C$/);
   });
 
   it('validates against the common JUnit schema, counts failures and skips, and carries the provenance', () => {
