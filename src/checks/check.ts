@@ -24,6 +24,9 @@ export type CheckKind =
 /** Checks whose margin is a voltage: no delay chain changes them, only the switch's drive, terminals or body. */
 export const VOLTAGE_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['off-state', 'on-state', 'stress']);
 
+/** Checks on a handover between two switch instants: the kinds of the `switch-events` subjects (switch-checks.ts). */
+export const HANDOVER_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>(['break-before-make', 'order']);
+
 /** Checks on the circuit the switches serve: margins in V (output, ripple), a fraction (efficiency) or C (lost charge). */
 export const CIRCUIT_KINDS: ReadonlySet<CheckKind> = new Set<CheckKind>([
   'output-min',

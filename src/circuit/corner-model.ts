@@ -145,7 +145,11 @@ export function cornerModel(
     }
     const edgeDevices: ModelEdgeDevice[] = [];
     plan.devices.forEach((device, i) => {
-      const shifter = deviceShifter(plan, i, cycles, drive.devices, drive.shifterSizes?.[k], drive.shifterDvth?.[k] ?? 0, drive.shape);
+      const shifter = deviceShifter(plan, i, cycles, drive.devices, {
+        sizes: drive.shifterSizes?.[k],
+        dvth: drive.shifterDvth?.[k] ?? 0,
+        shape: drive.shape,
+      });
       const wave = gateWave(plan, device, cycles, vdd, shifter);
       if (typeof wave === 'string') return;
       edgeDevices.push(edgeDevice(plan, i, devices, wave, drive.dvth?.[k]?.[i] ?? 0));

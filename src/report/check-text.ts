@@ -4,7 +4,7 @@ import { formatEngineering, formatSignedTime, formatTime, nsNumber, psNumber } f
 import { leastMargin, type CheckReport } from './check-report.js';
 import { left, right, renderTable, type Column } from './text-table.js';
 import { formatMargin } from './margin-format.js';
-import { CIRCUIT_KINDS, compareChecks, type CheckKind } from '../checks/check.js';
+import { CIRCUIT_KINDS, compareChecks, HANDOVER_KINDS, type CheckKind } from '../checks/check.js';
 import { renderCircuitTable } from './circuit-report.js';
 
 const MIN_MARK = ' v';
@@ -63,7 +63,7 @@ export function renderCheckText(report: CheckReport): string {
   out.push(
     `${report.design}: ${report.process} card, ${report.model} model, clock ${formatEngineering(report.clock.frequency, 'Hz')}, ${corners.length} corners`,
   );
-  const handovers = corners.some((c) => c.checks.some((k) => k.kind === 'break-before-make' || k.kind === 'order'));
+  const handovers = corners.some((c) => c.checks.some((k) => HANDOVER_KINDS.has(k.kind)));
   out.push(modelErrorText(report.model, report.process, handovers));
   out.push('');
   out.push(renderTable(columns, rows));

@@ -130,7 +130,14 @@ export function deckQuantities(ctx: QuantityContext): Quantity[] {
     const sigMax = levelAt(plan.signal.max, vdd);
     const ends = sigMin === sigMax ? [sigMin] : [sigMin, sigMax];
     plan.devices.forEach((device, j) => {
-      const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, ctx.shifterSizes?.[i], 0, shape), shape);
+      const wave = gateWave(
+        plan,
+        device,
+        cycles,
+        vdd,
+        deviceShifter(plan, j, cycles, devices, { sizes: ctx.shifterSizes?.[i], shape }),
+        shape,
+      );
       if (typeof wave === 'string') return;
       // A level-shifted gate is the shifter's output.
       const gate = plan.levelShifter ? shifterNode(i, j) : ctx.node(device.net);

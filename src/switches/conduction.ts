@@ -12,7 +12,7 @@ import type { SwitchDevicePlan, SwitchPlan } from './plan.js';
 import { bulkAt, deviceOn } from './bias.js';
 import type { StateIndex } from './nodes.js';
 import { shifterGateTiming, type ShifterGateTiming } from './shifter-timing.js';
-import type { ShifterSizing } from './shifter-sizing.js';
+import { latchShifter, type ShifterSizing } from './shifter-sizing.js';
 
 /** Points across the signal range at which a tgate is evaluated (ends included). */
 const SIGNAL_POINTS = 9;
@@ -147,27 +147,36 @@ export function conductingState(plan: SwitchPlan): StateIndex {
   return 0;
 }
 
+/** What a switch's level shifter reads beyond its corner's devices. */
+export interface ShifterInputs {
+  /** Per device of the switch, its shifter's transistor sizes when the deck builds it as the sized latch. */
+  readonly sizes?: ReadonlyArray<ShifterSizing | null>;
+  /** Threshold shift of the shifter's pull-downs (local mismatch), V. */
+  readonly dvth?: number;
+  /** The delay model's edge shapes at the corner, whose central slope drives the latch (centralTransitions). */
+  readonly shape?: EdgeShape;
+}
+
 /**
  * The level shifter's timing for device `i` of a switch at this corner (1 without a shifter, or
- * when its net does not switch: gateWave then says why); `sizes[i]` its transistor sizes, when the
- * deck builds it as the sized latch; `shape` the delay model's edge shapes, whose central slope
- * drives the latch (centralTransitions).
+ * when its net does not switch: gateWave then says why). Only the sized latch reads its net's
+ * central slope; any other shifter takes the net's full-swing transition.
  */
 export function deviceShifter(
   plan: SwitchPlan,
   i: number,
   cycles: CycleIndex,
   devices: CornerDevices,
-  sizes?: ReadonlyArray<ShifterSizing | null>,
-  shifterDvth = 0,
-  shape?: EdgeShape,
+  inputs: ShifterInputs = {},
 ): number | ShifterGateTiming {
   const ls = plan.levelShifter;
   if (!ls) return 1;
   const net = plan.devices[i]!.net;
   const cycle = cycles.cycle(net);
   if (typeof cycle === 'string') return 1;
-  return shifterGateTiming(ls, devices, cycle, sizes?.[i] ?? null, shifterDvth, centralTransitions(net, cycle, shape));
+  const size = inputs.sizes?.[i] ?? null;
+  const slope = size && latchShifter(ls, devices.vdd) ? centralTransitions(net, cycle, inputs.shape) : cycle;
+  return shifterGateTiming(ls, devices, cycle, size, inputs.dvth ?? 0, slope);
 }
 
 /**
@@ -194,7 +203,7 @@ export function switchConduction(
       plan.devices[i]!,
       cycles,
       vdd,
-      deviceShifter(plan, i, cycles, devices, shifterSizes, shifterDvth, shape),
+      deviceShifter(plan, i, cycles, devices, { sizes: shifterSizes, dvth: shifterDvth, shape }),
       shape,
     );
     if (typeof wave === 'string') return failed(plan, 'unknown', wave);

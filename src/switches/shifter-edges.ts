@@ -60,6 +60,20 @@ export interface ShifterInput {
   readonly fall: number;
 }
 
+/**
+ * The latch fight's two devices at a corner, gates fixed while only the drains move: saturation
+ * currents per width, A/m, and V_DSATs, V.
+ */
+interface FightDevices {
+  readonly high: number;
+  /** The pull-down n with the core supply on its gate, before any mismatch. */
+  readonly nSat: number;
+  readonly nVdsat: number;
+  /** The cross-coupled p device fully on at the high level. */
+  readonly pSat: number;
+  readonly pVdsat: number;
+}
+
 /** The corner's view of the shifter: currents per width, A/m, and levels, V. */
 interface Drives {
   readonly vdd: number;
@@ -69,6 +83,7 @@ interface Drives {
   readonly pull: number;
   readonly pullFactor: number;
   readonly latch: number;
+  readonly fight: FightDevices;
   /** Output inverter: n with high - low on its gate, p with the high level across its gate. */
   readonly outN: number;
   readonly outP: number;
@@ -113,12 +128,23 @@ export function fightTime(
   latchP: number,
   pullFactor = 1,
 ): number {
+  return fightIntegral(latch, fightDevices(n, p, vdd, high), pullDown, latchP, pullFactor);
+}
+
+function fightDevices(n: DeviceAtCorner, p: DeviceAtCorner, vdd: number, high: number): FightDevices {
+  return {
+    high,
+    nSat: current(n, vdd),
+    nVdsat: saturationVoltage(n, vdd),
+    pSat: current(p, high),
+    pVdsat: saturationVoltage(p, high),
+  };
+}
+
+/** fightTime's integral on devices already at their corner. */
+function fightIntegral(latch: number, f: FightDevices, pullDown: number, latchP: number, pullFactor: number): number {
+  const { high, nSat, nVdsat, pSat, pVdsat } = f;
   const step = high / 2 / FIGHT_STEPS;
-  // Both gates are fixed over the swing: only the drains move.
-  const nSat = current(n, vdd);
-  const nVdsat = saturationVoltage(n, vdd);
-  const pSat = current(p, high);
-  const pVdsat = saturationVoltage(p, high);
   let time = 0;
   for (let i = 0; i < FIGHT_STEPS; i++) {
     const v = high - (i + 0.5) * step;
@@ -132,16 +158,18 @@ export function fightTime(
 function drives(ls: Shifter, n: DeviceAtCorner, p: DeviceAtCorner, vdd: number, pullFactor: number): Drives {
   const high = levelAt(ls.high, vdd);
   const low = levelAt(ls.low, vdd);
+  const fight = fightDevices(n, p, vdd, high);
   return {
     vdd,
     high,
     low,
-    pull: current(n, vdd) * pullFactor,
+    pull: fight.nSat * pullFactor,
     pullFactor,
-    latch: current(p, high),
+    latch: fight.pSat,
+    fight,
     outN: current(n, high - low),
-    outP: current(p, high),
-    core: vdd * (1 / current(n, vdd) + 1 / current(p, vdd)),
+    outP: fight.pSat,
+    core: vdd * (1 / fight.nSat + 1 / current(p, vdd)),
   };
 }
 
@@ -183,7 +211,7 @@ function edgesWith(
 ): ShifterEdges {
   const fits = shifterFits(nominal.low).edges;
   const { latch, mid } = nodes(size, n, p);
-  const fight = fightTime(latch, d.high, d.vdd, n, p, size.pullDown, size.latchP, d.pullFactor);
+  const fight = fightIntegral(latch, d.fight, size.pullDown, size.latchP, d.pullFactor);
   // The pull-down no longer wins the fight: the latch never flips.
   if (!Number.isFinite(fight))
     return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity, riseRatio: 1, fallRatio: 1 };

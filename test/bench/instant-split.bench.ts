@@ -45,7 +45,7 @@ for (const name of names!) {
     let k = 0;
     resolved.switches.forEach((plan, i) => {
       plan.devices.forEach((device, j) => {
-        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, sizes?.[i], 0, shape), shape);
+        const wave = gateWave(plan, device, cycles, vdd, deviceShifter(plan, j, cycles, devices, { sizes: sizes?.[i], shape }), shape);
         if (typeof wave === 'string') return;
         const prefix = `${plan.name}${plan.devices.length > 1 ? `.${device.kind}` : ''} `;
         const qs = deck.quantities.filter((q) => q.event?.switch === plan.name && q.label.startsWith(prefix));

@@ -14,7 +14,7 @@ import { createCanvas, round } from './canvas.js';
 import { drawMarker } from './markers.js';
 import { defineFailHatch } from './patterns.js';
 import { drawText, fitText, textWidth } from './text.js';
-import { drawTitleBlock, titleExtraHeight, type TitleInfo } from './title.js';
+import { drawTitleBlock, titleExtraHeight, titleNoteLines, type TitleInfo } from './title.js';
 import { formatSignedTimeShort, prefixedUnits, unitFor } from '../../units/format.js';
 import { runTitle, type RunDrawingOptions } from './metadata.js';
 
@@ -191,7 +191,8 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
     .map((axis) => ({ rows: axis.unit === 'V' ? voltRows : rowsIn(axis.unit), axis }))
     .filter((b, k) => b.rows.length > 0 || (k === 0 && input.rows.length === 0));
   const title = runTitle(input.title, options.run);
-  const start = TOP + titleExtraHeight(title.note, width, MARGIN);
+  const noteLines = titleNoteLines(title.note, width, MARGIN);
+  const start = TOP + titleExtraHeight(noteLines);
   let height = start;
   for (const [k, b] of blocks.entries()) height += (k > 0 ? BLOCK_HEAD : 0) + b.rows.length * rowHeight + AXIS_ROOM;
   const plotEnd = height;
@@ -200,7 +201,7 @@ export function renderMarginSvg(input: MarginChartInput, options: MarginSvgOptio
   const root = canvas.root;
   root.rect(width, height).fill(PAPER);
   const hatch = defineFailHatch(root, prefix);
-  drawTitleBlock(root, title, width, MARGIN);
+  drawTitleBlock(root, title, width, MARGIN, noteLines);
   let top = start;
   for (const [k, block] of blocks.entries()) {
     if (k > 0) top += BLOCK_HEAD;

@@ -38,16 +38,22 @@ export function titleNoteLines(note: string, width: number, margin: number): str
   return wrapLines(note, SIZE.small, width - 2 * margin);
 }
 
-/** How much taller than one note line the title block is, px: what a drawing adds above its content. */
-export function titleExtraHeight(note: string, width: number, margin: number): number {
-  return (titleNoteLines(note, width, margin).length - 1) * NOTE_STEP;
+/** How much taller than one note line a title block with these note lines is, px: what a drawing adds above its content. */
+export function titleExtraHeight(noteLines: readonly string[]): number {
+  return (noteLines.length - 1) * NOTE_STEP;
 }
 
-export function drawTitleBlock(root: Svg, info: TitleInfo, width: number, margin: number): void {
+/** Draws the title block; `noteLines` are its note wrapped (titleNoteLines), when the caller has them already. */
+export function drawTitleBlock(
+  root: Svg,
+  info: TitleInfo,
+  width: number,
+  margin: number,
+  noteLines: readonly string[] = titleNoteLines(info.note, width, margin),
+): void {
   const g = root.group().attr({ class: 'title-block' });
   drawText(g, info.design, margin, 32, { size: SIZE.title, bold: true, className: 'title' });
   drawText(g, info.line, margin, 56, { size: SIZE.subtitle, className: 'subtitle', data: info.data ?? {} });
-  const noteLines = titleNoteLines(info.note, width, margin);
   noteLines.forEach((line, i) => {
     drawText(g, line, margin, 76 + i * NOTE_STEP, { size: SIZE.small, fill: MUTED, className: 'subtitle' });
   });
