@@ -13,7 +13,7 @@
 // less one half; every third run has no capacitors and a wide pull-down, the short-delay sizing),
 // and the output edge's shape with them (each level's time from 50 % in transitions, on the
 // log of the latch node's transition over the output's: shifter-shape.ts): its output is pasted
-// into the fits' `edges`.
+// into the fits' `edges` (PASTE=1 writes them there: paste-edges.mjs).
 // With ROWS=1 it prints each run's estimates and measurements; with CHECK=1 it also prints how far
 // the fits now in the source are from each run.
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -27,6 +27,7 @@ import { nominalCorner, nominalDevices, shifterFits } from '../dist/src/switches
 import { devicesAtCorner, saturationCurrent } from '../dist/src/process/device.js';
 import { fightTime, switchingPoint } from '../dist/src/switches/shifter-edges.js';
 import { leastSquares } from './least-squares.mjs';
+import { pasteEdges } from './paste-edges.mjs';
 import { edgeMeasures, edges, SHAPE_LEVELS, shape, shapeMeasures, simulate } from './shifter-bench.mjs';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
@@ -265,7 +266,12 @@ function edgesFor(group) {
   };
 }
 if (corners) {
-  console.log(JSON.stringify({ grounded: edgesFor(false), floating: edgesFor(true) }, null, 1));
+  const fits = { grounded: edgesFor(false), floating: edgesFor(true) };
+  console.log(JSON.stringify(fits, null, 1));
+  if (process.env.PASTE === '1') {
+    pasteEdges(fits, join(ROOT, 'src', 'switches', 'shifter-sizing.ts'));
+    console.log('pasted into src/switches/shifter-sizing.ts; run npx biome format --write src/switches/shifter-sizing.ts');
+  }
   process.exit(0);
 }
 if (process.env.CHECK)

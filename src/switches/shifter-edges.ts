@@ -201,6 +201,54 @@ function nodes(size: ShifterSizing, n: DeviceAtCorner, p: DeviceAtCorner): { lat
   return { latch, mid };
 }
 
+/**
+ * The first stages' switching points against the input ramps, fractions of the core supply: the
+ * skewed buffer's (weak n, strong p) on the rising input, the complement inverter's on the falling
+ * one. They depend on the corner's devices and the sizing only, not on mismatch (which moves the
+ * pull-downs), so they are formed once per corner and sizing.
+ */
+interface SwitchingPoints {
+  readonly buffer: number;
+  readonly inverter: number;
+}
+
+const pointCache = new WeakMap<CornerDevices, WeakMap<ShifterSizing, SwitchingPoints>>();
+
+function switchingPoints(devices: CornerDevices, size: ShifterSizing): SwitchingPoints {
+  let bySize = pointCache.get(devices);
+  if (!bySize) {
+    bySize = new WeakMap();
+    pointCache.set(devices, bySize);
+  }
+  let points = bySize.get(size);
+  if (!points) {
+    const { n, p, vdd } = devices;
+    points = {
+      buffer: switchingPoint(n, p, vdd, size.bufferN, size.bufferP),
+      inverter: switchingPoint(n, p, vdd, size.inverterN, 2 * size.inverterN),
+    };
+    bySize.set(size, points);
+  }
+  return points;
+}
+
+/** The nominal corner's drives, once per nominal devices and shifter (they carry no mismatch). */
+const nominalCache = new WeakMap<CornerDevices, WeakMap<Shifter, Drives>>();
+
+function nominalDrives(ls: Shifter, nominal: CornerDevices): Drives {
+  let byShifter = nominalCache.get(nominal);
+  if (!byShifter) {
+    byShifter = new WeakMap();
+    nominalCache.set(nominal, byShifter);
+  }
+  let d = byShifter.get(ls);
+  if (!d) {
+    d = drives(ls, nominal.n, nominal.p, nominal.vdd, 1);
+    byShifter.set(ls, d);
+  }
+  return d;
+}
+
 function edgesWith(
   size: ShifterSizing,
   d: Drives,
@@ -208,6 +256,7 @@ function edgesWith(
   n: DeviceAtCorner,
   p: DeviceAtCorner,
   input: ShifterInput,
+  points: SwitchingPoints,
 ): ShifterEdges {
   const fits = shifterFits(nominal.low).edges;
   const { latch, mid } = nodes(size, n, p);
@@ -217,10 +266,6 @@ function edgesWith(
     return { rise: Infinity, fall: Infinity, riseTransition: Infinity, fallTransition: Infinity, riseRatio: 1, fallRatio: 1 };
   const latchRise = (latch * d.high) / (2 * d.latch * size.latchP);
   const buffer = (mid * d.vdd) / (2 * d.pull * size.bufferN);
-  // The first stages' switching points against the input ramps: the skewed buffer's (weak n,
-  // strong p) on the rising input, the complement inverter's on the falling one.
-  const bufferPoint = switchingPoint(n, p, d.vdd, size.bufferN, size.bufferP);
-  const inverterPoint = switchingPoint(n, p, d.vdd, size.inverterN, 2 * size.inverterN);
   const core = d.core / nominal.core;
   // The output stage moves its load across the output's swing: C (high - low) / I, from the sizing's nominal one.
   const stage = (size.outputStage * (d.high - d.low)) / (nominal.high - nominal.low);
@@ -235,8 +280,8 @@ function edgesWith(
   const riseTransition = tr0 * core + tr1 * outRise + tr2 * fight;
   const fallTransition = tf0 * core + tf1 * outFall + tf2 * latchRise;
   return {
-    rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + (r4 + r5 * (bufferPoint - 0.5)) * input.rise,
-    fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + (f4 + f5 * (0.5 - inverterPoint)) * input.fall,
+    rise: r0 * core + r1 * buffer + r2 * fight + r3 * outRise + (r4 + r5 * (points.buffer - 0.5)) * input.rise,
+    fall: f0 * core + f1 * fight + f2 * latchRise + f3 * outFall + (f4 + f5 * (0.5 - points.inverter)) * input.fall,
     riseTransition,
     fallTransition,
     // The latch node falls as the output rises, and rises as it falls.
@@ -261,6 +306,5 @@ export function shifterEdges(
   const { n, p, vdd } = devices;
   const factor = dvth === 0 ? 1 : shiftFactor(dvth / (vdd - n.vth), n.alpha);
   const here = drives(ls, n, p, vdd, factor);
-  const base = drives(ls, nominal.n, nominal.p, nominal.vdd, 1);
-  return edgesWith(size, here, base, n, p, input);
+  return edgesWith(size, here, nominalDrives(ls, nominal), n, p, input, switchingPoints(devices, size));
 }

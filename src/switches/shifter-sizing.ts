@@ -188,7 +188,7 @@ const FLOATING: ShifterFits = {
         [-0.169, -0.0062, -0.0021],
         [-0.2623, -0.0175, -0.0049],
         [-0.3689, -0.0421, -0.0121],
-        // biome-ignore lint/suspicious/noApproximativeNumericConstant: a fitted coefficient, not log10(e)
+        // biome-ignore lint/suspicious/noApproximativeNumericConstant: a fitted coefficient, not Math's constant
         [-0.4343, -0.0657, -0.0193],
       ],
     },
