@@ -5,7 +5,7 @@
  * Run with `npm run deps` (part of `npm test`).
  */
 const LAYERS = [
-  ['errors and units', '^src/(errors\\.ts$|units/)'],
+  ['errors, units and caches', '^src/(errors\\.ts$|pair-cache\\.ts$|units/)'],
   ['schema', '^src/schema/'],
   ['process', '^src/process/'],
   ['cells', '^src/cells/'],

@@ -3,6 +3,7 @@
  * corner the model from that corner's conduction instants, its figures and the output at the
  * lighter end of a load range.
  */
+import { PairCache } from '../pair-cache.js';
 import type { CycleIndex } from '../measure/phases.js';
 import type { CornerDevices } from '../process/device.js';
 import type { Design } from '../schema/design.js';
@@ -41,7 +42,7 @@ export interface CornerCircuit extends CircuitFigures {
  * its two levels, C (high - low)^2.
  */
 /** Down-shifter sizings by card, shifter, gate load and input ramp: each takes about 0.3 ms, and every corner and die asks again. */
-const downSizings = new WeakMap<ProcessCard, WeakMap<Shifter, Map<string, DownShifterSizing>>>();
+const downSizings = new PairCache<ProcessCard, Shifter, Map<string, DownShifterSizing>>();
 
 /**
  * The down-shifter's sizing for a ramp rounded to the picosecond (its fits take the ramp with a
@@ -49,16 +50,7 @@ const downSizings = new WeakMap<ProcessCard, WeakMap<Shifter, Map<string, DownSh
  * Monte Carlo run share a handful of sizings.
  */
 function downSizing(ls: Shifter, card: ProcessCard, load: number, input: number): DownShifterSizing {
-  let byShifter = downSizings.get(card);
-  if (!byShifter) {
-    byShifter = new WeakMap();
-    downSizings.set(card, byShifter);
-  }
-  let sizes = byShifter.get(ls);
-  if (!sizes) {
-    sizes = new Map();
-    byShifter.set(ls, sizes);
-  }
+  const sizes = downSizings.get(card, ls, () => new Map());
   const ramp = Math.round(input * 1e12) * 1e-12;
   const key = `${load}|${ramp}`;
   let size = sizes.get(key);

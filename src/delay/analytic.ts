@@ -24,6 +24,7 @@
  * each carries when the card's stacks have junctions (spice.stackJunctions).
  */
 import { inputError } from '../errors.js';
+import { PairCache } from '../pair-cache.js';
 import { CELLS, cellWidths } from '../cells/library.js';
 import { shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
 import { unitWidths } from '../cells/card-widths.js';
@@ -326,16 +327,12 @@ const NODE_GATE = 0.5 * CHANNEL_SHARE;
  */
 const TURNING_ON = CHANNEL_SHARE / 3;
 
-const widthCache = new WeakMap<CompiledNetlist, WeakMap<ProcessCard, PullWidths>>();
+const widthCache = new PairCache<CompiledNetlist, ProcessCard, PullWidths>();
 
-function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
-  let byCard = widthCache.get(netlist);
-  if (!byCard) {
-    byCard = new WeakMap();
-    widthCache.set(netlist, byCard);
-  }
-  const cached = byCard.get(card);
-  if (cached) return cached;
+const pullWidths = (netlist: CompiledNetlist, card: ProcessCard): PullWidths =>
+  widthCache.get(netlist, card, () => makePullWidths(netlist, card));
+
+function makePullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
   const unit = unitWidths(card);
   const junctions = card.spice?.stackJunctions === true;
   const n = netlist.gateCount;
@@ -367,7 +364,6 @@ function pullWidths(netlist: CompiledNetlist, card: ProcessCard): PullWidths {
       entry.pinLagDown[g]! += TURNING_ON * fan.wp * card.p.cgate;
     }
   }
-  byCard.set(card, entry);
   return entry;
 }
 

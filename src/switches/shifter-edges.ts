@@ -34,6 +34,7 @@
  * (instant-band.ts), since the generator's own edges are optimistic at the hot corners.
  */
 import { saturationCurrent, shiftFactor, type CornerDevices, type DeviceAtCorner } from '../process/device.js';
+import { PairCache } from '../pair-cache.js';
 import { levelAt } from '../schema/level.js';
 import type { SwitchPlan } from './plan.js';
 import { shifterFits, type ShifterSizing } from './shifter-sizing.js';
@@ -212,42 +213,21 @@ interface SwitchingPoints {
   readonly inverter: number;
 }
 
-const pointCache = new WeakMap<CornerDevices, WeakMap<ShifterSizing, SwitchingPoints>>();
+const pointCache = new PairCache<CornerDevices, ShifterSizing, SwitchingPoints>();
 
 function switchingPoints(devices: CornerDevices, size: ShifterSizing): SwitchingPoints {
-  let bySize = pointCache.get(devices);
-  if (!bySize) {
-    bySize = new WeakMap();
-    pointCache.set(devices, bySize);
-  }
-  let points = bySize.get(size);
-  if (!points) {
-    const { n, p, vdd } = devices;
-    points = {
-      buffer: switchingPoint(n, p, vdd, size.bufferN, size.bufferP),
-      inverter: switchingPoint(n, p, vdd, size.inverterN, 2 * size.inverterN),
-    };
-    bySize.set(size, points);
-  }
-  return points;
+  const { n, p, vdd } = devices;
+  return pointCache.get(devices, size, () => ({
+    buffer: switchingPoint(n, p, vdd, size.bufferN, size.bufferP),
+    inverter: switchingPoint(n, p, vdd, size.inverterN, 2 * size.inverterN),
+  }));
 }
 
 /** The nominal corner's drives, once per nominal devices and shifter (they carry no mismatch). */
-const nominalCache = new WeakMap<CornerDevices, WeakMap<Shifter, Drives>>();
+const nominalCache = new PairCache<CornerDevices, Shifter, Drives>();
 
-function nominalDrives(ls: Shifter, nominal: CornerDevices): Drives {
-  let byShifter = nominalCache.get(nominal);
-  if (!byShifter) {
-    byShifter = new WeakMap();
-    nominalCache.set(nominal, byShifter);
-  }
-  let d = byShifter.get(ls);
-  if (!d) {
-    d = drives(ls, nominal.n, nominal.p, nominal.vdd, 1);
-    byShifter.set(ls, d);
-  }
-  return d;
-}
+const nominalDrives = (ls: Shifter, nominal: CornerDevices): Drives =>
+  nominalCache.get(nominal, ls, () => drives(ls, nominal.n, nominal.p, nominal.vdd, 1));
 
 function edgesWith(
   size: ShifterSizing,
