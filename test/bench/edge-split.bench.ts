@@ -38,6 +38,7 @@ const { design, card, cardDir } = loadDesign(join(designs, `${name}.yaml`));
 const resolved = resolveDesign(design, card, analyticModel);
 const netlist = resolved.netlist;
 const nodes = spiceNodeNames(netlist.netNames);
+const clock = netlist.netNames[netlist.clock]!;
 const corners = resolved.corners.map((c) => c.corner).filter((c) => cornerList.split(',').includes(c.name));
 const jobs = corners.map((corner) => {
   const deck = generatorDeck(resolved, corner, { modelPath: modelFile(card, cardDir) });
@@ -49,7 +50,7 @@ const jobs = corners.map((corner) => {
   const edges: Edge[] = [];
   for (const net of netlist.netNames) {
     const cycle = cycles.cycle(net);
-    if (typeof cycle === 'string' || net === netlist.netNames[netlist.clock]) continue;
+    if (typeof cycle === 'string' || net === clock) continue;
     const both: Array<[boolean, number, number]> = [
       [true, cycle.rise, cycle.riseTransition],
       [false, cycle.fall, cycle.fallTransition],
@@ -63,7 +64,7 @@ const jobs = corners.map((corner) => {
         label: `${net} ${rising ? 'rise' : 'fall'}`,
         model: at - clockEdge,
         trig: {
-          node: nodes.get(netlist.netNames[netlist.clock]!)!,
+          node: nodes.get(clock)!,
           level: 0.5 * corner.vdd,
           rising: true,
           td: Math.max(0, clockEdge - 0.25 * window.duty * T),
@@ -80,13 +81,21 @@ const outputs = runDecks(
   jobs.map((j) => ({ name: j.corner.name, text: j.text })),
   { parallel: 2 },
 );
+// Each gate output's input nets, once for the netlist.
+const inputsOf = new Map<string, string[]>();
+for (let g = 0; g < netlist.gateCount; g++) {
+  const pins = netlist.gateInputs.subarray(netlist.gateInputStart[g], netlist.gateInputStart[g + 1]);
+  inputsOf.set(
+    netlist.netNames[netlist.gateOutput[g]!]!,
+    Array.from(pins, (id) => netlist.netNames[id]!),
+  );
+}
 const ps = (x: number | null) => (x === null ? '    n/a' : (x * 1e12).toFixed(1).padStart(8));
 jobs.forEach((job, i) => {
   const parsed = parseSimulatorOutput(
     outputs[i]!.output,
     job.edges.map((e) => e.q.name),
   );
-  const clock = netlist.netNames[netlist.clock]!;
   // The clock's edges are the reference: no error by definition.
   const clockRows = [0, job.corner.duty].map((at, k) => ({
     q: { label: `${clock} ${k === 0 ? 'rise' : 'fall'}`, model: at * job.period },
@@ -104,20 +113,9 @@ jobs.forEach((job, i) => {
     }),
   ].sort((a, b) => a.q.model - b.q.model);
   // A stage's own error: its edge's less its trigger's (the latest input edge before it).
-  const driverOf = new Map<string, number>();
-  netlist.netNames.forEach((net, id) => {
-    for (let g = 0; g < netlist.gateCount; g++) if (netlist.gateOutput[g] === id) driverOf.set(net, g);
-  });
   for (const [k, r] of rows.entries()) {
     if (r.net === clock) continue;
-    const gate = driverOf.get(r.net);
-    const inputs =
-      gate === undefined
-        ? []
-        : Array.from(
-            netlist.gateInputs.subarray(netlist.gateInputStart[gate], netlist.gateInputStart[gate + 1]),
-            (id) => netlist.netNames[id]!,
-          );
+    const inputs = inputsOf.get(r.net) ?? [];
     const trigger = rows
       .slice(0, k)
       .reverse()
