@@ -55,13 +55,13 @@ describe('phasegap mc seeds, threads, timings and replay', () => {
     expect(withoutRunRecord(again.stdout)).toBe(withoutRunRecord(one.stdout));
     const other = await cliAsync('mc', design('doubler'), '--samples', '200', '--seed', '4', '--workers', '1', '--json');
     expect(withoutRunRecord(other.stdout)).not.toBe(withoutRunRecord(one.stdout));
-    // Four runs of 9000 evaluations each: 27-31 s on this 2-core machine beside other work, past the
-    // system tests' 30 s. Speed is measured by npm run bench, not by this test's time.
-  }, 120000);
+    // Four runs of 9000 evaluations each: 27-31 s on this 2-core machine beside other work (measured).
+    // The system project's 120 s limit is a hang guard; npm run bench measures speed.
+  });
 
   it('prints its setup, evaluation and report times on stderr with --timings, and leaves the report alone', async () => {
-    const plain = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json');
-    const timed = await cliAsync('mc', design('doubler'), '--samples', '300', '--seed', '3', '--workers', '1', '--json', '--timings');
+    const plain = await cliAsync('mc', design('doubler'), '--samples', '100', '--seed', '3', '--workers', '1', '--json');
+    const timed = await cliAsync('mc', design('doubler'), '--samples', '100', '--seed', '3', '--workers', '1', '--json', '--timings');
     expect(withoutRunRecord(timed.stdout)).toBe(withoutRunRecord(plain.stdout));
     expect(plain.stderr).toBe('');
     const m =
@@ -69,10 +69,10 @@ describe('phasegap mc seeds, threads, timings and replay', () => {
         timed.stderr,
       );
     expect(m).not.toBeNull();
-    // 300 dies at each of the demo's 45 corners.
-    expect(Number(m![3])).toBe(300 * 45);
+    // 100 dies at each of the demo's 45 corners.
+    expect(Number(m![3])).toBe(100 * 45);
     // The rate is computed from the unrounded time; the printed time is rounded to 1 ms.
-    expectClose(Number(m![4]), (300 * 45) / Number(m![2]), 0.05);
+    expectClose(Number(m![4]), (100 * 45) / Number(m![2]), 0.05);
   });
 
   it('replays the worst die: its least margin at that corner equals the one Monte Carlo found', async () => {

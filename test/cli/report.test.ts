@@ -250,7 +250,7 @@ describe('phasegap report', () => {
       `<li data-part="simulator agreement" data-verdict="${part.verdict}">simulator agreement: ✓ pass: ${part.reason}</li>`,
     );
     expect(run.code).toBe(confirm.code);
-  }, 120_000);
+  });
 
   it('writes Markdown with the SVGs beside it with --format md', async () => {
     const dir = tempDir();

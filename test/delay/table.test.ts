@@ -204,5 +204,5 @@ describe('characterized tables (ngspice, Debian package ngspice)', () => {
       r.stderr.match(/warning: table model: u_buf1_3 \(INV\) drives [\d.]+ fF per characterized size, outside the table's/g)?.length,
     ).toBe(1);
     expect(r.stdout).toMatch(/table model/);
-  }, 120_000);
+  });
 });

@@ -140,7 +140,7 @@ describe('report in headless Chromium', () => {
       } finally {
         await page.close();
       }
-    }, 120_000);
+    });
   }
 
   it('heads a page where Monte Carlo fails with FAIL and shows each part beneath it', async () => {
@@ -367,7 +367,7 @@ describe('report in headless Chromium', () => {
     } finally {
       await page.close();
     }
-  }, 120_000);
+  });
 
   it('doubler-pump: lays out the circuit rows, the circuit table and the frequency chart with no label overlap, and prints them', async () => {
     const { page, problems } = await openReport('doubler-pump', ['--no-fmax', '--no-tune']);
@@ -433,7 +433,7 @@ describe('report in headless Chromium', () => {
     } finally {
       await page.close();
     }
-  }, 120_000);
+  });
 
   it('prints as an A4 portrait document: a page per section, every drawing laid out', async () => {
     const { page, problems } = await openReport('doubler', ['--no-fmax']);
@@ -471,5 +471,5 @@ describe('report in headless Chromium', () => {
     } finally {
       await page.close();
     }
-  }, 120_000);
+  });
 });

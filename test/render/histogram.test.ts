@@ -211,5 +211,5 @@ describe('histograms from the CLI', () => {
     expect((await cliAsync('report', design('doubler'), '--mc', '60', '--no-fmax', '--format', 'md', '-o', md)).code).toBe(0);
     expect(existsSync(join(dir, 'r-histogram.svg'))).toBe(true);
     expect(readFileSync(md, 'utf8')).toContain('](r-histogram.svg)');
-  }, 120_000);
+  });
 });

@@ -125,5 +125,5 @@ describe('hand-written ideal doubler deck (test/spice/decks/ideal-doubler.cir) a
     expect(Math.abs(figures.efficiency! - simEfficiency) / simEfficiency).toBeLessThanOrEqual(0.1);
     // Both near the slow-switching limit 2 VDD - I/(f C) = 3.1 V (charge balance, common practice).
     expect(Math.abs(m.vout_avg! - (2 * VDD - LOAD / (F * 10e-12)))).toBeLessThan(0.02);
-  }, 120_000);
+  });
 });
