@@ -37,7 +37,8 @@ beforeAll(async () => {
       '--no-first-run',
     ],
   });
-});
+  // A cold start of the browser on a busy machine can pass vitest's 10 s hook limit; this one stops a hang.
+}, 60_000);
 
 afterAll(async () => {
   await browser?.close();
