@@ -232,7 +232,8 @@ function checkLoops(net: CompiledNetlist, where: IssuePath): void {
   }
 }
 
-function gateInputsOf(net: CompiledNetlist, g: number): number[] {
+/** The input net ids of gate `g`, in pin order. */
+export function gateInputsOf(net: CompiledNetlist, g: number): number[] {
   return Array.from(net.gateInputs.subarray(net.gateInputStart[g]!, net.gateInputStart[g + 1]!));
 }
 

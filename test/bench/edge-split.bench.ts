@@ -20,6 +20,7 @@ import { modelFile } from '../../src/cli/model-file.js';
 import { CycleIndex } from '../../src/measure/phases.js';
 import { wrapTime } from '../../src/measure/wrap-time.js';
 import { spiceNodeNames } from '../../src/spice/names.js';
+import { gateInputsOf } from '../../src/netlist/netlist.js';
 
 interface Edge {
   readonly q: Quantity;
@@ -84,10 +85,9 @@ const outputs = runDecks(
 // Each gate output's input nets, once for the netlist.
 const inputsOf = new Map<string, string[]>();
 for (let g = 0; g < netlist.gateCount; g++) {
-  const pins = netlist.gateInputs.subarray(netlist.gateInputStart[g], netlist.gateInputStart[g + 1]);
   inputsOf.set(
     netlist.netNames[netlist.gateOutput[g]!]!,
-    Array.from(pins, (id) => netlist.netNames[id]!),
+    gateInputsOf(netlist, g).map((id) => netlist.netNames[id]!),
   );
 }
 const ps = (x: number | null) => (x === null ? '    n/a' : (x * 1e12).toFixed(1).padStart(8));
