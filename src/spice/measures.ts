@@ -81,12 +81,16 @@ export interface QuantityContext {
   readonly timing?: GateTiming;
 }
 
+/** Model time -> deck time: the model's reported period (from `modelWindowStart`) maps onto the deck's window. */
+export function modelToDeck(window: DeckWindow, modelWindowStart: number): (t: number) => number {
+  return (t) => window.start + wrapTime(t - modelWindowStart, window.period);
+}
+
 export function deckQuantities(ctx: QuantityContext): Quantity[] {
   const { measurement: m, window, devices } = ctx;
   const vdd = devices.vdd;
   const T = window.period;
-  // Model time -> deck time: the model's reported period maps onto the deck's window.
-  const toDeck = (t: number) => window.start + wrapTime(t - ctx.result.windowStart, T);
+  const toDeck = modelToDeck(window, ctx.result.windowStart);
   const crossing = (net: string, level: number, rising: boolean, deckTime: number): Crossing => ({
     node: ctx.node(net),
     level,

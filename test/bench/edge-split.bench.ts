@@ -15,7 +15,7 @@ import { analyticModel } from '../../src/delay/analytic.js';
 import { generatorDeck } from '../../src/spice/deck.js';
 import { parseSimulatorOutput } from '../../src/spice/results.js';
 import { runDecks } from '../../src/spice/runner.js';
-import { anchorBefore, measureLine, type Quantity } from '../../src/spice/measures.js';
+import { anchorBefore, measureLine, modelToDeck, type Quantity } from '../../src/spice/measures.js';
 import { modelFile } from '../../src/cli/model-file.js';
 import { CycleIndex } from '../../src/measure/phases.js';
 import { wrapTime } from '../../src/measure/wrap-time.js';
@@ -47,7 +47,7 @@ const jobs = corners.map((corner) => {
   const cycles = new CycleIndex(simulation, netlist);
   const { window } = deck;
   const T = window.period;
-  const toDeck = (t: number) => window.start + wrapTime(t - simulation.windowStart, T);
+  const toDeck = modelToDeck(window, simulation.windowStart);
   const edges: Edge[] = [];
   for (const net of netlist.netNames) {
     const cycle = cycles.cycle(net);
